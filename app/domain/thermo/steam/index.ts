@@ -1,0 +1,5 @@
+// Water and steam (IAPWS-IF97 regions 1-4) and Rankine cycles. Public entry point.
+// Units at this API are SI (Pa, K, J/kg, J/(kg K), m^3/kg); see properties.ts.
+export * from './errors.ts'
+export * from './properties.ts'
+export * from './rankine.ts'
