@@ -34,7 +34,7 @@ import { fail, ok, SteamRangeError } from './errors.ts'
 import type { SteamError, SteamResult } from './errors.ts'
 
 export type SteamRegion = 1 | 2 | 3 | 4
-export type SteamPhase = 'liquid' | 'vapour' | 'supercritical' | 'two-phase'
+export type SteamPhase = 'liquid' | 'vapour' | 'supercritical' | 'two-phase' | 'saturated liquid' | 'saturated vapour'
 
 /** A state of water or steam, in SI units (see the header of this file). */
 export interface SteamState {
@@ -55,7 +55,8 @@ export interface SteamState {
   u: number
   /** Specific entropy, J/(kg K). */
   s: number
-  /** Specific isobaric heat capacity, J/(kg K); null for a two-phase state. */
+  /** Specific isobaric heat capacity, J/(kg K); null for a two-phase mixture (0 < x < 1); for
+   *  x = 0 or 1 the value of the saturated liquid or vapour. (Same for cv and w.) */
   cp: number | null
   /** Specific isochoric heat capacity, J/(kg K); null for a two-phase state. */
   cv: number | null
@@ -223,6 +224,11 @@ function satProps(p: number, T: number): { liq: If97Props; vap: If97Props } | nu
 }
 
 function mix(p: number, T: number, liq: If97Props, vap: If97Props, x: number): SteamState {
+  if (x === 0 || x === 1) {
+    // Saturated liquid / vapour: the single-phase properties on the saturation line.
+    const st = toSI(x === 0 ? liq : vap, x === 0 ? 'saturated liquid' : 'saturated vapour')
+    return { ...st, region: 4, p: p * 1e6, T, x }
+  }
   const v = liq.v + x * (vap.v - liq.v)
   const h = liq.h + x * (vap.h - liq.h)
   const s = liq.s + x * (vap.s - liq.s)
