@@ -110,3 +110,8 @@ export const mathCore: MathCore = captured
 export const lockedMathInstanceForTests: { readonly [name: string]: unknown } = math as unknown as {
   readonly [name: string]: unknown
 }
+
+/** Whether `name` is a function or constant of mathjs (used to avoid quoting such names back). */
+export function isMathjsName(name: string): boolean {
+  return typeof name === 'string' && name in math
+}

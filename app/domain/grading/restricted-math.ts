@@ -424,6 +424,8 @@ export interface ParseTextOptions {
   readonly allowConstants: boolean
   readonly unitsOnly: boolean
   readonly maxLength: number
+  /** The text is already normalised (normalizeTypography ran); do not run it again. */
+  readonly alreadyNormalized?: boolean
 }
 
 export interface ParsedText {
@@ -432,18 +434,22 @@ export interface ParsedText {
   readonly facts: TreeFacts
 }
 
+/** A name the slash rule may group: a unit that no variable or constant shadows. */
+export function isUnitNameFor(name: string, variables: ReadonlySet<string>, allowConstants: boolean): boolean {
+  return !variables.has(name) && !(allowConstants && Object.hasOwn(ALLOWED_CONSTANTS, name)) && isKnownUnitName(name)
+}
+
 /** Checks length, normalises typography, parses with the captured mathjs parse, validates. */
 export function parseRestrictedText(text: string, options: ParseTextOptions): ParsedText {
   if (text.length > options.maxLength) throw new RestrictedError('too-long')
   if (text.trim() === '') throw new RestrictedError('empty')
-  const isUnitName = (name: string): boolean =>
-    !options.variables.has(name) &&
-    !(options.allowConstants && Object.hasOwn(ALLOWED_CONSTANTS, name)) &&
-    isKnownUnitName(name)
-  const normalized = normalizeTypography(text, {
-    isUnitName,
-    letterXIsTimes: !options.variables.has('x') && !options.variables.has('X'),
-  })
+  const isUnitName = (name: string): boolean => isUnitNameFor(name, options.variables, options.allowConstants)
+  const normalized = options.alreadyNormalized
+    ? text.trim()
+    : normalizeTypography(text, {
+        isUnitName,
+        letterXIsTimes: !options.variables.has('x') && !options.variables.has('X'),
+      })
   if (normalized === '') throw new RestrictedError('empty')
   // mathjs comments (# …) and string literals have no place in a value
   if (/[#"'`]/.test(normalized)) throw new RestrictedError('syntax')
