@@ -1,0 +1,162 @@
+/**
+ * The solution as JSON: every quantity as { value, unit } in SI, the convention stated.
+ * Per-unit-amount values always; totals (× amount) when the amount is known.
+ */
+import { P_REF, T_REF } from './constants.ts'
+import { CONVENTIONS, workIn } from './conventions.ts'
+import type { Convention, ConventionStatement } from './conventions.ts'
+import type { CycleSolution, SolveError } from './cycle.ts'
+import type { Quantity } from './units.ts'
+
+const q = (value: number, unit: string): Quantity => ({ value, unit })
+
+export interface FormattedState {
+  readonly name: string
+  readonly p: Quantity
+  readonly T: Quantity
+  readonly v: Quantity
+  readonly u: Quantity
+  readonly h: Quantity
+  readonly s: Quantity
+  readonly V?: Quantity
+  readonly U?: Quantity
+  readonly H?: Quantity
+  readonly S?: Quantity
+}
+
+export interface FormattedEnergies {
+  readonly q: Quantity
+  readonly w: Quantity
+  readonly dU: Quantity
+  readonly dH: Quantity
+  readonly dS: Quantity
+}
+
+export interface FormattedStep extends FormattedEnergies {
+  readonly from: number
+  readonly to: number
+  readonly process: string
+  readonly label?: string
+  readonly internal: boolean
+  readonly total?: FormattedEnergies
+}
+
+export interface FormattedTotals {
+  readonly purpose: string
+  readonly heatIn: Quantity
+  readonly heatOut: Quantity
+  readonly netWork: Quantity
+  readonly efficiency: Quantity | null
+  readonly copRefrigerator: Quantity | null
+  readonly copHeatPump: Quantity | null
+  readonly meanEffectivePressure: Quantity | null
+  readonly backWorkRatio: Quantity | null
+  readonly carnotBound: Quantity
+  readonly Tmin: Quantity
+  readonly Tmax: Quantity
+  readonly entropyGenerated: Quantity | null
+  readonly closure: { readonly dU: Quantity; readonly dS: Quantity }
+  readonly total?: { readonly heatIn: Quantity; readonly heatOut: Quantity; readonly netWork: Quantity; readonly entropyGenerated: Quantity | null }
+}
+
+export interface FormattedSolution {
+  readonly ok: true
+  readonly convention: ConventionStatement
+  readonly system: 'closed' | 'flow'
+  readonly gas: { readonly id: string; readonly label: string; readonly basis: 'mole' | 'mass'; readonly R: Quantity; readonly source: string }
+  readonly reference: string
+  readonly amount: Quantity | null
+  readonly states: readonly FormattedState[]
+  readonly steps: readonly FormattedStep[]
+  readonly totals: FormattedTotals
+  readonly notice: string
+}
+
+export const TEACHING_NOTICE =
+  'Cyclewright is a teaching tool: ideal-gas models with textbook data. Do not use these numbers for design; defer to the applicable codes and licensed engineering practice.'
+
+export function formatSolution(sol: CycleSolution, convention: Convention): FormattedSolution {
+  const per = sol.gas.basis === 'mass' ? 'kg' : 'mol'
+  const n = sol.amount
+  const E = `J/${per}`
+  const S = `J/(${per} K)`
+  const states = sol.states.map((s): FormattedState => {
+    const base = { name: s.name, p: q(s.p, 'Pa'), T: q(s.T, 'K'), v: q(s.v, `m^3/${per}`), u: q(s.u, E), h: q(s.h, E), s: q(s.s, S) }
+    return n === null ? base : { ...base, V: q(s.v * n, 'm^3'), U: q(s.u * n, 'J'), H: q(s.h * n, 'J'), S: q(s.s * n, 'J/K') }
+  })
+  const steps = sol.steps.map((st): FormattedStep => {
+    const w = workIn(convention, st.w)
+    const base = { from: st.from, to: st.to, process: st.process, ...(st.label ? { label: st.label } : {}), internal: st.internal, q: q(st.q, E), w: q(w, E), dU: q(st.du, E), dH: q(st.dh, E), dS: q(st.ds, S) }
+    return n === null ? base : { ...base, total: { q: q(st.q * n, 'J'), w: q(w * n, 'J'), dU: q(st.du * n, 'J'), dH: q(st.dh * n, 'J'), dS: q(st.ds * n, 'J/K') } }
+  })
+  const t = sol.totals
+  const net = workIn(convention, t.wNet)
+  const totals: FormattedTotals = {
+    purpose: t.purpose,
+    heatIn: q(t.qIn, E),
+    heatOut: q(t.qOut, E),
+    netWork: q(net, E),
+    efficiency: t.efficiency === null ? null : q(t.efficiency, '1'),
+    copRefrigerator: t.copRefrigerator === null ? null : q(t.copRefrigerator, '1'),
+    copHeatPump: t.copHeatPump === null ? null : q(t.copHeatPump, '1'),
+    meanEffectivePressure: t.mep === null ? null : q(t.mep, 'Pa'),
+    backWorkRatio: t.backWorkRatio === null ? null : q(t.backWorkRatio, '1'),
+    carnotBound: q(t.carnotBound, '1'),
+    Tmin: q(t.Tmin, 'K'),
+    Tmax: q(t.Tmax, 'K'),
+    entropyGenerated: t.entropyGenerated === null ? null : q(t.entropyGenerated, S),
+    closure: { dU: q(t.duCycle, E), dS: q(t.dsCycle, S) },
+    ...(n === null
+      ? {}
+      : {
+          total: {
+            heatIn: q(t.qIn * n, 'J'),
+            heatOut: q(t.qOut * n, 'J'),
+            netWork: q(net * n, 'J'),
+            entropyGenerated: t.entropyGenerated === null ? null : q(t.entropyGenerated * n, 'J/K'),
+          },
+        }),
+  }
+  return {
+    ok: true,
+    convention: CONVENTIONS[convention],
+    system: sol.system,
+    gas: { id: sol.gas.id, label: sol.gas.label, basis: sol.gas.basis, R: q(sol.gas.R, S), source: sol.gas.source },
+    reference: sol.gas.constantCp
+      ? `h = 0 and s = 0 at ${T_REF} K and ${P_REF / 1e5} bar; u = h − R·T`
+      : `NASA/JANAF convention: h includes the enthalpy of formation at ${T_REF} K, s is the third-law entropy at p° = ${P_REF / 1e5} bar; u = h − R·T`,
+    amount: n === null ? null : q(n, per),
+    states,
+    steps,
+    totals,
+    notice: TEACHING_NOTICE,
+  }
+}
+
+export interface FormattedError {
+  readonly ok: false
+  readonly error: SolveError
+}
+
+/**
+ * Read one number from a formatted solution by a dotted path with 1-based indices:
+ * 'totals.netWork', 'totals.efficiency', 'states.3.T', 'steps.2.q', 'steps.2.total.w',
+ * 'totals.total.heatIn'. Returns null when the path names nothing numeric.
+ */
+export function readQuantity(sol: FormattedSolution, path: string): number | null {
+  const parts = path.split('.')
+  let cur: unknown = sol
+  for (let i = 0; i < parts.length; i++) {
+    const key = parts[i]!
+    if (cur === null || typeof cur !== 'object') return null
+    if (Array.isArray(cur)) {
+      const idx = Number(key)
+      cur = Number.isInteger(idx) && idx >= 1 ? cur[idx - 1] : (cur as { name?: string }[]).find((x) => x?.name === key)
+    } else {
+      cur = (cur as Record<string, unknown>)[key]
+    }
+  }
+  if (typeof cur === 'number') return cur
+  if (cur && typeof cur === 'object' && typeof (cur as Quantity).value === 'number') return (cur as Quantity).value
+  return null
+}

@@ -1,0 +1,69 @@
+/**
+ * One entry point for a spec file (what `npm run solve` reads): either
+ *   { "template": "<id>", "inputs": { … }, "convention"?: "chemistry" | "engineering" }
+ * or
+ *   { "cycle": { gas, system, amount, states, steps, … }, "convention"?: … }.
+ * Returns the formatted solution (quantities as { value, unit }) or { ok: false, error }.
+ * Never throws.
+ */
+import type { CycleResult } from './cycle.ts'
+import { solveCycle } from './cycle.ts'
+import { isConvention } from './conventions.ts'
+import type { Convention } from './conventions.ts'
+import { formatSolution } from './format.ts'
+import type { FormattedSolution } from './format.ts'
+import type { Slips } from './slips.ts'
+import { parseCycleSpec } from './spec.ts'
+import { templates } from './templates/index.ts'
+
+export interface SpecFailure {
+  readonly ok: false
+  readonly error: { readonly code: string; readonly message: string; readonly state?: number; readonly property?: string; readonly step?: number }
+}
+
+export interface SolveSpecOptions {
+  readonly slips?: Slips
+  /** overrides the spec's convention */
+  readonly convention?: Convention
+}
+
+export function solveSpecNumeric(raw: unknown, slips: Slips = {}): CycleResult | SpecFailure {
+  try {
+    if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template" or "cycle"' } }
+    const r = raw as Record<string, unknown>
+    if (r.template !== undefined) {
+      const t = typeof r.template === 'string' ? templates[r.template] : undefined
+      if (!t) return { ok: false, error: { code: 'invalid-spec', message: `unknown template "${String(r.template)}": use one of ${Object.keys(templates).join(', ')}`, property: 'template' } }
+      const inputs = r.inputs ?? {}
+      if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs)) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
+      return t.solve(inputs as Record<string, unknown>, { slips })
+    }
+    if (r.cycle !== undefined) {
+      const p = parseCycleSpec(r.cycle, slips)
+      if (!p.ok) return p
+      return solveCycle(p.value)
+    }
+    return { ok: false, error: { code: 'invalid-spec', message: 'a spec needs "template" (with "inputs") or "cycle"' } }
+  } catch (e) {
+    // Not expected; keeps the no-throw promise if a bug slips through.
+    return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+  }
+}
+
+export function specConvention(raw: unknown): Convention | { error: string } {
+  const c = (raw as { convention?: unknown } | null)?.convention
+  if (c === undefined) return 'engineering'
+  return isConvention(c) ? c : { error: `convention must be "chemistry" or "engineering", not ${JSON.stringify(c)}` }
+}
+
+export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): FormattedSolution | SpecFailure {
+  const conv = options.convention ?? specConvention(raw)
+  if (typeof conv !== 'string') return { ok: false, error: { code: 'invalid-spec', message: conv.error, property: 'convention' } }
+  const r = solveSpecNumeric(raw, options.slips)
+  if (!r.ok) return r
+  try {
+    return formatSolution(r, conv)
+  } catch (e) {
+    return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+  }
+}

@@ -1,0 +1,273 @@
+/**
+ * The edge: specs written as JSON with quantities as strings ("300 K", "1 bar", "27 °C") are
+ * parsed once into SI numbers and a Gas; after this, the solver core never sees a string.
+ * Formats are documented in docs/spec-format.md.
+ */
+import { R_MOLAR } from './constants.ts'
+import type { CycleSpec, StateSpec, StepSpec, ProcessKind } from './cycle.ts'
+import { PROCESS_KINDS } from './cycle.ts'
+import type { Slips } from './slips.ts'
+import { constantCpGas } from './substances/constant-cp.ts'
+import type { Basis, Gas } from './substances/gas.ts'
+import { gasPreset } from './substances/presets.ts'
+import { swapCpCv, swapMonatomicDiatomic, switchBasisNumbers, withLog10 } from './substances/slipped.ts'
+import { parseQuantity } from './units.ts'
+import type { Dimension } from './units.ts'
+
+export interface SpecError {
+  readonly code: 'invalid-spec' | 'invalid-gas' | 'unreadable' | 'wrong-dimension' | 'not-finite' | 'slip-not-applicable'
+  readonly message: string
+  readonly property?: string
+}
+export type Parsed<T> = { ok: true; value: T } | { ok: false; error: SpecError }
+
+const err = (code: SpecError['code'], message: string, property?: string): { ok: false; error: SpecError } => ({ ok: false, error: { code, message, property } })
+
+export interface ReadValue {
+  readonly value: number
+  readonly dimension: Dimension
+  readonly text: string
+}
+
+/** parseQuantity plus the slips that act on how a given is read. */
+export function readValue(text: unknown, dims: readonly Dimension[], where: string, slips: Slips = {}): Parsed<ReadValue> {
+  const r = parseQuantity(text, dims)
+  if (!r.ok) return err(r.error.code, `${where}: ${r.error.message}`, where)
+  let value = r.value.value
+  if (slips.celsiusForKelvin && r.value.dimension === 'temperature' && r.value.typedUnit === 'degC') value = r.value.typedNumber
+  if (slips.kiloFactor === 'input-kJ-as-J' && /^kJ\b/.test(r.value.typedUnit)) value /= 1000
+  return { ok: true, value: { value, dimension: r.value.dimension, text: r.value.text } }
+}
+
+function isObj(x: unknown): x is Record<string, unknown> {
+  return typeof x === 'object' && x !== null && !Array.isArray(x)
+}
+
+/** Does the spec contain any temperature typed in °C, or any given in kJ? (slip applicability) */
+export function specMentions(raw: unknown, what: 'celsius' | 'kJ'): boolean {
+  const re = what === 'celsius' ? /(°\s*C|degC|℃)/ : /\bkJ\b/
+  const walk = (x: unknown): boolean => (typeof x === 'string' ? re.test(x) : Array.isArray(x) ? x.some(walk) : isObj(x) ? Object.values(x).some(walk) : false)
+  return walk(raw)
+}
+
+/**
+ * A gas from its spec: a preset id ("air", "monatomic", "nasa:dry-air", …) or an object
+ * { preset?, basis?: 'mole' | 'mass', molarMass?, R?, cp?, cv?, gamma? } with strings with units.
+ */
+export function parseGas(raw: unknown, slips: Slips = {}): Parsed<Gas> {
+  let gas: Gas
+  if (raw === undefined) raw = 'air'
+  if (typeof raw === 'string') {
+    const r = gasPreset(raw)
+    if (!r.ok) return err('invalid-gas', r.error.message, 'gas')
+    gas = r.gas
+  } else if (isObj(raw)) {
+    const basisRaw = raw.basis
+    let basis: Basis | undefined
+    if (basisRaw !== undefined) {
+      if (basisRaw === 'mole' || basisRaw === 'per-mole' || basisRaw === 'mol') basis = 'mole'
+      else if (basisRaw === 'mass' || basisRaw === 'per-kg' || basisRaw === 'kg') basis = 'mass'
+      else return err('invalid-gas', `gas.basis must be "mole" or "mass"`, 'gas.basis')
+    }
+    let M: number | undefined
+    if (raw.molarMass !== undefined) {
+      const r = readValue(raw.molarMass, ['molarMass'], 'gas.molarMass')
+      if (!r.ok) return r
+      M = r.value.value
+    }
+    if (typeof raw.preset === 'string') {
+      const r = gasPreset(raw.preset, basis, M)
+      if (!r.ok) return err('invalid-gas', r.error.message, 'gas.preset')
+      gas = r.gas
+    } else {
+      const consts: Record<string, number> = {}
+      let inferred: Basis | undefined
+      for (const key of ['R', 'cp', 'cv'] as const) {
+        if (raw[key] === undefined) continue
+        const r = readValue(raw[key], ['specificHeat', 'molarHeat'], `gas.${key}`)
+        if (!r.ok) return r
+        const b: Basis = r.value.dimension === 'molarHeat' ? 'mole' : 'mass'
+        inferred ??= b
+        const target = basis ?? inferred
+        let x = r.value.value
+        if (b !== target) {
+          if (M === undefined) return err('invalid-gas', `gas.${key} is per ${b === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`, `gas.${key}`)
+          x = b === 'mole' ? x / M : x * M
+        }
+        consts[key] = x
+      }
+      basis ??= inferred ?? 'mole'
+      if (raw.gamma !== undefined) {
+        const r = readValue(raw.gamma, ['dimensionless'], 'gas.gamma')
+        if (!r.ok) return r
+        consts.gamma = r.value.value
+      }
+      if (consts.R === undefined && M !== undefined) consts.R = basis === 'mole' ? R_MOLAR : R_MOLAR / M
+      if (consts.R === undefined && basis === 'mole' && consts.cp === undefined !== (consts.cv === undefined)) consts.R = R_MOLAR
+      const r = constantCpGas({ basis, R: consts.R, cp: consts.cp, cv: consts.cv, gamma: consts.gamma, molarMass: M, label: typeof raw.label === 'string' ? raw.label : undefined })
+      if (!r.ok) return err('invalid-gas', `gas: ${r.error.message}`, `gas.${r.error.property ?? ''}`)
+      gas = r.gas
+    }
+  } else {
+    return err('invalid-gas', 'gas must be a preset name or an object with constants', 'gas')
+  }
+  return applyGasSlips(gas, slips)
+}
+
+export function applyGasSlips(gas: Gas, slips: Slips): Parsed<Gas> {
+  let g = gas
+  if (slips.cpCvSwapped) g = swapCpCv(g)
+  if (slips.gammaSwapped) {
+    const s = swapMonatomicDiatomic(g)
+    if (!s) return err('slip-not-applicable', 'the gas is neither monatomic nor diatomic', 'gas')
+    g = s
+  }
+  if (slips.log10ForLn) g = withLog10(g)
+  if (slips.perMoleVsPerKg) {
+    const s = switchBasisNumbers(g)
+    if (!s) return err('slip-not-applicable', 'the molar mass of the gas is unknown', 'gas')
+    g = s
+  }
+  return { ok: true, value: g }
+}
+
+/** Amount "2 mol" / "1.5 kg" on the gas's basis. */
+export function readAmount(raw: unknown, gas: Gas, where: string, slips: Slips): Parsed<number> {
+  const r = readValue(raw, ['amount', 'mass'], where, slips)
+  if (!r.ok) return r
+  const b: Basis = r.value.dimension === 'amount' ? 'mole' : 'mass'
+  if (b === gas.basis) return { ok: true, value: r.value.value }
+  const M = gas.molarMass
+  if (M === undefined) return err('invalid-spec', `${where}: the gas is counted per ${gas.basis === 'mole' ? 'mole' : 'kilogram'} and has no molar mass to convert ${r.value.text}`, where)
+  return { ok: true, value: b === 'mole' ? r.value.value * M : r.value.value / M }
+}
+
+/** Specific volume "0.8 m^3/kg" or "0.024 m^3/mol" on the gas's basis. */
+export function readSpecificVolume(raw: unknown, gas: Gas, where: string, slips: Slips): Parsed<number> {
+  const r = readValue(raw, ['specificVolume', 'molarVolume'], where, slips)
+  if (!r.ok) return r
+  const b: Basis = r.value.dimension === 'molarVolume' ? 'mole' : 'mass'
+  if (b === gas.basis) return { ok: true, value: r.value.value }
+  const M = gas.molarMass
+  if (M === undefined) return err('invalid-spec', `${where}: cannot convert ${r.value.text} without a molar mass`, where)
+  return { ok: true, value: b === 'mole' ? r.value.value / M : r.value.value * M }
+}
+
+/** Heat: "1800 kJ/kg" (per unit amount) or "500 J" (total). */
+export function readHeat(raw: unknown, gas: Gas, where: string, slips: Slips): Parsed<{ heat?: number; heatTotal?: number }> {
+  const r = readValue(raw, ['energy', 'specificEnergy', 'molarEnergy'], where, slips)
+  if (!r.ok) return r
+  if (r.value.dimension === 'energy') return { ok: true, value: { heatTotal: r.value.value } }
+  const b: Basis = r.value.dimension === 'molarEnergy' ? 'mole' : 'mass'
+  if (b === gas.basis) return { ok: true, value: { heat: r.value.value } }
+  const M = gas.molarMass
+  if (M === undefined) return err('invalid-spec', `${where}: cannot convert ${r.value.text} without a molar mass`, where)
+  return { ok: true, value: { heat: b === 'mole' ? r.value.value / M : r.value.value * M } }
+}
+
+function readNumber(raw: unknown, where: string): Parsed<number> {
+  const r = readValue(raw, ['dimensionless'], where)
+  if (!r.ok) return r
+  return { ok: true, value: r.value.value }
+}
+
+/**
+ * A general cycle from JSON. States and steps are numbered from 1 in the JSON; step k joins
+ * state k to k+1 and the last step joins back to state 1. Regenerator partners are step numbers.
+ */
+export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpec> {
+  if (!isObj(raw)) return err('invalid-spec', 'the cycle must be an object with gas, states and steps', 'cycle')
+  const g = parseGas(raw.gas, slips)
+  if (!g.ok) return g
+  const gas = g.value
+  const system = raw.system ?? 'closed'
+  if (system !== 'closed' && system !== 'flow') return err('invalid-spec', 'system must be "closed" or "flow"', 'system')
+  let amount: number | undefined
+  if (raw.amount !== undefined) {
+    const r = readAmount(raw.amount, gas, 'amount', slips)
+    if (!r.ok) return r
+    amount = r.value
+  }
+  if (!Array.isArray(raw.states) || raw.states.length < 2) return err('invalid-spec', 'states must be a list of at least two states', 'states')
+  if (!Array.isArray(raw.steps)) return err('invalid-spec', 'steps must be a list (step k joins state k to state k+1; the last joins back to state 1)', 'steps')
+  const labels: Record<string, string> = {}
+  const states: StateSpec[] = []
+  for (let i = 0; i < raw.states.length; i++) {
+    const s: unknown = raw.states[i]
+    const where = `states[${i + 1}]`
+    if (!isObj(s)) return err('invalid-spec', `${where} must be an object`, where)
+    const out: { name?: string; p?: number; T?: number; v?: number; V?: number } = {}
+    if (s.name !== undefined) out.name = String(s.name)
+    if (s.p !== undefined) {
+      const r = readValue(s.p, ['pressure'], `${where}.p`, slips)
+      if (!r.ok) return r
+      out.p = r.value.value
+      labels[`p${i + 1}`] = String(s.p)
+    }
+    if (s.T !== undefined) {
+      const r = readValue(s.T, ['temperature'], `${where}.T`, slips)
+      if (!r.ok) return r
+      out.T = r.value.value
+      labels[`T${i + 1}`] = String(s.T)
+    }
+    if (s.v !== undefined) {
+      const r = readSpecificVolume(s.v, gas, `${where}.v`, slips)
+      if (!r.ok) return r
+      out.v = r.value
+      labels[`v${i + 1}`] = String(s.v)
+    }
+    if (s.V !== undefined) {
+      const r = readValue(s.V, ['volume'], `${where}.V`, slips)
+      if (!r.ok) return r
+      out.V = r.value.value
+      labels[`V${i + 1}`] = String(s.V)
+    }
+    states.push(out)
+  }
+  const steps: StepSpec[] = []
+  for (let k = 0; k < raw.steps.length; k++) {
+    const s: unknown = raw.steps[k]
+    const where = `steps[${k + 1}]`
+    if (!isObj(s)) return err('invalid-spec', `${where} must be an object`, where)
+    if (typeof s.process !== 'string' || !PROCESS_KINDS.includes(s.process as ProcessKind)) {
+      return err('invalid-spec', `${where}.process must be one of ${PROCESS_KINDS.join(', ')}`, `${where}.process`)
+    }
+    const out: Record<string, unknown> = { process: s.process }
+    for (const key of ['n', 'efficiency', 'effectiveness', 'pressureRatio', 'volumeRatio', 'temperatureRatio'] as const) {
+      if (s[key] === undefined) continue
+      const r = readNumber(s[key], `${where}.${key}`)
+      if (!r.ok) return r
+      out[key] = r.value
+    }
+    if (s.compressionRatio !== undefined) {
+      const r = readNumber(s.compressionRatio, `${where}.compressionRatio`)
+      if (!r.ok) return r
+      if (!(r.value > 0)) return err('invalid-spec', `${where}.compressionRatio must be positive`, `${where}.compressionRatio`)
+      out.volumeRatio = 1 / r.value
+    }
+    if (s.partner !== undefined) {
+      if (!Number.isInteger(s.partner)) return err('invalid-spec', `${where}.partner must be a step number`, `${where}.partner`)
+      out.partner = (s.partner as number) - 1
+    }
+    for (const key of ['device', 'path', 'expectHeat', 'label'] as const) if (s[key] !== undefined) out[key] = s[key]
+    if (s.heat !== undefined) {
+      const r = readHeat(s.heat, gas, `${where}.heat`, slips)
+      if (!r.ok) return r
+      Object.assign(out, r.value)
+    }
+    steps.push(out as unknown as StepSpec)
+  }
+  let reservoirs: { hot?: number; cold?: number } | undefined
+  if (isObj(raw.reservoirs)) {
+    reservoirs = {}
+    for (const key of ['hot', 'cold'] as const) {
+      if (raw.reservoirs[key] === undefined) continue
+      const r = readValue(raw.reservoirs[key], ['temperature'], `reservoirs.${key}`, slips)
+      if (!r.ok) return r
+      reservoirs[key] = r.value.value
+    }
+  }
+  const purpose = raw.purpose
+  if (purpose !== undefined && purpose !== 'engine' && purpose !== 'refrigerator' && purpose !== 'heat-pump') return err('invalid-spec', 'purpose must be engine, refrigerator or heat-pump', 'purpose')
+  return { ok: true, value: { gas, system, amount, states, steps, purpose, reservoirs, labels } }
+}
