@@ -3,3 +3,4 @@
 export * from './errors.ts'
 export * from './properties.ts'
 export * from './rankine.ts'
+export * from './rankine-spec.ts'
