@@ -7,6 +7,7 @@
 //               find allows it (allowBareNumber), or always for a pure-number find
 //   expression  "2*6.25 kJ", "sqrt(2) kPa", "(300 - 273.15) K": numbers, units, + − × ÷ ^,
 //               brackets and the function allow-list; no significant figures can be counted
+// Digit groups of three separated by spaces (also thin spaces) are joined: "12 500 J".
 // Decimal commas are REFUSED with a clear message ("12,5" and "12,500" alike): a comma is
 // a decimal mark in some countries and a thousands separator in others, and guessing wrong
 // would be a factor of 1000. Students are told to write 12.5 and 12500.
@@ -97,6 +98,7 @@ export type ReadAnswerResult = ReadAnswerSuccess | ReadAnswerFailure
 const ALLOWED_CHARS = /^[A-Za-z0-9_ \t.+\-*/^()%]*$/
 const HEX_LIKE = /(?<![A-Za-z0-9_.])0[xXbBoO][0-9A-Za-z]/
 const PLAIN = /^([+-]?)\s*(\d+\.?\d*|\.\d+)((?:[eE][+-]?\d+)?)(?![\d.])\s*(.*)$/s
+const DIGIT_GROUPS = /(?<![\d.eE])\d{1,3}(?: \d{3})+(?!\d)/g
 const NO_VARIABLES: ReadonlySet<string> = new Set()
 
 class AnswerError extends Error {
@@ -219,6 +221,9 @@ function readWith(ctx: Ctx): ReadAnswerResult {
     )
   }
   if (HEX_LIKE.test(s)) throw new AnswerError('syntax')
+  // SI digit grouping (SI Brochure 9th ed., 5.4.4): "12 500 J" is 12500 J. Only groups of
+  // exactly three digits after the first group, and never after a decimal point.
+  s = s.replace(DIGIT_GROUPS, (g) => g.replace(/ /g, ''))
 
   let percent = false
   if (s.endsWith('%')) {

@@ -1,0 +1,51 @@
+// Public API of app/domain/grading: reading and checking students' answers.
+// Pure TypeScript (mathjs only); no web, database, queue, node:* or env imports.
+
+export { checkAnswer, validateCheckRule } from './check-answer.ts'
+export type {
+  CheckAnswerInput,
+  CheckAnswerResult,
+  CheckCode,
+  CheckDetail,
+  CheckNote,
+  CheckRule,
+  ExpectedQuantity,
+  RuleValidation,
+  Tolerance,
+  Verdict,
+} from './check-answer.ts'
+
+export { readAnswer } from './read-answer.ts'
+export type { AnswerForm, ReadAnswerFailure, ReadAnswerOptions, ReadAnswerResult, ReadAnswerSuccess } from './read-answer.ts'
+
+export {
+  ALLOWED_CONSTANTS,
+  ALLOWED_FUNCTIONS,
+  MAX_EXPRESSION_LENGTH,
+  MAX_EXPRESSION_LENGTH_CAP,
+  compileRestrictedExpression,
+  evaluateRestrictedExpression,
+} from './restricted-math.ts'
+export type {
+  AllowedFunction,
+  CompileRestrictedResult,
+  CompiledRestrictedExpression,
+  RestrictedErrorCode,
+  RestrictedExpressionOptions,
+  RestrictedExpressionResult,
+  RestrictedValue,
+  ScopeValue,
+} from './restricted-math.ts'
+
+export { checkSignificantFigures, countSignificantFigures } from './sig-figs.ts'
+export type { SigFigCount, SigFigRule, SigFigVerdict } from './sig-figs.ts'
+
+export { DIMENSIONS, formatUnitForDisplay, isDimensionName } from './units.ts'
+export type { DimensionInfo, DimensionName } from './units.ts'
+
+export type { AnswerErrorCode } from './messages.ts'
+
+export { normalizeTypography } from './typography.ts'
+export type { TypographyOptions } from './typography.ts'
+
+// Pitfalls (owned by the physics engineer): add `export … from './pitfalls.ts'` here when ready.
