@@ -3,4 +3,4 @@
 export * from './errors.ts'
 export * from './properties.ts'
 export * from './rankine.ts'
-export * from './rankine-spec.ts'
+export * from './rankine-template.ts'
