@@ -128,6 +128,18 @@ function requireReference(): void {
   if (!available) throw new Error(REFERENCE_MISSING_MESSAGE)
 }
 
+describe('reference helper', () => {
+  test('a missing interpreter fails loudly with the install hint (never a silent skip)', () => {
+    expect(referenceAvailable('/nonexistent/python3')).toBe(false)
+    expect(() => referenceBatch([{ kind: 'psat', T: 300 }], '/nonexistent/python3')).toThrow(REFERENCE_MISSING_MESSAGE)
+  })
+  test('the reference answers a release check value (IAPWS R7-97(2012) Table 35: p_s(300 K) = 3536.58941 Pa)', () => {
+    requireReference()
+    const [r] = referenceBatch([{ kind: 'psat', T: 300 }])
+    expect(r && r.ok && 'value' in r && Math.abs(r.value / 0.353658941e4 - 1) < 1e-8).toBe(true)
+  })
+})
+
 describe('IAPWS-IF97 against python3-iapws (independent implementation), relative 1e-7', () => {
   test('at least 1,000 random points over regions 1, 2, 3 and the saturation line', () => {
     expect(points.length).toBeGreaterThanOrEqual(1000)

@@ -113,16 +113,19 @@ print(json.dumps({"results": out}))
 `
 
 /** True when /usr/bin/python3 exists and can import iapws. */
-export function referenceAvailable(): boolean {
-  if (!existsSync(PYTHON)) return false
-  const r = spawnSync(PYTHON, ['-c', 'import iapws, scipy'], { encoding: 'utf8' })
+export function referenceAvailable(python: string = PYTHON): boolean {
+  if (!existsSync(python)) return false
+  const r = spawnSync(python, ['-c', 'import iapws, scipy'], { encoding: 'utf8' })
   return r.status === 0
 }
 
-/** Evaluate a batch of queries in ONE Python process. Throws REFERENCE_MISSING_MESSAGE if absent. */
-export function referenceBatch(queries: readonly RefQuery[]): RefResult[] {
-  if (!existsSync(PYTHON)) throw new Error(`${REFERENCE_MISSING_MESSAGE} (${PYTHON} not found)`)
-  const r = spawnSync(PYTHON, ['-c', SCRIPT], {
+/**
+ * Evaluate a batch of queries in ONE Python process. Throws REFERENCE_MISSING_MESSAGE if absent.
+ * `python` is only for testing this helper's failure path.
+ */
+export function referenceBatch(queries: readonly RefQuery[], python: string = PYTHON): RefResult[] {
+  if (!existsSync(python)) throw new Error(`${REFERENCE_MISSING_MESSAGE} (${python} not found)`)
+  const r = spawnSync(python, ['-c', SCRIPT], {
     input: JSON.stringify(queries),
     encoding: 'utf8',
     maxBuffer: 256 * 1024 * 1024,
