@@ -1,0 +1,113 @@
+import '@fontsource/lora/500.css'
+import '@fontsource/lora/600.css'
+import './app.css'
+import { Form, Links, Meta, NavLink, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from 'react-router'
+import type { Route } from './+types/root'
+import { GeneralErrorBoundary } from './components/error-boundary.tsx'
+import { navFor, type NavUser } from './lib/nav.ts'
+import { getUser } from './server/auth.server.ts'
+
+export const meta: Route.MetaFunction = () => [{ title: 'Cyclewright' }]
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await getUser(request)
+  const navUser: NavUser | null = user
+    ? {
+        name: user.name,
+        email: user.email,
+        isAdmin: user.isAdmin,
+        courses: user.courses.map((c) => ({ id: c.id, code: c.code, role: c.role })),
+      }
+    : null
+  return { user: navUser }
+}
+
+export function Layout({ children }: { children: React.ReactNode }) {
+  return (
+    <html lang="en">
+      <head>
+        <meta charSet="utf-8" />
+        <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <Meta />
+        <Links />
+      </head>
+      <body className="min-h-screen">
+        {children}
+        <ScrollRestoration />
+        <Scripts />
+      </body>
+    </html>
+  )
+}
+
+function Shell({ children }: { children: React.ReactNode }) {
+  const data = useRouteLoaderData<typeof loader>('root')
+  const user = data?.user ?? null
+  const items = navFor(user)
+  return (
+    <div className="flex min-h-screen flex-col">
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:px-3 focus:py-2">
+        Skip to content
+      </a>
+      <header className="border-b border-line bg-white">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+          <a href="/" className="font-serif text-xl font-semibold text-ink no-underline hover:no-underline">
+            <span aria-hidden="true" className="mr-1 text-accent">
+              ⟳
+            </span>
+            Cyclewright
+          </a>
+          <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
+            {items.map((item) => (
+              <NavLink
+                key={item.to}
+                to={item.to}
+                end={item.end}
+                className={({ isActive }) =>
+                  `rounded-md px-3 py-1.5 text-sm no-underline hover:bg-accent-soft hover:no-underline ${isActive ? 'bg-accent-soft font-semibold text-accent-strong' : 'text-ink'}`
+                }
+              >
+                {item.label}
+              </NavLink>
+            ))}
+          </nav>
+          {user ? (
+            <div className="flex items-center gap-3 text-sm">
+              <span className="text-muted" title={user.email}>
+                {user.name}
+              </span>
+              <Form method="post" action="/sign-out">
+                <button type="submit" className="rounded-md border border-line px-3 py-1.5 hover:bg-paper">
+                  Sign out
+                </button>
+              </Form>
+            </div>
+          ) : null}
+        </div>
+      </header>
+      <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-8">
+        {children}
+      </main>
+      <footer className="border-t border-line py-4 text-center text-xs text-muted">
+        Cyclewright is a teaching tool. Its numbers are for learning thermodynamics, not design data; for real plant follow the
+        applicable codes and licensed engineering practice.
+      </footer>
+    </div>
+  )
+}
+
+export default function App() {
+  return (
+    <Shell>
+      <Outlet />
+    </Shell>
+  )
+}
+
+export function ErrorBoundary() {
+  return (
+    <Shell>
+      <GeneralErrorBoundary />
+    </Shell>
+  )
+}

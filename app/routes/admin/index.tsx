@@ -1,0 +1,62 @@
+import { Link } from 'react-router'
+import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { conventionText } from '#app/lib/conventions.ts'
+import { requireAdmin } from '#app/server/auth.server.ts'
+import { listAllCourses } from '#app/server/courses.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import type { Route } from './+types/index'
+
+export const meta: Route.MetaFunction = () => [{ title: 'Department · Cyclewright' }]
+
+export async function loader({ request }: Route.LoaderArgs) {
+  await requireAdmin(request)
+  return { courses: await listAllCourses(db()) }
+}
+
+export default function AdminRoute({ loaderData }: Route.ComponentProps) {
+  const { courses } = loaderData
+  return (
+    <div>
+      <h1 className="text-3xl font-semibold">Department</h1>
+      <p className="mt-2 text-muted">Every course on this installation. Grade export for a whole term arrives with the gradebooks.</p>
+      {courses.length === 0 ? (
+        <p className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">No courses yet.</p>
+      ) : (
+        <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
+          <table className="w-full text-left text-sm">
+            <caption className="sr-only">Courses</caption>
+            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+              <tr>
+                <th scope="col" className="px-4 py-2">Course</th>
+                <th scope="col" className="px-4 py-2">Term</th>
+                <th scope="col" className="px-4 py-2">Convention</th>
+                <th scope="col" className="px-4 py-2 text-right">Students</th>
+                <th scope="col" className="px-4 py-2 text-right">Staff</th>
+              </tr>
+            </thead>
+            <tbody>
+              {courses.map((c) => (
+                <tr key={c.id} className="border-t border-line">
+                  <td className="px-4 py-2">
+                    {c.code} {c.title}
+                  </td>
+                  <td className="px-4 py-2">{c.termName}</td>
+                  <td className="px-4 py-2 font-mono">{conventionText[c.signConvention].equation}</td>
+                  <td className="px-4 py-2 text-right tabular-nums">{c.students}</td>
+                  <td className="px-4 py-2 text-right tabular-nums">{c.staff}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+      <p className="mt-6">
+        <Link to="/admin/outbox">Outbox</Link>
+      </p>
+    </div>
+  )
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />
+}

@@ -1,0 +1,122 @@
+/**
+ * Sign-in and the guards every loader and action uses. The client is never trusted:
+ * each guard reads the session row and the memberships from PostgreSQL.
+ */
+import { data, redirect } from 'react-router'
+import { Authenticator } from 'remix-auth'
+import { FormStrategy } from 'remix-auth-form'
+import { z } from 'zod'
+import { hasCourseRole, type CourseRole } from '#app/domain/permissions.ts'
+import { db } from './db/client.server.ts'
+import { verifyPassword } from './passwords.server.ts'
+import { checkSignInRate, recordSignInAttempt } from './rate-limit.server.ts'
+import { createSessionRow, deleteSessionRow, findLiveSession, getCookieSession, sessionStorage } from './session.server.ts'
+import { findUserByEmail, loadSignedInUser, normaliseEmail, toActor, type SignedInUser } from './users.server.ts'
+
+/** A sign-in that failed for a reason the person may be told. */
+export class SignInError extends Error {}
+
+/** Deliberately says nothing about which of the two was wrong. */
+export const WRONG_CREDENTIALS = 'That e-mail address and password do not match an account. Check both and try again.'
+
+export const CLIENT_ADDRESS_HEADER = 'x-cyclewright-client-address'
+
+/** The client address, as put on the request by our own server (see scripts/server.ts). */
+export function clientAddress(request: Request): string {
+  return request.headers.get(CLIENT_ADDRESS_HEADER) ?? 'unknown'
+}
+
+const SignInFormSchema = z.object({
+  email: z.string().trim().min(1, 'Enter your e-mail address.').max(320).email('Enter a valid e-mail address.'),
+  password: z.string().min(1, 'Enter your password.').max(1000),
+})
+
+export const authenticator = new Authenticator<{ userId: number }>()
+
+authenticator.use(
+  new FormStrategy(async ({ form, request }) => {
+    const parsed = SignInFormSchema.safeParse({ email: form.get('email'), password: form.get('password') })
+    if (!parsed.success) throw new SignInError(parsed.error.issues[0]?.message ?? WRONG_CREDENTIALS)
+    const email = normaliseEmail(parsed.data.email)
+    const address = clientAddress(request)
+    const database = db()
+    const rate = await checkSignInRate(database, email, address)
+    if (!rate.allowed) {
+      const n = rate.retryInMinutes
+      throw new SignInError(`Too many sign-in attempts. Try again in ${n} minute${n === 1 ? '' : 's'}.`)
+    }
+    const user = await findUserByEmail(database, email)
+    const ok = user?.passwordHash ? await verifyPassword(user.passwordHash, parsed.data.password) : false
+    await recordSignInAttempt(database, email, address, ok)
+    if (!user || !ok) throw new SignInError(WRONG_CREDENTIALS)
+    return { userId: user.id }
+  }),
+  'password',
+)
+
+/** Starts a session for the user and redirects; used after sign-in and after accepting a link. */
+export async function startSession(userId: number, redirectTo: string, notice?: string) {
+  const row = await createSessionRow(db(), userId)
+  const session = await sessionStorage().getSession()
+  session.set('sid', row.id)
+  if (notice) session.flash('notice', notice)
+  return redirect(safeRedirect(redirectTo), {
+    headers: { 'Set-Cookie': await sessionStorage().commitSession(session, { expires: row.expiresAt }) },
+  })
+}
+
+export async function getUser(request: Request): Promise<SignedInUser | null> {
+  const session = await getCookieSession(request)
+  const sid = session.get('sid')
+  if (!sid) return null
+  const live = await findLiveSession(db(), sid)
+  if (!live) return null
+  return loadSignedInUser(db(), live.userId)
+}
+
+/** Returns the signed-in user, or throws a redirect to the sign-in page. */
+export async function requireUser(request: Request): Promise<SignedInUser> {
+  const user = await getUser(request)
+  if (user) return user
+  const url = new URL(request.url)
+  const redirectTo = url.pathname + url.search
+  throw redirect(`/sign-in?${new URLSearchParams({ redirectTo })}`)
+}
+
+/** Throws a redirect home when someone is already signed in. */
+export async function requireAnonymous(request: Request) {
+  if (await getUser(request)) throw redirect('/')
+}
+
+export function forbidden(message = 'You do not have access to this page.'): never {
+  throw data(message, { status: 403 })
+}
+
+/** Returns the user when they hold one of `roles` in the course; else throws a 403 page. */
+export async function requireCourseRole(request: Request, courseId: number, roles: readonly CourseRole[]) {
+  const user = await requireUser(request)
+  if (!Number.isInteger(courseId) || courseId <= 0) throw data('No such course.', { status: 404 })
+  if (!hasCourseRole(toActor(user), courseId, roles)) forbidden()
+  const course = user.courses.find((c) => c.id === courseId)!
+  return { user, course }
+}
+
+/** Department admins only. */
+export async function requireAdmin(request: Request) {
+  const user = await requireUser(request)
+  if (!user.isAdmin) forbidden()
+  return user
+}
+
+export async function signOut(request: Request) {
+  const session = await getCookieSession(request)
+  const sid = session.get('sid')
+  if (sid) await deleteSessionRow(db(), sid)
+  return redirect('/sign-in', { headers: { 'Set-Cookie': await sessionStorage().destroySession(session) } })
+}
+
+/** Only same-site paths: never an open redirect to another host. */
+export function safeRedirect(to: FormDataEntryValue | string | null | undefined, fallback = '/'): string {
+  if (typeof to !== 'string' || !to.startsWith('/') || to.startsWith('//') || to.startsWith('/\\')) return fallback
+  return to
+}

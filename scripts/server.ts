@@ -1,0 +1,75 @@
+/**
+ * The HTTP server: Express with React Router's request handler, serving the production
+ * build (or Vite's dev middleware in development). It also starts the local fake SMTP
+ * server when no SMTP_URL is configured, so the demo's mail lands in the outbox.
+ */
+import path from 'node:path'
+import { pathToFileURL } from 'node:url'
+import { createRequestHandler } from '@react-router/express'
+import compression from 'compression'
+import express from 'express'
+import type { ServerBuild } from 'react-router'
+import { CLIENT_ADDRESS_HEADER } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { env } from '#app/server/env.server.ts'
+import { startFakeSmtp, type FakeSmtp } from '#app/server/fake-smtp.server.ts'
+import { projectRoot } from './postgres.ts'
+
+export type RunningServer = { port: number; url: string; close: () => Promise<void>; smtp: FakeSmtp | null }
+
+export async function startServer(opts: { port: number; mode: 'production' | 'development'; log?: (line: string) => void }): Promise<RunningServer> {
+  const log = opts.log ?? console.log
+  const e = env()
+  let smtp: FakeSmtp | null = null
+  if (!e.SMTP_URL) {
+    try {
+      smtp = await startFakeSmtp(db(), e.FAKE_SMTP_PORT, log)
+    } catch (err) {
+      // Another web process on this machine already runs the catcher: share it.
+      if ((err as NodeJS.ErrnoException).code !== 'EADDRINUSE') throw err
+      log(`The local mail catcher is already running on port ${e.FAKE_SMTP_PORT}; using that one.`)
+    }
+  }
+
+  const app = express()
+  app.disable('x-powered-by')
+  if (e.TRUST_PROXY) app.set('trust proxy', true)
+  app.use((req, _res, next) => {
+    // Our own header, always overwritten, so a client cannot choose its rate-limit bucket.
+    req.headers[CLIENT_ADDRESS_HEADER] = (e.TRUST_PROXY ? req.ip : req.socket.remoteAddress) ?? 'unknown'
+    next()
+  })
+  app.use(compression())
+
+  let closeVite: (() => Promise<void>) | undefined
+  if (opts.mode === 'development') {
+    const vite = await import('vite')
+    const devServer = await vite.createServer({ server: { middlewareMode: true }, root: projectRoot })
+    closeVite = () => devServer.close()
+    app.use(devServer.middlewares)
+    app.all('*', createRequestHandler({ build: () => devServer.ssrLoadModule('virtual:react-router/server-build') as Promise<ServerBuild>, mode: 'development' }))
+  } else {
+    const buildDir = path.join(projectRoot, 'build')
+    const build = (await import(pathToFileURL(path.join(buildDir, 'server', 'index.js')).href)) as ServerBuild
+    app.use('/assets', express.static(path.join(buildDir, 'client', 'assets'), { immutable: true, maxAge: '1y' }))
+    app.use(express.static(path.join(buildDir, 'client'), { maxAge: '1h' }))
+    app.all('*', createRequestHandler({ build, mode: e.NODE_ENV === 'test' ? 'test' : 'production' }))
+  }
+
+  const server = await new Promise<import('node:http').Server>((resolve, reject) => {
+    const s = app.listen(opts.port, '127.0.0.1', () => resolve(s))
+    s.once('error', reject)
+  })
+  const address = server.address()
+  const port = typeof address === 'object' && address ? address.port : opts.port
+  return {
+    port,
+    url: `http://127.0.0.1:${port}`,
+    smtp,
+    close: async () => {
+      await new Promise<void>((r) => server.close(() => r()))
+      await closeVite?.()
+      await smtp?.close()
+    },
+  }
+}
