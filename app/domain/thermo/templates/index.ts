@@ -10,3 +10,8 @@ export type { TemplateDef, TemplateInput, TemplateValues, BuildResult, InputKind
 export { defineTemplate, parseTemplateInputs } from './types.ts'
 
 export const templates: Record<string, TemplateDef> = Object.fromEntries(IDEAL_GAS_TEMPLATES.map((t) => [t.id, t]))
+
+// Steam (IAPWS-IF97) Rankine templates 'rankine', 'rankine-reheat', 'rankine-regenerative'
+// (docs/steam.md). Their result has no Gas, so they are not TemplateDefs: a spec entry point
+// dispatches these ids with isRankineTemplate(id) to solveRankineTemplate(id, inputs, convention).
+export { RANKINE_TEMPLATES, isRankineTemplate, solveRankineTemplate, solveRankineSpec } from '../steam/rankine-template.ts'
