@@ -249,7 +249,8 @@ function predict(gas: Gas, system: 'closed' | 'flow', s: StepSpec, q: number, a:
         if (n === 0 || n === 1) break // equalities already applied
         if (!Number.isNaN(out[V]!) && Number.isNaN(out[P]!)) out[P] = pa * Math.pow(va / out[V]!, n)
         else if (!Number.isNaN(out[P]!) && Number.isNaN(out[V]!)) out[V] = va * Math.pow(pa / out[P]!, 1 / n)
-        else if (!Number.isNaN(out[T]!) && Number.isNaN(out[V]!) && Number.isNaN(out[P]!)) out[V] = va * Math.pow(Ta / out[T]!, 1 / (n - 1))
+        // T fixes v only when n is not ~1 (the exponent 1/(n−1) would amplify rounding)
+      else if (!Number.isNaN(out[T]!) && Number.isNaN(out[V]!) && Number.isNaN(out[P]!) && Math.abs(n - 1) > 1e-6) out[V] = va * Math.pow(Ta / out[T]!, 1 / (n - 1))
         break
       }
       case 'adiabatic': {
