@@ -252,3 +252,34 @@ describe('consistency at region boundaries (release permitted inconsistencies, f
     limits(worst(pairs))
   })
 })
+
+describe('robustness: no input throws, in-range input always converges (common practice)', () => {
+  test('5,000 seeded random and boundary inputs to every state function, including the critical point', () => {
+    let seed = 12345
+    const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647
+    const specialP = [22.064e6, 22.064e6 * (1 - 1e-12), 16.5291643e6, 611.212677, 100e6, 1e-3]
+    const specialT = [647.096, 623.15, 273.15, 1073.15, 863.15]
+    const problems: string[] = []
+    const look = (name: string, r: { ok: boolean; value?: unknown; error?: { code: string } }, args: number[]) => {
+      if (r.ok) {
+        const v = r.value as { p: number; T: number; h: number; s: number; v: number }
+        if (![v.p, v.T, v.h, v.s, v.v].every(Number.isFinite)) problems.push(`${name}(${args}) non-finite`)
+      } else if (r.error!.code === 'no-convergence') problems.push(`${name}(${args}) no convergence`)
+    }
+    for (let i = 0; i < 1000; i++) {
+      const p = i % 20 === 0 ? specialP[i % specialP.length]! : Math.exp(Math.log(100) + (Math.log(1.2e8) - Math.log(100)) * rnd())
+      const T = i % 30 === 0 ? specialT[i % specialT.length]! : 260 + 830 * rnd()
+      const h = -100e3 + 4.5e6 * rnd()
+      const s = -100 + 11e3 * rnd()
+      const x = rnd()
+      expect(() => {
+        look('stateFromPT', stateFromPT(p, T), [p, T])
+        look('stateFromPH', stateFromPH(p, h), [p, h])
+        look('stateFromPS', stateFromPS(p, s), [p, s])
+        look('stateFromPx', stateFromPx(p, x), [p, x])
+        look('stateFromTx', stateFromTx(T, x), [T, x])
+      }).not.toThrow()
+    }
+    expect(problems.slice(0, 10)).toEqual([])
+  })
+})

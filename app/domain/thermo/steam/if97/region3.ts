@@ -148,11 +148,52 @@ function fromSide(x: number, T: number, p: number, fromBelow: boolean): number {
 }
 
 /**
+ * Fallback when Newton cannot proceed (dp/drho <= 0, which happens only at or extremely near
+ * the critical point): scan from the chosen side in 0.5 kg/m^3 steps to the first sign change
+ * of p - p_target, then bisect. The first crossing seen from a side is on that side's branch.
+ */
+function scan(T: number, p: number, fromBelow: boolean, start: number): number {
+  const step = fromBelow ? 0.5 : -0.5
+  let a = start
+  evalF(a, T, p)
+  let fa = fVal
+  for (let k = 0; k < 4000; k++) {
+    const b = a + step
+    if (!(b > 0)) return NaN
+    evalF(b, T, p)
+    const fb = fVal
+    if (fb === 0) return b
+    if ((fa < 0 && fb > 0) || (fa > 0 && fb < 0)) {
+      let lo = fa < 0 ? a : b
+      let hi = fa < 0 ? b : a
+      for (let it = 0; it < 200 && Math.abs(hi - lo) > REL_TOL * lo; it++) {
+        const m = 0.5 * (lo + hi)
+        evalF(m, T, p)
+        if (fVal === 0) return m
+        if (fVal < 0) lo = m
+        else hi = m
+      }
+      return 0.5 * (lo + hi)
+    }
+    a = b
+    fa = fb
+  }
+  return NaN
+}
+
+/**
  * Density (kg/m^3) of region 3 at (p MPa, T K). `liquidSide` selects the branch below the
  * critical temperature (true: p >= p_s(T), liquid-like; false: vapour-like); above T_c it is
  * ignored. Returns NaN if no root is found (not expected inside region 3).
  */
 export function region3Density(p: number, T: number, liquidSide: boolean): number {
+  const rho = newtonDensity(p, T, liquidSide)
+  if (rho > 0) return rho
+  const rhoIdeal = (p * 1000) / (R * T)
+  return T < TC && !liquidSide ? scan(T, p, true, rhoIdeal) : scan(T, p, false, 800)
+}
+
+function newtonDensity(p: number, T: number, liquidSide: boolean): number {
   const rhoIdeal = (p * 1000) / (R * T)
   if (T < TC && !liquidSide) return fromSide(rhoIdeal, T, p, true)
   // A density above the liquid-side root: start at 800 kg/m^3 (region 3 never exceeds about
