@@ -1,0 +1,127 @@
+import { and, eq } from 'drizzle-orm'
+import { describe, expect, test } from 'vitest'
+import { action as joinAction, loader as joinLoader } from '#app/routes/join.tsx'
+import { action as peopleAction } from '#app/routes/courses/people.tsx'
+import { action as forgotAction } from '#app/routes/forgot-password.tsx'
+import { action as resetAction, loader as resetLoader } from '#app/routes/reset-password.tsx'
+import { loader as outboxLoader } from '#app/routes/admin/outbox.tsx'
+import { startSession } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { accessTokens, memberships, sessions, users } from '#app/server/db/schema.server.ts'
+import { findLastMailTo, linksIn } from '#app/server/outbox.server.ts'
+import { verifyPassword } from '#app/server/passwords.server.ts'
+import { addMember, createCourse, createUser } from '#tests/support/factories.ts'
+import { args, cookieFrom, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+
+async function cookieOf(userId: number) {
+  return cookieFrom(await startSession(userId, '/'))
+}
+
+function tokenFromMail(text: string, prefix: string) {
+  const link = linksIn(text).find((l) => l.includes(prefix))
+  expect(link, `a ${prefix} link in the message`).toBeTruthy()
+  return new URL(link!).pathname.split('/').pop()!
+}
+
+describe('invitations', () => {
+  test('an instructor invites a student: the mail arrives over SMTP, the link makes the account and the membership once', async () => {
+    const course = await createCourse(db(), { code: 'TH 101' })
+    const instructor = await createUser(db(), { name: 'Ada Instructor' })
+    await addMember(db(), instructor.id, course.id, 'instructor')
+    const cookie = await cookieOf(instructor.id)
+    const email = 'New.Student@Test.Example'
+
+    const sent = await peopleAction(args(formRequest(`/courses/${course.id}/people`, { email, role: 'student' }, { Cookie: cookie }), { courseId: String(course.id) }))
+    expect(sent).toMatchObject({ ok: true, sentTo: 'New.Student@Test.Example' })
+
+    const mail = await findLastMailTo(db(), 'new.student@test.example')
+    expect(mail?.subject).toContain('TH 101')
+    expect(mail?.text).toContain('Ada Instructor')
+    const token = tokenFromMail(mail!.text, '/join/')
+
+    const page = await joinLoader(args(getRequest(`/join/${token}`), { token }))
+    expect(page.invitation).toMatchObject({ email: 'new.student@test.example', role: 'Student', hasAccount: false })
+
+    const bad = await joinAction(args(formRequest(`/join/${token}`, { name: 'N', password: 'short', confirm: 'other' }), { token }))
+    expect((bad as { init: { status: number } }).init.status).toBe(400)
+
+    const done = (await settle(joinAction(args(formRequest(`/join/${token}`, { name: 'Nia Student', password: 'a long enough password', confirm: 'a long enough password' }), { token })))) as { value?: Response; thrown?: Response }
+    const res = (done.value ?? done.thrown)!
+    expect(res.status).toBe(302)
+    expect(res.headers.get('Location')).toBe(`/courses/${course.id}`)
+    const [u] = await db().select().from(users).where(eq(users.email, 'new.student@test.example'))
+    expect(u?.name).toBe('Nia Student')
+    expect(await verifyPassword(u!.passwordHash!, 'a long enough password')).toBe(true)
+    const m = await db().select().from(memberships).where(and(eq(memberships.userId, u!.id), eq(memberships.courseId, course.id)))
+    expect(m[0]?.role).toBe('student')
+
+    const again = await joinLoader(args(getRequest(`/join/${token}`), { token }))
+    expect(again.problem).toBe('used')
+  })
+
+  test('an expired invitation is refused', async () => {
+    const course = await createCourse(db())
+    const instructor = await createUser(db())
+    await addMember(db(), instructor.id, course.id, 'instructor')
+    await peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'late@test.example', role: 'ta' }, { Cookie: await cookieOf(instructor.id) }), { courseId: String(course.id) }))
+    await db().update(accessTokens).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(accessTokens.email, 'late@test.example'))
+    const token = tokenFromMail((await findLastMailTo(db(), 'late@test.example'))!.text, '/join/')
+    expect((await joinLoader(args(getRequest(`/join/${token}`), { token }))).problem).toBe('expired')
+  })
+
+  test('a TA cannot invite, and bad input gets field messages', async () => {
+    const course = await createCourse(db())
+    const ta = await createUser(db())
+    await addMember(db(), ta.id, course.id, 'ta')
+    const instructor = await createUser(db())
+    await addMember(db(), instructor.id, course.id, 'instructor')
+    const byTa = await settle(peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'x@test.example', role: 'student' }, { Cookie: await cookieOf(ta.id) }), { courseId: String(course.id) })))
+    expect('thrown' in byTa && (byTa.thrown as { init: { status: number } }).init.status).toBe(403)
+    const junk = await peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'not an address', role: 'wizard' }, { Cookie: await cookieOf(instructor.id) }), { courseId: String(course.id) }))
+    expect((junk as { data: { fieldErrors: Record<string, string> } }).data.fieldErrors).toMatchObject({ email: expect.any(String), role: 'Choose a role.' })
+  })
+
+  test('a student of the course is refused the people page actions with 403, a stranger too', async () => {
+    const course = await createCourse(db())
+    const student = await createUser(db())
+    await addMember(db(), student.id, course.id, 'student')
+    const stranger = await createUser(db())
+    for (const who of [student, stranger]) {
+      const r = await settle(peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'y@test.example', role: 'student' }, { Cookie: await cookieOf(who.id) }), { courseId: String(course.id) })))
+      expect('thrown' in r && (r.thrown as { init: { status: number } }).init.status).toBe(403)
+    }
+  })
+
+  test('the outbox is for admins only', async () => {
+    const plain = await createUser(db())
+    const r = await settle(outboxLoader(args(getRequest('/admin/outbox', { Cookie: await cookieOf(plain.id) }))))
+    expect('thrown' in r && (r.thrown as { init: { status: number } }).init.status).toBe(403)
+    const admin = await createUser(db(), { isAdmin: true })
+    const ok = await outboxLoader(args(getRequest('/admin/outbox', { Cookie: await cookieOf(admin.id) })))
+    expect(ok.total).toBeGreaterThanOrEqual(0)
+  })
+})
+
+describe('password reset', () => {
+  test('the link sets a new password once and signs out every other session', async () => {
+    const user = await createUser(db(), { password: 'the old password' })
+    const oldCookie = await cookieOf(user.id)
+    const answer = await forgotAction(args(formRequest('/forgot-password', { email: user.email.toUpperCase() })))
+    expect(answer).toMatchObject({ sent: true })
+    const token = tokenFromMail((await findLastMailTo(db(), user.email))!.text, '/reset-password/')
+    expect((await resetLoader(args(getRequest(`/reset-password/${token}`), { token }))).email).toBe(user.email)
+    const r = await settle(resetAction(args(formRequest(`/reset-password/${token}`, { password: 'the new password!', confirm: 'the new password!' }), { token })))
+    expect(('value' in r ? (r.value as Response) : (r.thrown as Response)).headers.get('Location')).toBe('/sign-in?reset=1')
+    const [u] = await db().select().from(users).where(eq(users.id, user.id))
+    expect(await verifyPassword(u!.passwordHash!, 'the new password!')).toBe(true)
+    expect(await db().select().from(sessions).where(eq(sessions.userId, user.id))).toHaveLength(0)
+    expect(oldCookie).toBeTruthy()
+    expect((await resetLoader(args(getRequest(`/reset-password/${token}`), { token }))).problem).toBe('used')
+  })
+
+  test('an unknown address gets the same answer and no mail', async () => {
+    const answer = await forgotAction(args(formRequest('/forgot-password', { email: 'ghost@test.example' })))
+    expect(answer).toMatchObject({ sent: true })
+    expect(await findLastMailTo(db(), 'ghost@test.example')).toBeNull()
+  })
+})
