@@ -23,6 +23,8 @@ describe('documented examples (docs/examples/rankine-*.json)', () => {
     expect(r.convention.equation).toBe('ΔU = Q − W')
     expect(r.notice).toContain('not design data')
     expect(r.states[0]!.p).toEqual({ value: 75e3, unit: 'Pa' })
+    // u = h - p v for every state (closed form)
+    for (const s of r.states) expect(s.u.value).toBeCloseTo(s.h.value - s.p.value * s.v.value, 4)
   })
   test('rankine-reheat.json: Example 10-4 (from memory), eta = 45.0 %, x6 = 0.896', () => {
     const r = solved(solveRankineSpec(reheat))

@@ -106,6 +106,7 @@ export interface FormattedRankineState {
   readonly p: Quantity
   readonly T: Quantity
   readonly h: Quantity
+  readonly u: Quantity
   readonly s: Quantity
   readonly v: Quantity
   /** quality for two-phase and saturated states, null for single-phase */
@@ -156,6 +157,7 @@ export function formatRankine(id: string, r: RankineResult, convention: Conventi
       p: q(s.p, 'Pa'),
       T: q(s.T, 'K'),
       h: q(s.h, J),
+      u: q(s.u, J),
       s: q(s.s, 'J/(kg K)'),
       v: q(s.v, 'm^3/kg'),
       x: s.x,

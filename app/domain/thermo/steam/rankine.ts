@@ -51,6 +51,8 @@ export interface RankineStatePoint {
   T: number
   /** J/kg */
   h: number
+  /** Specific internal energy, J/kg. */
+  u: number
   /** J/(kg K) */
   s: number
   /** m^3/kg */
@@ -109,7 +111,7 @@ function bad(message: string, property?: string): SteamResult<never> {
 }
 
 function point(label: string, description: string, st: SteamState, massFraction: number): RankineStatePoint {
-  return { label, description, p: st.p, T: st.T, h: st.h, s: st.s, v: st.v, x: st.x, phase: st.phase, massFraction }
+  return { label, description, p: st.p, T: st.T, h: st.h, u: st.u, s: st.s, v: st.v, x: st.x, phase: st.phase, massFraction }
 }
 
 /** Solve a Rankine cycle. See RankineInput for the variants and units. */
