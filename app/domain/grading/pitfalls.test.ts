@@ -6,7 +6,7 @@ import { diagnosePitfall, evaluateWithPitfall, PITFALLS } from './pitfalls.ts'
 function sol(spec: unknown): FormattedSolution {
   const r = solveSpec(spec)
   if (!r.ok) throw new Error(r.error.message)
-  return r
+  return r as FormattedSolution
 }
 
 const carnot = { template: 'carnot-engine', convention: 'chemistry', inputs: { gas: 'monatomic', amount: '1 mol', Th: '327 °C', Tc: '27 °C', p1: '1000 kPa', expansionRatio: 2 } }

@@ -5,7 +5,7 @@
  * ln, …) and the asked quantity compared with the student's value.
  */
 import { readQuantity, solveSpec, specConvention, specMentions } from '#app/domain/thermo/index.ts'
-import type { Convention, FormattedSolution, Slips } from '#app/domain/thermo/index.ts'
+import type { Convention, Slips } from '#app/domain/thermo/index.ts'
 
 export type PitfallId =
   | 'sign-convention-flipped'
@@ -89,7 +89,7 @@ export interface Diagnosis {
 
 const close = (a: number, b: number, rel: number) => Math.abs(a - b) <= rel * Math.max(Math.abs(a), Math.abs(b))
 
-function read(sol: FormattedSolution | { ok: false }, path: string): number | null {
+function read(sol: { ok: boolean }, path: string): number | null {
   return sol.ok ? readQuantity(sol, path) : null
 }
 
@@ -128,7 +128,7 @@ export function evaluateWithPitfall(spec: unknown, quantity: string, id: Pitfall
   }
 }
 
-function unitOf(sol: FormattedSolution, path: string): string {
+function unitOf(sol: object, path: string): string {
   let cur: unknown = sol
   for (const key of path.split('.')) {
     if (cur === null || typeof cur !== 'object') return ''

@@ -163,6 +163,8 @@ const GIVEN = -1
 const GAS_LAW = -2
 const FROM_AMOUNT = -3
 const TOL = 1e-6
+const Y_ORDER = [-1, T, P, V] as const
+const X_ORDER = [P, T, V] as const
 
 const fail = (code: SolveErrorCode, message: string, extra: Partial<SolveError> = {}): { ok: false; error: SolveError } => ({
   ok: false,
@@ -217,78 +219,84 @@ function predict(gas: Gas, system: 'closed' | 'flow', s: StepSpec, q: number, a:
   const va = a[ao + 1]!
   const Ta = a[ao + 2]!
   const R = gas.R
-  const hasQ = !Number.isNaN(q)
   // The process relation first uses only what the step itself forces (equalities, ratios,
   // heat); the extra property Y of the other state is added only if that is not enough, so a
   // verification pass really tests the relation rather than re-deriving the given state.
-  const relation = (): void => {
-    switch (s.process) {
-      case 'isothermal':
-        if (hasQ && Number.isNaN(out[V]!)) {
-          // q = R T ln(vb/va)  (ln → log10 under the slip, so the inverse is 10^x)
-          const x = (dir * q) / (R * Ta)
-          out[V] = va * (gas.ln === Math.log ? Math.exp(x) : Math.pow(10, x))
-        }
-        break
-      case 'isochoric':
-        if (hasQ && Number.isNaN(out[T]!)) out[T] = gas.TfromU(gas.u(Ta) + dir * q)
-        break
-      case 'isobaric':
-        if (hasQ && Number.isNaN(out[T]!)) out[T] = gas.TfromH(gas.h(Ta) + dir * q)
-        break
-      case 'isentropic':
-        if (Number.isNaN(out[T]!)) {
-          if (!Number.isNaN(out[P]!)) out[T] = gas.isentropicTfromP(Ta, pa, out[P]!)
-          else if (!Number.isNaN(out[V]!)) out[T] = gas.isentropicTfromV(Ta, va, out[V]!)
-        } else if (Number.isNaN(out[P]!) && Number.isNaN(out[V]!)) {
-          out[P] = pa * gas.isentropicPressureRatio(Ta, out[T]!)
-        }
-        break
-      case 'polytropic': {
-        const n = s.n!
-        if (n === 0 || n === 1) break // equalities already applied
-        if (!Number.isNaN(out[V]!) && Number.isNaN(out[P]!)) out[P] = pa * Math.pow(va / out[V]!, n)
-        else if (!Number.isNaN(out[P]!) && Number.isNaN(out[V]!)) out[V] = va * Math.pow(pa / out[P]!, 1 / n)
-        // T fixes v only when n is not ~1 (the exponent 1/(n−1) would amplify rounding)
-      else if (!Number.isNaN(out[T]!) && Number.isNaN(out[V]!) && Number.isNaN(out[P]!) && Math.abs(n - 1) > 1e-6) out[V] = va * Math.pow(Ta / out[T]!, 1 / (n - 1))
-        break
-      }
-      case 'adiabatic': {
-        if (dir !== 1 || !Number.isNaN(out[T]!)) break
-        let Ts: number
-        if (!Number.isNaN(out[P]!)) Ts = gas.isentropicTfromP(Ta, pa, out[P]!)
-        else if (!Number.isNaN(out[V]!)) Ts = gas.isentropicTfromV(Ta, va, out[V]!)
-        else break
-        const eta = s.efficiency ?? 1
-        const flow = system === 'flow'
-        const ea = flow ? gas.h(Ta) : gas.u(Ta)
-        const es = flow ? gas.h(Ts) : gas.u(Ts)
-        const compressor = s.device ? s.device === 'compressor' : es > ea
-        const eb = compressor ? ea + (es - ea) / eta : ea + eta * (es - ea)
-        out[T] = flow ? gas.TfromH(eb) : gas.TfromU(eb)
-        break
-      }
-      default:
-        break
-    }
-  }
-  const gasLaw = (): void => {
-    const pn = Number.isNaN(out[P]!)
-    const vn = Number.isNaN(out[V]!)
-    const tn = Number.isNaN(out[T]!)
-    if (pn && !vn && !tn) out[P] = (R * out[T]!) / out[V]!
-    else if (vn && !pn && !tn) out[V] = (R * out[T]!) / out[P]!
-    else if (tn && !pn && !vn) out[T] = (out[P]! * out[V]!) / R
-  }
-  relation()
-  gasLaw()
-  const isFull = () => !(Number.isNaN(out[0]!) || Number.isNaN(out[1]!) || Number.isNaN(out[2]!))
-  if (!isFull() && Y >= 0 && Number.isNaN(out[Y]!)) {
+  applyRelation(gas, system, s, q, pa, va, Ta, dir, out)
+  gasLawInto(R, out)
+  if (!isFullTriple(out) && Y >= 0 && Number.isNaN(out[Y]!)) {
     out[Y] = y
-    relation()
-    gasLaw()
+    applyRelation(gas, system, s, q, pa, va, Ta, dir, out)
+    gasLawInto(R, out)
   }
-  return isFull()
+  return isFullTriple(out)
+}
+
+function isFullTriple(out: Float64Array): boolean {
+  return !(Number.isNaN(out[0]!) || Number.isNaN(out[1]!) || Number.isNaN(out[2]!))
+}
+
+function gasLawInto(R: number, out: Float64Array): void {
+  const pn = Number.isNaN(out[P]!)
+  const vn = Number.isNaN(out[V]!)
+  const tn = Number.isNaN(out[T]!)
+  if (pn && !vn && !tn) out[P] = (R * out[T]!) / out[V]!
+  else if (vn && !pn && !tn) out[V] = (R * out[T]!) / out[P]!
+  else if (tn && !pn && !vn) out[T] = (out[P]! * out[V]!) / R
+}
+
+function applyRelation(gas: Gas, system: 'closed' | 'flow', s: StepSpec, q: number, pa: number, va: number, Ta: number, dir: 1 | -1, out: Float64Array): void {
+  const R = gas.R
+  const hasQ = !Number.isNaN(q)
+  switch (s.process) {
+    case 'isothermal':
+      if (hasQ && Number.isNaN(out[V]!)) {
+        // q = R T ln(vb/va)  (ln → log10 under the slip, so the inverse is 10^x)
+        const x = (dir * q) / (R * Ta)
+        out[V] = va * (gas.ln === Math.log ? Math.exp(x) : Math.pow(10, x))
+      }
+      break
+    case 'isochoric':
+      if (hasQ && Number.isNaN(out[T]!)) out[T] = gas.TfromU(gas.u(Ta) + dir * q)
+      break
+    case 'isobaric':
+      if (hasQ && Number.isNaN(out[T]!)) out[T] = gas.TfromH(gas.h(Ta) + dir * q)
+      break
+    case 'isentropic':
+      if (Number.isNaN(out[T]!)) {
+        if (!Number.isNaN(out[P]!)) out[T] = gas.isentropicTfromP(Ta, pa, out[P]!)
+        else if (!Number.isNaN(out[V]!)) out[T] = gas.isentropicTfromV(Ta, va, out[V]!)
+      } else if (Number.isNaN(out[P]!) && Number.isNaN(out[V]!)) {
+        out[P] = pa * gas.isentropicPressureRatio(Ta, out[T]!)
+      }
+      break
+    case 'polytropic': {
+      const n = s.n!
+      if (n === 0 || n === 1) break // equalities already applied
+      if (!Number.isNaN(out[V]!) && Number.isNaN(out[P]!)) out[P] = pa * Math.pow(va / out[V]!, n)
+      else if (!Number.isNaN(out[P]!) && Number.isNaN(out[V]!)) out[V] = va * Math.pow(pa / out[P]!, 1 / n)
+      // T fixes v only when n is not ~1 (the exponent 1/(n−1) would amplify rounding)
+    else if (!Number.isNaN(out[T]!) && Number.isNaN(out[V]!) && Number.isNaN(out[P]!) && Math.abs(n - 1) > 1e-6) out[V] = va * Math.pow(Ta / out[T]!, 1 / (n - 1))
+      break
+    }
+    case 'adiabatic': {
+      if (dir !== 1 || !Number.isNaN(out[T]!)) break
+      let Ts: number
+      if (!Number.isNaN(out[P]!)) Ts = gas.isentropicTfromP(Ta, pa, out[P]!)
+      else if (!Number.isNaN(out[V]!)) Ts = gas.isentropicTfromV(Ta, va, out[V]!)
+      else break
+      const eta = s.efficiency ?? 1
+      const flow = system === 'flow'
+      const ea = flow ? gas.h(Ta) : gas.u(Ta)
+      const es = flow ? gas.h(Ts) : gas.u(Ts)
+      const compressor = s.device ? s.device === 'compressor' : es > ea
+      const eb = compressor ? ea + (es - ea) / eta : ea + eta * (es - ea)
+      out[T] = flow ? gas.TfromH(eb) : gas.TfromU(eb)
+      break
+    }
+    default:
+      break
+  }
 }
 
 function fmtValue(prop: number, x: number, basis: 'mole' | 'mass'): string {
@@ -301,6 +309,151 @@ function fmtValue(prop: number, x: number, basis: 'mole' | 'mass'): string {
 function describeStep(s: StepSpec, k: number, from: number, to: number): string {
   const what = s.process === 'adiabatic' ? `adiabatic (η = ${s.efficiency ?? 1})` : s.process === 'polytropic' ? `polytropic (n = ${s.n})` : s.process
   return `the ${what} step ${from + 1}→${to + 1}`
+}
+
+/**
+ * Working state of one solve. A class (not closures inside solveCycle) so that no function
+ * objects are created per solve: that, and plain arrays, keep a variant in microseconds.
+ */
+class Work {
+  changed = false
+  rangeError: SolveError | null = null
+  readonly tmp = new Float64Array(3)
+  constructor(
+    readonly spec: CycleSpec,
+    readonly gas: Gas,
+    readonly system: 'closed' | 'flow',
+    readonly steps: readonly StepSpec[],
+    readonly N: number,
+    readonly val: Float64Array,
+    readonly src: Int16Array,
+    readonly Vtot: Float64Array,
+    public amount: number,
+  ) {}
+  stateName(i: number): string {
+    return this.spec.states[i]!.name ?? String(i + 1)
+  }
+  label(i: number, prop: number): string | undefined {
+    const l = this.spec.labels
+    return l?.[`${PROP[prop]}${i + 1}`] ?? l?.[`${prop === V && !Number.isNaN(this.Vtot[i]!) ? 'V' : PROP[prop]}${i + 1}`]
+  }
+  known(i: number, prop: number): boolean {
+    return !Number.isNaN(this.val[3 * i + prop]!)
+  }
+  full(i: number): boolean {
+    const o = 3 * i
+    const v = this.val
+    return !(Number.isNaN(v[o]!) || Number.isNaN(v[o + 1]!) || Number.isNaN(v[o + 2]!))
+  }
+  set(i: number, prop: number, x: number, source: number): void {
+    const o = 3 * i + prop
+    const val = this.val
+    if (!Number.isNaN(val[o]!)) return
+    if (!(x > 0 && Number.isFinite(x))) {
+      if (!this.rangeError) {
+        const gas = this.gas
+        this.rangeError = {
+          code: 'out-of-range',
+          message:
+            source >= 0
+              ? `State ${this.stateName(i)}: ${describeStep(this.steps[source]!, source, source, (source + 1) % this.N)} gives no valid ${PROP_WORD[prop]}${gas.constantCp ? '' : ` (the ${gas.label} data cover ${gas.Tmin}–${gas.Tmax} K)`}`
+              : `State ${this.stateName(i)}: no valid ${PROP_WORD[prop]} follows from the data`,
+          state: i + 1,
+          property: PROP[prop],
+        }
+      }
+      return
+    }
+    val[o] = x
+    this.src[o] = source
+    this.changed = true
+    this.complete(i)
+  }
+  complete(i: number): void {
+    const o = 3 * i
+    const val = this.val
+    const R = this.gas.R
+    const pk = !Number.isNaN(val[o]!)
+    const vk = !Number.isNaN(val[o + 1]!)
+    const tk = !Number.isNaN(val[o + 2]!)
+    if (pk && vk && !tk) this.set(i, T, (val[o]! * val[o + 1]!) / R, GAS_LAW)
+    else if (pk && tk && !vk) this.set(i, V, (R * val[o + 2]!) / val[o]!, GAS_LAW)
+    else if (vk && tk && !pk) this.set(i, P, (R * val[o + 2]!) / val[o + 1]!, GAS_LAW)
+  }
+  heatOf(s: StepSpec): number {
+    return s.heat !== undefined ? s.heat : s.heatTotal !== undefined && !Number.isNaN(this.amount) ? s.heatTotal / this.amount : NaN
+  }
+  /** Regenerator pair rule: [cold step, hot step, T cold out, T hot out] from the inlet temperatures. */
+  regenOutlets(k: number, m: number): [number, number, number, number] | null {
+    const val = this.val
+    const gas = this.gas
+    const Ta = val[3 * k + T]!
+    const Td = val[3 * m + T]!
+    if (Number.isNaN(Ta) || Number.isNaN(Td)) return null
+    const c = Ta <= Td ? k : m
+    const hs = Ta <= Td ? m : k
+    const sc = this.steps[c]!
+    const sh = this.steps[hs]!
+    const Tci = val[3 * c + T]!
+    const Thi = val[3 * hs + T]!
+    const eps = sc.effectiveness ?? sh.effectiveness ?? 1
+    if (eps === 1 && sc.path === sh.path) return [c, hs, Thi, Tci]
+    const eC = sc.path === 'isochoric' ? gas.u : gas.h
+    const eH = sh.path === 'isochoric' ? gas.u : gas.h
+    const qc = eps * (eC(Thi) - eC(Tci))
+    const Tco = (sc.path === 'isochoric' ? gas.TfromU : gas.TfromH)(eC(Tci) + qc)
+    const Tho = (sh.path === 'isochoric' ? gas.TfromU : gas.TfromH)(eH(Thi) - qc)
+    return [c, hs, Tco, Tho]
+  }
+  checkStep(s: StepSpec, k: number, i: number, j: number, q: number): { ok: false; error: SolveError } | null {
+    const { gas, system, val, src, tmp, steps, N } = this
+    const basis = gas.basis
+    // Forward prediction of j from i with each non-forced property of j in turn.
+    let anyPrediction = false
+    for (const Y of Y_ORDER) {
+      if (Y >= 0 && isForced(s, Y)) continue
+      if (!predict(gas, system, s, q, val, 3 * i, Y, Y >= 0 ? val[3 * j + Y]! : NaN, 1, tmp)) continue
+      anyPrediction = true
+      for (const X of X_ORDER) {
+        if (X === Y) continue
+        const actual = val[3 * j + X]!
+        if (!relClose(tmp[X]!, actual)) {
+          // blame a given property of state j when there is one, else the mismatching one
+          const blame = src[3 * j + X] === GIVEN ? X : ([P, T, V].find((x) => x !== Y && src[3 * j + x] === GIVEN) ?? X)
+          const expected = tmp[blame]!
+          const nm = this.stateName(j)
+          const givenTxt = src[3 * j + blame] === GIVEN ? `given as ${this.label(j, blame) ?? fmtValue(blame, val[3 * j + blame]!, basis)}` : `is ${fmtValue(blame, val[3 * j + blame]!, basis)}`
+          return fail('conflict', `State ${nm}: ${PROP[blame]} ${givenTxt} but ${describeStep(s, k, i, j)} requires ${fmtValue(blame, expected, basis)}`, {
+            state: j + 1,
+            property: PROP[blame],
+            step: k + 1,
+          })
+        }
+      }
+      break
+    }
+    if (!anyPrediction && s.process === 'adiabatic') return null
+    if (s.process === 'regenerator' && k < s.partner!) {
+      const res = this.regenOutlets(k, s.partner!)
+      if (res) {
+        const [c, hs, Tco, Tho] = res
+        for (const [stepIdx, Tx] of [
+          [c, Tco],
+          [hs, Tho],
+        ] as const) {
+          const o = stepIdx + 1 === N ? 0 : stepIdx + 1
+          if (!relClose(val[3 * o + T]!, Tx)) {
+            return fail('conflict', `State ${this.stateName(o)}: T ${src[3 * o + T] === GIVEN ? `given as ${this.label(o, T) ?? fmtValue(T, val[3 * o + T]!, basis)}` : `is ${fmtValue(T, val[3 * o + T]!, basis)}`} but the regenerator (steps ${k + 1} and ${s.partner! + 1}, ε = ${s.effectiveness ?? steps[s.partner!]!.effectiveness ?? 1}) requires ${fmtValue(T, Tx, basis)}`, {
+              state: o + 1,
+              property: 'T',
+              step: stepIdx + 1,
+            })
+          }
+        }
+      }
+    }
+    return null
+  }
 }
 
 /**
@@ -346,16 +499,12 @@ export function solveCycle(spec: CycleSpec): CycleResult {
   const val = new Float64Array(3 * N).fill(NaN)
   const src = new Int16Array(3 * N).fill(UNKNOWN)
   const Vtot = new Float64Array(N).fill(NaN)
-  let amount = spec.amount ?? NaN
+
   if (spec.amount !== undefined && !(spec.amount > 0 && Number.isFinite(spec.amount))) return fail('invalid-input', 'the amount of gas must be a positive number', { property: 'amount' })
   for (let i = 0; i < N; i++) {
     const s = st[i]!
-    const given: [number | undefined, number][] = [
-      [s.p, P],
-      [s.v, V],
-      [s.T, T],
-    ]
-    for (const [x, prop] of given) {
+    for (let prop = 0; prop < 3; prop++) {
+      const x = prop === P ? s.p : prop === V ? s.v : s.T
       if (x === undefined) continue
       if (!(Number.isFinite(x) && x > 0)) return fail('invalid-input', `State ${i + 1}: ${PROP[prop]} must be a positive number`, { state: i + 1, property: PROP[prop] })
       val[3 * i + prop] = x
@@ -366,156 +515,92 @@ export function solveCycle(spec: CycleSpec): CycleResult {
       Vtot[i] = s.V
     }
   }
-  const stateName = (i: number) => st[i]!.name ?? String(i + 1)
-  const label = (i: number, prop: number) => spec.labels?.[`${PROP[prop]}${i + 1}`] ?? spec.labels?.[`${prop === V && !Number.isNaN(Vtot[i]!) ? 'V' : PROP[prop]}${i + 1}`]
-
   // 3 givens: check the gas law now, before propagation uses them
   for (let i = 0; i < N; i++) {
     const o = 3 * i
     if (src[o] === GIVEN && src[o + 1] === GIVEN && src[o + 2] === GIVEN) {
       const ratio = (val[o]! * val[o + 1]!) / (R * val[o + 2]!)
       if (!relClose(ratio, 1)) {
-        return fail('conflict', `State ${stateName(i)}: p, v and T are all given but do not satisfy the ideal-gas law (p·v/(R·T) = ${ratio.toPrecision(4)})`, { state: i + 1, property: 'T' })
+        return fail('conflict', `State ${st[i]!.name ?? String(i + 1)}: p, v and T are all given but do not satisfy the ideal-gas law (p·v/(R·T) = ${ratio.toPrecision(4)})`, { state: i + 1, property: 'T' })
       }
     }
   }
 
-  let changed = false
-  let rangeError: SolveError | null = null
-  const known = (i: number, prop: number) => !Number.isNaN(val[3 * i + prop]!)
-  const full = (i: number) => known(i, 0) && known(i, 1) && known(i, 2)
-  const set = (i: number, prop: number, x: number, source: number): void => {
-    const o = 3 * i + prop
-    if (!Number.isNaN(val[o]!)) return
-    if (!(x > 0 && Number.isFinite(x))) {
-      if (!rangeError) {
-        rangeError = {
-          code: 'out-of-range',
-          message:
-            source >= 0
-              ? `State ${stateName(i)}: ${describeStep(steps[source]!, source, source, (source + 1) % N)} gives no valid ${PROP_WORD[prop]}${gas.constantCp ? '' : ` (the ${gas.label} data cover ${gas.Tmin}–${gas.Tmax} K)`}`
-              : `State ${stateName(i)}: no valid ${PROP_WORD[prop]} follows from the data`,
-          state: i + 1,
-          property: PROP[prop],
-        }
-      }
-      return
-    }
-    val[o] = x
-    src[o] = source
-    changed = true
-    complete(i)
-  }
-  const complete = (i: number): void => {
-    const o = 3 * i
-    const pk = !Number.isNaN(val[o]!)
-    const vk = !Number.isNaN(val[o + 1]!)
-    const tk = !Number.isNaN(val[o + 2]!)
-    if (pk && vk && !tk) set(i, T, (val[o]! * val[o + 1]!) / R, GAS_LAW)
-    else if (pk && tk && !vk) set(i, V, (R * val[o + 2]!) / val[o]!, GAS_LAW)
-    else if (vk && tk && !pk) set(i, P, (R * val[o + 2]!) / val[o + 1]!, GAS_LAW)
-  }
-  for (let i = 0; i < N; i++) complete(i)
-
-  const heatOf = (s: StepSpec): number => (s.heat !== undefined ? s.heat : s.heatTotal !== undefined && !Number.isNaN(amount) ? s.heatTotal / amount : NaN)
-  const tmp = new Float64Array(3)
-
-  // regenerator pair rule: sets outlet temperatures from inlet temperatures
-  const regenEnergy = (s: StepSpec) => (s.path === 'isochoric' ? gas.u : gas.h)
-  const regenInv = (s: StepSpec) => (s.path === 'isochoric' ? gas.TfromU : gas.TfromH)
-  const regenOutlets = (k: number, m: number): [number, number, number, number] | null => {
-    // returns [cold step, hot step, T cold out, T hot out]
-    const a = k
-    const d = m
-    const Ta = val[3 * a + T]!
-    const Td = val[3 * d + T]!
-    if (Number.isNaN(Ta) || Number.isNaN(Td)) return null
-    const [c, hs] = Ta <= Td ? [k, m] : [m, k]
-    const sc = steps[c]!
-    const sh = steps[hs]!
-    const Tci = val[3 * c + T]!
-    const Thi = val[3 * hs + T]!
-    const eps = sc.effectiveness ?? sh.effectiveness ?? 1
-    const eC = regenEnergy(sc)
-    const eH = regenEnergy(sh)
-    const qc = eps * (eC(Thi) - eC(Tci))
-    const Tco = eps === 1 && sc.path === sh.path ? Thi : regenInv(sc)(eC(Tci) + qc)
-    const Tho = eps === 1 && sc.path === sh.path ? Tci : regenInv(sh)(eH(Thi) - qc)
-    return [c, hs, Tco, Tho]
-  }
+  const c = new Work(spec, gas, system, steps, N, val, src, Vtot, spec.amount ?? NaN)
+  for (let i = 0; i < N; i++) c.complete(i)
 
   // ---- propagation
   for (let iter = 0; iter < 4 * N + 8; iter++) {
-    changed = false
+    c.changed = false
     // amount ↔ total volumes
     for (let i = 0; i < N; i++) {
       const Vt = Vtot[i]!
       if (Number.isNaN(Vt)) continue
-      if (!Number.isNaN(amount)) set(i, V, Vt / amount, FROM_AMOUNT)
-      else if (known(i, V)) {
-        amount = Vt / val[3 * i + V]!
-        changed = true
+      if (!Number.isNaN(c.amount)) c.set(i, V, Vt / c.amount, FROM_AMOUNT)
+      else if (c.known(i, V)) {
+        c.amount = Vt / val[3 * i + V]!
+        c.changed = true
       }
     }
     for (let k = 0; k < N; k++) {
       const s = steps[k]!
       const i = k
       const j = k + 1 === N ? 0 : k + 1
-      const fi = full(i)
-      const fj = full(j)
+      const fi = c.full(i)
+      const fj = c.full(j)
       if (fi && fj) continue
       // single-property transfers (equalities and ratios), both directions
       const eq = equalityProp(s)
       if (eq >= 0) {
-        if (known(i, eq)) set(j, eq, val[3 * i + eq]!, k)
-        else if (known(j, eq)) set(i, eq, val[3 * j + eq]!, k)
+        if (c.known(i, eq)) c.set(j, eq, val[3 * i + eq]!, k)
+        else if (c.known(j, eq)) c.set(i, eq, val[3 * j + eq]!, k)
       }
       for (let prop = 0; prop < 3; prop++) {
         const r = ratioOf(s, prop)
         if (r === undefined) continue
-        if (known(i, prop)) set(j, prop, val[3 * i + prop]! * r, k)
-        else if (known(j, prop)) set(i, prop, val[3 * j + prop]! / r, k)
+        if (c.known(i, prop)) c.set(j, prop, val[3 * i + prop]! * r, k)
+        else if (c.known(j, prop)) c.set(i, prop, val[3 * j + prop]! / r, k)
       }
-      const q = heatOf(s)
-      if (full(i) && !full(j)) {
+      const q = c.heatOf(s)
+      if (c.full(i) && !c.full(j)) {
         let Y = -1
-        for (let prop = 0; prop < 3 && Y < 0; prop++) if (known(j, prop) && !isForced(s, prop)) Y = prop
-        if (predict(gas, system, s, q, val, 3 * i, Y, Y >= 0 ? val[3 * j + Y]! : NaN, 1, tmp)) {
-          for (let prop = 0; prop < 3; prop++) set(j, prop, tmp[prop]!, k)
+        for (let prop = 0; prop < 3 && Y < 0; prop++) if (c.known(j, prop) && !isForced(s, prop)) Y = prop
+        if (predict(gas, system, s, q, val, 3 * i, Y, Y >= 0 ? val[3 * j + Y]! : NaN, 1, c.tmp)) {
+          for (let prop = 0; prop < 3; prop++) c.set(j, prop, c.tmp[prop]!, k)
         } else if (s.process === 'adiabatic' || s.process === 'isentropic' || s.process === 'polytropic' || s.process === 'isochoric' || s.process === 'isobaric') {
           // a NaN from the inverse functions means out of the data range
-          for (let prop = 0; prop < 3; prop++) if (!Number.isNaN(tmp[prop]!)) set(j, prop, tmp[prop]!, k)
+          for (let prop = 0; prop < 3; prop++) if (!Number.isNaN(c.tmp[prop]!)) c.set(j, prop, c.tmp[prop]!, k)
         }
-      } else if (full(j) && !full(i) && s.process !== 'adiabatic') {
+      } else if (c.full(j) && !c.full(i) && s.process !== 'adiabatic') {
         let Y = -1
-        for (let prop = 0; prop < 3 && Y < 0; prop++) if (known(i, prop) && !isForced(s, prop)) Y = prop
-        if (predict(gas, system, s, q, val, 3 * j, Y, Y >= 0 ? val[3 * i + Y]! : NaN, -1, tmp)) {
-          for (let prop = 0; prop < 3; prop++) set(i, prop, tmp[prop]!, k)
+        for (let prop = 0; prop < 3 && Y < 0; prop++) if (c.known(i, prop) && !isForced(s, prop)) Y = prop
+        if (predict(gas, system, s, q, val, 3 * j, Y, Y >= 0 ? val[3 * i + Y]! : NaN, -1, c.tmp)) {
+          for (let prop = 0; prop < 3; prop++) c.set(i, prop, c.tmp[prop]!, k)
         }
       }
       if (s.process === 'regenerator' && k < s.partner!) {
         const m = s.partner!
-        const res = regenOutlets(k, m)
+        const res = c.regenOutlets(k, m)
         if (res) {
-          const [c, hs, Tco, Tho] = res
-          set(c + 1 === N ? 0 : c + 1, T, Tco, c)
-          set(hs + 1 === N ? 0 : hs + 1, T, Tho, hs)
+          const [cs, hs, Tco, Tho] = res
+          c.set(cs + 1 === N ? 0 : cs + 1, T, Tco, cs)
+          c.set(hs + 1 === N ? 0 : hs + 1, T, Tho, hs)
         }
       }
     }
-    if (rangeError) return { ok: false, error: rangeError }
-    if (!changed) break
+    if (c.rangeError) return { ok: false, error: c.rangeError }
+    if (!c.changed) break
   }
 
   // ---- underdetermined?
   for (let i = 0; i < N; i++) {
-    if (full(i)) continue
-    const have = [P, V, T].filter((p) => known(i, p))
-    const nm = stateName(i)
+    if (c.full(i)) continue
+    const have = [P, V, T].filter((p) => c.known(i, p))
+    const nm = c.stateName(i)
     if (have.length === 0) {
       return fail('underdetermined', `State ${nm}: neither p, v nor T is fixed: give two of p${nm}, T${nm}, v${nm} (or a ratio or heat on an adjacent step)`, { state: i + 1, property: 'T' })
     }
-    const missing = [P, V, T].filter((p) => !known(i, p))
+    const missing = [P, V, T].filter((p) => !c.known(i, p))
     const first = missing.includes(T) ? T : missing[0]!
     const names = missing.map((p) => `${PROP[p]}${nm}`)
     return fail(
@@ -524,73 +609,26 @@ export function solveCycle(spec: CycleSpec): CycleResult {
       { state: i + 1, property: PROP[first] },
     )
   }
-  const needsAmount = steps.some((s) => s.heatTotal !== undefined) || Array.from(Vtot).some((x) => !Number.isNaN(x))
-  if (needsAmount && Number.isNaN(amount)) {
+  let needsAmount = false
+  for (let k = 0; k < N; k++) if (steps[k]!.heatTotal !== undefined || !Number.isNaN(Vtot[k]!)) needsAmount = true
+  if (needsAmount && Number.isNaN(c.amount)) {
     return fail('underdetermined', 'the amount of gas is not fixed: give the amount (n or m), or p, V and T of one state', { property: 'amount' })
   }
 
   // ---- verification: every relation must hold (over-specified data must agree)
   for (let i = 0; i < N; i++) {
     const Vt = Vtot[i]!
-    if (!Number.isNaN(Vt) && !relClose(Vt, amount * val[3 * i + V]!)) {
-      return fail('conflict', `State ${stateName(i)}: V given as ${spec.labels?.[`V${i + 1}`] ?? `${Vt} m³`} but the other data require ${Number((amount * val[3 * i + V]!).toPrecision(4))} m³`, { state: i + 1, property: 'V' })
+    if (!Number.isNaN(Vt) && !relClose(Vt, c.amount * val[3 * i + V]!)) {
+      return fail('conflict', `State ${c.stateName(i)}: V given as ${spec.labels?.[`V${i + 1}`] ?? `${Vt} m³`} but the other data require ${Number((c.amount * val[3 * i + V]!).toPrecision(4))} m³`, { state: i + 1, property: 'V' })
     }
   }
   for (let k = 0; k < N; k++) {
     const s = steps[k]!
     const i = k
     const j = k + 1 === N ? 0 : k + 1
-    const q = heatOf(s)
-    const conflict = checkStep(s, k, i, j, q)
+    const q = c.heatOf(s)
+    const conflict = c.checkStep(s, k, i, j, q)
     if (conflict) return conflict
-  }
-
-  function checkStep(s: StepSpec, k: number, i: number, j: number, q: number): { ok: false; error: SolveError } | null {
-    // Forward prediction of j from i with each non-forced property of j in turn.
-    let anyPrediction = false
-    for (const Y of [-1, T, P, V]) {
-      if (Y >= 0 && isForced(s, Y)) continue
-      if (!predict(gas, system, s, q, val, 3 * i, Y, Y >= 0 ? val[3 * j + Y]! : NaN, 1, tmp)) continue
-      anyPrediction = true
-      for (const X of [P, T, V]) {
-        if (X === Y) continue
-        const actual = val[3 * j + X]!
-        if (!relClose(tmp[X]!, actual)) {
-          // blame a given property of state j when there is one, else the mismatching one
-          const blame = src[3 * j + X] === GIVEN ? X : ([P, T, V].find((x) => x !== Y && src[3 * j + x] === GIVEN) ?? X)
-          const expected = tmp[blame]!
-          const nm = stateName(j)
-          const givenTxt = src[3 * j + blame] === GIVEN ? `given as ${label(j, blame) ?? fmtValue(blame, val[3 * j + blame]!, basis)}` : `is ${fmtValue(blame, val[3 * j + blame]!, basis)}`
-          return fail('conflict', `State ${nm}: ${PROP[blame]} ${givenTxt} but ${describeStep(s, k, i, j)} requires ${fmtValue(blame, expected, basis)}`, {
-            state: j + 1,
-            property: PROP[blame],
-            step: k + 1,
-          })
-        }
-      }
-      break
-    }
-    if (!anyPrediction && s.process === 'adiabatic') return null
-    if (s.process === 'regenerator' && k < s.partner!) {
-      const res = regenOutlets(k, s.partner!)
-      if (res) {
-        const [c, hs, Tco, Tho] = res
-        for (const [stepIdx, Tx] of [
-          [c, Tco],
-          [hs, Tho],
-        ] as const) {
-          const o = stepIdx + 1 === N ? 0 : stepIdx + 1
-          if (!relClose(val[3 * o + T]!, Tx)) {
-            return fail('conflict', `State ${stateName(o)}: T ${src[3 * o + T] === GIVEN ? `given as ${label(o, T) ?? fmtValue(T, val[3 * o + T]!, basis)}` : `is ${fmtValue(T, val[3 * o + T]!, basis)}`} but the regenerator (steps ${k + 1} and ${s.partner! + 1}, ε = ${s.effectiveness ?? steps[s.partner!]!.effectiveness ?? 1}) requires ${fmtValue(T, Tx, basis)}`, {
-              state: o + 1,
-              property: 'T',
-              step: stepIdx + 1,
-            })
-          }
-        }
-      }
-    }
-    return null
   }
 
   // ---- results
@@ -600,7 +638,7 @@ export function solveCycle(spec: CycleSpec): CycleResult {
     const p = val[3 * i]!
     const v = val[3 * i + 1]!
     const Ti = val[3 * i + 2]!
-    states[i] = { name: stateName(i), p, v, T: Ti, u: gas.u(Ti), h: gas.h(Ti), s: gas.sT(Ti) - R * lnG(p / P_REF) }
+    states[i] = { name: c.stateName(i), p, v, T: Ti, u: gas.u(Ti), h: gas.h(Ti), s: gas.sT(Ti) - R * lnG(p / P_REF) }
   }
   const results: StepResult[] = new Array(N)
   let qIn = 0
@@ -675,7 +713,7 @@ export function solveCycle(spec: CycleSpec): CycleResult {
       const scale = Math.max(Math.abs(a.h), Math.abs(b.h), R * a.T, 1)
       const okSign = s.expectHeat === 'in' ? q > 1e-12 * scale : q < -1e-12 * scale
       if (!okSign) {
-        return fail('unphysical', `Step ${k + 1} (${stateName(k)}→${stateName(j)}): this step should ${s.expectHeat === 'in' ? 'take heat in' : 'reject heat'}, but with these data q = ${Number(q.toPrecision(4))} J/${basis === 'mass' ? 'kg' : 'mol'} (T${stateName(k)} = ${Number(a.T.toPrecision(4))} K, T${stateName(j)} = ${Number(b.T.toPrecision(4))} K)`, {
+        return fail('unphysical', `Step ${k + 1} (${c.stateName(k)}→${c.stateName(j)}): this step should ${s.expectHeat === 'in' ? 'take heat in' : 'reject heat'}, but with these data q = ${Number(q.toPrecision(4))} J/${basis === 'mass' ? 'kg' : 'mol'} (T${c.stateName(k)} = ${Number(a.T.toPrecision(4))} K, T${c.stateName(j)} = ${Number(b.T.toPrecision(4))} K)`, {
           step: k + 1,
           state: j + 1,
           property: 'T',
@@ -714,7 +752,7 @@ export function solveCycle(spec: CycleSpec): CycleResult {
     ok: true,
     gas,
     system,
-    amount: Number.isNaN(amount) ? null : amount,
+    amount: Number.isNaN(c.amount) ? null : c.amount,
     states,
     steps: results,
     totals: { qIn, qOut, wNet, purpose, efficiency, copRefrigerator, copHeatPump, mep, backWorkRatio, Tmin, Tmax, carnotBound, entropyGenerated, duCycle, dsCycle },

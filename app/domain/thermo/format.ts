@@ -143,7 +143,7 @@ export interface FormattedError {
  * 'totals.netWork', 'totals.efficiency', 'states.3.T', 'steps.2.q', 'steps.2.total.w',
  * 'totals.total.heatIn'. Returns null when the path names nothing numeric.
  */
-export function readQuantity(sol: FormattedSolution, path: string): number | null {
+export function readQuantity(sol: object, path: string): number | null {
   const parts = path.split('.')
   let cur: unknown = sol
   for (let i = 0; i < parts.length; i++) {

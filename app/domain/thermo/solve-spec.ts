@@ -14,7 +14,8 @@ import { formatSolution } from './format.ts'
 import type { FormattedSolution } from './format.ts'
 import type { Slips } from './slips.ts'
 import { parseCycleSpec } from './spec.ts'
-import { templates } from './templates/index.ts'
+import { isRankineTemplate, solveRankineTemplate, templates } from './templates/index.ts'
+import type { FormattedRankine } from './steam/rankine-template.ts'
 
 export interface SpecFailure {
   readonly ok: false
@@ -56,9 +57,22 @@ export function specConvention(raw: unknown): Convention | { error: string } {
   return isConvention(c) ? c : { error: `convention must be "chemistry" or "engineering", not ${JSON.stringify(c)}` }
 }
 
-export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): FormattedSolution | SpecFailure {
+/**
+ * Solve a spec file. Steam templates ('rankine', 'rankine-reheat', 'rankine-regenerative') are
+ * dispatched to the steam package (app/domain/thermo/steam), which formats its own result;
+ * slips do not apply to them.
+ */
+export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): FormattedSolution | FormattedRankine | SpecFailure {
   const conv = options.convention ?? specConvention(raw)
   if (typeof conv !== 'string') return { ok: false, error: { code: 'invalid-spec', message: conv.error, property: 'convention' } }
+  const t = (raw as { template?: unknown } | null)?.template
+  if (isRankineTemplate(t)) {
+    try {
+      return solveRankineTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
+    } catch (e) {
+      return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+    }
+  }
   const r = solveSpecNumeric(raw, options.slips)
   if (!r.ok) return r
   try {

@@ -1,0 +1,101 @@
+/**
+ * npm run bench:solver — median time per solved ideal-gas variant (Otto, Brayton, Carnot) and
+ * variants per second when validating 10,000 random variants. Target: ≤ 10 µs per variant.
+ * Inputs are parsed to numbers once (mathjs stays at the edge); the timed loop is
+ * template build + solveCycle + sanity checks on numbers.
+ */
+import { performance } from 'node:perf_hooks'
+import { constantCpGas, gasPreset, solveCycle, templates } from '#app/domain/thermo/index.ts'
+import type { CycleResult, Gas } from '#app/domain/thermo/index.ts'
+
+const TARGET_US = 10
+
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0
+    let t = a
+    t = Math.imul(t ^ (t >>> 15), t | 1)
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
+  }
+}
+const rand = mulberry32(12345)
+const u = (lo: number, hi: number) => lo + (hi - lo) * rand()
+
+const airR = gasPreset('air')
+const k14 = constantCpGas({ basis: 'mass', R: 287, gamma: 1.4 })
+const mono = gasPreset('monatomic')
+if (!airR.ok || !k14.ok || !mono.ok) throw new Error('gas presets')
+const air: Gas = airR.gas
+
+type Variant = () => CycleResult
+const makers: Record<string, () => Variant> = {
+  otto: () => {
+    const num = { p1: u(80e3, 120e3), T1: u(280, 320), compressionRatio: u(6, 12), T3: u(1600, 2400) }
+    return () => {
+      const b = templates.otto!.build({ gas: air, num, heat: {}, labels: {} })
+      return b.ok ? solveCycle(b.spec) : (b as CycleResult)
+    }
+  },
+  brayton: () => {
+    const num = { p1: u(90e3, 110e3), T1: u(280, 320), pressureRatio: u(5, 20), turbineInletT: u(1200, 1600), compressorEfficiency: u(0.8, 0.9), turbineEfficiency: u(0.85, 0.92) }
+    return () => {
+      const b = templates.brayton!.build({ gas: air, num, heat: {}, labels: {} })
+      return b.ok ? solveCycle(b.spec) : (b as CycleResult)
+    }
+  },
+  'carnot-engine': () => {
+    const num = { Th: u(500, 1000), Tc: u(280, 350), p1: u(2e5, 2e6), expansionRatio: u(1.5, 4) }
+    return () => {
+      const b = templates['carnot-engine']!.build({ gas: mono.gas, num, heat: {}, labels: {}, amount: 1 })
+      return b.ok ? solveCycle(b.spec) : (b as CycleResult)
+    }
+  },
+}
+
+function check(r: CycleResult): boolean {
+  if (!r.ok) return false
+  const t = r.totals
+  const scale = Math.abs(t.qIn) + Math.abs(t.qOut) + 1
+  let sumQ = 0
+  for (const s of r.steps) sumQ += s.q
+  return Math.abs(sumQ + t.wNet) < 1e-9 * scale && Math.abs(t.duCycle) < 1e-9 * scale && Math.abs(t.dsCycle) < 1e-9 * scale && (t.efficiency ?? 0) <= t.carnotBound + 1e-12
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b)
+  return s[Math.floor(s.length / 2)]!
+}
+
+console.log('Cyclewright solver benchmark (ideal gas; a teaching tool, numbers are not design data)')
+console.log(`node ${process.version}, target ≤ ${TARGET_US} µs per ideal-gas variant\n`)
+let worst = 0
+for (const [name, make] of Object.entries(makers)) {
+  const variants = Array.from({ length: 2000 }, make)
+  for (let w = 0; w < 3; w++) for (const v of variants) v() // warm-up (JIT)
+  const per: number[] = []
+  const BATCH = 100
+  for (let round = 0; round < 5; round++) {
+    for (let i = 0; i < variants.length; i += BATCH) {
+      const t0 = performance.now()
+      for (let j = i; j < i + BATCH; j++) variants[j]!()
+      per.push(((performance.now() - t0) * 1000) / BATCH)
+    }
+  }
+  const m = median(per)
+  worst = Math.max(worst, m)
+  console.log(`${name.padEnd(14)} median ${m.toFixed(2)} µs per solved variant`)
+}
+
+const names = Object.keys(makers)
+const all = Array.from({ length: 10_000 }, (_, i) => makers[names[i % names.length]!]!())
+const t0 = performance.now()
+let okCount = 0
+for (const v of all) if (check(v())) okCount++
+const secs = (performance.now() - t0) / 1000
+const perSec = all.length / secs
+console.log(`\nvalidated ${all.length} random variants (solve + first-law, ΔS and Carnot checks): ${okCount} passed, ${Math.round(perSec).toLocaleString('en')} variants/s (${((secs * 1e6) / all.length).toFixed(2)} µs each)`)
+const met = worst <= TARGET_US
+console.log(`target ≤ ${TARGET_US} µs per variant: ${met ? 'MET' : 'NOT MET'} (slowest median ${worst.toFixed(2)} µs)`)
+if (okCount !== all.length) process.exitCode = 1
