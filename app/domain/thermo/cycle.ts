@@ -507,6 +507,9 @@ export function solveCycle(spec: CycleSpec): CycleResult {
       const x = prop === P ? s.p : prop === V ? s.v : s.T
       if (x === undefined) continue
       if (!(Number.isFinite(x) && x > 0)) return fail('invalid-input', `State ${i + 1}: ${PROP[prop]} must be a positive number`, { state: i + 1, property: PROP[prop] })
+      if (prop === T && (x < gas.Tmin || x > gas.Tmax)) {
+        return fail('out-of-range', `State ${i + 1}: T = ${x} K is outside the range of the ${gas.label} data (${gas.Tmin}–${gas.Tmax} K)`, { state: i + 1, property: 'T' })
+      }
       val[3 * i + prop] = x
       src[3 * i + prop] = GIVEN
     }
@@ -566,10 +569,11 @@ export function solveCycle(spec: CycleSpec): CycleResult {
         let Y = -1
         for (let prop = 0; prop < 3 && Y < 0; prop++) if (c.known(j, prop) && !isForced(s, prop)) Y = prop
         if (predict(gas, system, s, q, val, 3 * i, Y, Y >= 0 ? val[3 * j + Y]! : NaN, 1, c.tmp)) {
-          for (let prop = 0; prop < 3; prop++) c.set(j, prop, c.tmp[prop]!, k)
-        } else if (s.process === 'adiabatic' || s.process === 'isentropic' || s.process === 'polytropic' || s.process === 'isochoric' || s.process === 'isobaric') {
-          // a NaN from the inverse functions means out of the data range
-          for (let prop = 0; prop < 3; prop++) if (!Number.isNaN(c.tmp[prop]!)) c.set(j, prop, c.tmp[prop]!, k)
+          for (let n2 = 0; n2 < 3; n2++) c.set(j, (n2 + 2) % 3, c.tmp[(n2 + 2) % 3]!, k) // T first, for the message
+        } else if (!Number.isNaN(q) || (Y >= 0 && !(Y === T && (s.process === 'adiabatic' || s.process === 'polytropic')))) {
+          // The relation had everything it needs, so a NaN came from an inverse function or
+          // a root outside the data range: report it as out of range (c.set records it).
+          for (let n2 = 0; n2 < 3; n2++) c.set(j, (n2 + 2) % 3, c.tmp[(n2 + 2) % 3]!, k) // T first, for the message
         }
       } else if (c.full(j) && !c.full(i) && s.process !== 'adiabatic') {
         let Y = -1
