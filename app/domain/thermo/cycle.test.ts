@@ -254,3 +254,23 @@ describe('property-based: first-law closure and ΔS_cycle = 0 on random valid cy
     expect(s.totals.efficiency!).toBeLessThanOrEqual(s.totals.carnotBound + 1e-12)
   })
 })
+
+describe('property-based: random general cycles (polytropic → isochoric → isobaric), seeded', () => {
+  const rand = mulberry32(777)
+  const cases = Array.from({ length: 30 }, (_, k) => {
+    const gas = k % 3 === 0 ? preset('nasa:N2') : k % 3 === 1 ? gasK(uniform(rand, 1.2, 1.67)) : preset('diatomic')
+    const n = uniform(rand, 0.5, 2.5)
+    const rp = uniform(rand, 1.5, 8)
+    return [`case ${k} (n = ${n.toFixed(3)})`, gas, n, rp, uniform(rand, 250, 400), uniform(rand, 5e4, 2e5)] as const
+  })
+  test.each(cases)('%s', (_name, gas, n, rp, T1, p1) => {
+    const s = solved({ gas, states: [{ p: p1, T: T1 }, {}, {}], steps: [{ process: 'polytropic', n, pressureRatio: rp }, { process: 'isochoric' }, { process: 'isobaric' }], amount: 2 })
+    const [a, b] = s.states
+    // polytropic work in closed form: w_by = (p2 v2 − p1 v1)/(1 − n)
+    expect(-s.steps[0]!.w).toBeCloseTo((b!.p * b!.v - a!.p * a!.v) / (1 - n), 6)
+    const scale = Math.max(...s.states.map((x) => Math.abs(x.h))) + 1e3
+    for (const st of s.steps) expect(Math.abs(st.du - st.q - st.w)).toBeLessThan(1e-9 * scale)
+    expect(Math.abs(s.steps.reduce((acc, x) => acc + x.q, 0) + s.totals.wNet)).toBeLessThan(1e-9 * scale)
+    expect(Math.abs(s.totals.dsCycle)).toBeLessThan(1e-9 * scale)
+  })
+})
