@@ -43,17 +43,17 @@ const SUPERSCRIPT_RUN = /[\u2070\u00B9\u00B2\u00B3\u2074-\u2079\u207B\u207A]+/g
 
 const DEGREE = '[\u00B0\u00BA\u02DA]'
 const TEMPERATURE_RULES: ReadonlyArray<readonly [RegExp, string]> = [
-  [/\u2103/g, 'degC'],
-  [/\u2109/g, 'degF'],
-  [new RegExp(`${DEGREE}\\s*C(?![A-Za-z0-9_])`, 'g'), 'degC'],
-  [new RegExp(`${DEGREE}\\s*F(?![A-Za-z0-9_])`, 'g'), 'degF'],
-  [new RegExp(`${DEGREE}\\s*R(?![A-Za-z0-9_])`, 'g'), 'degR'],
-  [new RegExp(`${DEGREE}\\s*K(?![A-Za-z0-9_])`, 'g'), 'K'],
-  [/\bdeg(?:ree)?s?\.?\s*(?:Celsius|celsius|C)(?![A-Za-z0-9_])/g, 'degC'],
-  [/\bdeg(?:ree)?s?\.?\s*(?:Fahrenheit|fahrenheit|F)(?![A-Za-z0-9_])/g, 'degF'],
-  [/\bCelsius\b/g, 'degC'],
-  [/\bFahrenheit\b/g, 'degF'],
-  [/\bKelvins?\b/g, 'K'],
+  [/\u2103/g, ' degC'],
+  [/\u2109/g, ' degF'],
+  [new RegExp(`${DEGREE}\\s*C(?![A-Za-z0-9_])`, 'g'), ' degC'],
+  [new RegExp(`${DEGREE}\\s*F(?![A-Za-z0-9_])`, 'g'), ' degF'],
+  [new RegExp(`${DEGREE}\\s*R(?![A-Za-z0-9_])`, 'g'), ' degR'],
+  [new RegExp(`${DEGREE}\\s*K(?![A-Za-z0-9_])`, 'g'), ' K'],
+  [/\bdeg(?:ree)?s?\.?\s*(?:Celsius|celsius|C)(?![A-Za-z0-9_])/g, ' degC'],
+  [/\bdeg(?:ree)?s?\.?\s*(?:Fahrenheit|fahrenheit|F)(?![A-Za-z0-9_])/g, ' degF'],
+  [/\bCelsius\b/g, ' degC'],
+  [/\bFahrenheit\b/g, ' degF'],
+  [/\bKelvins?\b/g, ' K'],
   [new RegExp(DEGREE, 'g'), ' deg'],
 ]
 
@@ -96,6 +96,7 @@ export function normalizeTypography(text: string, options: TypographyOptions): s
   s = s.replace(/[\u00B5\u03BC]/g, 'u').replace(/\u03C0/g, 'pi').replace(/\u00F7/g, '/')
   s = s.replace(LETTER_DOT_LETTER, '\u00B7')
   s = s.replace(MIDDLE_DOTS, '\u00B7')
+  s = s.replace(/ {2,}/g, ' ').replace(/\( /g, '(').replace(/ \)/g, ')')
   s = applySlashRule(s, isUnitName)
   s = s.replace(/[\u00B7\u00D7]/g, '*')
   return s.trim()
