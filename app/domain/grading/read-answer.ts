@@ -209,7 +209,7 @@ function readWith(ctx: Ctx): ReadAnswerResult {
   let s = normalizeTypography(raw, { isUnitName })
   if (s === '') throw new AnswerError('empty')
   if (/[\r\n\v\f;]/.test(s)) throw new AnswerError('multiple-expressions')
-  if (/\d\s?,\s?\d/.test(s)) throw new AnswerError('decimal-comma')
+  if (/\d,\d/.test(s)) throw new AnswerError('decimal-comma')
   if (s.includes('=')) throw new AnswerError('equals-sign')
   if (!ALLOWED_CHARS.test(s)) {
     const bad = Array.from(s).find((c) => !ALLOWED_CHARS.test(c)) ?? ''
