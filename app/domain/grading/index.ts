@@ -48,4 +48,5 @@ export type { AnswerErrorCode } from './messages.ts'
 export { normalizeTypography } from './typography.ts'
 export type { TypographyOptions } from './typography.ts'
 
-// Pitfalls (owned by the physics engineer): add `export … from './pitfalls.ts'` here when ready.
+// Pitfalls: re-evaluating a variant with a catalogued slip (see pitfalls.ts).
+export { PITFALLS, diagnosePitfall, evaluateWithPitfall, type Diagnosis, type DiagnoseInput, type Pitfall, type PitfallId } from './pitfalls.ts'
