@@ -121,8 +121,14 @@ function readOrCreate(file: string, make: () => string): string {
   return value
 }
 
+function storedPort(dir: string): number {
+  if (process.env.CYCLEWRIGHT_PG_PORT) return Number(process.env.CYCLEWRIGHT_PG_PORT)
+  const file = path.join(dir, 'port')
+  return fs.existsSync(file) ? Number(fs.readFileSync(file, 'utf8').trim()) || DEFAULT_PORT : DEFAULT_PORT
+}
+
 function describe(dir: string): Omit<Cluster, 'password' | 'url' | 'adminUrl'> {
-  const port = Number(process.env.CYCLEWRIGHT_PG_PORT ?? DEFAULT_PORT)
+  const port = storedPort(dir)
   return {
     dir,
     dataDir: path.join(dir, 'data'),
@@ -166,7 +172,7 @@ function portIsFree(port: number): Promise<boolean> {
 export async function startCluster(log: (line: string) => void = console.log): Promise<Cluster> {
   const bin = ensureServerBinaries(log)
   const dir = clusterDir()
-  const c = describe(dir)
+  let c = describe(dir)
   fs.mkdirSync(path.dirname(dir), { recursive: true, mode: 0o755 })
   fs.mkdirSync(dir, { recursive: true, mode: 0o700 })
   const password = readOrCreate(path.join(dir, 'password'), () => randomBytes(18).toString('base64url'))
@@ -209,9 +215,20 @@ export async function startCluster(log: (line: string) => void = console.log): P
     fs.rmSync(pidFile, { force: true })
   }
   if (!(await portIsFree(c.port))) {
-    throw new ClusterError(
-      `Port ${c.port} on 127.0.0.1 is taken by another program. Set CYCLEWRIGHT_PG_PORT to a free port, or DATABASE_URL to an existing server.`,
-    )
+    // Another program (or another checkout's cluster) has the port: take the next free one
+    // and remember it for this cluster, unless the port was set explicitly.
+    let found: number | null = null
+    if (!process.env.CYCLEWRIGHT_PG_PORT) {
+      for (let p = DEFAULT_PORT + 1; p < DEFAULT_PORT + 50 && found === null; p++) if (await portIsFree(p)) found = p
+    }
+    if (found === null) {
+      throw new ClusterError(
+        `Port ${c.port} on 127.0.0.1 is taken by another program. Set CYCLEWRIGHT_PG_PORT to a free port, or DATABASE_URL to an existing server.`,
+      )
+    }
+    log(`Port ${c.port} is taken; the private cluster uses ${found} instead.`)
+    fs.writeFileSync(path.join(dir, 'port'), `${found}\n`)
+    c = { ...c, port: found }
   }
   runServerTool(bin, 'pg_ctl', [
     'start',
