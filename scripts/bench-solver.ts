@@ -7,19 +7,10 @@
 import { performance } from 'node:perf_hooks'
 import { constantCpGas, gasPreset, solveCycle, templates } from '#app/domain/thermo/index.ts'
 import type { CycleResult, Gas } from '#app/domain/thermo/index.ts'
+import { mulberry32 } from '#app/domain/random.ts'
 
 const TARGET_US = 10
 
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 const rand = mulberry32(12345)
 const u = (lo: number, hi: number) => lo + (hi - lo) * rand()
 

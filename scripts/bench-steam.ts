@@ -14,6 +14,7 @@
 // codes and licensed engineering practice.
 import { spawnSync } from 'node:child_process'
 import { existsSync } from 'node:fs'
+import { mulberry32 as prng } from '#app/domain/random.ts'
 import { hsFromPT } from '../app/domain/thermo/steam/index.ts'
 
 const N = 100_000
@@ -21,16 +22,6 @@ const PYTHON = '/usr/bin/python3'
 
 // Seeded points over the range both libraries accept: 280..1070 K, 0.0007..100 MPa
 // (iapws rejects p below 611.2 Pa). Regions 1, 2 and 3 all occur.
-function prng(seed: number): () => number {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 const rnd = prng(20260)
 const P = new Float64Array(N) // Pa
 const T = new Float64Array(N) // K

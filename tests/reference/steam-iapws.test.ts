@@ -20,18 +20,8 @@ import {
 import type { SteamState } from '#app/domain/thermo/steam/index.ts'
 import { referenceAvailable, referenceBatch, REFERENCE_MISSING_MESSAGE } from '#tests/support/iapws-reference.ts'
 import type { RefQuery, RefResult, RefState } from '#tests/support/iapws-reference.ts'
+import { mulberry32 as prng } from '#app/domain/random.ts'
 
-/** mulberry32: small seeded PRNG, inline so the point set is reproducible. */
-function prng(seed: number): () => number {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 const rnd = prng(0x1f97)
 const uniform = (a: number, b: number) => a + (b - a) * rnd()
 const logUniform = (a: number, b: number) => Math.exp(uniform(Math.log(a), Math.log(b)))

@@ -1,17 +1,3 @@
 /** Test-only helpers (seeded PRNG written inline, no package). Not exported from index.ts. */
 
-/** mulberry32: a small, well-known 32-bit PRNG (Tommy Ettinger's public-domain generator). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
-
-export function uniform(rand: () => number, lo: number, hi: number): number {
-  return lo + (hi - lo) * rand()
-}
+export { mulberry32, uniform } from '../random.ts'
