@@ -3,6 +3,7 @@ import { z } from 'zod'
 import { LinkProblemPanel } from '#app/components/link-problem.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { Field } from '#app/components/ui/field.tsx'
+import { NewPasswordFields } from '#app/components/new-password-fields.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { roleLabels } from '#app/domain/permissions.ts'
 import { noFieldErrors, noValues, parseForm } from '#app/lib/form.ts'
@@ -85,17 +86,7 @@ export default function JoinRoute({ loaderData, actionData }: Route.ComponentPro
               defaultValue={actionData?.values?.name}
               error={actionData?.fieldErrors?.name}
             />
-            <Field
-              label="Choose a password"
-              name="password"
-              type="password"
-              autoComplete="new-password"
-              required
-              minLength={rules.password.minLength}
-              hint={`At least ${rules.password.minLength} characters.`}
-              error={actionData?.fieldErrors?.password}
-            />
-            <Field label="The same password again" name="confirm" type="password" autoComplete="new-password" required error={actionData?.fieldErrors?.confirm} />
+            <NewPasswordFields label="Choose a password" errors={actionData?.fieldErrors} />
           </>
         )}
         <Button type="submit" disabled={busy}>

@@ -1,10 +1,10 @@
 import { data, Form, redirect, useNavigation } from 'react-router'
 import { LinkProblemPanel } from '#app/components/link-problem.tsx'
 import { Button } from '#app/components/ui/button.tsx'
-import { Field } from '#app/components/ui/field.tsx'
+import { NewPasswordFields } from '#app/components/new-password-fields.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
-import { noFieldErrors, noValues, parseForm } from '#app/lib/form.ts'
-import { PasswordPairSchema, rules } from '#app/lib/validation.ts'
+import { noFieldErrors, parseForm } from '#app/lib/form.ts'
+import { PasswordPairSchema } from '#app/lib/validation.ts'
 import { findAccessLink, resetPassword } from '#app/server/access-links.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/reset-password'
@@ -40,17 +40,7 @@ export default function ResetPasswordRoute({ loaderData, actionData }: Route.Com
         </Notice>
       ) : null}
       <Form method="post" className="mt-6 flex flex-col gap-4 rounded-lg border border-line bg-white p-6 shadow-sm">
-        <Field
-          label="New password"
-          name="password"
-          type="password"
-          autoComplete="new-password"
-          required
-          minLength={rules.password.minLength}
-          hint={`At least ${rules.password.minLength} characters.`}
-          error={actionData?.fieldErrors?.password}
-        />
-        <Field label="The same password again" name="confirm" type="password" autoComplete="new-password" required error={actionData?.fieldErrors?.confirm} />
+        <NewPasswordFields label="New password" errors={actionData?.fieldErrors} />
         <Button type="submit" disabled={busy}>
           {busy ? 'Saving…' : 'Save the new password'}
         </Button>
