@@ -1,0 +1,199 @@
+/**
+ * A bank problem's content: what one version of a problem holds. Plain data (JSON-ready),
+ * stored as one jsonb document per version and carried whole by the bank document
+ * (docs/bank-format.md). Pure types and constants; the zod schema that checks a document
+ * at the edges lives in app/lib/problem-schema.ts and must agree with these types.
+ *
+ * Words (../shared/DESIGN.md): givens are drawn per student, finds are what students answer,
+ * a variant is one student's instance fixed by its seed.
+ */
+import type { CheckRule, PitfallId, Tolerance } from '#app/domain/grading/index.ts'
+import type { SigFigRule } from '#app/domain/grading/sig-figs.ts'
+
+/** Version of the definition document itself; bumped when its shape changes. */
+export const DEFINITION_FORMAT = 1 as const
+
+/** Given and find names: identifiers usable in expressions and placeholders. */
+export const NAME_PATTERN = /^[A-Za-z][A-Za-z0-9_]{0,31}$/
+
+export type GivenRule =
+  /** Values min, min + step, …, up to max (inclusive, to rounding); step > 0. */
+  | { readonly kind: 'range'; readonly min: number; readonly max: number; readonly step: number }
+  /** One of a list, equally likely. Numbers, or texts for non-numeric givens (a gas preset id). */
+  | { readonly kind: 'choice'; readonly values: readonly (number | string)[] }
+  /** A restricted mathjs expression over givens listed before this one (units allowed). */
+  | { readonly kind: 'expression'; readonly expression: string }
+
+export interface Given {
+  readonly name: string
+  /** What the given is, for authors and the worked solution ("compressor inlet temperature"). */
+  readonly label: string
+  /** The unit the drawn number is in: "K", "kPa", "kJ/kg", "" for a pure number or a text choice. */
+  readonly unit: string
+  readonly rule: GivenRule
+  /** How a placeholder shows the value when it does not say: decimals or significant figures. */
+  readonly display?: { readonly decimals?: number; readonly sigFigs?: number }
+}
+
+/** left op right, both sides evaluated as quantities over the givens and compared in SI. */
+export interface Constraint {
+  readonly left: string
+  readonly op: '<' | '<=' | '>' | '>=' | '!='
+  readonly right: string
+  /** Shown to the author when the constraint can never be met ("TH must exceed TL by 100 K"). */
+  readonly message?: string
+}
+
+/**
+ * The physics. Every text value may name a given: a value that is exactly a given's name is
+ * replaced by "<value> <unit>"; `@{name}` inside a longer text is replaced the same way.
+ * Other texts pass to the solver as they are ("air", "100 kPa", "8").
+ */
+export type Physics =
+  /** One of the solver's named templates (docs/spec-format.md, docs/steam.md). */
+  | { readonly kind: 'template'; readonly template: string; readonly inputs: Readonly<Record<string, string>> }
+  /** A general state-and-process cycle, as the "cycle" object of a spec file. */
+  | { readonly kind: 'cycle'; readonly cycle: unknown }
+
+export type FindSource =
+  /** A solver output by dotted path: 'totals.netWork', 'steps.3.q', 'states.2.T', 'totals.turbineExitQuality'. */
+  | { readonly kind: 'output'; readonly path: string }
+  /** A restricted mathjs expression over givens and the finds listed before this one. */
+  | { readonly kind: 'expression'; readonly expression: string }
+
+export interface Find {
+  readonly name: string
+  /** The question as students see it beside the input ("Net work per kilogram of air"). */
+  readonly label: string
+  readonly source: FindSource
+  /** The unit the key is stated in and the answer is compared in; "" for a pure number. */
+  readonly unit: string
+  readonly points: number
+  readonly tolerance: Tolerance
+  readonly sigFigs?: SigFigRule
+  /** A temperature difference: °C and °F carry no offset. */
+  readonly isDifference?: boolean
+  /** Answers without a unit are read in `unit` (always so for a pure number). */
+  readonly allowBareNumber?: boolean
+  /** Pitfalls that give feedback on a wrong answer to this find (app/domain/grading/pitfalls.ts). */
+  readonly pitfalls: readonly PitfallId[]
+}
+
+export const DIFFICULTIES = ['introductory', 'standard', 'challenging'] as const
+export type Difficulty = (typeof DIFFICULTIES)[number]
+export const LEVELS = ['first-year', 'second-year', 'upper-level', 'graduate'] as const
+export type Level = (typeof LEVELS)[number]
+
+export interface ProblemTags {
+  /** Free topic words, lower case ("isentropic efficiency", "regeneration"). */
+  readonly topics: readonly string[]
+  readonly difficulty: Difficulty
+  readonly level: Level
+}
+
+/** 'course' takes the sign convention of the course the problem is assigned in. */
+export type ProblemConvention = 'course' | 'chemistry' | 'engineering'
+
+export interface ProblemDefinition {
+  readonly format: typeof DEFINITION_FORMAT
+  readonly title: string
+  readonly tags: ProblemTags
+  readonly convention: ProblemConvention
+  /** Markdown with $inline$ and $$display$$ math, and @{given} placeholders (docs/authoring.md). */
+  readonly prompt: string
+  readonly givens: readonly Given[]
+  readonly constraints: readonly Constraint[]
+  readonly physics: Physics
+  readonly finds: readonly Find[]
+}
+
+/** The cycle a problem is about, for tags and filters: the template id, or 'general'. */
+export function cycleOf(physics: Physics): string {
+  return physics.kind === 'template' ? physics.template : 'general'
+}
+
+/** The grading rule of a find, as app/domain/grading's checkAnswer takes it. */
+export function checkRuleOf(find: Find): CheckRule {
+  return {
+    tolerance: find.tolerance,
+    ...(find.sigFigs ? { sigFigs: find.sigFigs } : {}),
+    ...(find.isDifference ? { isDifference: true } : {}),
+    ...(find.allowBareNumber || find.unit === '' ? { allowBareNumber: true } : {}),
+  }
+}
+
+// ---- What drawing a variant gives (app/domain/authoring/variant.ts) -------------------
+
+import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
+import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
+
+export interface DrawnGiven {
+  readonly name: string
+  readonly label: string
+  /** The number in the given's own unit (NaN for a text choice). */
+  readonly value: number
+  readonly unit: string
+  /** The value as the solver and the prompt receive it: "350 K", "air". */
+  readonly text: string
+}
+
+export interface KeyEntry {
+  readonly name: string
+  readonly label: string
+  /** In the find's unit. */
+  readonly value: number
+  readonly unit: string
+  readonly points: number
+  /** The output path when the find is bound to one (pitfall diagnosis re-solves it). */
+  readonly path: string | null
+}
+
+export interface Variant {
+  readonly seed: number
+  readonly convention: Convention
+  readonly givens: readonly DrawnGiven[]
+  /** The spec file object solved for this variant (what solveSpec and diagnosePitfall take). */
+  readonly spec: Readonly<Record<string, unknown>>
+  readonly solution: FormattedSolution | FormattedRankine
+  readonly key: readonly KeyEntry[]
+}
+
+export type VariantErrorCode =
+  | 'invalid-definition'
+  | 'given-error'
+  | 'constraint-never-met'
+  | 'solve-error'
+  | 'find-undefined'
+
+export interface VariantError {
+  readonly code: VariantErrorCode
+  readonly message: string
+  /** The given, find or input the message is about. */
+  readonly property?: string
+}
+
+export type DrawResult = { readonly ok: true; readonly variant: Variant } | { readonly ok: false; readonly seed: number; readonly error: VariantError }
+
+// ---- What a sweep gives (app/domain/authoring/sweep.ts) --------------------------------
+
+export type SweepFailureCode =
+  | VariantErrorCode
+  | 'temperature-not-positive'
+  | 'pressure-not-positive'
+  | 'efficiency-out-of-range'
+  | 'quality-out-of-range'
+
+export interface SweepFailure {
+  readonly seed: number
+  readonly code: SweepFailureCode
+  readonly message: string
+  /** Givens of the failing variant as drawn ("T1 = 350 K"), when drawing got that far. */
+  readonly givens?: readonly string[]
+}
+
+export interface SweepSummary {
+  readonly checked: number
+  readonly failed: number
+  /** At most a few hundred are kept; `failed` counts all. */
+  readonly failures: readonly SweepFailure[]
+}
