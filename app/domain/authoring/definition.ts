@@ -9,6 +9,8 @@
  */
 import type { CheckRule, PitfallId, Tolerance } from '#app/domain/grading/index.ts'
 import type { SigFigRule } from '#app/domain/grading/sig-figs.ts'
+import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
+import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
 
 /** Version of the definition document itself; bumped when its shape changes. */
 export const DEFINITION_FORMAT = 1 as const
@@ -123,9 +125,6 @@ export function checkRuleOf(find: Find): CheckRule {
 }
 
 // ---- What drawing a variant gives (app/domain/authoring/variant.ts) -------------------
-
-import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
-import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
 
 export interface DrawnGiven {
   readonly name: string
