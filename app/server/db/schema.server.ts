@@ -5,11 +5,13 @@
  */
 import { relations, sql } from 'drizzle-orm'
 import {
+  type AnyPgColumn,
   boolean,
   check,
   date,
   index,
   integer,
+  jsonb,
   pgEnum,
   pgTable,
   text,
@@ -20,6 +22,9 @@ import {
 export const courseRole = pgEnum('course_role', ['instructor', 'ta', 'student'])
 export const signConvention = pgEnum('sign_convention', ['chemistry', 'engineering'])
 export const tokenPurpose = pgEnum('token_purpose', ['invitation', 'password-reset'])
+/** private: the owner only; department: everyone in the owner's department; installation: every instructor here. */
+export const problemVisibility = pgEnum('problem_visibility', ['private', 'department', 'installation'])
+export const sweepStatus = pgEnum('sweep_status', ['queued', 'running', 'done', 'failed'])
 
 const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow()
 
@@ -157,6 +162,83 @@ export const mailMessages = pgTable(
   (t) => [index('mail_messages_received_idx').on(t.receivedAt)],
 )
 
+/**
+ * A bank problem: who owns it, who may see it, and the columns the bank page searches and
+ * sorts on (copied from the newest version's definition on every save).
+ */
+export const problems = pgTable(
+  'problems',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    ownerId: integer()
+      .notNull()
+      .references(() => users.id),
+    /** The owner's department when the problem was made; 'department' visibility uses it. */
+    departmentId: integer().references(() => departments.id),
+    visibility: problemVisibility().notNull().default('private'),
+    /** Set on a copy: the problem and version it was copied from. */
+    originProblemId: integer().references((): AnyPgColumn => problems.id, { onDelete: 'set null' }),
+    originVersionId: integer(),
+    title: text().notNull(),
+    /** template id or 'general' */
+    cycle: text().notNull(),
+    topics: text().array().notNull().default(sql`'{}'::text[]`),
+    difficulty: text().notNull(),
+    level: text().notNull(),
+    createdAt: createdAt(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('problems_owner_idx').on(t.ownerId), index('problems_visibility_idx').on(t.visibility, t.departmentId)],
+)
+
+/** One revision of a problem. Frozen once an assignment uses it: editing then makes a new version. */
+export const problemVersions = pgTable(
+  'problem_versions',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    problemId: integer()
+      .notNull()
+      .references(() => problems.id, { onDelete: 'cascade' }),
+    /** 1, 2, 3, … per problem */
+    number: integer().notNull(),
+    /** ProblemDefinition (app/domain/authoring/definition.ts) */
+    definition: jsonb().notNull(),
+    createdBy: integer()
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    frozenAt: timestamp({ withTimezone: true }),
+  },
+  (t) => [uniqueIndex('problem_versions_problem_number_key').on(t.problemId, t.number)],
+)
+
+/** A sweep: N sampled variants of one version checked for physical sanity, in the job queue. */
+export const problemSweeps = pgTable(
+  'problem_sweeps',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    problemVersionId: integer()
+      .notNull()
+      .references(() => problemVersions.id, { onDelete: 'cascade' }),
+    requestedBy: integer()
+      .notNull()
+      .references(() => users.id),
+    status: sweepStatus().notNull().default('queued'),
+    /** how many variants to check */
+    total: integer().notNull(),
+    checked: integer().notNull().default(0),
+    failed: integer().notNull().default(0),
+    /** SweepFailure[] (the first few hundred) */
+    failures: jsonb().notNull().default(sql`'[]'::jsonb`),
+    /** why the sweep itself could not run (not a variant's failure) */
+    error: text(),
+    createdAt: createdAt(),
+    startedAt: timestamp({ withTimezone: true }),
+    finishedAt: timestamp({ withTimezone: true }),
+  },
+  (t) => [index('problem_sweeps_version_idx').on(t.problemVersionId, t.createdAt)],
+)
+
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }))
 export const coursesRelations = relations(courses, ({ one, many }) => ({
   term: one(terms, { fields: [courses.termId], references: [terms.id] }),
@@ -174,3 +256,7 @@ export type Membership = typeof memberships.$inferSelect
 export type CourseRole = (typeof courseRole.enumValues)[number]
 export type SignConvention = (typeof signConvention.enumValues)[number]
 export type MailMessage = typeof mailMessages.$inferSelect
+export type Problem = typeof problems.$inferSelect
+export type ProblemVersion = typeof problemVersions.$inferSelect
+export type ProblemSweep = typeof problemSweeps.$inferSelect
+export type ProblemVisibility = (typeof problemVisibility.enumValues)[number]
