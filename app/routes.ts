@@ -11,6 +11,20 @@ export default [
     index('routes/courses/$courseId.tsx'),
     route('people', 'routes/courses/people.tsx'),
   ]),
+  ...prefix('bank', [
+    index('routes/bank/index.tsx'),
+    route('new', 'routes/bank/new.tsx'),
+    route('import', 'routes/bank/import.tsx'),
+    route('export', 'routes/resources/bank-export.ts'),
+    route(':problemId', 'routes/bank/$problemId.tsx'),
+    route(':problemId/edit', 'routes/bank/edit.tsx'),
+  ]),
+  ...prefix('api', [
+    route('problems', 'routes/resources/api-problems.ts'),
+    route('problems/:problemId', 'routes/resources/api-problem.ts'),
+    route('preview', 'routes/resources/api-preview.ts'),
+    route('sweeps/:sweepId', 'routes/resources/api-sweep.ts'),
+  ]),
   ...prefix('admin', [
     index('routes/admin/index.tsx'),
     route('outbox', 'routes/admin/outbox.tsx'),

@@ -101,6 +101,16 @@ export async function requireCourseRole(request: Request, courseId: number, role
   return { user, course }
 }
 
+/**
+ * People who may use the problem bank: department admins and anyone who instructs a course.
+ * TODO(#5): switch to canUseBank from app/domain/permissions.ts once it lands.
+ */
+export async function requireBankUser(request: Request) {
+  const user = await requireUser(request)
+  if (!user.isAdmin && !user.courses.some((c) => c.role === 'instructor')) forbidden('The problem bank is for instructors.')
+  return user
+}
+
 /** Department admins only. */
 export async function requireAdmin(request: Request) {
   const user = await requireUser(request)
