@@ -36,6 +36,11 @@ export default function HomeRoute({ loaderData }: Route.ComponentProps) {
       <p className="text-sm text-muted">Signed in as {name}</p>
       <h1 className="mt-1 text-3xl font-semibold">{headings[role]}</h1>
       <p className="mt-2 max-w-2xl text-muted">{intros[role]}</p>
+      {role === 'instructor' ? (
+        <p className="mt-4">
+          <Link to="/bank">Your problem bank</Link>: write randomised problems once and reuse them in any course.
+        </p>
+      ) : null}
       {role === 'admin' ? (
         <p className="mt-4 flex gap-4">
           <Link to="/admin">All courses of the department</Link>

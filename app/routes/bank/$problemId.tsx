@@ -1,0 +1,197 @@
+import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { z } from 'zod'
+import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { SweepPanel } from '#app/components/sweep-panel.tsx'
+import { Notice } from '#app/components/ui/notice.tsx'
+import { VariantPreview } from '#app/components/variant-preview.tsx'
+import { cycleOf } from '#app/domain/authoring/definition.ts'
+import { cycleLabel, difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
+import { requireIdParam } from '#app/lib/params.ts'
+import { requireBankUser } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { previewProblem } from '#app/server/preview.server.ts'
+import { ProblemAccessError, bankViewerFor, copyProblem, getProblemDetail } from '#app/server/problems.server.ts'
+import { latestSweepForVersion, startSweep } from '#app/server/sweeps.server.ts'
+import type { Route } from './+types/$problemId'
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.problem.title ?? 'Problem'} · Cyclewright` }]
+
+async function loadVisible(request: Request, problemIdParam: string | undefined) {
+  const user = await requireBankUser(request)
+  const problemId = requireIdParam(problemIdParam, 'problem')
+  const viewer = await bankViewerFor(db(), user)
+  const problem = await getProblemDetail(db(), viewer, problemId)
+  if (!problem) throw data('There is no such problem in your bank, or it is not shared with you.', { status: 404 })
+  return { user, viewer, problem }
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { problem } = await loadVisible(request, params.problemId)
+  const url = new URL(request.url)
+  const wanted = Number(url.searchParams.get('version') ?? problem.latest.number)
+  const version = problem.versions.find((v) => v.number === wanted) ?? problem.latest
+  const convention = url.searchParams.get('convention') === 'chemistry' ? 'chemistry' : 'engineering'
+  const preview = previewProblem(version.definition, { convention })
+  const sweep = await latestSweepForVersion(db(), version.id)
+  return { problem, version, preview, convention, sweep }
+}
+
+const ActionSchema = z.discriminatedUnion('intent', [
+  z.object({ intent: z.literal('sweep'), total: z.coerce.number().int().min(10).max(5000).catch(500) }),
+  z.object({ intent: z.literal('copy') }),
+])
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { user, viewer, problem } = await loadVisible(request, params.problemId)
+  const parsed = ActionSchema.safeParse(Object.fromEntries(await request.formData()))
+  if (!parsed.success) throw data('That action is not available here.', { status: 400 })
+  const url = new URL(request.url)
+  switch (parsed.data.intent) {
+    case 'sweep': {
+      const wanted = Number(url.searchParams.get('version') ?? problem.latest.number)
+      const version = problem.versions.find((v) => v.number === wanted) ?? problem.latest
+      await startSweep(db(), { versionId: version.id, requestedBy: user.id, total: parsed.data.total })
+      return redirect(`${url.pathname}${url.search}#check`)
+    }
+    case 'copy': {
+      try {
+        const copy = await copyProblem(db(), viewer, problem.id)
+        return redirect(`/bank/${copy.problemId}?copied=1`)
+      } catch (e) {
+        if (e instanceof ProblemAccessError) throw data('That problem is not shared with you.', { status: 404 })
+        throw e
+      }
+    }
+  }
+}
+
+export default function ProblemRoute({ loaderData }: Route.ComponentProps) {
+  const { problem, version, preview, convention, sweep } = loaderData
+  const def = version.definition
+  const busy = useNavigation().state === 'submitting'
+  const isLatest = version.number === problem.latest.number
+  const fixedConvention = def.convention !== 'course'
+  return (
+    <div className="space-y-8">
+      <div>
+        <p className="text-sm text-muted">
+          <Link to="/bank">Problem bank</Link>
+        </p>
+        <div className="mt-1 flex flex-wrap items-start justify-between gap-4">
+          <div>
+            <h1 className="text-3xl font-semibold">{def.title}</h1>
+            <p className="mt-1 text-sm text-muted">
+              {cycleLabel(cycleOf(def.physics))} · {difficultyLabel[def.tags.difficulty]} · {levelLabel[def.tags.level]}
+              {def.tags.topics.length > 0 ? ` · ${def.tags.topics.join(', ')}` : ''}
+            </p>
+            <p className="mt-1 text-sm text-muted">
+              By {problem.canEdit ? 'you' : problem.ownerName} · {visibilityLabel[problem.visibility]} · version {version.number}
+              {version.frozenAt ? ' (frozen: used by an assignment)' : ''}
+            </p>
+            {problem.origin ? (
+              <p className="mt-1 text-sm text-muted">
+                Copied from{' '}
+                {problem.origin.problemId ? <Link to={`/bank/${problem.origin.problemId}`}>{problem.origin.title ?? 'another problem'}</Link> : (problem.origin.title ?? 'a problem that no longer exists')}
+                {problem.origin.versionNumber ? `, version ${problem.origin.versionNumber}` : ''}
+              </p>
+            ) : null}
+          </div>
+          <div className="flex flex-wrap gap-2">
+            {problem.canEdit ? (
+              <Link to={`/bank/${problem.id}/edit`} className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white no-underline hover:bg-accent-strong hover:no-underline">
+                Edit
+              </Link>
+            ) : (
+              <Form method="post">
+                <input type="hidden" name="intent" value="copy" />
+                <button type="submit" disabled={busy} className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong">
+                  Copy into my bank
+                </button>
+              </Form>
+            )}
+            <a href={`/bank/export?ids=${problem.id}`} className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline">
+              Export
+            </a>
+          </div>
+        </div>
+      </div>
+
+      {!isLatest ? (
+        <Notice tone="warn">
+          You are looking at version {version.number}. The newest is <Link to={`/bank/${problem.id}`}>version {problem.latest.number}</Link>.
+        </Notice>
+      ) : null}
+
+      {preview.issues.length > 0 ? (
+        <Notice tone="warn">
+          <p className="font-semibold">This version has problems to fix:</p>
+          <ul className="mt-1 list-disc pl-5">
+            {preview.issues.map((i, n) => (
+              <li key={n}>
+                <code>{i.path}</code>: {i.message}
+              </li>
+            ))}
+          </ul>
+        </Notice>
+      ) : null}
+
+      <section aria-labelledby="preview-title">
+        <div className="flex flex-wrap items-end justify-between gap-3">
+          <h2 id="preview-title" className="text-xl font-semibold">
+            Three variants side by side
+          </h2>
+          {fixedConvention ? (
+            <p className="text-sm text-muted">Sign convention: {def.convention} (fixed by the problem)</p>
+          ) : (
+            <Form method="get" className="flex items-end gap-2 text-sm">
+              {!isLatest ? <input type="hidden" name="version" value={version.number} /> : null}
+              <label htmlFor="preview-convention">Preview in the convention of</label>
+              <select id="preview-convention" name="convention" defaultValue={convention} className="rounded-md border border-line bg-white px-2 py-1">
+                <option value="engineering">an engineering course (ΔU = Q − W)</option>
+                <option value="chemistry">a chemistry course (ΔU = q + w)</option>
+              </select>
+              <button type="submit" className="rounded-md border border-line bg-white px-3 py-1 hover:bg-paper">
+                Show
+              </button>
+            </Form>
+          )}
+        </div>
+        <div className="mt-4">
+          <VariantPreview variants={preview.variants} />
+        </div>
+      </section>
+
+      <SweepPanel versionNumber={version.number} initial={sweep} />
+
+      <section aria-labelledby="versions-title">
+        <h2 id="versions-title" className="text-xl font-semibold">
+          Versions
+        </h2>
+        <p className="mt-1 text-sm text-muted">
+          A version is frozen once an assignment uses it; editing a frozen version makes a new one, and assignments keep theirs until you move them.
+        </p>
+        <ol className="mt-3 divide-y divide-line rounded-lg border border-line bg-white text-sm">
+          {problem.versions.map((v) => (
+            <li key={v.id} className="flex flex-wrap items-center justify-between gap-2 px-4 py-2">
+              <span>
+                {v.number === version.number ? (
+                  <strong>Version {v.number}</strong>
+                ) : (
+                  <Link to={v.number === problem.latest.number ? `/bank/${problem.id}` : `/bank/${problem.id}?version=${v.number}`}>Version {v.number}</Link>
+                )}{' '}
+                <span className="text-muted">
+                  · {v.createdByName} · <time dateTime={v.createdAt}>{v.createdAt.slice(0, 10)}</time>
+                </span>
+              </span>
+              <span className="text-muted">{v.frozenAt ? 'Frozen' : 'Editable'}</span>
+            </li>
+          ))}
+        </ol>
+      </section>
+    </div>
+  )
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />
+}
