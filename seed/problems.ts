@@ -1,0 +1,523 @@
+/**
+ * The demo problem bank: invented classroom problems of our own, at least one for every
+ * cycle template and one general state-and-process cycle. The numbers are plausible
+ * teaching values, chosen so that every drawn variant is physical (a sweep of each problem
+ * finds no failure: tests/reference/demo-problems.test.ts).
+ *
+ * Tobias Wrenfield teaches ENTH 210 (engineering convention, per kilogram of air, engines and
+ * steam); Amara Okafor-Reyes teaches CHEM 342 (chemistry convention, per mole, monatomic and
+ * diatomic gases, isothermal steps). Most problems use the 'course' convention, so the same
+ * problem reads right in either course.
+ */
+import type { Find, Given, ProblemDefinition, Tolerance } from '#app/domain/authoring/definition.ts'
+
+export type DemoOwner = 'tobias' | 'amara'
+export type DemoVisibility = 'private' | 'department' | 'installation'
+
+export interface DemoProblem {
+  readonly owner: DemoOwner
+  readonly visibility: DemoVisibility
+  /** The current version (the highest number). */
+  readonly definition: ProblemDefinition
+  /**
+   * Earlier versions, oldest first. Each was used by an assignment, so it is frozen, and the
+   * current version was made by editing the last of them.
+   */
+  readonly earlierVersions?: readonly ProblemDefinition[]
+  /** Title of the demo problem this one was copied from (its current version at the time). */
+  readonly copiedFrom?: string
+}
+
+const rel = (value: number): Tolerance => ({ kind: 'relative', value })
+const range = (name: string, label: string, unit: string, min: number, max: number, step: number): Given => ({ name, label, unit, rule: { kind: 'range', min, max, step } })
+const choice = (name: string, label: string, unit: string, values: readonly (number | string)[]): Given => ({ name, label, unit, rule: { kind: 'choice', values } })
+const output = (name: string, label: string, path: string, unit: string, points: number, extra: Partial<Find> = {}): Find => ({
+  name,
+  label,
+  source: { kind: 'output', path },
+  unit,
+  points,
+  tolerance: rel(0.01),
+  pitfalls: [],
+  ...extra,
+})
+
+const STEAM_CAUTION = '> Teaching values: the steam properties and results in this problem are for learning thermodynamics, not design data.'
+
+// ---- Carnot (chemistry flavour) --------------------------------------------------------
+
+const carnotEngine: ProblemDefinition = {
+  format: 1,
+  title: 'Carnot engine on one mole of a monatomic gas',
+  tags: { topics: ['carnot', 'isothermal', 'second law', 'efficiency'], difficulty: 'introductory', level: 'first-year' },
+  convention: 'course',
+  prompt: [
+    'One mole of an ideal monatomic gas runs a reversible Carnot cycle between a hot reservoir at $T_H =$ @{TH} and a cold reservoir at $T_L =$ @{TL}.',
+    '',
+    'At the start of the isothermal expansion the gas is at @{p1 in kPa}; during that expansion its volume grows by a factor of @{r} ($V_2/V_1$).',
+    '',
+    '1. What is the thermal efficiency of the cycle?',
+    '2. How much heat $q$ does the gas take in during the isothermal expansion at $T_H$, per mole?',
+    '3. What is the net work of the cycle per mole, in the sign convention of your course?',
+  ].join('\n'),
+  givens: [
+    range('TH', 'hot reservoir temperature', 'K', 450, 800, 25),
+    range('TL', 'cold reservoir temperature', 'K', 280, 400, 10),
+    range('p1', 'pressure at the start of the isothermal expansion', 'kPa', 500, 1500, 100),
+    choice('r', 'isothermal expansion ratio V2/V1', '', [1.5, 2, 2.5, 3]),
+  ],
+  constraints: [{ left: 'TH', op: '>=', right: 'TL + 100 K', message: 'The hot reservoir must be at least 100 K above the cold one.' }],
+  physics: { kind: 'template', template: 'carnot-engine', inputs: { gas: 'monatomic', Th: 'TH', Tc: 'TL', p1: 'p1', expansionRatio: 'r' } },
+  finds: [
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2, { sigFigs: { min: 2 } }),
+    output('qH', 'Heat taken in at T_H, per mole', 'steps.1.q', 'kJ/mol', 3, { pitfalls: ['log10-for-ln', 'kilo-factor'] }),
+    output('wNet', 'Net work of the cycle, per mole', 'totals.netWork', 'kJ/mol', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln', 'kilo-factor'] }),
+  ],
+}
+
+const carnotRefrigerator: ProblemDefinition = {
+  format: 1,
+  title: 'Carnot refrigerator for a cold store',
+  tags: { topics: ['carnot', 'refrigeration', 'coefficient of performance'], difficulty: 'introductory', level: 'first-year' },
+  convention: 'course',
+  prompt: [
+    'A cold store is kept at @{Tc} while the plant room around it is at @{Th}. As an upper bound on what any refrigerator could do, model the plant as a reversible Carnot refrigerator with air as the working fluid, taking heat from the cold space at $T_C$ and rejecting it at $T_H$.',
+    '',
+    'The air enters the isothermal expansion at @{p1} and its volume grows by a factor of @{r} during that expansion.',
+    '',
+    'Find the coefficient of performance, the heat taken from the cold store per kilogram of air per cycle, and the net work of the cycle per kilogram of air (in your course\'s sign convention).',
+  ].join('\n'),
+  givens: [
+    range('Tc', 'cold store temperature', '°C', -20, 0, 5),
+    range('Th', 'plant room temperature', '°C', 25, 40, 5),
+    range('p1', 'pressure at the start of the isothermal expansion', 'kPa', 80, 120, 10),
+    choice('r', 'isothermal expansion ratio V2/V1', '', [1.5, 1.8, 2]),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'carnot-refrigerator', inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: 'p1', expansionRatio: 'r' } },
+  finds: [
+    output('cop', 'Coefficient of performance (refrigerator)', 'totals.copRefrigerator', '', 3, { sigFigs: { min: 3 }, pitfalls: ['celsius-for-kelvin'] }),
+    output('qL', 'Heat taken from the cold store per kg of air', 'steps.1.q', 'kJ/kg', 3, { pitfalls: ['celsius-for-kelvin', 'log10-for-ln'] }),
+    output('wNet', 'Net work of the cycle per kg of air', 'totals.netWork', 'kJ/kg', 2, { pitfalls: ['sign-convention-flipped', 'celsius-for-kelvin'] }),
+  ],
+}
+
+const carnotHeatPump: ProblemDefinition = {
+  format: 1,
+  title: 'Reversible heat pump on a diatomic gas',
+  tags: { topics: ['carnot', 'heat pump', 'coefficient of performance', 'per mole'], difficulty: 'standard', level: 'second-year' },
+  convention: 'chemistry',
+  prompt: [
+    'A reversible (Carnot) heat pump uses an ideal diatomic gas ($c_v = \\tfrac{5}{2}R$). It takes heat from outdoor air at $T_C =$ @{Tc} and delivers heat indoors at $T_H = T_C +$ @{lift} $=$ @{Th}.',
+    '',
+    'The gas starts the isothermal expansion at $T_C$ and @{p1}, and expands to @{r} times its volume.',
+    '',
+    'Using the chemistry convention ($\\Delta U = q + w$, $w$ the work done on the gas), find the coefficient of performance, the heat delivered indoors per mole per cycle, and the net work $w$ per mole.',
+  ].join('\n'),
+  givens: [
+    range('Tc', 'outdoor (cold) temperature', 'K', 265, 285, 5),
+    range('lift', 'temperature lift', 'K', 25, 60, 5),
+    { name: 'Th', label: 'indoor (hot) temperature', unit: 'K', rule: { kind: 'expression', expression: 'Tc + lift' } },
+    choice('p1', 'pressure at the start of the isothermal expansion', 'kPa', [100, 150, 200]),
+    range('r', 'isothermal expansion ratio V2/V1', '', 1.2, 2, 0.2),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'carnot-heat-pump', inputs: { gas: 'diatomic', Th: 'Th', Tc: 'Tc', p1: 'p1', expansionRatio: 'r' } },
+  finds: [
+    output('cop', 'Coefficient of performance (heat pump)', 'totals.copHeatPump', '', 3, { sigFigs: { min: 3 } }),
+    output('qOut', 'Heat delivered indoors per mole', 'totals.heatOut', 'J/mol', 3, { pitfalls: ['log10-for-ln', 'kilo-factor'] }),
+    output('wNet', 'Net work w on the gas per mole', 'totals.netWork', 'J/mol', 2, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+  ],
+}
+
+// ---- Reciprocating engines (engineering flavour, per kg of air) -------------------------
+
+const ottoV1: ProblemDefinition = {
+  format: 1,
+  title: 'Air-standard Otto cycle',
+  tags: { topics: ['otto', 'air standard', 'isentropic'], difficulty: 'standard', level: 'first-year' },
+  convention: 'course',
+  prompt: [
+    'An air-standard Otto cycle has a compression ratio of @{r}. At the start of compression the air is at @{p1} and @{T1}; @{qin} of heat is added per kilogram at constant volume.',
+    '',
+    'Use air with constant specific heats ($c_p = 1.005$ kJ/(kg K), $c_v = 0.718$ kJ/(kg K)). Find the temperature at the end of compression, the net work per kilogram (in your course\'s sign convention) and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('p1', 'pressure at the start of compression', 'kPa', 95, 105, 5),
+    range('T1', 'temperature at the start of compression', '°C', 15, 35, 5),
+    range('r', 'compression ratio', '', 6, 9, 0.5),
+    range('qin', 'heat added per kg', 'kJ/kg', 600, 1000, 50),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'otto', inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', heatIn: 'qin' } },
+  finds: [
+    output('T2', 'Temperature at the end of compression', 'states.2.T', 'K', 2, { pitfalls: ['celsius-for-kelvin'] }),
+    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'kilo-factor'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+// Version 2: a wider compression-ratio range, a mean-effective-pressure question, and
+// efficiency asked to three figures (version 1 was frozen by an assignment in week 6).
+const ottoV2: ProblemDefinition = {
+  ...ottoV1,
+  tags: { ...ottoV1.tags, topics: [...ottoV1.tags.topics, 'mean effective pressure'] },
+  prompt: [
+    'An air-standard Otto cycle has a compression ratio of @{r}. At the start of compression the air is at @{p1} and @{T1}; @{qin} of heat is added per kilogram at constant volume.',
+    '',
+    'Use air with constant specific heats ($c_p = 1.005$ kJ/(kg K), $c_v = 0.718$ kJ/(kg K)). Find',
+    '',
+    '1. the temperature $T_2$ at the end of compression,',
+    '2. the net work per kilogram (in your course\'s sign convention),',
+    '3. the thermal efficiency, to three significant figures,',
+    '4. the mean effective pressure $\\mathrm{MEP} = w_\\text{net}/(v_1 - v_2)$.',
+  ].join('\n'),
+  givens: [ottoV1.givens[0]!, ottoV1.givens[1]!, range('r', 'compression ratio', '', 7, 10, 0.5), ottoV1.givens[3]!],
+  finds: [
+    ottoV1.finds[0]!,
+    ottoV1.finds[1]!,
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2, { sigFigs: { min: 3, max: 4 } }),
+    output('mep', 'Mean effective pressure', 'totals.meanEffectivePressure', 'kPa', 2, { tolerance: rel(0.02), pitfalls: ['kilo-factor'] }),
+  ],
+}
+
+const diesel: ProblemDefinition = {
+  format: 1,
+  title: 'Air-standard Diesel cycle with a given cutoff ratio',
+  tags: { topics: ['diesel', 'air standard', 'cutoff ratio'], difficulty: 'standard', level: 'first-year' },
+  convention: 'course',
+  prompt: [
+    'An air-standard Diesel cycle has a compression ratio of @{r} and a cutoff ratio $r_c = V_3/V_2 =$ @{rc}. Air enters compression at @{p1} and @{T1}.',
+    '',
+    'With constant specific heats for air, find the temperature at the end of heat addition, the heat added per kilogram, and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('p1', 'pressure at the start of compression', 'kPa', 90, 100, 5),
+    range('T1', 'temperature at the start of compression', 'K', 290, 320, 10),
+    range('r', 'compression ratio', '', 15, 20, 1),
+    range('rc', 'cutoff ratio', '', 1.6, 2.4, 0.2),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'diesel', inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', cutoffRatio: 'rc' } },
+  finds: [
+    output('T3', 'Temperature at the end of heat addition', 'states.3.T', 'K', 2),
+    output('qin', 'Heat added per kg of air', 'totals.heatIn', 'kJ/kg', 3, { pitfalls: ['cp-cv-swapped', 'kilo-factor'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '%', 2, { sigFigs: { min: 3 } }),
+  ],
+}
+
+const dual: ProblemDefinition = {
+  format: 1,
+  title: 'Dual cycle: heat added at constant volume, then at constant pressure',
+  tags: { topics: ['dual', 'air standard', 'limited pressure'], difficulty: 'challenging', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    'In an air-standard dual cycle, air at @{p1} and @{T1} is compressed isentropically through a compression ratio of @{r}. Heat is then added at constant volume until the pressure has risen by a factor of @{rp}, and then at constant pressure until the volume has grown by a factor of @{rc}.',
+    '',
+    'Find the peak pressure, the net work per kilogram (in your course\'s sign convention) and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    choice('p1', 'pressure at the start of compression', 'kPa', [95, 100]),
+    range('T1', 'temperature at the start of compression', 'K', 290, 310, 10),
+    range('r', 'compression ratio', '', 12, 16, 1),
+    range('rp', 'pressure ratio of the constant-volume heating p3/p2', '', 1.2, 1.6, 0.1),
+    range('rc', 'cutoff ratio of the constant-pressure heating V4/V3', '', 1.2, 1.8, 0.1),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'dual', inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', pressureRatio: 'rp', cutoffRatio: 'rc' } },
+  finds: [
+    output('p3', 'Peak pressure', 'states.3.p', 'MPa', 2, { pitfalls: ['kilo-factor'] }),
+    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'cp-cv-swapped'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+// ---- Gas turbines ------------------------------------------------------------------------
+
+const brayton: ProblemDefinition = {
+  format: 1,
+  title: 'Gas-turbine (Brayton) cycle with component efficiencies',
+  tags: { topics: ['brayton', 'gas turbine', 'isentropic efficiency', 'back work ratio'], difficulty: 'standard', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    'A simple gas-turbine plant takes in air at 100 kPa and @{T1} and compresses it through a pressure ratio of @{rp}. The turbine inlet temperature is @{TIT}. The compressor and turbine have isentropic efficiencies of @{etaC, 2 dp} and @{etaT, 2 dp}.',
+    '',
+    'Treat the working fluid as air with constant specific heats throughout (air-standard analysis). Per kilogram of air, find the temperature leaving the compressor, the net work (in your course\'s sign convention), the back work ratio and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('T1', 'compressor inlet temperature', 'K', 290, 310, 5),
+    range('rp', 'compressor pressure ratio', '', 8, 14, 1),
+    range('TIT', 'turbine inlet temperature', 'K', 1150, 1400, 50),
+    choice('etaC', 'compressor isentropic efficiency', '', [0.8, 0.82, 0.85, 0.88]),
+    choice('etaT', 'turbine isentropic efficiency', '', [0.85, 0.88, 0.9]),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'brayton',
+    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', pressureRatio: 'rp', turbineInletT: 'TIT', compressorEfficiency: 'etaC', turbineEfficiency: 'etaT' },
+  },
+  finds: [
+    output('T2', 'Compressor exit temperature', 'states.2.T', 'K', 2),
+    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'cp-cv-swapped', 'kilo-factor'] }),
+    output('bwr', 'Back work ratio', 'totals.backWorkRatio', '', 2),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+const braytonRegenerative: ProblemDefinition = {
+  format: 1,
+  title: 'Regenerative gas turbine',
+  tags: { topics: ['brayton', 'regeneration', 'gas turbine', 'effectiveness'], difficulty: 'challenging', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    'A gas-turbine plant with a regenerator compresses air from 100 kPa and @{T1} through a pressure ratio of @{rp}; the turbine inlet temperature is @{TIT}. The compressor and turbine isentropic efficiencies are @{etaC, 2 dp} and 0.88. The regenerator has an effectiveness of @{eps, 2 dp}.',
+    '',
+    'With the air-standard assumptions (constant specific heats), find the temperature of the air entering the combustor, the heat added in the combustor per kilogram of air, and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('T1', 'compressor inlet temperature', 'K', 290, 310, 10),
+    range('rp', 'compressor pressure ratio', '', 4, 7, 0.5),
+    range('TIT', 'turbine inlet temperature', 'K', 1100, 1300, 50),
+    choice('etaC', 'compressor isentropic efficiency', '', [0.82, 0.85, 0.88]),
+    range('eps', 'regenerator effectiveness', '', 0.6, 0.9, 0.05),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'brayton-regenerative',
+    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', pressureRatio: 'rp', turbineInletT: 'TIT', compressorEfficiency: 'etaC', turbineEfficiency: '0.88', regeneratorEffectiveness: 'eps' },
+  },
+  finds: [
+    output('T3', 'Temperature entering the combustor', 'states.3.T', 'K', 2),
+    output('qin', 'Heat added in the combustor per kg of air', 'totals.heatIn', 'kJ/kg', 3, { pitfalls: ['cp-cv-swapped', 'kilo-factor'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 3),
+  ],
+}
+
+// ---- Regenerative gas cycles --------------------------------------------------------------
+
+const stirling: ProblemDefinition = {
+  format: 1,
+  title: 'Ideal Stirling engine on a monatomic gas',
+  tags: { topics: ['stirling', 'isothermal', 'regeneration', 'per mole'], difficulty: 'standard', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    'An ideal Stirling engine works with an ideal monatomic gas between @{Tc} and @{Th}, with an ideal regenerator. At the start of the isothermal compression (at $T_C$, largest volume) the gas is at @{p1}; the compression ratio $V_1/V_2$ is @{r}.',
+    '',
+    'Per mole of gas, find the heat taken in during the isothermal expansion at $T_H$, the net work of the cycle (in your course\'s sign convention) and the thermal efficiency. Why does the regenerator make the efficiency equal to the Carnot value?',
+  ].join('\n'),
+  givens: [
+    range('Th', 'hot-side gas temperature', 'K', 500, 900, 50),
+    range('Tc', 'cold-side gas temperature', 'K', 290, 350, 10),
+    range('p1', 'pressure at the start of compression', 'kPa', 100, 400, 50),
+    range('r', 'compression ratio V1/V2', '', 2, 5, 0.5),
+  ],
+  constraints: [{ left: 'Th', op: '>=', right: 'Tc + 200 K', message: 'The hot side must be at least 200 K above the cold side.' }],
+  physics: { kind: 'template', template: 'stirling', inputs: { gas: 'monatomic', Th: 'Th', Tc: 'Tc', p1: 'p1', compressionRatio: 'r' } },
+  finds: [
+    output('qH', 'Heat taken in at T_H, per mole', 'steps.3.q', 'kJ/mol', 3, { pitfalls: ['log10-for-ln', 'kilo-factor'] }),
+    output('wNet', 'Net work of the cycle, per mole', 'totals.netWork', 'kJ/mol', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+// Tobias's copy of Amara's Stirling problem, rewritten per kilogram of air for ENTH 210.
+const stirlingAir: ProblemDefinition = {
+  ...stirling,
+  title: 'Ideal Stirling engine per kilogram of air',
+  tags: { topics: ['stirling', 'isothermal', 'regeneration'], difficulty: 'standard', level: 'first-year' },
+  prompt: [
+    'An ideal Stirling engine uses air as its working gas between @{Tc} and @{Th}, with an ideal regenerator. At the start of the isothermal compression (at $T_C$, largest volume) the air is at @{p1}; the compression ratio $V_1/V_2$ is @{r}.',
+    '',
+    'Per kilogram of air ($R = 0.287$ kJ/(kg K)), find the heat added during the isothermal expansion, the net work of the cycle (in your course\'s sign convention) and the thermal efficiency.',
+  ].join('\n'),
+  physics: { kind: 'template', template: 'stirling', inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: 'p1', compressionRatio: 'r' } },
+  finds: [
+    output('qH', 'Heat added at T_H, per kg of air', 'steps.3.q', 'kJ/kg', 3, { pitfalls: ['log10-for-ln', 'kilo-factor'] }),
+    output('wNet', 'Net work of the cycle, per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+const ericsson: ProblemDefinition = {
+  format: 1,
+  title: 'Ideal Ericsson cycle in steady flow',
+  tags: { topics: ['ericsson', 'isothermal', 'regeneration', 'steady flow'], difficulty: 'standard', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    'An ideal Ericsson cycle runs in steady flow with air. The air is compressed isothermally at @{Tc} from 100 kPa through a pressure ratio of @{rp}, heated at constant pressure in an ideal regenerator, expanded isothermally at @{Th}, and cooled back through the regenerator.',
+    '',
+    'Per kilogram of air, find the shaft work of the isothermal compressor and the net work of the cycle (both in your course\'s sign convention), and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('Th', 'turbine (hot) temperature', 'K', 900, 1200, 50),
+    range('Tc', 'compressor (cold) temperature', 'K', 290, 320, 10),
+    range('rp', 'pressure ratio p2/p1', '', 3, 8, 1),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'ericsson', inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: '100 kPa', pressureRatio: 'rp' } },
+  finds: [
+    output('wC', 'Shaft work of the isothermal compressor per kg', 'steps.1.w', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+    output('wNet', 'Net work of the cycle per kg', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+// ---- Steam ---------------------------------------------------------------------------------
+
+const rankine: ProblemDefinition = {
+  format: 1,
+  title: 'Ideal Rankine cycle with superheat',
+  tags: { topics: ['rankine', 'steam', 'superheat', 'turbine exit quality'], difficulty: 'standard', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'A steam power plant runs on the ideal Rankine cycle. Steam leaves the boiler at @{pB} and @{TIT} and expands in the turbine to the condenser pressure of @{pC}; saturated liquid leaves the condenser.',
+    '',
+    'Per kilogram of steam, find the quality at the turbine exit, the net work output (a magnitude), and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    choice('pB', 'boiler pressure', 'MPa', [3, 4, 5, 6, 8]),
+    choice('pC', 'condenser pressure', 'kPa', [10, 20, 50]),
+    range('TIT', 'turbine inlet temperature', '°C', 400, 550, 25),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'rankine', inputs: { boilerPressure: 'pB', condenserPressure: 'pC', turbineInletTemperature: 'TIT' } },
+  finds: [
+    output('x4', 'Quality at the turbine exit', 'totals.turbineExitQuality', '', 2, { tolerance: rel(0.015) }),
+    output('wNet', 'Net work output per kg of steam', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['kilo-factor'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+const rankineReheat: ProblemDefinition = {
+  format: 1,
+  title: 'Reheat Rankine cycle',
+  tags: { topics: ['rankine', 'steam', 'reheat'], difficulty: 'challenging', level: 'upper-level' },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'An ideal reheat Rankine cycle: steam enters the high-pressure turbine at @{pB} and @{TIT}, expands to @{pR}, is reheated at constant pressure to @{TR}, and expands in the low-pressure turbine to 10 kPa.',
+    '',
+    'Per kilogram of steam, find the total heat added in the boiler and reheater, the quality at the low-pressure turbine exit, and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    choice('pB', 'boiler pressure', 'MPa', [12, 14, 15, 16]),
+    range('TIT', 'high-pressure turbine inlet temperature', '°C', 500, 600, 25),
+    choice('pR', 'reheat pressure', 'MPa', [2, 3, 4]),
+    range('TR', 'reheat temperature', '°C', 500, 600, 50),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'rankine-reheat',
+    inputs: { boilerPressure: 'pB', condenserPressure: '10 kPa', turbineInletTemperature: 'TIT', reheatPressure: 'pR', reheatTemperature: 'TR' },
+  },
+  finds: [
+    output('qin', 'Heat added in the boiler and reheater per kg', 'totals.heatIn', 'kJ/kg', 3, { pitfalls: ['kilo-factor'] }),
+    output('x6', 'Quality at the low-pressure turbine exit', 'totals.turbineExitQuality', '', 2, { tolerance: rel(0.015) }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2, { sigFigs: { min: 3 } }),
+  ],
+}
+
+const rankineRegenerative: ProblemDefinition = {
+  format: 1,
+  title: 'Regenerative Rankine cycle with an open feedwater heater',
+  tags: { topics: ['rankine', 'steam', 'feedwater heater', 'regeneration', 'isentropic efficiency'], difficulty: 'challenging', level: 'upper-level' },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'Steam enters the turbine of a regenerative Rankine plant at 15 MPa and @{TIT}. Some steam is bled at @{pF} to an open feedwater heater; the rest expands to 10 kPa. Saturated liquid leaves both the condenser and the heater. The turbine has an isentropic efficiency of @{etaT, 2 dp} (for each section) and both pumps @{etaP, 2 dp}.',
+    '',
+    'Per kilogram of steam through the boiler, find the fraction of steam bled to the heater, the net work output (a magnitude) and the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('TIT', 'turbine inlet temperature', '°C', 500, 600, 25),
+    choice('pF', 'feedwater heater pressure', 'MPa', [0.5, 0.8, 1, 1.2, 1.5]),
+    choice('etaT', 'turbine isentropic efficiency', '', [0.85, 0.87, 0.9]),
+    choice('etaP', 'pump isentropic efficiency', '', [0.8, 0.85]),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'rankine-regenerative',
+    inputs: { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: 'TIT', feedwaterHeaterPressure: 'pF', turbineEfficiency: 'etaT', pumpEfficiency: 'etaP' },
+  },
+  finds: [
+    output('y', 'Fraction of steam bled to the heater', 'totals.bleedFraction', '', 3, { tolerance: rel(0.02) }),
+    output('wNet', 'Net work output per kg of steam', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['kilo-factor'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+// ---- A general state-and-process cycle -------------------------------------------------------
+
+const threeStep: ProblemDefinition = {
+  format: 1,
+  title: 'Three-step cycle: polytropic compression, isobaric expansion, isochoric cooling',
+  tags: { topics: ['polytropic', 'isobaric', 'isochoric', 'first law', 'per mole'], difficulty: 'challenging', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    'Two moles of an ideal @{gas} gas start in state A at 100 kPa and @{VA}. The gas is',
+    '',
+    '1. compressed polytropically ($pV^n$ = const, $n =$ @{n, 2 dp}) to state B at @{pB},',
+    '2. expanded at constant pressure to state C, back at the volume of A,',
+    '3. cooled at constant volume back to A.',
+    '',
+    'For the whole two moles, find the work in the compression A→B and the net work of the cycle (both in your course\'s sign convention), the heat added in the expansion B→C, and the thermal efficiency $\\eta = W_\\text{net}/Q_\\text{in}$.',
+  ].join('\n'),
+  givens: [
+    choice('gas', 'kind of gas', '', ['monatomic', 'diatomic']),
+    range('VA', 'volume in state A', 'L', 30, 50, 5),
+    range('n', 'polytropic exponent', '', 1.15, 1.35, 0.05),
+    range('pB', 'pressure in state B', 'kPa', 250, 400, 50),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'cycle',
+    cycle: {
+      gas: 'gas',
+      system: 'closed',
+      amount: '2 mol',
+      states: [
+        { name: 'A', p: '100 kPa', V: 'VA' },
+        { name: 'B', p: 'pB' },
+        { name: 'C', V: 'VA' },
+      ],
+      steps: [
+        { process: 'polytropic', n: 'n', label: 'compression' },
+        { process: 'isobaric', label: 'expansion' },
+        { process: 'isochoric', label: 'cooling' },
+      ],
+    },
+  },
+  finds: [
+    output('wAB', 'Work in the compression A→B (whole gas)', 'steps.1.total.w', 'kJ', 3, { pitfalls: ['sign-convention-flipped', 'kilo-factor'] }),
+    output('qBC', 'Heat added in the expansion B→C (whole gas)', 'steps.2.total.q', 'kJ', 3, { pitfalls: ['cp-cv-swapped', 'gamma-monatomic-diatomic-swapped', 'kilo-factor'] }),
+    output('wNet', 'Net work of the cycle (whole gas)', 'totals.total.netWork', 'kJ', 2, { pitfalls: ['sign-convention-flipped'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+/** The demo bank, in seeding order (a copy comes after the problem it was copied from). */
+export const DEMO_PROBLEMS: readonly DemoProblem[] = [
+  { owner: 'amara', visibility: 'department', definition: carnotEngine },
+  { owner: 'tobias', visibility: 'department', definition: carnotRefrigerator },
+  { owner: 'amara', visibility: 'private', definition: carnotHeatPump },
+  { owner: 'tobias', visibility: 'installation', definition: ottoV2, earlierVersions: [ottoV1] },
+  { owner: 'tobias', visibility: 'department', definition: diesel },
+  { owner: 'tobias', visibility: 'private', definition: dual },
+  { owner: 'tobias', visibility: 'installation', definition: brayton },
+  { owner: 'tobias', visibility: 'department', definition: braytonRegenerative },
+  { owner: 'amara', visibility: 'department', definition: stirling },
+  { owner: 'tobias', visibility: 'private', definition: stirlingAir, copiedFrom: stirling.title },
+  { owner: 'amara', visibility: 'installation', definition: ericsson },
+  { owner: 'tobias', visibility: 'installation', definition: rankine },
+  { owner: 'tobias', visibility: 'department', definition: rankineReheat },
+  { owner: 'tobias', visibility: 'private', definition: rankineRegenerative },
+  { owner: 'amara', visibility: 'department', definition: threeStep },
+]
