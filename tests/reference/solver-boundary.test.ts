@@ -25,7 +25,7 @@ function walk(dir: string): string[] {
   })
 }
 
-const files = [...walk(join(root, 'app/domain/thermo')), ...walk(join(root, 'app/domain/grading'))]
+const files = [...walk(join(root, 'app/domain/thermo')), ...walk(join(root, 'app/domain/grading')), ...walk(join(root, 'app/domain/authoring'))]
 
 test('there are files to scan', () => expect(files.length).toBeGreaterThan(10))
 

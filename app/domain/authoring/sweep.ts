@@ -1,0 +1,123 @@
+/**
+ * The sweep: drawing many variants of a problem and checking each for physical sense before
+ * students see it. A range that looks harmless can reach a turbine inlet below the compressor
+ * exit, a negative temperature through an expression, or wet steam beyond quality 1. Each
+ * failure names its seed and the givens drawn, so the author can open that variant. Pure;
+ * the background job calls sweepVariants in chunks of seeds and reports progress between them.
+ */
+import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
+import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
+import type { DrawResult, DrawnGiven, ProblemDefinition, SweepFailure, SweepSummary } from './definition.ts'
+import { drawGivens, formatNumber } from './givens.ts'
+import { drawVariant } from './variant.ts'
+
+/** Failures kept by default; the rest are counted. */
+export const SWEEP_KEEP_DEFAULT = 200
+
+// Round-off in the solver's own arithmetic must not count as a violated bound.
+const SLACK = 1e-9
+
+function givenLines(givens: readonly DrawnGiven[]): string[] {
+  return givens.map((g) => `${g.name} = ${g.text}`)
+}
+
+function isRankine(sol: FormattedSolution | FormattedRankine): sol is FormattedRankine {
+  return 'substance' in sol
+}
+
+function stateName(name: string, index: number): string {
+  return name === String(index + 1) ? `State ${name}` : `State ${index + 1} (${name})`
+}
+
+function fmt(x: number): string {
+  return Number.isFinite(x) ? formatNumber(Number(x.toPrecision(4))) : String(x)
+}
+
+type Problem = Omit<SweepFailure, 'seed' | 'givens'>
+
+function stateProblems(states: readonly { name: string; T: { value: number }; p: { value: number } }[]): Problem[] {
+  const out: Problem[] = []
+  states.forEach((s, i) => {
+    if (!(s.T.value > 0)) out.push({ code: 'temperature-not-positive', message: `${stateName(s.name, i)}: T = ${fmt(s.T.value)} K is not above absolute zero.` })
+    if (!(s.p.value > 0)) out.push({ code: 'pressure-not-positive', message: `${stateName(s.name, i)}: p = ${fmt(s.p.value)} Pa is not positive.` })
+  })
+  return out
+}
+
+function idealGasProblems(sol: FormattedSolution): Problem[] {
+  const out = stateProblems(sol.states)
+  const t = sol.totals
+  const bound = t.carnotBound.value
+  const check = (what: string, value: number | undefined, lowOk: (v: number) => boolean): void => {
+    if (value === undefined || !Number.isFinite(value)) {
+      out.push({ code: 'efficiency-out-of-range', message: `The ${what} is undefined (the cycle does not work as a ${t.purpose}).` })
+    } else if (!lowOk(value) || value > bound + SLACK * Math.max(1, Math.abs(bound))) {
+      out.push({ code: 'efficiency-out-of-range', message: `The ${what} ${fmt(value)} is outside 0 to the Carnot bound ${fmt(bound)} for ${fmt(t.Tmin.value)} K to ${fmt(t.Tmax.value)} K.` })
+    }
+  }
+  if (t.purpose === 'engine') check('efficiency', t.efficiency?.value, (v) => v >= -SLACK)
+  else if (t.purpose === 'refrigerator') check('COP', t.copRefrigerator?.value, (v) => v > 0)
+  else check('COP', t.copHeatPump?.value, (v) => v > 0)
+  return out
+}
+
+function rankineProblems(sol: FormattedRankine): Problem[] {
+  const out = stateProblems(sol.states)
+  const temps = sol.states.map((s) => s.T.value)
+  const tMin = Math.min(...temps)
+  const tMax = Math.max(...temps)
+  const bound = 1 - tMin / tMax
+  const eta = sol.totals.efficiency.value
+  if (!Number.isFinite(eta) || eta < -SLACK || eta > bound + SLACK) {
+    out.push({ code: 'efficiency-out-of-range', message: `The efficiency ${fmt(eta)} is outside 0 to the Carnot bound ${fmt(bound)} for ${fmt(tMin)} K to ${fmt(tMax)} K.` })
+  }
+  sol.states.forEach((s, i) => {
+    if (s.x !== null && !(s.x >= -SLACK && s.x <= 1 + SLACK)) out.push({ code: 'quality-out-of-range', message: `${stateName(s.name, i)}: quality x = ${fmt(s.x)} is outside 0 to 1.` })
+  })
+  const x = sol.totals.turbineExitQuality?.value
+  if (x !== undefined && !(x >= -SLACK && x <= 1 + SLACK)) out.push({ code: 'quality-out-of-range', message: `Turbine exit quality ${fmt(x)} is outside 0 to 1.` })
+  return out
+}
+
+/** What is physically wrong with one drawn variant (an empty list when nothing is). */
+export function checkVariantSanity(result: DrawResult): SweepFailure[] {
+  if (!result.ok) return [{ seed: result.seed, code: result.error.code, message: result.error.message }]
+  const v = result.variant
+  const problems = isRankine(v.solution) ? rankineProblems(v.solution) : idealGasProblems(v.solution)
+  for (const k of v.key) {
+    if (!Number.isFinite(k.value)) problems.push({ code: 'find-undefined', message: `Find "${k.name}": the key is not a finite number.` })
+  }
+  const givens = givenLines(v.givens)
+  return problems.map((p) => ({ seed: v.seed, ...p, givens }))
+}
+
+/**
+ * Draws and checks the variant of every seed. `failed` counts the variants with at least one
+ * failure (all of them); `failures` keeps the first `keep` (default 200) failures. Never throws.
+ */
+export function sweepVariants(def: ProblemDefinition, options: { readonly seeds: readonly number[]; readonly convention: Convention; readonly keep?: number }): SweepSummary {
+  const keep = options.keep === undefined || !Number.isFinite(options.keep) ? SWEEP_KEEP_DEFAULT : Math.max(0, Math.floor(options.keep))
+  let checked = 0
+  let failed = 0
+  const failures: SweepFailure[] = []
+  for (const seed of options.seeds) {
+    checked++
+    let found: SweepFailure[]
+    try {
+      const result = drawVariant(def, seed, { convention: options.convention })
+      found = checkVariantSanity(result)
+      // A variant that failed after its givens were drawn (the solver refused them) is most
+      // useful with those givens beside the message.
+      if (!result.ok && found.length > 0 && result.error.code !== 'given-error' && result.error.code !== 'constraint-never-met') {
+        const g = drawGivens(def, seed)
+        if (g.ok) found = found.map((f) => ({ ...f, givens: givenLines(g.givens) }))
+      }
+    } catch (e) {
+      found = [{ seed, code: 'invalid-definition', message: `The variant could not be checked (${e instanceof Error ? e.message : String(e)}).` }]
+    }
+    if (found.length === 0) continue
+    failed++
+    for (const f of found) if (failures.length < keep) failures.push(f)
+  }
+  return { checked, failed, failures }
+}
