@@ -1,0 +1,476 @@
+/**
+ * Plot data for the P–v and T–s diagrams of a solved variant: the states as points and each
+ * process as the curve it is, computed from the solved states only (no re-solving).
+ *
+ * Ideal gas: p v^k = const through both end states for isothermal, isentropic and polytropic
+ * steps (k = 1 and k = γ are the exact cases of constant-cp gases; for NASA data the fit still
+ * passes through both ends); T = T1·exp((s − s1)/c) in T–s for isochoric, isobaric and
+ * polytropic steps, with c fitted through both ends (c = cv, cp or the polytropic c_n for a
+ * constant-cp gas). Steps whose intermediate states the solution does not define (an adiabatic
+ * step with Δs ≠ 0, i.e. an isentropic efficiency below one) are dashed straight segments,
+ * common practice for irreversible paths.
+ *
+ * Water/steam (Rankine): every curve runs through IAPWS-IF97 states (isobars and isentropes
+ * sampled with stateFromPS), with the saturation dome; P–v on log–log axes, since the liquid
+ * and the vapour volumes differ by four decades.
+ *
+ * Never throws: a curve that cannot be computed becomes a straight segment, a state with a
+ * non-finite value is left out.
+ */
+import type { FormattedSolution } from '#app/domain/thermo/format.ts'
+import { saturationAtP, saturationAtT, STEAM_LIMITS, stateFromPS } from '#app/domain/thermo/steam/index.ts'
+import type { FormattedRankine, FormattedRankineState } from '#app/domain/thermo/steam/index.ts'
+
+export interface Axis {
+  readonly label: string
+  readonly unit: string
+  readonly scale: 'linear' | 'log'
+  readonly min: number
+  readonly max: number
+}
+
+export interface Curve {
+  /** state labels as in the solution ('1', 'A', …) */
+  readonly from: string
+  readonly to: string
+  /** the process or device in words ('isentropic', 'boiler (isobaric heating)', …) */
+  readonly process: string
+  /** the step's own label when the solution has one ('compression') */
+  readonly label?: string
+  /** dashed: an irreversible or internal step drawn as a straight line or without a defined path */
+  readonly style: 'solid' | 'dashed'
+  /** [x, y] in the plot's axis units */
+  readonly points: [number, number][]
+}
+
+export interface Plot {
+  readonly title: string
+  readonly x: Axis
+  readonly y: Axis
+  readonly curves: Curve[]
+  readonly points: { label: string; x: number; y: number }[]
+  /** closed outline of the two-phase region: liquid branch up to the critical point, vapour branch down */
+  readonly dome?: { points: [number, number][] }
+}
+
+export interface CycleDiagrams {
+  readonly pv: Plot
+  readonly ts: Plot
+}
+
+/** Points per ideal-gas curve. */
+const N = 32
+/** Points per IF97 isobar or isentrope (plus the dome corners on an isobar). */
+const N_STEAM = 40
+/** Points per dome branch. */
+const N_DOME = 30
+/** Triple-point temperature of water, K (IAPWS; the dome starts there, at about 0.61 kPa). */
+const T_TRIPLE = 273.16
+const PAD = 0.06
+
+type Pair = [number, number]
+
+const finite = (...xs: number[]) => xs.every((x) => typeof x === 'number' && Number.isFinite(x))
+const positive = (...xs: number[]) => xs.every((x) => typeof x === 'number' && Number.isFinite(x) && x > 0)
+const same = (a: number, b: number, rel = 1e-9) => Math.abs(a - b) <= rel * Math.max(Math.abs(a), Math.abs(b))
+
+/** A straight segment on screen: linear interpolation on linear axes, geometric on log axes. */
+function straight(a: Pair, b: Pair, scales: ['linear' | 'log', 'linear' | 'log'], n = N): Pair[] {
+  const lerp = (u: number, p: number, q: number, log: boolean) => (log && positive(p, q) ? p * Math.pow(q / p, u) : p + (q - p) * u)
+  const pts: Pair[] = []
+  for (let i = 0; i < n; i++) {
+    const u = i / (n - 1)
+    pts.push([lerp(u, a[0], b[0], scales[0] === 'log'), lerp(u, a[1], b[1], scales[1] === 'log')])
+  }
+  return pin(pts, a, b)
+}
+
+/** The ends exactly at the states, whatever rounding the sampling did. */
+function pin(pts: Pair[], a: Pair, b: Pair): Pair[] {
+  if (pts.length === 0) return [a, b]
+  pts[0] = [a[0], a[1]]
+  pts[pts.length - 1] = [b[0], b[1]]
+  return pts
+}
+
+const LIN: ['linear', 'linear'] = ['linear', 'linear']
+
+/** p v^k = const through (v1, p1) and (v2, p2), v spaced geometrically. */
+function powerLaw(a: Pair, b: Pair): Pair[] {
+  const [v1, p1] = a
+  const [v2, p2] = b
+  if (!positive(v1, p1, v2, p2) || same(v1, v2, 1e-12)) return straight(a, b, LIN)
+  const k = Math.log(p2 / p1) / Math.log(v1 / v2)
+  if (!Number.isFinite(k)) return straight(a, b, LIN)
+  const pts: Pair[] = []
+  for (let i = 0; i < N; i++) {
+    const v = v1 * Math.pow(v2 / v1, i / (N - 1))
+    pts.push([v, p1 * Math.pow(v1 / v, k)])
+  }
+  return pin(pts, a, b)
+}
+
+/** T = T1 exp((s − s1)/c) through (s1, T1) and (s2, T2): T geometric, s linear in the index. */
+function expFit(a: Pair, b: Pair): Pair[] {
+  const [s1, T1] = a
+  const [s2, T2] = b
+  if (!positive(T1, T2) || !finite(s1, s2) || same(T1, T2, 1e-12) || s1 === s2) return straight(a, b, LIN)
+  const pts: Pair[] = []
+  for (let i = 0; i < N; i++) {
+    const u = i / (N - 1)
+    pts.push([s1 + (s2 - s1) * u, T1 * Math.pow(T2 / T1, u)])
+  }
+  return pin(pts, a, b)
+}
+
+function cleanCurve(c: Curve): Curve {
+  return c.points.every(([x, y]) => finite(x, y)) ? c : { ...c, points: c.points.filter(([x, y]) => finite(x, y)) }
+}
+
+function range(values: number[], scale: 'linear' | 'log', nonNegative: boolean): [number, number] {
+  const vs = values.filter((x) => Number.isFinite(x) && (scale === 'linear' || x > 0))
+  if (vs.length === 0) return scale === 'log' ? [0.1, 10] : [0, 1]
+  let lo = Math.min(...vs)
+  let hi = Math.max(...vs)
+  if (scale === 'log') {
+    let a = Math.log10(lo)
+    let b = Math.log10(hi)
+    const span = b - a || 1
+    a -= PAD * span
+    b += PAD * span
+    return [Math.pow(10, a), Math.pow(10, b)]
+  }
+  const span = hi - lo || Math.abs(hi) * 0.2 || 1
+  lo -= PAD * span
+  hi += PAD * span
+  if (nonNegative && lo < 0 && Math.min(...vs) >= 0) lo = 0
+  return [lo, hi]
+}
+
+function axes(curves: Curve[], points: Plot['points'], dome: Pair[] | undefined, scale: 'linear' | 'log', nonNegX: boolean, nonNegY: boolean) {
+  const xs: number[] = []
+  const ys: number[] = []
+  for (const c of curves) for (const [x, y] of c.points) (xs.push(x), ys.push(y))
+  for (const p of points) (xs.push(p.x), ys.push(p.y))
+  for (const [x, y] of dome ?? []) (xs.push(x), ys.push(y))
+  return { x: range(xs, scale, nonNegX), y: range(ys, scale, nonNegY) }
+}
+
+// --- ideal gas -----------------------------------------------------------------------------
+
+interface GasPoint {
+  label: string
+  p: number
+  v: number
+  T: number
+  s: number
+}
+
+function gasDiagrams(sol: FormattedSolution): CycleDiagrams {
+  const mass = sol.gas?.basis !== 'mole'
+  const per = mass ? 'kg' : 'mol'
+  // Plotting units: kPa, m³ per basis, K, and kJ/(kg·K) or J/(mol·K) (the sizes a table shows).
+  const sFactor = mass ? 1e-3 : 1
+  const R = Math.abs(sol.gas?.R?.value ?? 0)
+  const states: (GasPoint | null)[] = (sol.states ?? []).map((st, i) => {
+    const g = { label: st.name || String(i + 1), p: st.p.value / 1000, v: st.v.value, T: st.T.value, s: st.s.value * sFactor }
+    return finite(g.p, g.v, g.T, g.s) ? g : null
+  })
+  const pvCurves: Curve[] = []
+  const tsCurves: Curve[] = []
+  for (const step of sol.steps ?? []) {
+    const a = states[step.from - 1]
+    const b = states[step.to - 1]
+    if (!a || !b) continue
+    const sTol = 1e-9 * Math.max(R, Math.abs(a.s / sFactor), Math.abs(b.s / sFactor), 1)
+    const reversibleAdiabatic = step.process === 'adiabatic' && Math.abs((b.s - a.s) / sFactor) <= sTol
+    let kind: string = reversibleAdiabatic ? 'isentropic' : step.process
+    let dashed = false
+    let processText = step.process
+    if (step.process === 'adiabatic') {
+      processText = reversibleAdiabatic ? 'adiabatic, reversible (isentropic)' : 'adiabatic, irreversible (isentropic efficiency below 1)'
+      if (!reversibleAdiabatic) {
+        kind = 'straight'
+        dashed = true
+      }
+    } else if (step.process === 'regenerator') {
+      // The regenerator's side follows its path (isobaric by default); the solution does not
+      // carry the path, so read it off the end states. Dashed: heat exchanged inside the cycle.
+      dashed = true
+      kind = same(a.p, b.p) ? 'isobaric' : same(a.v, b.v) ? 'isochoric' : 'straight'
+      processText = kind === 'straight' ? 'regenerator (internal heat exchange)' : `regenerator, ${kind} (internal heat exchange)`
+    }
+    const pa: Pair = [a.v, a.p]
+    const pb: Pair = [b.v, b.p]
+    const ta: Pair = [a.s, a.T]
+    const tb: Pair = [b.s, b.T]
+    let pv: Pair[]
+    let ts: Pair[]
+    try {
+      switch (kind) {
+        case 'isothermal':
+        case 'isentropic':
+        case 'polytropic':
+          pv = powerLaw(pa, pb)
+          break
+        default:
+          pv = straight(pa, pb, LIN)
+      }
+      switch (kind) {
+        case 'isochoric':
+        case 'isobaric':
+        case 'polytropic':
+          ts = expFit(ta, tb)
+          break
+        default:
+          ts = straight(ta, tb, LIN)
+      }
+    } catch {
+      pv = [pa, pb]
+      ts = [ta, tb]
+    }
+    const base = { from: a.label, to: b.label, process: processText, ...(step.label ? { label: step.label } : {}), style: dashed ? ('dashed' as const) : ('solid' as const) }
+    pvCurves.push(cleanCurve({ ...base, points: pv }))
+    tsCurves.push(cleanCurve({ ...base, points: ts }))
+  }
+  const ok = states.filter((s): s is GasPoint => s !== null)
+  const pvPoints = ok.map((s) => ({ label: s.label, x: s.v, y: s.p }))
+  const tsPoints = ok.map((s) => ({ label: s.label, x: s.s, y: s.T }))
+  const pvR = axes(pvCurves, pvPoints, undefined, 'linear', true, true)
+  const tsR = axes(tsCurves, tsPoints, undefined, 'linear', false, true)
+  const vUnit = `m³/${per}`
+  const sUnit = mass ? 'kJ/(kg·K)' : 'J/(mol·K)'
+  const gasName = sol.gas?.label ? ` — ${sol.gas.label}` : ''
+  return {
+    pv: {
+      title: `P–v diagram${gasName}`,
+      x: { label: 'specific volume v', unit: vUnit, scale: 'linear', min: pvR.x[0], max: pvR.x[1] },
+      y: { label: 'pressure p', unit: 'kPa', scale: 'linear', min: pvR.y[0], max: pvR.y[1] },
+      curves: pvCurves,
+      points: pvPoints,
+    },
+    ts: {
+      title: `T–s diagram${gasName}`,
+      x: { label: 'specific entropy s', unit: sUnit, scale: 'linear', min: tsR.x[0], max: tsR.x[1] },
+      y: { label: 'temperature T', unit: 'K', scale: 'linear', min: tsR.y[0], max: tsR.y[1] },
+      curves: tsCurves,
+      points: tsPoints,
+    },
+  }
+}
+
+// --- water/steam ---------------------------------------------------------------------------
+
+interface SteamPoint {
+  label: string
+  /** SI: Pa, K, J/(kg K), m³/kg */
+  p: number
+  T: number
+  s: number
+  v: number
+  x: number | null
+  phase: string
+}
+
+/** Saturation dome in both diagrams, from the triple point to the critical point. */
+function steamDome(): { pv: Pair[]; ts: Pair[] } {
+  const Tc = STEAM_LIMITS.T_CRIT
+  const liquid: { pv: Pair; ts: Pair }[] = []
+  const vapour: { pv: Pair; ts: Pair }[] = []
+  for (let i = 0; i < N_DOME; i++) {
+    // Cubic spacing: near the critical point s and v change fastest with T.
+    const u = i / (N_DOME - 1)
+    const T = i === N_DOME - 1 ? Tc : T_TRIPLE + (Tc - T_TRIPLE) * (1 - Math.pow(1 - u, 3))
+    const sat = saturationAtT(T)
+    if (!sat.ok) continue
+    const { p, liquid: f, vapour: g } = sat.value
+    liquid.push({ pv: [f.v, p / 1000], ts: [f.s / 1000, T] })
+    vapour.push({ pv: [g.v, p / 1000], ts: [g.s / 1000, T] })
+  }
+  // At the critical point both branches meet: keep that point once.
+  const top = vapour.pop()
+  if (top && liquid.length > 0) liquid[liquid.length - 1] = top
+  const outline = [...liquid, ...vapour.reverse()]
+  return { pv: outline.map((o) => o.pv), ts: outline.map((o) => o.ts) }
+}
+
+/** IF97 states along the isobar p from entropy sa to sb, with the dome corners as samples. */
+function isobar(p: number, sa: number, sb: number): { pv: Pair[]; ts: Pair[] } | null {
+  const ss: number[] = []
+  for (let i = 0; i < N_STEAM; i++) ss.push(sa + ((sb - sa) * i) / (N_STEAM - 1))
+  if (p < STEAM_LIMITS.P_CRIT) {
+    // Sampling the saturated liquid and vapour keeps the corners of the isobar sharp.
+    const sat = saturationAtP(p)
+    if (sat.ok) {
+      const lo = Math.min(sa, sb)
+      const hi = Math.max(sa, sb)
+      for (const c of [sat.value.liquid.s, sat.value.vapour.s]) if (c > lo && c < hi) ss.push(c)
+      ss.sort((x, y) => (sb >= sa ? x - y : y - x))
+    }
+  }
+  const pv: Pair[] = []
+  const ts: Pair[] = []
+  for (const s of ss) {
+    const st = stateFromPS(p, s)
+    if (!st.ok) return null
+    pv.push([st.value.v, p / 1000])
+    ts.push([s / 1000, st.value.T])
+  }
+  return { pv, ts }
+}
+
+/** IF97 states along the isentrope s from pa to pb, p spaced geometrically. */
+function isentrope(s: number, pa: number, pb: number): { pv: Pair[]; ts: Pair[] } | null {
+  const pv: Pair[] = []
+  const ts: Pair[] = []
+  for (let i = 0; i < N_STEAM; i++) {
+    const p = pa * Math.pow(pb / pa, i / (N_STEAM - 1))
+    const st = stateFromPS(p, s)
+    if (!st.ok) return null
+    pv.push([st.value.v, p / 1000])
+    ts.push([s / 1000, st.value.T])
+  }
+  return { pv, ts }
+}
+
+function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
+  const states: (SteamPoint | null)[] = (sol.states ?? []).map((st: FormattedRankineState, i) => {
+    const g = { label: st.name || String(i + 1), p: st.p.value, T: st.T.value, s: st.s.value, v: st.v.value, x: st.x, phase: st.phase }
+    return positive(g.p, g.T, g.v) && finite(g.s) ? g : null
+  })
+  const n = states.length
+  const valid = states.filter((s): s is SteamPoint => s !== null)
+  const pMax = Math.max(...valid.map((s) => s.p))
+  const pMin = Math.min(...valid.map((s) => s.p))
+  const pvCurves: Curve[] = []
+  const tsCurves: Curve[] = []
+  const LOG: ['log', 'log'] = ['log', 'log']
+
+  const add = (a: SteamPoint, b: SteamPoint, process: string, dashed: boolean, path: 'isobar' | 'isentrope' | 'straight') => {
+    const pa: Pair = [a.v, a.p / 1000]
+    const pb: Pair = [b.v, b.p / 1000]
+    const ta: Pair = [a.s / 1000, a.T]
+    const tb: Pair = [b.s / 1000, b.T]
+    let got: { pv: Pair[]; ts: Pair[] } | null = null
+    try {
+      if (path === 'isobar') got = isobar(a.p, a.s, b.s)
+      else if (path === 'isentrope') got = isentrope(a.s, a.p, b.p)
+    } catch {
+      got = null
+    }
+    const pv = got ? pin(got.pv, pa, pb) : straight(pa, pb, LOG)
+    const ts = got ? pin(got.ts, ta, tb) : straight(ta, tb, LIN)
+    const style = dashed ? ('dashed' as const) : ('solid' as const)
+    pvCurves.push(cleanCurve({ from: a.label, to: b.label, process, style, points: pv }))
+    tsCurves.push(cleanCurve({ from: a.label, to: b.label, process, style, points: ts }))
+  }
+
+  for (let i = 0; i < n; i++) {
+    const a = states[i]
+    const b = states[(i + 1) % n]
+    if (!a || !b || n < 2) continue
+    const isentropic = Math.abs(b.s - a.s) <= 1e-7 * Math.max(Math.abs(a.s), Math.abs(b.s), 1)
+    if (same(a.p, b.p)) {
+      const heating = b.s > a.s
+      const liquidIn = a.phase.includes('liquid') && !same(a.p, pMax)
+      const device = heating
+        ? same(a.p, pMax)
+          ? 'boiler'
+          : liquidIn
+            ? 'open feedwater heater'
+            : 'reheater'
+        : same(a.p, pMin)
+          ? 'condenser'
+          : 'heat rejection'
+      add(a, b, `${device} (isobaric ${heating ? 'heating' : 'cooling'})`, false, 'isobar')
+    } else if (b.p > a.p) {
+      add(a, b, isentropic ? 'pump (isentropic compression)' : 'pump (irreversible compression)', !isentropic, isentropic ? 'isentrope' : 'straight')
+    } else {
+      add(a, b, isentropic ? 'turbine (isentropic expansion)' : 'turbine (irreversible expansion)', !isentropic, isentropic ? 'isentrope' : 'straight')
+    }
+  }
+  // Open feedwater heater: steam bled from the turbine leaves the cycle order and condenses
+  // by mixing at the heater pressure, ending as the heater's saturated-liquid exit.
+  for (let i = 1; i < n; i++) {
+    const heaterExit = states[i]
+    if (!heaterExit || heaterExit.x !== 0) continue
+    for (let k = i + 1; k < n; k++) {
+      const bled = states[k]
+      if (bled && same(bled.p, heaterExit.p) && bled.s > heaterExit.s) {
+        add(bled, heaterExit, 'bleed steam to the open feedwater heater (isobaric mixing)', true, 'isobar')
+        break
+      }
+    }
+  }
+
+  let dome: { pv: Pair[]; ts: Pair[] } = { pv: [], ts: [] }
+  try {
+    dome = steamDome()
+  } catch {
+    dome = { pv: [], ts: [] }
+  }
+  const pvPoints = valid.map((s) => ({ label: s.label, x: s.v, y: s.p / 1000 }))
+  const tsPoints = valid.map((s) => ({ label: s.label, x: s.s / 1000, y: s.T }))
+  const pvR = axes(pvCurves, pvPoints, dome.pv, 'log', true, true)
+  const tsR = axes(tsCurves, tsPoints, dome.ts, 'linear', false, true)
+  return {
+    pv: {
+      title: 'P–v diagram — water/steam (IAPWS-IF97), log–log axes',
+      x: { label: 'specific volume v (log scale)', unit: 'm³/kg', scale: 'log', min: pvR.x[0], max: pvR.x[1] },
+      y: { label: 'pressure p (log scale)', unit: 'kPa', scale: 'log', min: pvR.y[0], max: pvR.y[1] },
+      curves: pvCurves,
+      points: pvPoints,
+      ...(dome.pv.length > 2 ? { dome: { points: dome.pv } } : {}),
+    },
+    ts: {
+      title: 'T–s diagram — water/steam (IAPWS-IF97)',
+      x: { label: 'specific entropy s', unit: 'kJ/(kg·K)', scale: 'linear', min: tsR.x[0], max: tsR.x[1] },
+      y: { label: 'temperature T', unit: 'K', scale: 'linear', min: tsR.y[0], max: tsR.y[1] },
+      curves: tsCurves,
+      points: tsPoints,
+      ...(dome.ts.length > 2 ? { dome: { points: dome.ts } } : {}),
+    },
+  }
+}
+
+function emptyDiagrams(): CycleDiagrams {
+  const ax = (label: string, unit: string): Axis => ({ label, unit, scale: 'linear', min: 0, max: 1 })
+  return {
+    pv: { title: 'P–v diagram', x: ax('specific volume v', 'm³/kg'), y: ax('pressure p', 'kPa'), curves: [], points: [] },
+    ts: { title: 'T–s diagram', x: ax('specific entropy s', 'kJ/(kg·K)'), y: ax('temperature T', 'K'), curves: [], points: [] },
+  }
+}
+
+/** Both diagrams of a solved variant (ideal-gas cycle or Rankine). Never throws. */
+export function cycleDiagrams(solution: FormattedSolution | FormattedRankine): CycleDiagrams {
+  try {
+    if (!solution || typeof solution !== 'object' || !Array.isArray(solution.states)) return emptyDiagrams()
+    if ('steps' in solution && Array.isArray(solution.steps)) return gasDiagrams(solution)
+    return rankineDiagrams(solution as FormattedRankine)
+  } catch {
+    return emptyDiagrams()
+  }
+}
+
+const fmt = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : '—')
+
+/** The axis quantity's symbol: the last word of its label ('p', 'v', 'T', 's'). */
+export function axisSymbol(axis: Axis): string {
+  const words = axis.label.replace(/\s*\(log scale\)\s*$/, '').trim().split(/\s+/)
+  return words[words.length - 1] ?? axis.label
+}
+
+/** The plot in words, for screen readers (the SVG's <desc>). */
+export function describePlot(plot: Plot): string {
+  const xs = axisSymbol(plot.x)
+  const ys = axisSymbol(plot.y)
+  const states = plot.points.map((p) => `${p.label} (${xs} = ${fmt(p.x)} ${plot.x.unit}, ${ys} = ${fmt(p.y)} ${plot.y.unit})`)
+  const steps = plot.curves.map((c) => `${c.from} to ${c.to}, ${c.process}${c.label ? ` (${c.label})` : ''}${c.style === 'dashed' ? ', dashed' : ''}`)
+  const parts = [`${plot.title}.`]
+  if (plot.x.scale === 'log' || plot.y.scale === 'log') parts.push('Both axes are logarithmic.')
+  if (states.length > 0) parts.push(`States: ${states.join('; ')}.`)
+  if (steps.length > 0) parts.push(`Processes: ${steps.join('; ')}.`)
+  if (plot.curves.some((c) => c.style === 'dashed')) parts.push('Dashed lines mark irreversible or internal steps whose path is not defined by the solution.')
+  if (plot.dome) parts.push('The shaded outline is the saturation dome of water, from the triple point up to the critical point; inside it liquid and vapour coexist.')
+  return parts.join(' ')
+}
