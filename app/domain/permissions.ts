@@ -54,3 +54,39 @@ export function primaryRole(actor: Actor): 'admin' | CourseRole | 'none' {
   if (roles.has('student')) return 'student'
   return 'none'
 }
+
+// ---- The problem bank -------------------------------------------------------------------
+
+/** Who a bank problem is shown to; mirrors the problem_visibility enum. */
+export type ProblemVisibility = 'private' | 'department' | 'installation'
+
+export type BankViewerFacts = { id: number; isAdmin: boolean; departmentId: number | null }
+export type BankProblemFacts = { ownerId: number; visibility: ProblemVisibility; departmentId: number | null }
+
+/** The bank is for people who set work: admins, and anyone teaching some course. */
+export function canUseBank(actor: Actor): boolean {
+  if (actor.isAdmin) return true
+  for (const role of actor.roles.values()) if (role === 'instructor') return true
+  return false
+}
+
+/**
+ * Whether a bank user sees a problem. The viewer is assumed to be a bank user already
+ * (canUseBank): students never reach the bank, so 'installation' means every bank user.
+ * A viewer without a department shares no department with anyone.
+ */
+export function canSeeProblem(viewer: BankViewerFacts, problem: BankProblemFacts): boolean {
+  if (viewer.isAdmin || problem.ownerId === viewer.id) return true
+  if (problem.visibility === 'installation') return true
+  if (problem.visibility === 'department') return viewer.departmentId !== null && viewer.departmentId === problem.departmentId
+  return false
+}
+
+/**
+ * Only the owner edits. Admins see everything but do not edit others' problems: a version
+ * is the author's work, and students' grades are tied to what the author wrote. Anyone who
+ * wants a variant makes a copy, which records where it came from.
+ */
+export function canEditProblem(viewer: { id: number }, problem: { ownerId: number }): boolean {
+  return problem.ownerId === viewer.id
+}
