@@ -1,0 +1,169 @@
+/**
+ * The job queue contract shared by the web process and jobs/worker.ts: the queue names,
+ * the payload schema of each, and one producer-only PgBoss per process on DATABASE_URL
+ * (schema `pgboss`). The web process only sends; workers are registered in jobs/worker.ts.
+ *
+ * pg-boss 10 wants every queue created before `send` or `work` (../shared/STACK.md), so
+ * starting a boss here also creates all the queues listed below.
+ */
+import { drizzle } from 'drizzle-orm/node-postgres'
+import pg from 'pg'
+import PgBoss from 'pg-boss'
+import { z } from 'zod'
+import type { Db } from './db/client.server.ts'
+import * as schema from './db/schema.server.ts'
+import { env } from './env.server.ts'
+
+export const PGBOSS_SCHEMA = 'pgboss'
+
+/**
+ * Queue name → payload schema. Every payload carries `v` so that a job queued by an older
+ * release can be told apart once a payload changes shape.
+ */
+export const queuePayloads = {
+  'problem-sweep': z.object({ v: z.literal(1), sweepId: z.number().int().positive() }),
+  // TODO(#6): 'grade-submission', 'send-mail' and 'export-grades' arrive here, each with
+  // its options in `queueSettings` and its handler in jobs/handlers/.
+} as const
+
+export type QueueName = keyof typeof queuePayloads
+export type QueuePayload<N extends QueueName> = z.infer<(typeof queuePayloads)[N]>
+export const queueNames = Object.keys(queuePayloads) as QueueName[]
+
+/** Where pg-boss moves a job whose retries are used up, or that can never succeed. */
+export const DEAD_LETTER_QUEUE = 'dead-letter'
+
+type QueueSettings<N extends QueueName> = {
+  options: Omit<PgBoss.Queue, 'name'>
+  /** Two sends with the same key while the first still waits make one job. */
+  singletonKey?: (payload: QueuePayload<N>) => string
+}
+
+export const queueSettings: { [N in QueueName]: QueueSettings<N> } = {
+  'problem-sweep': {
+    // 'short': at most one waiting job per singleton key.
+    options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    singletonKey: (p) => `sweep-${p.sweepId}`,
+  },
+}
+
+/** A job that can never succeed (a malformed payload): the worker fails it without retries. */
+export class PermanentJobError extends Error {
+  override name = 'PermanentJobError'
+}
+
+/** Runs pg-boss's SQL on a connection of ours, so a job is sent inside our transaction. */
+export type JobConnection = PgBoss.Db
+
+function isUniqueViolation(e: unknown) {
+  return (e as { code?: string }).code === '23505'
+}
+
+/** Creates (or brings up to date) the dead-letter queue and every queue of the map. */
+export async function ensureQueues(boss: PgBoss) {
+  const wanted: [string, Omit<PgBoss.Queue, 'name'>][] = [
+    [DEAD_LETTER_QUEUE, { policy: 'standard' }],
+    ...queueNames.map((n) => [n, queueSettings[n].options] as [string, Omit<PgBoss.Queue, 'name'>]),
+  ]
+  for (const [name, options] of wanted) {
+    if (await boss.getQueue(name)) {
+      await boss.updateQueue(name, { name, ...options })
+      continue
+    }
+    try {
+      await boss.createQueue(name, { name, ...options })
+    } catch (e) {
+      // Another process created it between our look and our insert.
+      if (!isUniqueViolation(e)) throw e
+    }
+  }
+}
+
+/** pg-boss options shared by the producer here and the worker in jobs/worker.ts. */
+export function bossOptions(connectionString: string, extra: PgBoss.ConstructorOptions = {}): PgBoss.ConstructorOptions {
+  return { connectionString, schema: PGBOSS_SCHEMA, application_name: 'cyclewright-jobs', ...extra }
+}
+
+type Holder = { boss?: Promise<PgBoss>; url?: string }
+// On globalThis so that hot reloads in development do not start a second boss.
+const holder: Holder = ((globalThis as { __cyclewrightBoss?: Holder }).__cyclewrightBoss ??= {})
+
+/**
+ * The process's producer boss, started on first use: it installs or migrates pg-boss's
+ * schema and creates the queues. It runs no maintenance (the workers do) and no workers.
+ */
+export function getBoss(): Promise<PgBoss> {
+  const url = env().DATABASE_URL
+  if (holder.boss && holder.url === url) return holder.boss
+  const starting = (async () => {
+    const boss = new PgBoss(bossOptions(url, { max: 3, supervise: false, schedule: false }))
+    boss.on('error', (e) => console.error('Job queue error:', e.message))
+    await boss.start()
+    await ensureQueues(boss)
+    return boss
+  })()
+  holder.boss = starting
+  holder.url = url
+  // A failed start is not cached: the next call tries again.
+  starting.catch(() => {
+    if (holder.boss === starting) holder.boss = undefined
+  })
+  return starting
+}
+
+export async function stopBoss() {
+  const starting = holder.boss
+  holder.boss = undefined
+  holder.url = undefined
+  if (!starting) return
+  const boss = await starting.catch(() => null)
+  await boss?.stop({ graceful: true, timeout: 5000 })
+}
+
+/**
+ * Checks the payload against the queue's schema and sends it. Returns the job id, or null
+ * when a job with the same singleton key is already waiting. With `connection`, the job is
+ * written through that connection, so it appears only if its transaction commits.
+ */
+export async function enqueue<N extends QueueName>(
+  name: N,
+  payload: QueuePayload<N>,
+  options: { connection?: JobConnection; startAfter?: Date } = {},
+): Promise<string | null> {
+  const parsed = queuePayloads[name].safeParse(payload)
+  if (!parsed.success) throw new Error(`Job payload for ${name} is not valid: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`)
+  const data = parsed.data as QueuePayload<N>
+  const settings = queueSettings[name] as QueueSettings<N>
+  const boss = await getBoss()
+  const send: PgBoss.SendOptions = {}
+  const key = settings.singletonKey?.(data)
+  if (key) send.singletonKey = key
+  if (options.startAfter) send.startAfter = options.startAfter
+  if (options.connection) send.db = options.connection
+  return boss.send(name, data, send)
+}
+
+/**
+ * Runs `work` in one database transaction and hands it a Drizzle instance and a job
+ * connection on the same PostgreSQL connection: rows written and jobs enqueued commit or
+ * roll back together (pg-boss 10 has no Drizzle adapter, STYLE 2.9).
+ */
+export async function withJobTransaction<T>(database: Db, work: (tx: Db, jobs: JobConnection) => Promise<T>): Promise<T> {
+  const source = (database as { $client?: unknown }).$client
+  if (!(source instanceof pg.Pool)) throw new Error('withJobTransaction needs a database on a pg.Pool')
+  // Started before the transaction: its first start installs pg-boss's schema and queues.
+  await getBoss()
+  const client = await source.connect()
+  try {
+    await client.query('begin')
+    const tx = drizzle(client, { schema, casing: 'snake_case' }) as unknown as Db
+    const result = await work(tx, { executeSql: (text, values) => client.query(text, values) })
+    await client.query('commit')
+    return result
+  } catch (e) {
+    await client.query('rollback').catch(() => {})
+    throw e
+  } finally {
+    client.release()
+  }
+}

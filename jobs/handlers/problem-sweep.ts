@@ -1,0 +1,90 @@
+/**
+ * The 'problem-sweep' job: checks one problem version over seeds 1..total with the pure
+ * sweep of app/domain/authoring and stores the progress on the problem_sweeps row, which
+ * the version page reads.
+ *
+ * A re-run (a retry, or a worker that died mid-sweep) starts again from seed 1 and
+ * overwrites the counts: the sweep is deterministic per seed, so this is simple and
+ * correct, and only a finished ('done') sweep is skipped.
+ */
+import { eq } from 'drizzle-orm'
+import type { ProblemDefinition, SweepFailure } from '#app/domain/authoring/definition.ts'
+import { sweepVariants } from '#app/domain/authoring/sweep.ts'
+import type { Convention } from '#app/domain/thermo/index.ts'
+import type { Db } from '#app/server/db/client.server.ts'
+import { problemSweeps, problemVersions } from '#app/server/db/schema.server.ts'
+import { PermanentJobError, queuePayloads } from '#app/server/queue.server.ts'
+
+/** Failures stored per sweep; `failed` still counts all of them. */
+export const SWEEP_KEEP_FAILURES = 200
+export const SWEEP_CHUNK = 25
+
+export type ProblemSweepDeps = {
+  database: Db
+  sweep?: typeof sweepVariants
+  /** Variants checked between two progress writes. */
+  chunk?: number
+}
+
+export type ProblemSweepOutcome = 'done' | 'already-done' | 'missing'
+
+/** The row's error text: short, and without a stack, since authors read it. */
+function errorText(e: unknown): string {
+  const message = e instanceof Error ? e.message : String(e)
+  const line = message.split('\n')[0]!.trim() || 'unknown error'
+  return `The check stopped: ${line.length > 300 ? `${line.slice(0, 297)}…` : line}`
+}
+
+/** Throws PermanentJobError for a malformed payload (no retries); other errors are retried. */
+export async function handleProblemSweep(payload: unknown, deps: ProblemSweepDeps): Promise<ProblemSweepOutcome> {
+  const parsed = queuePayloads['problem-sweep'].safeParse(payload)
+  if (!parsed.success) {
+    throw new PermanentJobError(`problem-sweep payload is malformed: ${parsed.error.issues.map((i) => `${i.path.join('.') || '(payload)'}: ${i.message}`).join('; ')}`)
+  }
+  const { sweepId } = parsed.data
+  const { database } = deps
+  const sweep = deps.sweep ?? sweepVariants
+  const chunk = Math.max(1, Math.floor(deps.chunk ?? SWEEP_CHUNK))
+
+  const [row] = await database
+    .select({ status: problemSweeps.status, total: problemSweeps.total, definition: problemVersions.definition })
+    .from(problemSweeps)
+    .innerJoin(problemVersions, eq(problemVersions.id, problemSweeps.problemVersionId))
+    .where(eq(problemSweeps.id, sweepId))
+  // The version (and its sweeps with it) was deleted after the job was queued.
+  if (!row) return 'missing'
+  if (row.status === 'done') return 'already-done'
+
+  const where = eq(problemSweeps.id, sweepId)
+  try {
+    await database.update(problemSweeps).set({ status: 'running', startedAt: new Date(), finishedAt: null, error: null, checked: 0, failed: 0, failures: [] }).where(where)
+    const definition = row.definition as ProblemDefinition
+    // A bank problem belongs to no course, so 'course' has none to take; the check does
+    // not depend on the convention except for signs, and engineering is the common one.
+    const convention: Convention = definition.convention === 'chemistry' ? 'chemistry' : 'engineering'
+    let checked = 0
+    let failed = 0
+    const failures: SweepFailure[] = []
+    // Chunks give progress to show, and let a web server in the same process answer
+    // requests between them (the sweep itself is synchronous).
+    for (let first = 1; first <= row.total; first += chunk) {
+      const last = Math.min(row.total, first + chunk - 1)
+      const seeds = Array.from({ length: last - first + 1 }, (_, i) => first + i)
+      const room = SWEEP_KEEP_FAILURES - failures.length
+      const summary = sweep(definition, { seeds, convention, keep: room })
+      checked += summary.checked
+      failed += summary.failed
+      failures.push(...summary.failures.slice(0, room))
+      await database.update(problemSweeps).set({ checked, failed, failures }).where(where)
+    }
+    await database.update(problemSweeps).set({ status: 'done', finishedAt: new Date() }).where(where)
+    return 'done'
+  } catch (e) {
+    try {
+      await database.update(problemSweeps).set({ status: 'failed', error: errorText(e), finishedAt: new Date() }).where(where)
+    } catch (writeError) {
+      console.error(`problem-sweep ${sweepId}: could not record the failure:`, writeError instanceof Error ? writeError.message : writeError)
+    }
+    throw e
+  }
+}

@@ -1,0 +1,156 @@
+import { eq, sql } from 'drizzle-orm'
+import { afterAll, beforeAll, expect, test } from 'vitest'
+import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { problems, problemSweeps, problemVersions } from '#app/server/db/schema.server.ts'
+import { DEAD_LETTER_QUEUE, getBoss, PermanentJobError, stopBoss } from '#app/server/queue.server.ts'
+import { clampSweepTotal, getSweep, latestSweepForVersion, startSweep, type SweepView } from '#app/server/sweeps.server.ts'
+import { handleProblemSweep } from '#jobs/handlers/problem-sweep.ts'
+import { startWorker, type RunningWorker } from '#jobs/worker.ts'
+import { createUser } from '#tests/support/factories.ts'
+
+// Carnot engine on air, TH 500..900 K, TL 280..400 K: every draw has TH > TL, so every
+// variant solves (inputs as docs/examples/carnot-engine.json).
+const carnot: ProblemDefinition = {
+  format: 1,
+  title: 'Carnot check',
+  tags: { topics: [], difficulty: 'standard', level: 'first-year' },
+  convention: 'engineering',
+  prompt: 'A Carnot engine runs between @{TH} and @{TL}.',
+  givens: [
+    { name: 'TH', label: 'hot reservoir temperature', unit: 'K', rule: { kind: 'range', min: 500, max: 900, step: 50 } },
+    { name: 'TL', label: 'cold reservoir temperature', unit: 'K', rule: { kind: 'range', min: 280, max: 400, step: 10 } },
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'carnot-engine', inputs: { gas: 'air', Th: 'TH', Tc: 'TL', p1: '100 kPa', expansionRatio: '2' } },
+  finds: [
+    {
+      name: 'efficiency',
+      label: 'Thermal efficiency',
+      source: { kind: 'output', path: 'totals.efficiency' },
+      unit: '',
+      points: 1,
+      tolerance: { kind: 'relative', value: 0.01 },
+      pitfalls: [],
+    },
+  ],
+}
+
+// TL never exceeds TH in the ranges above, so this constraint can never be met.
+const impossible: ProblemDefinition = { ...carnot, title: 'Impossible check', constraints: [{ left: 'TL', op: '>', right: 'TH' }] }
+
+let worker: RunningWorker
+const workerErrors: string[] = []
+
+beforeAll(async () => {
+  worker = await startWorker({ log: () => {}, logError: (line) => workerErrors.push(line) })
+})
+
+afterAll(async () => {
+  await worker.stop()
+  await stopBoss()
+})
+
+async function makeVersion(definition: ProblemDefinition) {
+  const owner = await createUser(db())
+  const [problem] = await db()
+    .insert(problems)
+    .values({ ownerId: owner.id, title: definition.title, cycle: 'carnot-engine', difficulty: 'standard', level: 'first-year' })
+    .returning()
+  const [version] = await db()
+    .insert(problemVersions)
+    .values({ problemId: problem!.id, number: 1, definition, createdBy: owner.id })
+    .returning()
+  return { ownerId: owner.id, versionId: version!.id }
+}
+
+async function waitUntilFinished(sweepId: number, ms = 30_000): Promise<SweepView> {
+  const until = Date.now() + ms
+  for (;;) {
+    const view = await getSweep(db(), sweepId)
+    if (view && (view.status === 'done' || view.status === 'failed')) return view
+    if (Date.now() > until) throw new Error(`sweep ${sweepId} did not finish within ${ms / 1000} s: ${JSON.stringify(view)}`)
+    await new Promise((r) => setTimeout(r, 200))
+  }
+}
+
+async function sweepRow(sweepId: number) {
+  const [row] = await db().select().from(problemSweeps).where(eq(problemSweeps.id, sweepId))
+  return row!
+}
+
+test('a sweep started from the server is run by the worker: 60 variants checked, none failing', async () => {
+  const { ownerId, versionId } = await makeVersion(carnot)
+  const { sweepId } = await startSweep(db(), { versionId, requestedBy: ownerId, total: 60 })
+  expect((await getSweep(db(), sweepId))?.total).toBe(60)
+
+  const view = await waitUntilFinished(sweepId)
+  expect(view).toMatchObject({ id: sweepId, versionId, status: 'done', total: 60, checked: 60, failed: 0, failures: [], error: null })
+  expect(view.startedAt).not.toBeNull()
+  expect(Date.parse(view.finishedAt!)).toBeGreaterThanOrEqual(Date.parse(view.startedAt!))
+  expect((await latestSweepForVersion(db(), versionId))?.id).toBe(sweepId)
+})
+
+test('a problem whose constraint can never be met finishes with every variant failed, each with its seed', async () => {
+  const { ownerId, versionId } = await makeVersion(impossible)
+  const { sweepId } = await startSweep(db(), { versionId, requestedBy: ownerId, total: 60 })
+  const view = await waitUntilFinished(sweepId)
+  expect(view).toMatchObject({ status: 'done', checked: 60, failed: 60, error: null })
+  expect(view.failures).toHaveLength(60)
+  expect(view.failures.map((f) => f.seed).sort((a, b) => a - b)).toEqual(Array.from({ length: 60 }, (_, i) => i + 1))
+  for (const f of view.failures) expect(f.code).toBe('constraint-never-met')
+})
+
+test('the number of variants is kept between 10 and 5000, 500 when not given', async () => {
+  expect([clampSweepTotal(3), clampSweepTotal(1_000_000), clampSweepTotal(undefined), clampSweepTotal(Number.NaN), clampSweepTotal(120)]).toEqual([10, 5000, 500, 500, 120])
+  const { ownerId, versionId } = await makeVersion(carnot)
+  const { sweepId } = await startSweep(db(), { versionId, requestedBy: ownerId, total: 3 })
+  expect(await waitUntilFinished(sweepId)).toMatchObject({ status: 'done', total: 10, checked: 10 })
+})
+
+test('running the job twice on one sweep does not count twice', async () => {
+  const { ownerId, versionId } = await makeVersion(impossible)
+  // Inserted without a job, so only the calls below run it.
+  const [row] = await db().insert(problemSweeps).values({ problemVersionId: versionId, requestedBy: ownerId, total: 30 }).returning()
+  expect(await handleProblemSweep({ v: 1, sweepId: row!.id }, { database: db() })).toBe('done')
+  expect(await handleProblemSweep({ v: 1, sweepId: row!.id }, { database: db() })).toBe('already-done')
+  expect(await sweepRow(row!.id)).toMatchObject({ status: 'done', checked: 30, failed: 30 })
+})
+
+test('a sweep left running by a worker that died starts again from the first seed', async () => {
+  const { ownerId, versionId } = await makeVersion(impossible)
+  const [row] = await db()
+    .insert(problemSweeps)
+    .values({ problemVersionId: versionId, requestedBy: ownerId, total: 30, status: 'running', checked: 25, failed: 25, startedAt: new Date() })
+    .returning()
+  expect(await handleProblemSweep({ v: 1, sweepId: row!.id }, { database: db() })).toBe('done')
+  const after = await sweepRow(row!.id)
+  expect(after).toMatchObject({ status: 'done', checked: 30, failed: 30 })
+  expect(after.failures).toHaveLength(30)
+})
+
+test('a malformed payload is refused without touching any sweep', async () => {
+  const before = await db().execute(sql`select coalesce(json_agg(s order by id), '[]') as rows from problem_sweeps s`)
+  await expect(handleProblemSweep({ v: 1, sweepId: 'one' }, { database: db() })).rejects.toBeInstanceOf(PermanentJobError)
+  await expect(handleProblemSweep({ sweepId: 1 }, { database: db() })).rejects.toBeInstanceOf(PermanentJobError)
+  await expect(handleProblemSweep(null, { database: db() })).rejects.toBeInstanceOf(PermanentJobError)
+  const after = await db().execute(sql`select coalesce(json_agg(s order by id), '[]') as rows from problem_sweeps s`)
+  expect(after.rows).toEqual(before.rows)
+})
+
+test('the worker fails a malformed job at once, without retries, into the dead-letter queue', async () => {
+  const boss = await getBoss()
+  const deadBefore = await boss.getQueueSize(DEAD_LETTER_QUEUE)
+  // Sent around enqueue(), which would refuse it.
+  const jobId = await boss.send('problem-sweep', { v: 2, sweepId: 1 }, { singletonKey: 'malformed-test' })
+  expect(jobId).not.toBeNull()
+  const until = Date.now() + 30_000
+  let job = await boss.getJobById('problem-sweep', jobId!)
+  while (job?.state !== 'failed' && Date.now() < until) {
+    await new Promise((r) => setTimeout(r, 200))
+    job = await boss.getJobById('problem-sweep', jobId!)
+  }
+  expect(job).toMatchObject({ state: 'failed', retryCount: 0 })
+  expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed for good: problem-sweep payload is malformed`))
+  expect(await boss.getQueueSize(DEAD_LETTER_QUEUE)).toBe(deadBefore + 1)
+})
