@@ -1,5 +1,16 @@
 import { describe, expect, test } from 'vitest'
-import { canInvite, canReadOutbox, canSeeCourseAsStaff, primaryRole, type Actor, type CourseRole } from './permissions.ts'
+import {
+  canEditProblem,
+  canInvite,
+  canReadOutbox,
+  canSeeCourseAsStaff,
+  canSeeProblem,
+  canUseBank,
+  primaryRole,
+  type Actor,
+  type CourseRole,
+  type ProblemVisibility,
+} from './permissions.ts'
 
 function actor(roles: [number, CourseRole][], isAdmin = false): Actor {
   return { id: 1, isAdmin, roles: new Map(roles) }
@@ -35,5 +46,49 @@ describe('permissions', () => {
   test('primary role falls back to none', () => {
     expect(primaryRole(actor([]))).toBe('none')
     expect(primaryRole(actor([[3, 'student']]))).toBe('student')
+  })
+})
+
+describe('the problem bank', () => {
+  test.each([
+    ['an instructor of one course', actor([[1, 'student'], [2, 'instructor']]), true],
+    ['an admin without courses', actor([], true), true],
+    ['a TA only', actor([[1, 'ta']]), false],
+    ['a student only', actor([[1, 'student']]), false],
+    ['nobody in particular', actor([]), false],
+  ] as const)('canUseBank: %s → %s', (_, a, expected) => {
+    expect(canUseBank(a)).toBe(expected)
+  })
+
+  const owner = { id: 1, isAdmin: false, departmentId: 10 }
+  const colleague = { id: 2, isAdmin: false, departmentId: 10 }
+  const elsewhere = { id: 3, isAdmin: false, departmentId: 20 }
+  const homeless = { id: 4, isAdmin: false, departmentId: null }
+  const admin = { id: 5, isAdmin: true, departmentId: 20 }
+  const problem = (visibility: ProblemVisibility, departmentId: number | null = 10) => ({ ownerId: 1, visibility, departmentId })
+
+  test.each([
+    ['private', owner, true],
+    ['private', colleague, false],
+    ['private', admin, true],
+    ['department', colleague, true],
+    ['department', elsewhere, false],
+    ['department', homeless, false],
+    ['department', admin, true],
+    ['installation', elsewhere, true],
+    ['installation', homeless, true],
+  ] as const)('canSeeProblem: %s problem, viewer %#', (visibility, viewer, expected) => {
+    expect(canSeeProblem(viewer, problem(visibility))).toBe(expected)
+  })
+
+  test('a department problem whose owner had no department is seen by nobody else, even viewers without one', () => {
+    expect(canSeeProblem(homeless, problem('department', null))).toBe(false)
+    expect(canSeeProblem(owner, { ownerId: 4, visibility: 'department', departmentId: null })).toBe(false)
+  })
+
+  test('only the owner edits, not even an admin', () => {
+    expect(canEditProblem(owner, problem('installation'))).toBe(true)
+    expect(canEditProblem(colleague, problem('installation'))).toBe(false)
+    expect(canEditProblem(admin, problem('private'))).toBe(false)
   })
 })
