@@ -143,7 +143,7 @@ interface PreparedConstraint {
   readonly right: CompiledRestrictedExpression
 }
 
-type Prepared = { readonly ok: true; readonly givens: readonly PreparedGiven[]; readonly constraints: readonly PreparedConstraint[] } | { readonly ok: false; readonly error: VariantError }
+type Prepared = { readonly ok: true; readonly givens: readonly PreparedGiven[]; readonly constraints: readonly PreparedConstraint[]; readonly needsScope: boolean } | { readonly ok: false; readonly error: VariantError }
 
 // Compiling is most of the cost of a draw; a sweep draws the same definition hundreds of times.
 const preparedCache = new WeakMap<ProblemDefinition, Prepared>()
@@ -198,12 +198,13 @@ function prepareUncached(def: ProblemDefinition): Prepared {
     }
     constraints.push({ index, constraint, left: sides[0]!, right: sides[1]! })
   }
-  return { ok: true, givens, constraints }
+  // Quantities for the reader cost a mathjs call each: build them only when something reads them.
+  return { ok: true, givens, constraints, needsScope: constraints.length > 0 || givens.some((g) => g.kind === 'expression') }
 }
 
 // ---- Drawing ---------------------------------------------------------------------------
 
-function drawOnce(givens: readonly PreparedGiven[], rand: () => number): { ok: true; givens: DrawnGiven[]; scope: Record<string, ScopeValue> } | { ok: false; error: VariantError } {
+function drawOnce(givens: readonly PreparedGiven[], needsScope: boolean, rand: () => number): { ok: true; givens: DrawnGiven[]; scope: Record<string, ScopeValue> } | { ok: false; error: VariantError } {
   const drawn: DrawnGiven[] = []
   const scope: Record<string, ScopeValue> = {}
   for (const p of givens) {
@@ -235,7 +236,7 @@ function drawOnce(givens: readonly PreparedGiven[], rand: () => number): { ok: t
       text = givenText(value, g.unit)
     }
     drawn.push({ name: g.name, label: g.label, value, unit: g.unit, text })
-    if (Number.isFinite(value)) {
+    if (needsScope && Number.isFinite(value)) {
       const sv = toScopeValue(value, g.unit)
       if (sv === null) return givenError(g, `the unit "${g.unit}" cannot be read`)
       scope[g.name] = sv
@@ -307,7 +308,7 @@ export function drawGivens(def: ProblemDefinition, seed: number): DrawGivensResu
     if (!p.ok) return p
     const unmet = new Array<number>(p.constraints.length).fill(0)
     for (let attempt = 0; attempt < MAX_DRAW_ATTEMPTS; attempt++) {
-      const d = drawOnce(p.givens, mulberry32(attemptSeed(seed, attempt)))
+      const d = drawOnce(p.givens, p.needsScope, mulberry32(attemptSeed(seed, attempt)))
       if (!d.ok) return d
       let allMet = true
       for (const c of p.constraints) {
