@@ -2,11 +2,14 @@
  * The demo: an invented department of our own. No real institution, person or course.
  * Idempotent: running it again finds what is there and adds only what is missing.
  */
-import { and, eq } from 'drizzle-orm'
+import { and, desc, eq } from 'drizzle-orm'
+import { cycleOf } from '#app/domain/authoring/definition.ts'
 import type { Db } from '#app/server/db/client.server.ts'
-import { courses, departments, terms, users } from '#app/server/db/schema.server.ts'
+import { courses, departments, problemVersions, problems, terms, users } from '#app/server/db/schema.server.ts'
 import { hashPassword } from '#app/server/passwords.server.ts'
 import { addMember } from '#tests/support/factories.ts'
+import type { DemoOwner } from './problems.ts'
+import { DEMO_PROBLEMS } from './problems.ts'
 
 export const DEMO_DOMAIN = 'kestrel-hollow.example'
 export const DEMO_PASSWORD = 'cycle-demo-2026'
@@ -80,8 +83,10 @@ export async function seedDemo(db: Db) {
   await upsertPerson(db, demoPeople.admin, passwordHash, dept!.id)
   const [wrenfield, okafor] = demoPeople.instructors
   const [halloran, strand] = demoPeople.tas
-  await addMember(db, await upsertPerson(db, wrenfield!, passwordHash, dept!.id), engineering, 'instructor')
-  await addMember(db, await upsertPerson(db, okafor!, passwordHash, dept!.id), chemistry, 'instructor')
+  const wrenfieldId = await upsertPerson(db, wrenfield!, passwordHash, dept!.id)
+  const okaforId = await upsertPerson(db, okafor!, passwordHash, dept!.id)
+  await addMember(db, wrenfieldId, engineering, 'instructor')
+  await addMember(db, okaforId, chemistry, 'instructor')
   // One person, two roles: Halloran assists in ENTH 210 and CHEM 342.
   const halloranId = await upsertPerson(db, halloran!, passwordHash, dept!.id)
   await addMember(db, halloranId, engineering, 'ta')
@@ -95,7 +100,81 @@ export async function seedDemo(db: Db) {
     if (i < 28) await addMember(db, id, engineering, 'student', i % 2 === 0 ? 'A' : 'B')
     if (i >= 24) await addMember(db, id, chemistry, 'student', 'C')
   }
-  return { departmentId: dept!.id, courseIds, students: students.length }
+  const problemCount = await seedDemoProblems(db, { tobias: wrenfieldId, amara: okaforId })
+  return { departmentId: dept!.id, courseIds, students: students.length, problems: problemCount }
+}
+
+// Fixed dates in the demo term, so a re-seeded database looks the same.
+const VERSION_DATES = ['2026-09-14T09:00:00Z', '2026-10-19T09:00:00Z', '2026-11-16T09:00:00Z']
+const versionDate = (i: number) => new Date(VERSION_DATES[Math.min(i, VERSION_DATES.length - 1)]!)
+/** Earlier versions were frozen when an assignment first used them (week 6 of the term). */
+const FROZEN_AT = new Date('2026-10-12T08:00:00Z')
+
+/**
+ * The demo bank (seed/problems.ts), inserted directly: problems are found again by owner and
+ * title, and one already there is left as it is (its versions too), so re-seeding never
+ * duplicates and never overwrites an edit made in the demo. Returns how many demo problems exist.
+ */
+export async function seedDemoProblems(db: Db, owners: Record<DemoOwner, number>): Promise<number> {
+  const idByTitle = new Map<string, number>()
+  for (const demo of DEMO_PROBLEMS) {
+    const ownerId = owners[demo.owner]
+    const [owner] = await db.select({ departmentId: users.departmentId }).from(users).where(eq(users.id, ownerId))
+    const def = demo.definition
+    const [found] = await db
+      .select({ id: problems.id })
+      .from(problems)
+      .where(and(eq(problems.ownerId, ownerId), eq(problems.title, def.title)))
+    if (found) {
+      idByTitle.set(def.title, found.id)
+      continue
+    }
+    const origin = demo.copiedFrom === undefined ? undefined : idByTitle.get(demo.copiedFrom)
+    const id = await db.transaction(async (tx) => {
+      let originVersionId: number | null = null
+      if (origin !== undefined) {
+        const [v] = await tx
+          .select({ id: problemVersions.id })
+          .from(problemVersions)
+          .where(eq(problemVersions.problemId, origin))
+          .orderBy(desc(problemVersions.number))
+          .limit(1)
+        originVersionId = v?.id ?? null
+      }
+      const all = [...(demo.earlierVersions ?? []), def]
+      const createdAt = versionDate(0)
+      const [row] = await tx
+        .insert(problems)
+        .values({
+          ownerId,
+          departmentId: owner?.departmentId ?? null,
+          visibility: demo.visibility,
+          originProblemId: origin ?? null,
+          originVersionId,
+          title: def.title,
+          cycle: cycleOf(def.physics),
+          topics: [...def.tags.topics],
+          difficulty: def.tags.difficulty,
+          level: def.tags.level,
+          createdAt,
+          updatedAt: versionDate(all.length - 1),
+        })
+        .returning({ id: problems.id })
+      await tx.insert(problemVersions).values(
+        all.map((d, i) => ({
+          problemId: row!.id,
+          number: i + 1,
+          definition: d,
+          createdBy: ownerId,
+          createdAt: versionDate(i),
+          frozenAt: i < all.length - 1 ? FROZEN_AT : null,
+        })),
+      )
+      return row!.id
+    })
+    idByTitle.set(def.title, id)
+  }
+  return idByTitle.size
 }
 
 /** What `npm start` prints at the end of its output. */

@@ -9,7 +9,8 @@
  * diatomic gases, isothermal steps). Most problems use the 'course' convention, so the same
  * problem reads right in either course.
  */
-import type { Find, Given, ProblemDefinition, Tolerance } from '#app/domain/authoring/definition.ts'
+import type { Find, Given, ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import type { Tolerance } from '#app/domain/grading/index.ts'
 
 export type DemoOwner = 'tobias' | 'amara'
 export type DemoVisibility = 'private' | 'department' | 'installation'
@@ -138,7 +139,7 @@ const ottoV1: ProblemDefinition = {
   tags: { topics: ['otto', 'air standard', 'isentropic'], difficulty: 'standard', level: 'first-year' },
   convention: 'course',
   prompt: [
-    'An air-standard Otto cycle has a compression ratio of @{r}. At the start of compression the air is at @{p1} and @{T1}; @{qin} of heat is added per kilogram at constant volume.',
+    'An air-standard Otto cycle has a compression ratio of @{r}. At the start of compression the air is at @{p1} and @{T1}; @{qin} of heat is added at constant volume.',
     '',
     'Use air with constant specific heats ($c_p = 1.005$ kJ/(kg K), $c_v = 0.718$ kJ/(kg K)). Find the temperature at the end of compression, the net work per kilogram (in your course\'s sign convention) and the thermal efficiency.',
   ].join('\n'),
@@ -163,7 +164,7 @@ const ottoV2: ProblemDefinition = {
   ...ottoV1,
   tags: { ...ottoV1.tags, topics: [...ottoV1.tags.topics, 'mean effective pressure'] },
   prompt: [
-    'An air-standard Otto cycle has a compression ratio of @{r}. At the start of compression the air is at @{p1} and @{T1}; @{qin} of heat is added per kilogram at constant volume.',
+    'An air-standard Otto cycle has a compression ratio of @{r}. At the start of compression the air is at @{p1} and @{T1}; @{qin} of heat is added at constant volume.',
     '',
     'Use air with constant specific heats ($c_p = 1.005$ kJ/(kg K), $c_v = 0.718$ kJ/(kg K)). Find',
     '',
