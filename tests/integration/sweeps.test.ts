@@ -3,7 +3,7 @@ import { afterAll, beforeAll, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { problems, problemSweeps, problemVersions } from '#app/server/db/schema.server.ts'
-import { DEAD_LETTER_QUEUE, getBoss, PermanentJobError, stopBoss } from '#app/server/queue.server.ts'
+import { DEAD_LETTER_QUEUE, enqueue, getBoss, PermanentJobError, stopBoss, withJobTransaction } from '#app/server/queue.server.ts'
 import { clampSweepTotal, getSweep, latestSweepForVersion, startSweep, type SweepView } from '#app/server/sweeps.server.ts'
 import { handleProblemSweep } from '#jobs/handlers/problem-sweep.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
@@ -113,8 +113,10 @@ test('running the job twice on one sweep does not count twice', async () => {
   // Inserted without a job, so only the calls below run it.
   const [row] = await db().insert(problemSweeps).values({ problemVersionId: versionId, requestedBy: ownerId, total: 30 }).returning()
   expect(await handleProblemSweep({ v: 1, sweepId: row!.id }, { database: db() })).toBe('done')
+  const first = await sweepRow(row!.id)
   expect(await handleProblemSweep({ v: 1, sweepId: row!.id }, { database: db() })).toBe('already-done')
-  expect(await sweepRow(row!.id)).toMatchObject({ status: 'done', checked: 30, failed: 30 })
+  expect(await sweepRow(row!.id)).toEqual(first)
+  expect(first).toMatchObject({ status: 'done', checked: 30, failed: 30 })
 })
 
 test('a sweep left running by a worker that died starts again from the first seed', async () => {
@@ -153,4 +155,25 @@ test('the worker fails a malformed job at once, without retries, into the dead-l
   expect(job).toMatchObject({ state: 'failed', retryCount: 0 })
   expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed for good: problem-sweep payload is malformed`))
   expect(await boss.getQueueSize(DEAD_LETTER_QUEUE)).toBe(deadBefore + 1)
+})
+
+test('a job enqueued inside a transaction that rolls back is never sent', async () => {
+  const jobsFor = async (key: string) => (await db().execute(sql`select count(*)::int as n from pgboss.job where singleton_key = ${key}`)).rows[0]!.n
+  const { ownerId, versionId } = await makeVersion(carnot)
+  await expect(
+    withJobTransaction(db(), async (tx, jobs) => {
+      const [row] = await tx.insert(problemSweeps).values({ problemVersionId: versionId, requestedBy: ownerId, total: 10 }).returning()
+      await enqueue('problem-sweep', { v: 1, sweepId: row!.id }, { connection: jobs })
+      expect(await jobsFor(`sweep-${row!.id}`)).toBe(0)
+      throw new Error('changed my mind')
+    }),
+  ).rejects.toThrow('changed my mind')
+  expect(await latestSweepForVersion(db(), versionId)).toBeNull()
+  const { sweepId } = await startSweep(db(), { versionId, requestedBy: ownerId, total: 10 })
+  expect(await jobsFor(`sweep-${sweepId}`)).toBe(1)
+  await waitUntilFinished(sweepId)
+})
+
+test('enqueue refuses a payload that does not match its queue', async () => {
+  await expect(enqueue('problem-sweep', { v: 1, sweepId: 0 })).rejects.toThrow('Job payload for problem-sweep is not valid')
 })
