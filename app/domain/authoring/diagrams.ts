@@ -288,8 +288,7 @@ function steamDome(): { pv: Pair[]; ts: Pair[] } {
     vapour.push({ pv: [g.v, p / 1000], ts: [g.s / 1000, T] })
   }
   // At the critical point both branches meet: keep that point once.
-  const top = vapour.pop()
-  if (top && liquid.length > 0) liquid[liquid.length - 1] = top
+  if (vapour.length > 0 && liquid.length > 0 && vapour[vapour.length - 1]!.ts[1] === Tc) liquid[liquid.length - 1] = vapour.pop()!
   const outline = [...liquid, ...vapour.reverse()]
   return { pv: outline.map((o) => o.pv), ts: outline.map((o) => o.ts) }
 }
