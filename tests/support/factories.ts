@@ -76,3 +76,15 @@ export async function findUserIdByEmail(db: Db, email: string) {
   const [row] = await db.select({ id: users.id }).from(users).where(eq(users.email, email.toLowerCase()))
   return row?.id ?? null
 }
+
+/**
+ * Someone who may use the problem bank: an instructor of a fresh course in their department
+ * (or an admin). Returns the user and the BankViewer the bank functions take.
+ */
+export async function createBankUser(db: Db, overrides: Partial<{ name: string; departmentId: number | null; isAdmin: boolean }> = {}) {
+  const departmentId = overrides.departmentId === undefined ? (await createDepartment(db)).id : overrides.departmentId
+  const user = await createUser(db, { name: overrides.name ?? 'Bank Instructor', departmentId, isAdmin: overrides.isAdmin ?? false, password: null })
+  const course = await createCourse(db, departmentId === null ? {} : { departmentId })
+  await addMember(db, user.id, course.id, 'instructor')
+  return { user, viewer: { id: user.id, isAdmin: user.isAdmin, departmentId } }
+}
