@@ -1,6 +1,8 @@
 import '@fontsource/lora/500.css'
 import '@fontsource/lora/600.css'
 import './app.css'
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query'
+import { useState } from 'react'
 import { Form, Links, Meta, NavLink, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from 'react-router'
 import type { Route } from './+types/root'
 import { GeneralErrorBoundary } from './components/error-boundary.tsx'
@@ -97,10 +99,15 @@ function Shell({ children }: { children: React.ReactNode }) {
 }
 
 export default function App() {
+  // One client per browser session (and per server render), so cached queries never leak
+  // between people on the server.
+  const [queryClient] = useState(() => new QueryClient())
   return (
-    <Shell>
-      <Outlet />
-    </Shell>
+    <QueryClientProvider client={queryClient}>
+      <Shell>
+        <Outlet />
+      </Shell>
+    </QueryClientProvider>
   )
 }
 

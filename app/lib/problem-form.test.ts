@@ -2,6 +2,7 @@ import { describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import {
   definitionFromForm,
+  describeField,
   editorStateFromDefinition,
   editorStateFromForm,
   fieldPathForIssue,
@@ -297,4 +298,14 @@ describe('issues and fields', () => {
     const kept = keepTemplateInputs({ title: 't', 'physics.inputs.T1': 'T1', 'physics.inputs.heatIn': 'q' }, ['T1', 'p1'])
     expect(kept).toEqual({ title: 't', 'physics.inputs.T1': 'T1' })
   })
+})
+
+test.each([
+  ['givens.1.rule.step', 'Given 2, step'],
+  ['finds.0.tolerance', 'Find 1, tolerance kind'],
+  ['physics.inputs.T1', 'Template input T1'],
+  ['physics.cycle.steps.0', 'Cycle description (JSON)'],
+  ['title', 'Title'],
+])('the summary names %s as “%s”', (path, words) => {
+  expect(describeField(path)).toBe(words)
 })

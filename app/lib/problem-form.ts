@@ -29,14 +29,6 @@ export interface EditorState {
 /** Option value of the physics select that stands for a general state-and-process cycle. */
 export const GENERAL_CYCLE = 'general-cycle'
 
-export const VISIBILITIES = ['private', 'department', 'installation'] as const
-export type Visibility = (typeof VISIBILITIES)[number]
-export const visibilityText: Record<Visibility, string> = {
-  private: 'Only me',
-  department: 'Instructors in my department',
-  installation: 'Every instructor on this Cyclewright',
-}
-
 export const RULE_KINDS = ['range', 'choice', 'expression'] as const
 export const CONSTRAINT_OPS = ['<', '<=', '>', '>=', '!='] as const
 
@@ -483,4 +475,58 @@ export function fieldPathForIssue(path: string): string {
 /** The id of the element a field path is rendered as (links in the error summary go there). */
 export function fieldId(path: string): string {
   return `field-${path.replace(/[^A-Za-z0-9_-]/g, '-')}`
+}
+
+const TABLE_WORD: Record<RowTable, string> = { givens: 'Given', constraints: 'Constraint', finds: 'Find' }
+const ROW_FIELD_WORDS: Record<string, string> = {
+  name: 'name',
+  label: 'label',
+  unit: 'unit',
+  'rule.kind': 'how it is drawn',
+  'rule.min': 'lowest value',
+  'rule.max': 'highest value',
+  'rule.step': 'step',
+  'rule.values': 'values',
+  'rule.expression': 'expression',
+  'display.decimals': 'decimals shown',
+  'display.sigFigs': 'significant figures shown',
+  left: 'left side',
+  op: 'comparison',
+  right: 'right side',
+  message: 'message',
+  'source.kind': 'where the answer comes from',
+  'source.path': 'output path',
+  'source.expression': 'expression',
+  points: 'points',
+  'tolerance.kind': 'tolerance kind',
+  'tolerance.value': 'tolerance',
+  'tolerance.unit': 'tolerance unit',
+  'sigFigs.min': 'fewest significant figures',
+  'sigFigs.max': 'most significant figures',
+  pitfalls: 'pitfalls',
+  isDifference: 'temperature difference',
+  allowBareNumber: 'numbers without a unit',
+}
+const FIELD_WORDS: Record<string, string> = {
+  title: 'Title',
+  'tags.topics': 'Topics',
+  'tags.difficulty': 'Difficulty',
+  'tags.level': 'Level',
+  convention: 'Sign convention',
+  visibility: 'Who can use it',
+  prompt: 'Prompt',
+  givens: 'Givens',
+  constraints: 'Constraints',
+  finds: 'Finds',
+  'physics.template': 'Cycle',
+  'physics.cycle': 'Cycle description (JSON)',
+}
+
+/** Words for the field an issue is about, for the error summary ("Given 2, step"). */
+export function describeField(path: string): string {
+  const field = fieldPathForIssue(path)
+  const m = ROW_KEY.exec(field)
+  if (m) return `${TABLE_WORD[m[1] as RowTable]} ${Number(m[2]) + 1}, ${ROW_FIELD_WORDS[m[3]!] ?? m[3]}`
+  if (field.startsWith('physics.inputs.')) return `Template input ${field.slice('physics.inputs.'.length)}`
+  return FIELD_WORDS[field] ?? field
 }
