@@ -110,7 +110,9 @@ function solverMessage(e: { message: string }): string {
 
 function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solution: FormattedSolution | FormattedRankine): { ok: true; key: KeyEntry[] } | { ok: false; error: VariantError } {
   const compiled = compileFinds(def)
-  const scope: Record<string, ScopeValue> = givenScope(givens)
+  // Quantities for the reader cost a mathjs call each: only expression finds need them.
+  const needsScope = compiled.some((c) => c.ok && c.expression !== null)
+  const scope: Record<string, ScopeValue> = needsScope ? givenScope(givens) : {}
   const key: KeyEntry[] = []
   for (const [i, f] of def.finds.entries()) {
     const c = compiled[i]!
@@ -137,6 +139,7 @@ function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solut
     }
     if (!Number.isFinite(value)) return findError(f, 'find-undefined', `the key is not a finite number${path ? ` (output "${path}")` : ''}`)
     key.push({ name: f.name, label: f.label, value, unit: f.unit, points: f.points, path })
+    if (!needsScope) continue
     const sv = toScopeValue(value, f.unit, f.isDifference === true)
     if (sv === null) return findError(f, 'invalid-definition', `the unit "${f.unit}" cannot be read`)
     scope[f.name] = sv
