@@ -68,6 +68,7 @@ test.each<[string, string, Edit, RegExp]>([
   ['an output in a unit of another dimension', 'finds.1.unit', (d) => findAt(d, 1, { unit: 'K' }), /cannot be stated in "K"/],
   ['a relative tolerance on a key of zero', 'finds.2.tolerance', (d) => findAt(d, 2, { source: { kind: 'expression', expression: 'wnet - wnet' } }), /use an absolute tolerance/],
   ['a relative tolerance on a °C value', 'finds.3.tolerance', (d) => ({ ...d, finds: [...d.finds, { name: 'T1out', label: 'T1', source: { kind: 'output', path: 'states.1.T' }, unit: 'degC', points: 1, tolerance: rel, pitfalls: [] }] }), /absolute scale/],
+  ['an expression given with no real value in the trial', 'givens.3.rule.expression', (d) => givenAt(d, 3, { rule: { kind: 'expression', expression: 'T1 + sqrt(200 K^2 - T1^2) / 1' } }), /no real value/],
   ['a trial variant that does not solve', 'physics', (d) => inputs(d, { heatIn: '-5000 kJ/kg' }), /does not solve/],
   ['a constraint never met in the trial', 'constraints.0', (d) => ({ ...d, constraints: [{ left: 'T1', op: '>', right: '400 K', message: 'T1 must exceed 400 K' }] }), /T1 must exceed 400 K/],
 ])('%s is reported at %s', (_what, path, edit, message) => {

@@ -185,7 +185,8 @@ function trial(def: ProblemDefinition, add: (path: string, message: string) => v
   if (!drawn.ok) {
     const e = drawn.error
     const gi = def.givens.findIndex((g) => g.name === e.property)
-    const path = gi >= 0 ? `givens.${gi}` : e.property?.startsWith('constraints.') ? e.property : 'physics'
+    const givenPath = gi >= 0 ? (def.givens[gi]!.rule.kind === 'expression' ? `givens.${gi}.rule.expression` : `givens.${gi}`) : null
+    const path = givenPath ?? (e.property?.startsWith('constraints.') ? e.property : 'physics')
     add(path, e.message)
     return
   }
