@@ -1,12 +1,14 @@
 /**
  * What `npm start` does after the dependencies are in: PostgreSQL (the private cluster
  * unless DATABASE_URL is set), migrations, the demo seed, the production build, then the
- * web server on 127.0.0.1:3000 (PORT overrides), with the demo accounts printed last.
+ * web server on 127.0.0.1:3000 (PORT overrides) with one job worker in the same process,
+ * and the demo accounts printed last. More workers: `npm run worker`, anywhere.
  */
 import './mode-production.ts'
 import { spawnSync } from 'node:child_process'
 import { db } from '#app/server/db/client.server.ts'
 import { migrateDatabase } from '#app/server/db/migrate.server.ts'
+import { startWorker } from '#jobs/worker.ts'
 import { demoAccountsText, seedDemo } from '#seed/demo.ts'
 import { prepareLocalEnv } from './local-env.ts'
 import { ClusterError, projectRoot } from './postgres.ts'
@@ -30,9 +32,12 @@ try {
   step('Web server')
   const port = Number(process.env.PORT ?? 3000)
   const server = await startServer({ port, mode: 'production' })
+  step('Job worker')
+  const worker = await startWorker()
   console.log(demoAccountsText(server.url))
   const stop = async () => {
     await server.close()
+    await worker.stop()
     process.exit(0)
   }
   process.on('SIGINT', stop)

@@ -1,7 +1,9 @@
 /**
  * End-to-end set-up: the production build served by our own server script on a random
  * loopback port, against a fresh database that is migrated and seeded with the demo,
- * with its own local mail catcher. Torn down (server stopped, database dropped) after.
+ * with its own local mail catcher, and one job worker (`jobs/worker.ts`, as `npm run
+ * worker` runs it) on the same database. Torn down (server and worker stopped, database
+ * dropped) after.
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
 import fs from 'node:fs'
@@ -34,6 +36,23 @@ async function waitFor(url: string, child: ChildProcess, output: () => string, m
   throw new Error(`The app did not answer ${url} within ${ms / 1000} s:\n${output()}`)
 }
 
+async function waitForLine(line: RegExp, child: ChildProcess, output: () => string, ms = 60_000) {
+  const until = Date.now() + ms
+  while (!line.test(output())) {
+    if (child.exitCode !== null) throw new Error(`The job worker exited during start-up:\n${output()}`)
+    if (Date.now() > until) throw new Error(`The job worker did not start within ${ms / 1000} s:\n${output()}`)
+    await new Promise((r) => setTimeout(r, 100))
+  }
+}
+
+/** Waits for a child to exit after SIGTERM (a worker finishes its current job), then kills it. */
+async function exited(child: ChildProcess, ms: number) {
+  if (child.exitCode === null && child.signalCode === null) {
+    await Promise.race([new Promise((r) => child.once('exit', r)), new Promise((r) => setTimeout(r, ms))])
+  }
+  if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL')
+}
+
 export default async function setup(project: TestProject) {
   if (!fs.existsSync(path.join(projectRoot, 'build', 'server', 'index.js'))) {
     const r = spawnSync('npx', ['react-router', 'build'], { cwd: projectRoot, stdio: 'inherit', env: { ...process.env, NODE_ENV: 'production' } })
@@ -52,31 +71,42 @@ export default async function setup(project: TestProject) {
 
   const port = await freePort()
   let output = ''
+  const childEnv = {
+    ...process.env,
+    NODE_ENV: 'production',
+    DATABASE_URL: url,
+    SESSION_SECRET: 'e2e-secret-0123456789abcdef',
+    PORT: String(port),
+    FAKE_SMTP_PORT: String(await freePort()),
+    SMTP_URL: '',
+    APP_URL: `http://127.0.0.1:${port}`,
+  }
   const child = spawn(path.join(projectRoot, 'node_modules', '.bin', 'tsx'), ['scripts/serve.ts'], {
     cwd: projectRoot,
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      DATABASE_URL: url,
-      SESSION_SECRET: 'e2e-secret-0123456789abcdef',
-      PORT: String(port),
-      FAKE_SMTP_PORT: String(await freePort()),
-      SMTP_URL: '',
-      APP_URL: `http://127.0.0.1:${port}`,
-    },
+    env: childEnv,
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   child.stdout!.on('data', (d) => (output += d))
   child.stderr!.on('data', (d) => (output += d))
   const baseURL = `http://127.0.0.1:${port}`
   await waitFor(`${baseURL}/healthz`, child, () => output)
+
+  let workerOutput = ''
+  const worker = spawn(path.join(projectRoot, 'node_modules', '.bin', 'tsx'), ['jobs/worker.ts'], {
+    cwd: projectRoot,
+    env: childEnv,
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  worker.stdout!.on('data', (d) => (workerOutput += d))
+  worker.stderr!.on('data', (d) => (workerOutput += d))
+  await waitForLine(/Job worker started/, worker, () => workerOutput)
+
   project.provide('baseURL', baseURL)
   project.provide('e2eDatabaseUrl', url)
   return async () => {
-    child.kill('SIGTERM')
-    await new Promise((r) => setTimeout(r, 500))
-    if (child.exitCode === null) child.kill('SIGKILL')
-    if (/Error|error/.test(output) && process.env.E2E_SHOW_SERVER_LOG === '1') console.log(output)
+    for (const c of [worker, child]) c.kill('SIGTERM')
+    await Promise.all([exited(worker, 12_000), exited(child, 500)])
+    if (/Error|error/.test(output + workerOutput) && process.env.E2E_SHOW_SERVER_LOG === '1') console.log(output, workerOutput)
     await dropDatabase(server, name)
   }
 }
