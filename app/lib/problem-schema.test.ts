@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs'
 import { describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
@@ -179,4 +180,12 @@ describe('readBankDocument', () => {
     if (r.ok) return
     expect(r.errors[0]).toEqual({ problem: 'The document', field, message: expect.stringMatching(message) })
   })
+})
+
+test('the example in docs/bank-format.md is a valid bank document', () => {
+  const md = readFileSync(new URL('../../docs/bank-format.md', import.meta.url), 'utf8')
+  const example = md.split('## Example')[1]?.split('```json')[1]?.split('```')[0]
+  expect(example).toBeTruthy()
+  const r = readBankDocument(JSON.parse(example!))
+  expect(r.ok ? [] : r.errors).toEqual([])
 })
