@@ -1,0 +1,565 @@
+/**
+ * The worked solution of one variant: the givens as drawn, the sign convention, each state and
+ * step with its relations and the variant's numbers substituted, the cycle totals, and the key.
+ * Every number comes from the variant's solution (or its spec, for a step's n, η or ε), so
+ * the derivation and the key cannot disagree. Numbers are shown to 4 significant figures in
+ * the units a student writes (kPa or MPa, K, kJ/kg, kJ/(kg·K), m³/kg).
+ *
+ * Symbols follow the convention: chemistry writes q and w (w done ON the system, ΔU = q + w),
+ * engineering writes Q and W (W done BY the system, ΔU = Q − W). Pure.
+ */
+import type { Convention, FormattedSolution, FormattedState, FormattedStep } from '#app/domain/thermo/index.ts'
+import { CONVENTIONS, parseCycleSpec, parseTemplateInputs, templates } from '#app/domain/thermo/index.ts'
+import type { CycleSpec, StepSpec } from '#app/domain/thermo/cycle.ts'
+import type { Gas } from '#app/domain/thermo/substances/gas.ts'
+import { saturationAtP } from '#app/domain/thermo/steam/properties.ts'
+import { parseRankineInputs } from '#app/domain/thermo/steam/rankine-template.ts'
+import type { FormattedRankine, FormattedRankineState } from '#app/domain/thermo/steam/rankine-template.ts'
+import type { Find, ProblemDefinition, Variant } from './definition.ts'
+import { formatGivenValue, formatNumber, texEscape, unitToTex, withUnit } from './placeholders.ts'
+import { escapeHtml, renderMath } from './prompt.ts'
+
+export interface WorkedLine {
+  readonly tex: string
+  readonly note?: string
+}
+
+export interface WorkedSection {
+  readonly title: string
+  readonly lines: WorkedLine[]
+}
+
+export interface WorkedSolution {
+  /** The convention in words, with its first-law equation. */
+  readonly convention: string
+  readonly sections: WorkedSection[]
+  /** Shown with steam solutions: teaching values, not design data. */
+  readonly caution?: string
+}
+
+/** Significant figures of every number in a worked solution. */
+export const WORKED_SIG_FIGS = 4
+
+// ---- Numbers and units --------------------------------------------------------------
+
+/** Rounding residue of an exact zero (Δs of an isentropic step is ~1e-13 J/(kg·K)). */
+function snap(x: number, scale: number): number {
+  return Math.abs(x) < 1e-9 * Math.max(1, Math.abs(scale)) ? 0 : x
+}
+
+/** A number to 4 significant figures, as TeX. */
+export function n4(x: number): string {
+  return x === 0 ? '0' : formatNumber(x, { sigFigs: WORKED_SIG_FIGS }, true)
+}
+
+/** A number to 4 significant figures with a unit, as TeX. */
+export function q4(x: number, unit: string): string {
+  return withUnit(n4(x), unit, true)
+}
+
+/** Wrapped in parentheses when negative, for substitution into a formula. */
+function par(tex: string): string {
+  return tex.startsWith('-') ? `(${tex})` : tex
+}
+
+interface Units {
+  /** per unit amount: kJ/kg or kJ/mol */
+  readonly energy: string
+  readonly entropy: string
+  readonly volume: string
+  /** SI value → shown value */
+  readonly e: (x: number) => number
+  readonly s: (x: number) => number
+}
+
+function unitsFor(basis: 'mass' | 'mole'): Units {
+  return basis === 'mass'
+    ? { energy: 'kJ/kg', entropy: 'kJ/(kg K)', volume: 'm^3/kg', e: (x) => x / 1000, s: (x) => x / 1000 }
+    : { energy: 'kJ/mol', entropy: 'J/(mol K)', volume: 'm^3/mol', e: (x) => x / 1000, s: (x) => x }
+}
+
+/** Pressure as a student writes it: kPa below 1 MPa, MPa from there. */
+export function pressureTex(pa: number): string {
+  return Math.abs(pa) >= 1e6 ? q4(pa / 1e6, 'MPa') : q4(pa / 1000, 'kPa')
+}
+
+/** A given or find name as a TeX symbol: T1 → T_{1}, p_high → p_{\mathrm{high}}, eta → \mathrm{eta}. */
+export function texName(name: string): string {
+  const digits = /^([A-Za-z])(\d+)$/.exec(name)
+  if (digits) return `${digits[1]}_{${digits[2]}}`
+  const sub = /^([A-Za-z])_([A-Za-z0-9]+)$/.exec(name)
+  if (sub) return `${sub[1]}_{\\mathrm{${sub[2]}}}`
+  if (/^[A-Za-z]$/.test(name)) return name
+  return `\\mathrm{${texEscape(name)}}`
+}
+
+/** A state name as a subscript: "1" → 1, "A" → A, anything else in \text. */
+function sub(name: string): string {
+  return /^[A-Za-z0-9]{1,3}$/.test(name) ? name : `\\text{${texEscape(name)}}`
+}
+
+// ---- Convention ---------------------------------------------------------------------
+
+interface Symbols {
+  readonly convention: Convention
+  /** heat symbol with subscript */
+  readonly Q: (s: string) => string
+  /** work symbol (of the convention) with subscript */
+  readonly W: (s: string) => string
+  /** the convention's work from the work done BY the gas */
+  readonly fromBy: (wBy: number) => number
+}
+
+function symbolsFor(convention: Convention): Symbols {
+  return convention === 'chemistry'
+    ? { convention, Q: (s) => (s ? `q_{${s}}` : 'q'), W: (s) => (s ? `w_{${s}}` : 'w'), fromBy: (w) => -w }
+    : { convention, Q: (s) => (s ? `Q_{${s}}` : 'Q'), W: (s) => (s ? `W_{${s}}` : 'W'), fromBy: (w) => w }
+}
+
+function conventionSection(convention: Convention, flow: boolean): { text: string; section: WorkedSection } {
+  const c = CONVENTIONS[convention]
+  const lines: WorkedLine[] =
+    convention === 'chemistry'
+      ? [
+          { tex: '\\Delta U = q + w', note: 'chemistry convention: q is the heat into the system, w the work done ON the system (positive when the gas is compressed)' },
+          ...(flow ? [{ tex: '\\Delta h = q + w', note: 'steady flow: w is the shaft work done on the fluid' }] : []),
+        ]
+      : [
+          { tex: '\\Delta U = Q - W', note: 'engineering convention: Q is the heat into the system, W the work done BY the system (positive when the gas expands)' },
+          ...(flow ? [{ tex: '\\Delta h = Q - W', note: 'steady flow: W is the shaft work done by the fluid' }] : []),
+        ]
+  lines.push({ tex: '\\text{Values per unit amount; a negative heat leaves the system.}' })
+  const text = `${convention}: ${c.equation}; ${c.heat}; ${c.work}${flow ? `; ${c.flowEquation}` : ''}`
+  return { text, section: { title: 'Sign convention', lines } }
+}
+
+// ---- The spec behind a solution (for n, η, ε and the gas) ----------------------------
+
+function cycleSpecOf(spec: Readonly<Record<string, unknown>>): CycleSpec | null {
+  try {
+    if (typeof spec.template === 'string') {
+      const t = templates[spec.template]
+      const inputs = spec.inputs
+      if (!t || typeof inputs !== 'object' || inputs === null) return null
+      const parsed = parseTemplateInputs(t.inputs, inputs as Record<string, unknown>)
+      if (!parsed.ok) return null
+      const built = t.build(parsed.value)
+      return built.ok ? built.spec : null
+    }
+    if (spec.cycle !== undefined) {
+      const p = parseCycleSpec(spec.cycle)
+      return p.ok ? p.value : null
+    }
+  } catch {
+    return null
+  }
+  return null
+}
+
+// ---- Ideal-gas cycles ---------------------------------------------------------------
+
+interface Ctx {
+  readonly sol: FormattedSolution
+  readonly sym: Symbols
+  readonly u: Units
+  readonly gas: Gas | null
+  readonly spec: CycleSpec | null
+  readonly flow: boolean
+  /** R in the shown unit, as TeX */
+  readonly R: string
+}
+
+function stateLines(ctx: Ctx): WorkedSection {
+  const { sol, u } = ctx
+  const lines: WorkedLine[] = []
+  for (const s of sol.states) {
+    const n = sub(s.name)
+    const tex =
+      `p_{${n}} = ${pressureTex(s.p.value)},\\quad T_{${n}} = ${q4(s.T.value, 'K')},\\quad ` +
+      `v_{${n}} = \\frac{R\\,T_{${n}}}{p_{${n}}} = \\frac{(${ctx.R})(${q4(s.T.value, 'K')})}{${pressureTex(s.p.value)}} = ${q4(s.v.value, u.volume)}`
+    lines.push({ tex, note: `state ${s.name}: the ideal-gas law pv = RT ties p, T and v` })
+    if (s.V) lines.push({ tex: `V_{${n}} = ${q4(s.V.value * 1000, 'L')}` })
+  }
+  return { title: 'States', lines }
+}
+
+function deltaLine(ctx: Ctx, kind: 'u' | 'h', a: FormattedState, b: FormattedState, value: number): string {
+  const { u, gas } = ctx
+  const na = sub(a.name)
+  const nb = sub(b.name)
+  if (gas?.constantCp) {
+    const c = kind === 'u' ? gas.cv(a.T.value) : gas.cp(a.T.value)
+    const cSym = kind === 'u' ? 'c_v' : 'c_p'
+    return `\\Delta ${kind} = ${cSym}(T_{${nb}} - T_{${na}}) = (${q4(u.s(c), u.entropy)})(${n4(b.T.value)} - ${n4(a.T.value)})\\,\\mathrm{K} = ${q4(u.e(value), u.energy)}`
+  }
+  const ea = kind === 'u' ? a.u.value : a.h.value
+  const eb = kind === 'u' ? b.u.value : b.h.value
+  return `\\Delta ${kind} = ${kind}_{${nb}} - ${kind}_{${na}} = ${n4(u.e(eb))} - ${par(n4(u.e(ea)))} = ${q4(u.e(value), u.energy)}`
+}
+
+function entropyLine(ctx: Ctx, a: FormattedState, b: FormattedState, ds: number): WorkedLine {
+  const { u, gas } = ctx
+  const na = sub(a.name)
+  const nb = sub(b.name)
+  const shown = snap(ds, 1e3)
+  if (gas?.constantCp) {
+    return {
+      tex: `\\Delta s = c_p\\ln\\frac{T_{${nb}}}{T_{${na}}} - R\\ln\\frac{p_{${nb}}}{p_{${na}}} = (${q4(u.s(gas.cp(a.T.value)), u.entropy)})\\ln\\frac{${n4(b.T.value)}}{${n4(a.T.value)}} - (${ctx.R})\\ln\\frac{${n4(b.p.value / 1000)}}{${n4(a.p.value / 1000)}} = ${q4(u.s(shown), u.entropy)}`,
+      note: 'entropy change of an ideal gas with constant specific heats',
+    }
+  }
+  return { tex: `\\Delta s = s_{${nb}} - s_{${na}} = ${q4(u.s(shown), u.entropy)}`, note: 'entropy from the gas tables (NASA polynomials)' }
+}
+
+function stepSection(ctx: Ctx, st: FormattedStep, k: number): WorkedSection {
+  const { sol, sym, u, gas, flow } = ctx
+  const a = sol.states[st.from - 1]!
+  const b = sol.states[st.to - 1]!
+  const na = sub(a.name)
+  const nb = sub(b.name)
+  const ij = `${na}${nb}`
+  const stepSpec: StepSpec | undefined = ctx.spec?.steps[k]
+  const wConv = st.w.value
+  const wBy = sym.convention === 'engineering' ? wConv : -wConv
+  const E = (x: number) => q4(u.e(snap(x, 1e3)), u.energy)
+  const wBySym = flow ? 'w_{\\mathrm{shaft,by}}' : 'w_{\\mathrm{by}}'
+  const lines: WorkedLine[] = []
+  const heat = (relation: string, note?: string) => lines.push({ tex: `${sym.Q(ij)} = ${relation} = ${E(st.q.value)}`, ...(note ? { note } : {}) })
+  const balanceName = flow ? 'h' : 'u'
+  const balanceDelta = flow ? st.dH.value : st.dU.value
+
+  switch (st.process) {
+    case 'isochoric':
+      if (!flow) {
+        lines.push({ tex: `${wBySym} = 0`, note: 'constant volume: no boundary work' })
+        lines.push({ tex: deltaLine(ctx, 'u', a, b, st.dU.value) })
+        heat('\\Delta u', 'first law with no work')
+      } else {
+        lines.push({ tex: `${wBySym} = q - \\Delta h = ${E(wBy)}`, note: 'steady-flow energy balance' })
+        heat('\\Delta h + w_{\\mathrm{shaft,by}}')
+      }
+      break
+    case 'isobaric':
+      if (!flow) {
+        lines.push({ tex: `${wBySym} = p\\,(v_{${nb}} - v_{${na}}) = (${pressureTex(a.p.value)})(${n4(b.v.value)} - ${n4(a.v.value)})\\,${unitToTex(u.volume)} = ${E(wBy)}`, note: 'constant pressure: boundary work p Δv' })
+      } else {
+        lines.push({ tex: `${wBySym} = 0`, note: 'a heat exchanger or combustor has no shaft work' })
+      }
+      lines.push({ tex: deltaLine(ctx, 'h', a, b, st.dH.value) })
+      heat('\\Delta h', flow ? 'steady flow with no shaft work' : 'constant pressure: q = Δu + pΔv = Δh')
+      break
+    case 'isothermal': {
+      const ratio = flow ? a.p.value / b.p.value : b.v.value / a.v.value
+      const rel = flow ? `R\\,T\\ln\\frac{p_{${na}}}{p_{${nb}}}` : `R\\,T\\ln\\frac{v_{${nb}}}{v_{${na}}}`
+      lines.push({ tex: `${wBySym} = ${rel} = (${ctx.R})(${q4(a.T.value, 'K')})\\ln(${n4(ratio)}) = ${E(wBy)}`, note: 'isothermal ideal gas' })
+      heat(wBySym, `ideal gas at constant T: Δ${balanceName} = 0`)
+      break
+    }
+    case 'isentropic':
+      lines.push({ tex: `${sym.Q(ij)} = 0`, note: 'reversible and adiabatic' })
+      if (gas?.constantCp) {
+        const g = gas.gamma(a.T.value)
+        lines.push({
+          tex: flow
+            ? `T_{${nb}} = T_{${na}}\\left(\\frac{p_{${nb}}}{p_{${na}}}\\right)^{(\\gamma-1)/\\gamma} = (${n4(a.T.value)})(${n4(b.p.value / a.p.value)})^{${n4((g - 1) / g)}} = ${q4(b.T.value, 'K')}`
+            : `T_{${nb}} = T_{${na}}\\left(\\frac{v_{${na}}}{v_{${nb}}}\\right)^{\\gamma-1} = (${n4(a.T.value)})(${n4(a.v.value / b.v.value)})^{${n4(g - 1)}} = ${q4(b.T.value, 'K')}`,
+          note: `isentropic ideal gas with constant specific heats, γ = ${formatNumber(g, { sigFigs: WORKED_SIG_FIGS }, false)}`,
+        })
+      }
+      lines.push({ tex: deltaLine(ctx, balanceName, a, b, balanceDelta) })
+      lines.push({ tex: `${wBySym} = -\\Delta ${balanceName} = ${E(wBy)}`, note: flow ? 'steady-flow energy balance with q = 0' : 'first law with q = 0' })
+      break
+    case 'polytropic': {
+      const nExp = Math.log(b.p.value / a.p.value) / Math.log(a.v.value / b.v.value)
+      lines.push({ tex: `n = \\frac{\\ln(p_{${nb}}/p_{${na}})}{\\ln(v_{${na}}/v_{${nb}})} = \\frac{\\ln(${n4(b.p.value / a.p.value)})}{\\ln(${n4(a.v.value / b.v.value)})} = ${n4(nExp)}`, note: stepSpec?.n !== undefined ? `the problem gives n = ${stepSpec.n}` : 'from p vⁿ = constant' })
+      if (Math.abs(nExp - 1) < 1e-9) {
+        lines.push({ tex: `${wBySym} = R\\,T\\ln\\frac{v_{${nb}}}{v_{${na}}} = ${E(wBy)}`, note: 'n = 1 is isothermal' })
+      } else if (!flow) {
+        lines.push({
+          tex: `${wBySym} = \\frac{p_{${nb}}v_{${nb}} - p_{${na}}v_{${na}}}{1 - n} = \\frac{(${n4(b.p.value / 1000)})(${n4(b.v.value)}) - (${n4(a.p.value / 1000)})(${n4(a.v.value)})}{1 - ${n4(nExp)}} = ${E(wBy)}`,
+          note: 'polytropic boundary work (p in kPa times v gives kJ per unit amount)',
+        })
+      } else {
+        lines.push({ tex: `${wBySym} = \\frac{n\\,(p_{${nb}}v_{${nb}} - p_{${na}}v_{${na}})}{1 - n} = ${E(wBy)}`, note: 'polytropic shaft work in steady flow' })
+      }
+      lines.push({ tex: deltaLine(ctx, balanceName, a, b, balanceDelta) })
+      heat(`\\Delta ${balanceName} + ${wBySym}`, 'first law')
+      break
+    }
+    case 'adiabatic': {
+      lines.push({ tex: `${sym.Q(ij)} = 0`, note: 'adiabatic, with an isentropic efficiency' })
+      lines.push({ tex: deltaLine(ctx, balanceName, a, b, balanceDelta) })
+      lines.push({ tex: `${wBySym} = -\\Delta ${balanceName} = ${E(wBy)}`, note: 'energy balance with q = 0' })
+      const eta = stepSpec?.efficiency
+      const compressor = stepSpec?.device ? stepSpec.device === 'compressor' : wBy < 0
+      if (eta !== undefined && eta > 0) {
+        if (compressor) {
+          const wIn = -wBy
+          lines.push({ tex: `${sym.W('\\mathrm{in}')} = \\frac{${sym.W('s,\\mathrm{in}')}}{\\eta_c} = \\frac{${n4(u.e(wIn * eta))}}{${n4(eta)}} = ${E(wIn)}`, note: 'compressor: the actual work is the isentropic work divided by the efficiency' })
+        } else {
+          lines.push({ tex: `${sym.W('\\mathrm{out}')} = \\eta_t\\,${sym.W('s,\\mathrm{out}')} = (${n4(eta)})(${n4(u.e(wBy / eta))}) = ${E(wBy)}`, note: 'turbine: the actual work is the efficiency times the isentropic work' })
+        }
+      }
+      break
+    }
+    case 'regenerator': {
+      const path = stepSpec?.path ?? 'isobaric'
+      const kind = path === 'isochoric' ? 'u' : 'h'
+      lines.push({ tex: `${wBySym} = 0` })
+      lines.push({ tex: deltaLine(ctx, kind, a, b, kind === 'u' ? st.dU.value : st.dH.value) })
+      const partner = stepSpec?.partner
+      heat(`\\Delta ${kind}`, `internal heat exchange${partner !== undefined ? ` with step ${partner + 1}` : ''}: not counted as heat from or to the surroundings`)
+      if (stepSpec?.effectiveness !== undefined && stepSpec.effectiveness < 1) lines.push({ tex: `\\varepsilon = ${n4(stepSpec.effectiveness)}`, note: 'regenerator effectiveness' })
+      break
+    }
+  }
+  if (st.process !== 'isentropic' && st.process !== 'adiabatic' && !lines.some((l) => l.tex.startsWith(sym.Q(ij)))) heat(`\\Delta ${balanceName} + ${wBySym}`)
+  // In the course's convention.
+  lines.push({
+    tex: sym.convention === 'chemistry' ? `${sym.W(ij)} = -${wBySym} = ${E(wConv)}` : `${sym.W(ij)} = ${wBySym} = ${E(wConv)}`,
+    note: sym.convention === 'chemistry' ? 'work done ON the gas' : 'work done BY the gas',
+  })
+  const check = sym.convention === 'chemistry' ? `${sym.Q(ij)} + ${sym.W(ij)}` : `${sym.Q(ij)} - ${sym.W(ij)}`
+  const checkNums = sym.convention === 'chemistry' ? `${n4(u.e(snap(st.q.value, 1e3)))} + ${par(n4(u.e(snap(wConv, 1e3))))}` : `${n4(u.e(snap(st.q.value, 1e3)))} - ${par(n4(u.e(snap(wConv, 1e3))))}`
+  lines.push({ tex: `\\Delta ${balanceName} = ${check} = ${checkNums} = ${E(balanceDelta)}`, note: 'first-law check' })
+  lines.push(entropyLine(ctx, a, b, st.dS.value))
+  const title = `Step ${a.name} → ${b.name}: ${st.process}${st.label ? ` (${st.label})` : ''}`
+  return { title, lines }
+}
+
+function closedFormEfficiency(ctx: Ctx, template: string | undefined): WorkedLine | null {
+  const { sol, gas } = ctx
+  if (!gas?.constantCp || sol.totals.efficiency === null) return null
+  const s = sol.states
+  const T1 = s[0]?.T.value ?? 300
+  const g = gas.gamma(T1)
+  if (template === 'otto' && s.length === 4) {
+    const r = s[0]!.v.value / s[1]!.v.value
+    return { tex: `\\eta = 1 - r^{1-\\gamma} = 1 - (${n4(r)})^{1 - ${n4(g)}} = ${n4(1 - Math.pow(r, 1 - g))}`, note: 'air-standard Otto cycle with constant specific heats: the same as W_net/Q_in' }
+  }
+  if (template === 'diesel' && s.length === 4) {
+    const r = s[0]!.v.value / s[1]!.v.value
+    const rc = s[2]!.v.value / s[1]!.v.value
+    const eta = 1 - (Math.pow(r, 1 - g) * (Math.pow(rc, g) - 1)) / (g * (rc - 1))
+    return { tex: `\\eta = 1 - \\frac{1}{r^{\\gamma-1}}\\,\\frac{r_c^{\\gamma} - 1}{\\gamma\\,(r_c - 1)} = ${n4(eta)}`, note: `air-standard Diesel cycle, r = ${n4(r)}, r_c = ${n4(rc)}` }
+  }
+  if (template === 'brayton' && s.length === 4 && sol.steps.every((st) => st.process !== 'adiabatic')) {
+    const rp = s[1]!.p.value / s[0]!.p.value
+    return { tex: `\\eta = 1 - r_p^{(1-\\gamma)/\\gamma} = 1 - (${n4(rp)})^{${n4((1 - g) / g)}} = ${n4(1 - Math.pow(rp, (1 - g) / g))}`, note: 'ideal Brayton cycle with constant specific heats' }
+  }
+  return null
+}
+
+function totalsSection(ctx: Ctx, template: string | undefined): WorkedSection {
+  const { sol, sym, u } = ctx
+  const t = sol.totals
+  const lines: WorkedLine[] = []
+  const E = (x: number) => q4(u.e(snap(x, 1e3)), u.energy)
+  const stepSub = (st: FormattedStep) => `${sub(sol.states[st.from - 1]!.name)}${sub(sol.states[st.to - 1]!.name)}`
+  const external = sol.steps.filter((st) => !st.internal)
+  const sumOf = (steps: readonly FormattedStep[], pick: (st: FormattedStep) => number, symbol: (st: FormattedStep) => string): string =>
+    steps.length === 0 ? '0' : `${steps.map(symbol).join(' + ')}${steps.length > 1 ? ` = ${steps.map((st) => par(n4(u.e(snap(pick(st), 1e3))))).join(' + ')}` : ''}`
+  const ins = external.filter((st) => st.q.value > 0)
+  const outs = external.filter((st) => st.q.value < 0)
+  lines.push({ tex: `${sym.Q('\\mathrm{in}')} = ${sumOf(ins, (st) => st.q.value, (st) => sym.Q(stepSub(st)))} = ${E(t.heatIn.value)}`, note: 'heat taken from the surroundings (regenerator steps excluded)' })
+  lines.push({ tex: `${sym.Q('\\mathrm{out}')} = ${sumOf(outs, (st) => -st.q.value, (st) => `|${sym.Q(stepSub(st))}|`)} = ${E(t.heatOut.value)}`, note: 'heat given to the surroundings' })
+  lines.push({ tex: `${sym.W('\\mathrm{net}')} = ${sol.steps.map((st) => sym.W(stepSub(st))).join(' + ')} = ${E(t.netWork.value)}`, note: sym.convention === 'chemistry' ? 'net work done ON the gas per cycle' : 'net work done BY the gas per cycle' })
+  const wOut = sym.convention === 'engineering' ? t.netWork.value : -t.netWork.value
+  lines.push({
+    tex: `${sym.Q('\\mathrm{in}')} - ${sym.Q('\\mathrm{out}')} = ${n4(u.e(t.heatIn.value))} - ${n4(u.e(t.heatOut.value))} = ${E(wOut)}`,
+    note: sym.convention === 'chemistry' ? 'over a cycle ΔU = 0, so the work delivered, −w_net, equals the net heat' : 'over a cycle ΔU = 0, so W_net equals the net heat',
+  })
+  const Tl = t.Tmin.value
+  const Th = t.Tmax.value
+  if (t.efficiency !== null) {
+    lines.push({ tex: `\\eta = \\frac{${sym.convention === 'chemistry' ? '-w_{\\mathrm{net}}' : 'W_{\\mathrm{net}}'}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(u.e(wOut))}}{${n4(u.e(t.heatIn.value))}} = ${n4(t.efficiency.value)}`, note: 'thermal efficiency' })
+    const closed = closedFormEfficiency(ctx, template)
+    if (closed) lines.push(closed)
+    lines.push({ tex: `\\eta_{\\mathrm{Carnot}} = 1 - \\frac{T_L}{T_H} = 1 - \\frac{${n4(Tl)}}{${n4(Th)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison: the Carnot bound between the lowest and highest temperatures of the cycle' })
+  } else if (t.copRefrigerator !== null && t.purpose === 'refrigerator') {
+    lines.push({ tex: `\\mathrm{COP}_R = \\frac{${sym.Q('L')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatIn.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copRefrigerator.value)}`, note: 'Q_L: heat taken from the cold space (Q_in); w_in: net work put in' })
+    lines.push({ tex: `\\mathrm{COP}_{R,\\mathrm{Carnot}} = \\frac{T_L}{T_H - T_L} = \\frac{${n4(Tl)}}{${n4(Th)} - ${n4(Tl)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison' })
+  } else if (t.copHeatPump !== null) {
+    lines.push({ tex: `\\mathrm{COP}_{HP} = \\frac{${sym.Q('H')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatOut.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copHeatPump.value)}`, note: 'Q_H: heat delivered to the warm space (Q_out); w_in: net work put in' })
+    lines.push({ tex: `\\mathrm{COP}_{HP,\\mathrm{Carnot}} = \\frac{T_H}{T_H - T_L} = \\frac{${n4(Th)}}{${n4(Th)} - ${n4(Tl)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison' })
+  }
+  if (t.meanEffectivePressure !== null) {
+    const vs = sol.states.map((s) => s.v.value)
+    lines.push({ tex: `\\mathrm{MEP} = \\frac{${sym.W('\\mathrm{net,out}')}}{v_{\\max} - v_{\\min}} = \\frac{${n4(u.e(wOut))}}{${n4(Math.max(...vs))} - ${n4(Math.min(...vs))}} = ${pressureTex(t.meanEffectivePressure.value)}`, note: 'mean effective pressure' })
+  }
+  if (t.backWorkRatio !== null) lines.push({ tex: `\\mathrm{bwr} = \\frac{${sym.W('\\mathrm{comp,in}')}}{${sym.W('\\mathrm{turb,out}')}} = ${n4(t.backWorkRatio.value)}`, note: 'back work ratio' })
+  if (t.entropyGenerated !== null) lines.push({ tex: `s_{\\mathrm{gen}} = \\frac{${sym.Q('\\mathrm{out}')}}{T_{\\mathrm{sink}}} - \\frac{${sym.Q('\\mathrm{in}')}}{T_{\\mathrm{source}}} = ${q4(u.s(snap(t.entropyGenerated.value, 1e3)), u.entropy)}`, note: 'entropy generated per cycle with the given reservoirs' })
+  if (sol.amount && t.total) {
+    const amountUnit = sol.amount.unit
+    lines.push({
+      tex: `\\text{For } ${q4(sol.amount.value, amountUnit)}:\\ ${sym.Q('\\mathrm{in}')} = ${q4(t.total.heatIn.value / 1000, 'kJ')},\\ ${sym.Q('\\mathrm{out}')} = ${q4(t.total.heatOut.value / 1000, 'kJ')},\\ ${sym.W('\\mathrm{net}')} = ${q4(snap(t.total.netWork.value, 1e3) / 1000, 'kJ')}`,
+      note: 'totals for the amount of gas in the problem',
+    })
+  }
+  return { title: 'Cycle totals', lines }
+}
+
+function idealGasSections(sol: FormattedSolution, variant: Variant, sym: Symbols): WorkedSection[] {
+  const spec = cycleSpecOf(variant.spec)
+  const u = unitsFor(sol.gas.basis)
+  const gas = spec?.gas ?? null
+  const R = sol.gas.basis === 'mass' ? q4(sol.gas.R.value / 1000, 'kJ/(kg K)') : q4(sol.gas.R.value, 'J/(mol K)')
+  const ctx: Ctx = { sol, sym, u, gas, spec, flow: sol.system === 'flow', R }
+  const template = typeof variant.spec.template === 'string' ? variant.spec.template : undefined
+  const gasLines: WorkedLine[] = [{ tex: `R = ${R}`, note: `${sol.gas.label} (${sol.gas.source})` }]
+  if (gas?.constantCp) {
+    const T = sol.states[0]?.T.value ?? 300
+    gasLines.push({ tex: `c_p = ${q4(u.s(gas.cp(T)), u.entropy)},\\quad c_v = ${q4(u.s(gas.cv(T)), u.entropy)},\\quad \\gamma = c_p/c_v = ${n4(gas.gamma(T))}`, note: 'constant specific heats' })
+  }
+  gasLines.push({ tex: `\\text{${texEscape(sol.system === 'flow' ? 'Steady flow: shaft work, energy balance on h.' : 'Closed system: boundary work, energy balance on u.')}}` })
+  return [{ title: 'Working gas', lines: gasLines }, stateLines(ctx), ...sol.steps.map((st, k) => stepSection(ctx, st, k)), totalsSection(ctx, template)]
+}
+
+// ---- Rankine cycles -----------------------------------------------------------------
+
+function rankineStateLine(s: FormattedRankineState): WorkedLine[] {
+  const n = sub(s.name)
+  const lines: WorkedLine[] = [
+    {
+      tex: `p_{${n}} = ${pressureTex(s.p.value)},\\ T_{${n}} = ${q4(s.T.value, 'K')}\\ (${q4(s.T.value - 273.15, '°C')}),\\ h_{${n}} = ${q4(s.h.value / 1000, 'kJ/kg')},\\ s_{${n}} = ${q4(s.s.value / 1000, 'kJ/(kg K)')},\\ v_{${n}} = ${q4(s.v.value, 'm^3/kg')}`,
+      note: `state ${s.name}: ${s.description} (${s.phase}${s.massFraction !== 1 && Number.isFinite(s.massFraction) ? `, mass fraction ${formatNumber(s.massFraction, { sigFigs: WORKED_SIG_FIGS }, false)}` : ''})`,
+    },
+  ]
+  if (s.x !== null) {
+    const sat = saturationAtP(s.p.value)
+    if (s.x > 0 && s.x < 1 && sat.ok) {
+      const hf = sat.value.liquid.h
+      const hfg = sat.value.vapour.h - hf
+      lines.push({
+        tex: `x_{${n}} = \\frac{h_{${n}} - h_f}{h_{fg}} = \\frac{${n4(s.h.value / 1000)} - ${n4(hf / 1000)}}{${n4(hfg / 1000)}} = ${n4(s.x)}`,
+        note: `two-phase: quality from the saturation properties at ${formatNumber(s.p.value / 1000, { sigFigs: WORKED_SIG_FIGS }, false)} kPa`,
+      })
+    } else {
+      lines.push({ tex: `x_{${n}} = ${n4(s.x)}`, note: s.x === 0 ? 'saturated liquid' : s.x === 1 ? 'saturated vapour' : 'quality' })
+    }
+  }
+  return lines
+}
+
+function rankineSections(sol: FormattedRankine, variant: Variant, sym: Symbols): WorkedSection[] {
+  const E = (x: number) => q4(snap(x, 1e3) / 1000, 'kJ/kg')
+  const states = sol.states
+  const stateSection: WorkedSection = { title: 'States (water/steam, IAPWS-IF97)', lines: states.flatMap(rankineStateLine) }
+  const find = (prefix: string) => states.find((s) => s.description.startsWith(prefix))
+  const lines: WorkedLine[] = []
+  const simple = sol.devices.map((d) => d.device).join(',') === 'pump,boiler,turbine,condenser'
+  const s1 = find('condenser exit')
+  const s2 = find('pump exit')
+  const s3 = find('boiler exit')
+  const s4 = find('turbine exit (condenser inlet)')
+  const inputs = parseRankineInputs(sol.template, (variant.spec as { inputs?: unknown }).inputs ?? {})
+  const etaP = inputs.ok ? (inputs.value.pumpEfficiency ?? 1) : null
+  const etaT = inputs.ok ? (inputs.value.turbineEfficiency ?? 1) : null
+  const hs = (s: FormattedRankineState) => n4(s.h.value / 1000)
+  if (simple && s1 && s2 && s3 && s4) {
+    const [n1, n2, n3, n4s] = [sub(s1.name), sub(s2.name), sub(s3.name), sub(s4.name)]
+    lines.push({ tex: `${sym.W('\\mathrm{pump,in}')} = h_{${n2}} - h_{${n1}} = ${hs(s2)} - ${hs(s1)} = ${E(sol.totals.pumpWork.value)}`, note: 'pump' })
+    if (etaP !== null) {
+      const ws = s1.v.value * (s2.p.value - s1.p.value)
+      lines.push({ tex: `\\frac{v_{${n1}}(p_{${n2}} - p_{${n1}})}{\\eta_p} = \\frac{(${q4(s1.v.value, 'm^3/kg')})(${pressureTex(s2.p.value)} - ${pressureTex(s1.p.value)})}{${n4(etaP)}} = ${E(ws / etaP)}`, note: 'the v Δp form for a nearly incompressible liquid agrees closely' })
+    }
+    lines.push({ tex: `${sym.Q('\\mathrm{boiler}')} = h_{${n3}} - h_{${n2}} = ${hs(s3)} - ${hs(s2)} = ${E(sol.totals.heatIn.value)}`, note: 'boiler: q = Δh' })
+    lines.push({ tex: `${sym.W('\\mathrm{turb,out}')} = h_{${n3}} - h_{${n4s}} = ${hs(s3)} - ${hs(s4)} = ${E(sol.totals.turbineWork.value)}`, note: etaT !== null && etaT < 1 ? `turbine with isentropic efficiency η_t = ${etaT}` : 'isentropic turbine: s is conserved' })
+    lines.push({ tex: `${sym.Q('\\mathrm{cond,out}')} = h_{${n4s}} - h_{${n1}} = ${hs(s4)} - ${hs(s1)} = ${E(sol.totals.heatOut.value)}`, note: 'condenser: |q| = |Δh|' })
+  } else {
+    for (const d of sol.devices) {
+      const mag = Math.abs(d.w.value) > 0 ? `|w| = ${E(Math.abs(d.w.value))}` : `|q| = ${E(Math.abs(d.q.value))}`
+      lines.push({ tex: `\\text{${texEscape(d.device)}}:\\ ${mag}`, note: 'steady-flow energy balance with the enthalpies and mass fractions above' })
+    }
+  }
+  const deviceSection: WorkedSection = { title: 'Devices (per kg through the boiler)', lines }
+  const conv: WorkedLine[] = sol.devices.map((d) => ({
+    tex: `\\text{${texEscape(d.device)}}:\\ ${sym.Q('')} = ${E(d.q.value)},\\ ${sym.W('')} = ${E(d.w.value)}`,
+    note: sym.convention === 'chemistry' ? 'w is work done ON the water (pump positive, turbine negative)' : 'W is work done BY the water (turbine positive, pump negative)',
+  }))
+  const t = sol.totals
+  const totals: WorkedLine[] = [
+    { tex: `${sym.W('\\mathrm{net,out}')} = ${sym.W('\\mathrm{turb,out}')} - ${sym.W('\\mathrm{pump,in}')} = ${n4(t.turbineWork.value / 1000)} - ${n4(t.pumpWork.value / 1000)} = ${E(t.netWork.value)}`, note: 'net work delivered' },
+    { tex: `${sym.W('\\mathrm{net}')} = ${E(t.netWorkSigned.value)}`, note: 'the same in the course convention' },
+    { tex: `${sym.Q('\\mathrm{in}')} = ${E(t.heatIn.value)},\\quad ${sym.Q('\\mathrm{out}')} = ${E(t.heatOut.value)}` },
+    { tex: `\\eta = \\frac{${sym.W('\\mathrm{net,out}')}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(t.netWork.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(t.efficiency.value)}`, note: 'thermal efficiency' },
+    { tex: `\\mathrm{bwr} = \\frac{${sym.W('\\mathrm{pump,in}')}}{${sym.W('\\mathrm{turb,out}')}} = \\frac{${n4(t.pumpWork.value / 1000)}}{${n4(t.turbineWork.value / 1000)}} = ${n4(t.backWorkRatio.value)}`, note: 'back work ratio' },
+  ]
+  if (t.turbineExitQuality !== null) totals.push({ tex: `x_{\\mathrm{turbine\\ exit}} = ${n4(t.turbineExitQuality.value)}`, note: 'turbine exit quality' })
+  if (t.bleedFraction !== null) totals.push({ tex: `y = ${n4(t.bleedFraction.value)}`, note: 'fraction of the steam bled to the feedwater heater' })
+  return [stateSection, deviceSection, { title: 'In the course convention', lines: conv }, { title: 'Cycle totals', lines: totals }]
+}
+
+// ---- Givens and key -----------------------------------------------------------------
+
+function givensSection(variant: Variant, def: ProblemDefinition): WorkedSection {
+  const lines: WorkedLine[] = variant.givens.map((g) => {
+    const display = def.givens.find((d) => d.name === g.name)?.display
+    const shown = formatGivenValue(g, display, { tex: true })
+    return { tex: `${texName(g.name)} = ${shown.ok ? shown.text : `\\text{${texEscape(g.text)}}`}`, note: g.label }
+  })
+  return { title: 'Given', lines }
+}
+
+/** An expression find with every given and earlier find replaced by its number and unit. */
+function substituted(expression: string, values: ReadonlyMap<string, { value: number; unit: string }>): string {
+  return expression.replace(/[A-Za-z_][A-Za-z0-9_]*/g, (name) => {
+    const v = values.get(name)
+    if (!v) return name
+    const num = formatNumber(v.value, { sigFigs: WORKED_SIG_FIGS }, false).replace('\u2212', '-')
+    return v.unit.trim() === '' ? `(${num})` : `(${num} ${v.unit})`
+  })
+}
+
+function keySection(variant: Variant, def: ProblemDefinition): WorkedSection {
+  const values = new Map<string, { value: number; unit: string }>()
+  for (const g of variant.givens) if (!Number.isNaN(g.value)) values.set(g.name, { value: g.value, unit: g.unit })
+  const lines: WorkedLine[] = []
+  for (const k of variant.key) {
+    const find: Find | undefined = def.finds.find((f) => f.name === k.name)
+    const value = q4(k.value, k.unit)
+    if (find?.source.kind === 'expression') {
+      lines.push({ tex: `${texName(k.name)} = \\texttt{${texEscape(find.source.expression)}} = \\texttt{${texEscape(substituted(find.source.expression, values))}} = ${value}`, note: `${k.label} (${k.points} pt)` })
+    } else {
+      lines.push({ tex: `${texName(k.name)} = ${value}`, note: `${k.label} (${k.points} pt)${k.path ? `, from the solution: ${k.path}` : ''}` })
+    }
+    values.set(k.name, { value: k.value, unit: k.unit })
+  }
+  return { title: 'Answers', lines }
+}
+
+function isRankine(sol: Variant['solution']): sol is FormattedRankine {
+  return 'devices' in sol
+}
+
+/** The step-by-step solution of one variant. */
+export function workedSolution(variant: Variant, def: ProblemDefinition): WorkedSolution {
+  const sol = variant.solution
+  const convention = sol.convention.name
+  const sym = symbolsFor(convention)
+  const rankine = isRankine(sol)
+  const conv = conventionSection(convention, rankine || sol.system === 'flow')
+  const physics = rankine ? rankineSections(sol, variant, sym) : idealGasSections(sol, variant, sym)
+  return {
+    convention: conv.text,
+    sections: [givensSection(variant, def), conv.section, ...physics, keySection(variant, def)],
+    ...(rankine ? { caution: sol.notice } : {}),
+  }
+}
+
+/** A worked solution as HTML: KaTeX with MathML for every line, notes as text. */
+export function renderWorkedSolution(ws: WorkedSolution): string {
+  const parts: string[] = ['<div class="worked-solution">']
+  parts.push(`<p class="worked-convention">${escapeHtml(ws.convention)}</p>`)
+  for (const section of ws.sections) {
+    parts.push(`<section><h3>${escapeHtml(section.title)}</h3><ul>`)
+    for (const line of section.lines) {
+      const math = renderMath(line.tex, false).html
+      parts.push(`<li>${math}${line.note ? ` <span class="worked-note">${escapeHtml(line.note)}</span>` : ''}</li>`)
+    }
+    parts.push('</ul></section>')
+  }
+  if (ws.caution) parts.push(`<p class="worked-caution" role="note">${escapeHtml(ws.caution)}</p>`)
+  parts.push('</div>')
+  return parts.join('')
+}
