@@ -1,0 +1,103 @@
+import { describe, expect, test } from 'vitest'
+import type { DrawnGiven } from './definition.ts'
+import { renderMarkdown, renderPrompt } from './prompt.ts'
+
+const T1: DrawnGiven = { name: 'T1', label: 'inlet temperature', value: 300, unit: 'K', text: '300 K' }
+const r: DrawnGiven = { name: 'r', label: 'compression ratio', value: 8, unit: '', text: '8' }
+
+describe('renderPrompt', () => {
+  test('Markdown, placeholders in text and in math', () => {
+    const out = renderPrompt('Air enters at **@{T1}** (@{T1 in °C}). With $r = @{r}$ and $T_1 = @{T1}$:', [T1, r])
+    expect(out.errors).toEqual([])
+    expect(out.html).toContain('<strong>300\u00A0K</strong> (26.85\u00A0°C)')
+    // KaTeX with MathML beside the HTML, the annotation keeping the TeX source.
+    expect(out.html.match(/<math/g)).toHaveLength(2)
+    expect(out.html).toContain('<annotation encoding="application/x-tex">T_1 = 300\\,\\mathrm{K}</annotation>')
+    expect(out.html).toContain('<annotation encoding="application/x-tex">r = 8</annotation>')
+  })
+
+  test('display math, as a block and inline', () => {
+    const out = renderPrompt('Efficiency:\n\n$$\n\\eta = 1 - r^{1-\\gamma}\n$$\n\nand $$W = Q_{in} - Q_{out}$$ too.', [])
+    expect(out.errors).toEqual([])
+    expect(out.html).toContain('<div class="math-display">')
+    expect(out.html.match(/class="katex-display"/g)).toHaveLength(2)
+    expect(out.html.match(/display="block"/g)).toHaveLength(2)
+  })
+
+  test('Markdown does not reach inside math: _ and * stay TeX', () => {
+    const out = renderPrompt('$a_1 * b_2$ and _this_ is emphasis', [])
+    expect(out.html).toContain('<annotation encoding="application/x-tex">a_1 * b_2</annotation>')
+    expect(out.html).toContain('<em>this</em>')
+  })
+
+  test('$ inside code spans and code blocks stays literal, and so does @{', () => {
+    const out = renderPrompt('Use `$x$ and @{T1}` here.\n\n```\n$$ y $$\n```\n', [T1])
+    expect(out.html).toContain('<code>$x$ and @{T1}</code>')
+    expect(out.html).toContain('<pre><code>$$ y $$\n</code></pre>')
+    expect(out.html).not.toContain('<math')
+    expect(out.errors).toEqual([])
+  })
+
+  test('\\$ is a literal dollar and money is not math', () => {
+    const out = renderPrompt('Fuel costs \\$5 per litre, not $5 and $6.', [])
+    expect(out.html).toContain('Fuel costs $5 per litre, not $5 and $6.')
+    expect(out.html).not.toContain('<math')
+  })
+
+  test('@@{ shows a literal @{', () => {
+    expect(renderPrompt('write @@{T1}', [T1]).html).toContain('write @{T1}')
+  })
+
+  test('raw HTML is escaped, never passed through', () => {
+    const out = renderPrompt('<script>alert(1)</script>\n\nHi <img src=x onerror=alert(1)> <b onmouseover="x()">b</b>', [])
+    expect(out.html).not.toMatch(/<script|<img|<b /)
+    expect(out.html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;')
+    expect(out.html).toContain('&lt;img src=x onerror=alert(1)&gt;')
+  })
+
+  test('only http, https and mailto links; no images', () => {
+    const out = renderPrompt('[a](javascript:alert(1)) [b](https://example.org/x) [c](mailto:staff@example.org) [d](data:text/html,hi) ![e](https://example.org/e.png)', [])
+    expect(out.html).not.toContain('href="javascript')
+    expect(out.html).not.toContain('href="data:')
+    expect(out.html).toContain('<a href="https://example.org/x" rel="nofollow noopener noreferrer">b</a>')
+    expect(out.html).toContain('<a href="mailto:staff@example.org" rel="nofollow noopener noreferrer">c</a>')
+    expect(out.html).not.toContain('<img')
+  })
+
+  test('TeX cannot smuggle links or HTML (KaTeX trust off)', () => {
+    const out = renderPrompt('$\\href{javascript:alert(1)}{x}$ $\\htmlClass{a}{b}$', [])
+    expect(out.html).not.toContain('href="javascript')
+    expect(out.html).not.toContain('class="a"')
+  })
+
+  test('unknown givens and bad options show a marked span and an error, never a throw', () => {
+    const out = renderPrompt('At @{T9}, @{T1, 3 sig} and $@{T9}$ and @{T1', [T1])
+    expect(out.html).toContain('<span class="placeholder-error" role="note">[unknown given T9]</span>')
+    expect(out.html).toContain('[unknown option')
+    expect(out.html).toContain('[unclosed placeholder')
+    expect(out.html).toContain('<math')
+    const messages = out.errors.map((e) => e.message)
+    expect(messages).toHaveLength(4)
+    expect(messages).toEqual(
+      expect.arrayContaining([
+        'placeholder @{T9}: unknown given T9',
+        expect.stringMatching(/^placeholder: unknown option/),
+        'placeholder in math: unknown given T9',
+        expect.stringMatching(/^placeholder: unclosed placeholder/),
+      ]),
+    )
+  })
+
+  test('a TeX error is reported and the rest still renders', () => {
+    const out = renderPrompt('Before $\\frac{1}{$ after **bold**', [])
+    expect(out.errors).toEqual([{ message: expect.stringMatching(/^math: KaTeX parse error/) }])
+    expect(out.html).toContain('<strong>bold</strong>')
+  })
+
+  test('renderMarkdown: the same pipeline without givens', () => {
+    const out = renderMarkdown('A *note* with $x^2$.')
+    expect(out.errors).toEqual([])
+    expect(out.html).toContain('<em>note</em>')
+    expect(out.html).toContain('<math')
+  })
+})
