@@ -7,5 +7,5 @@ import { seedDemo } from './demo.ts'
 await prepareLocalEnv()
 await migrateDatabase(process.env.DATABASE_URL!)
 const r = await seedDemo(db())
-console.log(`Demo seeded: ${r.courseIds.length} courses, ${r.students} students.`)
+console.log(`Demo seeded: ${r.courseIds.length} courses, ${r.students} students, ${r.problems} bank problems.`)
 await closeDb()

@@ -4,7 +4,8 @@
  * client-side queries can show a plain message.
  */
 import { getUser } from './auth.server.ts'
-import type { SignedInUser } from './users.server.ts'
+import { canUseBank } from '#app/domain/permissions.ts'
+import { toActor, type SignedInUser } from './users.server.ts'
 
 export function jsonError(status: number, message: string): Response {
   return Response.json({ error: message }, { status, headers: { 'Cache-Control': 'no-store' } })
@@ -14,7 +15,7 @@ export function jsonError(status: number, message: string): Response {
 export async function requireApiBankUser(request: Request): Promise<SignedInUser> {
   const user = await getUser(request)
   if (!user) throw jsonError(401, 'Sign in to use the problem bank.')
-  if (!user.isAdmin && !user.courses.some((c) => c.role === 'instructor')) throw jsonError(403, 'The problem bank is for instructors.')
+  if (!canUseBank(toActor(user))) throw jsonError(403, 'The problem bank is for instructors.')
   return user
 }
 

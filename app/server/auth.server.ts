@@ -6,7 +6,7 @@ import { data, redirect } from 'react-router'
 import { Authenticator } from 'remix-auth'
 import { FormStrategy } from 'remix-auth-form'
 import { z } from 'zod'
-import { hasCourseRole, type CourseRole } from '#app/domain/permissions.ts'
+import { canUseBank, hasCourseRole, type CourseRole } from '#app/domain/permissions.ts'
 import { db } from './db/client.server.ts'
 import { verifyPassword } from './passwords.server.ts'
 import { checkSignInRate, recordSignInAttempt } from './rate-limit.server.ts'
@@ -101,13 +101,10 @@ export async function requireCourseRole(request: Request, courseId: number, role
   return { user, course }
 }
 
-/**
- * People who may use the problem bank: department admins and anyone who instructs a course.
- * TODO(#5): switch to canUseBank from app/domain/permissions.ts once it lands.
- */
+/** People who may use the problem bank (canUseBank): department admins and anyone who instructs a course. */
 export async function requireBankUser(request: Request) {
   const user = await requireUser(request)
-  if (!user.isAdmin && !user.courses.some((c) => c.role === 'instructor')) forbidden('The problem bank is for instructors.')
+  if (!canUseBank(toActor(user))) forbidden('The problem bank is for instructors.')
   return user
 }
 

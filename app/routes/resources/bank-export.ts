@@ -1,7 +1,7 @@
 import { data } from 'react-router'
 import { requireBankUser } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { ProblemAccessError, bankViewerFor, exportBank } from '#app/server/problems.server.ts'
+import { BankExportError, ProblemAccessError, bankViewerFor, exportBank } from '#app/server/problems.server.ts'
 import type { Route } from './+types/bank-export'
 
 /**
@@ -28,6 +28,7 @@ export async function loader({ request }: Route.LoaderArgs) {
     })
   } catch (e) {
     if (e instanceof ProblemAccessError) throw data('One of those problems is not in your bank or shared with you.', { status: 404 })
+    if (e instanceof BankExportError) throw data(e.message, { status: 400 })
     throw e
   }
 }
