@@ -1,0 +1,242 @@
+import { describe, expect, test } from 'vitest'
+import { solveSpec } from '#app/domain/thermo/index.ts'
+import type { Convention } from '#app/domain/thermo/index.ts'
+import type { DrawnGiven, Find, KeyEntry, ProblemDefinition, Variant } from './definition.ts'
+import { renderWorkedSolution, workedSolution } from './worked-solution.ts'
+import type { WorkedSolution } from './worked-solution.ts'
+
+const find = (name: string, label: string, unit: string, source: Find['source']): Find => ({ name, label, source, unit, points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] })
+
+function definition(finds: Find[], physics: ProblemDefinition['physics']): ProblemDefinition {
+  return {
+    format: 1,
+    title: 'test problem',
+    tags: { topics: [], difficulty: 'standard', level: 'second-year' },
+    convention: 'course',
+    prompt: '',
+    givens: [
+      { name: 'T1', label: 'temperature at the start of compression', unit: 'K', rule: { kind: 'range', min: 280, max: 320, step: 5 }, display: { decimals: 0 } },
+      { name: 'r', label: 'compression ratio', unit: '', rule: { kind: 'choice', values: [7, 8, 9] } },
+    ],
+    constraints: [],
+    physics,
+    finds,
+  }
+}
+
+const T1: DrawnGiven = { name: 'T1', label: 'temperature at the start of compression', value: 300, unit: 'K', text: '300 K' }
+const r: DrawnGiven = { name: 'r', label: 'compression ratio', value: 8, unit: '', text: '8' }
+
+function variantOf(spec: Record<string, unknown>, givens: DrawnGiven[], key: (sol: Variant['solution']) => KeyEntry[]): Variant {
+  const sol = solveSpec(spec)
+  if (!sol.ok) throw new Error(sol.error.message)
+  return { seed: 1, convention: sol.convention.name, givens, spec, solution: sol, key: key(sol) }
+}
+
+/** {R, γ = 1.4} air, as in the air-standard Otto analysis of Çengel & Boles (from memory). */
+function ottoVariant(convention: Convention) {
+  const spec = { template: 'otto', convention, inputs: { gas: { R: '287 J/(kg K)', gamma: 1.4 }, p1: '100 kPa', T1: '300 K', compressionRatio: 8, heatIn: '800 kJ/kg' } }
+  const finds = [find('eta', 'Thermal efficiency', '', { kind: 'output', path: 'totals.efficiency' }), find('wnet', 'Net work', 'kJ/kg', { kind: 'output', path: 'totals.netWork' }), find('etaPct', 'Efficiency in per cent', '%', { kind: 'expression', expression: 'eta * 100' })]
+  const def = definition(finds, { kind: 'template', template: 'otto', inputs: { T1: 'T1', compressionRatio: 'r' } })
+  const variant = variantOf(spec, [T1, r], (sol) => {
+    if ('devices' in sol) throw new Error('not an ideal-gas solution')
+    const eta = sol.totals.efficiency!.value
+    return [
+      { name: 'eta', label: 'Thermal efficiency', value: eta, unit: '', points: 1, path: 'totals.efficiency' },
+      { name: 'wnet', label: 'Net work', value: sol.totals.netWork.value / 1000, unit: 'kJ/kg', points: 1, path: 'totals.netWork' },
+      { name: 'etaPct', label: 'Efficiency in per cent', value: eta * 100, unit: '%', points: 1, path: null },
+    ]
+  })
+  return { variant, def, ws: workedSolution(variant, def) }
+}
+
+const p4 = (x: number) => x.toPrecision(4)
+const section = (ws: WorkedSolution, title: string) => {
+  const s = ws.sections.find((x) => x.title.startsWith(title))
+  if (!s) throw new Error(`no section "${title}" in ${ws.sections.map((x) => x.title).join(' | ')}`)
+  return s
+}
+const line = (ws: WorkedSolution, title: string, start: string) => {
+  const l = section(ws, title).lines.find((x) => x.tex.startsWith(start))
+  if (!l) throw new Error(`no line starting ${start} in ${title}`)
+  return l.tex
+}
+/** The number after the last "=" of a line (what a student reads as the result). */
+const lastNumber = (tex: string) => Number((tex.split('=').pop() ?? '').trim().split('\\,')[0]!.replace('\\times10^{', 'e').replace('}', ''))
+
+describe('workedSolution: Otto cycle, engineering convention', () => {
+  const { variant, ws } = ottoVariant('engineering')
+  const sol = variant.solution
+  if ('devices' in sol) throw new Error('unexpected')
+
+  test('sections in order: givens, convention, gas, states, steps, totals, answers', () => {
+    expect(ws.sections.map((s) => s.title)).toEqual([
+      'Given',
+      'Sign convention',
+      'Working gas',
+      'States',
+      'Step 1 → 2: isentropic (compression)',
+      'Step 2 → 3: isochoric (heat addition)',
+      'Step 3 → 4: isentropic (expansion)',
+      'Step 4 → 1: isochoric (heat rejection)',
+      'Cycle totals',
+      'Answers',
+    ])
+    expect(ws.caution).toBeUndefined()
+  })
+
+  test('the givens as drawn, at their display precision', () => {
+    expect(section(ws, 'Given').lines).toEqual([
+      { tex: 'T_{1} = 300\\,\\mathrm{K}', note: 'temperature at the start of compression' },
+      { tex: 'r = 8', note: 'compression ratio' },
+    ])
+  })
+
+  test('the convention is stated with engineering symbols', () => {
+    expect(ws.convention).toMatch(/^engineering: ΔU = Q − W/)
+    expect(section(ws, 'Sign convention').lines[0]!.tex).toBe('\\Delta U = Q - W')
+    const all = ws.sections.flatMap((s) => s.lines.map((l) => l.tex)).join('\n')
+    expect(all).toContain('W_{12}')
+    expect(all).not.toMatch(/(^|[^a-z{])w_{12}/)
+  })
+
+  test('each state line carries the solution p, T, v to 4 significant figures', () => {
+    const lines = section(ws, 'States').lines
+    sol.states.forEach((s, i) => {
+      const tex = lines[i]!.tex
+      const p = s.p.value >= 1e6 ? `${p4(s.p.value / 1e6)}\\,\\mathrm{MPa}` : `${p4(s.p.value / 1000)}\\,\\mathrm{kPa}`
+      expect(tex).toContain(`p_{${s.name}} = ${p}`)
+      expect(tex).toContain(`T_{${s.name}} = ${p4(s.T.value)}\\,\\mathrm{K}`)
+      expect(tex).toContain(`\\frac{R\\,T_{${s.name}}}{p_{${s.name}}}`)
+      expect(lastNumber(tex)).toBeCloseTo(Number(p4(s.v.value)), 10)
+    })
+  })
+
+  test('step lines: works, heats and Δs are the solution values', () => {
+    sol.steps.forEach((st) => {
+      const title = `Step ${st.from} → ${st.to}`
+      const ij = `${st.from}${st.to}`
+      const wLine = line(ws, title, `W_{${ij}} = w_{\\mathrm{by}}`)
+      expect(lastNumber(wLine)).toBeCloseTo(st.w.value === 0 ? 0 : Number(p4(st.w.value / 1000)), 10)
+      const ds = line(ws, title, '\\Delta s')
+      expect(Math.abs(lastNumber(ds) - st.dS.value / 1000)).toBeLessThan(Math.abs(st.dS.value / 1000) * 1e-3 + 1e-9)
+    })
+    expect(line(ws, 'Step 2 → 3', 'Q_{23} = \\Delta u')).toContain(`= ${p4(sol.steps[1]!.q.value / 1000)}\\,\\mathrm{kJ}/\\mathrm{kg}`)
+    // Isochoric: no boundary work; isentropic: no heat (Çengel & Boles, Otto cycle, from memory).
+    expect(line(ws, 'Step 2 → 3', 'w_{\\mathrm{by}}')).toBe('w_{\\mathrm{by}} = 0')
+    expect(line(ws, 'Step 1 → 2', 'Q_{12}')).toBe('Q_{12} = 0')
+    expect(line(ws, 'Step 1 → 2', 'T_{2} = T_{1}')).toContain(`= ${p4(sol.states[1]!.T.value)}\\,\\mathrm{K}`)
+  })
+
+  test('efficiency = W_net/Q_in agrees with 1 − r^(1−γ) for γ = 1.4 (Çengel & Boles, air-standard Otto cycle, from memory)', () => {
+    const closedForm = 1 - Math.pow(8, 1 - 1.4)
+    expect(sol.totals.efficiency!.value).toBeCloseTo(closedForm, 9)
+    const ratio = line(ws, 'Cycle totals', '\\eta = \\frac{W_{\\mathrm{net}}}{Q_{\\mathrm{in}}}')
+    const formula = line(ws, 'Cycle totals', '\\eta = 1 - r^{1-\\gamma}')
+    expect(lastNumber(ratio)).toBe(Number(p4(closedForm)))
+    expect(lastNumber(formula)).toBe(Number(p4(closedForm)))
+    expect(formula).toContain('(8.000)^{1 - 1.400}')
+    // Carnot bound between the extreme temperatures, for comparison.
+    expect(lastNumber(line(ws, 'Cycle totals', '\\eta_{\\mathrm{Carnot}}'))).toBe(Number(p4(1 - sol.totals.Tmin.value / sol.totals.Tmax.value)))
+  })
+
+  test('Q_in, Q_out and W_net are the solution totals', () => {
+    expect(lastNumber(line(ws, 'Cycle totals', 'Q_{\\mathrm{in}} = '))).toBe(Number(p4(sol.totals.heatIn.value / 1000)))
+    expect(lastNumber(line(ws, 'Cycle totals', 'Q_{\\mathrm{out}} = '))).toBe(Number(p4(sol.totals.heatOut.value / 1000)))
+    expect(lastNumber(line(ws, 'Cycle totals', 'W_{\\mathrm{net}} = '))).toBe(Number(p4(sol.totals.netWork.value / 1000)))
+  })
+
+  test('the key: each find with its value and unit; an expression find with its numbers', () => {
+    const key = section(ws, 'Answers').lines
+    expect(key[0]!.tex).toBe(`\\mathrm{eta} = ${p4(variant.key[0]!.value)}`)
+    expect(key[1]!.tex).toBe(`\\mathrm{wnet} = ${p4(variant.key[1]!.value)}\\,\\mathrm{kJ}/\\mathrm{kg}`)
+    expect(key[2]!.tex).toBe(`\\mathrm{etaPct} = \\texttt{eta * 100} = \\texttt{(${p4(variant.key[0]!.value)}) * 100} = ${p4(variant.key[2]!.value)}\\,\\%`)
+  })
+
+  test('renders to HTML with MathML for every line and escaped notes', () => {
+    const html = renderWorkedSolution(ws)
+    const lines = ws.sections.reduce((n, s) => n + s.lines.length, 0)
+    expect(html.match(/<math/g)).toHaveLength(lines)
+    expect(html).not.toContain('katex-error')
+    expect(html).toContain('<h3>Cycle totals</h3>')
+  })
+})
+
+describe('workedSolution: chemistry convention', () => {
+  const { variant, ws } = ottoVariant('chemistry')
+  const sol = variant.solution
+  if ('devices' in sol) throw new Error('unexpected')
+
+  test('w is the work on the gas: positive in compression, negative in expansion', () => {
+    expect(ws.convention).toMatch(/^chemistry: ΔU = q \+ w/)
+    expect(section(ws, 'Sign convention').lines[0]!.tex).toBe('\\Delta U = q + w')
+    const compression = line(ws, 'Step 1 → 2', 'w_{12} = -w_{\\mathrm{by}}')
+    const expansion = line(ws, 'Step 3 → 4', 'w_{34} = -w_{\\mathrm{by}}')
+    expect(lastNumber(compression)).toBeGreaterThan(0)
+    expect(lastNumber(expansion)).toBeLessThan(0)
+    expect(lastNumber(compression)).toBe(Number(p4(sol.steps[0]!.w.value / 1000)))
+    expect(line(ws, 'Step 1 → 2', '\\Delta u = q_{12} + w_{12}')).toBeTruthy()
+    expect(lastNumber(line(ws, 'Cycle totals', 'w_{\\mathrm{net}} = '))).toBeLessThan(0)
+  })
+})
+
+describe('workedSolution: Rankine cycle', () => {
+  // Çengel & Boles, Example 10-1 (simple ideal Rankine cycle, 3 MPa / 350 °C / 75 kPa), from
+  // memory: x4 ≈ 0.886, η ≈ 26.0 %.
+  const spec = { template: 'rankine', convention: 'engineering', inputs: { boilerPressure: '3 MPa', condenserPressure: '75 kPa', turbineInletTemperature: '350 °C' } }
+  const def = definition([find('eta', 'Thermal efficiency', '', { kind: 'output', path: 'totals.efficiency' })], { kind: 'template', template: 'rankine', inputs: {} })
+  const variant = variantOf(spec, [], (sol) => [{ name: 'eta', label: 'Thermal efficiency', value: (sol.totals.efficiency as { value: number }).value, unit: '', points: 1, path: 'totals.efficiency' }])
+  const sol = variant.solution
+  if (!('devices' in sol)) throw new Error('unexpected')
+  const ws = workedSolution(variant, def)
+
+  test('the textbook values', () => {
+    expect(sol.states[3]!.x!).toBeCloseTo(0.886, 2)
+    expect(sol.totals.efficiency.value).toBeCloseTo(0.26, 2)
+  })
+
+  test('quality at the turbine exit from x = (h − h_f)/h_fg', () => {
+    const q = line(ws, 'States', 'x_{4} = \\frac{h_{4} - h_f}{h_{fg}}')
+    expect(lastNumber(q)).toBe(Number(p4(sol.states[3]!.x!)))
+    expect(q).toContain(`\\frac{${p4(sol.states[3]!.h.value / 1000)} - `)
+  })
+
+  test('devices with enthalpy differences, efficiency and back work ratio from the solution', () => {
+    expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = h_{3} - h_{4}'))).toBe(Number(p4(sol.totals.turbineWork.value / 1000)))
+    expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{pump,in}} = h_{2} - h_{1}'))).toBe(Number(p4(sol.totals.pumpWork.value / 1000)))
+    expect(lastNumber(line(ws, 'Devices', 'Q_{\\mathrm{boiler}} = h_{3} - h_{2}'))).toBe(Number(p4(sol.totals.heatIn.value / 1000)))
+    expect(lastNumber(line(ws, 'Cycle totals', '\\eta = '))).toBe(Number(p4(sol.totals.efficiency.value)))
+    expect(lastNumber(line(ws, 'Cycle totals', '\\mathrm{bwr}'))).toBe(Number(p4(sol.totals.backWorkRatio.value)))
+  })
+
+  test('carries the caution that steam numbers are teaching values', () => {
+    expect(ws.caution).toBe(sol.notice)
+    expect(ws.caution).toMatch(/not design data/)
+    expect(ws.caution).toMatch(/licensed engineering practice/)
+    expect(renderWorkedSolution(ws)).toContain('<p class="worked-caution" role="note">')
+  })
+})
+
+describe('workedSolution: other cycles render without TeX errors', () => {
+  test.each([
+    ['brayton with component efficiencies', { template: 'brayton', inputs: { gas: 'air', p1: '100 kPa', T1: '300 K', pressureRatio: 8, turbineInletT: '1300 K', compressorEfficiency: 0.8, turbineEfficiency: 0.85 } }],
+    ['stirling, chemistry', { template: 'stirling', convention: 'chemistry', inputs: { gas: 'monatomic', amount: '0.1 mol', Th: '700 K', Tc: '300 K', p1: '500 kPa', compressionRatio: 3 } }],
+    ['carnot refrigerator', { template: 'carnot-refrigerator', inputs: { gas: 'air', Th: '35 °C', Tc: '-5 °C', p1: '100 kPa', expansionRatio: 1.5 } }],
+    ['regenerative brayton, NASA gas', { template: 'brayton-regenerative', inputs: { gas: 'nasa:dry-air', p1: '100 kPa', T1: '300 K', pressureRatio: 6, turbineInletT: '1200 K', regeneratorEffectiveness: 0.8, amount: '1 kg' } }],
+    ['general polytropic cycle', { convention: 'chemistry', cycle: { gas: { basis: 'mole', cv: '12.47 J/(mol K)' }, amount: '2 mol', states: [{ name: 'A', p: '1 bar', V: '40 L' }, { name: 'B', p: '3 bar' }, { name: 'C', V: '40 L' }], steps: [{ process: 'polytropic', n: 1.3 }, { process: 'isobaric' }, { process: 'isochoric' }] } }],
+    ['rankine with reheat', { template: 'rankine-reheat', inputs: { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C', reheatPressure: '4 MPa', reheatTemperature: '600 °C' } }],
+  ])('%s', (_name, spec) => {
+    const variant = variantOf(spec, [], () => [])
+    const ws = workedSolution(variant, definition([], { kind: 'template', template: 'x', inputs: {} }))
+    const html = renderWorkedSolution(ws)
+    expect(html).not.toContain('katex-error')
+    expect(html).not.toMatch(/NaN|Infinity|undefined/)
+    expect(html.match(/<math/g)?.length).toBe(ws.sections.reduce((n, s) => n + s.lines.length, 0))
+  })
+
+  test('polytropic: n from the states agrees with the n given', () => {
+    const spec = { cycle: { gas: { basis: 'mole', cv: '12.47 J/(mol K)' }, states: [{ p: '1 bar', V: '40 L' }, { p: '3 bar' }, { V: '40 L' }], amount: '2 mol', steps: [{ process: 'polytropic', n: 1.3 }, { process: 'isobaric' }, { process: 'isochoric' }] } }
+    const ws = workedSolution(variantOf(spec, [], () => []), definition([], { kind: 'cycle', cycle: {} }))
+    expect(lastNumber(line(ws, 'Step 1 → 2', 'n = '))).toBe(1.3)
+  })
+})
