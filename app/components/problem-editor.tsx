@@ -107,6 +107,9 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
   const [ruleKinds, setRuleKinds] = useState(() => Array.from({ length: rows.givens }, (_, i) => values[`givens.${i}.rule.kind`] || 'range'))
   const [sourceKinds, setSourceKinds] = useState(() => Array.from({ length: rows.finds }, (_, i) => values[`finds.${i}.source.kind`] || 'output'))
   const [toleranceKinds, setToleranceKinds] = useState(() => Array.from({ length: rows.finds }, (_, i) => values[`finds.${i}.tolerance.kind`] || 'relative'))
+  // Template inputs typed before a switch of template come back when a template with the
+  // same input is chosen again (the inputs unmount while another template is shown).
+  const typedInputs = useRef<Record<string, string>>({})
   const [draft, setDraft] = useState<{ json: string; convention: string; formIssues: FormIssue[] } | null>(null)
   const [previewConvention, setPreviewConvention] = useState(values._previewConvention || 'engineering')
   const errors = issuesByField(issues)
@@ -165,11 +168,15 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
       {errorText(path)}
     </div>
   )
-  const textInput = (path: string, extra: { ariaLabel?: string; placeholder?: string; hint?: boolean; list?: string; inputMode?: 'decimal' | 'numeric'; required?: boolean } = {}) => (
+  const textInput = (
+    path: string,
+    extra: { ariaLabel?: string; placeholder?: string; hint?: boolean; list?: string; inputMode?: 'decimal' | 'numeric'; required?: boolean; remember?: boolean } = {},
+  ) => (
     <input
       id={fieldId(path)}
       name={path}
-      defaultValue={v(path)}
+      defaultValue={extra.remember ? (typedInputs.current[path] ?? v(path)) : v(path)}
+      onChange={extra.remember ? (e) => (typedInputs.current[path] = e.target.value) : undefined}
       aria-label={extra.ariaLabel}
       aria-invalid={invalid(path)}
       aria-describedby={describedBy(path, extra.hint)}
@@ -576,7 +583,7 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                         <>
                           <code>{input.name}</code> <span className="font-normal text-muted">({input.required ? 'required' : 'optional'})</span>
                         </>,
-                        textInput(path, { hint: true, list: `${datalistId}-givens` }),
+                        textInput(path, { hint: true, list: `${datalistId}-givens`, remember: true }),
                         <>
                           {input.description}
                           {input.unit ? `; in ${input.unit}` : ''}
