@@ -4,8 +4,8 @@
  * tell reversible paths from irreversible ones, so the figure survives black-and-white print.
  */
 import { useId } from 'react'
-import { describePlot } from '#app/domain/authoring/diagrams.ts'
-import type { Axis, CycleDiagrams as Diagrams, Plot } from '#app/domain/authoring/diagrams.ts'
+import { describePlot } from '#app/domain/authoring/diagram-plot.ts'
+import type { Axis, CycleDiagrams as Diagrams, Plot } from '#app/domain/authoring/diagram-plot.ts'
 
 const W = 480
 const H = 360

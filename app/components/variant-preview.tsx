@@ -40,7 +40,7 @@ export function VariantPreview({ variants, showKey = true }: { variants: readonl
 function VariantColumn({ variant: v, showKey }: { variant: PreviewVariant; showKey: boolean }) {
   const headingId = `variant-${v.seed}-title`
   return (
-    <article aria-labelledby={headingId} className="flex min-w-0 flex-col gap-3 rounded-lg border border-line bg-white p-4 shadow-sm">
+    <article aria-labelledby={headingId} data-variant-seed={v.seed} className="flex min-w-0 flex-col gap-3 rounded-lg border border-line bg-white p-4 shadow-sm">
       <h3 id={headingId} className="text-lg font-semibold">
         Variant (seed {v.seed})
       </h3>

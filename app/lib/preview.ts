@@ -3,7 +3,7 @@
  * variants, the problem page): per seed, the prompt as the student sees it, the key, the
  * worked solution and the diagrams, or why that variant could not be drawn. Isomorphic types.
  */
-import type { CycleDiagrams } from '#app/domain/authoring/diagrams.ts'
+import type { CycleDiagrams } from '#app/domain/authoring/diagram-plot.ts'
 import type { DrawnGiven, KeyEntry, VariantError } from '#app/domain/authoring/definition.ts'
 
 export type PreviewVariant =
