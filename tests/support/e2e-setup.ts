@@ -105,7 +105,8 @@ export default async function setup(project: TestProject) {
   project.provide('e2eDatabaseUrl', url)
   return async () => {
     for (const c of [worker, child]) c.kill('SIGTERM')
-    await Promise.all([exited(worker, 12_000), exited(child, 500)])
+    // vitest gives a global teardown 10 s; a test worker has nothing worth a longer graceful stop.
+    await Promise.all([exited(worker, 4_000), exited(child, 500)])
     if (/Error|error/.test(output + workerOutput) && process.env.E2E_SHOW_SERVER_LOG === '1') console.log(output, workerOutput)
     await dropDatabase(server, name)
   }
