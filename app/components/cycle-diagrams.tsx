@@ -270,11 +270,11 @@ export function CycleDiagram({ plot }: { plot: Plot }) {
   )
 }
 
-/** Both diagrams side by side, stacked on narrow screens. */
-export function CycleDiagrams({ diagrams, caption }: { diagrams: Diagrams; caption?: string }) {
+/** Both diagrams side by side, stacked on narrow screens or, with `stacked`, always (in a narrow column). */
+export function CycleDiagrams({ diagrams, caption, stacked = false }: { diagrams: Diagrams; caption?: string; stacked?: boolean }) {
   return (
     <figure className="my-4 break-inside-avoid">
-      <div className="grid gap-6 md:grid-cols-2">
+      <div className={stacked ? 'grid gap-4' : 'grid gap-6 md:grid-cols-2'}>
         <CycleDiagram plot={diagrams.pv} />
         <CycleDiagram plot={diagrams.ts} />
       </div>

@@ -125,7 +125,7 @@ function VariantColumn({ variant: v, showKey }: { variant: PreviewVariant; showK
               <div className="mt-2 overflow-x-auto leading-relaxed" dangerouslySetInnerHTML={{ __html: v.workedHtml }} />
             </details>
           ) : null}
-          <CycleDiagrams diagrams={v.diagrams} caption={`Seed ${v.seed}`} />
+          <CycleDiagrams diagrams={v.diagrams} caption={`P–v and T–s diagrams of seed ${v.seed}`} stacked />
         </>
       )}
     </article>
