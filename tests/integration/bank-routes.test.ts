@@ -1,0 +1,170 @@
+/**
+ * The bank's routes called with real Requests against PostgreSQL: the JSON API under /api/
+ * (same permission checks as the pages, JSON errors), the preview, the export download and
+ * the import upload's refusals (nothing written).
+ */
+import { count } from 'drizzle-orm'
+import { describe, expect, test } from 'vitest'
+import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { action as previewAction } from '#app/routes/resources/api-preview.ts'
+import { loader as problemLoader } from '#app/routes/resources/api-problem.ts'
+import { loader as problemsLoader } from '#app/routes/resources/api-problems.ts'
+import { loader as exportLoader } from '#app/routes/resources/bank-export.ts'
+import { action as importAction, MAX_IMPORT_BYTES } from '#app/routes/bank/import.tsx'
+import { db } from '#app/server/db/client.server.ts'
+import { problems } from '#app/server/db/schema.server.ts'
+import { createProblem } from '#app/server/problems.server.ts'
+import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
+import { addMember, createBankUser, createCourse, createUser } from '#tests/support/factories.ts'
+import { args, BASE, getRequest, settle } from '#tests/support/requests.ts'
+
+async function cookieFor(userId: number): Promise<string> {
+  const row = await createSessionRow(db(), userId)
+  const session = await sessionStorage().getSession()
+  session.set('sid', row.id)
+  return (await sessionStorage().commitSession(session)).split(';')[0]!
+}
+
+function carnot(title = 'Carnot drill'): ProblemDefinition {
+  return {
+    format: 1,
+    title,
+    tags: { topics: ['carnot'], difficulty: 'introductory', level: 'first-year' },
+    convention: 'course',
+    prompt: 'An engine runs between $T_H =$ @{Th} and 300 K.',
+    givens: [{ name: 'Th', label: 'hot reservoir', unit: 'K', rule: { kind: 'range', min: 500, max: 900, step: 50 } }],
+    constraints: [],
+    physics: {
+      kind: 'template',
+      template: 'carnot-engine',
+      inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: '300 K', p1: '1000 kPa', expansionRatio: '2' },
+    },
+    finds: [{ name: 'eta', label: 'Efficiency', source: { kind: 'output', path: 'totals.efficiency' }, unit: '', points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] }],
+  }
+}
+
+function postJson(path: string, body: unknown, cookie?: string) {
+  return new Request(`${BASE}${path}`, {
+    method: 'POST',
+    body: typeof body === 'string' ? body : JSON.stringify(body),
+    headers: { 'Content-Type': 'application/json', ...(cookie ? { Cookie: cookie } : {}) },
+  })
+}
+
+async function json(r: Response) {
+  return { status: r.status, body: (await r.json()) as Record<string, unknown> }
+}
+
+describe('POST /api/preview', () => {
+  test('draws the seeded variants with prompt HTML (MathML), key and diagrams; the key is the Carnot efficiency 1 − Tc/Th', async () => {
+    const { user } = await createBankUser(db())
+    const res = await json((await previewAction(args(postJson('/api/preview', { definition: carnot(), seeds: [1, 2, 3, 4] }, await cookieFor(user.id))))) as Response)
+    expect(res.status).toBe(200)
+    const body = res.body as unknown as { issues: unknown[]; variants: { ok: boolean; givens: { value: number }[]; key: { value: number }[]; promptHtml: string; diagrams: { pv: { curves: unknown[] } } }[] }
+    expect(body.issues).toEqual([])
+    expect(body.variants).toHaveLength(4)
+    for (const v of body.variants) {
+      expect(v.ok).toBe(true)
+      // Carnot efficiency of a reversible engine (common practice).
+      expect(v.key[0]!.value).toBeCloseTo(1 - 300 / v.givens[0]!.value, 9)
+      expect(v.promptHtml).toContain('<math')
+      expect(v.diagrams.pv.curves).toHaveLength(4)
+    }
+  })
+
+  test('a half-written problem comes back as issues by field, not an error', async () => {
+    const { user } = await createBankUser(db())
+    const def = { ...carnot(), givens: [{ name: '1bad', label: '', unit: 'K', rule: { kind: 'range', min: 5, max: 1, step: 0 } }] }
+    const res = await json((await previewAction(args(postJson('/api/preview', { definition: def }, await cookieFor(user.id))))) as Response)
+    expect(res.status).toBe(200)
+    const issues = res.body.issues as { path: string }[]
+    expect(issues.some((i) => i.path.startsWith('givens.0'))).toBe(true)
+    expect(res.body.variants).toEqual([])
+  })
+
+  test('junk bodies get a JSON 400 with a message', async () => {
+    const { user } = await createBankUser(db())
+    const cookie = await cookieFor(user.id)
+    for (const body of ['{not json', JSON.stringify({ definition: carnot(), seeds: 'many' }), JSON.stringify({ definition: carnot(), seeds: [1, 2, 3, 4, 5, 6, 7] })]) {
+      const res = await json((await previewAction(args(postJson('/api/preview', body, cookie)))) as Response)
+      expect(res.status).toBe(400)
+      expect(typeof res.body.error).toBe('string')
+    }
+  })
+
+  test('signed out gets 401 and a student 403, as JSON', async () => {
+    const signedOut = await settle(previewAction(args(postJson('/api/preview', { definition: carnot() }))))
+    expect('thrown' in signedOut && (signedOut.thrown as Response).status).toBe(401)
+    const student = await createUser(db())
+    const course = await createCourse(db())
+    await addMember(db(), student.id, course.id, 'student')
+    const r = await settle(previewAction(args(postJson('/api/preview', { definition: carnot() }, await cookieFor(student.id)))))
+    expect('thrown' in r).toBe(true)
+    const res = await json((r as { thrown: Response }).thrown)
+    expect(res.status).toBe(403)
+    expect(res.body.error).toMatch(/instructors/)
+  })
+})
+
+describe('GET /api/problems and /api/problems/:id', () => {
+  test('list and fetch follow visibility: a private problem of another instructor is not there', async () => {
+    const a = await createBankUser(db())
+    const b = await createBankUser(db())
+    const mine = await createProblem(db(), a.viewer, { definition: carnot('Mine'), visibility: 'private' })
+    const shared = await createProblem(db(), b.viewer, { definition: carnot('Shared with all'), visibility: 'installation' })
+    const hidden = await createProblem(db(), b.viewer, { definition: carnot('Hidden'), visibility: 'private' })
+    const cookie = await cookieFor(a.user.id)
+    const list = await json((await problemsLoader(args(getRequest('/api/problems?sort=title&dir=asc', { Cookie: cookie })))) as Response)
+    expect((list.body.rows as { title: string }[]).map((r) => r.title)).toEqual(['Mine', 'Shared with all'])
+    const one = await json((await problemLoader(args(getRequest(`/api/problems/${shared.problemId}`, { Cookie: cookie }), { problemId: String(shared.problemId) }))) as Response)
+    expect(one.status).toBe(200)
+    expect(one.body.canEdit).toBe(false)
+    const own = await json((await problemLoader(args(getRequest(`/api/problems/${mine.problemId}`, { Cookie: cookie }), { problemId: String(mine.problemId) }))) as Response)
+    expect(own.body.canEdit).toBe(true)
+    const none = await json((await problemLoader(args(getRequest(`/api/problems/${hidden.problemId}`, { Cookie: cookie }), { problemId: String(hidden.problemId) }))) as Response)
+    expect(none.status).toBe(404)
+    const junk = await settle(problemLoader(args(getRequest('/api/problems/abc', { Cookie: cookie }), { problemId: 'abc' })))
+    expect('thrown' in junk && (junk.thrown as Response).status).toBe(404)
+  })
+})
+
+describe('export and import', () => {
+  test('export of a problem you cannot see is refused; junk ids get a 400', async () => {
+    const a = await createBankUser(db())
+    const b = await createBankUser(db())
+    const hidden = await createProblem(db(), b.viewer, { definition: carnot('Hidden'), visibility: 'private' })
+    const cookie = await cookieFor(a.user.id)
+    const refused = await settle(exportLoader(args(getRequest(`/bank/export?ids=${hidden.problemId}`, { Cookie: cookie }))))
+    expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(404)
+    const junk = await settle(exportLoader(args(getRequest('/bank/export?ids=1;drop', { Cookie: cookie }))))
+    expect('thrown' in junk && (junk.thrown as { init: { status: number } }).init.status).toBe(400)
+    const mine = await createProblem(db(), a.viewer, { definition: carnot('Mine'), visibility: 'private' })
+    const ok = (await exportLoader(args(getRequest(`/bank/export?ids=${mine.problemId}`, { Cookie: cookie })))) as Response
+    expect(ok.headers.get('Content-Disposition')).toMatch(/attachment; filename="cyclewright-bank-\d{4}-\d{2}-\d{2}\.json"/)
+    const doc = (await ok.json()) as { problems: { definition: ProblemDefinition }[] }
+    expect(doc.problems[0]!.definition).toEqual(carnot('Mine'))
+  })
+
+  test('an oversized file, a file that is not JSON, and no file are refused with a message and write nothing', async () => {
+    const a = await createBankUser(db())
+    const cookie = await cookieFor(a.user.id)
+    const before = (await db().select({ n: count() }).from(problems))[0]!.n
+    const upload = (content: string | null, name = 'bank.json') => {
+      const form = new FormData()
+      if (content !== null) form.set('document', new File([content], name, { type: 'application/json' }))
+      return new Request(`${BASE}/bank/import`, { method: 'POST', body: form, headers: { Cookie: cookie } })
+    }
+    const cases: [Request, number, RegExp][] = [
+      [upload('x'.repeat(MAX_IMPORT_BYTES + 1)), 413, /larger than 2 MB/],
+      [upload('this is not json', 'notes.txt'), 400, /not a JSON document/],
+      [upload(null), 400, /Choose a bank document/],
+      [upload(JSON.stringify({ format: 'someone-else', version: 1, problems: [] })), 400, /Nothing was imported/],
+    ]
+    for (const [request, status, message] of cases) {
+      const r = (await importAction(args(request))) as unknown as { data: { formError: string }; init: { status: number } }
+      expect(r.init.status).toBe(status)
+      expect(r.data.formError).toMatch(message)
+    }
+    expect((await db().select({ n: count() }).from(problems))[0]!.n).toBe(before)
+  })
+})
