@@ -3,7 +3,7 @@
  * (same permission checks as the pages, JSON errors), the preview, the export download and
  * the import upload's refusals (nothing written).
  */
-import { count } from 'drizzle-orm'
+import { count, eq } from 'drizzle-orm'
 import { describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { action as previewAction } from '#app/routes/resources/api-preview.ts'
@@ -11,9 +11,12 @@ import { loader as problemLoader } from '#app/routes/resources/api-problem.ts'
 import { loader as problemsLoader } from '#app/routes/resources/api-problems.ts'
 import { loader as exportLoader } from '#app/routes/resources/bank-export.ts'
 import { action as importAction, MAX_IMPORT_BYTES } from '#app/routes/bank/import.tsx'
+import { action as newAction } from '#app/routes/bank/new.tsx'
+import { action as editAction } from '#app/routes/bank/edit.tsx'
+import { formValuesFromDefinition } from '#app/lib/problem-form.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { problems } from '#app/server/db/schema.server.ts'
-import { createProblem } from '#app/server/problems.server.ts'
+import { problems, problemVersions } from '#app/server/db/schema.server.ts'
+import { createProblem, freezeProblemVersion } from '#app/server/problems.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { addMember, createBankUser, createCourse, createUser } from '#tests/support/factories.ts'
 import { args, BASE, getRequest, settle } from '#tests/support/requests.ts'
@@ -166,5 +169,54 @@ describe('export and import', () => {
       expect(r.data.formError).toMatch(message)
     }
     expect((await db().select({ n: count() }).from(problems))[0]!.n).toBe(before)
+  })
+})
+
+describe('the editor form', () => {
+  function editorForm(def: ProblemDefinition, extra: Record<string, string>, cookie: string, path = '/bank/new') {
+    const body = new URLSearchParams({ ...formValuesFromDefinition(def), visibility: 'private', ...extra })
+    return new Request(`${BASE}${path}`, { method: 'POST', body, headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie } })
+  }
+
+  test('a valid form saves version 1 and redirects to the problem; a bad one returns 400 with issues by field and saves nothing', async () => {
+    const { user } = await createBankUser(db())
+    const cookie = await cookieFor(user.id)
+    const saved = (await newAction(args(editorForm(carnot('Saved from the form'), { intent: 'save' }, cookie)))) as Response
+    expect(saved.status).toBe(302)
+    const id = Number(saved.headers.get('Location')!.split('/').pop())
+    const [version] = await db().select().from(problemVersions).where(eq(problemVersions.problemId, id))
+    expect(version!.number).toBe(1)
+    expect(version!.definition).toEqual(carnot('Saved from the form'))
+
+    const before = (await db().select({ n: count() }).from(problems))[0]!.n
+    const bad = (await newAction(args(editorForm(carnot('Broken'), { intent: 'save', 'givens.0.rule.min': 'warm', 'finds.0.source.path': 'totals.nothingHere' }, cookie)))) as unknown as {
+      data: { issues: { path: string }[]; state: { values: Record<string, string> } }
+      init: { status: number }
+    }
+    expect(bad.init.status).toBe(400)
+    expect(bad.data.issues.map((i) => i.path)).toContain('givens.0.rule.min')
+    // What the author typed comes back as typed.
+    expect(bad.data.state.values['givens.0.rule.min']).toBe('warm')
+    expect((await db().select({ n: count() }).from(problems))[0]!.n).toBe(before)
+
+    const unknownIntent = (await newAction(args(editorForm(carnot(), { intent: 'launch' }, cookie)))) as unknown as { init: { status: number } }
+    expect(unknownIntent.init.status).toBe(400)
+  })
+
+  test('saving a frozen version makes the next one; someone else cannot save', async () => {
+    const a = await createBankUser(db())
+    const b = await createBankUser(db())
+    const made = await createProblem(db(), a.viewer, { definition: carnot('Frozen drill'), visibility: 'installation' })
+    await freezeProblemVersion(db(), made.versionId)
+    const path = `/bank/${made.problemId}/edit`
+    const params = { problemId: String(made.problemId) }
+    const changed = { ...carnot('Frozen drill'), prompt: 'Changed after the freeze: @{Th}.' }
+    const saved = (await editAction(args(editorForm(changed, { intent: 'save' }, await cookieFor(a.user.id), path), params))) as Response
+    expect(saved.status).toBe(302)
+    const versions = await db().select().from(problemVersions).where(eq(problemVersions.problemId, made.problemId))
+    expect(versions.map((v) => v.number).sort()).toEqual([1, 2])
+    expect((versions.find((v) => v.number === 1)!.definition as ProblemDefinition).prompt).toBe(carnot().prompt)
+    const refused = await settle(editAction(args(editorForm(changed, { intent: 'save' }, await cookieFor(b.user.id), path), params)))
+    expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(403)
   })
 })

@@ -1,0 +1,92 @@
+/**
+ * What the editor's two pages (new problem, edit problem) share on the server: the template
+ * and pitfall lists the form offers, and the action for every button of the form — adding a
+ * row, switching template, previewing without JavaScript, and checking a draft before it is
+ * saved. Only the save itself differs (create or new version), so the routes pass it in.
+ */
+import { data, redirect } from 'react-router'
+import { z } from 'zod'
+import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { lintDefinition } from '#app/domain/authoring/lint.ts'
+import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
+import { RANKINE_TEMPLATES, templates } from '#app/domain/thermo/templates/index.ts'
+import { buildEditorOptions, definitionFromForm, editorStateFromForm, findTemplate, keepTemplateInputs, mergeIssues, type EditorState, type FormIssue } from '#app/lib/problem-form.ts'
+import { parseDefinition, VISIBILITIES } from '#app/lib/problem-schema.ts'
+import type { PreviewResult } from '#app/lib/preview.ts'
+import { previewProblem } from './preview.server.ts'
+import { InvalidDefinitionError, ProblemAccessError } from './problems.server.ts'
+
+const IntentSchema = z.enum(['save', 'preview', 'add-given', 'add-constraint', 'add-find', 'change-template'])
+const VisibilitySchema = z.enum(VISIBILITIES)
+const PreviewConventionSchema = z.enum(['chemistry', 'engineering']).catch('engineering')
+
+export type EditorAnswer = { state: EditorState; issues: FormIssue[]; preview: PreviewResult | null; nonce: string }
+export type SavableProblem = { definition: ProblemDefinition; visibility: z.infer<typeof VisibilitySchema> }
+
+export function editorOptions() {
+  return buildEditorOptions(Object.values(templates), RANKINE_TEMPLATES, PITFALLS)
+}
+
+function answer(state: EditorState, issues: FormIssue[] = [], preview: PreviewResult | null = null): EditorAnswer {
+  // A fresh nonce remounts the editor, so the refilled values replace what the browser kept.
+  return { state, issues, preview, nonce: crypto.randomUUID() }
+}
+
+/**
+ * Handles one submission of the editor form. `save` stores a checked problem and returns the
+ * problem's id; it may throw ProblemAccessError (403) or InvalidDefinitionError (shown on the form).
+ */
+export async function runEditorAction(form: FormData, save: (problem: SavableProblem) => Promise<number>) {
+  const intent = IntentSchema.safeParse(form.get('intent'))
+  if (!intent.success) return data(answer(editorStateFromForm(form), [{ path: 'title', message: 'Use one of the buttons at the bottom of the form.' }]), { status: 400 })
+  switch (intent.data) {
+    case 'add-given':
+      return answer(editorStateFromForm(form, 'givens'))
+    case 'add-constraint':
+      return answer(editorStateFromForm(form, 'constraints'))
+    case 'add-find':
+      return answer(editorStateFromForm(form, 'finds'))
+    case 'change-template': {
+      const state = editorStateFromForm(form)
+      const chosen = findTemplate(editorOptions(), state.values['physics.template'] ?? '')
+      return answer({ ...state, values: keepTemplateInputs(state.values, chosen?.inputs.map((i) => i.name) ?? []) })
+    }
+    case 'preview': {
+      const { draft, formIssues } = definitionFromForm(form)
+      const result = previewProblem(draft, { convention: PreviewConventionSchema.parse(form.get('_previewConvention')) })
+      return answer(editorStateFromForm(form), [], { ...result, issues: mergeIssues(formIssues, result.issues) })
+    }
+    case 'save': {
+      const checked = checkForSave(form)
+      if (!checked.ok) return data(answer(editorStateFromForm(form), checked.issues), { status: 400 })
+      let problemId: number
+      try {
+        problemId = await save(checked.value)
+      } catch (e) {
+        if (e instanceof ProblemAccessError) throw data(e.message, { status: 403 })
+        if (!(e instanceof InvalidDefinitionError)) throw e
+        return data(answer(editorStateFromForm(form), [{ path: 'title', message: e.message }]), { status: 400 })
+      }
+      return redirect(`/bank/${problemId}`)
+    }
+  }
+}
+
+/** The form's definition when it passes the shape check and the lint, else every issue by field. */
+function checkForSave(form: FormData): { ok: true; value: SavableProblem } | { ok: false; issues: FormIssue[] } {
+  const { draft, visibility, formIssues } = definitionFromForm(form)
+  const vis = VisibilitySchema.safeParse(visibility)
+  const own = vis.success ? formIssues : [...formIssues, { path: 'visibility', message: 'Choose who can use the problem.' }]
+  const parsed = parseDefinition(draft)
+  if (!parsed.ok) return { ok: false, issues: mergeIssues(own, parsed.issues) }
+  if (own.length > 0 || !vis.success) return { ok: false, issues: own }
+  let lint: FormIssue[]
+  try {
+    lint = lintDefinition(parsed.value)
+  } catch (e) {
+    console.error('lintDefinition failed', e)
+    lint = [{ path: 'physics.template', message: 'The problem could not be checked just now; please try again, and report it if it persists.' }]
+  }
+  if (lint.length > 0) return { ok: false, issues: lint }
+  return { ok: true, value: { definition: parsed.value, visibility: vis.data } }
+}
