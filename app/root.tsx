@@ -11,6 +11,8 @@ import { getUser } from './server/auth.server.ts'
 
 export const meta: Route.MetaFunction = () => [{ title: 'Cyclewright' }]
 
+export const links: Route.LinksFunction = () => [{ rel: 'icon', href: '/favicon.svg', type: 'image/svg+xml' }]
+
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request)
   const navUser: NavUser | null = user
