@@ -70,6 +70,12 @@ test.each<[string, string, Edit, RegExp]>([
   ['a relative tolerance on a °C value', 'finds.3.tolerance', (d) => ({ ...d, finds: [...d.finds, { name: 'T1out', label: 'T1', source: { kind: 'output', path: 'states.1.T' }, unit: 'degC', points: 1, tolerance: rel, pitfalls: [] }] }), /absolute scale/],
   ['an expression given with no real value in the trial', 'givens.3.rule.expression', (d) => givenAt(d, 3, { rule: { kind: 'expression', expression: 'T1 + sqrt(200 K^2 - T1^2) / 1' } }), /no real value/],
   ['a trial variant that does not solve', 'physics', (d) => inputs(d, { heatIn: '-5000 kJ/kg' }), /does not solve/],
+  // r = V_max/V_min > 1 by definition (Çengel & Boles, Otto cycle, from memory)
+  ['a compression ratio the solver refuses', 'physics.inputs.compressionRatio', (d) => inputs(d, { compressionRatio: '0.5' }), /does not solve: compressionRatio must exceed 1/],
+  ['a gas the solver does not know', 'physics.inputs.gas', (d) => inputs(d, { gas: 'unobtainium' }), /unknown gas "unobtainium"/],
+  // heat is rejected at the lower of the two pressures (Çengel & Boles, Rankine cycle, from memory)
+  ['a Rankine condenser pressure above the boiler pressure', 'physics.inputs.condenserPressure', (d) => ({ ...d, physics: { kind: 'template', template: 'rankine', inputs: { boilerPressure: '10 MPa', condenserPressure: '12 MPa', turbineInletTemperature: '500 degC' } } }), /condenserPressure must be below boilerPressure/],
+  ['a general cycle that does not solve', 'physics.cycle', (d) => ({ ...d, physics: { kind: 'cycle', cycle: { gas: 'air', system: 'closed', states: [{ p: 'p1', T: '-3 K' }, {}, {}, {}], steps: [{ process: 'isentropic', compressionRatio: 'r' }, { process: 'isochoric', heat: '800 kJ/kg' }, { process: 'isentropic' }, { process: 'isochoric' }] } } }), /does not solve/],
   ['a constraint never met in the trial', 'constraints.0', (d) => ({ ...d, constraints: [{ left: 'T1', op: '>', right: '400 K', message: 'T1 must exceed 400 K' }] }), /T1 must exceed 400 K/],
 ])('%s is reported at %s', (_what, path, edit, message) => {
   const findings = lintDefinition(edit(good))

@@ -17,7 +17,7 @@ import { describeCompileError, drawGivens, isNumericGiven, rangeSteps } from './
 import { parsePlaceholders } from './placeholders.ts'
 import { previewSeeds } from './seed.ts'
 import { PLACEHOLDER, buildSpec } from './substitute.ts'
-import { convertFromSI, drawVariant, resolveConvention, unitAtPath } from './variant.ts'
+import { convertFromSI, drawVariant, resolveConvention, solverErrorPath, unitAtPath } from './variant.ts'
 
 export interface LintFinding {
   readonly path: string
@@ -192,7 +192,7 @@ function trial(def: ProblemDefinition, add: (path: string, message: string) => v
   }
   const solved = solveSpec(buildSpec(def, drawn.givens, convention))
   if (!solved.ok) {
-    add('physics', `the trial variant (seed ${seed}) does not solve: ${solved.error.message}`)
+    add(solverErrorPath(def.physics, solved.error.property), `the trial variant (seed ${seed}) does not solve: ${solved.error.message}`)
     return
   }
   let outputsOk = true
@@ -215,7 +215,8 @@ function trial(def: ProblemDefinition, add: (path: string, message: string) => v
   const r = drawVariant(def, seed, { convention })
   if (!r.ok) {
     const fi = def.finds.findIndex((f) => f.name === r.error.property)
-    add(fi >= 0 ? findSourcePath(def.finds[fi]!, fi) : 'physics', r.error.message.replace(/^Find "[^"]*": /, ''))
+    const physicsPath = r.error.code === 'solve-error' && r.error.property?.startsWith('physics') ? r.error.property : 'physics'
+    add(fi >= 0 ? findSourcePath(def.finds[fi]!, fi) : physicsPath, r.error.message.replace(/^Find "[^"]*": /, ''))
     return
   }
   r.variant.key.forEach((k, i) => {

@@ -159,7 +159,34 @@ test('a Brayton variant whose turbine inlet is below the compressor exit is a so
   if (!r.ok) {
     expect(r.error.code).toBe('solve-error')
     expect(r.error.message.length).toBeGreaterThan(10)
+    // The solver blames state 3's temperature, which no input of the problem names as such.
+    expect(r.error.property).toBe('physics')
   }
+})
+
+const ottoInputs = { gas: 'air', p1: '100 kPa', T1: '300 K', compressionRatio: '8', heatIn: '800 kJ/kg' }
+const rankineInputs = { boilerPressure: '10 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '500 degC' }
+
+test.each<[string, Given[], Physics, string, RegExp]>([
+  // r = V_max/V_min > 1 by definition (Çengel & Boles, Otto cycle, from memory)
+  ['an Otto compression ratio below 1, written as a literal', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, compressionRatio: '0.5' } }, 'physics.inputs.compressionRatio', /compressionRatio must exceed 1/],
+  ['an Otto compression ratio below 1, drawn from a given', [{ name: 'r', label: 'compression ratio', unit: '', rule: { kind: 'choice', values: [0.5] } }], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, compressionRatio: 'r' } }, 'physics.inputs.compressionRatio', /exceed 1/],
+  // heat is rejected at the lower of the two pressures (Çengel & Boles, Rankine cycle, from memory)
+  ['a Rankine condenser pressure above the boiler pressure', [], { kind: 'template', template: 'rankine', inputs: { ...rankineInputs, condenserPressure: '12 MPa' } }, 'physics.inputs.condenserPressure', /below boilerPressure/],
+  // the turbine inlet must be superheated vapour: T_sat(10 MPa) ≈ 311 °C (IAPWS-IF97 tables, from memory)
+  ['a Rankine turbine inlet below saturation', [], { kind: 'template', template: 'rankine', inputs: { ...rankineInputs, turbineInletTemperature: '200 degC' } }, 'physics.inputs.turbineInletTemperature', /saturation/],
+  ['an Otto input that cannot be read', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, T1: 'warm' } }, 'physics.inputs.T1', /T1/],
+  ['gas constants with a wrong basis (the solver says gas.basis)', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, gas: { basis: 'volume' } as unknown as string } }, 'physics.inputs.gas', /gas\.basis/],
+  ['a refusal about a state the template builds, not an input', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, heatIn: '-5000 kJ/kg' } }, 'physics', /^State 3/],
+  ['a solver message that opens with a plain word', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, gas: 'unobtainium' } }, 'physics.inputs.gas', /^Unknown gas "unobtainium"/],
+  ['a general cycle refused by the solver', otto.givens.slice(), { kind: 'cycle', cycle: { ...(otto.physics as { cycle: object }).cycle, states: [{ p: '100 kPa', T: '-3 K' }, {}, {}, {}] } }, 'physics.cycle', /T must be a positive number/],
+])('%s is a solve-error about %s', (_what, givens, physics, property, message) => {
+  const r = drawVariant(problem(givens, physics, [find('eta', out('totals.efficiency'), '')]), 1, { convention: 'engineering' })
+  expect(r.ok).toBe(false)
+  if (r.ok) return
+  expect(r.error.code).toBe('solve-error')
+  expect(r.error.property).toBe(property)
+  expect(r.error.message).toMatch(message)
 })
 
 test.each([

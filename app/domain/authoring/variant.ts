@@ -12,7 +12,7 @@ import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
 import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
 import { readQuantity, solveSpec } from '#app/domain/thermo/index.ts'
 import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
-import type { DrawResult, DrawnGiven, Find, KeyEntry, ProblemDefinition, VariantError } from './definition.ts'
+import type { DrawResult, DrawnGiven, Find, KeyEntry, Physics, ProblemDefinition, VariantError } from './definition.ts'
 import { describeCompileError, drawGivens, givenScope, isNumericGiven, toScopeValue } from './givens.ts'
 import { buildSpec } from './substitute.ts'
 
@@ -104,8 +104,22 @@ function compileFinds(def: ProblemDefinition): readonly CompiledFind[] {
   return out
 }
 
+/**
+ * Where in the definition a solver refusal belongs, so the editor can show it beside the
+ * field: 'physics.inputs.<input>' when the solver names a template input the author wrote
+ * ('gas.basis' belongs to 'gas'), else 'physics'; a general cycle is 'physics.cycle'.
+ */
+export function solverErrorPath(physics: Physics, property: string | undefined): string {
+  if (physics.kind === 'cycle') return 'physics.cycle'
+  const inputs: unknown = physics.inputs
+  if (property === undefined || typeof inputs !== 'object' || inputs === null) return 'physics'
+  const input = property.split('.')[0]!
+  return input !== '' && Object.hasOwn(inputs, input) ? `physics.inputs.${input}` : 'physics'
+}
+
+/** Capitalised, unless it opens with a name the author typed ("compressionRatio", "gas.basis", "steps[1].q"). */
 function solverMessage(e: { message: string }): string {
-  return e.message.charAt(0).toUpperCase() + e.message.slice(1)
+  return /^[a-z]+\s/.test(e.message) ? e.message.charAt(0).toUpperCase() + e.message.slice(1) : e.message
 }
 
 function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solution: FormattedSolution | FormattedRankine): { ok: true; key: KeyEntry[] } | { ok: false; error: VariantError } {
@@ -160,7 +174,7 @@ export function drawVariant(def: ProblemDefinition, seed: number, options: { rea
     const solved = solveSpec(spec)
     if (!solved.ok) {
       const e = solved.error
-      return { ok: false, seed, error: { code: 'solve-error', message: solverMessage(e), ...(e.property ? { property: e.property } : {}) } }
+      return { ok: false, seed, error: { code: 'solve-error', message: solverMessage(e), property: solverErrorPath(def.physics, e.property) } }
     }
     const key = computeKey(def, drawn.givens, solved)
     if (!key.ok) return { ok: false, seed, error: key.error }
