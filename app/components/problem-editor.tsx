@@ -233,6 +233,7 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
       ) : null}
 
       <Form id={FORM_ID} method="post" ref={formRef} onInput={scheduleDraft} onChange={scheduleDraft} className="flex flex-col gap-8" noValidate>
+        {values._basedOn ? <input type="hidden" id={fieldId('_basedOn')} name="_basedOn" value={values._basedOn} /> : null}
         <section aria-labelledby="basics-title" className="rounded-lg border border-line bg-white p-6 shadow-sm">
           <h2 id="basics-title" className="text-xl font-semibold">
             Basics

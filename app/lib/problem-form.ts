@@ -520,6 +520,7 @@ const FIELD_WORDS: Record<string, string> = {
   finds: 'Finds',
   'physics.template': 'Cycle',
   'physics.cycle': 'Cycle description (JSON)',
+  _basedOn: 'Saved elsewhere',
 }
 
 /** Words for the field an issue is about, for the error summary ("Given 2, step"). */

@@ -14,14 +14,14 @@ import { buildEditorOptions, definitionFromForm, editorStateFromForm, findTempla
 import { parseDefinition, VISIBILITIES } from '#app/lib/problem-schema.ts'
 import type { PreviewResult } from '#app/lib/preview.ts'
 import { previewProblem } from './preview.server.ts'
-import { InvalidDefinitionError, ProblemAccessError } from './problems.server.ts'
+import { InvalidDefinitionError, ProblemAccessError, ProblemConflictError } from './problems.server.ts'
 
 const IntentSchema = z.enum(['save', 'preview', 'add-given', 'add-constraint', 'add-find', 'change-template'])
 const VisibilitySchema = z.enum(VISIBILITIES)
 const PreviewConventionSchema = z.enum(['chemistry', 'engineering']).catch('engineering')
 
 export type EditorAnswer = { state: EditorState; issues: FormIssue[]; preview: PreviewResult | null; nonce: string }
-export type SavableProblem = { definition: ProblemDefinition; visibility: z.infer<typeof VisibilitySchema> }
+export type SavableProblem = { definition: ProblemDefinition; visibility: z.infer<typeof VisibilitySchema>; basedOn?: string }
 
 export function editorOptions() {
   return buildEditorOptions(Object.values(templates), RANKINE_TEMPLATES, PITFALLS)
@@ -64,6 +64,12 @@ export async function runEditorAction(form: FormData, save: (problem: SavablePro
         problemId = await save(checked.value)
       } catch (e) {
         if (e instanceof ProblemAccessError) throw data(e.message, { status: 403 })
+        if (e instanceof ProblemConflictError) {
+          // Keep everything typed, and take the newer save as the base: saving again replaces it on purpose.
+          const state = editorStateFromForm(form)
+          const message = `Someone saved this problem after you opened it (at ${e.savedAt.slice(11, 16)} UTC, perhaps in another tab). Your changes are still here; open the problem in a new tab to compare, then save again to replace that version.`
+          return data(answer({ ...state, values: { ...state.values, _basedOn: e.savedAt } }, [{ path: '_basedOn', message }]), { status: 409 })
+        }
         if (!(e instanceof InvalidDefinitionError)) throw e
         return data(answer(editorStateFromForm(form), [{ path: 'title', message: e.message }]), { status: 400 })
       }
@@ -88,5 +94,6 @@ function checkForSave(form: FormData): { ok: true; value: SavableProblem } | { o
     lint = [{ path: 'physics.template', message: 'The problem could not be checked just now; please try again, and report it if it persists.' }]
   }
   if (lint.length > 0) return { ok: false, issues: lint }
-  return { ok: true, value: { definition: parsed.value, visibility: vis.data } }
+  const basedOn = form.get('_basedOn')
+  return { ok: true, value: { definition: parsed.value, visibility: vis.data, ...(typeof basedOn === 'string' && basedOn !== '' ? { basedOn } : {}) } }
 }

@@ -46,6 +46,16 @@ export class InvalidDefinitionError extends Error {
 }
 
 /** An export that cannot be made (nothing to export, or more than a document holds). */
+/** The problem was saved again after the editor loaded it; `savedAt` is that save's time. */
+export class ProblemConflictError extends Error {
+  readonly savedAt: string
+  constructor(savedAt: string) {
+    super('This problem was saved elsewhere after you opened it.')
+    this.name = 'ProblemConflictError'
+    this.savedAt = savedAt
+  }
+}
+
 export class BankExportError extends Error {
   constructor(message: string) {
     super(message)
@@ -210,6 +220,10 @@ export type ProblemDetail = {
   canEdit: boolean
   /** Set on a copy. The origin's id and title only while the viewer may still see it. */
   origin: { problemId: number | null; title: string | null; versionNumber: number | null } | null
+  /** Set on an import: whose problem the bank document said it was. */
+  importedFrom: { title: string; author: string } | null
+  /** When the problem was last saved; the editor sends it back to detect a save made meanwhile. */
+  updatedAt: string
   latest: VersionInfo
   /** Newest first. */
   versions: VersionInfo[]
@@ -254,6 +268,8 @@ async function findProblem(database: Database, problemId: number) {
       departmentId: problems.departmentId,
       originProblemId: problems.originProblemId,
       originVersionId: problems.originVersionId,
+      importedFrom: problems.importedFrom,
+      updatedAt: problems.updatedAt,
     })
     .from(problems)
     .innerJoin(users, eq(users.id, problems.ownerId))
@@ -295,6 +311,8 @@ export async function getProblemDetail(database: Database, viewer: BankViewer, p
     departmentId: problem.departmentId,
     canEdit: canEditProblem(viewer, problem),
     origin,
+    importedFrom: problem.importedFrom ?? null,
+    updatedAt: problem.updatedAt.toISOString(),
     latest,
     versions,
   }
@@ -330,7 +348,7 @@ async function insertProblem(
   database: Database,
   viewer: BankViewer,
   definition: ProblemDefinition,
-  extra: { visibility: ProblemVisibility; originProblemId?: number; originVersionId?: number },
+  extra: { visibility: ProblemVisibility; originProblemId?: number; originVersionId?: number; importedFrom?: { title: string; author: string } },
 ): Promise<{ problemId: number; versionId: number }> {
   const [problem] = await database
     .insert(problems)
@@ -361,14 +379,21 @@ export async function saveProblem(
   database: Database,
   viewer: BankViewer,
   problemId: number,
-  input: { definition: ProblemDefinition; visibility: ProblemVisibility },
+  input: { definition: ProblemDefinition; visibility: ProblemVisibility; basedOn?: string },
 ): Promise<{ versionId: number; versionNumber: number; newVersion: boolean }> {
   const definition = checkedDefinition(input.definition)
   if (!Number.isInteger(problemId) || problemId <= 0) throw new ProblemAccessError()
   return database.transaction(async (tx) => {
     // The row lock makes concurrent saves queue up, so two cannot both pick number n + 1.
-    const [problem] = await tx.select({ id: problems.id, ownerId: problems.ownerId }).from(problems).where(eq(problems.id, problemId)).for('update')
+    const [problem] = await tx
+      .select({ id: problems.id, ownerId: problems.ownerId, updatedAt: problems.updatedAt })
+      .from(problems)
+      .where(eq(problems.id, problemId))
+      .for('update')
     if (!problem || !canEditProblem(viewer, problem)) throw new ProblemAccessError('Only the owner of a problem can change it; make a copy to change your own.')
+    // The editor says which save it started from; a later save (another tab, another device)
+    // must not be overwritten without the author knowing.
+    if (input.basedOn !== undefined && input.basedOn !== problem.updatedAt.toISOString()) throw new ProblemConflictError(problem.updatedAt.toISOString())
     const [latest] = await tx
       .select({ id: problemVersions.id, number: problemVersions.number, frozenAt: problemVersions.frozenAt })
       .from(problemVersions)
@@ -453,6 +478,7 @@ export async function exportBank(database: Database, viewer: BankViewer, problem
       originOwnerId: origins.ownerId,
       originVisibility: origins.visibility,
       originDepartmentId: origins.departmentId,
+      importedFrom: problems.importedFrom,
       definition: sql<unknown>`(select ${problemVersions.definition} from ${problemVersions} where ${problemVersions.problemId} = ${problems.id} order by ${problemVersions.number} desc limit 1)`,
     })
     .from(problems)
@@ -479,7 +505,8 @@ export async function exportBank(database: Database, viewer: BankViewer, problem
     problems: rows.map((r) => {
       const definition = r.definition as ProblemDefinition
       // The author a reader should credit: the problem this one was copied from when the
-      // exporter may still see it, else the problem itself and its owner.
+      // exporter may still see it, else the credit an import carried, else the problem itself
+      // and its owner.
       const originVisible =
         r.originTitle !== null &&
         r.originAuthor !== null &&
@@ -489,7 +516,7 @@ export async function exportBank(database: Database, viewer: BankViewer, problem
       return {
         title: definition.title,
         visibility: r.visibility,
-        origin: originVisible ? { title: r.originTitle!, author: r.originAuthor! } : { title: definition.title, author: r.ownerName },
+        origin: originVisible ? { title: r.originTitle!, author: r.originAuthor! } : (r.importedFrom ?? { title: definition.title, author: r.ownerName }),
         definition,
       }
     }),
@@ -504,7 +531,10 @@ export async function importBank(database: Database, viewer: BankViewer, raw: un
   if (!read.ok) return read
   const problemIds = await database.transaction(async (tx) => {
     const made: number[] = []
-    for (const p of read.problems) made.push((await insertProblem(tx, viewer, p.definition, { visibility: 'private' })).problemId)
+    for (const p of read.problems) {
+      const credit = p.origin ? { importedFrom: { title: p.origin.title, author: p.origin.author } } : {}
+      made.push((await insertProblem(tx, viewer, p.definition, { visibility: 'private', ...credit })).problemId)
+    }
     return made
   })
   return { ok: true, problemIds }

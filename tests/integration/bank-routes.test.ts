@@ -220,3 +220,61 @@ describe('the editor form', () => {
     expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(403)
   })
 })
+
+describe('saving over a save made meanwhile', () => {
+  test('a stale editor gets a 409 with every typed value kept; saving again replaces the newer version on purpose', async () => {
+    const a = await createBankUser(db())
+    const made = await createProblem(db(), a.viewer, { definition: carnot('Two tabs'), visibility: 'private' })
+    const cookie = await cookieFor(a.user.id)
+    const params = { problemId: String(made.problemId) }
+    const path = `/bank/${made.problemId}/edit`
+    const opened = (await db().select({ at: problems.updatedAt }).from(problems).where(eq(problems.id, made.problemId)))[0]!.at.toISOString()
+    const post = (prompt: string, basedOn: string) =>
+      new Request(`${BASE}${path}`, {
+        method: 'POST',
+        body: new URLSearchParams({ ...formValuesFromDefinition({ ...carnot('Two tabs'), prompt }), visibility: 'private', intent: 'save', _basedOn: basedOn }),
+        headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie },
+      })
+    // The first tab saves.
+    expect(((await editAction(args(post('First tab: @{Th}.', opened), params))) as Response).status).toBe(302)
+    // The second tab, opened at the same time, is told and keeps its text.
+    const stale = (await editAction(args(post('Second tab: @{Th}.', opened), params))) as unknown as {
+      data: { issues: { path: string; message: string }[]; state: { values: Record<string, string> } }
+      init: { status: number }
+    }
+    expect(stale.init.status).toBe(409)
+    expect(stale.data.issues[0]!.message).toMatch(/saved this problem after you opened it/)
+    expect(stale.data.state.values.prompt).toBe('Second tab: @{Th}.')
+    const [v] = await db().select().from(problemVersions).where(eq(problemVersions.problemId, made.problemId))
+    expect((v!.definition as ProblemDefinition).prompt).toBe('First tab: @{Th}.')
+    // Saving again from the refilled form (now based on the newer save) replaces it.
+    const again = (await editAction(args(post('Second tab: @{Th}.', stale.data.state.values._basedOn!), params))) as Response
+    expect(again.status).toBe(302)
+    const [w] = await db().select().from(problemVersions).where(eq(problemVersions.problemId, made.problemId))
+    expect((w!.definition as ProblemDefinition).prompt).toBe('Second tab: @{Th}.')
+  })
+})
+
+describe('import credit', () => {
+  test('the credit a document carries is kept on the imported problem and exported again', async () => {
+    const a = await createBankUser(db())
+    const cookie = await cookieFor(a.user.id)
+    const doc = {
+      format: 'cyclewright-bank',
+      version: 1,
+      exportedAt: new Date().toISOString(),
+      problems: [{ title: 'Carnot drill', origin: { title: 'Carnot drill, first edition', author: 'R. Quillfeather' }, definition: carnot() }],
+    }
+    const form = new FormData()
+    form.set('document', new File([JSON.stringify(doc)], 'bank.json', { type: 'application/json' }))
+    const res = (await importAction(args(new Request(`${BASE}/bank/import`, { method: 'POST', body: form, headers: { Cookie: cookie } })))) as Response
+    expect(res.status).toBe(302)
+    const [row] = await db().select({ id: problems.id, importedFrom: problems.importedFrom }).from(problems).where(eq(problems.ownerId, a.user.id))
+    expect(row!.importedFrom).toEqual({ title: 'Carnot drill, first edition', author: 'R. Quillfeather' })
+    const detail = await json((await problemLoader(args(getRequest(`/api/problems/${row!.id}`, { Cookie: cookie }), { problemId: String(row!.id) }))) as Response)
+    expect(detail.body.importedFrom).toEqual({ title: 'Carnot drill, first edition', author: 'R. Quillfeather' })
+    const download = (await exportLoader(args(getRequest(`/bank/export?ids=${row!.id}`, { Cookie: cookie })))) as Response
+    const exported = (await download.json()) as { problems: { origin: unknown }[] }
+    expect(exported.problems[0]!.origin).toEqual({ title: 'Carnot drill, first edition', author: 'R. Quillfeather' })
+  })
+})

@@ -95,6 +95,11 @@ export default function ProblemRoute({ loaderData }: Route.ComponentProps) {
                 {problem.origin.versionNumber ? `, version ${problem.origin.versionNumber}` : ''}
               </p>
             ) : null}
+            {problem.importedFrom ? (
+              <p className="mt-1 text-sm text-muted">
+                Imported; the document credits “{problem.importedFrom.title}” by {problem.importedFrom.author}
+              </p>
+            ) : null}
           </div>
           <div className="flex flex-wrap gap-2">
             {problem.canEdit ? (

@@ -12,6 +12,11 @@ import type { Route } from './+types/edit'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.problem.title ? `Edit ${data.problem.title}` : 'Edit problem'} · Problem bank · Cyclewright` }]
 
+/** The save the form starts from, sent back with the form to detect a save made meanwhile. */
+function withBase<S extends { values: Record<string, string> }>(state: S, updatedAt: string): S {
+  return { ...state, values: { ...state.values, _basedOn: updatedAt } }
+}
+
 export async function loader({ request, params }: Route.LoaderArgs) {
   const problemId = requireIdParam(params.problemId, 'problem')
   const user = await requireBankUser(request)
@@ -22,7 +27,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { latest } = detail
   return {
     problem: { id: detail.id, title: detail.title, versionNumber: latest.number, frozen: latest.frozenAt !== null },
-    state: editorStateFromDefinition(latest.definition, detail.visibility),
+    state: withBase(editorStateFromDefinition(latest.definition, detail.visibility), detail.updatedAt),
     options: editorOptions(),
   }
 }

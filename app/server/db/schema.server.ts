@@ -179,6 +179,8 @@ export const problems = pgTable(
     /** Set on a copy: the problem and version it was copied from. */
     originProblemId: integer().references((): AnyPgColumn => problems.id, { onDelete: 'set null' }),
     originVersionId: integer(),
+    /** Set on an import: the credit the bank document carried ({ title, author }). */
+    importedFrom: jsonb().$type<{ title: string; author: string }>(),
     title: text().notNull(),
     /** template id or 'general' */
     cycle: text().notNull(),
