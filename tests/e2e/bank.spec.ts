@@ -4,43 +4,15 @@
  * exports it and imports the document again.
  */
 import fs from 'node:fs'
-import pg from 'pg'
-import type { Browser, Page } from 'playwright-core'
-import { afterAll, afterEach, beforeAll, beforeEach, expect, inject, test } from 'vitest'
+import type { Page } from 'playwright-core'
+import { expect, inject, test } from 'vitest'
 import { DEMO_PASSWORD, demoPeople, demoStudents } from '#seed/demo.ts'
-import { launchBrowser, signIn, watchConsole } from '#tests/support/browser.ts'
+import { signIn, useBrowserPage } from '#tests/support/browser.ts'
+import { e2eQuery } from '#tests/support/e2e-db.ts'
 
 const baseURL = inject('baseURL')
-let browser: Browser
-let closeBrowser: () => Promise<void>
 let page: Page
-let problems: () => string[]
-
-beforeAll(async () => {
-  ;({ browser, close: closeBrowser } = await launchBrowser())
-})
-afterAll(async () => {
-  await closeBrowser?.()
-})
-beforeEach(async () => {
-  const context = await browser.newContext({ acceptDownloads: true })
-  page = await context.newPage()
-  problems = watchConsole(page)
-})
-afterEach(async () => {
-  await page.context().close()
-  expect(problems()).toEqual([])
-})
-
-async function query<T>(text: string, values: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: inject('e2eDatabaseUrl') })
-  await client.connect()
-  try {
-    return (await client.query(text, values)).rows as T[]
-  } finally {
-    await client.end()
-  }
-}
+useBrowserPage((p) => (page = p), { acceptDownloads: true })
 
 const field = (path: string) => page.locator(`[name="${path}"]`)
 
@@ -92,7 +64,7 @@ test('an instructor writes a problem, previews it, checks it, exports it and imp
 
   // The key of each previewed variant is the Carnot efficiency 1 − Tc/Th of its own givens
   // (common practice: the Carnot efficiency of reversible engines).
-  const [version] = await query<{ definition: { givens: { name: string }[] } }>('select definition from problem_versions where problem_id = $1', [problemId])
+  const [version] = await e2eQuery<{ definition: { givens: { name: string }[] } }>('select definition from problem_versions where problem_id = $1', [problemId])
   expect(version!.definition.givens[0]!.name).toBe('Th')
   const columns = page.locator('[data-variant-seed]')
   expect(await columns.count()).toBe(3)
@@ -123,14 +95,14 @@ test('an instructor writes a problem, previews it, checks it, exports it and imp
   await page.getByRole('button', { name: 'Import' }).click()
   await page.waitForURL(/\/bank\?imported=1/)
   await page.getByText('Imported 1 problem into your bank').waitFor()
-  const copies = await query<{ n: number }>('select count(*)::int as n from problems where title = $1', [title])
+  const copies = await e2eQuery<{ n: number }>('select count(*)::int as n from problems where title = $1', [title])
   expect(copies[0]!.n).toBe(2)
 })
 
 test('a document with an invalid problem is refused whole, with the problem and field named', async () => {
   await signIn(page, baseURL, demoPeople.instructors[1]!.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
-  const before = await query<{ n: number }>('select count(*)::int as n from problems')
+  const before = await e2eQuery<{ n: number }>('select count(*)::int as n from problems')
   await page.goto(`${baseURL}/bank/import`)
   const bad = { format: 'cyclewright-bank', version: 1, exportedAt: new Date().toISOString(), problems: [{ title: 'Broken', definition: { format: 1, title: 'Broken' } }] }
   await page.getByLabel('Bank document').setInputFiles({ name: 'broken.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(bad)) })
@@ -139,7 +111,7 @@ test('a document with an invalid problem is refused whole, with the problem and 
   await alert.waitFor()
   expect(await alert.textContent()).toContain('Nothing was imported')
   expect(await alert.textContent()).toContain('Problem 1 (Broken)')
-  const after = await query<{ n: number }>('select count(*)::int as n from problems')
+  const after = await e2eQuery<{ n: number }>('select count(*)::int as n from problems')
   expect(after[0]!.n).toBe(before[0]!.n)
 })
 

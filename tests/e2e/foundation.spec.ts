@@ -1,40 +1,12 @@
-import pg from 'pg'
-import type { Browser, Page } from 'playwright-core'
-import { afterAll, beforeAll, beforeEach, afterEach, describe, expect, inject, test } from 'vitest'
+import type { Page } from 'playwright-core'
+import { describe, expect, inject, test } from 'vitest'
 import { DEMO_PASSWORD, demoPeople, demoStudents } from '#seed/demo.ts'
-import { launchBrowser, signIn, watchConsole } from '#tests/support/browser.ts'
+import { signIn, useBrowserPage } from '#tests/support/browser.ts'
+import { e2eQuery } from '#tests/support/e2e-db.ts'
 
 const baseURL = inject('baseURL')
-let browser: Browser
-let closeBrowser: () => Promise<void>
 let page: Page
-let problems: () => string[]
-
-beforeAll(async () => {
-  ;({ browser, close: closeBrowser } = await launchBrowser())
-})
-afterAll(async () => {
-  await closeBrowser?.()
-})
-beforeEach(async () => {
-  const context = await browser.newContext()
-  page = await context.newPage()
-  problems = watchConsole(page)
-})
-afterEach(async () => {
-  await page.context().close()
-  expect(problems()).toEqual([])
-})
-
-async function query<T>(text: string, values: unknown[] = []): Promise<T[]> {
-  const client = new pg.Client({ connectionString: inject('e2eDatabaseUrl') })
-  await client.connect()
-  try {
-    return (await client.query(text, values)).rows as T[]
-  } finally {
-    await client.end()
-  }
-}
+useBrowserPage((p) => (page = p))
 
 describe('each role signs in and sees its own home', () => {
   test.each([
@@ -64,7 +36,7 @@ test('a wrong password shows the clear error and keeps the address typed', async
 test('a student opening an instructor page gets the 403 page', async () => {
   await signIn(page, baseURL, demoStudents()[1]!.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
-  const [course] = await query<{ id: number }>("select id from courses where code = 'ENTH 210'")
+  const [course] = await e2eQuery<{ id: number }>("select id from courses where code = 'ENTH 210'")
   const res = await page.goto(`${baseURL}/courses/${course!.id}/people`)
   expect(res?.status()).toBe(403)
   expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('You do not have access to this page')
@@ -92,7 +64,7 @@ test('an instructor invites a student, who follows the e-mailed link, sets a pas
   await page.waitForURL(/\/sign-in/)
 
   // The message went over real SMTP to the local catcher, which stored it in PostgreSQL.
-  const [mail] = await query<{ text: string; subject: string }>('select text, subject from mail_messages where $1 = any(envelope_to) order by id desc limit 1', [email])
+  const [mail] = await e2eQuery<{ text: string; subject: string }>('select text, subject from mail_messages where $1 = any(envelope_to) order by id desc limit 1', [email])
   expect(mail?.subject).toBe('You are invited to ENTH 210 on Cyclewright')
   const link = mail!.text.match(/https?:\/\/\S+\/join\/\S+/)?.[0]
   expect(link).toBeTruthy()

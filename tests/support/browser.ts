@@ -5,7 +5,8 @@
  * every launch a new, empty profile directory of its own (the fresh --user-data-dir).
  */
 import fs from 'node:fs'
-import { chromium, type Browser, type Page } from 'playwright-core'
+import { chromium, type Browser, type BrowserContextOptions, type Page } from 'playwright-core'
+import { afterAll, afterEach, beforeAll, beforeEach, expect } from 'vitest'
 
 export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium'
 
@@ -47,4 +48,31 @@ export async function signIn(page: Page, baseURL: string, email: string, passwor
   await page.getByLabel('E-mail address').fill(email)
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()
+}
+
+/**
+ * The usual life of an end-to-end file: one browser for the file, a fresh context and page
+ * for each test (handed to `use`), and the test fails on any console error it caused.
+ */
+export function useBrowserPage(use: (page: Page) => void, contextOptions: BrowserContextOptions = {}) {
+  let browser: Browser
+  let close: () => Promise<void>
+  let page: Page
+  let problems: () => string[]
+  beforeAll(async () => {
+    ;({ browser, close } = await launchBrowser())
+  })
+  afterAll(async () => {
+    await close?.()
+  })
+  beforeEach(async () => {
+    const context = await browser.newContext(contextOptions)
+    page = await context.newPage()
+    problems = watchConsole(page)
+    use(page)
+  })
+  afterEach(async () => {
+    await page.context().close()
+    expect(problems()).toEqual([])
+  })
 }
