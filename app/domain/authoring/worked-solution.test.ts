@@ -1,3 +1,5 @@
+import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
 import { describe, expect, test } from 'vitest'
 import { solveSpec } from '#app/domain/thermo/index.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
@@ -238,5 +240,147 @@ describe('workedSolution: other cycles render without TeX errors', () => {
     const spec = { cycle: { gas: { basis: 'mole', cv: '12.47 J/(mol K)' }, states: [{ p: '1 bar', V: '40 L' }, { p: '3 bar' }, { V: '40 L' }], amount: '2 mol', steps: [{ process: 'polytropic', n: 1.3 }, { process: 'isobaric' }, { process: 'isochoric' }] } }
     const ws = workedSolution(variantOf(spec, [], () => []), definition([], { kind: 'cycle', cycle: {} }))
     expect(lastNumber(line(ws, 'Step 1 → 2', 'n = '))).toBe(1.3)
+  })
+})
+
+describe('workedSolution: Rankine devices with reheat and an open feedwater heater', () => {
+  const examples = join(import.meta.dirname, '../../../docs/examples')
+  const readExample = (name: string) => JSON.parse(readFileSync(join(examples, `${name}.json`), 'utf8')) as Record<string, unknown>
+  const rankineOf = (spec: Record<string, unknown>) => {
+    const variant = variantOf(spec, [], () => [])
+    const sol = variant.solution
+    if (!('devices' in sol)) throw new Error('not a Rankine solution')
+    return { sol, ws: workedSolution(variant, definition([], { kind: 'template', template: String(spec.template), inputs: {} })) }
+  }
+  const fourSf = (x: number) => Number(x.toPrecision(4))
+  const numbersIn = (tex: string) => (tex.match(/-?\d+(?:\.\d+)?/g) ?? []).map(Number)
+
+  /**
+   * A device line "SYMBOL = [(1 - y)](h_a - h_b) = [(m)](A - B) = R": A and B are the states'
+   * enthalpies, m is 1 − y, and R agrees with m (h_a − h_b) recomputed from the solution states
+   * and with the solver's own device magnitude, all to 4 significant figures.
+   */
+  type DeviceRow = [start: string, a: string, b: string, bled: boolean, device: string]
+  function checkDevice(sol: ReturnType<typeof rankineOf>['sol'], ws: WorkedSolution, [start, a, b, bled, device]: DeviceRow) {
+    const tex = line(ws, 'Devices', start)
+    const sa = sol.states.find((s) => s.name === a)!
+    const sb = sol.states.find((s) => s.name === b)!
+    const m = bled ? 1 - sol.totals.bleedFraction!.value : 1
+    const numeric = tex.split(' = ')[2]!
+    expect(numbersIn(numeric)).toEqual([...(bled ? [fourSf(m)] : []), fourSf(sa.h.value / 1000), fourSf(sb.h.value / 1000)])
+    const recomputed = (m * (sa.h.value - sb.h.value)) / 1000
+    expect(lastNumber(tex)).toBe(fourSf(recomputed))
+    const d = sol.devices.find((x) => x.device === device)!
+    expect(lastNumber(tex)).toBe(fourSf(Math.abs(d.w.value !== 0 ? d.w.value : d.q.value) / 1000))
+    return lastNumber(tex)
+  }
+
+  /** η from the device lines as printed (4 s.f. each) agrees with the solver's η to rounding. */
+  function checkEfficiency(sol: ReturnType<typeof rankineOf>['sol'], ws: WorkedSolution, works: number[], pumps: number[], heats: number[]) {
+    const wNet = works.reduce((x, y) => x + y, 0) - pumps.reduce((x, y) => x + y, 0)
+    const qIn = heats.reduce((x, y) => x + y, 0)
+    expect(Math.abs(wNet / qIn - sol.totals.efficiency.value)).toBeLessThan(1e-3 * sol.totals.efficiency.value)
+    const eta = line(ws, 'Cycle totals', '\\eta = \\frac{W_{\\mathrm{net,out}}}{Q_{\\mathrm{in}}}')
+    expect(numbersIn(eta.split(' = ')[2]!)).toEqual([fourSf(sol.totals.netWork.value / 1000), fourSf(sol.totals.heatIn.value / 1000)])
+    expect(lastNumber(eta)).toBe(fourSf(sol.totals.netWork.value / sol.totals.heatIn.value))
+    expect(lastNumber(eta)).toBe(fourSf(sol.totals.efficiency.value))
+  }
+
+  describe('reheat (docs/examples/rankine-reheat.json)', () => {
+    const { sol, ws } = rankineOf(readExample('rankine-reheat'))
+
+    test('the example inputs are those of Çengel & Boles 7th ed. Example 10-4: 15 MPa, 600 °C, reheat at 4 MPa to 600 °C, 10 kPa', () => {
+      expect(readExample('rankine-reheat').inputs).toEqual({ boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C', reheatPressure: '4 MPa', reheatTemperature: '600 °C' })
+    })
+
+    test('textbook values (Çengel & Boles 7th ed., Example 10-4, from memory: x6 ≈ 0.896, η ≈ 45.0 %)', () => {
+      expect(sol.totals.turbineExitQuality!.value).toBeCloseTo(0.896, 2)
+      expect(sol.totals.efficiency.value).toBeCloseTo(0.45, 2)
+    })
+
+    test('each device is an enthalpy difference with the variant’s numbers', () => {
+      const rows: DeviceRow[] = [
+        ['W_{\\mathrm{pump,in}} = h_{2} - h_{1}', '2', '1', false, 'pump'],
+        ['Q_{\\mathrm{boiler}} = h_{3} - h_{2}', '3', '2', false, 'boiler'],
+        ['W_{\\mathrm{HP,out}} = h_{3} - h_{4}', '3', '4', false, 'high-pressure turbine'],
+        ['Q_{\\mathrm{reheat}} = h_{5} - h_{4}', '5', '4', false, 'reheater'],
+        ['W_{\\mathrm{LP,out}} = h_{5} - h_{6}', '5', '6', false, 'low-pressure turbine'],
+        ['Q_{\\mathrm{cond,out}} = h_{6} - h_{1}', '6', '1', false, 'condenser'],
+      ]
+      const [pump, boiler, hp, reheat, lp] = rows.map((row) => checkDevice(sol, ws, row))
+      expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = W_{\\mathrm{HP,out}} + W_{\\mathrm{LP,out}}'))).toBe(fourSf(sol.totals.turbineWork.value / 1000))
+      expect(lastNumber(line(ws, 'Devices', 'Q_{\\mathrm{in}} = Q_{\\mathrm{boiler}} + Q_{\\mathrm{reheat}}'))).toBe(fourSf(sol.totals.heatIn.value / 1000))
+      checkEfficiency(sol, ws, [hp!, lp!], [pump!], [boiler!, reheat!])
+    })
+
+    test('no bleed-fraction lines without a feedwater heater', () => {
+      expect(section(ws, 'Devices').lines.some((l) => l.tex.includes('y'))).toBe(false)
+    })
+  })
+
+  describe('regenerative (docs/examples/rankine-regenerative.json)', () => {
+    const { sol, ws } = rankineOf(readExample('rankine-regenerative'))
+    const y = sol.totals.bleedFraction!.value
+    const h = (name: string) => sol.states.find((s) => s.name === name)!.h.value
+
+    test('the example inputs are those of Çengel & Boles 7th ed. Example 10-5: 15 MPa, 600 °C, bleed at 1.2 MPa, 10 kPa', () => {
+      expect(readExample('rankine-regenerative').inputs).toEqual({ boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C', feedwaterHeaterPressure: '1.2 MPa' })
+    })
+
+    test('textbook values (Çengel & Boles 7th ed., Example 10-5, from memory: y ≈ 0.227, η ≈ 46.3 %)', () => {
+      expect(y).toBeCloseTo(0.227, 3)
+      expect(sol.totals.efficiency.value).toBeCloseTo(0.463, 3)
+    })
+
+    test('the y line solves the heater’s balance y h6 + (1 − y) h2 = h3', () => {
+      expect(line(ws, 'Devices', 'y\\,h_{6} + (1 - y)\\,h_{2} = h_{3}')).toBe('y\\,h_{6} + (1 - y)\\,h_{2} = h_{3}')
+      const yLine = line(ws, 'Devices', 'y = \\frac{h_{3} - h_{2}}{h_{6} - h_{2}}')
+      expect(numbersIn(yLine.split(' = ')[2]!.replace(/\\frac/, ''))).toEqual([fourSf(h('3') / 1000), fourSf(h('2') / 1000), fourSf(h('6') / 1000), fourSf(h('2') / 1000)])
+      const shownY = lastNumber(yLine)
+      expect(shownY).toBe(fourSf(y))
+      // The printed y (4 s.f.) closes the energy balance to its own rounding.
+      const mixed = shownY * h('6') + (1 - shownY) * h('2')
+      expect(Math.abs(mixed - h('3')) / h('3')).toBeLessThan(5e-4)
+      // A y read off the wrong states would not: the turbine exit in place of the extraction.
+      expect(Math.abs(shownY * h('7') + (1 - shownY) * h('2') - h('3')) / h('3')).toBeGreaterThan(5e-2)
+    })
+
+    test('each device is an enthalpy difference, scaled by 1 − y where only the unbled steam passes', () => {
+      const rows: DeviceRow[] = [
+        ['W_{\\mathrm{pI,in}} = (1 - y)(h_{2} - h_{1})', '2', '1', true, 'pump I (condensate)'],
+        ['W_{\\mathrm{pII,in}} = h_{4} - h_{3}', '4', '3', false, 'pump II (feedwater)'],
+        ['Q_{\\mathrm{boiler}} = h_{5} - h_{4}', '5', '4', false, 'boiler'],
+        ['W_{\\mathrm{HP,out}} = h_{5} - h_{6}', '5', '6', false, 'high-pressure turbine'],
+        ['W_{\\mathrm{LP,out}} = (1 - y)(h_{6} - h_{7})', '6', '7', true, 'low-pressure turbine'],
+        ['Q_{\\mathrm{cond,out}} = (1 - y)(h_{7} - h_{1})', '7', '1', true, 'condenser'],
+      ]
+      const [p1, p2, boiler, hp, lp] = rows.map((row) => checkDevice(sol, ws, row))
+      expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{pump,in}} = W_{\\mathrm{pI,in}} + W_{\\mathrm{pII,in}}'))).toBe(fourSf(sol.totals.pumpWork.value / 1000))
+      expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = W_{\\mathrm{HP,out}} + W_{\\mathrm{LP,out}}'))).toBe(fourSf(sol.totals.turbineWork.value / 1000))
+      checkEfficiency(sol, ws, [hp!, lp!], [p1!, p2!], [boiler!])
+    })
+
+    test('chemistry convention: lower-case symbols, the same magnitudes', () => {
+      const chem = rankineOf({ ...readExample('rankine-regenerative'), convention: 'chemistry' })
+      const tex = line(chem.ws, 'Devices', 'w_{\\mathrm{pI,in}} = (1 - y)(h_{2} - h_{1})')
+      expect(lastNumber(tex)).toBe(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{pI,in}}')))
+      expect(line(chem.ws, 'Cycle totals', '\\eta = \\frac{w_{\\mathrm{net,out}}}{q_{\\mathrm{in}}}')).toContain(`= ${p4(sol.totals.efficiency.value)}`)
+    })
+  })
+
+  test('reheat and a feedwater heater together, bleed above the reheat pressure: the reheater carries 1 − y (solver totals only, no textbook case)', () => {
+    const { sol, ws } = rankineOf({ template: 'rankine', inputs: { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C', feedwaterHeaterPressure: '4 MPa', reheatPressure: '1 MPa', reheatTemperature: '500 °C' } })
+    const rows: DeviceRow[] = [
+      ['W_{\\mathrm{pI,in}} = (1 - y)(h_{2} - h_{1})', '2', '1', true, 'pump I (condensate)'],
+      ['W_{\\mathrm{pII,in}} = h_{4} - h_{3}', '4', '3', false, 'pump II (feedwater)'],
+      ['Q_{\\mathrm{boiler}} = h_{5} - h_{4}', '5', '4', false, 'boiler'],
+      ['W_{\\mathrm{T1,out}} = h_{5} - h_{6}', '5', '6', false, 'high-pressure turbine'],
+      ['W_{\\mathrm{T2,out}} = (1 - y)(h_{6} - h_{7})', '6', '7', true, 'low-pressure turbine'],
+      ['Q_{\\mathrm{reheat}} = (1 - y)(h_{8} - h_{7})', '8', '7', true, 'reheater'],
+      ['W_{\\mathrm{T3,out}} = (1 - y)(h_{8} - h_{9})', '8', '9', true, 'turbine section 3'],
+      ['Q_{\\mathrm{cond,out}} = (1 - y)(h_{9} - h_{1})', '9', '1', true, 'condenser'],
+    ]
+    const [p1, p2, boiler, t1, t2, reheat, t3] = rows.map((row) => checkDevice(sol, ws, row))
+    checkEfficiency(sol, ws, [t1!, t2!, t3!], [p1!, p2!], [boiler!, reheat!])
   })
 })
