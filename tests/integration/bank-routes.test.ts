@@ -46,6 +46,17 @@ function carnot(title = 'Carnot drill'): ProblemDefinition {
   }
 }
 
+/** A multipart upload as a browser sends it: with its length stated. */
+async function uploadRequest(path: string, form: FormData, cookie: string) {
+  const encoded = new Response(form)
+  const body = await encoded.arrayBuffer()
+  return new Request(`${BASE}${path}`, {
+    method: 'POST',
+    body,
+    headers: { 'Content-Type': encoded.headers.get('Content-Type')!, 'Content-Length': String(body.byteLength), Cookie: cookie },
+  })
+}
+
 function postJson(path: string, body: unknown, cookie?: string) {
   return new Request(`${BASE}${path}`, {
     method: 'POST',
@@ -155,13 +166,15 @@ describe('export and import', () => {
     const upload = (content: string | null, name = 'bank.json') => {
       const form = new FormData()
       if (content !== null) form.set('document', new File([content], name, { type: 'application/json' }))
-      return new Request(`${BASE}/bank/import`, { method: 'POST', body: form, headers: { Cookie: cookie } })
+      return uploadRequest('/bank/import', form, cookie)
     }
+    const unstated = new Request(`${BASE}/bank/import`, { method: 'POST', body: 'document=x', headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie } })
     const cases: [Request, number, RegExp][] = [
-      [upload('x'.repeat(MAX_IMPORT_BYTES + 1)), 413, /larger than 2 MB/],
-      [upload('this is not json', 'notes.txt'), 400, /not a JSON document/],
-      [upload(null), 400, /Choose a bank document/],
-      [upload(JSON.stringify({ format: 'someone-else', version: 1, problems: [] })), 400, /Nothing was imported/],
+      [await upload('x'.repeat(MAX_IMPORT_BYTES + 1)), 413, /larger than 2 MB/],
+      [await upload('this is not json', 'notes.txt'), 400, /not a JSON document/],
+      [await upload(null), 400, /Choose a bank document/],
+      [await upload(JSON.stringify({ format: 'someone-else', version: 1, problems: [] })), 400, /Nothing was imported/],
+      [unstated, 411, /did not say how large/],
     ]
     for (const [request, status, message] of cases) {
       const r = (await importAction(args(request))) as unknown as { data: { formError: string }; init: { status: number } }
@@ -267,7 +280,7 @@ describe('import credit', () => {
     }
     const form = new FormData()
     form.set('document', new File([JSON.stringify(doc)], 'bank.json', { type: 'application/json' }))
-    const res = (await importAction(args(new Request(`${BASE}/bank/import`, { method: 'POST', body: form, headers: { Cookie: cookie } })))) as Response
+    const res = (await importAction(args(await uploadRequest('/bank/import', form, cookie)))) as Response
     expect(res.status).toBe(302)
     const [row] = await db().select({ id: problems.id, importedFrom: problems.importedFrom }).from(problems).where(eq(problems.ownerId, a.user.id))
     expect(row!.importedFrom).toEqual({ title: 'Carnot drill, first edition', author: 'R. Quillfeather' })

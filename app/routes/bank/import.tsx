@@ -28,8 +28,11 @@ function fail(formError: string, errors: ImportError[] = [], status = 400) {
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireBankUser(request)
   // Refuse oversized uploads before reading them; the multipart overhead is small.
-  const length = Number(request.headers.get('content-length') ?? '0')
-  if (length > MAX_IMPORT_BYTES + 64 * 1024) return fail(`That file is larger than ${MAX_IMPORT_MB} MB. Export fewer problems at a time.`, [], 413)
+  // Browsers always state the length of a form upload; without it the body could be any size.
+  const header = request.headers.get('content-length')
+  if (header === null) return fail('The upload did not say how large it is. Choose the file again and retry.', [], 411)
+  const length = Number(header)
+  if (!Number.isFinite(length) || length > MAX_IMPORT_BYTES + 64 * 1024) return fail(`That file is larger than ${MAX_IMPORT_MB} MB. Export fewer problems at a time.`, [], 413)
   let form: FormData
   try {
     form = await request.formData()
