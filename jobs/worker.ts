@@ -47,14 +47,17 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
   await boss.start()
   await ensureQueues(boss)
 
-  await boss.work<unknown>('problem-sweep', { batchSize: 1 }, async (jobs) => {
+  // With its metadata a job says which try this is: pg-boss counts retries from 0 and
+  // allows retryLimit of them after the first run.
+  await boss.work<unknown>('problem-sweep', { batchSize: 1, includeMetadata: true }, async (jobs) => {
     for (const job of jobs) {
+      const attempt = { number: job.retryCount + 1, of: job.retryLimit + 1 }
       try {
-        await handleProblemSweep(job.data, { database })
+        await handleProblemSweep(job.data, { database, attempt })
       } catch (e) {
         const permanent = e instanceof PermanentJobError
         if (permanent) await failForGood(boss, job)
-        logError(`Job ${job.name} ${job.id} failed${permanent ? ' for good' : ''}: ${e instanceof Error ? e.message : String(e)}`)
+        logError(`Job ${job.name} ${job.id} failed${permanent ? ' for good' : ` (attempt ${attempt.number} of ${attempt.of})`}: ${e instanceof Error ? e.message : String(e)}`)
         throw e
       }
     }

@@ -104,7 +104,44 @@ describe('handleProblemSweep', () => {
     expect(updates).toEqual([])
   })
 
-  test('an error marks the sweep failed with a one-line message and is thrown again for a retry', async () => {
+  /** A sweep whose second chunk throws, with a stack under the message. */
+  function failingSweep(error: Error = new Error('solver blew up\n    at somewhere.ts:1')) {
+    let n = 0
+    return (_d: ProblemDefinition, o: { seeds: readonly number[] }): SweepSummary => {
+      if (++n === 2) throw error
+      return { checked: o.seeds.length, failed: 0, failures: [] }
+    }
+  }
+
+  test('an attempt that fails with retries left puts the sweep back in the queue and says a retry is coming', async () => {
+    const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
+    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep: failingSweep(), chunk: 25, attempt: { number: 1, of: 3 } })).rejects.toThrow('solver blew up')
+    expect(updates.map((u) => u.status ?? 'progress')).toEqual(['running', 'progress', 'queued'])
+    expect(updates.at(-1)).toEqual({ status: 'queued', finishedAt: null, error: 'Attempt 1 of 3 stopped (solver blew up); trying again shortly.' })
+  })
+
+  test('the next-to-last attempt still waits for the last one', async () => {
+    const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
+    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep: failingSweep(), chunk: 25, attempt: { number: 2, of: 3 } })).rejects.toThrow()
+    expect(updates.at(-1)).toMatchObject({ status: 'queued', error: 'Attempt 2 of 3 stopped (solver blew up); trying again shortly.' })
+  })
+
+  test('the last attempt marks the sweep failed, saying how many attempts were made', async () => {
+    const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
+    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep: failingSweep(), chunk: 25, attempt: { number: 3, of: 3 } })).rejects.toThrow('solver blew up')
+    expect(updates.map((u) => u.status ?? 'progress')).toEqual(['running', 'progress', 'failed'])
+    expect(updates.at(-1)!.error).toBe('The check stopped after 3 attempts: solver blew up')
+    expect(updates.at(-1)!.finishedAt).toBeInstanceOf(Date)
+  })
+
+  test('a permanent error marks the sweep failed even with retries left', async () => {
+    const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
+    const sweep = failingSweep(new PermanentJobError('this version can never be checked'))
+    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep, chunk: 25, attempt: { number: 1, of: 3 } })).rejects.toBeInstanceOf(PermanentJobError)
+    expect(updates.at(-1)).toMatchObject({ status: 'failed', error: 'The check stopped: this version can never be checked' })
+  })
+
+  test('without attempt numbers an error is taken as final: failed, with a one-line message, thrown again', async () => {
     const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
     let n = 0
     const sweep = (_d: ProblemDefinition, o: { seeds: readonly number[] }): SweepSummary => {

@@ -5,7 +5,8 @@
  *
  * A re-run (a retry, or a worker that died mid-sweep) starts again from seed 1 and
  * overwrites the counts: the sweep is deterministic per seed, so this is simple and
- * correct, and only a finished ('done') sweep is skipped.
+ * correct, and only a finished ('done') sweep is skipped. Between a failed attempt and its
+ * retry the row is 'queued' again, with the reason in `error`; 'failed' means no retry is left.
  */
 import { eq } from 'drizzle-orm'
 import type { ProblemDefinition, SweepFailure } from '#app/domain/authoring/definition.ts'
@@ -24,15 +25,35 @@ export type ProblemSweepDeps = {
   sweep?: typeof sweepVariants
   /** Variants checked between two progress writes. */
   chunk?: number
+  /**
+   * This run's place among the job's tries (pg-boss: retryCount + 1 of retryLimit + 1).
+   * A failure before the last try leaves the sweep 'queued' for the retry; without
+   * `attempt` every failure is taken as the last.
+   */
+  attempt?: SweepAttempt
 }
+
+export type SweepAttempt = { readonly number: number; readonly of: number }
 
 export type ProblemSweepOutcome = 'done' | 'already-done' | 'missing'
 
-/** The row's error text: short, and without a stack, since authors read it. */
-function errorText(e: unknown): string {
+/** The first line of an error, short and without a stack, since authors read it. */
+function reason(e: unknown): string {
   const message = e instanceof Error ? e.message : String(e)
   const line = message.split('\n')[0]!.trim() || 'unknown error'
-  return `The check stopped: ${line.length > 300 ? `${line.slice(0, 297)}…` : line}`
+  return line.length > 300 ? `${line.slice(0, 297)}…` : line
+}
+
+/** Whether pg-boss will run the job again after this failure. */
+function willRetry(e: unknown, attempt: SweepAttempt | undefined): boolean {
+  return !(e instanceof PermanentJobError) && attempt !== undefined && attempt.number < attempt.of
+}
+
+/** The row's error text while a retry waits, and once the check has stopped for good. */
+export function sweepErrorText(e: unknown, attempt: SweepAttempt | undefined): string {
+  if (attempt !== undefined && willRetry(e, attempt)) return `Attempt ${attempt.number} of ${attempt.of} stopped (${reason(e)}); trying again shortly.`
+  const tries = attempt !== undefined && attempt.of > 1 && !(e instanceof PermanentJobError) ? ` after ${attempt.of} attempts` : ''
+  return `The check stopped${tries}: ${reason(e)}`
 }
 
 /** Throws PermanentJobError for a malformed payload (no retries); other errors are retried. */
@@ -81,7 +102,9 @@ export async function handleProblemSweep(payload: unknown, deps: ProblemSweepDep
     return 'done'
   } catch (e) {
     try {
-      await database.update(problemSweeps).set({ status: 'failed', error: errorText(e), finishedAt: new Date() }).where(where)
+      // The row tells the author what will happen next: a retry is coming, or nothing is.
+      const next = willRetry(e, deps.attempt) ? { status: 'queued' as const, finishedAt: null } : { status: 'failed' as const, finishedAt: new Date() }
+      await database.update(problemSweeps).set({ ...next, error: sweepErrorText(e, deps.attempt) }).where(where)
     } catch (writeError) {
       console.error(`problem-sweep ${sweepId}: could not record the failure:`, writeError instanceof Error ? writeError.message : writeError)
     }

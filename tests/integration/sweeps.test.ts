@@ -157,6 +157,32 @@ test('the worker fails a malformed job at once, without retries, into the dead-l
   expect(await boss.getQueueSize(DEAD_LETTER_QUEUE)).toBe(deadBefore + 1)
 })
 
+test('between a failed attempt and its retry the sweep says a retry is coming; after the last attempt it is failed', async () => {
+  const { ownerId, versionId } = await makeVersion(carnot)
+  // A definition the handler cannot read makes every attempt throw once the sweep is running.
+  await db().execute(sql`update problem_versions set definition = 'null'::jsonb where id = ${versionId}`)
+  const [row] = await db().insert(problemSweeps).values({ problemVersionId: versionId, requestedBy: ownerId, total: 10 }).returning()
+  const boss = await getBoss()
+  // Sent around enqueue() for a quick retry: one retry, a second after the first failure.
+  const jobId = await boss.send('problem-sweep', { v: 1, sweepId: row!.id }, { retryLimit: 1, retryDelay: 1, retryBackoff: false })
+  expect(jobId).not.toBeNull()
+
+  const waiting = new Set<string>()
+  const until = Date.now() + 30_000
+  let view = await getSweep(db(), row!.id)
+  while (view?.status !== 'failed' && Date.now() < until) {
+    if (view?.status === 'queued' && view.error !== null) waiting.add(view.error)
+    await new Promise((r) => setTimeout(r, 50))
+    view = await getSweep(db(), row!.id)
+  }
+  expect([...waiting]).toEqual([expect.stringMatching(/^Attempt 1 of 2 stopped \(.+\); trying again shortly\.$/)])
+  expect(view).toMatchObject({ status: 'failed', error: expect.stringMatching(/^The check stopped after 2 attempts: .+/) })
+  expect(view!.finishedAt).not.toBeNull()
+  expect(await boss.getJobById('problem-sweep', jobId!)).toMatchObject({ state: 'failed', retryCount: 1 })
+  expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed (attempt 1 of 2)`))
+  expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed (attempt 2 of 2)`))
+})
+
 test('a job enqueued inside a transaction that rolls back is never sent', async () => {
   const jobsFor = async (key: string) => (await db().execute(sql`select count(*)::int as n from pgboss.job where singleton_key = ${key}`)).rows[0]!.n
   const { ownerId, versionId } = await makeVersion(carnot)
