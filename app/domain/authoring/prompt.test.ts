@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest'
 import type { DrawnGiven } from './definition.ts'
-import { renderMarkdown, renderPrompt } from './prompt.ts'
+import { UNCLOSED_DISPLAY, UNCLOSED_INLINE, renderMarkdown, renderPrompt } from './prompt.ts'
 
 const T1: DrawnGiven = { name: 'T1', label: 'inlet temperature', value: 300, unit: 'K', text: '300 K' }
 const r: DrawnGiven = { name: 'r', label: 'compression ratio', value: 8, unit: '', text: '8' }
@@ -42,6 +42,41 @@ describe('renderPrompt', () => {
     const out = renderPrompt('Fuel costs \\$5 per litre, not $5 and $6.', [])
     expect(out.html).toContain('Fuel costs $5 per litre, not $5 and $6.')
     expect(out.html).not.toContain('<math')
+    expect(out.errors).toEqual([])
+  })
+
+  test('an unclosed $ is reported and its text still shows', () => {
+    const out = renderPrompt('The fee is $x per **kg**.', [])
+    expect(out.errors).toEqual([{ message: 'A $ starts math that is never closed; write \\$ for a dollar sign.' }])
+    expect(out.html).toContain('The fee is $x per <strong>kg</strong>.')
+    expect(out.html).not.toContain('<math')
+  })
+
+  test('a closing $ must be in the same paragraph', () => {
+    const out = renderPrompt('Start $x here\n\nand $y$ there', [])
+    expect(out.errors).toEqual([{ message: UNCLOSED_INLINE }])
+    expect(out.html).toContain('<p>Start $x here</p>')
+    expect(out.html.match(/<math/g)).toHaveLength(1)
+  })
+
+  test('each unclosed $ is reported once, an unclosed $$ once as display math', () => {
+    const out = renderPrompt('Energy $$E = mc^2 and $a, then $b.', [])
+    expect(out.errors).toEqual([{ message: UNCLOSED_DISPLAY }, { message: UNCLOSED_INLINE }, { message: UNCLOSED_INLINE }])
+    expect(out.html).toContain('Energy $$E = mc^2 and $a, then $b.')
+    const block = renderPrompt('$$\n\\eta = 1\n\nNo closing line.', [])
+    expect(block.errors).toEqual([{ message: UNCLOSED_DISPLAY }])
+  })
+
+  test.each([
+    ['money: a digit after the $', 'It costs $5 and $6 per tonne.'],
+    ['money at the end of a sentence', 'Fuel was $3.'],
+    ['a $ before a space is no opener', 'Pay $ 5 now'],
+    ['a $ at the end', 'Priced in US$'],
+    ['an escaped dollar', 'Write \\$x for a dollar.'],
+    ['in a code span', 'Type `$x` here.'],
+    ['closed math', 'With $x$ and $$y$$.'],
+  ])('no unclosed-math error: %s', (_name, text) => {
+    expect(renderPrompt(text, []).errors).toEqual([])
   })
 
   test('@@{ shows a literal @{', () => {

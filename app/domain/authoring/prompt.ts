@@ -84,6 +84,9 @@ function findClosing(src: string, from: number, max: number, display: boolean): 
   return -1
 }
 
+export const UNCLOSED_INLINE = 'A $ starts math that is never closed; write \\$ for a dollar sign.'
+export const UNCLOSED_DISPLAY = 'A $$ starts display math that is never closed; close it with $$, or write \\$ for a dollar sign.'
+
 function mathInline(state: StateInline, silent: boolean): boolean {
   const src = state.src
   const pos = state.pos
@@ -92,7 +95,18 @@ function mathInline(state: StateInline, silent: boolean): boolean {
   const start = pos + (display ? 2 : 1)
   if (!display && isSpace(src[start])) return false
   const close = findClosing(src, start, state.posMax, display)
-  if (close < 0) return false
+  if (close < 0) {
+    // Shown as text either way; an author who meant math should hear that it never closed.
+    // Pandoc's rule (common practice): "$5 and $6" is money, so a digit after the $ is no error.
+    if (!silent && !/\d/.test(src[start] ?? '')) {
+      const env = state.env as unknown as RenderEnv
+      env.errors.push({ message: display ? UNCLOSED_DISPLAY : UNCLOSED_INLINE })
+    }
+    // Both dollars of "$$" are taken as text here, so the second is not read as a new opener.
+    if (!silent) state.pending += display ? '$$' : '$'
+    state.pos = start
+    return true
+  }
   const content = src.slice(start, close)
   if (content.trim() === '') return false
   if (!silent) {
