@@ -28,6 +28,12 @@ const FAILURE_WORDS: Readonly<Record<string, string>> = {
   'quality-out-of-range': 'Quality outside 0–1',
 }
 
+/** The worker writes the whole sentence ("The check stopped after 3 attempts: …"), ending as its reason ends. */
+function stoppedText(error: string | null): string {
+  if (error === null) return 'The check stopped for an unknown reason.'
+  return /[.!?…]$/.test(error) ? error : `${error}.`
+}
+
 async function fetchSweep(id: number): Promise<SweepSnapshot> {
   const res = await fetch(`/api/sweeps/${id}`, { headers: { Accept: 'application/json' } })
   if (!res.ok) throw new Error(`The check's progress could not be read (${res.status}).`)
@@ -77,14 +83,14 @@ export function SweepPanel({ versionNumber, initial }: { versionNumber: number; 
       {sweep ? (
         <div className="mt-5" aria-live="polite">
           <p className="text-sm">
-            {sweep.status === 'queued' ? 'Waiting for a worker…' : null}
+            {sweep.status === 'queued' ? (sweep.error ?? 'Waiting for a worker…') : null}
             {sweep.status === 'running' ? `Checked ${sweep.checked} of ${sweep.total} variants…` : null}
             {sweep.status === 'done'
               ? sweep.failed === 0
                 ? `All ${sweep.checked} variants are physical.`
                 : `${sweep.failed} of ${sweep.checked} variants failed a check.`
               : null}
-            {sweep.status === 'failed' ? `The check stopped: ${sweep.error ?? 'unknown reason'}.` : null}
+            {sweep.status === 'failed' ? stoppedText(sweep.error) : null}
           </p>
           <progress className="mt-2 h-2 w-full" max={sweep.total} value={sweep.checked} aria-label="Variants checked">
             {sweep.checked} of {sweep.total}
