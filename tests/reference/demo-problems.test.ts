@@ -7,6 +7,7 @@ import { describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { cycleOf } from '#app/domain/authoring/definition.ts'
 import { lintDefinition } from '#app/domain/authoring/lint.ts'
+import { renderPrompt } from '#app/domain/authoring/prompt.ts'
 import { sweepVariants } from '#app/domain/authoring/sweep.ts'
 import { drawVariant } from '#app/domain/authoring/variant.ts'
 import { templates } from '#app/domain/thermo/index.ts'
@@ -29,6 +30,16 @@ describe.each(versions)('%s', (_label, def) => {
 
   test('passes the authoring checks', () => {
     expect(lintDefinition(def)).toEqual([])
+  })
+
+  test('its prompt renders without errors, asking each find on a line of its own', () => {
+    const drawn = drawVariant(def, 1, { convention: 'engineering' })
+    if (!drawn.ok) throw new Error(drawn.error.message)
+    const displays = Object.fromEntries(def.givens.filter((g) => g.display).map((g) => [g.name, g.display!]))
+    const { html, errors } = renderPrompt(def.prompt, drawn.variant.givens, displays)
+    expect(errors).toEqual([])
+    // Some prompts also list the cycle's steps, so at least one item per find.
+    expect(html.match(/<li>/g)?.length ?? 0).toBeGreaterThanOrEqual(def.finds.length)
   })
 
   test.each(['engineering', 'chemistry'] as const)('100 variants in the %s convention are all physical', (convention) => {
