@@ -178,7 +178,9 @@ test('between a failed attempt and its retry the sweep says a retry is coming; a
   expect([...waiting]).toEqual([expect.stringMatching(/^Attempt 1 of 2 stopped \(.+\); trying again shortly\.$/)])
   expect(view).toMatchObject({ status: 'failed', error: expect.stringMatching(/^The check stopped after 2 attempts: .+/) })
   expect(view!.finishedAt).not.toBeNull()
-  expect(await boss.getJobById('problem-sweep', jobId!)).toMatchObject({ state: 'failed', retryCount: 1 })
+  // The handler writes the row before it rethrows; pg-boss records the failure a moment later.
+  await expect.poll(async () => boss.getJobById('problem-sweep', jobId!), { timeout: 10_000 }).toMatchObject({ state: 'failed', retryCount: 1 })
+  await expect.poll(() => workerErrors.length, { timeout: 10_000 }).toBeGreaterThanOrEqual(2)
   expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed (attempt 1 of 2)`))
   expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed (attempt 2 of 2)`))
 })
