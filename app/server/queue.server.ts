@@ -22,8 +22,20 @@ export const PGBOSS_SCHEMA = 'pgboss'
  */
 export const queuePayloads = {
   'problem-sweep': z.object({ v: z.literal(1), sweepId: z.number().int().positive() }),
-  // TODO(#6): 'grade-submission', 'send-mail' and 'export-grades' arrive here, each with
-  // its options in `queueSettings` and its handler in jobs/handlers/.
+  /** Grade one stored submission (jobs/handlers/grade-submission.ts); idempotent on the id. */
+  'grade-submission': z.object({ v: z.literal(1), submissionId: z.number().int().positive() }),
+  /** Apply a previewed regrade of one assignment item (jobs/handlers/regrade.ts). */
+  regrade: z.object({ v: z.literal(1), regradeId: z.number().int().positive() }),
+  /** One e-mail, composed when it was queued (jobs/handlers/send-mail.ts). */
+  'send-mail': z.object({
+    v: z.literal(1),
+    to: z.string().email(),
+    subject: z.string().min(1).max(300),
+    text: z.string().max(100_000),
+    html: z.string().max(200_000).optional(),
+  }),
+  /** Build a large grade export (a term's courses) into grade_exports (jobs/handlers/export-grades.ts). */
+  'export-grades': z.object({ v: z.literal(1), exportId: z.number().int().positive() }),
 } as const
 
 export type QueueName = keyof typeof queuePayloads
@@ -44,6 +56,24 @@ export const queueSettings: { [N in QueueName]: QueueSettings<N> } = {
     // 'short': at most one waiting job per singleton key.
     options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
     singletonKey: (p) => `sweep-${p.sweepId}`,
+  },
+  'grade-submission': {
+    // No singleton key: a duplicate job is harmless (the handler skips a graded submission),
+    // and submissions arrive in bursts that 'short' would throttle.
+    options: { policy: 'standard', retryLimit: 3, retryDelay: 2, retryBackoff: true, expireInSeconds: 5 * 60, deadLetter: DEAD_LETTER_QUEUE },
+  },
+  regrade: {
+    options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    singletonKey: (p) => `regrade-${p.regradeId}`,
+  },
+  'send-mail': {
+    // 'standard': many mails wait at once ('short' keeps one per key, and no key is a key).
+    // Duplicates are prevented where mail is queued: in the transaction that records why.
+    options: { policy: 'standard', retryLimit: 5, retryDelay: 30, retryBackoff: true, expireInSeconds: 5 * 60, deadLetter: DEAD_LETTER_QUEUE },
+  },
+  'export-grades': {
+    options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    singletonKey: (p) => `export-${p.exportId}`,
   },
 }
 

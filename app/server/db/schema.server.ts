@@ -12,6 +12,7 @@ import {
   index,
   integer,
   jsonb,
+  doublePrecision,
   pgEnum,
   pgTable,
   text,
@@ -241,6 +242,253 @@ export const problemSweeps = pgTable(
   (t) => [index('problem_sweeps_version_idx').on(t.problemVersionId, t.createdAt)],
 )
 
+// ---- Assignments, submissions and grading (#6) -----------------------------------------
+
+/** closed: nothing is accepted after the due date; penalty: accepted for lateDaysAllowed days, less a share per day. */
+export const latePolicy = pgEnum('late_policy', ['closed', 'penalty'])
+/** after-due: each student sees the key once they can no longer submit; manual: when an instructor releases it. */
+export const keyRelease = pgEnum('key_release', ['after-due', 'manual'])
+export const submissionStatus = pgEnum('submission_status', ['queued', 'graded', 'failed'])
+export const verdict = pgEnum('verdict', ['correct', 'incorrect', 'unreadable', 'wrong-dimension'])
+export const jobStatus = pgEnum('job_status', ['queued', 'running', 'done', 'failed'])
+
+/** Work set in a course: bank problems (fixed versions), dates, attempts, late and key policies. */
+export const assignments = pgTable(
+  'assignments',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    courseId: integer()
+      .notNull()
+      .references(() => courses.id, { onDelete: 'cascade' }),
+    title: text().notNull(),
+    /** Markdown shown above the problems. */
+    instructions: text().notNull().default(''),
+    opensAt: timestamp({ withTimezone: true }).notNull(),
+    dueAt: timestamp({ withTimezone: true }).notNull(),
+    /** Attempts allowed per find (an extension may add more for one student). */
+    attemptsPerFind: integer().notNull().default(3),
+    latePolicy: latePolicy().notNull().default('closed'),
+    /** penalty policy: the share of a late answer's points lost per day (or part day) late, in percent. */
+    latePenaltyPercentPerDay: doublePrecision().notNull().default(0),
+    /** penalty policy: how many days after the (extended) due date answers are still accepted. */
+    lateDaysAllowed: integer().notNull().default(0),
+    keyRelease: keyRelease().notNull().default('after-due'),
+    /** manual release: when an instructor released the key and worked solutions. */
+    keyReleasedAt: timestamp({ withTimezone: true }),
+    /** when an instructor released the grades (students are e-mailed). */
+    gradesReleasedAt: timestamp({ withTimezone: true }),
+    createdBy: integer()
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('assignments_course_idx').on(t.courseId, t.dueAt),
+    check('assignments_due_after_open', sql`${t.dueAt} > ${t.opensAt}`),
+    check('assignments_attempts_positive', sql`${t.attemptsPerFind} >= 1`),
+  ],
+)
+
+/** One problem of an assignment, pinned to a problem version. */
+export const assignmentItems = pgTable(
+  'assignment_items',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    assignmentId: integer()
+      .notNull()
+      .references(() => assignments.id, { onDelete: 'cascade' }),
+    /** 1, 2, 3, … in the order students see them */
+    position: integer().notNull(),
+    problemId: integer()
+      .notNull()
+      .references(() => problems.id),
+    problemVersionId: integer()
+      .notNull()
+      .references(() => problemVersions.id),
+    /** The problem's worth in this assignment; its finds share it in proportion to their own points. */
+    points: doublePrecision().notNull(),
+    /** findName → Tolerance replacing the version's tolerance for this assignment (a regrade may set it). */
+    toleranceOverrides: jsonb().$type<Record<string, unknown>>().notNull().default(sql`'{}'::jsonb`),
+  },
+  (t) => [index('assignment_items_assignment_idx').on(t.assignmentId, t.position), check('assignment_items_points', sql`${t.points} >= 0`)],
+)
+
+/** A per-student accommodation: a later due date and/or more attempts per find. */
+export const extensions = pgTable(
+  'extensions',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    assignmentId: integer()
+      .notNull()
+      .references(() => assignments.id, { onDelete: 'cascade' }),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    /** null: the assignment's own due date */
+    dueAt: timestamp({ withTimezone: true }),
+    extraAttempts: integer().notNull().default(0),
+    reason: text().notNull().default(''),
+    createdBy: integer()
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('extensions_assignment_user_key').on(t.assignmentId, t.userId), check('extensions_extra_attempts', sql`${t.extraAttempts} >= 0`)],
+)
+
+/** One press of Submit on one problem: the answers exactly as typed, kept for good. */
+export const submissions = pgTable(
+  'submissions',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    assignmentId: integer()
+      .notNull()
+      .references(() => assignments.id, { onDelete: 'cascade' }),
+    itemId: integer()
+      .notNull()
+      .references(() => assignmentItems.id, { onDelete: 'cascade' }),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    /** findName → the text typed, every find of the form (blank ones included) */
+    answers: jsonb().$type<Record<string, string>>().notNull(),
+    submittedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    status: submissionStatus().notNull().default('queued'),
+    /** whole days (or parts of days) after the student's due date; 0 when on time */
+    daysLate: integer().notNull().default(0),
+    /** the share of points lost to lateness, 0…1 */
+    latePenalty: doublePrecision().notNull().default(0),
+    gradedAt: timestamp({ withTimezone: true }),
+    /** why grading stopped for good (status failed) */
+    error: text(),
+  },
+  (t) => [
+    index('submissions_item_user_idx').on(t.itemId, t.userId, t.submittedAt),
+    index('submissions_assignment_status_idx').on(t.assignmentId, t.status),
+  ],
+)
+
+/** The grade of one find in one submission; counted answers only (blank or unreadable ones use no attempt). */
+export const partResults = pgTable(
+  'part_results',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    submissionId: integer()
+      .notNull()
+      .references(() => submissions.id, { onDelete: 'cascade' }),
+    assignmentId: integer().notNull(),
+    itemId: integer().notNull(),
+    userId: integer().notNull(),
+    findName: text().notNull(),
+    /** the text as typed */
+    answer: text().notNull(),
+    /** this find's attempt number for this student, 1…n */
+    attempt: integer().notNull(),
+    /** null until graded */
+    verdict: verdict(),
+    /** the answer's value in the find's unit, as read (statistics group wrong answers by it) */
+    value: doublePrecision(),
+    /** points earned after the late penalty, in the assignment's points */
+    score: doublePrecision(),
+    /** the most this find can earn in the assignment */
+    maxScore: doublePrecision().notNull(),
+    message: text(),
+    pitfallId: text(),
+    pitfallFeedback: text(),
+    /** checkAnswer's detail (difference, allowed difference, how the answer was read) */
+    detail: jsonb(),
+    /** the problem version and tolerance the grade was computed against */
+    gradedVersionId: integer(),
+    graderVersion: text(),
+    gradedAt: timestamp({ withTimezone: true }),
+    /** the regrade that last changed this row */
+    regradeId: integer(),
+  },
+  (t) => [
+    uniqueIndex('part_results_submission_find_key').on(t.submissionId, t.findName),
+    index('part_results_item_user_find_idx').on(t.itemId, t.userId, t.findName),
+    index('part_results_assignment_idx').on(t.assignmentId),
+  ],
+)
+
+/** A regrade of one assignment item: previewed, then applied by a job that reports progress. */
+export const regrades = pgTable(
+  'regrades',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    assignmentId: integer()
+      .notNull()
+      .references(() => assignments.id, { onDelete: 'cascade' }),
+    itemId: integer()
+      .notNull()
+      .references(() => assignmentItems.id, { onDelete: 'cascade' }),
+    fromVersionId: integer().notNull(),
+    toVersionId: integer().notNull(),
+    toleranceOverrides: jsonb().$type<Record<string, unknown>>().notNull().default(sql`'{}'::jsonb`),
+    status: jobStatus().notNull().default('queued'),
+    /** parts to regrade, parts done, parts whose score changed */
+    total: integer().notNull().default(0),
+    done: integer().notNull().default(0),
+    changed: integer().notNull().default(0),
+    error: text(),
+    requestedBy: integer()
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    finishedAt: timestamp({ withTimezone: true }),
+  },
+  (t) => [index('regrades_assignment_idx').on(t.assignmentId, t.createdAt)],
+)
+
+/** A large grade export made by the worker (a term's courses for a department admin). */
+export const gradeExports = pgTable(
+  'grade_exports',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    requestedBy: integer()
+      .notNull()
+      .references(() => users.id),
+    termId: integer()
+      .notNull()
+      .references(() => terms.id),
+    status: jobStatus().notNull().default('queued'),
+    rows: integer().notNull().default(0),
+    fileName: text().notNull(),
+    csv: text(),
+    error: text(),
+    createdAt: createdAt(),
+    finishedAt: timestamp({ withTimezone: true }),
+  },
+  (t) => [index('grade_exports_requested_idx').on(t.requestedBy, t.createdAt)],
+)
+
+/**
+ * Append-only record of every score change (a regrade here; TA decisions in #7): who, when,
+ * what it was and what it became. Rows are never updated or deleted.
+ */
+export const auditEvents = pgTable(
+  'audit_events',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    at: createdAt(),
+    /** null: the system (a job) */
+    actorId: integer().references(() => users.id),
+    courseId: integer().notNull(),
+    assignmentId: integer(),
+    /** the student the change is about */
+    userId: integer(),
+    partResultId: integer(),
+    /** 'regrade', 'extension', 'key-released', 'grades-released', … */
+    kind: text().notNull(),
+    before: jsonb(),
+    after: jsonb(),
+    note: text().notNull().default(''),
+  },
+  (t) => [index('audit_events_course_idx').on(t.courseId, t.at), index('audit_events_user_idx').on(t.userId, t.at)],
+)
+
 export const usersRelations = relations(users, ({ many }) => ({ memberships: many(memberships) }))
 export const coursesRelations = relations(courses, ({ one, many }) => ({
   term: one(terms, { fields: [courses.termId], references: [terms.id] }),
@@ -262,3 +510,13 @@ export type Problem = typeof problems.$inferSelect
 export type ProblemVersion = typeof problemVersions.$inferSelect
 export type ProblemSweep = typeof problemSweeps.$inferSelect
 export type ProblemVisibility = (typeof problemVisibility.enumValues)[number]
+export type Assignment = typeof assignments.$inferSelect
+export type AssignmentItem = typeof assignmentItems.$inferSelect
+export type Extension = typeof extensions.$inferSelect
+export type Submission = typeof submissions.$inferSelect
+export type PartResult = typeof partResults.$inferSelect
+export type Regrade = typeof regrades.$inferSelect
+export type GradeExport = typeof gradeExports.$inferSelect
+export type AuditEvent = typeof auditEvents.$inferSelect
+export type LatePolicy = (typeof latePolicy.enumValues)[number]
+export type KeyRelease = (typeof keyRelease.enumValues)[number]

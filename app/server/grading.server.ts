@@ -1,0 +1,194 @@
+/**
+ * Grading on the server: a student's variant (recomputed from the frozen problem version and
+ * the seed, cached per process), grading one stored submission in one transaction, and the
+ * best score per find that gradebooks and exports add up.
+ *
+ * Idempotent by construction: gradeSubmission locks the submission row and grades only a
+ * submission still 'queued', so a retried or duplicated job changes nothing the second time.
+ */
+import { and, eq, inArray, isNull, sql } from 'drizzle-orm'
+import { gradeAnswer } from '#app/domain/assignments/grade-answer.ts'
+import { findShares } from '#app/domain/assignments/scoring.ts'
+import type { DrawResult, ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { seedFrom } from '#app/domain/authoring/seed.ts'
+import { drawVariant, resolveConvention } from '#app/domain/authoring/variant.ts'
+import type { Tolerance } from '#app/domain/grading/index.ts'
+import type { Convention } from '#app/domain/thermo/index.ts'
+import type { Db, Tx } from './db/client.server.ts'
+import { assignmentItems, assignments, courses, partResults, problemVersions, submissions } from './db/schema.server.ts'
+
+type Database = Db | Tx
+
+/** Changes when the way answers are graded changes, so a grade says which rules made it. */
+export const GRADER_VERSION = 'cw-grader-1'
+
+/** The seed of a student's variant of a problem in an assignment (the problem, not the version: a regrade keeps the numbers). */
+export function studentSeed(assignmentId: number, problemId: number, userId: number): number {
+  return seedFrom('assignment', assignmentId, 'problem', problemId, 'student', userId)
+}
+
+// Variants are recomputed on demand; this keeps the last few thousand per process so a
+// burst of submissions to one problem solves each student's cycle once.
+const VARIANT_CACHE_LIMIT = 5000
+const variantCache = new Map<string, DrawResult>()
+
+/** A student's variant of a problem version in the course's sign convention. Never throws. */
+export function studentVariant(input: {
+  versionId: number
+  definition: ProblemDefinition
+  assignmentId: number
+  problemId: number
+  userId: number
+  courseConvention: Convention
+}): DrawResult {
+  const seed = studentSeed(input.assignmentId, input.problemId, input.userId)
+  const convention = resolveConvention(input.definition, input.courseConvention)
+  const cacheKey = `${input.versionId}|${seed}|${convention}`
+  const hit = variantCache.get(cacheKey)
+  if (hit) {
+    // Map keeps insertion order: re-inserting makes this the most recently used.
+    variantCache.delete(cacheKey)
+    variantCache.set(cacheKey, hit)
+    return hit
+  }
+  let drawn: DrawResult
+  try {
+    drawn = drawVariant(input.definition, seed, { convention })
+  } catch (e) {
+    console.error('drawVariant threw', e)
+    drawn = { ok: false, seed, error: { code: 'invalid-definition', message: 'This variant could not be drawn.' } }
+  }
+  variantCache.set(cacheKey, drawn)
+  if (variantCache.size > VARIANT_CACHE_LIMIT) variantCache.delete(variantCache.keys().next().value!)
+  return drawn
+}
+
+export type GradeOutcome = 'graded' | 'already-graded' | 'missing' | 'failed'
+
+/**
+ * Grades every ungraded part of a submission and marks it graded, in one transaction.
+ * 'failed' means the variant could not be drawn (a broken problem version): the submission is
+ * marked failed with the reason, which staff see; retrying would not help.
+ */
+export async function gradeSubmission(database: Db, submissionId: number): Promise<GradeOutcome> {
+  return database.transaction(async (tx) => {
+    const [row] = await tx
+      .select({
+        id: submissions.id,
+        status: submissions.status,
+        userId: submissions.userId,
+        assignmentId: submissions.assignmentId,
+        latePenalty: submissions.latePenalty,
+        itemId: submissions.itemId,
+        itemPoints: assignmentItems.points,
+        problemId: assignmentItems.problemId,
+        versionId: assignmentItems.problemVersionId,
+        toleranceOverrides: assignmentItems.toleranceOverrides,
+        definition: problemVersions.definition,
+        convention: courses.signConvention,
+      })
+      .from(submissions)
+      .innerJoin(assignmentItems, eq(assignmentItems.id, submissions.itemId))
+      .innerJoin(problemVersions, eq(problemVersions.id, assignmentItems.problemVersionId))
+      .innerJoin(assignments, eq(assignments.id, submissions.assignmentId))
+      .innerJoin(courses, eq(courses.id, assignments.courseId))
+      .where(eq(submissions.id, submissionId))
+      .for('update', { of: submissions })
+    if (!row) return 'missing'
+    if (row.status !== 'queued') return 'already-graded'
+
+    const definition = row.definition as ProblemDefinition
+    const drawn = studentVariant({
+      versionId: row.versionId,
+      definition,
+      assignmentId: row.assignmentId,
+      problemId: row.problemId,
+      userId: row.userId,
+      courseConvention: row.convention,
+    })
+    if (!drawn.ok) {
+      await tx
+        .update(submissions)
+        .set({ status: 'failed', gradedAt: sql`clock_timestamp()`, error: `The problem version could not be solved for this student: ${drawn.error.message}` })
+        .where(eq(submissions.id, submissionId))
+      return 'failed'
+    }
+    const parts = await tx
+      .select({ id: partResults.id, findName: partResults.findName, answer: partResults.answer })
+      .from(partResults)
+      .where(and(eq(partResults.submissionId, submissionId), isNull(partResults.verdict)))
+    const shares = findShares(row.itemPoints, definition.finds.map((f) => f.points))
+    const overrides = row.toleranceOverrides as Record<string, Tolerance>
+    const graded = parts.map((p) => {
+      const index = definition.finds.findIndex((f) => f.name === p.findName)
+      const find = definition.finds[index]
+      if (!find) {
+        return { id: p.id, verdict: 'incorrect' as const, value: null, score: 0, message: 'This question is no longer part of the problem.', pitfallId: null, pitfallFeedback: null, detail: null }
+      }
+      const g = gradeAnswer({ find, variant: drawn.variant, answer: p.answer, tolerance: overrides[find.name], share: shares[index] ?? 0, latePenalty: row.latePenalty })
+      return { id: p.id, verdict: g.verdict, value: g.value, score: g.score, message: g.message, pitfallId: g.pitfall?.id ?? null, pitfallFeedback: g.pitfall?.feedback ?? null, detail: g.detail }
+    })
+    if (graded.length > 0) {
+      // One statement for all parts of the submission.
+      const values = sql.join(
+        graded.map(
+          (g) =>
+            sql`(${g.id}::int, ${g.verdict}::verdict, ${g.value}::double precision, ${g.score}::double precision, ${g.message}::text, ${g.pitfallId}::text, ${g.pitfallFeedback}::text, ${g.detail === null ? null : JSON.stringify(g.detail)}::jsonb)`,
+        ),
+        sql`, `,
+      )
+      await tx.execute(sql`
+        update ${partResults} as p set
+          verdict = v.verdict, value = v.value, score = v.score, message = v.message,
+          pitfall_id = v.pitfall_id, pitfall_feedback = v.pitfall_feedback, detail = v.detail,
+          graded_version_id = ${row.versionId}, grader_version = ${GRADER_VERSION}, graded_at = clock_timestamp()
+        from (values ${values}) as v(id, verdict, value, score, message, pitfall_id, pitfall_feedback, detail)
+        where p.id = v.id`)
+    }
+    await tx.update(submissions).set({ status: 'graded', gradedAt: sql`clock_timestamp()`, error: null }).where(eq(submissions.id, submissionId))
+    return 'graded'
+  })
+}
+
+export type FindScoreRow = {
+  assignmentId: number
+  itemId: number
+  userId: number
+  findName: string
+  /** best score over graded answers */
+  score: number
+  maxScore: number
+  attempts: number
+  pending: number
+  correct: boolean
+  /** any counted answer after the student's due date */
+  late: boolean
+  firstCorrect: boolean
+}
+
+/**
+ * The best score of each (student, find) with an answer, for the given assignments and
+ * optionally one student. Finds never answered have no row (they score 0).
+ */
+export async function listFindScores(database: Database, filter: { assignmentIds: number[]; userId?: number }): Promise<FindScoreRow[]> {
+  if (filter.assignmentIds.length === 0) return []
+  const rows = await database
+    .select({
+      assignmentId: partResults.assignmentId,
+      itemId: partResults.itemId,
+      userId: partResults.userId,
+      findName: partResults.findName,
+      score: sql<number>`coalesce(max(${partResults.score}), 0)::float8`,
+      maxScore: sql<number>`max(${partResults.maxScore})::float8`,
+      attempts: sql<number>`count(*)::int`,
+      pending: sql<number>`(count(*) filter (where ${partResults.verdict} is null and ${submissions.status} = 'queued'))::int`,
+      correct: sql<boolean>`bool_or(${partResults.verdict} = 'correct')`,
+      late: sql<boolean>`bool_or(${submissions.daysLate} > 0)`,
+      firstCorrect: sql<boolean>`bool_or(${partResults.attempt} = 1 and ${partResults.verdict} = 'correct')`,
+    })
+    .from(partResults)
+    .innerJoin(submissions, eq(submissions.id, partResults.submissionId))
+    .where(and(inArray(partResults.assignmentId, filter.assignmentIds), filter.userId === undefined ? undefined : eq(partResults.userId, filter.userId)))
+    .groupBy(partResults.assignmentId, partResults.itemId, partResults.userId, partResults.findName)
+  return rows.map((r) => ({ ...r, correct: r.correct === true, late: r.late === true, firstCorrect: r.firstCorrect === true }))
+}
