@@ -11,7 +11,11 @@ import { closeDb, db, type Db } from '#app/server/db/client.server.ts'
 import * as schema from '#app/server/db/schema.server.ts'
 import { env } from '#app/server/env.server.ts'
 import { bossOptions, ensureQueues, PermanentJobError, PGBOSS_SCHEMA } from '#app/server/queue.server.ts'
+import { handleExportGrades } from './handlers/export-grades.ts'
+import { handleGradeSubmission } from './handlers/grade-submission.ts'
 import { handleProblemSweep } from './handlers/problem-sweep.ts'
+import { handleRegrade } from './handlers/regrade.ts'
+import { handleSendMail } from './handlers/send-mail.ts'
 
 export type RunningWorker = { stop: () => Promise<void> }
 
@@ -28,8 +32,10 @@ export type WorkerOptions = {
   /** Defaults to DATABASE_URL. */
   databaseUrl?: string
   log?: (line: string) => void
-  /** Where a failed job is reported; a thrown job is also retried or failed by pg-boss. */
+  /** Where a failed job is reported; a failed job is retried or dead-lettered by pg-boss. */
   logError?: (line: string) => void
+  /** Fetch loops on the grading queue (default 3). */
+  gradingLoops?: number
 }
 
 export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWorker> {
@@ -38,7 +44,7 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
   const url = opts.databaseUrl ?? env().DATABASE_URL
   // Given a URL, the handlers write through a pool on that URL too, not the process's
   // db() (which follows DATABASE_URL), so jobs and their rows stay in one database.
-  const ownPool = opts.databaseUrl ? new pg.Pool({ connectionString: url, max: 3 }) : undefined
+  const ownPool = opts.databaseUrl ? new pg.Pool({ connectionString: url, max: 8 }) : undefined
   ownPool?.on('error', (e) => logError(`PostgreSQL pool error (worker): ${e.message}`))
   const database: Db = ownPool ? drizzle(ownPool, { schema, casing: 'snake_case' }) : db()
 
@@ -47,22 +53,48 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
   await boss.start()
   await ensureQueues(boss)
 
+  type Attempt = { number: number; of: number }
+  type Handler = (payload: unknown, deps: { database: Db; attempt: Attempt }) => Promise<unknown>
+  /**
+   * Each queue: its handler, how many jobs one fetch takes, how many of them run at once and
+   * how many fetch loops run side by side. pg-boss 10 waits its polling interval (0.5 s at
+   * the least) between fetches of one loop, so grading takes big batches on several loops.
+   */
+  const queues: { name: string; handle: Handler; batchSize: number; concurrency: number; loops: number }[] = [
+    { name: 'grade-submission', handle: handleGradeSubmission, batchSize: 50, concurrency: 6, loops: opts.gradingLoops ?? 3 },
+    { name: 'problem-sweep', handle: handleProblemSweep, batchSize: 1, concurrency: 1, loops: 1 },
+    { name: 'regrade', handle: handleRegrade, batchSize: 1, concurrency: 1, loops: 1 },
+    { name: 'send-mail', handle: handleSendMail, batchSize: 10, concurrency: 2, loops: 1 },
+    { name: 'export-grades', handle: handleExportGrades, batchSize: 1, concurrency: 1, loops: 1 },
+  ]
+
   // With its metadata a job says which try this is: pg-boss counts retries from 0 and
-  // allows retryLimit of them after the first run.
-  await boss.work<unknown>('problem-sweep', { batchSize: 1, includeMetadata: true }, async (jobs) => {
-    for (const job of jobs) {
-      const attempt = { number: job.retryCount + 1, of: job.retryLimit + 1 }
-      try {
-        await handleProblemSweep(job.data, { database, attempt })
-      } catch (e) {
-        const permanent = e instanceof PermanentJobError
-        if (permanent) await failForGood(boss, job)
-        logError(`Job ${job.name} ${job.id} failed${permanent ? ' for good' : ` (attempt ${attempt.number} of ${attempt.of})`}: ${e instanceof Error ? e.message : String(e)}`)
-        throw e
-      }
+  // allows retryLimit of them after the first run. Each job of a batch succeeds or fails on
+  // its own: a failed one is failed here, and pg-boss then completes only the jobs still active.
+  const runOne = async (handle: Handler, job: PgBoss.JobWithMetadata<unknown>) => {
+    const attempt = { number: job.retryCount + 1, of: job.retryLimit + 1 }
+    try {
+      await handle(job.data, { database, attempt })
+    } catch (e) {
+      const permanent = e instanceof PermanentJobError
+      const message = e instanceof Error ? e.message : String(e)
+      logError(`Job ${job.name} ${job.id} failed${permanent ? ' for good' : ` (attempt ${attempt.number} of ${attempt.of})`}: ${message}`)
+      if (permanent) await failForGood(boss, job)
+      await boss.fail(job.name, job.id, { message })
     }
-  })
-  log(`Job worker started on queue problem-sweep (pg-boss schema ${PGBOSS_SCHEMA}).`)
+  }
+  for (const q of queues) {
+    for (let loop = 0; loop < q.loops; loop++) {
+      await boss.work<unknown>(q.name, { batchSize: q.batchSize, includeMetadata: true, pollingIntervalSeconds: 0.5 }, async (jobs) => {
+        let next = 0
+        const lane = async () => {
+          while (next < jobs.length) await runOne(q.handle, jobs[next++]!)
+        }
+        await Promise.all(Array.from({ length: Math.min(q.concurrency, jobs.length) }, lane))
+      })
+    }
+  }
+  log(`Job worker started on queues ${queues.map((q) => q.name).join(', ')} (pg-boss schema ${PGBOSS_SCHEMA}).`)
 
   return {
     stop: async () => {

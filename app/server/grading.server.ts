@@ -192,3 +192,72 @@ export async function listFindScores(database: Database, filter: { assignmentIds
     .groupBy(partResults.assignmentId, partResults.itemId, partResults.userId, partResults.findName)
   return rows.map((r) => ({ ...r, correct: r.correct === true, late: r.late === true, firstCorrect: r.firstCorrect === true }))
 }
+
+export type AssignmentTotalRow = {
+  courseId: number
+  assignmentId: number
+  userId: number
+  /** sum over finds of the best score (late penalties already taken off) */
+  score: number
+  /** the assignment's points (sum of its items' points) */
+  maxScore: number
+  /** answers still waiting for the grader */
+  pending: number
+  /** any counted answer after the student's due date */
+  late: boolean
+}
+
+/**
+ * Each student's total on each assignment of the given courses (students with no answer to
+ * an assignment get a row with score 0). Students are the courses' current student members.
+ */
+export async function listAssignmentTotals(database: Database, filter: { courseIds: number[]; assignmentIds?: number[] }): Promise<AssignmentTotalRow[]> {
+  if (filter.courseIds.length === 0) return []
+  const courseList = sql.join(filter.courseIds.map((id) => sql`${id}`), sql`, `)
+  const assignmentFilter = filter.assignmentIds ? sql`and a.id in (${sql.join([0, ...filter.assignmentIds].map((id) => sql`${id}`), sql`, `)})` : sql``
+  const result = await database.execute<{
+    course_id: number
+    assignment_id: number
+    user_id: number
+    score: number
+    max_score: number
+    pending: number
+    late: boolean
+  }>(sql`
+    with best as (
+      select p.assignment_id, p.user_id, p.item_id, p.find_name,
+             coalesce(max(p.score), 0) as score,
+             count(*) filter (where p.verdict is null and s.status = 'queued') as pending,
+             bool_or(s.days_late > 0) as late
+      from part_results p join submissions s on s.id = p.submission_id
+      join assignments a on a.id = p.assignment_id
+      where a.course_id in (${courseList}) ${assignmentFilter}
+      group by p.assignment_id, p.user_id, p.item_id, p.find_name
+    ),
+    per_student as (
+      select assignment_id, user_id, sum(score) as score, sum(pending) as pending, bool_or(late) as late
+      from best group by assignment_id, user_id
+    ),
+    points as (
+      select a.id as assignment_id, a.course_id, coalesce(sum(i.points), 0) as max_score
+      from assignments a left join assignment_items i on i.assignment_id = a.id
+      where a.course_id in (${courseList}) ${assignmentFilter}
+      group by a.id
+    )
+    select pt.course_id, pt.assignment_id, m.user_id,
+           round(coalesce(ps.score, 0)::numeric, 6)::float8 as score, pt.max_score::float8 as max_score,
+           coalesce(ps.pending, 0)::int as pending, coalesce(ps.late, false) as late
+    from points pt
+    join memberships m on m.course_id = pt.course_id and m.role = 'student'
+    left join per_student ps on ps.assignment_id = pt.assignment_id and ps.user_id = m.user_id
+    order by pt.course_id, pt.assignment_id, m.user_id`)
+  return result.rows.map((r) => ({
+    courseId: r.course_id,
+    assignmentId: r.assignment_id,
+    userId: r.user_id,
+    score: Number(r.score),
+    maxScore: Number(r.max_score),
+    pending: Number(r.pending),
+    late: r.late === true,
+  }))
+}

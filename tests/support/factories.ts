@@ -4,7 +4,21 @@
  */
 import { eq } from 'drizzle-orm'
 import type { Db } from '#app/server/db/client.server.ts'
-import { courses, departments, memberships, terms, users, type CourseRole, type SignConvention } from '#app/server/db/schema.server.ts'
+import { cycleOf, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import {
+  assignmentItems,
+  assignments,
+  courses,
+  departments,
+  memberships,
+  problems,
+  problemVersions,
+  terms,
+  users,
+  type CourseRole,
+  type NewAssignment,
+  type SignConvention,
+} from '#app/server/db/schema.server.ts'
 import { hashPassword } from '#app/server/passwords.server.ts'
 
 let counter = 0
@@ -87,4 +101,94 @@ export async function createBankUser(db: Db, overrides: Partial<{ name: string; 
   const course = await createCourse(db, departmentId === null ? {} : { departmentId })
   await addMember(db, user.id, course.id, 'instructor')
   return { user, viewer: { id: user.id, isAdmin: user.isAdmin, departmentId } }
+}
+
+/**
+ * A bank problem with one version (frozen, as an assignment uses it) owned by `ownerId`,
+ * from a definition (a demo problem's, usually). Returns the problem and version ids.
+ */
+export async function createProblemWithVersion(db: Db, ownerId: number, definition: ProblemDefinition, options: { frozen?: boolean } = {}) {
+  const [problem] = await db
+    .insert(problems)
+    .values({
+      ownerId,
+      title: definition.title,
+      cycle: cycleOf(definition.physics),
+      topics: [...definition.tags.topics],
+      difficulty: definition.tags.difficulty,
+      level: definition.tags.level,
+    })
+    .returning({ id: problems.id })
+  const [version] = await db
+    .insert(problemVersions)
+    .values({ problemId: problem!.id, number: 1, definition, createdBy: ownerId, frozenAt: options.frozen === false ? null : new Date() })
+    .returning({ id: problemVersions.id })
+  return { problemId: problem!.id, versionId: version!.id }
+}
+
+export type AssignmentOverrides = Partial<Omit<NewAssignment, 'courseId' | 'createdBy'>>
+
+/**
+ * An assignment in `courseId` with one item per problem ({ problemId, versionId, points }).
+ * Defaults: opened a day ago, due in a week, 3 attempts per find, closed after due, key after due.
+ */
+export async function createAssignment(
+  db: Db,
+  courseId: number,
+  createdBy: number,
+  items: readonly { problemId: number; versionId: number; points?: number; toleranceOverrides?: Record<string, unknown> }[],
+  overrides: AssignmentOverrides = {},
+) {
+  const now = Date.now()
+  const [assignment] = await db
+    .insert(assignments)
+    .values({
+      courseId,
+      createdBy,
+      title: `Assignment ${next()}`,
+      opensAt: new Date(now - 24 * 3600_000),
+      dueAt: new Date(now + 7 * 24 * 3600_000),
+      ...overrides,
+    })
+    .returning()
+  const itemRows = items.length
+    ? await db
+        .insert(assignmentItems)
+        .values(
+          items.map((it, i) => ({
+            assignmentId: assignment!.id,
+            position: i + 1,
+            problemId: it.problemId,
+            problemVersionId: it.versionId,
+            points: it.points ?? 10,
+            toleranceOverrides: it.toleranceOverrides ?? {},
+          })),
+        )
+        .returning()
+    : []
+  return { assignment: assignment!, items: itemRows }
+}
+
+/**
+ * A course with an instructor, `students` students (sections A and B alternating) and one
+ * assignment over the given demo problem definitions. For integration tests and benches.
+ */
+export async function createCourseWithAssignment(
+  db: Db,
+  definitions: readonly ProblemDefinition[],
+  options: { students?: number; signConvention?: SignConvention; timeZone?: string; assignment?: AssignmentOverrides } = {},
+) {
+  const course = await createCourse(db, { signConvention: options.signConvention ?? 'engineering', timeZone: options.timeZone ?? 'UTC' })
+  const instructor = await createUser(db, { name: 'Course Instructor', departmentId: course.departmentId, password: null })
+  await addMember(db, instructor.id, course.id, 'instructor')
+  const students = []
+  for (let i = 0; i < (options.students ?? 3); i++) {
+    const s = await createUser(db, { name: `Student ${String(i + 1).padStart(3, '0')}`, password: null })
+    await addMember(db, s.id, course.id, 'student', i % 2 === 0 ? 'A' : 'B')
+    students.push(s)
+  }
+  const made = []
+  for (const d of definitions) made.push(await createProblemWithVersion(db, instructor.id, d))
+  const { assignment, items } = await createAssignment(db, course.id, instructor.id, made, options.assignment ?? {})
+  return { course, instructor, students, assignment, items }
 }

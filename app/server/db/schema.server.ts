@@ -511,6 +511,7 @@ export type ProblemVersion = typeof problemVersions.$inferSelect
 export type ProblemSweep = typeof problemSweeps.$inferSelect
 export type ProblemVisibility = (typeof problemVisibility.enumValues)[number]
 export type Assignment = typeof assignments.$inferSelect
+export type NewAssignment = typeof assignments.$inferInsert
 export type AssignmentItem = typeof assignmentItems.$inferSelect
 export type Extension = typeof extensions.$inferSelect
 export type Submission = typeof submissions.$inferSelect
