@@ -22,10 +22,10 @@ export function findShares(itemPoints: number, findPoints: readonly number[]): n
 export function answerScore(verdict: Verdict, latePenalty: number, share: number): number {
   if (verdict !== 'correct') return 0
   const kept = 1 - Math.min(1, Math.max(0, latePenalty))
-  return roundScore(share * kept)
+  return share * kept
 }
 
-/** Scores are kept to 1e-6 of a point so that sums do not show binary round-off (0.30000000000000004). */
+/** For showing and exporting sums: 1e-6 of a point, so binary round-off (0.30000000000000004) never shows. */
 export function roundScore(x: number): number {
   return Math.round(x * 1e6) / 1e6
 }

@@ -1,0 +1,437 @@
+/**
+ * The student's side of an assignment problem: what their page shows (their variant's
+ * prompt, each find's state and last answer, receipts, the key once released) and storing a
+ * press of Submit.
+ *
+ * Submitting: answers that cannot be graded (unreadable, wrong dimension) are reported per
+ * find and use no attempt; blank finds and finds already answered correctly are skipped; a
+ * find out of attempts is refused. The rest are stored with the submission — the answers as
+ * typed, durably — and one grading job is queued in the same transaction, so a stored
+ * submission is always graded and a rolled-back one never is. Attempt numbers are counted
+ * under a per-(item, student) advisory lock, so two quick presses cannot both be attempt 2.
+ */
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm'
+import { precheckAnswer } from '#app/domain/assignments/grade-answer.ts'
+import {
+  attemptsAllowed,
+  isKeyReleased,
+  studentDueAt,
+  submissionWindow,
+  type AssignmentRules,
+  type StudentExtension,
+  type SubmissionWindow,
+} from '#app/domain/assignments/policy.ts'
+import { findShares, findState, type FindState } from '#app/domain/assignments/scoring.ts'
+import type { CycleDiagrams } from '#app/domain/authoring/diagram-plot.ts'
+import type { KeyEntry, ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { cycleDiagrams } from '#app/domain/authoring/diagrams.ts'
+import { renderPrompt } from '#app/domain/authoring/prompt.ts'
+import { renderWorkedSolution, workedSolution } from '#app/domain/authoring/worked-solution.ts'
+import { formatUnitForDisplay } from '#app/domain/grading/index.ts'
+import type { Db, Tx } from './db/client.server.ts'
+import { assignmentItems, assignments, courses, extensions, partResults, problemVersions, submissions } from './db/schema.server.ts'
+import { studentVariant } from './grading.server.ts'
+import { enqueue, withJobTransaction } from './queue.server.ts'
+
+type Database = Db | Tx
+
+/** Longest answer text kept per find (the reader refuses longer ones anyway). */
+export const MAX_ANSWER_LENGTH = 500
+
+export type ProblemRef = { courseId: number; assignmentId: number; position: number; userId: number }
+
+type LoadedItem = {
+  assignmentId: number
+  title: string
+  courseId: number
+  timeZone: string
+  convention: 'chemistry' | 'engineering'
+  rules: AssignmentRules
+  itemId: number
+  position: number
+  itemCount: number
+  points: number
+  problemId: number
+  versionId: number
+  definition: ProblemDefinition
+  extension: StudentExtension | null
+}
+
+async function loadItem(database: Database, ref: ProblemRef): Promise<LoadedItem | null> {
+  const [row] = await database
+    .select({
+      assignmentId: assignments.id,
+      title: assignments.title,
+      courseId: assignments.courseId,
+      timeZone: courses.timeZone,
+      convention: courses.signConvention,
+      opensAt: assignments.opensAt,
+      dueAt: assignments.dueAt,
+      attemptsPerFind: assignments.attemptsPerFind,
+      latePolicy: assignments.latePolicy,
+      latePenaltyPercentPerDay: assignments.latePenaltyPercentPerDay,
+      lateDaysAllowed: assignments.lateDaysAllowed,
+      keyRelease: assignments.keyRelease,
+      keyReleasedAt: assignments.keyReleasedAt,
+      itemId: assignmentItems.id,
+      position: assignmentItems.position,
+      points: assignmentItems.points,
+      problemId: assignmentItems.problemId,
+      versionId: assignmentItems.problemVersionId,
+      definition: problemVersions.definition,
+      itemCount: sql<number>`(select count(*)::int from ${assignmentItems} ai where ai.assignment_id = ${assignments.id})`,
+    })
+    .from(assignments)
+    .innerJoin(courses, eq(courses.id, assignments.courseId))
+    .innerJoin(assignmentItems, and(eq(assignmentItems.assignmentId, assignments.id), eq(assignmentItems.position, ref.position)))
+    .innerJoin(problemVersions, eq(problemVersions.id, assignmentItems.problemVersionId))
+    .where(and(eq(assignments.id, ref.assignmentId), eq(assignments.courseId, ref.courseId)))
+    .limit(1)
+  if (!row) return null
+  const [ext] = await database
+    .select({ dueAt: extensions.dueAt, extraAttempts: extensions.extraAttempts })
+    .from(extensions)
+    .where(and(eq(extensions.assignmentId, row.assignmentId), eq(extensions.userId, ref.userId)))
+  return {
+    assignmentId: row.assignmentId,
+    title: row.title,
+    courseId: row.courseId,
+    timeZone: row.timeZone,
+    convention: row.convention,
+    rules: {
+      opensAt: row.opensAt,
+      dueAt: row.dueAt,
+      attemptsPerFind: row.attemptsPerFind,
+      latePolicy: row.latePolicy,
+      latePenaltyPercentPerDay: row.latePenaltyPercentPerDay,
+      lateDaysAllowed: row.lateDaysAllowed,
+      keyRelease: row.keyRelease,
+      keyReleasedAt: row.keyReleasedAt,
+    },
+    itemId: row.itemId,
+    position: row.position,
+    itemCount: row.itemCount,
+    points: row.points,
+    problemId: row.problemId,
+    versionId: row.versionId,
+    definition: row.definition as ProblemDefinition,
+    extension: ext ?? null,
+  }
+}
+
+type PartRow = {
+  submissionId: number
+  findName: string
+  attempt: number
+  answer: string
+  verdict: 'correct' | 'incorrect' | 'unreadable' | 'wrong-dimension' | null
+  score: number | null
+  message: string | null
+  pitfallFeedback: string | null
+  status: 'queued' | 'graded' | 'failed'
+}
+
+async function loadParts(database: Database, itemId: number, userId: number): Promise<PartRow[]> {
+  return database
+    .select({
+      submissionId: partResults.submissionId,
+      findName: partResults.findName,
+      attempt: partResults.attempt,
+      answer: partResults.answer,
+      verdict: partResults.verdict,
+      score: partResults.score,
+      message: partResults.message,
+      pitfallFeedback: partResults.pitfallFeedback,
+      status: submissions.status,
+    })
+    .from(partResults)
+    .innerJoin(submissions, eq(submissions.id, partResults.submissionId))
+    .where(and(eq(partResults.itemId, itemId), eq(partResults.userId, userId)))
+    .orderBy(asc(partResults.findName), asc(partResults.attempt))
+}
+
+export type FindView = {
+  name: string
+  label: string
+  unit: string
+  /** how the unit is shown beside the input ("kJ/kg"; "" for a pure number) */
+  unitHint: string
+  share: number
+  state: FindState
+  attemptsUsed: number
+  attemptsAllowed: number
+  /** best score so far */
+  score: number
+  /** the latest counted answer and its grade (verdict null while it is being graded) */
+  last: { answer: string; attempt: number; verdict: PartRow['verdict']; message: string | null; pitfallFeedback: string | null; gradingFailed: boolean } | null
+}
+
+export type Receipt = {
+  submissionId: number
+  submittedAt: string
+  status: 'queued' | 'graded' | 'failed'
+  daysLate: number
+  latePenalty: number
+  parts: { findName: string; label: string; attempt: number; of: number }[]
+}
+
+export type MyResults = {
+  finds: FindView[]
+  receipts: Receipt[]
+  /** any answer still waiting for the grader */
+  pending: boolean
+  score: number
+  points: number
+  /** the text last typed per find (blank finds included), to refill the form */
+  lastTyped: Record<string, string>
+}
+
+function findViews(item: LoadedItem, parts: PartRow[]): FindView[] {
+  const allowed = attemptsAllowed(item.rules, item.extension)
+  const shares = findShares(item.points, item.definition.finds.map((f) => f.points))
+  return item.definition.finds.map((f, i) => {
+    const mine = parts.filter((p) => p.findName === f.name)
+    const last = mine.at(-1)
+    const anyCorrect = mine.some((p) => p.verdict === 'correct')
+    const anyPending = mine.some((p) => p.verdict === null && p.status === 'queued')
+    return {
+      name: f.name,
+      label: f.label,
+      unit: f.unit,
+      unitHint: formatUnitForDisplay(f.unit),
+      share: shares[i] ?? 0,
+      state: findState({ attemptsUsed: mine.length, attemptsAllowed: allowed, anyCorrect, anyPending }),
+      attemptsUsed: mine.length,
+      attemptsAllowed: allowed,
+      score: mine.reduce((best, p) => Math.max(best, p.score ?? 0), 0),
+      last: last
+        ? { answer: last.answer, attempt: last.attempt, verdict: last.verdict, message: last.message, pitfallFeedback: last.pitfallFeedback, gradingFailed: last.status === 'failed' }
+        : null,
+    }
+  })
+}
+
+async function myResults(database: Database, item: LoadedItem, userId: number): Promise<MyResults> {
+  const parts = await loadParts(database, item.itemId, userId)
+  const finds = findViews(item, parts)
+  const subs = await database
+    .select({
+      id: submissions.id,
+      submittedAt: submissions.submittedAt,
+      status: submissions.status,
+      daysLate: submissions.daysLate,
+      latePenalty: submissions.latePenalty,
+      answers: submissions.answers,
+    })
+    .from(submissions)
+    .where(and(eq(submissions.itemId, item.itemId), eq(submissions.userId, userId)))
+    .orderBy(desc(submissions.submittedAt), desc(submissions.id))
+    .limit(20)
+  const allowed = attemptsAllowed(item.rules, item.extension)
+  const labels = new Map(item.definition.finds.map((f) => [f.name, f.label]))
+  const receipts: Receipt[] = subs.map((s) => ({
+    submissionId: s.id,
+    submittedAt: s.submittedAt.toISOString(),
+    status: s.status,
+    daysLate: s.daysLate,
+    latePenalty: s.latePenalty,
+    parts: parts
+      .filter((p) => p.submissionId === s.id)
+      .map((p) => ({ findName: p.findName, label: labels.get(p.findName) ?? p.findName, attempt: p.attempt, of: allowed })),
+  }))
+  return {
+    finds,
+    receipts,
+    pending: finds.some((f) => f.state === 'grading'),
+    score: Math.round(finds.reduce((a, f) => a + f.score, 0) * 1e6) / 1e6,
+    points: item.points,
+    lastTyped: (subs[0]?.answers as Record<string, string> | undefined) ?? {},
+  }
+}
+
+export type StudentProblem = {
+  assignment: { id: number; title: string; timeZone: string; dueAt: string; hasExtension: boolean; rules: AssignmentRules }
+  item: { id: number; position: number; count: number; points: number; title: string }
+  window: SubmissionWindow
+  /** null when the variant could not be drawn (a broken problem version; staff are told) */
+  promptHtml: string | null
+  variantError: string | null
+  results: MyResults
+  /** the key, worked solution and diagrams, once released to this student */
+  key: { entries: readonly KeyEntry[]; workedHtml: string; diagrams: CycleDiagrams } | null
+}
+
+/**
+ * The problem page of one student (or of a staff member previewing their own variant, with
+ * `showKey`). Null when there is no such problem in the course, or it is not open yet to a student.
+ */
+export async function getStudentProblem(database: Database, ref: ProblemRef & { now?: Date; showKey?: boolean; allowBeforeOpen?: boolean }): Promise<StudentProblem | null> {
+  const now = ref.now ?? new Date()
+  const item = await loadItem(database, ref)
+  if (!item) return null
+  if (!ref.allowBeforeOpen && now.getTime() < item.rules.opensAt.getTime()) return null
+  const drawn = studentVariant({
+    versionId: item.versionId,
+    definition: item.definition,
+    assignmentId: item.assignmentId,
+    problemId: item.problemId,
+    userId: ref.userId,
+    courseConvention: item.convention,
+  })
+  const displays = Object.fromEntries(item.definition.givens.filter((g) => g.display).map((g) => [g.name, g.display!]))
+  const released = ref.showKey === true || isKeyReleased(item.rules, item.extension, now)
+  let key: StudentProblem['key'] = null
+  if (drawn.ok && released) {
+    key = { entries: drawn.variant.key, workedHtml: renderWorkedSolution(workedSolution(drawn.variant, item.definition)), diagrams: cycleDiagrams(drawn.variant.solution) }
+  }
+  return {
+    assignment: {
+      id: item.assignmentId,
+      title: item.title,
+      timeZone: item.timeZone,
+      dueAt: studentDueAt(item.rules, item.extension).toISOString(),
+      hasExtension: item.extension !== null,
+      rules: item.rules,
+    },
+    item: { id: item.itemId, position: item.position, count: item.itemCount, points: item.points, title: item.definition.title },
+    window: submissionWindow(item.rules, item.extension, now),
+    promptHtml: drawn.ok ? renderPrompt(item.definition.prompt, drawn.variant.givens, displays).html : null,
+    variantError: drawn.ok ? null : 'This problem could not be set up for you. Your teacher has been told; please try again later.',
+    results: await myResults(database, item, ref.userId),
+    key,
+  }
+}
+
+/** What the page polls while grading runs (GET /api/assignments/:a/problems/:p/mine). */
+export async function getMyResults(database: Database, ref: ProblemRef): Promise<MyResults | null> {
+  const item = await loadItem(database, ref)
+  if (!item) return null
+  return myResults(database, item, ref.userId)
+}
+
+export type SubmitResult =
+  | {
+      ok: true
+      receipt: Receipt
+      /** finds not counted, with why (unreadable, wrong dimension, out of attempts) */
+      fieldErrors: Record<string, string>
+      /** finds skipped because they are already correct */
+      skipped: string[]
+      values: Record<string, string>
+    }
+  | { ok: false; formError: string; fieldErrors: Record<string, string>; values: Record<string, string> }
+
+/**
+ * Stores a press of Submit (see the header) and queues its grading. `answers` maps find
+ * names to the text typed; other keys are ignored. Never throws for a student's input.
+ */
+export async function submitAnswers(database: Db, ref: ProblemRef & { answers: Record<string, string>; now?: Date }): Promise<SubmitResult> {
+  const values: Record<string, string> = {}
+  return withJobTransaction(database, async (tx, jobs) => {
+    const item = await loadItem(tx, ref)
+    if (!item) return { ok: false, formError: 'There is no such problem in this course.', fieldErrors: {}, values: ref.answers }
+    for (const f of item.definition.finds) values[f.name] = (ref.answers[f.name] ?? '').slice(0, MAX_ANSWER_LENGTH)
+    // The clock is read inside the transaction, after the lock, so lateness is judged at storage time.
+    await tx.execute(sql`select pg_advisory_xact_lock(${item.itemId}, ${ref.userId})`)
+    const now = ref.now ?? new Date()
+    const window = submissionWindow(item.rules, item.extension, now)
+    if (window.state === 'not-open' || window.state === 'closed') {
+      const formError =
+        window.state === 'not-open'
+          ? 'This assignment is not open yet, so your answers were not submitted. They are still in the form.'
+          : window.reason === 'key-released'
+            ? 'The key has been released, so answers are no longer accepted. Your answers are still in the form.'
+            : 'The due date has passed and this assignment no longer accepts answers. Your answers are still in the form.'
+      return { ok: false, formError, fieldErrors: {}, values }
+    }
+    const parts = await loadParts(tx, item.itemId, ref.userId)
+    const allowed = attemptsAllowed(item.rules, item.extension)
+    const shares = findShares(item.points, item.definition.finds.map((f) => f.points))
+    const fieldErrors: Record<string, string> = {}
+    const skipped: string[] = []
+    const counted: { findName: string; answer: string; attempt: number; maxScore: number }[] = []
+    item.definition.finds.forEach((f, i) => {
+      const text = values[f.name]!.trim()
+      if (text === '') return
+      const mine = parts.filter((p) => p.findName === f.name)
+      if (mine.some((p) => p.verdict === 'correct')) {
+        skipped.push(f.name)
+        return
+      }
+      if (mine.length >= allowed) {
+        fieldErrors[f.name] = `You have used all ${allowed} attempts for this question.`
+        return
+      }
+      if (ref.answers[f.name] && ref.answers[f.name]!.length > MAX_ANSWER_LENGTH) {
+        fieldErrors[f.name] = `This answer is longer than ${MAX_ANSWER_LENGTH} characters; shorten it. It did not use an attempt.`
+        return
+      }
+      const check = precheckAnswer(f, text)
+      if (!check.ok) {
+        fieldErrors[f.name] = `${check.message} This did not use an attempt.`
+        return
+      }
+      counted.push({ findName: f.name, answer: text, attempt: mine.length + 1, maxScore: shares[i] ?? 0 })
+    })
+    if (counted.length === 0) {
+      const formError =
+        Object.keys(fieldErrors).length > 0
+          ? 'Nothing was submitted: fix the answers marked below. No attempt was used.'
+          : skipped.length > 0
+            ? 'Nothing new to submit: the questions you answered are already correct.'
+            : 'Nothing was submitted: type an answer to at least one question.'
+      return { ok: false, formError, fieldErrors, values }
+    }
+    const [sub] = await tx
+      .insert(submissions)
+      .values({
+        assignmentId: item.assignmentId,
+        itemId: item.itemId,
+        userId: ref.userId,
+        answers: values,
+        submittedAt: now,
+        daysLate: window.state === 'late' ? window.daysLate : 0,
+        latePenalty: window.state === 'late' ? window.penalty : 0,
+      })
+      .returning({ id: submissions.id, submittedAt: submissions.submittedAt, daysLate: submissions.daysLate, latePenalty: submissions.latePenalty })
+    await tx.insert(partResults).values(
+      counted.map((c) => ({
+        submissionId: sub!.id,
+        assignmentId: item.assignmentId,
+        itemId: item.itemId,
+        userId: ref.userId,
+        findName: c.findName,
+        answer: c.answer,
+        attempt: c.attempt,
+        maxScore: c.maxScore,
+      })),
+    )
+    await enqueue('grade-submission', { v: 1, submissionId: sub!.id }, { connection: jobs })
+    const labels = new Map(item.definition.finds.map((f) => [f.name, f.label]))
+    return {
+      ok: true,
+      receipt: {
+        submissionId: sub!.id,
+        submittedAt: sub!.submittedAt.toISOString(),
+        status: 'queued',
+        daysLate: sub!.daysLate,
+        latePenalty: sub!.latePenalty,
+        parts: counted.map((c) => ({ findName: c.findName, label: labels.get(c.findName) ?? c.findName, attempt: c.attempt, of: allowed })),
+      },
+      fieldErrors,
+      skipped,
+      values,
+    }
+  })
+}
+
+/** Submission ids of a student's item, newest first (tests and the receipt page). */
+export async function listSubmissionIds(database: Database, itemIds: number[], userId: number): Promise<number[]> {
+  if (itemIds.length === 0) return []
+  const rows = await database
+    .select({ id: submissions.id })
+    .from(submissions)
+    .where(and(inArray(submissions.itemId, itemIds), eq(submissions.userId, userId)))
+    .orderBy(desc(submissions.id))
+  return rows.map((r) => r.id)
+}
