@@ -1,4 +1,17 @@
-// Placeholder until this resource is built (issue #6).
-export function loader() {
-  return new Response('Not built yet', { status: 404 })
+import { apiIdParam, jsonError } from '#app/server/api-guard.server.ts'
+import { requireApiAssignmentStaff } from '#app/server/course-api-guard.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { getAssignmentGradebook, readGradebookView } from '#app/server/gradebook.server.ts'
+import type { Route } from './+types/api-assignment-gradebook'
+
+/**
+ * GET /api/assignments/:assignmentId/gradebook?section=&status=&q=&sort=&dir= — the assignment
+ * gradebook as JSON for course staff; the page polls it while answers are being graded.
+ */
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const assignmentId = apiIdParam(params.assignmentId, 'assignment')
+  const { courseId } = await requireApiAssignmentStaff(request, db(), assignmentId)
+  const gradebook = await getAssignmentGradebook(db(), { assignmentId, courseId, view: readGradebookView(new URL(request.url)) })
+  if (!gradebook) return jsonError(404, 'There is no such assignment.')
+  return Response.json(gradebook, { headers: { 'Cache-Control': 'no-store' } })
 }
