@@ -1,4 +1,65 @@
-// Placeholder until its page is built (issue #6).
-export default function Placeholder() {
-  return <p>This page is being built.</p>
+import { data, redirect } from 'react-router'
+import { AssignmentForm } from '#app/components/assignment-form.tsx'
+import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { requireIdParam } from '#app/lib/params.ts'
+import { getEditAssignmentForm, listLockedItems, orErrorPage, runAssignmentFormAction, updateAssignment } from '#app/server/assignments.server.ts'
+import { requireCourseRole } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import type { Route } from './+types/edit'
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${data.assignment.title} · Cyclewright` : 'Edit assignment · Cyclewright' }]
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const courseId = requireIdParam(params.courseId, 'course')
+  const assignmentId = requireIdParam(params.assignmentId, 'assignment')
+  const { user, course } = await requireCourseRole(request, courseId, ['instructor'])
+  const form = await orErrorPage(getEditAssignmentForm(db(), { courseId, assignmentId, user }))
+  return { course, ...form }
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const courseId = requireIdParam(params.courseId, 'course')
+  const assignmentId = requireIdParam(params.assignmentId, 'assignment')
+  const { user } = await requireCourseRole(request, courseId, ['instructor'])
+  const out = await orErrorPage(
+    runAssignmentFormAction(await request.formData(), {
+      locked: await listLockedItems(db(), assignmentId),
+      save: (state) => updateAssignment(db(), { courseId, assignmentId, user, state }),
+    }),
+  )
+  if (out.status === 'saved') return redirect(`/courses/${courseId}/assignments/${out.assignmentId}`)
+  return data(out.answer, { status: out.status })
+}
+
+export default function EditAssignmentRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { course, assignment, timeZone, choices, locked } = loaderData
+  const shown = actionData ?? { state: loaderData.state, fieldErrors: {}, formError: undefined, nonce: 'initial' }
+  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  return (
+    <div>
+      <p className="text-sm text-muted">
+        <a href={`/courses/${course.id}`}>
+          {course.code} {course.title}
+        </a>{' '}
+        · <a href={base}>{assignment.title}</a>
+      </p>
+      <h1 className="mt-1 text-3xl font-semibold">Edit assignment</h1>
+      <AssignmentForm
+        key={shown.nonce}
+        state={shown.state}
+        fieldErrors={shown.fieldErrors}
+        formError={shown.formError}
+        choices={choices}
+        locked={locked}
+        timeZone={timeZone}
+        submitLabel="Save changes"
+        regradeBase={`${base}/problems`}
+        cancelTo={base}
+      />
+    </div>
+  )
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />
 }

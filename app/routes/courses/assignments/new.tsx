@@ -1,4 +1,57 @@
-// Placeholder until its page is built (issue #6).
-export default function Placeholder() {
-  return <p>This page is being built.</p>
+import { data, redirect } from 'react-router'
+import { AssignmentForm } from '#app/components/assignment-form.tsx'
+import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { requireIdParam } from '#app/lib/params.ts'
+import { createAssignment, getNewAssignmentForm, orErrorPage, runAssignmentFormAction } from '#app/server/assignments.server.ts'
+import { requireCourseRole } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import type { Route } from './+types/new'
+
+export const meta: Route.MetaFunction = () => [{ title: 'New assignment · Cyclewright' }]
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const courseId = requireIdParam(params.courseId, 'course')
+  const { user, course } = await requireCourseRole(request, courseId, ['instructor'])
+  const form = await orErrorPage(getNewAssignmentForm(db(), { courseId, user }))
+  return { course, ...form }
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const courseId = requireIdParam(params.courseId, 'course')
+  const { user } = await requireCourseRole(request, courseId, ['instructor'])
+  const out = await orErrorPage(
+    runAssignmentFormAction(await request.formData(), { locked: [], save: (state) => createAssignment(db(), { courseId, user, state }) }),
+  )
+  if (out.status === 'saved') return redirect(`/courses/${courseId}/assignments/${out.assignmentId}`)
+  return data(out.answer, { status: out.status })
+}
+
+export default function NewAssignmentRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { course, timeZone, choices, locked } = loaderData
+  const shown = actionData ?? { state: loaderData.state, fieldErrors: {}, formError: undefined, nonce: 'initial' }
+  return (
+    <div>
+      <p className="text-sm text-muted">
+        <a href={`/courses/${course.id}`}>
+          {course.code} {course.title}
+        </a>
+      </p>
+      <h1 className="mt-1 text-3xl font-semibold">New assignment</h1>
+      <AssignmentForm
+        key={shown.nonce}
+        state={shown.state}
+        fieldErrors={shown.fieldErrors}
+        formError={shown.formError}
+        choices={choices}
+        locked={locked}
+        timeZone={timeZone}
+        submitLabel="Create assignment"
+        cancelTo={`/courses/${course.id}`}
+      />
+    </div>
+  )
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />
 }
