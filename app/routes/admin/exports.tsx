@@ -1,4 +1,204 @@
-// Placeholder until its page is built (issue #6).
-export default function Placeholder() {
-  return <p>This page is being built.</p>
+import { useEffect } from 'react'
+import { data, Form, Link, redirect, useNavigation, useRevalidator } from 'react-router'
+import { z } from 'zod'
+import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { Button } from '#app/components/ui/button.tsx'
+import { Notice } from '#app/components/ui/notice.tsx'
+import { parseForm } from '#app/lib/form.ts'
+import { requireAdmin } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { adminExportsPage, ExportRequestError, requestTermExport } from '#app/server/exports.server.ts'
+import type { Route } from './+types/exports'
+
+export const meta: Route.MetaFunction = () => [{ title: 'Grade exports · Cyclewright' }]
+
+const RequestExportSchema = z.object({
+  termId: z
+    .string({ error: 'Choose a term.' })
+    .regex(/^\d{1,9}$/, 'Choose a term.')
+    .transform(Number),
+})
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireAdmin(request)
+  const requested = new URL(request.url).searchParams.get('requested')
+  return { ...(await adminExportsPage(db(), user.id)), requested: requested && /^\d{1,9}$/.test(requested) ? Number(requested) : null }
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireAdmin(request)
+  const form = parseForm(await request.formData(), RequestExportSchema)
+  if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
+  try {
+    const { exportId } = await requestTermExport(db(), { adminUser: user, termId: form.value.termId })
+    return redirect(`/admin/exports?requested=${exportId}`)
+  } catch (e) {
+    if (e instanceof ExportRequestError) return data({ fieldErrors: { termId: e.message }, values: { termId: String(form.value.termId) } }, { status: 400 })
+    throw e
+  }
+}
+
+const when = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' })
+const POLL_MS = 2000
+
+type ExportRow = Route.ComponentProps['loaderData']['exports'][number]
+
+function Progress({ row }: { row: ExportRow }) {
+  switch (row.status) {
+    case 'queued':
+      return <span>{row.error ? row.error : 'Waiting for the worker to pick it up.'}</span>
+    case 'running':
+      return <span>Being built: {row.rows.toLocaleString('en-GB')} rows written so far.</span>
+    case 'failed':
+      return <span className="text-danger">{row.error ?? 'The export stopped.'}</span>
+    case 'done':
+      return (
+        <span>
+          Done: {row.rows.toLocaleString('en-GB')} row{row.rows === 1 ? '' : 's'}.
+        </span>
+      )
+  }
+}
+
+export default function AdminExportsRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { terms, exports, requested } = loaderData
+  const navigation = useNavigation()
+  const revalidator = useRevalidator()
+  const unfinished = exports.filter((e) => e.status === 'queued' || e.status === 'running').length
+  const busy = navigation.state === 'submitting'
+
+  // Polls while an export is waiting or being built; without JavaScript the Refresh link does it.
+  useEffect(() => {
+    if (unfinished === 0) return
+    const timer = setInterval(() => {
+      if (revalidator.state === 'idle' && document.visibilityState === 'visible') void revalidator.revalidate()
+    }, POLL_MS)
+    return () => clearInterval(timer)
+  }, [unfinished, revalidator])
+
+  const error = actionData?.fieldErrors.termId
+  const chosen = actionData?.values.termId ?? ''
+  return (
+    <div>
+      <p className="text-sm">
+        <Link to="/admin">Department</Link>
+      </p>
+      <h1 className="mt-1 text-3xl font-semibold">Grade exports</h1>
+      <p className="mt-2 max-w-2xl text-muted">
+        One CSV file with the grades of every course of a term: a row for each student’s score on each assignment, then a course total row
+        per student. The file is built in the background; it appears below when it is ready. Times in UTC.
+      </p>
+
+      {terms.length === 0 ? (
+        <p className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+          There are no terms to export yet.
+        </p>
+      ) : (
+        <Form method="post" className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4">
+          <div className="flex flex-col gap-1">
+            <label htmlFor="termId" className="text-sm font-medium text-ink">
+              Term
+            </label>
+            <select
+              id="termId"
+              name="termId"
+              defaultValue={chosen}
+              required
+              aria-invalid={error ? true : undefined}
+              aria-describedby={error ? 'termId-error' : undefined}
+              className={`rounded-md border bg-white px-3 py-2 text-base shadow-sm ${error ? 'border-danger' : 'border-line'}`}
+            >
+              <option value="" disabled>
+                Choose a term…
+              </option>
+              {terms.map((t) => (
+                <option key={t.id} value={String(t.id)}>
+                  {t.name} · {t.departmentName} ({t.startsOn} to {t.endsOn})
+                </option>
+              ))}
+            </select>
+            {error ? (
+              <p id="termId-error" className="text-sm text-danger">
+                {error}
+              </p>
+            ) : null}
+          </div>
+          <Button type="submit" disabled={busy}>
+            {busy ? 'Requesting…' : 'Export grades'}
+          </Button>
+        </Form>
+      )}
+
+      {requested !== null && exports.some((e) => e.id === requested) ? (
+        <Notice className="mt-4">Export requested. It is listed below and updates as it is built.</Notice>
+      ) : null}
+
+      <h2 className="mt-8 text-xl font-semibold">Your exports</h2>
+      {unfinished > 0 ? (
+        <p role="status" className="mt-2 text-sm text-muted">
+          {unfinished === 1 ? 'One export is' : `${unfinished} exports are`} not finished yet; this page checks every few seconds.{' '}
+          <Link to="/admin/exports">Refresh</Link>
+        </p>
+      ) : null}
+      {exports.length === 0 ? (
+        <p className="mt-4 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+          You have not exported any grades yet. Choose a term above.
+        </p>
+      ) : (
+        <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
+          <table className="w-full text-left text-sm">
+            <caption className="sr-only">Your grade exports, newest first</caption>
+            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+              <tr>
+                <th scope="col" className="px-4 py-2">
+                  Term
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Requested
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Status
+                </th>
+                <th scope="col" className="px-4 py-2 text-right">
+                  Rows
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  File
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {exports.map((e) => (
+                <tr key={e.id} className="border-t border-line">
+                  <th scope="row" className="px-4 py-2 font-normal">
+                    {e.termName} · {e.departmentName}
+                  </th>
+                  <td className="px-4 py-2">
+                    <time dateTime={new Date(e.createdAt).toISOString()}>{when.format(new Date(e.createdAt))} UTC</time>
+                  </td>
+                  <td className="px-4 py-2">
+                    <Progress row={e} />
+                  </td>
+                  <td className="px-4 py-2 text-right tabular-nums">{e.status === 'done' || e.status === 'running' ? e.rows.toLocaleString('en-GB') : '—'}</td>
+                  <td className="px-4 py-2">
+                    {e.status === 'done' ? (
+                      <a href={`/admin/exports/${e.id}`} download={e.fileName}>
+                        Download {e.fileName}
+                      </a>
+                    ) : (
+                      <span className="text-muted">Not ready</span>
+                    )}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </div>
+  )
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />
 }

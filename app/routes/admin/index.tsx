@@ -18,7 +18,9 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
   return (
     <div>
       <h1 className="text-3xl font-semibold">Department</h1>
-      <p className="mt-2 text-muted">Every course on this installation. Grade export for a whole term arrives with the gradebooks.</p>
+      <p className="mt-2 text-muted">
+        Every course on this installation. <Link to="/admin/exports">Export a term’s grades</Link> as one CSV file.
+      </p>
       {courses.length === 0 ? (
         <p className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">No courses yet.</p>
       ) : (
@@ -50,9 +52,14 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
           </table>
         </div>
       )}
-      <p className="mt-6">
-        <Link to="/admin/outbox">Outbox</Link>
-      </p>
+      <ul className="mt-6 flex gap-6" aria-label="Department tools">
+        <li>
+          <Link to="/admin/exports">Grade exports</Link>
+        </li>
+        <li>
+          <Link to="/admin/outbox">Outbox</Link>
+        </li>
+      </ul>
     </div>
   )
 }
