@@ -1,4 +1,290 @@
-// Placeholder until its page is built (issue #6).
-export default function Placeholder() {
-  return <p>This page is being built.</p>
+// The prompt and the worked solution carry KaTeX markup; its stylesheet goes wherever they show.
+import 'katex/dist/katex.min.css'
+import { useQuery, useQueryClient } from '@tanstack/react-query'
+import { useEffect, useMemo, useState } from 'react'
+import { data, Link, redirect, useFetcher } from 'react-router'
+import { z } from 'zod'
+import { AnswerForm, type AnswerFormMode } from '#app/components/answer-form.tsx'
+import { CycleDiagrams } from '#app/components/cycle-diagrams.tsx'
+import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { ReceiptBox, ReceiptList } from '#app/components/receipt.tsx'
+import { Notice } from '#app/components/ui/notice.tsx'
+import { KeyValue } from '#app/components/variant-preview.tsx'
+import { windowMessage } from '#app/domain/assignments/policy.ts'
+import { formatInZone } from '#app/lib/dates.ts'
+import { requireIdParam } from '#app/lib/params.ts'
+import { forbidden, requireCourseRole } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { getStudentProblem, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
+import type { Route } from './+types/problem'
+
+const NOT_FOUND = 'There is no such problem, or it is not open yet.'
+
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `${data.problem.item.title} · ${data.problem.assignment.title} · Cyclewright` : 'Problem · Cyclewright' },
+]
+
+async function guard(request: Request, params: Route.LoaderArgs['params']) {
+  const courseId = requireIdParam(params.courseId, 'course')
+  const { user, course } = await requireCourseRole(request, courseId, ['instructor', 'ta', 'student'])
+  const assignmentId = requireIdParam(params.assignmentId, 'assignment')
+  const position = requireIdParam(params.position, 'problem')
+  return { user, course, ref: { courseId, assignmentId, position, userId: user.id } }
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { course, ref } = await guard(request, params)
+  const staff = course.role !== 'student'
+  // Staff see their own variant with its key, before it opens too; nothing they do is recorded.
+  const problem = await getStudentProblem(db(), staff ? { ...ref, showKey: true, allowBeforeOpen: true } : ref)
+  if (!problem) throw data(NOT_FOUND, { status: 404 })
+  const receiptParam = new URL(request.url).searchParams.get('receipt')
+  const receiptId = !staff && receiptParam && /^\d{1,9}$/.test(receiptParam) ? Number(receiptParam) : null
+  return { course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId }
+}
+
+/** Longest text read per answer field; the server refuses anything over its own limit with a message. */
+const MAX_TYPED = 2000
+const MAX_FIELDS = 100
+const ANSWER_PREFIX = 'answer.'
+
+const SubmitFormSchema = z.object({
+  inPlace: z.literal('1').optional().catch(undefined),
+  answers: z.record(z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,39}$/), z.string().transform((s) => s.slice(0, MAX_TYPED))),
+})
+
+function readSubmitForm(form: FormData) {
+  const answers: Record<string, string> = {}
+  let n = 0
+  for (const [key, value] of form.entries()) {
+    if (!key.startsWith(ANSWER_PREFIX) || typeof value !== 'string') continue
+    const name = key.slice(ANSWER_PREFIX.length)
+    if (!/^[A-Za-z][A-Za-z0-9_]{0,39}$/.test(name) || ++n > MAX_FIELDS) continue
+    answers[name] = value
+  }
+  const inPlace = form.get('inPlace')
+  return SubmitFormSchema.parse({ inPlace: typeof inPlace === 'string' ? inPlace : undefined, answers })
+}
+
+export type SubmitActionData = {
+  ok: boolean
+  formError: string | null
+  fieldErrors: Record<string, string>
+  values: Record<string, string>
+  receipt: Receipt | null
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { course, ref } = await guard(request, params)
+  if (course.role !== 'student') forbidden('Staff preview: your answers are not recorded. Only the course’s students submit answers.')
+  const form = readSubmitForm(await request.formData())
+  const result = await submitAnswers(db(), { ...ref, answers: form.answers })
+  if (result.ok && Object.keys(result.fieldErrors).length === 0 && !form.inPlace) {
+    // Post/redirect/get: reloading the receipt page does not post the answers again.
+    const url = new URL(request.url)
+    return redirect(`${url.pathname}?receipt=${result.receipt.submissionId}`)
+  }
+  const body: SubmitActionData = result.ok
+    ? { ok: true, formError: null, fieldErrors: result.fieldErrors, values: result.values, receipt: result.receipt }
+    : { ok: false, formError: result.formError, fieldErrors: result.fieldErrors, values: result.values, receipt: null }
+  return data(body, { status: result.ok ? 200 : 400 })
+}
+
+function useHydrated() {
+  const [hydrated, setHydrated] = useState(false)
+  useEffect(() => setHydrated(true), [])
+  return hydrated
+}
+
+async function fetchMyResults(assignmentId: number, position: number): Promise<MyResults> {
+  const res = await fetch(`/api/assignments/${assignmentId}/problems/${position}/mine`, { headers: { Accept: 'application/json' } })
+  if (!res.ok) throw new Error(`Your results could not be read just now (${res.status}).`)
+  return (await res.json()) as MyResults
+}
+
+const twoDecimals = new Intl.NumberFormat('en', { maximumFractionDigits: 2 })
+
+export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { course, staff, problem, receiptId } = loaderData
+  const { assignment, item } = problem
+  const tz = assignment.timeZone
+  const hydrated = useHydrated()
+  const fetcher = useFetcher<typeof action>()
+  const queryClient = useQueryClient()
+  const queryKey = useMemo(() => ['my-results', assignment.id, item.position] as const, [assignment.id, item.position])
+
+  const query = useQuery({
+    queryKey,
+    queryFn: () => fetchMyResults(assignment.id, item.position),
+    initialData: problem.results,
+    // The loader's data is fresh; poll only while an answer waits for the grader.
+    staleTime: 5_000,
+    enabled: !staff,
+    refetchInterval: (q) => (q.state.data?.pending ? 1_000 : false),
+  })
+  // After a submission the loader runs again; its results (now pending) restart the polling.
+  useEffect(() => {
+    if (!staff) queryClient.setQueryData(queryKey, problem.results)
+  }, [problem.results, queryClient, queryKey, staff])
+
+  const results = staff ? problem.results : query.data
+  // A submission made in place (fetcher) is newer than one posted without JavaScript.
+  const submitted = (fetcher.data ?? actionData) as SubmitActionData | undefined
+  const shownReceiptId = submitted?.receipt?.submissionId ?? receiptId
+  const receipt = (shownReceiptId !== null ? results.receipts.find((r) => r.submissionId === shownReceiptId) : undefined) ?? submitted?.receipt ?? null
+
+  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  const here = `${base}/problems/${item.position}`
+  const mode: AnswerFormMode = staff ? 'preview' : problem.window.state === 'open' || problem.window.state === 'late' ? 'submit' : 'closed'
+  const message = windowMessage(problem.window, (d) => formatInZone(d, tz))
+  const unitOf = new Map(results.finds.map((f) => [f.name, f.unitHint]))
+
+  return (
+    <div className="space-y-6">
+      <nav aria-label="Breadcrumb" className="text-sm text-muted">
+        <ol className="flex flex-wrap gap-1">
+          <li>
+            <Link to={`/courses/${course.id}`}>{course.code}</Link>
+            <span aria-hidden="true"> › </span>
+          </li>
+          <li>
+            <Link to={base}>{assignment.title}</Link>
+          </li>
+        </ol>
+      </nav>
+
+      <header>
+        <p className="text-sm font-semibold tracking-wide text-muted uppercase">
+          Problem {item.position} of {item.count}
+        </p>
+        <h1 className="mt-1 text-2xl font-semibold">{item.title}</h1>
+        <p className="mt-2 text-sm">
+          {message}
+          {assignment.hasExtension ? ' This includes your extension.' : null}
+        </p>
+        {!staff ? (
+          <p className="mt-1 text-sm text-muted">
+            Score so far: {twoDecimals.format(results.score)} of {twoDecimals.format(results.points)} points
+            {results.pending ? ' (some answers are still being graded)' : ''}.
+          </p>
+        ) : null}
+      </header>
+
+      {staff ? (
+        <Notice tone="info">
+          <p className="font-semibold">Staff preview: your answers are not recorded.</p>
+          <p className="mt-1">This is the variant drawn for you, with its key. Each student sees their own numbers.</p>
+        </Notice>
+      ) : null}
+
+      {problem.promptHtml === null ? (
+        <Notice tone="error">{staff ? 'This problem version could not draw a variant. Check it in the problem bank.' : problem.variantError}</Notice>
+      ) : (
+        <>
+          <section aria-labelledby="prompt-title" className="rounded-lg border border-line bg-white p-5 shadow-sm">
+            <h2 id="prompt-title" className="sr-only">
+              Problem statement
+            </h2>
+            {/* Rendered and sanitised on the server (Markdown + KaTeX, tags and attributes allowed by a list). */}
+            <div className="prompt-html leading-relaxed [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: problem.promptHtml }} />
+          </section>
+
+          <div aria-live="polite">{receipt ? <ReceiptBox receipt={receipt} timeZone={tz} live={hydrated && !staff} /> : null}</div>
+
+          <section aria-labelledby="answers-title" className="rounded-lg border border-line bg-white p-5 shadow-sm">
+            <h2 id="answers-title" className="mb-3 text-lg font-semibold">
+              Your answers
+            </h2>
+            <AnswerForm
+              finds={results.finds}
+              values={submitted?.values ?? results.lastTyped}
+              fieldErrors={submitted?.fieldErrors ?? {}}
+              formError={submitted?.formError ?? null}
+              mode={mode}
+              action={here}
+              Form={fetcher.Form}
+              busy={fetcher.state !== 'idle'}
+              inPlace={hydrated}
+            />
+            {query.isError && results.pending ? (
+              <p className="mt-3 text-sm text-warn" role="status">
+                {query.error.message} Trying again; reload the page if this goes on.
+              </p>
+            ) : null}
+          </section>
+        </>
+      )}
+
+      {!staff ? (
+        <section aria-labelledby="history-title">
+          <h2 id="history-title" className="sr-only">
+            Earlier submissions
+          </h2>
+          <ReceiptList receipts={results.receipts} timeZone={tz} />
+        </section>
+      ) : null}
+
+      {problem.key ? (
+        <section aria-labelledby="key-title" className="space-y-4 rounded-lg border border-line bg-white p-5 shadow-sm">
+          <h2 id="key-title" className="text-lg font-semibold">
+            Key and worked solution
+          </h2>
+          <table className="w-full max-w-xl text-left text-sm">
+            <caption className="text-left text-sm text-muted">{staff ? 'The answers to your preview variant' : 'The answers to your variant'}</caption>
+            <thead className="text-xs text-muted">
+              <tr>
+                <th scope="col" className="py-1 pr-3">
+                  Find
+                </th>
+                <th scope="col" className="py-1 pr-3 text-right">
+                  Value
+                </th>
+                <th scope="col" className="py-1">
+                  Unit
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {problem.key.entries.map((k) => (
+                <tr key={k.name} className="border-t border-line">
+                  <th scope="row" className="py-1 pr-3 font-normal">
+                    {k.label}
+                  </th>
+                  <td className="py-1 pr-3 text-right tabular-nums">
+                    <KeyValue value={k.value} />
+                  </td>
+                  <td className="py-1">{unitOf.get(k.name) || k.unit || '—'}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {/* Sanitised on the server, like the prompt. */}
+          <div className="overflow-x-auto" dangerouslySetInnerHTML={{ __html: problem.key.workedHtml }} />
+          <CycleDiagrams diagrams={problem.key.diagrams} caption="P–v and T–s diagrams of this variant" />
+        </section>
+      ) : null}
+
+      <nav aria-label="Other problems in this assignment" className="flex flex-wrap justify-between gap-3 border-t border-line pt-4 text-sm">
+        {item.position > 1 ? (
+          <Link to={`${base}/problems/${item.position - 1}`} rel="prev">
+            ← Problem {item.position - 1}
+          </Link>
+        ) : (
+          <span />
+        )}
+        <Link to={base}>All problems</Link>
+        {item.position < item.count ? (
+          <Link to={`${base}/problems/${item.position + 1}`} rel="next">
+            Problem {item.position + 1} →
+          </Link>
+        ) : (
+          <span />
+        )}
+      </nav>
+    </div>
+  )
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />
 }
