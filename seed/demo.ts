@@ -8,6 +8,7 @@ import type { Db } from '#app/server/db/client.server.ts'
 import { courses, departments, problemVersions, problems, terms, users } from '#app/server/db/schema.server.ts'
 import { hashPassword } from '#app/server/passwords.server.ts'
 import { addMember } from '#tests/support/factories.ts'
+import { seedDemoAssignments } from './assignments.ts'
 import type { DemoOwner } from './problems.ts'
 import { DEMO_PROBLEMS } from './problems.ts'
 
@@ -56,7 +57,8 @@ async function upsertPerson(db: Db, p: Person, passwordHash: string, departmentI
   return row!.id
 }
 
-export async function seedDemo(db: Db) {
+/** `now` places the demo assignments (a past week, the current one, a coming one); default: the clock. */
+export async function seedDemo(db: Db, options: { now?: Date } = {}) {
   const slug = 'kestrel-hollow-energy'
   let [dept] = await db.select().from(departments).where(eq(departments.slug, slug))
   if (!dept) {
@@ -100,8 +102,10 @@ export async function seedDemo(db: Db) {
     if (i < 28) await addMember(db, id, engineering, 'student', i % 2 === 0 ? 'A' : 'B')
     if (i >= 24) await addMember(db, id, chemistry, 'student', 'C')
   }
-  const problemCount = await seedDemoProblems(db, { tobias: wrenfieldId, amara: okaforId })
-  return { departmentId: dept!.id, courseIds, students: students.length, problems: problemCount }
+  const owners = { tobias: wrenfieldId, amara: okaforId }
+  const problemCount = await seedDemoProblems(db, owners)
+  const seeded = await seedDemoAssignments(db, { now: options.now ?? new Date(), courseIds: { engineering, chemistry }, owners })
+  return { departmentId: dept!.id, courseIds, students: students.length, problems: problemCount, assignments: seeded.assignmentIds.length }
 }
 
 // Fixed dates in the demo term, so a re-seeded database looks the same.
