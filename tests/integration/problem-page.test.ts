@@ -1,0 +1,251 @@
+/**
+ * The student's problem page and its polling route, called with real Requests and a session
+ * cookie against PostgreSQL: post/redirect/get after a submission, refused answers returned
+ * with everything typed, staff refused, and GET …/mine answering only the student.
+ */
+import { and, eq } from 'drizzle-orm'
+import { afterAll, describe, expect, test } from 'vitest'
+import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { action, loader, type SubmitActionData } from '#app/routes/courses/assignments/problem.tsx'
+import { loader as mineLoader } from '#app/routes/resources/api-my-results.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { partResults, submissions } from '#app/server/db/schema.server.ts'
+import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { stopBoss } from '#app/server/queue.server.ts'
+import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
+import type { MyResults } from '#app/server/submissions.server.ts'
+import { DEMO_PROBLEMS } from '#seed/problems.ts'
+import { addMember, createCourse, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
+import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+
+const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
+const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
+const day = 24 * 3600_000
+
+afterAll(async () => {
+  await stopBoss()
+})
+
+async function cookieFor(userId: number): Promise<string> {
+  const row = await createSessionRow(db(), userId)
+  const session = await sessionStorage().getSession()
+  session.set('sid', row.id)
+  return (await sessionStorage().commitSession(session)).split(';')[0]!
+}
+
+async function setUp(options: Parameters<typeof createCourseWithAssignment>[2] = {}) {
+  const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2, ...options })
+  const student = made.students[0]!
+  const item = made.items[0]!
+  const drawn = studentVariant({
+    versionId: item.problemVersionId,
+    definition: ottoV1,
+    assignmentId: made.assignment.id,
+    problemId: item.problemId,
+    userId: student.id,
+    courseConvention: made.course.signConvention,
+  })
+  if (!drawn.ok) throw new Error(drawn.error.message)
+  const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k]))
+  const path = `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/1`
+  const params = { courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: '1' }
+  const mineParams = { assignmentId: String(made.assignment.id), position: '1' }
+  const minePath = `/api/assignments/${made.assignment.id}/problems/1/mine`
+  return { ...made, student, item, key, path, params, mineParams, minePath, cookie: await cookieFor(student.id) }
+}
+
+type Setup = Awaited<ReturnType<typeof setUp>>
+
+function post(s: Setup, fields: Record<string, string>, cookie = s.cookie) {
+  return action(args(formRequest(s.path, fields, { Cookie: cookie }), s.params))
+}
+
+/** What an action returned with data(…): its body and status. */
+function asData(value: unknown): { data: SubmitActionData; status: number } {
+  const v = value as { type?: string; data: SubmitActionData; init: { status: number } | null }
+  expect(v.type).toBe('DataWithResponseInit')
+  return { data: v.data, status: v.init?.status ?? 200 }
+}
+
+async function storedSubmissions(assignmentId: number) {
+  return db().select().from(submissions).where(eq(submissions.assignmentId, assignmentId))
+}
+
+async function mine(s: Setup, cookie: string | null, params = s.mineParams) {
+  const result = await settle(mineLoader(args(getRequest(s.minePath, cookie ? { Cookie: cookie } : {}), params)))
+  const res = ('value' in result ? result.value : result.thrown) as Response
+  return { status: res.status, cache: res.headers.get('Cache-Control'), body: (await res.json()) as MyResults & { error?: string } }
+}
+
+describe('submitting from the problem page', () => {
+  test('good answers redirect to the receipt (post/redirect/get) and store one submission with the text as typed', async () => {
+    const s = await setUp()
+    const typed = { 'answer.T2': ` ${s.key.T2!.value} K`, 'answer.wNet': `${s.key.wNet!.value} kJ/kg`, 'answer.eta': '' }
+    const res = (await post(s, typed)) as Response
+    expect(res).toBeInstanceOf(Response)
+    expect(res.status).toBe(302)
+    const rows = await storedSubmissions(s.assignment.id)
+    expect(rows).toHaveLength(1)
+    expect(res.headers.get('Location')).toBe(`${s.path}?receipt=${rows[0]!.id}`)
+    expect(rows[0]!.answers).toEqual({ T2: typed['answer.T2'], wNet: typed['answer.wNet'], eta: '' })
+    const parts = await db().select({ findName: partResults.findName, attempt: partResults.attempt }).from(partResults).where(eq(partResults.submissionId, rows[0]!.id))
+    expect(parts.map((p) => [p.findName, p.attempt]).sort()).toEqual([
+      ['T2', 1],
+      ['wNet', 1],
+    ])
+
+    // The page the redirect lands on: the receipt, the answers back in the form, grading pending.
+    const page = await loader(args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params))
+    expect(page.staff).toBe(false)
+    expect(page.receiptId).toBe(rows[0]!.id)
+    expect(page.problem.results.pending).toBe(true)
+    expect(page.problem.results.receipts[0]).toMatchObject({ submissionId: rows[0]!.id, status: 'queued', parts: [{ attempt: 1, of: 3 }, { attempt: 1, of: 3 }] })
+    expect(page.problem.results.lastTyped.T2).toBe(typed['answer.T2'])
+    expect(page.problem.key).toBeNull()
+  })
+
+  test('with JavaScript (inPlace) the same submission answers with its receipt instead of a redirect', async () => {
+    const s = await setUp()
+    const result = asData(await post(s, { inPlace: '1', 'answer.T2': `${s.key.T2!.value} K` }))
+    expect(result.status).toBe(200)
+    expect(result.data).toMatchObject({ ok: true, formError: null, fieldErrors: {}, receipt: { status: 'queued', parts: [{ findName: 'T2', attempt: 1, of: 3 }] } })
+    expect(await storedSubmissions(s.assignment.id)).toHaveLength(1)
+  })
+
+  test('an unreadable answer comes back with its text and a message beside it, while the good answers are stored with a receipt', async () => {
+    const s = await setUp()
+    const result = asData(await post(s, { 'answer.T2': `${s.key.T2!.value} K`, 'answer.eta': 'about half' }))
+    expect(result.status).toBe(200)
+    expect(result.data.ok).toBe(true)
+    expect(result.data.values).toMatchObject({ T2: `${s.key.T2!.value} K`, eta: 'about half' })
+    expect(result.data.fieldErrors.eta).toMatch(/did not use an attempt/)
+    expect(result.data.fieldErrors.T2).toBeUndefined()
+    expect(result.data.receipt?.parts.map((p) => p.findName)).toEqual(['T2'])
+    const rows = await storedSubmissions(s.assignment.id)
+    expect(rows.map((r) => r.id)).toEqual([result.data.receipt!.submissionId])
+  })
+
+  test('only unreadable answers: 400, nothing stored, the typed text and the message returned', async () => {
+    const s = await setUp()
+    const result = asData(await post(s, { 'answer.wNet': '12 kg', 'answer.eta': 'about half' }))
+    expect(result.status).toBe(400)
+    expect(result.data).toMatchObject({ ok: false, receipt: null, values: { wNet: '12 kg', eta: 'about half' } })
+    expect(result.data.formError).toMatch(/Nothing was submitted/)
+    expect(result.data.fieldErrors.eta).toBeTruthy()
+    expect(result.data.fieldErrors.wNet).toBeTruthy()
+    expect(await storedSubmissions(s.assignment.id)).toHaveLength(0)
+  })
+
+  test('after the due date the answers are refused with 400 and kept in the form', async () => {
+    const s = await setUp({ assignment: { opensAt: new Date(Date.now() - 10 * day), dueAt: new Date(Date.now() - day) } })
+    const result = asData(await post(s, { 'answer.T2': '500 K' }))
+    expect(result.status).toBe(400)
+    expect(result.data.formError).toMatch(/due date has passed/)
+    expect(result.data.values.T2).toBe('500 K')
+    expect(await storedSubmissions(s.assignment.id)).toHaveLength(0)
+  })
+
+  test('staff cannot submit (403) and nothing is stored; their page is a preview of their own variant with the key', async () => {
+    const s = await setUp()
+    const staffCookie = await cookieFor(s.instructor.id)
+    const refused = await settle(post(s, { 'answer.T2': '500 K' }, staffCookie))
+    expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(403)
+    expect(await storedSubmissions(s.assignment.id)).toHaveLength(0)
+
+    const page = await loader(args(getRequest(s.path, { Cookie: staffCookie }), s.params))
+    expect(page.staff).toBe(true)
+    expect(page.problem.key?.entries.map((k) => k.name)).toEqual(['T2', 'wNet', 'eta'])
+  })
+
+  test('a problem that is not open yet is 404 to a student and a preview to staff', async () => {
+    const s = await setUp({ assignment: { opensAt: new Date(Date.now() + day), dueAt: new Date(Date.now() + 7 * day) } })
+    const student = await settle(loader(args(getRequest(s.path, { Cookie: s.cookie }), s.params)))
+    expect('thrown' in student && (student.thrown as { init: { status: number } }).init.status).toBe(404)
+    const staff = await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))
+    expect(staff.problem.window.state).toBe('not-open')
+  })
+
+  test('a problem position that does not exist is 404, on the page, to the action and in the API', async () => {
+    const s = await setUp()
+    const params = { ...s.params, position: '2' }
+    const page = await settle(loader(args(getRequest(s.path.replace(/1$/, '2'), { Cookie: s.cookie }), params)))
+    expect('thrown' in page && (page.thrown as { init: { status: number }; data: string }).init.status).toBe(404)
+    expect((page as { thrown: { data: string } }).thrown.data).toBe('There is no such problem, or it is not open yet.')
+    const posted = asData(await action(args(formRequest(s.path, { 'answer.T2': '500 K' }, { Cookie: s.cookie }), params)))
+    expect(posted.status).toBe(400)
+    expect(await storedSubmissions(s.assignment.id)).toHaveLength(0)
+    expect((await mine(s, s.cookie, { ...s.mineParams, position: '2' })).status).toBe(404)
+    const junk = await settle(loader(args(getRequest(s.path, { Cookie: s.cookie }), { ...s.params, position: 'x' })))
+    expect('thrown' in junk && (junk.thrown as { init: { status: number } }).init.status).toBe(404)
+  })
+
+  test('a student of another course gets 403 from the page and the action', async () => {
+    const s = await setUp()
+    const other = await createCourse(db())
+    const outsider = await createUser(db(), { password: null })
+    await addMember(db(), outsider.id, other.id, 'student')
+    const cookie = await cookieFor(outsider.id)
+    const page = await settle(loader(args(getRequest(s.path, { Cookie: cookie }), s.params)))
+    expect('thrown' in page && (page.thrown as { init: { status: number } }).init.status).toBe(403)
+    const posted = await settle(post(s, { 'answer.T2': '500 K' }, cookie))
+    expect('thrown' in posted && (posted.thrown as { init: { status: number } }).init.status).toBe(403)
+  })
+})
+
+describe('GET /api/assignments/:a/problems/:p/mine', () => {
+  test('answers the student with their results: pending while queued, verdicts once graded', async () => {
+    const s = await setUp()
+    const wrongSign = `${-s.key.wNet!.value} kJ/kg`
+    const res = (await post(s, { 'answer.T2': `${s.key.T2!.value} K`, 'answer.wNet': wrongSign })) as Response
+    const id = Number(new URL(res.headers.get('Location')!, 'http://x').searchParams.get('receipt'))
+
+    const before = await mine(s, s.cookie)
+    expect(before.status).toBe(200)
+    expect(before.cache).toBe('no-store')
+    expect(before.body.pending).toBe(true)
+    expect(before.body.finds.find((f) => f.name === 'T2')).toMatchObject({ state: 'grading', last: { verdict: null, attempt: 1 } })
+    expect(before.body.receipts[0]).toMatchObject({ submissionId: id, status: 'queued' })
+
+    expect(await gradeSubmission(db(), id)).toBe('graded')
+    const after = await mine(s, s.cookie)
+    expect(after.body.pending).toBe(false)
+    const byName = Object.fromEntries(after.body.finds.map((f) => [f.name, f]))
+    expect(byName.T2).toMatchObject({ state: 'correct', last: { verdict: 'correct' } })
+    expect(byName.wNet).toMatchObject({ state: 'try-again', attemptsUsed: 1, last: { verdict: 'incorrect', answer: wrongSign } })
+    expect(byName.wNet!.last!.pitfallFeedback).toMatch(/sign/)
+    expect(after.body.receipts[0]).toMatchObject({ submissionId: id, status: 'graded' })
+    expect(after.body.score).toBeGreaterThan(0)
+  })
+
+  test('the other student of the same course sees only their own (empty) results', async () => {
+    const s = await setUp()
+    await post(s, { 'answer.T2': `${s.key.T2!.value} K` })
+    const other = await mine(s, await cookieFor(s.students[1]!.id))
+    expect(other.status).toBe(200)
+    expect(other.body.receipts).toEqual([])
+    expect(other.body.pending).toBe(false)
+    const [row] = await db().select({ n: submissions.id }).from(submissions).where(and(eq(submissions.assignmentId, s.assignment.id), eq(submissions.userId, s.student.id)))
+    expect(row).toBeDefined()
+  })
+
+  test('a student of another course gets 404, staff with no student role 403, the signed-out 401', async () => {
+    const s = await setUp()
+    const other = await createCourse(db())
+    const outsider = await createUser(db(), { password: null })
+    await addMember(db(), outsider.id, other.id, 'student')
+    const outsiderRes = await mine(s, await cookieFor(outsider.id))
+    expect(outsiderRes.status).toBe(404)
+    expect(outsiderRes.body.error).toBeTruthy()
+    expect(outsiderRes.body.finds).toBeUndefined()
+
+    const staff = await mine(s, await cookieFor(s.instructor.id))
+    expect(staff.status).toBe(403)
+
+    const signedOut = await mine(s, null)
+    expect(signedOut.status).toBe(401)
+    expect(signedOut.cache).toBe('no-store')
+
+    const junk = await mine(s, s.cookie, { assignmentId: 'abc', position: '1' })
+    expect(junk.status).toBe(404)
+  })
+})
