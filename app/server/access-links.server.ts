@@ -8,7 +8,7 @@ import type { CourseRole } from '#app/domain/permissions.ts'
 import { roleLabels } from '#app/domain/permissions.ts'
 import type { Db } from './db/client.server.ts'
 import { accessTokens, courses, memberships, sessions, users } from './db/schema.server.ts'
-import { linkMail, sendMail } from './email.server.ts'
+import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
 import { hashPassword } from './passwords.server.ts'
 import { normaliseEmail } from './users.server.ts'
@@ -39,7 +39,7 @@ export async function inviteToCourse(
     expiresAt: new Date(now.getTime() + INVITATION_DAYS * 86_400_000),
   })
   const link = `${opts.baseUrl ?? appUrl()}/join/${token}`
-  await sendMail(
+  await queueMail(
     linkMail({
       to: email,
       subject: `You are invited to ${course.code} on Cyclewright`,
@@ -153,7 +153,7 @@ export async function requestPasswordReset(database: Db, rawEmail: string, baseU
     expiresAt: new Date(now.getTime() + RESET_MINUTES * 60_000),
   })
   const link = `${baseUrl}/reset-password/${token}`
-  await sendMail(
+  await queueMail(
     linkMail({
       to: email,
       subject: 'Reset your Cyclewright password',

@@ -5,6 +5,7 @@
  */
 import nodemailer, { type Transporter } from 'nodemailer'
 import { env } from './env.server.ts'
+import { enqueue, type JobConnection } from './queue.server.ts'
 
 let transporter: Transporter | undefined
 let transporterKey = ''
@@ -21,8 +22,18 @@ function transport(): Transporter {
 
 export type OutgoingMail = { to: string; subject: string; text: string; html?: string }
 
+/** Sends at once. Only the 'send-mail' job calls this; everything else queues its mail. */
 export async function sendMail(mail: OutgoingMail) {
   return transport().sendMail({ from: env().MAIL_FROM, ...mail })
+}
+
+/**
+ * Queues a message for the worker's 'send-mail' job, so a slow or failing relay never holds
+ * up a request and a failed send is retried. With `connection` (withJobTransaction) the mail
+ * is queued only if the transaction that wanted it commits.
+ */
+export async function queueMail(mail: OutgoingMail, options: { connection?: JobConnection } = {}) {
+  return enqueue('send-mail', { v: 1, ...mail }, options)
 }
 
 function escapeHtml(s: string) {

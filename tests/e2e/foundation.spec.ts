@@ -64,7 +64,10 @@ test('an instructor invites a student, who follows the e-mailed link, sets a pas
   await page.waitForURL(/\/sign-in/)
 
   // The message went over real SMTP to the local catcher, which stored it in PostgreSQL.
-  const [mail] = await e2eQuery<{ text: string; subject: string }>('select text, subject from mail_messages where $1 = any(envelope_to) order by id desc limit 1', [email])
+  // It is sent by the worker's 'send-mail' job, so it may take a moment.
+  const lastMail = async () => (await e2eQuery<{ text: string; subject: string }>('select text, subject from mail_messages where $1 = any(envelope_to) order by id desc limit 1', [email]))[0]
+  await expect.poll(lastMail, { timeout: 20_000 }).toBeTruthy()
+  const mail = await lastMail()
   expect(mail?.subject).toBe('You are invited to ENTH 210 on Cyclewright')
   const link = mail!.text.match(/https?:\/\/\S+\/join\/\S+/)?.[0]
   expect(link).toBeTruthy()

@@ -1,5 +1,5 @@
-import { and, eq } from 'drizzle-orm'
-import { describe, expect, test } from 'vitest'
+import { and, eq, sql } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { action as joinAction, loader as joinLoader } from '#app/routes/join.tsx'
 import { action as peopleAction } from '#app/routes/courses/people.tsx'
 import { action as forgotAction } from '#app/routes/forgot-password.tsx'
@@ -10,8 +10,29 @@ import { db } from '#app/server/db/client.server.ts'
 import { accessTokens, memberships, sessions, users } from '#app/server/db/schema.server.ts'
 import { findLastMailTo, linksIn } from '#app/server/outbox.server.ts'
 import { verifyPassword } from '#app/server/passwords.server.ts'
+import { stopBoss } from '#app/server/queue.server.ts'
+import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import { addMember, createCourse, createUser } from '#tests/support/factories.ts'
 import { args, cookieFrom, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+
+// Mail goes through the queue: a real worker sends it to this file's fake SMTP server.
+let worker: RunningWorker
+beforeAll(async () => {
+  worker = await startWorker({ log: () => {} })
+})
+afterAll(async () => {
+  await worker.stop()
+  await stopBoss()
+})
+
+async function mailTo(address: string) {
+  const until = Date.now() + 15_000
+  for (;;) {
+    const mail = await findLastMailTo(db(), address)
+    if (mail || Date.now() > until) return mail
+    await new Promise((r) => setTimeout(r, 100))
+  }
+}
 
 async function cookieOf(userId: number) {
   return cookieFrom(await startSession(userId, '/'))
@@ -34,7 +55,7 @@ describe('invitations', () => {
     const sent = await peopleAction(args(formRequest(`/courses/${course.id}/people`, { email, role: 'student' }, { Cookie: cookie }), { courseId: String(course.id) }))
     expect(sent).toMatchObject({ ok: true, sentTo: 'New.Student@Test.Example' })
 
-    const mail = await findLastMailTo(db(), 'new.student@test.example')
+    const mail = await mailTo('new.student@test.example')
     expect(mail?.subject).toContain('TH 101')
     expect(mail?.text).toContain('Ada Instructor')
     const token = tokenFromMail(mail!.text, '/join/')
@@ -65,7 +86,7 @@ describe('invitations', () => {
     await addMember(db(), instructor.id, course.id, 'instructor')
     await peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'late@test.example', role: 'ta' }, { Cookie: await cookieOf(instructor.id) }), { courseId: String(course.id) }))
     await db().update(accessTokens).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(accessTokens.email, 'late@test.example'))
-    const token = tokenFromMail((await findLastMailTo(db(), 'late@test.example'))!.text, '/join/')
+    const token = tokenFromMail((await mailTo('late@test.example'))!.text, '/join/')
     expect((await joinLoader(args(getRequest(`/join/${token}`), { token }))).problem).toBe('expired')
   })
 
@@ -108,7 +129,7 @@ describe('password reset', () => {
     const oldCookie = await cookieOf(user.id)
     const answer = await forgotAction(args(formRequest('/forgot-password', { email: user.email.toUpperCase() })))
     expect(answer).toMatchObject({ sent: true })
-    const token = tokenFromMail((await findLastMailTo(db(), user.email))!.text, '/reset-password/')
+    const token = tokenFromMail((await mailTo(user.email))!.text, '/reset-password/')
     expect((await resetLoader(args(getRequest(`/reset-password/${token}`), { token }))).email).toBe(user.email)
     const r = await settle(resetAction(args(formRequest(`/reset-password/${token}`, { password: 'the new password!', confirm: 'the new password!' }), { token })))
     expect(('value' in r ? (r.value as Response) : (r.thrown as Response)).headers.get('Location')).toBe('/sign-in?reset=1')
@@ -122,6 +143,8 @@ describe('password reset', () => {
   test('an unknown address gets the same answer and no mail', async () => {
     const answer = await forgotAction(args(formRequest('/forgot-password', { email: 'ghost@test.example' })))
     expect(answer).toMatchObject({ sent: true })
+    const queued = await db().execute(sql`select id from pgboss.job where name = 'send-mail' and data->>'to' = 'ghost@test.example'`)
+    expect(queued.rows).toHaveLength(0)
     expect(await findLastMailTo(db(), 'ghost@test.example')).toBeNull()
   })
 })
