@@ -267,13 +267,18 @@ function regradePart(target: Target, part: PartToRegrade): NewGrade | null {
     verdict: g.verdict,
     value: g.value,
     score: g.score,
-    maxScore: roundScore(share),
+    maxScore: share,
     message: g.message,
     pitfallId: g.pitfall?.id ?? null,
     pitfallFeedback: g.pitfall?.feedback ?? null,
     detail: g.detail,
     removed: false,
   }
+}
+
+/** Scores are compared to 1e-6 of a point, so float noise never counts as a change (nor writes an audit event). */
+function gradeChanged(before: { verdict: Verdict | null; score: number | null }, after: NewGrade): boolean {
+  return before.verdict !== after.verdict || roundScore(before.score ?? 0) !== roundScore(after.score)
 }
 
 type Prepared = { item: RegradeItem; target: Target; toVersion: RegradeVersion; check: OverrideCheck }
@@ -313,6 +318,7 @@ export type RegradeRequest = {
   toleranceOverrides: Readonly<Record<string, ToleranceFields>>
 }
 
+/** A find whose standing changes for a student (its best score before and after, for the record). */
 export type FindChange = { name: string; label: string; oldVerdict: FindVerdict; newVerdict: FindVerdict; oldScore: number; newScore: number }
 
 /** A find's standing for one student: correct if any answer is, else the last answer's verdict. */
@@ -335,6 +341,7 @@ export type RegradePreview = {
   /** the overrides as they would be stored */
   overrides: Record<string, Tolerance>
   ignoredOverrides: string[]
+  /** students whose total on the problem or some find's verdict would change, largest |change| first */
   changed: StudentChange[]
   unchanged: number
   totals: {
@@ -421,7 +428,7 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
       entry.oldS = Math.max(entry.oldS, part.score ?? 0)
       entry.newS = Math.max(entry.newS, n.score)
       byFind.set(part.findName, entry)
-      if (n.verdict !== part.verdict || n.score !== (part.score ?? 0)) partsChanged++
+      if (gradeChanged(part, n)) partsChanged++
       if (n.removed) {
         const r = removed.get(part.findName) ?? { parts: 0, students: new Set<number>() }
         r.parts++
@@ -437,7 +444,7 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
       newScore += e.newS
       const oldVerdict = findVerdict(e.oldV)
       const newVerdict = findVerdict(e.newV)
-      if (oldVerdict !== newVerdict || roundScore(e.oldS) !== roundScore(e.newS)) {
+      if (oldVerdict !== newVerdict) {
         finds.push({ name, label: labels.get(name) ?? name, oldVerdict, newVerdict, oldScore: roundScore(e.oldS), newScore: roundScore(e.newS) })
       }
     }
@@ -653,7 +660,7 @@ async function regradeChunk(
         regradeId: regrade.id,
       })
       .where(eq(partResults.id, p.id))
-    if (next.verdict !== p.verdict || next.score !== (p.score ?? 0)) {
+    if (gradeChanged(p, next)) {
       changed++
       audits.push({
         actorId: regrade.requestedBy,
@@ -782,4 +789,60 @@ export async function listItemRegrades(database: Database, itemId: number, limit
     .orderBy(desc(regrades.createdAt), desc(regrades.id))
     .limit(limit)
   return toProgress(database, rows)
+}
+
+// ---- The regrade page ---------------------------------------------------------------------
+
+export type RegradePage = {
+  item: RegradeItem
+  /** the version the form shows finds for (the one asked for, else the current one) */
+  targetVersion: RegradeVersion
+  finds: RegradeFind[]
+  /** the form's values: version, kind.<find>, value.<find>, unit.<find> */
+  values: Record<string, string>
+  preview: RegradePreview | null
+  previewError: { message: string; fieldErrors: Record<string, string> } | null
+  regrades: RegradeProgress[]
+  /** the regrade asked for with ?regrade=, when it is one of this item's */
+  progress: RegradeProgress | null
+}
+
+function toleranceValues(name: string, t: Tolerance | undefined): Record<string, string> {
+  if (!t) return { [`kind.${name}`]: 'default', [`value.${name}`]: '', [`unit.${name}`]: '' }
+  if (t.kind === 'relative') return { [`kind.${name}`]: 'relative', [`value.${name}`]: `${roundScore(t.value * 100)} %`, [`unit.${name}`]: '' }
+  return { [`kind.${name}`]: 'absolute', [`value.${name}`]: String(t.value), [`unit.${name}`]: t.unit ?? '' }
+}
+
+/**
+ * Everything the regrade page shows: the item and its versions, the target version's finds
+ * with the tolerances typed (or the item's current overrides), the preview when asked for,
+ * the item's latest regrades and the progress of one. Null when the item is not in the course.
+ */
+export async function loadRegradePage(
+  database: Database,
+  input: { courseId: number; assignmentId: number; position: number; versionId?: number; typed?: Record<string, ToleranceFields>; preview: boolean; regradeId?: number },
+): Promise<RegradePage | null> {
+  const item = await getRegradeItem(database, input)
+  if (!item) return null
+  const targetVersion = item.versions.find((v) => v.id === input.versionId) ?? item.versions.find((v) => v.current)!
+  const finds = await listVersionFinds(database, targetVersion.id)
+  const values: Record<string, string> = { version: String(targetVersion.id) }
+  for (const f of finds) Object.assign(values, toleranceValues(f.name, item.toleranceOverrides[f.name]))
+  if (input.typed) {
+    for (const [name, t] of Object.entries(input.typed)) Object.assign(values, { [`kind.${name}`]: t.kind, [`value.${name}`]: t.value, [`unit.${name}`]: t.unit })
+  }
+  let preview: RegradePreview | null = null
+  let previewError: RegradePage['previewError'] = null
+  if (input.preview) {
+    const typed = input.typed ?? Object.fromEntries(finds.map((f) => [f.name, { kind: values[`kind.${f.name}`]!, value: values[`value.${f.name}`]!, unit: values[`unit.${f.name}`]! }]))
+    try {
+      preview = await previewRegrade(database, { courseId: input.courseId, assignmentId: input.assignmentId, position: input.position, toVersionId: targetVersion.id, toleranceOverrides: typed })
+    } catch (e) {
+      if (!(e instanceof RegradeError)) throw e
+      previewError = { message: e.message, fieldErrors: e.fieldErrors }
+    }
+  }
+  const list = await listItemRegrades(database, item.itemId)
+  const asked = input.regradeId === undefined ? null : (list.find((r) => r.id === input.regradeId) ?? (await getRegradeProgress(database, input.regradeId)))
+  return { item, targetVersion, finds, values, preview, previewError, regrades: list, progress: asked && asked.itemId === item.itemId ? asked : null }
 }
