@@ -94,13 +94,16 @@ async function listCourseAssignments(database: Database, courseIds: number[]) {
     .orderBy(asc(assignments.dueAt), asc(assignments.id))
 }
 
+// Sorted here rather than in SQL so the order does not depend on the database's collation.
+const byName = new Intl.Collator('en', { sensitivity: 'base', numeric: true })
+
 async function listCourseStudents(database: Database, courseId: number) {
-  return database
+  const rows = await database
     .select({ userId: users.id, name: users.name, email: users.email, section: memberships.section })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(eq(memberships.courseId, courseId), eq(memberships.role, 'student')))
-    .orderBy(asc(users.name), asc(users.email), asc(users.id))
+  return rows.sort((a, b) => byName.compare(a.name, b.name) || byName.compare(a.email, b.email) || a.userId - b.userId)
 }
 
 type CourseGrades = {
