@@ -157,6 +157,7 @@ function FindRow({ find: f, index, value, error, mode }: { find: FindView; index
           autoComplete="off"
           autoCapitalize="off"
           spellCheck={false}
+          // The server's MAX_ANSWER_LENGTH; the server refuses longer text with a message anyway.
           maxLength={500}
           defaultValue={shown}
           readOnly={!editable}
@@ -178,7 +179,6 @@ function FindRow({ find: f, index, value, error, mode }: { find: FindView; index
             'a number without a unit'
           )}
         </span>
-        {f.state === 'correct' ? <span className="rounded bg-ok-soft px-2 py-0.5 text-sm font-semibold text-ok">Correct</span> : null}
       </div>
       {error ? (
         <p id={errorId} className="mt-1 text-sm text-danger">
