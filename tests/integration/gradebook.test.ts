@@ -315,3 +315,25 @@ describe('GET /api/assignments/:id/statistics', () => {
     expect((await stats(world.cookies.student)).status).toBe(403)
   })
 })
+
+describe('the staff pages', () => {
+  test('the assignment gradebook page reads the same view from its URL; a student is refused with 403', async () => {
+    const { loader } = await import('#app/routes/courses/assignments/gradebook.tsx')
+    const params = { courseId: String(world.course.id), assignmentId: String(world.assignment.id) }
+    const path = `/courses/${world.course.id}/assignments/${world.assignment.id}/gradebook?status=late&expand=1`
+    const page = (await loader(args(getRequest(path, { Cookie: world.cookies.ta }), params))) as { gradebook: AssignmentGradebook }
+    expect(page.gradebook.students.map((s) => s.userId)).toEqual([world.s2.id])
+    expect(page.gradebook.view.expand).toBe('1')
+    const refused = await settle(loader(args(getRequest(path, { Cookie: world.cookies.student }), params)))
+    expect('thrown' in refused && (refused.thrown as { init?: { status?: number } }).init?.status).toBe(403)
+  })
+
+  test('the answers page of an assignment of another course is a 404', async () => {
+    const { loader } = await import('#app/routes/courses/assignments/answers.tsx')
+    const other = await createCourseWithAssignment(db(), [otto], { students: 1 })
+    await addMember(db(), other.instructor.id, world.course.id, 'instructor')
+    const params = { courseId: String(world.course.id), assignmentId: String(other.assignment.id), position: '1' }
+    const out = await settle(loader(args(getRequest(`/courses/${world.course.id}/assignments/${other.assignment.id}/problems/1/answers`, { Cookie: await cookieFor(other.instructor.id) }), params)))
+    expect('thrown' in out && (out.thrown as { init?: { status?: number } }).init?.status).toBe(404)
+  })
+})

@@ -1,4 +1,169 @@
-// Placeholder until its page is built (issue #6).
-export default function Placeholder() {
-  return <p>This page is being built.</p>
+// Staff only (instructors and TAs of the course): how an assignment went, per problem and per
+// question — mean, median, a histogram, right at the first attempt, common wrong answers.
+import { data, Link } from 'react-router'
+import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { formatPoints } from '#app/components/gradebook-table.tsx'
+import { Histogram } from '#app/components/histogram.tsx'
+import { requireIdParam } from '#app/lib/params.ts'
+import { requireCourseRole } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { getAssignmentStatistics, type FindStatistics, type ScoreSummary } from '#app/server/gradebook.server.ts'
+import type { Route } from './+types/statistics'
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Statistics: ${data.statistics.assignment.title} · Cyclewright` : 'Statistics · Cyclewright' }]
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const courseId = requireIdParam(params.courseId, 'course')
+  const assignmentId = requireIdParam(params.assignmentId, 'assignment')
+  const { course } = await requireCourseRole(request, courseId, ['instructor', 'ta'])
+  const statistics = await getAssignmentStatistics(db(), assignmentId, courseId)
+  if (!statistics) throw data('There is no such assignment in this course.', { status: 404 })
+  return { course, statistics }
+}
+
+const pct = (x: number | null) => (x === null ? '—' : `${Math.round(x * 1000) / 10} %`)
+
+function SummaryList({ summary, firstTry }: { summary: ScoreSummary; firstTry?: FindStatistics['firstTry'] }) {
+  return (
+    <dl className="grid grid-cols-2 gap-x-4 gap-y-1 text-sm sm:grid-cols-4">
+      <div>
+        <dt className="text-muted">Students graded</dt>
+        <dd className="font-semibold">{summary.count}</dd>
+      </div>
+      <div>
+        <dt className="text-muted">Mean</dt>
+        <dd className="font-semibold">{pct(summary.mean)}</dd>
+      </div>
+      <div>
+        <dt className="text-muted">Median</dt>
+        <dd className="font-semibold">{pct(summary.median)}</dd>
+      </div>
+      {firstTry ? (
+        <div>
+          <dt className="text-muted">Right at the first attempt</dt>
+          <dd className="font-semibold">
+            {pct(firstTry.share)}
+            {firstTry.of > 0 ? (
+              <span className="font-normal text-muted">
+                {' '}
+                ({firstTry.correct} of {firstTry.of})
+              </span>
+            ) : null}
+          </dd>
+        </div>
+      ) : null}
+    </dl>
+  )
+}
+
+function WrongAnswers({ find }: { find: FindStatistics }) {
+  if (find.wrongAnswers.length === 0) return <p className="mt-2 text-sm text-muted">No wrong answers with a number yet.</p>
+  return (
+    <table className="mt-2 w-full text-left text-sm">
+      <caption className="text-left text-sm font-medium">Most common wrong answers (values equal to 3 significant figures are grouped)</caption>
+      <thead className="text-xs tracking-wide text-muted uppercase">
+        <tr>
+          <th scope="col" className="py-1 pr-3">
+            Value{find.unit ? ` (${find.unit})` : ''}
+          </th>
+          <th scope="col" className="py-1 pr-3">
+            Answers
+          </th>
+          <th scope="col" className="py-1 pr-3">
+            As typed
+          </th>
+          <th scope="col" className="py-1">
+            Pitfall that explains it
+          </th>
+        </tr>
+      </thead>
+      <tbody>
+        {find.wrongAnswers.map((g) => (
+          <tr key={g.value} className="border-t border-line align-top">
+            <td className="py-1 pr-3 tabular-nums">{g.value}</td>
+            <td className="py-1 pr-3 tabular-nums">{g.count}</td>
+            <td className="py-1 pr-3 font-mono text-xs">{g.examples.join(' · ')}</td>
+            <td className="py-1">
+              {g.pitfall ? (
+                <>
+                  <span className="font-medium">{g.pitfall.title}</span>{' '}
+                  <span className="text-muted">
+                    ({g.pitfall.count} of {g.count})
+                  </span>
+                </>
+              ) : (
+                <span className="text-muted">None recognised</span>
+              )}
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  )
+}
+
+export default function AssignmentStatisticsRoute({ loaderData }: Route.ComponentProps) {
+  const { course, statistics } = loaderData
+  const { assignment } = statistics
+  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  return (
+    <div>
+      <p className="text-sm text-muted">
+        <Link to={`/courses/${course.id}`}>
+          {course.code} {course.title}
+        </Link>{' '}
+        · <Link to={base}>{assignment.title}</Link> · <Link to={`${base}/gradebook`}>Gradebook</Link>
+      </p>
+      <h1 className="mt-1 text-3xl font-semibold">Statistics: {assignment.title}</h1>
+      <p className="mt-1 text-sm text-muted">
+        Scores are shares of the points: each student’s best answer to each question, late penalties included, over the students with a graded answer.
+        Answers still being graded are not counted yet.
+      </p>
+      {statistics.items.length === 0 ? (
+        <p className="mt-6 text-muted">This assignment has no problems yet.</p>
+      ) : statistics.gradedAnswers === 0 ? (
+        <p className="mt-6 text-muted">No answers yet.</p>
+      ) : (
+        statistics.items.map((item) => (
+          <section key={item.position} aria-labelledby={`problem-${item.position}`} className="mt-8 rounded-lg border border-line bg-white p-5 shadow-sm">
+            <h2 id={`problem-${item.position}`} className="text-xl font-semibold">
+              Problem {item.position}: {item.title} <span className="text-base font-normal text-muted">({formatPoints(item.points)} points)</span>
+            </h2>
+            <div className="mt-3">
+              <SummaryList summary={item.summary} />
+              <Histogram bins={item.summary.histogram} title={`Problem ${item.position}, scores`} />
+            </div>
+            {item.finds.map((f) => (
+              <section key={f.name} aria-labelledby={`find-${item.position}-${f.name}`} className="mt-6 border-t border-line pt-4">
+                <h3 id={`find-${item.position}-${f.name}`} className="text-lg font-semibold">
+                  {f.label}
+                  {f.unit ? ` (${f.unit})` : ''} <span className="text-sm font-normal text-muted">· {formatPoints(f.share)} points</span>
+                </h3>
+                <p className="text-sm">
+                  <Link to={`${base}/problems/${item.position}/answers?find=${encodeURIComponent(f.name)}`} className="underline">
+                    Every answer to this question
+                  </Link>
+                </p>
+                {f.summary.count === 0 ? (
+                  <p className="mt-2 text-sm text-muted">No answers yet.</p>
+                ) : (
+                  <>
+                    <div className="mt-2">
+                      <SummaryList summary={f.summary} firstTry={f.firstTry} />
+                    </div>
+                    <Histogram bins={f.summary.histogram} title={`${f.label}, scores`} />
+                    <WrongAnswers find={f} />
+                  </>
+                )}
+              </section>
+            ))}
+          </section>
+        ))
+      )}
+    </div>
+  )
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />
 }
