@@ -1,8 +1,11 @@
 import { Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { windowMessage } from '#app/domain/assignments/policy.ts'
 import { roleLabels } from '#app/domain/permissions.ts'
 import { conventionText } from '#app/lib/conventions.ts'
+import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
+import { listAssignmentsForCourse, type AssignmentListRow } from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { countMembersByRole } from '#app/server/courses.server.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -12,13 +15,14 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.c
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
-  const { course } = await requireCourseRole(request, courseId, ['instructor', 'ta', 'student'])
+  const { user, course } = await requireCourseRole(request, courseId, ['instructor', 'ta', 'student'])
   const counts = course.role === 'student' ? null : await countMembersByRole(db(), courseId)
-  return { course, counts }
+  const assignments = await listAssignmentsForCourse(db(), { courseId, role: course.role, userId: user.id })
+  return { course, counts, assignments }
 }
 
 export default function CourseRoute({ loaderData }: Route.ComponentProps) {
-  const { course, counts } = loaderData
+  const { course, counts, assignments } = loaderData
   const convention = conventionText[course.signConvention]
   const staff = course.role !== 'student'
   return (
@@ -55,10 +59,103 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
           <Link to={`/courses/${course.id}/people`}>People and invitations</Link>
         </p>
       ) : null}
-      <section className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted" aria-label="Assignments">
-        {staff ? 'No assignments yet. Assignments built from the problem bank will be listed here.' : 'No assignments have been set for you yet.'}
-      </section>
+      <Assignments courseId={course.id} timeZone={course.timeZone} rows={assignments} staff={staff} instructor={course.role === 'instructor'} />
     </div>
+  )
+}
+
+function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId: number; timeZone: string; rows: AssignmentListRow[]; staff: boolean; instructor: boolean }) {
+  const fmt = (d: Date) => formatInZone(d, timeZone)
+  return (
+    <section aria-labelledby="assignments-title" className="mt-8">
+      <div className="flex flex-wrap items-baseline justify-between gap-4">
+        <h2 id="assignments-title" className="text-xl font-semibold">
+          Assignments
+        </h2>
+        {staff ? (
+          <p className="flex flex-wrap gap-4 text-sm">
+            {instructor ? <Link to={`/courses/${courseId}/assignments/new`}>New assignment</Link> : null}
+            <Link to={`/courses/${courseId}/gradebook`}>Course gradebook</Link>
+            <a href={`/courses/${courseId}/gradebook.csv`} download>
+              Download grades (CSV)
+            </a>
+          </p>
+        ) : null}
+      </div>
+      {rows.length === 0 ? (
+        <p className="mt-4 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+          {staff
+            ? instructor
+              ? 'No assignments yet. Create one from the problems in your bank.'
+              : 'No assignments yet. The instructors will set them here.'
+            : 'No assignments are open for you yet.'}
+        </p>
+      ) : (
+        <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
+          <table className="w-full text-left text-sm">
+            <caption className="sr-only">Assignments, by due date; times in {timeZone}</caption>
+            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+              <tr>
+                <th scope="col" className="px-4 py-2">Title</th>
+                <th scope="col" className="px-4 py-2">Opens</th>
+                <th scope="col" className="px-4 py-2">Due</th>
+                {staff ? (
+                  <>
+                    <th scope="col" className="px-4 py-2">Problems</th>
+                    <th scope="col" className="px-4 py-2">Pages</th>
+                  </>
+                ) : (
+                  <>
+                    <th scope="col" className="px-4 py-2">Your score</th>
+                    <th scope="col" className="px-4 py-2">State</th>
+                  </>
+                )}
+              </tr>
+            </thead>
+            <tbody>
+              {rows.map((a) => (
+                <tr key={a.id} className="border-t border-line align-top">
+                  <th scope="row" className="px-4 py-2 font-normal">
+                    <Link to={`/courses/${courseId}/assignments/${a.id}`}>{a.title}</Link>
+                  </th>
+                  <td className="px-4 py-2">{fmt(a.opensAt)}</td>
+                  <td className="px-4 py-2">
+                    {fmt(a.dueAt)}
+                    {a.mine?.extended ? <span className="block text-xs text-muted">your extension</span> : null}
+                  </td>
+                  {staff ? (
+                    <>
+                      <td className="px-4 py-2">
+                        {a.itemCount} ({a.maxScore} points)
+                      </td>
+                      <td className="px-4 py-2">
+                        <span className="flex flex-wrap gap-3">
+                          <Link to={`/courses/${courseId}/assignments/${a.id}`}>
+                            Overview<span className="sr-only"> of {a.title}</span>
+                          </Link>
+                          <Link to={`/courses/${courseId}/assignments/${a.id}/gradebook`}>
+                            Gradebook<span className="sr-only"> of {a.title}</span>
+                          </Link>
+                        </span>
+                      </td>
+                    </>
+                  ) : (
+                    <>
+                      <td className="px-4 py-2">
+                        {a.mine?.score ?? 0} of {a.maxScore}
+                        {a.mine && a.mine.pending > 0 ? <span className="block text-xs text-muted">some answers are being graded</span> : null}
+                        {a.gradesReleasedAt ? <span className="block text-xs text-muted">grades released</span> : null}
+                      </td>
+                      <td className="px-4 py-2">{a.mine ? windowMessage(a.mine.window, fmt) : null}</td>
+                    </>
+                  )}
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </section>
   )
 }
 
