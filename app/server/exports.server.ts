@@ -156,7 +156,9 @@ export async function courseGradeCsv(database: Database, courseId: number): Prom
   const grades = await loadCourseGrades(database, courseId)
   const stringifier = stringify(CSV_OPTIONS)
   pipeline(Readable.from(courseRecords(grades)), stringifier, (error) => {
-    if (error && error.name !== 'AbortError') console.error('Course CSV stream stopped:', error.message)
+    // A client that stops reading (closed tab, cancelled download) is not an error worth logging.
+    const code = (error as { code?: string } | null)?.code
+    if (error && error.name !== 'AbortError' && code !== 'ERR_STREAM_PREMATURE_CLOSE') console.error('Course CSV stream stopped:', error.message)
   })
   return Readable.toWeb(stringifier) as unknown as ReadableStream<Uint8Array>
 }

@@ -108,6 +108,12 @@ describe('course gradebook CSV', () => {
     await giveScore(c.first, ada!.id, 9.25, 10) // a better second answer: the best counts
     await giveScore(c.second, ada!.id, 15, 20)
     await giveScore(c.second, zoe!.id, 20, 20)
+    // An answer still waiting for the grader: no score yet, counted as being graded.
+    const [waiting] = await db()
+      .insert(submissions)
+      .values({ assignmentId: c.first.assignmentId, itemId: c.first.itemId, userId: c.students[2]!.id, answers: { x: '1' } })
+      .returning({ id: submissions.id })
+    await db().insert(partResults).values({ submissionId: waiting!.id, ...c.first, userId: c.students[2]!.id, findName: otto.finds[0]!.name, answer: '1', attempt: 1, maxScore: 10 })
 
     const r = await courseCsv(c.course.id, c.instructor.id)
     expect('value' in r).toBe(true)
@@ -123,7 +129,7 @@ describe('course gradebook CSV', () => {
     expect(rows).toEqual([
       ['Student', 'E-mail', 'Section', 'Otto cycle, part 1 [10 pts]', 'Otto cycle, part 2 [20 pts]', 'Total [30 pts]', 'Percent', 'Answers being graded'],
       ['Ada Adams', ada!.email, 'A', '9.25', '15', '24.25', '80.8', '0'],
-      ['Nobody Yet', c.students[2]!.email, '', '0', '0', '0', '0', '0'],
+      ['Nobody Yet', c.students[2]!.email, '', '0', '0', '0', '0', '1'],
       ['Zoë Zeller', zoe!.email, 'B', '0', '20', '20', '66.7', '0'],
     ])
   })
