@@ -238,7 +238,7 @@ export function AssignmentGradebookTable({ data, basePath }: { data: AssignmentG
 export function ExpandLink({ view }: { view: GradebookView }) {
   const expanded = view.expand === '1'
   return (
-    <Link to={hrefFor(view, { expand: expanded ? undefined : '1' })} preventScrollReset className="text-sm underline" aria-pressed={expanded}>
+    <Link to={hrefFor(view, { expand: expanded ? undefined : '1' })} preventScrollReset className="text-sm underline">
       {expanded ? 'Show problems only' : 'Show each question'}
     </Link>
   )
