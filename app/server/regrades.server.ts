@@ -401,7 +401,10 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
         .where(inArray(users.id, userIds))
     : []
   const person = new Map(people.map((p) => [p.id, p]))
-  const labels = new Map(target.definition.finds.map((f) => [f.name, f.label]))
+  // A removed find's label is only in the version the item uses now.
+  const anyRemoved = rows.some((r) => !target.definition.finds.some((f) => f.name === r.findName))
+  const currentFinds = anyRemoved ? (await versionDefinition(database, item.currentVersionId)).finds : []
+  const labels = new Map([...currentFinds, ...target.definition.finds].map((f) => [f.name, f.label]))
 
   const changed: StudentChange[] = []
   let unchanged = 0
@@ -459,8 +462,6 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
   }
   changed.sort((a, b) => Math.abs(b.change) - Math.abs(a.change) || a.name.localeCompare(b.name))
   const affected = changed.filter((c) => c.change !== 0)
-  // A removed find's label is only in the version the item uses now.
-  const currentLabels = removed.size ? new Map((await versionDefinition(database, item.currentVersionId)).finds.map((f) => [f.name, f.label])) : new Map<string, string>()
   return {
     item,
     toVersion,
@@ -475,7 +476,7 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
       parts: rows.length,
       partsChanged,
     },
-    removedFinds: [...removed].map(([name, r]) => ({ name, label: currentLabels.get(name) ?? name, parts: r.parts, students: r.students.size })),
+    removedFinds: [...removed].map(([name, r]) => ({ name, label: labels.get(name) ?? name, parts: r.parts, students: r.students.size })),
     notRegraded,
     pending: pendingRow?.n ?? 0,
   }
@@ -834,7 +835,8 @@ export async function loadRegradePage(
   let preview: RegradePreview | null = null
   let previewError: RegradePage['previewError'] = null
   if (input.preview) {
-    const typed = input.typed ?? Object.fromEntries(finds.map((f) => [f.name, { kind: values[`kind.${f.name}`]!, value: values[`value.${f.name}`]!, unit: values[`unit.${f.name}`]! }]))
+    // The item's current overrides, replaced by whatever the form sent.
+    const typed = { ...Object.fromEntries(finds.map((f) => [f.name, { kind: values[`kind.${f.name}`]!, value: values[`value.${f.name}`]!, unit: values[`unit.${f.name}`]! }])), ...input.typed }
     try {
       preview = await previewRegrade(database, { courseId: input.courseId, assignmentId: input.assignmentId, position: input.position, toVersionId: targetVersion.id, toleranceOverrides: typed })
     } catch (e) {

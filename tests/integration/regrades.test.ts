@@ -5,17 +5,22 @@
  * who may apply or read one.
  */
 import { and, asc, count, eq } from 'drizzle-orm'
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query'
+import { createElement } from 'react'
+import { renderToString } from 'react-dom/server'
+import { createRoutesStub } from 'react-router'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { roundScore } from '#app/domain/assignments/scoring.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { assignmentItems, auditEvents, partResults, problemVersions, regrades, submissions } from '#app/server/db/schema.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
-import { stopBoss } from '#app/server/queue.server.ts'
+import { PermanentJobError, stopBoss } from '#app/server/queue.server.ts'
 import { applyRegrade, getRegradeProgress, previewRegrade, RegradeError, runRegrade, type RegradeProgress } from '#app/server/regrades.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { loader as apiRegradeLoader } from '#app/routes/resources/api-regrade.ts'
-import { action as regradeAction, loader as regradeLoader } from '#app/routes/courses/assignments/regrade.tsx'
+import RegradeRoute, { action as regradeAction, loader as regradeLoader } from '#app/routes/courses/assignments/regrade.tsx'
+import { handleRegrade } from '#jobs/handlers/regrade.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
@@ -97,6 +102,9 @@ async function addVersion(problemId: number, createdBy: number, number: number, 
   return row!.id
 }
 
+/** Server HTML without the markers React puts between adjacent text pieces. */
+const renderToStringPlain = (element: Parameters<typeof renderToString>[0]) => renderToString(element).replaceAll('<!-- -->', '')
+
 const relative = (value: string) => ({ kind: 'relative', value, unit: '' })
 
 async function partsOf(itemId: number) {
@@ -175,7 +183,7 @@ describe('preview', () => {
     expect(exact).toHaveLength(3)
     for (const s of exact) {
       expect([s.oldScore, s.newScore, s.change]).toEqual([10, 10, 0])
-      expect(s.finds.map((f) => [f.name, f.oldVerdict, f.newVerdict])).toEqual([['eta', 'correct', 'removed']])
+      expect(s.finds.map((f) => [f.label, f.oldVerdict, f.newVerdict])).toEqual([['Thermal efficiency', 'correct', 'removed']])
     }
     const off = preview.changed.filter((s) => c.off.some((e) => e.id === s.userId))
     for (const s of off) expect([s.newScore, s.change]).toEqual([6, roundScore(6 - s.oldScore)])
@@ -289,6 +297,13 @@ describe('apply', () => {
   })
 })
 
+test('the job refuses a malformed payload for good, touching no regrade', async () => {
+  const deps = { database: db(), attempt: { number: 1, of: 3 } }
+  await expect(handleRegrade({ v: 1, regradeId: 'one' }, deps)).rejects.toBeInstanceOf(PermanentJobError)
+  await expect(handleRegrade({ regradeId: 1 }, deps)).rejects.toBeInstanceOf(PermanentJobError)
+  expect(await handleRegrade({ v: 1, regradeId: 999_999 }, deps)).toBe('missing')
+})
+
 describe('the page and the API', () => {
   async function people() {
     const c = await gradedCourse()
@@ -329,6 +344,44 @@ describe('the page and the API', () => {
     expect(badValue.init?.status).toBe(400)
     expect(badValue.data?.fieldErrors?.['value.T2']).toMatch(/not a number/)
     expect(badValue.data?.values?.['value.T2']).toBe('lots')
+  })
+
+  test('the page renders the versions, the tolerance form, the preview table and the progress on the server', async () => {
+    const { c, path, params } = await people()
+    const cookie = await cookieFor(c.instructor.id)
+    const regradeId = await applyRegrade(db(), {
+      assignmentId: c.assignment.id,
+      position: 1,
+      toVersionId: c.item.problemVersionId,
+      toleranceOverrides: { T2: relative('5 %') },
+      requestedBy: c.instructor.id,
+    })
+    await waitUntilFinished(regradeId)
+    const query = `?version=${c.item.problemVersionId}&kind.wNet=relative&value.wNet=0.5+%25&unit.wNet=&preview=1&regrade=${regradeId}`
+    const loaderData = await regradeLoader(args(getRequest(`${path}${query}`, { Cookie: cookie }), params))
+    const Stub = createRoutesStub([{ path, Component: RegradeRoute as never, loader: () => loaderData, HydrateFallback: () => null }])
+    const html = renderToStringPlain(
+      createElement(QueryClientProvider, { client: new QueryClient() }, createElement(Stub, { initialEntries: [`${path}${query}`], hydrationData: { loaderData: { 0: loaderData } } })),
+    )
+    expect(html).toContain('Version 1 (used now)')
+    expect(html).toContain('name="kind.T2"')
+    // T2 keeps the 5 % the regrade stored; wNet tightened to 0.5 % changes nobody (every wNet answer was exact).
+    expect(html).toMatch(/value="5 %"/)
+    expect(html).toContain('No student’s score would change.')
+    expect(html).toMatch(/<progress[^>]*max="18"[^>]*value="18"/)
+    expect(html).toContain('18 of 18 answers regraded, 3 changed')
+    expect(html).toContain('<caption')
+
+    // Back to the version's own 1 % for T2: the table lists the three students who would lose it.
+    const back = `?version=${c.item.problemVersionId}&kind.T2=default&value.T2=&unit.T2=&preview=1`
+    const backData = await regradeLoader(args(getRequest(`${path}${back}`, { Cookie: cookie }), params))
+    const BackStub = createRoutesStub([{ path, Component: RegradeRoute as never, loader: () => backData, HydrateFallback: () => null }])
+    const table = renderToStringPlain(
+      createElement(QueryClientProvider, { client: new QueryClient() }, createElement(BackStub, { initialEntries: [`${path}${back}`], hydrationData: { loaderData: { 0: backData } } })),
+    )
+    expect(table.match(/Temperature at the end of compression: correct → incorrect/g)).toHaveLength(3)
+    for (const s of c.off) expect(table).toContain(s.email)
+    expect(table).toContain('name="intent" value="apply"')
   })
 
   test('GET /api/regrades/:id answers staff with the progress and others with JSON 401/403/404', async () => {
