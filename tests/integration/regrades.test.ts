@@ -331,6 +331,11 @@ describe('the page and the API', () => {
     const query = new URLSearchParams({ version: String(c.item.problemVersionId), 'kind.T2': 'relative', 'value.T2': '5 %', 'unit.T2': '', preview: '1' })
     const page = (await regradeLoader(args(getRequest(`${path}?${query}`, { Cookie: cookie }), params))) as { preview: { changed: unknown[] } | null }
     expect(page.preview?.changed).toHaveLength(3)
+    // A field named after Object.prototype's key is just an unknown find.
+    const odd = new URLSearchParams({ version: String(c.item.problemVersionId), 'kind.__proto__': 'relative', 'value.__proto__': '5 %', preview: '1' })
+    const oddPage = (await regradeLoader(args(getRequest(`${path}?${odd}`, { Cookie: cookie }), params))) as { preview: { ignoredOverrides: string[] } | null }
+    expect(oddPage.preview?.ignoredOverrides).toEqual(['__proto__'])
+    expect(({} as Record<string, unknown>).kind).toBeUndefined()
 
     const res = await settle(regradeAction(args(formRequest(path, applyFields(c.item.problemVersionId), { Cookie: cookie }), params)))
     const redirect = ('value' in res ? res.value : res.thrown) as Response

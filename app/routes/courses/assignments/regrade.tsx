@@ -26,17 +26,16 @@ const ApplySchema = z.object({ intent: z.literal('apply'), version: Id })
 
 /** The per-find tolerance fields (kind.<find>, value.<find>, unit.<find>) of a form or a query. */
 function typedOverrides(entries: Iterable<[string, FormDataEntryValue]>): Record<string, ToleranceFields> | undefined {
-  const typed: Record<string, ToleranceFields> = {}
-  let any = false
+  // A Map, not an object: a find name typed as "__proto__" must not reach Object.prototype.
+  const typed = new Map<string, ToleranceFields>()
   for (const [key, raw] of entries) {
     const m = /^(kind|value|unit)\.(.{1,64})$/.exec(key)
     if (!m || typeof raw !== 'string') continue
-    any = true
-    const field = m[1] as keyof ToleranceFields
-    const entry = (typed[m[2]!] ??= { kind: '', value: '', unit: '' })
-    entry[field] = raw.slice(0, 100)
+    const entry = typed.get(m[2]!) ?? { kind: '', value: '', unit: '' }
+    entry[m[1] as keyof ToleranceFields] = raw.slice(0, 100)
+    typed.set(m[2]!, entry)
   }
-  return any ? typed : undefined
+  return typed.size > 0 ? Object.fromEntries(typed) : undefined
 }
 
 async function guard(request: Request, params: Route.LoaderArgs['params']) {
