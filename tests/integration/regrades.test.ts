@@ -247,6 +247,7 @@ describe('apply', () => {
     expect(await runRegrade(db(), regradeId)).toBe('already-done')
     expect(await partsOf(c.item.id)).toEqual(snapshot)
     expect((await db().select({ n: count() }).from(auditEvents).where(eq(auditEvents.assignmentId, c.assignment.id)))[0]!.n).toBe(3)
+    expect(workerErrors).toEqual([])
   })
 
   test('a retried run continues: answers already carrying the regrade are skipped, chunk by chunk', async () => {
