@@ -72,6 +72,9 @@ export type GradeOutcome = 'graded' | 'already-graded' | 'missing' | 'failed'
  */
 export async function gradeSubmission(database: Db, submissionId: number): Promise<GradeOutcome> {
   return database.transaction(async (tx) => {
+    // The item first (shared): a regrade moving it to another version holds it exclusively,
+    // so a grade is never computed from a version the regrade has already replaced.
+    await tx.execute(sql`select 1 from ${assignmentItems} where id = (select item_id from ${submissions} where id = ${submissionId}) for share`)
     const [row] = await tx
       .select({
         id: submissions.id,
