@@ -109,19 +109,7 @@ export function rulesOf(a: Pick<Assignment, keyof AssignmentRules>): AssignmentR
   }
 }
 
-/** The late policy in a sentence, for staff and students alike. */
-export function latePolicyText(rules: Pick<AssignmentRules, 'latePolicy' | 'latePenaltyPercentPerDay' | 'lateDaysAllowed'>): string {
-  if (rules.latePolicy === 'closed' || rules.lateDaysAllowed === 0) return 'No answers are accepted after the due date.'
-  const days = rules.lateDaysAllowed
-  return `Late answers are accepted for up to ${days} day${days === 1 ? '' : 's'} after the due date; each started day late costs ${rules.latePenaltyPercentPerDay} % of the points.`
-}
-
-export function keyReleaseText(rules: Pick<AssignmentRules, 'keyRelease' | 'keyReleasedAt'>, timeZone: string): string {
-  if (rules.keyRelease === 'after-due') return 'The key and worked solutions are shown to each student once they can no longer submit.'
-  return rules.keyReleasedAt
-    ? `The key and worked solutions were released on ${formatInZone(rules.keyReleasedAt, timeZone)}.`
-    : 'The key and worked solutions are shown when an instructor releases them.'
-}
+export { keyReleaseText, latePolicyText } from '#app/lib/assignment-text.ts'
 
 // ---- Listing ------------------------------------------------------------------------------
 
