@@ -12,7 +12,8 @@ import * as schema from '#app/server/db/schema.server.ts'
 import { env } from '#app/server/env.server.ts'
 import { bossOptions, ensureQueues, PermanentJobError, PGBOSS_SCHEMA } from '#app/server/queue.server.ts'
 import { handleExportGrades } from './handlers/export-grades.ts'
-import { handleGradeSubmission } from './handlers/grade-submission.ts'
+import { gradeSubmissions } from '#app/server/grading.server.ts'
+import { handleGradeSubmission, splitGradeJobs } from './handlers/grade-submission.ts'
 import { handleProblemSweep } from './handlers/problem-sweep.ts'
 import { handleRegrade } from './handlers/regrade.ts'
 import { handleSendMail } from './handlers/send-mail.ts'
@@ -36,6 +37,8 @@ export type WorkerOptions = {
   logError?: (line: string) => void
   /** Fetch loops on the grading queue (default 3). */
   gradingLoops?: number
+  /** Jobs one grading fetch takes and grades in one transaction (default 100). */
+  gradingBatchSize?: number
 }
 
 export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWorker> {
@@ -60,8 +63,37 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
    * how many fetch loops run side by side. pg-boss 10 waits its polling interval (0.5 s at
    * the least) between fetches of one loop, so grading takes big batches on several loops.
    */
-  const queues: { name: string; handle: Handler; batchSize: number; concurrency: number; loops: number }[] = [
-    { name: 'grade-submission', handle: handleGradeSubmission, batchSize: 50, concurrency: 6, loops: opts.gradingLoops ?? 3 },
+  type Job = PgBoss.JobWithMetadata<unknown>
+  type Queue = {
+    name: string
+    handle: Handler
+    /** Handles a whole fetched batch at once; returns the jobs it could not take, which run one by one. */
+    handleBatch?: (jobs: Job[]) => Promise<Job[]>
+    batchSize: number
+    concurrency: number
+    loops: number
+  }
+  const queues: Queue[] = [
+    {
+      name: 'grade-submission',
+      handle: handleGradeSubmission,
+      // One transaction grades the whole batch; if it fails, each job is graded alone so a
+      // bad one fails by itself and the rest still land.
+      handleBatch: async (jobs) => {
+        const { valid, invalid } = splitGradeJobs(jobs)
+        if (valid.length === 0) return invalid
+        try {
+          await gradeSubmissions(database, valid.map((v) => v.submissionId))
+          return invalid
+        } catch (e) {
+          logError(`Grading a batch of ${valid.length} failed (${e instanceof Error ? e.message : String(e)}); grading them one by one.`)
+          return jobs
+        }
+      },
+      batchSize: opts.gradingBatchSize ?? 100,
+      concurrency: 4,
+      loops: opts.gradingLoops ?? 3,
+    },
     { name: 'problem-sweep', handle: handleProblemSweep, batchSize: 1, concurrency: 1, loops: 1 },
     { name: 'regrade', handle: handleRegrade, batchSize: 1, concurrency: 1, loops: 1 },
     { name: 'send-mail', handle: handleSendMail, batchSize: 10, concurrency: 2, loops: 1 },
@@ -71,7 +103,7 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
   // With its metadata a job says which try this is: pg-boss counts retries from 0 and
   // allows retryLimit of them after the first run. Each job of a batch succeeds or fails on
   // its own: a failed one is failed here, and pg-boss then completes only the jobs still active.
-  const runOne = async (handle: Handler, job: PgBoss.JobWithMetadata<unknown>) => {
+  const runOne = async (handle: Handler, job: Job) => {
     const attempt = { number: job.retryCount + 1, of: job.retryLimit + 1 }
     try {
       await handle(job.data, { database, attempt })
@@ -85,7 +117,8 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
   }
   for (const q of queues) {
     for (let loop = 0; loop < q.loops; loop++) {
-      await boss.work<unknown>(q.name, { batchSize: q.batchSize, includeMetadata: true, pollingIntervalSeconds: 0.5 }, async (jobs) => {
+      await boss.work<unknown>(q.name, { batchSize: q.batchSize, includeMetadata: true, pollingIntervalSeconds: 0.5 }, async (fetched) => {
+        const jobs = q.handleBatch ? await q.handleBatch(fetched) : fetched
         let next = 0
         const lane = async () => {
           while (next < jobs.length) await runOne(q.handle, jobs[next++]!)

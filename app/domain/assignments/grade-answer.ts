@@ -37,6 +37,26 @@ export interface GradeAnswerInput {
 /** How close a slip's value must be to the student's to name it (1 %, the checker's default). */
 const PITFALL_MATCH = 0.01
 
+// What each slip gives for a quantity of a variant, kept while the variant object lives:
+// the server caches variants per student, and a student's wrong answers to the same find
+// need the same re-solves each time.
+const slippedValues = new WeakMap<object, Map<string, number[]>>()
+
+function valuesWithPitfall(spec: Readonly<Record<string, unknown>>, path: string, id: PitfallId): number[] {
+  let memo = slippedValues.get(spec)
+  if (!memo) {
+    memo = new Map()
+    slippedValues.set(spec, memo)
+  }
+  const key = `${id}|${path}`
+  let values = memo.get(key)
+  if (!values) {
+    values = evaluateWithPitfall(spec, path, id)
+    memo.set(key, values)
+  }
+  return values
+}
+
 const close = (a: number, b: number, rel: number) => Math.abs(a - b) <= rel * Math.max(Math.abs(a), Math.abs(b))
 
 export function gradeAnswer(input: GradeAnswerInput): AnswerGrade {
@@ -71,7 +91,7 @@ function findPitfall(find: Find, key: KeyEntry, variant: Variant, valueInFindUni
     if (!pitfall) continue
     let values: number[]
     try {
-      values = evaluateWithPitfall(variant.spec, key.path, id)
+      values = valuesWithPitfall(variant.spec, key.path, id)
     } catch {
       continue
     }
