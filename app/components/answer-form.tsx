@@ -202,7 +202,7 @@ function LastVerdict({ find: f }: { find: FindView }) {
   const last = f.last
   if (!last) return null
   if (last.verdict === null) {
-    if (last.gradingFailed) return <p className="text-danger">Your answer “{last.answer}” could not be graded. It is stored; your teacher has been told.</p>
+    if (last.gradingFailed) return <p className="text-danger">Your answer “{last.answer}” could not be graded. It is stored, and your teacher sees it among the answers to this problem; please tell them.</p>
     return <p className="font-medium text-accent-strong">Being graded…</p>
   }
   return (

@@ -296,17 +296,27 @@ export async function getStudentProblem(database: Database, ref: ProblemRef & { 
     item: { id: item.itemId, position: item.position, count: item.itemCount, points: item.points, title: item.definition.title },
     window: submissionWindow(item.rules, item.extension, now),
     promptHtml: drawn.ok ? renderPrompt(item.definition.prompt, drawn.variant.givens, displays).html : null,
-    variantError: drawn.ok ? null : 'This problem could not be set up for you. Your teacher has been told; please try again later.',
+    variantError: drawn.ok ? null : 'This problem could not be set up for you. Please tell your teacher; your answers to other problems are not affected.',
     results: await myResults(database, item, ref.userId),
     key,
   }
 }
 
-/** What the page polls while grading runs (GET /api/assignments/:a/problems/:p/mine). */
-export async function getMyResults(database: Database, ref: ProblemRef): Promise<MyResults | null> {
+/**
+ * What the page polls while grading runs (GET /api/assignments/:a/problems/:p/mine). Null
+ * when there is no such problem in the course or it has not opened yet.
+ */
+export async function getMyResults(database: Database, ref: ProblemRef & { now?: Date }): Promise<MyResults | null> {
   const item = await loadItem(database, ref)
   if (!item) return null
+  if ((ref.now ?? new Date()).getTime() < item.rules.opensAt.getTime()) return null
   return myResults(database, item, ref.userId)
+}
+
+/** The course an assignment belongs to, or null. */
+export async function findAssignmentCourseId(database: Database, assignmentId: number): Promise<number | null> {
+  const [row] = await database.select({ courseId: assignments.courseId }).from(assignments).where(eq(assignments.id, assignmentId))
+  return row?.courseId ?? null
 }
 
 export type SubmitResult =
