@@ -12,6 +12,7 @@ import { data } from 'react-router'
 import { z } from 'zod'
 import {
   attemptsAllowed,
+  rulesOf,
   studentDueAt,
   submissionWindow,
   type AssignmentRules,
@@ -96,18 +97,6 @@ async function findAssignment(database: Database, courseId: number, assignmentId
   return row
 }
 
-export function rulesOf(a: Pick<Assignment, keyof AssignmentRules>): AssignmentRules {
-  return {
-    opensAt: a.opensAt,
-    dueAt: a.dueAt,
-    attemptsPerFind: a.attemptsPerFind,
-    latePolicy: a.latePolicy,
-    latePenaltyPercentPerDay: a.latePenaltyPercentPerDay,
-    lateDaysAllowed: a.lateDaysAllowed,
-    keyRelease: a.keyRelease,
-    keyReleasedAt: a.keyReleasedAt,
-  }
-}
 
 export { keyReleaseText, latePolicyText } from '#app/lib/assignment-text.ts'
 

@@ -9,7 +9,7 @@
  */
 import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm'
 import { z } from 'zod'
-import { attemptsAllowed, type AssignmentRules, type StudentExtension } from '#app/domain/assignments/policy.ts'
+import { attemptsAllowed, rulesOf, type AssignmentRules, type StudentExtension } from '#app/domain/assignments/policy.ts'
 import { findShares, findState, roundScore } from '#app/domain/assignments/scoring.ts'
 import { groupWrongAnswers, histogram, mean, median, type HistogramBin, type WrongAnswerGroup } from '#app/domain/assignments/statistics.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
@@ -131,20 +131,7 @@ function sectionsOf(students: readonly { section: string | null }[]): string[] {
   return [...new Set(students.map((s) => s.section).filter((s): s is string => s !== null))].sort((a, b) => a.localeCompare(b, 'en', { numeric: true }))
 }
 
-type AssignmentRow = typeof assignments.$inferSelect
 
-function rulesOf(a: AssignmentRow): AssignmentRules {
-  return {
-    opensAt: a.opensAt,
-    dueAt: a.dueAt,
-    attemptsPerFind: a.attemptsPerFind,
-    latePolicy: a.latePolicy,
-    latePenaltyPercentPerDay: a.latePenaltyPercentPerDay,
-    lateDaysAllowed: a.lateDaysAllowed,
-    keyRelease: a.keyRelease,
-    keyReleasedAt: a.keyReleasedAt,
-  }
-}
 
 /**
  * One student's standing on one assignment: being graded while any answer waits; not started

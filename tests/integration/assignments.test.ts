@@ -384,14 +384,15 @@ describe('who sees and changes what', () => {
     const params = { courseId: String(course.id), assignmentId: String(assignment.id) }
     const base = `/courses/${course.id}/assignments`
     const fields = settingsFields({ 'items.0.versionId': String(p.versionId), 'items.0.points': '10' })
-    const attempts: Promise<unknown>[] = [
-      newLoader(args(getRequest(`${base}/new`, { Cookie: cookie }), params)),
-      newAction(args(formRequest(`${base}/new`, fields, { Cookie: cookie }), params)),
-      editAction(args(formRequest(`${base}/${assignment.id}/edit`, fields, { Cookie: cookie }), params)),
-      extensionsAction(args(formRequest(`${base}/${assignment.id}/extensions`, { userId: String(students[0]!.id), dueAt: '2099-01-01T00:00', extraAttempts: '1', reason: '' }, { Cookie: cookie }), params)),
+    // Thunks, so each request starts only when it is awaited: a rejection is never left unhandled.
+    const attempts: (() => Promise<unknown>)[] = [
+      () => newLoader(args(getRequest(`${base}/new`, { Cookie: cookie }), params)),
+      () => newAction(args(formRequest(`${base}/new`, fields, { Cookie: cookie }), params)),
+      () => editAction(args(formRequest(`${base}/${assignment.id}/edit`, fields, { Cookie: cookie }), params)),
+      () => extensionsAction(args(formRequest(`${base}/${assignment.id}/extensions`, { userId: String(students[0]!.id), dueAt: '2099-01-01T00:00', extraAttempts: '1', reason: '' }, { Cookie: cookie }), params)),
     ]
     for (const attempt of attempts) {
-      const r = await settle(attempt)
+      const r = await settle(attempt())
       expect('thrown' in r && status(r.thrown)).toBe(403)
     }
     expect(await countAssignments(course.id)).toBe(1)

@@ -5,7 +5,11 @@
  */
 import { and, eq, sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
+import { loader as gradebookLoader } from '#app/routes/resources/api-assignment-gradebook.ts'
 import { db } from '#app/server/db/client.server.ts'
+import type { AssignmentGradebook } from '#app/server/gradebook.server.ts'
+import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
+import { args, getRequest } from '#tests/support/requests.ts'
 import { extensions, partResults, submissions } from '#app/server/db/schema.server.ts'
 import { gradeSubmission, gradeSubmissions, listAssignmentTotals, listFindScores, studentVariant } from '#app/server/grading.server.ts'
 import { enqueue, stopBoss } from '#app/server/queue.server.ts'
@@ -159,6 +163,40 @@ describe('submit, grade, read back', () => {
     await until('grading', () => getMyResults(db(), s.ref), (r) => r !== null && !r.pending)
     const again = await submitAnswers(db(), { ...s.ref, answers: { T2: '1 K' } })
     expect(again).toMatchObject({ ok: false, formError: expect.stringMatching(/already correct/) })
+  })
+})
+
+describe('the gradebook follows the worker', () => {
+  async function cookieFor(userId: number): Promise<string> {
+    const row = await createSessionRow(db(), userId)
+    const session = await sessionStorage().getSession()
+    session.set('sid', row.id)
+    return (await sessionStorage().commitSession(session)).split(';')[0]!
+  }
+
+  test('submit → graded by the worker → the staff gradebook JSON shows the score', async () => {
+    const s = await setUp()
+    const cookie = await cookieFor(s.instructor.id)
+    const read = async () => {
+      const res = await gradebookLoader(args(getRequest(`/api/assignments/${s.assignment.id}/gradebook?expand=1`, { Cookie: cookie }), { assignmentId: String(s.assignment.id) }))
+      expect(res.status).toBe(200)
+      return (await res.json()) as AssignmentGradebook
+    }
+    const before = await read()
+    expect(before.students.find((x) => x.userId === s.student.id)?.total).toBe(0)
+
+    const result = await submitAnswers(db(), { ...s.ref, answers: { T2: `${s.key.T2!.value} K`, wNet: `${s.key.wNet!.value} kJ/kg`, eta: `${s.key.eta!.value * 1.2}` } })
+    if (!result.ok) throw new Error(result.formError)
+    const graded = await until('the gradebook', read, (g) => g.pendingCount === 0 && g.students.some((x) => x.userId === s.student.id && x.total > 0))
+    const row = graded.students.find((x) => x.userId === s.student.id)!
+    // T2 (2 points of 7) and wNet (3 of 7) right, eta (2 of 7) wrong: 5/7 of the problem's 10 points.
+    expect(row.total).toBeCloseTo((10 * 5) / 7, 6)
+    expect(row.items[0]!.finds.map((f) => [f.name, f.correct, f.attempts])).toEqual([
+      ['T2', true, 1],
+      ['wNet', true, 1],
+      ['eta', false, 1],
+    ])
+    expect(graded.students.find((x) => x.userId === s.students[1]!.id)?.total).toBe(0)
   })
 })
 

@@ -29,6 +29,20 @@ export interface AssignmentRules {
   readonly keyReleasedAt: Date | null
 }
 
+/** The rules out of a row that has (at least) these columns, e.g. an assignments row. */
+export function rulesOf(a: AssignmentRules): AssignmentRules {
+  return {
+    opensAt: a.opensAt,
+    dueAt: a.dueAt,
+    attemptsPerFind: a.attemptsPerFind,
+    latePolicy: a.latePolicy,
+    latePenaltyPercentPerDay: a.latePenaltyPercentPerDay,
+    lateDaysAllowed: a.lateDaysAllowed,
+    keyRelease: a.keyRelease,
+    keyReleasedAt: a.keyReleasedAt,
+  }
+}
+
 /** A per-student accommodation; null or undefined when the student has none. */
 export interface StudentExtension {
   readonly dueAt: Date | null
