@@ -132,7 +132,6 @@ function sectionsOf(students: readonly { section: string | null }[]): string[] {
 }
 
 
-
 /**
  * One student's standing on one assignment: being graded while any answer waits; not started
  * with no answer; finished when every find is right or out of attempts; else in progress.
