@@ -131,7 +131,6 @@ function sectionsOf(students: readonly { section: string | null }[]): string[] {
   return [...new Set(students.map((s) => s.section).filter((s): s is string => s !== null))].sort((a, b) => a.localeCompare(b, 'en', { numeric: true }))
 }
 
-
 /**
  * One student's standing on one assignment: being graded while any answer waits; not started
  * with no answer; finished when every find is right or out of attempts; else in progress.
