@@ -137,8 +137,10 @@ export async function listAssignmentsForCourse(
   const rows = await database
     .select({
       assignment: assignments,
-      itemCount: sql<number>`(select count(*) from ${assignmentItems} where ${assignmentItems.assignmentId} = ${assignments.id})::int`,
-      maxScore: sql<number>`(select coalesce(sum(${assignmentItems.points}), 0) from ${assignmentItems} where ${assignmentItems.assignmentId} = ${assignments.id})::float8`,
+      // Qualified by hand: Drizzle leaves columns unqualified in a select without joins, and
+      // an unqualified "id" inside these subqueries would be the item's own id.
+      itemCount: sql<number>`(select count(*) from ${assignmentItems} ai where ai.assignment_id = "assignments"."id")::int`,
+      maxScore: sql<number>`(select coalesce(sum(ai.points), 0) from ${assignmentItems} ai where ai.assignment_id = "assignments"."id")::float8`,
     })
     .from(assignments)
     .where(and(eq(assignments.courseId, opts.courseId), student ? sql`${assignments.opensAt} <= ${now.toISOString()}` : undefined))

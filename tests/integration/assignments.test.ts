@@ -351,6 +351,18 @@ describe('releasing grades', () => {
   })
 })
 
+describe('the course list', () => {
+  test('counts each assignment’s own problems and points', async () => {
+    const { course, instructor } = await setUp()
+    const a = await createProblemWithVersion(db(), instructor.id, otto)
+    const b = await createProblemWithVersion(db(), instructor.id, otto)
+    await createAssignment(db(), course.id, instructor.id, [{ ...a, points: 10 }, { ...b, points: 15 }], { title: 'Two problems' })
+    await createAssignment(db(), course.id, instructor.id, [{ ...a, points: 4 }], { title: 'One problem' })
+    const list = await listAssignmentsForCourse(db(), { courseId: course.id, role: 'instructor', userId: instructor.id })
+    expect(Object.fromEntries(list.map((r) => [r.title, [r.itemCount, r.maxScore]]))).toEqual({ 'Two problems': [2, 25], 'One problem': [1, 4] })
+  })
+})
+
 describe('who sees and changes what', () => {
   test('students do not see assignments that have not opened, in the list or by address', async () => {
     const { course, instructor, students } = await setUp()
