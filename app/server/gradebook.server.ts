@@ -11,7 +11,7 @@ import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm'
 import { z } from 'zod'
 import { attemptsAllowed, rulesOf, type AssignmentRules, type StudentExtension } from '#app/domain/assignments/policy.ts'
 import { findShares, findState, roundScore } from '#app/domain/assignments/scoring.ts'
-import { groupWrongAnswers, histogram, mean, median, type HistogramBin, type WrongAnswerGroup } from '#app/domain/assignments/statistics.ts'
+import { groupWrongAnswers, groupWrongAnswersByMultiple, histogram, mean, median, type HistogramBin, type WrongAnswerGroup } from '#app/domain/assignments/statistics.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
 import type { Db, Tx } from './db/client.server.ts'
@@ -470,7 +470,9 @@ export type FindStatistics = {
   summary: ScoreSummary
   /** among students whose first answer is graded */
   firstTry: { correct: number; of: number; share: number | null }
-  wrongAnswers: (Omit<WrongAnswerGroup, 'pitfall'> & { pitfall: { id: string; title: string; feedback: string; count: number } | null })[]
+  wrongAnswers: NamedGroup[]
+  /** the same wrong answers grouped by their multiple of each student's own key (−1: the other sign, 1000: kJ as J, …) */
+  wrongMultiples: NamedGroup[]
 }
 export type AssignmentStatistics = {
   assignment: { id: number; courseId: number; title: string; points: number; timeZone: string }
@@ -489,6 +491,14 @@ function summarise(shares: number[]): ScoreSummary {
  * share right at the first attempt; and the most common wrong answers (statistics.ts says how
  * they are grouped). Answers still waiting for the grader are not counted yet.
  */
+type NamedGroup = Omit<WrongAnswerGroup, 'pitfall'> & { pitfall: { id: string; title: string; feedback: string; count: number } | null }
+
+/** The student's key in the find's unit, from the checker's detail (answer − key). */
+function expectedOf(value: number | null, detail: unknown): number | null {
+  const difference = (detail as { difference?: unknown } | null)?.difference
+  return value !== null && typeof difference === 'number' && Number.isFinite(difference) ? value - difference : null
+}
+
 export async function getAssignmentStatistics(database: Database, assignmentId: number, courseId?: number): Promise<AssignmentStatistics | null> {
   const found = await findAssignment(database, assignmentId, courseId)
   if (!found) return null
@@ -506,6 +516,7 @@ export async function getAssignmentStatistics(database: Database, assignmentId: 
         answer: partResults.answer,
         pitfallId: partResults.pitfallId,
         pitfallFeedback: partResults.pitfallFeedback,
+        detail: partResults.detail,
       })
       .from(partResults)
       .where(and(eq(partResults.assignmentId, assignmentId), isNotNull(partResults.verdict))),
@@ -528,12 +539,15 @@ export async function getAssignmentStatistics(database: Database, assignmentId: 
       }
       for (const [userId, s] of best) itemBest.set(userId, (itemBest.get(userId) ?? 0) + s)
       const shares = f.share > 0 ? [...best.values()].map((s) => Math.min(1, s / f.share)) : []
-      const wrong = groupWrongAnswers(rows.filter((r) => r.verdict === 'incorrect'))
+      const incorrect = rows.filter((r) => r.verdict === 'incorrect').map((r) => ({ ...r, expected: expectedOf(r.value, r.detail) }))
+      const wrong = groupWrongAnswers(incorrect)
+      const named = (g: WrongAnswerGroup): NamedGroup => ({ ...g, pitfall: g.pitfall ? { ...g.pitfall, title: pitfallTitle(g.pitfall.id) } : null })
       return {
         ...f,
         summary: summarise(shares),
         firstTry: { correct: firstCorrect, of: firstOf, share: firstOf > 0 ? firstCorrect / firstOf : null },
-        wrongAnswers: wrong.map((g) => ({ ...g, pitfall: g.pitfall ? { ...g.pitfall, title: pitfallTitle(g.pitfall.id) } : null })),
+        wrongAnswers: wrong.map(named),
+        wrongMultiples: groupWrongAnswersByMultiple(incorrect).map(named),
       }
     })
     const itemShares = item.points > 0 ? [...itemBest.values()].map((s) => Math.min(1, s / item.points)) : []

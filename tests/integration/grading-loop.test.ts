@@ -7,7 +7,7 @@ import { and, eq, sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { loader as gradebookLoader } from '#app/routes/resources/api-assignment-gradebook.ts'
 import { db } from '#app/server/db/client.server.ts'
-import type { AssignmentGradebook } from '#app/server/gradebook.server.ts'
+import { getAssignmentStatistics, type AssignmentGradebook } from '#app/server/gradebook.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { args, getRequest } from '#tests/support/requests.ts'
 import { extensions, partResults, submissions } from '#app/server/db/schema.server.ts'
@@ -198,6 +198,31 @@ describe('the gradebook follows the worker', () => {
     ])
     expect(graded.students.find((x) => x.userId === s.students[1]!.id)?.total).toBe(0)
   })
+})
+
+test('statistics group the same slip on different numbers: the other sign convention is × −1 for both students', async () => {
+  const s = await setUp()
+  const other = s.students[1]!
+  const otherKey = studentVariant({
+    versionId: s.item.problemVersionId,
+    definition: ottoV1,
+    assignmentId: s.assignment.id,
+    problemId: s.item.problemId,
+    userId: other.id,
+    courseConvention: s.course.signConvention,
+  })
+  if (!otherKey.ok) throw new Error(otherKey.error.message)
+  const otherWNet = otherKey.variant.key.find((k) => k.name === 'wNet')!.value
+  expect(otherWNet).not.toBeCloseTo(s.key.wNet!.value, 3)
+  await submitAnswers(db(), { ...s.ref, answers: { wNet: `${-s.key.wNet!.value} kJ/kg` } })
+  await submitAnswers(db(), { ...s.ref, userId: other.id, answers: { wNet: `${-otherWNet} kJ/kg` } })
+  await until('grading', () => getMyResults(db(), { ...s.ref, userId: other.id }), (r) => r !== null && !r.pending)
+  await until('grading', () => getMyResults(db(), s.ref), (r) => r !== null && !r.pending)
+  const stats = await getAssignmentStatistics(db(), s.assignment.id)
+  const wNet = stats!.items[0]!.finds.find((f) => f.name === 'wNet')!
+  expect(wNet.wrongMultiples.map((g) => [g.value, g.count, g.pitfall?.id, g.pitfall?.count])).toEqual([[-1, 2, 'sign-convention-flipped', 2]])
+  // By value they are two groups of one: the students' numbers differ.
+  expect(wNet.wrongAnswers.map((g) => g.count)).toEqual([1, 1])
 })
 
 describe('late policy and extensions', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest'
-import { groupWrongAnswers, histogram, mean, median, roundSignificant, type WrongAnswer } from './statistics.ts'
+import { groupWrongAnswers, groupWrongAnswersByMultiple, histogram, mean, median, roundSignificant, type WrongAnswer } from './statistics.ts'
 
 describe('mean', () => {
   test.each([
@@ -112,5 +112,34 @@ describe('groupWrongAnswers', () => {
     expect(groups).toHaveLength(2)
     expect(groups[0]!.examples).toEqual(['300 K', '300.04'])
     expect(groups[1]!.value).toBe(1)
+  })
+})
+
+describe('groupWrongAnswersByMultiple', () => {
+  const wrong = (value: number | null, expected: number | null, pitfallId: string | null = null) => ({
+    value,
+    expected,
+    answer: String(value),
+    pitfallId,
+    pitfallFeedback: pitfallId ? `feedback for ${pitfallId}` : null,
+  })
+
+  test('the same slip on different numbers lands in one group', () => {
+    const groups = groupWrongAnswersByMultiple([
+      wrong(-412.3, 412.3, 'sign-convention-flipped'),
+      wrong(-388, 388, 'sign-convention-flipped'),
+      wrong(-501.7, 501.7, null),
+      wrong(455000, 455, 'kilo-factor'),
+      wrong(610, 480, null),
+    ])
+    expect(groups.map((g) => [g.value, g.count, g.pitfall?.id ?? null, g.pitfall?.count ?? 0])).toEqual([
+      [-1, 3, 'sign-convention-flipped', 2],
+      [1.27, 1, null, 0],
+      [1000, 1, 'kilo-factor', 1],
+    ])
+  })
+
+  test('answers without a value or a usable key are left out', () => {
+    expect(groupWrongAnswersByMultiple([wrong(null, 3), wrong(5, 0), wrong(5, null), { ...wrong(5, 2), expected: undefined }])).toEqual([])
   })
 })

@@ -68,6 +68,8 @@ export interface WrongAnswer {
   readonly answer: string
   readonly pitfallId: string | null
   readonly pitfallFeedback: string | null
+  /** the key of the student's own variant, in the find's unit, when known */
+  readonly expected?: number | null
 }
 
 export interface WrongAnswerGroup {
@@ -86,12 +88,35 @@ export interface WrongAnswerGroup {
  * number to share.
  */
 export function groupWrongAnswers(answers: readonly WrongAnswer[], options: { limit?: number; examples?: number } = {}): WrongAnswerGroup[] {
+  return groupBy(answers, (a) => (a.value === null || !Number.isFinite(a.value) ? null : roundSignificant(a.value, 3)), options)
+}
+
+/**
+ * Groups wrong answers by their multiple of the student's own key (answer ÷ key, 3 significant
+ * figures). Every student has other numbers, so equal values are rare; the same slip, though,
+ * gives the same multiple whatever the numbers (−1 for the other sign convention, 1000 for kJ
+ * taken as J), so this is the grouping that finds the class's common mistakes. Answers
+ * without a value or a non-zero key are left out.
+ */
+export function groupWrongAnswersByMultiple(answers: readonly WrongAnswer[], options: { limit?: number; examples?: number } = {}): WrongAnswerGroup[] {
+  return groupBy(
+    answers,
+    (a) => {
+      if (a.value === null || !Number.isFinite(a.value) || typeof a.expected !== 'number' || !Number.isFinite(a.expected) || a.expected === 0) return null
+      const multiple = roundSignificant(a.value / a.expected, 3)
+      return Number.isFinite(multiple) ? multiple : null
+    },
+    options,
+  )
+}
+
+function groupBy(answers: readonly WrongAnswer[], keyOf: (a: WrongAnswer) => number | null, options: { limit?: number; examples?: number }): WrongAnswerGroup[] {
   const limit = options.limit ?? 5
   const maxExamples = options.examples ?? 3
   const groups = new Map<number, { count: number; examples: string[]; pitfalls: Map<string, { feedback: string; count: number }> }>()
   for (const a of answers) {
-    if (a.value === null || !Number.isFinite(a.value)) continue
-    const key = roundSignificant(a.value, 3)
+    const key = keyOf(a)
+    if (key === null) continue
     let g = groups.get(key)
     if (!g) {
       g = { count: 0, examples: [], pitfalls: new Map() }

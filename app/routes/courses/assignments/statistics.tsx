@@ -56,15 +56,21 @@ function SummaryList({ summary, firstTry }: { summary: ScoreSummary; firstTry?: 
   )
 }
 
-function WrongAnswers({ find }: { find: FindStatistics }) {
-  if (find.wrongAnswers.length === 0) return <p className="mt-2 text-sm text-muted">No wrong answers with a number yet.</p>
+type Group = FindStatistics['wrongAnswers'][number]
+
+function multipleText(m: number): string {
+  return `× ${m.toLocaleString('en', { maximumSignificantDigits: 3 })}`
+}
+
+/** One table of grouped wrong answers: by multiple of each student's key, or by value. */
+function GroupTable({ groups, caption, first, show }: { groups: readonly Group[]; caption: string; first: string; show: (g: Group) => string }) {
   return (
     <table className="mt-2 w-full text-left text-sm">
-      <caption className="text-left text-sm font-medium">Most common wrong answers (values equal to 3 significant figures are grouped)</caption>
+      <caption className="text-left text-sm font-medium">{caption}</caption>
       <thead className="text-xs tracking-wide text-muted uppercase">
         <tr>
           <th scope="col" className="py-1 pr-3">
-            Value{find.unit ? ` (${find.unit})` : ''}
+            {first}
           </th>
           <th scope="col" className="py-1 pr-3">
             Answers
@@ -78,9 +84,9 @@ function WrongAnswers({ find }: { find: FindStatistics }) {
         </tr>
       </thead>
       <tbody>
-        {find.wrongAnswers.map((g) => (
+        {groups.map((g) => (
           <tr key={g.value} className="border-t border-line align-top">
-            <td className="py-1 pr-3 tabular-nums">{g.value}</td>
+            <td className="py-1 pr-3 tabular-nums">{show(g)}</td>
             <td className="py-1 pr-3 tabular-nums">{g.count}</td>
             <td className="py-1 pr-3 font-mono text-xs">{g.examples.join(' · ')}</td>
             <td className="py-1">
@@ -99,6 +105,31 @@ function WrongAnswers({ find }: { find: FindStatistics }) {
         ))}
       </tbody>
     </table>
+  )
+}
+
+function WrongAnswers({ find }: { find: FindStatistics }) {
+  if (find.wrongAnswers.length === 0) return <p className="mt-2 text-sm text-muted">No wrong answers with a number yet.</p>
+  return (
+    <>
+      {find.wrongMultiples.length > 0 ? (
+        <GroupTable
+          groups={find.wrongMultiples}
+          caption="Most common wrong answers as a multiple of each student’s own key (the same slip gives the same multiple whatever the numbers)"
+          first="Multiple of the key"
+          show={(g) => multipleText(g.value)}
+        />
+      ) : null}
+      <details className="mt-2 text-sm">
+        <summary className="cursor-pointer">Most common wrong values</summary>
+        <GroupTable
+          groups={find.wrongAnswers}
+          caption="Values equal to 3 significant figures are grouped; students have different numbers, so equal values are rare"
+          first={`Value${find.unit ? ` (${find.unit})` : ''}`}
+          show={(g) => String(g.value)}
+        />
+      </details>
+    </>
   )
 }
 
