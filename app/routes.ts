@@ -12,6 +12,10 @@ export default [
     route('people', 'routes/courses/people.tsx'),
     route('gradebook', 'routes/courses/gradebook.tsx'),
     route('gradebook.csv', 'routes/resources/course-gradebook-csv.ts'),
+    route('disputes', 'routes/courses/disputes/index.tsx'),
+    route('disputes/:disputeId', 'routes/courses/disputes/$disputeId.tsx'),
+    route('disputes/:disputeId/attachment', 'routes/resources/dispute-attachment.ts'),
+    route('audit', 'routes/courses/audit.tsx'),
     ...prefix('assignments', [
       route('new', 'routes/courses/assignments/new.tsx'),
       route(':assignmentId', 'routes/courses/assignments/$assignmentId.tsx'),
@@ -22,6 +26,7 @@ export default [
       route(':assignmentId/problems/:position', 'routes/courses/assignments/problem.tsx'),
       route(':assignmentId/problems/:position/answers', 'routes/courses/assignments/answers.tsx'),
       route(':assignmentId/problems/:position/regrade', 'routes/courses/assignments/regrade.tsx'),
+      route(':assignmentId/problems/:position/dispute', 'routes/courses/assignments/dispute.tsx'),
     ]),
   ]),
   ...prefix('bank', [

@@ -7,6 +7,7 @@ import { relations, sql } from 'drizzle-orm'
 import {
   type AnyPgColumn,
   boolean,
+  customType,
   check,
   date,
   index,
@@ -26,6 +27,9 @@ export const tokenPurpose = pgEnum('token_purpose', ['invitation', 'password-res
 /** private: the owner only; department: everyone in the owner's department; installation: every instructor here. */
 export const problemVisibility = pgEnum('problem_visibility', ['private', 'department', 'installation'])
 export const sweepStatus = pgEnum('sweep_status', ['queued', 'running', 'done', 'failed'])
+
+/** Raw bytes (PostgreSQL bytea): Drizzle 0.45 has no built-in bytea column. */
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' })
 
 const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow()
 
@@ -277,6 +281,8 @@ export const assignments = pgTable(
     keyReleasedAt: timestamp({ withTimezone: true }),
     /** when an instructor released the grades (students are e-mailed). */
     gradesReleasedAt: timestamp({ withTimezone: true }),
+    /** students may dispute a verdict until this many days after the grades are released */
+    disputeDays: integer().notNull().default(7),
     createdBy: integer()
       .notNull()
       .references(() => users.id),
@@ -464,6 +470,74 @@ export const gradeExports = pgTable(
   (t) => [index('grade_exports_requested_idx').on(t.requestedBy, t.createdAt)],
 )
 
+/** open: waiting for staff; upheld: the answer is accepted (for every student who gave it on that variant); adjusted: the find's score was changed by hand; rejected: the score is kept. */
+export const disputeStatus = pgEnum('dispute_status', ['open', 'upheld', 'adjusted', 'rejected'])
+
+/** A file a student uploaded with a dispute (their own worked solution). Kept in the database, behind the same checks as their answers. */
+export const attachments = pgTable(
+  'attachments',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    /** the student who uploaded it */
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    courseId: integer()
+      .notNull()
+      .references(() => courses.id, { onDelete: 'cascade' }),
+    /** the name the file had on the student's computer (shown, never trusted) */
+    fileName: text().notNull(),
+    /** detected from the content: application/pdf, image/png or image/jpeg */
+    contentType: text().notNull(),
+    size: integer().notNull(),
+    sha256: text().notNull(),
+    data: bytea().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index('attachments_user_idx').on(t.userId), check('attachments_size', sql`${t.size} > 0 and ${t.size} <= 10485760`)],
+)
+
+/** A student's challenge to the verdict on one graded answer to one find. */
+export const disputes = pgTable(
+  'disputes',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    courseId: integer()
+      .notNull()
+      .references(() => courses.id, { onDelete: 'cascade' }),
+    assignmentId: integer()
+      .notNull()
+      .references(() => assignments.id, { onDelete: 'cascade' }),
+    itemId: integer()
+      .notNull()
+      .references(() => assignmentItems.id, { onDelete: 'cascade' }),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    findName: text().notNull(),
+    /** the graded answer disputed (the student's latest graded answer to the find when raised) */
+    partResultId: integer()
+      .notNull()
+      .references(() => partResults.id, { onDelete: 'cascade' }),
+    reason: text().notNull(),
+    attachmentId: integer().references(() => attachments.id, { onDelete: 'set null' }),
+    status: disputeStatus().notNull().default('open'),
+    /** staff's comment when resolving (required when adjusting) */
+    comment: text(),
+    resolvedBy: integer().references(() => users.id),
+    resolvedAt: timestamp({ withTimezone: true }),
+    /** the find's score before and after the resolution */
+    scoreBefore: doublePrecision(),
+    scoreAfter: doublePrecision(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index('disputes_course_status_idx').on(t.courseId, t.status, t.createdAt),
+    index('disputes_user_idx').on(t.userId, t.createdAt),
+    uniqueIndex('disputes_one_open_per_find').on(t.itemId, t.userId, t.findName).where(sql`status = 'open'`),
+  ],
+)
+
 /**
  * Append-only record of every score change (a regrade here; TA decisions in #7): who, when,
  * what it was and what it became. Rows are never updated or deleted.
@@ -521,3 +595,6 @@ export type GradeExport = typeof gradeExports.$inferSelect
 export type AuditEvent = typeof auditEvents.$inferSelect
 export type LatePolicy = (typeof latePolicy.enumValues)[number]
 export type KeyRelease = (typeof keyRelease.enumValues)[number]
+export type Dispute = typeof disputes.$inferSelect
+export type Attachment = typeof attachments.$inferSelect
+export type DisputeStatus = (typeof disputeStatus.enumValues)[number]
