@@ -1,0 +1,59 @@
+/**
+ * When a student may dispute the verdict on one find (issue #7). Pure: the server reads the
+ * facts (release date, graded answer, open dispute) and this decides.
+ *
+ * - Only a find with a graded answer can be disputed (there is no verdict to dispute before).
+ * - One open dispute per find: a second waits until the first is resolved.
+ * - While the grades are not released the window is open (a student who sees a verdict early
+ *   may already ask); once released it stays open for `disputeDays` days, the end excluded.
+ */
+
+const DAY_MS = 86_400_000
+
+export type DisputeWindowInput = {
+  gradesReleasedAt: Date | null
+  /** days after the release during which disputes are accepted (0: none after the release) */
+  disputeDays: number
+  /** the student has at least one graded answer to this find */
+  graded: boolean
+  hasOpenDispute: boolean
+  now: Date
+  /** how a date is shown in the reason (the server passes one that shows the course's zone) */
+  format?: (d: Date) => string
+}
+
+export type DisputeWindowCode = 'not-graded' | 'open-dispute' | 'closed'
+
+export type DisputeWindow =
+  /** until: when the window closes; null while the grades are not released */
+  | { allowed: true; until: Date | null }
+  | { allowed: false; code: DisputeWindowCode; reason: string; closedAt?: Date }
+
+/** When disputes close for an assignment: disputeDays after the release; null while unreleased. */
+export function disputeDeadline(gradesReleasedAt: Date | null, disputeDays: number): Date | null {
+  if (gradesReleasedAt === null) return null
+  return new Date(gradesReleasedAt.getTime() + Math.max(0, disputeDays) * DAY_MS)
+}
+
+export function disputeWindow(input: DisputeWindowInput): DisputeWindow {
+  const format = input.format ?? ((d: Date) => d.toISOString())
+  if (!input.graded) {
+    return { allowed: false, code: 'not-graded', reason: 'This question has no graded answer yet, so there is no verdict to dispute.' }
+  }
+  if (input.hasOpenDispute) {
+    return {
+      allowed: false,
+      code: 'open-dispute',
+      reason: 'You already have an open dispute on this question. You can raise another once it has been resolved.',
+    }
+  }
+  const until = disputeDeadline(input.gradesReleasedAt, input.disputeDays)
+  if (until !== null && input.now.getTime() >= until.getTime()) {
+    const reason =
+      input.disputeDays <= 0
+        ? 'Disputes for this assignment closed when its grades were released.'
+        : `Disputes for this assignment closed on ${format(until)}, ${input.disputeDays} day${input.disputeDays === 1 ? '' : 's'} after the grades were released.`
+    return { allowed: false, code: 'closed', reason, closedAt: until }
+  }
+  return { allowed: true, until }
+}
