@@ -78,7 +78,8 @@ test('an instructor invites a student, who follows the e-mailed link, sets a pas
   await page.getByLabel('The same password again').fill('a brand new password')
   await page.getByRole('button', { name: 'Create my account and join' }).click()
   await page.waitForURL(/\/courses\/\d+$/)
-  expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('ENTH 210 Engineering Thermodynamics I')
+  // The address changes before the course page has rendered; wait for the page itself.
+  await page.getByRole('heading', { level: 1, name: 'ENTH 210 Engineering Thermodynamics I', exact: true }).waitFor()
 
   await page.getByRole('button', { name: 'Sign out' }).click()
   await page.waitForURL(/\/sign-in/)
