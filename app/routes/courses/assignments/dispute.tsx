@@ -191,7 +191,7 @@ async function discardRest(reader: ReadableStreamDefaultReader<Uint8Array>) {
   }
 }
 
-function concat(parts: readonly Uint8Array[]): Uint8Array {
+function concat(parts: readonly Uint8Array[]): Uint8Array<ArrayBuffer> {
   const out = new Uint8Array(parts.reduce((n, p) => n + p.byteLength, 0))
   let at = 0
   for (const p of parts) {
