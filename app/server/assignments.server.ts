@@ -324,6 +324,8 @@ export type AssignmentFormState = {
     latePenaltyPercentPerDay: string
     lateDaysAllowed: string
     keyRelease: string
+    /** days after the grades' release during which students may dispute; blank or missing: 7 for a new assignment, unchanged on edit */
+    disputeDays: string
   }
   items: ItemRow[]
 }
@@ -364,6 +366,7 @@ export function assignmentFormFromData(form: FormData): AssignmentFormState {
       latePenaltyPercentPerDay: text(form, 'latePenaltyPercentPerDay'),
       lateDaysAllowed: text(form, 'lateDaysAllowed'),
       keyRelease: text(form, 'keyRelease'),
+      disputeDays: text(form, 'disputeDays'),
     },
     items: [...rows.entries()].sort((x, y) => x[0] - y[0]).map(([, r]) => r),
   }
@@ -385,6 +388,7 @@ export function newAssignmentForm(timeZone: string, now = new Date()): Assignmen
       latePenaltyPercentPerDay: '10',
       lateDaysAllowed: '3',
       keyRelease: 'after-due',
+      disputeDays: String(DEFAULT_DISPUTE_DAYS),
     },
     items: [{ itemId: '', versionId: '', points: '10' }],
   }
@@ -402,6 +406,7 @@ function formOfAssignment(a: Assignment, items: { id: number; problemVersionId: 
       latePenaltyPercentPerDay: String(a.latePenaltyPercentPerDay),
       lateDaysAllowed: String(a.lateDaysAllowed),
       keyRelease: a.keyRelease,
+      disputeDays: String(a.disputeDays),
     },
     items: items.map((i) => ({ itemId: String(i.id), versionId: String(i.problemVersionId), points: String(i.points) })),
   }
@@ -456,6 +461,10 @@ export async function listBankChoices(database: Database, viewer: BankViewer, ke
   return [...byProblem.values()]
 }
 
+/** Days after the grades' release during which students may dispute a verdict (issue #7). */
+export const DEFAULT_DISPUTE_DAYS = 7
+export const MAX_DISPUTE_DAYS = 60
+
 const LocalDateTime = z.string().trim().min(1, 'Enter a date and time.')
 const Int = (label: string, min: number, max: number) =>
   z
@@ -485,8 +494,13 @@ export const AssignmentSettingsSchema = z
     latePenaltyPercentPerDay: z.string(),
     lateDaysAllowed: z.string(),
     keyRelease: z.enum(['after-due', 'manual'], { message: 'Choose when the key is released.' }),
+    disputeDays: z.string().optional(),
   })
   .superRefine((v, ctx) => {
+    if (v.disputeDays !== undefined && v.disputeDays.trim() !== '') {
+      const d = Int('the days for disputes', 0, MAX_DISPUTE_DAYS).safeParse(v.disputeDays)
+      if (!d.success) ctx.addIssue({ code: 'custom', path: ['disputeDays'], message: d.error.issues[0]!.message })
+    }
     if (v.latePolicy !== 'penalty') return
     const pct = Num('the penalty per day', 0, 100).safeParse(v.latePenaltyPercentPerDay)
     if (!pct.success) ctx.addIssue({ code: 'custom', path: ['latePenaltyPercentPerDay'], message: pct.error.issues[0]!.message })
@@ -505,6 +519,8 @@ type CheckedAssignment = {
   latePenaltyPercentPerDay: number
   lateDaysAllowed: number
   keyRelease: 'after-due' | 'manual'
+  /** null: not given (a form without the field); a new assignment takes the default, an edit keeps its value */
+  disputeDays: number | null
   items: CheckedItem[]
 }
 
@@ -611,6 +627,7 @@ async function checkForm(
       latePenaltyPercentPerDay: penalty ? Number(v.latePenaltyPercentPerDay.trim()) : 0,
       lateDaysAllowed: penalty ? Number(v.lateDaysAllowed.trim()) : 0,
       keyRelease: v.keyRelease,
+      disputeDays: v.disputeDays === undefined || v.disputeDays.trim() === '' ? null : Number(v.disputeDays.trim()),
       items,
     },
   }
@@ -674,7 +691,8 @@ export async function createAssignment(database: Db, opts: { courseId: number; u
   const viewer = await bankViewerFor(database, opts.user)
   const checked = await checkForm(database, { state: opts.state, timeZone, viewer, existing: [] })
   if (!checked.ok) return { ok: false, fieldErrors: checked.fieldErrors, formError: SUMMARY }
-  const { items, ...settings } = checked.value
+  const { items, disputeDays, ...rest } = checked.value
+  const settings = { ...rest, disputeDays: disputeDays ?? DEFAULT_DISPUTE_DAYS }
   const assignmentId = await database.transaction(async (tx) => {
     const [row] = await tx
       .insert(assignments)
@@ -689,7 +707,7 @@ export async function createAssignment(database: Db, opts: { courseId: number; u
   return { ok: true, assignmentId }
 }
 
-const SETTING_KEYS = ['title', 'instructions', 'opensAt', 'dueAt', 'attemptsPerFind', 'latePolicy', 'latePenaltyPercentPerDay', 'lateDaysAllowed', 'keyRelease'] as const
+const SETTING_KEYS = ['title', 'instructions', 'opensAt', 'dueAt', 'attemptsPerFind', 'latePolicy', 'latePenaltyPercentPerDay', 'lateDaysAllowed', 'keyRelease', 'disputeDays'] as const
 
 /**
  * Saves the edit: settings, and the problem rows (new rows inserted, removed unanswered rows
@@ -714,7 +732,8 @@ export async function updateAssignment(
     const existing = await existingItems(tx, current.id)
     const checked = await checkForm(tx, { state: opts.state, timeZone, viewer, existing })
     if (!checked.ok) return { ok: false as const, fieldErrors: checked.fieldErrors, formError: SUMMARY }
-    const { items, ...settings } = checked.value
+    const { items, disputeDays, ...rest } = checked.value
+    const settings = { ...rest, disputeDays: disputeDays ?? current.disputeDays }
 
     const before: Record<string, unknown> = {}
     const after: Record<string, unknown> = {}

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest'
-import { disputeDeadline, disputeWindow } from './disputes.ts'
+import { disputeDeadline, disputeWindow, sameAnswerValue, sameGivens } from './disputes.ts'
 
 const released = new Date('2026-11-20T12:00:00Z')
 const at = (iso: string) => new Date(iso)
@@ -50,5 +50,30 @@ describe('dispute window', () => {
     expect(one.allowed ? '' : one.reason).toMatch(/1 day after/)
     const zero = disputeWindow({ gradesReleasedAt: released, disputeDays: 0, graded: true, hasOpenDispute: false, now: released })
     expect(zero.allowed ? '' : zero.reason).toBe('Disputes for this assignment closed when its grades were released.')
+  })
+})
+
+describe('the same answer on the same variant', () => {
+  test.each([
+    ['equal', 431.2, 431.2, true],
+    ['within 1e-9 relative', 1000, 1000 * (1 + 5e-10), true],
+    ['beyond 1e-9 relative', 1000, 1000 * (1 + 2e-9), false],
+    ['both zero', 0, 0, true],
+    ['zero and tiny', 0, 1e-300, false],
+    ['other sign', -520.5, 520.5, false],
+    ['not a number', Number.NaN, Number.NaN, false],
+  ] as const)('%s', (_name, a, b, same) => {
+    expect(sameAnswerValue(a, b)).toBe(same)
+    expect(sameAnswerValue(b, a)).toBe(same)
+  })
+
+  test('givens compare by name and text, in any order', () => {
+    const a = [
+      { name: 'p1', text: '100 kPa' },
+      { name: 'T1', text: '20 °C' },
+    ]
+    expect(sameGivens(a, [...a].reverse())).toBe(true)
+    expect(sameGivens(a, [{ name: 'p1', text: '100 kPa' }, { name: 'T1', text: '25 °C' }])).toBe(false)
+    expect(sameGivens(a, [{ name: 'p1', text: '100 kPa' }])).toBe(false)
   })
 })

@@ -57,3 +57,17 @@ export function disputeWindow(input: DisputeWindowInput): DisputeWindow {
   }
   return { allowed: true, until }
 }
+
+/** Two answers are the same when their values agree to 1e-9 relative (what accepting "the same answer" means). */
+export function sameAnswerValue(a: number, b: number): boolean {
+  if (!Number.isFinite(a) || !Number.isFinite(b)) return false
+  if (a === b) return true
+  return Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b))
+}
+
+/** Two variants are the same when every given reads the same (name and text as the solver got it). */
+export function sameGivens(a: readonly { name: string; text: string }[], b: readonly { name: string; text: string }[]): boolean {
+  if (a.length !== b.length) return false
+  const other = new Map(b.map((g) => [g.name, g.text]))
+  return a.every((g) => other.get(g.name) === g.text)
+}
