@@ -36,6 +36,7 @@ const LABELS: Record<string, string> = {
   latePenaltyPercentPerDay: 'Penalty per day',
   lateDaysAllowed: 'Days late accepted',
   keyRelease: 'Key and worked solutions',
+  disputeDays: 'Days for disputes',
   items: 'Problems',
 }
 
@@ -241,6 +242,35 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
         </fieldset>
       </Section>
 
+      <Section title="Disputes">
+        <div className="flex max-w-md flex-col gap-1">
+          <label htmlFor={fieldDomId('disputeDays')} className="text-sm font-medium">
+            Disputes allowed for this many days after grades are released
+          </label>
+          <span className="flex items-center gap-2">
+            <input
+              id={fieldDomId('disputeDays')}
+              name="disputeDays"
+              type="number"
+              inputMode="numeric"
+              min={0}
+              max={60}
+              step={1}
+              defaultValue={disputeDaysOf(v)}
+              aria-invalid={err('disputeDays') ? true : undefined}
+              aria-describedby={describedBy('disputeDays', 'af-dispute-days-hint')}
+              className={cn(inputClass(!!err('disputeDays')), 'w-24')}
+            />
+            <span>days (0–60)</span>
+          </span>
+          <p id="af-dispute-days-hint" className="text-sm text-muted">
+            Students may dispute the verdict on a graded answer until grades are released and for this many days after; 0 closes disputes when grades
+            are released.
+          </p>
+          {errorText('disputeDays')}
+        </div>
+      </Section>
+
       <Section title="Problems">
         {choices.length === 0 ? (
           <Notice tone="warn">
@@ -386,6 +416,12 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
       </div>
     </Form>
   )
+}
+
+/** The dispute window as typed; a form state saved before the field existed starts at the usual 7 days. */
+function disputeDaysOf(values: AssignmentFormState['values']): string {
+  const typed = 'disputeDays' in values ? values.disputeDays : undefined
+  return typeof typed === 'string' || typeof typed === 'number' ? String(typed) : '7'
 }
 
 function Section({ title, children }: { title: string; children: ReactNode }) {

@@ -83,6 +83,7 @@ function StaffView({ detail, base, courseId, fmt, mayChange }: { detail: Detail;
         <Link to={`${base}/gradebook`}>Gradebook</Link>
         <Link to={`${base}/statistics`}>Statistics</Link>
         <Link to={`${base}/extensions`}>Extensions ({staff?.extensionCount ?? 0})</Link>
+        <Link to={`/courses/${courseId}/disputes?assignment=${a.id}`}>Disputes in the review queue</Link>
         {mayChange ? <Link to={`${base}/edit`}>Edit</Link> : null}
         <Link to={`/courses/${courseId}/gradebook`}>Course gradebook</Link>
       </nav>
