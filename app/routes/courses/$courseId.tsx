@@ -9,6 +9,7 @@ import { listAssignmentsForCourse, type AssignmentListRow } from '#app/server/as
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { countMembersByRole } from '#app/server/courses.server.ts'
 import { db } from '#app/server/db/client.server.ts'
+import { listDisputes } from '#app/server/disputes.server.ts'
 import type { Route } from './+types/$courseId'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.course.code} · Cyclewright` : 'Course · Cyclewright' }]
@@ -18,11 +19,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, course } = await requireCourseRole(request, courseId, ['instructor', 'ta', 'student'])
   const counts = course.role === 'student' ? null : await countMembersByRole(db(), courseId)
   const assignments = await listAssignmentsForCourse(db(), { courseId, role: course.role, userId: user.id })
-  return { course, counts, assignments }
+  const openDisputes =
+    course.role === 'student' ? null : (await listDisputes(db(), { courseId, viewer: { id: user.id, isAdmin: user.isAdmin, role: course.role }, filters: { status: 'open' } })).length
+  return { course, counts, assignments, openDisputes }
 }
 
 export default function CourseRoute({ loaderData }: Route.ComponentProps) {
-  const { course, counts, assignments } = loaderData
+  const { course, counts, assignments, openDisputes } = loaderData
   const convention = conventionText[course.signConvention]
   const staff = course.role !== 'student'
   return (
@@ -54,11 +57,17 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
           </div>
         ) : null}
       </dl>
-      {staff ? (
-        <p className="mt-6">
-          <Link to={`/courses/${course.id}/people`}>People and invitations</Link>
-        </p>
-      ) : null}
+      <nav aria-label="Course pages" className="mt-6 flex flex-wrap gap-4">
+        {staff ? (
+          <>
+            <Link to={`/courses/${course.id}/people`}>People and invitations</Link>
+            <Link to={`/courses/${course.id}/disputes`}>Review queue ({openDisputes ?? 0} open)</Link>
+            {course.role === 'instructor' ? <Link to={`/courses/${course.id}/audit`}>Audit log</Link> : null}
+          </>
+        ) : (
+          <Link to={`/courses/${course.id}/disputes`}>Your disputes</Link>
+        )}
+      </nav>
       <Assignments courseId={course.id} timeZone={course.timeZone} rows={assignments} staff={staff} instructor={course.role === 'instructor'} />
     </div>
   )

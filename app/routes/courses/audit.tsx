@@ -16,7 +16,9 @@ const PAGE_SIZE = 50
 
 /** The kinds of entry written today, in words; an unknown kind is shown as it is stored. */
 const KIND_WORDS: Record<string, string> = {
-  dispute: 'Dispute resolved',
+  'dispute-raised': 'Dispute raised',
+  dispute: 'Score changed by a dispute',
+  'dispute-resolved': 'Dispute resolved',
   regrade: 'Regrade',
   extension: 'Extension',
   'key-released': 'Key released',
@@ -70,12 +72,15 @@ function valueText(key: string, v: unknown): string {
 function sideText(side: unknown): string {
   if (side === null || side === undefined) return 'nothing'
   if (!isRecord(side)) return valueText('', side)
-  if ('verdict' in side || 'score' in side) {
-    const verdict = side.verdict === null || side.verdict === undefined ? 'not graded' : valueText('verdict', side.verdict)
-    const score = typeof side.score === 'number' ? `${formatPoints(side.score)} ${side.score === 1 ? 'point' : 'points'}` : 'no score'
-    return `${verdict}, ${score}`
+  const score = typeof side.score === 'number' ? `${formatPoints(side.score)} ${side.score === 1 ? 'point' : 'points'}` : null
+  if ('verdict' in side) return `${side.verdict === null || side.verdict === undefined ? 'not graded' : valueText('verdict', side.verdict)}, ${score ?? 'no score'}`
+  // A dispute's own entries: its status and the find's score; the ids behind them are for the dispute page.
+  if (typeof side.status === 'string') {
+    const changed = typeof side.changed === 'number' ? `; ${side.changed} ${side.changed === 1 ? 'answer' : 'answers'} changed` : ''
+    return `${side.status}${score ? `, find’s score ${score}` : ''}${changed}`
   }
   return Object.entries(side)
+    .filter(([k]) => k !== 'disputeId' && k !== 'partResultIds')
     .map(([k, v]) => `${k}: ${valueText(k, v)}`)
     .join('; ')
 }

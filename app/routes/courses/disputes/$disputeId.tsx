@@ -15,6 +15,7 @@ import { requireIdParam } from '#app/lib/params.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { getDisputeDetail, resolveDispute, type DisputeDetail } from '#app/server/disputes.server.ts'
+import { appUrl } from '#app/server/env.server.ts'
 import type { Route } from './+types/$disputeId'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Dispute: ${data.dispute.findLabel}, ${data.dispute.assignmentTitle} · Cyclewright` : 'Dispute · Cyclewright' }]
@@ -70,6 +71,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     decision: v.decision,
     newScore: v.decision === 'adjust' ? Number(v.newScore.replace(',', '.')) : undefined,
     comment: v.comment,
+    baseUrl: appUrl(request),
   })
   if (!result.ok) {
     const values = { decision: v.decision, newScore: v.newScore, comment: v.comment }
@@ -100,6 +102,7 @@ export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
   const fmt = (at: string) => formatInZone(at, timeZone)
   const problemHref = `/courses/${courseId}/assignments/${d.assignmentId}/problems/${d.position}`
   const outcome = disputeOutcomeText(d)
+  const actionData = useActionData<typeof action>()
   return (
     <div className="space-y-8">
       <div>
@@ -126,6 +129,8 @@ export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
           Resolved: {changed === 0 ? 'no answers' : changed === 1 ? '1 answer' : `${changed} answers`} changed; the student is e-mailed.
         </Notice>
       ) : null}
+
+      {actionData?.formError && d.status !== 'open' ? <Notice tone="error">{actionData.formError}</Notice> : null}
 
       <Section id="reason" title={staff ? 'The student’s reason' : 'Your reason'}>
         <p className="whitespace-pre-wrap">{d.reason}</p>
