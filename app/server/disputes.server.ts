@@ -346,8 +346,7 @@ async function allowanceFor(database: Database, ctx: ItemContext, input: { findN
 
 /** The file name as shown: the last path segment, without control characters, at most 200 characters. */
 export function cleanFileName(name: string): string {
-  // eslint-disable-next-line no-control-regex
-  const base = (name.split(/[\\/]/).pop() ?? '').replace(/[\u0000-\u001f\u007f]/g, '').trim()
+  const base = (name.split(/[\\/]/).pop() ?? '').replace(/\p{Cc}/gu, '').trim()
   return base.slice(0, 200) || 'attachment'
 }
 
