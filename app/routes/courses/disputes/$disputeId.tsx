@@ -453,9 +453,8 @@ function ResolveForm({ detail, find }: { detail: StaffDetail; find: DisputeDetai
             <span>
               Accept this answer for every student who gave it on the same variant{' '}
               <span className="text-muted">
-                (this student{others === 0 ? ' only' : ` and ${others} ${others === 1 ? 'other' : 'others'}`})
+                (this student{others === 0 ? ' only' : ` and ${others} ${others === 1 ? 'other' : 'others'}`}).
               </span>
-              .
             </span>
           </label>
           {errorText('decision')}
