@@ -23,8 +23,9 @@ export function contentDisposition(fileName: string, type: AttachmentType): stri
     .normalize('NFKD')
     .replace(/[\u0300-\u036f]/g, '')
     .replace(/[^A-Za-z0-9._ -]+/g, '_')
-    .replace(/^[._ ]+/, '')
-  const safe = ascii.length > 0 && !/^_*\.[a-z]+$/i.test(ascii) ? ascii : `attachment${ext}`
+    .replace(/^[. ]+/, '')
+  // A name of nothing but replaced characters says nothing; give it a plain one.
+  const safe = /[A-Za-z0-9]/.test(ascii.slice(0, ascii.length - ext.length)) ? ascii : `attachment${ext}`
   const encoded = encodeURIComponent(full).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`)
   return `inline; filename="${safe}"; filename*=UTF-8''${encoded}`
 }

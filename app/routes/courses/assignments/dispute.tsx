@@ -154,28 +154,34 @@ async function salvageReason(request: Request): Promise<string> {
   const boundary = /boundary=(?:"([^"]+)"|([^\s;]+))/i.exec(type)
   const b = boundary?.[1] ?? boundary?.[2]
   if (!request.body || !b) return ''
+  const encoder = new TextEncoder()
+  const delimiter = encoder.encode(`\r\n--${b}`)
+  const closing = encoder.encode(`\r\n--${b}--\r\n`)
   const reader = request.body.getReader()
   const chunks: Uint8Array[] = []
   let size = 0
+  let reason = ''
   try {
-    while (size < SALVAGE_BYTES) {
+    // Stop as soon as the reason's part is complete: the rest may not have been sent yet.
+    while (size < SALVAGE_BYTES && reason === '') {
       const { done, value } = await reader.read()
       if (done) break
       chunks.push(value)
       size += value.byteLength
+      const head = concat(chunks).subarray(0, SALVAGE_BYTES)
+      const cut = lastIndexOf(head, delimiter)
+      if (cut >= 0) reason = await reasonIn(concat([head.subarray(0, cut), closing]), type)
     }
   } catch {
-    return ''
+    return reason
   }
   void discardRest(reader)
-  const head = concat(chunks).subarray(0, SALVAGE_BYTES)
-  const encoder = new TextEncoder()
-  const delimiter = encoder.encode(`\r\n--${b}`)
-  const cut = lastIndexOf(head, delimiter)
-  if (cut < 0) return ''
-  const closed = concat([head.subarray(0, cut), encoder.encode(`\r\n--${b}--\r\n`)])
+  return reason
+}
+
+async function reasonIn(body: Uint8Array<ArrayBuffer>, type: string): Promise<string> {
   try {
-    const form = await new Response(closed, { headers: { 'Content-Type': type } }).formData()
+    const form = await new Response(body, { headers: { 'Content-Type': type } }).formData()
     const reason = form.get('reason')
     return typeof reason === 'string' ? reason.slice(0, REASON_MAX) : ''
   } catch {
