@@ -9,9 +9,11 @@
  * come in as the default values.
  */
 import { useEffect, useRef } from 'react'
-import type { FetcherWithComponents } from 'react-router'
+import { Link, type FetcherWithComponents } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { cn } from '#app/lib/cn.ts'
+import { formatInZone } from '#app/lib/dates.ts'
+import type { MyDispute } from '#app/server/disputes.server.ts'
 import type { FindView } from '#app/server/submissions.server.ts'
 
 /** The form field that carries a find's answer. */
@@ -42,6 +44,14 @@ export type AnswerFormMode =
 
 type FormComponent = FetcherWithComponents<unknown>['Form']
 
+/** The student's own disputes on this problem and where to raise one; absent in staff preview. */
+export type AnswerFormDisputes = {
+  /** newest first per find */
+  list: readonly MyDispute[]
+  timeZone: string
+  href: (findName: string) => string
+}
+
 export function AnswerForm({
   finds,
   values,
@@ -52,6 +62,7 @@ export function AnswerForm({
   Form,
   busy,
   inPlace,
+  disputes = null,
 }: {
   finds: readonly FindView[]
   /** what to put in each input (the last typed, or what the server sent back) */
@@ -64,6 +75,7 @@ export function AnswerForm({
   busy: boolean
   /** JavaScript is running: ask the action to answer with data instead of a redirect */
   inPlace: boolean
+  disputes?: AnswerFormDisputes | null
 }) {
   const summaryRef = useRef<HTMLDivElement>(null)
   const errorNames = finds.filter((f) => fieldErrors[f.name]).map((f) => f.name)
@@ -99,7 +111,7 @@ export function AnswerForm({
       <ol className="space-y-4">
         {finds.map((f, i) => (
           <li key={f.name}>
-            <FindRow find={f} index={i + 1} value={values[f.name] ?? ''} error={fieldErrors[f.name]} mode={mode} />
+            <FindRow find={f} index={i + 1} value={values[f.name] ?? ''} error={fieldErrors[f.name]} mode={mode} disputes={disputes} />
           </li>
         ))}
       </ol>
@@ -132,7 +144,21 @@ export function AnswerForm({
   )
 }
 
-function FindRow({ find: f, index, value, error, mode }: { find: FindView; index: number; value: string; error: string | undefined; mode: AnswerFormMode }) {
+function FindRow({
+  find: f,
+  index,
+  value,
+  error,
+  mode,
+  disputes,
+}: {
+  find: FindView
+  index: number
+  value: string
+  error: string | undefined
+  mode: AnswerFormMode
+  disputes: AnswerFormDisputes | null
+}) {
   const id = inputId(f.name)
   const unitId = `${id}-unit`
   const statusId = `${id}-status`
@@ -193,6 +219,7 @@ function FindRow({ find: f, index, value, error, mode }: { find: FindView; index
         </p>
         <LastVerdict find={f} />
         {f.state === 'out-of-attempts' ? <p className="font-medium text-danger">You have used all {f.attemptsAllowed} attempts for this question.</p> : null}
+        {disputes ? <DisputeState find={f} disputes={disputes} /> : null}
       </div>
     </div>
   )
@@ -213,6 +240,62 @@ function LastVerdict({ find: f }: { find: FindView }) {
         {last.message && last.verdict !== 'correct' ? <>: {last.message}</> : null}
       </p>
       {last.pitfallFeedback ? <p className="rounded bg-warn-soft px-2 py-1 text-warn">{last.pitfallFeedback}</p> : null}
+    </>
+  )
+}
+
+const twoDecimals = new Intl.NumberFormat('en', { maximumFractionDigits: 2 })
+
+function withComment(text: string, comment: string | null) {
+  return comment ? `${text} — ${comment}` : text
+}
+
+/** The outcome of a resolved dispute, in words. */
+export function disputeOutcome(d: MyDispute): string {
+  switch (d.status) {
+    case 'upheld':
+      return withComment('Upheld: your answer was accepted', d.comment)
+    case 'adjusted': {
+      const from = d.scoreBefore === null ? '?' : twoDecimals.format(d.scoreBefore)
+      const to = d.scoreAfter === null ? '?' : twoDecimals.format(d.scoreAfter)
+      return withComment(`Adjusted: score changed from ${from} to ${to}`, d.comment)
+    }
+    case 'rejected':
+      return withComment('Rejected: the score stays', d.comment)
+    case 'open':
+      return 'Open'
+  }
+}
+
+/**
+ * Where the student's latest dispute on this find stands, and the way to raise one. Any graded
+ * verdict may be disputed, a correct one too (a wrong deduction, a late penalty); the dispute
+ * page says when the window has closed.
+ */
+function DisputeState({ find: f, disputes }: { find: FindView; disputes: AnswerFormDisputes }) {
+  const latest = disputes.list.find((d) => d.findName === f.name)
+  const graded = f.last !== null && f.last.verdict !== null
+  const open = latest?.status === 'open'
+  return (
+    <>
+      {latest ? (
+        <p className={cn('rounded px-2 py-1', open ? 'bg-accent-soft text-accent-strong' : 'bg-paper text-ink')} data-dispute={latest.status}>
+          {open ? (
+            <>Dispute open since {formatInZone(latest.createdAt, disputes.timeZone)}.</>
+          ) : (
+            <>
+              <span className="font-semibold">Dispute {latest.resolvedAt ? `resolved ${formatInZone(latest.resolvedAt, disputes.timeZone)}` : 'resolved'}.</span> {disputeOutcome(latest)}
+            </>
+          )}
+        </p>
+      ) : null}
+      {graded && !open ? (
+        <p>
+          <Link to={disputes.href(f.name)} className="text-accent underline">
+            Dispute this verdict<span className="sr-only"> on {f.label}</span>
+          </Link>
+        </p>
+      ) : null}
     </>
   )
 }

@@ -15,6 +15,7 @@ import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { forbidden, requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
+import { listMyDisputes } from '#app/server/disputes.server.ts'
 import { getStudentProblem, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/problem'
 
@@ -40,7 +41,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!problem) throw data(NOT_FOUND, { status: 404 })
   const receiptParam = new URL(request.url).searchParams.get('receipt')
   const receiptId = !staff && receiptParam && /^\d{1,9}$/.test(receiptParam) ? Number(receiptParam) : null
-  return { course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId }
+  // Staff preview their own variant: they have no disputes of their own here.
+  const disputes = staff ? [] : await listMyDisputes(db(), { itemId: problem.item.id, userId: ref.userId })
+  const disputedParam = new URL(request.url).searchParams.get('disputed')
+  const disputed = !staff && disputedParam && problem.results.finds.some((f) => f.name === disputedParam) ? disputedParam : null
+  return { course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId, disputes, disputed }
 }
 
 /** Longest text read per answer field; the server refuses anything over its own limit with a message. */
@@ -105,7 +110,7 @@ async function fetchMyResults(assignmentId: number, position: number): Promise<M
 const twoDecimals = new Intl.NumberFormat('en', { maximumFractionDigits: 2 })
 
 export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { course, staff, problem, receiptId } = loaderData
+  const { course, staff, problem, receiptId, disputes, disputed } = loaderData
   const { assignment, item } = problem
   const tz = assignment.timeZone
   const hydrated = useHydrated()
@@ -138,6 +143,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
   const mode: AnswerFormMode = staff ? 'preview' : problem.window.state === 'open' || problem.window.state === 'late' ? 'submit' : 'closed'
   const message = windowMessage(problem.window, (d) => formatInZone(d, tz))
   const unitOf = new Map(results.finds.map((f) => [f.name, f.unitHint]))
+  const disputedLabel = disputed ? results.finds.find((f) => f.name === disputed)?.label : null
 
   return (
     <div className="space-y-6">
@@ -177,6 +183,13 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
         </Notice>
       ) : null}
 
+      {disputedLabel ? (
+        <Notice tone="ok">
+          <p className="font-semibold">Your dispute was sent; you will get an e-mail when it is resolved.</p>
+          <p className="mt-1">It is about “{disputedLabel}”. Its state shows beside that question below.</p>
+        </Notice>
+      ) : null}
+
       {problem.promptHtml === null ? (
         <Notice tone="error">{staff ? 'This problem version could not draw a variant. Check it in the problem bank.' : problem.variantError}</Notice>
       ) : (
@@ -205,6 +218,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
               Form={fetcher.Form}
               busy={fetcher.state !== 'idle'}
               inPlace={hydrated}
+              disputes={staff ? null : { list: disputes, timeZone: tz, href: (findName) => `${here}/dispute?find=${encodeURIComponent(findName)}` }}
             />
             {query.isError && results.pending ? (
               <p className="mt-3 text-sm text-warn" role="status">
