@@ -9,12 +9,14 @@
 import { deflateSync } from 'node:zlib'
 import { count, eq } from 'drizzle-orm'
 import { afterAll, describe, expect, test } from 'vitest'
+import { disputeOutcome } from '#app/components/answer-form.tsx'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { action, loader, MAX_DISPUTE_BODY_BYTES, type DisputeActionData } from '#app/routes/courses/assignments/dispute.tsx'
 import { loader as problemLoader, action as problemAction } from '#app/routes/courses/assignments/problem.tsx'
 import { contentDisposition, loader as attachmentLoader } from '#app/routes/resources/dispute-attachment.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { attachments, disputes } from '#app/server/db/schema.server.ts'
+import { resolveDispute } from '#app/server/disputes.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
@@ -340,5 +342,40 @@ describe('contentDisposition', () => {
     expect(contentDisposition('photo.JPEG', 'image/jpeg')).toMatch(/filename="photo\.JPEG"/)
     expect(contentDisposition('notes.txt', 'image/png')).toMatch(/filename="notes\.txt\.png"/)
     expect(contentDisposition('計算.pdf', 'application/pdf')).toMatch(/^inline; filename="attachment\.pdf"; filename\*=UTF-8''%E8%A8%88%E7%AE%97\.pdf$/)
+  })
+})
+
+describe('the outcome on the problem page', () => {
+  test('after staff adjust the score, the problem page has the resolved dispute and says what changed, with the comment', async () => {
+    const s = await setUp()
+    await action(args(await upload(s, disputeForm({})), s.params))
+    const [row] = await db().select().from(disputes).where(eq(disputes.userId, s.student.id))
+    const resolved = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: row!.id,
+      actor: { id: s.ta.id, isAdmin: false, role: 'ta' },
+      decision: 'adjust',
+      newScore: 1,
+      comment: 'Half marks: the size is right.',
+    })
+    expect(resolved.ok).toBe(true)
+
+    const page = await problemLoader(args(getRequest(s.problemPath, { Cookie: s.cookie }), s.params))
+    expect(page.disputed).toBeNull()
+    const latest = page.disputes.find((d) => d.findName === 'wNet')!
+    expect(latest).toMatchObject({ status: 'adjusted', scoreBefore: 0, scoreAfter: 1, comment: 'Half marks: the size is right.' })
+    expect(disputeOutcome(latest)).toBe('Adjusted: score changed from 0 to 1 — Half marks: the size is right.')
+    expect(page.problem.results.finds.find((f) => f.name === 'wNet')!.score).toBe(1)
+
+    // Staff preview their own variant: no disputes of theirs, and no confirmation from the query.
+    const staffPage = await problemLoader(args(getRequest(`${s.problemPath}?disputed=wNet`, { Cookie: s.staffCookie }), s.params))
+    expect(staffPage.disputes).toEqual([])
+    expect(staffPage.disputed).toBeNull()
+  })
+
+  test('upheld and rejected outcomes read as the student is told them', () => {
+    const base = { id: 1, findName: 'wNet', createdAt: '2026-12-01T10:00:00Z', resolvedAt: '2026-12-02T10:00:00Z', scoreBefore: 0, scoreAfter: 2 }
+    expect(disputeOutcome({ ...base, status: 'upheld', comment: null })).toBe('Upheld: your answer was accepted')
+    expect(disputeOutcome({ ...base, status: 'rejected', scoreAfter: 0, comment: 'The sign is part of the answer.' })).toBe('Rejected: the score stays — The sign is part of the answer.')
   })
 })
