@@ -553,11 +553,12 @@ export async function listDisputes(
 }
 
 /** The dispute if the viewer may see it (staff of its course, or the student who raised it). */
-async function visibleDispute(database: Database, courseId: number, disputeId: number, viewerId: number): Promise<DisputeRecord | null> {
+async function visibleDispute(database: Database, courseId: number, disputeId: number, viewerId: number): Promise<{ row: DisputeRecord; staff: boolean } | null> {
   const [row] = await disputeQuery(database, and(eq(disputes.id, disputeId), eq(disputes.courseId, courseId))).limit(1)
   if (!row) return null
-  if (row.userId === viewerId) return row
-  return isStaffRole(await courseRoleOf(database, viewerId, courseId)) ? row : null
+  const staff = isStaffRole(await courseRoleOf(database, viewerId, courseId))
+  if (staff || row.userId === viewerId) return { row, staff }
+  return null
 }
 
 function pitfallTitle(id: string | null): string | null {
@@ -565,10 +566,14 @@ function pitfallTitle(id: string | null): string | null {
   return PITFALLS.find((p) => p.id === id)?.title ?? id
 }
 
-/** Null when there is no such dispute in the course or the viewer may not see it (a student sees only their own). */
+/**
+ * Null when there is no such dispute in the course or the viewer may not see it (a student sees
+ * only their own, and without the key, worked solution, diagrams or the count of others).
+ */
 export async function getDisputeDetail(database: Database, input: { courseId: number; disputeId: number; viewer: DisputeActor }): Promise<DisputeDetail | null> {
-  const row = await visibleDispute(database, input.courseId, input.disputeId, input.viewer.id)
-  if (!row) return null
+  const visible = await visibleDispute(database, input.courseId, input.disputeId, input.viewer.id)
+  if (!visible) return null
+  const { row, staff } = visible
   const ctx = await loadItemContext(database, eq(assignmentItems.id, row.itemId))
   if (!ctx) return null
   const findInfo = findOf(ctx, row.findName)
@@ -605,7 +610,10 @@ export async function getDisputeDetail(database: Database, input: { courseId: nu
         .from(attachments)
         .where(eq(attachments.id, row.attachmentId))
     : []
-  const others = await sameAnswerParts(database, ctx, row.findName, row.userId, answer.value)
+  // The student who raised it gets no more than their problem page gives: the key, the worked
+  // solution and other students' answers are for staff (defence in depth; the page also filters).
+  const keyShown = staff && drawn.ok
+  const others = staff ? await sameAnswerParts(database, ctx, row.findName, row.userId, answer.value) : []
   return {
     dispute: { ...toListRow(row, ctx.definition), comment: row.comment, resolvedBy: row.resolvedByName },
     timeZone: ctx.timeZone,
@@ -627,9 +635,9 @@ export async function getDisputeDetail(database: Database, input: { courseId: nu
     findScore: best(attempts),
     givens: drawn.ok ? drawn.variant.givens : [],
     promptHtml: drawn.ok ? renderPrompt(ctx.definition.prompt, drawn.variant.givens, displays).html : null,
-    key: drawn.ok ? drawn.variant.key : [],
-    workedHtml: drawn.ok ? renderWorkedSolution(workedSolution(drawn.variant, ctx.definition)) : null,
-    diagrams: drawn.ok ? cycleDiagrams(drawn.variant.solution) : null,
+    key: keyShown ? drawn.variant.key : [],
+    workedHtml: keyShown ? renderWorkedSolution(workedSolution(drawn.variant, ctx.definition)) : null,
+    diagrams: keyShown ? cycleDiagrams(drawn.variant.solution) : null,
     attachment: file ? { id: file.id, fileName: file.fileName, contentType: file.contentType as AttachmentType, size: file.size } : null,
     sameAnswerOnVariant: new Set(others.map((p) => p.userId)).size,
     history: await disputeHistory(database, row, find?.label ?? row.findName),

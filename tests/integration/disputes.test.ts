@@ -248,7 +248,9 @@ describe('who sees what', () => {
     expect(await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(b!, 'student') })).toBeNull()
     expect(await getAttachmentForViewer(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(b!, 'student') })).toBeNull()
     expect(await getAttachmentForViewer(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(s.ta, 'ta') })).toMatchObject({ contentType: 'image/png' })
-    expect(await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(a!, 'student') })).not.toBeNull()
+    const own = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(a!, 'student') })
+    expect(own).toMatchObject({ answer: { text: '1 kJ/kg' }, key: [], workedHtml: null, diagrams: null })
+    expect((await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(s.ta, 'ta') }))!.key.length).toBeGreaterThan(0)
   })
 })
 
