@@ -58,13 +58,12 @@ import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
 import { frozenDefinitions, studentVariant } from './grading.server.ts'
 import { withJobTransaction } from './queue.server.ts'
+import { ALLOWED_ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, type AttachmentType } from '#app/lib/dispute-limits.ts'
 
 type Database = Db | Tx
 
-/** Upload limits: 10 MB; PDF, PNG or JPEG, the type read from the bytes. */
-export const MAX_ATTACHMENT_BYTES = 10 * 1024 * 1024
-export const ALLOWED_ATTACHMENT_TYPES = ['application/pdf', 'image/png', 'image/jpeg'] as const
-export type AttachmentType = (typeof ALLOWED_ATTACHMENT_TYPES)[number]
+/** Upload limits (shared with the form): 10 MB; PDF, PNG or JPEG, the type read from the bytes. */
+export { ALLOWED_ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, type AttachmentType }
 
 export type Upload = { fileName: string; bytes: Uint8Array }
 
