@@ -9,6 +9,7 @@ import { courses, departments, problemVersions, problems, terms, users } from '#
 import { hashPassword } from '#app/server/passwords.server.ts'
 import { addMember } from '#tests/support/factories.ts'
 import { seedDemoAssignments } from './assignments.ts'
+import { seedDemoDisputes } from './disputes.ts'
 import type { DemoOwner } from './problems.ts'
 import { DEMO_PROBLEMS } from './problems.ts'
 
@@ -105,7 +106,9 @@ export async function seedDemo(db: Db, options: { now?: Date } = {}) {
   const owners = { tobias: wrenfieldId, amara: okaforId }
   const problemCount = await seedDemoProblems(db, owners)
   const seeded = await seedDemoAssignments(db, { now: options.now ?? new Date(), courseIds: { engineering, chemistry }, owners })
-  return { departmentId: dept!.id, courseIds, students: students.length, problems: problemCount, assignments: seeded.assignmentIds.length }
+  const strandId = await upsertPerson(db, strand!, passwordHash, dept!.id)
+  const disputeCount = await seedDemoDisputes(db, { courseIds: { engineering, chemistry }, reviewerId: strandId })
+  return { departmentId: dept!.id, courseIds, students: students.length, problems: problemCount, assignments: seeded.assignmentIds.length, disputes: disputeCount }
 }
 
 // Fixed dates in the demo term, so a re-seeded database looks the same.

@@ -6,7 +6,7 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { afterAll, expect, test } from 'vitest'
 import { db } from '#app/server/db/client.server.ts'
-import { assignmentItems, assignments, extensions, partResults, problemVersions, problems, submissions } from '#app/server/db/schema.server.ts'
+import { assignmentItems, assignments, attachments, auditEvents, disputes, extensions, partResults, problems, problemVersions, submissions } from '#app/server/db/schema.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { seedDemo } from '#seed/demo.ts'
 
@@ -74,6 +74,16 @@ test('the demo seed makes assignments with graded answers, and a second run adds
   expect(ext).toMatchObject({ extraAttempts: 1, reason: 'Documented accommodation' })
   expect(ext!.dueAt!.getTime() - week9.dueAt.getTime()).toBe(2 * 24 * 3600_000)
 
+  // Demo disputes: three on week 9 (one with a PNG, one rejected by a TA), one in chemistry.
+  const disputeRows = await db().select().from(disputes).orderBy(disputes.id)
+  expect(disputeRows.map((d) => d.status)).toEqual(['open', 'open', 'rejected', 'open'])
+  expect(disputeRows.filter((d) => d.attachmentId !== null)).toHaveLength(1)
+  const [png] = await db().select({ contentType: attachments.contentType }).from(attachments)
+  expect(png!.contentType).toBe('image/png')
+  const resolvedAudit = await db().select().from(auditEvents).where(eq(auditEvents.kind, 'dispute-resolved'))
+  expect(resolvedAudit).toHaveLength(1)
+
   await seedDemo(db(), { now: new Date(now.getTime() + 3600_000) })
   expect(await counts()).toEqual(first)
+  expect(await db().select({ id: disputes.id }).from(disputes)).toHaveLength(4)
 })
