@@ -53,7 +53,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (course.role === 'student') {
     // The key, the givens and the worked solution stay on the server: a student's view of
     // their own dispute must not reveal more than their problem page does.
-    return { ...base, staff: null, mine: { answer: { text: detail.answer.text, attempt: detail.answer.attempt, verdict: detail.answer.verdict, score: detail.answer.score, maxScore: detail.answer.maxScore }, findScore: detail.findScore } }
+    return {
+      ...base,
+      staff: null,
+      mine: {
+        answer: { text: detail.answer.text, attempt: detail.answer.attempt, verdict: detail.answer.verdict, score: detail.answer.score, maxScore: detail.answer.maxScore },
+        findScore: detail.findScore,
+        attachment: detail.attachment ? { fileName: detail.attachment.fileName } : null,
+      },
+    }
   }
   const { dispute: _d, timeZone: _t, find: _f, ...staff } = detail
   return { ...base, staff, mine: null }
@@ -178,6 +186,16 @@ export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
             </dd>
             <dt className="font-medium">Your score for this find now</dt>
             <dd>{pointsText(mine.findScore, find.share)}</dd>
+            <dt className="font-medium">Your file</dt>
+            <dd>
+              {mine.attachment ? (
+                <a href={`/courses/${courseId}/disputes/${d.id}/attachment`} download={mine.attachment.fileName}>
+                  {mine.attachment.fileName}
+                </a>
+              ) : (
+                'None sent'
+              )}
+            </dd>
           </dl>
           <p className="mt-3">
             <Link to={problemHref}>Back to the problem</Link>
