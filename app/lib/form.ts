@@ -1,3 +1,4 @@
+import { data } from 'react-router'
 import type { z } from 'zod'
 
 export type FieldErrors = Record<string, string | undefined>
@@ -27,3 +28,15 @@ export function parseForm<S extends z.ZodType>(formData: FormData, schema: S): F
 /** Typed empties, so that success and failure results of an action share one shape. */
 export const noFieldErrors: FieldErrors = {}
 export const noValues: Record<string, string> = {}
+
+/**
+ * The body of a form post, or a 400 page when it is not a form (another content type, or a
+ * broken body): a request sent by hand must not end in a server error.
+ */
+export async function readFormData(request: Request): Promise<FormData> {
+  try {
+    return await request.formData()
+  } catch {
+    throw data('This form could not be read. Go back to the page and send it from there.', { status: 400 })
+  }
+}

@@ -6,7 +6,7 @@ import { Field } from '#app/components/ui/field.tsx'
 import { NewPasswordFields } from '#app/components/new-password-fields.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { roleLabels } from '#app/domain/permissions.ts'
-import { noFieldErrors, noValues, parseForm } from '#app/lib/form.ts'
+import { noFieldErrors, noValues, parseForm, readFormData } from '#app/lib/form.ts'
 import { NameSchema, NewPasswordSchema, rules } from '#app/lib/validation.ts'
 import { acceptInvitation, findAccessLink } from '#app/server/access-links.server.ts'
 import { getUser, startSession } from '#app/server/auth.server.ts'
@@ -47,7 +47,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (current?.id === accepted.userId) return redirect(target)
     return redirect(`/sign-in?${new URLSearchParams({ redirectTo: target })}`)
   }
-  const form = parseForm(await request.formData(), NewAccountSchema)
+  const form = parseForm(await readFormData(request), NewAccountSchema)
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values, formError: form.formError }, { status: 400 })
   const accepted = await acceptInvitation(db(), params.token, { name: form.value.name, password: form.value.password })
   if (!accepted) return data({ fieldErrors: noFieldErrors, values: noValues, formError: 'This invitation can no longer be used.' }, { status: 400 })

@@ -3,7 +3,7 @@ import { LinkProblemPanel } from '#app/components/link-problem.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { NewPasswordFields } from '#app/components/new-password-fields.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
-import { noFieldErrors, parseForm } from '#app/lib/form.ts'
+import { noFieldErrors, parseForm, readFormData } from '#app/lib/form.ts'
 import { PasswordPairSchema } from '#app/lib/validation.ts'
 import { findAccessLink, resetPassword } from '#app/server/access-links.server.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -18,7 +18,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const form = parseForm(await request.formData(), PasswordPairSchema)
+  const form = parseForm(await readFormData(request), PasswordPairSchema)
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, formError: form.formError }, { status: 400 })
   const done = await resetPassword(db(), params.token, form.value.password)
   if (!done) return data({ fieldErrors: noFieldErrors, formError: 'This link can no longer be used. Ask for a new one.' }, { status: 400 })

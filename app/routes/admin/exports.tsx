@@ -4,7 +4,7 @@ import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
-import { parseForm } from '#app/lib/form.ts'
+import { parseForm, readFormData } from '#app/lib/form.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { adminExportsPage, ExportRequestError, requestTermExport } from '#app/server/exports.server.ts'
@@ -27,7 +27,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireAdmin(request)
-  const form = parseForm(await request.formData(), RequestExportSchema)
+  const form = parseForm(await readFormData(request), RequestExportSchema)
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
   try {
     const { exportId } = await requestTermExport(db(), { adminUser: user, termId: form.value.termId })

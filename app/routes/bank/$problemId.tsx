@@ -13,6 +13,7 @@ import { previewProblem } from '#app/server/preview.server.ts'
 import { ProblemAccessError, bankViewerFor, copyProblem, getProblemDetail } from '#app/server/problems.server.ts'
 import { latestSweepForVersion, startSweep } from '#app/server/sweeps.server.ts'
 import type { Route } from './+types/$problemId'
+import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.problem.title ?? 'Problem'} · Cyclewright` }]
 
@@ -43,7 +44,7 @@ const ActionSchema = z.discriminatedUnion('intent', [
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { user, viewer, problem } = await loadVisible(request, params.problemId)
-  const parsed = ActionSchema.safeParse(Object.fromEntries(await request.formData()))
+  const parsed = ActionSchema.safeParse(Object.fromEntries(await readFormData(request)))
   if (!parsed.success) throw data('That action is not available here.', { status: 400 })
   const url = new URL(request.url)
   switch (parsed.data.intent) {

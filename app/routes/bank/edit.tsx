@@ -9,6 +9,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { editorOptions, runEditorAction } from '#app/server/problem-editor.server.ts'
 import { bankViewerFor, getProblemDetail, saveProblem } from '#app/server/problems.server.ts'
 import type { Route } from './+types/edit'
+import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.problem.title ? `Edit ${data.problem.title}` : 'Edit problem'} · Problem bank · Cyclewright` }]
 
@@ -35,7 +36,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const problemId = requireIdParam(params.problemId, 'problem')
   const user = await requireBankUser(request)
-  const form = await request.formData()
+  const form = await readFormData(request)
   return runEditorAction(form, async (problem) => {
     const database = db()
     await saveProblem(database, await bankViewerFor(database, user), problemId, problem)

@@ -6,6 +6,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { editorOptions, runEditorAction } from '#app/server/problem-editor.server.ts'
 import { bankViewerFor, createProblem } from '#app/server/problems.server.ts'
 import type { Route } from './+types/new'
+import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = () => [{ title: 'New problem · Problem bank · Cyclewright' }]
 
@@ -16,7 +17,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireBankUser(request)
-  const form = await request.formData()
+  const form = await readFormData(request)
   return runEditorAction(form, async (problem) => {
     const database = db()
     const { problemId } = await createProblem(database, await bankViewerFor(database, user), problem)

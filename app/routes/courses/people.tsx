@@ -5,7 +5,7 @@ import { Button } from '#app/components/ui/button.tsx'
 import { Field } from '#app/components/ui/field.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { canInvite, roleLabels } from '#app/domain/permissions.ts'
-import { noFieldErrors, noValues, parseForm, type FieldErrors } from '#app/lib/form.ts'
+import { type FieldErrors, noFieldErrors, noValues, parseForm, readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { EmailSchema } from '#app/lib/validation.ts'
 import { inviteToCourse } from '#app/server/access-links.server.ts'
@@ -33,7 +33,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const { user } = await requireCourseRole(request, courseId, ['instructor', 'ta'])
-  const form = parseForm(await request.formData(), InviteFormSchema)
+  const form = parseForm(await readFormData(request), InviteFormSchema)
   if (!form.ok) return data({ ok: false as const, fieldErrors: form.fieldErrors, values: form.values, sentTo: null }, { status: 400 })
   if (!canInvite(toActor(user), courseId, form.value.role)) forbidden('Only the course’s instructors can invite people.')
   try {

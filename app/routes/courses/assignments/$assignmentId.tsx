@@ -13,6 +13,7 @@ import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { appUrl } from '#app/server/env.server.ts'
 import type { Route } from './+types/$assignmentId'
+import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.detail.assignment.title} · Cyclewright` : 'Assignment · Cyclewright' }]
 
@@ -32,7 +33,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { user } = await requireCourseRole(request, courseId, ['instructor'])
-  const intent = IntentSchema.safeParse((await request.formData()).get('intent'))
+  const intent = IntentSchema.safeParse((await readFormData(request)).get('intent'))
   if (!intent.success) throw data('Use one of the buttons on the page.', { status: 400 })
   const base = `/courses/${courseId}/assignments/${assignmentId}`
   if (intent.data === 'release-key') {

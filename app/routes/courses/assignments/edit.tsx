@@ -6,6 +6,7 @@ import { getEditAssignmentForm, listLockedItems, orErrorPage, runAssignmentFormA
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/edit'
+import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${data.assignment.title} · Cyclewright` : 'Edit assignment · Cyclewright' }]
 
@@ -22,7 +23,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { user } = await requireCourseRole(request, courseId, ['instructor'])
   const out = await orErrorPage(
-    runAssignmentFormAction(await request.formData(), {
+    runAssignmentFormAction(await readFormData(request), {
       locked: await listLockedItems(db(), assignmentId),
       save: (state) => updateAssignment(db(), { courseId, assignmentId, user, state }),
     }),

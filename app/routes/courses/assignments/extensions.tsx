@@ -4,7 +4,7 @@ import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { formatInZone, toLocalDateTimeValue } from '#app/lib/dates.ts'
-import { parseForm, type FieldErrors } from '#app/lib/form.ts'
+import { type FieldErrors, parseForm, readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { ExtensionFormSchema, listExtensions, orErrorPage, removeExtension, setExtension } from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
@@ -28,7 +28,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { user } = await requireCourseRole(request, courseId, ['instructor'])
-  const formData = await request.formData()
+  const formData = await readFormData(request)
   const here = `/courses/${courseId}/assignments/${assignmentId}/extensions`
   if (formData.get('intent') === 'remove') {
     const parsed = RemoveSchema.safeParse({ userId: formData.get('userId') })

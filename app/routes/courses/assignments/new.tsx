@@ -6,6 +6,7 @@ import { createAssignment, getNewAssignmentForm, orErrorPage, runAssignmentFormA
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/new'
+import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = () => [{ title: 'New assignment · Cyclewright' }]
 
@@ -20,7 +21,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const { user } = await requireCourseRole(request, courseId, ['instructor'])
   const out = await orErrorPage(
-    runAssignmentFormAction(await request.formData(), { locked: [], save: (state) => createAssignment(db(), { courseId, user, state }) }),
+    runAssignmentFormAction(await readFormData(request), { locked: [], save: (state) => createAssignment(db(), { courseId, user, state }) }),
   )
   if (out.status === 'saved') return redirect(`/courses/${courseId}/assignments/${out.assignmentId}`)
   return data(out.answer, { status: out.status })

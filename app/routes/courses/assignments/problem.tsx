@@ -18,6 +18,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { listMyDisputes } from '#app/server/disputes.server.ts'
 import { getStudentProblem, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/problem'
+import { readFormData } from '#app/lib/form.ts'
 
 const NOT_FOUND = 'There is no such problem, or it is not open yet.'
 
@@ -82,7 +83,7 @@ export type SubmitActionData = {
 export async function action({ request, params }: Route.ActionArgs) {
   const { course, ref } = await guard(request, params)
   if (course.role !== 'student') forbidden('Staff preview: your answers are not recorded. Only the course’s students submit answers.')
-  const form = readSubmitForm(await request.formData())
+  const form = readSubmitForm(await readFormData(request))
   const result = await submitAnswers(db(), { ...ref, answers: form.answers })
   if (result.ok && Object.keys(result.fieldErrors).length === 0 && !form.inPlace) {
     // Post/redirect/get: reloading the receipt page does not post the answers again.

@@ -11,6 +11,7 @@ import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { applyRegrade, loadRegradePage, RegradeError, type ToleranceFields } from '#app/server/regrades.server.ts'
 import type { Route } from './+types/regrade'
+import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Regrade ${data?.item.problemTitle ?? 'problem'} · Cyclewright` }]
 
@@ -65,7 +66,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { user, courseId, assignmentId, position } = await guard(request, params)
-  const form = await request.formData()
+  const form = await readFormData(request)
   const values: Record<string, string> = {}
   for (const [k, v] of form.entries()) if (typeof v === 'string') values[k] = v
   const parsed = ApplySchema.safeParse(values)

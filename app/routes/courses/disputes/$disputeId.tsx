@@ -10,7 +10,7 @@ import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { KeyValue } from '#app/components/variant-preview.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
-import { parseForm, type FieldErrors } from '#app/lib/form.ts'
+import { type FieldErrors, parseForm, readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -69,7 +69,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { courseId, disputeId, actor } = await guard(request, params, ['instructor', 'ta'])
-  const parsed = parseForm(await request.formData(), ResolveSchema)
+  const parsed = parseForm(await readFormData(request), ResolveSchema)
   if (!parsed.ok) return data({ fieldErrors: parsed.fieldErrors, formError: parsed.formError ?? 'Check the fields marked below.', values: parsed.values }, { status: 400 })
   const v = parsed.value
   const result = await resolveDispute(db(), {
