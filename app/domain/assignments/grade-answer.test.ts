@@ -39,7 +39,8 @@ describe('gradeAnswer', () => {
   })
 
   test('T1 taken in °C as if it were kelvin is named', () => {
-    // Isentropic compression of air with γ = 1.4: T2 = T1 r^(γ−1) (any textbook's Otto cycle); with T1 in °C read as K
+    // Isentropic compression of an ideal gas with γ = 1.4: T2 = T1 r^(γ−1) (Çengel & Boles, Thermodynamics:
+    // An Engineering Approach, the air-standard Otto cycle, from memory); with T1 in °C read as K
     // the slip gives the °C number × r^0.4.
     const t1C = variant.givens.find((g) => g.name === 'T1')!.value
     const r = variant.givens.find((g) => g.name === 'r')!.value
