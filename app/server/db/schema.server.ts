@@ -143,10 +143,13 @@ export const signInAttempts = pgTable(
     email: text().notNull(),
     clientAddress: text().notNull(),
     succeeded: boolean().notNull(),
+    /** sign-in: a password tried; reset: a reset link asked for (throttled apart) */
+    kind: text().$type<'sign-in' | 'reset'>().notNull().default('sign-in'),
     createdAt: createdAt(),
   },
   (t) => [
     index('sign_in_attempts_email_idx').on(t.email, t.createdAt),
+    index('sign_in_attempts_pair_idx').on(t.email, t.clientAddress, t.createdAt),
     index('sign_in_attempts_client_idx').on(t.clientAddress, t.createdAt),
   ],
 )
@@ -369,9 +372,12 @@ export const submissions = pgTable(
     gradedAt: timestamp({ withTimezone: true }),
     /** why grading stopped for good (status failed) */
     error: text(),
+    /** the one-time token of the rendered answer form: the same press is stored once */
+    formToken: text(),
   },
   (t) => [
     index('submissions_item_user_idx').on(t.itemId, t.userId, t.submittedAt),
+    uniqueIndex('submissions_user_form_token_idx').on(t.userId, t.formToken),
     index('submissions_assignment_status_idx').on(t.assignmentId, t.status),
   ],
 )
