@@ -37,6 +37,8 @@ export const departments = pgTable('departments', {
   id: integer().primaryKey().generatedAlwaysAsIdentity(),
   slug: text().notNull().unique(),
   name: text().notNull(),
+  /** IANA zone for department-wide pages (admin lists, term exports) */
+  timeZone: text().notNull().default('UTC'),
   createdAt: createdAt(),
 })
 
@@ -65,6 +67,8 @@ export const courses = pgTable(
     /** IANA zone in which the course's dates and times are shown. */
     timeZone: text().notNull().default('UTC'),
     signConvention: signConvention().notNull(),
+    /** the course this one was copied from (a new term's copy) */
+    copiedFromId: integer().references((): AnyPgColumn => courses.id, { onDelete: 'set null' }),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex('courses_term_code_key').on(t.termId, t.code)],
@@ -81,9 +85,17 @@ export const users = pgTable(
     passwordHash: text(),
     isAdmin: boolean().notNull().default(false),
     departmentId: integer().references(() => departments.id),
+    /** from a roster: the institution's student ID and the two halves of the name (name stays the display form) */
+    studentNumber: text(),
+    familyName: text(),
+    givenName: text(),
     createdAt: createdAt(),
   },
-  (t) => [uniqueIndex('users_email_key').on(t.email), check('users_email_lower', sql`${t.email} = lower(${t.email})`)],
+  (t) => [
+    uniqueIndex('users_email_key').on(t.email),
+    uniqueIndex('users_student_number_key').on(t.studentNumber),
+    check('users_email_lower', sql`${t.email} = lower(${t.email})`),
+  ],
 )
 
 export const memberships = pgTable(
@@ -98,9 +110,39 @@ export const memberships = pgTable(
       .references(() => courses.id, { onDelete: 'cascade' }),
     role: courseRole().notNull(),
     section: text(),
+    /** a dropped student: answers kept, left out of totals and exports */
+    droppedAt: timestamp({ withTimezone: true }),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex('memberships_user_course_key').on(t.userId, t.courseId), index('memberships_course_idx').on(t.courseId)],
+)
+
+/** A course's sections (lab or tutorial groups), named as the department names them. */
+export const courseSections = pgTable(
+  'course_sections',
+  {
+    id: integer().primaryKey().generatedAlwaysAsIdentity(),
+    courseId: integer()
+      .notNull()
+      .references(() => courses.id, { onDelete: 'cascade' }),
+    name: text().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('course_sections_course_name_key').on(t.courseId, t.name)],
+)
+
+/** Which teaching assistants look after which sections. */
+export const sectionStaff = pgTable(
+  'section_staff',
+  {
+    sectionId: integer()
+      .notNull()
+      .references(() => courseSections.id, { onDelete: 'cascade' }),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+  },
+  (t) => [uniqueIndex('section_staff_pair_key').on(t.sectionId, t.userId)],
 )
 
 /** Single-use links: invitations to a course, and password resets. */
@@ -116,6 +158,10 @@ export const accessTokens = pgTable(
     createdBy: integer().references(() => users.id),
     expiresAt: timestamp({ withTimezone: true }).notNull(),
     usedAt: timestamp({ withTimezone: true }),
+    /** an invitation withdrawn by staff before it was used */
+    revokedAt: timestamp({ withTimezone: true }),
+    /** when the link was last e-mailed (resends move it) */
+    lastSentAt: timestamp({ withTimezone: true }),
     createdAt: createdAt(),
   },
   (t) => [index('access_tokens_email_idx').on(t.email)],
@@ -195,6 +241,8 @@ export const problems = pgTable(
     topics: text().array().notNull().default(sql`'{}'::text[]`),
     difficulty: text().notNull(),
     level: text().notNull(),
+    /** archived: hidden from the bank and the assignment picker, kept for assignments that use it */
+    archivedAt: timestamp({ withTimezone: true }),
     createdAt: createdAt(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
@@ -604,3 +652,4 @@ export type KeyRelease = (typeof keyRelease.enumValues)[number]
 export type Dispute = typeof disputes.$inferSelect
 export type Attachment = typeof attachments.$inferSelect
 export type DisputeStatus = (typeof disputeStatus.enumValues)[number]
+export type CourseSection = typeof courseSections.$inferSelect
