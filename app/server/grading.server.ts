@@ -1,11 +1,12 @@
 /**
- * Grading on the server: a student's variant (recomputed from the frozen problem version and
- * the seed, cached per process), grading one stored submission in one transaction, and the
- * best score per find that gradebooks and exports add up.
+ * Grading on the server: a student's variant (recomputed from the problem version's definition
+ * and the seed, cached per process by the definition's content), grading one stored submission
+ * in one transaction, and the best score per find that gradebooks and exports add up.
  *
  * Idempotent by construction: gradeSubmission locks the submission row and grades only a
  * submission still 'queued', so a retried or duplicated job changes nothing the second time.
  */
+import { createHash } from 'node:crypto'
 import { and, eq, inArray, isNull, sql } from 'drizzle-orm'
 import { gradeAnswer } from '#app/domain/assignments/grade-answer.ts'
 import { findShares } from '#app/domain/assignments/scoring.ts'
@@ -28,11 +29,32 @@ export function studentSeed(assignmentId: number, problemId: number, userId: num
 }
 
 // Variants are recomputed on demand; this keeps the last few thousand per process so a
-// burst of submissions to one problem solves each student's cycle once.
+// burst of submissions to one problem solves each student's cycle once. The key is the
+// definition's content (not the version id): an unfrozen version is edited in place, and a
+// regrade preview may target one, so an id alone could hand back numbers from before the edit.
 const VARIANT_CACHE_LIMIT = 5000
 const variantCache = new Map<string, DrawResult>()
 
-/** A student's variant of a problem version in the course's sign convention. Never throws. */
+/** JSON with object keys sorted at every level, so equal documents give equal text whatever their key order (jsonb reorders keys). */
+export function canonicalJson(value: unknown): string {
+  if (value === null || typeof value !== 'object') return JSON.stringify(value) ?? 'null'
+  if (Array.isArray(value)) return `[${value.map((v) => (v === undefined ? 'null' : canonicalJson(v))).join(',')}]`
+  const entries = Object.entries(value as Record<string, unknown>)
+    .filter(([, v]) => v !== undefined && typeof v !== 'function')
+    .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))
+  return `{${entries.map(([k, v]) => `${JSON.stringify(k)}:${canonicalJson(v)}`).join(',')}}`
+}
+
+/** A stable hash of a definition's content (sha256 of its canonical JSON). */
+export function definitionHash(definition: ProblemDefinition): string {
+  return createHash('sha256').update(canonicalJson(definition)).digest('base64url')
+}
+
+/**
+ * A student's variant of a problem version in the course's sign convention. Never throws.
+ * `versionId` names the version for the caller's sake; the numbers depend only on the
+ * definition, the seed and the convention, and so does the cache.
+ */
 export function studentVariant(input: {
   versionId: number
   definition: ProblemDefinition
@@ -43,7 +65,7 @@ export function studentVariant(input: {
 }): DrawResult {
   const seed = studentSeed(input.assignmentId, input.problemId, input.userId)
   const convention = resolveConvention(input.definition, input.courseConvention)
-  const cacheKey = `${input.versionId}|${seed}|${convention}`
+  const cacheKey = `${definitionHash(input.definition)}|${seed}|${convention}`
   const hit = variantCache.get(cacheKey)
   if (hit) {
     // Map keeps insertion order: re-inserting makes this the most recently used.
@@ -65,13 +87,13 @@ export function studentVariant(input: {
 
 export type GradeOutcome = 'graded' | 'already-graded' | 'missing' | 'failed'
 
-// Definitions of the versions assignments use, by version id. Safe to keep: an assignment
-// item only ever points at a frozen version, and a frozen version is never edited (saving
-// it makes the next version), so the document under an id used here never changes.
+// Definitions of frozen versions, by version id. Safe to keep: a frozen version is never
+// edited (saving it makes the next version), so the document under a frozen id never changes.
+// An unfrozen version (edited in place) is read from the database every time and never kept.
 const DEFINITION_CACHE_LIMIT = 500
 const definitionCache = new Map<number, ProblemDefinition>()
 
-/** The definitions of these (frozen) versions, from the cache or in one query. */
+/** The definitions of these versions in one query; frozen ones come from (and go to) the per-process cache. */
 export async function frozenDefinitions(database: Database, versionIds: readonly number[]): Promise<Map<number, ProblemDefinition>> {
   const out = new Map<number, ProblemDefinition>()
   const missing: number[] = []

@@ -14,7 +14,8 @@ import { roundScore } from '#app/domain/assignments/scoring.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { assignmentItems, auditEvents, partResults, problemVersions, regrades, submissions } from '#app/server/db/schema.server.ts'
-import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { canonicalJson, definitionHash, frozenDefinitions, gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { saveProblem } from '#app/server/problems.server.ts'
 import { PermanentJobError, stopBoss } from '#app/server/queue.server.ts'
 import { applyRegrade, getRegradeProgress, previewRegrade, RegradeError, runRegrade, type RegradeProgress } from '#app/server/regrades.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
@@ -206,6 +207,66 @@ describe('preview', () => {
     const ok = await previewRegrade(db(), { ...base, toVersionId: c.item.problemVersionId, toleranceOverrides: { T2: { kind: 'absolute', value: '2', unit: '°C' }, gone: relative('1 %') } })
     expect(ok.overrides).toEqual({ T2: { kind: 'absolute', value: 2, unit: '°C' } })
     expect(ok.ignoredOverrides).toEqual(['gone'])
+  })
+})
+
+describe('a version edited in place', () => {
+  test('the cache key is the content: key order does not matter, any changed value does', () => {
+    expect(canonicalJson({ b: 1, a: { d: [2, { f: 1, e: null }], c: 'x' } })).toBe(canonicalJson({ a: { c: 'x', d: [2, { e: null, f: 1 }] }, b: 1 }))
+    const reordered = Object.fromEntries(Object.entries(ottoV1).reverse()) as ProblemDefinition
+    expect(definitionHash(reordered)).toBe(definitionHash(ottoV1))
+    expect(definitionHash({ ...ottoV1, finds: ottoV1.finds.map((f) => ({ ...f, points: f.points + 1 })) })).not.toBe(definitionHash(ottoV1))
+  })
+
+  // An unfrozen version is edited in place by saveProblem; a variant drawn from it before the
+  // edit must not come back after it (the per-process variant cache once keyed on the version id).
+  test('the next draw, preview and applied regrade use the edited definition, not the numbers from before the edit', async () => {
+    const c = await gradedCourse()
+    const viewer = { id: c.instructor.id, isAdmin: false, departmentId: c.course.departmentId }
+    const readDefinition = async (versionId: number) =>
+      (await db().select({ definition: problemVersions.definition }).from(problemVersions).where(eq(problemVersions.id, versionId)))[0]!.definition as ProblemDefinition
+    const wNetOf = (versionId: number, definition: ProblemDefinition, userId: number) => {
+      const drawn = studentVariant({ versionId, definition, assignmentId: c.assignment.id, problemId: c.item.problemId, userId, courseConvention: 'engineering' })
+      if (!drawn.ok) throw new Error(drawn.error.message)
+      return drawn.variant.key.find((k) => k.name === 'wNet')!.value
+    }
+
+    // Version 1 is frozen (the assignment uses it), so this save makes version 2, unfrozen, equal to version 1.
+    const first = await saveProblem(db(), viewer, c.item.problemId, { definition: structuredClone(ottoV1), visibility: 'private' })
+    expect(first.newVersion).toBe(true)
+    const v2Id = first.versionId
+    const request = { courseId: c.course.id, assignmentId: c.assignment.id, position: 1, toVersionId: v2Id, toleranceOverrides: {} }
+    expect((await frozenDefinitions(db(), [v2Id])).get(v2Id)).toEqual(ottoV1)
+    const same = await previewRegrade(db(), request)
+    expect(same.changed).toEqual([])
+    const student = c.students[0]!
+    expect(wNetOf(v2Id, await readDefinition(v2Id), student.id)).toBe(c.keys.get(student.id)!.wNet)
+
+    // The author widens the heat added (600–1000 → 1100–1500 kJ/kg): every student's net work changes.
+    const edited: ProblemDefinition = {
+      ...structuredClone(ottoV1),
+      givens: ottoV1.givens.map((g) => (g.name === 'qin' ? { ...g, rule: { kind: 'range', min: 1100, max: 1500, step: 50 } } : g)),
+    }
+    const second = await saveProblem(db(), viewer, c.item.problemId, { definition: edited, visibility: 'private' })
+    expect(second).toMatchObject({ versionId: v2Id, newVersion: false })
+
+    // The definitions the grader reads are not kept for an unfrozen version either.
+    expect((await frozenDefinitions(db(), [v2Id])).get(v2Id)).toEqual(await readDefinition(v2Id))
+    expect(definitionHash((await frozenDefinitions(db(), [v2Id])).get(v2Id)!)).toBe(definitionHash(edited))
+
+    const after = wNetOf(v2Id, await readDefinition(v2Id), student.id)
+    expect(after).not.toBe(c.keys.get(student.id)!.wNet)
+    expect(after).toBe(wNetOf(0, edited, student.id))
+
+    const preview = await previewRegrade(db(), request)
+    expect(preview.changed.map((s) => s.userId).sort()).toEqual(c.students.map((s) => s.id).sort())
+    for (const s of preview.changed) expect(s.newScore).toBeCloseTo(s.oldScore - share.wNet, 6)
+
+    const regradeId = await applyRegrade(db(), { ...request, requestedBy: c.instructor.id })
+    expect(await waitUntilFinished(regradeId)).toMatchObject({ status: 'done', changed: 6 })
+    const wNet = (await partsOf(c.item.id)).filter((p) => p.findName === 'wNet')
+    expect(wNet.map((p) => [p.verdict, p.gradedVersionId])).toEqual(c.students.map(() => ['incorrect', v2Id]))
+    expect(workerErrors).toEqual([])
   })
 })
 
