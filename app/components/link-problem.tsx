@@ -4,6 +4,7 @@ const texts: Record<LinkProblem, string> = {
   unknown: 'This link is not one we know. Check that the whole address from the e-mail was copied.',
   used: 'This link has already been used. Each link works once.',
   expired: 'This link has expired.',
+  revoked: 'This invitation was withdrawn by the course staff, so the link no longer works.',
 }
 
 export function LinkProblemPanel({ problem, what }: { problem: LinkProblem; what: 'invitation' | 'password-reset' }) {

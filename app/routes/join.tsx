@@ -30,6 +30,8 @@ export async function loader({ params }: Route.LoaderArgs) {
       course: `${link.courseCode ?? ''} ${link.courseTitle ?? ''}`.trim(),
       role: link.role ? roleLabels[link.role] : null,
       hasAccount: existingUser?.hasPassword ?? false,
+      // A person put on a roster has an account without a password yet: their name is filled in.
+      name: existingUser && !existingUser.hasPassword ? existingUser.name : null,
     },
   }
 }
@@ -83,7 +85,7 @@ export default function JoinRoute({ loaderData, actionData }: Route.ComponentPro
               required
               minLength={rules.name.minLength}
               maxLength={rules.name.maxLength}
-              defaultValue={actionData?.values?.name}
+              defaultValue={actionData?.values?.name ?? inv.name ?? undefined}
               error={actionData?.fieldErrors?.name}
             />
             <NewPasswordFields label="Choose a password" errors={actionData?.fieldErrors} />

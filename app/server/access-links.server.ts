@@ -55,7 +55,7 @@ export async function inviteToCourse(
   return { token, link }
 }
 
-export type LinkProblem = 'unknown' | 'used' | 'expired'
+export type LinkProblem = 'unknown' | 'used' | 'expired' | 'revoked'
 
 export async function findAccessLink(database: Db, token: string, purpose: 'invitation' | 'password-reset', now = new Date()) {
   if (!/^[A-Za-z0-9_-]{10,64}$/.test(token)) return { ok: false as const, problem: 'unknown' as LinkProblem }
@@ -67,6 +67,7 @@ export async function findAccessLink(database: Db, token: string, purpose: 'invi
       role: accessTokens.role,
       expiresAt: accessTokens.expiresAt,
       usedAt: accessTokens.usedAt,
+      revokedAt: accessTokens.revokedAt,
       courseCode: courses.code,
       courseTitle: courses.title,
     })
@@ -74,6 +75,7 @@ export async function findAccessLink(database: Db, token: string, purpose: 'invi
     .leftJoin(courses, eq(courses.id, accessTokens.courseId))
     .where(and(eq(accessTokens.token, token), eq(accessTokens.purpose, purpose)))
   if (!row) return { ok: false as const, problem: 'unknown' as LinkProblem }
+  if (row.revokedAt) return { ok: false as const, problem: 'revoked' as LinkProblem }
   if (row.usedAt) return { ok: false as const, problem: 'used' as LinkProblem }
   if (row.expiresAt <= now) return { ok: false as const, problem: 'expired' as LinkProblem }
   const [existing] = await database
@@ -92,7 +94,7 @@ async function claim(tx: Db, linkId: number, now: Date): Promise<boolean> {
   const claimed = await tx
     .update(accessTokens)
     .set({ usedAt: now })
-    .where(and(eq(accessTokens.id, linkId), isNull(accessTokens.usedAt), gt(accessTokens.expiresAt, now)))
+    .where(and(eq(accessTokens.id, linkId), isNull(accessTokens.usedAt), isNull(accessTokens.revokedAt), gt(accessTokens.expiresAt, now)))
     .returning({ id: accessTokens.id })
   return claimed.length === 1
 }
