@@ -59,6 +59,7 @@ export function AnswerForm({
   formError,
   mode,
   action,
+  formToken = null,
   Form,
   busy,
   inPlace,
@@ -71,6 +72,8 @@ export function AnswerForm({
   formError: string | null
   mode: AnswerFormMode
   action: string
+  /** this rendering's one-time token: the server stores a press with it once */
+  formToken?: string | null
   Form: FormComponent
   busy: boolean
   /** JavaScript is running: ask the action to answer with data instead of a redirect */
@@ -130,6 +133,7 @@ export function AnswerForm({
   return (
     <Form method="post" action={action} noValidate className="space-y-4" aria-label="Your answers">
       {inPlace ? <input type="hidden" name="inPlace" value="1" /> : null}
+      {formToken ? <input type="hidden" name="formToken" value={formToken} /> : null}
       {fields}
       {mode === 'submit' && open ? (
         <div className="flex flex-wrap items-center gap-3">

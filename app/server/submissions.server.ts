@@ -9,8 +9,15 @@
  * typed, durably — and one grading job is queued in the same transaction, so a stored
  * submission is always graded and a rolled-back one never is. Attempt numbers are counted
  * under a per-(item, student) advisory lock, so two quick presses cannot both be attempt 2.
+ *
+ * One press is stored once: each rendered form carries a one-time token (newFormToken), kept
+ * on the submission (unique per student). A press whose token is already stored (a reload
+ * that posts again, a double click) stores nothing and answers with the first press's
+ * receipt and refusals. What a press refused is worked out again from the stored submission
+ * (refusalsOf: its answers hold everything typed), so the page after the redirect shows it.
  */
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm'
+import { nanoid } from 'nanoid'
 import { precheckAnswer } from '#app/domain/assignments/grade-answer.ts'
 import {
   attemptsAllowed,
@@ -23,7 +30,7 @@ import {
 } from '#app/domain/assignments/policy.ts'
 import { findShares, findState, type FindState } from '#app/domain/assignments/scoring.ts'
 import type { CycleDiagrams } from '#app/domain/authoring/diagram-plot.ts'
-import type { KeyEntry, ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import type { Find, KeyEntry, ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { cycleDiagrams } from '#app/domain/authoring/diagrams.ts'
 import { renderPrompt } from '#app/domain/authoring/prompt.ts'
 import { renderWorkedSolution, workedSolution } from '#app/domain/authoring/worked-solution.ts'
@@ -37,6 +44,14 @@ type Database = Db | Tx
 
 /** Longest answer text kept per find (the reader refuses longer ones anyway). */
 export const MAX_ANSWER_LENGTH = 500
+
+/** A fresh one-time token for a rendered answer form. */
+export function newFormToken(): string {
+  return nanoid()
+}
+
+/** What a form token looks like (nanoid's alphabet); anything else is treated as no token. */
+export const FORM_TOKEN_PATTERN = /^[A-Za-z0-9_-]{16,64}$/
 
 export type ProblemRef = { courseId: number; assignmentId: number; position: number; userId: number }
 
@@ -212,6 +227,12 @@ function findViews(item: LoadedItem, parts: PartRow[]): FindView[] {
 }
 
 async function myResults(database: Database, item: LoadedItem, userId: number): Promise<MyResults> {
+  return (await myResultsAndParts(database, item, userId)).results
+}
+
+type LatestPress = { id: number; answers: Record<string, string> }
+
+async function myResultsAndParts(database: Database, item: LoadedItem, userId: number): Promise<{ results: MyResults; parts: PartRow[]; latest: LatestPress | null }> {
   const parts = await loadParts(database, item.itemId, userId)
   const finds = findViews(item, parts)
   const subs = await database
@@ -239,7 +260,7 @@ async function myResults(database: Database, item: LoadedItem, userId: number): 
       .filter((p) => p.submissionId === s.id)
       .map((p) => ({ findName: p.findName, label: labels.get(p.findName) ?? p.findName, attempt: p.attempt, of: allowed })),
   }))
-  return {
+  const results: MyResults = {
     finds,
     receipts,
     pending: finds.some((f) => f.state === 'grading'),
@@ -247,6 +268,46 @@ async function myResults(database: Database, item: LoadedItem, userId: number): 
     points: item.points,
     lastTyped: (subs[0]?.answers as Record<string, string> | undefined) ?? {},
   }
+  return { results, parts, latest: subs[0] ? { id: subs[0].id, answers: subs[0].answers as Record<string, string> } : null }
+}
+
+/** How one press treats one find's text: not sent, skipped (already correct), refused (with why, no attempt used) or counted. */
+type PartDecision = { kind: 'blank' } | { kind: 'skip' } | { kind: 'refuse'; message: string } | { kind: 'count'; text: string }
+
+/**
+ * The rules of a press for one find, in order: blank, already correct, out of attempts, too
+ * long, unreadable or of the wrong dimension, else counted. `earlier` are the student's
+ * counted answers to this find stored before this press.
+ */
+function decidePart(find: Find, typed: string, earlier: readonly PartRow[], allowed: number): PartDecision {
+  const text = typed.slice(0, MAX_ANSWER_LENGTH).trim()
+  if (text === '') return { kind: 'blank' }
+  if (earlier.some((p) => p.verdict === 'correct')) return { kind: 'skip' }
+  if (earlier.length >= allowed) return { kind: 'refuse', message: `You have used all ${allowed} attempts for this question.` }
+  if (typed.length > MAX_ANSWER_LENGTH) return { kind: 'refuse', message: `This answer is longer than ${MAX_ANSWER_LENGTH} characters; shorten it. It did not use an attempt.` }
+  const check = precheckAnswer(find, text)
+  if (!check.ok) return { kind: 'refuse', message: `${check.message} This did not use an attempt.` }
+  return { kind: 'count', text }
+}
+
+/**
+ * The finds a stored press did not count, with why, worked out again from what it stored
+ * (its answers keep every text typed; its parts are the counted ones). The rules are pure
+ * and the earlier answers are those stored before it, so this repeats what the press said.
+ */
+function refusalsOf(item: LoadedItem, parts: readonly PartRow[], press: LatestPress): Record<string, string> {
+  const allowed = attemptsAllowed(item.rules, item.extension)
+  const out: Record<string, string> = {}
+  for (const f of item.definition.finds) {
+    const mine = parts.filter((p) => p.findName === f.name)
+    if (mine.some((p) => p.submissionId === press.id)) continue
+    const decision = decidePart(f, String(press.answers[f.name] ?? ''), mine.filter((p) => p.submissionId < press.id), allowed)
+    if (decision.kind === 'refuse') out[f.name] = decision.message
+    // Stored text that the rules would count now was refused for a reason the stored text no
+    // longer shows (it was cut to the longest kept length).
+    else if (decision.kind === 'count') out[f.name] = 'This answer was not counted; check it and submit it again. It did not use an attempt.'
+  }
+  return out
 }
 
 export type StudentProblem = {
@@ -257,6 +318,8 @@ export type StudentProblem = {
   promptHtml: string | null
   variantError: string | null
   results: MyResults
+  /** what the shown press (`receiptId`, when it is the student's latest) did not count, with why */
+  refused: { submissionId: number; fieldErrors: Record<string, string> } | null
   /** the key, worked solution and diagrams, once released to this student */
   key: { entries: readonly KeyEntry[]; workedHtml: string; diagrams: CycleDiagrams } | null
 }
@@ -265,7 +328,10 @@ export type StudentProblem = {
  * The problem page of one student (or of a staff member previewing their own variant, with
  * `showKey`). Null when there is no such problem in the course, or it is not open yet to a student.
  */
-export async function getStudentProblem(database: Database, ref: ProblemRef & { now?: Date; showKey?: boolean; allowBeforeOpen?: boolean }): Promise<StudentProblem | null> {
+export async function getStudentProblem(
+  database: Database,
+  ref: ProblemRef & { now?: Date; showKey?: boolean; allowBeforeOpen?: boolean; receiptId?: number | null },
+): Promise<StudentProblem | null> {
   const now = ref.now ?? new Date()
   const item = await loadItem(database, ref)
   if (!item) return null
@@ -284,6 +350,12 @@ export async function getStudentProblem(database: Database, ref: ProblemRef & { 
   if (drawn.ok && released) {
     key = { entries: drawn.variant.key, workedHtml: renderWorkedSolution(workedSolution(drawn.variant, item.definition)), diagrams: cycleDiagrams(drawn.variant.solution) }
   }
+  const mine = await myResultsAndParts(database, item, ref.userId)
+  // Only for the latest press: the form is refilled with its text, so its refusals sit beside it.
+  const refused =
+    ref.receiptId != null && mine.latest?.id === ref.receiptId
+      ? { submissionId: mine.latest.id, fieldErrors: refusalsOf(item, mine.parts, mine.latest) }
+      : null
   return {
     assignment: {
       id: item.assignmentId,
@@ -297,7 +369,8 @@ export async function getStudentProblem(database: Database, ref: ProblemRef & { 
     window: submissionWindow(item.rules, item.extension, now),
     promptHtml: drawn.ok ? renderPrompt(item.definition.prompt, drawn.variant.givens, displays).html : null,
     variantError: drawn.ok ? null : 'This problem could not be set up for you. Please tell your teacher; your answers to other problems are not affected.',
-    results: await myResults(database, item, ref.userId),
+    results: mine.results,
+    refused,
     key,
   }
 }
@@ -322,6 +395,8 @@ export async function findAssignmentCourseId(database: Database, assignmentId: n
 export type SubmitResult =
   | {
       ok: true
+      /** the form's token was already stored: nothing new was stored, this is the first press's answer */
+      repeated: boolean
       receipt: Receipt
       /** finds not counted, with why (unreadable, wrong dimension, out of attempts) */
       fieldErrors: Record<string, string>
@@ -331,11 +406,88 @@ export type SubmitResult =
     }
   | { ok: false; formError: string; fieldErrors: Record<string, string>; values: Record<string, string> }
 
+function receiptOf(item: LoadedItem, allowed: number, sub: { id: number; submittedAt: Date; daysLate: number; latePenalty: number; status: Receipt['status'] }, counted: readonly { findName: string; attempt: number }[]): Receipt {
+  const labels = new Map(item.definition.finds.map((f) => [f.name, f.label]))
+  return {
+    submissionId: sub.id,
+    submittedAt: sub.submittedAt.toISOString(),
+    status: sub.status,
+    daysLate: sub.daysLate,
+    latePenalty: sub.latePenalty,
+    parts: counted.map((c) => ({ findName: c.findName, label: labels.get(c.findName) ?? c.findName, attempt: c.attempt, of: allowed })),
+  }
+}
+
+/** The press stored with this student's form token, if any. */
+async function pressWithToken(database: Database, userId: number, formToken: string) {
+  const [row] = await database
+    .select({
+      id: submissions.id,
+      itemId: submissions.itemId,
+      answers: submissions.answers,
+      submittedAt: submissions.submittedAt,
+      status: submissions.status,
+      daysLate: submissions.daysLate,
+      latePenalty: submissions.latePenalty,
+    })
+    .from(submissions)
+    .where(and(eq(submissions.userId, userId), eq(submissions.formToken, formToken)))
+    .limit(1)
+  return row ?? null
+}
+
+/** The first press's answer to a press repeating its token. */
+async function answerRepeat(
+  database: Database,
+  item: LoadedItem,
+  userId: number,
+  stored: NonNullable<Awaited<ReturnType<typeof pressWithToken>>>,
+  typed: Record<string, string>,
+): Promise<SubmitResult> {
+  const answers = stored.answers as Record<string, string>
+  if (stored.itemId !== item.itemId) {
+    return { ok: false, formError: 'This form was already sent from another problem’s page. Reload this page and submit again; your answers are still in the form.', fieldErrors: {}, values: typed }
+  }
+  const parts = await loadParts(database, item.itemId, userId)
+  const allowed = attemptsAllowed(item.rules, item.extension)
+  const counted = parts.filter((p) => p.submissionId === stored.id)
+  return {
+    ok: true,
+    repeated: true,
+    receipt: receiptOf(item, allowed, stored, counted),
+    fieldErrors: refusalsOf(item, parts, { id: stored.id, answers }),
+    skipped: [],
+    values: answers,
+  }
+}
+
+function isFormTokenClash(e: unknown): boolean {
+  for (let c: unknown = e; c && typeof c === 'object'; c = (c as { cause?: unknown }).cause) {
+    const pgError = c as { code?: string; constraint?: string }
+    if (pgError.code === '23505' && pgError.constraint === 'submissions_user_form_token_idx') return true
+  }
+  return false
+}
+
 /**
  * Stores a press of Submit (see the header) and queues its grading. `answers` maps find
- * names to the text typed; other keys are ignored. Never throws for a student's input.
+ * names to the text typed; other keys are ignored. `formToken` is the rendered form's
+ * one-time token: a press with a token already stored stores nothing and answers as the
+ * first did (`repeated`). Without a token (a page from before tokens) the press is stored
+ * as a fresh one. Never throws for a student's input.
  */
-export async function submitAnswers(database: Db, ref: ProblemRef & { answers: Record<string, string>; now?: Date }): Promise<SubmitResult> {
+export async function submitAnswers(database: Db, ref: ProblemRef & { answers: Record<string, string>; now?: Date; formToken?: string | null }): Promise<SubmitResult> {
+  const formToken = ref.formToken && FORM_TOKEN_PATTERN.test(ref.formToken) ? ref.formToken : null
+  try {
+    return await storePress(database, { ...ref, formToken })
+  } catch (e) {
+    // The same token sent for two problems at once: the other press won; answer as a repeat.
+    if (formToken && isFormTokenClash(e)) return storePress(database, { ...ref, formToken })
+    throw e
+  }
+}
+
+async function storePress(database: Db, ref: ProblemRef & { answers: Record<string, string>; now?: Date; formToken: string | null }): Promise<SubmitResult> {
   const values: Record<string, string> = {}
   return withJobTransaction(database, async (tx, jobs) => {
     const item = await loadItem(tx, ref)
@@ -343,6 +495,11 @@ export async function submitAnswers(database: Db, ref: ProblemRef & { answers: R
     for (const f of item.definition.finds) values[f.name] = (ref.answers[f.name] ?? '').slice(0, MAX_ANSWER_LENGTH)
     // The clock is read inside the transaction, after the lock, so lateness is judged at storage time.
     await tx.execute(sql`select pg_advisory_xact_lock(${item.itemId}, ${ref.userId})`)
+    // After the lock: a press with the same token that got here first has committed, so it is seen.
+    if (ref.formToken) {
+      const stored = await pressWithToken(tx, ref.userId, ref.formToken)
+      if (stored) return answerRepeat(tx, item, ref.userId, stored, values)
+    }
     const now = ref.now ?? new Date()
     const window = submissionWindow(item.rules, item.extension, now)
     if (window.state === 'not-open' || window.state === 'closed') {
@@ -361,27 +518,11 @@ export async function submitAnswers(database: Db, ref: ProblemRef & { answers: R
     const skipped: string[] = []
     const counted: { findName: string; answer: string; attempt: number; maxScore: number }[] = []
     item.definition.finds.forEach((f, i) => {
-      const text = values[f.name]!.trim()
-      if (text === '') return
       const mine = parts.filter((p) => p.findName === f.name)
-      if (mine.some((p) => p.verdict === 'correct')) {
-        skipped.push(f.name)
-        return
-      }
-      if (mine.length >= allowed) {
-        fieldErrors[f.name] = `You have used all ${allowed} attempts for this question.`
-        return
-      }
-      if (ref.answers[f.name] && ref.answers[f.name]!.length > MAX_ANSWER_LENGTH) {
-        fieldErrors[f.name] = `This answer is longer than ${MAX_ANSWER_LENGTH} characters; shorten it. It did not use an attempt.`
-        return
-      }
-      const check = precheckAnswer(f, text)
-      if (!check.ok) {
-        fieldErrors[f.name] = `${check.message} This did not use an attempt.`
-        return
-      }
-      counted.push({ findName: f.name, answer: text, attempt: mine.length + 1, maxScore: shares[i] ?? 0 })
+      const decision = decidePart(f, ref.answers[f.name] ?? '', mine, allowed)
+      if (decision.kind === 'skip') skipped.push(f.name)
+      else if (decision.kind === 'refuse') fieldErrors[f.name] = decision.message
+      else if (decision.kind === 'count') counted.push({ findName: f.name, answer: decision.text, attempt: mine.length + 1, maxScore: shares[i] ?? 0 })
     })
     if (counted.length === 0) {
       const formError =
@@ -401,8 +542,8 @@ export async function submitAnswers(database: Db, ref: ProblemRef & { answers: R
     const penalty = window.state === 'late' ? window.penalty : 0
     const inserted = await tx.execute<{ id: number; submitted_at: Date | string; days_late: number; late_penalty: number }>(sql`
       with s as (
-        insert into ${submissions} (assignment_id, item_id, user_id, answers, submitted_at, days_late, late_penalty)
-        values (${item.assignmentId}, ${item.itemId}, ${ref.userId}, ${JSON.stringify(values)}::jsonb, ${now.toISOString()}::timestamptz, ${daysLate}, ${penalty})
+        insert into ${submissions} (assignment_id, item_id, user_id, answers, submitted_at, days_late, late_penalty, form_token)
+        values (${item.assignmentId}, ${item.itemId}, ${ref.userId}, ${JSON.stringify(values)}::jsonb, ${now.toISOString()}::timestamptz, ${daysLate}, ${penalty}, ${ref.formToken}::text)
         returning id, submitted_at, days_late, late_penalty
       ), p as (
         insert into ${partResults} (submission_id, assignment_id, item_id, user_id, find_name, answer, attempt, max_score)
@@ -413,17 +554,10 @@ export async function submitAnswers(database: Db, ref: ProblemRef & { answers: R
     const row = inserted.rows[0]!
     const sub = { id: row.id, submittedAt: new Date(row.submitted_at), daysLate: row.days_late, latePenalty: Number(row.late_penalty) }
     await enqueue('grade-submission', { v: 1, submissionId: sub.id }, { connection: jobs })
-    const labels = new Map(item.definition.finds.map((f) => [f.name, f.label]))
     return {
       ok: true,
-      receipt: {
-        submissionId: sub.id,
-        submittedAt: sub.submittedAt.toISOString(),
-        status: 'queued',
-        daysLate: sub.daysLate,
-        latePenalty: sub.latePenalty,
-        parts: counted.map((c) => ({ findName: c.findName, label: labels.get(c.findName) ?? c.findName, attempt: c.attempt, of: allowed })),
-      },
+      repeated: false,
+      receipt: receiptOf(item, allowed, { ...sub, status: 'queued' }, counted),
       fieldErrors,
       skipped,
       values,

@@ -3,13 +3,18 @@
  * cookie against PostgreSQL: post/redirect/get after a submission, refused answers returned
  * with everything typed, staff refused, and GET …/mine answering only the student.
  */
-import { and, eq } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
+import type pg from 'pg'
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query'
+import { createElement } from 'react'
+import { renderToString } from 'react-dom/server'
+import { createRoutesStub } from 'react-router'
 import { afterAll, describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
-import { action, loader, type SubmitActionData } from '#app/routes/courses/assignments/problem.tsx'
+import ProblemRoute, { action, loader, type SubmitActionData } from '#app/routes/courses/assignments/problem.tsx'
 import { loader as mineLoader } from '#app/routes/resources/api-my-results.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { partResults, submissions } from '#app/server/db/schema.server.ts'
+import { assignments, partResults, submissions } from '#app/server/db/schema.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
@@ -56,6 +61,21 @@ async function setUp(options: Parameters<typeof createCourseWithAssignment>[2] =
 
 type Setup = Awaited<ReturnType<typeof setUp>>
 
+/** The one-time token of a fresh rendering of the student's page. */
+async function tokenFor(s: Setup, cookie = s.cookie): Promise<string> {
+  const page = await loader(args(getRequest(s.path, { Cookie: cookie }), s.params))
+  expect(page.formToken).toBeTruthy()
+  return page.formToken!
+}
+
+/** The page's server HTML for `url` (loader and component), as a browser without JavaScript gets it. */
+async function renderProblemPage(s: Setup, url: string): Promise<string> {
+  const loaderData = await loader(args(getRequest(url, { Cookie: s.cookie }), s.params))
+  const Stub = createRoutesStub([{ path: '/courses/:courseId/assignments/:assignmentId/problems/:position', Component: ProblemRoute as never, loader: () => loaderData, HydrateFallback: () => null }])
+  const element = createElement(QueryClientProvider, { client: new QueryClient() }, createElement(Stub, { initialEntries: [url], hydrationData: { loaderData: { 0: loaderData } } }))
+  return renderToString(element).replaceAll('<!-- -->', '')
+}
+
 function post(s: Setup, fields: Record<string, string>, cookie = s.cookie) {
   return action(args(formRequest(s.path, fields, { Cookie: cookie }), s.params))
 }
@@ -83,7 +103,7 @@ describe('submitting from the problem page', () => {
     const typed = { 'answer.T2': ` ${s.key.T2!.value} K`, 'answer.wNet': `${s.key.wNet!.value} kJ/kg`, 'answer.eta': '' }
     const res = (await post(s, typed)) as Response
     expect(res).toBeInstanceOf(Response)
-    expect(res.status).toBe(302)
+    expect(res.status).toBe(303)
     const rows = await storedSubmissions(s.assignment.id)
     expect(rows).toHaveLength(1)
     expect(res.headers.get('Location')).toBe(`${s.path}?receipt=${rows[0]!.id}`)
@@ -112,9 +132,43 @@ describe('submitting from the problem page', () => {
     expect(await storedSubmissions(s.assignment.id)).toHaveLength(1)
   })
 
-  test('an unreadable answer comes back with its text and a message beside it, while the good answers are stored with a receipt', async () => {
+  test('an unreadable answer beside a good one: the good one is stored, the POST redirects, and the page after it shows the message and both texts', async () => {
     const s = await setUp()
-    const result = asData(await post(s, { 'answer.T2': `${s.key.T2!.value} K`, 'answer.eta': 'about half' }))
+    const typed = { 'answer.T2': `${s.key.T2!.value} K`, 'answer.wNet': '12 kg', 'answer.eta': 'about half' }
+    const res = (await post(s, { ...typed, formToken: await tokenFor(s) })) as Response
+    expect(res).toBeInstanceOf(Response)
+    expect(res.status).toBe(303)
+    const rows = await storedSubmissions(s.assignment.id)
+    expect(rows).toHaveLength(1)
+    expect(res.headers.get('Location')).toBe(`${s.path}?receipt=${rows[0]!.id}`)
+    const parts = await db().select().from(partResults).where(eq(partResults.submissionId, rows[0]!.id))
+    expect(parts.map((p) => [p.findName, p.attempt])).toEqual([['T2', 1]])
+
+    // The GET the redirect leads to: the refusals with why, and everything typed back in the form.
+    const page = await loader(args(getRequest(res.headers.get('Location')!, { Cookie: s.cookie }), s.params))
+    expect(page.receiptId).toBe(rows[0]!.id)
+    expect(page.problem.refused?.submissionId).toBe(rows[0]!.id)
+    expect(Object.keys(page.problem.refused!.fieldErrors).sort()).toEqual(['eta', 'wNet'])
+    expect(page.problem.refused!.fieldErrors.eta).toMatch(/did not use an attempt/)
+    expect(page.problem.refused!.fieldErrors.wNet).toMatch(/did not use an attempt/)
+    expect(page.problem.results.lastTyped).toEqual({ T2: typed['answer.T2'], wNet: '12 kg', eta: 'about half' })
+    expect(page.problem.results.receipts[0]).toMatchObject({ submissionId: rows[0]!.id, parts: [{ findName: 'T2', attempt: 1 }] })
+    // Rendered on the server, the way a browser without JavaScript gets it.
+    const html = await renderProblemPage(s, res.headers.get('Location')!)
+    expect(html).toContain('Some answers were not submitted. They did not use an attempt.')
+    expect(html).toMatch(/id="answer-eta"[^>]*value="about half"|value="about half"[^>]*id="answer-eta"/)
+    expect(html).toMatch(/id="answer-wNet"[^>]*value="12 kg"|value="12 kg"[^>]*id="answer-wNet"/)
+    expect(html).toContain('name="formToken"')
+
+    // The refusals belong to that press: once another is stored, its receipt no longer shows them.
+    await post(s, { 'answer.wNet': `${s.key.wNet!.value} kJ/kg`, formToken: await tokenFor(s) })
+    const older = await loader(args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params))
+    expect(older.problem.refused).toBeNull()
+  })
+
+  test('with JavaScript (inPlace) a mixed press answers in place with the refusals and the text typed', async () => {
+    const s = await setUp()
+    const result = asData(await post(s, { inPlace: '1', formToken: await tokenFor(s), 'answer.T2': `${s.key.T2!.value} K`, 'answer.eta': 'about half' }))
     expect(result.status).toBe(200)
     expect(result.data.ok).toBe(true)
     expect(result.data.values).toMatchObject({ T2: `${s.key.T2!.value} K`, eta: 'about half' })
@@ -189,6 +243,132 @@ describe('submitting from the problem page', () => {
     expect('thrown' in page && (page.thrown as { init: { status: number } }).init.status).toBe(403)
     const posted = await settle(post(s, { 'answer.T2': '500 K' }, cookie))
     expect('thrown' in posted && (posted.thrown as { init: { status: number } }).init.status).toBe(403)
+  })
+})
+
+describe('one press, one submission (form tokens)', () => {
+  test('each rendering of the page carries its own token; staff get none', async () => {
+    const s = await setUp()
+    const a = await tokenFor(s)
+    const b = await tokenFor(s)
+    expect(a).toMatch(/^[A-Za-z0-9_-]{21}$/)
+    expect(b).not.toBe(a)
+    const staff = await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))
+    expect(staff.formToken).toBeNull()
+  })
+
+  test('the same form posted twice (a reload, a double click) stores one submission and uses one attempt; both land on its receipt with its refusals', async () => {
+    const s = await setUp()
+    const formToken = await tokenFor(s)
+    const fields = { formToken, 'answer.T2': `${s.key.T2!.value} K`, 'answer.eta': 'about half' }
+    const first = (await post(s, fields)) as Response
+    const second = (await post(s, fields)) as Response
+    expect([first.status, second.status]).toEqual([303, 303])
+    const rows = await storedSubmissions(s.assignment.id)
+    expect(rows).toHaveLength(1)
+    expect(rows[0]!.formToken).toBe(formToken)
+    expect(second.headers.get('Location')).toBe(first.headers.get('Location'))
+    const parts = await db().select().from(partResults).where(eq(partResults.itemId, s.item.id))
+    expect(parts.map((p) => [p.findName, p.attempt])).toEqual([['T2', 1]])
+
+    // With JavaScript the repeat answers with the first press's receipt and refusals too.
+    const inPlace = asData(await post(s, { ...fields, inPlace: '1' }))
+    expect(inPlace.status).toBe(200)
+    expect(inPlace.data.receipt?.submissionId).toBe(rows[0]!.id)
+    expect(inPlace.data.receipt?.parts).toMatchObject([{ findName: 'T2', attempt: 1 }])
+    expect(inPlace.data.fieldErrors.eta).toMatch(/did not use an attempt/)
+    expect(inPlace.data.values.eta).toBe('about half')
+    expect(await storedSubmissions(s.assignment.id)).toHaveLength(1)
+
+    // A new rendering's token is a new press: attempt 2.
+    await post(s, { formToken: await tokenFor(s), 'answer.T2': '1 K' })
+    const after = await db().select().from(partResults).where(eq(partResults.itemId, s.item.id))
+    expect(after.map((p) => p.attempt).sort()).toEqual([1, 2])
+  })
+
+  test('ten posts of the same form at once store one submission', async () => {
+    const s = await setUp()
+    const formToken = await tokenFor(s)
+    const fields = { formToken, 'answer.T2': `${s.key.T2!.value} K`, 'answer.wNet': `${s.key.wNet!.value} kJ/kg` }
+    const responses = (await Promise.all(Array.from({ length: 10 }, () => post(s, fields)))) as Response[]
+    expect(responses.map((r) => r.status)).toEqual(Array(10).fill(303))
+    const rows = await storedSubmissions(s.assignment.id)
+    expect(rows).toHaveLength(1)
+    expect(new Set(responses.map((r) => r.headers.get('Location')))).toEqual(new Set([`${s.path}?receipt=${rows[0]!.id}`]))
+    const parts = await db().select().from(partResults).where(eq(partResults.itemId, s.item.id))
+    expect(parts.map((p) => [p.findName, p.attempt]).sort()).toEqual([
+      ['T2', 1],
+      ['wNet', 1],
+    ])
+  })
+
+  test('a repeat after the due date still lands on the stored receipt instead of a refusal', async () => {
+    const s = await setUp()
+    const formToken = await tokenFor(s)
+    const first = (await post(s, { formToken, 'answer.T2': `${s.key.T2!.value} K` })) as Response
+    await db().update(assignments).set({ dueAt: new Date(Date.now() - 1000) }).where(eq(assignments.id, s.assignment.id))
+    const again = (await post(s, { formToken, 'answer.T2': `${s.key.T2!.value} K` })) as Response
+    expect(again.status).toBe(303)
+    expect(again.headers.get('Location')).toBe(first.headers.get('Location'))
+    expect(await storedSubmissions(s.assignment.id)).toHaveLength(1)
+  })
+
+  test('a token already used on another problem is refused with a message and the text kept; nothing is stored', async () => {
+    const made = await createCourseWithAssignment(db(), [ottoV1, ottoV1], { students: 1 })
+    const cookie = await cookieFor(made.students[0]!.id)
+    const params = (position: number) => ({ courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: String(position) })
+    const path = (position: number) => `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/${position}`
+    const page = await loader(args(getRequest(path(1), { Cookie: cookie }), params(1)))
+    const formToken = page.formToken!
+    const one = (await action(args(formRequest(path(1), { formToken, 'answer.T2': '500 K' }, { Cookie: cookie }), params(1)))) as Response
+    expect(one.status).toBe(303)
+    const two = asData(await action(args(formRequest(path(2), { formToken, 'answer.T2': '600 K' }, { Cookie: cookie }), params(2))))
+    expect(two.status).toBe(400)
+    expect(two.data.formError).toMatch(/Reload this page/)
+    expect(two.data.values.T2).toBe('600 K')
+    expect(await storedSubmissions(made.assignment.id)).toHaveLength(1)
+
+    // Both at once: each problem has its own lock, so the unique index decides. Problem 2's
+    // press is held uncommitted while problem 1's is sent; problem 1's insert waits on it and,
+    // once it commits, is told instead of failing.
+    const fresh = (await loader(args(getRequest(path(1), { Cookie: cookie }), params(1)))).formToken!
+    const client = await (db().$client as pg.Pool).connect()
+    try {
+      await client.query('begin')
+      await client.query(`insert into submissions (assignment_id, item_id, user_id, answers, form_token) values ($1, $2, $3, '{}'::jsonb, $4)`, [
+        made.assignment.id,
+        made.items[1]!.id,
+        made.students[0]!.id,
+        fresh,
+      ])
+      const pending = action(args(formRequest(path(1), { formToken: fresh, 'answer.T2': '401 K' }, { Cookie: cookie }), params(1)))
+      // Until problem 1's insert is waiting on the uncommitted row.
+      for (let i = 0; i < 100; i++) {
+        const waiting = await db().execute(sql`select 1 from pg_stat_activity where datname = current_database() and wait_event_type = 'Lock' and query like '%insert into "submissions"%'`)
+        if (waiting.rows.length > 0) break
+        if (i === 99) throw new Error('the second press never waited on the first')
+        await new Promise((r) => setTimeout(r, 50))
+      }
+      await client.query('commit')
+      const told = asData(await pending)
+      expect(told.status).toBe(400)
+      expect(told.data.formError).toMatch(/Reload this page/)
+      expect(told.data.values).toEqual({ T2: '401 K', wNet: '', eta: '' })
+    } finally {
+      client.release()
+    }
+    expect((await storedSubmissions(made.assignment.id)).filter((r) => r.formToken === fresh).map((r) => r.itemId)).toEqual([made.items[1]!.id])
+  })
+
+  test('a form without a token (a page from before tokens) or with a malformed one is stored as a fresh press', async () => {
+    const s = await setUp()
+    const plain = (await post(s, { 'answer.T2': '500 K' })) as Response
+    const junk = (await post(s, { formToken: 'x', 'answer.T2': '501 K' })) as Response
+    expect([plain.status, junk.status]).toEqual([303, 303])
+    const rows = await storedSubmissions(s.assignment.id)
+    expect(rows.map((r) => r.formToken)).toEqual([null, null])
+    const parts = await db().select().from(partResults).where(eq(partResults.itemId, s.item.id))
+    expect(parts.map((p) => p.attempt).sort()).toEqual([1, 2])
   })
 })
 

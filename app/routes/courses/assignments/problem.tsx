@@ -16,7 +16,7 @@ import { requireIdParam } from '#app/lib/params.ts'
 import { forbidden, requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { listMyDisputes } from '#app/server/disputes.server.ts'
-import { getStudentProblem, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
+import { FORM_TOKEN_PATTERN, getStudentProblem, newFormToken, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/problem'
 import { readFormData } from '#app/lib/form.ts'
 
@@ -37,16 +37,18 @@ async function guard(request: Request, params: Route.LoaderArgs['params']) {
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { course, ref } = await guard(request, params)
   const staff = course.role !== 'student'
-  // Staff see their own variant with its key, before it opens too; nothing they do is recorded.
-  const problem = await getStudentProblem(db(), staff ? { ...ref, showKey: true, allowBeforeOpen: true } : ref)
-  if (!problem) throw data(NOT_FOUND, { status: 404 })
   const receiptParam = new URL(request.url).searchParams.get('receipt')
   const receiptId = !staff && receiptParam && /^\d{1,9}$/.test(receiptParam) ? Number(receiptParam) : null
+  // Staff see their own variant with its key, before it opens too; nothing they do is recorded.
+  const problem = await getStudentProblem(db(), staff ? { ...ref, showKey: true, allowBeforeOpen: true } : { ...ref, receiptId })
+  if (!problem) throw data(NOT_FOUND, { status: 404 })
   // Staff preview their own variant: they have no disputes of their own here.
   const disputes = staff ? [] : await listMyDisputes(db(), { itemId: problem.item.id, userId: ref.userId })
   const disputedParam = new URL(request.url).searchParams.get('disputed')
   const disputed = !staff && disputedParam && problem.results.finds.some((f) => f.name === disputedParam) ? disputedParam : null
-  return { course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId, disputes, disputed }
+  // Each rendered form gets its own one-time token: posting it again (a reload, a double click) stores nothing new.
+  const formToken = staff ? null : newFormToken()
+  return { course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId, disputes, disputed, formToken }
 }
 
 /** Longest text read per answer field; the server refuses anything over its own limit with a message. */
@@ -56,6 +58,8 @@ const ANSWER_PREFIX = 'answer.'
 
 const SubmitFormSchema = z.object({
   inPlace: z.literal('1').optional().catch(undefined),
+  // A malformed token is treated as none (a fresh press), never as an error.
+  formToken: z.string().regex(FORM_TOKEN_PATTERN).optional().catch(undefined),
   answers: z.record(z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,39}$/), z.string().transform((s) => s.slice(0, MAX_TYPED))),
 })
 
@@ -69,7 +73,8 @@ function readSubmitForm(form: FormData) {
     answers[name] = value
   }
   const inPlace = form.get('inPlace')
-  return SubmitFormSchema.parse({ inPlace: typeof inPlace === 'string' ? inPlace : undefined, answers })
+  const formToken = form.get('formToken')
+  return SubmitFormSchema.parse({ inPlace: typeof inPlace === 'string' ? inPlace : undefined, formToken: typeof formToken === 'string' ? formToken : undefined, answers })
 }
 
 export type SubmitActionData = {
@@ -84,11 +89,13 @@ export async function action({ request, params }: Route.ActionArgs) {
   const { course, ref } = await guard(request, params)
   if (course.role !== 'student') forbidden('Staff preview: your answers are not recorded. Only the course’s students submit answers.')
   const form = readSubmitForm(await readFormData(request))
-  const result = await submitAnswers(db(), { ...ref, answers: form.answers })
-  if (result.ok && Object.keys(result.fieldErrors).length === 0 && !form.inPlace) {
-    // Post/redirect/get: reloading the receipt page does not post the answers again.
+  const result = await submitAnswers(db(), { ...ref, answers: form.answers, formToken: form.formToken ?? null })
+  if (result.ok && !form.inPlace) {
+    // Post/redirect/get, also when some answers were refused: reloading the page after it does
+    // not post again. The receipt page shows what this press refused, beside the text typed
+    // (both come back from the stored submission). A repeated token lands on the same page.
     const url = new URL(request.url)
-    return redirect(`${url.pathname}?receipt=${result.receipt.submissionId}`)
+    return redirect(`${url.pathname}?receipt=${result.receipt.submissionId}`, 303)
   }
   const body: SubmitActionData = result.ok
     ? { ok: true, formError: null, fieldErrors: result.fieldErrors, values: result.values, receipt: result.receipt }
@@ -111,7 +118,7 @@ async function fetchMyResults(assignmentId: number, position: number): Promise<M
 const twoDecimals = new Intl.NumberFormat('en', { maximumFractionDigits: 2 })
 
 export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { course, staff, problem, receiptId, disputes, disputed } = loaderData
+  const { course, staff, problem, receiptId, disputes, disputed, formToken } = loaderData
   const { assignment, item } = problem
   const tz = assignment.timeZone
   const hydrated = useHydrated()
@@ -212,10 +219,11 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
             <AnswerForm
               finds={results.finds}
               values={submitted?.values ?? results.lastTyped}
-              fieldErrors={submitted?.fieldErrors ?? {}}
+              fieldErrors={submitted?.fieldErrors ?? problem.refused?.fieldErrors ?? {}}
               formError={submitted?.formError ?? null}
               mode={mode}
               action={here}
+              formToken={formToken}
               Form={fetcher.Form}
               busy={fetcher.state !== 'idle'}
               inPlace={hydrated}
