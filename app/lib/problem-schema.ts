@@ -16,6 +16,7 @@ import {
   type ProblemDefinition,
 } from '#app/domain/authoring/definition.ts'
 import type { PitfallId } from '#app/domain/grading/pitfalls.ts'
+import { controlCharIssues } from '#app/lib/text-field.ts'
 
 // ---- Limits ---------------------------------------------------------------------------
 
@@ -313,12 +314,18 @@ function dotted(path: readonly PropertyKey[]): string {
 
 /** Every problem with a definition, as dotted paths ('givens.0.rule.min'); [] when it is valid. */
 export function definitionIssues(raw: unknown): FieldIssue[] {
+  const control = controlCharIssues(raw, () => 'this text')
+  if (control.length > 0) return control
   const r = ProblemDefinitionSchema.safeParse(raw, { error: authorMessage })
   return r.success ? [] : toFieldIssues(r.error.issues)
 }
 
 /** Parses a definition with the author-facing messages; the value is normalised (trimmed, topics lower case). */
 export function parseDefinition(raw: unknown): { ok: true; value: ProblemDefinition } | { ok: false; issues: FieldIssue[] } {
+  // Checked before the shape: PostgreSQL cannot store a NUL in a definition, wherever it is.
+  // The editor shows its fields back without NUL characters (problem-editor.server.ts), and says so.
+  const control = controlCharIssues(raw, () => 'this text', { echoed: true })
+  if (control.length > 0) return { ok: false, issues: control }
   const r = ProblemDefinitionSchema.safeParse(raw, { error: authorMessage })
   return r.success ? { ok: true, value: r.data } : { ok: false, issues: toFieldIssues(r.error.issues) }
 }
@@ -390,7 +397,9 @@ function problemName(index: number, raw: unknown): string {
   const o = raw && typeof raw === 'object' ? (raw as Record<string, unknown>) : {}
   const def = o.definition && typeof o.definition === 'object' ? (o.definition as Record<string, unknown>) : {}
   const title = typeof def.title === 'string' && def.title.trim() ? def.title.trim() : typeof o.title === 'string' && o.title.trim() ? o.title.trim() : null
-  const short = title && title.length > 60 ? `${title.slice(0, 57)}…` : title
+  // Shown on the import page: control characters (a NUL cannot be shown) are left out of the name.
+  const plain = title?.replace(/[\u0000-\u001F\u007F]/g, '') ?? null
+  const short = plain && plain.length > 60 ? `${plain.slice(0, 57)}…` : plain
   return short ? `Problem ${index + 1} (${short})` : `Problem ${index + 1}`
 }
 
@@ -425,6 +434,11 @@ export function readBankDocument(raw: unknown): BankReadResult {
 
   const problems: BankProblem[] = []
   o.problems.forEach((p, i) => {
+    const control = controlCharIssues(p, () => 'this text')
+    if (control.length > 0) {
+      for (const issue of control) errors.push({ problem: problemName(i, p), field: issue.path, message: issue.message })
+      return
+    }
     const r = BankProblemSchema.safeParse(p, { error: authorMessage })
     if (r.success) problems.push(r.data)
     else for (const issue of toFieldIssues(r.error.issues)) errors.push({ problem: problemName(i, p), field: issue.path, message: issue.message })

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { textField } from '#app/lib/text-field.ts'
 
 /** Field rules shared by the HTML attributes and the server checks. */
 export const rules = {
@@ -7,8 +8,7 @@ export const rules = {
   email: { maxLength: 320 },
 } as const
 
-export const EmailSchema = z
-  .string({ message: 'Enter an e-mail address.' })
+export const EmailSchema = textField('the e-mail address', { required: 'Enter an e-mail address.' })
   .trim()
   .min(1, 'Enter an e-mail address.')
   .max(rules.email.maxLength, 'That e-mail address is too long.')

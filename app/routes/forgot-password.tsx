@@ -4,6 +4,7 @@ import { Button } from '#app/components/ui/button.tsx'
 import { Field } from '#app/components/ui/field.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { noFieldErrors, noValues, parseForm, readFormData } from '#app/lib/form.ts'
+import { echoValues } from '#app/lib/text-field.ts'
 import { EmailSchema } from '#app/lib/validation.ts'
 import { requestPasswordReset } from '#app/server/access-links.server.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -16,7 +17,7 @@ const ForgotFormSchema = z.object({ email: EmailSchema })
 
 export async function action({ request }: Route.ActionArgs) {
   const form = parseForm(await readFormData(request), ForgotFormSchema)
-  if (!form.ok) return data({ sent: false, fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
+  if (!form.ok) return data({ sent: false, fieldErrors: form.fieldErrors, values: echoValues(form.values) }, { status: 400 })
   await requestPasswordReset(db(), form.value.email, appUrl(request))
   return { sent: true, fieldErrors: noFieldErrors, values: noValues }
 }

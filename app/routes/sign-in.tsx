@@ -2,6 +2,7 @@ import { data, Form, Link, useNavigation, useSearchParams } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { Field } from '#app/components/ui/field.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
+import { withoutNul } from '#app/lib/text-field.ts'
 import { authenticator, requireAnonymous, safeRedirect, SignInError, startSession } from '#app/server/auth.server.ts'
 import type { Route } from './+types/sign-in'
 
@@ -21,7 +22,8 @@ export async function action({ request }: Route.ActionArgs) {
     return await startSession(userId, redirectTo)
   } catch (error) {
     if (error instanceof SignInError) {
-      return data({ error: error.message, email: typeof email === 'string' ? email : '' }, { status: 400 })
+      // A NUL cannot be shown in the page, so it is left out of the address shown back.
+      return data({ error: error.message, email: typeof email === 'string' ? withoutNul(email) : '' }, { status: 400 })
     }
     throw error
   }

@@ -58,7 +58,15 @@ import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
 import { frozenDefinitions, studentVariant } from './grading.server.ts'
 import { withJobTransaction } from './queue.server.ts'
-import { ALLOWED_ATTACHMENT_TYPES, MAX_ATTACHMENT_BYTES, type AttachmentType } from '#app/lib/dispute-limits.ts'
+import {
+  ALLOWED_ATTACHMENT_TYPES,
+  DISPUTE_COMMENT_MAX,
+  DISPUTE_REASON_MAX,
+  DISPUTE_REASON_MIN,
+  MAX_ATTACHMENT_BYTES,
+  type AttachmentType,
+} from '#app/lib/dispute-limits.ts'
+import { controlCharMessage, hasControlChar } from '#app/lib/text-field.ts'
 
 type Database = Db | Tx
 
@@ -154,9 +162,9 @@ export type DisputeAllowance = { allowed: true; until: string | null } | { allow
 
 export type AuditRow = { id: number; at: string; actor: string | null; kind: string; student: string | null; assignmentTitle: string | null; before: unknown; after: unknown; note: string }
 
-export const REASON_MIN = 10
-export const REASON_MAX = 2000
-export const COMMENT_MAX = 2000
+export const REASON_MIN = DISPUTE_REASON_MIN
+export const REASON_MAX = DISPUTE_REASON_MAX
+export const COMMENT_MAX = DISPUTE_COMMENT_MAX
 
 // ---- Shared lookups ---------------------------------------------------------------------
 
@@ -373,6 +381,7 @@ export async function checkUpload(upload: Upload | null | undefined): Promise<{ 
 
 function checkReason(text: string): string | null {
   const reason = text.trim()
+  if (hasControlChar(reason)) return controlCharMessage('the reason', reason)
   if (reason === '') return 'Say why you think this grade is wrong.'
   if (reason.length < REASON_MIN) return `Say a little more: the reason needs at least ${REASON_MIN} characters.`
   if (reason.length > REASON_MAX) return `Keep the reason to ${REASON_MAX.toLocaleString('en')} characters (it has ${reason.length.toLocaleString('en')}).`
@@ -751,7 +760,8 @@ export async function resolveDispute(database: Db, input: ResolveDisputeInput): 
   const decision = DECISIONS.find((d) => d === input.decision)
   if (!decision) fieldErrors.decision = 'Choose how to resolve the dispute: keep the score, adjust it, or accept the answer.'
   const comment = (input.comment ?? '').trim()
-  if (comment.length > COMMENT_MAX) fieldErrors.comment = `Keep the comment to ${COMMENT_MAX.toLocaleString('en')} characters (it has ${comment.length.toLocaleString('en')}).`
+  if (hasControlChar(comment)) fieldErrors.comment = controlCharMessage('the comment', comment)
+  else if (comment.length > COMMENT_MAX) fieldErrors.comment = `Keep the comment to ${COMMENT_MAX.toLocaleString('en')} characters (it has ${comment.length.toLocaleString('en')}).`
   if (decision === 'adjust') {
     if (comment === '') fieldErrors.comment ??= 'Say why the score changes.'
     if (input.newScore === undefined || !Number.isFinite(input.newScore)) fieldErrors.newScore = 'Enter the new score for this question.'

@@ -17,6 +17,7 @@ import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import { assignmentItems, assignments, courses, extensions, memberships, partResults, problemVersions, submissions, users } from './db/schema.server.ts'
 import { listAssignmentTotals, listFindScores, type FindScoreRow } from './grading.server.ts'
+import { textParamProblem, type ParamProblem } from '#app/lib/query-params.ts'
 
 type Database = Db | Tx
 
@@ -40,6 +41,15 @@ const GradebookViewSchema = z.object({
   expand: z.enum(['1']).optional().catch(undefined),
 })
 export type GradebookView = z.infer<typeof GradebookViewSchema>
+
+/**
+ * The search or section in a gradebook's address when it holds control characters (a NUL
+ * cannot be typed into a name, and nothing sensible matches it): the page and the API refuse
+ * it with a 400 naming the part of the address.
+ */
+export function gradebookViewProblem(url: URL): ParamProblem | null {
+  return textParamProblem(url.searchParams, { q: 'the search', section: 'the section' })
+}
 
 export function readGradebookView(url: URL): GradebookView {
   const p = url.searchParams

@@ -13,6 +13,7 @@ import { RANKINE_TEMPLATES, templates } from '#app/domain/thermo/templates/index
 import { buildEditorOptions, definitionFromForm, editorStateFromForm, findTemplate, keepTemplateInputs, mergeIssues, type EditorState, type FormIssue } from '#app/lib/problem-form.ts'
 import { parseDefinition, VISIBILITIES } from '#app/lib/problem-schema.ts'
 import type { PreviewResult } from '#app/lib/preview.ts'
+import { echoValues } from '#app/lib/text-field.ts'
 import { previewProblem } from './preview.server.ts'
 import { InvalidDefinitionError, ProblemAccessError, ProblemConflictError } from './problems.server.ts'
 
@@ -29,7 +30,8 @@ export function editorOptions() {
 
 function answer(state: EditorState, issues: FormIssue[] = [], preview: PreviewResult | null = null): EditorAnswer {
   // A fresh nonce remounts the editor, so the refilled values replace what the browser kept.
-  return { state, issues, preview, nonce: crypto.randomUUID() }
+  // A NUL cannot be shown in a page, so it is left out of the refill (the issue says so).
+  return { state: { ...state, values: echoValues(state.values) }, issues, preview, nonce: crypto.randomUUID() }
 }
 
 /**

@@ -21,6 +21,7 @@ import {
   type BankDocument,
   type BankError,
 } from '#app/lib/problem-schema.ts'
+import { readPageParam, readTextParam, type ParamProblem } from '#app/lib/query-params.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import { problems, problemVersions, users, type ProblemVisibility } from './db/schema.server.ts'
 import type { SignedInUser } from './users.server.ts'
@@ -109,6 +110,21 @@ export const BankQuerySchema = z
     pageSize: v.pageSize as (typeof PAGE_SIZES)[number],
   }))
 export type BankQuery = z.output<typeof BankQuerySchema>
+
+/**
+ * The bank's search from an address. Odd filters fall back to their defaults (BankQuerySchema);
+ * a page number that is not a whole number from 1 to MAX_PAGE, and a search holding control
+ * characters (PostgreSQL refuses a NUL), are refused so the caller can answer 400. On a refused
+ * search, `query.q` is the text as typed without its NUL characters, to show back in the box.
+ */
+export function readBankSearch(search: URLSearchParams): { ok: true; query: BankQuery } | { ok: false; query: BankQuery; problem: ParamProblem } {
+  const page = readPageParam(search)
+  const q = readTextParam(search, 'q', 'the search')
+  const query = BankQuerySchema.parse({ ...Object.fromEntries(search), page: page.ok ? String(page.page) : '1', q: q.ok ? q.value : '' })
+  if (!page.ok) return { ok: false, query, problem: page.problem }
+  if (!q.ok) return { ok: false, query: { ...query, q: q.value.trim().slice(0, 200) }, problem: q.problem }
+  return { ok: true, query }
+}
 
 export type BankRow = {
   id: number

@@ -1,5 +1,6 @@
 import { Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { pageParam } from '#app/lib/query-params.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { countOutbox, listOutbox } from '#app/server/outbox.server.ts'
@@ -11,8 +12,8 @@ const PAGE = 50
 
 export async function loader({ request }: Route.LoaderArgs) {
   await requireAdmin(request)
-  const pageParam = Number(new URL(request.url).searchParams.get('page') ?? '1')
-  const page = Number.isInteger(pageParam) && pageParam > 0 ? pageParam : 1
+  // A page number beyond use is refused with a message rather than sent to the database as an offset.
+  const page = pageParam(new URL(request.url).searchParams)
   const [messages, total] = await Promise.all([listOutbox(db(), { limit: PAGE, offset: (page - 1) * PAGE }), countOutbox(db())])
   return { messages, total, page, pages: Math.max(1, Math.ceil(total / PAGE)) }
 }

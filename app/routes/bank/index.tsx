@@ -1,11 +1,11 @@
-import { Form, Link, useNavigation, useSearchParams } from 'react-router'
+import { data, Form, Link, useNavigation, useSearchParams } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { DIFFICULTIES, LEVELS } from '#app/domain/authoring/definition.ts'
 import { CYCLE_IDS, cycleLabel, difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
 import { requireBankUser } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { BankQuerySchema, bankViewerFor, listBankProblems } from '#app/server/problems.server.ts'
+import { bankViewerFor, listBankProblems, readBankSearch, type BankRow } from '#app/server/problems.server.ts'
 import type { Route } from './+types/index'
 
 export const meta: Route.MetaFunction = () => [{ title: 'Problem bank · Cyclewright' }]
@@ -13,11 +13,19 @@ export const meta: Route.MetaFunction = () => [{ title: 'Problem bank · Cyclewr
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireBankUser(request)
   const url = new URL(request.url)
-  const query = BankQuerySchema.parse(Object.fromEntries(url.searchParams))
+  const read = readBankSearch(url.searchParams)
+  if (!read.ok) {
+    // A page number beyond use has no field to mark: the error page says what to change.
+    if (read.problem.param === 'page') throw data(read.problem.message, { status: 400 })
+    // A search that cannot be run: the box keeps the words, marked, and no list is shown.
+    const refused = { rows: [] as BankRow[], total: 0, page: 1, pageSize: read.query.pageSize, query: read.query, imported: 0, searchError: read.problem.message }
+    return data(refused, { status: 400 })
+  }
+  const { query } = read
   const viewer = await bankViewerFor(db(), user)
   const result = await listBankProblems(db(), viewer, query)
   const imported = Number(url.searchParams.get('imported') ?? '0')
-  return { ...result, query, imported: Number.isInteger(imported) && imported > 0 ? imported : 0 }
+  return { ...result, query, imported: Number.isInteger(imported) && imported > 0 ? imported : 0, searchError: null as string | null }
 }
 
 type SortKey = 'updated' | 'title' | 'cycle' | 'difficulty'
@@ -40,7 +48,7 @@ function SortHeader({ label, sortKey, current, dir }: { label: string; sortKey: 
 }
 
 export default function BankRoute({ loaderData }: Route.ComponentProps) {
-  const { rows, total, page, pageSize, query, imported } = loaderData
+  const { rows, total, page, pageSize, query, imported, searchError } = loaderData
   const [params] = useSearchParams()
   const busy = useNavigation().state === 'loading'
   const pages = Math.max(1, Math.ceil(total / pageSize))
@@ -83,7 +91,21 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
           <label htmlFor="bank-q" className="text-sm font-medium">
             Search
           </label>
-          <input id="bank-q" name="q" type="search" defaultValue={query.q ?? ''} placeholder="Title, topic or cycle" className="rounded-md border border-line px-3 py-2" />
+          <input
+            id="bank-q"
+            name="q"
+            type="search"
+            defaultValue={query.q ?? ''}
+            placeholder="Title, topic or cycle"
+            aria-invalid={searchError ? true : undefined}
+            aria-describedby={searchError ? 'bank-q-error' : undefined}
+            className={`rounded-md border px-3 py-2 ${searchError ? 'border-danger' : 'border-line'}`}
+          />
+          {searchError ? (
+            <p id="bank-q-error" className="text-sm text-danger">
+              {searchError}
+            </p>
+          ) : null}
         </div>
         <FilterSelect id="bank-cycle" name="cycle" label="Cycle" value={query.cycle ?? ''} options={CYCLE_IDS.map((c) => [c, cycleLabel(c)])} />
         <FilterSelect id="bank-difficulty" name="difficulty" label="Difficulty" value={query.difficulty ?? ''} options={DIFFICULTIES.map((d) => [d, difficultyLabel[d]])} />
@@ -112,10 +134,10 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
       </Form>
 
       <p className="mt-4 text-sm text-muted" aria-live="polite">
-        {busy ? 'Loading…' : `${total} problem${total === 1 ? '' : 's'}${filtered ? ' match' : ''}`}
+        {busy ? 'Loading…' : searchError ? 'The search was not run: see the message under the search box.' : `${total} problem${total === 1 ? '' : 's'}${filtered ? ' match' : ''}`}
       </p>
 
-      {rows.length === 0 ? (
+      {searchError ? null : rows.length === 0 ? (
         <div className="mt-4 rounded-lg border border-dashed border-line bg-white p-8 text-center">
           {filtered ? (
             <p className="text-muted">Nothing matches these filters. Try fewer words, or clear the filters.</p>

@@ -10,7 +10,7 @@ import { requireIdParam } from '#app/lib/params.ts'
 import { useLiveGradebook } from '#app/lib/use-live-gradebook.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { getCourseGradebook, readGradebookView } from '#app/server/gradebook.server.ts'
+import { getCourseGradebook, gradebookViewProblem, readGradebookView } from '#app/server/gradebook.server.ts'
 import type { Route } from './+types/gradebook'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Gradebook: ${data.course.code} · Cyclewright` : 'Gradebook · Cyclewright' }]
@@ -19,7 +19,10 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Gradeboo
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const { course } = await requireCourseRole(request, courseId, ['instructor', 'ta'])
-  const gradebook = await getCourseGradebook(db(), courseId, readGradebookView(new URL(request.url)))
+  const url = new URL(request.url)
+  const odd = gradebookViewProblem(url)
+  if (odd) throw data(odd.message, { status: 400 })
+  const gradebook = await getCourseGradebook(db(), courseId, readGradebookView(url))
   if (!gradebook) throw data('There is no such course.', { status: 404 })
   return { course, gradebook }
 }

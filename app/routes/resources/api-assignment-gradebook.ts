@@ -1,7 +1,7 @@
 import { apiIdParam, jsonError } from '#app/server/api-guard.server.ts'
 import { requireApiAssignmentStaff } from '#app/server/course-api-guard.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { getAssignmentGradebook, readGradebookView } from '#app/server/gradebook.server.ts'
+import { getAssignmentGradebook, gradebookViewProblem, readGradebookView } from '#app/server/gradebook.server.ts'
 import type { Route } from './+types/api-assignment-gradebook'
 
 /**
@@ -11,7 +11,10 @@ import type { Route } from './+types/api-assignment-gradebook'
 export async function loader({ request, params }: Route.LoaderArgs) {
   const assignmentId = apiIdParam(params.assignmentId, 'assignment')
   const { courseId } = await requireApiAssignmentStaff(request, db(), assignmentId)
-  const gradebook = await getAssignmentGradebook(db(), { assignmentId, courseId, view: readGradebookView(new URL(request.url)) })
+  const url = new URL(request.url)
+  const odd = gradebookViewProblem(url)
+  if (odd) return jsonError(400, odd.message)
+  const gradebook = await getAssignmentGradebook(db(), { assignmentId, courseId, view: readGradebookView(url) })
   if (!gradebook) return jsonError(404, 'There is no such assignment.')
   return Response.json(gradebook, { headers: { 'Cache-Control': 'no-store' } })
 }

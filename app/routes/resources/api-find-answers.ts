@@ -1,3 +1,4 @@
+import { textParamProblem } from '#app/lib/query-params.ts'
 import { apiIdParam, jsonError } from '#app/server/api-guard.server.ts'
 import { requireApiAssignmentStaff } from '#app/server/course-api-guard.server.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -9,7 +10,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const assignmentId = apiIdParam(params.assignmentId, 'assignment')
   const position = apiIdParam(params.position, 'problem')
   const { courseId } = await requireApiAssignmentStaff(request, db(), assignmentId)
-  const findName = new URL(request.url).searchParams.get('find')?.slice(0, 100) ?? undefined
+  const search = new URL(request.url).searchParams
+  const odd = textParamProblem(search, { find: 'the question' })
+  if (odd) return jsonError(400, odd.message)
+  const findName = search.get('find')?.slice(0, 100) ?? undefined
   const answers = await getFindAnswers(db(), { assignmentId, position, findName, courseId })
   if (!answers) return jsonError(404, 'This assignment has no problem at that position.')
   if (!answers.find) return jsonError(404, `Problem ${position} has no question named “${findName}”.`)

@@ -5,6 +5,7 @@ import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { formatPoints } from '#app/components/gradebook-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
+import { textParamProblem } from '#app/lib/query-params.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { getFindAnswers, type FindAnswer } from '#app/server/gradebook.server.ts'
@@ -17,7 +18,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const position = requireIdParam(params.position, 'problem')
   const { course } = await requireCourseRole(request, courseId, ['instructor', 'ta'])
-  const findName = new URL(request.url).searchParams.get('find')?.slice(0, 100) ?? undefined
+  const search = new URL(request.url).searchParams
+  const odd = textParamProblem(search, { find: 'the question' })
+  if (odd) throw data(odd.message, { status: 400 })
+  const findName = search.get('find')?.slice(0, 100) ?? undefined
   const answers = await getFindAnswers(db(), { assignmentId, position, findName, courseId })
   if (!answers) throw data('This assignment has no problem at that position.', { status: 404 })
   return { course, answers }

@@ -14,13 +14,15 @@ import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { forbidden, requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { MAX_ATTACHMENT_BYTES } from '#app/lib/dispute-limits.ts'
+import { DISPUTE_REASON_MAX, DISPUTE_REASON_MIN, MAX_ATTACHMENT_BYTES } from '#app/lib/dispute-limits.ts'
+import { textParamProblem } from '#app/lib/query-params.ts'
+import { textField, withoutNul } from '#app/lib/text-field.ts'
 import { disputeAllowance, raiseDispute } from '#app/server/disputes.server.ts'
 import { getStudentProblem } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/dispute'
 
-export const REASON_MIN = 10
-export const REASON_MAX = 2000
+export const REASON_MIN = DISPUTE_REASON_MIN
+export const REASON_MAX = DISPUTE_REASON_MAX
 const MAX_MB = MAX_ATTACHMENT_BYTES / 1024 / 1024
 /** Room for the reason, the other fields and the multipart framing around the file. */
 export const MAX_DISPUTE_BODY_BYTES = MAX_ATTACHMENT_BYTES + 64 * 1024
@@ -47,7 +49,10 @@ function problemPath(ref: { courseId: number; assignmentId: number; position: nu
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { ref } = await guard(request, params)
-  const findName = new URL(request.url).searchParams.get('find') ?? ''
+  const search = new URL(request.url).searchParams
+  const odd = textParamProblem(search, { find: 'the question' })
+  if (odd) throw data(odd.message, { status: 400 })
+  const findName = search.get('find') ?? ''
   if (!FIND_NAME.test(findName)) throw data(NOT_FOUND, { status: 404 })
   const problem = await getStudentProblem(db(), ref)
   const find = problem?.results.finds.find((f) => f.name === findName)
@@ -65,8 +70,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 const DisputeFormSchema = z.object({
   find: z.string().regex(FIND_NAME, 'Choose the question to dispute from the problem page.'),
-  reason: z
-    .string()
+  reason: textField('the reason')
     .trim()
     .min(REASON_MIN, `Say in at least ${REASON_MIN} characters why you think the verdict is wrong.`)
     .max(REASON_MAX, `Keep the reason to at most ${REASON_MAX} characters.`),
@@ -120,10 +124,10 @@ export async function action({ request, params }: Route.ActionArgs) {
       if (issue.path[0] === 'reason') fieldErrors.reason ??= issue.message
       else fieldErrors.findName ??= issue.message
     }
-    return refuse(400, { reason: typedReason, fieldErrors, formError: fieldErrors.findName ?? null, fileNotKept })
+    return refuse(400, { reason: withoutNul(typedReason), fieldErrors, formError: fieldErrors.findName ?? null, fileNotKept })
   }
   if (file && file.size > MAX_ATTACHMENT_BYTES) {
-    return refuse(413, { reason: typedReason, fieldErrors: { file: `The file must be at most ${MAX_MB} MB; “${file.name}” is larger.` }, fileNotKept })
+    return refuse(413, { reason: withoutNul(typedReason), fieldErrors: { file: `The file must be at most ${MAX_MB} MB; “${file.name}” is larger.` }, fileNotKept })
   }
 
   const result = await raiseDispute(db(), {
@@ -134,7 +138,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   })
   if (result.ok) return redirect(`${problemPath(ref)}?disputed=${encodeURIComponent(parsed.data.find)}`)
   return refuse(400, {
-    reason: typedReason,
+    reason: withoutNul(typedReason),
     formError: result.formError ?? result.fieldErrors.findName ?? null,
     fieldErrors: result.fieldErrors,
     fileNotKept,
@@ -184,7 +188,7 @@ async function reasonIn(body: Uint8Array<ArrayBuffer>, type: string): Promise<st
   try {
     const form = await new Response(body, { headers: { 'Content-Type': type } }).formData()
     const reason = form.get('reason')
-    return typeof reason === 'string' ? reason.slice(0, REASON_MAX) : ''
+    return typeof reason === 'string' ? withoutNul(reason).slice(0, REASON_MAX) : ''
   } catch {
     return ''
   }

@@ -6,6 +6,7 @@ import { Notice } from '#app/components/ui/notice.tsx'
 import { formatInZone, toLocalDateTimeValue } from '#app/lib/dates.ts'
 import { type FieldErrors, parseForm, readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
+import { echoValues, textField } from '#app/lib/text-field.ts'
 import { ExtensionFormSchema, listExtensions, orErrorPage, removeExtension, setExtension } from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -15,13 +16,19 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Extensio
 
 const RemoveSchema = z.object({ userId: z.string().regex(/^\d{1,9}$/).transform(Number) })
 
+/** The server's extension rules, with the reason refused when it holds control characters (a NUL cannot be stored). */
+const ExtensionPageSchema = ExtensionFormSchema.extend({
+  reason: textField('the reason').trim().max(500, 'Keep the reason under 500 characters.'),
+})
+
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { course } = await requireCourseRole(request, courseId, ['instructor', 'ta'])
   const list = await orErrorPage(listExtensions(db(), { courseId, assignmentId }))
   const url = new URL(request.url)
-  return { course, ...list, chosen: url.searchParams.get('student') ?? '', done: url.searchParams.get('done') }
+  const student = url.searchParams.get('student') ?? ''
+  return { course, ...list, chosen: /^\d{1,9}$/.test(student) ? student : '', done: url.searchParams.get('done') }
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -36,11 +43,11 @@ export async function action({ request, params }: Route.ActionArgs) {
     await orErrorPage(removeExtension(db(), { courseId, assignmentId, actorId: user.id, userId: parsed.data.userId }))
     return redirect(`${here}?done=removed`)
   }
-  const form = parseForm(formData, ExtensionFormSchema)
-  if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
+  const form = parseForm(formData, ExtensionPageSchema)
+  if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: echoValues(form.values) }, { status: 400 })
   const result = await orErrorPage(setExtension(db(), { courseId, assignmentId, actorId: user.id, input: form.value }))
   if (!result.ok) {
-    const typed = Object.fromEntries(['userId', 'dueAt', 'extraAttempts', 'reason'].map((k) => [k, String(formData.get(k) ?? '')]))
+    const typed = echoValues(Object.fromEntries(['userId', 'dueAt', 'extraAttempts', 'reason'].map((k) => [k, String(formData.get(k) ?? '')])))
     return data({ fieldErrors: result.fieldErrors, values: typed }, { status: 400 })
   }
   return redirect(`${here}?done=saved`)

@@ -10,7 +10,7 @@ import { requireIdParam } from '#app/lib/params.ts'
 import { useLiveGradebook } from '#app/lib/use-live-gradebook.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { getAssignmentGradebook, readGradebookView } from '#app/server/gradebook.server.ts'
+import { getAssignmentGradebook, gradebookViewProblem, readGradebookView } from '#app/server/gradebook.server.ts'
 import type { Route } from './+types/gradebook'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Gradebook: ${data.gradebook.assignment.title} · Cyclewright` : 'Gradebook · Cyclewright' }]
@@ -20,7 +20,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { course } = await requireCourseRole(request, courseId, ['instructor', 'ta'])
-  const gradebook = await getAssignmentGradebook(db(), { assignmentId, courseId, view: readGradebookView(new URL(request.url)) })
+  const url = new URL(request.url)
+  const odd = gradebookViewProblem(url)
+  if (odd) throw data(odd.message, { status: 400 })
+  const gradebook = await getAssignmentGradebook(db(), { assignmentId, courseId, view: readGradebookView(url) })
   if (!gradebook) throw data('There is no such assignment in this course.', { status: 404 })
   return { course, gradebook }
 }

@@ -11,7 +11,9 @@ import { Notice } from '#app/components/ui/notice.tsx'
 import { KeyValue } from '#app/components/variant-preview.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
 import { type FieldErrors, parseForm, readFormData } from '#app/lib/form.ts'
+import { DISPUTE_COMMENT_MAX } from '#app/lib/dispute-limits.ts'
 import { requireIdParam } from '#app/lib/params.ts'
+import { echoValues, textField } from '#app/lib/text-field.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { getDisputeDetail, resolveDispute, type DisputeDetail } from '#app/server/disputes.server.ts'
@@ -20,14 +22,14 @@ import type { Route } from './+types/$disputeId'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Dispute: ${data.dispute.findLabel}, ${data.dispute.assignmentTitle} · Cyclewright` : 'Dispute · Cyclewright' }]
 
-const MAX_COMMENT = 4000
+const MAX_COMMENT = DISPUTE_COMMENT_MAX
 
 const ResolveSchema = z
   .object({
     intent: z.literal('resolve', { error: 'Use the Resolve dispute button.' }),
     decision: z.enum(['reject', 'adjust', 'accept-for-variant'], { error: 'Choose what to do with this dispute.' }),
-    newScore: z.string().trim().max(30, 'Enter the new score as a number, e.g. 1.5.').default(''),
-    comment: z.string().trim().max(MAX_COMMENT, `Keep the comment under ${MAX_COMMENT} characters.`).default(''),
+    newScore: textField('the new score').trim().max(30, 'Enter the new score as a number, e.g. 1.5.').default(''),
+    comment: textField('the comment').trim().max(MAX_COMMENT, `Keep the comment to at most ${MAX_COMMENT.toLocaleString('en')} characters.`).default(''),
   })
   .superRefine((v, ctx) => {
     if (v.decision !== 'adjust') return
@@ -70,7 +72,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const { courseId, disputeId, actor } = await guard(request, params, ['instructor', 'ta'])
   const parsed = parseForm(await readFormData(request), ResolveSchema)
-  if (!parsed.ok) return data({ fieldErrors: parsed.fieldErrors, formError: parsed.formError ?? 'Check the fields marked below.', values: parsed.values }, { status: 400 })
+  if (!parsed.ok) return data({ fieldErrors: parsed.fieldErrors, formError: parsed.formError ?? 'Check the fields marked below.', values: echoValues(parsed.values) }, { status: 400 })
   const v = parsed.value
   const result = await resolveDispute(db(), {
     courseId,
