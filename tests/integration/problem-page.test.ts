@@ -332,7 +332,7 @@ describe('one press, one submission (form tokens)', () => {
     // press is held uncommitted while problem 1's is sent; problem 1's insert waits on it and,
     // once it commits, is told instead of failing.
     const fresh = (await loader(args(getRequest(path(1), { Cookie: cookie }), params(1)))).formToken!
-    const client = await (db().$client as pg.Pool).connect()
+    const client = await ((db() as unknown as { $client: pg.Pool }).$client).connect()
     try {
       await client.query('begin')
       await client.query(`insert into submissions (assignment_id, item_id, user_id, answers, form_token) values ($1, $2, $3, '{}'::jsonb, $4)`, [
