@@ -16,6 +16,7 @@ export default [
     route('disputes/:disputeId', 'routes/courses/disputes/$disputeId.tsx'),
     route('disputes/:disputeId/attachment', 'routes/resources/dispute-attachment.ts'),
     route('audit', 'routes/courses/audit.tsx'),
+    route('settings', 'routes/courses/settings.tsx'),
     ...prefix('assignments', [
       route('new', 'routes/courses/assignments/new.tsx'),
       route(':assignmentId', 'routes/courses/assignments/$assignmentId.tsx'),
@@ -51,6 +52,9 @@ export default [
   ]),
   ...prefix('admin', [
     index('routes/admin/index.tsx'),
+    route('terms', 'routes/admin/terms.tsx'),
+    route('courses/new', 'routes/admin/courses/new.tsx'),
+    route('courses/:courseId', 'routes/admin/courses/$courseId.tsx'),
     route('outbox', 'routes/admin/outbox.tsx'),
     route('outbox/:messageId', 'routes/admin/outbox-message.tsx'),
     route('exports', 'routes/admin/exports.tsx'),

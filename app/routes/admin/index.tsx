@@ -21,8 +21,14 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
       <p className="mt-2 text-muted">
         Every course on this installation. <Link to="/admin/exports">Export a term’s grades</Link> as one CSV file.
       </p>
+      <p className="mt-4 flex flex-wrap gap-x-6 gap-y-2">
+        <Link to="/admin/courses/new">New course</Link>
+        <Link to="/admin/terms">Terms</Link>
+      </p>
       {courses.length === 0 ? (
-        <p className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">No courses yet.</p>
+        <p className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+          No courses yet — <Link to="/admin/courses/new">create the first</Link>.
+        </p>
       ) : (
         <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">
@@ -32,6 +38,7 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
                 <th scope="col" className="px-4 py-2">Course</th>
                 <th scope="col" className="px-4 py-2">Term</th>
                 <th scope="col" className="px-4 py-2">Convention</th>
+                <th scope="col" className="px-4 py-2">Time zone</th>
                 <th scope="col" className="px-4 py-2 text-right">Students</th>
                 <th scope="col" className="px-4 py-2 text-right">Staff</th>
               </tr>
@@ -39,11 +46,14 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
             <tbody>
               {courses.map((c) => (
                 <tr key={c.id} className="border-t border-line">
-                  <td className="px-4 py-2">
-                    {c.code} {c.title}
-                  </td>
+                  <th scope="row" className="px-4 py-2 font-normal">
+                    <Link to={`/admin/courses/${c.id}`}>
+                      {c.code} {c.title}
+                    </Link>
+                  </th>
                   <td className="px-4 py-2">{c.termName}</td>
-                  <td className="px-4 py-2 font-mono">{conventionText[c.signConvention].equation}</td>
+                  <td className="px-4 py-2 font-mono whitespace-nowrap">{conventionText[c.signConvention].equation}</td>
+                  <td className="px-4 py-2">{c.timeZone}</td>
                   <td className="px-4 py-2 text-right tabular-nums">{c.students}</td>
                   <td className="px-4 py-2 text-right tabular-nums">{c.staff}</td>
                 </tr>
@@ -52,7 +62,10 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
           </table>
         </div>
       )}
-      <ul className="mt-6 flex gap-6" aria-label="Department tools">
+      <ul className="mt-6 flex flex-wrap gap-x-6 gap-y-2" aria-label="Department tools">
+        <li>
+          <Link to="/admin/terms">Terms</Link>
+        </li>
         <li>
           <Link to="/admin/exports">Grade exports</Link>
         </li>
