@@ -4,7 +4,7 @@
  * the problem page; bodies without a stated length, or stated too large, are refused before
  * they are read (the reason kept, nothing written); a text file named .png is refused by its
  * content; staff may not raise disputes; the file goes to its owner and the staff only, with
- * its detected type and a locked-down policy.
+ * its detected type and a locked-down policy: an image inline, a PDF only ever as a download.
  */
 import { deflateSync } from 'node:zlib'
 import { count, eq } from 'drizzle-orm'
@@ -13,6 +13,7 @@ import { disputeOutcome } from '#app/components/answer-form.tsx'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { action, loader, MAX_DISPUTE_BODY_BYTES, type DisputeActionData } from '#app/routes/courses/assignments/dispute.tsx'
 import { loader as problemLoader, action as problemAction } from '#app/routes/courses/assignments/problem.tsx'
+import { loader as disputeDetailLoader } from '#app/routes/courses/disputes/$disputeId.tsx'
 import { contentDisposition, loader as attachmentLoader } from '#app/routes/resources/dispute-attachment.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { attachments, disputes } from '#app/server/db/schema.server.ts'
@@ -311,7 +312,7 @@ describe('GET /courses/:c/disputes/:d/attachment', () => {
       expect(res.status).toBe(200)
       expect(res.headers.get('Content-Type')).toBe('image/png')
       expect(res.headers.get('X-Content-Type-Options')).toBe('nosniff')
-      expect(res.headers.get('Content-Security-Policy')).toBe("default-src 'none'; img-src 'self'; object-src 'self'; sandbox")
+      expect(res.headers.get('Content-Security-Policy')).toBe("default-src 'none'; img-src 'self'; sandbox")
       expect(res.headers.get('Cache-Control')).toBe('private, no-store')
       const disposition = res.headers.get('Content-Disposition')!
       expect(disposition).toMatch(/^inline; filename="[\x20-\x7e]+\.png"; filename\*=UTF-8''\S+\.png$/)
@@ -323,6 +324,34 @@ describe('GET /courses/:c/disputes/:d/attachment', () => {
     expect('thrown' in other && statusOf(other.thrown)).toBe(404)
     const missing = await settle(attachmentLoader(args(getRequest(path, { Cookie: s.cookie }), { ...params, disputeId: String(row!.id + 1000) })))
     expect('thrown' in missing && statusOf(missing.thrown)).toBe(404)
+  })
+
+  test('a PDF, even one carrying JavaScript, is only ever sent as a download, for the owner and the staff alike', async () => {
+    const s = await setUp()
+    // A PDF whose document-open action runs a script: what a viewer inside the page might run.
+    const pdf = new TextEncoder().encode(
+      '%PDF-1.4\n1 0 obj << /Type /Catalog /Pages 2 0 R /OpenAction 3 0 R >> endobj\n2 0 obj << /Type /Pages /Kids [] /Count 0 >> endobj\n' +
+        "3 0 obj << /S /JavaScript /JS (app.alert\\('from the PDF'\\)) >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n",
+    )
+    const res0 = (await action(args(await upload(s, disputeForm({ file: new File([pdf], 'working.pdf', { type: 'application/pdf' }) })), s.params))) as Response
+    expect(res0.status).toBe(302)
+    const [row] = await db().select().from(disputes).where(eq(disputes.userId, s.student.id))
+    const path = `/courses/${s.course.id}/disputes/${row!.id}/attachment`
+    const params = { courseId: String(s.course.id), disputeId: String(row!.id) }
+    for (const cookie of [s.cookie, s.staffCookie, s.taCookie]) {
+      const res = (await attachmentLoader(args(getRequest(path, { Cookie: cookie }), params))) as Response
+      expect(res.status).toBe(200)
+      expect(res.headers.get('Content-Type')).toBe('application/pdf')
+      expect(res.headers.get('Content-Disposition')).toBe(`attachment; filename="working.pdf"; filename*=UTF-8''working.pdf`)
+      expect(res.headers.get('X-Content-Type-Options')).toBe('nosniff')
+      expect(res.headers.get('Content-Security-Policy')).toBe("default-src 'none'; img-src 'self'; sandbox")
+      expect(new Uint8Array(await res.arrayBuffer())).toEqual(pdf)
+    }
+    // The student's own dispute page knows it is a PDF and its size, to offer it as a download.
+    const mine = await disputeDetailLoader(args(getRequest(`/courses/${s.course.id}/disputes/${row!.id}`, { Cookie: s.cookie }), params))
+    expect(mine.mine?.attachment).toEqual({ fileName: 'working.pdf', contentType: 'application/pdf', size: pdf.byteLength })
+    const staff = await disputeDetailLoader(args(getRequest(`/courses/${s.course.id}/disputes/${row!.id}`, { Cookie: s.taCookie }), params))
+    expect(staff.staff?.attachment).toMatchObject({ fileName: 'working.pdf', contentType: 'application/pdf', size: pdf.byteLength })
   })
 
   test('a dispute without a file has no attachment to serve', async () => {
@@ -337,11 +366,12 @@ describe('GET /courses/:c/disputes/:d/attachment', () => {
 
 describe('contentDisposition', () => {
   test('keeps an ASCII name for old clients and the original in UTF-8, always ending in the detected type', () => {
-    expect(contentDisposition('working.pdf', 'application/pdf')).toBe(`inline; filename="working.pdf"; filename*=UTF-8''working.pdf`)
+    expect(contentDisposition('working.pdf', 'application/pdf')).toBe(`attachment; filename="working.pdf"; filename*=UTF-8''working.pdf`)
+    expect(contentDisposition('working.png', 'image/png')).toBe(`inline; filename="working.png"; filename*=UTF-8''working.png`)
     expect(contentDisposition('Résumé "final";.png', 'image/png')).toBe(`inline; filename="Resume _final_.png"; filename*=UTF-8''R%C3%A9sum%C3%A9%20%22final%22%3B.png`)
     expect(contentDisposition('photo.JPEG', 'image/jpeg')).toMatch(/filename="photo\.JPEG"/)
     expect(contentDisposition('notes.txt', 'image/png')).toMatch(/filename="notes\.txt\.png"/)
-    expect(contentDisposition('計算.pdf', 'application/pdf')).toMatch(/^inline; filename="attachment\.pdf"; filename\*=UTF-8''%E8%A8%88%E7%AE%97\.pdf$/)
+    expect(contentDisposition('計算.pdf', 'application/pdf')).toMatch(/^attachment; filename="attachment\.pdf"; filename\*=UTF-8''%E8%A8%88%E7%AE%97\.pdf$/)
   })
 })
 

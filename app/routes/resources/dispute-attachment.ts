@@ -1,8 +1,10 @@
 /**
  * GET /courses/:courseId/disputes/:disputeId/attachment: the file a student sent with a
- * dispute, for that student and the course's staff. Shown inline (the dispute page embeds it),
- * so the response is locked down: the type is the one detected from the bytes, never sniffed,
- * and a sandboxing policy keeps a PDF from running scripts.
+ * dispute, for that student and the course's staff. The type is the one detected from the
+ * bytes, never sniffed. Images are shown inline (the dispute page embeds them) under a
+ * sandboxing policy. PDFs are always sent as downloads: a PDF can carry JavaScript, and a
+ * browser's built-in PDF viewer may run it whatever the page's policy says, so a PDF is never
+ * opened inside this site.
  */
 import { data } from 'react-router'
 import { requireIdParam } from '#app/lib/params.ts'
@@ -13,7 +15,18 @@ import type { Route } from './+types/dispute-attachment'
 
 const EXTENSION: Record<AttachmentType, string> = { 'application/pdf': '.pdf', 'image/png': '.png', 'image/jpeg': '.jpg' }
 
-/** An ASCII name for old clients and the UTF-8 original for the rest (RFC 6266 / RFC 5987), both ending in the detected type's extension. */
+/** How each type is sent: PDFs as downloads, images for showing in the page. */
+export function dispositionFor(type: AttachmentType): 'attachment' | 'inline' {
+  return type === 'application/pdf' ? 'attachment' : 'inline'
+}
+
+/** The policy for every attachment: nothing may load but the image itself, and the document is sandboxed (no scripts, no forms, no plugins). */
+export const ATTACHMENT_CSP = "default-src 'none'; img-src 'self'; sandbox"
+
+/**
+ * An ASCII name for old clients and the UTF-8 original for the rest (RFC 6266 / RFC 5987),
+ * both ending in the detected type's extension; `attachment` for a PDF, `inline` for an image.
+ */
 export function contentDisposition(fileName: string, type: AttachmentType): string {
   const ext = EXTENSION[type]
   const known = type === 'image/jpeg' ? /\.jpe?g$/i : new RegExp(`\\${ext}$`, 'i')
@@ -27,7 +40,7 @@ export function contentDisposition(fileName: string, type: AttachmentType): stri
   // A name of nothing but replaced characters says nothing; give it a plain one.
   const safe = /[A-Za-z0-9]/.test(ascii.slice(0, ascii.length - ext.length)) ? ascii : `attachment${ext}`
   const encoded = encodeURIComponent(full).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`)
-  return `inline; filename="${safe}"; filename*=UTF-8''${encoded}`
+  return `${dispositionFor(type)}; filename="${safe}"; filename*=UTF-8''${encoded}`
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -43,7 +56,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       'Content-Length': String(file.data.byteLength),
       'Content-Disposition': contentDisposition(file.fileName, file.contentType),
       'X-Content-Type-Options': 'nosniff',
-      'Content-Security-Policy': "default-src 'none'; img-src 'self'; object-src 'self'; sandbox",
+      'Content-Security-Policy': ATTACHMENT_CSP,
       'Cache-Control': 'private, no-store',
     },
   })

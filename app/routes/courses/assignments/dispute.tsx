@@ -370,7 +370,7 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
                 className={cn('rounded-md border px-3 py-2', shownFileError ? 'border-danger' : 'border-line')}
               />
               <p id="dispute-file-hint" className="text-sm text-muted">
-                PDF, PNG or JPEG, at most {MAX_MB} MB.
+                PDF, PNG or JPEG, at most {MAX_MB} MB. A PDF is offered to the staff as a download and is never opened inside this site, so nothing inside it runs here.
               </p>
               {shownFileError ? (
                 <p id="dispute-file-error" className="text-sm text-danger">

@@ -61,7 +61,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       mine: {
         answer: { text: detail.answer.text, attempt: detail.answer.attempt, verdict: detail.answer.verdict, score: detail.answer.score, maxScore: detail.answer.maxScore },
         findScore: detail.findScore,
-        attachment: detail.attachment ? { fileName: detail.attachment.fileName } : null,
+        attachment: detail.attachment ? { fileName: detail.attachment.fileName, contentType: detail.attachment.contentType, size: detail.attachment.size } : null,
       },
     }
   }
@@ -189,16 +189,9 @@ export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
             <dt className="font-medium">Your score for this find now</dt>
             <dd>{pointsText(mine.findScore, find.share)}</dd>
             <dt className="font-medium">Your file</dt>
-            <dd>
-              {mine.attachment ? (
-                <a href={`/courses/${courseId}/disputes/${d.id}/attachment`} download={mine.attachment.fileName}>
-                  {mine.attachment.fileName}
-                </a>
-              ) : (
-                'None sent'
-              )}
-            </dd>
+            <dd>{mine.attachment ? null : 'None sent'}</dd>
           </dl>
+          {mine.attachment ? <AttachmentView href={`/courses/${courseId}/disputes/${d.id}/attachment`} file={mine.attachment} alt={`Your worked solution, sent as ${mine.attachment.fileName}`} /> : null}
           <p className="mt-3">
             <Link to={problemHref}>Back to the problem</Link>
           </p>
@@ -300,20 +293,7 @@ function StaffView({
 
       <Section id="file" title="The student’s file">
         {detail.attachment ? (
-          <>
-            <p className="text-sm text-muted">
-              {detail.attachment.fileName} · {detail.attachment.contentType === 'application/pdf' ? 'PDF' : detail.attachment.contentType === 'image/png' ? 'PNG image' : 'JPEG image'} ·{' '}
-              {sizeText(detail.attachment.size)} ·{' '}
-              <a href={attachmentHref} download={detail.attachment.fileName}>
-                Download the file
-              </a>
-            </p>
-            {detail.attachment.contentType === 'application/pdf' ? (
-              <iframe src={attachmentHref} title={`The student’s worked solution: ${detail.attachment.fileName} (PDF)`} className="mt-3 h-[40rem] w-full rounded border border-line" />
-            ) : (
-              <img src={attachmentHref} alt={`The student’s worked solution, uploaded as ${detail.attachment.fileName}`} className="mt-3 max-h-[48rem] max-w-full rounded border border-line" />
-            )}
-          </>
+          <AttachmentView href={attachmentHref} file={detail.attachment} alt={`The student’s worked solution, uploaded as ${detail.attachment.fileName}`} />
         ) : (
           <p className="text-muted">The student uploaded no file with this dispute.</p>
         )}
@@ -400,6 +380,48 @@ function StaffView({
         )}
       </Section>
     </>
+  )
+}
+
+type AttachmentInfo = { fileName: string; contentType: string; size: number }
+
+const TYPE_WORDS: Record<string, string> = { 'application/pdf': 'PDF', 'image/png': 'PNG image', 'image/jpeg': 'JPEG image' }
+
+/** Why a PDF is a download: told plainly wherever one is offered. */
+export const PDF_DOWNLOAD_NOTE = 'PDF files are downloaded, not opened here, so nothing inside them runs in this site. Open it with a PDF reader you trust.'
+
+/**
+ * A dispute's file. A PDF is offered as a download only (the server sends it as one): a PDF
+ * can carry scripts that a browser's viewer may run, so it is never opened inside the page.
+ * An image is shown, with its name as the text alternative.
+ */
+function AttachmentView({ href, file, alt }: { href: string; file: AttachmentInfo; alt: string }) {
+  const kind = TYPE_WORDS[file.contentType] ?? 'File'
+  if (file.contentType === 'application/pdf') {
+    return (
+      <div className="mt-2">
+        <p>
+          <a href={href} download={file.fileName}>
+            Download {file.fileName}
+          </a>{' '}
+          <span className="text-sm text-muted">
+            ({kind}, {sizeText(file.size)})
+          </span>
+        </p>
+        <p className="mt-1 text-sm text-muted">{PDF_DOWNLOAD_NOTE}</p>
+      </div>
+    )
+  }
+  return (
+    <div className="mt-2">
+      <p className="text-sm text-muted">
+        {file.fileName} · {kind} · {sizeText(file.size)} ·{' '}
+        <a href={href} download={file.fileName}>
+          Download the file
+        </a>
+      </p>
+      <img src={href} alt={alt} className="mt-3 max-h-[48rem] max-w-full rounded border border-line" />
+    </div>
   )
 }
 
