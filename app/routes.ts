@@ -12,6 +12,7 @@ export default [
     route('people', 'routes/courses/people.tsx'),
     route('gradebook', 'routes/courses/gradebook.tsx'),
     route('gradebook.csv', 'routes/resources/course-gradebook-csv.ts'),
+    route('gradebook.xlsx', 'routes/resources/course-gradebook-xlsx.ts'),
     route('disputes', 'routes/courses/disputes/index.tsx'),
     route('disputes/:disputeId', 'routes/courses/disputes/$disputeId.tsx'),
     route('disputes/:disputeId/attachment', 'routes/resources/dispute-attachment.ts'),

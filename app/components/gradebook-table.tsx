@@ -4,9 +4,12 @@
  * data from its /api/ route while answers are being graded.
  */
 import { Form, Link } from 'react-router'
+import { formatInZone } from '#app/lib/dates.ts'
+import { formatPoints } from '#app/lib/points.ts'
 import type {
   AssignmentGradebook,
   CourseGradebook,
+  DroppedStudent,
   GradebookSort,
   GradebookStatusFilter,
   GradebookView,
@@ -27,11 +30,6 @@ const filterLabels: Record<GradebookStatusFilter, string> = {
   finished: 'Finished',
   'being-graded': 'Being graded',
   late: 'Late',
-}
-
-/** Points without binary noise: 2.857143 → "2.86", 7 → "7". */
-export function formatPoints(x: number): string {
-  return String(Math.round(x * 100) / 100)
 }
 
 /** The view as search params, leaving out defaults so links stay short. */
@@ -124,12 +122,40 @@ function StatusCell({ status, late, pending }: { status: StudentStatus; late: bo
   )
 }
 
-function StudentCell({ name, email }: { name: string; email: string }) {
+/** "Adams, Ada" (family name first, as the rows are sorted), or the display name alone. */
+export function sortedName(s: { familyName: string; givenName: string }): string {
+  return s.givenName ? `${s.familyName}, ${s.givenName}` : s.familyName
+}
+
+function StudentCell({ student }: { student: { familyName: string; givenName: string; email: string; studentNumber: string | null } }) {
   return (
     <th scope="row" className="px-3 py-2 text-left font-normal">
-      <span className="font-medium">{name}</span>
-      <span className="block text-xs text-muted">{email}</span>
+      <span className="font-medium">{sortedName(student)}</span>
+      <span className="block text-xs text-muted">
+        {student.studentNumber ? <>ID {student.studentNumber} · </> : null}
+        {student.email}
+      </span>
     </th>
+  )
+}
+
+/** Dropped students, apart from the table and from every total: collapsed until opened. */
+export function DroppedStudents({ dropped, timeZone }: { dropped: readonly DroppedStudent[]; timeZone: string }) {
+  if (dropped.length === 0) return null
+  return (
+    <details className="mt-6 rounded-lg border border-line bg-white px-3 py-2 text-sm">
+      <summary className="cursor-pointer font-medium">
+        Dropped students ({dropped.length}) — not in any total or export
+      </summary>
+      <ul className="mt-2 space-y-1">
+        {dropped.map((d) => (
+          <li key={d.userId}>
+            {sortedName(d)} <span className="text-muted">· {d.studentNumber ? `ID ${d.studentNumber} · ` : ''}{d.email}
+            {d.section ? ` · section ${d.section}` : ''} · dropped {formatInZone(d.droppedAt, timeZone)}</span>
+          </li>
+        ))}
+      </ul>
+    </details>
   )
 }
 
@@ -196,14 +222,16 @@ export function AssignmentGradebookTable({ data, basePath }: { data: AssignmentG
         <tbody>
           {data.students.map((s) => (
             <tr key={s.userId} className="border-t border-line align-top">
-              <StudentCell name={s.name} email={s.email} />
+              <StudentCell student={s} />
               <td className="px-3 py-2">{s.section ?? '—'}</td>
               {s.items.map((item) =>
                 expanded ? (
                   item.finds.map((f) => (
                     <td key={`${item.position}-${f.name}`} className="px-3 py-2 whitespace-nowrap tabular-nums">
                       {f.attempts === 0 ? (
-                        <span className="text-muted">—</span>
+                        <>
+                          0<span className="block text-xs text-muted">not answered</span>
+                        </>
                       ) : (
                         <>
                           {formatPoints(f.score)}
@@ -252,7 +280,7 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
     <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
       <table className="w-full text-left text-sm">
         <caption className="px-3 py-2 text-left text-sm text-muted">
-          {data.students.length} of {data.studentCount} students · scores out of each assignment’s points
+          {data.students.length} of {data.studentCount} students · scores out of each assignment’s points; “—” marks an assignment not counted yet
         </caption>
         <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
           <tr>
@@ -268,6 +296,7 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
                   {a.title}
                 </Link>
                 <span className="block font-normal normal-case">/ {formatPoints(a.points)}</span>
+                {a.counted ? null : <span className="block font-normal normal-case">{a.stage === 'not-open' ? 'not open yet' : 'not due yet'}: not counted</span>}
               </th>
             ))}
             <SortHeader view={view} sort="total">
@@ -281,11 +310,17 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
         <tbody>
           {data.students.map((s) => (
             <tr key={s.userId} className="border-t border-line align-top">
-              <StudentCell name={s.name} email={s.email} />
+              <StudentCell student={s} />
               <td className="px-3 py-2">{s.section ?? '—'}</td>
               {s.assignments.map((c) => (
                 <td key={c.assignmentId} className="px-3 py-2 whitespace-nowrap tabular-nums">
-                  {c.status === 'not-started' ? <span className="text-muted">—</span> : formatPoints(c.score)}
+                  {c.counted ? (
+                    formatPoints(c.score)
+                  ) : (
+                    <span className="text-muted" title="Not counted: not due yet">
+                      —<span className="sr-only">not counted</span>
+                    </span>
+                  )}
                   {c.late ? <span className="ml-1 text-xs font-semibold text-warn">late</span> : null}
                   {c.pending > 0 ? <span className="block text-xs text-muted">grading…</span> : null}
                 </td>

@@ -1,27 +1,40 @@
 /**
- * Grade exports as CSV, written by csv-stringify (never hand-quoted).
+ * Grade exports: CSV written by csv-stringify (never hand-quoted) and XLSX written by exceljs.
  *
- * Course gradebook (GET /courses/:courseId/gradebook.csv), streamed as rows are produced:
- *   one header row, then a row per student of the course, sorted by name and e-mail:
- *   Student, E-mail, Section, one column per assignment (by due date), Total, Percent,
- *   Answers being graded. An assignment's header names its points, "Rankine 1 [20 pts]", and
- *   Total's header the course's points, so the file keeps a single header row: spreadsheets
- *   sort and filter it without a second row getting in the way. Scores are points to 0.01
- *   with late penalties already taken off; Percent is to 0.1 and empty when nothing is worth
- *   points. "Answers being graded" > 0 means the row may still change.
+ * What is counted: a course total is the sum of the student's scores on the assignments whose
+ * due date has passed when the file is made (countingRule in gradebook.server.ts). The other
+ * assignments keep their column, marked "not counted" in its header, with empty cells; a
+ * counted assignment a student never answered is 0. Dropped students are in no file.
+ * The files are written from getCourseGradebook, the same data the gradebook page shows, so
+ * the page, the CSV and the XLSX carry the same figures. Points go through roundPoints
+ * (app/lib/points.ts): numbers stay numbers, to 0.01, late penalties already taken off.
  *
- * Term export (department admins, built by the 'export-grades' job into grade_exports):
- *   the courses of one term have different assignments, so the file is long, not wide: one
- *   row per (course, student, assignment) and then one 'course total' row per (course,
- *   student). Columns: Course code, Course title, Student, E-mail, Section, Row, Assignment,
- *   Due, Time zone, Score, Max, Percent, Late, Answers being graded. Due is the assignment's
- *   due date as wall-clock time in the course's zone (named in the next column); Late is
- *   "yes" when any counted answer came after the student's due date.
+ * Course gradebook (GET /courses/:courseId/gradebook.csv and .xlsx): one header row, then a
+ * row per current student in order of family name, then given name:
+ *   Student ID, Family name, Given name, E-mail, Section, one column per assignment (by due
+ *   date) headed with its possible points, "Week 3 — Otto cycle (4.29)" (and "— not counted,
+ *   due …" while not due), "Total (N)" with the counted points, "Answers being graded"
+ *   (> 0: the row may still change). The XLSX has the same columns on its "Grades" sheet with
+ *   the header row frozen, and the rule in words on a "Notes" sheet.
+ *
+ * Term export (department admins, built by the 'export-grades' job into grade_exports): the
+ * courses of one term have different assignments, so its tables are long, not wide, and a
+ * grade system imports one table per file, so the assignment rows and the course totals are
+ * two CSV files, downloaded apart (?file=assignments, ?file=course-totals):
+ *   assignments: Course code, Course title, Student ID, Family name, Given name, E-mail,
+ *     Section, Assignment, Due, Time zone, Counted, Score, Possible, Late, Answers being graded
+ *   course totals: Course code, Course title, Student ID, Family name, Given name, E-mail,
+ *     Section, Total, Possible, Assignments counted, Assignments, Counted as of, Time zone,
+ *     Late, Answers being graded
+ * Due and Counted as of are wall-clock times in the course's zone (named beside them); Late is
+ * "yes" when any counted answer came after the student's due date. The two files are kept in
+ * grade_exports.csv as one JSON document ({ format, files }); an export made before the split
+ * holds a single CSV there and is still served as it was.
  *
  * Every text cell goes through neutraliseCell (OWASP's CSV injection guidance), names,
- * e-mails, titles and headers alike; numbers are written as numbers (scores are never
- * negative). Both files start with a UTF-8 byte order mark so spreadsheet programs read
- * accented names correctly.
+ * e-mails, titles and headers alike, in the CSV and the XLSX; numbers are written as numbers
+ * (scores are never negative). CSV files start with a UTF-8 byte order mark so spreadsheet
+ * programs read accented names correctly.
  */
 import { Readable, pipeline } from 'node:stream'
 import { TZDate } from '@date-fns/tz'
@@ -29,9 +42,11 @@ import { stringify, type Options as StringifyOptions } from 'csv-stringify'
 import { stringify as stringifySync } from 'csv-stringify/sync'
 import { format } from 'date-fns'
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm'
+import ExcelJS from 'exceljs'
+import { roundPoints, formatPoints } from '#app/lib/points.ts'
 import type { Db, Tx } from './db/client.server.ts'
-import { assignmentItems, assignments, courses, departments, gradeExports, memberships, terms, users } from './db/schema.server.ts'
-import { listAssignmentTotals } from './grading.server.ts'
+import { courses, departments, gradeExports, terms, users } from './db/schema.server.ts'
+import { DEFAULT_GRADEBOOK_VIEW, getCourseGradebook, type CourseGradebook } from './gradebook.server.ts'
 import { enqueue, PermanentJobError, withJobTransaction } from './queue.server.ts'
 
 type Database = Db | Tx
@@ -56,8 +71,6 @@ export const CSV_OPTIONS: StringifyOptions = {
   cast: { string: (value) => neutraliseCell(value), boolean: (value) => (value ? 'yes' : '') },
 }
 
-const points = (x: number) => Math.round(x * 100) / 100
-const percent = (score: number, max: number) => (max > 0 ? Math.round((score / max) * 1000) / 10 : '')
 
 /** Lower-case ASCII words joined by '-', for file names ("Fall 2026" → "fall-2026"). */
 export function fileSlug(text: string, fallback = 'export'): string {
@@ -72,79 +85,50 @@ export function fileSlug(text: string, fallback = 'export'): string {
   return slug || fallback
 }
 
-/** "th-101-grades-2026-12-02.csv", dated in the course's zone. */
-export function courseCsvFileName(courseCode: string, timeZone: string, now = new Date()): string {
-  return `${fileSlug(courseCode, 'course')}-grades-${format(new TZDate(now.getTime(), timeZone), 'yyyy-MM-dd')}.csv`
+/** "th-101-grades-2026-12-02.csv" (or .xlsx), dated in the course's zone. */
+export function courseCsvFileName(courseCode: string, timeZone: string, now = new Date(), extension: 'csv' | 'xlsx' = 'csv'): string {
+  return `${fileSlug(courseCode, 'course')}-grades-${format(new TZDate(now.getTime(), timeZone), 'yyyy-MM-dd')}.${extension}`
 }
 
-async function listCourseAssignments(database: Database, courseIds: number[]) {
-  if (courseIds.length === 0) return []
-  return database
-    .select({
-      id: assignments.id,
-      courseId: assignments.courseId,
-      title: assignments.title,
-      dueAt: assignments.dueAt,
-      maxScore: sql<number>`coalesce(sum(${assignmentItems.points}), 0)::float8`,
-    })
-    .from(assignments)
-    .leftJoin(assignmentItems, eq(assignmentItems.assignmentId, assignments.id))
-    .where(inArray(assignments.courseId, courseIds))
-    .groupBy(assignments.id)
-    .orderBy(asc(assignments.dueAt), asc(assignments.id))
+/** A moment as wall-clock time in a zone, "2026-11-20 17:59", for files. */
+function wallClock(at: Date | string, timeZone: string): string {
+  return format(new TZDate(new Date(at).getTime(), timeZone), 'yyyy-MM-dd HH:mm')
 }
 
-// Sorted here rather than in SQL so the order does not depend on the database's collation.
-const byName = new Intl.Collator('en', { sensitivity: 'base', numeric: true })
+type Cell = string | number | boolean | null
 
-async function listCourseStudents(database: Database, courseId: number) {
-  const rows = await database
-    .select({ userId: users.id, name: users.name, email: users.email, section: memberships.section })
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
-    .where(and(eq(memberships.courseId, courseId), eq(memberships.role, 'student')))
-  return rows.sort((a, b) => byName.compare(a.name, b.name) || byName.compare(a.email, b.email) || a.userId - b.userId)
-}
-
-type CourseGrades = {
-  assignments: Awaited<ReturnType<typeof listCourseAssignments>>
-  students: Awaited<ReturnType<typeof listCourseStudents>>
-  /** `${assignmentId}:${userId}` → the student's total on the assignment */
-  totals: Map<string, { score: number; pending: number; late: boolean }>
-}
-
-async function loadCourseGrades(database: Database, courseId: number): Promise<CourseGrades> {
-  const [assignmentRows, students, totalRows] = await Promise.all([
-    listCourseAssignments(database, [courseId]),
-    listCourseStudents(database, courseId),
-    listAssignmentTotals(database, { courseIds: [courseId] }),
-  ])
-  const totals = new Map(totalRows.map((t) => [`${t.assignmentId}:${t.userId}`, { score: t.score, pending: t.pending, late: t.late }]))
-  return { assignments: assignmentRows, students, totals }
-}
-
-function* courseRecords(grades: CourseGrades): Generator<(string | number)[]> {
-  const coursePoints = grades.assignments.reduce((sum, a) => sum + a.maxScore, 0)
-  yield [
-    'Student',
+/** One header row and a row per current student: the course gradebook as a single table. */
+export function courseGradeTable(gradebook: CourseGradebook): { header: string[]; rows: Cell[][] } {
+  const zone = gradebook.course.timeZone
+  const header = [
+    'Student ID',
+    'Family name',
+    'Given name',
     'E-mail',
     'Section',
-    ...grades.assignments.map((a) => `${a.title} [${points(a.maxScore)} pts]`),
-    `Total [${points(coursePoints)} pts]`,
-    'Percent',
+    ...gradebook.assignments.map((a) =>
+      a.counted ? `${a.title} (${formatPoints(a.points)})` : `${a.title} (${formatPoints(a.points)}) — not counted, due ${wallClock(a.dueAt, zone)} ${zone}`,
+    ),
+    `Total (${formatPoints(gradebook.points)})`,
     'Answers being graded',
   ]
-  for (const s of grades.students) {
-    let total = 0
-    let pending = 0
-    const cells = grades.assignments.map((a) => {
-      const t = grades.totals.get(`${a.id}:${s.userId}`)
-      total += t?.score ?? 0
-      pending += t?.pending ?? 0
-      return points(t?.score ?? 0)
-    })
-    yield [s.name, s.email, s.section ?? '', ...cells, points(total), percent(total, coursePoints), pending]
-  }
+  const rows = gradebook.students.map((s): Cell[] => [
+    s.studentNumber ?? '',
+    s.familyName,
+    s.givenName,
+    s.email,
+    s.section ?? '',
+    ...s.assignments.map((c) => (c.counted ? roundPoints(c.score) : null)),
+    roundPoints(s.total),
+    s.pending,
+  ])
+  return { header, rows }
+}
+
+async function loadCourseGradebook(database: Database, courseId: number, now: Date): Promise<CourseGradebook> {
+  const gradebook = await getCourseGradebook(database, courseId, DEFAULT_GRADEBOOK_VIEW, { now })
+  if (!gradebook) throw new ExportRequestError('There is no such course.')
+  return gradebook
 }
 
 /**
@@ -152,15 +136,47 @@ function* courseRecords(grades: CourseGrades): Generator<(string | number)[]> {
  * The data is read before this resolves, so a database error surfaces before any byte is
  * sent; rows are then stringified one at a time as the client reads them.
  */
-export async function courseGradeCsv(database: Database, courseId: number): Promise<ReadableStream<Uint8Array>> {
-  const grades = await loadCourseGrades(database, courseId)
+export async function courseGradeCsv(database: Database, courseId: number, options: { now?: Date } = {}): Promise<ReadableStream<Uint8Array>> {
+  const { header, rows } = courseGradeTable(await loadCourseGradebook(database, courseId, options.now ?? new Date()))
+  function* records() {
+    yield header
+    for (const row of rows) yield row.map((c) => c ?? '')
+  }
   const stringifier = stringify(CSV_OPTIONS)
-  pipeline(Readable.from(courseRecords(grades)), stringifier, (error) => {
+  pipeline(Readable.from(records()), stringifier, (error) => {
     // A client that stops reading (closed tab, cancelled download) is not an error worth logging.
     const code = (error as { code?: string } | null)?.code
     if (error && error.name !== 'AbortError' && code !== 'ERR_STREAM_PREMATURE_CLOSE') console.error('Course CSV stream stopped:', error.message)
   })
   return Readable.toWeb(stringifier) as unknown as ReadableStream<Uint8Array>
+}
+
+export const XLSX_CONTENT_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
+
+/**
+ * The course gradebook as an XLSX workbook: a "Grades" sheet with the CSV's columns (numbers
+ * as numbers, text neutralised like the CSV, the header row frozen) and a "Notes" sheet with
+ * the counting rule in words.
+ */
+export async function courseGradeXlsx(database: Database, courseId: number, options: { now?: Date } = {}): Promise<Buffer> {
+  const gradebook = await loadCourseGradebook(database, courseId, options.now ?? new Date())
+  const { header, rows } = courseGradeTable(gradebook)
+  const text = (c: Cell) => (typeof c === 'string' ? neutraliseCell(c) : typeof c === 'boolean' ? (c ? 'yes' : '') : c)
+  const workbook = new ExcelJS.Workbook()
+  workbook.creator = 'Cyclewright'
+  workbook.created = new Date(gradebook.asOf)
+  const sheet = workbook.addWorksheet('Grades', { views: [{ state: 'frozen', xSplit: 0, ySplit: 1 }] })
+  sheet.addRow(header.map(text))
+  sheet.getRow(1).font = { bold: true }
+  for (const row of rows) sheet.addRow(row.map(text))
+  sheet.columns.forEach((column, i) => {
+    column.width = Math.min(40, Math.max(10, (header[i] ?? '').length + 2))
+  })
+  const notes = workbook.addWorksheet('Notes')
+  notes.addRow([neutraliseCell(gradebook.rule)])
+  notes.addRow([`Scores are points to 0.01, with late penalties taken off. Empty cells: assignments not counted yet. "Answers being graded" above 0: the row may still change.`])
+  notes.getColumn(1).width = 120
+  return Buffer.from(await workbook.xlsx.writeBuffer())
 }
 
 // ---- Term export for department admins ----------------------------------------------------
@@ -187,7 +203,7 @@ export async function listExportableTerms(database: Database, adminUserId: numbe
     .orderBy(desc(terms.startsOn), asc(departments.name), asc(terms.name))
 }
 
-/** The latest exports one admin asked for, newest first (no CSV text). */
+/** The latest exports one admin asked for, newest first (no file text). */
 export async function listExportsForAdmin(database: Database, adminUserId: number, limit = 30) {
   return database
     .select({
@@ -200,6 +216,8 @@ export async function listExportsForAdmin(database: Database, adminUserId: numbe
       error: gradeExports.error,
       createdAt: gradeExports.createdAt,
       finishedAt: gradeExports.finishedAt,
+      // An export made before the split holds one CSV rather than the JSON of two files.
+      legacy: sql<boolean>`coalesce(left(${gradeExports.csv}, 1) <> '{', false)`,
     })
     .from(gradeExports)
     .innerJoin(terms, eq(terms.id, gradeExports.termId))
@@ -209,10 +227,19 @@ export async function listExportsForAdmin(database: Database, adminUserId: numbe
     .limit(limit)
 }
 
-/** What /admin/exports shows: the terms to choose from and the admin's own exports. */
+/** The download links of one export: two files, or the single file of an export made before the split. */
+function exportFiles(e: { id: number; fileName: string; legacy: boolean }) {
+  if (e.legacy) return [{ label: 'Download the CSV', name: termExportFileName(e.fileName, null), href: `/admin/exports/${e.id}` }]
+  return [
+    { label: 'Course totals', name: termExportFileName(e.fileName, 'course-totals'), href: `/admin/exports/${e.id}?file=course-totals` },
+    { label: 'Assignment rows', name: termExportFileName(e.fileName, 'assignments'), href: `/admin/exports/${e.id}?file=assignments` },
+  ]
+}
+
+/** What /admin/exports shows: the terms to choose from and the admin's own exports with their files. */
 export async function adminExportsPage(database: Database, adminUserId: number) {
   const [termOptions, exports] = await Promise.all([listExportableTerms(database, adminUserId), listExportsForAdmin(database, adminUserId)])
-  return { terms: termOptions, exports }
+  return { terms: termOptions, exports: exports.map(({ legacy, ...e }) => ({ ...e, files: exportFiles({ ...e, legacy }) })) }
 }
 
 /**
@@ -238,29 +265,55 @@ export async function requestTermExport(database: Db, input: { adminUser: { id: 
     if (open) return { exportId: open.id, created: false }
     const [row] = await tx
       .insert(gradeExports)
-      .values({ requestedBy: input.adminUser.id, termId: term.id, status: 'queued', fileName: `grades-${fileSlug(term.name, 'term')}-${day}.csv` })
+      .values({ requestedBy: input.adminUser.id, termId: term.id, status: 'queued', fileName: `grades-${fileSlug(term.name, 'term')}-${day}` })
       .returning({ id: gradeExports.id })
     await enqueue('export-grades', { v: 1, exportId: row!.id }, { connection: jobs })
     return { exportId: row!.id, created: true }
   })
 }
 
-export const TERM_EXPORT_HEADER = [
-  'Course code',
-  'Course title',
-  'Student',
-  'E-mail',
-  'Section',
-  'Row',
-  'Assignment',
-  'Due',
+const WHO_HEADER = ['Course code', 'Course title', 'Student ID', 'Family name', 'Given name', 'E-mail', 'Section'] as const
+
+/** The term export's assignment rows: one per (course, student, assignment). */
+export const TERM_ASSIGNMENTS_HEADER = [...WHO_HEADER, 'Assignment', 'Due', 'Time zone', 'Counted', 'Score', 'Possible', 'Late', 'Answers being graded'] as const
+
+/** The term export's course totals: one per (course, student). */
+export const TERM_TOTALS_HEADER = [
+  ...WHO_HEADER,
+  'Total',
+  'Possible',
+  'Assignments counted',
+  'Assignments',
+  'Counted as of',
   'Time zone',
-  'Score',
-  'Max',
-  'Percent',
   'Late',
   'Answers being graded',
 ] as const
+
+export const TERM_EXPORT_FILES = ['assignments', 'course-totals'] as const
+export type TermExportFile = (typeof TERM_EXPORT_FILES)[number]
+
+const STORED_FORMAT = 'term-export/2'
+type StoredTermExport = { format: typeof STORED_FORMAT; files: Record<TermExportFile, string> }
+
+/** What grade_exports.csv holds: the two files of a term export, or one CSV of an older export. */
+export function readStoredExport(text: string): { files: Record<TermExportFile, string> } | { legacy: string } {
+  if (text.startsWith('{')) {
+    try {
+      const parsed = JSON.parse(text) as Partial<StoredTermExport>
+      if (parsed.format === STORED_FORMAT && typeof parsed.files?.assignments === 'string' && typeof parsed.files['course-totals'] === 'string') return { files: parsed.files }
+    } catch {
+      // not ours: served as the text it is
+    }
+  }
+  return { legacy: text }
+}
+
+/** "grades-fall-2026-2026-12-02-course-totals.csv" from the stored base name. */
+export function termExportFileName(stored: string, file: TermExportFile | null): string {
+  const base = fileSlug(stored.replace(/\.csv$/, ''), 'grades')
+  return file === null ? `${base}.csv` : `${base}-${file}.csv`
+}
 
 export type BuildOutcome = 'done' | 'already-done' | 'missing'
 
@@ -290,31 +343,33 @@ export async function buildTermExport(database: Db, exportId: number, options: {
       .where(and(eq(courses.termId, row.termId), scope.departmentId === null ? undefined : eq(courses.departmentId, scope.departmentId)))
       .orderBy(asc(courses.code), asc(courses.id))
 
-    const records: (string | number | boolean)[][] = [[...TERM_EXPORT_HEADER]]
+    const now = new Date()
+    const assignmentRecords: Cell[][] = [[...TERM_ASSIGNMENTS_HEADER]]
+    const totalRecords: Cell[][] = [[...TERM_TOTALS_HEADER]]
     for (const course of courseRows) {
-      const grades = await loadCourseGrades(database, course.id)
-      const coursePoints = grades.assignments.reduce((sum, a) => sum + a.maxScore, 0)
-      const who = (s: CourseGrades['students'][number]) => [course.code, course.title, s.name, s.email, s.section ?? '']
-      for (const s of grades.students) {
-        let total = 0
-        let pending = 0
-        let late = false
-        for (const a of grades.assignments) {
-          const t = grades.totals.get(`${a.id}:${s.userId}`) ?? { score: 0, pending: 0, late: false }
-          total += t.score
-          pending += t.pending
-          late ||= t.late
-          const due = format(new TZDate(a.dueAt.getTime(), course.timeZone), 'yyyy-MM-dd HH:mm')
-          records.push([...who(s), 'assignment', a.title, due, course.timeZone, points(t.score), points(a.maxScore), percent(t.score, a.maxScore), t.late, t.pending])
-        }
-        records.push([...who(s), 'course total', '', '', course.timeZone, points(total), points(coursePoints), percent(total, coursePoints), late, pending])
+      const gradebook = await loadCourseGradebook(database, course.id, now)
+      const zone = course.timeZone
+      const counted = gradebook.assignments.filter((a) => a.counted).length
+      for (const s of gradebook.students) {
+        const who: Cell[] = [course.code, course.title, s.studentNumber ?? '', s.familyName, s.givenName, s.email, s.section ?? '']
+        gradebook.assignments.forEach((a, i) => {
+          const c = s.assignments[i]!
+          assignmentRecords.push([...who, a.title, wallClock(a.dueAt, zone), zone, a.counted, a.counted ? roundPoints(c.score) : '', roundPoints(a.points), c.late, c.pending])
+        })
+        totalRecords.push([...who, roundPoints(s.total), roundPoints(gradebook.points), counted, gradebook.assignments.length, wallClock(now, zone), zone, s.late, s.pending])
       }
-      await database.update(gradeExports).set({ rows: records.length - 1 }).where(eq(gradeExports.id, exportId))
+      await database
+        .update(gradeExports)
+        .set({ rows: assignmentRecords.length + totalRecords.length - 2 })
+        .where(eq(gradeExports.id, exportId))
     }
-    const csv = stringifySync(records, CSV_OPTIONS)
+    const stored: StoredTermExport = {
+      format: STORED_FORMAT,
+      files: { assignments: stringifySync(assignmentRecords, CSV_OPTIONS), 'course-totals': stringifySync(totalRecords, CSV_OPTIONS) },
+    }
     await database
       .update(gradeExports)
-      .set({ status: 'done', csv, rows: records.length - 1, error: null, finishedAt: sql`clock_timestamp()` })
+      .set({ status: 'done', csv: JSON.stringify(stored), rows: assignmentRecords.length + totalRecords.length - 2, error: null, finishedAt: sql`clock_timestamp()` })
       .where(eq(gradeExports.id, exportId))
     return 'done'
   } catch (e) {
@@ -333,13 +388,20 @@ export async function buildTermExport(database: Db, exportId: number, options: {
   }
 }
 
-/** A finished export's file, for any department admin; null while it is not done. */
-export async function getExportDownload(database: Database, exportId: number) {
+/**
+ * One file of a finished export, for any department admin; null while it is not done or when
+ * it has no such file. `file` null: an older export's single CSV (or, for a two-file export,
+ * its assignment rows).
+ */
+export async function getExportDownload(database: Database, exportId: number, file: TermExportFile | null = null) {
   const [row] = await database
     .select({ fileName: gradeExports.fileName, csv: gradeExports.csv })
     .from(gradeExports)
     .where(and(eq(gradeExports.id, exportId), eq(gradeExports.status, 'done')))
     .limit(1)
   if (!row || row.csv === null) return null
-  return { fileName: row.fileName, csv: row.csv }
+  const stored = readStoredExport(row.csv)
+  if ('legacy' in stored) return file === null || file === 'assignments' ? { fileName: termExportFileName(row.fileName, null), csv: stored.legacy } : null
+  const chosen = file ?? 'assignments'
+  return { fileName: termExportFileName(row.fileName, chosen), csv: stored.files[chosen] }
 }

@@ -5,7 +5,13 @@
  *
  * Scores come from listFindScores / listAssignmentTotals (grading.server.ts): a find's score
  * is its best graded answer, after the late penalty. Only the course's current students are
- * listed. Dates are ISO strings, so the page's loader and the /api/ routes return the same JSON.
+ * listed: dropped students (memberships.droppedAt) are left out of every total and listed
+ * apart (`dropped`). Students are in order of family name, then given name (the display name
+ * when a student has no family name on record). Dates are ISO strings, so the page's loader
+ * and the /api/ routes return the same JSON.
+ *
+ * The course total counts only the assignments whose due date has passed (COUNTING_RULE);
+ * the course CSV and XLSX are written from this same gradebook, so they show the same figures.
  */
 import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm'
 import { z } from 'zod'
@@ -14,6 +20,8 @@ import { findShares, findState, roundScore } from '#app/domain/assignments/scori
 import { groupWrongAnswers, groupWrongAnswersByMultiple, histogram, mean, median, type HistogramBin, type WrongAnswerGroup } from '#app/domain/assignments/statistics.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
+import { formatInZone } from '#app/lib/dates.ts'
+import { formatPoints } from '#app/lib/points.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import { assignmentItems, assignments, courses, extensions, memberships, partResults, problemVersions, submissions, users } from './db/schema.server.ts'
 import { listAssignmentTotals, listFindScores, type FindScoreRow } from './grading.server.ts'
@@ -66,9 +74,22 @@ export function readGradebookView(url: URL): GradebookView {
 /** The whole gradebook, by name. */
 export const DEFAULT_GRADEBOOK_VIEW: GradebookView = { section: '', status: 'all', q: '', sort: 'name', dir: 'asc' }
 
-type ViewRow = { name: string; email: string; section: string | null; total: number; status: StudentStatus; late: boolean }
+type ViewRow = { name: string; familyName: string; givenName: string; email: string; section: string | null; total: number; status: StudentStatus; late: boolean }
 
-/** The rows the view asks for, in its order (ties by name, then e-mail). */
+// Sorted here rather than in SQL so the order does not depend on the database's collation.
+const collator = new Intl.Collator('en', { sensitivity: 'base', numeric: true })
+
+/** Family name, then given name, then the display name and e-mail (so the order is total). */
+export function compareStudents(a: Omit<StudentNames, 'studentNumber'> & { name: string; email: string }, b: Omit<StudentNames, 'studentNumber'> & { name: string; email: string }): number {
+  return (
+    collator.compare(a.familyName, b.familyName) ||
+    collator.compare(a.givenName, b.givenName) ||
+    collator.compare(a.name, b.name) ||
+    collator.compare(a.email, b.email)
+  )
+}
+
+/** The rows the view asks for, in its order (ties by family name, given name, then e-mail). */
 export function applyGradebookView<T extends ViewRow>(rows: readonly T[], view: GradebookView): T[] {
   const q = view.q.toLowerCase()
   const kept = rows.filter((r) => {
@@ -77,7 +98,7 @@ export function applyGradebookView<T extends ViewRow>(rows: readonly T[], view: 
     if (q && !r.name.toLowerCase().includes(q) && !r.email.toLowerCase().includes(q)) return false
     return true
   })
-  const byName = (a: T, b: T) => a.name.localeCompare(b.name, 'en') || a.email.localeCompare(b.email, 'en')
+  const byName = compareStudents
   const sign = view.dir === 'desc' ? -1 : 1
   return kept.sort((a, b) => {
     if (view.sort === 'total') return sign * (a.total - b.total) || byName(a, b)
@@ -128,13 +149,45 @@ async function listItems(database: Database, assignmentIds: number[]): Promise<(
   })
 }
 
+export type StudentNames = {
+  /** the student ID the department gave (users.studentNumber), or null */
+  studentNumber: string | null
+  /** users.familyName, or the display name when there is none */
+  familyName: string
+  /** users.givenName, or '' when there is none */
+  givenName: string
+}
+
+/** The names a gradebook sorts and exports by, falling back to the display name. */
+export function studentNames(u: { name: string; studentNumber: string | null; familyName: string | null; givenName: string | null }): StudentNames {
+  const family = u.familyName?.trim() ?? ''
+  return { studentNumber: u.studentNumber?.trim() || null, familyName: family || u.name, givenName: u.givenName?.trim() ?? '' }
+}
+
+export type DroppedStudent = StudentNames & { userId: number; name: string; email: string; section: string | null; droppedAt: string }
+
+/** The course's current students in gradebook order, and its dropped students apart. */
 async function listStudents(database: Database, courseId: number) {
-  return database
-    .select({ userId: users.id, name: users.name, email: users.email, section: memberships.section })
+  const rows = await database
+    .select({
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      studentNumber: users.studentNumber,
+      familyName: users.familyName,
+      givenName: users.givenName,
+      section: memberships.section,
+      droppedAt: memberships.droppedAt,
+    })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(eq(memberships.courseId, courseId), eq(memberships.role, 'student')))
-    .orderBy(asc(users.name), asc(users.email))
+  const people = rows
+    .map((r) => ({ userId: r.userId, name: r.name, email: r.email, section: r.section, droppedAt: r.droppedAt, ...studentNames(r) }))
+    .sort((a, b) => compareStudents(a, b) || a.userId - b.userId)
+  const current = people.filter((p) => p.droppedAt === null).map(({ droppedAt: _d, ...p }) => p)
+  const dropped: DroppedStudent[] = people.filter((p) => p.droppedAt !== null).map((p) => ({ ...p, droppedAt: p.droppedAt!.toISOString() }))
+  return { current, dropped }
 }
 
 function sectionsOf(students: readonly { section: string | null }[]): string[] {
@@ -187,7 +240,7 @@ async function findAssignment(database: Database, assignmentId: number, courseId
 // ---- Assignment gradebook ----------------------------------------------------------------
 
 export type GradebookFind = { name: string; score: number; max: number; attempts: number; correct: boolean; pending: number }
-export type GradebookStudent = {
+export type GradebookStudent = StudentNames & {
   userId: number
   name: string
   email: string
@@ -204,9 +257,11 @@ export type AssignmentGradebook = {
   assignment: { id: number; courseId: number; title: string; opensAt: string; dueAt: string; points: number; attemptsPerFind: number; timeZone: string }
   items: Omit<ItemFacts, 'id'>[]
   sections: string[]
-  /** students in the course, before the view's filters */
+  /** current students in the course, before the view's filters (dropped ones not included) */
   studentCount: number
   students: GradebookStudent[]
+  /** students who dropped the course: in no total, listed apart */
+  dropped: DroppedStudent[]
   /** answers still waiting for the grader, over the whole assignment (the page polls while > 0) */
   pendingCount: number
   view: GradebookView
@@ -221,7 +276,7 @@ export async function getAssignmentGradebook(
   if (!found) return null
   const { assignment, timeZone } = found
   const view = input.view ?? DEFAULT_GRADEBOOK_VIEW
-  const [items, students, scores, totals, exts] = await Promise.all([
+  const [items, { current: students, dropped }, scores, totals, exts] = await Promise.all([
     listItems(database, [assignment.id]),
     listStudents(database, assignment.courseId),
     listFindScores(database, { assignmentIds: [assignment.id] }),
@@ -276,6 +331,7 @@ export async function getAssignmentGradebook(
     sections: sectionsOf(students),
     studentCount: students.length,
     students: applyGradebookView(rows, view),
+    dropped,
     pendingCount: rows.reduce((a, r) => a + r.pending, 0),
     view,
   }
@@ -283,13 +339,51 @@ export async function getAssignmentGradebook(
 
 // ---- Course gradebook ----------------------------------------------------------------------
 
-export type CourseGradebookCell = { assignmentId: number; score: number; maxScore: number; late: boolean; pending: number; status: StudentStatus }
-export type CourseGradebookStudent = {
+/**
+ * Where an assignment stands at a moment: not open yet, open (not yet due), or due (its due
+ * date has passed). Only due assignments count toward the course total.
+ */
+export type AssignmentStage = 'not-open' | 'open' | 'due'
+
+export function assignmentStage(a: { opensAt: Date; dueAt: Date }, now: Date): AssignmentStage {
+  if (a.dueAt.getTime() <= now.getTime()) return 'due'
+  return a.opensAt.getTime() > now.getTime() ? 'not-open' : 'open'
+}
+
+/**
+ * The rule, in one sentence, as the page shows it above the table and the exports carry it:
+ * which assignments the total counts, as of when.
+ */
+export function countingRule(input: { counted: number; of: number; points: number; asOf: Date; timeZone: string }): string {
+  const when = formatInZone(input.asOf, input.timeZone)
+  const which =
+    input.of === 0
+      ? 'There are no assignments yet.'
+      : input.counted === input.of
+        ? `All ${input.of === 1 ? 'the assignment is' : `${input.of} assignments are`} past their due date and counted (${formatPoints(input.points)} points).`
+        : `${input.counted} of ${input.of} assignments are past their due date and counted (${formatPoints(input.points)} points); the others are shown but not counted (“—”).`
+  return `Totals count only assignments whose due date has passed, as of ${when}. ${which} A student who answered nothing on a counted assignment has 0 for it. Dropped students are in no total.`
+}
+
+export type CourseGradebookCell = {
+  assignmentId: number
+  /** the score so far (late penalties taken off); in the total only when `counted` */
+  score: number
+  maxScore: number
+  /** the assignment's due date has passed: this score is in the course total */
+  counted: boolean
+  late: boolean
+  pending: number
+  status: StudentStatus
+}
+export type CourseGradebookStudent = StudentNames & {
   userId: number
   name: string
   email: string
   section: string | null
+  /** the sum of the counted assignments' scores */
   total: number
+  /** the points of the counted assignments */
   maxScore: number
   late: boolean
   pending: number
@@ -298,12 +392,20 @@ export type CourseGradebookStudent = {
 }
 export type CourseGradebook = {
   course: { id: number; timeZone: string }
-  assignments: { id: number; title: string; dueAt: string; points: number }[]
-  /** the most a student can earn over all assignments */
+  assignments: { id: number; title: string; opensAt: string; dueAt: string; points: number; stage: AssignmentStage; counted: boolean }[]
+  /** the most a student can earn over the counted assignments (what the total is out of) */
   points: number
+  /** the most a student can earn over every assignment, counted or not */
+  allPoints: number
+  /** the moment the rule was applied */
+  asOf: string
+  /** COUNTING_RULE in words, for above the table and the exports */
+  rule: string
   sections: string[]
   studentCount: number
   students: CourseGradebookStudent[]
+  /** students who dropped the course: in no total and no export, listed apart */
+  dropped: DroppedStudent[]
   pendingCount: number
   view: GradebookView
 }
@@ -316,13 +418,22 @@ function courseStatus(cells: readonly CourseGradebookCell[]): StudentStatus {
   return 'in-progress'
 }
 
-/** Students × assignments with totals, or null when there is no such course. */
-export async function getCourseGradebook(database: Database, courseId: number, view: GradebookView = DEFAULT_GRADEBOOK_VIEW): Promise<CourseGradebook | null> {
+/**
+ * Students × assignments with totals, or null when there is no such course. The total of a
+ * student is the sum of their scores on the assignments due by `now` (see countingRule).
+ */
+export async function getCourseGradebook(
+  database: Database,
+  courseId: number,
+  view: GradebookView = DEFAULT_GRADEBOOK_VIEW,
+  options: { now?: Date } = {},
+): Promise<CourseGradebook | null> {
+  const now = options.now ?? new Date()
   const [course] = await database.select({ id: courses.id, timeZone: courses.timeZone }).from(courses).where(eq(courses.id, courseId)).limit(1)
   if (!course) return null
   const assignmentRows = await database.select().from(assignments).where(eq(assignments.courseId, courseId)).orderBy(asc(assignments.dueAt), asc(assignments.id))
   const ids = assignmentRows.map((a) => a.id)
-  const [items, students, scores, totals, exts] = await Promise.all([
+  const [items, { current: students, dropped }, scores, totals, exts] = await Promise.all([
     listItems(database, ids),
     listStudents(database, courseId),
     listFindScores(database, { assignmentIds: ids }),
@@ -336,7 +447,10 @@ export async function getCourseGradebook(database: Database, courseId: number, v
   const extOf = new Map(exts.map((e) => [`${e.assignmentId}|${e.userId}`, e]))
   const itemsOf = new Map<number, ItemFacts[]>(ids.map((id) => [id, items.filter((i) => i.assignmentId === id)]))
   const pointsOf = new Map(ids.map((id) => [id, roundScore((itemsOf.get(id) ?? []).reduce((a, i) => a + i.points, 0))]))
-  const coursePoints = roundScore([...pointsOf.values()].reduce((a, b) => a + b, 0))
+  const stageOf = new Map(assignmentRows.map((a) => [a.id, assignmentStage(a, now)]))
+  const countedIds = new Set(ids.filter((id) => stageOf.get(id) === 'due'))
+  const allPoints = roundScore([...pointsOf.values()].reduce((a, b) => a + b, 0))
+  const coursePoints = roundScore([...countedIds].reduce((a, id) => a + (pointsOf.get(id) ?? 0), 0))
 
   const rows: CourseGradebookStudent[] = students.map((s) => {
     const cells = assignmentRows.map((a): CourseGradebookCell => {
@@ -344,11 +458,19 @@ export async function getCourseGradebook(database: Database, courseId: number, v
       const ext = extOf.get(`${a.id}|${s.userId}`)
       const allowed = attemptsAllowed(rulesOf(a), ext ? { dueAt: ext.dueAt, extraAttempts: ext.extraAttempts } : null)
       const status = studentStatus(itemsOf.get(a.id) ?? [], byStudent.get(`${a.id}|${s.userId}`) ?? new Map(), allowed)
-      return { assignmentId: a.id, score: t?.score ?? 0, maxScore: t?.maxScore ?? pointsOf.get(a.id) ?? 0, late: t?.late ?? false, pending: t?.pending ?? 0, status }
+      return {
+        assignmentId: a.id,
+        score: roundScore(t?.score ?? 0),
+        maxScore: t?.maxScore ?? pointsOf.get(a.id) ?? 0,
+        counted: countedIds.has(a.id),
+        late: t?.late ?? false,
+        pending: t?.pending ?? 0,
+        status,
+      }
     })
     return {
       ...s,
-      total: roundScore(cells.reduce((a, c) => a + c.score, 0)),
+      total: roundScore(cells.reduce((a, c) => a + (c.counted ? c.score : 0), 0)),
       maxScore: coursePoints,
       late: cells.some((c) => c.late),
       pending: cells.reduce((a, c) => a + c.pending, 0),
@@ -358,11 +480,23 @@ export async function getCourseGradebook(database: Database, courseId: number, v
   })
   return {
     course,
-    assignments: assignmentRows.map((a) => ({ id: a.id, title: a.title, dueAt: a.dueAt.toISOString(), points: pointsOf.get(a.id) ?? 0 })),
+    assignments: assignmentRows.map((a) => ({
+      id: a.id,
+      title: a.title,
+      opensAt: a.opensAt.toISOString(),
+      dueAt: a.dueAt.toISOString(),
+      points: pointsOf.get(a.id) ?? 0,
+      stage: stageOf.get(a.id)!,
+      counted: countedIds.has(a.id),
+    })),
     points: coursePoints,
+    allPoints,
+    asOf: now.toISOString(),
+    rule: countingRule({ counted: countedIds.size, of: ids.length, points: coursePoints, asOf: now, timeZone: course.timeZone }),
     sections: sectionsOf(students),
     studentCount: students.length,
     students: applyGradebookView(rows, view),
+    dropped,
     pendingCount: rows.reduce((a, r) => a + r.pending, 0),
     view,
   }

@@ -1,17 +1,21 @@
 /**
- * Grade exports against PostgreSQL: the course CSV through its route (content, formula
- * neutralising, who may have it), the term export built by a real pg-boss worker, and a
- * queued e-mail delivered by the worker to the local fake SMTP server's outbox.
+ * Grade exports against PostgreSQL: the course CSV and XLSX through their routes (the same
+ * figures as the gradebook page, order, dropped students, assignments not yet due, formula
+ * neutralising, who may have them), the term export built by a real pg-boss worker into two
+ * files, and a queued e-mail delivered by the worker to the local fake SMTP server's outbox.
  */
 import { parse } from 'csv-parse/sync'
-import { eq } from 'drizzle-orm'
+import { and, eq } from 'drizzle-orm'
+import ExcelJS from 'exceljs'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { action as exportsAction, loader as exportsLoader } from '#app/routes/admin/exports.tsx'
+import { loader as gradebookPageLoader } from '#app/routes/courses/gradebook.tsx'
 import { loader as courseCsvLoader } from '#app/routes/resources/course-gradebook-csv.ts'
+import { loader as courseXlsxLoader } from '#app/routes/resources/course-gradebook-xlsx.ts'
 import { loader as downloadLoader } from '#app/routes/resources/grade-export-download.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { gradeExports, partResults, submissions } from '#app/server/db/schema.server.ts'
-import { buildTermExport, requestTermExport, TERM_EXPORT_HEADER } from '#app/server/exports.server.ts'
+import { gradeExports, memberships, partResults, submissions, users } from '#app/server/db/schema.server.ts'
+import { buildTermExport, readStoredExport, requestTermExport, TERM_ASSIGNMENTS_HEADER, TERM_TOTALS_HEADER, XLSX_CONTENT_TYPE } from '#app/server/exports.server.ts'
 import { findLastMailTo } from '#app/server/outbox.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { enqueue, stopBoss } from '#app/server/queue.server.ts'
@@ -55,8 +59,14 @@ async function giveScore(a: { assignmentId: number; itemId: number }, userId: nu
   })
 }
 
-/** A course with two assignments (worth 10 and 20, the later-made one due first), an instructor, a TA and the given students. */
-async function courseWithGrades(options: { departmentId?: number; termId?: number; code?: string; students: { name: string; section: string | null }[] }) {
+type StudentSpec = { name: string; section: string | null; familyName?: string; givenName?: string; studentNumber?: string; dropped?: boolean }
+
+/**
+ * A course with two assignments (worth 10 and 20, the later-made one due first, both past their
+ * due date), an instructor, a TA and the given students; with `notYetDue`, a third assignment
+ * worth 4 that is open and due in a week.
+ */
+async function courseWithGrades(options: { departmentId?: number; termId?: number; code?: string; students: StudentSpec[]; notYetDue?: boolean }) {
   const course = await createCourse(db(), { departmentId: options.departmentId, termId: options.termId, code: options.code ?? 'TH 201', title: 'Engineering Thermodynamics', timeZone: 'America/Chicago' })
   const instructor = await createUser(db(), { name: 'Ivy Instructor' })
   const ta = await createUser(db(), { name: 'Tariq Assistant' })
@@ -66,6 +76,13 @@ async function courseWithGrades(options: { departmentId?: number; termId?: numbe
   for (const s of options.students) {
     const user = await createUser(db(), { name: s.name })
     await addMember(db(), user.id, course.id, 'student', s.section)
+    if (s.familyName !== undefined || s.givenName !== undefined || s.studentNumber !== undefined) {
+      await db()
+        .update(users)
+        .set({ familyName: s.familyName ?? null, givenName: s.givenName ?? null, studentNumber: s.studentNumber ?? null })
+        .where(eq(users.id, user.id))
+    }
+    if (s.dropped) await db().update(memberships).set({ droppedAt: new Date('2026-11-10T12:00:00Z') }).where(and(eq(memberships.userId, user.id), eq(memberships.courseId, course.id)))
     students.push(user)
   }
   const problem = await createProblemWithVersion(db(), instructor.id, otto)
@@ -80,6 +97,13 @@ async function courseWithGrades(options: { departmentId?: number; termId?: numbe
     // 05:59 UTC on 1 November is 00:59 in Chicago (CDT, UTC−5).
     dueAt: new Date('2026-11-01T05:59:00Z'),
   })
+  const open = options.notYetDue
+    ? await createAssignment(db(), course.id, instructor.id, [{ ...problem, points: 4 }], {
+        title: 'Week 5 — Rankine, not due yet',
+        opensAt: new Date(Date.now() - 24 * 3600_000),
+        dueAt: new Date(Date.now() + 7 * 24 * 3600_000),
+      })
+    : null
   return {
     course,
     instructor,
@@ -87,6 +111,7 @@ async function courseWithGrades(options: { departmentId?: number; termId?: numbe
     students,
     first: { assignmentId: earlier.assignment.id, itemId: earlier.items[0]!.id },
     second: { assignmentId: later.assignment.id, itemId: later.items[0]!.id },
+    third: open ? { assignmentId: open.assignment.id, itemId: open.items[0]!.id } : null,
   }
 }
 
@@ -94,44 +119,114 @@ async function courseCsv(courseId: number, userId: number) {
   return settle(courseCsvLoader(args(getRequest(`/courses/${courseId}/gradebook.csv`, { Cookie: await cookieFor(userId) }), { courseId: String(courseId) })))
 }
 
-describe('course gradebook CSV', () => {
-  test('a header, a row per student in name order, a column per assignment by due date, totals and percent', async () => {
+async function courseXlsx(courseId: number, userId: number) {
+  return settle(courseXlsxLoader(args(getRequest(`/courses/${courseId}/gradebook.xlsx`, { Cookie: await cookieFor(userId) }), { courseId: String(courseId) })))
+}
+
+/** The rows of the workbook's Grades sheet as plain values, and the sheet itself. */
+async function readXlsx(response: Response) {
+  const workbook = new ExcelJS.Workbook()
+  await workbook.xlsx.load(await response.arrayBuffer())
+  const sheet = workbook.getWorksheet('Grades')!
+  const rows: unknown[][] = []
+  sheet.eachRow({ includeEmpty: false }, (row) => {
+    const values: unknown[] = []
+    for (let i = 1; i <= sheet.columnCount; i++) values.push(row.getCell(i).value ?? '')
+    rows.push(values)
+  })
+  return { workbook, sheet, rows }
+}
+
+describe('course gradebook CSV and XLSX', () => {
+  test('a header, a row per current student by family then given name, a column per assignment by due date with its points, totals of what is due', async () => {
     const c = await courseWithGrades({
+      notYetDue: true,
       students: [
-        { name: 'Zoë Zeller', section: 'B' },
-        { name: 'Ada Adams', section: 'A' },
-        { name: 'Nobody Yet', section: null },
+        { name: 'Ada Zeller', familyName: 'Zeller', givenName: 'Ada', studentNumber: 'S-0004', section: 'B' },
+        { name: 'Zoë Adams', familyName: 'Adams', givenName: 'Zoë', studentNumber: 'S-0002', section: 'A' },
+        { name: 'Ben Adams', familyName: 'Adams', givenName: 'Ben', studentNumber: 'S-0001', section: 'A' },
+        // No family name on record: sorted and exported by the display name.
+        { name: 'Mononym Kai', section: null },
+        { name: 'Dan Dropped', familyName: 'Aaron', givenName: 'Dan', studentNumber: 'S-0009', section: 'A', dropped: true },
       ],
     })
-    const [zoe, ada] = c.students
-    await giveScore(c.first, ada!.id, 7.5, 10)
-    await giveScore(c.first, ada!.id, 9.25, 10) // a better second answer: the best counts
-    await giveScore(c.second, ada!.id, 15, 20)
-    await giveScore(c.second, zoe!.id, 20, 20)
+    const [zeller, zoe, ben, kai, dan] = c.students
+    await giveScore(c.first, zoe!.id, 7.5, 10)
+    await giveScore(c.first, zoe!.id, 9.25, 10) // a better second answer: the best counts
+    await giveScore(c.second, zoe!.id, 15, 20)
+    await giveScore(c.second, zeller!.id, 20 / 7, 20) // 2.857142…: shown and exported as 2.86
+    await giveScore(c.third!, zeller!.id, 4, 4) // not due yet: not in the total
+    await giveScore(c.first, dan!.id, 10, 10) // dropped: in no total and no file
     // An answer still waiting for the grader: no score yet, counted as being graded.
     const [waiting] = await db()
       .insert(submissions)
-      .values({ assignmentId: c.first.assignmentId, itemId: c.first.itemId, userId: c.students[2]!.id, answers: { x: '1' } })
+      .values({ assignmentId: c.first.assignmentId, itemId: c.first.itemId, userId: kai!.id, answers: { x: '1' } })
       .returning({ id: submissions.id })
-    await db().insert(partResults).values({ submissionId: waiting!.id, ...c.first, userId: c.students[2]!.id, findName: otto.finds[0]!.name, answer: '1', attempt: 1, maxScore: 10 })
+    await db().insert(partResults).values({ submissionId: waiting!.id, ...c.first, userId: kai!.id, findName: otto.finds[0]!.name, answer: '1', attempt: 1, maxScore: 10 })
 
     const r = await courseCsv(c.course.id, c.instructor.id)
     expect('value' in r).toBe(true)
     const response = (r as { value: Response }).value
     expect(response.status).toBe(200)
     expect(response.headers.get('Content-Type')).toBe('text/csv; charset=utf-8')
+    expect(response.headers.get('Cache-Control')).toBe('no-store')
     expect(response.headers.get('Content-Disposition')).toMatch(/^attachment; filename="th-201-grades-\d{4}-\d{2}-\d{2}\.csv"$/)
     expect(response.body).toBeInstanceOf(ReadableStream)
     const bytes = new Uint8Array(await response.arrayBuffer())
     expect([...bytes.slice(0, 3)]).toEqual([0xef, 0xbb, 0xbf]) // the UTF-8 byte order mark
     const text = new TextDecoder('utf-8', { ignoreBOM: true }).decode(bytes)
     const rows = parse(text, { bom: true }) as string[][]
-    expect(rows).toEqual([
-      ['Student', 'E-mail', 'Section', 'Otto cycle, part 1 [10 pts]', 'Otto cycle, part 2 [20 pts]', 'Total [30 pts]', 'Percent', 'Answers being graded'],
-      ['Ada Adams', ada!.email, 'A', '9.25', '15', '24.25', '80.8', '0'],
-      ['Nobody Yet', c.students[2]!.email, '', '0', '0', '0', '0', '1'],
-      ['Zoë Zeller', zoe!.email, 'B', '0', '20', '20', '66.7', '0'],
+    const header = rows[0]!
+    expect(header.slice(0, 7)).toEqual(['Student ID', 'Family name', 'Given name', 'E-mail', 'Section', 'Otto cycle, part 1 (10)', 'Otto cycle, part 2 (20)'])
+    expect(header[7]).toMatch(/^Week 5 — Rankine, not due yet \(4\) — not counted, due \d{4}-\d{2}-\d{2} \d{2}:\d{2} America\/Chicago$/)
+    expect(header.slice(8)).toEqual(['Total (30)', 'Answers being graded'])
+    expect(rows.slice(1)).toEqual([
+      ['S-0001', 'Adams', 'Ben', ben!.email, 'A', '0', '0', '', '0', '0'],
+      ['S-0002', 'Adams', 'Zoë', zoe!.email, 'A', '9.25', '15', '', '24.25', '0'],
+      ['', 'Mononym Kai', '', kai!.email, '', '0', '0', '', '0', '1'],
+      ['S-0004', 'Zeller', 'Ada', zeller!.email, 'B', '0', '2.86', '', '2.86', '0'],
     ])
+    expect(text).not.toContain(dan!.email)
+
+    // The page shows the same figures, says which assignments count, and lists the dropped student apart.
+    const page = await gradebookPageLoader(args(getRequest(`/courses/${c.course.id}/gradebook`, { Cookie: await cookieFor(c.instructor.id) }), { courseId: String(c.course.id) }))
+    const g = page.gradebook
+    expect(g.rule).toMatch(/^Totals count only assignments whose due date has passed, as of .+\. 2 of 3 assignments are past their due date and counted \(30 points\); the others are shown but not counted/)
+    expect(g.assignments.map((a) => [a.title, a.counted, a.stage])).toEqual([
+      ['Otto cycle, part 1', true, 'due'],
+      ['Otto cycle, part 2', true, 'due'],
+      ['Week 5 — Rankine, not due yet', false, 'open'],
+    ])
+    expect(g.points).toBe(30)
+    expect(g.students.map((s) => s.userId)).toEqual([ben!.id, zoe!.id, kai!.id, zeller!.id])
+    expect(g.dropped.map((d) => [d.userId, d.familyName, d.givenName])).toEqual([[dan!.id, 'Aaron', 'Dan']])
+    const screen = g.students.map((s) => [s.total, ...s.assignments.map((a) => (a.counted ? a.score : null))])
+    // The screen keeps the exact score; it shows it through formatPoints, which rounds as the file does.
+    const csvFigures = rows.slice(1).map((row) => [Number(row[8]), ...row.slice(5, 8).map((x) => (x === '' ? null : Number(x)))])
+    expect(screen.map((r) => r.map((x) => (x === null ? null : Math.round(x * 100) / 100)))).toEqual(csvFigures)
+    // The not-yet-due score is kept (the assignment gradebook shows it) but not in the total.
+    expect(g.students.find((s) => s.userId === zeller!.id)!.assignments[2]).toMatchObject({ score: 4, counted: false })
+
+    // The XLSX: the same columns and figures, numbers as numbers, the header row frozen.
+    const x = await courseXlsx(c.course.id, c.instructor.id)
+    const xr = (x as { value: Response }).value
+    expect(xr.headers.get('Content-Type')).toBe(XLSX_CONTENT_TYPE)
+    expect(xr.headers.get('Cache-Control')).toBe('no-store')
+    expect(xr.headers.get('Content-Disposition')).toMatch(/^attachment; filename="th-201-grades-\d{4}-\d{2}-\d{2}\.xlsx"$/)
+    const book = await readXlsx(xr)
+    expect(book.sheet.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 })
+    expect(book.rows[0]).toEqual(header)
+    expect(book.rows.slice(1)).toEqual([
+      ['S-0001', 'Adams', 'Ben', ben!.email, 'A', 0, 0, '', 0, 0],
+      ['S-0002', 'Adams', 'Zoë', zoe!.email, 'A', 9.25, 15, '', 24.25, 0],
+      ['', 'Mononym Kai', '', kai!.email, '', 0, 0, '', 0, 1],
+      ['S-0004', 'Zeller', 'Ada', zeller!.email, 'B', 0, 2.86, '', 2.86, 0],
+    ])
+    // The rule in words on its own sheet (made a moment later than the page, so compared without the time).
+    const withoutTime = (t: string) => t.replace(/as of [^()]+\([^)]+\)\. /, 'as of … ')
+    const notes = String(book.workbook.getWorksheet('Notes')!.getCell('A1').value)
+    expect(withoutTime(notes)).toBe(withoutTime(g.rule))
+    expect(withoutTime(notes)).toContain('as of … 2 of 3 assignments')
   })
 
   test('names that start like a formula come out as text with a leading quote', async () => {
@@ -139,10 +234,22 @@ describe('course gradebook CSV', () => {
     const c = await courseWithGrades({ students: names.map((name) => ({ name, section: '=1+1' })) })
     const r = await courseCsv(c.course.id, c.ta.id)
     const rows = parse(await (r as { value: Response }).value.text(), { bom: true }) as string[][]
-    const byName = rows.slice(1).map((row) => [row[0], row[2]])
+    const byName = rows.slice(1).map((row) => [row[1], row[4]])
     const expected = names.map((n) => [n === 'Plain Name' ? n : `'${n}`, "'=1+1"])
     expect(byName.sort()).toEqual(expected.sort())
     for (const row of rows) for (const cell of row) expect(cell).not.toMatch(/^[=+\-\u2212@\t\r]/)
+
+    // The XLSX neutralises the same cells, and holds no formula at all.
+    const book = await readXlsx((await courseXlsx(c.course.id, c.ta.id) as { value: Response }).value)
+    // XML reads a carriage return back as a line feed, so '\rx' returns as '\nx' (still behind its quote).
+    const asXml = (t: string) => t.replace(/\r/g, '\n')
+    expect(book.rows.slice(1).map((row) => [row[1], row[4]]).sort()).toEqual(expected.map((pair) => pair.map(asXml)).sort())
+    book.sheet.eachRow((row) =>
+      row.eachCell((cell) => {
+        expect(cell.type).not.toBe(ExcelJS.ValueType.Formula)
+        if (typeof cell.value === 'string') expect(cell.value).not.toMatch(/^[=+\-\u2212@\t\r]/)
+      }),
+    )
   })
 
   test('only the course’s staff get it: a student and an outsider are refused', async () => {
@@ -153,6 +260,9 @@ describe('course gradebook CSV', () => {
     const signedOut = await settle(courseCsvLoader(args(getRequest(`/courses/${c.course.id}/gradebook.csv`), { courseId: String(c.course.id) })))
     expect(thrownStatus(signedOut)).toBe(302)
     expect('value' in (await courseCsv(c.course.id, c.ta.id))).toBe(true)
+    expect(thrownStatus(await courseXlsx(c.course.id, c.students[0]!.id))).toBe(403)
+    expect(thrownStatus(await courseXlsx(c.course.id, outsider.id))).toBe(403)
+    expect('value' in (await courseXlsx(c.course.id, c.ta.id))).toBe(true)
   })
 })
 
@@ -179,14 +289,26 @@ describe('through the worker', () => {
     }
   }
 
-  test('a department admin’s term export ends done with a row per (course, student, assignment) and a total row per student', async () => {
+  test('a department admin’s term export ends done with two files: a row per (course, student, assignment), and the course totals apart', async () => {
     const department = await createDepartment(db())
     const other = await createDepartment(db())
     const term = await createTerm(db(), department.id, { name: 'Fall 2026' })
-    const c = await courseWithGrades({ departmentId: department.id, termId: term.id, code: 'TH 301', students: [{ name: '@Bob', section: 'A' }, { name: 'Ann', section: null }] })
-    const [bob, ann] = c.students
+    const c = await courseWithGrades({
+      departmentId: department.id,
+      termId: term.id,
+      code: 'TH 301',
+      notYetDue: true,
+      students: [
+        { name: '@Bob', section: 'A' },
+        { name: 'Ann', section: null },
+        { name: 'Gone Student', section: 'A', dropped: true },
+      ],
+    })
+    const [bob, ann, gone] = c.students
     await giveScore(c.first, bob!.id, 5, 10, 2)
     await giveScore(c.second, bob!.id, 20, 20)
+    await giveScore(c.third!, bob!.id, 4, 4) // not due yet: listed, not counted
+    await giveScore(c.first, gone!.id, 10, 10)
     // '@Bob' sorts before 'Ann': symbols come before letters in the name order.
     // Same term, another department: not this admin's to export.
     await courseWithGrades({ departmentId: other.id, termId: term.id, code: 'XX 999', students: [{ name: 'Elsewhere', section: 'A' }] })
@@ -196,33 +318,81 @@ describe('through the worker', () => {
     expect((posted as Response).status).toBe(302)
     const [made] = await db().select().from(gradeExports).where(eq(gradeExports.requestedBy, admin.id))
     expect((posted as Response).headers.get('Location')).toBe(`/admin/exports?requested=${made!.id}`)
-    expect(made!.fileName).toMatch(/^grades-fall-2026-\d{4}-\d{2}-\d{2}\.csv$/)
+    expect(made!.fileName).toMatch(/^grades-fall-2026-\d{4}-\d{2}-\d{2}$/)
 
     const row = await waitForExport(made!.id)
-    expect(row).toMatchObject({ status: 'done', rows: 6, error: null })
-    const rows = parse(row.csv!, { bom: true }) as string[][]
-    const who = (u: { name: string; email: string }, section: string) => ['TH 301', 'Engineering Thermodynamics', u.name, u.email, section]
-    expect(rows).toEqual([
-      [...TERM_EXPORT_HEADER],
-      [...who({ ...bob!, name: "'@Bob" }, 'A'), 'assignment', 'Otto cycle, part 1', '2026-11-01 00:59', 'America/Chicago', '5', '10', '50', 'yes', '0'],
-      [...who({ ...bob!, name: "'@Bob" }, 'A'), 'assignment', 'Otto cycle, part 2', '2026-11-20 17:59', 'America/Chicago', '20', '20', '100', '', '0'],
-      [...who({ ...bob!, name: "'@Bob" }, 'A'), 'course total', '', '', 'America/Chicago', '25', '30', '83.3', 'yes', '0'],
-      [...who(ann!, ''), 'assignment', 'Otto cycle, part 1', '2026-11-01 00:59', 'America/Chicago', '0', '10', '0', '', '0'],
-      [...who(ann!, ''), 'assignment', 'Otto cycle, part 2', '2026-11-20 17:59', 'America/Chicago', '0', '20', '0', '', '0'],
-      [...who(ann!, ''), 'course total', '', '', 'America/Chicago', '0', '30', '0', '', '0'],
-    ])
+    // 2 students × 3 assignments, and 2 course totals; the dropped student is in neither file.
+    expect(row).toMatchObject({ status: 'done', rows: 8, error: null })
 
-    // The page lists it as done with a link; the download is the stored file.
+    const admins = { Cookie: await cookieFor((await createUser(db(), { isAdmin: true })).id) }
+    const download = async (query: string) =>
+      settle(downloadLoader(args(getRequest(`/admin/exports/${made!.id}${query}`, admins), { exportId: String(made!.id) })))
+    const file = async (query: string) => {
+      const r = await download(query)
+      expect('value' in r).toBe(true)
+      const response = (r as { value: Response }).value
+      expect(response.headers.get('Content-Type')).toBe('text/csv; charset=utf-8')
+      expect(response.headers.get('Cache-Control')).toBe('no-store')
+      return { response, rows: parse(await response.text(), { bom: true }) as string[][] }
+    }
+
+    const who = (u: { name: string; email: string }, section: string) => ['TH 301', 'Engineering Thermodynamics', '', u.name, '', u.email, section]
+    const quotedBob = { ...bob!, name: "'@Bob" }
+    const assignmentsFile = await file('?file=assignments')
+    expect(assignmentsFile.response.headers.get('Content-Disposition')).toBe(`attachment; filename="${made!.fileName}-assignments.csv"`)
+    const dueOpen = assignmentsFile.rows[3]![8]!
+    expect(dueOpen).toMatch(/^\d{4}-\d{2}-\d{2} \d{2}:\d{2}$/)
+    expect(assignmentsFile.rows).toEqual([
+      [...TERM_ASSIGNMENTS_HEADER],
+      [...who(quotedBob, 'A'), 'Otto cycle, part 1', '2026-11-01 00:59', 'America/Chicago', 'yes', '5', '10', 'yes', '0'],
+      [...who(quotedBob, 'A'), 'Otto cycle, part 2', '2026-11-20 17:59', 'America/Chicago', 'yes', '20', '20', '', '0'],
+      [...who(quotedBob, 'A'), 'Week 5 — Rankine, not due yet', dueOpen, 'America/Chicago', '', '', '4', '', '0'],
+      [...who(ann!, ''), 'Otto cycle, part 1', '2026-11-01 00:59', 'America/Chicago', 'yes', '0', '10', '', '0'],
+      [...who(ann!, ''), 'Otto cycle, part 2', '2026-11-20 17:59', 'America/Chicago', 'yes', '0', '20', '', '0'],
+      [...who(ann!, ''), 'Week 5 — Rankine, not due yet', dueOpen, 'America/Chicago', '', '', '4', '', '0'],
+    ])
+    // Without ?file: the assignment rows.
+    expect((await file('')).rows).toEqual(assignmentsFile.rows)
+
+    const totalsFile = await file('?file=course-totals')
+    expect(totalsFile.response.headers.get('Content-Disposition')).toBe(`attachment; filename="${made!.fileName}-course-totals.csv"`)
+    const asOf = totalsFile.rows[1]![11]!
+    expect(asOf).toMatch(/^\d{4}-\d{2}-\d{2} \d{2}:\d{2}$/)
+    expect(totalsFile.rows).toEqual([
+      [...TERM_TOTALS_HEADER],
+      [...who(quotedBob, 'A'), '25', '30', '2', '3', asOf, 'America/Chicago', 'yes', '0'],
+      [...who(ann!, ''), '0', '30', '2', '3', asOf, 'America/Chicago', '', '0'],
+    ])
+    for (const f of [assignmentsFile, totalsFile]) expect(f.rows.flat()).not.toContain(gone!.email)
+
+    // An unknown file is a 404 with the two names, not a server error.
+    expect(thrownStatus(await download('?file=everything'))).toBe(404)
+
+    // The page lists it as done with a link to each file.
     const page = await exportsLoader(args(getRequest('/admin/exports', { Cookie: await cookieFor(admin.id) })))
-    expect(page.exports).toEqual([expect.objectContaining({ id: made!.id, status: 'done', rows: 6, termName: 'Fall 2026' })])
-    const anotherAdmin = await createUser(db(), { isAdmin: true })
-    const download = (await downloadLoader(args(getRequest(`/admin/exports/${made!.id}`, { Cookie: await cookieFor(anotherAdmin.id) }), { exportId: String(made!.id) }))) as Response
-    expect(download.headers.get('Content-Type')).toBe('text/csv; charset=utf-8')
-    expect(download.headers.get('Content-Disposition')).toBe(`attachment; filename="${made!.fileName}"`)
-    expect(Buffer.from(await download.arrayBuffer()).equals(Buffer.from(row.csv!, 'utf8'))).toBe(true)
+    expect(page.exports).toEqual([expect.objectContaining({ id: made!.id, status: 'done', rows: 8, termName: 'Fall 2026' })])
+    expect(page.exports[0]!.files.map((f) => [f.name, f.href])).toEqual([
+      [`${made!.fileName}-course-totals.csv`, `/admin/exports/${made!.id}?file=course-totals`],
+      [`${made!.fileName}-assignments.csv`, `/admin/exports/${made!.id}?file=assignments`],
+    ])
 
     // Running the job again leaves a done export as it is.
     expect(await buildTermExport(db(), made!.id)).toBe('already-done')
+  })
+
+  test('an export made before the split into two files is still downloaded as its one CSV', async () => {
+    const department = await createDepartment(db())
+    const term = await createTerm(db(), department.id)
+    const admin = await createUser(db(), { isAdmin: true, departmentId: department.id })
+    const csv = '\uFEFF"Course code","Row"\r\n"TH 1","course total"\r\n'
+    const [old] = await db().insert(gradeExports).values({ requestedBy: admin.id, termId: term.id, status: 'done', rows: 1, fileName: 'grades-old-2026-11-01.csv', csv }).returning()
+    const cookie = { Cookie: await cookieFor(admin.id) }
+    const r = (await downloadLoader(args(getRequest(`/admin/exports/${old!.id}`, cookie), { exportId: String(old!.id) }))) as Response
+    expect(r.headers.get('Content-Disposition')).toBe('attachment; filename="grades-old-2026-11-01.csv"')
+    expect(Buffer.from(await r.arrayBuffer()).equals(Buffer.from(csv, 'utf8'))).toBe(true)
+    expect(thrownStatus(await settle(downloadLoader(args(getRequest(`/admin/exports/${old!.id}?file=course-totals`, cookie), { exportId: String(old!.id) }))))).toBe(404)
+    const page = await exportsLoader(args(getRequest('/admin/exports', cookie)))
+    expect(page.exports[0]!.files.map((f) => f.href)).toEqual([`/admin/exports/${old!.id}`])
   })
 
   test('an admin without a department exports every course of the term', async () => {
@@ -236,14 +406,18 @@ describe('through the worker', () => {
     expect(created).toBe(true)
     const row = await waitForExport(exportId)
     expect(row.status).toBe('done')
-    const rows = parse(row.csv!, { bom: true }) as string[][]
-    expect(rows.slice(1).map((r) => [r[0], r[2], r[5]])).toEqual([
-      ['AA 100', 'One', 'assignment'],
-      ['AA 100', 'One', 'assignment'],
-      ['AA 100', 'One', 'course total'],
-      ['BB 200', 'Two', 'assignment'],
-      ['BB 200', 'Two', 'assignment'],
-      ['BB 200', 'Two', 'course total'],
+    const files = readStoredExport(row.csv!) as { files: Record<'assignments' | 'course-totals', string> }
+    const assignmentRows = parse(files.files.assignments, { bom: true }) as string[][]
+    const totalRows = parse(files.files['course-totals'], { bom: true }) as string[][]
+    expect(assignmentRows.slice(1).map((r) => [r[0], r[3], r[7]])).toEqual([
+      ['AA 100', 'One', 'Otto cycle, part 1'],
+      ['AA 100', 'One', 'Otto cycle, part 2'],
+      ['BB 200', 'Two', 'Otto cycle, part 1'],
+      ['BB 200', 'Two', 'Otto cycle, part 2'],
+    ])
+    expect(totalRows.slice(1).map((r) => [r[0], r[3]])).toEqual([
+      ['AA 100', 'One'],
+      ['BB 200', 'Two'],
     ])
   })
 

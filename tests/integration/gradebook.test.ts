@@ -11,14 +11,14 @@
  * - S3: T2 waiting for the grader → being graded.
  * - S4: nothing → not started.
  */
-import { eq } from 'drizzle-orm'
+import { and, eq } from 'drizzle-orm'
 import { beforeAll, describe, expect, test } from 'vitest'
 import { loader as assignmentGradebookLoader } from '#app/routes/resources/api-assignment-gradebook.ts'
 import { loader as courseGradebookLoader } from '#app/routes/resources/api-course-gradebook.ts'
 import { loader as statisticsLoader } from '#app/routes/resources/api-assignment-statistics.ts'
 import { loader as answersLoader } from '#app/routes/resources/api-find-answers.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { assignmentItems, partResults, submissions, users } from '#app/server/db/schema.server.ts'
+import { assignmentItems, assignments, memberships, partResults, submissions, users } from '#app/server/db/schema.server.ts'
 import type { AssignmentGradebook, AssignmentStatistics, CourseGradebook, FindAnswers } from '#app/server/gradebook.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
@@ -203,23 +203,49 @@ describe('GET /api/courses/:id/gradebook', () => {
   const course = (query = '', cookie = world.cookies.instructor) =>
     getJson<CourseGradebook>(courseGradebookLoader, `/api/courses/${world.course.id}/gradebook${query}`, { courseId: String(world.course.id) }, cookie)
 
-  test('students × assignments in due order, with course totals out of every assignment’s points', async () => {
+  test('students × assignments in due order; while nothing is due yet, every score is kept and no total counts it', async () => {
     const { status, body } = await course()
     expect(status).toBe(200)
-    expect(body.assignments.map((a) => [a.id, a.points])).toEqual([
-      [world.assignment.id, 7],
-      [world.second.id, 10],
+    expect(body.assignments.map((a) => [a.id, a.points, a.stage, a.counted])).toEqual([
+      [world.assignment.id, 7, 'open', false],
+      [world.second.id, 10, 'open', false],
     ])
-    expect(body.points).toBe(17)
+    expect(body.allPoints).toBe(17)
+    expect(body.points).toBe(0)
+    expect(body.rule).toContain('Totals count only assignments whose due date has passed')
+    expect(body.rule).toContain('0 of 2 assignments are past their due date and counted (0 points)')
     const s1 = body.students.find((s) => s.userId === world.s1.id)!
-    expect(s1.assignments.map((c) => [c.score, c.maxScore, c.status])).toEqual([
-      [7, 7, 'finished'],
-      [0, 10, 'not-started'],
+    expect(s1.assignments.map((c) => [c.score, c.maxScore, c.counted, c.status])).toEqual([
+      [7, 7, false, 'finished'],
+      [0, 10, false, 'not-started'],
     ])
-    expect(s1.total).toBe(7)
+    expect(s1.total).toBe(0)
     expect(s1.status).toBe('in-progress')
     expect(body.students.find((s) => s.userId === world.s2.id)!.late).toBe(true)
     expect(body.pendingCount).toBe(1)
+  })
+
+  test('once an assignment’s due date has passed its scores count: the total is out of the counted points only', async () => {
+    const [before] = await db().select({ dueAt: assignments.dueAt }).from(assignments).where(eq(assignments.id, world.assignment.id))
+    await db().update(assignments).set({ dueAt: new Date(Date.now() - 3600_000) }).where(eq(assignments.id, world.assignment.id))
+    try {
+      const { body } = await course()
+      expect(body.assignments.map((a) => [a.id, a.counted])).toEqual([
+        [world.assignment.id, true],
+        [world.second.id, false],
+      ])
+      expect(body.points).toBe(7)
+      expect(body.rule).toContain('1 of 2 assignments are past their due date and counted (7 points); the others are shown but not counted')
+      const totals = new Map(body.students.map((s) => [s.userId, [s.total, s.maxScore]]))
+      expect([world.s1, world.s2, world.s3, world.s4].map((s) => totals.get(s.id))).toEqual([
+        [7, 7],
+        [1, 7],
+        [0, 7],
+        [0, 7],
+      ])
+    } finally {
+      await db().update(assignments).set({ dueAt: before!.dueAt }).where(eq(assignments.id, world.assignment.id))
+    }
   })
 
   test('filters and sorts like the assignment gradebook', async () => {
@@ -232,6 +258,40 @@ describe('GET /api/courses/:id/gradebook', () => {
   test('a TA may read it; a student gets 403', async () => {
     expect((await course('', world.cookies.ta)).status).toBe(200)
     expect((await course('', world.cookies.student)).status).toBe(403)
+  })
+})
+
+describe('names and dropped students', () => {
+  test('rows sort by family name, then given name, falling back to the display name; a dropped student is listed apart and in no total', async () => {
+    const made = await createCourseWithAssignment(db(), [otto], { students: 5 })
+    const [a, b, c, d, e] = made.students
+    const names = async (id: number, familyName: string | null, givenName: string | null, studentNumber: string | null) =>
+      db().update(users).set({ familyName, givenName, studentNumber }).where(eq(users.id, id))
+    await names(a!.id, 'Young', 'Amy', 'N-1')
+    await names(b!.id, 'Baker', 'Zed', 'N-2')
+    await names(c!.id, 'Baker', 'Al', 'N-3')
+    await names(d!.id, null, null, null) // "Student 004": sorted by the display name
+    await names(e!.id, 'Aardvark', 'Eve', 'N-5')
+    await db().update(memberships).set({ droppedAt: new Date('2026-11-15T10:00:00Z') }).where(and(eq(memberships.userId, e!.id), eq(memberships.courseId, made.course.id)))
+    const [sub] = await db().insert(submissions).values({ assignmentId: made.assignment.id, itemId: made.items[0]!.id, userId: e!.id, answers: { T2: '1' }, status: 'graded' }).returning({ id: submissions.id })
+    await db().insert(partResults).values({ submissionId: sub!.id, assignmentId: made.assignment.id, itemId: made.items[0]!.id, userId: e!.id, findName: 'T2', answer: '1', attempt: 1, verdict: 'correct', score: 2, maxScore: 2 })
+    const cookie = await cookieFor(made.instructor.id)
+
+    const ag = await getJson<AssignmentGradebook>(assignmentGradebookLoader, `/api/assignments/${made.assignment.id}/gradebook`, { assignmentId: String(made.assignment.id) }, cookie)
+    expect(ag.body.students.map((s) => [s.familyName, s.givenName, s.studentNumber])).toEqual([
+      ['Baker', 'Al', 'N-3'],
+      ['Baker', 'Zed', 'N-2'],
+      ['Student 004', '', null],
+      ['Young', 'Amy', 'N-1'],
+    ])
+    expect(ag.body.studentCount).toBe(4)
+    expect(ag.body.dropped.map((x) => [x.userId, x.familyName, x.droppedAt])).toEqual([[e!.id, 'Aardvark', '2026-11-15T10:00:00.000Z']])
+    expect((await getJson<AssignmentGradebook>(assignmentGradebookLoader, `/api/assignments/${made.assignment.id}/gradebook?sort=name&dir=desc`, { assignmentId: String(made.assignment.id) }, cookie)).body.students.map((s) => s.familyName)).toEqual(['Young', 'Student 004', 'Baker', 'Baker'])
+
+    const cg = await getJson<CourseGradebook>(courseGradebookLoader, `/api/courses/${made.course.id}/gradebook`, { courseId: String(made.course.id) }, cookie)
+    expect(cg.body.students.map((s) => s.userId)).toEqual([c!.id, b!.id, d!.id, a!.id])
+    expect(cg.body.dropped.map((x) => x.userId)).toEqual([e!.id])
+    expect(cg.body.students.some((s) => s.userId === e!.id)).toBe(false)
   })
 })
 

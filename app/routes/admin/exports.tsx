@@ -85,8 +85,10 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Grade exports</h1>
       <p className="mt-2 max-w-2xl text-muted">
-        One CSV file with the grades of every course of a term: a row for each student’s score on each assignment, then a course total row
-        per student. The file is built in the background; it appears below when it is ready. Times in UTC.
+        The grades of every course of a term, as two CSV files a grade system can import one at a time: the assignment rows (each student’s
+        score on each assignment) and the course totals (one row per student). Totals count only assignments whose due date has passed
+        when the export is built; the others are listed with an empty score. Dropped students are left out. The files are built in the
+        background and appear below when they are ready. Times in UTC.
       </p>
 
       {terms.length === 0 ? (
@@ -163,7 +165,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
                   Rows
                 </th>
                 <th scope="col" className="px-4 py-2">
-                  File
+                  Files
                 </th>
               </tr>
             </thead>
@@ -182,9 +184,16 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
                   <td className="px-4 py-2 text-right tabular-nums">{e.status === 'done' || e.status === 'running' ? e.rows.toLocaleString('en-GB') : '—'}</td>
                   <td className="px-4 py-2">
                     {e.status === 'done' ? (
-                      <a href={`/admin/exports/${e.id}`} download={e.fileName}>
-                        Download {e.fileName}
-                      </a>
+                      <ul>
+                        {e.files.map((f) => (
+                          <li key={f.name}>
+                            <a href={f.href} download={f.name}>
+                              {f.label}
+                            </a>{' '}
+                            <span className="text-muted">({f.name})</span>
+                          </li>
+                        ))}
+                      </ul>
                     ) : (
                       <span className="text-muted">Not ready</span>
                     )}

@@ -4,7 +4,7 @@
 // 10 s otherwise.
 import { data, Link, useLocation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
-import { CourseGradebookTable, GradebookFilters } from '#app/components/gradebook-table.tsx'
+import { CourseGradebookTable, DroppedStudents, GradebookFilters } from '#app/components/gradebook-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { useLiveGradebook } from '#app/lib/use-live-gradebook.ts'
@@ -40,10 +40,18 @@ export default function CourseGradebookRoute({ loaderData }: Route.ComponentProp
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Gradebook</h1>
       <p className="mt-1 text-sm">
-        {/* A plain link: the CSV is a file download, not a page for the router. */}
+        {/* Plain links: the files are downloads, not pages for the router. */}
         <a href={`/courses/${course.id}/gradebook.csv`} className="underline" download>
           Download CSV
-        </a>
+        </a>{' '}
+        ·{' '}
+        <a href={`/courses/${course.id}/gradebook.xlsx`} className="underline" download>
+          Download XLSX
+        </a>{' '}
+        <span className="text-muted">(the same columns and figures as this table, every current student)</span>
+      </p>
+      <p className="mt-2 max-w-3xl text-sm" data-testid="counting-rule">
+        {gradebook.rule}
       </p>
       <div aria-live="polite" className="mt-3 text-sm">
         {gradebook.pendingCount > 0 ? (
@@ -60,6 +68,7 @@ export default function CourseGradebookRoute({ loaderData }: Route.ComponentProp
         <>
           <GradebookFilters view={gradebook.view} sections={gradebook.sections} />
           <CourseGradebookTable data={gradebook} />
+          <DroppedStudents dropped={gradebook.dropped} timeZone={gradebook.course.timeZone} />
           <ul className="mt-3 text-xs text-muted">
             {gradebook.assignments.map((a) => (
               <li key={a.id}>

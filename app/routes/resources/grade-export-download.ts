@@ -2,21 +2,29 @@ import { data } from 'react-router'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { fileSlug, getExportDownload } from '#app/server/exports.server.ts'
+import { getExportDownload, TERM_EXPORT_FILES, type TermExportFile } from '#app/server/exports.server.ts'
 import type { Route } from './+types/grade-export-download'
 
-/** GET /admin/exports/:exportId: a finished term export's CSV, for department admins. */
+/**
+ * GET /admin/exports/:exportId?file=assignments|course-totals: one CSV of a finished term
+ * export, for department admins. The assignment rows and the course totals are separate files
+ * (a grade system imports one table per file); without ?file the assignment rows (or an older
+ * export's single file) are sent.
+ */
 export async function loader({ request, params }: Route.LoaderArgs) {
   await requireAdmin(request)
   const exportId = requireIdParam(params.exportId, 'export')
-  const file = await getExportDownload(db(), exportId)
-  if (!file) throw data('There is no finished export with that number. It may still be building: see Grade exports.', { status: 404 })
-  // The stored name is already a slug; cleaned again so a header can never be broken by it.
-  const name = `${fileSlug(file.fileName.replace(/\.csv$/, ''), 'grades')}.csv`
+  const asked = new URL(request.url).searchParams.get('file')
+  if (asked !== null && !(TERM_EXPORT_FILES as readonly string[]).includes(asked)) {
+    throw data('An export has two files: ?file=assignments for the assignment rows, ?file=course-totals for the course totals.', { status: 404 })
+  }
+  const file = await getExportDownload(db(), exportId, asked as TermExportFile | null)
+  if (!file) throw data('There is no finished export with that number and file. It may still be building: see Grade exports.', { status: 404 })
   return new Response(file.csv, {
     headers: {
       'Content-Type': 'text/csv; charset=utf-8',
-      'Content-Disposition': `attachment; filename="${name}"`,
+      // termExportFileName makes a slug, so the header cannot be broken by the stored name.
+      'Content-Disposition': `attachment; filename="${file.fileName}"`,
       'Cache-Control': 'no-store',
       'X-Content-Type-Options': 'nosniff',
     },

@@ -2,7 +2,7 @@
 // (find) of an assignment's problem, with its verdict and the pitfall that explains it.
 import { data, Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
-import { formatPoints } from '#app/components/gradebook-table.tsx'
+import { formatPoints } from '#app/lib/points.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { textParamProblem } from '#app/lib/query-params.ts'

@@ -4,8 +4,9 @@
 // every 10 s otherwise.
 import { data, Link, useLocation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
-import { AssignmentGradebookTable, ExpandLink, GradebookFilters } from '#app/components/gradebook-table.tsx'
+import { AssignmentGradebookTable, DroppedStudents, ExpandLink, GradebookFilters } from '#app/components/gradebook-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
+import { formatPoints } from '#app/lib/points.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { useLiveGradebook } from '#app/lib/use-live-gradebook.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
@@ -45,7 +46,9 @@ export default function AssignmentGradebookRoute({ loaderData }: Route.Component
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Gradebook: {assignment.title}</h1>
       <p className="mt-1 text-sm text-muted">
-        Due {formatInZone(assignment.dueAt, assignment.timeZone)} · {assignment.points} points · {assignment.attemptsPerFind} attempts per question ·{' '}
+        Due {formatInZone(assignment.dueAt, assignment.timeZone)}
+        {new Date(assignment.dueAt).getTime() > Date.now() ? ' (not due yet: not counted in the course total)' : ''} · {formatPoints(assignment.points)} points ·{' '}
+        {assignment.attemptsPerFind} attempts per question ·{' '}
         <Link to={`${base}/statistics`} className="underline">
           Statistics
         </Link>
@@ -70,6 +73,7 @@ export default function AssignmentGradebookRoute({ loaderData }: Route.Component
           <AssignmentGradebookTable data={gradebook} basePath={base} />
         </>
       )}
+      <DroppedStudents dropped={gradebook.dropped} timeZone={assignment.timeZone} />
     </div>
   )
 }

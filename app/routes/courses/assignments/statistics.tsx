@@ -2,7 +2,7 @@
 // question — mean, median, a histogram, right at the first attempt, common wrong answers.
 import { data, Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
-import { formatPoints } from '#app/components/gradebook-table.tsx'
+import { formatPoints } from '#app/lib/points.ts'
 import { Histogram } from '#app/components/histogram.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
