@@ -10,6 +10,8 @@ export default [
   ...prefix('courses/:courseId', [
     index('routes/courses/$courseId.tsx'),
     route('people', 'routes/courses/people.tsx'),
+    route('people/import', 'routes/courses/people/import.tsx'),
+    route('people/sections', 'routes/courses/people/sections.tsx'),
     route('gradebook', 'routes/courses/gradebook.tsx'),
     route('gradebook.csv', 'routes/resources/course-gradebook-csv.ts'),
     route('gradebook.xlsx', 'routes/resources/course-gradebook-xlsx.ts'),
