@@ -63,6 +63,7 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
             <Link to={`/courses/${course.id}/people`}>People and invitations</Link>
             <Link to={`/courses/${course.id}/disputes`}>Review queue ({openDisputes ?? 0} open)</Link>
             {course.role === 'instructor' ? <Link to={`/courses/${course.id}/audit`}>Audit log</Link> : null}
+            {course.role === 'instructor' ? <Link to={`/courses/${course.id}/settings`}>Settings and copying</Link> : null}
           </>
         ) : (
           <Link to={`/courses/${course.id}/disputes`}>Your disputes</Link>
