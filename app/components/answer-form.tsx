@@ -13,6 +13,7 @@ import { Link, type FetcherWithComponents } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { cn } from '#app/lib/cn.ts'
 import { formatInZone } from '#app/lib/dates.ts'
+import { formatPoints } from '#app/lib/points.ts'
 import type { MyDispute } from '#app/server/disputes.server.ts'
 import type { FindView } from '#app/server/submissions.server.ts'
 
@@ -248,7 +249,6 @@ function LastVerdict({ find: f }: { find: FindView }) {
   )
 }
 
-const twoDecimals = new Intl.NumberFormat('en', { maximumFractionDigits: 2 })
 
 function withComment(text: string, comment: string | null) {
   return comment ? `${text} — ${comment}` : text
@@ -260,8 +260,8 @@ export function disputeOutcome(d: MyDispute): string {
     case 'upheld':
       return withComment('Upheld: your answer was accepted', d.comment)
     case 'adjusted': {
-      const from = d.scoreBefore === null ? '?' : twoDecimals.format(d.scoreBefore)
-      const to = d.scoreAfter === null ? '?' : twoDecimals.format(d.scoreAfter)
+      const from = d.scoreBefore === null ? '?' : formatPoints(d.scoreBefore)
+      const to = d.scoreAfter === null ? '?' : formatPoints(d.scoreAfter)
       return withComment(`Adjusted: score changed from ${from} to ${to}`, d.comment)
     }
     case 'rejected':

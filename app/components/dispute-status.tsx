@@ -3,6 +3,7 @@
  * word itself, so colour is never the only signal.
  */
 import { cn } from '#app/lib/cn.ts'
+import { formatPoints } from '#app/lib/points.ts'
 
 export type DisputeStatusValue = 'open' | 'upheld' | 'adjusted' | 'rejected'
 
@@ -33,10 +34,6 @@ export function DisputeStatusBadge({ status, className }: { status: DisputeStatu
   return <span className={cn('inline-block rounded border px-1.5 py-0.5 text-xs font-semibold whitespace-nowrap', tones[status], className)}>{DISPUTE_STATUS_WORDS[status]}</span>
 }
 
-/** A score to at most two decimals, without trailing zeros. */
-export function formatPoints(n: number): string {
-  return String(Math.round(n * 100) / 100)
-}
 
 /** "2 → 3 points", "kept at 1 point", or nothing while the dispute is open. */
 export function disputeOutcomeText(d: { status: DisputeStatusValue; scoreBefore: number | null; scoreAfter: number | null }): string | null {

@@ -43,6 +43,7 @@ import { appUrl } from './env.server.ts'
 import { listAssignmentTotals, listFindScores } from './grading.server.ts'
 import { bankViewerFor, freezeProblemVersion, type BankViewer } from './problems.server.ts'
 import { enqueue, withJobTransaction } from './queue.server.ts'
+import { formatScore } from '#app/lib/points.ts'
 import type { SignedInUser } from './users.server.ts'
 
 type Database = Db | Tx
@@ -917,10 +918,6 @@ export async function releaseKey(database: Db, opts: { courseId: number; assignm
 
 export type GradeReleaseResult = { released: boolean; at: Date; mailed: number }
 
-function points(n: number): string {
-  return String(roundScore(n))
-}
-
 /**
  * Releases the grades and, in the same transaction, queues one e-mail per student with their
  * score and a link. Only the first release sends: the update matches while gradesReleasedAt
@@ -960,7 +957,7 @@ export async function releaseGrades(
         lines: [
           `Hello ${person.name},`,
           `The grades for ${a.title} in ${course.code} ${course.title} have been released.`,
-          `Your score: ${points(t.score)} of ${points(t.maxScore)} points.`,
+          `Your score: ${formatScore(t.score, t.maxScore)} points.`,
           ...(t.pending > 0 ? [`${t.pending} of your answers were still being graded when the grades were released; the page shows the final score.`] : []),
         ],
         link,

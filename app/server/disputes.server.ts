@@ -31,7 +31,7 @@ import { and, asc, count, desc, eq, inArray, isNotNull, lte, ne, sql, type SQL }
 import { alias } from 'drizzle-orm/pg-core'
 import { fileTypeFromBuffer } from 'file-type'
 import { disputeWindow, sameAnswerValue, sameGivens } from '#app/domain/assignments/disputes.ts'
-import { answerScore, findShares, roundScore } from '#app/domain/assignments/scoring.ts'
+import { answerScore, findShares } from '#app/domain/assignments/scoring.ts'
 import type { CycleDiagrams } from '#app/domain/authoring/diagram-plot.ts'
 import type { DrawnGiven, Find, KeyEntry, ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { cycleDiagrams } from '#app/domain/authoring/diagrams.ts'
@@ -58,6 +58,7 @@ import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
 import { frozenDefinitions, studentVariant } from './grading.server.ts'
 import { withJobTransaction } from './queue.server.ts'
+import { formatPoints, formatPointsWord } from '#app/lib/points.ts'
 import {
   ALLOWED_ATTACHMENT_TYPES,
   DISPUTE_COMMENT_MAX,
@@ -307,13 +308,8 @@ async function sameAnswerParts(database: Database, ctx: ItemContext, findName: s
   })
 }
 
-function points(x: number): string {
-  return String(roundScore(x))
-}
-
-function pluralPoints(x: number): string {
-  return `${points(x)} point${roundScore(x) === 1 ? '' : 's'}`
-}
+const points = formatPoints
+const pluralPoints = formatPointsWord
 
 // ---- Raising ----------------------------------------------------------------------------
 

@@ -14,7 +14,8 @@ import { loader as courseCsvLoader } from '#app/routes/resources/course-gradeboo
 import { loader as courseXlsxLoader } from '#app/routes/resources/course-gradebook-xlsx.ts'
 import { loader as downloadLoader } from '#app/routes/resources/grade-export-download.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { gradeExports, memberships, partResults, submissions, users } from '#app/server/db/schema.server.ts'
+import { assignmentItems, gradeExports, memberships, partResults, submissions, users } from '#app/server/db/schema.server.ts'
+import { releaseGrades } from '#app/server/assignments.server.ts'
 import { buildTermExport, readStoredExport, requestTermExport, TERM_ASSIGNMENTS_HEADER, TERM_TOTALS_HEADER, XLSX_CONTENT_TYPE } from '#app/server/exports.server.ts'
 import { findLastMailTo } from '#app/server/outbox.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
@@ -477,6 +478,24 @@ describe('through the worker', () => {
     await expect(buildTermExport(db(), row!.id)).rejects.toThrow('no longer a department admin')
     const [after] = await db().select().from(gradeExports).where(eq(gradeExports.id, row!.id))
     expect(after).toMatchObject({ status: 'failed', error: 'The person who asked for this export is no longer a department admin.', csv: null })
+  })
+
+  test('the grade-release e-mail writes the score as the gradebook and the files do: 2.86 of 4.29, not 2.857143', async () => {
+    const c = await courseWithGrades({ students: [{ name: 'Rita Rounding', section: 'A' }] })
+    const rita = c.students[0]!
+    await db().update(assignmentItems).set({ points: 30 / 7 }).where(eq(assignmentItems.id, c.first.itemId))
+    await giveScore(c.first, rita.id, 20 / 7, 30 / 7)
+    await releaseGrades(db(), { courseId: c.course.id, assignmentId: c.first.assignmentId, actorId: c.instructor.id, baseUrl: 'https://cw.test' })
+    const until = Date.now() + 20_000
+    let mail = await findLastMailTo(db(), rita.email)
+    while (!mail && Date.now() < until) {
+      await new Promise((r) => setTimeout(r, 200))
+      mail = await findLastMailTo(db(), rita.email)
+    }
+    expect(mail!.text).toContain('Your score: 2.86 of 4.29 points.')
+    const rows = parse(await ((await courseCsv(c.course.id, c.instructor.id)) as { value: Response }).value.text(), { bom: true }) as string[][]
+    expect(rows[0]![5]).toBe('Otto cycle, part 1 (4.29)')
+    expect(rows[1]![5]).toBe('2.86')
   })
 
   test('an e-mail queued with enqueue(send-mail) is delivered by the worker to the outbox', async () => {

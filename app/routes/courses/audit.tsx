@@ -1,6 +1,6 @@
 import { Form, Link, useNavigation } from 'react-router'
 import { z } from 'zod'
-import { formatPoints } from '#app/components/dispute-status.tsx'
+import { formatPoints } from '#app/lib/points.ts'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { formatInZone } from '#app/lib/dates.ts'

@@ -20,6 +20,7 @@ import { textField, withoutNul } from '#app/lib/text-field.ts'
 import { disputeAllowance, raiseDispute } from '#app/server/disputes.server.ts'
 import { getStudentProblem } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/dispute'
+import { formatScore } from '#app/lib/points.ts'
 
 export const REASON_MIN = DISPUTE_REASON_MIN
 export const REASON_MAX = DISPUTE_REASON_MAX
@@ -226,7 +227,6 @@ const VERDICT_WORDS: Record<string, string> = {
   unreadable: 'Could not be read',
   'wrong-dimension': 'Wrong kind of unit',
 }
-const twoDecimals = new Intl.NumberFormat('en', { maximumFractionDigits: 2 })
 
 export default function DisputeRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { courseId, assignment, item, find, allowance, back } = loaderData
@@ -288,7 +288,7 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
             ) : null}
             <dt className="text-muted">Score for this question</dt>
             <dd>
-              {twoDecimals.format(find.score)} of {twoDecimals.format(find.share)} points
+              {formatScore(find.score, find.share)} points
             </dd>
           </dl>
         )}

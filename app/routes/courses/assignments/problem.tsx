@@ -18,6 +18,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { listMyDisputes } from '#app/server/disputes.server.ts'
 import { FORM_TOKEN_PATTERN, getStudentProblem, newFormToken, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/problem'
+import { formatScore } from '#app/lib/points.ts'
 import { readFormData } from '#app/lib/form.ts'
 
 const NOT_FOUND = 'There is no such problem, or it is not open yet.'
@@ -115,7 +116,6 @@ async function fetchMyResults(assignmentId: number, position: number): Promise<M
   return (await res.json()) as MyResults
 }
 
-const twoDecimals = new Intl.NumberFormat('en', { maximumFractionDigits: 2 })
 
 export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { course, staff, problem, receiptId, disputes, disputed, formToken } = loaderData
@@ -178,7 +178,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
         </p>
         {!staff ? (
           <p className="mt-1 text-sm text-muted">
-            Score so far: {twoDecimals.format(results.score)} of {twoDecimals.format(results.points)} points
+            Score so far: {formatScore(results.score, results.points)} points
             {results.pending ? ' (some answers are still being graded)' : ''}.
           </p>
         ) : null}

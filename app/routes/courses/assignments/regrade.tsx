@@ -11,6 +11,7 @@ import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { applyRegrade, loadRegradePage, RegradeError, type ToleranceFields } from '#app/server/regrades.server.ts'
 import type { Route } from './+types/regrade'
+import { formatPoints } from '#app/lib/points.ts'
 import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Regrade ${data?.item.problemTitle ?? 'problem'} · Cyclewright` }]
@@ -100,9 +101,7 @@ const VERDICT_WORDS: Record<string, string> = {
   removed: 'no longer asked (0)',
 }
 
-function points(n: number) {
-  return Number.isInteger(n) ? String(n) : n.toFixed(2)
-}
+const points = formatPoints
 
 function signed(n: number) {
   return `${n > 0 ? '+' : n < 0 ? '−' : '±'}${points(Math.abs(n))}`
