@@ -1,7 +1,8 @@
 /**
  * Fills the environment for the private demo set-up: the database URL of the private
- * cluster (unless DATABASE_URL is set) and a session secret kept under .data/ (unless
- * SESSION_SECRET is set). Used by npm start, npm run dev and the tests.
+ * cluster (unless DATABASE_URL is set), a session secret kept under .data/ (unless
+ * SESSION_SECRET is set) and APP_URL, the base of e-mailed links, as the local server's
+ * own address (unless APP_URL is set). Used by npm start, npm run dev and the tests.
  */
 import { randomBytes } from 'node:crypto'
 import fs from 'node:fs'
@@ -17,7 +18,17 @@ export function ensureSessionSecret() {
   process.env.SESSION_SECRET = fs.readFileSync(file, 'utf8').trim()
 }
 
+/** The local server listens on 127.0.0.1:PORT, so that is where its e-mailed links point. */
+export function ensureAppUrl() {
+  if (process.env.APP_URL) return
+  process.env.APP_URL = `http://127.0.0.1:${process.env.PORT || 3000}`
+}
+
 export async function prepareLocalEnv(log: (line: string) => void = console.log) {
+  const privateCluster = !process.env.DATABASE_URL
   process.env.DATABASE_URL = await resolveDatabaseUrl(log)
   ensureSessionSecret()
+  // A production process on a real database must be told its public address (env.server.ts
+  // refuses to start without it); the demo and development use the local server's.
+  if (privateCluster || process.env.NODE_ENV !== 'production') ensureAppUrl()
 }

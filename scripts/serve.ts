@@ -14,7 +14,12 @@ else if (!process.env.SESSION_SECRET) {
   console.error('SESSION_SECRET must be set when DATABASE_URL points at a shared server (see .env.example).')
   process.exit(1)
 }
-env()
+try {
+  env()
+} catch (e) {
+  console.error(e instanceof Error ? e.message : e)
+  process.exit(1)
+}
 await migrateDatabase(process.env.DATABASE_URL!)
 const server = await startServer({ port: Number(process.env.PORT ?? 3000), mode: 'production' })
 console.log(`Cyclewright web server listening on ${server.url}`)

@@ -18,7 +18,7 @@ const ForgotFormSchema = z.object({ email: EmailSchema })
 export async function action({ request }: Route.ActionArgs) {
   const form = parseForm(await readFormData(request), ForgotFormSchema)
   if (!form.ok) return data({ sent: false, fieldErrors: form.fieldErrors, values: echoValues(form.values) }, { status: 400 })
-  await requestPasswordReset(db(), form.value.email, appUrl(request))
+  await requestPasswordReset(db(), form.value.email, appUrl())
   return { sent: true, fieldErrors: noFieldErrors, values: noValues }
 }
 

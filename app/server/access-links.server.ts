@@ -142,7 +142,7 @@ export async function acceptInvitation(
  * Sends a reset link when the address has an account. The caller shows the same
  * message either way, so the form does not reveal who has an account.
  */
-export async function requestPasswordReset(database: Db, rawEmail: string, baseUrl: string, now = new Date()) {
+export async function requestPasswordReset(database: Db, rawEmail: string, baseUrl = appUrl(), now = new Date()) {
   const email = normaliseEmail(rawEmail)
   const [user] = await database.select({ id: users.id }).from(users).where(eq(users.email, email))
   if (!user) return { sent: false }

@@ -7,6 +7,7 @@ import { action as resetAction, loader as resetLoader } from '#app/routes/reset-
 import { loader as outboxLoader } from '#app/routes/admin/outbox.tsx'
 import { startSession } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
+import { resetEnv } from '#app/server/env.server.ts'
 import { accessTokens, memberships, sessions, users } from '#app/server/db/schema.server.ts'
 import { findLastMailTo, linksIn } from '#app/server/outbox.server.ts'
 import { verifyPassword } from '#app/server/passwords.server.ts'
@@ -138,6 +139,45 @@ describe('password reset', () => {
     expect(await db().select().from(sessions).where(eq(sessions.userId, user.id))).toHaveLength(0)
     expect(oldCookie).toBeTruthy()
     expect((await resetLoader(args(getRequest(`/reset-password/${token}`), { token }))).problem).toBe('used')
+  })
+
+  test('a forged Host or X-Forwarded-Host never reaches the link: it uses the configured origin', async () => {
+    const forged = (email: string) =>
+      new Request('http://evil.example/forgot-password', {
+        method: 'POST',
+        body: new URLSearchParams({ email }),
+        headers: {
+          'Content-Type': 'application/x-www-form-urlencoded',
+          Host: 'evil.example',
+          'X-Forwarded-Host': 'evil.example',
+          'X-Forwarded-Proto': 'https',
+          'x-cyclewright-client-address': '10.44.0.1',
+        },
+      })
+    const saved = { APP_URL: process.env.APP_URL, PORT: process.env.PORT }
+    try {
+      // Configured: APP_URL.
+      process.env.APP_URL = 'https://cyclewright.example.org/'
+      resetEnv()
+      const a = await createUser(db())
+      await forgotAction(args(forged(a.email)))
+      const linkA = linksIn((await mailTo(a.email))!.text).find((l) => l.includes('/reset-password/'))!
+      expect(new URL(linkA).origin).toBe('https://cyclewright.example.org')
+      // Unset (allowed outside production): the local server, still not the request's host.
+      delete process.env.APP_URL
+      process.env.PORT = '4123'
+      resetEnv()
+      const b = await createUser(db())
+      await forgotAction(args(forged(b.email)))
+      const linkB = linksIn((await mailTo(b.email))!.text).find((l) => l.includes('/reset-password/'))!
+      expect(new URL(linkB).origin).toBe('http://127.0.0.1:4123')
+    } finally {
+      for (const [k, v] of Object.entries(saved)) {
+        if (v === undefined) delete process.env[k]
+        else process.env[k] = v
+      }
+      resetEnv()
+    }
   })
 
   test('an unknown address gets the same answer and no mail', async () => {

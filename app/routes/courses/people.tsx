@@ -297,7 +297,9 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
           Roster ({roster.active.length})
         </h2>
         <p className="mt-1 text-sm text-muted">
-          {students} student{students === 1 ? '' : 's'}.
+          {students === 0
+            ? `No students yet.${mayManage ? ' Import a class list, or invite them one at a time.' : ''}`
+            : `${students} student${students === 1 ? '' : 's'}${roster.dropped.length > 0 ? `, and ${roster.dropped.length} dropped (listed below)` : ''}.`}
         </p>
         {roster.active.length === 0 ? (
           <p className="mt-4 text-muted">

@@ -40,7 +40,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     await orErrorPage(releaseKey(db(), { courseId, assignmentId, actorId: user.id }))
     return redirect(`${base}?done=key`)
   }
-  await orErrorPage(releaseGrades(db(), { courseId, assignmentId, actorId: user.id, baseUrl: appUrl(request) }))
+  await orErrorPage(releaseGrades(db(), { courseId, assignmentId, actorId: user.id, baseUrl: appUrl() }))
   return redirect(`${base}?done=grades`)
 }
 

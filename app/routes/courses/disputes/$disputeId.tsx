@@ -82,7 +82,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     decision: v.decision,
     newScore: v.decision === 'adjust' ? Number(v.newScore.replace(',', '.')) : undefined,
     comment: v.comment,
-    baseUrl: appUrl(request),
+    baseUrl: appUrl(),
   })
   if (!result.ok) {
     const values = { decision: v.decision, newScore: v.newScore, comment: v.comment }
