@@ -1,0 +1,15 @@
+/**
+ * A signed-in session for tests that call loaders and actions directly: a real session row
+ * and the cookie the browser would send, exactly as signing in makes them.
+ */
+import { db } from '#app/server/db/client.server.ts'
+import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
+
+/** The Cookie header of a fresh session for `user`; no header at all for `null` (signed out). */
+export async function loginAs(user: { id: number } | null): Promise<Record<string, string>> {
+  if (!user) return {}
+  const row = await createSessionRow(db(), user.id)
+  const session = await sessionStorage().getSession()
+  session.set('sid', row.id)
+  return { Cookie: (await sessionStorage().commitSession(session)).split(';')[0]! }
+}
