@@ -15,9 +15,21 @@ import { env } from '#app/server/env.server.ts'
 import { startFakeSmtp, type FakeSmtp } from '#app/server/fake-smtp.server.ts'
 import { projectRoot } from './postgres.ts'
 
-export type RunningServer = { port: number; url: string; close: () => Promise<void>; smtp: FakeSmtp | null }
+export type RunningServer = { port: number; url: string; close: () => Promise<void>; smtp: FakeSmtp | null; server: import('node:http').Server }
 
-export async function startServer(opts: { port: number; mode: 'production' | 'development'; log?: (line: string) => void }): Promise<RunningServer> {
+/** Idle keep-alive connections are kept this long. */
+export const KEEP_ALIVE_MS = 65_000
+
+export type ServerOptions = {
+  port: number
+  mode: 'production' | 'development'
+  log?: (line: string) => void
+  /** Defaults from the environment (TRUST_PROXY, HOST); tests set them per server. */
+  trustProxy?: number
+  host?: string
+}
+
+export async function startServer(opts: ServerOptions): Promise<RunningServer> {
   const log = opts.log ?? console.log
   const e = env()
   let smtp: FakeSmtp | null = null
@@ -31,12 +43,16 @@ export async function startServer(opts: { port: number; mode: 'production' | 'de
     }
   }
 
+  const trustProxy = opts.trustProxy ?? e.TRUST_PROXY
+  const host = opts.host ?? e.HOST
   const app = express()
   app.disable('x-powered-by')
-  if (e.TRUST_PROXY) app.set('trust proxy', true)
+  // A hop count, never `true`: only the addresses our own proxies appended are believed,
+  // so a client cannot choose its address by sending X-Forwarded-For itself.
+  app.set('trust proxy', trustProxy > 0 ? trustProxy : false)
   app.use((req, _res, next) => {
     // Our own header, always overwritten, so a client cannot choose its rate-limit bucket.
-    req.headers[CLIENT_ADDRESS_HEADER] = (e.TRUST_PROXY ? req.ip : req.socket.remoteAddress) ?? 'unknown'
+    req.headers[CLIENT_ADDRESS_HEADER] = req.ip ?? req.socket.remoteAddress ?? 'unknown'
     next()
   })
   app.use(compression())
@@ -57,17 +73,26 @@ export async function startServer(opts: { port: number; mode: 'production' | 'de
   }
 
   const server = await new Promise<import('node:http').Server>((resolve, reject) => {
-    const s = app.listen(opts.port, '127.0.0.1', () => resolve(s))
+    const s = app.listen(opts.port, host, () => resolve(s))
     s.once('error', reject)
   })
+  // Longer than the idle timeout of common load balancers (60 s), so a balancer never sends
+  // a request on a connection we are closing; headers must arrive a little sooner than that.
+  server.keepAliveTimeout = KEEP_ALIVE_MS
+  server.headersTimeout = KEEP_ALIVE_MS + 1_000
   const address = server.address()
   const port = typeof address === 'object' && address ? address.port : opts.port
+  const shownHost = host === '0.0.0.0' || host === '::' ? '127.0.0.1' : host.includes(':') ? `[${host}]` : host
   return {
     port,
-    url: `http://127.0.0.1:${port}`,
+    url: `http://${shownHost}:${port}`,
     smtp,
+    server,
     close: async () => {
-      await new Promise<void>((r) => server.close(() => r()))
+      const closed = new Promise<void>((r) => server.close(() => r()))
+      // Idle keep-alive connections would hold close() for up to KEEP_ALIVE_MS.
+      server.closeIdleConnections()
+      await closed
       await closeVite?.()
       await smtp?.close()
     },
