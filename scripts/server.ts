@@ -2,10 +2,12 @@
  * The HTTP server: Express with React Router's request handler, serving the production
  * build (or Vite's dev middleware in development). It also starts the local fake SMTP
  * server when no SMTP_URL is configured, so the demo's mail lands in the outbox.
+ *
+ * In front of React Router, in order: the client's address (TRUST_PROXY hops), static
+ * files, and bodies bounded per URL (http/body-limit.ts).
  */
 import path from 'node:path'
 import { pathToFileURL } from 'node:url'
-import { createRequestHandler } from '@react-router/express'
 import compression from 'compression'
 import express from 'express'
 import type { ServerBuild } from 'react-router'
@@ -13,6 +15,9 @@ import { CLIENT_ADDRESS_HEADER } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { env } from '#app/server/env.server.ts'
 import { startFakeSmtp, type FakeSmtp } from '#app/server/fake-smtp.server.ts'
+import { limitBodies } from './http/body-limit.ts'
+import { refuse } from './http/refusal.ts'
+import { createRequestHandler } from './http/request-handler.ts'
 import { projectRoot } from './postgres.ts'
 
 export type RunningServer = { port: number; url: string; close: () => Promise<void>; smtp: FakeSmtp | null; server: import('node:http').Server }
@@ -24,9 +29,10 @@ export type ServerOptions = {
   port: number
   mode: 'production' | 'development'
   log?: (line: string) => void
-  /** Defaults from the environment (TRUST_PROXY, HOST); tests set them per server. */
+  /** Defaults from the environment (TRUST_PROXY, HOST, APP_URL); tests set them per server. */
   trustProxy?: number
   host?: string
+  appUrl?: string
 }
 
 export async function startServer(opts: ServerOptions): Promise<RunningServer> {
@@ -45,6 +51,7 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
 
   const trustProxy = opts.trustProxy ?? e.TRUST_PROXY
   const host = opts.host ?? e.HOST
+  const appUrl = () => opts.appUrl ?? env().APP_URL
   const app = express()
   app.disable('x-powered-by')
   // A hop count, never `true`: only the addresses our own proxies appended are believed,
@@ -58,19 +65,40 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
   app.use(compression())
 
   let closeVite: (() => Promise<void>) | undefined
+  let build: ServerBuild | (() => Promise<ServerBuild>)
   if (opts.mode === 'development') {
     const vite = await import('vite')
     const devServer = await vite.createServer({ server: { middlewareMode: true }, root: projectRoot })
     closeVite = () => devServer.close()
     app.use(devServer.middlewares)
-    app.all('*', createRequestHandler({ build: () => devServer.ssrLoadModule('virtual:react-router/server-build') as Promise<ServerBuild>, mode: 'development' }))
+    build = () => devServer.ssrLoadModule('virtual:react-router/server-build') as Promise<ServerBuild>
   } else {
     const buildDir = path.join(projectRoot, 'build')
-    const build = (await import(pathToFileURL(path.join(buildDir, 'server', 'index.js')).href)) as ServerBuild
+    build = (await import(pathToFileURL(path.join(buildDir, 'server', 'index.js')).href)) as ServerBuild
     app.use('/assets', express.static(path.join(buildDir, 'client', 'assets'), { immutable: true, maxAge: '1y' }))
     app.use(express.static(path.join(buildDir, 'client'), { maxAge: '1h' }))
-    app.all('*', createRequestHandler({ build, mode: e.NODE_ENV === 'test' ? 'test' : 'production' }))
   }
+  app.use(limitBodies())
+  const configured = appUrl()
+  app.all(
+    '*',
+    createRequestHandler({
+      build,
+      mode: opts.mode === 'development' ? 'development' : e.NODE_ENV === 'test' ? 'test' : 'production',
+      canonicalOrigin: configured ? new URL(configured).origin : undefined,
+      getLoadContext: () => ({}),
+    }),
+  )
+
+  // Last resort (a build that cannot load, a broken header): a short page, never a stack trace.
+  app.use((error: unknown, req: express.Request, res: express.Response, _next: express.NextFunction) => {
+    log(`Unexpected error during ${req.method} ${req.path}: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`)
+    if (res.headersSent) {
+      res.destroy()
+      return
+    }
+    refuse(req, res, 500, 'Something went wrong', 'Something went wrong on our side. Your saved work is safe; please try again in a moment.', { close: true })
+  })
 
   const server = await new Promise<import('node:http').Server>((resolve, reject) => {
     const s = app.listen(opts.port, host, () => resolve(s))
