@@ -1,20 +1,30 @@
 /**
- * Customised only to log unexpected errors once, with a request id, and to keep the
- * default streaming render. See React Router's "entry.server" docs.
+ * Customised to log unexpected errors once, with a request id, to keep the default
+ * streaming render, and to put the response's Content-Security-Policy nonce (made by the
+ * HTTP server, passed in the load context) on every inline script React and React Router
+ * write. See React Router's "entry.server" and "Security" docs.
  */
 import { PassThrough } from 'node:stream'
 import { createReadableStreamFromReadable } from '@react-router/node'
 import { isbot } from 'isbot'
 import { renderToPipeableStream } from 'react-dom/server'
-import { ServerRouter, type EntryContext, type HandleErrorFunction } from 'react-router'
+import { ServerRouter, type AppLoadContext, type EntryContext, type HandleErrorFunction } from 'react-router'
+import { NonceContext } from './lib/nonce.ts'
 
 export const streamTimeout = 5_000
 
-export default function handleRequest(request: Request, status: number, headers: Headers, context: EntryContext) {
+export default function handleRequest(request: Request, status: number, headers: Headers, context: EntryContext, loadContext?: AppLoadContext) {
+  const nonce = loadContext?.cspNonce
   return new Promise<Response>((resolve, reject) => {
     let shellRendered = false
     const ready = isbot(request.headers.get('user-agent') ?? '') || context.isSpaMode ? 'onAllReady' : 'onShellReady'
-    const { pipe, abort } = renderToPipeableStream(<ServerRouter context={context} url={request.url} />, {
+    const app = (
+      <NonceContext.Provider value={nonce}>
+        <ServerRouter context={context} url={request.url} nonce={nonce} />
+      </NonceContext.Provider>
+    )
+    const { pipe, abort } = renderToPipeableStream(app, {
+      nonce,
       [ready]() {
         shellRendered = true
         const body = new PassThrough()

@@ -7,6 +7,7 @@ import { Form, Links, Meta, NavLink, Outlet, Scripts, ScrollRestoration, useRout
 import type { Route } from './+types/root'
 import { GeneralErrorBoundary } from './components/error-boundary.tsx'
 import { navFor, type NavUser } from './lib/nav.ts'
+import { useNonce } from './lib/nonce.ts'
 import { getUser } from './server/auth.server.ts'
 
 export const meta: Route.MetaFunction = () => [{ title: 'Cyclewright' }]
@@ -27,6 +28,8 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {
+  // The response's CSP nonce on the server; undefined in the browser (the scripts already ran).
+  const nonce = useNonce()
   return (
     <html lang="en">
       <head>
@@ -37,8 +40,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
       </head>
       <body className="min-h-screen">
         {children}
-        <ScrollRestoration />
-        <Scripts />
+        <ScrollRestoration nonce={nonce} />
+        <Scripts nonce={nonce} />
       </body>
     </html>
   )

@@ -3,8 +3,10 @@
  * build (or Vite's dev middleware in development). It also starts the local fake SMTP
  * server when no SMTP_URL is configured, so the demo's mail lands in the outbox.
  *
- * In front of React Router, in order: the client's address (TRUST_PROXY hops), static
- * files, and bodies bounded per URL (http/body-limit.ts).
+ * In front of React Router, in order: the client's address (TRUST_PROXY hops), security
+ * headers with a per-response CSP nonce (http/security.ts), static files, no caching of
+ * pages, and bodies bounded per URL
+ * (http/body-limit.ts).
  */
 import path from 'node:path'
 import { pathToFileURL } from 'node:url'
@@ -18,6 +20,7 @@ import { startFakeSmtp, type FakeSmtp } from '#app/server/fake-smtp.server.ts'
 import { limitBodies } from './http/body-limit.ts'
 import { refuse } from './http/refusal.ts'
 import { createRequestHandler } from './http/request-handler.ts'
+import { noStore, nonceOf, securityHeaders } from './http/security.ts'
 import { projectRoot } from './postgres.ts'
 
 export type RunningServer = { port: number; url: string; close: () => Promise<void>; smtp: FakeSmtp | null; server: import('node:http').Server }
@@ -62,6 +65,7 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
     req.headers[CLIENT_ADDRESS_HEADER] = req.ip ?? req.socket.remoteAddress ?? 'unknown'
     next()
   })
+  app.use(securityHeaders(opts.mode))
   app.use(compression())
 
   let closeVite: (() => Promise<void>) | undefined
@@ -78,6 +82,8 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
     app.use('/assets', express.static(path.join(buildDir, 'client', 'assets'), { immutable: true, maxAge: '1y' }))
     app.use(express.static(path.join(buildDir, 'client'), { maxAge: '1h' }))
   }
+  // Everything below is a page or an API answer, made for whoever asks.
+  app.use(noStore())
   app.use(limitBodies())
   const configured = appUrl()
   app.all(
@@ -86,7 +92,7 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
       build,
       mode: opts.mode === 'development' ? 'development' : e.NODE_ENV === 'test' ? 'test' : 'production',
       canonicalOrigin: configured ? new URL(configured).origin : undefined,
-      getLoadContext: () => ({}),
+      getLoadContext: (_req, res) => ({ cspNonce: nonceOf(res) }),
     }),
   )
 
