@@ -5,7 +5,7 @@
  *
  * In front of React Router, in order: the client's address (TRUST_PROXY hops), security
  * headers with a per-response CSP nonce (http/security.ts), static files, no caching of
- * pages, and bodies bounded per URL
+ * pages, posts only from this site's own pages, and bodies bounded per URL
  * (http/body-limit.ts).
  */
 import path from 'node:path'
@@ -20,7 +20,7 @@ import { startFakeSmtp, type FakeSmtp } from '#app/server/fake-smtp.server.ts'
 import { limitBodies } from './http/body-limit.ts'
 import { refuse } from './http/refusal.ts'
 import { createRequestHandler } from './http/request-handler.ts'
-import { noStore, nonceOf, securityHeaders } from './http/security.ts'
+import { noStore, nonceOf, sameOriginWrites, securityHeaders } from './http/security.ts'
 import { projectRoot } from './postgres.ts'
 
 export type RunningServer = { port: number; url: string; close: () => Promise<void>; smtp: FakeSmtp | null; server: import('node:http').Server }
@@ -84,6 +84,7 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
   }
   // Everything below is a page or an API answer, made for whoever asks.
   app.use(noStore())
+  app.use(sameOriginWrites(appUrl))
   app.use(limitBodies())
   const configured = appUrl()
   app.all(
