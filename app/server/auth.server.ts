@@ -56,11 +56,13 @@ authenticator.use(
 
 /** Starts a session for the user and redirects; used after sign-in and after accepting a link. */
 export async function startSession(userId: number, redirectTo: string, notice?: string) {
+  // Checked before the session row exists, so a bad target can never leave a row behind.
+  const target = safeRedirect(redirectTo)
   const row = await createSessionRow(db(), userId)
   const session = await sessionStorage().getSession()
   session.set('sid', row.id)
   if (notice) session.flash('notice', notice)
-  return redirect(safeRedirect(redirectTo), {
+  return redirect(target, {
     headers: { 'Set-Cookie': await sessionStorage().commitSession(session, { expires: row.expiresAt }) },
   })
 }
@@ -122,8 +124,47 @@ export async function signOut(request: Request) {
   return redirect('/sign-in', { headers: { 'Set-Cookie': await sessionStorage().destroySession(session) } })
 }
 
-/** Only same-site paths: never an open redirect to another host. */
+const REDIRECT_ORIGIN = 'http://redirect-check.invalid'
+/** Control characters (C0, DEL, C1), any whitespace, and the backslash browsers read as `/`. */
+const UNSAFE_CHAR = /[\u0000-\u001f\u007f-\u009f\s\\]/u
+const MAX_REDIRECT_LENGTH = 2000
+
+/**
+ * Only a path on this site: never an open redirect to another host, and never a value
+ * that cannot go into a Location header. Refused (→ `fallback`): anything not starting
+ * with one `/`; `//` or `\` in the path, control characters or whitespace anywhere,
+ * and the same written percent-encoded (decoded up to three times, so `%252F` counts
+ * too); undecodable percent escapes. What passes is resolved against a placeholder
+ * origin with `new URL`, must keep that origin, and comes back percent-encoded (so
+ * `/ä` becomes `/%C3%A4`). Spaces inside the query (`?q=a%20b`) are allowed: they stay
+ * encoded and cannot change the host.
+ */
 export function safeRedirect(to: FormDataEntryValue | string | null | undefined, fallback = '/'): string {
-  if (typeof to !== 'string' || !to.startsWith('/') || to.startsWith('//') || to.startsWith('/\\')) return fallback
-  return to
+  if (typeof to !== 'string' || to.length === 0 || to.length > MAX_REDIRECT_LENGTH) return fallback
+  if (!to.startsWith('/') || UNSAFE_CHAR.test(to)) return fallback
+  let decoded = to
+  for (let round = 0; round < 3; round++) {
+    let next: string
+    try {
+      next = decodeURIComponent(decoded)
+    } catch {
+      return fallback
+    }
+    const cut = next.search(/[?#]/)
+    const path = cut === -1 ? next : next.slice(0, cut)
+    const rest = cut === -1 ? '' : next.slice(cut)
+    if (!path.startsWith('/') || path.includes('//') || UNSAFE_CHAR.test(path)) return fallback
+    if (/[\u0000-\u001f\u007f-\u009f\\]/u.test(rest)) return fallback
+    if (next === decoded) break
+    decoded = next
+  }
+  let url: URL
+  try {
+    url = new URL(to, REDIRECT_ORIGIN)
+  } catch {
+    return fallback
+  }
+  if (url.origin !== REDIRECT_ORIGIN) return fallback
+  const safe = url.pathname + url.search + url.hash
+  return safe.startsWith('/') && !safe.startsWith('//') ? safe : fallback
 }

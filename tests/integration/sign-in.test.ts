@@ -84,6 +84,21 @@ describe('sign-in', () => {
     expect(res.headers.get('Location')).toBe('/')
   })
 
+  test.each([
+    ['CR LF', '/courses\r\nSet-Cookie: x=1', '/'],
+    ['an encoded tab before a host', '/%09/evil.example', '/'],
+    ['a non-Latin-1 path', '/ä', '/%C3%A4'],
+  ])('a redirectTo with %s signs in to a safe path, with no server error and one session', async (_what, redirectTo, location) => {
+    const user = await createUser(db(), { password: 'a good long password' })
+    const req = formRequest(`/sign-in?${new URLSearchParams({ redirectTo })}`, { email: user.email, password: 'a good long password' })
+    const r = await settle(signInAction(args(req)))
+    const res = ('thrown' in r ? r.thrown : r.value) as Response
+    expect(res).toBeInstanceOf(Response)
+    expect(res.status).toBe(302)
+    expect(res.headers.get('Location')).toBe(location)
+    expect(await db().select().from(sessions).where(eq(sessions.userId, user.id))).toHaveLength(1)
+  })
+
   test('passwords are stored as argon2id hashes', async () => {
     const user = await createUser(db(), { password: 'a good long password' })
     expect(user.passwordHash).toMatch(/^\$argon2id\$/)
