@@ -10,6 +10,7 @@ import { isbot } from 'isbot'
 import { renderToPipeableStream } from 'react-dom/server'
 import { ServerRouter, type AppLoadContext, type EntryContext, type HandleErrorFunction } from 'react-router'
 import { NonceContext } from './lib/nonce.ts'
+import { isDatabaseUnavailable } from './server/db/unavailable.server.ts'
 
 export const streamTimeout = 5_000
 
@@ -47,5 +48,10 @@ export default function handleRequest(request: Request, status: number, headers:
 export const handleError: HandleErrorFunction = (error, { request }) => {
   if (request.signal.aborted) return
   const id = request.headers.get('x-request-id') ?? '-'
+  // An outage is not a bug: one line, no stack (the page itself answers 503, scripts/http/outage.ts).
+  if (isDatabaseUnavailable(error)) {
+    console.error(`[request ${id}] ${request.method} ${new URL(request.url).pathname}: database unreachable`)
+    return
+  }
   console.error(`[request ${id}] ${request.method} ${new URL(request.url).pathname}:`, error)
 }

@@ -6,7 +6,8 @@
  * In front of React Router, in order: the client's address (TRUST_PROXY hops), security
  * headers with a per-response CSP nonce (http/security.ts), static files, no caching of
  * pages, posts only from this site's own pages, and bodies bounded per URL
- * (http/body-limit.ts).
+ * (http/body-limit.ts). Loaders and actions that cannot reach the database answer 503
+ * (http/outage.ts).
  */
 import path from 'node:path'
 import { pathToFileURL } from 'node:url'
@@ -18,6 +19,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { env } from '#app/server/env.server.ts'
 import { startFakeSmtp, type FakeSmtp } from '#app/server/fake-smtp.server.ts'
 import { limitBodies } from './http/body-limit.ts'
+import { withOutagePages, withOutagePagesLazy } from './http/outage.ts'
 import { refuse } from './http/refusal.ts'
 import { createRequestHandler } from './http/request-handler.ts'
 import { noStore, nonceOf, sameOriginWrites, securityHeaders } from './http/security.ts'
@@ -75,10 +77,10 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
     const devServer = await vite.createServer({ server: { middlewareMode: true }, root: projectRoot })
     closeVite = () => devServer.close()
     app.use(devServer.middlewares)
-    build = () => devServer.ssrLoadModule('virtual:react-router/server-build') as Promise<ServerBuild>
+    build = withOutagePagesLazy(() => devServer.ssrLoadModule('virtual:react-router/server-build') as Promise<ServerBuild>, log)
   } else {
     const buildDir = path.join(projectRoot, 'build')
-    build = (await import(pathToFileURL(path.join(buildDir, 'server', 'index.js')).href)) as ServerBuild
+    build = withOutagePages((await import(pathToFileURL(path.join(buildDir, 'server', 'index.js')).href)) as ServerBuild, log)
     app.use('/assets', express.static(path.join(buildDir, 'client', 'assets'), { immutable: true, maxAge: '1y' }))
     app.use(express.static(path.join(buildDir, 'client'), { maxAge: '1h' }))
   }

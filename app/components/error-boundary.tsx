@@ -7,6 +7,7 @@ const titles: Record<number, string> = {
   405: 'That action is not available here',
   413: 'That upload is too large',
   429: 'Too many requests',
+  503: 'Briefly unavailable',
 }
 
 /**

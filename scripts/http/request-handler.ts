@@ -11,6 +11,7 @@
 import { createReadableStreamFromReadable, writeReadableStreamToWritable } from '@react-router/node'
 import type { NextFunction, Request as ExpressRequest, Response as ExpressResponse } from 'express'
 import { createRequestHandler as createReactRouterHandler, type AppLoadContext, type ServerBuild } from 'react-router'
+import { RETRY_AFTER_SECONDS } from '#app/server/db/unavailable.server.ts'
 import { BodyTooLargeError, type BodyLocals } from './body-limit.ts'
 
 /** Headers that the server sets for every response and that a route may replace. */
@@ -79,6 +80,8 @@ async function send(req: ExpressRequest, res: ExpressResponse, response: Respons
     if (REPLACEABLE.has(key)) res.removeHeader(key)
   }
   for (const [key, value] of response.headers.entries()) res.append(key, value)
+  // A database outage (scripts/http/outage.ts): tell clients and balancers when to retry.
+  if (response.status === 503 && !response.headers.has('retry-after')) res.setHeader('Retry-After', String(RETRY_AFTER_SECONDS))
   // A body still arriving that nobody read (a chunked post to a page that ignores it): do
   // not keep reading it for the next request on this connection.
   if (req.method !== 'GET' && req.method !== 'HEAD' && !req.complete) res.setHeader('Connection', 'close')
