@@ -51,6 +51,15 @@ type QueueSettings<N extends QueueName> = {
   singletonKey?: (payload: QueuePayload<N>) => string
 }
 
+/** How long a fetched grading job may stay active before pg-boss takes it as abandoned (its worker died). */
+export const GRADE_EXPIRE_SECONDS = 15
+
+/**
+ * How often pg-boss's maintenance runs (it is what fails expired jobs so they are retried;
+ * pg-boss 10 defaults to 120 s). One process runs it per interval across all workers.
+ */
+export const MAINTENANCE_INTERVAL_SECONDS = 3
+
 export const queueSettings: { [N in QueueName]: QueueSettings<N> } = {
   'problem-sweep': {
     // 'short': at most one waiting job per singleton key.
@@ -60,7 +69,10 @@ export const queueSettings: { [N in QueueName]: QueueSettings<N> } = {
   'grade-submission': {
     // No singleton key: a duplicate job is harmless (the handler skips a graded submission),
     // and submissions arrive in bursts that 'short' would throttle.
-    options: { policy: 'standard', retryLimit: 3, retryDelay: 2, retryBackoff: true, expireInSeconds: 5 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    // Expiry: a fetched batch of 100 takes under 1 s to grade (≈ 2.3 s on the one-by-one
+    // fallback, measured cold), so 15 s is ample for a live worker, and a dead worker's jobs
+    // are retried about 15–25 s after they were fetched (docs/grading.md, "A worker that dies").
+    options: { policy: 'standard', retryLimit: 3, retryDelay: 1, retryBackoff: true, expireInSeconds: GRADE_EXPIRE_SECONDS, deadLetter: DEAD_LETTER_QUEUE },
   },
   regrade: {
     options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
@@ -109,9 +121,14 @@ export async function ensureQueues(boss: PgBoss) {
   }
 }
 
-/** pg-boss options shared by the producer here and the worker in jobs/worker.ts. */
+/**
+ * pg-boss options shared by the producer here and the worker in jobs/worker.ts. In pg-boss
+ * 10 an expired job is only noticed by maintenance (every maintenanceIntervalSeconds, in the
+ * processes that supervise: the workers), so its interval bounds how late a dead worker's job
+ * is retried; the producer passes `supervise: false` and runs none.
+ */
 export function bossOptions(connectionString: string, extra: PgBoss.ConstructorOptions = {}): PgBoss.ConstructorOptions {
-  return { connectionString, schema: PGBOSS_SCHEMA, application_name: 'cyclewright-jobs', ...extra }
+  return { connectionString, schema: PGBOSS_SCHEMA, application_name: 'cyclewright-jobs', maintenanceIntervalSeconds: MAINTENANCE_INTERVAL_SECONDS, ...extra }
 }
 
 type Holder = { boss?: Promise<PgBoss>; url?: string }
