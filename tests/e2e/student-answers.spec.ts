@@ -1,7 +1,9 @@
 /**
  * A student answers an assignment problem with JavaScript turned off: the plain form posts,
  * an unreadable answer is refused without using an attempt and stays in the form, good
- * answers are stored with a receipt, and after a reload the worker's verdicts are shown.
+ * answers are stored with a receipt — also beside a refused one, after a redirect that shows
+ * the refusal and keeps every text typed — a double click stores one press, a reload posts
+ * nothing, and after a reload the worker's verdicts are shown.
  */
 import type { Page } from 'playwright-core'
 import { expect, inject, test } from 'vitest'
@@ -34,13 +36,33 @@ test('with JavaScript off a student submits, is told what could not be read, and
   expect(await page.getByLabel('Compressor exit temperature').inputValue()).toBe('warm-ish')
   expect(await e2eQuery('select id from submissions where item_id = $1 and user_id = $2', [ref.itemId, student.id])).toHaveLength(0)
 
-  // A right temperature and a net work with the other convention's sign.
+  // A right temperature, a net work with the other convention's sign and an unreadable
+  // efficiency, sent with a double click: one press is stored (the efficiency is refused and
+  // uses no attempt), and the POST redirects to its receipt.
+  expect(await page.locator('input[type="hidden"][name="formToken"]').getAttribute('value')).toMatch(/^[A-Za-z0-9_-]{21}$/)
   await page.getByLabel('Compressor exit temperature').fill(key.T2!.text)
   await page.getByLabel('Net work per kg of air').fill(`${-Number(key.wNet!.value.toPrecision(6))} kJ/kg`)
-  await page.getByRole('button', { name: 'Submit answers' }).click()
+  await page.getByLabel('Thermal efficiency').fill('about half')
+  await page.getByRole('button', { name: 'Submit answers' }).dblclick()
   await page.waitForURL(/\?receipt=\d+/)
   await page.getByText('Grading in the background. Reload the page to see the result.').waitFor()
+  await page.getByText('Some answers were not submitted. They did not use an attempt.').waitFor()
   expect(await page.getByLabel('Net work per kg of air').inputValue()).toBe(`${-Number(key.wNet!.value.toPrecision(6))} kJ/kg`)
+  expect(await page.getByLabel('Thermal efficiency').inputValue()).toBe('about half')
+  expect(await page.getByLabel('Thermal efficiency').getAttribute('aria-invalid')).toBe('true')
+  const stored = () => e2eQuery<{ id: number }>('select id from submissions where item_id = $1 and user_id = $2', [ref.itemId, student.id])
+  const counted = () => e2eQuery<{ find_name: string; attempt: number }>('select find_name, attempt from part_results where item_id = $1 and user_id = $2 order by find_name', [ref.itemId, student.id])
+  expect(await stored()).toHaveLength(1)
+  expect((await counted()).map((p) => [p.find_name, p.attempt])).toEqual([
+    ['T2', 1],
+    ['wNet', 1],
+  ])
+  const receiptUrl = page.url()
+  expect(receiptUrl).toContain(`?receipt=${(await stored())[0]!.id}`)
+
+  // A reload of the receipt page is a GET: nothing is posted again.
+  await page.reload()
+  expect(await stored()).toHaveLength(1)
 
   // The worker grades it; a reload (a plain GET after the redirect) shows the verdicts.
   await expect
