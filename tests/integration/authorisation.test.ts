@@ -318,6 +318,7 @@ const EXPECTED: Record<string, Entry> = {
     get: { expect: courseStaff },
     post: { expect: courseInstructor, body: () => ({ form: { intent: 'create', name: `Lab ${unique()}` } }) },
   },
+  'routes/courses/students/$userId.tsx': { params: (w, ctx) => ({ ...course(w, ctx), userId: String(w.people.student.id) }), get: { expect: { ...courseStaff, ...crossStaff } } },
   'routes/courses/gradebook.tsx': { params: course, get: { expect: courseStaff } },
   'routes/resources/course-gradebook-csv.ts': { params: course, get: { expect: courseStaff } },
   'routes/resources/course-gradebook-xlsx.ts': { params: course, get: { expect: courseStaff } },
@@ -667,6 +668,26 @@ describe('who may do what, route by route', () => {
       })
     }
   }
+})
+
+describe('records of others named in the query string', () => {
+  const headersOf = (user: { id: number }) => loginAs(user)
+
+  test('an instructor of course B naming A’s regrade as ?regrade= on their own regrade page is shown no progress', async () => {
+    const mod = await import('#app/routes/courses/assignments/regrade.tsx')
+    const params = { courseId: String(world.B.course.id), assignmentId: String(world.B.assignment.id), position: '1' }
+    const url = `${BASE}/courses/${world.B.course.id}/assignments/${world.B.assignment.id}/problems/1/regrade?regrade=${world.ids.regradeId}`
+    const page = await mod.loader(args(new Request(url, { headers: await headersOf(world.people.otherInstructor) }), params))
+    expect(page.progress).toBeNull()
+    expect(page.regrades.map((r: { id: number }) => r.id)).not.toContain(world.ids.regradeId)
+  })
+
+  test('an instructor of course B filtering their review queue by A’s assignment lists none of A’s disputes', async () => {
+    const mod = await import('#app/routes/courses/disputes/index.tsx')
+    const url = `${BASE}/courses/${world.B.course.id}/disputes?assignment=${world.A.assignment.id}&status=all`
+    const page = await mod.loader(args(new Request(url, { headers: await headersOf(world.people.otherInstructor) }), { courseId: String(world.B.course.id) }))
+    expect(page.rows).toEqual([])
+  })
 })
 
 describe('refusals leave nothing behind', () => {
