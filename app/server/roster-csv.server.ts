@@ -6,19 +6,10 @@
  */
 import { parse } from 'csv-parse/sync'
 import { z } from 'zod'
+import { MAX_ROSTER_BYTES, MAX_ROSTER_ROWS, rosterLimits } from '#app/lib/roster-limits.ts'
 import { normaliseEmail } from './users.server.ts'
 
-/** Largest class list accepted, in bytes of text and in students. */
-export const MAX_ROSTER_BYTES = 1024 * 1024
-export const MAX_ROSTER_ROWS = 5000
-
-export const rosterLimits = {
-  studentNumber: 32,
-  familyName: 60,
-  givenName: 60,
-  email: 254,
-  section: 60,
-} as const
+export { MAX_ROSTER_BYTES, MAX_ROSTER_ROWS, rosterLimits }
 
 export type RosterColumn = 'studentNumber' | 'familyName' | 'givenName' | 'email' | 'section'
 

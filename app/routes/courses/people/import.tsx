@@ -15,7 +15,8 @@ import { Notice } from '#app/components/ui/notice.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { MAX_ROSTER_BYTES, MAX_ROSTER_ROWS, parseRosterCsv, tooLarge } from '#app/server/roster-csv.server.ts'
+import { MAX_ROSTER_BYTES, MAX_ROSTER_ROWS } from '#app/lib/roster-limits.ts'
+import { parseRosterCsv, tooLarge } from '#app/server/roster-csv.server.ts'
 import { importRoster, previewRoster, type PlannedRow, type RosterPlan } from '#app/server/roster.server.ts'
 import type { Route } from './+types/import'
 
@@ -268,7 +269,8 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
         </section>
       ) : null}
 
-      <Form method="post" encType="multipart/form-data" className="mt-8 flex flex-col gap-4 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
+      {/* Made anew for each list read, so a file chosen before does not override the fixed text in the box. */}
+      <Form key={actionData?.csv ?? ''} method="post" encType="multipart/form-data" className="mt-8 flex flex-col gap-4 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
         <h2 className="text-lg font-semibold">{plan ? 'Change the list and check again' : 'Choose the class list'}</h2>
         <input type="hidden" name="intent" value="preview" />
         <div className="flex flex-col gap-1">
@@ -298,7 +300,6 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
             rows={10}
             spellCheck={false}
             defaultValue={actionData?.csv ?? ''}
-            key={actionData?.csv ?? ''}
             aria-describedby={['roster-csv-hint', formErrorId].filter(Boolean).join(' ')}
             className="rounded-md border border-line px-3 py-2 font-mono text-sm"
           />

@@ -11,6 +11,7 @@ import { Field } from '#app/components/ui/field.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
+import { rosterLimits } from '#app/lib/roster-limits.ts'
 import { forbidden, requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import {
@@ -131,7 +132,7 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
             label="New section"
             name="name"
             required
-            maxLength={60}
+            maxLength={rosterLimits.section}
             className="sm:flex-1"
             defaultValue={errorFor('create', null) ? actionData?.name : undefined}
             error={errorFor('create', null)}
@@ -204,7 +205,7 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
                         label={`New name for ${s.name}`}
                         name="name"
                         required
-                        maxLength={60}
+                        maxLength={rosterLimits.section}
                         defaultValue={errorFor('rename', s.id) ? actionData?.name : s.name}
                         error={errorFor('rename', s.id)}
                       />
