@@ -12,6 +12,7 @@ export default [
     route('people', 'routes/courses/people.tsx'),
     route('people/import', 'routes/courses/people/import.tsx'),
     route('people/sections', 'routes/courses/people/sections.tsx'),
+    route('students/:userId', 'routes/courses/students/$userId.tsx'),
     route('gradebook', 'routes/courses/gradebook.tsx'),
     route('gradebook.csv', 'routes/resources/course-gradebook-csv.ts'),
     route('gradebook.xlsx', 'routes/resources/course-gradebook-xlsx.ts'),
