@@ -127,10 +127,12 @@ export function sortedName(s: { familyName: string; givenName: string }): string
   return s.givenName ? `${s.familyName}, ${s.givenName}` : s.familyName
 }
 
-function StudentCell({ student }: { student: { familyName: string; givenName: string; email: string; studentNumber: string | null } }) {
+function StudentCell({ student, href }: { student: { familyName: string; givenName: string; email: string; studentNumber: string | null }; href: string }) {
   return (
     <th scope="row" className="px-3 py-2 text-left font-normal">
-      <span className="font-medium">{sortedName(student)}</span>
+      <Link to={href} className="font-medium">
+        {sortedName(student)}
+      </Link>
       <span className="block text-xs text-muted">
         {student.studentNumber ? <>ID {student.studentNumber} · </> : null}
         {student.email}
@@ -222,7 +224,7 @@ export function AssignmentGradebookTable({ data, basePath }: { data: AssignmentG
         <tbody>
           {data.students.map((s) => (
             <tr key={s.userId} className="border-t border-line align-top">
-              <StudentCell student={s} />
+              <StudentCell student={s} href={`/courses/${data.assignment.courseId}/students/${s.userId}`} />
               <td className="px-3 py-2">{s.section ?? '—'}</td>
               {s.items.map((item) =>
                 expanded ? (
@@ -310,7 +312,7 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
         <tbody>
           {data.students.map((s) => (
             <tr key={s.userId} className="border-t border-line align-top">
-              <StudentCell student={s} />
+              <StudentCell student={s} href={`/courses/${data.course.id}/students/${s.userId}`} />
               <td className="px-3 py-2">{s.section ?? '—'}</td>
               {s.assignments.map((c) => (
                 <td key={c.assignmentId} className="px-3 py-2 whitespace-nowrap tabular-nums">
