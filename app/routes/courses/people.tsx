@@ -170,7 +170,13 @@ function MemberTable({
             return (
               <tr key={m.userId} className="border-t border-line align-top">
                 <th scope="row" className="px-3 py-2 font-medium">
-                  {m.name}
+                  {m.role === 'student' ? (
+                    <Link to={`../students/${m.userId}`} relative="path">
+                      {m.name}
+                    </Link>
+                  ) : (
+                    m.name
+                  )}
                   {!m.joined ? <span className="block text-xs font-normal text-muted">has not joined yet</span> : null}
                 </th>
                 <td className="px-3 py-2">{m.studentNumber ?? '—'}</td>
