@@ -83,8 +83,9 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
         const { valid, invalid } = splitGradeJobs(jobs)
         if (valid.length === 0) return invalid
         try {
-          await gradeSubmissions(database, valid.map((v) => v.submissionId))
-          return invalid
+          const outcomes = await gradeSubmissions(database, valid.map((v) => v.submissionId))
+          // A submission another transaction holds is run again on its own (and retried if still held).
+          return [...invalid, ...valid.filter((v) => outcomes.get(v.submissionId) === 'busy').map((v) => v.job)]
         } catch (e) {
           logError(`Grading a batch of ${valid.length} failed (${e instanceof Error ? e.message : String(e)}); grading them one by one.`)
           return jobs

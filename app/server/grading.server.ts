@@ -85,7 +85,11 @@ export function studentVariant(input: {
   return drawn
 }
 
-export type GradeOutcome = 'graded' | 'already-graded' | 'missing' | 'failed'
+/**
+ * 'busy': another transaction holds the submission (a batch still running past its job's
+ * expiry, say); the job must be retried, not completed, since that transaction may yet fail.
+ */
+export type GradeOutcome = 'graded' | 'already-graded' | 'busy' | 'missing' | 'failed'
 
 // Definitions of frozen versions, by version id. Safe to keep: a frozen version is never
 // edited (saving it makes the next version), so the document under a frozen id never changes.
@@ -133,8 +137,8 @@ export async function gradeSubmission(database: Db, submissionId: number): Promi
  * commit for the batch instead of one per submission is most of the grader's speed). Each
  * submission is graded only while it is still 'queued', under a row lock, so a retried or
  * duplicated job never counts twice. A submission another transaction is grading right now
- * is skipped (SKIP LOCKED) and reported 'already-graded': that transaction finishes it, or
- * its own job is retried. Returns each id's outcome.
+ * is skipped (SKIP LOCKED) and reported 'busy', for its job to be retried (that transaction
+ * may still roll back). Returns each id's outcome.
  */
 export async function gradeSubmissions(database: Db, submissionIds: readonly number[]): Promise<Map<number, GradeOutcome>> {
   const ids = [...new Set(submissionIds)]
@@ -166,13 +170,13 @@ export async function gradeSubmissions(database: Db, submissionIds: readonly num
       .where(inArray(submissions.id, ids))
       .orderBy(submissions.id)
       .for('update', { of: submissions, skipLocked: true })
-    for (const id of ids) outcomes.set(id, 'already-graded')
+    for (const r of rows) outcomes.set(r.id, 'already-graded')
     const seen = new Set(rows.map((r) => r.id))
-    // Neither locked by us nor by anyone: no such submission (deleted with its course).
+    // Not locked by us: held by another transaction, or no such submission (deleted with its course).
     if (seen.size < ids.length) {
       const exist = await tx.select({ id: submissions.id }).from(submissions).where(inArray(submissions.id, ids))
       const present = new Set(exist.map((r) => r.id))
-      for (const id of ids) if (!present.has(id)) outcomes.set(id, 'missing')
+      for (const id of ids) if (!seen.has(id)) outcomes.set(id, present.has(id) ? 'busy' : 'missing')
     }
     const queued = rows.filter((r) => r.status === 'queued')
     if (queued.length === 0) return outcomes

@@ -1,7 +1,8 @@
 /**
  * The 'grade-submission' job: grades one stored submission (app/server/grading.server.ts).
  * Idempotent: a submission already graded is skipped, so a retried or duplicated job never
- * counts twice. A missing submission (deleted with its course) is nothing to do. The worker
+ * counts twice. A missing submission (deleted with its course) is nothing to do; one that
+ * another transaction holds ('busy') is retried. The worker
  * grades whole fetched batches with gradeSubmissions and uses this handler for a job on its own.
  */
 import type { Db } from '#app/server/db/client.server.ts'
@@ -13,7 +14,10 @@ export type GradeSubmissionDeps = { database: Db; grade?: typeof gradeSubmission
 export async function handleGradeSubmission(payload: unknown, deps: GradeSubmissionDeps): Promise<GradeOutcome> {
   const parsed = queuePayloads['grade-submission'].safeParse(payload)
   if (!parsed.success) throw new PermanentJobError(`grade-submission payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
-  return (deps.grade ?? gradeSubmission)(deps.database, parsed.data.submissionId)
+  const outcome = await (deps.grade ?? gradeSubmission)(deps.database, parsed.data.submissionId)
+  // Thrown so pg-boss retries it: the transaction holding it may yet roll back.
+  if (outcome === 'busy') throw new Error(`submission ${parsed.data.submissionId} is being graded by another transaction; trying again later`)
+  return outcome
 }
 
 /**

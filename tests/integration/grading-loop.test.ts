@@ -4,6 +4,7 @@
  * job counted once; attempts, late policy and extensions.
  */
 import { and, eq, sql } from 'drizzle-orm'
+import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { loader as gradebookLoader } from '#app/routes/resources/api-assignment-gradebook.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -14,6 +15,7 @@ import { extensions, partResults, submissions } from '#app/server/db/schema.serv
 import { gradeSubmission, gradeSubmissions, listAssignmentTotals, listFindScores, studentVariant } from '#app/server/grading.server.ts'
 import { enqueue, stopBoss } from '#app/server/queue.server.ts'
 import { getMyResults, getStudentProblem, submitAnswers } from '#app/server/submissions.server.ts'
+import { handleGradeSubmission } from '#jobs/handlers/grade-submission.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
@@ -142,6 +144,31 @@ describe('submit, grade, read back', () => {
     } finally {
       worker = await startWorker({ log: () => {}, logError: (line) => workerErrors.push(line), gradingLoops: 1 })
     }
+  })
+
+  test('a submission another transaction holds is retried, not completed: graded once that transaction ends', async () => {
+    const s = await setUp()
+    // Stored without a job first, so the running worker cannot take it before the lock below.
+    const [sub] = await db().insert(submissions).values({ assignmentId: s.assignment.id, itemId: s.item.id, userId: s.student.id, answers: { T2: `${s.key.T2!.value} K` } }).returning({ id: submissions.id })
+    await db().insert(partResults).values({ submissionId: sub!.id, assignmentId: s.assignment.id, itemId: s.item.id, userId: s.student.id, findName: 'T2', answer: `${s.key.T2!.value} K`, attempt: 1, maxScore: 20 / 7 })
+    const holder = new pg.Client({ connectionString: process.env.DATABASE_URL })
+    await holder.connect()
+    try {
+      await holder.query('begin')
+      await holder.query('select id from submissions where id = $1 for update', [sub!.id])
+      expect(Object.fromEntries(await gradeSubmissions(db(), [sub!.id]))).toEqual({ [sub!.id]: 'busy' })
+      await expect(handleGradeSubmission({ v: 1, submissionId: sub!.id }, { database: db() })).rejects.toThrow(/another transaction/)
+      // Through the worker: its batch finds the row held, runs the job alone, and pg-boss retries it.
+      await enqueue('grade-submission', { v: 1, submissionId: sub!.id })
+      await until('the worker to find the submission held', async () => workerErrors.filter((e) => e.includes(`submission ${sub!.id} is being graded`)).length, (n) => n > 0)
+      await holder.query('rollback')
+    } finally {
+      await holder.end()
+    }
+    await until('the retried job to grade it', async () => (await db().select({ status: submissions.status }).from(submissions).where(eq(submissions.id, sub!.id)))[0]!.status, (st) => st === 'graded')
+    const parts = await db().select({ verdict: partResults.verdict }).from(partResults).where(eq(partResults.submissionId, sub!.id))
+    expect(parts).toEqual([{ verdict: 'correct' }])
+    workerErrors.length = 0
   })
 
   test('attempts run out per find, and two quick presses get different attempt numbers', async () => {
