@@ -254,7 +254,18 @@ export type GradebookStudent = StudentNames & {
   items: { position: number; score: number; max: number; finds: GradebookFind[] }[]
 }
 export type AssignmentGradebook = {
-  assignment: { id: number; courseId: number; title: string; opensAt: string; dueAt: string; points: number; attemptsPerFind: number; timeZone: string }
+  assignment: {
+    id: number
+    courseId: number
+    title: string
+    opensAt: string
+    dueAt: string
+    points: number
+    attemptsPerFind: number
+    timeZone: string
+    /** 'due' once its due date has passed: only then do its scores count in the course total */
+    stage: AssignmentStage
+  }
   items: Omit<ItemFacts, 'id'>[]
   sections: string[]
   /** current students in the course, before the view's filters (dropped ones not included) */
@@ -326,6 +337,7 @@ export async function getAssignmentGradebook(
       points,
       attemptsPerFind: assignment.attemptsPerFind,
       timeZone,
+      stage: assignmentStage(assignment, new Date()),
     },
     items: items.map(({ id: _id, assignmentId: _a, ...rest }) => rest),
     sections: sectionsOf(students),

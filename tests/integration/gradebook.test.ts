@@ -132,6 +132,8 @@ describe('GET /api/assignments/:id/gradebook', () => {
     const { status, body } = await gradebook()
     expect(status).toBe(200)
     expect(body.assignment.points).toBe(7)
+    // Due in a week: open, so not yet in the course total (the page says so beside the due date).
+    expect(body.assignment.stage).toBe('open')
     expect(body.items).toHaveLength(1)
     expect(body.items[0]!.finds.map((f) => [f.name, f.share])).toEqual([
       ['T2', 2],

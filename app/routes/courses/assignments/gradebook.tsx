@@ -47,7 +47,7 @@ export default function AssignmentGradebookRoute({ loaderData }: Route.Component
       <h1 className="mt-1 text-3xl font-semibold">Gradebook: {assignment.title}</h1>
       <p className="mt-1 text-sm text-muted">
         Due {formatInZone(assignment.dueAt, assignment.timeZone)}
-        {new Date(assignment.dueAt).getTime() > Date.now() ? ' (not due yet: not counted in the course total)' : ''} · {formatPoints(assignment.points)} points ·{' '}
+        {assignment.stage === 'due' ? '' : ' (not due yet: not counted in the course total)'} · {formatPoints(assignment.points)} points ·{' '}
         {assignment.attemptsPerFind} attempts per question ·{' '}
         <Link to={`${base}/statistics`} className="underline">
           Statistics
