@@ -4,12 +4,16 @@
  * neutralising, who may have them), the term export built by a real pg-boss worker into two
  * files, and a queued e-mail delivered by the worker to the local fake SMTP server's outbox.
  */
+import { createElement } from 'react'
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query'
+import { renderToString } from 'react-dom/server'
+import { createRoutesStub } from 'react-router'
 import { parse } from 'csv-parse/sync'
 import { and, eq } from 'drizzle-orm'
 import ExcelJS from 'exceljs'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { action as exportsAction, loader as exportsLoader } from '#app/routes/admin/exports.tsx'
-import { loader as gradebookPageLoader } from '#app/routes/courses/gradebook.tsx'
+import CourseGradebookRoute, { loader as gradebookPageLoader } from '#app/routes/courses/gradebook.tsx'
 import { loader as courseCsvLoader } from '#app/routes/resources/course-gradebook-csv.ts'
 import { loader as courseXlsxLoader } from '#app/routes/resources/course-gradebook-xlsx.ts'
 import { loader as downloadLoader } from '#app/routes/resources/grade-export-download.ts'
@@ -205,6 +209,28 @@ describe('course gradebook CSV and XLSX', () => {
     // The screen keeps the exact score; it shows it through formatPoints, which rounds as the file does.
     const csvFigures = rows.slice(1).map((row) => [Number(row[8]), ...row.slice(5, 8).map((x) => (x === '' ? null : Number(x)))])
     expect(screen.map((r) => r.map((x) => (x === null ? null : Math.round(x * 100) / 100)))).toEqual(csvFigures)
+    // What the page renders: the sentence above the table, each row's figures as the CSV has them,
+    // "—" only in the column not counted, and the dropped student apart from the table.
+    const url = `/courses/${c.course.id}/gradebook`
+    const Stub = createRoutesStub([{ path: '/courses/:courseId/gradebook', Component: CourseGradebookRoute as never, loader: () => page, HydrateFallback: () => null }])
+    const html = renderToString(
+      createElement(QueryClientProvider, { client: new QueryClient() }, createElement(Stub, { initialEntries: [url], hydrationData: { loaderData: { 0: page } } })),
+    ).replaceAll('<!-- -->', '')
+    expect(html).toContain('Totals count only assignments whose due date has passed, as of ')
+    expect(html).toContain('2 of 3 assignments are past their due date and counted (30 points)')
+    const [table, afterTable] = html.split('</table>') as [string, string]
+    const trs = table.split('<tr').slice(2) // the header row, then one per student
+    expect(trs).toHaveLength(4)
+    rows.slice(1).forEach((csvRow, i) => {
+      const cells = [...trs[i]!.matchAll(/<td[^>]*>(.*?)<\/td>/g)].map((m) => m[1]!.replace(/<[^>]+>/g, '').replace(/grading…$/, ''))
+      expect(trs[i]).toContain(csvRow[3]!) // the same student, in the same place
+      // Section, three assignments, the total, the status.
+      expect(cells.slice(1, 5)).toEqual([csvRow[5], csvRow[6], '—not counted', csvRow[8]])
+    })
+    expect(afterTable).toContain('Dropped students (1)')
+    expect(afterTable).toContain(dan!.email)
+    expect(table).not.toContain(dan!.email)
+
     // The not-yet-due score is kept (the assignment gradebook shows it) but not in the total.
     expect(g.students.find((s) => s.userId === zeller!.id)!.assignments[2]).toMatchObject({ score: 4, counted: false })
 
