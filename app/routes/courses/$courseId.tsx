@@ -3,6 +3,7 @@ import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { windowMessage } from '#app/domain/assignments/policy.ts'
 import { roleLabels } from '#app/domain/permissions.ts'
 import { conventionText } from '#app/lib/conventions.ts'
+import { formatPoints } from '#app/lib/points.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { listAssignmentsForCourse, type AssignmentListRow } from '#app/server/assignments.server.ts'
@@ -101,7 +102,7 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
             : 'No assignments are open for you yet.'}
         </p>
       ) : (
-        <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
+        <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">
             <caption className="sr-only">Assignments, by due date; times in {timeZone}</caption>
             <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
@@ -136,7 +137,7 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
                   {staff ? (
                     <>
                       <td className="px-4 py-2">
-                        {a.itemCount} ({a.maxScore} points)
+                        {a.itemCount} ({formatPoints(a.maxScore)} points)
                       </td>
                       <td className="px-4 py-2">
                         <span className="flex flex-wrap gap-3">

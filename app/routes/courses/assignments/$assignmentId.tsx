@@ -6,6 +6,7 @@ import { Notice } from '#app/components/ui/notice.tsx'
 import { windowMessage } from '#app/domain/assignments/policy.ts'
 import { renderMarkdown } from '#app/domain/authoring/prompt.ts'
 import { formatInZone } from '#app/lib/dates.ts'
+import { formatPoints, formatScore } from '#app/lib/points.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { keyReleaseText, latePolicyText } from '#app/lib/assignment-text.ts'
 import { getAssignmentDetail, orErrorPage, releaseGrades, releaseKey } from '#app/server/assignments.server.ts'
@@ -161,7 +162,7 @@ function StaffView({ detail, base, courseId, fmt, mayChange }: { detail: Detail;
                       {it.title}
                     </th>
                     <td className="px-4 py-2">{it.versionNumber}</td>
-                    <td className="px-4 py-2">{it.points}</td>
+                    <td className="px-4 py-2">{formatPoints(it.points)}</td>
                     <td className="px-4 py-2">
                       <span className="flex flex-wrap gap-3">
                         <Link to={`${base}/problems/${it.position}`}>
@@ -215,7 +216,7 @@ function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt:
             <dt className="font-medium">Your grade</dt>
             <dd>
               <strong>
-                {student.total} of {detail.maxScore} points
+                {formatScore(student.total, detail.maxScore)} points
               </strong>{' '}
               (released {fmt(a.gradesReleasedAt)})
             </dd>
@@ -248,7 +249,7 @@ function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt:
                       <Link to={`${base}/problems/${it.position}`}>{it.title}</Link>
                     </th>
                     <td className="px-4 py-2">
-                      {it.mine?.score ?? 0} of {it.points}
+                      {formatScore(it.mine?.score ?? 0, it.points)}
                     </td>
                     <td className="px-4 py-2">{statusText(it.mine)}</td>
                   </tr>
