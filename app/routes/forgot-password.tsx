@@ -7,6 +7,7 @@ import { noFieldErrors, noValues, parseForm, readFormData } from '#app/lib/form.
 import { echoValues } from '#app/lib/text-field.ts'
 import { EmailSchema } from '#app/lib/validation.ts'
 import { requestPasswordReset } from '#app/server/access-links.server.ts'
+import { clientAddress } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { appUrl } from '#app/server/env.server.ts'
 import type { Route } from './+types/forgot-password'
@@ -18,7 +19,8 @@ const ForgotFormSchema = z.object({ email: EmailSchema })
 export async function action({ request }: Route.ActionArgs) {
   const form = parseForm(await readFormData(request), ForgotFormSchema)
   if (!form.ok) return data({ sent: false, fieldErrors: form.fieldErrors, values: echoValues(form.values) }, { status: 400 })
-  await requestPasswordReset(db(), form.value.email, appUrl())
+  // Sent, not sent (no account) or throttled: the same answer, so it reveals nothing.
+  await requestPasswordReset(db(), form.value.email, { clientAddress: clientAddress(request), baseUrl: appUrl() })
   return { sent: true, fieldErrors: noFieldErrors, values: noValues }
 }
 

@@ -2,6 +2,7 @@ import { data, Form, Link, useNavigation, useSearchParams } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { Field } from '#app/components/ui/field.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
+import { readFormData } from '#app/lib/form.ts'
 import { withoutNul } from '#app/lib/text-field.ts'
 import { authenticator, requireAnonymous, safeRedirect, SignInError, startSession } from '#app/server/auth.server.ts'
 import type { Route } from './+types/sign-in'
@@ -15,8 +16,9 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   await requireAnonymous(request)
+  // The target is made safe before anything else, so a bad one can never fail after a session starts.
   const redirectTo = safeRedirect(new URL(request.url).searchParams.get('redirectTo'))
-  const email = (await request.clone().formData()).get('email')
+  const email = (await readFormData(request.clone())).get('email')
   try {
     const { userId } = await authenticator.authenticate('password', request)
     return await startSession(userId, redirectTo)

@@ -11,6 +11,7 @@ import { accessTokens, courses, memberships, sessions, users } from './db/schema
 import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
 import { hashPassword } from './passwords.server.ts'
+import { claimResetRequest } from './rate-limit.server.ts'
 import { normaliseEmail } from './users.server.ts'
 
 export const INVITATION_DAYS = 7
@@ -139,13 +140,23 @@ export async function acceptInvitation(
 }
 
 /**
- * Sends a reset link when the address has an account. The caller shows the same
- * message either way, so the form does not reveal who has an account.
+ * Sends a reset link when the address has an account and the request is within the
+ * limits (per e-mail and per client address, rate-limit.server.ts). The caller shows the
+ * same message in every case, so the form reveals neither who has an account nor who is
+ * being throttled.
  */
-export async function requestPasswordReset(database: Db, rawEmail: string, baseUrl = appUrl(), now = new Date()) {
+export async function requestPasswordReset(
+  database: Db,
+  rawEmail: string,
+  opts: { clientAddress: string; baseUrl?: string; now?: Date },
+): Promise<{ sent: boolean; throttled: boolean }> {
   const email = normaliseEmail(rawEmail)
+  const now = opts.now ?? new Date()
+  const baseUrl = opts.baseUrl ?? appUrl()
+  const allowed = await claimResetRequest(database, email, opts.clientAddress, now)
+  if (!allowed.allowed) return { sent: false, throttled: true }
   const [user] = await database.select({ id: users.id }).from(users).where(eq(users.email, email))
-  if (!user) return { sent: false }
+  if (!user) return { sent: false, throttled: false }
   const token = nanoid(32)
   await database.insert(accessTokens).values({
     token,
@@ -165,7 +176,7 @@ export async function requestPasswordReset(database: Db, rawEmail: string, baseU
       after: [`The link works once and expires in ${RESET_MINUTES} minutes. If you did not ask for this, ignore this message.`],
     }),
   )
-  return { sent: true }
+  return { sent: true, throttled: false }
 }
 
 /** Sets the new password and ends every session of that account. */

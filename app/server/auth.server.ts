@@ -8,8 +8,8 @@ import { FormStrategy } from 'remix-auth-form'
 import { z } from 'zod'
 import { canUseBank, hasCourseRole, type CourseRole } from '#app/domain/permissions.ts'
 import { db } from './db/client.server.ts'
-import { verifyPassword } from './passwords.server.ts'
-import { checkSignInRate, recordSignInAttempt } from './rate-limit.server.ts'
+import { checkPassword } from './passwords.server.ts'
+import { beginSignInAttempt, markSignInSucceeded, waitInWords } from './rate-limit.server.ts'
 import { createSessionRow, deleteSessionRow, findLiveSession, getCookieSession, sessionStorage } from './session.server.ts'
 import { findUserByEmail, loadSignedInUser, normaliseEmail, toActor, type SignedInUser } from './users.server.ts'
 
@@ -40,15 +40,14 @@ authenticator.use(
     const email = normaliseEmail(parsed.data.email)
     const address = clientAddress(request)
     const database = db()
-    const rate = await checkSignInRate(database, email, address)
-    if (!rate.allowed) {
-      const n = rate.retryInMinutes
-      throw new SignInError(`Too many sign-in attempts. Try again in ${n} minute${n === 1 ? '' : 's'}.`)
-    }
+    // Counted and recorded in one step before any password is checked (rate-limit.server.ts).
+    const gate = await beginSignInAttempt(database, email, address)
+    if (!gate.allowed) throw new SignInError(`Too many sign-in attempts. Try again in ${waitInWords(gate.retryInSeconds)}.`)
     const user = await findUserByEmail(database, email)
-    const ok = user?.passwordHash ? await verifyPassword(user.passwordHash, parsed.data.password) : false
-    await recordSignInAttempt(database, email, address, ok)
+    // Always one argon2 verify, against a dummy hash when there is no account to check.
+    const ok = await checkPassword(user?.passwordHash, parsed.data.password)
     if (!user || !ok) throw new SignInError(WRONG_CREDENTIALS)
+    await markSignInSucceeded(database, gate.attemptId)
     return { userId: user.id }
   }),
   'password',

@@ -30,9 +30,20 @@ const EnvSchema = z.object({
   SMTP_URL: z.string().optional(),
   FAKE_SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2526),
   MAIL_FROM: z.string().default('Cyclewright <no-reply@cyclewright.invalid>'),
-  /** Sign-in rate limit: attempts allowed per e-mail and per client address in the window. */
+  /**
+   * Sign-in throttling (rate-limit.server.ts). Free failures per (e-mail, client address)
+   * pair; after them each further failure of the pair doubles the wait (2 s, 4 s, …), at
+   * most SIGNIN_WINDOW_MINUTES.
+   */
   SIGNIN_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(5),
   SIGNIN_WINDOW_MINUTES: z.coerce.number().int().min(1).default(15),
+  /** Failures from one client address, across accounts, per window (a lab shares one address). */
+  SIGNIN_ADDRESS_MAX_FAILURES: z.coerce.number().int().min(1).default(50),
+  /** Failures for one account, across addresses, per window, past which it waits for everyone. */
+  SIGNIN_ACCOUNT_MAX_FAILURES: z.coerce.number().int().min(1).default(100),
+  /** Password-reset requests per hour, per e-mail address and per client address. */
+  RESET_MAX_PER_EMAIL: z.coerce.number().int().min(1).default(3),
+  RESET_MAX_PER_ADDRESS: z.coerce.number().int().min(1).default(20),
   SESSION_DAYS: z.coerce.number().int().min(1).default(14),
   /**
    * How many proxies (load balancers) stand in front of the app and append to

@@ -35,6 +35,17 @@ async function mailTo(address: string) {
   }
 }
 
+/** Send-mail jobs to the address, whether sent yet or not (pg-boss archives old ones). */
+async function queuedMailsTo(address: string) {
+  const r = await db().execute(sql`
+    select count(*)::int as n from (
+      select id from pgboss.job where name = 'send-mail' and data->>'to' = ${address}
+      union all
+      select id from pgboss.archive where name = 'send-mail' and data->>'to' = ${address}
+    ) mails`)
+  return (r.rows[0] as { n: number }).n
+}
+
 async function cookieOf(userId: number) {
   return cookieFrom(await startSession(userId, '/'))
 }
@@ -178,6 +189,27 @@ describe('password reset', () => {
       }
       resetEnv()
     }
+  })
+
+  test('thirty requests for one address queue three mails, and every answer is the same', async () => {
+    const user = await createUser(db())
+    const answers = await Promise.all(
+      Array.from({ length: 30 }, (_, i) => forgotAction(args(formRequest('/forgot-password', { email: user.email }, { 'x-cyclewright-client-address': `10.60.0.${i}` })))),
+    )
+    for (const a of answers) expect(a).toEqual({ sent: true, fieldErrors: {}, values: {} })
+    expect(await queuedMailsTo(user.email)).toBe(3)
+  })
+
+  test('one client address asking for many addresses is limited too, with the same answer', async () => {
+    const client = { 'x-cyclewright-client-address': '10.61.0.1' }
+    for (let i = 0; i < 20; i++) await forgotAction(args(formRequest('/forgot-password', { email: `someone${i}@test.example` }, client)))
+    const user = await createUser(db())
+    const answer = await forgotAction(args(formRequest('/forgot-password', { email: user.email }, client)))
+    expect(answer).toEqual({ sent: true, fieldErrors: {}, values: {} })
+    expect(await queuedMailsTo(user.email)).toBe(0)
+    // From another address the same person gets their link.
+    await forgotAction(args(formRequest('/forgot-password', { email: user.email }, { 'x-cyclewright-client-address': '10.61.0.2' })))
+    expect(await queuedMailsTo(user.email)).toBe(1)
   })
 
   test('an unknown address gets the same answer and no mail', async () => {
