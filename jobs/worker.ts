@@ -17,8 +17,12 @@ import { handleGradeSubmission, splitGradeJobs } from './handlers/grade-submissi
 import { handleProblemSweep } from './handlers/problem-sweep.ts'
 import { handleRegrade } from './handlers/regrade.ts'
 import { handleSendMail } from './handlers/send-mail.ts'
+import { handlePurgeExpired } from './handlers/purge-expired.ts'
 
 export type RunningWorker = { stop: () => Promise<void> }
+
+/** When the worker's schedule runs 'purge-expired' (jobs/handlers/purge-expired.ts): hourly. */
+export const PURGE_CRON = '17 * * * *'
 
 /**
  * pg-boss 10 retries every failure until the queue's retryLimit. A job that can never
@@ -99,6 +103,7 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
     { name: 'regrade', handle: handleRegrade, batchSize: 1, concurrency: 1, loops: 1 },
     { name: 'send-mail', handle: handleSendMail, batchSize: 10, concurrency: 2, loops: 1 },
     { name: 'export-grades', handle: handleExportGrades, batchSize: 1, concurrency: 1, loops: 1 },
+    { name: 'purge-expired', handle: handlePurgeExpired, batchSize: 1, concurrency: 1, loops: 1 },
   ]
 
   // With its metadata a job says which try this is: pg-boss counts retries from 0 and
@@ -128,6 +133,9 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
       })
     }
   }
+  // Hourly clean-up of expired sessions and old sign-in attempts. pg-boss keeps one schedule
+  // per name, so every worker setting it is harmless, and its cron runs it once per slot.
+  await boss.schedule('purge-expired', PURGE_CRON, { v: 1 }, { singletonKey: 'purge-expired' })
   log(`Job worker started on queues ${queues.map((q) => q.name).join(', ')} (pg-boss schema ${PGBOSS_SCHEMA}).`)
 
   return {

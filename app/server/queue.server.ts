@@ -36,6 +36,8 @@ export const queuePayloads = {
   }),
   /** Build a large grade export (a term's courses) into grade_exports (jobs/handlers/export-grades.ts). */
   'export-grades': z.object({ v: z.literal(1), exportId: z.number().int().positive() }),
+  /** Delete expired sessions and sign-in attempts too old to count (jobs/handlers/purge-expired.ts); scheduled by the worker. */
+  'purge-expired': z.object({ v: z.literal(1) }),
 } as const
 
 export type QueueName = keyof typeof queuePayloads
@@ -86,6 +88,11 @@ export const queueSettings: { [N in QueueName]: QueueSettings<N> } = {
   'export-grades': {
     options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
     singletonKey: (p) => `export-${p.exportId}`,
+  },
+  'purge-expired': {
+    // 'short' with one key: a run that is still waiting absorbs the next schedule's.
+    options: { policy: 'short', retryLimit: 2, retryDelay: 60, retryBackoff: true, expireInSeconds: 10 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    singletonKey: () => 'purge-expired',
   },
 }
 

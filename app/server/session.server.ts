@@ -60,6 +60,8 @@ export async function deleteSessionsOfUser(database: Db, userId: number) {
   await database.delete(sessions).where(eq(sessions.userId, userId))
 }
 
-export async function purgeExpiredSessions(database: Db, now = new Date()) {
-  await database.delete(sessions).where(lt(sessions.expiresAt, now))
+/** Deletes session rows past their expiry; returns how many. */
+export async function purgeExpiredSessions(database: Db, now = new Date()): Promise<number> {
+  const deleted = await database.delete(sessions).where(lt(sessions.expiresAt, now))
+  return deleted.rowCount ?? 0
 }
