@@ -58,6 +58,8 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
   const se = save?.fieldErrors ?? {}
   const cv = copy?.values ?? {}
   const ce = copy?.fieldErrors ?? {}
+  // Saved settings come back as new defaults: the forms start afresh when they change.
+  const savedKey = [course.code, course.title, course.timeZone, course.signConvention].join('|')
   return (
     <div>
       <p className="text-sm text-muted">
@@ -84,7 +86,7 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
         <h2 id="settings-title" className="text-xl font-semibold">
           Settings
         </h2>
-        <Form method="post" noValidate className="mt-4 grid gap-5">
+        <Form key={savedKey} method="post" noValidate className="mt-4 grid gap-5">
           <input type="hidden" name="intent" value="save" />
           <div className="grid gap-5 sm:grid-cols-[10rem_1fr]">
             <Field label="Code" name="code" required maxLength={24} defaultValue={sv.code ?? course.code} error={se.code} />
@@ -121,9 +123,9 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
         {copyTerms.length === 0 ? (
           <p className="mt-4 rounded-lg border border-dashed border-line p-4 text-center text-muted">No terms yet — the department’s admins add them.</p>
         ) : (
-          <Form method="post" noValidate className="mt-4 grid gap-5">
+          <Form key={savedKey} method="post" noValidate className="mt-4 grid gap-5">
             <input type="hidden" name="intent" value="copy" />
-            <SelectField label="Term" name="termId" required defaultValue={cv.termId ?? ''} error={ce.termId}>
+            <SelectField label="Term to copy to" name="termId" required defaultValue={cv.termId ?? ''} error={ce.termId}>
               <option value="">Choose a term…</option>
               {copyTerms.map((t) => (
                 <option key={t.id} value={t.id}>
