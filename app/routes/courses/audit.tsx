@@ -25,6 +25,16 @@ const KIND_WORDS: Record<string, string> = {
   'key-released': 'Key released',
   'grades-released': 'Grades released',
   'assignment-changed': 'Assignment changed',
+  'roster-import': 'Class list imported',
+  'student-dropped': 'Student dropped',
+  'student-undropped': 'Drop undone',
+  'student-section': 'Student’s section changed',
+  'section-created': 'Section added',
+  'section-renamed': 'Section renamed',
+  'section-deleted': 'Section deleted',
+  'section-staff': 'TA of a section changed',
+  'invitation-resent': 'Invitation sent again',
+  'invitation-revoked': 'Invitation revoked',
 }
 
 const QuerySchema = z.object({

@@ -137,7 +137,7 @@ function MemberTable({
   busy: boolean
 }) {
   return (
-    <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
+    <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
       <table className="w-full text-left text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
@@ -323,7 +323,7 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
         {pending.length === 0 ? (
           <p className="mt-2 text-muted">No invitation is waiting.</p>
         ) : (
-          <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
+          <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
             <table className="w-full text-left text-sm">
               <caption className="sr-only">Invitations not yet accepted</caption>
               <thead className="bg-paper text-xs tracking-wide text-muted uppercase">

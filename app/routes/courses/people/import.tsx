@@ -115,7 +115,7 @@ const statusWords: Record<PlannedRow['status'], string> = {
 
 function RowsTable({ rows, caption, showSection }: { rows: PlannedRow[]; caption: string; showSection: boolean }) {
   return (
-    <div className="mt-3 overflow-x-auto rounded-lg border border-line bg-white">
+    <div className="relative mt-3 overflow-x-auto rounded-lg border border-line bg-white">
       <table className="w-full text-left text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
