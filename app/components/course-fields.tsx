@@ -20,7 +20,7 @@ export function ConventionChoice({ defaultValue, error, hint, name = 'signConven
         <label key={c} className={cn('flex items-start gap-3 rounded-md border bg-white px-3 py-2', error ? 'border-danger' : 'border-line')}>
           <input type="radio" name={name} value={c} defaultChecked={defaultValue === c} aria-invalid={error ? true : undefined} className="mt-1" />
           <span>
-            {conventionText[c].label}: <span className="font-mono">{conventionText[c].equation}</span>
+            {conventionText[c].label}: <span className="font-mono whitespace-nowrap">{conventionText[c].equation}</span>
             <span className="block text-sm text-muted">{conventionText[c].meaning}</span>
           </span>
         </label>

@@ -138,6 +138,7 @@ describe('courses and terms in the browser', () => {
     await page.getByLabel('Time zone').fill('Europe/Oslo')
     await page.getByRole('button', { name: 'Save settings' }).click()
     await page.getByText('The settings were saved.').waitFor()
+    await page.screenshot({ path: 'tests/.artifacts/course-settings-phone.png', fullPage: true })
     const [saved] = await e2eQuery<{ title: string }>('select title from courses where id = $1', [course!.id])
     expect(saved!.title).toBe(`${title} and refrigerators`)
 

@@ -169,10 +169,12 @@ function ConventionWarning({ impact, current }: { impact: Impact; current: 'chem
     <div className="space-y-1">
       <p>
         The keys are signed by the course’s convention. Changing it re-signs the key of every problem that follows the course
-        {impact.followingProblems + impact.fixedProblems > 0 ? ` (${problems(impact.followingProblems)} of this course’s assignments)` : ''}: each work value changes
-        sign, because the chemistry w is the work done on the system and the engineering W the work done by it (W = −w). Heat keeps its sign (q and Q both count the heat
-        into the system), and so do temperatures, pressures and efficiencies. Keys and worked solutions are then shown with the {other} symbols (
-        {CONVENTIONS[other].equation}).
+        {impact.followingProblems + impact.fixedProblems > 0
+          ? ` (here ${impact.followingProblems} of the ${problems(impact.followingProblems + impact.fixedProblems)} set in this course)`
+          : ''}
+        : each work value changes sign, because the chemistry w is the work done on the system and the engineering W the work done by it (W = −w). Heat keeps its sign (q
+        and Q both count the heat into the system), and so do temperatures, pressures and efficiencies. Keys and worked solutions are then shown with the {other} symbols
+        ({CONVENTIONS[other].equation}).
       </p>
       {impact.fixedProblems > 0 ? <p>{problems(impact.fixedProblems)} fix their own convention and do not change.</p> : null}
       {impact.answers > 0 ? (
