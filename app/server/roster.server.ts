@@ -309,16 +309,15 @@ export async function importRoster(
         }
       }
       const inviter = await nameOf(tx, input.actorId)
-      for (const person of toInvite)
-        await createInvitation(tx, jobs, {
-          course,
-          email: person.email,
-          role: 'student',
-          actorId: input.actorId,
-          inviterName: inviter,
-          baseUrl,
-          now,
-        })
+      await createInvitations(tx, jobs, {
+        course,
+        emails: toInvite.map((p) => p.email),
+        role: 'student',
+        actorId: input.actorId,
+        inviterName: inviter,
+        baseUrl,
+        now,
+      })
 
       await tx.insert(auditEvents).values({
         actorId: input.actorId,
@@ -381,34 +380,29 @@ function invitationMail(opts: { course: CourseFacts; email: string; role: Course
   })
 }
 
-async function createInvitation(
+/** New invitation links for many addresses at once, each e-mailed through the transaction's job connection. */
+async function createInvitations(
   tx: Db,
   jobs: JobConnection,
-  opts: {
-    course: CourseFacts
-    email: string
-    role: CourseRole
-    actorId: number
-    inviterName: string
-    baseUrl: string
-    now: Date
-  },
+  opts: { course: CourseFacts; emails: string[]; role: CourseRole; actorId: number; inviterName: string; baseUrl: string; now: Date },
 ) {
-  const token = nanoid(32)
-  await tx.insert(accessTokens).values({
-    token,
-    purpose: 'invitation',
-    email: opts.email,
-    courseId: opts.course.id,
-    role: opts.role,
-    createdBy: opts.actorId,
-    expiresAt: new Date(opts.now.getTime() + INVITATION_DAYS * 86_400_000),
-    lastSentAt: opts.now,
-  })
-  const link = `${opts.baseUrl}/join/${token}`
-  await queueMail(invitationMail({ ...opts, link, reminder: false }), {
-    connection: jobs,
-  })
+  const expiresAt = new Date(opts.now.getTime() + INVITATION_DAYS * 86_400_000)
+  const links = opts.emails.map((email) => ({ email, token: nanoid(32) }))
+  for (let i = 0; i < links.length; i += 1000)
+    await tx.insert(accessTokens).values(
+      links.slice(i, i + 1000).map(({ email, token }) => ({
+        token,
+        purpose: 'invitation' as const,
+        email,
+        courseId: opts.course.id,
+        role: opts.role,
+        createdBy: opts.actorId,
+        expiresAt,
+        lastSentAt: opts.now,
+      })),
+    )
+  for (const { email, token } of links)
+    await queueMail(invitationMail({ ...opts, email, link: `${opts.baseUrl}/join/${token}`, reminder: false }), { connection: jobs })
 }
 
 export type PendingInvitation = {

@@ -250,6 +250,8 @@ describe('pending invitations', () => {
     expect(soon.status).toBe(400)
     expect(soon.data).toMatchObject({ message: expect.stringMatching(/less than a minute ago/) })
 
+    // The first e-mail has arrived before the reminder is sent, so "the last mail" is the reminder.
+    expect((await mailTo(`amy.${k}@uni.example`))?.subject).toMatch(/^You are invited/)
     const old = new Date(Date.now() - 3 * 86_400_000)
     await db().update(accessTokens).set({ lastSentAt: old, expiresAt: new Date(Date.now() - 1000) }).where(eq(accessTokens.id, amy.id))
     const [beforeRow] = await db().select().from(accessTokens).where(eq(accessTokens.id, amy.id))
@@ -416,4 +418,20 @@ describe('who may do what', () => {
     expect((await db().select().from(courseSections).where(eq(courseSections.courseId, s.course.id))).map((x) => x.name)).toEqual(['S1'])
     expect((await db().execute(sql`select count(*)::int as n from audit_events where course_id = ${s.course.id}`)).rows[0]).toEqual({ n: 0 })
   })
+})
+
+// Last in the file: its 5,000 e-mails keep the worker busy for a while.
+describe('a full-size class list', () => {
+  test('5,000 students import in one go, each with one account, membership and invitation', async () => {
+    const s = await setup()
+    const k = uid()
+    const lines = ['Student ID,Family name,Given name,E-mail,Section']
+    for (let i = 0; i < 5000; i++) lines.push(`M${k}${i},Family${i},Given${i},m${i}.${k}@big.example,Group ${i % 20}`)
+    const done = await confirm(s, lines.join('\n'))
+    const res = ('thrown' in done ? done.thrown : done.value) as Response
+    expect(res.headers.get('Location')).toContain('imported=5000')
+    const [m] = await db().select({ n: count() }).from(memberships).where(and(eq(memberships.courseId, s.course.id), eq(memberships.role, 'student')))
+    const [t] = await db().select({ n: count() }).from(accessTokens).where(eq(accessTokens.courseId, s.course.id))
+    expect([m!.n, t!.n]).toEqual([5000, 5000])
+  }, 120_000)
 })
