@@ -312,13 +312,15 @@ export type AssignInstructorOutcome = Outcome<{ outcome: 'added' | 'already' | '
 
 /**
  * Makes the person with this address an instructor of the course: an existing account gains
- * (or is moved to) the instructor role at once; an unknown address gets an invitation as
- * instructor, through the same links as every other invitation.
+ * (or is moved to) the instructor role at once; an unknown address, or an account that has
+ * never set a password, gets an invitation as instructor, through the same links as every
+ * other invitation.
  */
 export async function assignInstructor(database: Db, opts: { actorId: number; courseId: number; email: string }): Promise<AssignInstructorOutcome> {
   const email = normaliseEmail(opts.email)
-  const [existing] = await database.select({ id: users.id, name: users.name }).from(users).where(eq(users.email, email))
-  if (!existing) {
+  const [existing] = await database.select({ id: users.id, name: users.name, hasPassword: sql<boolean>`${users.passwordHash} is not null` }).from(users).where(eq(users.email, email))
+  // No account, or one never signed in to (no password yet): the invitation's link sets it up.
+  if (!existing || !existing.hasPassword) {
     await inviteToCourse(database, { email, courseId: opts.courseId, role: 'instructor', invitedBy: opts.actorId })
     return { ok: true, outcome: 'invited', email, name: null }
   }

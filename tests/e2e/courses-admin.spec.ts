@@ -95,7 +95,7 @@ describe('courses and terms in the browser', () => {
     await page.getByText(`Hedda Lindqvist (${instructorEmail}) is now an instructor of this course.`).waitFor()
     await page.getByLabel('Instructor’s e-mail address').fill(invitedEmail)
     await page.getByRole('button', { name: 'Add instructor' }).click()
-    await page.getByText(`No account uses ${invitedEmail} yet`).waitFor()
+    await page.getByText(`An invitation to join as instructor was sent to ${invitedEmail}`).waitFor()
     const lastMail = async () =>
       (await e2eQuery<{ subject: string }>('select subject from mail_messages where $1 = any(envelope_to) order by id desc limit 1', [invitedEmail]))[0]
     await expect.poll(lastMail, { timeout: 20_000 }).toBeTruthy()

@@ -324,6 +324,20 @@ describe('assigning instructors (admin)', () => {
     expect(m?.role).toBe('instructor')
   })
 
+  test('an account that has never set a password is invited (the link sets it), not made instructor unseen', async () => {
+    const { department, cookie } = await anAdmin()
+    const course = await createCourse(db(), { departmentId: department.id })
+    const pending = await createUser(db(), { email: 'pending@test.example', password: null })
+    const out = (await courseAdminAction(
+      args(formRequest(`/admin/courses/${course.id}`, { email: pending.email }, { Cookie: cookie }), { courseId: String(course.id) }),
+    )) as { done: { outcome: string } }
+    expect(out.done.outcome).toBe('invited')
+    const [token] = await db().select().from(accessTokens).where(eq(accessTokens.email, pending.email))
+    expect(token).toMatchObject({ role: 'instructor', courseId: course.id })
+    const [n] = await db().select({ n: count() }).from(memberships).where(eq(memberships.courseId, course.id))
+    expect(n!.n).toBe(0)
+  })
+
   test('a malformed address gets a field error and nothing is written', async () => {
     const { department, cookie } = await anAdmin()
     const course = await createCourse(db(), { departmentId: department.id })

@@ -51,7 +51,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 const OUTCOME_WORDS = {
   added: (who: string) => `${who} is now an instructor of this course.`,
   already: (who: string) => `${who} is already an instructor of this course.`,
-  invited: (who: string) => `No account uses ${who} yet: an invitation to join as instructor was sent to that address.`,
+  invited: (who: string) => `An invitation to join as instructor was sent to ${who}: nobody has signed in with that address yet.`,
 } as const
 
 export default function AdminCourseRoute({ loaderData, actionData }: Route.ComponentProps) {
