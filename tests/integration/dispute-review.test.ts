@@ -313,7 +313,7 @@ describe('the audit log page', () => {
     expect(filtered.value.rows.every((r) => r.kind === 'dispute')).toBe(true)
     const adjusted = filtered.value.rows.find((r) => r.note === 'Right method, one slip in the ratio.')
     // Written by the adjusting test above (tests in a file run in order).
-    expect(adjusted?.change).toEqual({ before: 'incorrect, 0 points', after: 'incorrect, 1.5 points' })
+    expect(adjusted?.words.change).toBe('incorrect; score 0 → 1.5 of 2')
   })
 
   test('a TA and a student get 403', async () => {

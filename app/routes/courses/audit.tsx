@@ -1,41 +1,21 @@
 import { Form, Link, useNavigation } from 'react-router'
 import { z } from 'zod'
-import { formatPoints } from '#app/lib/points.ts'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
+import { AUDIT_KIND_WORDS, describeAuditEntry } from '#app/lib/audit-words.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { pageParam } from '#app/lib/query-params.ts'
+import { listAuditLog } from '#app/server/audit-log.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { listAuditEvents } from '#app/server/disputes.server.ts'
 import type { Route } from './+types/audit'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Audit log · ${data.course.code} · Cyclewright` : 'Audit log · Cyclewright' }]
 
 const PAGE_SIZE = 50
 
-/** The kinds of entry written today, in words; an unknown kind is shown as it is stored. */
-const KIND_WORDS: Record<string, string> = {
-  'dispute-raised': 'Dispute raised',
-  dispute: 'Score changed by a dispute',
-  'dispute-resolved': 'Dispute resolved',
-  regrade: 'Regrade',
-  extension: 'Extension',
-  'key-released': 'Key released',
-  'grades-released': 'Grades released',
-  'assignment-changed': 'Assignment changed',
-  'roster-import': 'Class list imported',
-  'student-dropped': 'Student dropped',
-  'student-undropped': 'Drop undone',
-  'student-section': 'Student’s section changed',
-  'section-created': 'Section added',
-  'section-renamed': 'Section renamed',
-  'section-deleted': 'Section deleted',
-  'section-staff': 'TA of a section changed',
-  'invitation-resent': 'Invitation sent again',
-  'invitation-revoked': 'Invitation revoked',
-}
+const KIND_WORDS = AUDIT_KIND_WORDS
 
 const QuerySchema = z.object({
   kind: z
@@ -51,58 +31,25 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const search = new URL(request.url).searchParams
   // A page number beyond use is refused with a message (an offset of 10^20 would fail in the database).
   const query = { ...QuerySchema.parse({ kind: search.get('kind') || undefined }), page: pageParam(search) }
-  const { rows, total } = await listAuditEvents(db(), { courseId, kind: query.kind, limit: PAGE_SIZE, offset: (query.page - 1) * PAGE_SIZE })
+  const { rows, total, lookups } = await listAuditLog(db(), { courseId, kind: query.kind, limit: PAGE_SIZE, offset: (query.page - 1) * PAGE_SIZE })
   return {
     course: { id: course.id, code: course.code, title: course.title, timeZone: course.timeZone },
-    rows: rows.map((r) => ({ ...r, change: changeText(r.before, r.after) })),
+    // Worded on the server: the page gets sentences, never the stored field names or ids.
+    rows: rows.map((r) => ({
+      id: r.id,
+      at: r.at,
+      actor: r.actor,
+      kind: r.kind,
+      student: r.subject,
+      note: r.note,
+      assignmentTitle: r.assignmentTitle,
+      words: describeAuditEntry(r, { ...lookups, timeZone: course.timeZone }),
+    })),
     total,
     page: query.page,
     pages: Math.max(1, Math.ceil(total / PAGE_SIZE)),
     kind: query.kind ?? null,
   }
-}
-
-const VERDICT_WORDS: Record<string, string> = { correct: 'correct', incorrect: 'incorrect', unreadable: 'unreadable', 'wrong-dimension': 'wrong dimension', removed: 'no longer asked' }
-
-function isRecord(v: unknown): v is Record<string, unknown> {
-  return typeof v === 'object' && v !== null && !Array.isArray(v)
-}
-
-function valueText(key: string, v: unknown): string {
-  if (v === null || v === undefined) return 'none'
-  if (typeof v === 'number') return key === 'score' ? formatPoints(v) : String(v)
-  if (typeof v === 'string') return key === 'verdict' ? (VERDICT_WORDS[v] ?? v) : /^\d{4}-\d{2}-\d{2}T/.test(v) ? `@${v}` : v
-  if (Array.isArray(v)) return `${v.length} ${v.length === 1 ? 'entry' : 'entries'}`
-  return JSON.stringify(v)
-}
-
-/**
- * One side of an entry in words: a grade as "incorrect, 0 points", anything else as
- * "key: value" pairs. Timestamps are marked with @ so the page can show them in the course zone.
- */
-function sideText(side: unknown): string {
-  if (side === null || side === undefined) return 'nothing'
-  if (!isRecord(side)) return valueText('', side)
-  const score = typeof side.score === 'number' ? `${formatPoints(side.score)} ${side.score === 1 ? 'point' : 'points'}` : null
-  if ('verdict' in side) return `${side.verdict === null || side.verdict === undefined ? 'not graded' : valueText('verdict', side.verdict)}, ${score ?? 'no score'}`
-  // A dispute's own entries: its status and the find's score; the ids behind them are for the dispute page.
-  if (typeof side.status === 'string') {
-    const changed = typeof side.changed === 'number' ? `; ${side.changed} ${side.changed === 1 ? 'answer' : 'answers'} changed` : ''
-    return `${side.status}${score ? `, find’s score ${score}` : ''}${changed}`
-  }
-  return Object.entries(side)
-    .filter(([k]) => k !== 'disputeId' && k !== 'partResultIds')
-    .map(([k, v]) => `${k}: ${valueText(k, v)}`)
-    .join('; ')
-}
-
-function changeText(before: unknown, after: unknown): { before: string; after: string } {
-  return { before: sideText(before), after: sideText(after) }
-}
-
-/** Replaces the @-marked ISO timestamps of a change text with the time in the course's zone. */
-function withZone(text: string, timeZone: string): string {
-  return text.replace(/@(\d{4}-\d{2}-\d{2}T[0-9:.]+Z?)/g, (_, iso: string) => formatInZone(iso, timeZone, { withZone: false }))
 }
 
 export default function AuditRoute({ loaderData }: Route.ComponentProps) {
@@ -158,10 +105,8 @@ export default function AuditRoute({ loaderData }: Route.ComponentProps) {
               <tr>
                 <th scope="col" className="px-4 py-2">When</th>
                 <th scope="col" className="px-4 py-2">Who</th>
-                <th scope="col" className="px-4 py-2">Kind</th>
-                <th scope="col" className="px-4 py-2">Student</th>
-                <th scope="col" className="px-4 py-2">Assignment</th>
-                <th scope="col" className="px-4 py-2">Old → new</th>
+                <th scope="col" className="px-4 py-2">What happened</th>
+                <th scope="col" className="px-4 py-2">Before → after</th>
                 <th scope="col" className="px-4 py-2">Why</th>
               </tr>
             </thead>
@@ -172,13 +117,13 @@ export default function AuditRoute({ loaderData }: Route.ComponentProps) {
                     {formatInZone(r.at, course.timeZone, { withZone: false })}
                   </th>
                   <td className="px-4 py-2">{r.actor ?? 'The system'}</td>
-                  <td className="px-4 py-2">{KIND_WORDS[r.kind] ?? r.kind}</td>
-                  <td className="px-4 py-2">{r.student ?? '—'}</td>
-                  <td className="px-4 py-2">{r.assignmentTitle ?? '—'}</td>
-                  <td className="px-4 py-2">
-                    {withZone(r.change.before, course.timeZone)} → {withZone(r.change.after, course.timeZone)}
+                  <td className="min-w-64 px-4 py-2">
+                    <span className="block text-xs font-semibold tracking-wide text-muted uppercase">{r.words.kind}</span>
+                    {r.words.what}
+                    {r.assignmentTitle ? <span className="block text-xs text-muted">{r.assignmentTitle}</span> : null}
                   </td>
-                  <td className="max-w-xs px-4 py-2 whitespace-pre-wrap">{r.note || '—'}</td>
+                  <td className="min-w-48 px-4 py-2">{r.words.change ?? '—'}</td>
+                  <td className="max-w-xs px-4 py-2 whitespace-pre-wrap">{r.words.note || '—'}</td>
                 </tr>
               ))}
             </tbody>
