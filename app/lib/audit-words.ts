@@ -28,14 +28,14 @@ export const AUDIT_KIND_WORDS: Readonly<Record<string, string>> = {
   'instructor-added': 'Instructor added',
   'roster-import': 'Class list imported',
   'invitation-resent': 'Invitation sent again',
-  'invitation-revoked': 'Invitation withdrawn',
+  'invitation-revoked': 'Invitation revoked',
   'student-dropped': 'Student dropped',
-  'student-undropped': 'Student back on the roster',
+  'student-undropped': 'Drop undone',
   'section-created': 'Section added',
   'section-renamed': 'Section renamed',
   'section-deleted': 'Section deleted',
   'student-section': 'Student’s section changed',
-  'section-staff': 'Section’s teaching assistants',
+  'section-staff': 'TA of a section changed',
 }
 
 /** What the server found out about an entry: the names behind its ids. */
