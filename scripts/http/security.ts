@@ -4,9 +4,10 @@
  *
  * Headers (helmet): a Content-Security-Policy whose scripts are this site's files and the
  * framework's inline scripts carrying this response's nonce; styles may be inline because
- * KaTeX writes its layout into `style` attributes; no framing of pages (the dispute
- * attachment sets its own sandboxing policy, and X-Frame-Options SAMEORIGIN lets the dispute
- * page show it); nosniff; the referrer only within the site (addresses carry invitation and
+ * KaTeX writes its layout into `style` attributes; no framing of pages, by anyone
+ * (frame-ancestors 'none' and X-Frame-Options DENY for older browsers; no page frames
+ * anything: dispute images are <img>, PDFs downloads, and the attachment route sets its own
+ * sandboxing policy); nosniff; the referrer only within the site (addresses carry invitation and
  * reset tokens); HSTS only on https. Development relaxes scripts and connections for Vite's
  * hot reloading, and nothing else.
  */
@@ -39,7 +40,7 @@ export function securityHeaders(mode: 'production' | 'development') {
         imgSrc: ["'self'", 'data:'],
         fontSrc: ["'self'", 'data:'],
         connectSrc: dev ? ["'self'", 'ws:', 'wss:'] : ["'self'"],
-        frameSrc: ["'self'"],
+        frameSrc: ["'none'"],
         objectSrc: ["'none'"],
         baseUri: ["'none'"],
         formAction: ["'self'"],
@@ -49,7 +50,7 @@ export function securityHeaders(mode: 'production' | 'development') {
     // Sent below, only over https.
     strictTransportSecurity: false,
     referrerPolicy: { policy: 'same-origin' },
-    xFrameOptions: { action: 'sameorigin' },
+    xFrameOptions: { action: 'deny' },
   })
   return (req: Request, res: Response, next: NextFunction) => {
     if (!dev) (res.locals as SecurityLocals).cspNonce = randomBytes(16).toString('base64')

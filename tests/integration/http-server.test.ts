@@ -253,6 +253,7 @@ describe('security headers', () => {
     for (const tag of scripts) expect(tag).toContain(`nonce="${nonce}"`)
     expect(a.headers['x-content-type-options']).toBe('nosniff')
     expect(a.headers['referrer-policy']).toBe('same-origin')
+    expect(a.headers['x-frame-options']).toBe('DENY')
     expect(a.headers['strict-transport-security']).toBeUndefined()
     expect(a.headers['cache-control']).toBe('private, no-store')
   })
