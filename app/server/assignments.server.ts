@@ -2,10 +2,10 @@
  * Assignments as instructors set them and students see them: listing per course, one
  * assignment's detail, creating and editing (dates read in the course's time zone, problems
  * from the instructor's bank pinned to a version, which is frozen in the same transaction),
- * per-student extensions, releasing the key by hand, and releasing grades (one e-mail per
- * student, queued in the transaction that records the release, so it is sent once).
+ * per-student extensions, and deleting an assignment nobody has answered. Releasing the key and
+ * the grades live in releases.server.ts.
  *
- * Every change of dates, extensions or releases writes an audit_events row.
+ * Every change of dates or extensions writes an audit_events row.
  */
 import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm'
 import { data } from 'react-router'
@@ -38,12 +38,8 @@ import {
   users,
   type Assignment,
 } from './db/schema.server.ts'
-import { linkMail } from './email.server.ts'
-import { appUrl } from './env.server.ts'
-import { listAssignmentTotals, listFindScores } from './grading.server.ts'
+import { listFindScores } from './grading.server.ts'
 import { bankViewerFor, freezeProblemVersion, type BankViewer } from './problems.server.ts'
-import { enqueue, withJobTransaction } from './queue.server.ts'
-import { formatScore } from '#app/lib/points.ts'
 import type { SignedInUser } from './users.server.ts'
 
 type Database = Db | Tx
@@ -77,17 +73,17 @@ async function roleInCourse(database: Database, userId: number, courseId: number
   return row?.role ?? null
 }
 
-async function requireInstructor(database: Database, userId: number, courseId: number) {
+export async function requireInstructor(database: Database, userId: number, courseId: number) {
   if ((await roleInCourse(database, userId, courseId)) !== 'instructor') throw new AssignmentPermissionError()
 }
 
-async function courseZone(database: Database, courseId: number) {
+export async function courseZone(database: Database, courseId: number) {
   const [row] = await database.select({ timeZone: courses.timeZone, code: courses.code, title: courses.title }).from(courses).where(eq(courses.id, courseId)).limit(1)
   if (!row) throw new AssignmentNotFoundError('There is no such course.')
   return row
 }
 
-async function findAssignment(database: Database, courseId: number, assignmentId: number): Promise<Assignment> {
+export async function findAssignment(database: Database, courseId: number, assignmentId: number): Promise<Assignment> {
   if (!Number.isInteger(assignmentId) || assignmentId <= 0) throw new AssignmentNotFoundError()
   const [row] = await database
     .select()
@@ -427,7 +423,7 @@ export function changeRows(state: AssignmentFormState, change: { add: true } | {
   return { state: { ...state, items: state.items.filter((_, i) => i !== change.remove) }, fieldErrors: {} }
 }
 
-/** Every problem the viewer can see in the bank, with its versions, plus any version already on the assignment. */
+/** Every problem the viewer can see in the bank and not archived, with its versions, plus any version already on the assignment. */
 export async function listBankChoices(database: Database, viewer: BankViewer, keepVersionIds: readonly number[] = []): Promise<BankChoice[]> {
   const rows = await database
     .select({
@@ -442,14 +438,18 @@ export async function listBankChoices(database: Database, viewer: BankViewer, ke
     .from(problems)
     .innerJoin(problemVersions, eq(problemVersions.problemId, problems.id))
     .where(
-      viewer.isAdmin
-        ? undefined
-        : or(
-            eq(problems.ownerId, viewer.id),
-            eq(problems.visibility, 'installation'),
-            viewer.departmentId === null ? undefined : and(eq(problems.visibility, 'department'), eq(problems.departmentId, viewer.departmentId)),
-            keepVersionIds.length ? inArray(problemVersions.id, [...keepVersionIds]) : undefined,
-          ),
+      and(
+        viewer.isAdmin
+          ? undefined
+          : or(
+              eq(problems.ownerId, viewer.id),
+              eq(problems.visibility, 'installation'),
+              viewer.departmentId === null ? undefined : and(eq(problems.visibility, 'department'), eq(problems.departmentId, viewer.departmentId)),
+              keepVersionIds.length ? inArray(problemVersions.id, [...keepVersionIds]) : undefined,
+            ),
+        // Archived problems are not offered; a version already on the assignment stays choosable.
+        keepVersionIds.length ? or(isNull(problems.archivedAt), inArray(problemVersions.id, [...keepVersionIds])) : isNull(problems.archivedAt),
+      ),
     )
     .orderBy(sql`lower(${problems.title})`, asc(problems.id), desc(problemVersions.number))
   const byProblem = new Map<number, BankChoice>()
@@ -561,6 +561,7 @@ async function checkForm(
           ownerId: problems.ownerId,
           visibility: problems.visibility,
           departmentId: problems.departmentId,
+          archivedAt: problems.archivedAt,
         })
         .from(problemVersions)
         .innerJoin(problems, eq(problems.id, problemVersions.problemId))
@@ -585,6 +586,10 @@ async function checkForm(
       }
       if (!v || (!canSeeProblem(opts.viewer, v) && !onAssignment.has(v.versionId))) {
         fieldErrors[`items.${i}.versionId`] = 'That problem is not in your bank or shared with you; choose another.'
+        return
+      }
+      if (v.archivedAt && !onAssignment.has(v.versionId)) {
+        fieldErrors[`items.${i}.versionId`] = 'That problem is archived; restore it in the bank first, or choose another.'
         return
       }
       const p = Num('the points', 0, 10_000).safeParse(row.points)
@@ -894,87 +899,64 @@ export async function removeExtension(database: Db, opts: { courseId: number; as
   })
 }
 
-// ---- Releases -----------------------------------------------------------------------------
+// ---- Deleting -----------------------------------------------------------------------------
 
-export type ReleaseResult = { released: boolean; at: Date }
-
-/** Releases the key and worked solutions now (manual release only). Releasing again changes nothing. */
-export async function releaseKey(database: Db, opts: { courseId: number; assignmentId: number; actorId: number; now?: Date }): Promise<ReleaseResult> {
-  await requireInstructor(database, opts.actorId, opts.courseId)
-  const a = await findAssignment(database, opts.courseId, opts.assignmentId)
-  if (a.keyRelease !== 'manual') throw new AssignmentPermissionError('This assignment releases its key after the due date; change that setting to release it by hand.')
-  const now = opts.now ?? new Date()
-  return database.transaction(async (tx) => {
-    const [row] = await tx
-      .update(assignments)
-      .set({ keyReleasedAt: now })
-      .where(and(eq(assignments.id, a.id), isNull(assignments.keyReleasedAt)))
-      .returning({ at: assignments.keyReleasedAt })
-    if (!row) return { released: false, at: a.keyReleasedAt ?? now }
-    await tx.insert(auditEvents).values({ actorId: opts.actorId, courseId: opts.courseId, assignmentId: a.id, kind: 'key-released', before: { keyReleasedAt: null }, after: { keyReleasedAt: now.toISOString() } })
-    return { released: true, at: now }
-  })
+/** The assignment cannot be deleted: somebody has answered it. */
+export class AssignmentInUseError extends Error {
+  constructor(
+    message: string,
+    readonly status: 400 | 409 = 409,
+  ) {
+    super(message)
+    this.name = 'AssignmentInUseError'
+  }
 }
 
-export type GradeReleaseResult = { released: boolean; at: Date; mailed: number }
+/** What deleting the assignment would remove, for the confirmation; `answered` when it cannot be deleted. */
+export async function deletionSummary(database: Database, opts: { courseId: number; assignmentId: number }) {
+  const a = await findAssignment(database, opts.courseId, opts.assignmentId)
+  const [row] = await database
+    .select({
+      items: sql<number>`(select count(*) from ${assignmentItems} where ${assignmentItems.assignmentId} = ${a.id})::int`,
+      extensions: sql<number>`(select count(*) from ${extensions} where ${extensions.assignmentId} = ${a.id})::int`,
+      submissions: sql<number>`(select count(*) from ${submissions} where ${submissions.assignmentId} = ${a.id})::int`,
+    })
+    .from(sql`(select 1) as one`)
+  return { title: a.title, items: row?.items ?? 0, extensions: row?.extensions ?? 0, answered: (row?.submissions ?? 0) > 0 }
+}
+
+export function deletionSentence(s: { title: string; items: number; extensions: number }): string {
+  const parts = [`its ${s.items} problem${s.items === 1 ? '' : 's'} (the bank keeps them)`]
+  if (s.extensions > 0) parts.push(`${s.extensions} extension${s.extensions === 1 ? '' : 's'}`)
+  return `Deletes “${s.title}” with ${parts.join(' and ')}; this cannot be undone.`
+}
 
 /**
- * Releases the grades and, in the same transaction, queues one e-mail per student with their
- * score and a link. Only the first release sends: the update matches while gradesReleasedAt
- * is still null, so a second (or concurrent) release queues nothing.
+ * Deletes an assignment nobody has answered, with an 'assignment-deleted' audit row. The row is
+ * locked first, so a submission being stored at that moment either lands before (and the
+ * deletion is refused) or waits and is refused itself.
  */
-export async function releaseGrades(
-  database: Db,
-  opts: { courseId: number; assignmentId: number; actorId: number; baseUrl?: string; now?: Date },
-): Promise<GradeReleaseResult> {
+export async function deleteAssignment(database: Db, opts: { courseId: number; assignmentId: number; actorId: number }): Promise<{ title: string }> {
   await requireInstructor(database, opts.actorId, opts.courseId)
-  const a = await findAssignment(database, opts.courseId, opts.assignmentId)
-  const course = await courseZone(database, opts.courseId)
-  const now = opts.now ?? new Date()
-  const link = `${(opts.baseUrl ?? appUrl()).replace(/\/$/, '')}/courses/${opts.courseId}/assignments/${a.id}`
-  return withJobTransaction(database, async (tx, jobs) => {
-    const [row] = await tx
-      .update(assignments)
-      .set({ gradesReleasedAt: now })
-      .where(and(eq(assignments.id, a.id), isNull(assignments.gradesReleasedAt)))
-      .returning({ id: assignments.id })
-    if (!row) return { released: false, at: a.gradesReleasedAt ?? now, mailed: 0 }
-    const totals = await listAssignmentTotals(tx, { courseIds: [opts.courseId], assignmentIds: [a.id] })
-    const people = totals.length
-      ? await tx
-          .select({ id: users.id, email: users.email, name: users.name })
-          .from(users)
-          .where(inArray(users.id, totals.map((t) => t.userId)))
-      : []
-    const byId = new Map(people.map((p) => [p.id, p]))
-    let mailed = 0
-    for (const t of totals) {
-      const person = byId.get(t.userId)
-      if (!person) continue
-      const mail = linkMail({
-        to: person.email,
-        subject: `${course.code}: grades released for ${a.title}`,
-        lines: [
-          `Hello ${person.name},`,
-          `The grades for ${a.title} in ${course.code} ${course.title} have been released.`,
-          `Your score: ${formatScore(t.score, t.maxScore)} points.`,
-          ...(t.pending > 0 ? [`${t.pending} of your answers were still being graded when the grades were released; the page shows the final score.`] : []),
-        ],
-        link,
-        linkLabel: 'See the assignment',
-      })
-      await enqueue('send-mail', { v: 1, ...mail }, { connection: jobs })
-      mailed++
-    }
+  return database.transaction(async (tx) => {
+    const [a] = await tx
+      .select()
+      .from(assignments)
+      .where(and(eq(assignments.id, opts.assignmentId), eq(assignments.courseId, opts.courseId)))
+      .for('update')
+    if (!a) throw new AssignmentNotFoundError()
+    const summary = await deletionSummary(tx, opts)
+    if (summary.answered) throw new AssignmentInUseError(`“${a.title}” cannot be deleted: students have answered it, and their work is kept. Change its dates instead, or leave it unreleased.`)
+    await tx.delete(assignments).where(eq(assignments.id, a.id))
     await tx.insert(auditEvents).values({
       actorId: opts.actorId,
       courseId: opts.courseId,
       assignmentId: a.id,
-      kind: 'grades-released',
-      before: { gradesReleasedAt: null },
-      after: { gradesReleasedAt: now.toISOString(), mailed },
+      kind: 'assignment-deleted',
+      before: { title: a.title, opensAt: a.opensAt.toISOString(), dueAt: a.dueAt.toISOString(), items: summary.items, extensions: summary.extensions },
+      after: null,
     })
-    return { released: true, at: now, mailed }
+    return { title: a.title }
   })
 }
 
@@ -1024,7 +1006,7 @@ export async function orErrorPage<T>(work: Promise<T>): Promise<T> {
   try {
     return await work
   } catch (e) {
-    if (e instanceof AssignmentNotFoundError || e instanceof AssignmentPermissionError) throw data(e.message, { status: e.status })
+    if (e instanceof AssignmentNotFoundError || e instanceof AssignmentPermissionError || e instanceof AssignmentInUseError) throw data(e.message, { status: e.status })
     throw e
   }
 }

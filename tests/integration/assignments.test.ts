@@ -13,12 +13,12 @@ import {
   AssignmentPermissionError,
   getAssignmentDetail,
   listAssignmentsForCourse,
-  releaseGrades,
   removeExtension,
   setExtension,
   updateAssignment,
 } from '#app/server/assignments.server.ts'
 import { db } from '#app/server/db/client.server.ts'
+import { releaseGrades } from '#app/server/releases.server.ts'
 import { assignmentItems, assignments, auditEvents, extensions, problemVersions, submissions } from '#app/server/db/schema.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
@@ -317,7 +317,7 @@ describe('releasing grades', () => {
     const { course, instructor, students } = await setUp({ students: 3 })
     const p = await createProblemWithVersion(db(), instructor.id, otto)
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [{ ...p, points: 12 }])
-    const opts = { courseId: course.id, assignmentId: assignment.id, actorId: instructor.id, baseUrl: 'https://cw.test' }
+    const opts = { courseId: course.id, assignmentId: assignment.id, actorId: instructor.id, confirmed: true, early: true, baseUrl: 'https://cw.test' }
     const first = await releaseGrades(db(), opts)
     expect(first).toMatchObject({ released: true, mailed: 3 })
     const emails = students.map((s) => s.email)
@@ -336,7 +336,7 @@ describe('releasing grades', () => {
     expect(audit).toHaveLength(1)
   })
 
-  test('through the page: the instructor’s button releases; a TA’s press is refused', async () => {
+  test('through the page: the instructor’s confirmed release releases; a TA’s press is refused', async () => {
     const { course, instructor, ta } = await setUp({ students: 1 })
     const p = await createProblemWithVersion(db(), instructor.id, otto)
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p])
@@ -344,7 +344,7 @@ describe('releasing grades', () => {
     const params = { courseId: String(course.id), assignmentId: String(assignment.id) }
     const refused = await settle(overviewAction(args(formRequest(path, { intent: 'release-grades' }, { Cookie: await cookieFor(ta.id) }), params)))
     expect('thrown' in refused && status(refused.thrown)).toBe(403)
-    const done = (await overviewAction(args(formRequest(path, { intent: 'release-grades' }, { Cookie: await cookieFor(instructor.id) }), params))) as Response
+    const done = (await overviewAction(args(formRequest(path, { intent: 'release-grades', confirm: 'yes', early: 'yes' }, { Cookie: await cookieFor(instructor.id) }), params))) as Response
     expect(done.status).toBe(302)
     const [row] = await db().select({ at: assignments.gradesReleasedAt }).from(assignments).where(eq(assignments.id, assignment.id))
     expect(row!.at).not.toBeNull()

@@ -357,8 +357,9 @@ const EXPECTED: Record<string, Entry> = {
     get: { expect: { ...courseMembers, ...crossMembers } },
     post: {
       expect: { ...redirecting(courseInstructor), ...crossStaff },
-      moved: (w) => new RegExp(`^/courses/${w.A.course.id}/assignments/${w.A.assignment.id}\\?done=key$`),
-      body: () => ({ form: { intent: 'release-key' } }),
+      // A's grades are already released, so the confirmed release changes nothing and answers with the page.
+      moved: (w) => new RegExp(`^/courses/${w.A.course.id}/assignments/${w.A.assignment.id}\\?done=grades$`),
+      body: () => ({ form: { intent: 'release-grades', confirm: 'yes', early: 'yes' } }),
     },
   },
   'routes/courses/assignments/edit.tsx': {

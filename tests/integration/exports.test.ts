@@ -19,7 +19,7 @@ import { loader as courseXlsxLoader } from '#app/routes/resources/course-gradebo
 import { loader as downloadLoader } from '#app/routes/resources/grade-export-download.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { assignmentItems, gradeExports, memberships, partResults, submissions, users } from '#app/server/db/schema.server.ts'
-import { releaseGrades } from '#app/server/assignments.server.ts'
+import { releaseGrades } from '#app/server/releases.server.ts'
 import { buildTermExport, readStoredExport, requestTermExport, TERM_ASSIGNMENTS_HEADER, TERM_TOTALS_HEADER, XLSX_CONTENT_TYPE } from '#app/server/exports.server.ts'
 import { findLastMailTo } from '#app/server/outbox.server.ts'
 import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
@@ -511,7 +511,7 @@ describe('through the worker', () => {
     const rita = c.students[0]!
     await db().update(assignmentItems).set({ points: 30 / 7 }).where(eq(assignmentItems.id, c.first.itemId))
     await giveScore(c.first, rita.id, 20 / 7, 30 / 7)
-    await releaseGrades(db(), { courseId: c.course.id, assignmentId: c.first.assignmentId, actorId: c.instructor.id, baseUrl: 'https://cw.test' })
+    await releaseGrades(db(), { courseId: c.course.id, assignmentId: c.first.assignmentId, actorId: c.instructor.id, confirmed: true, early: true, baseUrl: 'https://cw.test' })
     const until = Date.now() + 20_000
     let mail = await findLastMailTo(db(), rita.email)
     while (!mail && Date.now() < until) {

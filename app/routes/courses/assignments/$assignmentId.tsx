@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react'
 import { data, Form, Link, redirect, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
@@ -9,16 +10,20 @@ import { formatInZone } from '#app/lib/dates.ts'
 import { formatPoints, formatScore } from '#app/lib/points.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { keyReleaseText, latePolicyText } from '#app/lib/assignment-text.ts'
-import { getAssignmentDetail, orErrorPage, releaseGrades, releaseKey } from '#app/server/assignments.server.ts'
+import { earlyReleaseLabel, gradesReleaseSentence, keyReleaseSentence, studentsWord } from '#app/domain/assignments/releases.ts'
+import { AssignmentInUseError, deleteAssignment, deletionSentence, deletionSummary, getAssignmentDetail, orErrorPage } from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { appUrl } from '#app/server/env.server.ts'
+import { getReleaseChecks, orReleaseErrorPage, releaseGrades, releaseKey, ReleaseRefusedError } from '#app/server/releases.server.ts'
 import type { Route } from './+types/$assignmentId'
 import { readFormData } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.detail.assignment.title} · Cyclewright` : 'Assignment · Cyclewright' }]
 
-const IntentSchema = z.enum(['release-key', 'release-grades'])
+const IntentSchema = z.enum(['release-key', 'release-grades', 'delete'])
+const ConfirmSchema = z.enum(['release-key', 'release-grades', 'delete'])
+export type ConfirmStep = z.infer<typeof ConfirmSchema>
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -26,27 +31,51 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, course } = await requireCourseRole(request, courseId, ['instructor', 'ta', 'student'])
   const detail = await orErrorPage(getAssignmentDetail(db(), { courseId, assignmentId, role: course.role, userId: user.id }))
   const instructions = detail.assignment.instructions ? renderMarkdown(detail.assignment.instructions).html : null
-  const notice = new URL(request.url).searchParams.get('done')
-  return { course, detail, instructions, notice }
+  const search = new URL(request.url).searchParams
+  const notice = search.get('done')
+  const instructor = course.role === 'instructor'
+  // The instructor's release and delete controls: the same checks the server functions apply.
+  const releases = instructor ? await orErrorPage(getReleaseChecks(db(), { courseId, assignmentId })) : null
+  const deletion = instructor ? await orErrorPage(deletionSummary(db(), { courseId, assignmentId })) : null
+  const confirmParsed = ConfirmSchema.safeParse(search.get('confirm'))
+  const confirm = instructor && confirmParsed.success ? confirmParsed.data : null
+  return { course, detail, instructions, notice, releases, deletion, confirm }
 }
+
+export type AssignmentActionData = { formError: string; step: ConfirmStep }
 
 export async function action({ request, params }: Route.ActionArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { user } = await requireCourseRole(request, courseId, ['instructor'])
-  const intent = IntentSchema.safeParse((await readFormData(request)).get('intent'))
+  const form = await readFormData(request)
+  const intent = IntentSchema.safeParse(form.get('intent'))
   if (!intent.success) throw data('Use one of the buttons on the page.', { status: 400 })
+  const confirmed = form.get('confirm') === 'yes'
   const base = `/courses/${courseId}/assignments/${assignmentId}`
-  if (intent.data === 'release-key') {
-    await orErrorPage(releaseKey(db(), { courseId, assignmentId, actorId: user.id }))
-    return redirect(`${base}?done=key`)
+  try {
+    if (intent.data === 'release-key') {
+      await releaseKey(db(), { courseId, assignmentId, actorId: user.id, confirmed })
+      return redirect(`${base}?done=key`)
+    }
+    if (intent.data === 'release-grades') {
+      await releaseGrades(db(), { courseId, assignmentId, actorId: user.id, confirmed, early: form.get('early') === 'yes', baseUrl: appUrl() })
+      return redirect(`${base}?done=grades`)
+    }
+    if (!confirmed) throw new AssignmentInUseError('Nothing was deleted: deleting cannot be undone, so it needs the confirmation step. Use the button on the assignment page and confirm.', 400)
+    await deleteAssignment(db(), { courseId, assignmentId, actorId: user.id })
+    return redirect(`/courses/${courseId}?deleted=1`)
+  } catch (e) {
+    // A refusal (not confirmed, too early, answered) is shown in the confirmation panel.
+    if (e instanceof ReleaseRefusedError || e instanceof AssignmentInUseError) {
+      return data<AssignmentActionData>({ formError: e.message, step: intent.data }, { status: e.status })
+    }
+    return orReleaseErrorPage(Promise.reject(e))
   }
-  await orErrorPage(releaseGrades(db(), { courseId, assignmentId, actorId: user.id, baseUrl: appUrl() }))
-  return redirect(`${base}?done=grades`)
 }
 
-export default function AssignmentRoute({ loaderData }: Route.ComponentProps) {
-  const { course, detail, instructions, notice } = loaderData
+export default function AssignmentRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { course, detail, instructions, notice, releases, deletion, confirm } = loaderData
   const { assignment: a, timeZone } = detail
   const fmt = (d: Date) => formatInZone(d, timeZone)
   const base = `/courses/${course.id}/assignments/${a.id}`
@@ -69,14 +98,27 @@ export default function AssignmentRoute({ loaderData }: Route.ComponentProps) {
         </Notice>
       ) : null}
       {instructions ? <div className="prompt-html mt-4 max-w-3xl leading-relaxed [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: instructions }} /> : null}
-      {detail.student ? <StudentView detail={detail} base={base} fmt={fmt} /> : <StaffView detail={detail} base={base} courseId={course.id} fmt={fmt} mayChange={course.role === 'instructor'} />}
+      {detail.student ? <StudentView detail={detail} base={base} fmt={fmt} /> : <StaffView
+          detail={detail}
+          base={base}
+          courseId={course.id}
+          fmt={fmt}
+          mayChange={course.role === 'instructor'}
+          controls={releases && deletion ? { releases, deletion, step: actionData?.step ?? confirm, error: actionData?.formError ?? null } : null}
+        />}
     </div>
   )
 }
 
 type Detail = Route.ComponentProps['loaderData']['detail']
+type Controls = {
+  releases: NonNullable<Route.ComponentProps['loaderData']['releases']>
+  deletion: NonNullable<Route.ComponentProps['loaderData']['deletion']>
+  step: ConfirmStep | null
+  error: string | null
+}
 
-function StaffView({ detail, base, courseId, fmt, mayChange }: { detail: Detail; base: string; courseId: number; fmt: (d: Date) => string; mayChange: boolean }) {
+function StaffView({ detail, base, courseId, fmt, mayChange, controls }: { detail: Detail; base: string; courseId: number; fmt: (d: Date) => string; mayChange: boolean; controls: Controls | null }) {
   const { assignment: a, items, staff } = detail
   const busy = useNavigation().state === 'submitting'
   return (
@@ -114,26 +156,7 @@ function StaffView({ detail, base, courseId, fmt, mayChange }: { detail: Detail;
             {detail.maxScore} over {items.length} problem{items.length === 1 ? '' : 's'}; {staff?.studentCount ?? 0} student{staff?.studentCount === 1 ? '' : 's'}
           </dd>
         </dl>
-        {mayChange ? (
-          <div className="mt-4 flex flex-wrap gap-6">
-            {a.keyRelease === 'manual' && !a.keyReleasedAt ? (
-              <Form method="post" className="grid gap-1">
-                <Button type="submit" name="intent" value="release-key" variant="secondary" disabled={busy}>
-                  Release key now
-                </Button>
-                <span className="text-xs text-muted">Students see the key and worked solutions, and can no longer submit.</span>
-              </Form>
-            ) : null}
-            {!a.gradesReleasedAt ? (
-              <Form method="post" className="grid gap-1">
-                <Button type="submit" name="intent" value="release-grades" disabled={busy}>
-                  Release grades
-                </Button>
-                <span className="text-xs text-muted">E-mails each student their score, once.</span>
-              </Form>
-            ) : null}
-          </div>
-        ) : null}
+        {mayChange && controls ? <ReleaseControls title={a.title} base={base} controls={controls} busy={busy} fmt={fmt} /> : null}
       </section>
       <section aria-labelledby="problems-title" className="mt-8">
         <h2 id="problems-title" className="text-xl font-semibold">
@@ -186,6 +209,87 @@ function StaffView({ detail, base, courseId, fmt, mayChange }: { detail: Detail;
         )}
       </section>
     </>
+  )
+}
+
+/**
+ * Releasing the key and the grades, and deleting: each button leads to a confirmation panel
+ * (?confirm=…) that says what will happen and to how many, with a second submit carrying
+ * confirm=yes. Only what the rules allow now is offered; otherwise a sentence says when.
+ */
+function ReleaseControls({ title, base, controls, busy, fmt }: { title: string; base: string; controls: Controls; busy: boolean; fmt: (d: Date) => string }) {
+  const { releases: r, deletion, step, error } = controls
+  const keyOffered = r.key.state === 'offered'
+  const gradesOffered = r.grades.state === 'offered'
+  const early = r.grades.state === 'offered' && r.grades.early
+  const deletable = !deletion.answered
+  const ask = (value: ConfirmStep, label: string, variant: 'primary' | 'secondary' = 'secondary') => (
+    <Form method="get" action={base}>
+      <input type="hidden" name="confirm" value={value} />
+      <Button type="submit" variant={variant}>
+        {label}
+      </Button>
+    </Form>
+  )
+  const panel = (value: ConfirmStep, heading: string, sentence: string, yes: string, extra?: ReactNode) => (
+    <section aria-labelledby={`confirm-${value}`} className="mt-4 rounded-md border border-warn/40 bg-warn-soft p-4" data-confirm={value}>
+      <h3 id={`confirm-${value}`} className="font-semibold text-warn">
+        {heading}
+      </h3>
+      <p className="mt-1">{sentence}</p>
+      {error ? (
+        <Notice tone="error" className="mt-2">
+          {error}
+        </Notice>
+      ) : null}
+      <Form method="post" action={`${base}?confirm=${value}`} className="mt-3 grid gap-3">
+        <input type="hidden" name="intent" value={value} />
+        <input type="hidden" name="confirm" value="yes" />
+        {extra}
+        <div className="flex flex-wrap items-center gap-4">
+          <Button type="submit" disabled={busy}>
+            {yes}
+          </Button>
+          <Link to={base}>Cancel</Link>
+        </div>
+      </Form>
+    </section>
+  )
+  return (
+    <div className="mt-4 grid gap-3">
+      <div className="flex flex-wrap gap-6">
+        {keyOffered ? ask('release-key', 'Release key…') : null}
+        {gradesOffered ? ask('release-grades', 'Release grades…', 'primary') : null}
+        {deletable ? ask('delete', 'Delete assignment…') : null}
+      </div>
+      {r.key.state === 'not-yet' ? <p className="text-sm text-muted" data-key-release="not-yet">{r.key.reason}</p> : null}
+      {r.grades.state === 'not-yet' ? <p className="text-sm text-muted">{r.grades.reason}</p> : null}
+      {early ? (
+        <p className="text-sm text-muted">
+          {studentsWord(r.stillAnswering)} can still answer (the last window closes {fmt(r.closesAt)}); releasing the grades before then needs an explicit choice.
+        </p>
+      ) : null}
+      {!deletable ? <p className="text-sm text-muted">Students have answered this assignment, so it cannot be deleted.</p> : null}
+      {step === 'release-key' && keyOffered
+        ? panel('release-key', 'Release the key?', keyReleaseSentence(title, r.studentCount), 'Yes, release the key')
+        : null}
+      {step === 'release-grades' && gradesOffered
+        ? panel(
+            'release-grades',
+            'Release the grades?',
+            gradesReleaseSentence(title, r.studentCount),
+            'Yes, release the grades',
+            early ? (
+              <label className="flex items-start gap-2">
+                <input type="checkbox" name="early" value="yes" required className="mt-1" />
+                <span>{earlyReleaseLabel(r.stillAnswering)}</span>
+              </label>
+            ) : undefined,
+          )
+        : null}
+      {step === 'delete' && deletable ? panel('delete', 'Delete this assignment?', deletionSentence(deletion), 'Yes, delete it') : null}
+      {step && error && !(step === 'release-key' ? keyOffered : step === 'release-grades' ? gradesOffered : deletable) ? <Notice tone="error">{error}</Notice> : null}
+    </div>
   )
 }
 
