@@ -7,7 +7,7 @@
  * freezeProblemVersion); the next save after that makes version n + 1, so grades already
  * given keep pointing at exactly what students saw.
  */
-import { and, asc, desc, eq, ilike, inArray, ne, or, sql, type SQL } from 'drizzle-orm'
+import { and, asc, desc, eq, ilike, inArray, isNotNull, isNull, ne, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/pg-core'
 import { z } from 'zod'
 import { cycleOf, DIFFICULTIES, LEVELS, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
@@ -93,6 +93,8 @@ export const BankQuerySchema = z
     difficulty: z.enum(DIFFICULTIES).optional().catch(undefined),
     level: z.enum(LEVELS).optional().catch(undefined),
     scope: z.enum(['all', 'mine', 'shared']).catch('all'),
+    /** '1': the archived problems instead of the others */
+    archived: z.enum(['1']).optional().catch(undefined),
     sort: z.enum(SORTS).catch('updated'),
     dir: z.enum(['asc', 'desc']).optional().catch(undefined),
     page: z.coerce.number().int().min(1).max(100_000).catch(1),
@@ -151,7 +153,8 @@ export async function listBankProblems(
   viewer: BankViewer,
   query: BankQuery,
 ): Promise<{ rows: BankRow[]; total: number; page: number; pageSize: number }> {
-  const conditions: (SQL | undefined)[] = [visibleTo(viewer)]
+  // Archived problems are listed only under the "Archived" filter, and then only those.
+  const conditions: (SQL | undefined)[] = [visibleTo(viewer), query.archived ? isNotNull(problems.archivedAt) : isNull(problems.archivedAt)]
   if (query.scope === 'mine') conditions.push(eq(problems.ownerId, viewer.id))
   if (query.scope === 'shared') conditions.push(ne(problems.ownerId, viewer.id))
   if (query.cycle) conditions.push(eq(problems.cycle, query.cycle))

@@ -12,6 +12,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { previewProblem } from '#app/server/preview.server.ts'
 import { ProblemAccessError, bankViewerFor, copyProblem, getProblemDetail } from '#app/server/problems.server.ts'
 import { latestSweepForVersion, startSweep } from '#app/server/sweeps.server.ts'
+import { BankChangeError, deleteProblem, problemUsage, setProblemArchived } from '#app/server/bank-archive.server.ts'
 import type { Route } from './+types/$problemId'
 import { readFormData } from '#app/lib/form.ts'
 
@@ -34,12 +35,18 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const convention = url.searchParams.get('convention') === 'chemistry' ? 'chemistry' : 'engineering'
   const preview = previewProblem(version.definition, { convention })
   const sweep = await latestSweepForVersion(db(), version.id)
-  return { problem, version, preview, convention, sweep }
+  const usage = await problemUsage(db(), problem.id)
+  const confirmDelete = problem.canEdit && url.searchParams.get('confirm') === 'delete'
+  const notice = url.searchParams.get('done')
+  return { problem, version, preview, convention, sweep, usage, confirmDelete, notice }
 }
 
 const ActionSchema = z.discriminatedUnion('intent', [
   z.object({ intent: z.literal('sweep'), total: z.coerce.number().int().min(10).max(5000).catch(500) }),
   z.object({ intent: z.literal('copy') }),
+  z.object({ intent: z.literal('archive') }),
+  z.object({ intent: z.literal('restore') }),
+  z.object({ intent: z.literal('delete'), confirm: z.string().optional() }),
 ])
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -54,6 +61,22 @@ export async function action({ request, params }: Route.ActionArgs) {
       await startSweep(db(), { versionId: version.id, requestedBy: user.id, total: parsed.data.total })
       return redirect(`${url.pathname}${url.search}#check`)
     }
+    case 'archive':
+    case 'restore':
+    case 'delete': {
+      try {
+        if (parsed.data.intent === 'delete') {
+          await deleteProblem(db(), viewer, problem.id, { confirmed: parsed.data.confirm === 'yes' })
+          return redirect('/bank?deleted=1')
+        }
+        await setProblemArchived(db(), viewer, problem.id, parsed.data.intent === 'archive')
+        return redirect(`/bank/${problem.id}?done=${parsed.data.intent === 'archive' ? 'archived' : 'restored'}`)
+      } catch (e) {
+        if (!(e instanceof BankChangeError)) throw e
+        if (e.status === 403 || e.status === 404) throw data(e.message, { status: e.status })
+        return data({ formError: e.message }, { status: e.status })
+      }
+    }
     case 'copy': {
       try {
         const copy = await copyProblem(db(), viewer, problem.id)
@@ -66,8 +89,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
 }
 
-export default function ProblemRoute({ loaderData }: Route.ComponentProps) {
-  const { problem, version, preview, convention, sweep } = loaderData
+export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { problem, version, preview, convention, sweep, usage, confirmDelete, notice } = loaderData
+  const formError = actionData && 'formError' in actionData ? actionData.formError : null
   const def = version.definition
   const busy = useNavigation().state === 'submitting'
   const isLatest = version.number === problem.latest.number
@@ -121,6 +145,61 @@ export default function ProblemRoute({ loaderData }: Route.ComponentProps) {
           </div>
         </div>
       </div>
+
+      {notice === 'archived' ? <Notice tone="ok">Archived: this problem no longer shows in the bank list or the assignment picker. Assignments that use it keep it.</Notice> : null}
+      {notice === 'restored' ? <Notice tone="ok">Restored: this problem is back in the bank list and the assignment picker.</Notice> : null}
+      {usage?.archivedAt ? <Notice tone="warn">This problem is archived: it is hidden from the bank list and the assignment picker.</Notice> : null}
+      {formError && !confirmDelete ? <Notice tone="error">{formError}</Notice> : null}
+
+      {problem.canEdit && usage ? (
+        <section aria-labelledby="tidy-title" className="rounded-lg border border-line bg-white p-4">
+          <h2 id="tidy-title" className="text-lg font-semibold">
+            Archive or delete
+          </h2>
+          <p className="mt-1 text-sm text-muted">
+            {usage.assignmentCount === 0
+              ? 'No assignment uses this problem.'
+              : `${usage.assignmentCount} assignment${usage.assignmentCount === 1 ? ' uses' : 's use'} this problem, so it can be archived but not deleted.`}
+          </p>
+          <div className="mt-3 flex flex-wrap gap-3">
+            <Form method="post">
+              <input type="hidden" name="intent" value={usage.archivedAt ? 'restore' : 'archive'} />
+              <button type="submit" disabled={busy} className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold hover:bg-paper">
+                {usage.archivedAt ? 'Restore' : 'Archive'}
+              </button>
+            </Form>
+            {usage.deletable && !confirmDelete ? (
+              <Form method="get">
+                <input type="hidden" name="confirm" value="delete" />
+                <button type="submit" className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-danger hover:bg-paper">
+                  Delete…
+                </button>
+              </Form>
+            ) : null}
+          </div>
+          {confirmDelete && usage.deletable ? (
+            <div className="mt-4 rounded-md border border-warn/40 bg-warn-soft p-4" data-confirm="delete">
+              <p className="font-semibold text-warn">Delete this problem?</p>
+              <p className="mt-1">
+                Deletes “{def.title}” with its {usage.versionCount} version{usage.versionCount === 1 ? '' : 's'} and their checks; this cannot be undone.
+              </p>
+              {formError ? (
+                <Notice tone="error" className="mt-2">
+                  {formError}
+                </Notice>
+              ) : null}
+              <Form method="post" action={`/bank/${problem.id}?confirm=delete`} className="mt-3 flex flex-wrap items-center gap-4">
+                <input type="hidden" name="intent" value="delete" />
+                <input type="hidden" name="confirm" value="yes" />
+                <button type="submit" disabled={busy} className="rounded-md bg-danger px-4 py-2 text-sm font-semibold text-white">
+                  Yes, delete it
+                </button>
+                <Link to={`/bank/${problem.id}`}>Cancel</Link>
+              </Form>
+            </div>
+          ) : null}
+        </section>
+      ) : null}
 
       {!isLatest ? (
         <Notice tone="warn">

@@ -25,7 +25,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   const viewer = await bankViewerFor(db(), user)
   const result = await listBankProblems(db(), viewer, query)
   const imported = Number(url.searchParams.get('imported') ?? '0')
-  return { ...result, query, imported: Number.isInteger(imported) && imported > 0 ? imported : 0, searchError: null as string | null }
+  return { ...result, query, imported: Number.isInteger(imported) && imported > 0 ? imported : 0, deleted: url.searchParams.get('deleted') === '1', searchError: null as string | null }
 }
 
 type SortKey = 'updated' | 'title' | 'cycle' | 'difficulty'
@@ -57,7 +57,7 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
     next.set('page', String(p))
     return `?${next}`
   }
-  const filtered = Boolean(query.q || query.cycle || query.difficulty || query.level || query.scope !== 'all')
+  const filtered = Boolean(query.q || query.cycle || query.difficulty || query.level || query.scope !== 'all' || query.archived)
   return (
     <div>
       <div className="flex flex-wrap items-end justify-between gap-4">
@@ -80,13 +80,23 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
         </div>
       </div>
 
+      {'deleted' in loaderData && loaderData.deleted ? (
+        <Notice tone="ok" className="mt-4">
+          The problem was deleted.
+        </Notice>
+      ) : null}
+      {query.archived ? (
+        <p className="mt-4 text-sm">
+          Showing archived problems: they are hidden from the bank list and the assignment picker until restored. <Link to="/bank">Show the others</Link>
+        </p>
+      ) : null}
       {imported > 0 ? (
         <Notice tone="ok" className="mt-4">
           Imported {imported} problem{imported === 1 ? '' : 's'} into your bank as private problems.
         </Notice>
       ) : null}
 
-      <Form method="get" role="search" aria-label="Search the bank" className="mt-6 grid gap-3 rounded-lg border border-line bg-white p-4 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_1fr_auto] lg:items-end">
+      <Form method="get" role="search" aria-label="Search the bank" className="mt-6 grid gap-3 rounded-lg border border-line bg-white p-4 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_1fr_auto_auto] lg:items-end">
         <div className="flex flex-col gap-1">
           <label htmlFor="bank-q" className="text-sm font-medium">
             Search
@@ -121,6 +131,10 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
             ['shared', 'Shared with me'],
           ]}
         />
+        <label className="flex items-center gap-2 text-sm lg:self-center">
+          <input type="checkbox" name="archived" value="1" defaultChecked={query.archived === '1'} className="size-4" />
+          Archived
+        </label>
         <div className="flex gap-2">
           <button type="submit" className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong">
             Search
@@ -186,7 +200,14 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
                       <div className="text-xs text-muted">
                         version {r.latestVersionNumber}
                         {r.originProblemId ? ' · copied' : ''}
+                        {query.archived ? ' · archived' : ''}
                       </div>
+                      {query.archived && r.isOwn ? (
+                        // Inside the export form: this button posts to the problem's own page instead.
+                        <button type="submit" name="intent" value="restore" formMethod="post" formAction={`/bank/${r.id}`} className="mt-1 text-xs text-accent underline">
+                          restore<span className="sr-only"> “{r.title}”</span>
+                        </button>
+                      ) : null}
                     </td>
                     <td className="px-3 py-2">{cycleLabel(r.cycle)}</td>
                     <td className="px-3 py-2 text-muted">{r.topics.length > 0 ? r.topics.join(', ') : '—'}</td>
