@@ -5,7 +5,7 @@
 import { and, desc, eq } from 'drizzle-orm'
 import { cycleOf } from '#app/domain/authoring/definition.ts'
 import type { Db } from '#app/server/db/client.server.ts'
-import { courses, departments, problemVersions, problems, terms, users } from '#app/server/db/schema.server.ts'
+import { courseSections, courses, departments, problemVersions, problems, sectionStaff, terms, users } from '#app/server/db/schema.server.ts'
 import { hashPassword } from '#app/server/passwords.server.ts'
 import { addMember } from '#tests/support/factories.ts'
 import { seedDemoAssignments } from './assignments.ts'
@@ -16,7 +16,7 @@ import { DEMO_PROBLEMS } from './problems.ts'
 export const DEMO_DOMAIN = 'kestrel-hollow.example'
 export const DEMO_PASSWORD = 'cycle-demo-2026'
 
-type Person = { email: string; name: string; isAdmin?: boolean }
+type Person = { email: string; name: string; isAdmin?: boolean; studentNumber?: string; familyName?: string; givenName?: string }
 
 export const demoPeople = {
   admin: { email: `ines.carvalho@${DEMO_DOMAIN}`, name: 'Ines Carvalho-Lund', isAdmin: true },
@@ -43,7 +43,9 @@ export function demoStudents(): Person[] {
       .normalize('NFD')
       .replace(/[\u0300-\u036f]/g, '')
       .toLowerCase()
-    out.push({ email: `${local}${i + 1}@students.${DEMO_DOMAIN}`, name: `${first} ${last}` })
+    // Invented student IDs in the demo department's own shape (KH + year + four digits).
+    const studentNumber = `KH26${String(i + 1).padStart(4, '0')}`
+    out.push({ email: `${local}${i + 1}@students.${DEMO_DOMAIN}`, name: `${first} ${last}`, studentNumber, familyName: last, givenName: first })
   }
   return out
 }
@@ -51,9 +53,10 @@ export function demoStudents(): Person[] {
 async function upsertPerson(db: Db, p: Person, passwordHash: string, departmentId: number) {
   const [found] = await db.select({ id: users.id }).from(users).where(eq(users.email, p.email))
   if (found) return found.id
+  const roster = p.studentNumber ? { studentNumber: p.studentNumber, familyName: p.familyName ?? null, givenName: p.givenName ?? null } : {}
   const [row] = await db
     .insert(users)
-    .values({ email: p.email, name: p.name, passwordHash, isAdmin: p.isAdmin ?? false, departmentId })
+    .values({ email: p.email, name: p.name, passwordHash, isAdmin: p.isAdmin ?? false, departmentId, ...roster })
     .returning({ id: users.id })
   return row!.id
 }
@@ -63,7 +66,7 @@ export async function seedDemo(db: Db, options: { now?: Date } = {}) {
   const slug = 'kestrel-hollow-energy'
   let [dept] = await db.select().from(departments).where(eq(departments.slug, slug))
   if (!dept) {
-    ;[dept] = await db.insert(departments).values({ slug, name: 'School of Energy and Process Engineering, Kestrel Hollow Institute' }).returning()
+    ;[dept] = await db.insert(departments).values({ slug, name: 'School of Energy and Process Engineering, Kestrel Hollow Institute', timeZone: 'Europe/Oslo' }).returning()
   }
   const termName = 'Autumn 2026'
   let [term] = await db.select().from(terms).where(and(eq(terms.departmentId, dept!.id), eq(terms.name, termName)))
@@ -102,6 +105,16 @@ export async function seedDemo(db: Db, options: { now?: Date } = {}) {
     // 28 engineers in two sections, 12 chemists; 4 of the engineers also take the chemistry course.
     if (i < 28) await addMember(db, id, engineering, 'student', i % 2 === 0 ? 'A' : 'B')
     if (i >= 24) await addMember(db, id, chemistry, 'student', 'C')
+  }
+  // The sections those names stand for, and the TA who looks after each.
+  const strandTaId = await upsertPerson(db, strand!, passwordHash, dept!.id)
+  for (const [courseId, name, taId] of [
+    [engineering, 'A', halloranId],
+    [engineering, 'B', strandTaId],
+    [chemistry, 'C', halloranId],
+  ] as const) {
+    const [section] = await db.insert(courseSections).values({ courseId, name }).onConflictDoNothing().returning({ id: courseSections.id })
+    if (section) await db.insert(sectionStaff).values({ sectionId: section.id, userId: taId }).onConflictDoNothing()
   }
   const owners = { tobias: wrenfieldId, amara: okaforId }
   const problemCount = await seedDemoProblems(db, owners)

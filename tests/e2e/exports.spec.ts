@@ -28,7 +28,7 @@ test('the instructor downloads the XLSX, and it holds the totals the page shows'
   const onScreen = await rows.evaluateAll((trs) =>
     trs.map((tr) => {
       const cells = [...tr.querySelectorAll('td')]
-      return { name: tr.querySelector('th span')?.textContent ?? '', total: cells[cells.length - 2]?.textContent ?? '' }
+      return { name: tr.querySelector('th a')?.textContent ?? '', total: cells[cells.length - 2]?.textContent ?? '' }
     }),
   )
   expect(onScreen.length).toBeGreaterThan(0)
