@@ -1,10 +1,12 @@
 import '@fontsource/lora/500.css'
 import '@fontsource/lora/600.css'
+import 'katex/dist/katex.min.css'
 import './app.css'
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query'
 import { useState } from 'react'
 import { Form, Links, Meta, NavLink, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from 'react-router'
 import type { Route } from './+types/root'
+import { CyclewrightMark } from './components/cyclewright-mark.tsx'
 import { GeneralErrorBoundary } from './components/error-boundary.tsx'
 import { navFor, type NavUser } from './lib/nav.ts'
 import { useNonce } from './lib/nonce.ts'
@@ -59,10 +61,8 @@ function Shell({ children }: { children: React.ReactNode }) {
       <header className="border-b border-line bg-white">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
           <a href="/" className="font-serif text-xl font-semibold text-ink no-underline hover:no-underline">
-            <span aria-hidden="true" className="mr-1 text-accent">
-              ⟳
-            </span>
-            Cyclewright
+            <CyclewrightMark className="mr-1.5 inline-block align-[-0.3em]" />
+            <span aria-hidden="true">Cyclewright</span>
           </a>
           <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
             {items.map((item) => (
