@@ -49,6 +49,8 @@ type FormComponent = FetcherWithComponents<unknown>['Form']
 export type AnswerFormDisputes = {
   /** newest first per find */
   list: readonly MyDispute[]
+  /** per find: whether it may be disputed now (the server's rule), and why not */
+  offers?: Readonly<Record<string, { allowed: boolean; reason?: string; code?: string }>>
   timeZone: string
   href: (findName: string) => string
 }
@@ -272,14 +274,14 @@ export function disputeOutcome(d: MyDispute): string {
 }
 
 /**
- * Where the student's latest dispute on this find stands, and the way to raise one. Any graded
- * verdict may be disputed, a correct one too (a wrong deduction, a late penalty); the dispute
- * page says when the window has closed.
+ * Where the student's latest dispute on this find stands, and the way to raise one when the
+ * server's rule (`offers`, from disputeWindow) allows it; otherwise the reason, in a sentence.
  */
 function DisputeState({ find: f, disputes }: { find: FindView; disputes: AnswerFormDisputes }) {
   const latest = disputes.list.find((d) => d.findName === f.name)
   const graded = f.last !== null && f.last.verdict !== null
   const open = latest?.status === 'open'
+  const offer = disputes.offers?.[f.name]
   return (
     <>
       {latest ? (
@@ -293,11 +295,16 @@ function DisputeState({ find: f, disputes }: { find: FindView; disputes: AnswerF
           )}
         </p>
       ) : null}
-      {graded && !open ? (
+      {graded && !open && (offer ? offer.allowed : true) ? (
         <p>
           <Link to={disputes.href(f.name)} className="text-accent underline">
             Dispute this verdict<span className="sr-only"> on {f.label}</span>
           </Link>
+        </p>
+      ) : null}
+      {graded && !open && offer && !offer.allowed && offer.code !== 'full-points' && offer.code !== 'not-graded' ? (
+        <p className="text-muted" data-dispute-refused={offer.code}>
+          {offer.reason}
         </p>
       ) : null}
     </>

@@ -31,6 +31,7 @@ import { and, asc, count, desc, eq, inArray, isNotNull, lte, ne, sql, type SQL }
 import { alias } from 'drizzle-orm/pg-core'
 import { fileTypeFromBuffer } from 'file-type'
 import { disputeWindow, sameAnswerValue, sameGivens } from '#app/domain/assignments/disputes.ts'
+import { attemptsAllowed, rulesOf, submissionWindow, type AssignmentRules } from '#app/domain/assignments/policy.ts'
 import { answerScore, findShares } from '#app/domain/assignments/scoring.ts'
 import type { CycleDiagrams } from '#app/domain/authoring/diagram-plot.ts'
 import type { DrawnGiven, Find, KeyEntry, ProblemDefinition } from '#app/domain/authoring/definition.ts'
@@ -47,6 +48,7 @@ import {
   auditEvents,
   courses,
   disputes,
+  extensions,
   memberships,
   partResults,
   submissions,
@@ -57,6 +59,7 @@ import {
 import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
 import { frozenDefinitions, studentVariant } from './grading.server.ts'
+import { droppedFrom } from './membership-state.server.ts'
 import { withJobTransaction } from './queue.server.ts'
 import { formatPoints, formatPointsWord } from '#app/lib/points.ts'
 import {
@@ -192,6 +195,7 @@ type ItemContext = {
   assignmentTitle: string
   gradesReleasedAt: Date | null
   disputeDays: number
+  rules: AssignmentRules
   itemId: number
   position: number
   points: number
@@ -212,6 +216,14 @@ async function loadItemContext(database: Database, where: SQL | undefined): Prom
       assignmentTitle: assignments.title,
       gradesReleasedAt: assignments.gradesReleasedAt,
       disputeDays: assignments.disputeDays,
+      opensAt: assignments.opensAt,
+      dueAt: assignments.dueAt,
+      attemptsPerFind: assignments.attemptsPerFind,
+      latePolicy: assignments.latePolicy,
+      latePenaltyPercentPerDay: assignments.latePenaltyPercentPerDay,
+      lateDaysAllowed: assignments.lateDaysAllowed,
+      keyRelease: assignments.keyRelease,
+      keyReleasedAt: assignments.keyReleasedAt,
       itemId: assignmentItems.id,
       position: assignmentItems.position,
       points: assignmentItems.points,
@@ -226,7 +238,7 @@ async function loadItemContext(database: Database, where: SQL | undefined): Prom
   if (!row) return null
   const definition = (await frozenDefinitions(database, [row.versionId])).get(row.versionId)
   if (!definition) return null
-  return { ...row, definition }
+  return { ...row, rules: rulesOf(row), definition }
 }
 
 function itemByPosition(courseId: number, assignmentId: number, position: number) {
@@ -324,24 +336,59 @@ export async function disputeAllowance(
   return a.allowed ? { allowed: true, until: a.until } : a
 }
 
+/**
+ * For the problem page: whether each find may be disputed now, by the same rule raiseDispute
+ * applies (so the page offers exactly what the server accepts).
+ */
+export async function disputeOffers(
+  database: Database,
+  input: { courseId: number; assignmentId: number; position: number; userId: number; now?: Date },
+): Promise<Record<string, DisputeAllowance & { code?: string }>> {
+  const ctx = await loadItemContext(database, itemByPosition(input.courseId, input.assignmentId, input.position))
+  if (!ctx) return {}
+  const out: Record<string, DisputeAllowance & { code?: string }> = {}
+  for (const f of ctx.definition.finds) {
+    const a = await allowanceFor(database, ctx, { ...input, findName: f.name })
+    out[f.name] = a.allowed ? { allowed: true, until: a.until } : a
+  }
+  return out
+}
+
 async function allowanceFor(database: Database, ctx: ItemContext, input: { findName: string; userId: number; courseId: number; now?: Date }) {
   if ((await courseRoleOf(database, input.userId, input.courseId)) !== 'student') {
     return { allowed: false as const, code: 'not-student', reason: 'Only students of this course can dispute a grade.' }
   }
-  if (!findOf(ctx, input.findName)) return { allowed: false as const, code: 'no-find', reason: 'This problem has no such question.' }
+  const found = findOf(ctx, input.findName)
+  if (!found) return { allowed: false as const, code: 'no-find', reason: 'This problem has no such question.' }
+  const now = input.now ?? new Date()
   const parts = await gradedParts(database, ctx.itemId, input.userId, input.findName)
-  const [open] = await database
-    .select({ id: disputes.id })
-    .from(disputes)
-    .where(and(eq(disputes.itemId, ctx.itemId), eq(disputes.userId, input.userId), eq(disputes.findName, input.findName), eq(disputes.status, 'open')))
+  const latest = parts.at(-1)
+  const [facts] = await database
+    .select({
+      open: sql<boolean>`exists (select 1 from ${disputes} d where d.item_id = ${ctx.itemId} and d.user_id = ${input.userId} and d.find_name = ${input.findName} and d.status = 'open')`,
+      resolvedOnLatest: latest
+        ? sql<boolean>`exists (select 1 from ${disputes} d where d.part_result_id = ${latest.id} and d.status <> 'open')`
+        : sql<boolean>`false`,
+      used: sql<number>`(select count(*) from ${partResults} p where p.item_id = ${ctx.itemId} and p.user_id = ${input.userId} and p.find_name = ${input.findName})::int`,
+    })
+    .from(sql`(select 1) as one`)
+  const [ext] = await database
+    .select({ dueAt: extensions.dueAt, extraAttempts: extensions.extraAttempts })
+    .from(extensions)
+    .where(and(eq(extensions.assignmentId, ctx.assignmentId), eq(extensions.userId, input.userId)))
     .limit(1)
+  const windowNow = submissionWindow(ctx.rules, ext ?? null, now)
   const w = disputeWindow({
     gradesReleasedAt: ctx.gradesReleasedAt,
     disputeDays: ctx.disputeDays,
     graded: parts.length > 0,
-    hasOpenDispute: open !== undefined,
-    now: input.now ?? new Date(),
+    hasOpenDispute: facts?.open === true,
+    now,
     format: (d) => formatInZone(d, ctx.timeZone),
+    dropped: (await droppedFrom(database, input.userId, input.courseId)) !== null,
+    latest: latest ? { verdict: latest.verdict ?? '', score: latest.score ?? 0, maxScore: latest.maxScore, disputeResolved: facts?.resolvedOnLatest === true } : undefined,
+    attemptsLeft: Math.max(0, attemptsAllowed(ctx.rules, ext ?? null) - (facts?.used ?? 0)),
+    canStillAnswer: windowNow.state === 'open' || windowNow.state === 'late',
   })
   if (!w.allowed) return { allowed: false as const, code: w.code, reason: w.reason }
   return { allowed: true as const, until: w.until ? w.until.toISOString() : null, disputedPart: parts.at(-1)! }

@@ -38,6 +38,7 @@ import { formatUnitForDisplay } from '#app/domain/grading/index.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import { assignmentItems, assignments, courses, extensions, partResults, submissions } from './db/schema.server.ts'
 import { frozenDefinitions, studentVariant } from './grading.server.ts'
+import { DROPPED_SUBMIT_MESSAGE, droppedFrom } from './membership-state.server.ts'
 import { enqueue, withJobTransaction } from './queue.server.ts'
 
 type Database = Db | Tx
@@ -493,6 +494,7 @@ async function storePress(database: Db, ref: ProblemRef & { answers: Record<stri
     const item = await loadItem(tx, ref)
     if (!item) return { ok: false, formError: 'There is no such problem in this course.', fieldErrors: {}, values: ref.answers }
     for (const f of item.definition.finds) values[f.name] = (ref.answers[f.name] ?? '').slice(0, MAX_ANSWER_LENGTH)
+    if ((await droppedFrom(tx, ref.userId, ref.courseId)) !== null) return { ok: false, formError: DROPPED_SUBMIT_MESSAGE, fieldErrors: {}, values }
     // The clock is read inside the transaction, after the lock, so lateness is judged at storage time.
     await tx.execute(sql`select pg_advisory_xact_lock(${item.itemId}, ${ref.userId})`)
     // After the lock: a press with the same token that got here first has committed, so it is seen.

@@ -71,7 +71,8 @@ function tinyPng(): Uint8Array<ArrayBuffer> {
 
 /** A student with a graded, wrong answer to wNet (the opposite sign) and a right one to T2. */
 async function setUp() {
-  const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2 })
+  // One attempt per find: the wrong wNet cannot be answered again, so it may be disputed.
+  const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2, assignment: { attemptsPerFind: 1 } })
   const [student, other] = made.students as [(typeof made.students)[0], (typeof made.students)[0]]
   const item = made.items[0]!
   const drawn = studentVariant({

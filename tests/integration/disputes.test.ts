@@ -56,7 +56,8 @@ const PDF = new TextEncoder().encode('%PDF-1.4\n1 0 obj << /Type /Catalog >> end
 const actor = (user: { id: number; isAdmin: boolean }, role: DisputeActor['role']): DisputeActor => ({ id: user.id, isAdmin: user.isAdmin, role })
 
 async function setUp(definition: ProblemDefinition = ottoV1, options: { students?: number; assignment?: AssignmentOverrides } = {}) {
-  const made = await createCourseWithAssignment(db(), [definition], { students: options.students ?? 3, assignment: options.assignment })
+  // One attempt per find: a wrong answer with attempts left is answered again, not disputed.
+  const made = await createCourseWithAssignment(db(), [definition], { students: options.students ?? 3, assignment: { attemptsPerFind: 1, ...options.assignment } })
   const ta = await createUser(db(), { name: 'Tara Assistant', password: null })
   await addMember(db(), ta.id, made.course.id, 'ta')
   const item = made.items[0]!
@@ -277,12 +278,12 @@ describe('resolving', () => {
     const detail = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: r.disputeId, viewer: actor(me, 'student') })
     expect(detail!.history.map((h) => h.kind)).toEqual(['raised', 'resolved'])
     expect(detail!.history[1]!.text).toMatch(/rejected/)
-    // Resolved, the find may be disputed again.
-    expect((await s.raise(me.id, { reason: 'Please look once more at step 3.' })).ok).toBe(true)
+    // Resolved, the same answer is not disputed twice.
+    expect(await s.raise(me.id, { reason: 'Please look once more at step 3.' })).toMatchObject({ ok: false, formError: expect.stringMatching(/resolved, so it cannot be disputed again/) })
   })
 
   test('adjust sets the find’s score exactly (a higher earlier answer is lowered too), with a comment, an audit row per part, and the gradebook follows at once', async () => {
-    const s = await setUp()
+    const s = await setUp(ottoV1, { assignment: { attemptsPerFind: 2 } })
     const me = s.students[0]!
     await s.answer(me.id, { wNet: '1 kJ/kg' })
     await s.answer(me.id, { wNet: '2 kJ/kg' })

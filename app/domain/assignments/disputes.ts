@@ -6,6 +6,13 @@
  * - One open dispute per find: a second waits until the first is resolved.
  * - While the grades are not released the window is open (a student who sees a verdict early
  *   may already ask); once released it stays open for `disputeDays` days, the end excluded.
+ * - When the server knows about the latest graded answer (`latest`), also: a dropped student
+ *   disputes nothing; an answer whose dispute was resolved is not disputed again (a new answer
+ *   may be); a correct answer with full points has nothing to dispute (one below full points,
+ *   e.g. after a late penalty, may be disputed); a wrong answer while the student can still
+ *   answer again is not disputed: they should answer again.
+ *
+ * The problem page's offer and the server's refusal both come from this function.
  */
 
 const DAY_MS = 86_400_000
@@ -20,9 +27,16 @@ export type DisputeWindowInput = {
   now: Date
   /** how a date is shown in the reason (the server passes one that shows the course's zone) */
   format?: (d: Date) => string
+  /** the student was dropped from the course */
+  dropped?: boolean
+  /** the latest graded answer to the find: its verdict and score, and whether a dispute on it was resolved */
+  latest?: { verdict: string; score: number; maxScore: number; disputeResolved: boolean }
+  /** attempts the student has left on the find and whether the assignment still accepts their answers */
+  attemptsLeft?: number
+  canStillAnswer?: boolean
 }
 
-export type DisputeWindowCode = 'not-graded' | 'open-dispute' | 'closed'
+export type DisputeWindowCode = 'dropped' | 'not-graded' | 'open-dispute' | 'already-disputed' | 'full-points' | 'answer-again' | 'closed'
 
 export type DisputeWindow =
   /** until: when the window closes; null while the grades are not released */
@@ -37,6 +51,9 @@ export function disputeDeadline(gradesReleasedAt: Date | null, disputeDays: numb
 
 export function disputeWindow(input: DisputeWindowInput): DisputeWindow {
   const format = input.format ?? ((d: Date) => d.toISOString())
+  if (input.dropped) {
+    return { allowed: false, code: 'dropped', reason: 'You have been dropped from this course, so you can no longer dispute a grade. Your past work stays here for you to read.' }
+  }
   if (!input.graded) {
     return { allowed: false, code: 'not-graded', reason: 'This question has no graded answer yet, so there is no verdict to dispute.' }
   }
@@ -46,6 +63,17 @@ export function disputeWindow(input: DisputeWindowInput): DisputeWindow {
       code: 'open-dispute',
       reason: 'You already have an open dispute on this question. You can raise another once it has been resolved.',
     }
+  }
+  const latest = input.latest
+  if (latest?.disputeResolved) {
+    return { allowed: false, code: 'already-disputed', reason: 'Your dispute on this answer has been resolved, so it cannot be disputed again. A new answer could be.' }
+  }
+  if (latest && latest.verdict === 'correct' && latest.score >= latest.maxScore - 1e-9) {
+    return { allowed: false, code: 'full-points', reason: 'This answer is correct with full points, so there is nothing to dispute.' }
+  }
+  if (latest && latest.verdict !== 'correct' && input.canStillAnswer && (input.attemptsLeft ?? 0) > 0) {
+    const n = input.attemptsLeft ?? 0
+    return { allowed: false, code: 'answer-again', reason: `You have ${n} attempt${n === 1 ? '' : 's'} left: answer again. A verdict can be disputed once you cannot answer it any more.` }
   }
   const until = disputeDeadline(input.gradesReleasedAt, input.disputeDays)
   if (until !== null && input.now.getTime() >= until.getTime()) {

@@ -15,7 +15,8 @@ import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { forbidden, requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { listMyDisputes } from '#app/server/disputes.server.ts'
+import { disputeOffers, listMyDisputes } from '#app/server/disputes.server.ts'
+import { DROPPED_SUBMIT_MESSAGE, droppedFrom } from '#app/server/membership-state.server.ts'
 import { FORM_TOKEN_PATTERN, getStudentProblem, newFormToken, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/problem'
 import { formatScore } from '#app/lib/points.ts'
@@ -45,11 +46,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!problem) throw data(NOT_FOUND, { status: 404 })
   // Staff preview their own variant: they have no disputes of their own here.
   const disputes = staff ? [] : await listMyDisputes(db(), { itemId: problem.item.id, userId: ref.userId })
+  // Which questions may be disputed now: the same rule the dispute page and raiseDispute apply.
+  const offers = staff ? {} : await disputeOffers(db(), ref)
+  // A dropped student reads their past work; the form is closed and says why.
+  const dropped = !staff && (await droppedFrom(db(), ref.userId, ref.courseId)) !== null
   const disputedParam = new URL(request.url).searchParams.get('disputed')
   const disputed = !staff && disputedParam && problem.results.finds.some((f) => f.name === disputedParam) ? disputedParam : null
   // Each rendered form gets its own one-time token: posting it again (a reload, a double click) stores nothing new.
   const formToken = staff ? null : newFormToken()
-  return { course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId, disputes, disputed, formToken }
+  return { course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId, disputes, offers, dropped, disputed, formToken }
 }
 
 /** Longest text read per answer field; the server refuses anything over its own limit with a message. */
@@ -118,7 +123,7 @@ async function fetchMyResults(assignmentId: number, position: number): Promise<M
 
 
 export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { course, staff, problem, receiptId, disputes, disputed, formToken } = loaderData
+  const { course, staff, problem, receiptId, disputes, offers, dropped, disputed, formToken } = loaderData
   const { assignment, item } = problem
   const tz = assignment.timeZone
   const hydrated = useHydrated()
@@ -148,7 +153,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
 
   const base = `/courses/${course.id}/assignments/${assignment.id}`
   const here = `${base}/problems/${item.position}`
-  const mode: AnswerFormMode = staff ? 'preview' : problem.window.state === 'open' || problem.window.state === 'late' ? 'submit' : 'closed'
+  const mode: AnswerFormMode = staff ? 'preview' : !dropped && (problem.window.state === 'open' || problem.window.state === 'late') ? 'submit' : 'closed'
   const message = windowMessage(problem.window, (d) => formatInZone(d, tz))
   const unitOf = new Map(results.finds.map((f) => [f.name, f.unitHint]))
   const disputedLabel = disputed ? results.finds.find((f) => f.name === disputed)?.label : null
@@ -191,6 +196,8 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
         </Notice>
       ) : null}
 
+      {dropped ? <Notice tone="warn">{DROPPED_SUBMIT_MESSAGE}</Notice> : null}
+
       {disputedLabel ? (
         <Notice tone="ok">
           <p className="font-semibold">Your dispute was sent; you will get an e-mail when it is resolved.</p>
@@ -227,7 +234,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
               Form={fetcher.Form}
               busy={fetcher.state !== 'idle'}
               inPlace={hydrated}
-              disputes={staff ? null : { list: disputes, timeZone: tz, href: (findName) => `${here}/dispute?find=${encodeURIComponent(findName)}` }}
+              disputes={staff ? null : { list: disputes, offers, timeZone: tz, href: (findName) => `${here}/dispute?find=${encodeURIComponent(findName)}` }}
             />
             {query.isError && results.pending ? (
               <p className="mt-3 text-sm text-warn" role="status">
