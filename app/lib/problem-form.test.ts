@@ -42,6 +42,7 @@ const ottoProblem: ProblemDefinition = {
       sigFigs: { min: 3 },
       allowBareNumber: true,
       pitfalls: ['kilo-factor', 'sign-convention-flipped'],
+      sense: 'work-by-system',
     },
     {
       name: 'dT',
@@ -123,6 +124,17 @@ describe('round trip definition → form → definition', () => {
     expect(draft).toEqual(def)
     // No undefined members: the draft is what JSON would carry.
     expect(JSON.parse(JSON.stringify(draft))).toEqual(draft)
+  })
+
+  test('a find\'s sense comes back from its select; "No sense stated" (an empty choice) leaves it out', () => {
+    const values = formValuesFromDefinition(ottoProblem)
+    expect(values['finds.0.sense']).toBe('work-by-system')
+    expect(values['finds.1.sense']).toBeUndefined()
+    const fd = toFormData({ ...values, 'finds.0.sense': '', 'finds.1.sense': 'heat-out-of-system' })
+    const { draft } = definitionFromForm(fd)
+    const finds = (draft as ProblemDefinition).finds
+    expect(finds[0]).not.toHaveProperty('sense')
+    expect(finds[1]!.sense).toBe('heat-out-of-system')
   })
 
   test('a general cycle is chosen through the physics select', () => {

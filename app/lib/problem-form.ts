@@ -283,6 +283,7 @@ export function definitionFromForm(form: FormData): { draft: unknown; visibility
       isDifference: checked(`${p}.isDifference`),
       allowBareNumber: checked(`${p}.allowBareNumber`),
       pitfalls: splitList(allText(form, `${p}.pitfalls`)),
+      sense: optionalText(`${p}.sense`),
     })
   })
 
@@ -366,6 +367,7 @@ export function formValuesFromDefinition(def: ProblemDefinition): Record<string,
     if (f.isDifference) v[`${p}.isDifference`] = 'on'
     if (f.allowBareNumber) v[`${p}.allowBareNumber`] = 'on'
     if (f.pitfalls.length > 0) v[`${p}.pitfalls`] = f.pitfalls.join(',')
+    if (f.sense !== undefined) v[`${p}.sense`] = f.sense
   })
   return v
 }
@@ -504,6 +506,7 @@ const ROW_FIELD_WORDS: Record<string, string> = {
   'sigFigs.min': 'fewest significant figures',
   'sigFigs.max': 'most significant figures',
   pitfalls: 'pitfalls',
+  sense: 'sense',
   isDifference: 'temperature difference',
   allowBareNumber: 'numbers without a unit',
 }

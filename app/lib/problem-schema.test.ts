@@ -98,6 +98,7 @@ describe('ProblemDefinitionSchema', () => {
     ['unknown pitfall', (d) => (d.finds[0].pitfalls = ['forgot-coffee']), 'finds.0.pitfalls.0'],
     ['pitfall listed twice', (d) => (d.finds[0].pitfalls = ['kilo-factor', 'kilo-factor']), 'finds.0.pitfalls'],
     ['missing pitfalls list', (d) => delete d.finds[0].pitfalls, 'finds.0.pitfalls'],
+    ['sense not one of ours', (d) => (d.finds[0].sense = 'positive'), 'finds.0.sense'],
   ])('%s → %s', (_, edit, path) => {
     const issues = definitionIssues(edited(edit))
     expect(issues.map((i) => i.path)).toContain(path)

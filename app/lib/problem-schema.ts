@@ -12,6 +12,7 @@ import {
   DEFINITION_FORMAT,
   DIFFICULTIES,
   LEVELS,
+  FIND_SENSES,
   NAME_PATTERN,
   type ProblemDefinition,
 } from '#app/domain/authoring/definition.ts'
@@ -199,6 +200,7 @@ const FindSchema = z.strictObject({
   pitfalls: z
     .array(z.enum(PITFALL_IDS, { error: `Choose pitfalls from: ${PITFALL_IDS.join(', ')}.` }), { error: 'List the pitfalls (an empty list is fine).' })
     .max(PITFALL_IDS.length, 'Each pitfall can be listed once.'),
+  sense: z.enum(FIND_SENSES, { error: `Choose the sense from: ${FIND_SENSES.join(', ')} (or leave it out).` }).optional(),
 })
 
 export const ProblemDefinitionSchema = z

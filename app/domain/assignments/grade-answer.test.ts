@@ -86,3 +86,29 @@ describe('precheckAnswer', () => {
     expect(precheckAnswer(find('eta'), '0.55').ok).toBe(true)
   })
 })
+
+describe('a find that states its sense', () => {
+  // In a chemistry course the solver's net work is the work done on the gas (negative for an
+  // engine); with the sense "work done by the system" the key is its negative (positive).
+  const byDef = { ...def, finds: def.finds.map((f) => (f.name === 'wNet' ? { ...f, sense: 'work-by-system' as const } : f)) }
+  const chem = drawVariant(byDef, 4242, { convention: 'chemistry' })
+  if (!chem.ok) throw new Error(chem.error.message)
+  const k = chem.variant.key.find((x) => x.name === 'wNet')!
+  const grade = (answer: string) => gradeAnswer({ find: byDef.finds.find((f) => f.name === 'wNet')!, variant: chem.variant, answer, share: 4, latePenalty: 0 })
+
+  test('the positive key is correct in a chemistry course', () => {
+    expect(k.value).toBeGreaterThan(0)
+    expect(k.flipped).toBe(true)
+    expect(grade(`${k.value} kJ/kg`).verdict).toBe('correct')
+  })
+
+  test('a slip is still recognised on the negated key: the number in J/kg labelled kJ/kg is the factor of 1000', () => {
+    const g = grade(`${k.value * 1000} kJ/kg`)
+    expect(g.verdict).toBe('incorrect')
+    expect(g.pitfall?.id).toBe('kilo-factor')
+  })
+
+  test('the opposite sign is named as the sign slip', () => {
+    expect(grade(`${-k.value} kJ/kg`).pitfall?.id).toBe('sign-convention-flipped')
+  })
+})

@@ -83,8 +83,10 @@ function findPitfall(find: Find, key: KeyEntry, variant: Variant, valueInFindUni
   if (!key.path || find.pitfalls.length === 0) return null
   const siUnit = unitAtPath(variant.solution, key.path)
   if (siUnit === null) return null
-  const studentSI = convertFromSI(valueInFindUnit, find.unit, siUnit, find.isDifference)
-  const correctSI = convertFromSI(key.value, find.unit, siUnit, find.isDifference)
+  // A key negated for the find's stated sense is compared on the solver's sign, as the slips are.
+  const sign = key.flipped ? -1 : 1
+  const studentSI = convertFromSI(sign * valueInFindUnit, find.unit, siUnit, find.isDifference)
+  const correctSI = convertFromSI(sign * key.value, find.unit, siUnit, find.isDifference)
   if (typeof studentSI !== 'number' || typeof correctSI !== 'number') return null
   for (const id of find.pitfalls) {
     const pitfall = PITFALLS.find((p) => p.id === id)

@@ -63,6 +63,23 @@ export type FindSource =
   /** A restricted mathjs expression over givens and the finds listed before this one. */
   | { readonly kind: 'expression'; readonly expression: string }
 
+/**
+ * Which way a work or heat find counts positive, in words that mean the same in either sign
+ * convention. With a sense the key has the sign the words promise in every course; the
+ * course's convention then only decides the symbols (w or W, q or Q). Without one, a work
+ * output keeps the convention's sign (w done ON the system, or W done BY it).
+ */
+export const FIND_SENSES = ['work-by-system', 'work-on-system', 'heat-into-system', 'heat-out-of-system'] as const
+export type FindSense = (typeof FIND_SENSES)[number]
+
+/** How a sense is said to authors and in messages. */
+export const FIND_SENSE_WORDS: Readonly<Record<FindSense, string>> = {
+  'work-by-system': 'work done by the system',
+  'work-on-system': 'work done on the system',
+  'heat-into-system': 'heat into the system',
+  'heat-out-of-system': 'heat out of the system',
+}
+
 export interface Find {
   readonly name: string
   /** The question as students see it beside the input ("Net work per kilogram of air"). */
@@ -79,6 +96,8 @@ export interface Find {
   readonly allowBareNumber?: boolean
   /** Pitfalls that give feedback on a wrong answer to this find (app/domain/grading/pitfalls.ts). */
   readonly pitfalls: readonly PitfallId[]
+  /** Which way the key counts positive (work and heat finds only); absent: the convention decides. */
+  readonly sense?: FindSense
 }
 
 export const DIFFICULTIES = ['introductory', 'standard', 'challenging'] as const
@@ -145,6 +164,8 @@ export interface KeyEntry {
   readonly points: number
   /** The output path when the find is bound to one (pitfall diagnosis re-solves it). */
   readonly path: string | null
+  /** The key is the solver's value at `path` negated, to keep the find's stated sense. */
+  readonly flipped?: true
 }
 
 export interface Variant {

@@ -202,3 +202,56 @@ test('a definition broken past its types (givens not a list) gives invalid-defin
   const r = drawVariant({ ...otto, givens: null } as unknown as ProblemDefinition, 3, { convention: 'engineering' })
   expect(r).toMatchObject({ ok: false, seed: 3, error: { code: 'invalid-definition' } })
 })
+
+// ---- A find states its sense -----------------------------------------------------------
+
+test.each(['engineering', 'chemistry'] as const)('Otto, %s course: net work with the sense "by the system" is +(q_in − q_out) (for a cycle, net work done by the gas = heat in − heat out, common practice)', (course) => {
+  const def = { ...otto, finds: [find('wnet', out('totals.netWork'), 'kJ/kg', { sense: 'work-by-system' }), find('qin', out('totals.heatIn'), 'kJ/kg'), find('qout', out('totals.heatOut'), 'kJ/kg')] }
+  for (const seed of [1, 2, 42]) {
+    const v = variant(def, seed, course)
+    expect(v.convention).toBe(course)
+    const byGas = keyOf(v, 'qin') - keyOf(v, 'qout')
+    expect(byGas).toBeGreaterThan(0)
+    expect(keyOf(v, 'wnet')).toBeCloseTo(byGas, 6)
+    expect(v.key[0]!.flipped === true).toBe(course === 'chemistry')
+  }
+})
+
+test.each(['engineering', 'chemistry'] as const)('Otto, %s course: net work with the sense "on the system" is −(q_in − q_out)', (course) => {
+  const def = { ...otto, finds: [find('wnet', out('totals.netWork'), 'kJ/kg', { sense: 'work-on-system' }), find('qin', out('totals.heatIn'), 'kJ/kg'), find('qout', out('totals.heatOut'), 'kJ/kg')] }
+  const v = variant(def, 3, course)
+  expect(keyOf(v, 'wnet')).toBeLessThan(0)
+  expect(keyOf(v, 'wnet')).toBeCloseTo(-(keyOf(v, 'qin') - keyOf(v, 'qout')), 6)
+})
+
+test('without a sense the convention decides the sign of the net work, as before', () => {
+  const def = { ...otto, finds: [find('wnet', out('totals.netWork'), 'kJ/kg')] }
+  const eng = keyOf(variant(def, 4, 'engineering'), 'wnet')
+  const chem = keyOf(variant(def, 4, 'chemistry'), 'wnet')
+  expect(eng).toBeGreaterThan(0)
+  expect(chem).toBeCloseTo(-eng, 9)
+})
+
+test('heat senses: the heat of step 4→1 "out of the system" is positive, the heat out "into the system" negative, in both conventions', () => {
+  const def = { ...otto, finds: [find('q41', out('steps.4.q'), 'kJ/kg', { sense: 'heat-out-of-system' }), find('qoutIn', out('totals.heatOut'), 'kJ/kg', { sense: 'heat-into-system' }), find('q41raw', out('steps.4.q'), 'kJ/kg')] }
+  for (const course of ['engineering', 'chemistry'] as const) {
+    const v = variant(def, 6, course)
+    expect(keyOf(v, 'q41raw')).toBeLessThan(0) // heat into the system during heat rejection
+    expect(keyOf(v, 'q41')).toBeCloseTo(-keyOf(v, 'q41raw'), 9)
+    expect(keyOf(v, 'qoutIn')).toBeCloseTo(keyOf(v, 'q41raw'), 6)
+  }
+})
+
+test.each(['engineering', 'chemistry'] as const)('the Otto demo, %s course: net work stated "by the system" keys +(q_in − q_out), "on the system" −(q_in − q_out) (for a cycle, net work done by the gas = heat in − heat out, common practice)', async (course) => {
+  const { DEMO_PROBLEMS } = await import('#seed/problems.ts')
+  const demo = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
+  const withSense = (sense: 'work-by-system' | 'work-on-system'): ProblemDefinition => ({ ...demo, finds: demo.finds.map((f) => (f.name === 'wNet' ? { ...f, sense } : f)) })
+  for (const seed of [11, 4242]) {
+    const by = variant(withSense('work-by-system'), seed, course)
+    const sol = by.solution as { totals: { heatIn: { value: number }; heatOut: { value: number } } }
+    const byGasKJ = (sol.totals.heatIn.value - sol.totals.heatOut.value) / 1000
+    expect(byGasKJ).toBeGreaterThan(0)
+    expect(keyOf(by, 'wNet')).toBeCloseTo(byGasKJ, 6)
+    expect(keyOf(variant(withSense('work-on-system'), seed, course), 'wNet')).toBeCloseTo(-byGasKJ, 6)
+  }
+})

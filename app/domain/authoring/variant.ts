@@ -14,6 +14,7 @@ import { readQuantity, solveSpec } from '#app/domain/thermo/index.ts'
 import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
 import type { DrawResult, DrawnGiven, Find, KeyEntry, Physics, ProblemDefinition, VariantError } from './definition.ts'
 import { describeCompileError, drawGivens, givenScope, isNumericGiven, toScopeValue } from './givens.ts'
+import { senseFactor } from './sense.ts'
 import { buildSpec } from './substitute.ts'
 
 /** The convention a variant is solved in: the problem's own, or the course's for 'course'. */
@@ -122,17 +123,19 @@ function solverMessage(e: { message: string }): string {
   return /^[a-z]+\s/.test(e.message) ? e.message.charAt(0).toUpperCase() + e.message.slice(1) : e.message
 }
 
-function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solution: FormattedSolution | FormattedRankine): { ok: true; key: KeyEntry[] } | { ok: false; error: VariantError } {
+function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solution: FormattedSolution | FormattedRankine, convention: Convention): { ok: true; key: KeyEntry[] } | { ok: false; error: VariantError } {
   const compiled = compileFinds(def)
   // Quantities for the reader cost a mathjs call each: only expression finds need them.
   const needsScope = compiled.some((c) => c.ok && c.expression !== null)
   const scope: Record<string, ScopeValue> = needsScope ? givenScope(givens) : {}
   const key: KeyEntry[] = []
+  const templateId = def.physics.kind === 'template' ? def.physics.template : null
   for (const [i, f] of def.finds.entries()) {
     const c = compiled[i]!
     if (!c.ok) return c
     let value: number
     let path: string | null = null
+    let flipped = false
     if (f.source.kind === 'output') {
       path = f.source.path
       const raw = readQuantity(solution, path)
@@ -142,7 +145,9 @@ function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solut
       }
       const v = convertFromSI(raw, siUnit, f.unit, f.isDifference === true)
       if (typeof v === 'string') return findError(f, 'invalid-definition', `${v} (output "${path}")`)
-      value = v
+      // A stated sense fixes the sign whatever the convention (sense.ts).
+      flipped = senseFactor(f.sense, path, templateId, convention) === -1
+      value = flipped ? -v : v
     } else {
       const r = c.expression!.evaluate(scope)
       if (!r.ok) {
@@ -152,7 +157,7 @@ function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solut
       value = r.value
     }
     if (!Number.isFinite(value)) return findError(f, 'find-undefined', `the key is not a finite number${path ? ` (output "${path}")` : ''}`)
-    key.push({ name: f.name, label: f.label, value, unit: f.unit, points: f.points, path })
+    key.push({ name: f.name, label: f.label, value, unit: f.unit, points: f.points, path, ...(flipped ? { flipped: true as const } : {}) })
     if (!needsScope) continue
     const sv = toScopeValue(value, f.unit, f.isDifference === true)
     if (sv === null) return findError(f, 'invalid-definition', `the unit "${f.unit}" cannot be read`)
@@ -176,7 +181,7 @@ export function drawVariant(def: ProblemDefinition, seed: number, options: { rea
       const e = solved.error
       return { ok: false, seed, error: { code: 'solve-error', message: solverMessage(e), property: solverErrorPath(def.physics, e.property) } }
     }
-    const key = computeKey(def, drawn.givens, solved)
+    const key = computeKey(def, drawn.givens, solved, convention)
     if (!key.ok) return { ok: false, seed, error: key.error }
     return { ok: true, variant: { seed, convention, givens: drawn.givens, spec, solution: solved, key: key.key } }
   } catch (e) {
