@@ -4,6 +4,8 @@ import { describe, expect, test } from 'vitest'
 import { solveSpec } from '#app/domain/thermo/index.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
 import type { DrawnGiven, Find, KeyEntry, ProblemDefinition, Variant } from './definition.ts'
+import { DEMO_PROBLEMS } from '#seed/problems.ts'
+import { drawVariant } from './variant.ts'
 import { renderWorkedSolution, workedSolution } from './worked-solution.ts'
 import type { WorkedSolution } from './worked-solution.ts'
 
@@ -150,9 +152,11 @@ describe('workedSolution: Otto cycle, engineering convention', () => {
 
   test('the key: each find with its value and unit; an expression find with its numbers', () => {
     const key = section(ws, 'Answers').lines
-    expect(key[0]!.tex).toBe(`\\mathrm{eta} = ${p4(variant.key[0]!.value)}`)
-    expect(key[1]!.tex).toBe(`\\mathrm{wnet} = ${p4(variant.key[1]!.value)}\\,\\mathrm{kJ}/\\mathrm{kg}`)
-    expect(key[2]!.tex).toBe(`\\mathrm{etaPct} = \\texttt{eta * 100} = \\texttt{(${p4(variant.key[0]!.value)}) * 100} = ${p4(variant.key[2]!.value)}\\,\\%`)
+    expect(key[0]!.tex).toBe(`\\eta = ${p4(variant.key[0]!.value)}`)
+    expect(key[1]!.tex).toBe(`W_{\\text{net}} = ${p4(variant.key[1]!.value)}\\,\\mathrm{kJ}/\\mathrm{kg}`)
+    expect(key[1]!.note).toBe('Net work (1 pt)')
+    expect(key[2]!.tex).toBe(`\\eta_{\\text{pct}} = \\eta\\cdot100 = \\left(${p4(variant.key[0]!.value)}\\right)\\cdot100 = ${p4(variant.key[2]!.value)}\\,\\%`)
+    for (const l of key) expect(l.note).not.toMatch(/totals\./)
   })
 
   test('renders to HTML with MathML for every line and escaped notes', () => {
@@ -382,5 +386,85 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
     ]
     const [p1, p2, boiler, t1, t2, reheat, t3] = rows.map((row) => checkDevice(sol, ws, row))
     checkEfficiency(sol, ws, [t1!, t2!, t3!], [p1!, p2!], [boiler!, reheat!])
+  })
+})
+
+// ---- What a student reads: no internal path, no raw identifier, no source credit ----------
+
+/** The text of rendered HTML outside every KaTeX element (math is typeset, so it may hold _). */
+function textOutsideMath(html: string): string {
+  const out: string[] = []
+  const stack: boolean[] = []
+  const inMath = () => stack.includes(true)
+  const re = /<(\/?)([a-zA-Z][a-zA-Z0-9-]*)([^>]*?)(\/?)>|([^<]+)/g
+  for (const m of html.matchAll(re)) {
+    if (m[5] !== undefined) {
+      if (!inMath()) out.push(m[5])
+      continue
+    }
+    const [, closing, tag, attrs, selfClosing] = m
+    if (closing) stack.pop()
+    else if (!selfClosing && !['br', 'img', 'hr', 'input', 'meta', 'link'].includes(tag!.toLowerCase())) stack.push(/\bclass="[^"]*\bkatex\b(?!-)/.test(attrs!))
+  }
+  return out.join(' ').replace(/&amp;/g, '&').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&#39;/g, "'")
+}
+
+/** The TeX of every formula in rendered HTML (KaTeX keeps it in the MathML annotation). */
+function texOf(html: string): string[] {
+  return [...html.matchAll(/<annotation encoding="application\/x-tex">([^<]*)<\/annotation>/g)].map((m) => m[1]!.replace(/&amp;/g, '&'))
+}
+
+describe('worked solutions of the demo problems, as students read them', () => {
+  for (const demo of DEMO_PROBLEMS) {
+    for (const convention of ['engineering', 'chemistry'] as const) {
+      test(`${demo.definition.title} (${convention} course)`, () => {
+        const drawn = drawVariant(demo.definition, 7, { convention })
+        if (!drawn.ok) throw new Error(drawn.error.message)
+        const html = renderWorkedSolution(workedSolution(drawn.variant, demo.definition))
+        const text = textOutsideMath(html)
+        expect(text.length).toBeGreaterThan(200)
+        expect(text).not.toMatch(/\b[a-z]+\.[a-zA-Z]+\b/)
+        expect(text).not.toMatch(/from memory/i)
+        expect(text).not.toMatch(/[\p{L}\p{N}]_[\p{L}\p{N}]/u)
+        expect(text).not.toMatch(/Çengel|Table A-/)
+        // Every find's path stays out of the math too.
+        const tex = texOf(html).join('\n')
+        for (const f of demo.definition.finds) if (f.source.kind === 'output') expect(tex).not.toContain(f.source.path)
+        expect(tex).not.toMatch(/\\mathrm\{(eta|wNet|qH|rc|rp|etaT|etaC|etaP)\}/)
+      })
+    }
+  }
+
+  test('finds and givens get their typeset symbols, by convention', () => {
+    const otto = DEMO_PROBLEMS.find((d) => d.definition.title.startsWith('Air-standard Otto'))!.definition
+    const diesel = DEMO_PROBLEMS.find((d) => d.definition.title.includes('Diesel'))!.definition
+    const texFor = (def: ProblemDefinition, convention: Convention) => {
+      const drawn = drawVariant(def, 3, { convention })
+      if (!drawn.ok) throw new Error(drawn.error.message)
+      return texOf(renderWorkedSolution(workedSolution(drawn.variant, def)))
+    }
+    const answers = (lines: string[]) => lines.filter((l) => /^(\\eta|W_\{\\text\{net\}\}|w_\{\\text\{net\}\}) = /.test(l))
+    expect(answers(texFor(otto, 'engineering')).some((l) => l.startsWith('W_{\\text{net}} = '))).toBe(true)
+    expect(answers(texFor(otto, 'chemistry')).some((l) => l.startsWith('w_{\\text{net}} = '))).toBe(true)
+    const d = texFor(diesel, 'engineering')
+    expect(d.some((l) => l.startsWith('r_{c} = '))).toBe(true)
+    expect(d.some((l) => l.startsWith('\\eta = '))).toBe(true)
+  })
+
+  test('an author label with an identifier is typeset in the note', () => {
+    const html = renderWorkedSolution({ convention: 'engineering', sections: [{ title: 'Answers', lines: [{ tex: 'x = 1', note: 'Heat taken in at T_H, per mole' }] }] })
+    expect(textOutsideMath(html)).not.toContain('T_H')
+    expect(texOf(html)).toContain('T_{H}')
+  })
+
+  test('an expression find is shown with typeset names, not as code', () => {
+    const def: ProblemDefinition = { ...DEMO_PROBLEMS[3]!.definition, finds: [...DEMO_PROBLEMS[3]!.definition.finds, find('etaPct', 'Efficiency in per cent', '', { kind: 'expression', expression: 'eta * 100' })] }
+    const drawn = drawVariant(def, 3, { convention: 'engineering' })
+    if (!drawn.ok) throw new Error(drawn.error.message)
+    const html = renderWorkedSolution(workedSolution(drawn.variant, def))
+    const line = texOf(html).find((l) => l.startsWith('\\eta_{\\text{pct}}'))
+    expect(line).toBeDefined()
+    expect(line).not.toContain('texttt')
+    expect(line).toMatch(/\\eta\\cdot100/)
   })
 })

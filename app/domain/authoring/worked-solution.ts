@@ -8,6 +8,8 @@
  * Symbols follow the convention: chemistry writes q and w (w done ON the system, ΔU = q + w),
  * engineering writes Q and W (W done BY the system, ΔU = Q − W). Pure.
  */
+import type { MathNode } from 'mathjs'
+import { mathCore } from '#app/domain/grading/math-instance.ts'
 import type { Convention, FormattedSolution, FormattedState, FormattedStep } from '#app/domain/thermo/index.ts'
 import { CONVENTIONS, parseCycleSpec, parseTemplateInputs, templates } from '#app/domain/thermo/index.ts'
 import type { CycleSpec, StepSpec } from '#app/domain/thermo/cycle.ts'
@@ -18,6 +20,7 @@ import type { FormattedRankine, FormattedRankineState } from '#app/domain/thermo
 import type { Find, ProblemDefinition, Variant } from './definition.ts'
 import { formatGivenValue, formatNumber, texEscape, unitToTex, withUnit } from './placeholders.ts'
 import { escapeHtml, renderMath } from './prompt.ts'
+import { quantityAtPath, splitIdentifiers, symbolTex } from './quantities.ts'
 
 export interface WorkedLine {
   readonly tex: string
@@ -83,15 +86,8 @@ export function pressureTex(pa: number): string {
   return Math.abs(pa) >= 1e6 ? q4(pa / 1e6, 'MPa') : q4(pa / 1000, 'kPa')
 }
 
-/** A given or find name as a TeX symbol: T1 → T_{1}, p_high → p_{\mathrm{high}}, eta → \mathrm{eta}. */
-export function texName(name: string): string {
-  const digits = /^([A-Za-z])(\d+)$/.exec(name)
-  if (digits) return `${digits[1]}_{${digits[2]}}`
-  const sub = /^([A-Za-z])_([A-Za-z0-9]+)$/.exec(name)
-  if (sub) return `${sub[1]}_{\\mathrm{${sub[2]}}}`
-  if (/^[A-Za-z]$/.test(name)) return name
-  return `\\mathrm{${texEscape(name)}}`
-}
+/** A given or find name as a TeX symbol (quantities.ts): T1 → T_1, W_net → W_{\text{net}}, eta → \eta. */
+export const texName = symbolTex
 
 /** A state name as a subscript: "1" → 1, "A" → A, anything else in \text. */
 function sub(name: string): string {
@@ -335,13 +331,13 @@ function closedFormEfficiency(ctx: Ctx, template: string | undefined): WorkedLin
   const g = gas.gamma(T1)
   if (template === 'otto' && s.length === 4) {
     const r = s[0]!.v.value / s[1]!.v.value
-    return { tex: `\\eta = 1 - r^{1-\\gamma} = 1 - (${n4(r)})^{1 - ${n4(g)}} = ${n4(1 - Math.pow(r, 1 - g))}`, note: 'air-standard Otto cycle with constant specific heats: the same as W_net/Q_in' }
+    return { tex: `\\eta = 1 - r^{1-\\gamma} = 1 - (${n4(r)})^{1 - ${n4(g)}} = ${n4(1 - Math.pow(r, 1 - g))}`, note: 'air-standard Otto cycle with constant specific heats: the same as the net work over the heat added' }
   }
   if (template === 'diesel' && s.length === 4) {
     const r = s[0]!.v.value / s[1]!.v.value
     const rc = s[2]!.v.value / s[1]!.v.value
     const eta = 1 - (Math.pow(r, 1 - g) * (Math.pow(rc, g) - 1)) / (g * (rc - 1))
-    return { tex: `\\eta = 1 - \\frac{1}{r^{\\gamma-1}}\\,\\frac{r_c^{\\gamma} - 1}{\\gamma\\,(r_c - 1)} = ${n4(eta)}`, note: `air-standard Diesel cycle, r = ${n4(r)}, r_c = ${n4(rc)}` }
+    return { tex: `r = ${n4(r)},\\quad r_c = ${n4(rc)},\\quad \\eta = 1 - \\frac{1}{r^{\\gamma-1}}\\,\\frac{r_c^{\\gamma} - 1}{\\gamma\\,(r_c - 1)} = ${n4(eta)}`, note: 'air-standard Diesel cycle with constant specific heats: r is the compression ratio, r_c the cutoff ratio' }
   }
   if (template === 'brayton' && s.length === 4 && sol.steps.every((st) => st.process !== 'adiabatic')) {
     const rp = s[1]!.p.value / s[0]!.p.value
@@ -367,7 +363,7 @@ function totalsSection(ctx: Ctx, template: string | undefined): WorkedSection {
   const wOut = sym.convention === 'engineering' ? t.netWork.value : -t.netWork.value
   lines.push({
     tex: `${sym.Q('\\mathrm{in}')} - ${sym.Q('\\mathrm{out}')} = ${n4(u.e(t.heatIn.value))} - ${n4(u.e(t.heatOut.value))} = ${E(wOut)}`,
-    note: sym.convention === 'chemistry' ? 'over a cycle ΔU = 0, so the work delivered, −w_net, equals the net heat' : 'over a cycle ΔU = 0, so W_net equals the net heat',
+    note: sym.convention === 'chemistry' ? 'over a cycle ΔU = 0, so the work delivered (minus the net work done on the gas) equals the net heat' : 'over a cycle ΔU = 0, so the net work equals the net heat',
   })
   const Tl = t.Tmin.value
   const Th = t.Tmax.value
@@ -377,10 +373,10 @@ function totalsSection(ctx: Ctx, template: string | undefined): WorkedSection {
     if (closed) lines.push(closed)
     lines.push({ tex: `\\eta_{\\mathrm{Carnot}} = 1 - \\frac{T_L}{T_H} = 1 - \\frac{${n4(Tl)}}{${n4(Th)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison: the Carnot bound between the lowest and highest temperatures of the cycle' })
   } else if (t.copRefrigerator !== null && t.purpose === 'refrigerator') {
-    lines.push({ tex: `\\mathrm{COP}_R = \\frac{${sym.Q('L')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatIn.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copRefrigerator.value)}`, note: 'Q_L: heat taken from the cold space (Q_in); w_in: net work put in' })
+    lines.push({ tex: `\\mathrm{COP}_R = \\frac{${sym.Q('L')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatIn.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copRefrigerator.value)}`, note: 'heat taken from the cold space over the net work put in' })
     lines.push({ tex: `\\mathrm{COP}_{R,\\mathrm{Carnot}} = \\frac{T_L}{T_H - T_L} = \\frac{${n4(Tl)}}{${n4(Th)} - ${n4(Tl)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison' })
   } else if (t.copHeatPump !== null) {
-    lines.push({ tex: `\\mathrm{COP}_{HP} = \\frac{${sym.Q('H')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatOut.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copHeatPump.value)}`, note: 'Q_H: heat delivered to the warm space (Q_out); w_in: net work put in' })
+    lines.push({ tex: `\\mathrm{COP}_{HP} = \\frac{${sym.Q('H')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatOut.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copHeatPump.value)}`, note: 'heat delivered to the warm space over the net work put in' })
     lines.push({ tex: `\\mathrm{COP}_{HP,\\mathrm{Carnot}} = \\frac{T_H}{T_H - T_L} = \\frac{${n4(Th)}}{${n4(Th)} - ${n4(Tl)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison' })
   }
   if (t.meanEffectivePressure !== null) {
@@ -406,7 +402,8 @@ function idealGasSections(sol: FormattedSolution, variant: Variant, sym: Symbols
   const R = sol.gas.basis === 'mass' ? q4(sol.gas.R.value / 1000, 'kJ/(kg K)') : q4(sol.gas.R.value, 'J/(mol K)')
   const ctx: Ctx = { sol, sym, u, gas, spec, flow: sol.system === 'flow', R }
   const template = typeof variant.spec.template === 'string' ? variant.spec.template : undefined
-  const gasLines: WorkedLine[] = [{ tex: `R = ${R}`, note: `${sol.gas.label} (${sol.gas.source})` }]
+  // The gas's source is credited in docs/credits.md, not in what students read.
+  const gasLines: WorkedLine[] = [{ tex: `R = ${R}`, note: sol.gas.label }]
   if (gas?.constantCp) {
     const T = sol.states[0]?.T.value ?? 300
     gasLines.push({ tex: `c_p = ${q4(u.s(gas.cp(T)), u.entropy)},\\quad c_v = ${q4(u.s(gas.cv(T)), u.entropy)},\\quad \\gamma = c_p/c_v = ${n4(gas.gamma(T))}`, note: 'constant specific heats' })
@@ -536,7 +533,7 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
   // Turbine path: each section from the state before it, with the flow that passes it.
   const sectionCount = path.filter((s) => !s.description.startsWith('reheater exit')).length
   const sectionName = (k: number) => (sectionCount === 1 ? 'turb' : sectionCount === 2 ? (k === 1 ? 'HP' : 'LP') : `T${k}`)
-  const efficiencyNote = etaT !== null && etaT < 1 ? `isentropic efficiency η_t = ${formatNumber(etaT, { sigFigs: WORKED_SIG_FIGS }, false)}` : 'isentropic: s is conserved'
+  const efficiencyNote = etaT !== null && etaT < 1 ? `turbine isentropic efficiency ${formatNumber(etaT, { sigFigs: WORKED_SIG_FIGS }, false)}` : 'isentropic: s is conserved'
   const sections: { symbol: string; value: number }[] = []
   const reheats: { symbol: string; value: number }[] = []
   let cur = boilerExit
@@ -610,32 +607,61 @@ function givensSection(variant: Variant, def: ProblemDefinition): WorkedSection 
   const lines: WorkedLine[] = variant.givens.map((g) => {
     const display = def.givens.find((d) => d.name === g.name)?.display
     const shown = formatGivenValue(g, display, { tex: true })
-    return { tex: `${texName(g.name)} = ${shown.ok ? shown.text : `\\text{${texEscape(g.text)}}`}`, note: g.label }
+    // A given drawn as words (a kind of gas) reads as words: its label and its text.
+    if (!shown.ok || Number.isNaN(g.value)) return { tex: `\\text{${texEscape(g.text)}}`, note: g.label }
+    return { tex: `${texName(g.name)} = ${shown.text}`, note: g.label }
   })
   return { title: 'Given', lines }
 }
 
-/** An expression find with every given and earlier find replaced by its number and unit. */
-function substituted(expression: string, values: ReadonlyMap<string, { value: number; unit: string }>): string {
-  return expression.replace(/[A-Za-z_][A-Za-z0-9_]*/g, (name) => {
-    const v = values.get(name)
-    if (!v) return name
-    const num = formatNumber(v.value, { sigFigs: WORKED_SIG_FIGS }, false).replace('\u2212', '-')
-    return v.unit.trim() === '' ? `(${num})` : `(${num} ${v.unit})`
-  })
+/**
+ * An expression as TeX with every name typeset (eta * 100 → \eta \cdot 100), or, with
+ * `values`, every given and earlier find replaced by its number and unit. Null when the
+ * expression does not parse (the caller then shows only the result).
+ */
+function expressionTex(expression: string, values?: ReadonlyMap<string, { value: number; unit: string }>): string | null {
+  try {
+    const node = mathCore.parse(expression)
+    return node.toTex({
+      handler: (n: MathNode) => {
+        if (!isSymbolNode(n)) return undefined
+        const v = values?.get(n.name)
+        if (v) return `\\left(${q4(v.value, v.unit)}\\right)`
+        return symbolTex(n.name)
+      },
+    })
+  } catch {
+    return null
+  }
+}
+
+function isSymbolNode(n: MathNode): n is MathNode & { name: string } {
+  return (n as { type?: string }).type === 'SymbolNode'
 }
 
 function keySection(variant: Variant, def: ProblemDefinition): WorkedSection {
   const values = new Map<string, { value: number; unit: string }>()
   for (const g of variant.givens) if (!Number.isNaN(g.value)) values.set(g.name, { value: g.value, unit: g.unit })
+  const stateNames = 'states' in variant.solution ? variant.solution.states.map((s) => s.name) : undefined
+  const ctx = { convention: variant.solution.convention.name, steam: isRankine(variant.solution), ...(stateNames ? { stateNames } : {}) }
+  const plain = (tex: string) => tex.replace(/\\text\{([^}]*)\}/g, '$1').replace(/[{}]/g, '')
   const lines: WorkedLine[] = []
   for (const k of variant.key) {
     const find: Find | undefined = def.finds.find((f) => f.name === k.name)
     const value = q4(k.value, k.unit)
+    const symbol = symbolTex(k.name)
     if (find?.source.kind === 'expression') {
-      lines.push({ tex: `${texName(k.name)} = \\texttt{${texEscape(find.source.expression)}} = \\texttt{${texEscape(substituted(find.source.expression, values))}} = ${value}`, note: `${k.label} (${k.points} pt)` })
+      const general = expressionTex(find.source.expression)
+      const numbers = expressionTex(find.source.expression, values)
+      const middle = general && numbers ? ` = ${general} = ${numbers}` : ''
+      lines.push({ tex: `${symbol}${middle} = ${value}`, note: `${k.label} (${k.points} pt)` })
     } else {
-      lines.push({ tex: `${texName(k.name)} = ${value}`, note: `${k.label} (${k.points} pt)${k.path ? `, from the solution: ${k.path}` : ''}` })
+      // The solver's quantity by its own symbol when it differs from the find's (q_H = Q_{12}).
+      const q = k.path ? quantityAtPath(k.path, ctx) : null
+      // A find named wNet in an engineering course reads W_net: the convention's case wins.
+      const sameName = q !== null && plain(q.tex).toLowerCase() === plain(symbol).toLowerCase()
+      const lead = q && sameName ? q.tex : symbol
+      lines.push({ tex: `${lead}${q && !sameName ? ` = ${q.tex}` : ''} = ${value}`, note: `${k.label} (${k.points} pt)${q && !sameName ? `: the ${q.name}` : ''}` })
     }
     values.set(k.name, { value: k.value, unit: k.unit })
   }
@@ -661,6 +687,13 @@ export function workedSolution(variant: Variant, def: ProblemDefinition): Worked
   }
 }
 
+/** A note as HTML: plain text, with any identifier a student should see typeset (T_H) as math. */
+function noteHtml(note: string): string {
+  return splitIdentifiers(note)
+    .map((p) => (p.tex !== undefined ? renderMath(p.tex, false).html : escapeHtml(p.text ?? '')))
+    .join('')
+}
+
 /** A worked solution as HTML: KaTeX with MathML for every line, notes as text. */
 export function renderWorkedSolution(ws: WorkedSolution): string {
   const parts: string[] = ['<div class="worked-solution">']
@@ -669,7 +702,7 @@ export function renderWorkedSolution(ws: WorkedSolution): string {
     parts.push(`<section><h3>${escapeHtml(section.title)}</h3><ul>`)
     for (const line of section.lines) {
       const math = renderMath(line.tex, false).html
-      parts.push(`<li>${math}${line.note ? ` <span class="worked-note">${escapeHtml(line.note)}</span>` : ''}</li>`)
+      parts.push(`<li><span class="worked-math">${math}</span>${line.note ? ` <span class="worked-note">${noteHtml(line.note)}</span>` : ''}</li>`)
     }
     parts.push('</ul></section>')
   }
