@@ -247,7 +247,7 @@ const dual: ProblemDefinition = {
   constraints: [],
   physics: { kind: 'template', template: 'dual', inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', pressureRatio: 'rp', cutoffRatio: 'rc' } },
   finds: [
-    output('p3', 'Peak pressure', 'states.3.p', 'MPa', 2, { pitfalls: ['kilo-factor'] }),
+    output('p3', 'Peak pressure', 'states.3.p', 'MPa', 2),
     output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'cp-cv-swapped'] }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
   ],

@@ -1,6 +1,6 @@
 import { expect, test } from 'vitest'
 import type { Find, Given, ProblemDefinition } from './definition.ts'
-import { lintDefinition } from './lint.ts'
+import { lintDefinition, lintWarnings } from './lint.ts'
 
 const rel = { kind: 'relative', value: 0.01 } as const
 const good: ProblemDefinition = {
@@ -77,6 +77,11 @@ test.each<[string, string, Edit, RegExp]>([
   ['a Rankine condenser pressure above the boiler pressure', 'physics.inputs.condenserPressure', (d) => ({ ...d, physics: { kind: 'template', template: 'rankine', inputs: { boilerPressure: '10 MPa', condenserPressure: '12 MPa', turbineInletTemperature: '500 degC' } } }), /condenserPressure must be below boilerPressure/],
   ['a general cycle that does not solve', 'physics.cycle', (d) => ({ ...d, physics: { kind: 'cycle', cycle: { gas: 'air', system: 'closed', states: [{ p: 'p1', T: '-3 K' }, {}, {}, {}], steps: [{ process: 'isentropic', compressionRatio: 'r' }, { process: 'isochoric', heat: '800 kJ/kg' }, { process: 'isentropic' }, { process: 'isochoric' }] } } }), /does not solve/],
   ['a constraint never met in the trial', 'constraints.0', (d) => ({ ...d, constraints: [{ left: 'T1', op: '>', right: '400 K', message: 'T1 must exceed 400 K' }] }), /T1 must exceed 400 K/],
+  ['°C-for-K ticked where no °C reaches the solver', 'finds.0.pitfalls', (d) => findAt(givenAt(d, 3, { unit: 'K' }), 0, { pitfalls: ['celsius-for-kelvin'] }), /"celsius-for-kelvin" can never be recognised here: no temperature in °C reaches the solver/],
+  ['a pitfall ticked on an expression find', 'finds.2.pitfalls', (d) => findAt(d, 2, { pitfalls: ['kilo-factor'] }), /only on a find that comes from a solver output/],
+  ['the sign pitfall ticked on an efficiency', 'finds.0.pitfalls', (d) => findAt(d, 0, { pitfalls: ['sign-convention-flipped'] }), /"totals\.efficiency" does not depend on the convention/],
+  ['a sense on an output that is neither work nor heat', 'finds.0.sense', (d) => findAt(d, 0, { sense: 'work-by-system' }), /"totals\.efficiency" is neither/],
+  ['a heat sense on a work output', 'finds.1.sense', (d) => findAt(d, 1, { sense: 'heat-into-system' }), /"totals\.netWork" is a work output, but the sense says heat into the system/],
 ])('%s is reported at %s', (_what, path, edit, message) => {
   const findings = lintDefinition(edit(good))
   const at = findings.filter((f) => f.path === path)
@@ -87,4 +92,55 @@ test.each<[string, string, Edit, RegExp]>([
 
 test('a definition broken past its types gives a finding, not a throw', () => {
   expect(lintDefinition({ ...good, finds: null } as unknown as ProblemDefinition).length).toBeGreaterThan(0)
+})
+
+test('a °C given that reaches the solver lets the °C-for-K pitfall be ticked, and the net work takes the sign pitfall', () => {
+  // good's T1 input is the given T1C, in degC.
+  expect(lintDefinition(findAt(findAt(good, 0, { pitfalls: ['celsius-for-kelvin'] }), 1, { pitfalls: ['sign-convention-flipped', 'kilo-factor'] }))).toEqual([])
+})
+
+// ---- Warnings: the question's words against the key's sign ----------------------------
+
+const worded = (label: string, extra: Partial<Find> = {}, convention: ProblemDefinition['convention'] = 'course'): ProblemDefinition => ({ ...findAt(good, 1, { label, ...extra }), convention })
+const warningsAt = (d: ProblemDefinition, visibility?: 'private' | 'department' | 'installation') => lintWarnings(d, visibility ? { visibility } : {}).filter((f) => f.path === 'finds.1.sense')
+
+test.each([
+  ['"work done by the air (positive)" with no sense, course convention', worded('Work done by the air (positive)'), /"by the air" \(work done by the system\), but in a chemistry-convention course the key is the work done on the system/],
+  ['"work done by the gas" with no sense, chemistry convention fixed', worded('Net work done by the gas', {}, 'chemistry'), /in the chemistry convention this problem uses the key is the work done on the system/],
+  ['"work done on the working fluid" with no sense, course convention', worded('Work done on the working fluid'), /"done on the working fluid" \(work done on the system\), but in an engineering-convention course the key is the work done by the system/],
+  ['"work done by the air" with the sense "on"', worded('Work done by the air', { sense: 'work-on-system' }), /the find's sense is work done on the system, so the key has the opposite sign to the words/],
+  ['"heat rejected" on the heat of a step (heat into the system)', { ...worded('Heat rejected in 4→1', { source: { kind: 'output', path: 'steps.4.q' } }) }, /"rejected" \(heat out of the system\), but the key \("steps\.4\.q"\) is the heat into the system in every convention, with the opposite sign/],
+  ['"heat added" with the sense "out of"', worded('Heat added in 2→3', { source: { kind: 'output', path: 'steps.2.q' }, sense: 'heat-out-of-system' }), /"added" \(heat into the system\), but the find's sense is heat out of the system/],
+])('warns: %s', (_what, def, message) => {
+  const w = warningsAt(def)
+  expect(w.length, JSON.stringify(w)).toBe(1)
+  expect(w[0]!.message).toMatch(message)
+  expect(lintDefinition(def).filter((f) => f.path === 'finds.1.sense')).toEqual([]) // a warning, not a refusal
+})
+
+test.each([
+  ['"work done by the air" with the sense "by"', worded('Work done by the air (positive)', { sense: 'work-by-system' })],
+  ['"work done by the gas" in a problem fixed to the engineering convention', worded('Work done by the gas', {}, 'engineering')],
+  ['"work done on the gas" in a problem fixed to the chemistry convention', worded('Work done on the gas', {}, 'chemistry')],
+  ['"heat rejected" on the heat out (a size)', worded('Heat rejected per kilogram', { source: { kind: 'output', path: 'totals.heatOut' } })],
+  ['"heat rejected" on a step stated "out of"', worded('Heat rejected in 4→1', { source: { kind: 'output', path: 'steps.4.q' }, sense: 'heat-out-of-system' })],
+  ['a question that says neither way', worded('Net work per kilogram of air')],
+  ['a question that says both ways', worded('Work done by the gas, or on the gas?')],
+])('no warning: %s', (_what, def) => {
+  expect(warningsAt(def)).toEqual([])
+})
+
+test('a work or heat find with no sense is flagged only when the problem is shared with other courses', () => {
+  const plain = worded('Net work per kilogram of air')
+  expect(warningsAt(plain, 'private')).toEqual([])
+  for (const visibility of ['department', 'installation'] as const) {
+    const [w] = warningsAt(plain, visibility)
+    expect(w?.message).toMatch(/shared with other courses, and this find's key changes sign with the course's convention/)
+  }
+  expect(warningsAt(worded('Net work per kilogram of air', { sense: 'work-by-system' }), 'department')).toEqual([])
+  // An efficiency is neither work nor heat: nothing to state.
+  expect(lintWarnings(good, { visibility: 'installation' }).filter((f) => f.path === 'finds.0.sense')).toEqual([])
+  // A heat size is flagged too, in other words, so every shared key's sign is written down.
+  const heat = worded('Heat supplied', { source: { kind: 'output', path: 'totals.heatIn' } })
+  expect(warningsAt(heat, 'department')[0]?.message).toMatch(/state this heat find's sense/)
 })

@@ -11,11 +11,13 @@ import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
 import { readQuantity, solveSpec, templates } from '#app/domain/thermo/index.ts'
 import type { TemplateInput } from '#app/domain/thermo/index.ts'
 import { RANKINE_TEMPLATES } from '#app/domain/thermo/steam/rankine-template.ts'
+import { whyPitfallCannotFire } from '#app/domain/grading/applicable-pitfalls.ts'
 import type { Find, ProblemDefinition } from './definition.ts'
 import { NAME_PATTERN, checkRuleOf } from './definition.ts'
 import { describeCompileError, drawGivens, isNumericGiven, rangeSteps } from './givens.ts'
 import { parsePlaceholders } from './placeholders.ts'
 import { previewSeeds } from './seed.ts'
+import { senseErrors, senseWarnings, type ProblemVisibility } from './sense.ts'
 import { PLACEHOLDER, buildSpec } from './substitute.ts'
 import { convertFromSI, drawVariant, resolveConvention, solverErrorPath, unitAtPath } from './variant.ts'
 
@@ -154,8 +156,13 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
       const v = validateCheckRule({ value: 1, unit: f.unit }, checkRuleOf(f))
       if (!v.ok && v.error.property !== 'expected.unit') add(`${base}.${v.error.property.replace(/^rule\./, '')}`, v.error.message)
     }
+    f.pitfalls.forEach((id) => {
+      const why = whyPitfallCannotFire(def, i, id)
+      if (why !== null) add(`${base}.pitfalls`, `the pitfall "${id}" can never be recognised here: ${why}. Untick it`)
+    })
     findNames.push(f.name)
   })
+  for (const e of senseErrors(def)) add(e.path, e.message)
 
   // Prompt
   const parsed = parsePlaceholders(def.prompt)
@@ -166,6 +173,20 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
   // A trial variant, only when the definition is otherwise sound: its errors would repeat the above.
   if (out.length === 0) trial(def, add)
   return out
+}
+
+/**
+ * Findings worth a look that do not stop a save: a question whose words and key disagree in
+ * some convention ("work done by the air" keyed as work done on it in a chemistry course), a
+ * work or heat find with no sense in a problem shared with other courses. Pure and light (no
+ * solver), never throws.
+ */
+export function lintWarnings(def: ProblemDefinition, options: { readonly visibility?: ProblemVisibility } = {}): LintFinding[] {
+  try {
+    return senseWarnings(def, options)
+  } catch {
+    return []
+  }
 }
 
 /** "uses X, which is defined after it" when the expression names a later given or find. */

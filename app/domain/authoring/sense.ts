@@ -131,7 +131,7 @@ function conventionsOf(c: ProblemConvention): readonly Convention[] {
   return c === 'course' ? ['engineering', 'chemistry'] : [c]
 }
 
-const CONVENTION_WORDS: Readonly<Record<Convention, string>> = { chemistry: 'chemistry-convention', engineering: 'engineering-convention' }
+const CONVENTION_WORDS: Readonly<Record<Convention, string>> = { chemistry: 'a chemistry-convention course', engineering: 'an engineering-convention course' }
 
 /**
  * A stated sense on a path it cannot apply to: these would silently leave the key unchanged,
@@ -176,10 +176,11 @@ export function senseWarnings(def: ProblemDefinition, options: { readonly visibi
       } else if (o !== null) {
         const wrong = conventionsOf(def.convention).find((c) => solverSenseIn(o, c) !== words.sense)
         if (wrong !== undefined) {
-          const where = def.convention === 'course' ? `in a ${CONVENTION_WORDS[wrong]} course` : `in the ${wrong} convention this problem uses`
+          const where =
+            o.kind === 'fixed' ? `the key ("${f.source.kind === 'output' ? f.source.path : ''}") is the ${FIND_SENSE_WORDS[o.sense]} in every convention` : `${def.convention === 'course' ? `in ${CONVENTION_WORDS[wrong]}` : `in the ${wrong} convention this problem uses`} the key is the ${FIND_SENSE_WORDS[solverSenseIn(o, wrong)]}`
           out.push({
             path: `finds.${i}.sense`,
-            message: `The question says "${words.phrase}" (${FIND_SENSE_WORDS[words.sense]}), but ${where} the key is the ${FIND_SENSE_WORDS[solverSenseIn(o, wrong)]}, with the opposite sign. State the sense "${FIND_SENSE_WORDS[words.sense]}" so the key keeps the sign the words promise.`,
+            message: `The question says "${words.phrase}" (${FIND_SENSE_WORDS[words.sense]}), but ${where}, with the opposite sign. State the sense "${FIND_SENSE_WORDS[words.sense]}" so the key keeps the sign the words promise.`,
           })
           return
         }

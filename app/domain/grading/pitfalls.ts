@@ -7,6 +7,9 @@
 import { readQuantity, solveSpec, specConvention, specMentions } from '#app/domain/thermo/index.ts'
 import type { Convention, Slips } from '#app/domain/thermo/index.ts'
 
+// Which pitfalls can fire for a problem (light, for the editor and the lint).
+export { applicablePitfalls, whyPitfallCannotFire } from './applicable-pitfalls.ts'
+
 export type PitfallId =
   | 'sign-convention-flipped'
   | 'celsius-for-kelvin'
