@@ -114,3 +114,41 @@ describe('checkAnswer: security and junk', () => {
     expect(unreadable).toBe(1000)
   })
 })
+
+describe('checkAnswer: a temperature under the other scale’s label', () => {
+  // 0 °C = 273.15 K exactly (SI Brochure, 9th ed., 2.3.1), so 300 °C = 573.15 K.
+  const rel = { tolerance: { kind: 'relative' as const, value: 0.01 }, dimension: 'temperature' as const }
+  const abs2K = { tolerance: { kind: 'absolute' as const, value: 2, unit: 'K' }, dimension: 'temperature' as const }
+  test.each([
+    ['key 573.15 K, "300 K" (the °C number labelled K)', { value: 573.15, unit: 'K' }, '300 K', rel, 'celsius-labelled-kelvin', 'This looks like the temperature in °C with a K label: 300 °C is 573.15 K.'],
+    ['key 573.15 K, "301 K" within an absolute 2 K of the slip', { value: 573.15, unit: 'K' }, '301 K', abs2K, 'celsius-labelled-kelvin', 'This looks like the temperature in °C with a K label: 301 °C is 574.15 K.'],
+    ['key 300 °C, "573.15 °C" (the K number labelled °C)', { value: 300, unit: 'degC' }, '573.15 °C', abs2K, 'kelvin-labelled-celsius', 'This looks like the temperature in K with a °C label: 573.15 K is 300 °C.'],
+    ['key 573.15 K, "573.15 degC" (the K number labelled °C)', { value: 573.15, unit: 'K' }, '573.15 degC', rel, 'kelvin-labelled-celsius', 'This looks like the temperature in K with a °C label: 573.15 K is 300 °C.'],
+    // 1 K = 1.8 °F as a difference; 573.15 K = 572 °F.
+    ['key 572 °F, "300 K"', { value: 572, unit: 'degF' }, '300 K', abs2K, 'celsius-labelled-kelvin', 'This looks like the temperature in °C with a K label: 300 °C is 573.15 K.'],
+  ])('%s: still incorrect, with the specific message', (_what, expected, answer, rule, slip, message) => {
+    const r = checkAnswer({ expected, answer, rule })
+    expect(r.verdict).toBe('incorrect')
+    expect(r.detail?.code).toBe('outside-tolerance')
+    expect(r.detail?.temperatureLabel).toBe(slip)
+    expect(r.message).toBe(message)
+  })
+
+  test.each([
+    ['a number far from both scales', { value: 573.15, unit: 'K' }, '450 K', rel],
+    ['the slip outside the tolerance (310 K for 573.15 K with 2 K)', { value: 573.15, unit: 'K' }, '310 K', abs2K],
+    ['a temperature difference (no offset between the scales)', { value: 573.15, unit: 'K' }, '300 K', { ...abs2K, dimension: undefined, isDifference: true }],
+    ['an expression, not a typed number', { value: 573.15, unit: 'K' }, '(600 - 300) K', rel],
+    ['the °C number labelled mK', { value: 573.15, unit: 'K' }, '300000 mK', rel],
+  ])('no slip named: %s', (_what, expected, answer, rule) => {
+    const r = checkAnswer({ expected, answer, rule: rule as never })
+    expect(r.verdict).toBe('incorrect')
+    expect(r.detail?.temperatureLabel).toBeUndefined()
+    expect(r.message).toBe('Check the number: it is outside the accepted range.')
+  })
+
+  test('the right answer in either unit is still correct', () => {
+    expect(checkAnswer({ expected: { value: 573.15, unit: 'K' }, answer: '300 °C', rule: rel }).verdict).toBe('correct')
+    expect(checkAnswer({ expected: { value: 573.15, unit: 'K' }, answer: '573.15 K', rule: rel }).verdict).toBe('correct')
+  })
+})

@@ -25,8 +25,8 @@
 // checkAnswer never throws: any failure, including a broken rule, gives a result.
 
 import { mathCore } from './math-instance.ts'
-import { CORRECT_MESSAGE, OUTSIDE_RANGE_MESSAGE, sigFigMessage, unreadableMessage } from './messages.ts'
-import type { AnswerErrorCode } from './messages.ts'
+import { CORRECT_MESSAGE, OUTSIDE_RANGE_MESSAGE, sigFigMessage, temperatureLabelMessage, unreadableMessage } from './messages.ts'
+import type { AnswerErrorCode, TemperatureLabelSlip } from './messages.ts'
 import { readAnswer } from './read-answer.ts'
 import type { AnswerForm } from './read-answer.ts'
 import { checkSignificantFigures, countSignificantFigures, sigFigRuleProblem } from './sig-figs.ts'
@@ -83,6 +83,8 @@ export interface CheckDetail {
   readonly notes?: readonly CheckNote[]
   /** For 'invalid-rule': what is wrong, for the instructor (never shown to students). */
   readonly ruleProblem?: string
+  /** An incorrect temperature whose number is right on the other scale ("300 K" for 573.15 K). */
+  readonly temperatureLabel?: TemperatureLabelSlip
 }
 
 export interface CheckAnswerResult {
@@ -247,6 +249,38 @@ function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
     }
   }
 
+  const { diff, bound, within } = compare(a, e, p, r)
+  const numbers = { difference: a - e, allowedDifference: bound, withinTolerance: within }
+
+  let sigFigs: CheckDetail['sigFigs']
+  let sigProblem: { problem: 'too-few' | 'too-many'; count: { min: number; max: number } } | null = null
+  if (r.sigFigs !== undefined) {
+    const counted = countSignificantFigures(read.literal ?? '')
+    const verdict = counted ? checkSignificantFigures(counted, r.sigFigs) : { ok: true as const }
+    sigFigs = { counted, rule: r.sigFigs, ok: verdict.ok }
+    if (!verdict.ok) sigProblem = { problem: verdict.problem, count: verdict.count }
+  }
+  const sig = sigFigs ? { sigFigs } : {}
+
+  if (!within) {
+    // Still wrong, as a pitfall is; only the message names the slip.
+    const slip = read.literal !== null && read.studentUnit !== null ? temperatureLabelSlip(a, e, p, r, read.studentUnit) : null
+    const message = slip === null ? OUTSIDE_RANGE_MESSAGE : temperatureLabelMessage(slip, Number(read.literal))
+    return { verdict: 'incorrect', valueInExpectedUnit: a, message, detail: { ...base, ...numbers, ...sig, code: 'outside-tolerance', ...(slip ? { temperatureLabel: slip } : {}) } }
+  }
+  if (sigProblem && r.sigFigs) {
+    return {
+      verdict: 'incorrect',
+      valueInExpectedUnit: a,
+      message: sigFigMessage(sigProblem.problem, sigProblem.count, r.sigFigs),
+      detail: { ...base, ...numbers, ...sig, code: 'sig-figs' },
+    }
+  }
+  return { verdict: 'correct', valueInExpectedUnit: a, message: CORRECT_MESSAGE, detail: { ...base, ...numbers, ...sig, code: 'within-tolerance' } }
+}
+
+/** |a − e|, the allowed difference, and whether a is accepted, under the rule's tolerance. */
+function compare(a: number, e: number, p: Prepared, r: CheckRule): { diff: number; bound: number; within: boolean } {
   let diff: number
   let bound: number
   let scaleOfValues: number
@@ -268,28 +302,27 @@ function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
     scaleOfValues = Math.max(Math.abs(a), Math.abs(e))
   }
   const within = diff <= bound * (1 + ROUND_OFF_OF_BOUND) + ROUND_OFF_OF_VALUE * scaleOfValues
-  const numbers = { difference: a - e, allowedDifference: bound, withinTolerance: within }
+  return { diff, bound, within }
+}
 
-  let sigFigs: CheckDetail['sigFigs']
-  let sigProblem: { problem: 'too-few' | 'too-many'; count: { min: number; max: number } } | null = null
-  if (r.sigFigs !== undefined) {
-    const counted = countSignificantFigures(read.literal ?? '')
-    const verdict = counted ? checkSignificantFigures(counted, r.sigFigs) : { ok: true as const }
-    sigFigs = { counted, rule: r.sigFigs, ok: verdict.ok }
-    if (!verdict.ok) sigProblem = { problem: verdict.problem, count: verdict.count }
-  }
-  const sig = sigFigs ? { sigFigs } : {}
-
-  if (!within) {
-    return { verdict: 'incorrect', valueInExpectedUnit: a, message: OUTSIDE_RANGE_MESSAGE, detail: { ...base, ...numbers, ...sig, code: 'outside-tolerance' } }
-  }
-  if (sigProblem && r.sigFigs) {
-    return {
-      verdict: 'incorrect',
-      valueInExpectedUnit: a,
-      message: sigFigMessage(sigProblem.problem, sigProblem.count, r.sigFigs),
-      detail: { ...base, ...numbers, ...sig, code: 'sig-figs' },
-    }
-  }
-  return { verdict: 'correct', valueInExpectedUnit: a, message: CORRECT_MESSAGE, detail: { ...base, ...numbers, ...sig, code: 'within-tolerance' } }
+/**
+ * The commonest temperature slip: the right temperature on the other scale under the wrong
+ * label ("300 K" typed for a key of 573.15 K, i.e. 300 °C; or 573.15 °C for 300 °C). Read as
+ * meant, within the same tolerance, the number would be accepted. Absolute temperatures only.
+ */
+function temperatureLabelSlip(a: number, e: number, p: Prepared, r: CheckRule, studentUnit: string): TemperatureLabelSlip | null {
+  if (p.isDifference || p.expected.kind !== 'unit') return null
+  const kelvin = resolveExpectedUnit('K', false)
+  if (kelvin === null || kelvin.kind !== 'unit' || !p.expected.unit.equalBase(kelvin.unit)) return null
+  const typed = resolveExpectedUnit(studentUnit, false)
+  if (typed === null || typed.kind !== 'unit') return null
+  const comps = typed.unit.units as unknown as ReadonlyArray<{ unit: { name: string }; prefix: { name: string }; power: number }>
+  const only = comps.length === 1 ? comps[0]! : null
+  if (only === null || only.power !== 1 || only.prefix.name !== '') return null
+  const slip: TemperatureLabelSlip | null = only.unit.name === 'K' ? 'celsius-labelled-kelvin' : only.unit.name === 'degC' || only.unit.name === 'celsius' ? 'kelvin-labelled-celsius' : null
+  if (slip === null) return null
+  // 273.15 K as a difference, in the expected unit's steps (1.8 per K for °F).
+  const shift = 273.15 * differenceFactor(kelvin.unit, p.expected.unit)
+  const meant = slip === 'celsius-labelled-kelvin' ? a + shift : a - shift
+  return compare(meant, e, p, r).within ? slip : null
 }

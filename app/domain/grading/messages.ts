@@ -165,6 +165,24 @@ export function dimensionHint(readUnitText: string, expectedIsTemperature: boole
 export const CORRECT_MESSAGE = 'Correct.'
 export const OUTSIDE_RANGE_MESSAGE = 'Check the number: it is outside the accepted range.'
 
+/** Which temperature label a number carries that belongs to the other scale. */
+export type TemperatureLabelSlip = 'celsius-labelled-kelvin' | 'kelvin-labelled-celsius'
+
+/** Plain numbers for messages: 573.15, not 573.1499999999999. */
+function plainNumber(x: number): string {
+  return String(Number(x.toPrecision(12)))
+}
+
+/**
+ * A wrong answer whose number is the right temperature on the other scale ("300 K" for a key
+ * of 573.15 K). `typed` is the student's number; the message converts it as it was meant.
+ */
+export function temperatureLabelMessage(slip: TemperatureLabelSlip, typed: number): string {
+  return slip === 'celsius-labelled-kelvin'
+    ? `This looks like the temperature in °C with a K label: ${plainNumber(typed)} °C is ${plainNumber(typed + 273.15)} K.`
+    : `This looks like the temperature in K with a °C label: ${plainNumber(typed)} K is ${plainNumber(typed - 273.15)} °C.`
+}
+
 export function sigFigMessage(problem: 'too-few' | 'too-many', counted: { min: number; max: number }, rule: { min?: number; max?: number }): string {
   const ask =
     rule.min !== undefined && rule.max !== undefined
