@@ -10,7 +10,9 @@ import { Form, useNavigation } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { VariantPreview } from '#app/components/variant-preview.tsx'
-import { DIFFICULTIES, LEVELS } from '#app/domain/authoring/definition.ts'
+import { DIFFICULTIES, FIND_SENSES, FIND_SENSE_WORDS, LEVELS, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { senseWarnings, type ProblemVisibility, type SenseFinding } from '#app/domain/authoring/sense.ts'
+import { applicablePitfalls } from '#app/domain/grading/applicable-pitfalls.ts'
 import { difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
 import { cn } from '#app/lib/cn.ts'
 import { conventionText } from '#app/lib/conventions.ts'
@@ -110,14 +112,14 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
   // Template inputs typed before a switch of template come back when a template with the
   // same input is chosen again (the inputs unmount while another template is shown).
   const typedInputs = useRef<Record<string, string>>({})
-  const [draft, setDraft] = useState<{ json: string; convention: string; formIssues: FormIssue[] } | null>(null)
+  const [draft, setDraft] = useState<{ json: string; convention: string; formIssues: FormIssue[]; definition: ProblemDefinition; visibility: string } | null>(null)
   const [previewConvention, setPreviewConvention] = useState(values._previewConvention || 'engineering')
   const errors = issuesByField(issues)
 
   function readDraft() {
     if (!formRef.current) return
-    const { draft: d, formIssues } = definitionFromForm(new FormData(formRef.current))
-    setDraft({ json: JSON.stringify(d), convention: (d as { convention?: string }).convention ?? '', formIssues })
+    const { draft: d, formIssues, visibility } = definitionFromForm(new FormData(formRef.current))
+    setDraft({ json: JSON.stringify(d), convention: (d as { convention?: string }).convention ?? '', formIssues, definition: d as ProblemDefinition, visibility })
   }
   function scheduleDraft() {
     clearTimeout(timer.current)
@@ -142,6 +144,25 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
   })
   const shownPreview = (hydrated ? previewQuery.data : undefined) ?? preview
   const previewIssues = mergeIssues(hydrated ? (draft?.formIssues ?? []) : [], shownPreview?.issues ?? [])
+  // Light checks run on the draft in the browser: which pitfalls can fire for each find, and
+  // the sense warnings (a question's words against its key's sign). Without JavaScript every
+  // pitfall is offered and the lint refuses one that cannot fire when saving.
+  const draftDefinition = hydrated ? (draft?.definition ?? null) : null
+  const offeredPitfalls = (i: number) => {
+    if (draftDefinition === null) return options.pitfalls
+    const fit = new Set<string>(applicablePitfalls(draftDefinition, i))
+    return options.pitfalls.filter((pf) => fit.has(pf.id))
+  }
+  const warnings = new Map<string, string[]>()
+  if (draftDefinition !== null) {
+    let found: SenseFinding[] = []
+    try {
+      found = Array.isArray(draftDefinition.finds) ? senseWarnings(draftDefinition, { visibility: draft!.visibility as ProblemVisibility }) : []
+    } catch {
+      found = []
+    }
+    for (const w of found) warnings.set(w.path, [...(warnings.get(w.path) ?? []), w.message])
+  }
 
   // ---- field helpers (plain functions returning JSX, so no remounts) ------------------
   const v = (path: string) => values[path] ?? ''
@@ -634,6 +655,8 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
               const source = sourceKinds[i] ?? 'output'
               const tolerance = toleranceKinds[i] ?? 'relative'
               const picked = new Set((values[`${p}.pitfalls`] ?? '').split(',').filter(Boolean))
+              const offered = offeredPitfalls(i)
+              const senseNotes = warnings.get(`${p}.sense`) ?? []
               return (
                 <fieldset key={i} className="rounded-md border border-line p-4">
                   <legend className="px-1 text-sm font-semibold">Find {n}</legend>
@@ -697,6 +720,33 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                     <div hidden={hydrated && tolerance !== 'absolute'}>
                       {labelled(`${p}.tolerance.unit`, 'Tolerance unit (absolute)', textInput(`${p}.tolerance.unit`, { placeholder: 'K', hint: true }), 'Empty: the find’s unit.')}
                     </div>
+                    <div className="md:col-span-2">
+                      {labelled(
+                        `${p}.sense`,
+                        'Sense (work and heat)',
+                        <select
+                          id={fieldId(`${p}.sense`)}
+                          name={`${p}.sense`}
+                          defaultValue={v(`${p}.sense`)}
+                          aria-invalid={invalid(`${p}.sense`)}
+                          aria-describedby={[describedBy(`${p}.sense`, true), senseNotes.length > 0 ? `${fieldId(`${p}.sense`)}-warning` : null].filter(Boolean).join(' ') || undefined}
+                          className={inputClass(errors.has(`${p}.sense`))}
+                        >
+                          <option value="">Not stated: the course’s convention decides the sign</option>
+                          {FIND_SENSES.map((sense) => (
+                            <option key={sense} value={sense}>
+                              Positive for {FIND_SENSE_WORDS[sense]}
+                            </option>
+                          ))}
+                        </select>,
+                        'Stated, the key has this sign in every course; the convention only picks the symbol (w or W, q or Q).',
+                      )}
+                      {senseNotes.length > 0 ? (
+                        <p id={`${fieldId(`${p}.sense`)}-warning`} className="mt-1 text-xs text-warn">
+                          {senseNotes.join(' ')}
+                        </p>
+                      ) : null}
+                    </div>
                     {labelled(`${p}.sigFigs.min`, 'Fewest significant figures', textInput(`${p}.sigFigs.min`, { inputMode: 'numeric' }))}
                     {labelled(`${p}.sigFigs.max`, 'Most significant figures', textInput(`${p}.sigFigs.max`, { inputMode: 'numeric' }))}
                   </div>
@@ -720,13 +770,22 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                   >
                     <legend className="text-sm font-medium">Pitfalls to recognise in wrong answers</legend>
                     <div className="mt-1 grid gap-1 text-sm sm:grid-cols-2">
-                      {options.pitfalls.map((pf) => (
+                      {offered.length === 0 ? <p className="text-muted">None can be recognised for this find (pitfalls need a solver output).</p> : null}
+                      {offered.map((pf) => (
                         <label key={pf.id} className="flex items-center gap-2">
                           <input type="checkbox" name={`${p}.pitfalls`} value={pf.id} defaultChecked={picked.has(pf.id)} className="size-4" />
                           {pf.title}
                         </label>
                       ))}
                     </div>
+                    {(() => {
+                      const dropped = options.pitfalls.filter((pf) => picked.has(pf.id) && !offered.some((o) => o.id === pf.id))
+                      return dropped.length > 0 ? (
+                        <p className="mt-1 text-xs text-warn">
+                          Ticked before but never recognised for this find, so saving drops it: {dropped.map((pf) => pf.title).join(', ')}.
+                        </p>
+                      ) : null
+                    })()}
                     {errorText(`${p}.pitfalls`)}
                   </fieldset>
                   <label className="mt-3 flex items-center gap-2 text-sm">
