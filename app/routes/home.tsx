@@ -2,6 +2,8 @@ import { Link, redirect } from 'react-router'
 import { primaryRole, roleLabels } from '#app/domain/permissions.ts'
 import { conventionText } from '#app/lib/conventions.ts'
 import { getUser } from '#app/server/auth.server.ts'
+import { db } from '#app/server/db/client.server.ts'
+import { getHomeData, type HomeData } from '#app/server/home.server.ts'
 import { toActor } from '#app/server/users.server.ts'
 import type { Route } from './+types/home'
 
@@ -10,7 +12,8 @@ export const meta: Route.MetaFunction = () => [{ title: 'Home · Cyclewright' }]
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request)
   if (!user) throw redirect('/sign-in')
-  return { name: user.name, role: primaryRole(toActor(user)), courses: user.courses }
+  const home = await getHomeData(db(), user)
+  return { name: user.name, role: primaryRole(toActor(user)), courses: user.courses, home }
 }
 
 const intros = {
@@ -30,7 +33,7 @@ const headings = {
 } as const
 
 export default function HomeRoute({ loaderData }: Route.ComponentProps) {
-  const { name, role, courses } = loaderData
+  const { name, role, courses, home } = loaderData
   return (
     <div data-home-role={role}>
       <p className="text-sm text-muted">Signed in as {name}</p>
@@ -47,6 +50,7 @@ export default function HomeRoute({ loaderData }: Route.ComponentProps) {
           <Link to="/admin/outbox">Outbox (mail sent by the demo)</Link>
         </p>
       ) : null}
+      <ToDo home={home} />
       {courses.length === 0 ? (
         role === 'admin' ? null : (
           <div className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">No courses yet.</div>
@@ -71,5 +75,112 @@ export default function HomeRoute({ loaderData }: Route.ComponentProps) {
         </ul>
       )}
     </div>
+  )
+}
+
+/** What needs doing, per role: due work for students, the review queue for TAs, what waits on instructors. */
+function ToDo({ home }: { home: HomeData }) {
+  const waiting = home.staff.filter((c) => c.openDisputes > 0 || c.unreleased.length > 0 || c.pendingInvitations > 0)
+  return (
+    <>
+      {home.student.length > 0 ? (
+        <section aria-labelledby="due-title" className="mt-8">
+          <h2 id="due-title" className="text-xl font-semibold">
+            Due next
+          </h2>
+          {home.student.every((c) => c.due.length === 0) ? <p className="mt-2 text-muted">Nothing is due right now.</p> : null}
+          <div className="mt-3 grid gap-4">
+            {home.student.map((c) =>
+              c.dropped ? (
+                <p key={c.courseId} className="text-sm text-muted">
+                  {c.code}: you have been dropped from this course; your past work can still be read there.
+                </p>
+              ) : c.due.length === 0 && c.opening.length === 0 ? null : (
+                <div key={c.courseId} className="rounded-lg border border-line bg-white p-4" data-due-course={c.code}>
+                  <h3 className="font-semibold">
+                    <Link to={`/courses/${c.courseId}`}>
+                      {c.code} {c.title}
+                    </Link>
+                  </h3>
+                  {c.due.length > 0 ? (
+                    <ul className="mt-2 grid gap-2">
+                      {c.due.map((d) => (
+                        <li key={d.assignmentId} data-due={d.title} className={d.late ? 'rounded border-l-4 border-warn pl-2' : 'pl-3'}>
+                          <Link to={d.href} className="font-medium">
+                            {d.title}
+                          </Link>
+                          {d.late ? <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">Late</span> : null}
+                          <div className="text-sm text-muted">
+                            Due {d.dueText} · {d.timeLeft} · {d.progress}
+                          </div>
+                        </li>
+                      ))}
+                    </ul>
+                  ) : (
+                    <p className="mt-2 text-sm text-muted">Nothing due in this course right now.</p>
+                  )}
+                  {c.opening.length > 0 ? (
+                    <p className="mt-2 text-sm text-muted">Opening next: {c.opening.map((o) => `${o.title} (${o.opensText})`).join('; ')}</p>
+                  ) : null}
+                </div>
+              ),
+            )}
+          </div>
+        </section>
+      ) : null}
+      {home.staff.length > 0 || home.failedChecks.length > 0 ? (
+        <section aria-labelledby="waiting-title" className="mt-8">
+          <h2 id="waiting-title" className="text-xl font-semibold">
+            Waiting for you
+          </h2>
+          {waiting.length === 0 && home.failedChecks.length === 0 ? <p className="mt-2 text-muted">Nothing is waiting: no open disputes, no grades to release, no failed checks.</p> : null}
+          <ul className="mt-3 grid gap-3">
+            {waiting.map((c) => (
+              <li key={c.courseId} className="rounded-lg border border-line bg-white p-4" data-waiting-course={c.code}>
+                <h3 className="font-semibold">
+                  <Link to={`/courses/${c.courseId}`}>
+                    {c.code} {c.title}
+                  </Link>
+                </h3>
+                <ul className="mt-1 list-disc pl-5 text-sm">
+                  {c.openDisputes > 0 ? (
+                    <li>
+                      <Link to={c.reviewHref}>
+                        {c.openDisputes} open dispute{c.openDisputes === 1 ? '' : 's'} in the review queue
+                      </Link>
+                      {c.oldestDisputeText ? `, ${c.oldestDisputeText}` : ''} (oldest first)
+                    </li>
+                  ) : null}
+                  {c.unreleased.map((u) => (
+                    <li key={u.assignmentId}>
+                      <Link to={u.href}>{u.title}</Link>: due {u.dueText}, grades not released
+                    </li>
+                  ))}
+                  {c.pendingInvitations > 0 ? (
+                    <li>
+                      <Link to={`/courses/${c.courseId}/people`}>
+                        {c.pendingInvitations} invitation{c.pendingInvitations === 1 ? '' : 's'} not yet accepted
+                      </Link>
+                    </li>
+                  ) : null}
+                </ul>
+              </li>
+            ))}
+            {home.failedChecks.length > 0 ? (
+              <li className="rounded-lg border border-line bg-white p-4">
+                <h3 className="font-semibold">Checks of your problems that failed</h3>
+                <ul className="mt-1 list-disc pl-5 text-sm">
+                  {home.failedChecks.map((f) => (
+                    <li key={f.problemId}>
+                      <Link to={`/bank/${f.problemId}#check`}>{f.title}</Link>: {f.status === 'failed' ? 'the check could not finish' : `${f.failed} of ${f.total} variants failed`}
+                    </li>
+                  ))}
+                </ul>
+              </li>
+            ) : null}
+          </ul>
+        </section>
+      ) : null}
+    </>
   )
 }

@@ -55,6 +55,33 @@ export class AssignmentNotFoundError extends Error {
   }
 }
 
+/** A student asked for an assignment that has not opened yet: the message says when it opens. */
+export class AssignmentNotOpenError extends AssignmentNotFoundError {
+  constructor(readonly opening: NotOpenInfo) {
+    super(notOpenSentence(opening))
+    this.name = 'AssignmentNotOpenError'
+  }
+}
+
+export type NotOpenInfo = { title: string; opensAt: Date; timeZone: string }
+
+export function notOpenSentence(o: NotOpenInfo): string {
+  return `“${o.title}” opens ${formatInZone(o.opensAt, o.timeZone)}. Its problems appear here then.`
+}
+
+/** The assignment's title and opening when it exists in the course and has not opened yet; null otherwise. */
+export async function notYetOpen(database: Database, opts: { courseId: number; assignmentId: number; now?: Date }): Promise<NotOpenInfo | null> {
+  if (!Number.isInteger(opts.assignmentId) || opts.assignmentId <= 0) return null
+  const [row] = await database
+    .select({ title: assignments.title, opensAt: assignments.opensAt, timeZone: courses.timeZone })
+    .from(assignments)
+    .innerJoin(courses, eq(courses.id, assignments.courseId))
+    .where(and(eq(assignments.id, opts.assignmentId), eq(assignments.courseId, opts.courseId)))
+    .limit(1)
+  if (!row || row.opensAt.getTime() <= (opts.now ?? new Date()).getTime()) return null
+  return row
+}
+
 /** The person may not do this to the assignment (only instructors change assignments). */
 export class AssignmentPermissionError extends Error {
   readonly status = 403
@@ -201,7 +228,7 @@ export type AssignmentDetail = {
 
 /**
  * One assignment for a member of its course. Throws AssignmentNotFoundError when it is not
- * in the course, or when a student asks before it opens.
+ * in the course, and AssignmentNotOpenError (saying when it opens) when a student asks before.
  */
 export async function getAssignmentDetail(
   database: Database,
@@ -210,8 +237,8 @@ export async function getAssignmentDetail(
   const now = opts.now ?? new Date()
   const a = await findAssignment(database, opts.courseId, opts.assignmentId)
   const isStudent = opts.role === 'student'
-  if (isStudent && a.opensAt.getTime() > now.getTime()) throw new AssignmentNotFoundError()
   const { timeZone } = await courseZone(database, opts.courseId)
+  if (isStudent && a.opensAt.getTime() > now.getTime()) throw new AssignmentNotOpenError({ title: a.title, opensAt: a.opensAt, timeZone })
   const itemRows = await database
     .select({
       id: assignmentItems.id,

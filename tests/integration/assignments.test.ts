@@ -364,7 +364,7 @@ describe('the course list', () => {
 })
 
 describe('who sees and changes what', () => {
-  test('students do not see assignments that have not opened, in the list or by address', async () => {
+  test('students do not see assignments that have not opened in the list; by address they are told when it opens', async () => {
     const { course, instructor, students } = await setUp()
     const p = await createProblemWithVersion(db(), instructor.id, otto)
     const open = await createAssignment(db(), course.id, instructor.id, [p], { title: 'Open now' })
@@ -381,11 +381,15 @@ describe('who sees and changes what', () => {
     const hidden = await settle(
       overviewLoader(args(getRequest(`/courses/${course.id}/assignments/${later.assignment.id}`, { Cookie: cookie }), { courseId: String(course.id), assignmentId: String(later.assignment.id) })),
     )
-    expect('thrown' in hidden && status(hidden.thrown)).toBe(404)
+    // By address, the page says when it opens, and nothing of its content.
+    expect('value' in hidden && hidden.value).toEqual({
+      notOpen: { title: 'Opens later', message: expect.stringMatching(/^“Opens later” opens .+\. Its problems appear here then\.$/) },
+      course: expect.anything(),
+    })
     const shown = await settle(
       overviewLoader(args(getRequest(`/courses/${course.id}/assignments/${open.assignment.id}`, { Cookie: cookie }), { courseId: String(course.id), assignmentId: String(open.assignment.id) })),
     )
-    expect('value' in shown && shown.value.detail.assignment.title).toBe('Open now')
+    expect('value' in shown && shown.value.detail?.assignment.title).toBe('Open now')
   })
 
   test('a student cannot reach the new, edit or extensions pages or their actions (403)', async () => {

@@ -56,7 +56,7 @@ async function setUp(assignment: AssignmentOverrides = {}) {
   const path = `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/1`
   const params = { courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: '1' }
   const cookie = await cookieFor(me.id)
-  const offers = async () => ((await problemLoader(args(getRequest(path, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof problemLoader>>).offers
+  const offers = async () => ((await problemLoader(args(getRequest(path, { Cookie: cookie }), params))) as Extract<Awaited<ReturnType<typeof problemLoader>>, { notOpen: null }>).offers
   const raise = (findName: string) => raiseDispute(db(), { ...ref, findName, reason: 'I think the verdict on this answer is wrong.' })
   return { ...made, ta, me, keyOf, ref, answer, path, params, cookie, offers, raise }
 }
@@ -107,7 +107,7 @@ describe('a dropped student', () => {
     const s = await setUp({ attemptsPerFind: 1 })
     await s.answer({ T2: '1 K' })
     await db().update(memberships).set({ droppedAt: new Date() }).where(and(eq(memberships.userId, s.me.id), eq(memberships.courseId, s.course.id)))
-    const page = (await problemLoader(args(getRequest(s.path, { Cookie: s.cookie }), s.params))) as Awaited<ReturnType<typeof problemLoader>>
+    const page = (await problemLoader(args(getRequest(s.path, { Cookie: s.cookie }), s.params))) as Extract<Awaited<ReturnType<typeof problemLoader>>, { notOpen: null }>
     expect(page.dropped).toBe(true)
     expect(page.problem.results.finds.find((f) => f.name === 'T2')!.last).toMatchObject({ answer: '1 K' })
     expect(page.offers.T2).toMatchObject({ allowed: false, code: 'dropped' })

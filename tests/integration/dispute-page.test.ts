@@ -12,7 +12,7 @@ import { afterAll, describe, expect, test } from 'vitest'
 import { disputeOutcome } from '#app/components/answer-form.tsx'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { action, loader, MAX_DISPUTE_BODY_BYTES, type DisputeActionData } from '#app/routes/courses/assignments/dispute.tsx'
-import { loader as problemLoader, action as problemAction } from '#app/routes/courses/assignments/problem.tsx'
+import { loader as problemLoader, action as problemAction, type ProblemPageData } from '#app/routes/courses/assignments/problem.tsx'
 import { loader as disputeDetailLoader } from '#app/routes/courses/disputes/$disputeId.tsx'
 import { contentDisposition, loader as attachmentLoader } from '#app/routes/resources/dispute-attachment.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -391,9 +391,9 @@ describe('the outcome on the problem page', () => {
     })
     expect(resolved.ok).toBe(true)
 
-    const page = await problemLoader(args(getRequest(s.problemPath, { Cookie: s.cookie }), s.params))
+    const page = (await problemLoader(args(getRequest(s.problemPath, { Cookie: s.cookie }), s.params))) as ProblemPageData
     expect(page.disputed).toBeNull()
-    const latest = page.disputes.find((d) => d.findName === 'wNet')!
+    const latest = page.disputes!.find((d) => d.findName === 'wNet')!
     expect(latest).toMatchObject({ status: 'adjusted', scoreBefore: 0, scoreAfter: 1, comment: 'Half marks: the size is right.' })
     expect(disputeOutcome(latest)).toBe('Adjusted: score changed from 0 to 1 — Half marks: the size is right.')
     expect(page.problem.results.finds.find((f) => f.name === 'wNet')!.score).toBe(1)

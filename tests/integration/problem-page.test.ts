@@ -11,7 +11,7 @@ import { renderToString } from 'react-dom/server'
 import { createRoutesStub } from 'react-router'
 import { afterAll, describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
-import ProblemRoute, { action, loader, type SubmitActionData } from '#app/routes/courses/assignments/problem.tsx'
+import ProblemRoute, { action, loader, type ProblemPageData, type SubmitActionData } from '#app/routes/courses/assignments/problem.tsx'
 import { loader as mineLoader } from '#app/routes/resources/api-my-results.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { assignments, partResults, submissions } from '#app/server/db/schema.server.ts'
@@ -115,7 +115,7 @@ describe('submitting from the problem page', () => {
     ])
 
     // The page the redirect lands on: the receipt, the answers back in the form, grading pending.
-    const page = await loader(args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params))
+    const page = (await loader(args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params))) as ProblemPageData
     expect(page.staff).toBe(false)
     expect(page.receiptId).toBe(rows[0]!.id)
     expect(page.problem.results.pending).toBe(true)
@@ -145,7 +145,7 @@ describe('submitting from the problem page', () => {
     expect(parts.map((p) => [p.findName, p.attempt])).toEqual([['T2', 1]])
 
     // The GET the redirect leads to: the refusals with why, and everything typed back in the form.
-    const page = await loader(args(getRequest(res.headers.get('Location')!, { Cookie: s.cookie }), s.params))
+    const page = (await loader(args(getRequest(res.headers.get('Location')!, { Cookie: s.cookie }), s.params))) as ProblemPageData
     expect(page.receiptId).toBe(rows[0]!.id)
     expect(page.problem.refused?.submissionId).toBe(rows[0]!.id)
     expect(Object.keys(page.problem.refused!.fieldErrors).sort()).toEqual(['eta', 'wNet'])
@@ -162,7 +162,7 @@ describe('submitting from the problem page', () => {
 
     // The refusals belong to that press: once another is stored, its receipt no longer shows them.
     await post(s, { 'answer.wNet': `${s.key.wNet!.value} kJ/kg`, formToken: await tokenFor(s) })
-    const older = await loader(args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params))
+    const older = (await loader(args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params))) as ProblemPageData
     expect(older.problem.refused).toBeNull()
   })
 
@@ -206,7 +206,7 @@ describe('submitting from the problem page', () => {
     expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(403)
     expect(await storedSubmissions(s.assignment.id)).toHaveLength(0)
 
-    const page = await loader(args(getRequest(s.path, { Cookie: staffCookie }), s.params))
+    const page = (await loader(args(getRequest(s.path, { Cookie: staffCookie }), s.params))) as ProblemPageData
     expect(page.staff).toBe(true)
     expect(page.problem.key?.entries.map((k) => k.name)).toEqual(['T2', 'wNet', 'eta'])
   })
@@ -215,7 +215,7 @@ describe('submitting from the problem page', () => {
     const s = await setUp({ assignment: { opensAt: new Date(Date.now() + day), dueAt: new Date(Date.now() + 7 * day) } })
     const student = await settle(loader(args(getRequest(s.path, { Cookie: s.cookie }), s.params)))
     expect('thrown' in student && (student.thrown as { init: { status: number } }).init.status).toBe(404)
-    const staff = await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))
+    const staff = (await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))) as ProblemPageData
     expect(staff.problem.window.state).toBe('not-open')
   })
 
@@ -253,7 +253,7 @@ describe('one press, one submission (form tokens)', () => {
     const b = await tokenFor(s)
     expect(a).toMatch(/^[A-Za-z0-9_-]{21}$/)
     expect(b).not.toBe(a)
-    const staff = await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))
+    const staff = (await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))) as ProblemPageData
     expect(staff.formToken).toBeNull()
   })
 

@@ -11,7 +11,7 @@ import { formatPoints, formatScore } from '#app/lib/points.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { keyReleaseText, latePolicyText } from '#app/lib/assignment-text.ts'
 import { earlyReleaseLabel, gradesReleaseSentence, keyReleaseSentence, studentsWord } from '#app/domain/assignments/releases.ts'
-import { AssignmentInUseError, deleteAssignment, deletionSentence, deletionSummary, getAssignmentDetail, orErrorPage } from '#app/server/assignments.server.ts'
+import { AssignmentInUseError, AssignmentNotOpenError, deleteAssignment, deletionSentence, deletionSummary, getAssignmentDetail, orErrorPage } from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { appUrl } from '#app/server/env.server.ts'
@@ -19,7 +19,9 @@ import { getReleaseChecks, orReleaseErrorPage, releaseGrades, releaseKey, Releas
 import type { Route } from './+types/$assignmentId'
 import { readFormData } from '#app/lib/form.ts'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.detail.assignment.title} · Cyclewright` : 'Assignment · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `${data.notOpen ? data.notOpen.title : data.detail.assignment.title} · Cyclewright` : 'Assignment · Cyclewright' },
+]
 
 const IntentSchema = z.enum(['release-key', 'release-grades', 'delete'])
 const ConfirmSchema = z.enum(['release-key', 'release-grades', 'delete'])
@@ -29,7 +31,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { user, course } = await requireCourseRole(request, courseId, ['instructor', 'ta', 'student'])
-  const detail = await orErrorPage(getAssignmentDetail(db(), { courseId, assignmentId, role: course.role, userId: user.id }))
+  let detail
+  try {
+    detail = await getAssignmentDetail(db(), { courseId, assignmentId, role: course.role, userId: user.id })
+  } catch (e) {
+    // Not open yet: the page says when it opens (nothing of its content is sent).
+    if (e instanceof AssignmentNotOpenError) return { notOpen: { title: e.opening.title, message: e.message }, course }
+    return orErrorPage(Promise.reject(e))
+  }
   const instructions = detail.assignment.instructions ? renderMarkdown(detail.assignment.instructions).html : null
   const search = new URL(request.url).searchParams
   const notice = search.get('done')
@@ -39,7 +48,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const deletion = instructor ? await orErrorPage(deletionSummary(db(), { courseId, assignmentId })) : null
   const confirmParsed = ConfirmSchema.safeParse(search.get('confirm'))
   const confirm = instructor && confirmParsed.success ? confirmParsed.data : null
-  return { course, detail, instructions, notice, releases, deletion, confirm }
+  return { notOpen: null, course, detail, instructions, notice, releases, deletion, confirm }
 }
 
 export type AssignmentActionData = { formError: string; step: ConfirmStep }
@@ -75,6 +84,29 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function AssignmentRoute({ loaderData, actionData }: Route.ComponentProps) {
+  if (loaderData.notOpen !== null) return <NotYetOpen course={loaderData.course} info={loaderData.notOpen} />
+  return <AssignmentPage loaderData={loaderData} actionData={actionData} />
+}
+
+function NotYetOpen({ course, info }: { course: { id: number; code: string; title: string }; info: { title: string; message: string } }) {
+  return (
+    <div>
+      <p className="text-sm text-muted">
+        <a href={`/courses/${course.id}`}>
+          {course.code} {course.title}
+        </a>
+      </p>
+      <h1 className="mt-1 text-3xl font-semibold">{info.title}</h1>
+      <Notice tone="info" className="mt-4 max-w-3xl">
+        {info.message}
+      </Notice>
+    </div>
+  )
+}
+
+type PageData = Extract<Route.ComponentProps['loaderData'], { notOpen: null }>
+
+function AssignmentPage({ loaderData, actionData }: { loaderData: PageData; actionData: Route.ComponentProps['actionData'] }) {
   const { course, detail, instructions, notice, releases, deletion, confirm } = loaderData
   const { assignment: a, timeZone } = detail
   const fmt = (d: Date) => formatInZone(d, timeZone)
@@ -110,10 +142,10 @@ export default function AssignmentRoute({ loaderData, actionData }: Route.Compon
   )
 }
 
-type Detail = Route.ComponentProps['loaderData']['detail']
+type Detail = PageData['detail']
 type Controls = {
-  releases: NonNullable<Route.ComponentProps['loaderData']['releases']>
-  deletion: NonNullable<Route.ComponentProps['loaderData']['deletion']>
+  releases: NonNullable<PageData['releases']>
+  deletion: NonNullable<PageData['deletion']>
   step: ConfirmStep | null
   error: string | null
 }

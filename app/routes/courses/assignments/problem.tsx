@@ -17,6 +17,7 @@ import { forbidden, requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { disputeOffers, listMyDisputes } from '#app/server/disputes.server.ts'
 import { DROPPED_SUBMIT_MESSAGE, droppedFrom } from '#app/server/membership-state.server.ts'
+import { notOpenSentence, notYetOpen } from '#app/server/assignments.server.ts'
 import { FORM_TOKEN_PATTERN, getStudentProblem, newFormToken, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/problem'
 import { formatScore } from '#app/lib/points.ts'
@@ -25,7 +26,7 @@ import { readFormData } from '#app/lib/form.ts'
 const NOT_FOUND = 'There is no such problem, or it is not open yet.'
 
 export const meta: Route.MetaFunction = ({ data }) => [
-  { title: data ? `${data.problem.item.title} · ${data.problem.assignment.title} · Cyclewright` : 'Problem · Cyclewright' },
+  { title: data ? (data.notOpen ? `${data.notOpen.title} · Cyclewright` : `${data.problem.item.title} · ${data.problem.assignment.title} · Cyclewright`) : 'Problem · Cyclewright' },
 ]
 
 async function guard(request: Request, params: Route.LoaderArgs['params']) {
@@ -43,7 +44,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const receiptId = !staff && receiptParam && /^\d{1,9}$/.test(receiptParam) ? Number(receiptParam) : null
   // Staff see their own variant with its key, before it opens too; nothing they do is recorded.
   const problem = await getStudentProblem(db(), staff ? { ...ref, showKey: true, allowBeforeOpen: true } : { ...ref, receiptId })
-  if (!problem) throw data(NOT_FOUND, { status: 404 })
+  if (!problem) {
+    // Not open yet: say when, rather than that it does not exist.
+    const opening = staff ? null : await notYetOpen(db(), ref)
+    if (opening) return { notOpen: { title: opening.title, message: notOpenSentence(opening), back: `/courses/${course.id}/assignments/${ref.assignmentId}` } }
+    throw data(NOT_FOUND, { status: 404 })
+  }
   // Staff preview their own variant: they have no disputes of their own here.
   const disputes = staff ? [] : await listMyDisputes(db(), { itemId: problem.item.id, userId: ref.userId })
   // Which questions may be disputed now: the same rule the dispute page and raiseDispute apply.
@@ -54,7 +60,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const disputed = !staff && disputedParam && problem.results.finds.some((f) => f.name === disputedParam) ? disputedParam : null
   // Each rendered form gets its own one-time token: posting it again (a reload, a double click) stores nothing new.
   const formToken = staff ? null : newFormToken()
-  return { course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId, disputes, offers, dropped, disputed, formToken }
+  return { notOpen: null, course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId, disputes, offers, dropped, disputed, formToken }
 }
 
 /** Longest text read per answer field; the server refuses anything over its own limit with a message. */
@@ -123,6 +129,24 @@ async function fetchMyResults(assignmentId: number, position: number): Promise<M
 
 
 export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
+  if (loaderData.notOpen !== null) {
+    return (
+      <div className="space-y-4">
+        <h1 className="text-2xl font-semibold">{loaderData.notOpen.title}</h1>
+        <Notice tone="info">{loaderData.notOpen.message}</Notice>
+        <p>
+          <Link to={loaderData.notOpen.back}>Back to the assignment</Link>
+        </p>
+      </div>
+    )
+  }
+  return <ProblemPage loaderData={loaderData} actionData={actionData} />
+}
+
+/** The page's data when the problem is open (or staff preview it). */
+export type ProblemPageData = Extract<Route.ComponentProps['loaderData'], { notOpen: null }>
+
+function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; actionData: Route.ComponentProps['actionData'] }) {
   const { course, staff, problem, receiptId, disputes, offers, dropped, disputed, formToken } = loaderData
   const { assignment, item } = problem
   const tz = assignment.timeZone
