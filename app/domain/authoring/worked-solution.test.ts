@@ -161,8 +161,11 @@ describe('workedSolution: Otto cycle, engineering convention', () => {
 
   test('renders to HTML with MathML for every line and escaped notes', () => {
     const html = renderWorkedSolution(ws)
-    const lines = ws.sections.reduce((n, s) => n + s.lines.length, 0)
-    expect(html.match(/<math/g)).toHaveLength(lines)
+    const formulas = ws.sections.flatMap((s) => s.lines).filter((l) => l.tex !== '').length
+    expect(formulas).toBeGreaterThan(20)
+    expect(html.match(/<span class="worked-math"><span class="katex"><span class="katex-mathml"><math/g)).toHaveLength(formulas)
+    // Lines of words only are text, so they wrap.
+    expect(html).toContain('<li><span class="worked-note">Values per unit amount; a negative heat leaves the system.</span></li>')
     expect(html).not.toContain('katex-error')
     expect(html).toContain('<h3>Cycle totals</h3>')
   })
@@ -237,7 +240,7 @@ describe('workedSolution: other cycles render without TeX errors', () => {
     const html = renderWorkedSolution(ws)
     expect(html).not.toContain('katex-error')
     expect(html).not.toMatch(/NaN|Infinity|undefined/)
-    expect(html.match(/<math/g)?.length).toBe(ws.sections.reduce((n, s) => n + s.lines.length, 0))
+    expect(html.match(/<span class="worked-math"><span class="katex"><span class="katex-mathml"><math/g)?.length).toBe(ws.sections.reduce((n, s) => n + s.lines.filter((l) => l.tex !== '').length, 0))
   })
 
   test('polytropic: n from the states agrees with the n given', () => {

@@ -23,6 +23,7 @@ import { escapeHtml, renderMath } from './prompt.ts'
 import { quantityAtPath, splitIdentifiers, symbolTex } from './quantities.ts'
 
 export interface WorkedLine {
+  /** The formula; '' for a line of words only (words wrap, a formula scrolls in its box). */
   readonly tex: string
   readonly note?: string
 }
@@ -124,7 +125,7 @@ function conventionSection(convention: Convention, flow: boolean): { text: strin
           { tex: '\\Delta U = Q - W', note: 'engineering convention: Q is the heat into the system, W the work done BY the system (positive when the gas expands)' },
           ...(flow ? [{ tex: '\\Delta h = Q - W', note: 'steady flow: W is the shaft work done by the fluid' }] : []),
         ]
-  lines.push({ tex: '\\text{Values per unit amount; a negative heat leaves the system.}' })
+  lines.push({ tex: '', note: 'Values per unit amount; a negative heat leaves the system.' })
   const text = `${convention}: ${c.equation}; ${c.heat}; ${c.work}${flow ? `; ${c.flowEquation}` : ''}`
   return { text, section: { title: 'Sign convention', lines } }
 }
@@ -408,7 +409,7 @@ function idealGasSections(sol: FormattedSolution, variant: Variant, sym: Symbols
     const T = sol.states[0]?.T.value ?? 300
     gasLines.push({ tex: `c_p = ${q4(u.s(gas.cp(T)), u.entropy)},\\quad c_v = ${q4(u.s(gas.cv(T)), u.entropy)},\\quad \\gamma = c_p/c_v = ${n4(gas.gamma(T))}`, note: 'constant specific heats' })
   }
-  gasLines.push({ tex: `\\text{${texEscape(sol.system === 'flow' ? 'Steady flow: shaft work, energy balance on h.' : 'Closed system: boundary work, energy balance on u.')}}` })
+  gasLines.push({ tex: '', note: sol.system === 'flow' ? 'Steady flow: shaft work, energy balance on h.' : 'Closed system: boundary work, energy balance on u.' })
   return [{ title: 'Working gas', lines: gasLines }, stateLines(ctx), ...sol.steps.map((st, k) => stepSection(ctx, st, k)), totalsSection(ctx, template)]
 }
 
@@ -608,7 +609,7 @@ function givensSection(variant: Variant, def: ProblemDefinition): WorkedSection 
     const display = def.givens.find((d) => d.name === g.name)?.display
     const shown = formatGivenValue(g, display, { tex: true })
     // A given drawn as words (a kind of gas) reads as words: its label and its text.
-    if (!shown.ok || Number.isNaN(g.value)) return { tex: `\\text{${texEscape(g.text)}}`, note: g.label }
+    if (!shown.ok || Number.isNaN(g.value)) return { tex: '', note: `${g.label}: ${g.text}` }
     return { tex: `${texName(g.name)} = ${shown.text}`, note: g.label }
   })
   return { title: 'Given', lines }
@@ -701,8 +702,8 @@ export function renderWorkedSolution(ws: WorkedSolution): string {
   for (const section of ws.sections) {
     parts.push(`<section><h3>${escapeHtml(section.title)}</h3><ul>`)
     for (const line of section.lines) {
-      const math = renderMath(line.tex, false).html
-      parts.push(`<li><span class="worked-math">${math}</span>${line.note ? ` <span class="worked-note">${noteHtml(line.note)}</span>` : ''}</li>`)
+      const math = line.tex ? `<span class="worked-math">${renderMath(line.tex, false).html}</span> ` : ''
+      parts.push(`<li>${math}${line.note ? `<span class="worked-note">${noteHtml(line.note)}</span>` : ''}</li>`)
     }
     parts.push('</ul></section>')
   }
