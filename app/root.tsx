@@ -64,14 +64,14 @@ function Shell({ children }: { children: React.ReactNode }) {
             <CyclewrightMark className="mr-1.5 inline-block align-[-0.3em]" />
             <span aria-hidden="true">Cyclewright</span>
           </a>
-          <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
+          <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1 max-sm:order-last max-sm:basis-full">
             {items.map((item) => (
               <NavLink
                 key={item.to}
                 to={item.to}
                 end={item.end}
                 className={({ isActive }) =>
-                  `rounded-md px-3 py-1.5 text-sm no-underline hover:bg-accent-soft hover:no-underline ${isActive ? 'bg-accent-soft font-semibold text-accent-strong' : 'text-ink'}`
+                  `inline-flex min-h-11 items-center rounded-md px-3 py-1.5 text-sm no-underline sm:min-h-0 hover:bg-accent-soft hover:no-underline ${isActive ? 'bg-accent-soft font-semibold text-accent-strong' : 'text-ink'}`
                 }
               >
                 {item.label}
@@ -79,12 +79,12 @@ function Shell({ children }: { children: React.ReactNode }) {
             ))}
           </nav>
           {user ? (
-            <div className="flex items-center gap-3 text-sm">
-              <span className="text-muted" title={user.email}>
+            <div className="flex items-center gap-3 text-sm max-sm:ml-auto">
+              <span className="text-muted max-sm:sr-only" title={user.email}>
                 {user.name}
               </span>
               <Form method="post" action="/sign-out">
-                <button type="submit" className="rounded-md border border-line px-3 py-1.5 hover:bg-paper">
+                <button type="submit" className="min-h-11 rounded-md border border-line px-3 py-1.5 hover:bg-paper sm:min-h-0">
                   Sign out
                 </button>
               </Form>

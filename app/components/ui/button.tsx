@@ -11,7 +11,8 @@ export function Button({ variant = 'primary', className, ...props }: ButtonHTMLA
   return (
     <button
       className={cn(
-        'inline-flex items-center justify-center gap-2 rounded-md px-4 py-2 text-sm font-semibold disabled:cursor-wait disabled:opacity-60',
+        // At least 44 px tall on a phone, a target a thumb can hit; the usual height from `sm` up.
+        'inline-flex min-h-11 items-center justify-center gap-2 rounded-md px-4 py-2 text-sm font-semibold disabled:cursor-wait disabled:opacity-60 sm:min-h-0',
         variants[variant],
         className,
       )}
