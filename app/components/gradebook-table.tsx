@@ -50,6 +50,14 @@ function hrefFor(view: GradebookView, change: Partial<GradebookView>): string {
   return s ? `?${s}` : '?'
 }
 
+/**
+ * On a phone a gradebook scrolls inside its box: its caption stays in view above it (no wider
+ * than the box: the screen less the page's padding and the box's border), and so does the
+ * student column, so every score is read beside its student.
+ */
+const PHONE_CAPTION = 'px-3 py-2 text-left text-sm text-muted max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-2rem-2px)]'
+const STUDENT_HEADER = 'sticky left-0 z-10 bg-paper px-3 py-2 shadow-[1px_0_0_var(--color-line)]'
+
 function SortHeader({ view, sort, children, className }: { view: GradebookView; sort: GradebookSort; children: React.ReactNode; className?: string }) {
   const active = view.sort === sort
   const nextDir = active && view.dir === 'asc' ? 'desc' : 'asc'
@@ -93,19 +101,19 @@ export function GradebookFilters({ view, sections }: { view: GradebookView; sect
           ))}
         </select>
       </div>
-      <div className="flex flex-col gap-1">
+      <div className="flex w-full flex-col gap-1 sm:w-auto">
         <label htmlFor="gb-q" className="text-sm font-medium">
           Name or e-mail
         </label>
-        <input id="gb-q" name="q" type="search" defaultValue={view.q} maxLength={200} className="w-56 rounded-md border border-line px-3 py-2" />
+        <input id="gb-q" name="q" type="search" defaultValue={view.q} maxLength={200} className="w-full rounded-md border border-line px-3 py-2 sm:w-56" />
       </div>
       {view.sort !== 'name' ? <input type="hidden" name="sort" value={view.sort} /> : null}
       {view.dir !== 'asc' ? <input type="hidden" name="dir" value={view.dir} /> : null}
       {view.expand ? <input type="hidden" name="expand" value={view.expand} /> : null}
-      <button type="submit" className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong">
+      <button type="submit" className="min-h-11 rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong sm:min-h-0">
         Show
       </button>
-      <Link to="?" className="py-2 text-sm underline">
+      <Link to="?" className="inline-flex min-h-11 items-center text-sm underline sm:min-h-0 sm:py-2">
         Clear
       </Link>
     </Form>
@@ -129,11 +137,11 @@ export function sortedName(s: { familyName: string; givenName: string }): string
 
 function StudentCell({ student, href }: { student: { familyName: string; givenName: string; email: string; studentNumber: string | null }; href: string }) {
   return (
-    <th scope="row" className="px-3 py-2 text-left font-normal">
+    <th scope="row" className="sticky left-0 min-w-40 bg-white px-3 py-2 text-left font-normal shadow-[1px_0_0_var(--color-line)]">
       <Link to={href} className="font-medium">
         {sortedName(student)}
       </Link>
-      <span className="block text-xs text-muted">
+      <span className="block text-xs text-muted [overflow-wrap:anywhere]">
         {student.studentNumber ? <>ID {student.studentNumber} · </> : null}
         {student.email}
       </span>
@@ -151,7 +159,7 @@ export function DroppedStudents({ dropped, timeZone }: { dropped: readonly Dropp
       </summary>
       <ul className="mt-2 space-y-1">
         {dropped.map((d) => (
-          <li key={d.userId}>
+          <li key={d.userId} className="[overflow-wrap:anywhere]">
             {sortedName(d)} <span className="text-muted">· {d.studentNumber ? `ID ${d.studentNumber} · ` : ''}{d.email}
             {d.section ? ` · section ${d.section}` : ''} · dropped {formatInZone(d.droppedAt, timeZone)}</span>
           </li>
@@ -180,15 +188,15 @@ export function AssignmentGradebookTable({ data, basePath }: { data: AssignmentG
   const expanded = view.expand === '1'
   if (data.students.length === 0) return <EmptyRows studentCount={data.studentCount} />
   return (
-    <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
+    <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
       <table className="w-full text-left text-sm">
-        <caption className="px-3 py-2 text-left text-sm text-muted">
+        <caption className={PHONE_CAPTION}>
           {data.students.length} of {data.studentCount} students · scores out of each problem’s points
           {expanded ? ', then each question’s score and attempts' : ''}
         </caption>
         <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
           <tr>
-            <SortHeader view={view} sort="name">
+            <SortHeader view={view} sort="name" className={STUDENT_HEADER}>
               Student
             </SortHeader>
             <SortHeader view={view} sort="section">
@@ -279,21 +287,21 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
   const { view } = data
   if (data.students.length === 0) return <EmptyRows studentCount={data.studentCount} />
   return (
-    <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
+    <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
       <table className="w-full text-left text-sm">
-        <caption className="px-3 py-2 text-left text-sm text-muted">
+        <caption className={PHONE_CAPTION}>
           {data.students.length} of {data.studentCount} students · scores out of each assignment’s points; “—” marks an assignment not counted yet
         </caption>
         <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
           <tr>
-            <SortHeader view={view} sort="name">
+            <SortHeader view={view} sort="name" className={STUDENT_HEADER}>
               Student
             </SortHeader>
             <SortHeader view={view} sort="section">
               Section
             </SortHeader>
             {data.assignments.map((a) => (
-              <th key={a.id} scope="col" className="px-3 py-2">
+              <th key={a.id} scope="col" className="min-w-32 px-3 py-2">
                 <Link to={`/courses/${data.course.id}/assignments/${a.id}/gradebook`} className="underline-offset-2 hover:underline">
                   {a.title}
                 </Link>

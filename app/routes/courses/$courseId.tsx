@@ -126,7 +126,7 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
             <tbody>
               {rows.map((a) => (
                 <tr key={a.id} className="border-t border-line align-top">
-                  <th scope="row" className="px-4 py-2 font-normal">
+                  <th scope="row" className="min-w-40 px-4 py-2 font-normal">
                     <Link to={`/courses/${courseId}/assignments/${a.id}`}>{a.title}</Link>
                   </th>
                   <td className="px-4 py-2">{fmt(a.opensAt)}</td>

@@ -78,9 +78,9 @@ export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
       ) : answers.answers.length === 0 ? (
         <p className="mt-6 text-muted">No answers yet.</p>
       ) : (
-        <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
+        <div className="relative mt-6 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">
-            <caption className="px-3 py-2 text-left text-sm text-muted">
+            <caption className="px-3 py-2 text-left text-sm text-muted max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-2rem-2px)]">
               {answers.answers.length} answer{answers.answers.length === 1 ? '' : 's'} to “{find.label}”, worth {formatPoints(find.share)} points · times in{' '}
               {assignment.timeZone}
             </caption>
@@ -112,9 +112,9 @@ export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
             <tbody>
               {answers.answers.map((a) => (
                 <tr key={a.partResultId} className="border-t border-line align-top">
-                  <th scope="row" className="px-3 py-2 text-left font-normal">
+                  <th scope="row" className="min-w-40 px-3 py-2 text-left font-normal">
                     <span className="font-medium">{a.name}</span>
-                    <span className="block text-xs text-muted">
+                    <span className="block text-xs text-muted [overflow-wrap:anywhere]">
                       {a.email}
                       {a.section ? ` · section ${a.section}` : ''}
                     </span>

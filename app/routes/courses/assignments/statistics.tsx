@@ -88,7 +88,7 @@ function GroupTable({ groups, caption, first, show }: { groups: readonly Group[]
           <tr key={g.value} className="border-t border-line align-top">
             <td className="py-1 pr-3 tabular-nums">{show(g)}</td>
             <td className="py-1 pr-3 tabular-nums">{g.count}</td>
-            <td className="py-1 pr-3 font-mono text-xs">{g.examples.join(' · ')}</td>
+            <td className="min-w-24 py-1 pr-3 font-mono text-xs [overflow-wrap:anywhere]">{g.examples.join(' · ')}</td>
             <td className="py-1">
               {g.pitfall ? (
                 <>
@@ -156,7 +156,7 @@ export default function AssignmentStatisticsRoute({ loaderData }: Route.Componen
         <p className="mt-6 text-muted">No answers yet.</p>
       ) : (
         statistics.items.map((item) => (
-          <section key={item.position} aria-labelledby={`problem-${item.position}`} className="mt-8 rounded-lg border border-line bg-white p-5 shadow-sm">
+          <section key={item.position} aria-labelledby={`problem-${item.position}`} className="mt-8 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5">
             <h2 id={`problem-${item.position}`} className="text-xl font-semibold">
               Problem {item.position}: {item.title} <span className="text-base font-normal text-muted">({formatPoints(item.points)} points)</span>
             </h2>
