@@ -230,7 +230,7 @@ function StaffView({
       <Section id="answer" title="The disputed answer">
         <dl className="grid gap-2 sm:grid-cols-[12rem_1fr]">
           <dt className="font-medium">Student</dt>
-          <dd>
+          <dd className="[overflow-wrap:anywhere]">
             {d.student.name} <span className="text-muted">({d.student.email})</span>
           </dd>
           <dt className="font-medium">Where</dt>
@@ -262,34 +262,36 @@ function StaffView({
           <dt className="font-medium">Find’s score now</dt>
           <dd>{pointsText(detail.findScore, find.share)} (the best of the graded answers)</dd>
         </dl>
-        <table className="mt-4 w-full text-left text-sm">
-          <caption className="pb-1 text-left font-semibold">Every answer of this student to {find.label}, oldest first</caption>
-          <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
-            <tr>
-              <th scope="col" className="px-3 py-2">Attempt</th>
-              <th scope="col" className="px-3 py-2">Answer</th>
-              <th scope="col" className="px-3 py-2">Verdict</th>
-              <th scope="col" className="px-3 py-2">Score</th>
-              <th scope="col" className="px-3 py-2">Submitted</th>
-            </tr>
-          </thead>
-          <tbody>
-            {detail.attempts.map((t) => (
-              <tr key={`${t.attempt}-${t.submittedAt}`} className={`border-t border-line ${t.attempt === a.attempt ? 'bg-warn-soft' : ''}`}>
-                <th scope="row" className="px-3 py-2 font-normal">
-                  {t.attempt}
-                  {t.attempt === a.attempt ? <span className="block text-xs text-muted">disputed</span> : null}
-                </th>
-                <td className="px-3 py-2">
-                  <code>{t.text}</code>
-                </td>
-                <td className="px-3 py-2">{verdictText(t.verdict)}</td>
-                <td className="px-3 py-2 tabular-nums">{pointsText(t.score)}</td>
-                <td className="px-3 py-2">{fmt(t.submittedAt)}</td>
+        <div className="relative mt-4 overflow-x-auto">
+          <table className="w-full text-left text-sm">
+            <caption className="pb-1 text-left font-semibold max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-4rem-2px)]">Every answer of this student to {find.label}, oldest first</caption>
+            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+              <tr>
+                <th scope="col" className="px-3 py-2">Attempt</th>
+                <th scope="col" className="px-3 py-2">Answer</th>
+                <th scope="col" className="px-3 py-2">Verdict</th>
+                <th scope="col" className="px-3 py-2">Score</th>
+                <th scope="col" className="px-3 py-2">Submitted</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {detail.attempts.map((t) => (
+                <tr key={`${t.attempt}-${t.submittedAt}`} className={`border-t border-line ${t.attempt === a.attempt ? 'bg-warn-soft' : ''}`}>
+                  <th scope="row" className="px-3 py-2 font-normal">
+                    {t.attempt}
+                    {t.attempt === a.attempt ? <span className="block text-xs text-muted">disputed</span> : null}
+                  </th>
+                  <td className="px-3 py-2">
+                    <code>{t.text}</code>
+                  </td>
+                  <td className="px-3 py-2">{verdictText(t.verdict)}</td>
+                  <td className="px-3 py-2 tabular-nums">{pointsText(t.score)}</td>
+                  <td className="px-3 py-2">{fmt(t.submittedAt)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
       </Section>
 
       <Section id="file" title="The student’s file">
@@ -313,49 +315,51 @@ function StaffView({
                     <dt>
                       <code>{g.name}</code> <span className="text-muted">{g.label}</span>
                     </dt>
-                    <dd>{g.text}</dd>
+                    <dd className="whitespace-nowrap">{g.text}</dd>
                   </div>
                 ))}
               </dl>
             )}
           </div>
-          <table className="w-full self-start text-left text-sm">
-            <caption className="text-left font-semibold">Key</caption>
-            <thead className="text-xs text-muted">
-              <tr>
-                <th scope="col" className="py-1 pr-2">Find</th>
-                <th scope="col" className="py-1 pr-2 text-right">Value</th>
-                <th scope="col" className="py-1 pr-2">Unit</th>
-                <th scope="col" className="py-1 text-right">Points</th>
-              </tr>
-            </thead>
-            <tbody>
-              {detail.key.map((k) => (
-                <tr key={k.name} className={`border-t border-line ${k.name === find.name ? 'bg-warn-soft font-semibold' : ''}`}>
-                  <th scope="row" className="py-1 pr-2 font-normal">
-                    {k.label} <code className="text-xs text-muted">{k.name}</code>
-                  </th>
-                  <td className="py-1 pr-2 text-right tabular-nums">
-                    <KeyValue value={k.value} />
-                  </td>
-                  <td className="py-1 pr-2">{k.unit || '—'}</td>
-                  <td className="py-1 text-right tabular-nums">{formatPoints(k.points)}</td>
+          <div className="relative self-start overflow-x-auto">
+            <table className="w-full text-left text-sm">
+              <caption className="text-left font-semibold">Key</caption>
+              <thead className="text-xs text-muted">
+                <tr>
+                  <th scope="col" className="py-1 pr-2">Find</th>
+                  <th scope="col" className="py-1 pr-2 text-right">Value</th>
+                  <th scope="col" className="py-1 pr-2">Unit</th>
+                  <th scope="col" className="py-1 text-right">Points</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {detail.key.map((k) => (
+                  <tr key={k.name} className={`border-t border-line ${k.name === find.name ? 'bg-warn-soft font-semibold' : ''}`}>
+                    <th scope="row" className="py-1 pr-2 font-normal">
+                      {k.label} <code className="text-xs text-muted">{k.name}</code>
+                    </th>
+                    <td className="py-1 pr-2 text-right tabular-nums">
+                      <KeyValue value={k.value} />
+                    </td>
+                    <td className="py-1 pr-2">{k.unit || '—'}</td>
+                    <td className="py-1 text-right tabular-nums">{formatPoints(k.points)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
         </div>
         <h3 className="mt-6 font-semibold">The prompt as the student saw it</h3>
         {detail.promptHtml ? (
           // Rendered and sanitised on the server (Markdown + KaTeX, tags allowed by a list).
-          <div className="prompt-html mt-1 leading-relaxed [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: detail.promptHtml }} />
+          <div className="prompt-html relative mt-1 overflow-x-auto leading-relaxed [overflow-wrap:anywhere] [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: detail.promptHtml }} />
         ) : (
           <p className="text-sm text-muted">The prompt could not be drawn for this student.</p>
         )}
         <details className="mt-6">
           <summary className="cursor-pointer font-semibold">Worked solution</summary>
           {detail.workedHtml ? (
-            <div className="mt-2 overflow-x-auto leading-relaxed" dangerouslySetInnerHTML={{ __html: detail.workedHtml }} />
+            <div className="relative mt-2 overflow-x-auto leading-relaxed" dangerouslySetInnerHTML={{ __html: detail.workedHtml }} />
           ) : (
             <p className="mt-2 text-sm text-muted">No worked solution is available for this variant.</p>
           )}
@@ -447,7 +451,7 @@ function ResolveForm({ detail, find }: { detail: StaffDetail; find: DisputeDetai
     ) : null
   const others = detail.sameAnswerOnVariant
   return (
-    <section aria-labelledby="resolve-title" className="rounded-lg border-2 border-accent/40 bg-white p-6 shadow-sm">
+    <section aria-labelledby="resolve-title" className="rounded-lg border-2 border-accent/40 bg-white p-4 shadow-sm sm:p-6">
       <h2 id="resolve-title" className="text-xl font-semibold">
         Resolve this dispute
       </h2>
@@ -463,9 +467,9 @@ function ResolveForm({ detail, find }: { detail: StaffDetail; find: DisputeDetai
             <input type="radio" name="decision" value="reject" defaultChecked={values.decision === 'reject'} className="mt-1" />
             <span>Keep the score — reject the dispute.</span>
           </label>
-          <div className="flex flex-wrap items-start gap-2">
+          <div className="flex items-start gap-2">
             <input id="resolve-adjust" type="radio" name="decision" value="adjust" defaultChecked={values.decision === 'adjust'} className="mt-1" />
-            <span className="grid gap-1">
+            <span className="grid min-w-0 gap-1">
               <label htmlFor="resolve-adjust">Adjust this find’s score</label>
               <span className="flex flex-wrap items-center gap-2">
                 <label htmlFor="resolve-newScore" className="text-sm">
@@ -533,7 +537,7 @@ function ResolveForm({ detail, find }: { detail: StaffDetail; find: DisputeDetai
 
 function Section({ id, title, children }: { id: string; title: string; children: ReactNode }) {
   return (
-    <section aria-labelledby={`${id}-title`} className="rounded-lg border border-line bg-white p-6 shadow-sm">
+    <section aria-labelledby={`${id}-title`} className="rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
       <h2 id={`${id}-title`} className="mb-3 text-xl font-semibold">
         {title}
       </h2>

@@ -126,9 +126,10 @@ function StaffQueue({ data }: { data: Data }) {
             : `No disputes match these filters${assignmentTitle ? ` in ${assignmentTitle}` : ''}.`}
         </p>
       ) : (
-        <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
+        <div className="relative mt-6 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">
-            <caption className="px-4 py-2 text-left text-sm text-muted">
+            {/* On a phone the caption stays in view while the table scrolls, and so does the Review link. */}
+            <caption className="px-4 py-2 text-left text-sm text-muted max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-2rem-2px)]">
               {rows.length} {rows.length === 1 ? 'dispute' : 'disputes'}
               {query.status === 'all' ? '' : `, ${DISPUTE_STATUS_WORDS[query.status].toLowerCase()}`}
               {assignmentTitle ? `, in ${assignmentTitle}` : ''}
@@ -142,7 +143,7 @@ function StaffQueue({ data }: { data: Data }) {
                 <th scope="col" className="px-4 py-2">Reason</th>
                 <th scope="col" className="px-4 py-2">File</th>
                 <th scope="col" className="px-4 py-2">Status</th>
-                <th scope="col" className="px-4 py-2">
+                <th scope="col" className="sticky right-0 bg-paper px-4 py-2 shadow-[-1px_0_0_var(--color-line)]">
                   <span className="sr-only">Open</span>
                 </th>
               </tr>
@@ -154,23 +155,23 @@ function StaffQueue({ data }: { data: Data }) {
                     <span className="whitespace-nowrap">{r.age} ago</span>
                     <span className="block text-xs text-muted">{formatInZone(r.createdAt, course.timeZone)}</span>
                   </td>
-                  <th scope="row" className="px-4 py-2 font-normal">
+                  <th scope="row" className="min-w-40 px-4 py-2 font-normal">
                     {r.student.name}
-                    <span className="block text-xs text-muted">{r.student.email}</span>
+                    <span className="block text-xs text-muted [overflow-wrap:anywhere]">{r.student.email}</span>
                   </th>
-                  <td className="px-4 py-2">
+                  <td className="min-w-48 px-4 py-2">
                     {r.assignmentTitle}
                     <span className="block text-xs text-muted">
                       Problem {r.position}: {r.problemTitle} · {r.findLabel} (<code>{r.findName}</code>)
                     </span>
                   </td>
-                  <td className="max-w-xs px-4 py-2">{excerpt(r.reason)}</td>
+                  <td className="max-w-xs min-w-56 px-4 py-2">{excerpt(r.reason)}</td>
                   <td className="px-4 py-2">{r.hasAttachment ? 'Yes' : 'No'}</td>
                   <td className="px-4 py-2">
                     <DisputeStatusBadge status={r.status} />
                     {disputeOutcomeText(r) ? <span className="block text-xs text-muted">{disputeOutcomeText(r)}</span> : null}
                   </td>
-                  <td className="px-4 py-2">
+                  <td className="sticky right-0 bg-white px-4 py-2 shadow-[-1px_0_0_var(--color-line)]">
                     <Link to={`/courses/${course.id}/disputes/${r.id}`} className="whitespace-nowrap">
                       {r.status === 'open' ? 'Review' : 'View'}
                       <span className="sr-only">
@@ -200,7 +201,7 @@ function StudentList({ data }: { data: Data }) {
       {rows.length === 0 ? (
         <p className="mt-6 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">You have not disputed any verdict in this course.</p>
       ) : (
-        <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
+        <div className="relative mt-6 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">
             <caption className="sr-only">Your disputes, oldest first; times in {course.timeZone}</caption>
             <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
