@@ -97,7 +97,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
         </p>
       ) : (
         <Form method="post" className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4">
-          <div className="flex flex-col gap-1">
+          <div className="flex min-w-0 max-w-full flex-col gap-1">
             <label htmlFor="termId" className="text-sm font-medium text-ink">
               Term
             </label>
@@ -108,7 +108,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
               required
               aria-invalid={error ? true : undefined}
               aria-describedby={error ? 'termId-error' : undefined}
-              className={`rounded-md border bg-white px-3 py-2 text-base shadow-sm ${error ? 'border-danger' : 'border-line'}`}
+              className={`min-w-0 max-w-full rounded-md border bg-white px-3 py-2 text-base shadow-sm ${error ? 'border-danger' : 'border-line'}`}
             >
               <option value="" disabled>
                 Choose a term…
@@ -147,7 +147,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
           You have not exported any grades yet. Choose a term above.
         </p>
       ) : (
-        <div className="mt-4 overflow-x-auto rounded-lg border border-line bg-white">
+        <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">
             <caption className="sr-only">Your grade exports, newest first</caption>
             <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
@@ -171,18 +171,18 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
             </thead>
             <tbody>
               {exports.map((e) => (
-                <tr key={e.id} className="border-t border-line">
-                  <th scope="row" className="px-4 py-2 font-normal">
+                <tr key={e.id} className="border-t border-line align-top">
+                  <th scope="row" className="min-w-44 px-4 py-2 font-normal">
                     {e.termName} · {e.departmentName}
                   </th>
                   <td className="px-4 py-2">
                     <time dateTime={new Date(e.createdAt).toISOString()}>{when.format(new Date(e.createdAt))} UTC</time>
                   </td>
-                  <td className="px-4 py-2">
+                  <td className="min-w-36 px-4 py-2">
                     <Progress row={e} />
                   </td>
                   <td className="px-4 py-2 text-right tabular-nums">{e.status === 'done' || e.status === 'running' ? e.rows.toLocaleString('en-GB') : '—'}</td>
-                  <td className="px-4 py-2">
+                  <td className="min-w-56 px-4 py-2">
                     {e.status === 'done' ? (
                       <ul>
                         {e.files.map((f) => (
@@ -190,7 +190,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
                             <a href={f.href} download={f.name}>
                               {f.label}
                             </a>{' '}
-                            <span className="text-muted">({f.name})</span>
+                            <span className="text-muted [overflow-wrap:anywhere]">({f.name})</span>
                           </li>
                         ))}
                       </ul>

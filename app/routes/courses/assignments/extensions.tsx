@@ -76,7 +76,7 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
     'aria-invalid': errors[key] ? true : undefined,
     'aria-describedby': [hint, errors[key] ? `ext-${key}-error` : null].filter(Boolean).join(' ') || undefined,
   })
-  const input = (key: string) => `rounded-md border bg-white px-3 py-2 shadow-sm ${errors[key] ? 'border-danger' : 'border-line'}`
+  const input = (key: string) => `min-w-0 rounded-md border bg-white px-3 py-2 shadow-sm ${errors[key] ? 'border-danger' : 'border-line'}`
   return (
     <div>
       <p className="text-sm text-muted">
@@ -101,14 +101,14 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
         </Notice>
       ) : null}
       {mayChange ? (
-        <section aria-labelledby="ext-form-title" className="mt-6 max-w-3xl rounded-lg border border-line bg-white p-6 shadow-sm">
+        <section aria-labelledby="ext-form-title" className="mt-6 max-w-3xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
           <h2 id="ext-form-title" className="text-xl font-semibold">
             Give or change an extension
           </h2>
           {students.length === 0 ? (
             <p className="mt-3 text-muted">This course has no students yet.</p>
           ) : (
-            <Form method="post" className="mt-4 grid gap-4 sm:grid-cols-2" key={chosen}>
+            <Form method="post" className="mt-4 grid grid-cols-1 gap-4 sm:grid-cols-2" key={chosen}>
               {Object.keys(errors).length ? (
                 <Notice tone="error" className="sm:col-span-2">
                   The extension was not saved: {Object.values(errors).filter(Boolean).join(' ')}
@@ -168,7 +168,7 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
         {extensions.length === 0 ? (
           <p className="mt-3 text-muted">No student has an extension on this assignment.</p>
         ) : (
-          <div className="mt-3 overflow-x-auto rounded-lg border border-line bg-white">
+          <div className="relative mt-3 overflow-x-auto rounded-lg border border-line bg-white">
             <table className="w-full text-left text-sm">
               <caption className="sr-only">Extensions on {assignment.title}</caption>
               <thead className="bg-paper text-xs tracking-wide text-muted uppercase">

@@ -129,7 +129,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
         {fieldErrors[field]}
       </p>
     ) : null
-  const inputClass = (field: string) => `w-full rounded-md border bg-white px-2 py-1.5 ${fieldErrors[field] ? 'border-danger' : 'border-line'}`
+  const inputClass = (field: string, minWidth = 'min-w-24') => `w-full ${minWidth} rounded-md border bg-white px-2 py-1.5 ${fieldErrors[field] ? 'border-danger' : 'border-line'}`
 
   return (
     <div className="space-y-8">
@@ -150,7 +150,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
 
       {progress ? <RegradeProgress key={progress.id} initial={progress} refreshHref={`${path}?regrade=${progress.id}`} /> : null}
 
-      <Form method="get" className="space-y-6 rounded-lg border border-line bg-white p-5 shadow-sm" aria-labelledby="regrade-form-title">
+      <Form method="get" className="space-y-6 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5" aria-labelledby="regrade-form-title">
         <h2 id="regrade-form-title" className="text-xl font-semibold">
           What to regrade with
         </h2>
@@ -177,76 +177,80 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
         </fieldset>
 
         <div>
-          <table className="w-full text-left text-sm">
-            <caption className="pb-2 text-left">
-              <span className="font-semibold">Tolerances for this assignment</span>{' '}
-              <span className="text-muted">
-                (the finds of version {targetVersion.number}; after choosing another version, press Preview to see its finds). Relative: a fraction
-                (0.05) or a percentage (5 %). Absolute: a value in the unit given, or in the find’s unit when the unit is empty.
-              </span>
-            </caption>
-            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
-              <tr>
-                <th scope="col" className="px-2 py-2">
-                  Find
-                </th>
-                <th scope="col" className="px-2 py-2">
-                  Version’s tolerance
-                </th>
-                <th scope="col" className="px-2 py-2">
-                  Use
-                </th>
-                <th scope="col" className="px-2 py-2">
-                  Value
-                </th>
-                <th scope="col" className="px-2 py-2">
-                  Unit (absolute)
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {finds.map((f) => (
-                <tr key={f.name} className="border-t border-line align-top">
-                  <th scope="row" className="px-2 py-2 font-normal">
-                    {f.label} <span className="text-muted">({f.unit || 'pure number'}, {points(f.points)} pt)</span>
+          {/* Said above the table rather than in its caption, which is as wide as the table and would scroll with it on a phone. */}
+          <p id="tolerances-note" className="pb-2 text-sm">
+            <span className="font-semibold">Tolerances for this assignment</span>{' '}
+            <span className="text-muted">
+              (the finds of version {targetVersion.number}; after choosing another version, press Preview to see its finds). Relative: a fraction
+              (0.05) or a percentage (5 %). Absolute: a value in the unit given, or in the find’s unit when the unit is empty.
+            </span>
+          </p>
+          <div className="relative overflow-x-auto">
+            <table className="w-full text-left text-sm" aria-describedby="tolerances-note">
+              <caption className="sr-only">Tolerances for this assignment</caption>
+              <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+                <tr>
+                  <th scope="col" className="px-2 py-2">
+                    Find
                   </th>
-                  <td className="px-2 py-2">{toleranceText(f.tolerance)}</td>
-                  <td className="px-2 py-2">
-                    <label htmlFor={`kind-${f.name}`} className="sr-only">
-                      Tolerance for {f.label}
-                    </label>
-                    <select id={`kind-${f.name}`} name={`kind.${f.name}`} defaultValue={values[`kind.${f.name}`] ?? 'default'} className={inputClass(`kind.${f.name}`)} {...fieldProps(`kind.${f.name}`)}>
-                      <option value="default">The version’s</option>
-                      <option value="relative">Relative</option>
-                      <option value="absolute">Absolute</option>
-                    </select>
-                    {errorText(`kind.${f.name}`)}
-                  </td>
-                  <td className="px-2 py-2">
-                    <label htmlFor={`value-${f.name}`} className="sr-only">
-                      Tolerance value for {f.label}
-                    </label>
-                    <input id={`value-${f.name}`} name={`value.${f.name}`} defaultValue={values[`value.${f.name}`] ?? ''} className={inputClass(`value.${f.name}`)} {...fieldProps(`value.${f.name}`)} />
-                    {errorText(`value.${f.name}`)}
-                  </td>
-                  <td className="px-2 py-2">
-                    <label htmlFor={`unit-${f.name}`} className="sr-only">
-                      Tolerance unit for {f.label}
-                    </label>
-                    <input
-                      id={`unit-${f.name}`}
-                      name={`unit.${f.name}`}
-                      defaultValue={values[`unit.${f.name}`] ?? ''}
-                      placeholder={f.unit}
-                      className={inputClass(`unit.${f.name}`)}
-                      {...fieldProps(`unit.${f.name}`)}
-                    />
-                    {errorText(`unit.${f.name}`)}
-                  </td>
+                  <th scope="col" className="px-2 py-2">
+                    Version’s tolerance
+                  </th>
+                  <th scope="col" className="px-2 py-2">
+                    Use
+                  </th>
+                  <th scope="col" className="px-2 py-2">
+                    Value
+                  </th>
+                  <th scope="col" className="px-2 py-2">
+                    Unit (absolute)
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {finds.map((f) => (
+                  <tr key={f.name} className="border-t border-line align-top">
+                    <th scope="row" className="min-w-36 px-2 py-2 font-normal">
+                      {f.label} <span className="text-muted">({f.unit || 'pure number'}, {points(f.points)} pt)</span>
+                    </th>
+                    <td className="px-2 py-2">{toleranceText(f.tolerance)}</td>
+                    <td className="px-2 py-2">
+                      <label htmlFor={`kind-${f.name}`} className="sr-only">
+                        Tolerance for {f.label}
+                      </label>
+                      <select id={`kind-${f.name}`} name={`kind.${f.name}`} defaultValue={values[`kind.${f.name}`] ?? 'default'} className={inputClass(`kind.${f.name}`, 'min-w-36')} {...fieldProps(`kind.${f.name}`)}>
+                        <option value="default">The version’s</option>
+                        <option value="relative">Relative</option>
+                        <option value="absolute">Absolute</option>
+                      </select>
+                      {errorText(`kind.${f.name}`)}
+                    </td>
+                    <td className="px-2 py-2">
+                      <label htmlFor={`value-${f.name}`} className="sr-only">
+                        Tolerance value for {f.label}
+                      </label>
+                      <input id={`value-${f.name}`} name={`value.${f.name}`} defaultValue={values[`value.${f.name}`] ?? ''} className={inputClass(`value.${f.name}`)} {...fieldProps(`value.${f.name}`)} />
+                      {errorText(`value.${f.name}`)}
+                    </td>
+                    <td className="px-2 py-2">
+                      <label htmlFor={`unit-${f.name}`} className="sr-only">
+                        Tolerance unit for {f.label}
+                      </label>
+                      <input
+                        id={`unit-${f.name}`}
+                        name={`unit.${f.name}`}
+                        defaultValue={values[`unit.${f.name}`] ?? ''}
+                        placeholder={f.unit}
+                        className={inputClass(`unit.${f.name}`)}
+                        {...fieldProps(`unit.${f.name}`)}
+                      />
+                      {errorText(`unit.${f.name}`)}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
         </div>
         <Button type="submit" name="preview" value="1" disabled={previewing}>
           {previewing ? 'Computing…' : 'Preview'}
@@ -255,7 +259,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
 
       {previewError ? <Notice tone="error">{previewError.message}</Notice> : null}
       {preview ? (
-        <section aria-labelledby="preview-title" className="space-y-4 rounded-lg border border-line bg-white p-5 shadow-sm">
+        <section aria-labelledby="preview-title" className="space-y-4 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5">
           <h2 id="preview-title" className="text-xl font-semibold">
             Preview: version {item.versions.find((v) => v.current)?.number} → {preview.toVersion.number}
           </h2>
@@ -288,7 +292,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
             </p>
           ) : null}
           {preview.changed.length > 0 ? (
-            <div className="max-h-[32rem] overflow-auto rounded border border-line">
+            <div className="relative max-h-[32rem] overflow-auto rounded border border-line">
               <table className="w-full text-left text-sm">
                 <caption className="sr-only">Students whose score would change, largest change first</caption>
                 <thead className="sticky top-0 bg-paper text-xs tracking-wide text-muted uppercase">
@@ -313,9 +317,9 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                 <tbody>
                   {preview.changed.map((s) => (
                     <tr key={s.userId} className="border-t border-line align-top">
-                      <th scope="row" className="px-3 py-2 font-normal">
+                      <th scope="row" className="min-w-40 px-3 py-2 font-normal">
                         {s.name}
-                        <span className="block text-xs text-muted">
+                        <span className="block text-xs text-muted [overflow-wrap:anywhere]">
                           {s.email}
                           {s.section ? ` · section ${s.section}` : ''}
                         </span>
@@ -323,7 +327,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                       <td className="px-3 py-2 text-right tabular-nums">{points(s.oldScore)}</td>
                       <td className="px-3 py-2 text-right tabular-nums">{points(s.newScore)}</td>
                       <td className={`px-3 py-2 text-right font-semibold tabular-nums ${s.change < 0 ? 'text-danger' : s.change > 0 ? 'text-ok' : ''}`}>{signed(s.change)}</td>
-                      <td className="px-3 py-2">
+                      <td className="min-w-56 px-3 py-2">
                         {s.finds.length === 0
                           ? '—'
                           : s.finds.map((f) => (
@@ -370,52 +374,54 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
         {regrades.length === 0 ? (
           <p className="mt-2 text-sm text-muted">This problem has not been regraded.</p>
         ) : (
-          <table className="mt-2 w-full text-left text-sm">
-            <caption className="sr-only">The latest regrades of this problem, newest first</caption>
-            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
-              <tr>
-                <th scope="col" className="px-3 py-2">
-                  Requested
-                </th>
-                <th scope="col" className="px-3 py-2">
-                  By
-                </th>
-                <th scope="col" className="px-3 py-2">
-                  Versions
-                </th>
-                <th scope="col" className="px-3 py-2">
-                  Status
-                </th>
-                <th scope="col" className="px-3 py-2">
-                  Answers
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {regrades.map((r) => (
-                <tr key={r.id} className="border-t border-line">
-                  <td className="px-3 py-2">
-                    <Link to={`${path}?regrade=${r.id}`}>{formatInZone(r.createdAt, timeZone)}</Link>
-                  </td>
-                  <td className="px-3 py-2">{r.requestedByName}</td>
-                  <td className="px-3 py-2">
-                    {r.fromVersionNumber ?? '?'} → {r.toVersionNumber ?? '?'}
-                    {Object.keys(r.toleranceOverrides).length > 0 ? (
-                      <span className="block text-xs text-muted">
-                        {Object.entries(r.toleranceOverrides)
-                          .map(([name, t]) => `${name} ${toleranceText(t)}`)
-                          .join('; ')}
-                      </span>
-                    ) : null}
-                  </td>
-                  <td className="px-3 py-2">{REGRADE_STATUS_WORDS[r.status]}</td>
-                  <td className="px-3 py-2 tabular-nums">
-                    {r.done} of {r.total}, {r.changed} changed
-                  </td>
+          <div className="relative mt-2 overflow-x-auto">
+            <table className="w-full text-left text-sm">
+              <caption className="sr-only">The latest regrades of this problem, newest first</caption>
+              <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+                <tr>
+                  <th scope="col" className="px-3 py-2">
+                    Requested
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    By
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Versions
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Status
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Answers
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {regrades.map((r) => (
+                  <tr key={r.id} className="border-t border-line">
+                    <td className="px-3 py-2">
+                      <Link to={`${path}?regrade=${r.id}`}>{formatInZone(r.createdAt, timeZone)}</Link>
+                    </td>
+                    <td className="px-3 py-2">{r.requestedByName}</td>
+                    <td className="px-3 py-2">
+                      {r.fromVersionNumber ?? '?'} → {r.toVersionNumber ?? '?'}
+                      {Object.keys(r.toleranceOverrides).length > 0 ? (
+                        <span className="block text-xs text-muted">
+                          {Object.entries(r.toleranceOverrides)
+                            .map(([name, t]) => `${name} ${toleranceText(t)}`)
+                            .join('; ')}
+                        </span>
+                      ) : null}
+                    </td>
+                    <td className="px-3 py-2">{REGRADE_STATUS_WORDS[r.status]}</td>
+                    <td className="px-3 py-2 tabular-nums">
+                      {r.done} of {r.total}, {r.changed} changed
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
         )}
       </section>
     </div>
