@@ -211,10 +211,11 @@ describe('submitting from the problem page', () => {
     expect(page.problem.key?.entries.map((k) => k.name)).toEqual(['T2', 'wNet', 'eta'])
   })
 
-  test('a problem that is not open yet is 404 to a student and a preview to staff', async () => {
+  test('a problem that is not open yet tells a student when it opens (nothing of the problem) and is a preview to staff', async () => {
     const s = await setUp({ assignment: { opensAt: new Date(Date.now() + day), dueAt: new Date(Date.now() + 7 * day) } })
     const student = await settle(loader(args(getRequest(s.path, { Cookie: s.cookie }), s.params)))
-    expect('thrown' in student && (student.thrown as { init: { status: number } }).init.status).toBe(404)
+    expect('value' in student && Object.keys(student.value as object)).toEqual(['notOpen'])
+    expect('value' in student && (student.value as { notOpen: { message: string } }).notOpen.message).toMatch(/ opens .+ Its problems appear here then\.$/)
     const staff = (await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))) as ProblemPageData
     expect(staff.problem.window.state).toBe('not-open')
   })

@@ -83,7 +83,7 @@ describe('what can be disputed (the answer itself)', () => {
   test.each([
     ['correct with full points', { latest: { verdict: 'correct', score: 2, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: true }, 'full-points'],
     ['correct with full points, no attempts left', { latest: { verdict: 'correct', score: 2, maxScore: 2, disputeResolved: false }, attemptsLeft: 0, canStillAnswer: false }, 'full-points'],
-    ['incorrect while attempts remain and the assignment is open', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: true }, 'answer-again'],
+    ['correct below full points while attempts remain and the assignment is open', { latest: { verdict: 'correct', score: 1.6, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: true }, 'answer-again'],
     ['the latest answer’s dispute was resolved', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: true }, attemptsLeft: 0, canStillAnswer: false }, 'already-disputed'],
     ['dropped from the course', { dropped: true, latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 0, canStillAnswer: false }, 'dropped'],
   ] as const)('refused: %s', (_name, facts, code) => {
@@ -91,7 +91,8 @@ describe('what can be disputed (the answer itself)', () => {
   })
 
   test.each([
-    ['correct below full points (a late penalty)', { latest: { verdict: 'correct', score: 1.6, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: true }],
+    ['correct below full points (a late penalty), the assignment closed', { latest: { verdict: 'correct', score: 1.6, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: false }],
+    ['incorrect while attempts remain', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: true }],
     ['incorrect with no attempts left', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 0, canStillAnswer: true }],
     ['incorrect, attempts left but the assignment closed', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: false }],
   ] as const)('offered: %s', (_name, facts) => {

@@ -9,8 +9,8 @@
  * - When the server knows about the latest graded answer (`latest`), also: a dropped student
  *   disputes nothing; an answer whose dispute was resolved is not disputed again (a new answer
  *   may be); a correct answer with full points has nothing to dispute (one below full points,
- *   e.g. after a late penalty, may be disputed); a wrong answer while the student can still
- *   answer again is not disputed: they should answer again.
+ *   e.g. after a late penalty, may be disputed, but not while the student still has attempts
+ *   and the assignment takes answers).
  *
  * The problem page's offer and the server's refusal both come from this function.
  */
@@ -71,9 +71,12 @@ export function disputeWindow(input: DisputeWindowInput): DisputeWindow {
   if (latest && latest.verdict === 'correct' && latest.score >= latest.maxScore - 1e-9) {
     return { allowed: false, code: 'full-points', reason: 'This answer is correct with full points, so there is nothing to dispute.' }
   }
-  if (latest && latest.verdict !== 'correct' && input.canStillAnswer && (input.attemptsLeft ?? 0) > 0) {
-    const n = input.attemptsLeft ?? 0
-    return { allowed: false, code: 'answer-again', reason: `You have ${n} attempt${n === 1 ? '' : 's'} left: answer again. A verdict can be disputed once you cannot answer it any more.` }
+  if (latest && latest.verdict === 'correct' && input.canStillAnswer && (input.attemptsLeft ?? 0) > 0) {
+    return {
+      allowed: false,
+      code: 'answer-again',
+      reason: 'This answer is correct, and the assignment is still open with attempts left; its score can be disputed once the assignment no longer takes your answers.',
+    }
   }
   const until = disputeDeadline(input.gradesReleasedAt, input.disputeDays)
   if (until !== null && input.now.getTime() >= until.getTime()) {
