@@ -471,3 +471,29 @@ describe('worked solutions of the demo problems, as students read them', () => {
     expect(line).toMatch(/\\eta\\cdot100/)
   })
 })
+
+// A find that states its sense: in a course whose convention signs the solver's quantity the
+// other way, the answer line names the solver's quantity negated, so the symbol never
+// contradicts the sign (for a cycle, work done by the gas = −work done on it: common practice).
+test.each(['engineering', 'chemistry'] as const)('Otto demo, %s course: net work stated "by the system" reads with the sign the symbol has', (convention) => {
+  const demo = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
+  const def: ProblemDefinition = { ...demo, finds: demo.finds.map((f) => (f.name === 'wNet' ? { ...f, sense: 'work-by-system' as const } : f)) }
+  const drawn = drawVariant(def, 7, { convention })
+  if (!drawn.ok) throw new Error(drawn.error.message)
+  const key = drawn.variant.key.find((k) => k.name === 'wNet')!
+  expect(key.value).toBeGreaterThan(0)
+  const answers = workedSolution(drawn.variant, def).sections.find((s) => s.title === 'Answers')!
+  const line = answers.lines.find((l) => l.note?.startsWith('Net work'))!
+  expect(line.note).toContain('work done by the system')
+  if (convention === 'chemistry') {
+    // w is work done on the gas here: the positive key is −w_net.
+    expect(key.flipped).toBe(true)
+    expect(line.tex).toMatch(/^-w_/)
+    expect(line.note).toContain('minus the')
+  } else {
+    // W is work done by the gas here: no negation.
+    expect(key.flipped).toBeUndefined()
+    expect(line.tex).toMatch(/^W_/)
+    expect(line.tex).not.toMatch(/^-/)
+  }
+})

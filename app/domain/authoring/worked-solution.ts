@@ -17,7 +17,7 @@ import type { Gas } from '#app/domain/thermo/substances/gas.ts'
 import { saturationAtP } from '#app/domain/thermo/steam/properties.ts'
 import { parseRankineInputs } from '#app/domain/thermo/steam/rankine-template.ts'
 import type { FormattedRankine, FormattedRankineState } from '#app/domain/thermo/steam/rankine-template.ts'
-import type { Find, ProblemDefinition, Variant } from './definition.ts'
+import { FIND_SENSE_WORDS, type Find, type ProblemDefinition, type Variant } from './definition.ts'
 import { formatGivenValue, formatNumber, texEscape, unitToTex, withUnit } from './placeholders.ts'
 import { escapeHtml, renderMath } from './prompt.ts'
 import { quantityAtPath, splitIdentifiers, symbolTex } from './quantities.ts'
@@ -661,8 +661,14 @@ function keySection(variant: Variant, def: ProblemDefinition): WorkedSection {
       const q = k.path ? quantityAtPath(k.path, ctx) : null
       // A find named wNet in an engineering course reads W_net: the convention's case wins.
       const sameName = q !== null && plain(q.tex).toLowerCase() === plain(symbol).toLowerCase()
-      const lead = q && sameName ? q.tex : symbol
-      lines.push({ tex: `${lead}${q && !sameName ? ` = ${q.tex}` : ''} = ${value}`, note: `${k.label} (${k.points} pt)${q && !sameName ? `: the ${q.name}` : ''}` })
+      // A find whose stated sense is the opposite of the solver's quantity in this course is
+      // that quantity negated (−w_net when the question asks for the work done by the gas in a
+      // course where w is work done on it).
+      const solverTex = q ? (k.flipped ? `-${q.tex}` : q.tex) : null
+      const lead = q && sameName ? solverTex : symbol
+      const senseNote = find?.sense ? `, ${FIND_SENSE_WORDS[find.sense]}` : ''
+      const quantityNote = q && (!sameName || k.flipped) ? `: ${k.flipped ? 'minus ' : ''}the ${q.name}` : ''
+      lines.push({ tex: `${lead}${q && !sameName ? ` = ${solverTex}` : ''} = ${value}`, note: `${k.label} (${k.points} pt)${senseNote}${quantityNote}` })
     }
     values.set(k.name, { value: k.value, unit: k.unit })
   }
