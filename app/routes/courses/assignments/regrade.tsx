@@ -327,7 +327,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                       <td className="px-3 py-2 text-right tabular-nums">{points(s.oldScore)}</td>
                       <td className="px-3 py-2 text-right tabular-nums">{points(s.newScore)}</td>
                       <td className={`px-3 py-2 text-right font-semibold tabular-nums ${s.change < 0 ? 'text-danger' : s.change > 0 ? 'text-ok' : ''}`}>{signed(s.change)}</td>
-                      <td className="min-w-56 px-3 py-2">
+                      <td className="min-w-72 px-3 py-2">
                         {s.finds.length === 0
                           ? '—'
                           : s.finds.map((f) => (
