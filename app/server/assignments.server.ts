@@ -952,12 +952,6 @@ export async function deletionSummary(database: Database, opts: { courseId: numb
   return { title: a.title, items: row?.items ?? 0, extensions: row?.extensions ?? 0, answered: (row?.submissions ?? 0) > 0 }
 }
 
-export function deletionSentence(s: { title: string; items: number; extensions: number }): string {
-  const parts = [`its ${s.items} problem${s.items === 1 ? '' : 's'} (the bank keeps them)`]
-  if (s.extensions > 0) parts.push(`${s.extensions} extension${s.extensions === 1 ? '' : 's'}`)
-  return `Deletes “${s.title}” with ${parts.join(' and ')}; this cannot be undone.`
-}
-
 /**
  * Deletes an assignment nobody has answered, with an 'assignment-deleted' audit row. The row is
  * locked first, so a submission being stored at that moment either lands before (and the

@@ -7,10 +7,7 @@ import { and, eq } from 'drizzle-orm'
 import type { Db, Tx } from './db/client.server.ts'
 import { memberships } from './db/schema.server.ts'
 
-export const DROPPED_SUBMIT_MESSAGE =
-  'You have been dropped from this course, so answers are no longer accepted. Your past work stays here for you to read; ask the course’s instructor if this is a mistake.'
-export const DROPPED_DISPUTE_MESSAGE =
-  'You have been dropped from this course, so you can no longer dispute a grade. Your past work stays here for you to read; ask the course’s instructor if this is a mistake.'
+export { DROPPED_DISPUTE_MESSAGE, DROPPED_SUBMIT_MESSAGE } from '#app/lib/dropped.ts'
 
 /** When the person was dropped from the course, or null (on the roster, or not a member). */
 export async function droppedFrom(database: Db | Tx, userId: number, courseId: number): Promise<Date | null> {

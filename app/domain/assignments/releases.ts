@@ -83,3 +83,10 @@ export function keyReleaseSentence(title: string, studentCount: number): string 
 export function earlyReleaseLabel(stillAnswering: number): string {
   return `Release before every student’s window closes — ${studentsWord(stillAnswering)} can still answer`
 }
+
+/** What deleting an assignment removes, for the confirmation. */
+export function deletionSentence(s: { title: string; items: number; extensions: number }): string {
+  const parts = [`its ${s.items} problem${s.items === 1 ? '' : 's'} (the bank keeps them)`]
+  if (s.extensions > 0) parts.push(`${s.extensions} extension${s.extensions === 1 ? '' : 's'}`)
+  return `Deletes “${s.title}” with ${parts.join(' and ')}; this cannot be undone.`
+}
