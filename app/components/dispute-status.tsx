@@ -3,35 +3,23 @@
  * word itself, so colour is never the only signal.
  */
 import { cn } from '#app/lib/cn.ts'
+import { DISPUTE_STATUS_LABELS, DISPUTE_STATUS_MEANINGS, DISPUTE_STATUS_TONES, TONE_CLASSES, type DisputeStatus } from '#app/lib/labels.ts'
 import { formatPoints } from '#app/lib/points.ts'
 
-export type DisputeStatusValue = 'open' | 'upheld' | 'adjusted' | 'rejected'
+export type DisputeStatusValue = DisputeStatus
 
-/** Short words for a badge or a select option. */
-export const DISPUTE_STATUS_WORDS: Record<DisputeStatusValue, string> = {
-  open: 'Open',
-  upheld: 'Upheld',
-  adjusted: 'Score adjusted',
-  rejected: 'Score kept',
-}
+/** Short words for a badge or a select option (app/lib/labels.ts). */
+export const DISPUTE_STATUS_WORDS: Readonly<Record<DisputeStatusValue, string>> = DISPUTE_STATUS_LABELS
 
 /** What the status means, in a sentence a student understands. */
-export const DISPUTE_STATUS_MEANING: Record<DisputeStatusValue, string> = {
-  open: 'Waiting for a teaching assistant or instructor to review it.',
-  upheld: 'Your answer was accepted as correct.',
-  adjusted: 'The score of this find was changed by hand.',
-  rejected: 'The verdict stands; the score was kept.',
-}
-
-const tones: Record<DisputeStatusValue, string> = {
-  open: 'border-warn/30 bg-warn-soft text-warn',
-  upheld: 'border-ok/30 bg-ok-soft text-ok',
-  adjusted: 'border-accent/30 bg-accent-soft text-accent-strong',
-  rejected: 'border-line bg-paper text-muted',
-}
+export const DISPUTE_STATUS_MEANING: Readonly<Record<DisputeStatusValue, string>> = DISPUTE_STATUS_MEANINGS
 
 export function DisputeStatusBadge({ status, className }: { status: DisputeStatusValue; className?: string }) {
-  return <span className={cn('inline-block rounded border px-1.5 py-0.5 text-xs font-semibold whitespace-nowrap', tones[status], className)}>{DISPUTE_STATUS_WORDS[status]}</span>
+  return (
+    <span className={cn('inline-block rounded border px-1.5 py-0.5 text-xs font-semibold whitespace-nowrap', TONE_CLASSES[DISPUTE_STATUS_TONES[status]], className)}>
+      {DISPUTE_STATUS_LABELS[status]}
+    </span>
+  )
 }
 
 
