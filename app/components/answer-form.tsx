@@ -13,6 +13,7 @@ import { Link, type FetcherWithComponents } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { cn } from '#app/lib/cn.ts'
 import { formatInZone } from '#app/lib/dates.ts'
+import { DISPUTE_STATUS_LABELS, SUBMISSION_STATUS_LABELS, TONE_TEXT, VERDICT_LABELS, VERDICT_TONES } from '#app/lib/labels.ts'
 import { formatPoints } from '#app/lib/points.ts'
 import type { MyDispute } from '#app/server/disputes.server.ts'
 import type { FindView } from '#app/server/submissions.server.ts'
@@ -26,14 +27,6 @@ function inputId(findName: string): string {
   return `answer-${findName}`
 }
 
-type Verdict = NonNullable<FindView['last']>['verdict']
-
-const VERDICT_WORDS: Record<NonNullable<Verdict>, string> = {
-  correct: 'Correct',
-  incorrect: 'Not correct',
-  unreadable: 'Could not be read',
-  'wrong-dimension': 'Wrong kind of unit',
-}
 
 export type AnswerFormMode =
   /** the student may submit */
@@ -237,12 +230,12 @@ function LastVerdict({ find: f }: { find: FindView }) {
   if (!last) return null
   if (last.verdict === null) {
     if (last.gradingFailed) return <p className="text-danger">Your answer “{last.answer}” could not be graded. It is stored, and your teacher sees it among the answers to this problem; please tell them.</p>
-    return <p className="font-medium text-accent-strong">Being graded…</p>
+    return <p className="font-medium text-accent-strong">{SUBMISSION_STATUS_LABELS.queued}…</p>
   }
   return (
     <>
       <p>
-        <span className={cn('font-semibold', last.verdict === 'correct' ? 'text-ok' : 'text-danger')}>{VERDICT_WORDS[last.verdict]}</span>
+        <span className={cn('font-semibold', TONE_TEXT[VERDICT_TONES[last.verdict]])}>{VERDICT_LABELS[last.verdict]}</span>
         {last.verdict === 'correct' ? null : <> — your answer “{last.answer}”</>}
         {last.message && last.verdict !== 'correct' ? <>: {last.message}</> : null}
       </p>
@@ -260,16 +253,16 @@ function withComment(text: string, comment: string | null) {
 export function disputeOutcome(d: MyDispute): string {
   switch (d.status) {
     case 'upheld':
-      return withComment('Upheld: your answer was accepted', d.comment)
+      return withComment(`${DISPUTE_STATUS_LABELS.upheld}: your answer counts as correct`, d.comment)
     case 'adjusted': {
       const from = d.scoreBefore === null ? '?' : formatPoints(d.scoreBefore)
       const to = d.scoreAfter === null ? '?' : formatPoints(d.scoreAfter)
-      return withComment(`Adjusted: score changed from ${from} to ${to}`, d.comment)
+      return withComment(`${DISPUTE_STATUS_LABELS.adjusted}: from ${from} to ${to}`, d.comment)
     }
     case 'rejected':
-      return withComment('Rejected: the score stays', d.comment)
+      return withComment(`${DISPUTE_STATUS_LABELS.rejected}${d.scoreAfter === null ? '' : ` at ${formatPoints(d.scoreAfter)}`}`, d.comment)
     case 'open':
-      return 'Open'
+      return DISPUTE_STATUS_LABELS.open
   }
 }
 

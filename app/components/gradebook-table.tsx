@@ -15,22 +15,15 @@ import type {
   GradebookView,
   StudentStatus,
 } from '#app/server/gradebook.server.ts'
+import { LATE_LABEL, STUDENT_STATUS_LABELS } from '#app/lib/labels.ts'
 
-export const statusLabels: Record<StudentStatus, string> = {
-  'not-started': 'Not started',
-  'in-progress': 'In progress',
-  finished: 'Finished',
-  'being-graded': 'Being graded',
-}
+export const statusLabels: Readonly<Record<StudentStatus, string>> = STUDENT_STATUS_LABELS
 
-const filterLabels: Record<GradebookStatusFilter, string> = {
+const filterLabels = {
   all: 'All',
-  'not-started': 'Not started',
-  'in-progress': 'In progress',
-  finished: 'Finished',
-  'being-graded': 'Being graded',
-  late: 'Late',
-}
+  ...STUDENT_STATUS_LABELS,
+  late: LATE_LABEL,
+} as const satisfies Record<GradebookStatusFilter, string>
 
 /** The view as search params, leaving out defaults so links stay short. */
 export function viewParams(view: GradebookView, change: Partial<GradebookView> = {}): URLSearchParams {
@@ -125,7 +118,7 @@ function StatusCell({ status, late, pending }: { status: StudentStatus; late: bo
     <td className="px-3 py-2 whitespace-nowrap">
       {statusLabels[status]}
       {pending > 0 ? <span className="ml-1 text-muted">({pending} waiting)</span> : null}
-      {late ? <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">Late</span> : null}
+      {late ? <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">{LATE_LABEL}</span> : null}
     </td>
   )
 }

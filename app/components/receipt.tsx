@@ -4,6 +4,7 @@
  * app/server/submissions.server.ts (Receipt).
  */
 import { formatInZone } from '#app/lib/dates.ts'
+import { SUBMISSION_STATUS_LABELS } from '#app/lib/labels.ts'
 import type { Receipt } from '#app/server/submissions.server.ts'
 
 function lateText(r: Pick<Receipt, 'daysLate' | 'latePenalty'>): string | null {
@@ -12,11 +13,6 @@ function lateText(r: Pick<Receipt, 'daysLate' | 'latePenalty'>): string | null {
   return `${r.daysLate} day${r.daysLate === 1 ? '' : 's'} late, ${pct} % off`
 }
 
-const STATUS_WORDS: Record<Receipt['status'], string> = {
-  queued: 'Being graded…',
-  graded: 'Graded',
-  failed: 'Grading failed',
-}
 
 /**
  * The receipt box shown after a submission. `live` says the page polls for results (JavaScript
@@ -53,7 +49,7 @@ export function ReceiptBox({ receipt, timeZone, live }: { receipt: Receipt; time
         ) : receipt.status === 'graded' ? (
           <p>Graded: the result is shown beside each answer.</p>
         ) : (
-          <p>Grading failed. Your answers are stored; your teacher has been told.</p>
+          <p>{SUBMISSION_STATUS_LABELS.failed}. Your answers are stored; your teacher has been told.</p>
         )}
       </div>
     </section>
@@ -89,7 +85,7 @@ export function ReceiptList({ receipts, timeZone }: { receipts: readonly Receipt
               <time dateTime={r.submittedAt}>{formatInZone(r.submittedAt, timeZone)}</time>
             </td>
             <td className="py-1 pr-3">{r.parts.length === 0 ? '—' : r.parts.map((p) => `${p.label} (attempt ${p.attempt} of ${p.of})`).join('; ')}</td>
-            <td className="py-1 pr-3">{STATUS_WORDS[r.status]}</td>
+            <td className="py-1 pr-3">{SUBMISSION_STATUS_LABELS[r.status]}</td>
             <td className="py-1">{lateText(r) ?? 'On time'}</td>
           </tr>
         ))}

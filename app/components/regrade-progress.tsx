@@ -1,9 +1,10 @@
 import { useQuery } from '@tanstack/react-query'
+import { REGRADE_STATUS_LABELS, type RegradeStatus } from '#app/lib/labels.ts'
 
 /** A regrade as the page and GET /api/regrades/:id show it (app/server/regrades.server.ts RegradeProgress). */
 export interface RegradeSnapshot {
   readonly id: number
-  readonly status: 'queued' | 'running' | 'done' | 'failed'
+  readonly status: RegradeStatus
   readonly total: number
   readonly done: number
   readonly changed: number
@@ -12,12 +13,7 @@ export interface RegradeSnapshot {
   readonly toVersionNumber: number | null
 }
 
-export const REGRADE_STATUS_WORDS: Readonly<Record<RegradeSnapshot['status'], string>> = {
-  queued: 'Waiting for a worker',
-  running: 'Regrading',
-  done: 'Done',
-  failed: 'Stopped',
-}
+export const REGRADE_STATUS_WORDS: Readonly<Record<RegradeSnapshot['status'], string>> = REGRADE_STATUS_LABELS
 
 export function isRegradeActive(status: RegradeSnapshot['status']): boolean {
   return status === 'queued' || status === 'running'

@@ -1,12 +1,13 @@
 import { useQuery } from '@tanstack/react-query'
 import { Form, useNavigation } from 'react-router'
 import type { SweepFailure } from '#app/domain/authoring/definition.ts'
+import { SWEEP_STATUS_LABELS, type SweepStatus } from '#app/lib/labels.ts'
 
 /** A sweep as the page and GET /api/sweeps/:id show it (app/server/sweeps.server.ts SweepView). */
 export interface SweepSnapshot {
   readonly id: number
   readonly versionId: number
-  readonly status: 'queued' | 'running' | 'done' | 'failed'
+  readonly status: SweepStatus
   readonly total: number
   readonly checked: number
   readonly failed: number
@@ -77,13 +78,13 @@ export function SweepPanel({ versionNumber, initial }: { versionNumber: number; 
           <input id="sweep-total" name="total" type="number" min={10} max={5000} step={10} defaultValue={500} className="w-32 rounded-md border border-line px-3 py-2" />
         </div>
         <button type="submit" disabled={busy || running} className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong disabled:opacity-60">
-          {busy ? 'Starting…' : running ? 'Checking…' : 'Check this version'}
+          {busy ? 'Starting…' : running ? `${SWEEP_STATUS_LABELS.running}…` : 'Check this version'}
         </button>
       </Form>
       {sweep ? (
         <div className="mt-5" aria-live="polite">
           <p className="text-sm">
-            {sweep.status === 'queued' ? (sweep.error ?? 'Waiting for a worker…') : null}
+            {sweep.status === 'queued' ? (sweep.error ?? `${SWEEP_STATUS_LABELS.queued}…`) : null}
             {sweep.status === 'running' ? `Checked ${sweep.checked} of ${sweep.total} variants…` : null}
             {sweep.status === 'done'
               ? sweep.failed === 0

@@ -1,6 +1,7 @@
 import { Link, redirect } from 'react-router'
 import { primaryRole, roleLabels } from '#app/domain/permissions.ts'
 import { conventionText } from '#app/lib/conventions.ts'
+import { inSentence, LATE_LABEL, SWEEP_STATUS_LABELS } from '#app/lib/labels.ts'
 import { getUser } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { getHomeData, type HomeData } from '#app/server/home.server.ts'
@@ -109,7 +110,7 @@ function ToDo({ home }: { home: HomeData }) {
                           <Link to={d.href} className="font-medium">
                             {d.title}
                           </Link>
-                          {d.late ? <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">Late</span> : null}
+                          {d.late ? <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">{LATE_LABEL}</span> : null}
                           <div className="text-sm text-muted">
                             Due {d.dueText} · {d.timeLeft} · {d.progress}
                           </div>
@@ -172,7 +173,7 @@ function ToDo({ home }: { home: HomeData }) {
                 <ul className="mt-1 list-disc pl-5 text-sm">
                   {home.failedChecks.map((f) => (
                     <li key={f.problemId}>
-                      <Link to={`/bank/${f.problemId}#check`}>{f.title}</Link>: {f.status === 'failed' ? 'the check could not finish' : `${f.failed} of ${f.total} variants failed`}
+                      <Link to={`/bank/${f.problemId}#check`}>{f.title}</Link>: {f.status === 'failed' ? `the check ${inSentence(SWEEP_STATUS_LABELS.failed)} before it finished` : `${f.failed} of ${f.total} variants failed`}
                     </li>
                   ))}
                 </ul>

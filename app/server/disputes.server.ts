@@ -40,6 +40,7 @@ import { renderPrompt } from '#app/domain/authoring/prompt.ts'
 import { renderWorkedSolution, workedSolution } from '#app/domain/authoring/worked-solution.ts'
 import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
 import { formatInZone } from '#app/lib/dates.ts'
+import { disputeResolutionMail, disputeResolvedHistoryText } from '#app/lib/dispute-resolution.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import {
   assignmentItems,
@@ -702,13 +703,6 @@ function gradeText(g: GradeState | null | undefined): string {
   return `${g.verdict ?? 'not graded'}, ${pluralPoints(g.score ?? 0)}`
 }
 
-const STATUS_WORDS: Record<DisputeStatus, string> = {
-  open: 'open',
-  upheld: 'upheld (the answer was accepted)',
-  adjusted: 'adjusted (the score was set by hand)',
-  rejected: 'rejected (the score was kept)',
-}
-
 /** The dispute's story in words, oldest first: raised, each score change it caused, resolved. */
 async function disputeHistory(database: Database, row: DisputeRecord, findLabel: string): Promise<DisputeHistoryEntry[]> {
   const actor = alias(users, 'actor')
@@ -768,12 +762,11 @@ async function disputeHistory(database: Database, row: DisputeRecord, findLabel:
   if (row.status !== 'open') {
     const before = row.scoreBefore ?? 0
     const after = row.scoreAfter ?? before
-    const scoreWords = before === after ? `the find's score stays at ${pluralPoints(after)}` : `the find's score went from ${pluralPoints(before)} to ${pluralPoints(after)}`
     out.push({
       at: (resolved?.at ?? row.resolvedAt ?? row.createdAt).toISOString(),
       who: resolved?.actorName ?? row.resolvedByName,
       kind: 'resolved',
-      text: `Resolved: ${STATUS_WORDS[row.status]}; ${scoreWords}.${row.comment ? ` Comment: ${row.comment}` : ''}`,
+      text: disputeResolvedHistoryText({ outcome: row.status, scoreBefore: before, scoreAfter: after, comment: row.comment }),
     })
   }
   return out
@@ -894,23 +887,24 @@ export async function resolveDispute(database: Db, input: ResolveDisputeInput): 
     })
 
     const label = findInfo?.find.label ?? row.findName
-    const outcome =
-      decision === 'reject'
-        ? `Your score for this question stays at ${pluralPoints(scoreAfter)} of ${points(share)}.`
-        : decision === 'adjust'
-          ? `Your score for this question was changed from ${pluralPoints(scoreBefore)} to ${pluralPoints(scoreAfter)} of ${points(share)}.`
-          : `Your answer was accepted as correct; your score for this question is now ${pluralPoints(scoreAfter)} of ${points(share)}.`
-    const verdictWord = decision === 'reject' ? 'rejected' : decision === 'adjust' ? 'adjusted' : 'accepted'
+    const mail = disputeResolutionMail({
+      outcome: status,
+      studentName: row.studentName,
+      courseCode: ctx.courseCode,
+      courseTitle: ctx.courseTitle,
+      assignmentTitle: ctx.assignmentTitle,
+      position: ctx.position,
+      findLabel: label,
+      scoreBefore,
+      scoreAfter,
+      share,
+      comment: comment || null,
+    })
     await queueMail(
       linkMail({
         to: row.studentEmail,
-        subject: `${ctx.courseCode}: your dispute on ${ctx.assignmentTitle}, problem ${ctx.position} was ${verdictWord}`,
-        lines: [
-          `Hello ${row.studentName},`,
-          `Your dispute about “${label}” in problem ${ctx.position} of ${ctx.assignmentTitle} (${ctx.courseCode} ${ctx.courseTitle}) has been reviewed.`,
-          outcome,
-          ...(comment ? [`Comment from the reviewer: ${comment}`] : []),
-        ],
+        subject: mail.subject,
+        lines: mail.lines,
         link: `${baseUrl}/courses/${ctx.courseId}/assignments/${ctx.assignmentId}/problems/${ctx.position}`,
         linkLabel: 'See the problem',
       }),

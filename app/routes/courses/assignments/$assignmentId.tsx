@@ -18,6 +18,7 @@ import { appUrl } from '#app/server/env.server.ts'
 import { getReleaseChecks, orReleaseErrorPage, releaseGrades, releaseKey, ReleaseRefusedError } from '#app/server/releases.server.ts'
 import type { Route } from './+types/$assignmentId'
 import { readFormData } from '#app/lib/form.ts'
+import { STUDENT_STATUS_LABELS } from '#app/lib/labels.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `${data.notOpen ? data.notOpen.title : data.detail.assignment.title} · Cyclewright` : 'Assignment · Cyclewright' },
@@ -400,9 +401,9 @@ function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt:
 }
 
 function statusText(mine: Detail['items'][number]['mine']): string {
-  if (!mine || !mine.started) return 'Not started'
-  if (mine.pending > 0) return 'Being graded'
-  return mine.finished ? 'Finished' : 'In progress'
+  if (!mine || !mine.started) return STUDENT_STATUS_LABELS['not-started']
+  if (mine.pending > 0) return STUDENT_STATUS_LABELS['being-graded']
+  return STUDENT_STATUS_LABELS[mine.finished ? 'finished' : 'in-progress']
 }
 
 export function ErrorBoundary() {

@@ -10,6 +10,7 @@ import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { getFindAnswers, type FindAnswer } from '#app/server/gradebook.server.ts'
 import type { Route } from './+types/answers'
+import { answerResultLabel, TONE_TEXT, VERDICT_TONES } from '#app/lib/labels.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Answers: ${data.answers.item.title} · Cyclewright` : 'Answers · Cyclewright' }]
 
@@ -27,16 +28,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return { course, answers }
 }
 
-const verdictText: Record<NonNullable<FindAnswer['verdict']>, string> = {
-  correct: 'Correct',
-  incorrect: 'Incorrect',
-  unreadable: 'Could not be read',
-  'wrong-dimension': 'Wrong kind of unit',
-}
-
 function verdictOf(a: FindAnswer): string {
-  if (a.verdict) return verdictText[a.verdict]
-  return a.status === 'failed' ? 'Not graded (grading failed)' : 'Being graded'
+  return answerResultLabel(a)
 }
 
 export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
@@ -121,7 +114,7 @@ export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
                   </th>
                   <td className="px-3 py-2 tabular-nums">{a.attempt}</td>
                   <td className="px-3 py-2 font-mono whitespace-pre-wrap">{a.answer}</td>
-                  <td className={`px-3 py-2 ${a.verdict === 'correct' ? 'text-ok' : a.verdict ? 'text-danger' : 'text-muted'}`}>{verdictOf(a)}</td>
+                  <td className={`px-3 py-2 ${TONE_TEXT[a.verdict ? VERDICT_TONES[a.verdict] : 'muted']}`}>{verdictOf(a)}</td>
                   <td className="px-3 py-2 tabular-nums">{a.score === null ? '—' : `${formatPoints(a.score)} / ${formatPoints(a.maxScore)}`}</td>
                   <td className="px-3 py-2">
                     {a.pitfall ? (

@@ -21,6 +21,7 @@ import { disputeAllowance, raiseDispute } from '#app/server/disputes.server.ts'
 import { getStudentProblem } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/dispute'
 import { formatScore } from '#app/lib/points.ts'
+import { verdictLabel } from '#app/lib/labels.ts'
 
 export const REASON_MIN = DISPUTE_REASON_MIN
 export const REASON_MAX = DISPUTE_REASON_MAX
@@ -221,13 +222,6 @@ function lastIndexOf(haystack: Uint8Array, needle: Uint8Array): number {
   return -1
 }
 
-const VERDICT_WORDS: Record<string, string> = {
-  correct: 'Correct',
-  incorrect: 'Not correct',
-  unreadable: 'Could not be read',
-  'wrong-dimension': 'Wrong kind of unit',
-}
-
 export default function DisputeRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { courseId, assignment, item, find, allowance, back } = loaderData
   const busy = useNavigation().state === 'submitting'
@@ -277,7 +271,7 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
             </dd>
             <dt className="text-muted">Verdict</dt>
             <dd>
-              <span className={cn('font-semibold', last.verdict === 'correct' ? 'text-ok' : 'text-danger')}>{VERDICT_WORDS[last.verdict] ?? last.verdict}</span>
+              <span className={cn('font-semibold', last.verdict === 'correct' ? 'text-ok' : 'text-danger')}>{verdictLabel(last.verdict)}</span>
               {last.message && last.verdict !== 'correct' ? <>: {last.message}</> : null}
             </dd>
             {last.pitfallFeedback ? (

@@ -13,6 +13,7 @@ import { applyRegrade, loadRegradePage, RegradeError, type ToleranceFields } fro
 import type { Route } from './+types/regrade'
 import { formatPoints } from '#app/lib/points.ts'
 import { readFormData } from '#app/lib/form.ts'
+import { inSentence, verdictLabel } from '#app/lib/labels.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Regrade ${data?.item.problemTitle ?? 'problem'} · Cyclewright` }]
 
@@ -93,12 +94,9 @@ function toleranceText(t: Tolerance): string {
   return `within ± ${t.value}${t.unit ? ` ${t.unit}` : ''}`
 }
 
-const VERDICT_WORDS: Record<string, string> = {
-  correct: 'correct',
-  incorrect: 'incorrect',
-  unreadable: 'unreadable',
-  'wrong-dimension': 'wrong dimension',
-  removed: 'no longer asked (0)',
+/** A verdict inside the preview's sentence: "incorrect → correct", "no longer asked (0)". */
+function verdictWords(v: string): string {
+  return `${inSentence(verdictLabel(v))}${v === 'removed' ? ' (0)' : ''}`
 }
 
 const points = formatPoints
@@ -332,7 +330,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                           ? '—'
                           : s.finds.map((f) => (
                               <span key={f.name} className="block">
-                                {f.label}: {VERDICT_WORDS[f.oldVerdict]} → {VERDICT_WORDS[f.newVerdict]}
+                                {f.label}: {verdictWords(f.oldVerdict)} → {verdictWords(f.newVerdict)}
                               </span>
                             ))}
                       </td>

@@ -20,6 +20,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { getDisputeDetail, resolveDispute, type DisputeDetail } from '#app/server/disputes.server.ts'
 import { appUrl } from '#app/server/env.server.ts'
 import type { Route } from './+types/$disputeId'
+import { SUBMISSION_STATUS_LABELS, verdictLabel } from '#app/lib/labels.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Dispute: ${data.dispute.findLabel}, ${data.dispute.assignmentTitle} · Cyclewright` : 'Dispute · Cyclewright' }]
 
@@ -91,16 +92,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   return redirect(`/courses/${courseId}/disputes/${disputeId}?resolved=${result.changed}`)
 }
 
-const VERDICT_WORDS: Record<string, string> = {
-  correct: 'Correct',
-  incorrect: 'Incorrect',
-  unreadable: 'Unreadable',
-  'wrong-dimension': 'Wrong dimension',
-  removed: 'No longer asked',
-}
-
 function verdictText(verdict: string | null): string {
-  return verdict === null ? 'Being graded' : (VERDICT_WORDS[verdict] ?? verdict)
+  return verdict === null ? SUBMISSION_STATUS_LABELS.queued : verdictLabel(verdict)
 }
 
 function pointsText(n: number | null, max?: number): string {

@@ -12,6 +12,7 @@ import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { getStudentRecord, type RecordAnswer, type RecordAssignment, type RecordItem } from '#app/server/student-record.server.ts'
 import type { Route } from './+types/$userId'
+import { answerResultLabel, TONE_TEXT, VERDICT_TONES } from '#app/lib/labels.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.record.student.name} · ${data.record.course.code} · Cyclewright` : 'Student · Cyclewright' }]
 
@@ -24,16 +25,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return { record }
 }
 
-const VERDICT_WORDS: Record<NonNullable<RecordAnswer['verdict']>, string> = {
-  correct: 'Correct',
-  incorrect: 'Incorrect',
-  unreadable: 'Could not be read',
-  'wrong-dimension': 'Wrong kind of unit',
-}
-
 function verdictOf(a: RecordAnswer): string {
-  if (a.verdict) return VERDICT_WORDS[a.verdict]
-  return a.status === 'failed' ? 'Not graded (grading failed)' : 'Being graded'
+  return answerResultLabel(a)
 }
 
 function lateText(a: RecordAnswer): string {
@@ -310,7 +303,7 @@ function AnswerTable({ answers, when, caption }: { answers: readonly RecordAnswe
                 {a.attempt}
               </th>
               <td className="px-3 py-1.5 font-mono whitespace-pre-wrap">{a.answer}</td>
-              <td className={`px-3 py-1.5 ${a.verdict === 'correct' ? 'text-ok' : a.verdict ? 'text-danger' : 'text-muted'}`}>{verdictOf(a)}</td>
+              <td className={`px-3 py-1.5 ${TONE_TEXT[a.verdict ? VERDICT_TONES[a.verdict] : 'muted']}`}>{verdictOf(a)}</td>
               <td className="px-3 py-1.5 whitespace-nowrap tabular-nums">{a.score === null ? '—' : formatScore(a.score, a.maxScore)}</td>
               <td className="px-3 py-1.5 whitespace-nowrap">{when(a.submittedAt)}</td>
               <td className="px-3 py-1.5 whitespace-nowrap">{lateText(a)}</td>
