@@ -66,7 +66,8 @@ describe('each kind written today', () => {
       entry({ kind: 'dispute-resolved', before: { disputeId: 7, status: 'open', score: 1.5 }, after: { disputeId: 7, status: 'upheld', score: 3, changed: 4, partResultIds: [1, 2, 3, 4] }, question: netWork, maxScore: 3 }),
       lookups,
     )
-    expect(resolved.what).toBe('Dispute of Ada Okafor on “Net work per unit mass” (problem 2) resolved: upheld')
+    // 'upheld' is said as on the dispute's badge and in the student's e-mail (labels.ts)
+    expect(resolved.what).toBe('Dispute of Ada Okafor on “Net work per unit mass” (problem 2) resolved: answer accepted')
     expect(resolved.change).toBe('score 1.5 → 3 of 3; 4 answers changed')
     const kept = describeAuditEntry(entry({ kind: 'dispute-resolved', before: { status: 'open', score: 1 }, after: { status: 'rejected', score: 1, changed: 0 }, question: netWork, maxScore: 3 }), lookups)
     expect(kept.change).toBe('score 1 of 3')
@@ -101,6 +102,27 @@ describe('each kind written today', () => {
     const grades = describeAuditEntry(entry({ kind: 'grades-released', subject: null, before: { gradesReleasedAt: null }, after: { gradesReleasedAt: '2026-12-01T08:30:00.000Z', mailed: 31 } }), lookups)
     expect(grades.what).toBe('Grades of “Week 9” released')
     expect(grades.change).toBe('31 students e-mailed')
+    const onTime = describeAuditEntry(entry({ kind: 'grades-released', subject: null, after: { gradesReleasedAt: '2026-12-01T08:30:00.000Z', mailed: 2, early: false } }), lookups)
+    expect(onTime.what).toBe('Grades of “Week 9” released')
+    expect(onTime.change).toBe('2 students e-mailed')
+  })
+
+  test('grades released early say so', () => {
+    const early = describeAuditEntry(entry({ kind: 'grades-released', subject: null, before: { gradesReleasedAt: null }, after: { gradesReleasedAt: '2026-12-01T08:30:00.000Z', mailed: 1, early: true } }), lookups)
+    expect(early.what).toBe('Grades of “Week 9” released early')
+    expect(early.change).toBe('1 student e-mailed; released before every student’s window closed')
+  })
+
+  test('a deleted assignment is named by the title it had, with its dates and what went with it', () => {
+    const before = { title: 'Week 10: Rankine', opensAt: '2026-12-07T07:00:00.000Z', dueAt: '2026-12-14T16:00:00.000Z', items: 3, extensions: 1 }
+    // The assignment row is gone, so the server finds no title of its own for the entry.
+    const w = describeAuditEntry(entry({ kind: 'assignment-deleted', subject: null, assignmentTitle: null, before, after: null }), lookups)
+    expect(w.kind).toBe('Assignment deleted')
+    expect(w.what).toBe('Assignment “Week 10: Rankine” deleted (nobody had answered it)')
+    expect(w.change).toBe('opened Mon 7 Dec 2026, 08:00; due Mon 14 Dec 2026, 17:00; 3 problems; 1 extension removed with it')
+    const bare = describeAuditEntry(entry({ kind: 'assignment-deleted', subject: null, assignmentTitle: null, before: { title: 'Quiz', items: 0, extensions: 0 }, after: null }), lookups)
+    expect(bare.what).toBe('Assignment “Quiz” deleted (nobody had answered it)')
+    expect(bare.change).toBe('0 problems')
   })
 
   test('an assignment’s changed settings, each in words, problems by title and version', () => {

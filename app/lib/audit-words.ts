@@ -10,6 +10,7 @@
  * gets a generic line built from its before and after values, so nothing is ever hidden.
  */
 import { formatInZone } from './dates.ts'
+import { DISPUTE_STATUS_LABELS, inSentence, verdictLabel } from './labels.ts'
 import { formatPoints } from './points.ts'
 
 /** Each kind of entry written today, as a short label (the page's filter lists these). */
@@ -22,6 +23,7 @@ export const AUDIT_KIND_WORDS: Readonly<Record<string, string>> = {
   'key-released': 'Key released',
   'grades-released': 'Grades released',
   'assignment-changed': 'Assignment changed',
+  'assignment-deleted': 'Assignment deleted',
   'course-created': 'Course created',
   'course-settings-changed': 'Course settings changed',
   'course-copied': 'Course copied',
@@ -78,14 +80,9 @@ export type AuditWords = {
 
 // ---- Small pieces --------------------------------------------------------------------------
 
-const VERDICT_WORDS: Readonly<Record<string, string>> = {
-  correct: 'correct',
-  incorrect: 'incorrect',
-  unreadable: 'could not be read',
-  'wrong-dimension': 'wrong kind of unit',
-  removed: 'no longer asked',
-}
-const DISPUTE_STATUS_WORDS: Readonly<Record<string, string>> = { open: 'open', upheld: 'upheld', adjusted: 'score adjusted', rejected: 'score kept' }
+/** Verdicts and dispute statuses in the product's one set of words (labels.ts), inside a sentence. */
+const disputeStatusText = (v: unknown): string =>
+  typeof v === 'string' && v in DISPUTE_STATUS_LABELS ? inSentence(DISPUTE_STATUS_LABELS[v as keyof typeof DISPUTE_STATUS_LABELS]) : String(v ?? 'resolved')
 const LATE_POLICY_WORDS: Readonly<Record<string, string>> = { closed: 'no late answers', penalty: 'late answers with a penalty' }
 const KEY_RELEASE_WORDS: Readonly<Record<string, string>> = { 'after-due': 'after the due date', manual: 'by hand' }
 const CONVENTION_WORDS: Readonly<Record<string, string>> = { chemistry: 'chemistry (work done on the system is positive)', engineering: 'engineering (work done by the system is positive)' }
@@ -117,8 +114,7 @@ function questionText(q: AuditEntryFacts['question']): string {
 }
 
 function verdictText(v: unknown): string {
-  if (v === null || v === undefined) return 'not graded'
-  return VERDICT_WORDS[String(v)] ?? String(v)
+  return inSentence(verdictLabel(v))
 }
 
 /** "score 1.5 → 3 of 3" (or "score 3 of 3" when it stayed), with "of max" when known. */
@@ -319,7 +315,7 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
     case 'dispute-raised':
       return { what: `${who} disputed the grade on ${q}`, change: null, note: f.note }
     case 'dispute-resolved': {
-      const status = DISPUTE_STATUS_WORDS[String(a.status)] ?? String(a.status ?? 'resolved')
+      const status = disputeStatusText(a.status)
       const changed = num(a.changed)
       const others = changed !== null && changed > 0 ? `; ${plural(changed, 'answer')} changed` : ''
       return { what: `Dispute of ${who} on ${q} resolved: ${status}`, change: `${scoreChange(num(b.score), num(a.score), f.maxScore)}${others}`, note: f.note }
@@ -330,11 +326,25 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
       return { what: `Key and worked solutions of ${f.assignmentTitle ? quoted(f.assignmentTitle) : 'the assignment'} released`, change: str(a.keyReleasedAt) ? `released ${when(a.keyReleasedAt, tz)}` : null, note: f.note }
     case 'grades-released': {
       const mailed = num(a.mailed)
+      const parts = [mailed !== null ? `${plural(mailed, 'student')} e-mailed` : null, a.early === true ? 'released before every student’s window closed' : null].filter(Boolean)
       return {
-        what: `Grades of ${f.assignmentTitle ? quoted(f.assignmentTitle) : 'the assignment'} released`,
-        change: mailed !== null ? `${plural(mailed, 'student')} e-mailed` : null,
+        what: `Grades of ${f.assignmentTitle ? quoted(f.assignmentTitle) : 'the assignment'} released${a.early === true ? ' early' : ''}`,
+        change: parts.length ? parts.join('; ') : null,
         note: f.note,
       }
+    }
+    case 'assignment-deleted': {
+      // The assignment is gone, so its title comes from the row itself.
+      const title = str(b.title) ?? f.assignmentTitle
+      const items = num(b.items)
+      const extensions = num(b.extensions)
+      const parts = [
+        str(b.opensAt) ? `opened ${when(b.opensAt, tz)}` : null,
+        str(b.dueAt) ? `due ${when(b.dueAt, tz)}` : null,
+        items !== null ? plural(items, 'problem') : null,
+        extensions ? `${plural(extensions, 'extension')} removed with it` : null,
+      ].filter(Boolean)
+      return { what: `Assignment ${title ? quoted(title) : 'without a title'} deleted (nobody had answered it)`, change: parts.length ? parts.join('; ') : null, note: f.note }
     }
     case 'assignment-changed': {
       const keys = [...new Set([...Object.keys(b), ...Object.keys(a)])]
