@@ -104,7 +104,7 @@ test('a student disputes a verdict with a file, a TA adjusts it, and everyone se
   await signIn(page, baseURL, t.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
   await page.goto(problemUrl)
-  await page.getByText(/Adjusted: score changed from .* to 1/).first().waitFor()
+  await page.getByText(/Score adjusted: from .* to 1/).first().waitFor()
 })
 
 test('a PDF that carries JavaScript is offered as a download only: never opened in the page, and its script never runs', async () => {

@@ -69,13 +69,13 @@ test('with JavaScript off a student submits, is told what could not be read, and
     .poll(
       async () => {
         await page.reload()
-        return page.getByText('Being graded…').count()
+        return page.getByText(/Being graded/).count()
       },
       { timeout: 30_000, interval: 500 },
     )
     .toBe(0)
   await page.getByText('Correct').first().waitFor()
-  await page.getByText(/Not correct/).first().waitFor()
+  await page.getByText('Incorrect').first().waitFor()
   await page.getByText(/wrong sign/).first().waitFor()
   await page.getByText(/Attempt 1 of \d+; \d+ left/).first().waitFor()
 })

@@ -395,7 +395,7 @@ describe('the outcome on the problem page', () => {
     expect(page.disputed).toBeNull()
     const latest = page.disputes!.find((d) => d.findName === 'wNet')!
     expect(latest).toMatchObject({ status: 'adjusted', scoreBefore: 0, scoreAfter: 1, comment: 'Half marks: the size is right.' })
-    expect(disputeOutcome(latest)).toBe('Adjusted: score changed from 0 to 1 — Half marks: the size is right.')
+    expect(disputeOutcome(latest)).toBe('Score adjusted: from 0 to 1 — Half marks: the size is right.')
     expect(page.problem.results.finds.find((f) => f.name === 'wNet')!.score).toBe(1)
 
     // Staff preview their own variant: no disputes of theirs, and no confirmation from the query.
@@ -406,7 +406,7 @@ describe('the outcome on the problem page', () => {
 
   test('upheld and rejected outcomes read as the student is told them', () => {
     const base = { id: 1, findName: 'wNet', createdAt: '2026-12-01T10:00:00Z', resolvedAt: '2026-12-02T10:00:00Z', scoreBefore: 0, scoreAfter: 2 }
-    expect(disputeOutcome({ ...base, status: 'upheld', comment: null })).toBe('Upheld: your answer was accepted')
-    expect(disputeOutcome({ ...base, status: 'rejected', scoreAfter: 0, comment: 'The sign is part of the answer.' })).toBe('Rejected: the score stays — The sign is part of the answer.')
+    expect(disputeOutcome({ ...base, status: 'upheld', comment: null })).toBe('Answer accepted: your answer counts as correct')
+    expect(disputeOutcome({ ...base, status: 'rejected', scoreAfter: 0, comment: 'The sign is part of the answer.' })).toBe('Score kept at 0 — The sign is part of the answer.')
   })
 })

@@ -277,7 +277,7 @@ describe('resolving', () => {
     expect(again).toEqual({ ok: false, formError: 'This dispute was already resolved', fieldErrors: {} })
     const detail = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: r.disputeId, viewer: actor(me, 'student') })
     expect(detail!.history.map((h) => h.kind)).toEqual(['raised', 'resolved'])
-    expect(detail!.history[1]!.text).toMatch(/rejected/)
+    expect(detail!.history[1]!.text).toMatch(/^Resolved: score kept;/)
     // Resolved, the same answer is not disputed twice.
     expect(await s.raise(me.id, { reason: 'Please look once more at step 3.' })).toMatchObject({ ok: false, formError: expect.stringMatching(/resolved, so it cannot be disputed again/) })
   })
@@ -417,7 +417,7 @@ describe('resolving', () => {
         mail = await findLastMailTo(db(), me.email)
       }
       expect(mail).not.toBeNull()
-      expect(mail!.subject).toMatch(/your dispute on .* problem 1 was rejected/)
+      expect(mail!.subject).toMatch(/your dispute on .* problem 1: score kept$/)
       expect(mail!.text).toContain(`http://cyclewright.test/courses/${s.course.id}/assignments/${s.assignment.id}/problems/1`)
       expect(mail!.text).toContain('The sign is wrong for this course.')
       expect(mail!.text).toMatch(/stays at 0 points/)
