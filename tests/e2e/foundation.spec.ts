@@ -54,7 +54,7 @@ test('an instructor invites a student, who follows the e-mailed link, sets a pas
   const email = `invited.${Date.now()}@students.kestrel-hollow.example`
   await signIn(page, baseURL, demoPeople.instructors[0]!.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
-  await page.getByRole('link', { name: /ENTH 210 Engineering Thermodynamics I/ }).click()
+  await page.getByRole('list', { name: 'Courses' }).getByRole('link', { name: /ENTH 210 Engineering Thermodynamics I/ }).click()
   await page.getByRole('link', { name: 'People and invitations' }).click()
   await page.getByLabel('E-mail address').fill(email)
   await page.getByLabel('Role').selectOption('student')
