@@ -96,7 +96,7 @@ export function GradebookFilters({ view, sections }: { view: GradebookView; sect
       </div>
       <div className="flex w-full flex-col gap-1 sm:w-auto">
         <label htmlFor="gb-q" className="text-sm font-medium">
-          Name or e-mail
+          Name, e-mail or student ID
         </label>
         <input id="gb-q" name="q" type="search" defaultValue={view.q} maxLength={200} className="w-full rounded-md border border-line px-3 py-2 sm:w-56" />
       </div>

@@ -74,7 +74,7 @@ export function readGradebookView(url: URL): GradebookView {
 /** The whole gradebook, by name. */
 export const DEFAULT_GRADEBOOK_VIEW: GradebookView = { section: '', status: 'all', q: '', sort: 'name', dir: 'asc' }
 
-type ViewRow = { name: string; familyName: string; givenName: string; email: string; section: string | null; total: number; status: StudentStatus; late: boolean }
+type ViewRow = { name: string; familyName: string; givenName: string; email: string; studentNumber?: string | null; section: string | null; total: number; status: StudentStatus; late: boolean }
 
 // Sorted here rather than in SQL so the order does not depend on the database's collation.
 const collator = new Intl.Collator('en', { sensitivity: 'base', numeric: true })
@@ -95,7 +95,7 @@ export function applyGradebookView<T extends ViewRow>(rows: readonly T[], view: 
   const kept = rows.filter((r) => {
     if (view.section && (r.section ?? '') !== view.section) return false
     if (view.status === 'late' ? !r.late : view.status !== 'all' && r.status !== view.status) return false
-    if (q && !r.name.toLowerCase().includes(q) && !r.email.toLowerCase().includes(q)) return false
+    if (q && ![r.name, r.email, r.studentNumber ?? ''].some((text) => text.toLowerCase().includes(q))) return false
     return true
   })
   const byName = compareStudents
