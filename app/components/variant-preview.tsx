@@ -5,26 +5,12 @@
  */
 // The prompt and the worked solution carry KaTeX markup; its stylesheet goes wherever they show.
 import 'katex/dist/katex.min.css'
+import { AnswerKeyTable } from '#app/components/answer-key-table.tsx'
 import { CycleDiagrams } from '#app/components/cycle-diagrams.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import type { PreviewVariant } from '#app/lib/preview.ts'
 
-const fourFigures = new Intl.NumberFormat('en', { minimumSignificantDigits: 4, maximumSignificantDigits: 4 })
-
-/** A key value to 4 significant figures; powers of ten for very large or small magnitudes. */
-export function KeyValue({ value }: { value: number }) {
-  if (!Number.isFinite(value)) return <>—</>
-  const size = Math.abs(value)
-  if (size !== 0 && (size >= 1e6 || size < 1e-3)) {
-    const [mantissa, exponent] = value.toExponential(3).split('e')
-    return (
-      <>
-        {mantissa!.replace('-', '−')} × 10<sup>{Number(exponent)}</sup>
-      </>
-    )
-  }
-  return <>{fourFigures.format(value).replace('-', '−')}</>
-}
+export { KeyValue } from '#app/components/answer-key-table.tsx'
 
 export function VariantPreview({ variants, showKey = true }: { variants: readonly PreviewVariant[]; showKey?: boolean }) {
   if (variants.length === 0) return <p className="text-sm text-muted">No variants to show.</p>
@@ -78,35 +64,7 @@ function VariantColumn({ variant: v, showKey }: { variant: PreviewVariant; showK
             <div className="prompt-html mt-1 text-sm leading-relaxed [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: v.promptHtml }} />
           </section>
           {showKey ? (
-            <table className="w-full text-left text-sm">
-              <caption className="text-left text-sm font-semibold text-muted">Key</caption>
-              <thead className="text-xs text-muted">
-                <tr>
-                  <th scope="col" className="py-1 pr-2">
-                    Find
-                  </th>
-                  <th scope="col" className="py-1 pr-2 text-right">
-                    Value
-                  </th>
-                  <th scope="col" className="py-1">
-                    Unit
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {v.key.map((k) => (
-                  <tr key={k.name} className="border-t border-line">
-                    <th scope="row" className="py-1 pr-2 font-normal" title={k.label}>
-                      <code>{k.name}</code>
-                    </th>
-                    <td className="py-1 pr-2 text-right tabular-nums">
-                      <KeyValue value={k.value} />
-                    </td>
-                    <td className="py-1">{k.unit || '—'}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <AnswerKeyTable entries={v.key} caption="Key" showNames />
           ) : null}
           {v.warnings.length > 0 ? (
             <Notice tone="warn">

@@ -9,7 +9,7 @@ import { CycleDiagrams } from '#app/components/cycle-diagrams.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { ReceiptBox, ReceiptList } from '#app/components/receipt.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
-import { KeyValue } from '#app/components/variant-preview.tsx'
+import { AnswerKeyTable } from '#app/components/answer-key-table.tsx'
 import { windowMessage } from '#app/domain/assignments/policy.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
@@ -284,35 +284,13 @@ function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; 
           <h2 id="key-title" className="text-lg font-semibold">
             Key and worked solution
           </h2>
-          <table className="w-full max-w-xl text-left text-sm">
-            <caption className="text-left text-sm text-muted">{staff ? 'The answers to your preview variant' : 'The answers to your variant'}</caption>
-            <thead className="text-xs text-muted">
-              <tr>
-                <th scope="col" className="py-1 pr-3">
-                  Find
-                </th>
-                <th scope="col" className="py-1 pr-3 text-right">
-                  Value
-                </th>
-                <th scope="col" className="py-1">
-                  Unit
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {problem.key.entries.map((k) => (
-                <tr key={k.name} className="border-t border-line">
-                  <th scope="row" className="py-1 pr-3 font-normal">
-                    {k.label}
-                  </th>
-                  <td className="py-1 pr-3 text-right tabular-nums">
-                    <KeyValue value={k.value} />
-                  </td>
-                  <td className="py-1">{unitOf.get(k.name) || k.unit || '—'}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <AnswerKeyTable
+            className="w-full max-w-xl text-left text-sm"
+            captionClassName="text-left text-sm text-muted"
+            caption={staff ? 'The answers to your preview variant' : 'The answers to your variant'}
+            entries={problem.key.entries}
+            unitOf={(name) => unitOf.get(name)}
+          />
           {/* Sanitised on the server, like the prompt. */}
           <div className="overflow-x-auto" dangerouslySetInnerHTML={{ __html: problem.key.workedHtml }} />
           <CycleDiagrams diagrams={problem.key.diagrams} caption="P–v and T–s diagrams of this variant" />

@@ -9,7 +9,7 @@ import { formatPoints } from '#app/lib/points.ts'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
-import { KeyValue } from '#app/components/variant-preview.tsx'
+import { AnswerKeyTable } from '#app/components/answer-key-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
 import { type FieldErrors, parseForm, readFormData } from '#app/lib/form.ts'
 import { DISPUTE_COMMENT_MAX } from '#app/lib/dispute-limits.ts'
@@ -315,31 +315,7 @@ function StaffView({
             )}
           </div>
           <div className="relative self-start overflow-x-auto">
-            <table className="w-full text-left text-sm">
-              <caption className="text-left font-semibold">Key</caption>
-              <thead className="text-xs text-muted">
-                <tr>
-                  <th scope="col" className="py-1 pr-2">Find</th>
-                  <th scope="col" className="py-1 pr-2 text-right">Value</th>
-                  <th scope="col" className="py-1 pr-2">Unit</th>
-                  <th scope="col" className="py-1 text-right">Points</th>
-                </tr>
-              </thead>
-              <tbody>
-                {detail.key.map((k) => (
-                  <tr key={k.name} className={`border-t border-line ${k.name === find.name ? 'bg-warn-soft font-semibold' : ''}`}>
-                    <th scope="row" className="py-1 pr-2 font-normal">
-                      {k.label} <code className="text-xs text-muted">{k.name}</code>
-                    </th>
-                    <td className="py-1 pr-2 text-right tabular-nums">
-                      <KeyValue value={k.value} />
-                    </td>
-                    <td className="py-1 pr-2">{k.unit || '—'}</td>
-                    <td className="py-1 text-right tabular-nums">{formatPoints(k.points)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <AnswerKeyTable caption="Key" captionClassName="text-left font-semibold" entries={detail.key} highlight={find.name} showNames showPoints />
           </div>
         </div>
         <h3 className="mt-6 font-semibold">The prompt as the student saw it</h3>

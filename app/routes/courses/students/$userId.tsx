@@ -4,7 +4,7 @@
 import { data, Link } from 'react-router'
 import { DisputeStatusBadge, disputeOutcomeText } from '#app/components/dispute-status.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
-import { KeyValue } from '#app/components/variant-preview.tsx'
+import { AnswerKeyTable } from '#app/components/answer-key-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { formatPoints, formatScore } from '#app/lib/points.ts'
@@ -214,35 +214,7 @@ function ProblemBlock({ item, assignmentId, when, studentName }: { item: RecordI
             )}
           </section>
           <div className="min-w-0 overflow-x-auto">
-            <table className="w-full text-left text-sm">
-              <caption className="text-left text-sm font-semibold text-muted">Key of this student’s variant</caption>
-              <thead className="text-xs text-muted">
-                <tr>
-                  <th scope="col" className="py-1 pr-3">
-                    Find
-                  </th>
-                  <th scope="col" className="py-1 pr-3 text-right">
-                    Value
-                  </th>
-                  <th scope="col" className="py-1">
-                    Unit
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {item.variant.key.map((k) => (
-                  <tr key={k.name} className="border-t border-line">
-                    <th scope="row" className="py-1 pr-3 font-normal">
-                      {k.label}
-                    </th>
-                    <td className="py-1 pr-3 text-right tabular-nums">
-                      <KeyValue value={k.value} />
-                    </td>
-                    <td className="py-1">{k.unit || '—'}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <AnswerKeyTable caption="Key of this student’s variant" entries={item.variant.key} />
           </div>
         </div>
       )}
