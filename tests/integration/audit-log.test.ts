@@ -17,11 +17,11 @@ import { auditEvents } from '#app/server/db/schema.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { applyRegrade, runRegrade } from '#app/server/regrades.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { submitAnswers } from '#app/server/submissions.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, getRequest, settle } from '#tests/support/requests.ts'
+import { loginAs } from '#tests/support/login.ts'
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
 const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
@@ -31,13 +31,6 @@ const ZONE = 'Europe/Oslo'
 afterAll(async () => {
   await stopBoss()
 })
-
-async function cookieFor(userId: number): Promise<Record<string, string>> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return { Cookie: (await sessionStorage().commitSession(session)).split(';')[0]! }
-}
 
 async function setUp() {
   const made = await createCourseWithAssignment(db(), [ottoV1], { students: 1, timeZone: ZONE, assignment: { dueAt: new Date('2099-10-12T15:00:00Z') } })
@@ -78,7 +71,7 @@ async function setUp() {
 describe('the audit page', () => {
   test('speaks of the question by its label, people by name, dates in the course zone', async () => {
     const s = await setUp()
-    const page = await loader(args(getRequest(s.path, await cookieFor(s.instructor.id)), s.params))
+    const page = await loader(args(getRequest(s.path, await loginAs(s.instructor)), s.params))
     const byKind = (kind: string) => page.rows.filter((r) => r.kind === kind)
 
     const [regrade] = byKind('regrade')
@@ -104,7 +97,7 @@ describe('the audit page', () => {
 
   test('the page’s HTML: the sentences, the filter of every kind, times in the zone', async () => {
     const s = await setUp()
-    const loaderData = await loader(args(getRequest(s.path, await cookieFor(s.instructor.id)), s.params))
+    const loaderData = await loader(args(getRequest(s.path, await loginAs(s.instructor)), s.params))
     const Stub = createRoutesStub([{ path: '/courses/:courseId/audit', Component: AuditRoute as never, loader: () => loaderData, HydrateFallback: () => null }])
     const html = renderToString(createElement(Stub, { initialEntries: [s.path], hydrationData: { loaderData: { 0: loaderData } } })).replaceAll('<!-- -->', '')
     expect(html).toContain(`Regrade of “${T2_LABEL}” (problem 1)`)
@@ -116,10 +109,10 @@ describe('the audit page', () => {
 
   test('the kind filter narrows the list; a TA gets 403', async () => {
     const s = await setUp()
-    const only = await loader(args(getRequest(`${s.path}?kind=extension`, await cookieFor(s.instructor.id)), s.params))
+    const only = await loader(args(getRequest(`${s.path}?kind=extension`, await loginAs(s.instructor)), s.params))
     expect(only.rows.length).toBe(1)
     expect(only.rows[0]!.words.kind).toBe('Extension')
-    const ta = await settle(loader(args(getRequest(s.path, await cookieFor(s.ta.id)), s.params)))
+    const ta = await settle(loader(args(getRequest(s.path, await loginAs(s.ta)), s.params)))
     expect('thrown' in ta && (ta.thrown as { init: { status: number } }).init.status).toBe(403)
   })
 })

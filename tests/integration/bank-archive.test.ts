@@ -12,23 +12,16 @@ import { listBankChoices } from '#app/server/assignments.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { problems } from '#app/server/db/schema.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { addMember, createAssignment, createBankUser, createCourse, createProblemWithVersion } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 afterAll(async () => {
   await stopBoss()
 })
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 function statusOf(out: { thrown: unknown } | { value: unknown }): number {
   const r = 'thrown' in out ? out.thrown : out.value
@@ -45,7 +38,7 @@ async function bankTitles(cookie: string, search = '') {
 describe('archiving a bank problem', () => {
   test('hides it from the bank list and the assignment picker, shows it under Archived, and restores it', async () => {
     const { user, viewer } = await createBankUser(db())
-    const cookie = await cookieFor(user.id)
+    const cookie = await sessionCookie(user)
     const p = await createProblemWithVersion(db(), user.id, { ...otto, title: 'Otto to archive' })
     const other = await createProblemWithVersion(db(), user.id, { ...otto, title: 'Otto to keep' })
     const path = `/bank/${p.problemId}`
@@ -75,7 +68,7 @@ describe('archiving a bank problem', () => {
     const p = await createProblemWithVersion(db(), owner.user.id, otto)
     await db().update(problems).set({ visibility: 'installation' }).where(eq(problems.id, p.problemId))
     const other = await createBankUser(db())
-    const cookie = await cookieFor(other.user.id)
+    const cookie = await sessionCookie(other.user)
     const params = { problemId: String(p.problemId) }
     for (const form of [{ intent: 'archive' }, { intent: 'delete', confirm: 'yes' }] as Record<string, string>[]) {
       const out = await settle(problemAction(args(formRequest(`/bank/${p.problemId}`, form, { Cookie: cookie }), params)))
@@ -89,7 +82,7 @@ describe('archiving a bank problem', () => {
 describe('deleting a bank problem', () => {
   test('one no assignment uses is deleted after confirmation; without confirm=yes it stays', async () => {
     const { user } = await createBankUser(db())
-    const cookie = await cookieFor(user.id)
+    const cookie = await sessionCookie(user)
     const p = await createProblemWithVersion(db(), user.id, otto)
     const path = `/bank/${p.problemId}`
     const params = { problemId: String(p.problemId) }
@@ -108,7 +101,7 @@ describe('deleting a bank problem', () => {
     const { user } = await createBankUser(db())
     const course = await createCourse(db())
     await addMember(db(), user.id, course.id, 'instructor')
-    const cookie = await cookieFor(user.id)
+    const cookie = await sessionCookie(user)
     const p = await createProblemWithVersion(db(), user.id, otto)
     await createAssignment(db(), course.id, user.id, [p])
     const params = { problemId: String(p.problemId) }

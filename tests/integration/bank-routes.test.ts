@@ -17,16 +17,9 @@ import { formValuesFromDefinition } from '#app/lib/problem-form.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { problems, problemVersions } from '#app/server/db/schema.server.ts'
 import { createProblem, freezeProblemVersion } from '#app/server/problems.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { addMember, createBankUser, createCourse, createUser } from '#tests/support/factories.ts'
 import { args, BASE, getRequest, settle } from '#tests/support/requests.ts'
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
+import { sessionCookie } from '#tests/support/login.ts'
 
 function carnot(title = 'Carnot drill'): ProblemDefinition {
   return {
@@ -72,7 +65,7 @@ async function json(r: Response) {
 describe('POST /api/preview', () => {
   test('draws the seeded variants with prompt HTML (MathML), key and diagrams; the key is the Carnot efficiency 1 − Tc/Th', async () => {
     const { user } = await createBankUser(db())
-    const res = await json((await previewAction(args(postJson('/api/preview', { definition: carnot(), seeds: [1, 2, 3, 4] }, await cookieFor(user.id))))) as Response)
+    const res = await json((await previewAction(args(postJson('/api/preview', { definition: carnot(), seeds: [1, 2, 3, 4] }, await sessionCookie(user))))) as Response)
     expect(res.status).toBe(200)
     const body = res.body as unknown as { issues: unknown[]; variants: { ok: boolean; givens: { value: number }[]; key: { value: number }[]; promptHtml: string; diagrams: { pv: { curves: unknown[] } } }[] }
     expect(body.issues).toEqual([])
@@ -89,7 +82,7 @@ describe('POST /api/preview', () => {
   test('a half-written problem comes back as issues by field, not an error', async () => {
     const { user } = await createBankUser(db())
     const def = { ...carnot(), givens: [{ name: '1bad', label: '', unit: 'K', rule: { kind: 'range', min: 5, max: 1, step: 0 } }] }
-    const res = await json((await previewAction(args(postJson('/api/preview', { definition: def }, await cookieFor(user.id))))) as Response)
+    const res = await json((await previewAction(args(postJson('/api/preview', { definition: def }, await sessionCookie(user))))) as Response)
     expect(res.status).toBe(200)
     const issues = res.body.issues as { path: string }[]
     expect(issues.some((i) => i.path.startsWith('givens.0'))).toBe(true)
@@ -98,7 +91,7 @@ describe('POST /api/preview', () => {
 
   test('junk bodies get a JSON 400 with a message', async () => {
     const { user } = await createBankUser(db())
-    const cookie = await cookieFor(user.id)
+    const cookie = await sessionCookie(user)
     for (const body of ['{not json', JSON.stringify({ definition: carnot(), seeds: 'many' }), JSON.stringify({ definition: carnot(), seeds: [1, 2, 3, 4, 5, 6, 7] })]) {
       const res = await json((await previewAction(args(postJson('/api/preview', body, cookie)))) as Response)
       expect(res.status).toBe(400)
@@ -112,7 +105,7 @@ describe('POST /api/preview', () => {
     const student = await createUser(db())
     const course = await createCourse(db())
     await addMember(db(), student.id, course.id, 'student')
-    const r = await settle(previewAction(args(postJson('/api/preview', { definition: carnot() }, await cookieFor(student.id)))))
+    const r = await settle(previewAction(args(postJson('/api/preview', { definition: carnot() }, await sessionCookie(student)))))
     expect('thrown' in r).toBe(true)
     const res = await json((r as { thrown: Response }).thrown)
     expect(res.status).toBe(403)
@@ -127,7 +120,7 @@ describe('GET /api/problems and /api/problems/:id', () => {
     const mine = await createProblem(db(), a.viewer, { definition: carnot('Mine'), visibility: 'private' })
     const shared = await createProblem(db(), b.viewer, { definition: carnot('Shared with all'), visibility: 'installation' })
     const hidden = await createProblem(db(), b.viewer, { definition: carnot('Hidden'), visibility: 'private' })
-    const cookie = await cookieFor(a.user.id)
+    const cookie = await sessionCookie(a.user)
     const list = await json((await problemsLoader(args(getRequest('/api/problems?sort=title&dir=asc', { Cookie: cookie })))) as Response)
     expect((list.body.rows as { title: string }[]).map((r) => r.title)).toEqual(['Mine', 'Shared with all'])
     const one = await json((await problemLoader(args(getRequest(`/api/problems/${shared.problemId}`, { Cookie: cookie }), { problemId: String(shared.problemId) }))) as Response)
@@ -147,7 +140,7 @@ describe('export and import', () => {
     const a = await createBankUser(db())
     const b = await createBankUser(db())
     const hidden = await createProblem(db(), b.viewer, { definition: carnot('Hidden'), visibility: 'private' })
-    const cookie = await cookieFor(a.user.id)
+    const cookie = await sessionCookie(a.user)
     const refused = await settle(exportLoader(args(getRequest(`/bank/export?ids=${hidden.problemId}`, { Cookie: cookie }))))
     expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(404)
     const junk = await settle(exportLoader(args(getRequest('/bank/export?ids=1;drop', { Cookie: cookie }))))
@@ -161,7 +154,7 @@ describe('export and import', () => {
 
   test('an oversized file, a file that is not JSON, and no file are refused with a message and write nothing', async () => {
     const a = await createBankUser(db())
-    const cookie = await cookieFor(a.user.id)
+    const cookie = await sessionCookie(a.user)
     const before = (await db().select({ n: count() }).from(problems))[0]!.n
     const upload = (content: string | null, name = 'bank.json') => {
       const form = new FormData()
@@ -193,7 +186,7 @@ describe('the editor form', () => {
 
   test('a valid form saves version 1 and redirects to the problem; a bad one returns 400 with issues by field and saves nothing', async () => {
     const { user } = await createBankUser(db())
-    const cookie = await cookieFor(user.id)
+    const cookie = await sessionCookie(user)
     const saved = (await newAction(args(editorForm(carnot('Saved from the form'), { intent: 'save' }, cookie)))) as Response
     expect(saved.status).toBe(302)
     const id = Number(saved.headers.get('Location')!.split('/').pop())
@@ -224,12 +217,12 @@ describe('the editor form', () => {
     const path = `/bank/${made.problemId}/edit`
     const params = { problemId: String(made.problemId) }
     const changed = { ...carnot('Frozen drill'), prompt: 'Changed after the freeze: @{Th}.' }
-    const saved = (await editAction(args(editorForm(changed, { intent: 'save' }, await cookieFor(a.user.id), path), params))) as Response
+    const saved = (await editAction(args(editorForm(changed, { intent: 'save' }, await sessionCookie(a.user), path), params))) as Response
     expect(saved.status).toBe(302)
     const versions = await db().select().from(problemVersions).where(eq(problemVersions.problemId, made.problemId))
     expect(versions.map((v) => v.number).sort()).toEqual([1, 2])
     expect((versions.find((v) => v.number === 1)!.definition as ProblemDefinition).prompt).toBe(carnot().prompt)
-    const refused = await settle(editAction(args(editorForm(changed, { intent: 'save' }, await cookieFor(b.user.id), path), params)))
+    const refused = await settle(editAction(args(editorForm(changed, { intent: 'save' }, await sessionCookie(b.user), path), params)))
     expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(403)
   })
 })
@@ -238,7 +231,7 @@ describe('saving over a save made meanwhile', () => {
   test('a stale editor gets a 409 with every typed value kept; saving again replaces the newer version on purpose', async () => {
     const a = await createBankUser(db())
     const made = await createProblem(db(), a.viewer, { definition: carnot('Two tabs'), visibility: 'private' })
-    const cookie = await cookieFor(a.user.id)
+    const cookie = await sessionCookie(a.user)
     const params = { problemId: String(made.problemId) }
     const path = `/bank/${made.problemId}/edit`
     const opened = (await db().select({ at: problems.updatedAt }).from(problems).where(eq(problems.id, made.problemId)))[0]!.at.toISOString()
@@ -271,7 +264,7 @@ describe('saving over a save made meanwhile', () => {
 describe('import credit', () => {
   test('the credit a document carries is kept on the imported problem and exported again', async () => {
     const a = await createBankUser(db())
-    const cookie = await cookieFor(a.user.id)
+    const cookie = await sessionCookie(a.user)
     const doc = {
       format: 'cyclewright-bank',
       version: 1,

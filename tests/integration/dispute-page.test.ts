@@ -20,10 +20,10 @@ import { attachments, disputes } from '#app/server/db/schema.server.ts'
 import { resolveDispute } from '#app/server/disputes.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, BASE, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
 const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
@@ -32,13 +32,6 @@ const REASON = 'My net work has the right size; the sign follows the convention 
 afterAll(async () => {
   await stopBoss()
 })
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 /** A real 1×1 PNG: signature, IHDR, one IDAT, IEND, each chunk with its CRC. */
 function tinyPng(): Uint8Array<ArrayBuffer> {
@@ -87,7 +80,7 @@ async function setUp() {
   const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k]))
   const problemPath = `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/1`
   const params = { courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: '1' }
-  const cookie = await cookieFor(student.id)
+  const cookie = await sessionCookie(student)
   const submitted = (await problemAction(args(formRequest(problemPath, { 'answer.T2': `${key.T2!.value} K`, 'answer.wNet': `${-key.wNet!.value} kJ/kg` }, { Cookie: cookie }), params))) as Response
   const submissionId = Number(new URL(submitted.headers.get('Location')!, BASE).searchParams.get('receipt'))
   expect(await gradeSubmission(db(), submissionId)).toBe('graded')
@@ -102,9 +95,9 @@ async function setUp() {
     path: `${problemPath}/dispute`,
     params,
     cookie,
-    otherCookie: await cookieFor(other.id),
-    staffCookie: await cookieFor(made.instructor.id),
-    taCookie: await cookieFor(ta.id),
+    otherCookie: await sessionCookie(other),
+    staffCookie: await sessionCookie(made.instructor),
+    taCookie: await sessionCookie(ta),
   }
 }
 

@@ -18,17 +18,10 @@ import { action as disputeAction, loader as disputeLoader } from '#app/routes/co
 import { loader as queueLoader } from '#app/routes/courses/disputes/index.tsx'
 import { db } from '#app/server/db/client.server.ts'
 import { assignmentItems, attachments, auditEvents, disputes, partResults, submissions } from '#app/server/db/schema.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createAssignment, createCourse, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
+import { sessionCookie } from '#tests/support/login.ts'
 
 function status(thrown: unknown): number | undefined {
   if (thrown instanceof Response) return thrown.status
@@ -120,11 +113,11 @@ async function build() {
     parts: { p1, p2 },
     ids: { d1, d2, d4, dB },
     cookies: {
-      instructor: await cookieFor(instructor.id),
-      ta: await cookieFor(ta.id),
-      otherTa: await cookieFor(otherTa.id),
-      s1: await cookieFor(s1.id),
-      s2: await cookieFor(s2.id),
+      instructor: await sessionCookie(instructor),
+      ta: await sessionCookie(ta),
+      otherTa: await sessionCookie(otherTa),
+      s1: await sessionCookie(s1),
+      s2: await sessionCookie(s2),
     },
   }
 }

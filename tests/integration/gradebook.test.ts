@@ -20,17 +20,10 @@ import { loader as answersLoader } from '#app/routes/resources/api-find-answers.
 import { db } from '#app/server/db/client.server.ts'
 import { assignmentItems, assignments, memberships, partResults, submissions, users } from '#app/server/db/schema.server.ts'
 import type { AssignmentGradebook, AssignmentStatistics, CourseGradebook, FindAnswers } from '#app/server/gradebook.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createAssignment, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, getRequest, settle } from '#tests/support/requests.ts'
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
+import { sessionCookie } from '#tests/support/login.ts'
 
 // Version 1 of the demo Otto problem: three finds (version 2 adds a fourth).
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.earlierVersions![0]!
@@ -110,7 +103,7 @@ async function build() {
     s2,
     s3,
     s4,
-    cookies: { instructor: await cookieFor(instructor.id), ta: await cookieFor(ta.id), student: await cookieFor(s1.id), outsider: await cookieFor(outsider.id) },
+    cookies: { instructor: await sessionCookie(instructor), ta: await sessionCookie(ta), student: await sessionCookie(s1), outsider: await sessionCookie(outsider) },
   }
 }
 
@@ -277,7 +270,7 @@ describe('names and dropped students', () => {
     await db().update(memberships).set({ droppedAt: new Date('2026-11-15T10:00:00Z') }).where(and(eq(memberships.userId, e!.id), eq(memberships.courseId, made.course.id)))
     const [sub] = await db().insert(submissions).values({ assignmentId: made.assignment.id, itemId: made.items[0]!.id, userId: e!.id, answers: { T2: '1' }, status: 'graded' }).returning({ id: submissions.id })
     await db().insert(partResults).values({ submissionId: sub!.id, assignmentId: made.assignment.id, itemId: made.items[0]!.id, userId: e!.id, findName: 'T2', answer: '1', attempt: 1, verdict: 'correct', score: 2, maxScore: 2 })
-    const cookie = await cookieFor(made.instructor.id)
+    const cookie = await sessionCookie(made.instructor)
 
     const ag = await getJson<AssignmentGradebook>(assignmentGradebookLoader, `/api/assignments/${made.assignment.id}/gradebook`, { assignmentId: String(made.assignment.id) }, cookie)
     expect(ag.body.students.map((s) => [s.familyName, s.givenName, s.studentNumber])).toEqual([
@@ -395,7 +388,7 @@ describe('the staff pages', () => {
     const other = await createCourseWithAssignment(db(), [otto], { students: 1 })
     await addMember(db(), other.instructor.id, world.course.id, 'instructor')
     const params = { courseId: String(world.course.id), assignmentId: String(other.assignment.id), position: '1' }
-    const out = await settle(loader(args(getRequest(`/courses/${world.course.id}/assignments/${other.assignment.id}/problems/1/answers`, { Cookie: await cookieFor(other.instructor.id) }), params)))
+    const out = await settle(loader(args(getRequest(`/courses/${world.course.id}/assignments/${other.assignment.id}/problems/1/answers`, { Cookie: await sessionCookie(other.instructor) }), params)))
     expect('thrown' in out && (out.thrown as { init?: { status?: number } }).init?.status).toBe(404)
   })
 })

@@ -13,10 +13,10 @@ import { db } from '#app/server/db/client.server.ts'
 import { accessTokens, disputes, partResults, problemSweeps, submissions } from '#app/server/db/schema.server.ts'
 import { durationText } from '#app/server/home.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { addMember, createAssignment, createCourse, createProblemWithVersion, createUser } from '#tests/support/factories.ts'
 import { args, getRequest } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 afterAll(async () => {
   await stopBoss()
@@ -25,16 +25,9 @@ afterAll(async () => {
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
 const DAY = 86_400_000
 
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
-
 type Home = Awaited<ReturnType<typeof homeLoader>>['home']
 async function homeOf(userId: number): Promise<Home> {
-  return ((await homeLoader(args(getRequest('/', { Cookie: await cookieFor(userId) })))) as { home: Home }).home
+  return ((await homeLoader(args(getRequest('/', { Cookie: await sessionCookie({ id: userId }) })))) as { home: Home }).home
 }
 
 async function setUp() {
@@ -115,7 +108,7 @@ describe('an assignment not open yet', () => {
   test('its page and its problem pages tell the student when it opens, and nothing of its content', async () => {
     const { course, instructor, student, p } = await setUp()
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p], { title: 'Week 9', opensAt: new Date(Date.now() + 2 * DAY), dueAt: new Date(Date.now() + 9 * DAY) })
-    const cookie = await cookieFor(student.id)
+    const cookie = await sessionCookie(student)
     const params = { courseId: String(course.id), assignmentId: String(assignment.id) }
     const page = await assignmentLoader(args(getRequest(`/courses/${course.id}/assignments/${assignment.id}`, { Cookie: cookie }), params))
     expect(page).toMatchObject({ notOpen: { title: 'Week 9', message: expect.stringMatching(/^“Week 9” opens .+ Its problems appear here then\.$/) } })

@@ -11,10 +11,10 @@ import { db } from '#app/server/db/client.server.ts'
 import { assignments, auditEvents, extensions, memberships, submissions } from '#app/server/db/schema.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { releaseGrades, ReleaseRefusedError } from '#app/server/releases.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { addMember, createAssignment, createCourse, createProblemWithVersion, createUser } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 afterAll(async () => {
   await stopBoss()
@@ -22,13 +22,6 @@ afterAll(async () => {
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
 const DAY = 86_400_000
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 async function setUp(students = 3) {
   const course = await createCourse(db(), { timeZone: 'UTC' })
@@ -77,7 +70,7 @@ describe('releasing grades', () => {
     const { course, instructor, students, p } = await setUp()
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p], { opensAt: new Date(Date.now() - 9 * DAY), dueAt: new Date(Date.now() - 2 * DAY) })
     const { path, params } = page(course.id, assignment.id)
-    const out = await settle(pageAction(args(formRequest(path, { intent: 'release-grades' }, { Cookie: await cookieFor(instructor.id) }), params)))
+    const out = await settle(pageAction(args(formRequest(path, { intent: 'release-grades' }, { Cookie: await sessionCookie(instructor) }), params)))
     expect(statusOf(out)).toBe(400)
     expect(bodyOf(out)).toMatchObject({ formError: expect.stringMatching(/confirm/) })
     expect((await released(assignment.id)).grades).toBeNull()
@@ -90,7 +83,7 @@ describe('releasing grades', () => {
     await db().update(memberships).set({ droppedAt: new Date() }).where(and(eq(memberships.userId, students[2]!.id), eq(memberships.courseId, course.id)))
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p], { title: 'Week 3', opensAt: new Date(Date.now() - 9 * DAY), dueAt: new Date(Date.now() - 2 * DAY) })
     const { path, params } = page(course.id, assignment.id)
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     const before = (await pageLoader(args(getRequest(path, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof pageLoader>>
     expect(before.confirm).toBeNull()
     expect(before.releases!.grades).toEqual({ state: 'offered', early: false })
@@ -115,7 +108,7 @@ describe('releasing grades', () => {
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p], { opensAt: new Date(Date.now() - 9 * DAY), dueAt: new Date(Date.now() - DAY) })
     await db().insert(extensions).values({ assignmentId: assignment.id, userId: students[0]!.id, dueAt: new Date(Date.now() + 7 * DAY), createdBy: instructor.id })
     const { path, params } = page(course.id, assignment.id)
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     const view = (await pageLoader(args(getRequest(`${path}?confirm=release-grades`, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof pageLoader>>
     expect(view.releases!.grades).toEqual({ state: 'offered', early: true })
     expect(view.releases!.stillAnswering).toBe(1)
@@ -135,7 +128,7 @@ describe('releasing grades', () => {
     const { course, instructor, p } = await setUp(1)
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p], { keyRelease: 'manual', opensAt: new Date(Date.now() + DAY), dueAt: new Date(Date.now() + 7 * DAY) })
     const { path, params } = page(course.id, assignment.id)
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     const view = (await pageLoader(args(getRequest(path, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof pageLoader>>
     expect(view.releases!.grades.state).toBe('not-yet')
     expect(view.releases!.key.state).toBe('not-yet')
@@ -159,7 +152,7 @@ describe('releasing the key by hand', () => {
       dueAt: new Date(Date.now() - DAY),
     })
     const { path, params } = page(course.id, assignment.id)
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     // Due yesterday with two late days: still open for a day.
     let view = (await pageLoader(args(getRequest(`${path}?confirm=release-key`, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof pageLoader>>
     expect(view.releases!.key).toMatchObject({ state: 'not-yet', reason: expect.stringMatching(/once every student’s window has closed, after /) })
@@ -192,7 +185,7 @@ describe('deleting an assignment', () => {
     const { course, instructor, p } = await setUp(1)
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p], { title: 'Spare week' })
     const { path, params } = page(course.id, assignment.id)
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     const view = (await pageLoader(args(getRequest(`${path}?confirm=delete`, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof pageLoader>>
     expect(view.deletion).toMatchObject({ title: 'Spare week', items: 1, answered: false })
     const refused = await settle(pageAction(args(formRequest(path, { intent: 'delete' }, { Cookie: cookie }), params)))
@@ -210,7 +203,7 @@ describe('deleting an assignment', () => {
     const { assignment, items } = await createAssignment(db(), course.id, instructor.id, [p])
     await db().insert(submissions).values({ assignmentId: assignment.id, itemId: items[0]!.id, userId: students[0]!.id, answers: { T2: '300 K' } })
     const { path, params } = page(course.id, assignment.id)
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     const view = (await pageLoader(args(getRequest(path, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof pageLoader>>
     expect(view.deletion!.answered).toBe(true)
     const out = await settle(pageAction(args(formRequest(path, { intent: 'delete', confirm: 'yes' }, { Cookie: cookie }), params)))

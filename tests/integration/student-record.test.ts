@@ -20,11 +20,11 @@ import { assignments, users } from '#app/server/db/schema.server.ts'
 import { raiseDispute } from '#app/server/disputes.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { submitAnswers } from '#app/server/submissions.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, getRequest, settle } from '#tests/support/requests.ts'
+import { loginAs } from '#tests/support/login.ts'
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
 const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
@@ -33,13 +33,6 @@ const ZONE = 'America/Chicago'
 afterAll(async () => {
   await stopBoss()
 })
-
-async function cookieFor(userId: number): Promise<Record<string, string>> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return { Cookie: (await sessionStorage().commitSession(session)).split(';')[0]! }
-}
 
 function statusOf(thrown: unknown): number {
   return thrown instanceof Response ? thrown.status : (thrown as { init: { status: number } }).init.status
@@ -91,7 +84,7 @@ async function renderPage(s: Setup, headers: Record<string, string>): Promise<st
 describe('a student’s page', () => {
   test('shows who they are, their variant with its givens and key, every answer, the extension and the dispute', async () => {
     const s = await setUp()
-    const { record } = await loader(args(getRequest(pathOf(s), await cookieFor(s.instructor.id)), s.params))
+    const { record } = await loader(args(getRequest(pathOf(s), await loginAs(s.instructor)), s.params))
 
     expect(record.student).toMatchObject({ id: s.student.id, name: s.student.name, email: s.student.email, studentNumber: `S${s.student.id}77`, familyName: 'Okafor', givenName: 'Ada', section: 'A', droppedAt: null })
     expect(record.course.timeZone).toBe(ZONE)
@@ -124,7 +117,7 @@ describe('a student’s page', () => {
 
   test('the page’s HTML: givens and key with units, answers with verdicts, the dispute linked, times in the course zone, empty states', async () => {
     const s = await setUp()
-    const html = await renderPage(s, await cookieFor(s.ta.id))
+    const html = await renderPage(s, await loginAs(s.ta))
     expect(html).toContain(`S${s.student.id}77`)
     expect(html).toContain('Givens of this student’s variant')
     expect(html).toContain('Key of this student’s variant')
@@ -145,7 +138,7 @@ describe('a student’s page', () => {
 
   test('a student with nothing yet: no answers, no extension, no disputes', async () => {
     const s = await setUp()
-    const { record } = await loader(args(getRequest(pathOf(s, s.classmate.id), await cookieFor(s.instructor.id)), { ...s.params, userId: String(s.classmate.id) }))
+    const { record } = await loader(args(getRequest(pathOf(s, s.classmate.id), await loginAs(s.instructor)), { ...s.params, userId: String(s.classmate.id) }))
     expect(record.student.section).toBe('B')
     expect(record.assignments[0]!.answered).toBe(0)
     expect(record.assignments[0]!.extension).toBeNull()
@@ -156,16 +149,16 @@ describe('a student’s page', () => {
   test('refused to the student, a classmate and another course’s instructor; a 404 for anyone who is not a student of the course', async () => {
     const s = await setUp()
     for (const who of [s.student, s.classmate, s.other.instructor, s.other.students[0]!]) {
-      const r = await settle(loader(args(getRequest(pathOf(s), await cookieFor(who.id)), s.params)))
+      const r = await settle(loader(args(getRequest(pathOf(s), await loginAs(who)), s.params)))
       expect('thrown' in r && statusOf(r.thrown)).toBe(403)
     }
-    const staff = await cookieFor(s.instructor.id)
+    const staff = await loginAs(s.instructor)
     for (const userId of [s.stranger.id, s.other.students[0]!.id, s.instructor.id, s.ta.id, 999_999_999]) {
       const r = await settle(loader(args(getRequest(pathOf(s, userId), staff), { ...s.params, userId: String(userId) })))
       expect('thrown' in r && statusOf(r.thrown)).toBe(404)
     }
     // Another course's instructor asking in their own course for this student: not theirs.
-    const r = await settle(loader(args(getRequest(pathOf(s, s.student.id, s.other.course.id), await cookieFor(s.other.instructor.id)), { courseId: String(s.other.course.id), userId: String(s.student.id) })))
+    const r = await settle(loader(args(getRequest(pathOf(s, s.student.id, s.other.course.id), await loginAs(s.other.instructor)), { courseId: String(s.other.course.id), userId: String(s.student.id) })))
     expect('thrown' in r && statusOf(r.thrown)).toBe(404)
     const bad = await settle(loader(args(getRequest(`/courses/${s.course.id}/students/abc`, staff), { ...s.params, userId: 'abc' })))
     expect('thrown' in bad && statusOf(bad.thrown)).toBe(404)
