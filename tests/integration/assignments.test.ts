@@ -21,11 +21,11 @@ import { db } from '#app/server/db/client.server.ts'
 import { releaseGrades } from '#app/server/releases.server.ts'
 import { assignmentItems, assignments, auditEvents, extensions, problemVersions, submissions } from '#app/server/db/schema.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { loadSignedInUser } from '#app/server/users.server.ts'
 import { addMember, createAssignment, createCourse, createProblemWithVersion, createUser } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 afterAll(async () => {
   await stopBoss()
@@ -33,13 +33,6 @@ afterAll(async () => {
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
 const diesel = DEMO_PROBLEMS.find((p) => p.definition.title.startsWith('Air-standard Diesel'))!.definition
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 /** A course (in `timeZone`) with an instructor, a TA and `students` students. */
 async function setUp(options: { timeZone?: string; students?: number } = {}) {
@@ -88,7 +81,7 @@ describe('creating an assignment', () => {
     const { course, instructor } = await setUp()
     const a = await createProblemWithVersion(db(), instructor.id, otto, { frozen: false })
     const b = await createProblemWithVersion(db(), instructor.id, diesel, { frozen: false })
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     const path = `/courses/${course.id}/assignments/new`
     const res = (await newAction(
       args(
@@ -115,7 +108,7 @@ describe('creating an assignment', () => {
     const res = (await newAction(
       args(
         formRequest(`/courses/${course.id}/assignments/new`, settingsFields({ dueAt: '2027-01-15T23:59', 'items.0.versionId': String(a.versionId), 'items.0.points': '10' }), {
-          Cookie: await cookieFor(instructor.id),
+          Cookie: await sessionCookie(instructor),
         }),
         { courseId: String(course.id) },
       ),
@@ -141,7 +134,7 @@ describe('creating an assignment', () => {
       'items.2.versionId': String(hidden.versionId),
       'items.2.points': '10',
     })
-    const result = (await newAction(args(formRequest(`/courses/${course.id}/assignments/new`, fields, { Cookie: await cookieFor(instructor.id) }), { courseId: String(course.id) }))) as unknown as {
+    const result = (await newAction(args(formRequest(`/courses/${course.id}/assignments/new`, fields, { Cookie: await sessionCookie(instructor) }), { courseId: String(course.id) }))) as unknown as {
       data: { fieldErrors: Record<string, string>; formError: string; state: { values: Record<string, string>; items: { versionId: string }[] } }
       init: { status: number }
     }
@@ -169,7 +162,7 @@ describe('creating an assignment', () => {
       'items.0.versionId': String(mine.versionId),
       'items.0.points': '-1',
     })
-    const result = (await newAction(args(formRequest(`/courses/${course.id}/assignments/new`, fields, { Cookie: await cookieFor(instructor.id) }), { courseId: String(course.id) }))) as unknown as {
+    const result = (await newAction(args(formRequest(`/courses/${course.id}/assignments/new`, fields, { Cookie: await sessionCookie(instructor) }), { courseId: String(course.id) }))) as unknown as {
       data: { fieldErrors: Record<string, string> }
       init: { status: number }
     }
@@ -180,7 +173,7 @@ describe('creating an assignment', () => {
 
   test('the add and remove buttons change the rows and keep what was typed, without saving', async () => {
     const { course, instructor } = await setUp()
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     const path = `/courses/${course.id}/assignments/new`
     const added = (await newAction(args(formRequest(path, settingsFields({ intent: 'add-item', 'items.0.versionId': '5', 'items.0.points': '7' }), { Cookie: cookie }), { courseId: String(course.id) }))) as unknown as {
       data: { state: { values: { title: string }; items: { versionId: string; points: string }[] } }
@@ -342,9 +335,9 @@ describe('releasing grades', () => {
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p])
     const path = `/courses/${course.id}/assignments/${assignment.id}`
     const params = { courseId: String(course.id), assignmentId: String(assignment.id) }
-    const refused = await settle(overviewAction(args(formRequest(path, { intent: 'release-grades' }, { Cookie: await cookieFor(ta.id) }), params)))
+    const refused = await settle(overviewAction(args(formRequest(path, { intent: 'release-grades' }, { Cookie: await sessionCookie(ta) }), params)))
     expect('thrown' in refused && status(refused.thrown)).toBe(403)
-    const done = (await overviewAction(args(formRequest(path, { intent: 'release-grades', confirm: 'yes', early: 'yes' }, { Cookie: await cookieFor(instructor.id) }), params))) as Response
+    const done = (await overviewAction(args(formRequest(path, { intent: 'release-grades', confirm: 'yes', early: 'yes' }, { Cookie: await sessionCookie(instructor) }), params))) as Response
     expect(done.status).toBe(302)
     const [row] = await db().select({ at: assignments.gradesReleasedAt }).from(assignments).where(eq(assignments.id, assignment.id))
     expect(row!.at).not.toBeNull()
@@ -377,7 +370,7 @@ describe('who sees and changes what', () => {
     expect(studentList.map((a) => a.title)).toEqual(['Open now'])
     const staffList = await listAssignmentsForCourse(db(), { courseId: course.id, role: 'instructor', userId: instructor.id })
     expect(staffList.map((a) => a.title).sort()).toEqual(['Open now', 'Opens later'])
-    const cookie = await cookieFor(students[0]!.id)
+    const cookie = await sessionCookie(students[0]!)
     const hidden = await settle(
       overviewLoader(args(getRequest(`/courses/${course.id}/assignments/${later.assignment.id}`, { Cookie: cookie }), { courseId: String(course.id), assignmentId: String(later.assignment.id) })),
     )
@@ -396,7 +389,7 @@ describe('who sees and changes what', () => {
     const { course, instructor, students } = await setUp()
     const p = await createProblemWithVersion(db(), instructor.id, otto)
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p])
-    const cookie = await cookieFor(students[0]!.id)
+    const cookie = await sessionCookie(students[0]!)
     const params = { courseId: String(course.id), assignmentId: String(assignment.id) }
     const base = `/courses/${course.id}/assignments`
     const fields = settingsFields({ 'items.0.versionId': String(p.versionId), 'items.0.points': '10' })
@@ -421,7 +414,7 @@ describe('who sees and changes what', () => {
     const { assignment } = await createAssignment(db(), course.id, instructor.id, [p], { title: 'Untouched' })
     const params = { courseId: String(course.id), assignmentId: String(assignment.id) }
     const fields = settingsFields({ title: 'Changed by TA', 'items.0.versionId': String(p.versionId), 'items.0.points': '10' })
-    const r = await settle(editAction(args(formRequest(`/courses/${course.id}/assignments/${assignment.id}/edit`, fields, { Cookie: await cookieFor(ta.id) }), params)))
+    const r = await settle(editAction(args(formRequest(`/courses/${course.id}/assignments/${assignment.id}/edit`, fields, { Cookie: await sessionCookie(ta) }), params)))
     expect('thrown' in r && status(r.thrown)).toBe(403)
     const taUser = (await loadSignedInUser(db(), ta.id))!
     await expect(

@@ -33,10 +33,10 @@ import { disputes, extensions, problems } from '#app/server/db/schema.server.ts'
 import { raiseDispute } from '#app/server/disputes.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createBankUser, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, BASE, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 const NUL = '\u0000'
 const HUGE_PAGES = ['99999999999999999999', '1e308', '-1', '0', '2.5', '100001', `3${NUL}`]
@@ -47,13 +47,6 @@ const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
 afterAll(async () => {
   await stopBoss()
 })
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 type Outcome = { status: number; body: unknown; thrown: boolean }
 
@@ -101,7 +94,7 @@ async function makeWorld() {
   const assignmentId = made.assignment.id
   const problemPath = `/courses/${courseId}/assignments/${assignmentId}/problems/1`
   const problemParams = { courseId: String(courseId), assignmentId: String(assignmentId), position: '1' }
-  const studentCookie = await cookieFor(student.id)
+  const studentCookie = await sessionCookie(student)
   // Two graded answers: wNet wrong (disputed below, through the page), T2 wrong (disputed here, for the staff's page).
   const submitted = (await problemAction(
     args(formRequest(problemPath, { 'answer.T2': `${key.T2!.value * 2} K`, 'answer.wNet': `${-key.wNet!.value} kJ/kg` }, { Cookie: studentCookie }), problemParams),
@@ -125,10 +118,10 @@ async function makeWorld() {
     disputeId: open!.id,
     cookies: {
       student: studentCookie,
-      instructor: await cookieFor(made.instructor.id),
-      ta: await cookieFor(ta.id),
-      admin: await cookieFor(admin.id),
-      bank: await cookieFor(bank.user.id),
+      instructor: await sessionCookie(made.instructor),
+      ta: await sessionCookie(ta),
+      admin: await sessionCookie(admin),
+      bank: await sessionCookie(bank.user),
     },
     bankUserId: bank.user.id,
   }

@@ -30,12 +30,12 @@ import {
 } from '#app/server/db/schema.server.ts'
 import { findLastMailTo, linksIn } from '#app/server/outbox.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { toLocalDateTimeValue, parseLocalDateTime } from '#app/lib/dates.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import { addMember, createAssignment, createCourse, createDepartment, createProblemWithVersion, createTerm, createUser } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 let worker: RunningWorker
 beforeAll(async () => {
@@ -48,13 +48,6 @@ afterAll(async () => {
 
 const followsCourse = DEMO_PROBLEMS.find((p) => p.definition.convention === 'course')!.definition
 const fixedChemistry = DEMO_PROBLEMS.find((p) => p.definition.convention === 'chemistry')!.definition
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 type Answer = {
   data: { fieldErrors: Record<string, string | undefined>; values: Record<string, string>; done?: { outcome: string } | null }
@@ -80,7 +73,7 @@ async function anAdmin(options: { timeZone?: string } = {}) {
   const department = await createDepartment(db())
   if (options.timeZone) await db().update(departments).set({ timeZone: options.timeZone }).where(eq(departments.id, department.id))
   const admin = await createUser(db(), { name: 'Ada Admin', isAdmin: true, departmentId: department.id })
-  return { department, admin, cookie: await cookieFor(admin.id) }
+  return { department, admin, cookie: await sessionCookie(admin) }
 }
 
 async function countOf(table: typeof terms | typeof courses, departmentId: number) {
@@ -136,7 +129,7 @@ describe('terms (admin)', () => {
     const course = await createCourse(db())
     const instructor = await createUser(db(), { departmentId: course.departmentId })
     await addMember(db(), instructor.id, course.id, 'instructor')
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     expect(statusOf(await settle(termsLoader(args(getRequest('/admin/terms', { Cookie: cookie })))))).toBe(403)
     expect(
       statusOf(await settle(termsAction(args(formRequest('/admin/terms', { name: 'X term', startsOn: '2027-01-01', endsOn: '2027-02-01' }, { Cookie: cookie }))))),
@@ -144,7 +137,7 @@ describe('terms (admin)', () => {
     expect(await countOf(terms, course.departmentId)).toBe(1)
 
     const homeless = await createUser(db(), { isAdmin: true, departmentId: null })
-    const hc = await cookieFor(homeless.id)
+    const hc = await sessionCookie(homeless)
     const page = await termsLoader(args(getRequest('/admin/terms', { Cookie: hc })))
     expect(page.department).toBeNull()
     expect(statusOf(await settle(termsAction(args(formRequest('/admin/terms', { name: 'X term', startsOn: '2027-01-01', endsOn: '2027-02-01' }, { Cookie: hc })))))).toBe(
@@ -232,7 +225,7 @@ describe('courses (admin)', () => {
     const course = await createCourse(db())
     const instructor = await createUser(db(), { departmentId: course.departmentId })
     await addMember(db(), instructor.id, course.id, 'instructor')
-    const cookie = await cookieFor(instructor.id)
+    const cookie = await sessionCookie(instructor)
     expect(statusOf(await settle(newCourseLoader(args(getRequest('/admin/courses/new', { Cookie: cookie })))))).toBe(403)
     expect(statusOf(await settle(newCourseAction(args(formRequest('/admin/courses/new', courseFields(course.termId, { code: 'NEW 1' }), { Cookie: cookie })))))).toBe(403)
     expect(statusOf(await settle(courseAdminLoader(args(getRequest(`/admin/courses/${course.id}`, { Cookie: cookie }), { courseId: String(course.id) }))))).toBe(403)
@@ -411,7 +404,7 @@ async function coursesIn(termId: number) {
 describe('copying a course to another term (instructors)', () => {
   test('the copy: same settings and problem versions, dates moved by the terms’ difference on the Oslo clock, instructors only, nothing released', async () => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const page = await settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), { courseId: String(s.course.id) }))
     expect(page.copyTerms.find((t) => t.id === s.winter.id)).toMatchObject({ defaultOffsetDays: 119, current: false })
     expect(page.copyTerms.find((t) => t.id === s.autumn.id)).toMatchObject({ defaultOffsetDays: 0, current: true })
@@ -505,7 +498,7 @@ describe('copying a course to another term (instructors)', () => {
 
   test('a chosen offset moves the dates by that many days instead; a copy in the same term needs a new code', async () => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const post = (fields: Record<string, string>) =>
       settingsAction(args(formRequest(`/courses/${s.course.id}/settings`, { intent: 'copy', ...fields }, { Cookie: cookie }), { courseId: String(s.course.id) }))
     const sameTerm = (await post({ termId: String(s.autumn.id), code: 'ENTH 150', title: 'Heat engines', offsetDays: '7' })) as unknown as Answer
@@ -527,7 +520,7 @@ describe('copying a course to another term (instructors)', () => {
     [{ title: '' }, { title: 'Enter the course title.' }],
   ])('bad copy input %j gets field errors and writes nothing', async (overrides, errors) => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const fields = { intent: 'copy', termId: String(s.winter.id), code: 'ENTH 150', title: 'Heat engines', offsetDays: '', ...overrides }
     const out = (await settingsAction(
       args(formRequest(`/courses/${s.course.id}/settings`, fields, { Cookie: cookie }), { courseId: String(s.course.id) }),
@@ -539,7 +532,7 @@ describe('copying a course to another term (instructors)', () => {
 
   test('another department’s term and a code already in the target term are refused, writing nothing', async () => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const elsewhere = await createCourse(db())
     const foreign = (await settingsAction(
       args(
@@ -579,7 +572,7 @@ describe('copying a course to another term (instructors)', () => {
 
   test('two copies sent at once with the same code: one is made, the other gets the field error', async () => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const send = () =>
       settingsAction(
         args(
@@ -603,7 +596,7 @@ describe('copying a course to another term (instructors)', () => {
     const admin = await createUser(db(), { isAdmin: true, departmentId: s.department.id })
     const stranger = await createUser(db())
     for (const who of [s.ta, s.student, admin, stranger]) {
-      const cookie = await cookieFor(who.id)
+      const cookie = await sessionCookie(who)
       const params = { courseId: String(s.course.id) }
       expect(statusOf(await settle(settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), params))))).toBe(403)
       const copy = await settle(
@@ -642,7 +635,7 @@ describe('course settings (instructors)', () => {
 
   test('an instructor renames the course and moves it to another zone; an audit row records what changed', async () => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const out = await settingsAction(
       args(
         formRequest(`/courses/${s.course.id}/settings`, settings({ title: 'Heat engines and refrigerators', code: 'ENTH 151', timeZone: 'america/chicago' }), {
@@ -675,7 +668,7 @@ describe('course settings (instructors)', () => {
     [{ signConvention: '' }, { signConvention: 'Choose a sign convention.' }],
   ])('bad settings %j get field errors and change nothing', async (overrides, errors) => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const out = (await settingsAction(
       args(formRequest(`/courses/${s.course.id}/settings`, settings({ title: 'Renamed', ...overrides }), { Cookie: cookie }), { courseId: String(s.course.id) }),
     )) as unknown as Answer
@@ -693,7 +686,7 @@ describe('course settings (instructors)', () => {
   test('a code another course of the term has is refused', async () => {
     const s = await courseToCopy()
     await createCourse(db(), { departmentId: s.department.id, termId: s.autumn.id, code: 'ENTH 160' })
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const out = (await settingsAction(
       args(formRequest(`/courses/${s.course.id}/settings`, settings({ code: 'ENTH 160' }), { Cookie: cookie }), { courseId: String(s.course.id) }),
     )) as unknown as Answer
@@ -703,7 +696,7 @@ describe('course settings (instructors)', () => {
 
   test('before anyone has answered, the convention changes without a confirmation', async () => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const page = await settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), { courseId: String(s.course.id) }))
     expect(page.impact).toEqual({ answers: 0, students: 0, followingProblems: 1, fixedProblems: 1 })
     redirectOf(
@@ -720,7 +713,7 @@ describe('course settings (instructors)', () => {
     await db()
       .insert(submissions)
       .values({ assignmentId: s.assignment.id, itemId: s.items[0]!.id, userId: s.student.id, answers: { wNet: '120 kJ/kg' } })
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const params = { courseId: String(s.course.id) }
     const page = await settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), params))
     expect(page.impact).toMatchObject({ answers: 1, students: 1, followingProblems: 1 })
@@ -755,7 +748,7 @@ describe('course settings (instructors)', () => {
 
   test('an unknown intent is a 400 page, not a server error', async () => {
     const s = await courseToCopy()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const out = await settle(
       settingsAction(args(formRequest(`/courses/${s.course.id}/settings`, { intent: 'delete' }, { Cookie: cookie }), { courseId: String(s.course.id) })),
     )

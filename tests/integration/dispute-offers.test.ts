@@ -15,11 +15,11 @@ import { raiseDispute, resolveDispute } from '#app/server/disputes.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
 import { DROPPED_SUBMIT_MESSAGE } from '#app/server/membership-state.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { submitAnswers } from '#app/server/submissions.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createCourseWithAssignment, createUser, type AssignmentOverrides } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 afterAll(async () => {
   await stopBoss()
@@ -28,13 +28,6 @@ afterAll(async () => {
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
 const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
 const DAY = 86_400_000
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 async function setUp(assignment: AssignmentOverrides = {}) {
   const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2, assignment })
@@ -55,7 +48,7 @@ async function setUp(assignment: AssignmentOverrides = {}) {
   }
   const path = `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/1`
   const params = { courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: '1' }
-  const cookie = await cookieFor(me.id)
+  const cookie = await sessionCookie(me)
   const offers = async () => ((await problemLoader(args(getRequest(path, { Cookie: cookie }), params))) as Extract<Awaited<ReturnType<typeof problemLoader>>, { notOpen: null }>).offers
   const raise = (findName: string) => raiseDispute(db(), { ...ref, findName, reason: 'I think the verdict on this answer is wrong.' })
   return { ...made, ta, me, keyOf, ref, answer, path, params, cookie, offers, raise }

@@ -22,21 +22,14 @@ import { assignmentItems, gradeExports, memberships, partResults, submissions, u
 import { releaseGrades } from '#app/server/releases.server.ts'
 import { buildTermExport, readStoredExport, requestTermExport, TERM_ASSIGNMENTS_HEADER, TERM_TOTALS_HEADER, XLSX_CONTENT_TYPE } from '#app/server/exports.server.ts'
 import { findLastMailTo } from '#app/server/outbox.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { enqueue, stopBoss } from '#app/server/queue.server.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createAssignment, createCourse, createDepartment, createProblemWithVersion, createTerm, createUser } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 function thrownStatus(r: { thrown: unknown } | { value: unknown }): number | undefined {
   if (!('thrown' in r)) return undefined
@@ -121,11 +114,11 @@ async function courseWithGrades(options: { departmentId?: number; termId?: numbe
 }
 
 async function courseCsv(courseId: number, userId: number) {
-  return settle(courseCsvLoader(args(getRequest(`/courses/${courseId}/gradebook.csv`, { Cookie: await cookieFor(userId) }), { courseId: String(courseId) })))
+  return settle(courseCsvLoader(args(getRequest(`/courses/${courseId}/gradebook.csv`, { Cookie: await sessionCookie({ id: userId }) }), { courseId: String(courseId) })))
 }
 
 async function courseXlsx(courseId: number, userId: number) {
-  return settle(courseXlsxLoader(args(getRequest(`/courses/${courseId}/gradebook.xlsx`, { Cookie: await cookieFor(userId) }), { courseId: String(courseId) })))
+  return settle(courseXlsxLoader(args(getRequest(`/courses/${courseId}/gradebook.xlsx`, { Cookie: await sessionCookie({ id: userId }) }), { courseId: String(courseId) })))
 }
 
 /** The rows of the workbook's Grades sheet as plain values, and the sheet itself. */
@@ -194,7 +187,7 @@ describe('course gradebook CSV and XLSX', () => {
     expect(text).not.toContain(dan!.email)
 
     // The page shows the same figures, says which assignments count, and lists the dropped student apart.
-    const page = await gradebookPageLoader(args(getRequest(`/courses/${c.course.id}/gradebook`, { Cookie: await cookieFor(c.instructor.id) }), { courseId: String(c.course.id) }))
+    const page = await gradebookPageLoader(args(getRequest(`/courses/${c.course.id}/gradebook`, { Cookie: await sessionCookie(c.instructor) }), { courseId: String(c.course.id) }))
     const g = page.gradebook
     expect(g.rule).toMatch(/^Totals count only assignments whose due date has passed, as of .+\. 2 of 3 assignments are past their due date and counted \(30 points\); the others are shown but not counted/)
     expect(g.assignments.map((a) => [a.title, a.counted, a.stage])).toEqual([
@@ -341,7 +334,7 @@ describe('through the worker', () => {
     await courseWithGrades({ departmentId: other.id, termId: term.id, code: 'XX 999', students: [{ name: 'Elsewhere', section: 'A' }] })
     const admin = await createUser(db(), { isAdmin: true, departmentId: department.id })
 
-    const posted = await exportsAction(args(formRequest('/admin/exports', { termId: String(term.id) }, { Cookie: await cookieFor(admin.id) })))
+    const posted = await exportsAction(args(formRequest('/admin/exports', { termId: String(term.id) }, { Cookie: await sessionCookie(admin) })))
     expect((posted as Response).status).toBe(302)
     const [made] = await db().select().from(gradeExports).where(eq(gradeExports.requestedBy, admin.id))
     expect((posted as Response).headers.get('Location')).toBe(`/admin/exports?requested=${made!.id}`)
@@ -351,7 +344,7 @@ describe('through the worker', () => {
     // 2 students × 3 assignments, and 2 course totals; the dropped student is in neither file.
     expect(row).toMatchObject({ status: 'done', rows: 8, error: null })
 
-    const admins = { Cookie: await cookieFor((await createUser(db(), { isAdmin: true })).id) }
+    const admins = { Cookie: await sessionCookie(await createUser(db(), { isAdmin: true })) }
     const download = async (query: string) =>
       settle(downloadLoader(args(getRequest(`/admin/exports/${made!.id}${query}`, admins), { exportId: String(made!.id) })))
     const file = async (query: string) => {
@@ -396,7 +389,7 @@ describe('through the worker', () => {
     expect(thrownStatus(await download('?file=everything'))).toBe(404)
 
     // The page lists it as done with a link to each file.
-    const page = await exportsLoader(args(getRequest('/admin/exports', { Cookie: await cookieFor(admin.id) })))
+    const page = await exportsLoader(args(getRequest('/admin/exports', { Cookie: await sessionCookie(admin) })))
     expect(page.exports).toEqual([expect.objectContaining({ id: made!.id, status: 'done', rows: 8, termName: 'Fall 2026' })])
     expect(page.exports[0]!.files.map((f) => [f.name, f.href])).toEqual([
       [`${made!.fileName}-course-totals.csv`, `/admin/exports/${made!.id}?file=course-totals`],
@@ -413,7 +406,7 @@ describe('through the worker', () => {
     const admin = await createUser(db(), { isAdmin: true, departmentId: department.id })
     const csv = '\uFEFF"Course code","Row"\r\n"TH 1","course total"\r\n'
     const [old] = await db().insert(gradeExports).values({ requestedBy: admin.id, termId: term.id, status: 'done', rows: 1, fileName: 'grades-old-2026-11-01.csv', csv }).returning()
-    const cookie = { Cookie: await cookieFor(admin.id) }
+    const cookie = { Cookie: await sessionCookie(admin) }
     const r = (await downloadLoader(args(getRequest(`/admin/exports/${old!.id}`, cookie), { exportId: String(old!.id) }))) as Response
     expect(r.headers.get('Content-Disposition')).toBe('attachment; filename="grades-old-2026-11-01.csv"')
     expect(Buffer.from(await r.arrayBuffer()).equals(Buffer.from(csv, 'utf8'))).toBe(true)
@@ -468,7 +461,7 @@ describe('through the worker', () => {
     const theirs = await createDepartment(db())
     const theirTerm = await createTerm(db(), theirs.id)
     const admin = await createUser(db(), { isAdmin: true, departmentId: mine.id })
-    const cookie = await cookieFor(admin.id)
+    const cookie = await sessionCookie(admin)
 
     const refused = (await exportsAction(args(formRequest('/admin/exports', { termId: String(theirTerm.id) }, { Cookie: cookie })))) as unknown as {
       data: { fieldErrors: { termId?: string }; values: { termId: string } }
@@ -484,15 +477,15 @@ describe('through the worker', () => {
     expect((await exportsLoader(args(getRequest('/admin/exports', { Cookie: cookie })))).terms.map((t) => t.id)).not.toContain(theirTerm.id)
 
     const teacher = await createUser(db())
-    expect(thrownStatus(await settle(exportsLoader(args(getRequest('/admin/exports', { Cookie: await cookieFor(teacher.id) })))))).toBe(403)
-    expect(thrownStatus(await settle(exportsAction(args(formRequest('/admin/exports', { termId: String(theirTerm.id) }, { Cookie: await cookieFor(teacher.id) })))))).toBe(403)
+    expect(thrownStatus(await settle(exportsLoader(args(getRequest('/admin/exports', { Cookie: await sessionCookie(teacher) })))))).toBe(403)
+    expect(thrownStatus(await settle(exportsAction(args(formRequest('/admin/exports', { termId: String(theirTerm.id) }, { Cookie: await sessionCookie(teacher) })))))).toBe(403)
 
     // Not yet built (inserted without a job): not downloadable; nor is a number that does not exist.
     const [queued] = await db().insert(gradeExports).values({ requestedBy: admin.id, termId: theirTerm.id, fileName: 'grades-x.csv' }).returning()
     expect(thrownStatus(await settle(downloadLoader(args(getRequest(`/admin/exports/${queued!.id}`, { Cookie: cookie }), { exportId: String(queued!.id) }))))).toBe(404)
     expect(thrownStatus(await settle(downloadLoader(args(getRequest('/admin/exports/999999', { Cookie: cookie }), { exportId: '999999' }))))).toBe(404)
     expect(
-      thrownStatus(await settle(downloadLoader(args(getRequest(`/admin/exports/${queued!.id}`, { Cookie: await cookieFor(teacher.id) }), { exportId: String(queued!.id) })))),
+      thrownStatus(await settle(downloadLoader(args(getRequest(`/admin/exports/${queued!.id}`, { Cookie: await sessionCookie(teacher) }), { exportId: String(queued!.id) })))),
     ).toBe(403)
   })
 

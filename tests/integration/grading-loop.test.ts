@@ -9,7 +9,6 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import { loader as gradebookLoader } from '#app/routes/resources/api-assignment-gradebook.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { getAssignmentStatistics, type AssignmentGradebook } from '#app/server/gradebook.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { args, getRequest } from '#tests/support/requests.ts'
 import { extensions, partResults, submissions } from '#app/server/db/schema.server.ts'
 import { gradeSubmission, gradeSubmissions, listAssignmentTotals, listFindScores, studentVariant } from '#app/server/grading.server.ts'
@@ -20,6 +19,7 @@ import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { createCourseWithAssignment } from '#tests/support/factories.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
 const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
@@ -194,16 +194,10 @@ describe('submit, grade, read back', () => {
 })
 
 describe('the gradebook follows the worker', () => {
-  async function cookieFor(userId: number): Promise<string> {
-    const row = await createSessionRow(db(), userId)
-    const session = await sessionStorage().getSession()
-    session.set('sid', row.id)
-    return (await sessionStorage().commitSession(session)).split(';')[0]!
-  }
 
   test('submit → graded by the worker → the staff gradebook JSON shows the score', async () => {
     const s = await setUp()
-    const cookie = await cookieFor(s.instructor.id)
+    const cookie = await sessionCookie(s.instructor)
     const read = async () => {
       const res = await gradebookLoader(args(getRequest(`/api/assignments/${s.assignment.id}/gradebook?expand=1`, { Cookie: cookie }), { assignmentId: String(s.assignment.id) }))
       expect(res.status).toBe(200)

@@ -17,11 +17,11 @@ import { db } from '#app/server/db/client.server.ts'
 import { assignments, partResults, submissions } from '#app/server/db/schema.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import type { MyResults } from '#app/server/submissions.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createCourse, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
 const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
@@ -30,13 +30,6 @@ const day = 24 * 3600_000
 afterAll(async () => {
   await stopBoss()
 })
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 async function setUp(options: Parameters<typeof createCourseWithAssignment>[2] = {}) {
   const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2, ...options })
@@ -56,7 +49,7 @@ async function setUp(options: Parameters<typeof createCourseWithAssignment>[2] =
   const params = { courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: '1' }
   const mineParams = { assignmentId: String(made.assignment.id), position: '1' }
   const minePath = `/api/assignments/${made.assignment.id}/problems/1/mine`
-  return { ...made, student, item, key, path, params, mineParams, minePath, cookie: await cookieFor(student.id) }
+  return { ...made, student, item, key, path, params, mineParams, minePath, cookie: await sessionCookie(student) }
 }
 
 type Setup = Awaited<ReturnType<typeof setUp>>
@@ -201,7 +194,7 @@ describe('submitting from the problem page', () => {
 
   test('staff cannot submit (403) and nothing is stored; their page is a preview of their own variant with the key', async () => {
     const s = await setUp()
-    const staffCookie = await cookieFor(s.instructor.id)
+    const staffCookie = await sessionCookie(s.instructor)
     const refused = await settle(post(s, { 'answer.T2': '500 K' }, staffCookie))
     expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(403)
     expect(await storedSubmissions(s.assignment.id)).toHaveLength(0)
@@ -216,7 +209,7 @@ describe('submitting from the problem page', () => {
     const student = await settle(loader(args(getRequest(s.path, { Cookie: s.cookie }), s.params)))
     expect('value' in student && Object.keys(student.value as object)).toEqual(['notOpen'])
     expect('value' in student && (student.value as { notOpen: { message: string } }).notOpen.message).toMatch(/ opens .+ Its problems appear here then\.$/)
-    const staff = (await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))) as ProblemPageData
+    const staff = (await loader(args(getRequest(s.path, { Cookie: await sessionCookie(s.instructor) }), s.params))) as ProblemPageData
     expect(staff.problem.window.state).toBe('not-open')
   })
 
@@ -239,7 +232,7 @@ describe('submitting from the problem page', () => {
     const other = await createCourse(db())
     const outsider = await createUser(db(), { password: null })
     await addMember(db(), outsider.id, other.id, 'student')
-    const cookie = await cookieFor(outsider.id)
+    const cookie = await sessionCookie(outsider)
     const page = await settle(loader(args(getRequest(s.path, { Cookie: cookie }), s.params)))
     expect('thrown' in page && (page.thrown as { init: { status: number } }).init.status).toBe(403)
     const posted = await settle(post(s, { 'answer.T2': '500 K' }, cookie))
@@ -254,7 +247,7 @@ describe('one press, one submission (form tokens)', () => {
     const b = await tokenFor(s)
     expect(a).toMatch(/^[A-Za-z0-9_-]{21}$/)
     expect(b).not.toBe(a)
-    const staff = (await loader(args(getRequest(s.path, { Cookie: await cookieFor(s.instructor.id) }), s.params))) as ProblemPageData
+    const staff = (await loader(args(getRequest(s.path, { Cookie: await sessionCookie(s.instructor) }), s.params))) as ProblemPageData
     expect(staff.formToken).toBeNull()
   })
 
@@ -316,7 +309,7 @@ describe('one press, one submission (form tokens)', () => {
 
   test('a token already used on another problem is refused with a message and the text kept; nothing is stored', async () => {
     const made = await createCourseWithAssignment(db(), [ottoV1, ottoV1], { students: 1 })
-    const cookie = await cookieFor(made.students[0]!.id)
+    const cookie = await sessionCookie(made.students[0]!)
     const params = (position: number) => ({ courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: String(position) })
     const path = (position: number) => `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/${position}`
     const page = await loader(args(getRequest(path(1), { Cookie: cookie }), params(1)))
@@ -401,7 +394,7 @@ describe('GET /api/assignments/:a/problems/:p/mine', () => {
   test('the other student of the same course sees only their own (empty) results', async () => {
     const s = await setUp()
     await post(s, { 'answer.T2': `${s.key.T2!.value} K` })
-    const other = await mine(s, await cookieFor(s.students[1]!.id))
+    const other = await mine(s, await sessionCookie(s.students[1]!))
     expect(other.status).toBe(200)
     expect(other.body.receipts).toEqual([])
     expect(other.body.pending).toBe(false)
@@ -414,12 +407,12 @@ describe('GET /api/assignments/:a/problems/:p/mine', () => {
     const other = await createCourse(db())
     const outsider = await createUser(db(), { password: null })
     await addMember(db(), outsider.id, other.id, 'student')
-    const outsiderRes = await mine(s, await cookieFor(outsider.id))
+    const outsiderRes = await mine(s, await sessionCookie(outsider))
     expect(outsiderRes.status).toBe(404)
     expect(outsiderRes.body.error).toBeTruthy()
     expect(outsiderRes.body.finds).toBeUndefined()
 
-    const staff = await mine(s, await cookieFor(s.instructor.id))
+    const staff = await mine(s, await sessionCookie(s.instructor))
     expect(staff.status).toBe(403)
 
     const signedOut = await mine(s, null)

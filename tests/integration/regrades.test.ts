@@ -18,7 +18,6 @@ import { canonicalJson, definitionHash, frozenDefinitions, gradeSubmission, stud
 import { saveProblem } from '#app/server/problems.server.ts'
 import { PermanentJobError, stopBoss } from '#app/server/queue.server.ts'
 import { applyRegrade, getRegradeProgress, previewRegrade, RegradeError, runRegrade, type RegradeProgress } from '#app/server/regrades.server.ts'
-import { createSessionRow, sessionStorage } from '#app/server/session.server.ts'
 import { loader as apiRegradeLoader } from '#app/routes/resources/api-regrade.ts'
 import RegradeRoute, { action as regradeAction, loader as regradeLoader } from '#app/routes/courses/assignments/regrade.tsx'
 import { handleRegrade } from '#jobs/handlers/regrade.ts'
@@ -26,6 +25,7 @@ import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+import { sessionCookie } from '#tests/support/login.ts'
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
 // Version 1 of the demo problem: T2 (K, 2 points), wNet (kJ/kg, 3 points), eta (pure number,
@@ -44,13 +44,6 @@ afterAll(async () => {
   await worker.stop()
   await stopBoss()
 })
-
-async function cookieFor(userId: number): Promise<string> {
-  const row = await createSessionRow(db(), userId)
-  const session = await sessionStorage().getSession()
-  session.set('sid', row.id)
-  return (await sessionStorage().commitSession(session)).split(';')[0]!
-}
 
 /**
  * A course with six students who each answered every find once: students 1–3 typed the key,
@@ -381,7 +374,7 @@ describe('the page and the API', () => {
   test('a TA or a student cannot apply a regrade (403) and nothing is recorded', async () => {
     const { c, ta, path, params } = await people()
     for (const who of [ta.id, c.students[0]!.id]) {
-      const res = await settle(regradeAction(args(formRequest(path, applyFields(c.item.problemVersionId), { Cookie: await cookieFor(who) }), params)))
+      const res = await settle(regradeAction(args(formRequest(path, applyFields(c.item.problemVersionId), { Cookie: await sessionCookie({ id: who }) }), params)))
       expect('thrown' in res && (res.thrown as { init?: { status?: number } }).init?.status).toBe(403)
     }
     expect((await db().select({ n: count() }).from(regrades).where(eq(regrades.itemId, c.item.id)))[0]!.n).toBe(0)
@@ -389,7 +382,7 @@ describe('the page and the API', () => {
 
   test('an instructor previews with a GET form and applies with a POST that redirects to the progress', async () => {
     const { c, path, params } = await people()
-    const cookie = await cookieFor(c.instructor.id)
+    const cookie = await sessionCookie(c.instructor)
     const query = new URLSearchParams({ version: String(c.item.problemVersionId), 'kind.T2': 'relative', 'value.T2': '5 %', 'unit.T2': '', preview: '1' })
     const page = (await regradeLoader(args(getRequest(`${path}?${query}`, { Cookie: cookie }), params))) as { preview: { changed: unknown[] } | null }
     expect(page.preview?.changed).toHaveLength(3)
@@ -415,7 +408,7 @@ describe('the page and the API', () => {
 
   test('the page renders the versions, the tolerance form, the preview table and the progress on the server', async () => {
     const { c, path, params } = await people()
-    const cookie = await cookieFor(c.instructor.id)
+    const cookie = await sessionCookie(c.instructor)
     const regradeId = await applyRegrade(db(), {
       assignmentId: c.assignment.id,
       position: 1,
@@ -466,12 +459,12 @@ describe('the page and the API', () => {
       const r = ('value' in settled ? settled.value : settled.thrown) as Response
       return { status: r.status, body: (await r.json()) as Record<string, unknown> }
     }
-    const ok = await call(String(regradeId), await cookieFor(ta.id))
+    const ok = await call(String(regradeId), await sessionCookie(ta))
     expect(ok.status).toBe(200)
     expect(ok.body).toMatchObject({ id: regradeId, status: 'done', total: 18, done: 18, changed: 3 })
     expect((await call(String(regradeId))).status).toBe(401)
-    expect((await call(String(regradeId), await cookieFor(c.students[0]!.id))).status).toBe(403)
-    expect((await call('999999', await cookieFor(c.instructor.id))).status).toBe(404)
-    expect((await call('abc', await cookieFor(c.instructor.id))).status).toBe(404)
+    expect((await call(String(regradeId), await sessionCookie(c.students[0]!))).status).toBe(403)
+    expect((await call('999999', await sessionCookie(c.instructor))).status).toBe(404)
+    expect((await call('abc', await sessionCookie(c.instructor))).status).toBe(404)
   })
 })
