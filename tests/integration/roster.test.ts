@@ -10,14 +10,14 @@ import { action as importAction, loader as importLoader } from '#app/routes/cour
 import { action as sectionsAction, loader as sectionsLoader } from '#app/routes/courses/people/sections.tsx'
 import { action as peopleAction, loader as peopleLoader } from '#app/routes/courses/people.tsx'
 import { action as joinAction, loader as joinLoader } from '#app/routes/join.tsx'
-import { startSession } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { accessTokens, auditEvents, courseSections, memberships, sectionStaff, users } from '#app/server/db/schema.server.ts'
 import { findLastMailTo, linksIn } from '#app/server/outbox.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import { addMember, createCourse, createUser } from '#tests/support/factories.ts'
-import { args, BASE, cookieFrom, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+import { sessionCookie } from '#tests/support/login.ts'
+import { args, BASE, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 
 let worker: RunningWorker
 beforeAll(async () => {
@@ -36,8 +36,6 @@ async function mailTo(address: string, subjectPart = '') {
     await new Promise((r) => setTimeout(r, 100))
   }
 }
-
-const cookieOf = async (userId: number) => cookieFrom(await startSession(userId, '/'))
 
 /** A multipart form as a browser sends it, with its Content-Length. */
 async function multipart(path: string, fields: Record<string, string | File>, cookie: string) {
@@ -62,7 +60,7 @@ async function setup() {
   const course = await createCourse(db(), { code: `RS ${Math.floor(Math.random() * 900 + 100)}` })
   const instructor = await createUser(db(), { name: 'Ines Instructor' })
   await addMember(db(), instructor.id, course.id, 'instructor')
-  const cookie = await cookieOf(instructor.id)
+  const cookie = await sessionCookie(instructor)
   const cid = { courseId: String(course.id) }
   const people = `/courses/${course.id}/people`
   return { course, instructor, cookie, cid, people }
@@ -384,7 +382,7 @@ describe('who may do what', () => {
     await db().insert(accessTokens).values({ token: `tok${uid()}xxxxxxxxxxxx`, purpose: 'invitation', email: 'p@x.example', courseId: s.course.id, role: 'student', expiresAt: new Date(Date.now() + 86_400_000) })
     const [invitation] = await db().select().from(accessTokens).where(eq(accessTokens.courseId, s.course.id))
 
-    const taCookie = await cookieOf(ta.id)
+    const taCookie = await sessionCookie(ta)
     const seen = await peopleLoader(args(getRequest(s.people, { Cookie: taCookie }), s.cid))
     expect(seen.mayManage).toBe(false)
     expect(seen.pending).toHaveLength(1)
@@ -398,7 +396,7 @@ describe('who may do what', () => {
       { intent: 'revoke', invitationId: String(invitation!.id) },
     ]
     for (const who of [ta, student, stranger]) {
-      const cookie = await cookieOf(who.id)
+      const cookie = await sessionCookie(who)
       for (const fields of changes) expect(status(await settle(peopleAction(args(formRequest(s.people, fields, { Cookie: cookie }), s.cid))))).toBe(403)
       expect(status(await settle(sectionsAction(args(formRequest(`${s.people}/sections`, { intent: 'create', name: 'Nope' }, { Cookie: cookie }), s.cid))))).toBe(403)
       expect(status(await settle(importLoader(args(getRequest(`${s.people}/import`, { Cookie: cookie }), s.cid))))).toBe(403)
@@ -406,7 +404,7 @@ describe('who may do what', () => {
       expect(status(await settle(importAction(args(await multipart(`${s.people}/import`, { intent: 'import', csv }, cookie), s.cid))))).toBe(403)
     }
     for (const who of [student, stranger]) {
-      const cookie = await cookieOf(who.id)
+      const cookie = await sessionCookie(who)
       expect(status(await settle(peopleLoader(args(getRequest(s.people, { Cookie: cookie }), s.cid))))).toBe(403)
       expect(status(await settle(sectionsLoader(args(getRequest(`${s.people}/sections`, { Cookie: cookie }), s.cid))))).toBe(403)
     }
