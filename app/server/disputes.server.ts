@@ -952,36 +952,3 @@ export async function getAttachmentForViewer(
   return { fileName: row.fileName, contentType, data: Buffer.from(row.data) }
 }
 
-/** Instructors: the course's audit log, newest first. */
-export async function listAuditEvents(
-  database: Database,
-  input: { courseId: number; kind?: string; limit?: number; offset?: number },
-): Promise<{ rows: AuditRow[]; total: number }> {
-  const actor = alias(users, 'actor')
-  const subject = alias(users, 'subject')
-  const where = and(eq(auditEvents.courseId, input.courseId), input.kind ? eq(auditEvents.kind, input.kind) : undefined)
-  const limit = Math.min(Math.max(1, Math.trunc(input.limit ?? 50)), 500)
-  const offset = Math.max(0, Math.trunc(input.offset ?? 0))
-  const rows = await database
-    .select({
-      id: auditEvents.id,
-      at: auditEvents.at,
-      actor: actor.name,
-      kind: auditEvents.kind,
-      student: subject.name,
-      assignmentTitle: assignments.title,
-      before: auditEvents.before,
-      after: auditEvents.after,
-      note: auditEvents.note,
-    })
-    .from(auditEvents)
-    .leftJoin(actor, eq(actor.id, auditEvents.actorId))
-    .leftJoin(subject, eq(subject.id, auditEvents.userId))
-    .leftJoin(assignments, eq(assignments.id, auditEvents.assignmentId))
-    .where(where)
-    .orderBy(desc(auditEvents.at), desc(auditEvents.id))
-    .limit(limit)
-    .offset(offset)
-  const [total] = await database.select({ n: count() }).from(auditEvents).where(where)
-  return { rows: rows.map((r) => ({ ...r, at: r.at.toISOString() })), total: total?.n ?? 0 }
-}

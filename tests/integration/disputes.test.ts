@@ -4,6 +4,7 @@
  * through a real worker, and the append-only audit log. Answers are submitted and graded by
  * the real code (submitAnswers + gradeSubmission).
  */
+import { listAuditLog } from '#app/server/audit-log.server.ts'
 import { and, count, eq, inArray, sql } from 'drizzle-orm'
 import { afterAll, describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
@@ -14,7 +15,6 @@ import {
   disputeAllowance,
   getAttachmentForViewer,
   getDisputeDetail,
-  listAuditEvents,
   listDisputes,
   listMyDisputes,
   MAX_ATTACHMENT_BYTES,
@@ -435,13 +435,13 @@ describe('the audit log', () => {
     const r = await s.raise(me.id)
     if (!r.ok) throw new Error('not raised')
     await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.ta, 'ta'), decision: 'adjust', newScore: 0.5, comment: 'Half credit for the method.' })
-    const all = await listAuditEvents(db(), { courseId: s.course.id })
+    const all = await listAuditLog(db(), { courseId: s.course.id })
     expect(all.total).toBe(3)
     expect(all.rows.map((x) => x.kind)).toEqual(['dispute-resolved', 'dispute', 'dispute-raised'])
-    expect(all.rows[1]).toMatchObject({ actor: 'Tara Assistant', student: me.name, assignmentTitle: s.assignment.title, before: { verdict: 'incorrect', score: 0 }, after: { verdict: 'incorrect', score: 0.5 }, note: 'Half credit for the method.' })
-    const onlyChanges = await listAuditEvents(db(), { courseId: s.course.id, kind: 'dispute' })
+    expect(all.rows[1]).toMatchObject({ actor: 'Tara Assistant', subject: me.name, assignmentTitle: s.assignment.title, before: { verdict: 'incorrect', score: 0 }, after: { verdict: 'incorrect', score: 0.5 }, note: 'Half credit for the method.' })
+    const onlyChanges = await listAuditLog(db(), { courseId: s.course.id, kind: 'dispute' })
     expect(onlyChanges.total).toBe(1)
-    const page = await listAuditEvents(db(), { courseId: s.course.id, limit: 1, offset: 1 })
+    const page = await listAuditLog(db(), { courseId: s.course.id, limit: 1, offset: 1 })
     expect(page.rows.map((x) => x.kind)).toEqual(['dispute'])
     expect(page.total).toBe(3)
     const id = all.rows[0]!.id
