@@ -108,7 +108,11 @@ describe('a find that states its sense', () => {
     expect(g.pitfall?.id).toBe('kilo-factor')
   })
 
-  test('the opposite sign is named as the sign slip', () => {
-    expect(grade(`${-k.value} kJ/kg`).pitfall?.id).toBe('sign-convention-flipped')
+  test('the opposite sign is named as the sign slip, with the sense the question counts positive', () => {
+    const g = grade(`${-k.value} kJ/kg`)
+    expect(g.pitfall?.id).toBe('sign-convention-flipped')
+    expect(g.pitfall?.feedback).toBe(
+      "Your number has the right size but the wrong sign. This question counts the work done by the system as positive, whatever the course's sign convention.",
+    )
   })
 })

@@ -5,7 +5,7 @@
  * pitfalls whose slip reproduces the student's number. Pure and never throws.
  */
 import type { Find, KeyEntry, Variant } from '#app/domain/authoring/definition.ts'
-import { checkRuleOf } from '#app/domain/authoring/definition.ts'
+import { checkRuleOf, FIND_SENSE_WORDS } from '#app/domain/authoring/definition.ts'
 import { convertFromSI, unitAtPath } from '#app/domain/authoring/variant.ts'
 import { checkAnswer, type CheckDetail, type Tolerance, type Verdict } from '#app/domain/grading/index.ts'
 import { evaluateWithPitfall, PITFALLS, type PitfallId } from '#app/domain/grading/pitfalls.ts'
@@ -99,10 +99,19 @@ function findPitfall(find: Find, key: KeyEntry, variant: Variant, valueInFindUni
     }
     for (const v of values) {
       if (!Number.isFinite(v) || close(v, correctSI, PITFALL_MATCH)) continue
-      if (close(v, studentSI, PITFALL_MATCH)) return { id, feedback: pitfall.feedback }
+      if (close(v, studentSI, PITFALL_MATCH)) return { id, feedback: pitfallFeedback(find, id, pitfall.feedback) }
     }
   }
   return null
+}
+
+/**
+ * A find that states its sense keeps that sign in both conventions, so a wrong sign there is
+ * not about the course's convention: the feedback names the sense the question counts positive.
+ */
+export function pitfallFeedback(find: Find, id: PitfallId, general: string): string {
+  if (id !== 'sign-convention-flipped' || !find.sense) return general
+  return `Your number has the right size but the wrong sign. This question counts the ${FIND_SENSE_WORDS[find.sense]} as positive, whatever the course's sign convention.`
 }
 
 export type Precheck = { readonly ok: true } | { readonly ok: false; readonly verdict: 'unreadable' | 'wrong-dimension'; readonly message: string }
