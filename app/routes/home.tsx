@@ -7,6 +7,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { getHomeData, type HomeData } from '#app/server/home.server.ts'
 import { toActor } from '#app/server/users.server.ts'
 import type { Route } from './+types/home'
+import { EmptyState } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = () => [{ title: 'Home · Cyclewright' }]
 
@@ -54,7 +55,7 @@ export default function HomeRoute({ loaderData }: Route.ComponentProps) {
       <ToDo home={home} />
       {courses.length === 0 ? (
         role === 'admin' ? null : (
-          <div className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">No courses yet.</div>
+          <EmptyState className="mt-8">No courses yet.</EmptyState>
         )
       ) : (
         <ul className="mt-8 grid gap-4 sm:grid-cols-2" aria-label="Courses">

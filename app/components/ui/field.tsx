@@ -1,5 +1,5 @@
-import { useId, type InputHTMLAttributes, type ReactNode } from 'react'
-import { cn } from '#app/lib/cn.ts'
+import type { InputHTMLAttributes, ReactNode } from 'react'
+import { controlClass, FormControl } from './form-control.tsx'
 
 type FieldProps = InputHTMLAttributes<HTMLInputElement> & {
   label: ReactNode
@@ -8,36 +8,10 @@ type FieldProps = InputHTMLAttributes<HTMLInputElement> & {
 }
 
 /** A labelled input with its hint and error tied to it for screen readers. */
-export function Field({ label, error, hint, className, id, ...input }: FieldProps) {
-  const auto = useId()
-  const inputId = id ?? auto
-  const hintId = hint ? `${inputId}-hint` : undefined
-  const errorId = error ? `${inputId}-error` : undefined
+export function Field({ label, error, hint, className, id, 'aria-describedby': describedBy, ...input }: FieldProps) {
   return (
-    <div className={cn('flex flex-col gap-1', className)}>
-      <label htmlFor={inputId} className="text-sm font-medium text-ink">
-        {label}
-      </label>
-      <input
-        id={inputId}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={[hintId, errorId].filter(Boolean).join(' ') || undefined}
-        className={cn(
-          'rounded-md border bg-white px-3 py-2 text-base shadow-sm',
-          error ? 'border-danger' : 'border-line focus:border-accent',
-        )}
-        {...input}
-      />
-      {hint ? (
-        <p id={hintId} className="text-sm text-muted">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={errorId} className="text-sm text-danger">
-          {error}
-        </p>
-      ) : null}
-    </div>
+    <FormControl label={label} error={error} hint={hint} id={id} className={className} describedBy={describedBy}>
+      {(control) => <input {...control} className={controlClass(error)} {...input} />}
+    </FormControl>
   )
 }

@@ -9,6 +9,7 @@ import { requireAdmin } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { adminExportsPage, ExportRequestError, requestTermExport } from '#app/server/exports.server.ts'
 import type { Route } from './+types/exports'
+import { EmptyState, Table, TableHead } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = () => [{ title: 'Grade exports · Cyclewright' }]
 
@@ -92,9 +93,9 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
       </p>
 
       {terms.length === 0 ? (
-        <p className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+        <EmptyState className="mt-8">
           There are no terms to export yet.
-        </p>
+        </EmptyState>
       ) : (
         <Form method="post" className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4">
           <div className="flex min-w-0 max-w-full flex-col gap-1">
@@ -143,14 +144,12 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
         </p>
       ) : null}
       {exports.length === 0 ? (
-        <p className="mt-4 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+        <EmptyState className="mt-4">
           You have not exported any grades yet. Choose a term above.
-        </p>
+        </EmptyState>
       ) : (
-        <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
-          <table className="w-full text-left text-sm">
-            <caption className="sr-only">Your grade exports, newest first</caption>
-            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+        <Table boxClassName="mt-4" caption="Your grade exports, newest first">
+            <TableHead>
               <tr>
                 <th scope="col" className="px-4 py-2">
                   Term
@@ -168,7 +167,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
                   Files
                 </th>
               </tr>
-            </thead>
+            </TableHead>
             <tbody>
               {exports.map((e) => (
                 <tr key={e.id} className="border-t border-line align-top">
@@ -201,8 +200,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
                 </tr>
               ))}
             </tbody>
-          </table>
-        </div>
+          </Table>
       )}
     </div>
   )

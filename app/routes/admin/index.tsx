@@ -5,6 +5,7 @@ import { requireAdmin } from '#app/server/auth.server.ts'
 import { listAllCourses } from '#app/server/courses.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/index'
+import { EmptyState, Table, TableHead } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = () => [{ title: 'Department · Cyclewright' }]
 
@@ -26,14 +27,12 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
         <Link to="/admin/terms">Terms</Link>
       </p>
       {courses.length === 0 ? (
-        <p className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+        <EmptyState className="mt-8">
           No courses yet — <Link to="/admin/courses/new">create the first</Link>.
-        </p>
+        </EmptyState>
       ) : (
-        <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
-          <table className="w-full text-left text-sm">
-            <caption className="sr-only">Courses</caption>
-            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+        <Table boxClassName="mt-6" caption="Courses">
+            <TableHead>
               <tr>
                 <th scope="col" className="px-4 py-2">Course</th>
                 <th scope="col" className="px-4 py-2">Term</th>
@@ -42,7 +41,7 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
                 <th scope="col" className="px-4 py-2 text-right">Students</th>
                 <th scope="col" className="px-4 py-2 text-right">Staff</th>
               </tr>
-            </thead>
+            </TableHead>
             <tbody>
               {courses.map((c) => (
                 <tr key={c.id} className="border-t border-line">
@@ -59,8 +58,7 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
                 </tr>
               ))}
             </tbody>
-          </table>
-        </div>
+          </Table>
       )}
       <ul className="mt-6 flex flex-wrap gap-x-6 gap-y-2" aria-label="Department tools">
         <li>

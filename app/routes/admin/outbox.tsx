@@ -5,6 +5,7 @@ import { requireAdmin } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { countOutbox, listOutbox } from '#app/server/outbox.server.ts'
 import type { Route } from './+types/outbox'
+import { EmptyState } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = () => [{ title: 'Outbox · Cyclewright' }]
 
@@ -30,9 +31,9 @@ export default function OutboxRoute({ loaderData }: Route.ComponentProps) {
         machine. Times in UTC.
       </p>
       {messages.length === 0 ? (
-        <p className="mt-8 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+        <EmptyState className="mt-8">
           No mail yet. Invitations and password resets appear here.
-        </p>
+        </EmptyState>
       ) : (
         <ul className="mt-6 divide-y divide-line rounded-lg border border-line bg-white" aria-label="Messages">
           {messages.map((m) => (

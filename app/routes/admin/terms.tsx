@@ -9,6 +9,7 @@ import { requireAdmin } from '#app/server/auth.server.ts'
 import { createTermFor, findUserDepartment, listTerms, TermFormSchema, formValues } from '#app/server/courses.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/terms'
+import { EmptyState, Table, TableHead } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = () => [{ title: 'Terms · Cyclewright' }]
 
@@ -57,12 +58,10 @@ export default function AdminTermsRoute({ loaderData, actionData }: Route.Compon
       ) : null}
       {department ? (
         terms.length === 0 ? (
-          <p className="mt-6 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">No terms yet — create the first below.</p>
+          <EmptyState className="mt-6">No terms yet — create the first below.</EmptyState>
         ) : (
-          <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
-            <table className="w-full text-left text-sm">
-              <caption className="sr-only">Terms, latest first</caption>
-              <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+          <Table boxClassName="mt-6" caption="Terms, latest first">
+              <TableHead>
                 <tr>
                   <th scope="col" className="px-4 py-2">
                     Term
@@ -77,7 +76,7 @@ export default function AdminTermsRoute({ loaderData, actionData }: Route.Compon
                     Courses
                   </th>
                 </tr>
-              </thead>
+              </TableHead>
               <tbody>
                 {terms.map((t) => (
                   <tr key={t.id} className="border-t border-line">
@@ -90,8 +89,7 @@ export default function AdminTermsRoute({ loaderData, actionData }: Route.Compon
                   </tr>
                 ))}
               </tbody>
-            </table>
-          </div>
+            </Table>
         )
       ) : null}
       {department ? (

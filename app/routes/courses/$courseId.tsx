@@ -12,6 +12,7 @@ import { countMembersByRole } from '#app/server/courses.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { listDisputes } from '#app/server/disputes.server.ts'
 import type { Route } from './+types/$courseId'
+import { EmptyState, Table, TableHead } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.course.code} · Cyclewright` : 'Course · Cyclewright' }]
 
@@ -94,18 +95,16 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
         ) : null}
       </div>
       {rows.length === 0 ? (
-        <p className="mt-4 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+        <EmptyState className="mt-4">
           {staff
             ? instructor
               ? 'No assignments yet. Create one from the problems in your bank.'
               : 'No assignments yet. The instructors will set them here.'
             : 'No assignments are open for you yet.'}
-        </p>
+        </EmptyState>
       ) : (
-        <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
-          <table className="w-full text-left text-sm">
-            <caption className="sr-only">Assignments, by due date; times in {timeZone}</caption>
-            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+        <Table boxClassName="mt-4" caption={<>Assignments, by due date; times in {timeZone}</>}>
+            <TableHead>
               <tr>
                 <th scope="col" className="px-4 py-2">Title</th>
                 <th scope="col" className="px-4 py-2">Opens</th>
@@ -122,7 +121,7 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
                   </>
                 )}
               </tr>
-            </thead>
+            </TableHead>
             <tbody>
               {rows.map((a) => (
                 <tr key={a.id} className="border-t border-line align-top">
@@ -163,8 +162,7 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
                 </tr>
               ))}
             </tbody>
-          </table>
-        </div>
+          </Table>
       )}
     </section>
   )

@@ -10,6 +10,7 @@ import { listAuditLog } from '#app/server/audit-log.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/audit'
+import { EmptyState } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Audit log · ${data.course.code} · Cyclewright` : 'Audit log · Cyclewright' }]
 
@@ -91,9 +92,9 @@ export default function AuditRoute({ loaderData }: Route.ComponentProps) {
         </Button>
       </Form>
       {rows.length === 0 ? (
-        <p className="mt-6 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+        <EmptyState className="mt-6">
           {page > 1 ? 'There are no entries on this page.' : kind ? `No entries of the kind “${KIND_WORDS[kind] ?? kind}” yet.` : 'Nothing has been recorded in this course yet.'}
-        </p>
+        </EmptyState>
       ) : (
         <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">

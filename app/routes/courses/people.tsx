@@ -31,6 +31,7 @@ import {
 } from '#app/server/roster.server.ts'
 import { toActor } from '#app/server/users.server.ts'
 import type { Route } from './+types/people'
+import { Table, TableHead } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = () => [{ title: 'People · Cyclewright' }]
 
@@ -323,10 +324,8 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
         {pending.length === 0 ? (
           <p className="mt-2 text-muted">No invitation is waiting.</p>
         ) : (
-          <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
-            <table className="w-full text-left text-sm">
-              <caption className="sr-only">Invitations not yet accepted</caption>
-              <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+          <Table boxClassName="mt-4" caption="Invitations not yet accepted">
+              <TableHead>
                 <tr>
                   <th scope="col" className="px-3 py-2">
                     E-mail
@@ -346,7 +345,7 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
                     </th>
                   ) : null}
                 </tr>
-              </thead>
+              </TableHead>
               <tbody>
                 {pending.map((p) => (
                   <tr key={p.id} className="border-t border-line align-top">
@@ -386,8 +385,7 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
                   </tr>
                 ))}
               </tbody>
-            </table>
-          </div>
+            </Table>
         )}
         <p className="mt-2 text-sm text-muted">
           Sending again e-mails the same link and gives it another 7 days. Revoking stops the link from working; the person stays on the roster (drop them to take

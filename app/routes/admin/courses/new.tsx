@@ -11,6 +11,7 @@ import { requireAdmin } from '#app/server/auth.server.ts'
 import { createCourseFor, findUserDepartment, listTerms, NewCourseFormSchema, formValues } from '#app/server/courses.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/new'
+import { EmptyState } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = () => [{ title: 'New course · Cyclewright' }]
 
@@ -49,9 +50,9 @@ export default function NewCourseRoute({ loaderData, actionData }: Route.Compone
           Your account belongs to no department, so you cannot add courses. Ask whoever runs this installation to set your department.
         </Notice>
       ) : terms.length === 0 ? (
-        <p className="mt-6 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+        <EmptyState className="mt-6">
           No terms yet — <Link to="/admin/terms">create the first term</Link>, then add its courses.
-        </p>
+        </EmptyState>
       ) : (
         <Form method="post" noValidate className="mt-6 grid max-w-2xl gap-5 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
           <p className="text-sm text-muted">The course belongs to {department.name}. You can make people its instructors on the next page.</p>

@@ -11,6 +11,7 @@ import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { listDisputes, type DisputeListRow } from '#app/server/disputes.server.ts'
 import type { Route } from './+types/index'
+import { EmptyState, Table, TableHead } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.staff ? 'Review queue' : 'Your disputes'} · Cyclewright` }]
 
@@ -120,11 +121,11 @@ function StaffQueue({ data }: { data: Data }) {
         {filtered ? <Link to={`/courses/${course.id}/disputes`}>Show open disputes of all assignments</Link> : null}
       </Form>
       {rows.length === 0 ? (
-        <p className="mt-6 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">
+        <EmptyState className="mt-6">
           {!filtered
             ? 'No open disputes — nothing waits for review.'
             : `No disputes match these filters${assignmentTitle ? ` in ${assignmentTitle}` : ''}.`}
-        </p>
+        </EmptyState>
       ) : (
         <div className="relative mt-6 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">
@@ -199,12 +200,10 @@ function StudentList({ data }: { data: Data }) {
         The verdicts you have disputed and what became of them. To dispute another answer, open its problem page once it is graded.
       </p>
       {rows.length === 0 ? (
-        <p className="mt-6 rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted">You have not disputed any verdict in this course.</p>
+        <EmptyState className="mt-6">You have not disputed any verdict in this course.</EmptyState>
       ) : (
-        <div className="relative mt-6 overflow-x-auto rounded-lg border border-line bg-white">
-          <table className="w-full text-left text-sm">
-            <caption className="sr-only">Your disputes, oldest first; times in {course.timeZone}</caption>
-            <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+        <Table boxClassName="mt-6" caption={<>Your disputes, oldest first; times in {course.timeZone}</>}>
+            <TableHead>
               <tr>
                 <th scope="col" className="px-4 py-2">Raised</th>
                 <th scope="col" className="px-4 py-2">Problem and find</th>
@@ -214,14 +213,13 @@ function StudentList({ data }: { data: Data }) {
                   <span className="sr-only">Details</span>
                 </th>
               </tr>
-            </thead>
+            </TableHead>
             <tbody>
               {rows.map((r) => (
                 <StudentRow key={r.id} row={r} courseId={course.id} timeZone={course.timeZone} />
               ))}
             </tbody>
-          </table>
-        </div>
+          </Table>
       )}
     </>
   )

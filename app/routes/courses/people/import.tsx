@@ -19,6 +19,8 @@ import { MAX_ROSTER_BYTES, MAX_ROSTER_ROWS } from '#app/lib/roster-limits.ts'
 import { parseRosterCsv, tooLarge } from '#app/server/roster-csv.server.ts'
 import { importRoster, previewRoster, type PlannedRow, type RosterPlan } from '#app/server/roster.server.ts'
 import type { Route } from './+types/import'
+import { Table, TableHead } from '#app/components/ui/table.tsx'
+import { TextareaField } from '#app/components/ui/textarea-field.tsx'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Import a class list · ${data.course.code} · Cyclewright` : 'Import a class list · Cyclewright' }]
 
@@ -115,10 +117,8 @@ const statusWords: Record<PlannedRow['status'], string> = {
 
 function RowsTable({ rows, caption, showSection }: { rows: PlannedRow[]; caption: string; showSection: boolean }) {
   return (
-    <div className="relative mt-3 overflow-x-auto rounded-lg border border-line bg-white">
-      <table className="w-full text-left text-sm">
-        <caption className="sr-only">{caption}</caption>
-        <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+    <Table boxClassName="mt-3" caption={<>{caption}</>}>
+        <TableHead>
           <tr>
             <th scope="col" className="px-3 py-2">
               Line
@@ -144,7 +144,7 @@ function RowsTable({ rows, caption, showSection }: { rows: PlannedRow[]; caption
               What happens
             </th>
           </tr>
-        </thead>
+        </TableHead>
         <tbody>
           {rows.map((r) => (
             <tr key={r.line} className={r.status === 'error' ? 'border-t border-line bg-danger-soft/40' : 'border-t border-line'}>
@@ -174,8 +174,7 @@ function RowsTable({ rows, caption, showSection }: { rows: PlannedRow[]; caption
             </tr>
           ))}
         </tbody>
-      </table>
-    </div>
+      </Table>
   )
 }
 
@@ -290,23 +289,21 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
             A file chosen here is read instead of the box below.
           </p>
         </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="roster-csv" className="text-sm font-medium">
-            Or paste the class list
-          </label>
-          <textarea
-            id="roster-csv"
-            name="csv"
-            rows={10}
-            spellCheck={false}
-            defaultValue={actionData?.csv ?? ''}
-            aria-describedby={['roster-csv-hint', formErrorId].filter(Boolean).join(' ')}
-            className="rounded-md border border-line px-3 py-2 font-mono text-sm"
-          />
-          <p id="roster-csv-hint" className="text-sm text-muted">
-            For example: <code>Student ID,Family name,Given name,E-mail,Section</code>, then one line per student.
-          </p>
-        </div>
+        <TextareaField
+          id="roster-csv"
+          label="Or paste the class list"
+          name="csv"
+          rows={10}
+          spellCheck={false}
+          defaultValue={actionData?.csv ?? ''}
+          aria-describedby={formErrorId}
+          className="[&_textarea]:font-mono [&_textarea]:text-sm"
+          hint={
+            <>
+              For example: <code>Student ID,Family name,Given name,E-mail,Section</code>, then one line per student.
+            </>
+          }
+        />
         <div>
           <Button type="submit" variant={plan && plan.counts.error === 0 ? 'secondary' : 'primary'} disabled={busy}>
             {busy ? 'Checking…' : 'Check the list'}

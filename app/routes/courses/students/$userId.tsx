@@ -13,6 +13,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { getStudentRecord, type RecordAnswer, type RecordAssignment, type RecordItem } from '#app/server/student-record.server.ts'
 import type { Route } from './+types/$userId'
 import { answerResultLabel, TONE_TEXT, VERDICT_TONES } from '#app/lib/labels.ts'
+import { Table, TableHead } from '#app/components/ui/table.tsx'
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.record.student.name} · ${data.record.course.code} · Cyclewright` : 'Student · Cyclewright' }]
 
@@ -82,10 +83,8 @@ export default function StudentRecordRoute({ loaderData }: Route.ComponentProps)
         {record.disputes.length === 0 ? (
           <p className="mt-2 text-muted">No disputes.</p>
         ) : (
-          <div className="mt-2 overflow-x-auto rounded-lg border border-line bg-white">
-            <table className="w-full text-left text-sm">
-              <caption className="sr-only">Disputes of {student.name}</caption>
-              <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
+          <Table boxClassName="mt-2" caption={<>Disputes of {student.name}</>}>
+              <TableHead>
                 <tr>
                   <th scope="col" className="px-3 py-2">
                     Question
@@ -100,7 +99,7 @@ export default function StudentRecordRoute({ loaderData }: Route.ComponentProps)
                     Resolved
                   </th>
                 </tr>
-              </thead>
+              </TableHead>
               <tbody>
                 {record.disputes.map((d) => (
                   <tr key={d.id} className="border-t border-line align-top">
@@ -130,8 +129,7 @@ export default function StudentRecordRoute({ loaderData }: Route.ComponentProps)
                   </tr>
                 ))}
               </tbody>
-            </table>
-          </div>
+            </Table>
         )}
       </section>
 
