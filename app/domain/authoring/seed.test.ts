@@ -10,7 +10,8 @@ test('the same parts give the same seed, and it is a uint32', () => {
 // Pinned on purpose: every student's variant is recomputed from this hash, so a change to it
 // would silently give every student new numbers. The values were checked against an
 // independent Python implementation of the same recipe (FNV-1a 32-bit over the UTF-8 of
-// "len:part|len:part…", then murmur3's fmix32), written from the published constants.
+// "len:part|len:part…", then murmur3's fmix32), written from the published constants:
+// tests/reference/scripts/seed_hash.py, which tests/reference/seed-hash.test.ts runs.
 test.each([
   [[], 2872998923],
   [['a'], 171730747],
