@@ -1,29 +1,8 @@
-/** Words the bank pages show for its ids: cycles, difficulty, level, sharing. Isomorphic. */
+/**
+ * Words the bank pages show for its ids: difficulty, level, sharing. Isomorphic. (Cycle names
+ * come from the templates themselves: app/domain/thermo/catalog.ts, sent by the loaders.)
+ */
 import type { Difficulty, Level } from '#app/domain/authoring/definition.ts'
-
-const CYCLES: Readonly<Record<string, string>> = {
-  'carnot-engine': 'Carnot engine',
-  'carnot-refrigerator': 'Carnot refrigerator',
-  'carnot-heat-pump': 'Carnot heat pump',
-  otto: 'Otto',
-  diesel: 'Diesel',
-  dual: 'Dual',
-  brayton: 'Brayton',
-  'brayton-regenerative': 'Brayton, regenerative',
-  stirling: 'Stirling',
-  ericsson: 'Ericsson',
-  rankine: 'Rankine',
-  'rankine-reheat': 'Rankine with reheat',
-  'rankine-regenerative': 'Rankine, regenerative',
-  general: 'General cycle',
-}
-
-/** Every cycle a problem can be about, in the order the filters list them. */
-export const CYCLE_IDS: readonly string[] = Object.keys(CYCLES)
-
-export function cycleLabel(id: string): string {
-  return CYCLES[id] ?? id
-}
 
 export const difficultyLabel: Readonly<Record<Difficulty, string>> = {
   introductory: 'Introductory',

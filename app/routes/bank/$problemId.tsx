@@ -5,7 +5,8 @@ import { SweepPanel } from '#app/components/sweep-panel.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { VariantPreview } from '#app/components/variant-preview.tsx'
 import { cycleOf } from '#app/domain/authoring/definition.ts'
-import { cycleLabel, difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
+import { cycleName } from '#app/domain/thermo/catalog.ts'
+import { difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireBankUser } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -38,7 +39,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const usage = await problemUsage(db(), problem.id)
   const confirmDelete = problem.canEdit && url.searchParams.get('confirm') === 'delete'
   const notice = url.searchParams.get('done')
-  return { problem, version, preview, convention, sweep, usage, confirmDelete, notice }
+  return { problem, version, preview, convention, sweep, usage, confirmDelete, notice, cycle: cycleName(cycleOf(version.definition.physics)) }
 }
 
 const ActionSchema = z.discriminatedUnion('intent', [
@@ -90,7 +91,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { problem, version, preview, convention, sweep, usage, confirmDelete, notice } = loaderData
+  const { problem, version, preview, convention, sweep, usage, confirmDelete, notice, cycle } = loaderData
   const formError = actionData && 'formError' in actionData ? actionData.formError : null
   const def = version.definition
   const busy = useNavigation().state === 'submitting'
@@ -106,7 +107,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
           <div>
             <h1 className="text-3xl font-semibold">{def.title}</h1>
             <p className="mt-1 text-sm text-muted">
-              {cycleLabel(cycleOf(def.physics))} · {difficultyLabel[def.tags.difficulty]} · {levelLabel[def.tags.level]}
+              {cycle} · {difficultyLabel[def.tags.difficulty]} · {levelLabel[def.tags.level]}
               {def.tags.topics.length > 0 ? ` · ${def.tags.topics.join(', ')}` : ''}
             </p>
             <p className="mt-1 text-sm text-muted">

@@ -2,7 +2,8 @@ import { data, Form, Link, useNavigation, useSearchParams } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { DIFFICULTIES, LEVELS } from '#app/domain/authoring/definition.ts'
-import { CYCLE_IDS, cycleLabel, difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
+import { cycleChoices } from '#app/domain/thermo/catalog.ts'
+import { difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
 import { requireBankUser } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { bankViewerFor, listBankProblems, readBankSearch, type BankRow } from '#app/server/problems.server.ts'
@@ -18,14 +19,14 @@ export async function loader({ request }: Route.LoaderArgs) {
     // A page number beyond use has no field to mark: the error page says what to change.
     if (read.problem.param === 'page') throw data(read.problem.message, { status: 400 })
     // A search that cannot be run: the box keeps the words, marked, and no list is shown.
-    const refused = { rows: [] as BankRow[], total: 0, page: 1, pageSize: read.query.pageSize, query: read.query, imported: 0, searchError: read.problem.message }
+    const refused = { rows: [] as BankRow[], total: 0, page: 1, pageSize: read.query.pageSize, query: read.query, imported: 0, searchError: read.problem.message, cycles: cycleChoices() }
     return data(refused, { status: 400 })
   }
   const { query } = read
   const viewer = await bankViewerFor(db(), user)
   const result = await listBankProblems(db(), viewer, query)
   const imported = Number(url.searchParams.get('imported') ?? '0')
-  return { ...result, query, imported: Number.isInteger(imported) && imported > 0 ? imported : 0, deleted: url.searchParams.get('deleted') === '1', searchError: null as string | null }
+  return { ...result, query, imported: Number.isInteger(imported) && imported > 0 ? imported : 0, deleted: url.searchParams.get('deleted') === '1', searchError: null as string | null, cycles: cycleChoices() }
 }
 
 type SortKey = 'updated' | 'title' | 'cycle' | 'difficulty'
@@ -48,7 +49,9 @@ function SortHeader({ label, sortKey, current, dir }: { label: string; sortKey: 
 }
 
 export default function BankRoute({ loaderData }: Route.ComponentProps) {
-  const { rows, total, page, pageSize, query, imported, searchError } = loaderData
+  const { rows, total, page, pageSize, query, imported, searchError, cycles } = loaderData
+  const cycleLabels = new Map(cycles)
+  const cycleLabel = (id: string) => cycleLabels.get(id) ?? id
   const [params] = useSearchParams()
   const busy = useNavigation().state === 'loading'
   const pages = Math.max(1, Math.ceil(total / pageSize))
@@ -117,7 +120,7 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
             </p>
           ) : null}
         </div>
-        <FilterSelect id="bank-cycle" name="cycle" label="Cycle" value={query.cycle ?? ''} options={CYCLE_IDS.map((c) => [c, cycleLabel(c)])} />
+        <FilterSelect id="bank-cycle" name="cycle" label="Cycle" value={query.cycle ?? ''} options={cycles} />
         <FilterSelect id="bank-difficulty" name="difficulty" label="Difficulty" value={query.difficulty ?? ''} options={DIFFICULTIES.map((d) => [d, difficultyLabel[d]])} />
         <FilterSelect id="bank-level" name="level" label="Level" value={query.level ?? ''} options={LEVELS.map((l) => [l, levelLabel[l]])} />
         <FilterSelect

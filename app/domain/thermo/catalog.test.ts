@@ -1,0 +1,32 @@
+import { expect, test } from 'vitest'
+import { cycleChoices, cycleName, shortLabel, TEMPLATE_CATALOG, templateEntry } from './catalog.ts'
+import { solveSpec } from './solve-spec.ts'
+
+test('every template id is listed once', () => {
+  const ids = TEMPLATE_CATALOG.map((e) => e.id)
+  expect(new Set(ids).size).toBe(ids.length)
+  expect(ids.length).toBeGreaterThanOrEqual(13)
+})
+
+test('every listed template is one the spec entry point knows (it may refuse the empty inputs, but not the id)', () => {
+  for (const e of TEMPLATE_CATALOG) {
+    const r = solveSpec({ template: e.id, inputs: {} })
+    if (!r.ok) expect(r.error.message, e.id).not.toMatch(/unknown template/i)
+  }
+})
+
+test('short labels come from the titles', () => {
+  expect(shortLabel('Otto cycle (air-standard spark ignition)')).toBe('Otto')
+  expect(shortLabel('Brayton cycle with regenerator')).toBe('Brayton with regenerator')
+  expect(shortLabel('Rankine cycle with reheat (water/steam, IAPWS-IF97)')).toBe('Rankine with reheat')
+  expect(shortLabel('Carnot heat pump')).toBe('Carnot heat pump')
+  expect(templateEntry('otto')?.label).toBe('Otto')
+})
+
+test('the bank filters list every template and the general cycle, labelled', () => {
+  const choices = cycleChoices()
+  expect(choices.map(([id]) => id)).toEqual([...TEMPLATE_CATALOG.map((e) => e.id), 'general'])
+  expect(cycleName('general')).toBe('General cycle')
+  expect(cycleName('rankine-reheat')).toBe('Rankine with reheat')
+  expect(cycleName('no-such-cycle')).toBe('no-such-cycle')
+})
