@@ -8,9 +8,9 @@
 import type { CheckNote } from '#app/domain/grading/index.ts'
 import { compileRestrictedExpression, validateCheckRule } from '#app/domain/grading/index.ts'
 import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
-import { readQuantity, solveSpec, templates } from '#app/domain/thermo/index.ts'
+import { readQuantity, solveSpec } from '#app/domain/thermo/index.ts'
 import type { TemplateInput } from '#app/domain/thermo/index.ts'
-import { RANKINE_TEMPLATES } from '#app/domain/thermo/steam/rankine-template.ts'
+import { templateEntry } from '#app/domain/thermo/catalog.ts'
 import { whyPitfallCannotFire } from '#app/domain/grading/applicable-pitfalls.ts'
 import type { Find, ProblemDefinition } from './definition.ts'
 import { NAME_PATTERN, checkRuleOf } from './definition.ts'
@@ -38,8 +38,7 @@ function sentence(s: string): string {
 }
 
 function templateInputs(id: string): readonly TemplateInput[] | null {
-  if (Object.hasOwn(templates, id)) return templates[id]!.inputs
-  return RANKINE_TEMPLATES.find((t) => t.id === id)?.inputs ?? null
+  return templateEntry(id)?.inputs ?? null
 }
 
 /** Every `@{name}` in the strings of a JSON-like value, with the path of its string. */
@@ -168,7 +167,8 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
   const parsed = parsePlaceholders(def.prompt)
   for (const e of parsed.errors) add('prompt', e.message)
   const unknownInPrompt = [...new Set(parsed.placeholders.map((p) => p.name).filter((n) => !givenNames.has(n)))]
-  for (const n of unknownInPrompt) add('prompt', `@{${n}} names no given`)
+  const known = [...givenNames].join(', ')
+  for (const n of unknownInPrompt) add('prompt', `[${n}] names no given${known ? ` (the givens are ${known})` : ''}; write \\[ for a bracket that is only a bracket`)
 
   // A trial variant, only when the definition is otherwise sound: its errors would repeat the above.
   if (out.length === 0) trial(def, add)
