@@ -48,14 +48,14 @@ const STEAM_CAUTION = '> Teaching values: the steam properties and results in th
 // ---- Carnot (chemistry flavour) --------------------------------------------------------
 
 const carnotEngine: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Carnot engine on one mole of a monatomic gas',
   tags: { topics: ['carnot', 'isothermal', 'second law', 'efficiency'], difficulty: 'introductory', level: 'first-year' },
   convention: 'course',
   prompt: [
-    'One mole of an ideal monatomic gas runs a reversible Carnot cycle between a hot reservoir at $T_H =$ @{TH} and a cold reservoir at $T_L =$ @{TL}.',
+    'One mole of an ideal monatomic gas runs a reversible Carnot cycle between a hot reservoir at $T_H =$ [TH] and a cold reservoir at $T_L =$ [TL].',
     '',
-    'At the start of the isothermal expansion the gas is at @{p1 in kPa}; during that expansion its volume grows by a factor of @{r} ($V_2/V_1$).',
+    'At the start of the isothermal expansion the gas is at [p1 in kPa]; during that expansion its volume grows by a factor of [r] ($V_2/V_1$).',
     '',
     '1. What is the thermal efficiency of the cycle?',
     '2. How much heat $q$ does the gas take in during the isothermal expansion at $T_H$, per mole?',
@@ -77,14 +77,14 @@ const carnotEngine: ProblemDefinition = {
 }
 
 const carnotRefrigerator: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Carnot refrigerator for a cold store',
   tags: { topics: ['carnot', 'refrigeration', 'coefficient of performance'], difficulty: 'introductory', level: 'first-year' },
   convention: 'course',
   prompt: [
-    'A cold store is kept at @{Tc} while the plant room around it is at @{Th}. As an upper bound on what any refrigerator could do, model the plant as a reversible Carnot refrigerator with air as the working fluid, taking heat from the cold space at $T_C$ and rejecting it at $T_H$.',
+    'A cold store is kept at [Tc] while the plant room around it is at [Th]. As an upper bound on what any refrigerator could do, model the plant as a reversible Carnot refrigerator with air as the working fluid, taking heat from the cold space at $T_C$ and rejecting it at $T_H$.',
     '',
-    'The air enters the isothermal expansion at @{p1} and its volume grows by a factor of @{r} during that expansion.',
+    'The air enters the isothermal expansion at [p1] and its volume grows by a factor of [r] during that expansion.',
     '',
     'Find:',
     '',
@@ -108,14 +108,14 @@ const carnotRefrigerator: ProblemDefinition = {
 }
 
 const carnotHeatPump: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Reversible heat pump on a diatomic gas',
   tags: { topics: ['carnot', 'heat pump', 'coefficient of performance', 'per mole'], difficulty: 'standard', level: 'second-year' },
   convention: 'chemistry',
   prompt: [
-    'A reversible (Carnot) heat pump uses an ideal diatomic gas ($c_v = \\tfrac{5}{2}R$). It takes heat from outdoor air at $T_C =$ @{Tc} and delivers heat indoors at $T_H = T_C +$ @{lift} $=$ @{Th}.',
+    'A reversible (Carnot) heat pump uses an ideal diatomic gas ($c_v = \\tfrac{5}{2}R$). It takes heat from outdoor air at $T_C =$ [Tc] and delivers heat indoors at $T_H = T_C +$ [lift] $=$ [Th].',
     '',
-    'The gas starts the isothermal expansion at $T_C$ and @{p1}, and expands to @{r} times its volume.',
+    'The gas starts the isothermal expansion at $T_C$ and [p1], and expands to [r] times its volume.',
     '',
     'Using the chemistry convention ($\\Delta U = q + w$, $w$ the work done on the gas), find:',
     '',
@@ -142,12 +142,12 @@ const carnotHeatPump: ProblemDefinition = {
 // ---- Reciprocating engines (engineering flavour, per kg of air) -------------------------
 
 const ottoV1: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Air-standard Otto cycle',
   tags: { topics: ['otto', 'air standard', 'isentropic'], difficulty: 'standard', level: 'first-year' },
   convention: 'course',
   prompt: [
-    'An air-standard Otto cycle has a compression ratio of @{r}. At the start of compression the air is at @{p1} and @{T1}; @{qin} of heat is added at constant volume.',
+    'An air-standard Otto cycle has a compression ratio of [r]. At the start of compression the air is at [p1] and [T1]; [qin] of heat is added at constant volume.',
     '',
     'Use air with constant specific heats ($c_p = 1.005$ kJ/(kg K), $c_v = 0.718$ kJ/(kg K)). Find:',
     '',
@@ -176,7 +176,7 @@ const ottoV2: ProblemDefinition = {
   ...ottoV1,
   tags: { ...ottoV1.tags, topics: [...ottoV1.tags.topics, 'mean effective pressure'] },
   prompt: [
-    'An air-standard Otto cycle has a compression ratio of @{r}. At the start of compression the air is at @{p1} and @{T1}; @{qin} of heat is added at constant volume.',
+    'An air-standard Otto cycle has a compression ratio of [r]. At the start of compression the air is at [p1] and [T1]; [qin] of heat is added at constant volume.',
     '',
     'Use air with constant specific heats ($c_p = 1.005$ kJ/(kg K), $c_v = 0.718$ kJ/(kg K)). Find:',
     '',
@@ -195,12 +195,12 @@ const ottoV2: ProblemDefinition = {
 }
 
 const diesel: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Air-standard Diesel cycle with a given cutoff ratio',
   tags: { topics: ['diesel', 'air standard', 'cutoff ratio'], difficulty: 'standard', level: 'first-year' },
   convention: 'course',
   prompt: [
-    'An air-standard Diesel cycle has a compression ratio of @{r} and a cutoff ratio $r_c = V_3/V_2 =$ @{rc}. Air enters compression at @{p1} and @{T1}.',
+    'An air-standard Diesel cycle has a compression ratio of [r] and a cutoff ratio $r_c = V_3/V_2 =$ [rc]. Air enters compression at [p1] and [T1].',
     '',
     'With constant specific heats for air, find:',
     '',
@@ -224,12 +224,12 @@ const diesel: ProblemDefinition = {
 }
 
 const dual: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Dual cycle: heat added at constant volume, then at constant pressure',
   tags: { topics: ['dual', 'air standard', 'limited pressure'], difficulty: 'challenging', level: 'second-year' },
   convention: 'course',
   prompt: [
-    'In an air-standard dual cycle, air at @{p1} and @{T1} is compressed isentropically through a compression ratio of @{r}. Heat is then added at constant volume until the pressure has risen by a factor of @{rp}, and then at constant pressure until the volume has grown by a factor of @{rc}.',
+    'In an air-standard dual cycle, air at [p1] and [T1] is compressed isentropically through a compression ratio of [r]. Heat is then added at constant volume until the pressure has risen by a factor of [rp], and then at constant pressure until the volume has grown by a factor of [rc].',
     '',
     'Find:',
     '',
@@ -256,12 +256,12 @@ const dual: ProblemDefinition = {
 // ---- Gas turbines ------------------------------------------------------------------------
 
 const brayton: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Gas-turbine (Brayton) cycle with component efficiencies',
   tags: { topics: ['brayton', 'gas turbine', 'isentropic efficiency', 'back work ratio'], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
   prompt: [
-    'A simple gas-turbine plant takes in air at 100 kPa and @{T1} and compresses it through a pressure ratio of @{rp}. The turbine inlet temperature is @{TIT}. The compressor and turbine have isentropic efficiencies of @{etaC, 2 dp} and @{etaT, 2 dp}.',
+    'A simple gas-turbine plant takes in air at 100 kPa and [T1] and compresses it through a pressure ratio of [rp]. The turbine inlet temperature is [TIT]. The compressor and turbine have isentropic efficiencies of [etaC, 2 dp] and [etaT, 2 dp].',
     '',
     'Treat the working fluid as air with constant specific heats throughout (air-standard analysis). Per kilogram of air, find:',
     '',
@@ -292,12 +292,12 @@ const brayton: ProblemDefinition = {
 }
 
 const braytonRegenerative: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Regenerative gas turbine',
   tags: { topics: ['brayton', 'regeneration', 'gas turbine', 'effectiveness'], difficulty: 'challenging', level: 'second-year' },
   convention: 'course',
   prompt: [
-    'A gas-turbine plant with a regenerator compresses air from 100 kPa and @{T1} through a pressure ratio of @{rp}; the turbine inlet temperature is @{TIT}. The compressor and turbine isentropic efficiencies are @{etaC, 2 dp} and 0.88. The regenerator has an effectiveness of @{eps, 2 dp}.',
+    'A gas-turbine plant with a regenerator compresses air from 100 kPa and [T1] through a pressure ratio of [rp]; the turbine inlet temperature is [TIT]. The compressor and turbine isentropic efficiencies are [etaC, 2 dp] and 0.88. The regenerator has an effectiveness of [eps, 2 dp].',
     '',
     'With the air-standard assumptions (constant specific heats), find:',
     '',
@@ -328,12 +328,12 @@ const braytonRegenerative: ProblemDefinition = {
 // ---- Regenerative gas cycles --------------------------------------------------------------
 
 const stirling: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Ideal Stirling engine on a monatomic gas',
   tags: { topics: ['stirling', 'isothermal', 'regeneration', 'per mole'], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
   prompt: [
-    'An ideal Stirling engine works with an ideal monatomic gas between @{Tc} and @{Th}, with an ideal regenerator. At the start of the isothermal compression (at $T_C$, largest volume) the gas is at @{p1}; the compression ratio $V_1/V_2$ is @{r}.',
+    'An ideal Stirling engine works with an ideal monatomic gas between [Tc] and [Th], with an ideal regenerator. At the start of the isothermal compression (at $T_C$, largest volume) the gas is at [p1]; the compression ratio $V_1/V_2$ is [r].',
     '',
     'Per mole of gas, find:',
     '',
@@ -364,7 +364,7 @@ const stirlingAir: ProblemDefinition = {
   title: 'Ideal Stirling engine per kilogram of air',
   tags: { topics: ['stirling', 'isothermal', 'regeneration'], difficulty: 'standard', level: 'first-year' },
   prompt: [
-    'An ideal Stirling engine uses air as its working gas between @{Tc} and @{Th}, with an ideal regenerator. At the start of the isothermal compression (at $T_C$, largest volume) the air is at @{p1}; the compression ratio $V_1/V_2$ is @{r}.',
+    'An ideal Stirling engine uses air as its working gas between [Tc] and [Th], with an ideal regenerator. At the start of the isothermal compression (at $T_C$, largest volume) the air is at [p1]; the compression ratio $V_1/V_2$ is [r].',
     '',
     'Per kilogram of air ($R = 0.287$ kJ/(kg K)), find:',
     '',
@@ -381,12 +381,12 @@ const stirlingAir: ProblemDefinition = {
 }
 
 const ericsson: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Ideal Ericsson cycle in steady flow',
   tags: { topics: ['ericsson', 'isothermal', 'regeneration', 'steady flow'], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
   prompt: [
-    'An ideal Ericsson cycle runs in steady flow with air. The air is compressed isothermally at @{Tc} from 100 kPa through a pressure ratio of @{rp}, heated at constant pressure in an ideal regenerator, expanded isothermally at @{Th}, and cooled back through the regenerator.',
+    'An ideal Ericsson cycle runs in steady flow with air. The air is compressed isothermally at [Tc] from 100 kPa through a pressure ratio of [rp], heated at constant pressure in an ideal regenerator, expanded isothermally at [Th], and cooled back through the regenerator.',
     '',
     'Per kilogram of air, find:',
     '',
@@ -411,14 +411,14 @@ const ericsson: ProblemDefinition = {
 // ---- Steam ---------------------------------------------------------------------------------
 
 const rankine: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Ideal Rankine cycle with superheat',
   tags: { topics: ['rankine', 'steam', 'superheat', 'turbine exit quality'], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
   prompt: [
     STEAM_CAUTION,
     '',
-    'A steam power plant runs on the ideal Rankine cycle. Steam leaves the boiler at @{pB} and @{TIT} and expands in the turbine to the condenser pressure of @{pC}; saturated liquid leaves the condenser.',
+    'A steam power plant runs on the ideal Rankine cycle. Steam leaves the boiler at [pB] and [TIT] and expands in the turbine to the condenser pressure of [pC]; saturated liquid leaves the condenser.',
     '',
     'Per kilogram of steam, find:',
     '',
@@ -441,14 +441,14 @@ const rankine: ProblemDefinition = {
 }
 
 const rankineReheat: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Reheat Rankine cycle',
   tags: { topics: ['rankine', 'steam', 'reheat'], difficulty: 'challenging', level: 'upper-level' },
   convention: 'course',
   prompt: [
     STEAM_CAUTION,
     '',
-    'An ideal reheat Rankine cycle: steam enters the high-pressure turbine at @{pB} and @{TIT}, expands to @{pR}, is reheated at constant pressure to @{TR}, and expands in the low-pressure turbine to 10 kPa.',
+    'An ideal reheat Rankine cycle: steam enters the high-pressure turbine at [pB] and [TIT], expands to [pR], is reheated at constant pressure to [TR], and expands in the low-pressure turbine to 10 kPa.',
     '',
     'Per kilogram of steam, find:',
     '',
@@ -476,14 +476,14 @@ const rankineReheat: ProblemDefinition = {
 }
 
 const rankineRegenerative: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Regenerative Rankine cycle with an open feedwater heater',
   tags: { topics: ['rankine', 'steam', 'feedwater heater', 'regeneration', 'isentropic efficiency'], difficulty: 'challenging', level: 'upper-level' },
   convention: 'course',
   prompt: [
     STEAM_CAUTION,
     '',
-    'Steam enters the turbine of a regenerative Rankine plant at 15 MPa and @{TIT}. Some steam is bled at @{pF} to an open feedwater heater; the rest expands to 10 kPa. Saturated liquid leaves both the condenser and the heater. The turbine has an isentropic efficiency of @{etaT, 2 dp} (for each section) and both pumps @{etaP, 2 dp}.',
+    'Steam enters the turbine of a regenerative Rankine plant at 15 MPa and [TIT]. Some steam is bled at [pF] to an open feedwater heater; the rest expands to 10 kPa. Saturated liquid leaves both the condenser and the heater. The turbine has an isentropic efficiency of [etaT, 2 dp] (for each section) and both pumps [etaP, 2 dp].',
     '',
     'Per kilogram of steam through the boiler, find:',
     '',
@@ -513,14 +513,14 @@ const rankineRegenerative: ProblemDefinition = {
 // ---- A general state-and-process cycle -------------------------------------------------------
 
 const threeStep: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Three-step cycle: polytropic compression, isobaric expansion, isochoric cooling',
   tags: { topics: ['polytropic', 'isobaric', 'isochoric', 'first law', 'per mole'], difficulty: 'challenging', level: 'second-year' },
   convention: 'course',
   prompt: [
-    'Two moles of an ideal @{gas} gas start in state A at 100 kPa and @{VA}. The gas is',
+    'Two moles of an ideal [gas] gas start in state A at 100 kPa and [VA]. The gas is',
     '',
-    '1. compressed polytropically ($pV^n$ = const, $n =$ @{n, 2 dp}) to state B at @{pB},',
+    '1. compressed polytropically ($pV^n$ = const, $n =$ [n, 2 dp]) to state B at [pB],',
     '2. expanded at constant pressure to state C, back at the volume of A,',
     '3. cooled at constant volume back to A.',
     '',

@@ -14,11 +14,11 @@ import {
 
 // Invented demo problems: they exercise every field of the form, not the physics.
 const ottoProblem: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Otto cycle: net work and efficiency',
   tags: { topics: ['otto', 'air standard'], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
-  prompt: 'Air at @{p1 in kPa} and @{T1} is compressed with ratio @{r}.\n\nFind $w_{net}$ and $\\eta$.',
+  prompt: 'Air at [p1 in kPa] and [T1] is compressed with ratio [r].\n\nFind $w_{net}$ and $\\eta$.',
   givens: [
     { name: 'T1', label: 'inlet temperature', unit: 'K', rule: { kind: 'range', min: 290, max: 310, step: 5 } },
     { name: 'p1', label: 'inlet pressure', unit: 'kPa', rule: { kind: 'choice', values: [95, 100, 105] }, display: { decimals: 0 } },
@@ -59,11 +59,11 @@ const ottoProblem: ProblemDefinition = {
 }
 
 const cycleProblem: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Three-step cycle',
   tags: { topics: [], difficulty: 'challenging', level: 'upper-level' },
   convention: 'chemistry',
-  prompt: 'Two moles go round @{pB}.',
+  prompt: 'Two moles go round [pB].',
   givens: [{ name: 'pB', label: 'pressure at B', unit: 'bar', rule: { kind: 'range', min: 2, max: 4, step: 1 } }],
   constraints: [],
   physics: {

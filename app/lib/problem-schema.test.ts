@@ -16,11 +16,11 @@ import {
 // Demo data: a Carnot engine whose reservoir temperatures are drawn per student.
 function carnot(): ProblemDefinition {
   return {
-    format: 1,
+    format: 2,
     title: 'Carnot engine efficiency',
     tags: { topics: ['carnot', 'second law'], difficulty: 'introductory', level: 'first-year' },
     convention: 'course',
-    prompt: 'A Carnot engine runs between @{TH} and @{TL}. Find its thermal efficiency.',
+    prompt: 'A Carnot engine runs between [TH] and [TL]. Find its thermal efficiency.',
     givens: [
       { name: 'TH', label: 'hot reservoir temperature', unit: 'K', rule: { kind: 'range', min: 600, max: 1200, step: 50 } },
       { name: 'TL', label: 'cold reservoir temperature', unit: 'K', rule: { kind: 'range', min: 280, max: 350, step: 10 } },
@@ -65,7 +65,7 @@ describe('ProblemDefinitionSchema', () => {
     ['title too short', (d) => (d.title = 'ab'), 'title'],
     ['title too long', (d) => (d.title = 'x'.repeat(161)), 'title'],
     ['prompt too long', (d) => (d.prompt = 'x'.repeat(20_001)), 'prompt'],
-    ['format from a newer release', (d) => (d.format = 2), 'format'],
+    ['format from a newer release', (d) => (d.format = 3), 'format'],
     ['difficulty not in the list', (d) => (d.tags.difficulty = 'hard'), 'tags.difficulty'],
     ['level not in the list', (d) => (d.tags.level = 'phd'), 'tags.level'],
     ['convention not in the list', (d) => (d.convention = 'physics'), 'convention'],
@@ -110,7 +110,7 @@ describe('ProblemDefinitionSchema', () => {
   })
 
   test('a newer definition format says so', () => {
-    const [issue] = definitionIssues(edited((d) => (d.format = 2)))
+    const [issue] = definitionIssues(edited((d) => (d.format = 3)))
     expect(issue?.message).toMatch(/newer Cyclewright/)
   })
 
@@ -168,8 +168,8 @@ describe('readBankDocument', () => {
 
   test.each<[string, unknown, string, RegExp]>([
     ['another format', bankDoc([], { format: 'some-other-bank' }), 'format', /not a Cyclewright bank document/],
-    ['a newer version', bankDoc([{ title: 'x', definition: carnot() }], { version: 2 }), 'version', /newer Cyclewright/],
-    ['a version that is not a number', bankDoc([], { version: 'one' }), 'version', /Set version to 1/],
+    ['a newer version', bankDoc([{ title: 'x', definition: carnot() }], { version: 3 }), 'version', /newer Cyclewright/],
+    ['a version that is not a number', bankDoc([], { version: 'one' }), 'version', /Set version to 2/],
     ['a list instead of an object', [carnot()], '', /one JSON object/],
     ['no problems', bankDoc([]), 'problems', /no problems/],
     ['more than 500 problems', bankDoc(Array.from({ length: 501 }, () => ({ title: 'x', definition: carnot() }))), 'problems', /at most 500/],

@@ -15,6 +15,7 @@ import {
   FIND_SENSES,
   NAME_PATTERN,
   type ProblemDefinition,
+  upgradeDefinition,
 } from '#app/domain/authoring/definition.ts'
 import type { PitfallId } from '#app/domain/grading/pitfalls.ts'
 import { controlCharIssues } from '#app/lib/text-field.ts'
@@ -328,14 +329,18 @@ export function parseDefinition(raw: unknown): { ok: true; value: ProblemDefinit
   // The editor shows its fields back without NUL characters (problem-editor.server.ts), and says so.
   const control = controlCharIssues(raw, () => 'this text', { echoed: true })
   if (control.length > 0) return { ok: false, issues: control }
-  const r = ProblemDefinitionSchema.safeParse(raw, { error: authorMessage })
+  // An older document (format 1) is brought up to date first (definition.ts).
+  const r = ProblemDefinitionSchema.safeParse(upgradeDefinition(raw), { error: authorMessage })
   return r.success ? { ok: true, value: r.data } : { ok: false, issues: toFieldIssues(r.error.issues) }
 }
 
 // ---- The bank document ----------------------------------------------------------------
 
 export const BANK_FORMAT_ID = 'cyclewright-bank' as const
-export const BANK_FORMAT_VERSION = 1 as const
+/** 2: definitions of format 2 (`[T1]` placeholders). Version 1 documents still import (upgraded). */
+export const BANK_FORMAT_VERSION = 2 as const
+/** Bank document versions readBankDocument still reads. */
+export const BANK_FORMAT_VERSIONS_READ: readonly number[] = [1, 2]
 export const BANK_MAX_PROBLEMS = 500
 
 export const BankProblemSchema = z.strictObject({
@@ -348,7 +353,8 @@ export const BankProblemSchema = z.strictObject({
       author: text("the original author's name", 200, 1),
     })
     .optional(),
-  definition: ProblemDefinitionSchema,
+  // An older definition (format 1) is upgraded before it is checked.
+  definition: z.preprocess(upgradeDefinition, ProblemDefinitionSchema),
 })
 /** One problem of a bank document, with the definition typed as the domain contract. */
 export type BankProblem = {
@@ -425,7 +431,7 @@ export function readBankDocument(raw: unknown): BankReadResult {
   if (typeof o.version === 'number' && Number.isInteger(o.version) && o.version > BANK_FORMAT_VERSION) {
     return doc(`This document was made by a newer Cyclewright (bank format version ${o.version}); this one reads version ${BANK_FORMAT_VERSION}. Update Cyclewright, or export again from an older one.`, 'version')
   }
-  if (o.version !== BANK_FORMAT_VERSION) return doc(`Set version to ${BANK_FORMAT_VERSION}.`, 'version')
+  if (typeof o.version !== 'number' || !BANK_FORMAT_VERSIONS_READ.includes(o.version)) return doc(`Set version to ${BANK_FORMAT_VERSION}.`, 'version')
 
   const errors: BankError[] = []
   const envelope = EnvelopeSchema.safeParse(value, { error: authorMessage })

@@ -10,7 +10,7 @@ import { createHash } from 'node:crypto'
 import { and, eq, inArray, isNull, sql } from 'drizzle-orm'
 import { gradeAnswer } from '#app/domain/assignments/grade-answer.ts'
 import { findShares } from '#app/domain/assignments/scoring.ts'
-import type { DrawResult, ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { upgradeDefinition, type DrawResult, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { seedFrom } from '#app/domain/authoring/seed.ts'
 import { drawVariant, resolveConvention } from '#app/domain/authoring/variant.ts'
 import type { Tolerance } from '#app/domain/grading/index.ts'
@@ -112,7 +112,7 @@ export async function frozenDefinitions(database: Database, versionIds: readonly
       .from(problemVersions)
       .where(inArray(problemVersions.id, missing))
     for (const r of rows) {
-      const def = r.definition as ProblemDefinition
+      const def = upgradeDefinition(r.definition) as ProblemDefinition
       out.set(r.id, def)
       if (r.frozenAt === null) continue
       definitionCache.set(r.id, def)

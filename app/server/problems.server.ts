@@ -10,7 +10,7 @@
 import { and, asc, desc, eq, ilike, inArray, isNotNull, isNull, ne, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/pg-core'
 import { z } from 'zod'
-import { cycleOf, DIFFICULTIES, LEVELS, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { cycleOf, DIFFICULTIES, LEVELS, type ProblemDefinition, upgradeDefinition } from '#app/domain/authoring/definition.ts'
 import { canEditProblem, canSeeProblem } from '#app/domain/permissions.ts'
 import {
   BANK_FORMAT_ID,
@@ -271,7 +271,7 @@ function toVersionInfo(r: VersionRow): VersionInfo {
     frozenAt: r.frozenAt ? r.frozenAt.toISOString() : null,
     createdByName: r.createdByName,
     // Written only after parseDefinition, so the stored document has this shape.
-    definition: r.definition as ProblemDefinition,
+    definition: upgradeDefinition(r.definition) as ProblemDefinition,
   }
 }
 
@@ -463,7 +463,7 @@ export async function copyProblem(database: Database, viewer: BankViewer, proble
   return database.transaction(async (tx) => {
     const latest = await latestVersionOf(tx, problemId)
     if (!latest) throw new ProblemAccessError()
-    const definition = latest.definition as ProblemDefinition
+    const definition = upgradeDefinition(latest.definition) as ProblemDefinition
     const made = await insertProblem(tx, viewer, definition, { visibility: 'private', originProblemId: problemId, originVersionId: latest.id })
     return { problemId: made.problemId }
   })
@@ -522,7 +522,7 @@ export async function exportBank(database: Database, viewer: BankViewer, problem
     version: BANK_FORMAT_VERSION,
     exportedAt: new Date().toISOString(),
     problems: rows.map((r) => {
-      const definition = r.definition as ProblemDefinition
+      const definition = upgradeDefinition(r.definition) as ProblemDefinition
       // The author a reader should credit: the problem this one was copied from when the
       // exporter may still see it, else the credit an import carried, else the problem itself
       // and its owner.

@@ -124,7 +124,7 @@ const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto
 
 function carnot(title = 'Carnot drill'): ProblemDefinition {
   return {
-    format: 1,
+    format: 2,
     title,
     tags: { topics: ['carnot'], difficulty: 'introductory', level: 'first-year' },
     convention: 'course',

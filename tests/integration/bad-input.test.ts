@@ -300,7 +300,7 @@ describe('NUL characters in forms', () => {
 
 describe('NUL characters in problems', () => {
   const carnot = (title = 'Carnot drill'): ProblemDefinition => ({
-    format: 1,
+    format: 2,
     title,
     tags: { topics: ['carnot'], difficulty: 'introductory', level: 'first-year' },
     convention: 'course',

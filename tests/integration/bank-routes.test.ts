@@ -23,7 +23,7 @@ import { sessionCookie } from '#tests/support/login.ts'
 
 function carnot(title = 'Carnot drill'): ProblemDefinition {
   return {
-    format: 1,
+    format: 2,
     title,
     tags: { topics: ['carnot'], difficulty: 'introductory', level: 'first-year' },
     convention: 'course',

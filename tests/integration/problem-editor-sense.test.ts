@@ -7,7 +7,7 @@ import { formValuesFromDefinition } from '#app/lib/problem-form.ts'
 import { runEditorAction, type SavableProblem } from '#app/server/problem-editor.server.ts'
 
 const otto = (finds: Partial<ProblemDefinition['finds'][number]>): ProblemDefinition => ({
-  format: 1,
+  format: 2,
   title: 'Otto net work',
   tags: { topics: [], difficulty: 'standard', level: 'second-year' },
   convention: 'course',

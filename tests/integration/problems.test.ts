@@ -24,7 +24,7 @@ import { createBankUser, createDepartment } from '#tests/support/factories.ts'
 // Demo data: a Carnot engine whose reservoir temperatures are drawn per student.
 function carnot(overrides: Partial<ProblemDefinition> = {}): ProblemDefinition {
   return {
-    format: 1,
+    format: 2,
     title: 'Carnot engine efficiency',
     tags: { topics: ['carnot', 'second law'], difficulty: 'introductory', level: 'first-year' },
     convention: 'course',

@@ -12,7 +12,7 @@ import { createUser } from '#tests/support/factories.ts'
 // Carnot engine on air, TH 500..900 K, TL 280..400 K: every draw has TH > TL, so every
 // variant solves (inputs as docs/examples/carnot-engine.json).
 const carnot: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Carnot check',
   tags: { topics: [], difficulty: 'standard', level: 'first-year' },
   convention: 'engineering',

@@ -11,9 +11,29 @@ import type { CheckRule, PitfallId, Tolerance } from '#app/domain/grading/index.
 import type { SigFigRule } from '#app/domain/grading/sig-figs.ts'
 import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
 import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
+import { upgradeLegacyPrompt } from './placeholder-syntax.ts'
 
-/** Version of the definition document itself; bumped when its shape changes. */
-export const DEFINITION_FORMAT = 1 as const
+/**
+ * Version of the definition document itself; bumped when its shape or meaning changes.
+ * 1: prompts wrote placeholders as `@{T1}`. 2: as `[T1]` (./placeholders.ts).
+ */
+export const DEFINITION_FORMAT = 2 as const
+/** The oldest format upgradeDefinition still reads. */
+export const OLDEST_DEFINITION_FORMAT = 1 as const
+
+/**
+ * A definition document of any format we still read, brought to DEFINITION_FORMAT. The one
+ * upgrade: the bank import and every read of a stored version go through it (the migration
+ * drizzle/0007_prompt_placeholders.sql already upgraded what was stored). Anything that is
+ * not an older document comes back as it is, for the shape check to judge; givens, finds
+ * and physics are never touched, so a variant's numbers and key stay the same. Pure.
+ */
+export function upgradeDefinition(raw: unknown): unknown {
+  if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) return raw
+  const doc = raw as Record<string, unknown>
+  if (doc.format !== 1) return raw
+  return { ...doc, format: 2, ...(typeof doc.prompt === 'string' ? { prompt: upgradeLegacyPrompt(doc.prompt) } : {}) }
+}
 
 /** Given and find names: identifiers usable in expressions and placeholders. */
 export const NAME_PATTERN = /^[A-Za-z][A-Za-z0-9_]{0,31}$/
@@ -120,7 +140,7 @@ export interface ProblemDefinition {
   readonly title: string
   readonly tags: ProblemTags
   readonly convention: ProblemConvention
-  /** Markdown with $inline$ and $$display$$ math, and @{given} placeholders (docs/authoring.md). */
+  /** Markdown with $inline$ and $$display$$ math, and [given] placeholders (docs/authoring.md). */
   readonly prompt: string
   readonly givens: readonly Given[]
   readonly constraints: readonly Constraint[]

@@ -6,7 +6,7 @@ const given = (name: string, unit: string, rule: GivenRule, display?: Given['dis
 
 function problem(givens: Given[], constraints: Constraint[] = []): ProblemDefinition {
   return {
-    format: 1,
+    format: 2,
     title: 'Test',
     tags: { topics: [], difficulty: 'standard', level: 'second-year' },
     convention: 'engineering',

@@ -4,11 +4,11 @@ import { lintDefinition, lintWarnings } from './lint.ts'
 
 const rel = { kind: 'relative', value: 0.01 } as const
 const good: ProblemDefinition = {
-  format: 1,
+  format: 2,
   title: 'Otto cycle',
   tags: { topics: ['otto'], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
-  prompt: 'Air enters at @{T1} and @{p1}; the compression ratio is @{r}. Find the efficiency.',
+  prompt: 'Air enters at [T1] and [p1]; the compression ratio is [r]. Find the efficiency.',
   givens: [
     { name: 'T1', label: 'intake temperature', unit: 'K', rule: { kind: 'range', min: 280, max: 320, step: 5 } },
     { name: 'p1', label: 'intake pressure', unit: 'kPa', rule: { kind: 'range', min: 90, max: 110, step: 5 } },
@@ -62,7 +62,7 @@ test.each<[string, string, Edit, RegExp]>([
   ['a find expression that does not compile', 'finds.2.source.expression', (d) => findAt(d, 2, { source: { kind: 'expression', expression: '800 kJ/kg - - ' } }), /could not be read/],
   ['a negative tolerance', 'finds.0.tolerance.value', (d) => findAt(d, 0, { tolerance: { kind: 'relative', value: -0.01 } }), /≥ 0/],
   ['a tolerance unit that does not fit', 'finds.1.tolerance.unit', (d) => findAt(d, 1, { tolerance: { kind: 'absolute', value: 1, unit: 'K' } }), /does not fit/],
-  ['a placeholder in the prompt naming no given', 'prompt', (d) => ({ ...d, prompt: 'Heat @{q23} is added at @{T1}.' }), /@\{q23\} names no given/],
+  ['a placeholder in the prompt naming no given', 'prompt', (d) => ({ ...d, prompt: 'Heat [q23] is added at [T1].' }), /placeholder \[q23\] names no given \(the givens are T1, /],
   ['an output path that is not in the solution', 'finds.0.source.path', (d) => findAt(d, 0, { source: { kind: 'output', path: 'totals.efficency' } }), /no number at "totals\.efficency"/],
   ['an output path past the last state', 'finds.0.source.path', (d) => findAt(d, 0, { source: { kind: 'output', path: 'states.7.T' }, unit: 'K' }), /states\.7\.T/],
   ['an output in a unit of another dimension', 'finds.1.unit', (d) => findAt(d, 1, { unit: 'K' }), /cannot be stated in "K"/],

@@ -168,7 +168,7 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
   for (const e of parsed.errors) add('prompt', e.message)
   const unknownInPrompt = [...new Set(parsed.placeholders.map((p) => p.name).filter((n) => !givenNames.has(n)))]
   const known = [...givenNames].join(', ')
-  for (const n of unknownInPrompt) add('prompt', `[${n}] names no given${known ? ` (the givens are ${known})` : ''}; write \\[ for a bracket that is only a bracket`)
+  for (const n of unknownInPrompt) add('prompt', `The placeholder [${n}] names no given${known ? ` (the givens are ${known})` : ''}; write \\[ for a bracket that is only a bracket`)
 
   // A trial variant, only when the definition is otherwise sound: its errors would repeat the above.
   if (out.length === 0) trial(def, add)

@@ -1,6 +1,7 @@
 import { describe, expect, test } from 'vitest'
 import type { DrawnGiven } from './definition.ts'
-import { convertValue, expandPlaceholders, formatGivenValue, parsePlaceholders, unitToTex } from './placeholders.ts'
+import { upgradeDefinition } from './definition.ts'
+import { convertValue, expandPlaceholders, formatGivenValue, parsePlaceholders, placeholderText, scanPlaceholders, unitToTex, upgradeLegacyPrompt } from './placeholders.ts'
 
 const given = (name: string, value: number, unit: string, text = `${value} ${unit}`.trim()): DrawnGiven => ({ name, label: name, value, unit, text })
 const T1 = given('T1', 300, 'K')
@@ -9,14 +10,13 @@ const gas = { name: 'gas', label: 'gas', value: NaN, unit: '', text: 'air' } sat
 
 describe('parsePlaceholders', () => {
   test.each([
-    ['@{T1}', { name: 'T1' }],
-    ['@{ T1 }', { name: 'T1' }],
-    ['@{T1 in kPa}', { name: 'T1', unit: 'kPa' }],
-    ['@{T1 in °C}', { name: 'T1', unit: '°C' }],
-    ['@{T1, 3 sf}', { name: 'T1', sigFigs: 3 }],
-    ['@{T1,2dp}', { name: 'T1', decimals: 2 }],
-    ['@{T1 in °C, 1 dp}', { name: 'T1', unit: '°C', decimals: 1 }],
-    ['@{q_in in kJ/(kg K), 4 sf}', { name: 'q_in', unit: 'kJ/(kg K)', sigFigs: 4 }],
+    ['[T1]', { name: 'T1' }],
+    ['[T1 in kPa]', { name: 'T1', unit: 'kPa' }],
+    ['[T1 in °C]', { name: 'T1', unit: '°C' }],
+    ['[T1, 3 sf]', { name: 'T1', sigFigs: 3 }],
+    ['[T1,2dp]', { name: 'T1', decimals: 2 }],
+    ['[T1 in °C, 1 dp]', { name: 'T1', unit: '°C', decimals: 1 }],
+    ['[q_in in kJ/(kg K), 4 sf]', { name: 'q_in', unit: 'kJ/(kg K)', sigFigs: 4 }],
   ])('%s is read as %o', (text, expected) => {
     const r = parsePlaceholders(`x ${text} y`)
     expect(r.errors).toEqual([])
@@ -27,28 +27,88 @@ describe('parsePlaceholders', () => {
     expect(end).toBe(2 + text.length)
   })
 
-  test('@@{ is a literal @{ and not a placeholder', () => {
-    const r = parsePlaceholders('write @@{T1} to show a brace, @{p1} is real')
+  test('\\[ is a bracket that is only a bracket, and the placeholder after it still counts', () => {
+    const r = parsePlaceholders('write \\[T1] to show brackets, [p1] is real')
     expect(r.placeholders.map((p) => p.name)).toEqual(['p1'])
     expect(r.errors).toEqual([])
+    expect(scanPlaceholders('a \\[T1] b')).toEqual([{ kind: 'text', text: 'a [T1] b', offset: 0 }])
   })
 
   test.each([
-    ['@{}', /empty placeholder/],
-    ['@{T1', /unclosed placeholder/],
-    ['@{T1\n}', /unclosed placeholder/],
-    ['@{1T}', /not a given name/],
-    ['@{T1, 3 sig}', /unknown option "3 sig"/],
-    ['@{T1, 0 sf}', /significant figures must be 1 to 15/],
-    ['@{T1, 20 dp}', /decimal places must be 0 to 12/],
-    ['@{T1 in }', /cannot read|needs a unit/],
-    ['@{T1 foo}', /cannot read "T1 foo"/],
-  ])('%j is an error with its offset', (text, message) => {
+    ['a bracket that does not start with a letter', 'see [1] and [ T1 ] and [] and [-3, 4]'],
+    ['a Markdown link', 'the [steam tables](https://example.org/steam)'],
+    ['a bracket after a TeX command', '$\\sqrt[n]{x}$ and $\\left[ a \\right]$ and $\\left[T1 \\right]$'],
+    ['a bracket never closed on its line', 'an open [T1 bracket\n] here'],
+    ['a bracket holding another', '[a [b'],
+    ['a bracket longer than a placeholder', `[${'a'.repeat(90)}]`],
+  ])('not a placeholder: %s', (_name, text) => {
+    expect(parsePlaceholders(text)).toEqual({ placeholders: [], errors: [] })
+  })
+
+  test('inside math "](" is no link, so the placeholder counts', () => {
+    expect(parsePlaceholders('[T1](1 + r)', { math: true }).placeholders.map((p) => p.name)).toEqual(['T1'])
+    expect(parsePlaceholders('[T1](1 + r)').placeholders).toEqual([])
+  })
+
+  test.each([
+    ['[T1x! in K]', /not a given name/],
+    ['[T1, 3 sig]', /unknown option "3 sig"/],
+    ['[T1, 0 sf]', /significant figures must be 1 to 15/],
+    ['[T1, 20 dp]', /decimal places must be 0 to 12/],
+    ['[T1 in ]', /cannot read|needs a unit/],
+    ['[T1 foo]', /cannot read \[T1 foo\].*\\\[/],
+    ['[see note]', /cannot read \[see note\]: write \[see\]/],
+  ])('%j is an error with its offset, saying how to write a bracket', (text, message) => {
     const r = parsePlaceholders(`ab ${text}`)
     expect(r.placeholders).toEqual([])
     expect(r.errors).toHaveLength(1)
     expect(r.errors[0]!.offset).toBe(3)
     expect(r.errors[0]!.message).toMatch(message)
+  })
+
+  test('a name that is not one is not a placeholder when it starts with a digit', () => {
+    // "[1T]" starts with a digit: plain text, like a reference mark "[1]".
+    expect(parsePlaceholders('x [1T] y')).toEqual({ placeholders: [], errors: [] })
+  })
+
+  test('placeholderText writes what the parser reads', () => {
+    for (const [name, o] of [['T1', {}], ['T1', { unit: '°C' }], ['p1', { sigFigs: 3 }], ['q', { unit: 'kJ/kg', decimals: 2 }]] as const) {
+      const text = placeholderText(name, o)
+      const { start: _s, end: _e, ...rest } = parsePlaceholders(text).placeholders[0]!
+      expect(rest).toEqual({ name, ...o })
+    }
+  })
+})
+
+describe('upgradeLegacyPrompt (definition format 1 → 2)', () => {
+  test.each([
+    ['@{T1}', '[T1]'],
+    ['@{ T1 }', '[T1]'],
+    ['at @{T1 in °C, 1 dp} and @{p1, 3 sf}', 'at [T1 in °C, 1 dp] and [p1, 3 sf]'],
+    ['write @@{T1} for a brace', 'write @{T1} for a brace'],
+    ['a list [see below] and [1]', 'a list \\[see below] and [1]'],
+    ['the [steam tables](https://example.org) stay a link', 'the [steam tables](https://example.org) stay a link'],
+    ['$\\sqrt[n]{@{x}}$ and $\\left[@{T1}\\right]$', '$\\sqrt[n]{[x]}$ and $\\left[[T1]\\right]$'],
+    ['already escaped \\[T1]', 'already escaped \\[T1]'],
+    ['@{T1}(gauge)', '[T1] (gauge)'],
+    ['unclosed @{T1 stays', 'unclosed @{T1 stays'],
+    ['money $5 and @{r}', 'money $5 and [r]'],
+  ])('%j → %j', (old, upgraded) => {
+    expect(upgradeLegacyPrompt(old)).toBe(upgraded)
+  })
+
+  test('old and new prompts show the same text for the same givens', () => {
+    const old = 'Air (@{gas}) at @{T1} = @{T1 in °C, 1 dp}; write @@{T1}, see [note] and [the tables](https://example.org)'
+    const upgraded = upgradeLegacyPrompt(old)
+    expect(expandPlaceholders(upgraded, [T1, gas])).toEqual({ text: 'Air (air) at 300\u00A0K = 26.9\u00A0°C; write @{T1}, see [note] and [the tables](https://example.org)', errors: [] })
+  })
+
+  test('a format-2 definition is left as it is; a format-1 one changes only its prompt and format', () => {
+    const def = { format: 1, title: 't', prompt: 'at @{T1}', givens: [{ name: 'T1' }], physics: { kind: 'template', template: 'otto', inputs: { T3: '@{T1} + 500 K' } } }
+    expect(upgradeDefinition(def)).toEqual({ ...def, format: 2, prompt: 'at [T1]' })
+    const current = { ...def, format: 2 }
+    expect(upgradeDefinition(current)).toBe(current)
+    expect(upgradeDefinition('not a document')).toBe('not a document')
   })
 })
 
@@ -109,17 +169,17 @@ describe('formatGivenValue', () => {
 
 describe('expandPlaceholders', () => {
   test('replaces every placeholder and undoes escapes', () => {
-    const r = expandPlaceholders('Air (@{gas}) at @{T1} = @{T1 in °C, 1 dp}; write @@{T1} literally', [T1, gas])
+    const r = expandPlaceholders('Air ([gas]) at [T1] = [T1 in °C, 1 dp]; write \\[T1] literally', [T1, gas])
     expect(r.errors).toEqual([])
-    expect(r.text).toBe('Air (air) at 300\u00A0K = 26.9\u00A0°C; write @{T1} literally')
+    expect(r.text).toBe('Air (air) at 300\u00A0K = 26.9\u00A0°C; write [T1] literally')
   })
   test('unknown names and bad options come back with name, message and offset', () => {
-    const text = 'at @{T9} and @{T1 in kPa} and @{T1, 3 sig}'
+    const text = 'at [T9] and [T1 in kPa] and [T1, 3 sig]'
     const r = expandPlaceholders(text, [T1])
     expect(r.errors).toEqual([
-      { name: 'T9', message: 'unknown given T9', offset: text.indexOf('@{T9') },
-      { name: 'T1', message: expect.stringMatching(/different dimensions/), offset: text.indexOf('@{T1 in') },
-      { name: 'T1', message: expect.stringMatching(/unknown option/), offset: text.indexOf('@{T1, 3') },
+      { name: 'T9', message: 'unknown given T9', offset: text.indexOf('[T9') },
+      { name: 'T1', message: expect.stringMatching(/different dimensions/), offset: text.indexOf('[T1 in') },
+      { name: 'T1', message: expect.stringMatching(/unknown option/), offset: text.indexOf('[T1, 3') },
     ])
     expect(r.text).toContain('[unknown given T9]')
   })

@@ -1,13 +1,23 @@
 /**
- * `@{…}` placeholders in a problem's prompt: where a drawn given's value goes, and how it is
- * shown. The syntax is ours (docs/authoring.md):
+ * Placeholders in a problem's prompt: where a drawn given's value goes, and how it is shown.
+ * The syntax is ours, a given's name in square brackets (docs/authoring.md):
  *
- *   @{T1}                 the value with its unit, at the given's display precision
- *   @{T1 in °C}           converted to another unit of the same dimension
- *   @{p1, 3 sf}           three significant figures
- *   @{q23, 2 dp}          two decimal places
- *   @{T1 in °C, 1 dp}     both
- *   @@{                   a literal "@{"
+ *   [T1]                  the value with its unit, at the given's display precision
+ *   [T1 in °C]            converted to another unit of the same dimension
+ *   [p1, 3 sf]            three significant figures
+ *   [q23, 2 dp]           two decimal places
+ *   [T1 in °C, 1 dp]      both
+ *   \[                    a bracket that is only a bracket
+ *
+ * Only a bracket with a letter right after it is read, and only up to the first "]" on the
+ * same line. Never read as a placeholder: a bracket after a backslash or a TeX command
+ * (`\[`, `\sqrt[n]`, `\left[`), a bracket holding another "[", one never closed on its line,
+ * and (outside math) a Markdown link `[text](address)`.
+ *
+ * Definition format 1 wrote `@{T1 in °C, 1 dp}` and `@@{` for a literal "@{";
+ * upgradeLegacyPrompt turns such a prompt into this syntax (the migration
+ * drizzle/0007_prompt_placeholders.sql does the same to stored prompts, with the same
+ * regular expressions: LEGACY_REWRITES).
  *
  * Inside math ($…$) a value is written as TeX (`350\,\mathrm{K}`), elsewhere as plain text
  * with a no-break space before the unit. Nothing here throws on author input: problems come
@@ -17,6 +27,8 @@ import { formatUnitForDisplay } from '#app/domain/grading/units.ts'
 import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
 import { math } from '#app/domain/thermo/units.ts'
 import type { DrawnGiven } from './definition.ts'
+
+export { LEGACY_REWRITES, placeholderText, upgradeLegacyPrompt } from './placeholder-syntax.ts'
 
 export interface DisplayRule {
   readonly decimals?: number
@@ -30,9 +42,9 @@ export interface PlaceholderOptions {
 }
 
 export interface Placeholder extends PlaceholderOptions {
-  /** Offset of the "@" in the text. */
+  /** Offset of the "[" in the text. */
   readonly start: number
-  /** Offset just past the closing "}". */
+  /** Offset just past the closing "]". */
   readonly end: number
   readonly name: string
 }
@@ -40,6 +52,8 @@ export interface Placeholder extends PlaceholderOptions {
 export interface PlaceholderSyntaxError {
   readonly offset: number
   readonly message: string
+  /** The name the placeholder starts with, when it has one. */
+  readonly name: string
 }
 
 export interface ParsedPlaceholders {
@@ -58,7 +72,7 @@ export type FormatResult = { readonly ok: true; readonly text: string } | { read
 /** Limits that keep toFixed/toPrecision in range and the output readable. */
 export const MAX_SIG_FIGS = 15
 export const MAX_DECIMALS = 12
-/** A placeholder never spans lines and stays short; a missing "}" is caught early. */
+/** A placeholder never spans lines and stays short; a longer bracket is plain text. */
 const MAX_PLACEHOLDER_LENGTH = 80
 
 const NBSP = '\u00A0'
@@ -71,28 +85,29 @@ type InnerParse = { readonly ok: true; readonly name: string; readonly options: 
 const INNER = /^\s*([^\s,]+)\s*(?:\s+in\s+([^,]*?))?\s*(?:,\s*(.*?))?\s*$/
 const NAME = /^[A-Za-z][A-Za-z0-9_]{0,31}$/
 const OPTION = /^(\d{1,3})\s*(sf|dp)$/
+const LETTER = /[A-Za-z]/
 
-/** The text between "@{" and "}" → name and options, or why not. */
+/** The text between "[" and "]" → name and options, or why not. */
 export function parsePlaceholderBody(body: string): InnerParse {
-  if (body.trim() === '') return { ok: false, name: '', message: 'empty placeholder: write @{name}' }
+  if (body.trim() === '') return { ok: false, name: '', message: 'empty placeholder: write [name]' }
   const m = INNER.exec(body)
   if (!m || m[1] === undefined) {
     const first = /^\s*([A-Za-z][A-Za-z0-9_]*)/.exec(body)?.[1] ?? ''
     const n = first || 'name'
-    return { ok: false, name: first, message: `cannot read "${body.trim()}": write @{${n}}, @{${n} in unit}, @{${n}, 3 sf} or @{${n}, 2 dp}` }
+    return { ok: false, name: first, message: `cannot read [${body.trim()}]: write [${n}], [${n} in unit], [${n}, 3 sf] or [${n}, 2 dp], or \\[ for a bracket that is only a bracket` }
   }
   const name = m[1]
-  if (!NAME.test(name)) return { ok: false, name, message: `"${name}" is not a given name (a letter, then letters, digits or _)` }
+  if (!NAME.test(name)) return { ok: false, name: /^[A-Za-z][A-Za-z0-9_]*/.exec(name)?.[0] ?? '', message: `cannot read [${body.trim()}]: "${name}" is not a given name (a letter, then letters, digits or _); write \\[ for a bracket that is only a bracket` }
   const options: { unit?: string; sigFigs?: number; decimals?: number } = {}
   if (m[2] !== undefined) {
     const unit = m[2].trim()
-    if (unit === '') return { ok: false, name, message: `@{${name} in …} needs a unit after "in"` }
+    if (unit === '') return { ok: false, name, message: `[${name} in …] needs a unit after "in"` }
     options.unit = unit
   }
   if (m[3] !== undefined) {
     const opt = m[3].trim()
     const o = OPTION.exec(opt)
-    if (!o || o[1] === undefined) return { ok: false, name, message: `unknown option "${opt}": write ", 3 sf" for significant figures or ", 2 dp" for decimal places` }
+    if (!o || o[1] === undefined) return { ok: false, name, message: `unknown option "${opt}" in [${body.trim()}]: write ", 3 sf" for significant figures or ", 2 dp" for decimal places` }
     const n = Number(o[1])
     if (o[2] === 'sf') {
       if (n < 1 || n > MAX_SIG_FIGS) return { ok: false, name, message: `significant figures must be 1 to ${MAX_SIG_FIGS}, not ${n}` }
@@ -110,46 +125,55 @@ export type PlaceholderPiece =
   | { readonly kind: 'placeholder'; readonly placeholder: Placeholder }
   | { readonly kind: 'error'; readonly offset: number; readonly end: number; readonly name: string; readonly message: string }
 
-/**
- * Splits a text into literal runs (escapes already turned into "@{"), placeholders and
- * unreadable placeholders. The one scanner behind every function here.
- */
 export type PlaceholderAt =
   | { readonly kind: 'placeholder'; readonly placeholder: Placeholder }
   | { readonly kind: 'error'; readonly offset: number; readonly end: number; readonly name: string; readonly message: string }
 
-/** The placeholder starting with "@{" at offset `i` of `text` (the caller checked the "@{"). */
-export function readPlaceholderAt(text: string, i: number, limit = text.length): PlaceholderAt {
-  const close = text.indexOf('}', i + 2)
-  const newline = text.indexOf('\n', i + 2)
-  if (close < 0 || close >= limit || (newline >= 0 && newline < close) || close - i > MAX_PLACEHOLDER_LENGTH) {
-    return { kind: 'error', offset: i, end: i + 2, name: '', message: 'unclosed placeholder: end it with } on the same line, or write @@{ for a literal @{' }
-  }
-  const inner = parsePlaceholderBody(text.slice(i + 2, close))
+/** The "[" at `i` follows a backslash, or a TeX command such as \sqrt or \left. */
+function afterBackslash(text: string, i: number): boolean {
+  let j = i - 1
+  while (j >= 0 && LETTER.test(text[j]!)) j--
+  return j >= 0 && text[j] === '\\'
+}
+
+/**
+ * The placeholder starting at offset `i` of `text`, or null when the character there is not
+ * the start of one (the bracket is then plain text). `math`: inside $…$, where a "](" is
+ * not a Markdown link.
+ */
+export function readPlaceholderAt(text: string, i: number, limit = text.length, math = false): PlaceholderAt | null {
+  if (text[i] !== '[' || !LETTER.test(text[i + 1] ?? '') || afterBackslash(text, i)) return null
+  const close = text.indexOf(']', i + 1)
+  const newline = text.indexOf('\n', i + 1)
+  if (close < 0 || close >= limit || (newline >= 0 && newline < close) || close - i > MAX_PLACEHOLDER_LENGTH) return null
+  const body = text.slice(i + 1, close)
+  if (body.includes('[')) return null
+  if (!math && text[close + 1] === '(') return null
+  const inner = parsePlaceholderBody(body)
   if (inner.ok) return { kind: 'placeholder', placeholder: { start: i, end: close + 1, name: inner.name, ...inner.options } }
   return { kind: 'error', offset: i, end: close + 1, name: inner.name, message: inner.message }
 }
 
 /**
- * Splits a text into literal runs (escapes already turned into "@{"), placeholders and
+ * Splits a text into literal runs (the escape "\[" already turned into "["), placeholders and
  * unreadable placeholders. The one scanner behind every function here.
  */
-export function scanPlaceholders(text: string): PlaceholderPiece[] {
+export function scanPlaceholders(text: string, options: { readonly math?: boolean } = {}): PlaceholderPiece[] {
   const pieces: PlaceholderPiece[] = []
   let buf = ''
   let bufStart = 0
   let i = 0
   while (i < text.length) {
-    if (text.startsWith('@@{', i)) {
+    if (text.startsWith('\\[', i)) {
       if (buf === '') bufStart = i
-      buf += '@{'
-      i += 3
+      buf += '['
+      i += 2
       continue
     }
-    if (text.startsWith('@{', i)) {
+    const p = text[i] === '[' ? readPlaceholderAt(text, i, text.length, options.math === true) : null
+    if (p) {
       if (buf !== '') pieces.push({ kind: 'text', text: buf, offset: bufStart })
       buf = ''
-      const p = readPlaceholderAt(text, i)
       pieces.push(p)
       i = p.kind === 'placeholder' ? p.placeholder.end : p.end
       continue
@@ -162,12 +186,12 @@ export function scanPlaceholders(text: string): PlaceholderPiece[] {
   return pieces
 }
 
-export function parsePlaceholders(text: string): ParsedPlaceholders {
+export function parsePlaceholders(text: string, options: { readonly math?: boolean } = {}): ParsedPlaceholders {
   const placeholders: Placeholder[] = []
   const errors: PlaceholderSyntaxError[] = []
-  for (const p of scanPlaceholders(text)) {
+  for (const p of scanPlaceholders(text, options)) {
     if (p.kind === 'placeholder') placeholders.push(p.placeholder)
-    else if (p.kind === 'error') errors.push({ offset: p.offset, message: p.message })
+    else if (p.kind === 'error') errors.push({ offset: p.offset, message: p.message, name: p.name })
   }
   return { placeholders, errors }
 }
@@ -409,7 +433,7 @@ export function expandPlaceholders(
   const byName = new Map(givens.map((g) => [g.name, g]))
   const errors: PlaceholderError[] = []
   let out = ''
-  for (const piece of scanPlaceholders(text)) {
+  for (const piece of scanPlaceholders(text, { math: tex })) {
     if (piece.kind === 'text') out += piece.text
     else if (piece.kind === 'error') {
       errors.push({ name: piece.name, message: piece.message, offset: piece.offset })

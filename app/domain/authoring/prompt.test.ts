@@ -7,7 +7,7 @@ const r: DrawnGiven = { name: 'r', label: 'compression ratio', value: 8, unit: '
 
 describe('renderPrompt', () => {
   test('Markdown, placeholders in text and in math', () => {
-    const out = renderPrompt('Air enters at **@{T1}** (@{T1 in °C}). With $r = @{r}$ and $T_1 = @{T1}$:', [T1, r])
+    const out = renderPrompt('Air enters at **[T1]** ([T1 in °C]). With $r = [r]$ and $T_1 = [T1]$:', [T1, r])
     expect(out.errors).toEqual([])
     expect(out.html).toContain('<strong>300\u00A0K</strong> (26.85\u00A0°C)')
     // KaTeX with MathML beside the HTML, the annotation keeping the TeX source.
@@ -30,9 +30,9 @@ describe('renderPrompt', () => {
     expect(out.html).toContain('<em>this</em>')
   })
 
-  test('$ inside code spans and code blocks stays literal, and so does @{', () => {
-    const out = renderPrompt('Use `$x$ and @{T1}` here.\n\n```\n$$ y $$\n```\n', [T1])
-    expect(out.html).toContain('<code>$x$ and @{T1}</code>')
+  test('$ inside code spans and code blocks stays literal, and so does [T1]', () => {
+    const out = renderPrompt('Use `$x$ and [T1]` here.\n\n```\n$$ y $$\n```\n', [T1])
+    expect(out.html).toContain('<code>$x$ and [T1]</code>')
     expect(out.html).toContain('<pre><code>$$ y $$\n</code></pre>')
     expect(out.html).not.toContain('<math')
     expect(out.errors).toEqual([])
@@ -79,8 +79,22 @@ describe('renderPrompt', () => {
     expect(renderPrompt(text, []).errors).toEqual([])
   })
 
-  test('@@{ shows a literal @{', () => {
-    expect(renderPrompt('write @@{T1}', [T1]).html).toContain('write @{T1}')
+  test('\\[ shows a bracket that is only a bracket; @{ is plain text now', () => {
+    const out = renderPrompt('write \\[T1] and @{T1}', [T1])
+    expect(out.html).toContain('write [T1] and @{T1}')
+    expect(out.errors).toEqual([])
+  })
+
+  test('a link stays a link, and a placeholder in its text still works', () => {
+    const out = renderPrompt('See [the tables at [T1]](https://example.org/t) and [T1].', [T1])
+    expect(out.html).toContain('<a href="https://example.org/t" rel="nofollow noopener noreferrer">the tables at 300\u00A0K</a> and 300\u00A0K.')
+    expect(out.errors).toEqual([])
+  })
+
+  test('TeX brackets stay TeX: \\sqrt[n] and \\left[', () => {
+    const out = renderPrompt('$\\sqrt[n]{x} + \\left[T1 \\right] = [T1]$', [T1])
+    expect(out.errors).toEqual([])
+    expect(out.html).toContain('<annotation encoding="application/x-tex">\\sqrt[n]{x} + \\left[T1 \\right] = 300\\,\\mathrm{K}</annotation>')
   })
 
   test('raw HTML is escaped, never passed through', () => {
@@ -106,19 +120,19 @@ describe('renderPrompt', () => {
   })
 
   test('unknown givens and bad options show a marked span and an error, never a throw', () => {
-    const out = renderPrompt('At @{T9}, @{T1, 3 sig} and $@{T9}$ and @{T1', [T1])
+    const out = renderPrompt('At [T9], [T1, 3 sig] and $[T9]$ and [see note]', [T1])
     expect(out.html).toContain('<span class="placeholder-error" role="note">[unknown given T9]</span>')
     expect(out.html).toContain('[unknown option')
-    expect(out.html).toContain('[unclosed placeholder')
+    expect(out.html).toContain('[cannot read [see note]')
     expect(out.html).toContain('<math')
     const messages = out.errors.map((e) => e.message)
     expect(messages).toHaveLength(4)
     expect(messages).toEqual(
       expect.arrayContaining([
-        'placeholder @{T9}: unknown given T9',
+        'placeholder [T9]: unknown given T9',
         expect.stringMatching(/^placeholder: unknown option/),
         'placeholder in math: unknown given T9',
-        expect.stringMatching(/^placeholder: unclosed placeholder/),
+        expect.stringMatching(/^placeholder: cannot read \[see note\]/),
       ]),
     )
   })

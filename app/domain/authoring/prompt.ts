@@ -1,10 +1,10 @@
 /**
- * A prompt as HTML: `@{…}` placeholders (./placeholders.ts), Markdown (markdown-it, raw HTML
+ * A prompt as HTML: `[T1]` placeholders (./placeholders.ts), Markdown (markdown-it, raw HTML
  * escaped, links only http/https/mailto) and math ($…$ inline, $$…$$ display) rendered by
  * KaTeX with MathML beside the visual HTML, so screen readers read the formulas.
  *
  * Math and placeholders are markdown-it rules rather than a pre-pass over the text, so code
- * spans and code blocks keep "$" and "@{" literal, and Markdown never sees the inside of a
+ * spans and code blocks keep "$" and "[" literal, and Markdown never sees the inside of a
  * formula (an "_" in TeX is not emphasis). Never throws on author input: problems come back
  * in `errors` and show in place as a marked span. Pure (no DOM needed).
  */
@@ -12,7 +12,7 @@ import katex from 'katex'
 import MarkdownIt from 'markdown-it'
 import type { MarkdownIt as MarkdownItInstance, StateBlock, StateInline } from 'markdown-it'
 import type { DrawnGiven } from './definition.ts'
-import { expandPlaceholders, markerText, readPlaceholderAt, resolvePlaceholder } from './placeholders.ts'
+import { expandPlaceholders, markerText, placeholderText, readPlaceholderAt, resolvePlaceholder } from './placeholders.ts'
 import type { DisplayRule } from './placeholders.ts'
 
 export interface RenderResult {
@@ -161,14 +161,12 @@ function mathBlock(state: StateBlock, startLine: number, endLine: number, silent
 function placeholderInline(state: StateInline, silent: boolean): boolean {
   const src = state.src
   const pos = state.pos
-  if (src.charCodeAt(pos) !== 0x40 /* @ */) return false
-  if (src.startsWith('@@{', pos)) {
-    if (!silent) state.pending += '@{'
-    state.pos += 3
-    return true
-  }
-  if (!src.startsWith('@{', pos)) return false
+  if (src.charCodeAt(pos) !== 0x5b /* [ */) return false
+  // Silent runs measure a link's text: a placeholder there must read as a bracket pair, or
+  // markdown-it takes it for a link inside a link and gives up on "[text [T1]](address)".
+  if (silent) return false
   const p = readPlaceholderAt(src, pos, state.posMax)
+  if (p === null) return false
   if (!silent) {
     const env = state.env as unknown as RenderEnv
     const token = state.push('cw_placeholder', '', 0)
@@ -178,7 +176,7 @@ function placeholderInline(state: StateInline, silent: boolean): boolean {
     } else {
       const r = resolvePlaceholder(p.placeholder, env.givens, env.displays, false)
       if (r.ok) token.content = r.text
-      else env.errors.push({ message: `placeholder @{${p.placeholder.name}}: ${r.message}` })
+      else env.errors.push({ message: `placeholder ${placeholderText(p.placeholder.name)}: ${r.message}` })
       token.meta = r.ok ? { ok: true } : { ok: false, message: r.message }
     }
   }
@@ -207,7 +205,8 @@ function createRenderer(): MarkdownItInstance {
   md.validateLink = (url: string) => SAFE_LINK.test(url.trim())
   md.block.ruler.before('fence', 'cw_math_block', mathBlock, { alt: ['paragraph', 'reference', 'blockquote', 'list'] })
   md.inline.ruler.after('escape', 'cw_math', mathInline)
-  md.inline.ruler.after('cw_math', 'cw_placeholder', placeholderInline)
+  // After the link rule: "[text](address)" stays a link, and a placeholder inside its text still works.
+  md.inline.ruler.after('link', 'cw_placeholder', placeholderInline)
   md.renderer.rules.cw_math = (tokens, idx, _options, env) => {
     const t = tokens[idx]!
     return mathHtml(t.content, Boolean((t.meta as { display?: boolean } | null)?.display), env as unknown as RenderEnv)

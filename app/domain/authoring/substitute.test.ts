@@ -10,7 +10,7 @@ const drawn: DrawnGiven[] = [
 ]
 
 const withPhysics = (physics: Physics): ProblemDefinition => ({
-  format: 1,
+  format: 2,
   title: 'Test',
   tags: { topics: [], difficulty: 'standard', level: 'second-year' },
   convention: 'course',

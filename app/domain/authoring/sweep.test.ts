@@ -10,7 +10,7 @@ const rel = { kind: 'relative', value: 0.01 } as const
 const find = (name: string, path: string, unit: string): Find => ({ name, label: name, source: { kind: 'output', path }, unit, points: 1, tolerance: rel, pitfalls: [] })
 const range = (name: string, unit: string, min: number, max: number, step: number): Given => ({ name, label: name, unit, rule: { kind: 'range', min, max, step } })
 const problem = (givens: Given[], physics: Physics, finds: Find[], constraints: ProblemDefinition['constraints'] = []): ProblemDefinition => ({
-  format: 1,
+  format: 2,
   title: 'Test',
   tags: { topics: [], difficulty: 'standard', level: 'second-year' },
   convention: 'course',

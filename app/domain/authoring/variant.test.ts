@@ -8,7 +8,7 @@ const out = (path: string): FindSource => ({ kind: 'output', path })
 const expr = (expression: string): FindSource => ({ kind: 'expression', expression })
 
 function problem(givens: Given[], physics: Physics, finds: Find[], convention: ProblemConvention = 'course'): ProblemDefinition {
-  return { format: 1, title: 'Test', tags: { topics: [], difficulty: 'standard', level: 'second-year' }, convention, prompt: '', givens, constraints: [], physics, finds }
+  return { format: 2, title: 'Test', tags: { topics: [], difficulty: 'standard', level: 'second-year' }, convention, prompt: '', givens, constraints: [], physics, finds }
 }
 
 function variant(def: ProblemDefinition, seed: number, convention: 'engineering' | 'chemistry' = 'engineering'): Variant {

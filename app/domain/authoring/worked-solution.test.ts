@@ -13,7 +13,7 @@ const find = (name: string, label: string, unit: string, source: Find['source'])
 
 function definition(finds: Find[], physics: ProblemDefinition['physics']): ProblemDefinition {
   return {
-    format: 1,
+    format: 2,
     title: 'test problem',
     tags: { topics: [], difficulty: 'standard', level: 'second-year' },
     convention: 'course',

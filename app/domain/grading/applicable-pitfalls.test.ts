@@ -4,7 +4,7 @@ import { applicablePitfalls, whyPitfallCannotFire } from './pitfalls.ts'
 
 const out = (name: string, path: string, unit: string): Find => ({ name, label: name, source: { kind: 'output', path }, unit, points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] })
 const otto = (T1unit: string, T1input = 'T1', heatIn = '800 kJ/kg'): ProblemDefinition => ({
-  format: 1,
+  format: 2,
   title: 'Otto',
   tags: { topics: [], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
