@@ -27,7 +27,7 @@ test('an instructor writes a problem, previews it, checks it, exports it and imp
 
   await field('title').fill(title)
   await field('tags.topics').fill('carnot, second law')
-  await field('prompt').fill('A reversible engine runs between $T_H = $ @{Th} and a cold reservoir at 300 K. What is its efficiency?')
+  await field('prompt').fill('A reversible engine runs between $T_H = $ [Th] and a cold reservoir at 300 K. What is its efficiency?')
   await field('givens.0.name').fill('Th')
   await field('givens.0.label').fill('hot reservoir temperature')
   await field('givens.0.unit').fill('K')

@@ -24,7 +24,7 @@ test('the editor offers only pitfalls that can fire, warns when the words and th
   await page.goto(`${baseURL}/bank/new`)
 
   await field('title').fill(title)
-  await field('prompt').fill('Air enters an Otto engine at @{T1}. Find the net work.')
+  await field('prompt').fill('Air enters an Otto engine at [T1]. Find the net work.')
   await field('givens.0.name').fill('T1')
   await field('givens.0.label').fill('intake temperature')
   await field('givens.0.unit').fill('K')

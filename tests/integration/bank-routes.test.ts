@@ -27,7 +27,7 @@ function carnot(title = 'Carnot drill'): ProblemDefinition {
     title,
     tags: { topics: ['carnot'], difficulty: 'introductory', level: 'first-year' },
     convention: 'course',
-    prompt: 'An engine runs between $T_H =$ @{Th} and 300 K.',
+    prompt: 'An engine runs between $T_H =$ [Th] and 300 K.',
     givens: [{ name: 'Th', label: 'hot reservoir', unit: 'K', rule: { kind: 'range', min: 500, max: 900, step: 50 } }],
     constraints: [],
     physics: {

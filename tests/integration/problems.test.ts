@@ -333,7 +333,7 @@ describe('export and import', () => {
     const b = (await createProblem(db(), author, { definition: second, visibility: 'department' })).problemId
 
     const doc = await exportBank(db(), author, 'own')
-    expect(doc).toMatchObject({ format: 'cyclewright-bank', version: 1 })
+    expect(doc).toMatchObject({ format: 'cyclewright-bank', version: 2 })
     expect(doc.problems.map((p) => p.definition)).toEqual([first, second])
     expect(doc.problems.map((p) => p.visibility)).toEqual(['installation', 'department'])
     expect(doc.problems[0]?.origin).toEqual({ title: first.title, author: 'Exporting Author' })
