@@ -26,7 +26,7 @@ const rnd = prng(0x1f97)
 const uniform = (a: number, b: number) => a + (b - a) * rnd()
 const logUniform = (a: number, b: number) => Math.exp(uniform(Math.log(a), Math.log(b)))
 
-type Category = 'region 1' | 'region 2' | 'region 3' | 'saturation (p, x)' | 'saturation region 3 (T, x)'
+type Category = 'region 1' | 'region 2' | 'region 3' | 'region 5' | 'saturation (p, x)' | 'saturation region 3 (T, x)'
 interface Point {
   category: Category
   query: RefQuery
@@ -59,6 +59,12 @@ for (let n = 0; n < 250; ) {
   if (Math.abs(T - 647.096) < 1.5 && Math.abs(pM - 22.064) < 1.0) continue
   points.push({ category: 'region 3', query: { kind: 'PT', p: pM * 1e6, T } })
   n++
+}
+// Region 5: 1073.15 K < T <= 2273.15 K, 612 Pa .. 50 MPa (IAPWS R7-97(2012) Section 7).
+for (let i = 0; i < 200; i++) {
+  const T = uniform(1073.4, 2273.1)
+  const p = logUniform(0.000612, 49.9) * 1e6
+  points.push({ category: 'region 5', query: { kind: 'PT', p, T } })
 }
 // Saturation line with T_s <= 623.15 K, by (p, x): liquid and vapour ends and a mixture.
 for (let i = 0; i < 150; i++) {
@@ -131,11 +137,11 @@ describe('reference helper', () => {
 })
 
 describe('IAPWS-IF97 against python3-iapws (independent implementation), relative 1e-7', () => {
-  test('at least 1,000 random points over regions 1, 2, 3 and the saturation line', () => {
+  test('at least 1,000 random points over regions 1, 2, 3, 5 and the saturation line', () => {
     expect(points.length).toBeGreaterThanOrEqual(1000)
   })
 
-  const categories: Category[] = ['region 1', 'region 2', 'region 3', 'saturation (p, x)', 'saturation region 3 (T, x)']
+  const categories: Category[] = ['region 1', 'region 2', 'region 3', 'region 5', 'saturation (p, x)', 'saturation region 3 (T, x)']
   test.each(categories)('%s: v, h, u, s, cp, cv, w (reference: python3-iapws IAPWS97)', (category) => {
     requireReference()
     const failures: string[] = []
@@ -147,8 +153,8 @@ describe('IAPWS-IF97 against python3-iapws (independent implementation), relativ
         failures.push(`reference failed at ${JSON.stringify(pt.query)}: ${JSON.stringify(ref)}`)
         return
       }
-      if (category === 'region 1' || category === 'region 2' || category === 'region 3') {
-        const want = category === 'region 1' ? 1 : category === 'region 2' ? 2 : 3
+      if (category === 'region 1' || category === 'region 2' || category === 'region 3' || category === 'region 5') {
+        const want = category === 'region 1' ? 1 : category === 'region 2' ? 2 : category === 'region 3' ? 3 : 5
         if (ref.region !== want) failures.push(`reference chose region ${ref.region} at ${JSON.stringify(pt.query)}`)
       }
       const mine = ours(pt.query)
@@ -200,9 +206,10 @@ describe('saturation line p_s(T), T_s(p) and backward routes against python3-iap
     })
   })
 
-  test('T from (p, h) and (p, s) across regions 1, 2, 3 (reference: IAPWS97(P, h), IAPWS97(P, s))', () => {
+  test('T from (p, h) and (p, s) across regions 1, 2, 3 and 5 (reference: IAPWS97(P, h), IAPWS97(P, s))', () => {
     requireReference()
     expect(routeRefs.length).toBeGreaterThan(200)
+    expect(routeRefs.filter((r) => r.ok && 'h' in r && r.T > 1073.15).length).toBeGreaterThan(20) // region 5 routes are in
     const failures: string[] = []
     for (let i = 0; i < routeRefs.length; i += 2) {
       for (const j of [i, i + 1]) {
@@ -212,6 +219,7 @@ describe('saturation line p_s(T), T_s(p) and backward routes against python3-iap
           continue
         }
         const mine = j === i ? stateFromPH(ref.p, ref.h) : stateFromPS(ref.p, ref.s)
+        if (ref.T > 1073.15 && mine.ok && mine.value.region !== 5) failures.push(`region ${mine.value.region} for a region-5 state at p=${ref.p}, T=${ref.T}`)
         if (!mine.ok) {
           failures.push(`ours failed: ${JSON.stringify(mine.error)}`)
           continue

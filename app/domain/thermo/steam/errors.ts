@@ -6,7 +6,7 @@
 // carries the same `SteamError` record in `.detail`. Nothing is ever extrapolated.
 
 export type SteamErrorCode =
-  /** A state outside IAPWS-IF97's range (regions 1-4): the message names the bound. */
+  /** A state outside IAPWS-IF97's range (regions 1-5): the message names the bound. */
   | 'out-of-range'
   /** A non-finite or otherwise meaningless input (NaN, x outside [0, 1], ...). */
   | 'invalid-input'

@@ -11,6 +11,7 @@ import { pB23 } from './if97/b23.ts'
 import { region1 } from './if97/region1.ts'
 import { region2 } from './if97/region2.ts'
 import { region3, region3Density } from './if97/region3.ts'
+import { region5 } from './if97/region5.ts'
 import { pSat } from './if97/region4.ts'
 import type { If97Props } from './if97/types.ts'
 import {
@@ -48,6 +49,18 @@ describe('SI interface reproduces the release verification values', () => {
     expect(rel(s.h, 0.115331273e6)).toBeLessThanOrEqual(1e-8)
     expect(rel(s.s, 0.392294792e3)).toBeLessThanOrEqual(1e-8)
     expect(rel(s.w!, 0.150773921e4)).toBeLessThanOrEqual(1e-8)
+  })
+  test('region 5, T = 1500 K, p = 30 MPa (IAPWS R7-97(2012) Table 42)', () => {
+    const s = value(stateFromPT(30e6, 1500))
+    expect(s.region).toBe(5)
+    expect(s.phase).toBe('supercritical')
+    expect(rel(s.v, 0.230761299e-1)).toBeLessThanOrEqual(1e-8)
+    expect(rel(s.h, 0.516723514e7)).toBeLessThanOrEqual(1e-8)
+    expect(rel(s.s, 0.772970133e4)).toBeLessThanOrEqual(1e-8)
+    expect(rel(s.w!, 0.928548002e3)).toBeLessThanOrEqual(1e-8)
+    expect(value(stateFromPT(0.5e6, 1500)).phase).toBe('vapour')
+    const out = hsFromPT(0.5e6, 1500, new Float64Array(2))
+    expect(rel(out[0]!, 0.521976855e7)).toBeLessThanOrEqual(1e-8)
   })
   test('region 2, T = 700 K, p = 30 MPa (IAPWS R7-97(2012) Table 15)', () => {
     const s = value(stateFromPT(30e6, 700))
@@ -96,6 +109,8 @@ describe('region selection as IAPWS R7-97(2012) Figure 1 defines it', () => {
     [100e6, 863, 3],
     [100e6, 864, 2], // T_B23(100 MPa) = 863.15 K
     [100e6, 1073.15, 2],
+    [50e6, 1073.16, 5], // region 5: T > 1073.15 K, p <= 50 MPa
+    [1e3, 2273.15, 5],
     [1, 300, 2], // 1 Pa: region 2 (p > 0)
   ] as const)('p = %d Pa, T = %d K -> region %d (release Figure 1, B23 Eq. (5))', (p, T, region) => {
     expect(value(regionFromPT(p, T))).toBe(region)
@@ -105,7 +120,8 @@ describe('region selection as IAPWS R7-97(2012) Figure 1 defines it', () => {
 describe('out-of-range states are errors naming the bound, never extrapolation', () => {
   test.each([
     [101e6, 500, 'p', 'p <= 100 MPa'],
-    [1e6, 1073.2, 'T', 'T <= 1073.15 K'],
+    [1e6, 2273.2, 'T', 'T <= 2273.15 K'],
+    [51e6, 1073.2, 'p', 'p <= 50 MPa above 1073.15 K'], // region 5 holds only to 50 MPa
     [1e6, 273.1, 'T', 'T >= 273.15 K'],
     [0, 300, 'p', 'p > 0'],
     [-5, 300, 'p', 'p > 0'],
@@ -132,20 +148,26 @@ describe('out-of-range states are errors naming the bound, never extrapolation',
     expect(!b.ok && b.error.bound?.value === 22.064e6).toBe(true)
     expect(!c.ok && c.error.code === 'out-of-range').toBe(true)
   })
-  test('(p, h) beyond 1073.15 K or below 273.15 K is an error naming the bound', () => {
-    const hi = stateFromPH(1e5, 5e6)
+  test('(p, h) beyond 2273.15 K (p <= 50 MPa), beyond 1073.15 K (p > 50 MPa) or below 273.15 K is an error naming the bound', () => {
+    const hi = stateFromPH(1e5, 8e6)
+    const hi60 = stateFromPH(60e6, 5e6)
     const lo = stateFromPH(1e6, -10e3)
-    expect(!hi.ok && hi.error.bound?.name === 'T <= 1073.15 K').toBe(true)
+    expect(!hi.ok && hi.error.bound?.name === 'T <= 2273.15 K').toBe(true)
+    expect(!hi60.ok && hi60.error.bound?.name === 'T <= 1073.15 K').toBe(true)
+    expect(!hi60.ok && hi60.error.message).toContain('50 MPa')
     expect(!lo.ok && lo.error.bound?.name === 'T >= 273.15 K').toBe(true)
   })
   test('fast path throws the typed SteamRangeError', () => {
     expect(() => enthalpyFromPT(200e6, 500)).toThrow(SteamRangeError)
+    let caught: unknown = null
     try {
-      enthalpyFromPT(1e6, 2000)
+      enthalpyFromPT(60e6, 1500)
     } catch (e) {
-      expect(e).toBeInstanceOf(SteamRangeError)
-      expect((e as SteamRangeError).detail.bound?.name).toBe('T <= 1073.15 K')
+      caught = e
     }
+    expect(caught).toBeInstanceOf(SteamRangeError)
+    expect((caught as SteamRangeError).detail.bound?.name).toBe('p <= 50 MPa above 1073.15 K')
+    expect(() => enthalpyFromPT(1e6, 2300)).toThrow(SteamRangeError)
   })
   test('quality x outside [0, 1] and x from h outside the dome are errors', () => {
     const a = stateFromPx(1e5, 1.2)
@@ -204,6 +226,10 @@ describe('(p, h) and (p, s) routes return the state they came from (closed form 
     [21e6, 650], // region 3 above T_c (p_B23(650 K) = 20.03 MPa)
     [30e6, 660],
     [100e6, 1073],
+    [0.5e6, 1500], // region 5
+    [30e6, 2000],
+    [50e6, 1080],
+    [1e3, 2270],
   ]
   test.each(states)('p = %d Pa, T = %d K', (p, T) => {
     const s = value(stateFromPT(p, T))
@@ -242,6 +268,11 @@ describe('consistency at region boundaries (release permitted inconsistencies, f
     for (let p = pSat(623.15); p <= 100; p += 2.5) pairs.push([region1(p, 623.15), region3(region3Density(p, 623.15, true), 623.15)])
     limits(worst(pairs))
   })
+  test('regions 2 and 5 along T = 1073.15 K, 0.001 .. 50 MPa', () => {
+    const pairs: [If97Props, If97Props][] = []
+    for (let p = 0.001; p <= 50; p += p < 1 ? 0.1 : 2.5) pairs.push([region5(p, 1073.15), region2(p, 1073.15)])
+    limits(worst(pairs))
+  })
   test('regions 2 and 3 along the B23 line, 623.15 K .. 863.15 K', () => {
     const pairs: [If97Props, If97Props][] = []
     // Start just above 623.15 K: at 623.15 K itself the B23 line meets the saturation line.
@@ -258,7 +289,7 @@ describe('robustness: no input throws, in-range input always converges (common p
     let seed = 12345
     const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647
     const specialP = [22.064e6, 22.064e6 * (1 - 1e-12), 16.5291643e6, 611.212677, 100e6, 1e-3]
-    const specialT = [647.096, 623.15, 273.15, 1073.15, 863.15]
+    const specialT = [647.096, 623.15, 273.15, 1073.15, 863.15, 2273.15, 1073.16]
     const problems: string[] = []
     const look = (name: string, r: { ok: boolean; value?: unknown; error?: { code: string } }, args: number[]) => {
       if (r.ok) {
@@ -268,9 +299,9 @@ describe('robustness: no input throws, in-range input always converges (common p
     }
     for (let i = 0; i < 1000; i++) {
       const p = i % 20 === 0 ? specialP[i % specialP.length]! : Math.exp(Math.log(100) + (Math.log(1.2e8) - Math.log(100)) * rnd())
-      const T = i % 30 === 0 ? specialT[i % specialT.length]! : 260 + 830 * rnd()
-      const h = -100e3 + 4.5e6 * rnd()
-      const s = -100 + 11e3 * rnd()
+      const T = i % 30 === 0 ? specialT[i % specialT.length]! : 260 + 2030 * rnd()
+      const h = -100e3 + 7.5e6 * rnd()
+      const s = -100 + 13e3 * rnd()
       const x = rnd()
       expect(() => {
         look('stateFromPT', stateFromPT(p, T), [p, T])

@@ -1,4 +1,4 @@
-// Water and steam properties by IAPWS-IF97 (regions 1, 2, 3 and 4), public API.
+// Water and steam properties by IAPWS-IF97 (regions 1, 2, 3, 4 and 5), public API.
 //
 // UNITS AT THIS API ARE SI: pressure p in Pa, temperature T in K, specific volume v in m^3/kg,
 // density rho in kg/m^3, specific enthalpy h and internal energy u in J/kg, specific entropy s
@@ -8,13 +8,15 @@
 // Errors: every function here returns SteamResult<T> (see errors.ts), except the fast numeric
 // entry points hsFromPT / enthalpyFromPT / entropyFromPT, which throw SteamRangeError.
 //
-// Range (IAPWS R7-97(2012), Section 2, Figure 1; region 5 is not implemented):
-//   273.15 K <= T <= 1073.15 K, 0 < p <= 100 MPa.
+// Range (IAPWS R7-97(2012), Section 2, Figure 1):
+//   273.15 K <= T <= 1073.15 K, 0 < p <= 100 MPa (regions 1-4), and
+//   1073.15 K < T <= 2273.15 K, 0 < p <= 50 MPa (region 5).
 // Region selection for (p, T) as the release defines it:
 //   region 1: 273.15 K <= T <= 623.15 K and p >= p_s(T);
 //   region 2: 273.15 K <= T <= 623.15 K and p < p_s(T); 623.15 K < T <= 863.15 K and
 //             p <= p_B23(T); 863.15 K < T <= 1073.15 K;
 //   region 3: 623.15 K < T and p > p_B23(T) (i.e. T < T_B23(p));
+//   region 5: 1073.15 K < T <= 2273.15 K and p <= 50 MPa;
 //   region 4: the saturation line p_s(T), 273.15 K <= T <= 647.096 K (two-phase states are
 //             reached by quality x, or by (p, h) / (p, s) inside the dome).
 // A (p, T) point exactly on the saturation line is taken as liquid (region 1, or the
@@ -24,21 +26,22 @@
 // codes and licensed engineering practice for any real plant or pressure equipment.
 import { pB23, tB23 } from './if97/b23.ts'
 import { t1ph, t1ps, t2ph, t2ps } from './if97/backward.ts'
-import { P_MAX, PC, T_13, T_MAX, T_MIN, TC } from './if97/constants.ts'
+import { P_MAX, P_MAX5, PC, T_13, T_MAX, T_MAX5, T_MIN, TC } from './if97/constants.ts'
 import { region1, region1HS } from './if97/region1.ts'
 import { region2, region2HS } from './if97/region2.ts'
 import { region3, region3Density } from './if97/region3.ts'
+import { region5, region5HS } from './if97/region5.ts'
 import { P_SAT_623, P_SAT_MIN, pSat, tSat } from './if97/region4.ts'
 import type { If97Props } from './if97/types.ts'
 import { fail, ok, SteamRangeError } from './errors.ts'
 import type { SteamError, SteamResult } from './errors.ts'
 
-export type SteamRegion = 1 | 2 | 3 | 4
+export type SteamRegion = 1 | 2 | 3 | 4 | 5
 export type SteamPhase = 'liquid' | 'vapour' | 'supercritical' | 'two-phase' | 'saturated liquid' | 'saturated vapour'
 
 /** A state of water or steam, in SI units (see the header of this file). */
 export interface SteamState {
-  /** IAPWS-IF97 region: 1, 2, 3, or 4 for a two-phase (saturated mixture) state. */
+  /** IAPWS-IF97 region: 1, 2, 3, 5 (above 1073.15 K), or 4 for a two-phase (saturated mixture) state. */
   region: SteamRegion
   phase: SteamPhase
   /** Pressure, Pa. */
@@ -79,9 +82,14 @@ export interface SaturationStates {
 /** Limits of the formulation, SI. */
 export const STEAM_LIMITS = {
   T_MIN,
-  T_MAX,
+  /** Highest temperature of the formulation (region 5), K. */
+  T_MAX: T_MAX5,
+  /** Highest temperature of regions 1-3, K; above it only region 5 (p <= P_MAX_5). */
+  T_MAX_123: T_MAX,
   /** Pa */
   P_MAX: P_MAX * 1e6,
+  /** Highest pressure of region 5 (T > 1073.15 K), Pa. */
+  P_MAX_5: P_MAX5 * 1e6,
   /** Critical point: K, Pa, kg/m^3. */
   T_CRIT: TC,
   P_CRIT: PC * 1e6,
@@ -141,12 +149,27 @@ function checkT(T: number, state: string): SteamError | null {
       message: `temperature ${T} K is below the IAPWS-IF97 limit T >= 273.15 K; no extrapolation is done`,
       state,
     }
-  if (T > T_MAX)
+  if (T > T_MAX5)
     return {
       code: 'out-of-range',
       property: 'T',
-      bound: { name: 'T <= 1073.15 K', value: T_MAX, unit: 'K' },
-      message: `temperature ${T} K is above 1073.15 K, the limit of IAPWS-IF97 regions 1-3 (region 5 is not implemented); no extrapolation is done`,
+      bound: { name: 'T <= 2273.15 K', value: T_MAX5, unit: 'K' },
+      message: `temperature ${T} K is above 2273.15 K, the limit of IAPWS-IF97 (region 5); no extrapolation is done`,
+      state,
+    }
+  return null
+}
+
+/** Region 5 holds only up to 50 MPa: a (p, T) pair above 1073.15 K and 50 MPa is outside IF97. */
+function checkPT(pPa: number, T: number, state: string): SteamError | null {
+  const e = checkP(pPa, state) ?? checkT(T, state)
+  if (e) return e
+  if (T > T_MAX && pPa > P_MAX5 * 1e6)
+    return {
+      code: 'out-of-range',
+      property: 'p',
+      bound: { name: 'p <= 50 MPa above 1073.15 K', value: P_MAX5 * 1e6, unit: 'Pa' },
+      message: `pressure ${pPa} Pa at ${T} K is outside IAPWS-IF97: above 1073.15 K (region 5) the limit is p <= 50 MPa (below 1073.15 K it is 100 MPa); no extrapolation is done`,
       state,
     }
   return null
@@ -164,8 +187,9 @@ function checkX(x: number, state: string): SteamError | null {
 
 type Side = 'liquid' | 'vapour' | 'auto'
 
-/** Region (1, 2, 3) of an in-range (p MPa, T K) point. */
-function regionPT(p: number, T: number): 1 | 2 | 3 {
+/** Region (1, 2, 3, 5) of an in-range (p MPa, T K) point. */
+function regionPT(p: number, T: number): 1 | 2 | 3 | 5 {
+  if (T > T_MAX) return 5
   if (T <= T_13) return p >= pSat(T) ? 1 : 2
   if (T > 863.15) return 2
   return p > pB23(T) ? 3 : 2
@@ -178,16 +202,17 @@ function region3PT(p: number, T: number, side: Side): If97Props | null {
   return region3(rho, T)
 }
 
-function propsIn(region: 1 | 2 | 3, p: number, T: number, side: Side): If97Props | null {
+function propsIn(region: 1 | 2 | 3 | 5, p: number, T: number, side: Side): If97Props | null {
   if (region === 1) return region1(p, T)
   if (region === 2) return region2(p, T)
+  if (region === 5) return region5(p, T)
   return region3PT(p, T, side)
 }
 
 function phaseOf(pr: If97Props): SteamPhase {
   if (pr.region === 1) return 'liquid'
   if (pr.p > PC && pr.T > TC) return 'supercritical'
-  if (pr.region === 2) return 'vapour'
+  if (pr.region === 2 || pr.region === 5) return 'vapour'
   if (pr.T >= TC) return pr.p >= PC ? 'supercritical' : 'vapour'
   return pr.p >= pSat(pr.T) ? 'liquid' : 'vapour'
 }
@@ -255,7 +280,7 @@ function mix(p: number, T: number, liq: If97Props, vap: If97Props, x: number): S
 /** Single-phase state from pressure p (Pa) and temperature T (K). */
 export function stateFromPT(p: number, T: number): SteamResult<SteamState> {
   const state = describe({ p, T })
-  const e = checkP(p, state) ?? checkT(T, state)
+  const e = checkPT(p, T, state)
   if (e) return fail(e)
   const pM = p / 1e6
   const pr = propsIn(regionPT(pM, T), pM, T, 'auto')
@@ -263,10 +288,10 @@ export function stateFromPT(p: number, T: number): SteamResult<SteamState> {
   return ok(toSI(pr))
 }
 
-/** IAPWS-IF97 region (1, 2 or 3) of a (p Pa, T K) point. */
-export function regionFromPT(p: number, T: number): SteamResult<1 | 2 | 3> {
+/** IAPWS-IF97 region (1, 2, 3 or 5) of a (p Pa, T K) point. */
+export function regionFromPT(p: number, T: number): SteamResult<1 | 2 | 3 | 5> {
   const state = describe({ p, T })
-  const e = checkP(p, state) ?? checkT(T, state)
+  const e = checkPT(p, T, state)
   if (e) return fail(e)
   return ok(regionPT(p / 1e6, T))
 }
@@ -279,16 +304,15 @@ const hsBuf = new Float64Array(2)
  */
 export function hsFromPT(p: number, T: number, out: Float64Array = hsBuf): Float64Array {
   // Inline fast range test; the detailed message only on failure.
-  if (!(p > 0 && p <= 100e6 && T >= T_MIN && T <= T_MAX)) {
+  if (!(p > 0 && p <= 100e6 && T >= T_MIN && (T <= T_MAX || (T <= T_MAX5 && p <= P_MAX5 * 1e6)))) {
     const state = describe({ p, T })
-    throw new SteamRangeError(
-      checkP(p, state) ?? checkT(T, state) ?? { code: 'invalid-input', message: `invalid state ${state}`, state },
-    )
+    throw new SteamRangeError(checkPT(p, T, state) ?? { code: 'invalid-input', message: `invalid state ${state}`, state })
   }
   const pM = p * 1e-6
   const region = regionPT(pM, T)
   if (region === 1) region1HS(pM, T, out)
   else if (region === 2) region2HS(pM, T, out)
+  else if (region === 5) region5HS(pM, T, out)
   else {
     const pr = region3PT(pM, T, 'auto')
     if (!pr) throw new SteamRangeError(noConvergence(describe({ p, T })))
@@ -438,7 +462,7 @@ type Kind = 'h' | 's'
  * cp > 0): Newton with bisection safeguard. Returns the properties at the root, or null.
  */
 function solveT(
-  region: 1 | 2 | 3,
+  region: 1 | 2 | 3 | 5,
   side: Side,
   p: number,
   target: number,
@@ -468,7 +492,7 @@ function valueOf(pr: If97Props, kind: Kind): number {
   return kind === 'h' ? pr.h : pr.s
 }
 
-function backwardGuess(region: 1 | 2 | 3, p: number, target: number, kind: Kind): number {
+function backwardGuess(region: 1 | 2 | 3 | 5, p: number, target: number, kind: Kind): number {
   if (region === 1) return kind === 'h' ? t1ph(p, target) : t1ps(p, target)
   if (region === 2) return kind === 'h' ? t2ph(p, target) : t2ps(p, target)
   return NaN
@@ -483,7 +507,7 @@ function fromPX(pPa: number, targetSI: number, kind: Kind): SteamResult<SteamSta
   const unit = kind === 'h' ? 'J/kg' : 'J/(kg K)'
   const name = kind === 'h' ? 'enthalpy' : 'entropy'
 
-  // Range ends: T = 273.15 K and T = 1073.15 K at this pressure.
+  // Range ends: T = 273.15 K and T = 2273.15 K (p <= 50 MPa, region 5) or 1073.15 K at this pressure.
   const rLow = regionPT(p, T_MIN)
   const low = propsIn(rLow, p, T_MIN, 'auto')!
   if (target < valueOf(low, kind))
@@ -495,18 +519,33 @@ function fromPX(pPa: number, targetSI: number, kind: Kind): SteamResult<SteamSta
       state,
     })
   const high = region2(p, T_MAX)
-  if (target > valueOf(high, kind))
+  const has5 = p <= P_MAX5
+  const top = has5 ? region5(p, T_MAX5) : high
+  if (target > valueOf(top, kind))
     return fail({
       code: 'out-of-range',
       property: kind,
-      bound: { name: 'T <= 1073.15 K', value: valueOf(high, kind) * 1000, unit },
-      message: `${name} ${targetSI} ${unit} at p = ${pPa} Pa lies above its value at 1073.15 K (${valueOf(high, kind) * 1000} ${unit}): the state would be above the limit T <= 1073.15 K of IF97 regions 1-3`,
+      bound: has5
+        ? { name: 'T <= 2273.15 K', value: valueOf(top, kind) * 1000, unit }
+        : { name: 'T <= 1073.15 K', value: valueOf(top, kind) * 1000, unit },
+      message: has5
+        ? `${name} ${targetSI} ${unit} at p = ${pPa} Pa lies above its value at 2273.15 K (${valueOf(top, kind) * 1000} ${unit}): the state would be above the IAPWS-IF97 limit T <= 2273.15 K`
+        : `${name} ${targetSI} ${unit} at p = ${pPa} Pa lies above its value at 1073.15 K (${valueOf(top, kind) * 1000} ${unit}): above 50 MPa the IF97 range ends at 1073.15 K (region 5 holds only up to 50 MPa)`,
       state,
     })
 
   const finish = (pr: If97Props | null): SteamResult<SteamState> => (pr ? ok(toSI(pr)) : fail(noConvergence(state)))
-  const solve = (region: 1 | 2 | 3, side: Side, lo: number, hi: number) =>
+  const solve = (region: 1 | 2 | 3 | 5, side: Side, lo: number, hi: number) =>
     finish(solveT(region, side, p, target, kind, lo, hi, backwardGuess(region, p, target, kind)))
+
+  // Above the region-2 value at 1073.15 K: region 5. (Regions 2 and 5 agree at 1073.15 K only
+  // within the release's consistency tolerance; a target inside that sliver gives the region-5
+  // state at 1073.15 K.)
+  if (target > valueOf(high, kind)) {
+    const y5 = valueOf(region5(p, T_MAX), kind)
+    if (target <= y5) return finish(region5(p, T_MAX))
+    return solve(5, 'auto', T_MAX, T_MAX5)
+  }
 
   if (p < P_SAT_MIN) {
     // Only vapour exists above 273.15 K.

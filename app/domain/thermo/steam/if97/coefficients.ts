@@ -297,3 +297,19 @@ export const REGION4_N = Float64Array.of(
   -3.2325550322333e6, 1.4915108613530e1, -4.8232657361591e3, 4.0511340542057e5,
   -2.3855557567849e-1, 6.5017534844798e2,
 )
+
+// IAPWS R7-97(2012), Table 37: exponents and coefficients of the ideal-gas part gamma^o of the
+// dimensionless Gibbs free energy for region 5, Eq. (33). (The 2007 revision's values, kept
+// in R7-97(2012).)
+export const REGION5_IDEAL_J: readonly number[] = [0, 1, -3, -2, -1, 2]
+export const REGION5_IDEAL_N = Float64Array.of(
+  -0.13179983674201e2, 0.68540841634434e1, -0.24805148933466e-1, 0.36901534980333, -0.31161318213925e1, -0.32961626538917,
+)
+
+// IAPWS R7-97(2012), Table 38: exponents and coefficients of the residual part gamma^r for
+// region 5, Eq. (34).
+export const REGION5_RES_I: readonly number[] = [1, 1, 1, 2, 2, 3]
+export const REGION5_RES_J: readonly number[] = [1, 2, 3, 3, 9, 7]
+export const REGION5_RES_N = Float64Array.of(
+  0.15736404855259e-2, 0.90153761673944e-3, -0.50270077677648e-2, 0.22440037409485e-5, -0.41163275453471e-5, 0.37919454822955e-7,
+)

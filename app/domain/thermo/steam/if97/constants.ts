@@ -16,8 +16,12 @@ export const RHOC = 322
 
 /** Lowest temperature of the formulation, K (273.15 K). */
 export const T_MIN = 273.15
-/** Highest temperature covered here (regions 1-4; region 5 is not implemented), K. */
+/** Highest temperature of regions 1-3 (and the lower bound of region 5), K. */
 export const T_MAX = 1073.15
+/** Highest temperature of region 5 (and of the formulation), K. */
+export const T_MAX5 = 2273.15
+/** Highest pressure of region 5 (1073.15 K < T <= 2273.15 K), MPa. */
+export const P_MAX5 = 50
 /** Highest pressure of the formulation, MPa. */
 export const P_MAX = 100
 /** Boundary temperature between regions 1 and 3 (and 2 and 3 at its low end), K. */

@@ -2,7 +2,7 @@
 
 export interface If97Props {
   /** Region of IAPWS-IF97 whose basic equation produced the values. */
-  region: 1 | 2 | 3
+  region: 1 | 2 | 3 | 5
   /** Pressure, MPa. */
   p: number
   /** Temperature, K. */
