@@ -23,7 +23,7 @@ export async function loader({ request }: Route.LoaderArgs) {
         name: user.name,
         email: user.email,
         isAdmin: user.isAdmin,
-        courses: user.courses.map((c) => ({ id: c.id, code: c.code, role: c.role })),
+        courses: user.courses.map((c) => ({ id: c.id, code: c.code, title: c.title, role: c.role })),
       }
     : null
   return { user: navUser }

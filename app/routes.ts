@@ -1,4 +1,4 @@
-import { type RouteConfig, index, prefix, route } from '@react-router/dev/routes'
+import { type RouteConfig, index, layout, prefix, route } from '@react-router/dev/routes'
 
 export default [
   index('routes/home.tsx'),
@@ -8,30 +8,33 @@ export default [
   route('reset-password/:token', 'routes/reset-password.tsx'),
   route('join/:token', 'routes/join.tsx'),
   ...prefix('courses/:courseId', [
-    index('routes/courses/$courseId.tsx'),
-    route('people', 'routes/courses/people.tsx'),
-    route('people/import', 'routes/courses/people/import.tsx'),
-    route('people/sections', 'routes/courses/people/sections.tsx'),
-    route('students/:userId', 'routes/courses/students/$userId.tsx'),
-    route('gradebook', 'routes/courses/gradebook.tsx'),
+    // Files for download sit beside the pages, outside the course header's layout.
     route('gradebook.csv', 'routes/resources/course-gradebook-csv.ts'),
     route('gradebook.xlsx', 'routes/resources/course-gradebook-xlsx.ts'),
-    route('disputes', 'routes/courses/disputes/index.tsx'),
-    route('disputes/:disputeId', 'routes/courses/disputes/$disputeId.tsx'),
     route('disputes/:disputeId/attachment', 'routes/resources/dispute-attachment.ts'),
-    route('audit', 'routes/courses/audit.tsx'),
-    route('settings', 'routes/courses/settings.tsx'),
-    ...prefix('assignments', [
-      route('new', 'routes/courses/assignments/new.tsx'),
-      route(':assignmentId', 'routes/courses/assignments/$assignmentId.tsx'),
-      route(':assignmentId/edit', 'routes/courses/assignments/edit.tsx'),
-      route(':assignmentId/extensions', 'routes/courses/assignments/extensions.tsx'),
-      route(':assignmentId/gradebook', 'routes/courses/assignments/gradebook.tsx'),
-      route(':assignmentId/statistics', 'routes/courses/assignments/statistics.tsx'),
-      route(':assignmentId/problems/:position', 'routes/courses/assignments/problem.tsx'),
-      route(':assignmentId/problems/:position/answers', 'routes/courses/assignments/answers.tsx'),
-      route(':assignmentId/problems/:position/regrade', 'routes/courses/assignments/regrade.tsx'),
-      route(':assignmentId/problems/:position/dispute', 'routes/courses/assignments/dispute.tsx'),
+    layout('routes/courses/layout.tsx', [
+      index('routes/courses/$courseId.tsx'),
+      route('people', 'routes/courses/people.tsx'),
+      route('people/import', 'routes/courses/people/import.tsx'),
+      route('people/sections', 'routes/courses/people/sections.tsx'),
+      route('students/:userId', 'routes/courses/students/$userId.tsx'),
+      route('gradebook', 'routes/courses/gradebook.tsx'),
+      route('disputes', 'routes/courses/disputes/index.tsx'),
+      route('disputes/:disputeId', 'routes/courses/disputes/$disputeId.tsx'),
+      route('audit', 'routes/courses/audit.tsx'),
+      route('settings', 'routes/courses/settings.tsx'),
+      ...prefix('assignments', [
+        route('new', 'routes/courses/assignments/new.tsx'),
+        route(':assignmentId', 'routes/courses/assignments/$assignmentId.tsx'),
+        route(':assignmentId/edit', 'routes/courses/assignments/edit.tsx'),
+        route(':assignmentId/extensions', 'routes/courses/assignments/extensions.tsx'),
+        route(':assignmentId/gradebook', 'routes/courses/assignments/gradebook.tsx'),
+        route(':assignmentId/statistics', 'routes/courses/assignments/statistics.tsx'),
+        route(':assignmentId/problems/:position', 'routes/courses/assignments/problem.tsx'),
+        route(':assignmentId/problems/:position/answers', 'routes/courses/assignments/answers.tsx'),
+        route(':assignmentId/problems/:position/regrade', 'routes/courses/assignments/regrade.tsx'),
+        route(':assignmentId/problems/:position/dispute', 'routes/courses/assignments/dispute.tsx'),
+      ]),
     ]),
   ]),
   ...prefix('bank', [

@@ -4,7 +4,7 @@ export type NavUser = {
   name: string
   email: string
   isAdmin: boolean
-  courses: { id: number; code: string; role: CourseRole }[]
+  courses: { id: number; code: string; title: string; role: CourseRole }[]
 }
 
 export type NavItem = { to: string; label: string; end?: boolean }

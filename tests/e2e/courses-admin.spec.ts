@@ -127,7 +127,7 @@ describe('courses and terms in the browser', () => {
       .getByRole('link', { name: new RegExp(`${code} ${title}`) })
       .first()
       .click()
-    await page.getByRole('link', { name: 'Settings and copying' }).click()
+    await page.getByRole('navigation', { name: 'Course' }).getByRole('link', { name: 'Settings' }).click()
     await page.getByRole('heading', { level: 1, name: 'Course settings' }).waitFor()
     await fitsThePhone()
     await page.getByLabel('Title', { exact: true }).fill(`${title} and refrigerators`)

@@ -55,7 +55,11 @@ test('an instructor invites a student, who follows the e-mailed link, sets a pas
   await signIn(page, baseURL, demoPeople.instructors[0]!.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
   await page.getByRole('list', { name: 'Courses' }).getByRole('link', { name: /ENTH 210 Engineering Thermodynamics I/ }).click()
-  await page.getByRole('link', { name: 'People and invitations' }).click()
+  await page.getByRole('navigation', { name: 'Course' }).getByRole('link', { name: 'People' }).click()
+  // The course header is rendered once, by the course layout, with the current page marked.
+  await page.getByRole('heading', { level: 1, name: 'People' }).waitFor()
+  expect(await page.getByRole('navigation', { name: 'Course' }).count()).toBe(1)
+  expect(await page.getByRole('navigation', { name: 'Course' }).getByRole('link', { name: 'People' }).getAttribute('aria-current')).toBe('page')
   await page.getByLabel('E-mail address').fill(email)
   await page.getByLabel('Role').selectOption('student')
   await page.getByRole('button', { name: 'Send invitation' }).click()

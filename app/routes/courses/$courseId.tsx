@@ -38,7 +38,7 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
       <h1 className="mt-1 text-3xl font-semibold">
         {course.code} {course.title}
       </h1>
-      <dl className="mt-6 grid max-w-3xl gap-4 sm:grid-cols-3">
+      <dl className="mt-6 grid max-w-4xl gap-4 sm:grid-cols-2 lg:grid-cols-4">
         <div className="rounded-lg border border-line bg-white p-4">
           <dt className="text-xs font-semibold tracking-wide text-muted uppercase">Sign convention</dt>
           <dd className="mt-1">
@@ -50,6 +50,14 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
           <dt className="text-xs font-semibold tracking-wide text-muted uppercase">Time zone</dt>
           <dd className="mt-1">{course.timeZone}</dd>
         </div>
+        {openDisputes !== null ? (
+          <div className="rounded-lg border border-line bg-white p-4">
+            <dt className="text-xs font-semibold tracking-wide text-muted uppercase">Disputes</dt>
+            <dd className="mt-1">
+              <Link to={`/courses/${course.id}/disputes`}>{openDisputes === 1 ? '1 open dispute' : `${openDisputes} open disputes`}</Link>
+            </dd>
+          </div>
+        ) : null}
         {counts ? (
           <div className="rounded-lg border border-line bg-white p-4">
             <dt className="text-xs font-semibold tracking-wide text-muted uppercase">People</dt>
@@ -59,18 +67,6 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
           </div>
         ) : null}
       </dl>
-      <nav aria-label="Course pages" className="mt-6 flex flex-wrap gap-4">
-        {staff ? (
-          <>
-            <Link to={`/courses/${course.id}/people`}>People and invitations</Link>
-            <Link to={`/courses/${course.id}/disputes`}>Review queue ({openDisputes ?? 0} open)</Link>
-            {course.role === 'instructor' ? <Link to={`/courses/${course.id}/audit`}>Audit log</Link> : null}
-            {course.role === 'instructor' ? <Link to={`/courses/${course.id}/settings`}>Settings and copying</Link> : null}
-          </>
-        ) : (
-          <Link to={`/courses/${course.id}/disputes`}>Your disputes</Link>
-        )}
-      </nav>
       <Assignments courseId={course.id} timeZone={course.timeZone} rows={assignments} staff={staff} instructor={course.role === 'instructor'} />
     </div>
   )

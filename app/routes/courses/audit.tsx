@@ -62,11 +62,6 @@ export default function AuditRoute({ loaderData }: Route.ComponentProps) {
   const last = Math.min(total, page * PAGE_SIZE)
   return (
     <div>
-      <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>
-      </p>
       <h1 className="mt-1 text-3xl font-semibold">Audit log</h1>
       <p className="mt-2 max-w-3xl text-muted">
         Every change of a score in this course, and the decisions around scores (extensions, releases, changed assignments): who, when, what it was and

@@ -2,7 +2,7 @@
 // Filters and sort are URL search params (works without JavaScript); with it, the table
 // follows GET /api/courses/:id/gradebook: every 1.5 s while answers are being graded, every
 // 10 s otherwise.
-import { data, Link, useLocation } from 'react-router'
+import { data, useLocation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { CourseGradebookTable, DroppedStudents, GradebookFilters } from '#app/components/gradebook-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
@@ -33,11 +33,6 @@ export default function CourseGradebookRoute({ loaderData }: Route.ComponentProp
   const { gradebook, refreshError } = useLiveGradebook(['course-gradebook', course.id], `/api/courses/${course.id}/gradebook${search}`, loaderData.gradebook)
   return (
     <div>
-      <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>
-      </p>
       <h1 className="mt-1 text-3xl font-semibold">Gradebook</h1>
       <p className="mt-1 text-sm">
         {/* Plain links: the files are downloads, not pages for the router. */}

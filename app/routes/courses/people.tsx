@@ -240,11 +240,6 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
   const students = roster.active.filter((m) => m.role === 'student').length
   return (
     <div>
-      <p className="text-sm text-muted">
-        <a href={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </a>
-      </p>
       <h1 className="mt-1 text-3xl font-semibold">People</h1>
       <p className="mt-2 flex flex-wrap gap-x-4 gap-y-1">
         {mayManage ? <Link to="import">Import a class list</Link> : null}

@@ -63,10 +63,7 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>{' '}
-        · {course.termName}
+        {course.termName}
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Course settings</h1>
       {copied && copyOf ? (

@@ -92,11 +92,6 @@ export default function AssignmentRoute({ loaderData, actionData }: Route.Compon
 function NotYetOpen({ course, info }: { course: { id: number; code: string; title: string }; info: { title: string; message: string } }) {
   return (
     <div>
-      <p className="text-sm text-muted">
-        <a href={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </a>
-      </p>
       <h1 className="mt-1 text-3xl font-semibold">{info.title}</h1>
       <Notice tone="info" className="mt-4 max-w-3xl">
         {info.message}
@@ -114,11 +109,6 @@ function AssignmentPage({ loaderData, actionData }: { loaderData: PageData; acti
   const base = `/courses/${course.id}/assignments/${a.id}`
   return (
     <div>
-      <p className="text-sm text-muted">
-        <a href={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </a>
-      </p>
       <h1 className="mt-1 text-3xl font-semibold">{a.title}</h1>
       {notice === 'key' ? (
         <Notice tone="ok" className="mt-4">

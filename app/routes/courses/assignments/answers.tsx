@@ -39,10 +39,7 @@ export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>{' '}
-        · <Link to={base}>{assignment.title}</Link> · <Link to={`${base}/gradebook`}>Gradebook</Link> · <Link to={`${base}/statistics`}>Statistics</Link>
+        <Link to={base}>{assignment.title}</Link> · <Link to={`${base}/gradebook`}>Gradebook</Link> · <Link to={`${base}/statistics`}>Statistics</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">
         Answers to problem {item.position}: {item.title}

@@ -80,10 +80,7 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
   return (
     <div>
       <p className="text-sm text-muted">
-        <a href={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </a>{' '}
-        · <a href={base}>{assignment.title}</a>
+        <a href={base}>{assignment.title}</a>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Extensions</h1>
       <p className="mt-2 text-muted">

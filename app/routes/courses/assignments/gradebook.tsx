@@ -39,10 +39,7 @@ export default function AssignmentGradebookRoute({ loaderData }: Route.Component
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>{' '}
-        · <Link to={base}>{assignment.title}</Link> · <Link to={`/courses/${course.id}/gradebook`}>Course gradebook</Link>
+        <Link to={base}>{assignment.title}</Link> · <Link to={`/courses/${course.id}/gradebook`}>Course gradebook</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Gradebook: {assignment.title}</h1>
       <p className="mt-1 text-sm text-muted">

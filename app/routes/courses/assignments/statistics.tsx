@@ -140,10 +140,7 @@ export default function AssignmentStatisticsRoute({ loaderData }: Route.Componen
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>{' '}
-        · <Link to={base}>{assignment.title}</Link> · <Link to={`${base}/gradebook`}>Gradebook</Link>
+        <Link to={base}>{assignment.title}</Link> · <Link to={`${base}/gradebook`}>Gradebook</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Statistics: {assignment.title}</h1>
       <p className="mt-1 text-sm text-muted">

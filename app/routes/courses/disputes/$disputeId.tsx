@@ -111,10 +111,7 @@ export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to={`/courses/${courseId}`}>
-            {course.code} {course.title}
-          </Link>{' '}
-          · <Link to={`/courses/${courseId}/disputes`}>{staff ? 'Review queue' : 'Your disputes'}</Link>
+          <Link to={`/courses/${courseId}/disputes`}>{staff ? 'Review queue' : 'Your disputes'}</Link>
         </p>
         <h1 className="mt-1 text-3xl font-semibold">
           Dispute: {find.label} <span className="text-xl font-normal text-muted">({d.assignmentTitle}, problem {d.position})</span>

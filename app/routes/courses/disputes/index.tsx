@@ -59,11 +59,6 @@ export default function DisputesRoute({ loaderData }: Route.ComponentProps) {
   const { course, staff } = loaderData
   return (
     <div>
-      <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>
-      </p>
       {staff ? <StaffQueue data={loaderData} /> : <StudentList data={loaderData} />}
     </div>
   )

@@ -191,10 +191,7 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
   return (
     <div className="max-w-5xl">
       <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>{' '}
-        · <Link to={`/courses/${course.id}/people`}>People</Link>
+        <Link to={`/courses/${course.id}/people`}>People</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Import a class list</h1>
       <p className="mt-2 text-muted">

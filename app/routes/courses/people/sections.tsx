@@ -96,10 +96,7 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
   return (
     <div className="max-w-4xl">
       <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}`}>
-          {course.code} {course.title}
-        </Link>{' '}
-        · <Link to={`/courses/${course.id}/people`}>People</Link>
+        <Link to={`/courses/${course.id}/people`}>People</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Sections</h1>
       <p className="mt-2 text-muted">Lab or tutorial groups. Put students in them from the people page or with a section column in an imported class list.</p>

@@ -45,10 +45,7 @@ export default function StudentRecordRoute({ loaderData }: Route.ComponentProps)
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to={`/courses/${course.id}`}>
-            {course.code} {course.title}
-          </Link>{' '}
-          · <Link to={`/courses/${course.id}/gradebook`}>Gradebook</Link> · <Link to={`/courses/${course.id}/people`}>People</Link>
+          <Link to={`/courses/${course.id}/gradebook`}>Gradebook</Link> · <Link to={`/courses/${course.id}/people`}>People</Link>
         </p>
         <h1 className="mt-1 text-3xl font-semibold break-words">{student.name}</h1>
         {student.droppedAt ? (
