@@ -3,7 +3,7 @@
  * filters, sorting and expanding work before (or without) JavaScript; the page swaps in fresh
  * data from its /api/ route while answers are being graded.
  */
-import { Form, Link } from 'react-router'
+import { Form, href, Link } from 'react-router'
 import { formatInZone } from '#app/lib/dates.ts'
 import { formatPoints } from '#app/lib/points.ts'
 import type {
@@ -225,7 +225,7 @@ export function AssignmentGradebookTable({ data, basePath }: { data: AssignmentG
         <tbody>
           {data.students.map((s) => (
             <tr key={s.userId} className="border-t border-line align-top">
-              <StudentCell student={s} href={`/courses/${data.assignment.courseId}/students/${s.userId}`} />
+              <StudentCell student={s} href={href('/courses/:courseId/students/:userId', { courseId: String(data.assignment.courseId), userId: String(s.userId) })} />
               <td className="px-3 py-2">{s.section ?? '—'}</td>
               {s.items.map((item) =>
                 expanded ? (
@@ -295,7 +295,7 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
             </SortHeader>
             {data.assignments.map((a) => (
               <th key={a.id} scope="col" className="min-w-32 px-3 py-2">
-                <Link to={`/courses/${data.course.id}/assignments/${a.id}/gradebook`} className="underline-offset-2 hover:underline">
+                <Link to={href('/courses/:courseId/assignments/:assignmentId/gradebook', { courseId: String(data.course.id), assignmentId: String(a.id) })} className="underline-offset-2 hover:underline">
                   {a.title}
                 </Link>
                 <span className="block font-normal normal-case">/ {formatPoints(a.points)}</span>
@@ -313,7 +313,7 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
         <tbody>
           {data.students.map((s) => (
             <tr key={s.userId} className="border-t border-line align-top">
-              <StudentCell student={s} href={`/courses/${data.course.id}/students/${s.userId}`} />
+              <StudentCell student={s} href={href('/courses/:courseId/students/:userId', { courseId: String(data.course.id), userId: String(s.userId) })} />
               <td className="px-3 py-2">{s.section ?? '—'}</td>
               {s.assignments.map((c) => (
                 <td key={c.assignmentId} className="px-3 py-2 whitespace-nowrap tabular-nums">

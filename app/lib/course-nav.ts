@@ -1,3 +1,4 @@
+import { href } from 'react-router'
 import type { CourseRole } from '#app/domain/permissions.ts'
 
 export interface CourseNavItem {
@@ -9,13 +10,17 @@ export interface CourseNavItem {
 
 /** The pages of one course a member may open, in the order the course bar lists them. */
 export function courseNavFor(courseId: number, role: CourseRole): CourseNavItem[] {
-  const base = `/courses/${courseId}`
-  const items: CourseNavItem[] = [{ to: base, label: 'Assignments', end: true }]
+  const p = { courseId: String(courseId) }
+  const items: CourseNavItem[] = [{ to: href('/courses/:courseId', p), label: 'Assignments', end: true }]
   if (role === 'student') {
-    items.push({ to: `${base}/disputes`, label: 'Your disputes' })
+    items.push({ to: href('/courses/:courseId/disputes', p), label: 'Your disputes' })
     return items
   }
-  items.push({ to: `${base}/gradebook`, label: 'Gradebook' }, { to: `${base}/people`, label: 'People' }, { to: `${base}/disputes`, label: 'Review queue' })
-  if (role === 'instructor') items.push({ to: `${base}/audit`, label: 'Audit log' }, { to: `${base}/settings`, label: 'Settings' })
+  items.push(
+    { to: href('/courses/:courseId/gradebook', p), label: 'Gradebook' },
+    { to: href('/courses/:courseId/people', p), label: 'People' },
+    { to: href('/courses/:courseId/disputes', p), label: 'Review queue' },
+  )
+  if (role === 'instructor') items.push({ to: href('/courses/:courseId/audit', p), label: 'Audit log' }, { to: href('/courses/:courseId/settings', p), label: 'Settings' })
   return items
 }

@@ -1,4 +1,4 @@
-import { Link, redirect } from 'react-router'
+import { href, Link, redirect } from 'react-router'
 import { primaryRole, roleLabels } from '#app/domain/permissions.ts'
 import { conventionText } from '#app/lib/conventions.ts'
 import { inSentence, LATE_LABEL, SWEEP_STATUS_LABELS } from '#app/lib/labels.ts'
@@ -65,7 +65,7 @@ export default function HomeRoute({ loaderData }: Route.ComponentProps) {
                 {c.termName} · {roleLabels[c.role]}
               </p>
               <h2 className="mt-1 text-xl font-semibold">
-                <Link to={`/courses/${c.id}`}>
+                <Link to={href('/courses/:courseId', { courseId: String(c.id) })}>
                   {c.code} {c.title}
                 </Link>
               </h2>
@@ -100,7 +100,7 @@ function ToDo({ home }: { home: HomeData }) {
               ) : c.due.length === 0 && c.opening.length === 0 ? null : (
                 <div key={c.courseId} className="rounded-lg border border-line bg-white p-4" data-due-course={c.code}>
                   <h3 className="font-semibold">
-                    <Link to={`/courses/${c.courseId}`}>
+                    <Link to={href('/courses/:courseId', { courseId: String(c.courseId) })}>
                       {c.code} {c.title}
                     </Link>
                   </h3>
@@ -140,7 +140,7 @@ function ToDo({ home }: { home: HomeData }) {
             {waiting.map((c) => (
               <li key={c.courseId} className="rounded-lg border border-line bg-white p-4" data-waiting-course={c.code}>
                 <h3 className="font-semibold">
-                  <Link to={`/courses/${c.courseId}`}>
+                  <Link to={href('/courses/:courseId', { courseId: String(c.courseId) })}>
                     {c.code} {c.title}
                   </Link>
                 </h3>
@@ -160,7 +160,7 @@ function ToDo({ home }: { home: HomeData }) {
                   ))}
                   {c.pendingInvitations > 0 ? (
                     <li>
-                      <Link to={`/courses/${c.courseId}/people`}>
+                      <Link to={href('/courses/:courseId/people', { courseId: String(c.courseId) })}>
                         {c.pendingInvitations} invitation{c.pendingInvitations === 1 ? '' : 's'} not yet accepted
                       </Link>
                     </li>

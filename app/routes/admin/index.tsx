@@ -1,4 +1,4 @@
-import { Link } from 'react-router'
+import { href, Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { conventionText } from '#app/lib/conventions.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
@@ -46,7 +46,7 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
               {courses.map((c) => (
                 <tr key={c.id} className="border-t border-line">
                   <th scope="row" className="px-4 py-2 font-normal">
-                    <Link to={`/admin/courses/${c.id}`}>
+                    <Link to={href('/admin/courses/:courseId', { courseId: String(c.id) })}>
                       {c.code} {c.title}
                     </Link>
                   </th>

@@ -1,4 +1,4 @@
-import { Link } from 'react-router'
+import { href, Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { pageParam } from '#app/lib/query-params.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
@@ -38,7 +38,7 @@ export default function OutboxRoute({ loaderData }: Route.ComponentProps) {
         <ul className="mt-6 divide-y divide-line rounded-lg border border-line bg-white" aria-label="Messages">
           {messages.map((m) => (
             <li key={m.id} className="flex flex-wrap items-baseline justify-between gap-2 px-4 py-3">
-              <Link to={`/admin/outbox/${m.id}`} className="font-medium">
+              <Link to={href('/admin/outbox/:messageId', { messageId: String(m.id) })} className="font-medium">
                 {m.subject || '(no subject)'}
               </Link>
               <span className="text-sm text-muted">

@@ -1,4 +1,4 @@
-import { Link } from 'react-router'
+import { href, Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { windowMessage } from '#app/domain/assignments/policy.ts'
 import { roleLabels } from '#app/domain/permissions.ts'
@@ -54,7 +54,7 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
           <div className="rounded-lg border border-line bg-white p-4">
             <dt className="text-xs font-semibold tracking-wide text-muted uppercase">Disputes</dt>
             <dd className="mt-1">
-              <Link to={`/courses/${course.id}/disputes`}>{openDisputes === 1 ? '1 open dispute' : `${openDisputes} open disputes`}</Link>
+              <Link to={href('/courses/:courseId/disputes', { courseId: String(course.id) })}>{openDisputes === 1 ? '1 open dispute' : `${openDisputes} open disputes`}</Link>
             </dd>
           </div>
         ) : null}
@@ -82,9 +82,9 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
         </h2>
         {staff ? (
           <p className="flex flex-wrap gap-4 text-sm">
-            {instructor ? <Link to={`/courses/${courseId}/assignments/new`}>New assignment</Link> : null}
-            <Link to={`/courses/${courseId}/gradebook`}>Course gradebook</Link>
-            <a href={`/courses/${courseId}/gradebook.csv`} download>
+            {instructor ? <Link to={href('/courses/:courseId/assignments/new', { courseId: String(courseId) })}>New assignment</Link> : null}
+            <Link to={href('/courses/:courseId/gradebook', { courseId: String(courseId) })}>Course gradebook</Link>
+            <a href={href('/courses/:courseId/gradebook.csv', { courseId: String(courseId) })} download>
               Download grades (CSV)
             </a>
           </p>
@@ -122,7 +122,7 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
               {rows.map((a) => (
                 <tr key={a.id} className="border-t border-line align-top">
                   <th scope="row" className="min-w-40 px-4 py-2 font-normal">
-                    <Link to={`/courses/${courseId}/assignments/${a.id}`}>{a.title}</Link>
+                    <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(courseId), assignmentId: String(a.id) })}>{a.title}</Link>
                   </th>
                   <td className="px-4 py-2">{fmt(a.opensAt)}</td>
                   <td className="px-4 py-2">
@@ -136,10 +136,10 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
                       </td>
                       <td className="px-4 py-2">
                         <span className="flex flex-wrap gap-3">
-                          <Link to={`/courses/${courseId}/assignments/${a.id}`}>
+                          <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(courseId), assignmentId: String(a.id) })}>
                             Overview<span className="sr-only"> of {a.title}</span>
                           </Link>
-                          <Link to={`/courses/${courseId}/assignments/${a.id}/gradebook`}>
+                          <Link to={href('/courses/:courseId/assignments/:assignmentId/gradebook', { courseId: String(courseId), assignmentId: String(a.id) })}>
                             Gradebook<span className="sr-only"> of {a.title}</span>
                           </Link>
                         </span>

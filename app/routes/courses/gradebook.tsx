@@ -2,7 +2,7 @@
 // Filters and sort are URL search params (works without JavaScript); with it, the table
 // follows GET /api/courses/:id/gradebook: every 1.5 s while answers are being graded, every
 // 10 s otherwise.
-import { data, useLocation } from 'react-router'
+import { data, href, useLocation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { CourseGradebookTable, DroppedStudents, GradebookFilters } from '#app/components/gradebook-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
@@ -36,11 +36,11 @@ export default function CourseGradebookRoute({ loaderData }: Route.ComponentProp
       <h1 className="mt-1 text-3xl font-semibold">Gradebook</h1>
       <p className="mt-1 text-sm">
         {/* Plain links: the files are downloads, not pages for the router. */}
-        <a href={`/courses/${course.id}/gradebook.csv`} className="underline" download>
+        <a href={href('/courses/:courseId/gradebook.csv', { courseId: String(course.id) })} className="underline" download>
           Download CSV
         </a>{' '}
         ·{' '}
-        <a href={`/courses/${course.id}/gradebook.xlsx`} className="underline" download>
+        <a href={href('/courses/:courseId/gradebook.xlsx', { courseId: String(course.id) })} className="underline" download>
           Download XLSX
         </a>{' '}
         <span className="text-muted">(the same columns and figures as this table, every current student)</span>

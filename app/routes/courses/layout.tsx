@@ -1,4 +1,4 @@
-import { Link, NavLink, Outlet, useParams, useRouteLoaderData } from 'react-router'
+import { href, Link, NavLink, Outlet, useParams, useRouteLoaderData } from 'react-router'
 import { cn } from '#app/lib/cn.ts'
 import { courseNavFor } from '#app/lib/course-nav.ts'
 import type { loader as rootLoader } from '#app/root.tsx'
@@ -19,7 +19,7 @@ export default function CourseLayout() {
       {course ? (
         <div className="mb-6 flex flex-wrap items-center gap-x-4 gap-y-2 border-b border-line pb-3">
           <p className="text-sm text-muted">
-            <Link to={`/courses/${course.id}`} className="font-medium">
+            <Link to={href('/courses/:courseId', { courseId: String(course.id) })} className="font-medium">
               {course.code} {course.title}
             </Link>
           </p>

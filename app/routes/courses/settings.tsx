@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { ConventionChoice, TimeZoneField } from '#app/components/course-fields.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -70,7 +70,7 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
         <Notice tone="ok" className="mt-4">
           This is the copy of {copyOf.code} ({copyOf.termName}) for {course.termName}: {copyOf.assignments} assignment
           {copyOf.assignments === 1 ? '' : 's'}, dates moved by {formatDayOffset(copyOf.offsetDays)}. Keys and grades are not released.{' '}
-          <Link to={`/courses/${course.id}`}>Open the course page</Link> to check the assignments.
+          <Link to={href('/courses/:courseId', { courseId: String(course.id) })}>Open the course page</Link> to check the assignments.
         </Notice>
       ) : null}
       {saved ? (

@@ -1,4 +1,4 @@
-import { data, Form, Link, useNavigation } from 'react-router'
+import { data, Form, href, Link, useNavigation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { Field } from '#app/components/ui/field.tsx'
@@ -105,7 +105,7 @@ export default function AdminCourseRoute({ loaderData, actionData }: Route.Compo
         {course.copiedFrom ? (
           <>
             {' '}
-            Copied from <Link to={`/admin/courses/${course.copiedFrom.id}`}>{course.copiedFrom.code}</Link> of {course.copiedFrom.termName}.
+            Copied from <Link to={href('/admin/courses/:courseId', { courseId: String(course.copiedFrom.id) })}>{course.copiedFrom.code}</Link> of {course.copiedFrom.termName}.
           </>
         ) : null}
       </p>

@@ -1,6 +1,6 @@
 // Staff only (instructors and TAs of the course): every answer submitted to one question
 // (find) of an assignment's problem, with its verdict and the pitfall that explains it.
-import { data, Link } from 'react-router'
+import { data, href, Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { formatPoints } from '#app/lib/points.ts'
 import { formatInZone } from '#app/lib/dates.ts'
@@ -35,7 +35,7 @@ function verdictOf(a: FindAnswer): string {
 export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
   const { course, answers } = loaderData
   const { assignment, item, find, finds } = answers
-  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
   return (
     <div>
       <p className="text-sm text-muted">

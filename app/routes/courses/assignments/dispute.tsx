@@ -4,7 +4,7 @@
  * its bytes; this page only keeps an oversized body from being read at all.
  */
 import { useState } from 'react'
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -237,7 +237,7 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
       <nav aria-label="Breadcrumb" className="text-sm text-muted">
         <ol className="flex flex-wrap gap-1">
           <li>
-            <Link to={`/courses/${courseId}/assignments/${assignment.id}`}>{assignment.title}</Link>
+            <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(courseId), assignmentId: String(assignment.id) })}>{assignment.title}</Link>
             <span aria-hidden="true"> › </span>
           </li>
           <li>

@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -36,7 +36,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { user } = await requireCourseRole(request, courseId, ['instructor'])
   const formData = await readFormData(request)
-  const here = `/courses/${courseId}/assignments/${assignmentId}/extensions`
+  const here = href('/courses/:courseId/assignments/:assignmentId/extensions', { courseId: String(courseId), assignmentId: String(assignmentId) })
   if (formData.get('intent') === 'remove') {
     const parsed = RemoveSchema.safeParse({ userId: formData.get('userId') })
     if (!parsed.success) throw data('Choose a student’s extension to remove.', { status: 400 })
@@ -65,7 +65,7 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
     extraAttempts: prefill ? String(prefill.extraAttempts) : '0',
     reason: prefill?.reason ?? '',
   }
-  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
   const errorOf = (key: string) =>
     errors[key] ? (
       <p id={`ext-${key}-error`} className="text-sm text-danger">

@@ -2,7 +2,7 @@
 // and expansion are URL search params, so the page works without JavaScript; with it, the
 // table follows GET /api/assignments/:id/gradebook: every 1.5 s while answers are being graded,
 // every 10 s otherwise.
-import { data, Link, useLocation } from 'react-router'
+import { data, href, Link, useLocation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { AssignmentGradebookTable, DroppedStudents, ExpandLink, GradebookFilters } from '#app/components/gradebook-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
@@ -35,11 +35,11 @@ export default function AssignmentGradebookRoute({ loaderData }: Route.Component
   const id = loaderData.gradebook.assignment.id
   const { gradebook, refreshError } = useLiveGradebook(['assignment-gradebook', id], `/api/assignments/${id}/gradebook${search}`, loaderData.gradebook)
   const { assignment } = gradebook
-  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to={base}>{assignment.title}</Link> · <Link to={`/courses/${course.id}/gradebook`}>Course gradebook</Link>
+        <Link to={base}>{assignment.title}</Link> · <Link to={href('/courses/:courseId/gradebook', { courseId: String(course.id) })}>Course gradebook</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Gradebook: {assignment.title}</h1>
       <p className="mt-1 text-sm text-muted">

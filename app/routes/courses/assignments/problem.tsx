@@ -2,7 +2,7 @@
 import 'katex/dist/katex.min.css'
 import { useQuery, useQueryClient } from '@tanstack/react-query'
 import { useEffect, useMemo, useState } from 'react'
-import { data, Link, redirect, useFetcher } from 'react-router'
+import { data, href, Link, redirect, useFetcher } from 'react-router'
 import { z } from 'zod'
 import { AnswerForm, type AnswerFormMode } from '#app/components/answer-form.tsx'
 import { CycleDiagrams } from '#app/components/cycle-diagrams.tsx'
@@ -176,7 +176,7 @@ function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; 
   const shownReceiptId = submitted?.receipt?.submissionId ?? receiptId
   const receipt = (shownReceiptId !== null ? results.receipts.find((r) => r.submissionId === shownReceiptId) : undefined) ?? submitted?.receipt ?? null
 
-  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
   const here = `${base}/problems/${item.position}`
   const mode: AnswerFormMode = staff ? 'preview' : !dropped && (problem.window.state === 'open' || problem.window.state === 'late') ? 'submit' : 'closed'
   const message = windowMessage(problem.window, (d) => formatInZone(d, tz))
@@ -188,7 +188,7 @@ function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; 
       <nav aria-label="Breadcrumb" className="text-sm text-muted">
         <ol className="flex flex-wrap gap-1">
           <li>
-            <Link to={`/courses/${course.id}`}>{course.code}</Link>
+            <Link to={href('/courses/:courseId', { courseId: String(course.id) })}>{course.code}</Link>
             <span aria-hidden="true"> › </span>
           </li>
           <li>

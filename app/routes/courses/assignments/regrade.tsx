@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useActionData, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useActionData, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { isRegradeActive, REGRADE_STATUS_WORDS, RegradeProgress } from '#app/components/regrade-progress.tsx'
@@ -114,7 +114,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
   const values = actionData?.values ?? loaderData.values
   const fieldErrors: Record<string, string> = actionData?.fieldErrors ?? previewError?.fieldErrors ?? {}
   const busy = regrades.some((r) => isRegradeActive(r.status))
-  const problemHref = `/courses/${item.courseId}/assignments/${item.assignmentId}/problems/${item.position}`
+  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', { courseId: String(item.courseId), assignmentId: String(item.assignmentId), position: String(item.position) })
 
   const errorId = (field: string) => `${field.replace(/[^A-Za-z0-9_-]/g, '-')}-error`
   const fieldProps = (field: string) => ({
@@ -133,7 +133,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to={`/courses/${item.courseId}/assignments/${item.assignmentId}`}>{item.assignmentTitle}</Link> ·{' '}
+          <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(item.courseId), assignmentId: String(item.assignmentId) })}>{item.assignmentTitle}</Link> ·{' '}
           <Link to={`${problemHref}/answers`}>Answers to problem {item.position}</Link>
         </p>
         <h1 className="mt-1 text-3xl font-semibold">

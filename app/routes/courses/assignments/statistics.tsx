@@ -1,6 +1,6 @@
 // Staff only (instructors and TAs of the course): how an assignment went, per problem and per
 // question — mean, median, a histogram, right at the first attempt, common wrong answers.
-import { data, Link } from 'react-router'
+import { data, href, Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { formatPoints } from '#app/lib/points.ts'
 import { Histogram } from '#app/components/histogram.tsx'
@@ -136,7 +136,7 @@ function WrongAnswers({ find }: { find: FindStatistics }) {
 export default function AssignmentStatisticsRoute({ loaderData }: Route.ComponentProps) {
   const { course, statistics } = loaderData
   const { assignment } = statistics
-  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
   return (
     <div>
       <p className="text-sm text-muted">

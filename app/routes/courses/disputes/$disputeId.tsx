@@ -1,7 +1,7 @@
 // The prompt and the worked solution carry KaTeX markup; its stylesheet goes wherever they show.
 import 'katex/dist/katex.min.css'
 import type { ReactNode } from 'react'
-import { data, Form, Link, redirect, useActionData, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useActionData, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { CycleDiagrams } from '#app/components/cycle-diagrams.tsx'
 import { DISPUTE_STATUS_MEANING, DisputeStatusBadge, disputeOutcomeText } from '#app/components/dispute-status.tsx'
@@ -104,14 +104,14 @@ function pointsText(n: number | null, max?: number): string {
 export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
   const { courseId, course, dispute: d, timeZone, find, changed, staff, mine } = loaderData
   const fmt = (at: string) => formatInZone(at, timeZone)
-  const problemHref = `/courses/${courseId}/assignments/${d.assignmentId}/problems/${d.position}`
+  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', { courseId: String(courseId), assignmentId: String(d.assignmentId), position: String(d.position) })
   const outcome = disputeOutcomeText(d)
   const actionData = useActionData<typeof action>()
   return (
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to={`/courses/${courseId}/disputes`}>{staff ? 'Review queue' : 'Your disputes'}</Link>
+          <Link to={href('/courses/:courseId/disputes', { courseId: String(courseId) })}>{staff ? 'Review queue' : 'Your disputes'}</Link>
         </p>
         <h1 className="mt-1 text-3xl font-semibold">
           Dispute: {find.label} <span className="text-xl font-normal text-muted">({d.assignmentTitle}, problem {d.position})</span>
@@ -182,7 +182,7 @@ export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
             <dt className="font-medium">Your file</dt>
             <dd>{mine.attachment ? null : 'None sent'}</dd>
           </dl>
-          {mine.attachment ? <AttachmentView href={`/courses/${courseId}/disputes/${d.id}/attachment`} file={mine.attachment} alt={`Your worked solution, sent as ${mine.attachment.fileName}`} /> : null}
+          {mine.attachment ? <AttachmentView href={href('/courses/:courseId/disputes/:disputeId/attachment', { courseId: String(courseId), disputeId: String(d.id) })} file={mine.attachment} alt={`Your worked solution, sent as ${mine.attachment.fileName}`} /> : null}
           <p className="mt-3">
             <Link to={problemHref}>Back to the problem</Link>
           </p>
@@ -212,7 +212,7 @@ function StaffView({
   problemHref: string
 }) {
   const a = detail.answer
-  const attachmentHref = `/courses/${courseId}/disputes/${d.id}/attachment`
+  const attachmentHref = href('/courses/:courseId/disputes/:disputeId/attachment', { courseId: String(courseId), disputeId: String(d.id) })
   return (
     <>
       {d.status === 'open' ? <ResolveForm detail={detail} find={find} /> : null}

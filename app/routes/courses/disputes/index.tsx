@@ -1,5 +1,5 @@
 import { formatDistanceStrict } from 'date-fns'
-import { Form, Link, useNavigation } from 'react-router'
+import { Form, href, Link, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { DISPUTE_STATUS_MEANING, DISPUTE_STATUS_WORDS, DisputeStatusBadge, disputeOutcomeText, type DisputeStatusValue } from '#app/components/dispute-status.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
@@ -113,7 +113,7 @@ function StaffQueue({ data }: { data: Data }) {
         <Button type="submit" variant="secondary" disabled={filtering}>
           {filtering ? 'Filtering…' : 'Filter'}
         </Button>
-        {filtered ? <Link to={`/courses/${course.id}/disputes`}>Show open disputes of all assignments</Link> : null}
+        {filtered ? <Link to={href('/courses/:courseId/disputes', { courseId: String(course.id) })}>Show open disputes of all assignments</Link> : null}
       </Form>
       {rows.length === 0 ? (
         <EmptyState className="mt-6">
@@ -168,7 +168,7 @@ function StaffQueue({ data }: { data: Data }) {
                     {disputeOutcomeText(r) ? <span className="block text-xs text-muted">{disputeOutcomeText(r)}</span> : null}
                   </td>
                   <td className="sticky right-0 bg-white px-4 py-2 shadow-[-1px_0_0_var(--color-line)]">
-                    <Link to={`/courses/${course.id}/disputes/${r.id}`} className="whitespace-nowrap">
+                    <Link to={href('/courses/:courseId/disputes/:disputeId', { courseId: String(course.id), disputeId: String(r.id) })} className="whitespace-nowrap">
                       {r.status === 'open' ? 'Review' : 'View'}
                       <span className="sr-only">
                         {' '}
@@ -221,7 +221,7 @@ function StudentList({ data }: { data: Data }) {
 }
 
 function StudentRow({ row: r, courseId, timeZone }: { row: Row; courseId: number; timeZone: string }) {
-  const problemHref = `/courses/${courseId}/assignments/${r.assignmentId}/problems/${r.position}`
+  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', { courseId: String(courseId), assignmentId: String(r.assignmentId), position: String(r.position) })
   return (
     <tr className="border-t border-line align-top">
       <td className="px-4 py-2">
@@ -243,7 +243,7 @@ function StudentRow({ row: r, courseId, timeZone }: { row: Row; courseId: number
         {r.resolvedAt ? <span className="block text-xs text-muted">{formatInZone(r.resolvedAt, timeZone)}</span> : null}
       </td>
       <td className="px-4 py-2">
-        <Link to={`/courses/${courseId}/disputes/${r.id}`}>
+        <Link to={href('/courses/:courseId/disputes/:disputeId', { courseId: String(courseId), disputeId: String(r.id) })}>
           Details<span className="sr-only"> of your dispute on {r.findLabel}</span>
         </Link>
       </td>

@@ -8,7 +8,7 @@
  * form. The import reads and checks that text again from the start inside its transaction;
  * nothing from the preview is trusted.
  */
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
@@ -191,7 +191,7 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
   return (
     <div className="max-w-5xl">
       <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}/people`}>People</Link>
+        <Link to={href('/courses/:courseId/people', { courseId: String(course.id) })}>People</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Import a class list</h1>
       <p className="mt-2 text-muted">

@@ -3,7 +3,7 @@
  * without a section), and which teaching assistants look after each. Instructors change
  * them; TAs see them.
  */
-import { data, Form, Link, useNavigation } from 'react-router'
+import { data, Form, href, Link, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -96,7 +96,7 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
   return (
     <div className="max-w-4xl">
       <p className="text-sm text-muted">
-        <Link to={`/courses/${course.id}/people`}>People</Link>
+        <Link to={href('/courses/:courseId/people', { courseId: String(course.id) })}>People</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Sections</h1>
       <p className="mt-2 text-muted">Lab or tutorial groups. Put students in them from the people page or with a section column in an imported class list.</p>

@@ -1,7 +1,7 @@
 // Staff only (instructors and TAs of the course): one student's record — who they are, their
 // own variant of every problem with its givens and key, every answer they sent with its grade,
 // their extensions and their disputes. Times in the course's zone.
-import { data, Link } from 'react-router'
+import { data, href, Link } from 'react-router'
 import { DisputeStatusBadge, disputeOutcomeText } from '#app/components/dispute-status.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { AnswerKeyTable } from '#app/components/answer-key-table.tsx'
@@ -45,7 +45,7 @@ export default function StudentRecordRoute({ loaderData }: Route.ComponentProps)
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to={`/courses/${course.id}/gradebook`}>Gradebook</Link> · <Link to={`/courses/${course.id}/people`}>People</Link>
+          <Link to={href('/courses/:courseId/gradebook', { courseId: String(course.id) })}>Gradebook</Link> · <Link to={href('/courses/:courseId/people', { courseId: String(course.id) })}>People</Link>
         </p>
         <h1 className="mt-1 text-3xl font-semibold break-words">{student.name}</h1>
         {student.droppedAt ? (
@@ -101,7 +101,7 @@ export default function StudentRecordRoute({ loaderData }: Route.ComponentProps)
                 {record.disputes.map((d) => (
                   <tr key={d.id} className="border-t border-line align-top">
                     <th scope="row" className="px-3 py-2 text-left font-normal">
-                      <Link to={`/courses/${course.id}/disputes/${d.id}`} className="font-medium">
+                      <Link to={href('/courses/:courseId/disputes/:disputeId', { courseId: String(course.id), disputeId: String(d.id) })} className="font-medium">
                         {d.findLabel}
                       </Link>
                       <span className="block text-xs text-muted">
@@ -145,7 +145,7 @@ function AssignmentBlock({ assignment: a, courseId, when, studentName }: { assig
     <section aria-labelledby={headingId} className="space-y-4 rounded-lg border border-line bg-white p-4 shadow-sm">
       <header>
         <h2 id={headingId} className="text-xl font-semibold">
-          <Link to={`/courses/${courseId}/assignments/${a.id}`}>{a.title}</Link>
+          <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(courseId), assignmentId: String(a.id) })}>{a.title}</Link>
         </h2>
         <p className="mt-1 text-sm text-muted">
           Due {when(a.dueAt)} · {a.attemptsPerFind} attempt{a.attemptsPerFind === 1 ? '' : 's'} per question · score {formatScore(a.score, a.points)}
@@ -161,7 +161,7 @@ function AssignmentBlock({ assignment: a, courseId, when, studentName }: { assig
             {a.extension.reason ? ` — “${a.extension.reason}”` : ''}
             <span className="block text-xs text-muted">
               Set by {a.extension.grantedBy}, {when(a.extension.updatedAt)} ·{' '}
-              <Link to={`/courses/${courseId}/assignments/${a.id}/extensions`}>extensions of this assignment</Link>
+              <Link to={href('/courses/:courseId/assignments/:assignmentId/extensions', { courseId: String(courseId), assignmentId: String(a.id) })}>extensions of this assignment</Link>
             </span>
           </p>
         ) : (
