@@ -31,6 +31,9 @@ export interface RankineInput {
   condenserPressure: number
   /** Turbine inlet temperature, K. Omit for saturated vapour at the boiler pressure. */
   turbineInletTemperature?: number
+  /** Turbine inlet quality 0 < x <= 1 (wet steam leaving the boiler, below the critical
+   *  pressure); instead of turbineInletTemperature. Omit both for saturated vapour. */
+  turbineInletQuality?: number
   /** Pump isentropic efficiency, 0 < eta <= 1 (default 1: ideal). */
   pumpEfficiency?: number
   /** Turbine isentropic efficiency, 0 < eta <= 1 (default 1: ideal); applied to each turbine section. */
@@ -108,6 +111,23 @@ function bad(message: string, property?: string): SteamResult<never> {
   const e: SteamError = { code: 'invalid-input', message }
   if (property) e.property = property
   return fail(e)
+}
+
+/** The turbine-inlet quality, if given: in (0, 1], below the critical pressure, not with a temperature. */
+export function checkInletQuality(x: number, pB: number, T: number | undefined): SteamError | null {
+  const property = 'turbineInletQuality'
+  if (typeof x !== 'number' || !Number.isFinite(x)) return { code: 'invalid-input', property, message: `turbine inlet quality must be a finite number (got ${String(x)})` }
+  if (T !== undefined) return { code: 'invalid-input', property, message: 'give the turbine inlet temperature or its quality, not both: wet steam is fixed by pressure and quality, its temperature is the saturation temperature' }
+  if (x < 0 || x > 1) return { code: 'invalid-input', property, message: `turbine inlet quality x = ${x} must lie in [0, 1] (0 saturated liquid, 1 saturated vapour)` }
+  if (x === 0) return { code: 'invalid-input', property, message: 'turbine inlet quality x = 0 is saturated liquid: a steam turbine needs vapour at its inlet (give 0 < x <= 1)' }
+  if (pB >= STEAM_LIMITS.P_CRIT) return { code: 'invalid-input', property, message: `at the boiler pressure ${pB} Pa (not below the critical pressure 22.064 MPa) there is no wet steam: give turbineInletTemperature instead` }
+  return null
+}
+
+export function inletDescription(input: { turbineInletTemperature?: number; turbineInletQuality?: number }): string {
+  if (input.turbineInletQuality !== undefined && input.turbineInletQuality < 1) return `boiler exit, wet steam x = ${input.turbineInletQuality} (turbine inlet)`
+  if (input.turbineInletQuality === 1 || input.turbineInletTemperature === undefined) return 'boiler exit, saturated vapour (turbine inlet)'
+  return 'boiler exit (turbine inlet)'
 }
 
 function point(label: string, description: string, st: SteamState, massFraction: number): RankineStatePoint {
@@ -204,7 +224,12 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
 
   // --- boiler exit -------------------------------------------------------------------------
   let inlet: SteamResult<SteamState>
-  if (input.turbineInletTemperature === undefined) {
+  const xIn = input.turbineInletQuality
+  if (xIn !== undefined) {
+    const e = checkInletQuality(xIn, pB, input.turbineInletTemperature)
+    if (e) return fail(e)
+    inlet = stateFromPx(pB, xIn)
+  } else if (input.turbineInletTemperature === undefined) {
     if (pB >= STEAM_LIMITS.P_CRIT) return bad('give turbineInletTemperature: above the critical pressure there is no saturated vapour', 'turbineInletTemperature')
     inlet = stateFromPx(pB, 1)
   } else {
@@ -218,7 +243,7 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
     inlet = stateFromPT(pB, T3)
   }
   if (!inlet.ok) return inlet
-  add(input.turbineInletTemperature === undefined ? 'boiler exit, saturated vapour (turbine inlet)' : 'boiler exit (turbine inlet)', inlet.value, 1)
+  add(inletDescription(input), inlet.value, 1)
   let heatIn = inlet.value.h - feed.h
   const boilerQ = heatIn
 
@@ -315,6 +340,7 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
   else parts.push(`pump efficiency ${etaP}, turbine efficiency ${etaT}`)
   if (rh) parts.push('reheat')
   if (fwh) parts.push('one open feedwater heater')
+  if (input.turbineInletQuality !== undefined && input.turbineInletQuality < 1) parts.push('wet turbine inlet')
 
   return ok({
     variant: `Rankine cycle (${parts.join(', ')})`,
