@@ -26,8 +26,11 @@ import {
   stateFromPH,
   stateFromPS,
   stateFromPT,
+  stateFromPV,
   stateFromPx,
   stateFromRhoT,
+  stateFromTS,
+  stateFromTV,
   stateFromTx,
   temperatureFromPH,
   temperatureFromPS,
@@ -309,6 +312,12 @@ describe('robustness: no input throws, in-range input always converges (common p
         look('stateFromPS', stateFromPS(p, s), [p, s])
         look('stateFromPx', stateFromPx(p, x), [p, x])
         look('stateFromTx', stateFromTx(T, x), [T, x])
+        if (i % 4 === 0) {
+          const v = Math.exp(Math.log(9e-4) + (Math.log(1e4) - Math.log(9e-4)) * rnd())
+          look('stateFromTS', stateFromTS(T, s), [T, s])
+          look('stateFromTV', stateFromTV(T, v), [T, v])
+          look('stateFromPV', stateFromPV(p, v), [p, v])
+        }
       }).not.toThrow()
     }
     expect(problems.slice(0, 10)).toEqual([])

@@ -638,3 +638,146 @@ export function qualityFromPH(p: number, h: number): SteamResult<number> {
 export function qualityFromPS(p: number, s: number): SteamResult<number> {
   return qualityFrom(p, s, 's')
 }
+
+// --- public: (T, s), (T, v), (p, v) ---------------------------------------------------------
+// Not in the release: found here by bisection on the basic equations (through stateFromPT),
+// in log p at fixed T (s and v fall as p rises at fixed T) or in T at fixed p (v rises with T
+// in the vapour; in the liquid too except below about 277 K, where the density maximum makes
+// v(T) non-monotonic and the liquid root found may be either one).
+
+type PairKind = 's' | 'v'
+
+function pick(st: SteamState, kind: PairKind): number {
+  return kind === 's' ? st.s : st.v
+}
+
+/** Bisection on a monotonic f in [a, b] (f(a), f(b) of opposite signs); returns the root. */
+function bisect(f: (x: number) => number | null, a: number, b: number): number | null {
+  let fa = f(a)
+  const fb = f(b)
+  if (fa === null || fb === null || fa * fb > 0) return null
+  for (let i = 0; i < 200; i++) {
+    const m = 0.5 * (a + b)
+    const fm = f(m)
+    if (fm === null) return null
+    if (fm === 0 || Math.abs(b - a) <= 1e-14 * Math.abs(m)) return m
+    if ((fa < 0) === (fm < 0)) {
+      a = m
+      fa = fm
+    } else b = m
+  }
+  return 0.5 * (a + b)
+}
+
+function fromTY(T: number, y: number, kind: PairKind): SteamResult<SteamState> {
+  const state = describe(kind === 's' ? { T, s: y } : { T, v: y })
+  const e = checkT(T, state) ?? notFinite(kind, y, state)
+  if (e) return fail(e)
+  if (kind === 'v' && !(y > 0)) return fail({ code: 'invalid-input', property: 'v', message: 'specific volume must be positive', state })
+  const pMax = T > T_MAX ? P_MAX5 * 1e6 : P_MAX * 1e6
+  const pMin = 611.2127 * 1e-3 // 0.6 Pa: far below any state a course uses; IF97 region 2 holds for p > 0
+  const at = (p: number): SteamState | null => {
+    const r = stateFromPT(p, T)
+    return r.ok ? r.value : null
+  }
+  const solveIn = (lo: number, hi: number): SteamResult<SteamState> => {
+    // exp(log(p)) can land an ulp outside [lo, hi] (e.g. just above 100 MPa): clamp.
+    const pOf = (lp: number) => Math.min(hi, Math.max(lo, Math.exp(lp)))
+    const lp = bisect((lp) => {
+      const st = at(pOf(lp))
+      return st ? pick(st, kind) - y : null
+    }, Math.log(lo), Math.log(hi))
+    if (lp === null) return fail(noConvergence(state))
+    const st = at(pOf(lp))
+    return st ? ok(st) : fail(noConvergence(state))
+  }
+  const name = kind === 's' ? 'entropy' : 'specific volume'
+  const range = (lo: number, hi: number): SteamError | null => {
+    const a = at(hi)
+    const b = at(lo)
+    if (!a || !b) return noConvergence(state)
+    const yHi = pick(b, kind) // low pressure: largest s, v
+    const yLo = pick(a, kind)
+    if (y > yHi || y < yLo)
+      return {
+        code: 'out-of-range',
+        property: kind,
+        bound: { name: `${name} at T = ${T} K between p = ${hi} Pa and ${lo} Pa`, value: y > yHi ? yHi : yLo, unit: kind === 's' ? 'J/(kg K)' : 'm^3/kg' },
+        message: `${name} ${y} at T = ${T} K is outside what IAPWS-IF97 gives at that temperature (${yLo} .. ${yHi}, from ${hi} Pa down to ${lo} Pa); no extrapolation is done`,
+        state,
+      }
+    return null
+  }
+  if (T < TC) {
+    const ps = pSat(T) * 1e6
+    const sat = satStates(ps / 1e6, T, state)
+    if (!sat.ok) return sat
+    const yl = pick(sat.value.liquid, kind)
+    const yv = pick(sat.value.vapour, kind)
+    if (y >= yl && y <= yv) {
+      const x = (y - yl) / (yv - yl)
+      return stateFromTx(T, x)
+    }
+    if (y > yv) {
+      const e2 = range(pMin, ps * (1 - 1e-12))
+      if (e2) return fail(e2)
+      return solveIn(pMin, ps * (1 - 1e-12))
+    }
+    const e3 = range(ps, pMax)
+    if (e3) return fail(e3)
+    return solveIn(ps, pMax)
+  }
+  const e4 = range(pMin, pMax)
+  if (e4) return fail(e4)
+  return solveIn(pMin, pMax)
+}
+
+/** State from temperature T (K) and specific entropy s (J/(kg K)), any phase. */
+export function stateFromTS(T: number, s: number): SteamResult<SteamState> {
+  return fromTY(T, s, 's')
+}
+
+/** State from temperature T (K) and specific volume v (m^3/kg), any phase. */
+export function stateFromTV(T: number, v: number): SteamResult<SteamState> {
+  return fromTY(T, v, 'v')
+}
+
+/** State from pressure p (Pa) and specific volume v (m^3/kg), any phase. */
+export function stateFromPV(p: number, v: number): SteamResult<SteamState> {
+  const state = describe({ p, v })
+  const e = checkP(p, state) ?? notFinite('v', v, state)
+  if (e) return fail(e)
+  if (!(v > 0)) return fail({ code: 'invalid-input', property: 'v', message: 'specific volume must be positive', state })
+  const at = (T: number): SteamState | null => {
+    const r = stateFromPT(p, T)
+    return r.ok ? r.value : null
+  }
+  const Ttop = p <= P_MAX5 * 1e6 ? T_MAX5 : T_MAX
+  const solveIn = (lo: number, hi: number): SteamResult<SteamState> => {
+    const T = bisect((T) => {
+      const st = at(T)
+      return st ? st.v - v : null
+    }, lo, hi)
+    if (T === null)
+      return fail({
+        code: 'out-of-range',
+        property: 'v',
+        message: `specific volume ${v} m^3/kg at p = ${p} Pa is outside what IAPWS-IF97 gives at that pressure between 273.15 K and ${Ttop} K; no extrapolation is done`,
+        state,
+      })
+    const st = at(T)
+    return st ? ok(st) : fail(noConvergence(state))
+  }
+  if (p >= P_SAT_MIN * 1e6 && p < PC * 1e6) {
+    const pM = p / 1e6
+    const Ts = tSat(pM)
+    const sat = satStates(pM, Ts, state)
+    if (!sat.ok) return sat
+    const vl = sat.value.liquid.v
+    const vv = sat.value.vapour.v
+    if (v >= vl && v <= vv) return stateFromPx(p, (v - vl) / (vv - vl))
+    if (v > vv) return solveIn(Ts * (1 + 1e-12), Ttop)
+    return solveIn(T_MIN, Ts)
+  }
+  return solveIn(T_MIN, Ttop)
+}
