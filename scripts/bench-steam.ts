@@ -21,13 +21,15 @@ const N = 100_000
 const PYTHON = '/usr/bin/python3'
 
 // Seeded points over the range both libraries accept: 280..1070 K, 0.0007..100 MPa
-// (iapws rejects p below 611.2 Pa). Regions 1, 2 and 3 all occur.
+// (iapws rejects p below 611.2 Pa), and one point in ten in region 5 (1080..2270 K,
+// 0.0007..50 MPa). Regions 1, 2, 3 and 5 all occur.
 const rnd = prng(20260)
 const P = new Float64Array(N) // Pa
 const T = new Float64Array(N) // K
 for (let i = 0; i < N; i++) {
-  T[i] = 280 + 790 * rnd()
-  P[i] = Math.exp(Math.log(700) + (Math.log(100e6) - Math.log(700)) * rnd())
+  const r5 = i % 10 === 9
+  T[i] = r5 ? 1080 + 1190 * rnd() : 280 + 790 * rnd()
+  P[i] = Math.exp(Math.log(700) + (Math.log(r5 ? 50e6 : 100e6) - Math.log(700)) * rnd())
 }
 
 // --- ours ---------------------------------------------------------------------------------
@@ -44,14 +46,14 @@ for (let i = 0; i < N; i++) {
 const oursSeconds = Number(process.hrtime.bigint() - t0) / 1e9
 const oursRate = N / oursSeconds
 
-console.log('IAPWS-IF97 (p, T) -> h, s benchmark, %d points (regions 1, 2, 3)', N)
+console.log('IAPWS-IF97 (p, T) -> h, s benchmark, %d points (regions 1, 2, 3, 5)', N)
 console.log('  ours (TypeScript, hsFromPT):   %s calls/s  (%s s)', oursRate.toExponential(3), oursSeconds.toFixed(3))
 
 // --- python3-iapws ------------------------------------------------------------------------
 const SCRIPT = String.raw`
 import json, sys, time
 from iapws import IAPWS97
-from iapws.iapws97 import _Region1, _Region2, _Bound_TP
+from iapws.iapws97 import _Region1, _Region2, _Region5, _Bound_TP
 pts = json.load(sys.stdin)
 PT = [(p / 1e6, t) for p, t in pts]
 t0 = time.perf_counter()
@@ -65,6 +67,7 @@ for p, t in PT:
     r = _Bound_TP(t, p)
     if r == 1: d = _Region1(t, p)
     elif r == 2: d = _Region2(t, p)
+    elif r == 5: d = _Region5(t, p)
     else:
         st = IAPWS97(P=p, T=t); d = {"h": st.h, "s": st.s}
     d["h"]; d["s"]
