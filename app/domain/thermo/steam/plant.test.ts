@@ -173,3 +173,48 @@ describe('bad input is a result error with a message, never a throw', () => {
     }
   })
 })
+
+describe('robustness (common practice): seeded random plants never throw; every answer balances', () => {
+  test('400 random plants: heaters of both kinds, TTDs, drains, reheat, process, efficiencies, wet inlets', () => {
+    let seed = 97531
+    const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647
+    const logU = (a: number, b: number) => Math.exp(Math.log(a) + (Math.log(b) - Math.log(a)) * rnd())
+    const problems: string[] = []
+    let solvedCount = 0
+    for (let i = 0; i < 400; i++) {
+      const pB = logU(2e6, 25e6)
+      const pC = logU(4e3, 50e3)
+      const n = Math.floor(rnd() * 6)
+      const ps = Array.from({ length: n }, () => logU(pC * 1.5, Math.min(pB * 0.8, 20e6))).sort((a, b) => b - a)
+      const heaters = ps.map((p) =>
+        rnd() < 0.35 ? { kind: 'open' as const, pressure: p } : { kind: 'closed' as const, pressure: p, terminalTemperatureDifference: -2 + 12 * rnd(), drains: rnd() < 0.5 ? ('backward' as const) : ('forward' as const) },
+      )
+      const input: PlantInput = { boilerPressure: pB, condenserPressure: pC, feedwaterHeaters: heaters, turbineEfficiency: 0.75 + 0.25 * rnd(), pumpEfficiency: 0.7 + 0.3 * rnd() }
+      if (pB < 20e6 && rnd() < 0.15) input.turbineInletQuality = 0.85 + 0.15 * rnd()
+      else input.turbineInletTemperature = 650 + 250 * rnd()
+      if (rnd() < 0.3) input.reheat = { pressure: logU(pC * 3, pB * 0.5), temperature: 700 + 150 * rnd() }
+      if (rnd() < 0.3) input.process = { pressure: logU(pC * 2, Math.min(pB * 0.7, 5e6)), fraction: 0.05 + 0.8 * rnd() }
+      let r: ReturnType<typeof solveSteamPlant>
+      try {
+        r = solveSteamPlant(input)
+      } catch (e) {
+        problems.push(`threw ${String(e)} for ${JSON.stringify(input)}`)
+        continue
+      }
+      if (!r.ok) {
+        if (r.error.code === 'no-convergence' || r.error.message.length < 20) problems.push(`${r.error.code}: ${r.error.message} for ${JSON.stringify(input)}`)
+        continue
+      }
+      solvedCount++
+      const v = r.value
+      if (!(Math.abs(v.heatIn - v.heatOut - (v.processHeat ?? 0) - v.netWork) / v.heatIn < 1e-9)) problems.push(`first law for ${JSON.stringify(input)}`)
+      for (const h of v.heaters) {
+        if (!(h.bleedFraction > 0 && h.bleedFraction < 1)) problems.push(`bleed ${h.bleedFraction} for ${JSON.stringify(input)}`)
+        if (!(h.balanceResidual < 1e-9)) problems.push(`heater residual ${h.balanceResidual} for ${JSON.stringify(input)}`)
+      }
+      if (!v.states.every((s) => Number.isFinite(s.h) && s.massFraction > 0 && s.massFraction <= 1 + 1e-12)) problems.push(`state flows for ${JSON.stringify(input)}`)
+    }
+    expect(problems.slice(0, 5)).toEqual([])
+    expect(solvedCount).toBeGreaterThan(150)
+  })
+})

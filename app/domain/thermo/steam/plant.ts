@@ -431,7 +431,14 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
     if (!(ht.hOut > ht.hIn))
       return bad(`${ht.name} at ${kPa(ht.p)}: the feedwater arrives at ${(ht.hIn / 1000).toFixed(2)} kJ/kg and would leave at ${(ht.hOut / 1000).toFixed(2)} kJ/kg, so it would not be heated: check the heater pressures${ht.kind === 'closed' ? ' and its terminal temperature difference' : ''}`, `${where}.pressure`)
     if (!(ht.y > 0 && ht.y < 1))
-      return bad(`${ht.name} at ${kPa(ht.p)}: its balance gives a bleed fraction ${ht.y}, outside (0, 1): the bled steam cannot do this heating (check the heater pressures and order)`, `${where}.pressure`)
+      return bad(
+        `${ht.name} at ${kPa(ht.p)}: its balance gives a bleed fraction ${ht.y}, outside (0, 1): ${
+          ht.y <= 0 && ht.drainsIn > 0
+            ? 'the drains cascaded into it from the heater above already bring more heat than the feedwater can take (add a heater between them, pump those drains forward, or change the pressures)'
+            : 'the bled steam cannot do this heating (check the heater pressures and order)'
+        }`,
+        `${where}.pressure`,
+      )
     if (!(ht.flowTube > 0)) return bad(`${ht.name}: the heater balances leave no feedwater flowing through it (${ht.flowTube}): too much steam is bled`, `${where}.pressure`)
   }
 
