@@ -156,6 +156,7 @@ describe('bad input is a result error with a message, never a throw', () => {
     ['quality and temperature both', { ...base, turbineInletQuality: 0.9 }, 'turbineInletQuality', /not both/],
     ['a process fraction of 1', { ...base, process: { pressure: 0.5e6, fraction: 1 } }, 'process.fraction', /between 0 and 1/],
     ['a process pressure above the boiler pressure', { ...base, process: { pressure: 12e6, fraction: 0.3 } }, 'process.pressure', /between the condenser and boiler/],
+    ['drains cascaded from high-pressure heaters overheat a low-pressure open heater', { boilerPressure: 17.8e6, condenserPressure: 24e3, turbineInletTemperature: 674, feedwaterHeaters: [{ kind: 'closed' as const, pressure: 5.8e6, terminalTemperatureDifference: 7 }, { kind: 'closed' as const, pressure: 4.86e6, terminalTemperatureDifference: 7 }, { kind: 'open' as const, pressure: 0.16e6 }] }, 'feedwaterHeaters.2.pressure', /cascaded into it/],
     ['a heater list that is not a list', { ...base, feedwaterHeaters: 'two' as unknown as [] }, 'feedwaterHeaters', /list/],
   ])('%s', (_name, input, property, message) => {
     const r = solveSteamPlant(input as PlantInput)
