@@ -79,6 +79,8 @@ describe('energy balances and sign conventions (closed form)', () => {
     { boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 550 + C, openFeedwaterHeater: { pressure: 0.5e6 }, turbineEfficiency: 0.9 },
     { boilerPressure: 12e6, condenserPressure: 10e3, turbineInletTemperature: 550 + C, openFeedwaterHeater: { pressure: 2e6 }, reheat: { pressure: 0.8e6, temperature: 500 + C } },
     { boilerPressure: 5e6, condenserPressure: 20e3 }, // saturated vapour at the turbine inlet
+    { boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 1200, reheat: { pressure: 2e6, temperature: 1150 } }, // IF97 region 5 at the turbine inlet
+    { boilerPressure: 4e6, condenserPressure: 10e3, turbineInletQuality: 0.9 }, // wet turbine inlet
   ]
   test.each(cases)('first law over the cycle: q_in - q_out = w_turbine - w_pump (%o)', (input) => {
     const r = solved(solveRankine(input))
