@@ -4,7 +4,7 @@ import { createElement } from 'react'
 import { renderToStaticMarkup } from 'react-dom/server'
 import { describe, expect, test } from 'vitest'
 import { CycleDiagrams } from '#app/components/cycle-diagrams.tsx'
-import { solveSpec } from '#app/domain/thermo/index.ts'
+import { NOT_IN_BANK, solveBankSpec } from '#app/domain/thermo/index.ts'
 import type { FormattedSolution } from '#app/domain/thermo/index.ts'
 import { saturationTemperature } from '#app/domain/thermo/steam/index.ts'
 import type { FormattedRankine } from '#app/domain/thermo/steam/index.ts'
@@ -15,7 +15,7 @@ const examples = join(import.meta.dirname, '../../../docs/examples')
 const readExample = (name: string) => JSON.parse(readFileSync(join(examples, `${name}.json`), 'utf8')) as Record<string, unknown>
 
 function solved(spec: unknown): FormattedSolution | FormattedRankine {
-  const r = solveSpec(spec)
+  const r = solveBankSpec(spec)
   if (!r.ok) throw new Error(`example did not solve: ${r.error.message}`)
   return r
 }
@@ -249,7 +249,16 @@ describe('Rankine cycles', () => {
 })
 
 describe('robustness', () => {
-  const files = readdirSync(examples).filter((f) => f.endsWith('.json'))
+  // Every example a bank problem can be built on (the combined cycle is not one yet).
+  const files = readdirSync(examples)
+    .filter((f) => f.endsWith('.json'))
+    .filter((f) => {
+      const r = solveBankSpec(JSON.parse(readFileSync(join(examples, f), 'utf8')))
+      return r.ok || r.error.code !== NOT_IN_BANK
+    })
+  test('the examples drawn include every ideal-gas and Rankine example', () => {
+    expect(files.length).toBeGreaterThanOrEqual(15)
+  })
 
   test.each(files)('%s: no NaN or infinity anywhere in the plot data', (f) => {
     const d = cycleDiagrams(solved(JSON.parse(readFileSync(join(examples, f), 'utf8'))))

@@ -8,7 +8,7 @@
 import type { CheckNote } from '#app/domain/grading/index.ts'
 import { compileRestrictedExpression, validateCheckRule } from '#app/domain/grading/index.ts'
 import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
-import { readQuantity, solveSpec } from '#app/domain/thermo/index.ts'
+import { readQuantity, solveBankSpec } from '#app/domain/thermo/index.ts'
 import type { TemplateInput } from '#app/domain/thermo/index.ts'
 import { templateEntry } from '#app/domain/thermo/catalog.ts'
 import { whyPitfallCannotFire } from '#app/domain/grading/applicable-pitfalls.ts'
@@ -211,7 +211,7 @@ function trial(def: ProblemDefinition, add: (path: string, message: string) => v
     add(path, e.message)
     return
   }
-  const solved = solveSpec(buildSpec(def, drawn.givens, convention))
+  const solved = solveBankSpec(buildSpec(def, drawn.givens, convention))
   if (!solved.ok) {
     add(solverErrorPath(def.physics, solved.error.property), `the trial variant (seed ${seed}) does not solve: ${solved.error.message}`)
     return

@@ -10,7 +10,7 @@ import { compileRestrictedExpression } from '#app/domain/grading/index.ts'
 import { mathCore } from '#app/domain/grading/math-instance.ts'
 import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
 import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
-import { readQuantity, solveSpec } from '#app/domain/thermo/index.ts'
+import { readQuantity, solveBankSpec } from '#app/domain/thermo/index.ts'
 import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
 import type { DrawResult, DrawnGiven, Find, KeyEntry, Physics, ProblemDefinition, VariantError } from './definition.ts'
 import { describeCompileError, drawGivens, givenScope, isNumericGiven, toScopeValue } from './givens.ts'
@@ -176,7 +176,7 @@ export function drawVariant(def: ProblemDefinition, seed: number, options: { rea
     const drawn = drawGivens(def, seed)
     if (!drawn.ok) return { ok: false, seed, error: drawn.error }
     const spec = buildSpec(def, drawn.givens, convention)
-    const solved = solveSpec(spec)
+    const solved = solveBankSpec(spec)
     if (!solved.ok) {
       const e = solved.error
       return { ok: false, seed, error: { code: 'solve-error', message: solverMessage(e), property: solverErrorPath(def.physics, e.property) } }

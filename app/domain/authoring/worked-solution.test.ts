@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { describe, expect, test } from 'vitest'
-import { solveSpec } from '#app/domain/thermo/index.ts'
+import { solveBankSpec } from '#app/domain/thermo/index.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
 import type { DrawnGiven, Find, KeyEntry, ProblemDefinition, Variant } from './definition.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
@@ -32,7 +32,7 @@ const T1: DrawnGiven = { name: 'T1', label: 'temperature at the start of compres
 const r: DrawnGiven = { name: 'r', label: 'compression ratio', value: 8, unit: '', text: '8' }
 
 function variantOf(spec: Record<string, unknown>, givens: DrawnGiven[], key: (sol: Variant['solution']) => KeyEntry[]): Variant {
-  const sol = solveSpec(spec)
+  const sol = solveBankSpec(spec)
   if (!sol.ok) throw new Error(sol.error.message)
   return { seed: 1, convention: sol.convention.name, givens, spec, solution: sol, key: key(sol) }
 }

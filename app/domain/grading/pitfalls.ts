@@ -4,7 +4,7 @@
  * inside the computation (app/domain/thermo/slips.ts: °C used as K, cp/cv swapped, log10 for
  * ln, …) and the asked quantity compared with the student's value.
  */
-import { readQuantity, solveSpec, specConvention, specMentions } from '#app/domain/thermo/index.ts'
+import { readQuantity, solveBankSpec, specConvention, specMentions } from '#app/domain/thermo/index.ts'
 import type { Convention, Slips } from '#app/domain/thermo/index.ts'
 
 // Which pitfalls can fire for a problem (light, for the editor and the lint).
@@ -107,16 +107,16 @@ export function evaluateWithPitfall(spec: unknown, quantity: string, id: Pitfall
   switch (id) {
     case 'sign-convention-flipped': {
       const other: Convention = conv === 'chemistry' ? 'engineering' : 'chemistry'
-      const v = read(solveSpec(spec, { convention: other }), quantity)
+      const v = read(solveBankSpec(spec, { convention: other }), quantity)
       return v === null ? [] : [v]
     }
     case 'kilo-factor': {
       const out: number[] = []
       if (specMentions(spec, 'kJ')) {
-        const v = read(solveSpec(spec, { slips: { kiloFactor: 'input-kJ-as-J' } }), quantity)
+        const v = read(solveBankSpec(spec, { slips: { kiloFactor: 'input-kJ-as-J' } }), quantity)
         if (v !== null) out.push(v)
       }
-      const sol = solveSpec(spec)
+      const sol = solveBankSpec(spec)
       const v = read(sol, quantity)
       if (v !== null && sol.ok && /J/.test(unitOf(sol, quantity))) out.push(v * 1000, v / 1000)
       return out
@@ -125,7 +125,7 @@ export function evaluateWithPitfall(spec: unknown, quantity: string, id: Pitfall
       if (!specMentions(spec, 'celsius')) return []
     // falls through
     default: {
-      const v = read(solveSpec(spec, { slips: SLIPS[id as keyof typeof SLIPS] }), quantity)
+      const v = read(solveBankSpec(spec, { slips: SLIPS[id as keyof typeof SLIPS] }), quantity)
       return v === null ? [] : [v]
     }
   }
@@ -149,7 +149,7 @@ export function diagnosePitfall(input: DiagnoseInput): Diagnosis | null {
   const rel = input.relTol ?? 0.01
   const x = input.studentValueSI
   if (!Number.isFinite(x)) return null
-  const correctSol = solveSpec(input.spec)
+  const correctSol = solveBankSpec(input.spec)
   const correct = read(correctSol, input.quantity)
   if (correct === null) return null
   if (close(correct, x, rel)) return null

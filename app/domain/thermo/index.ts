@@ -16,7 +16,7 @@ export type { FormattedSolution, FormattedState, FormattedStep, FormattedTotals,
 export type { Slips } from './slips.ts'
 export { parseCycleSpec, parseGas, applyGasSlips, readValue, specMentions } from './spec.ts'
 export type { SpecError, Parsed } from './spec.ts'
-export { solveSpec, solveSpecNumeric, specConvention } from './solve-spec.ts'
+export { NOT_IN_BANK, solveBankSpec, solveSpec, solveSpecNumeric, specConvention } from './solve-spec.ts'
 export type { SpecFailure, SolveSpecOptions } from './solve-spec.ts'
 export { templates, defineTemplate, parseTemplateInputs } from './templates/index.ts'
 export type { TemplateDef, TemplateInput, TemplateValues, BuildResult, InputKind } from './templates/index.ts'

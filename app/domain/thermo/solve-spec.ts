@@ -16,6 +16,8 @@ import type { Slips } from './slips.ts'
 import { parseCycleSpec } from './spec.ts'
 import { isRankineTemplate, solveRankineTemplate, templates } from './templates/index.ts'
 import type { FormattedRankine } from './steam/rankine-template.ts'
+import { isCombinedTemplate, solveCombinedTemplate } from './combined/combined-template.ts'
+import type { FormattedCombined } from './combined/combined-template.ts'
 
 export interface SpecFailure {
   readonly ok: false
@@ -62,10 +64,12 @@ export function specConvention(raw: unknown): Convention | { error: string } {
  * dispatched to the steam package (app/domain/thermo/steam), which formats its own result;
  * slips do not apply to them.
  */
-export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): FormattedSolution | FormattedRankine | SpecFailure {
+export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): FormattedSolution | FormattedRankine | FormattedCombined | SpecFailure {
   const conv = options.convention ?? specConvention(raw)
   if (typeof conv !== 'string') return { ok: false, error: { code: 'invalid-spec', message: conv.error, property: 'convention' } }
   const t = (raw as { template?: unknown } | null)?.template
+  // The combined gas–steam cycle (./combined) formats its own result too.
+  if (isCombinedTemplate(t)) return solveCombinedTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
   if (isRankineTemplate(t)) {
     try {
       return solveRankineTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
@@ -80,4 +84,24 @@ export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): Formatt
   } catch (e) {
     return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
   }
+}
+
+/** The error code of a template that solves in spec files but not (yet) in bank problems. */
+export const NOT_IN_BANK = 'not-in-bank'
+
+/** The solutions bank problems can be built on today: the ideal-gas cycles and the Rankine templates. */
+export type BankSolution = FormattedSolution | FormattedRankine
+
+/**
+ * solveSpec for bank problems (drawing variants, lint, pitfalls): the templates whose results
+ * the authoring layer can key, explain and draw. Another template (the combined cycle so far)
+ * solves in spec files and `npm run solve` but is refused here with a plain message until the
+ * problem editor supports it. Never throws.
+ */
+export function solveBankSpec(raw: unknown, options: SolveSpecOptions = {}): BankSolution | SpecFailure {
+  const r = solveSpec(raw, options)
+  if (r.ok && 'template' in r && isCombinedTemplate(r.template)) {
+    return { ok: false, error: { code: NOT_IN_BANK, message: `the "${r.template}" template solves in spec files but cannot be used in bank problems yet`, property: 'template' } }
+  }
+  return r as BankSolution | SpecFailure
 }

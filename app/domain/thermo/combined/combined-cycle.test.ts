@@ -146,3 +146,17 @@ describe('the spec template', () => {
     expect(solveCombinedTemplate('combined-cycle', null).ok).toBe(false)
   })
 })
+
+describe('bank problems', () => {
+  test('the combined cycle solves in spec files but is refused, plainly, where bank problems are drawn', async () => {
+    const { NOT_IN_BANK, solveBankSpec, solveSpec } = await import('../solve-spec.ts')
+    const spec = { template: 'combined-cycle', inputs: { p1: '100 kPa', T1: '300 K', pressureRatio: '8', turbineInletT: '1300 K', boilerPressure: '7 MPa', condenserPressure: '5 kPa', steamTemperature: '500 °C', stackTemperature: '450 K' } }
+    expect(solveSpec(spec).ok).toBe(true)
+    const r = solveBankSpec(spec)
+    expect(r.ok).toBe(false)
+    if (!r.ok) {
+      expect(r.error.code).toBe(NOT_IN_BANK)
+      expect(r.error.message).toMatch(/cannot be used in bank problems yet/)
+    }
+  })
+})
