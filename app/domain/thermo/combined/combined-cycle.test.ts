@@ -145,12 +145,17 @@ describe('the spec template', () => {
     expect(bad({ turbineBlades: 40 })).toMatch(/unknown input/)
     expect(solveCombinedTemplate('combined-cycle', null).ok).toBe(false)
   })
+  test('a refusal names the input to change by its name in the spec', () => {
+    const r = solveCombinedTemplate('combined-cycle', { ...inputs, compressorEfficiency: '1', gasTurbineEfficiency: '1' })
+    expect(r.ok).toBe(false)
+    if (!r.ok) expect(r.error.property).toBe('steamTemperature')
+  })
 })
 
 describe('bank problems', () => {
   test('the combined cycle solves in spec files but is refused, plainly, where bank problems are drawn', async () => {
     const { NOT_IN_BANK, solveBankSpec, solveSpec } = await import('../solve-spec.ts')
-    const spec = { template: 'combined-cycle', inputs: { p1: '100 kPa', T1: '300 K', pressureRatio: '8', turbineInletT: '1300 K', boilerPressure: '7 MPa', condenserPressure: '5 kPa', steamTemperature: '500 °C', stackTemperature: '450 K' } }
+    const spec = { template: 'combined-cycle', inputs: { p1: '100 kPa', T1: '300 K', pressureRatio: '8', turbineInletT: '1300 K', compressorEfficiency: '0.8', gasTurbineEfficiency: '0.85', boilerPressure: '7 MPa', condenserPressure: '5 kPa', steamTemperature: '500 °C', stackTemperature: '450 K' } }
     expect(solveSpec(spec).ok).toBe(true)
     const r = solveBankSpec(spec)
     expect(r.ok).toBe(false)

@@ -231,13 +231,25 @@ export function formatCombined(r: CombinedResult, gasLabel: string, convention: 
   }
 }
 
+/** The solver's names for the steam inputs → the template's input names. */
+const SPEC_NAMES: Readonly<Record<string, string>> = {
+  'steam.turbineInletTemperature': 'steamTemperature',
+  'steam.boilerPressure': 'boilerPressure',
+  'steam.condenserPressure': 'condenserPressure',
+  'steam.pumpEfficiency': 'pumpEfficiency',
+  'steam.turbineEfficiency': 'steamTurbineEfficiency',
+}
+
 export function solveCombinedTemplate(id: string, inputs: unknown, convention: Convention = 'engineering'): FormattedCombined | CombinedFailure {
   try {
     if (!isCombinedTemplate(id)) return { ok: false, error: { code: 'invalid-spec', message: `unknown combined-cycle template "${id}"`, property: 'template' } }
     const p = parseCombinedInputs(inputs)
     if (!p.ok) return p
     const r = solveCombinedCycle(p.value)
-    if (!r.ok) return { ok: false, error: { code: r.error.code, message: r.error.message, ...(r.error.property ? { property: r.error.property } : {}) } }
+    if (!r.ok) {
+      const property = r.error.property ? (SPEC_NAMES[r.error.property] ?? r.error.property) : undefined
+      return { ok: false, error: { code: r.error.code, message: r.error.message, ...(property ? { property } : {}) } }
+    }
     return formatCombined(r.value, p.value.gas.label, convention)
   } catch (e) {
     return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
