@@ -18,6 +18,13 @@ import { isRankineTemplate, solveRankineTemplate, templates } from './templates/
 import type { FormattedRankine } from './steam/rankine-template.ts'
 import { isCombinedTemplate, solveCombinedTemplate } from './combined/combined-template.ts'
 import type { FormattedCombined } from './combined/combined-template.ts'
+import { isCalorimeterTemplate, solveCalorimeterSpec } from './steam/calorimeter.ts'
+import type { FormattedCalorimeter } from './steam/calorimeter.ts'
+import { STEAM_CARNOT_TEMPLATE, solveSteamCycleSpec } from './steam/steam-cycle.ts'
+import type { FormattedSteamCycle } from './steam/steam-cycle.ts'
+
+/** Every solution a spec file can give (the bank uses the first two: BankSolution). */
+export type AnySolution = FormattedSolution | FormattedRankine | FormattedCombined | FormattedCalorimeter | FormattedSteamCycle
 
 export interface SpecFailure {
   readonly ok: false
@@ -64,12 +71,17 @@ export function specConvention(raw: unknown): Convention | { error: string } {
  * dispatched to the steam package (app/domain/thermo/steam), which formats its own result;
  * slips do not apply to them.
  */
-export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): FormattedSolution | FormattedRankine | FormattedCombined | SpecFailure {
+export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): AnySolution | SpecFailure {
   const conv = options.convention ?? specConvention(raw)
   if (typeof conv !== 'string') return { ok: false, error: { code: 'invalid-spec', message: conv.error, property: 'convention' } }
   const t = (raw as { template?: unknown } | null)?.template
   // The combined gas–steam cycle (./combined) formats its own result too.
   if (isCombinedTemplate(t)) return solveCombinedTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
+  // Water in the general cycle format ({ "steamCycle": … } or the vapour Carnot template) and the
+  // throttling calorimeter (./steam) read their own spec and convention.
+  const withConvention = { ...(raw as object), convention: conv }
+  if (isCalorimeterTemplate(t)) return solveCalorimeterSpec(withConvention)
+  if (t === STEAM_CARNOT_TEMPLATE.id || (t === undefined && (raw as { steamCycle?: unknown } | null)?.steamCycle !== undefined)) return solveSteamCycleSpec(withConvention)
   if (isRankineTemplate(t)) {
     try {
       return solveRankineTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
@@ -98,10 +110,18 @@ export type BankSolution = FormattedSolution | FormattedRankine
  * solves in spec files and `npm run solve` but is refused here with a plain message until the
  * problem editor supports it. Never throws.
  */
+function isBankSolution(r: AnySolution): r is BankSolution {
+  if ('gasStates' in r) return false // combined cycle
+  if ('template' in r && r.template === 'steam-throttling-calorimeter') return false
+  if ('steps' in r && 'substance' in r) return false // water in the general cycle format (ideal-gas results name a gas, not a substance)
+  return true
+}
+
 export function solveBankSpec(raw: unknown, options: SolveSpecOptions = {}): BankSolution | SpecFailure {
   const r = solveSpec(raw, options)
-  if (r.ok && 'template' in r && isCombinedTemplate(r.template)) {
-    return { ok: false, error: { code: NOT_IN_BANK, message: `the "${r.template}" template solves in spec files but cannot be used in bank problems yet`, property: 'template' } }
+  if (r.ok && !isBankSolution(r)) {
+    const what = 'template' in r && typeof r.template === 'string' ? `the "${r.template}" template` : 'a water/steam cycle written out in full'
+    return { ok: false, error: { code: NOT_IN_BANK, message: `${what} solves in spec files but cannot be used in bank problems yet`, property: 'template' } }
   }
   return r as BankSolution | SpecFailure
 }
