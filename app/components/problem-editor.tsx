@@ -2,7 +2,11 @@
  * The problem editor: one plain form whose field names are the definition's dotted paths
  * (app/lib/problem-form.ts), so it saves, adds rows, switches templates and previews without
  * JavaScript. With JavaScript it also drafts the definition from the form as the author
- * types and shows a live preview of a few seeded variants (POST /api/preview).
+ * types and shows a live preview of a few seeded variants (POST /api/preview), removes a row
+ * at once, and inserts a given's placeholder at the prompt's cursor.
+ *
+ * On wide screens (Tailwind's xl, 1280 px and up) the preview stays beside the form; below
+ * that it follows the form.
  */
 import { keepPreviousData, useQuery } from '@tanstack/react-query'
 import { useEffect, useId, useRef, useState, type ReactNode } from 'react'
@@ -11,6 +15,7 @@ import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { VariantPreview } from '#app/components/variant-preview.tsx'
 import { DIFFICULTIES, FIND_SENSES, FIND_SENSE_WORDS, LEVELS, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { placeholderText } from '#app/domain/authoring/placeholder-syntax.ts'
 import { senseWarnings, type ProblemVisibility, type SenseFinding } from '#app/domain/authoring/sense.ts'
 import { applicablePitfalls } from '#app/domain/grading/applicable-pitfalls.ts'
 import { difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
@@ -22,15 +27,18 @@ import {
   CONSTRAINT_OPS,
   definitionFromForm,
   describeField,
+  editorStateWithout,
   fieldId,
   fieldPathForIssue,
   findTemplate,
   GENERAL_CYCLE,
   mergeIssues,
+  removeIntent,
   RULE_KINDS,
   type EditorOptions,
   type EditorState,
   type FormIssue,
+  type RowTable,
 } from '#app/lib/problem-form.ts'
 import { VISIBILITIES } from '#app/lib/problem-schema.ts'
 
@@ -53,8 +61,13 @@ const OP_WORDS: Record<(typeof CONSTRAINT_OPS)[number], string> = { '<': '<', '<
 const PREVIEW_DEBOUNCE_MS = 600
 const FORM_ID = 'problem-form'
 
+// Placeholder text is a hint, not a value: lighter and in italics, so an empty row never looks filled in.
 const inputClass = (invalid: boolean) =>
-  cn('w-full min-w-0 rounded-md border bg-white px-2 py-1.5 text-sm shadow-sm', invalid ? 'border-danger' : 'border-line focus:border-accent')
+  cn(
+    'w-full min-w-0 rounded-md border bg-white px-2 py-1.5 text-sm shadow-sm placeholder:font-normal placeholder:italic placeholder:text-muted/70',
+    invalid ? 'border-danger' : 'border-line focus:border-accent',
+  )
+const TABLE_WORDS: Record<RowTable, string> = { givens: 'given', constraints: 'constraint', finds: 'find' }
 
 function useHydrated() {
   const [hydrated, setHydrated] = useState(false)
@@ -98,7 +111,43 @@ async function fetchPreview(definitionJson: string, convention: string | undefin
   return body
 }
 
-export function ProblemEditor({ state, issues, options, preview, focusSummary, saveLabel, saveNote }: ProblemEditorProps) {
+/**
+ * The editor, remounted with a new state when a row is removed in the browser (the fields are
+ * uncontrolled, so a remount is what refills them renumbered, exactly as the server would).
+ */
+export function ProblemEditor(props: ProblemEditorProps) {
+  const [local, setLocal] = useState<{ state: EditorState; count: number; focus: RowTable; said: string } | null>(null)
+  return (
+    <>
+      <p className="sr-only" aria-live="polite">
+        {local?.said ?? ''}
+      </p>
+      <EditorForm
+        key={local?.count ?? 0}
+        {...props}
+        state={local?.state ?? props.state}
+        // Issues and a no-JavaScript preview name rows by their old numbers: they go with the removal.
+        issues={local ? [] : props.issues}
+        preview={local ? null : props.preview}
+        focusSummary={local ? false : props.focusSummary}
+        focusTable={local?.focus}
+        onRemoved={(state, focus, said) => setLocal((l) => ({ state, count: (l?.count ?? 0) + 1, focus, said }))}
+      />
+    </>
+  )
+}
+
+function EditorForm({
+  state,
+  issues,
+  options,
+  preview,
+  focusSummary,
+  saveLabel,
+  saveNote,
+  focusTable,
+  onRemoved,
+}: ProblemEditorProps & { focusTable: RowTable | undefined; onRemoved: (state: EditorState, focus: RowTable, said: string) => void }) {
   const { values, rows } = state
   const hydrated = useHydrated()
   const busy = useNavigation().state === 'submitting'
@@ -132,6 +181,48 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
   useEffect(() => {
     if (focusSummary) summaryRef.current?.focus()
   }, [focusSummary])
+  useEffect(() => {
+    // After a removal the focus goes to the table it was in (its section takes focus).
+    if (focusTable) document.getElementById(fieldId(focusTable))?.focus()
+  }, [focusTable])
+  // Row names as typed, so each "Remove" button names its row even before the draft catches up.
+  const [typedNames, setTypedNames] = useState<Record<string, string>>({})
+  const rowName = (table: RowTable, i: number) => (typedNames[`${table}.${i}.name`] ?? values[`${table}.${i}.name`] ?? '').trim()
+  const removeLabel = (table: RowTable, i: number) => {
+    const name = table === 'constraints' ? '' : rowName(table, i)
+    return name ? `Remove ${TABLE_WORDS[table]} ${name}` : `Remove ${TABLE_WORDS[table]} ${i + 1}${table === 'constraints' ? '' : ' (no name yet)'}`
+  }
+  const removeButton = (table: RowTable, i: number) => (
+    <Button
+      type="submit"
+      name="intent"
+      value={removeIntent(table, i)}
+      variant="secondary"
+      formNoValidate
+      aria-label={removeLabel(table, i)}
+      onClick={(e) => {
+        if (!formRef.current) return
+        e.preventDefault()
+        const label = removeLabel(table, i).replace(/^Remove /, '')
+        onRemoved(editorStateWithout(new FormData(formRef.current), table, i), table, `${label.charAt(0).toUpperCase()}${label.slice(1)} removed.`)
+      }}
+    >
+      Remove
+    </Button>
+  )
+  const promptRef = useRef<HTMLTextAreaElement>(null)
+  const [inserted, setInserted] = useState('')
+  function insertAtCursor(text: string) {
+    const area = promptRef.current
+    if (!area) return
+    const start = area.selectionStart ?? area.value.length
+    const end = area.selectionEnd ?? start
+    area.focus()
+    area.setRangeText(text, start, end, 'end')
+    // The form listens for input: the live preview picks the change up like typing.
+    area.dispatchEvent(new Event('input', { bubbles: true }))
+    setInserted(`Inserted ${text} into the prompt.`)
+  }
 
   const courseConvention = (draft?.convention ?? values.convention) === 'course'
   const previewQuery = useQuery({
@@ -215,6 +306,7 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
     </td>
   )
 
+
   const chosen = template === GENERAL_CYCLE ? undefined : findTemplate(options, template)
   const templateInputNames = new Set(chosen?.inputs.map((i) => i.name) ?? [])
   const leftoverInputs = Object.keys(values)
@@ -223,10 +315,18 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
   const givenNames = Array.from({ length: rows.givens }, (_, i) => values[`givens.${i}.name`]).filter((n): n is string => Boolean(n))
   const datalistId = useId()
 
+  const promptGivens = (
+    draftDefinition && Array.isArray(draftDefinition.givens)
+      ? draftDefinition.givens.map((g) => ({ name: typeof g?.name === 'string' ? g.name : '', label: typeof g?.label === 'string' ? g.label : '' }))
+      : Array.from({ length: rows.givens }, (_, i) => ({ name: (values[`givens.${i}.name`] ?? '').trim(), label: (values[`givens.${i}.label`] ?? '').trim() }))
+  ).filter((g) => /^[A-Za-z][A-Za-z0-9_]{0,31}$/.test(g.name))
+
   return (
-    <div className="flex flex-col gap-8">
+    // Wide screens: the editor takes the window's width (beyond the page column), form and
+    // preview side by side, the preview sticky while the form scrolls.
+    <div data-editor-layout className="flex flex-col gap-8 xl:mx-[calc(50%-50vw+1.5rem)] xl:grid xl:grid-cols-[minmax(0,7fr)_minmax(0,5fr)] xl:items-start">
       {issues.length > 0 ? (
-        <div ref={summaryRef} tabIndex={-1} aria-labelledby="editor-issues-title" className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger">
+        <div ref={summaryRef} tabIndex={-1} aria-labelledby="editor-issues-title" className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger xl:col-span-2">
           <h2 id="editor-issues-title" className="font-semibold">
             Nothing was saved: {issues.length === 1 ? 'one thing needs' : `${issues.length} things need`} your attention
           </h2>
@@ -253,7 +353,19 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
         </div>
       ) : null}
 
-      <Form id={FORM_ID} method="post" ref={formRef} onInput={scheduleDraft} onChange={scheduleDraft} className="flex flex-col gap-8" noValidate>
+      <Form
+        id={FORM_ID}
+        method="post"
+        ref={formRef}
+        onInput={(e) => {
+          scheduleDraft()
+          const t = e.target as HTMLInputElement
+          if (/^(givens|finds)\.\d+\.name$/.test(t.name ?? '')) setTypedNames((n) => ({ ...n, [t.name]: t.value }))
+        }}
+        onChange={scheduleDraft}
+        className="flex min-w-0 flex-col gap-8"
+        noValidate
+      >
         {values._basedOn ? <input type="hidden" id={fieldId('_basedOn')} name="_basedOn" value={values._basedOn} /> : null}
         <section aria-labelledby="basics-title" className="rounded-lg border border-line bg-white p-6 shadow-sm">
           <h2 id="basics-title" className="text-xl font-semibold">
@@ -261,7 +373,7 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
           </h2>
           <div className="mt-4 grid gap-4 md:grid-cols-2">
             <div className="md:col-span-2">{labelled('title', 'Title', textInput('title', { required: true }))}</div>
-            {labelled('tags.topics', 'Topics', textInput('tags.topics', { hint: true, placeholder: 'otto, air standard' }), 'Words separated by commas; they help colleagues find the problem.')}
+            {labelled('tags.topics', 'Topics', textInput('tags.topics', { hint: true, placeholder: 'e.g. otto, air standard' }), 'Words separated by commas; they help colleagues find the problem.')}
             {labelled(
               'tags.difficulty',
               'Difficulty',
@@ -316,11 +428,12 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
           <h2 id="prompt-title" className="text-xl font-semibold">
             Prompt
           </h2>
-          <div className="mt-4">
+          <div className="mt-4 grid gap-4 lg:grid-cols-[minmax(0,1fr)_14rem]">
             {labelled(
               'prompt',
               'What students read',
               <textarea
+                ref={promptRef}
                 id={fieldId('prompt')}
                 name="prompt"
                 rows={8}
@@ -330,11 +443,52 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                 className={cn(inputClass(errors.has('prompt')), 'font-mono')}
               />,
               <>
-                Markdown. <code>@{'{T1}'}</code> shows a given with its unit, <code>@{'{p1 in kPa}'}</code> converts it, <code>@{'{r, 3 sf}'}</code> rounds it;
-                math goes between <code>$…$</code> (inline) or <code>$$…$$</code> (display). The author guide (docs/authoring.md, shipped with Cyclewright)
-                has the details and examples.
+                Markdown. <code>[T1]</code> shows a given with its unit, <code>[p1 in kPa]</code> converts it, <code>[r, 3 sf]</code> or{' '}
+                <code>[r, 2 dp]</code> rounds it; <code>\[</code> is a bracket that is only a bracket. Math goes between <code>$…$</code> (inline) or{' '}
+                <code>$$…$$</code> (display). More in the <a href="/help/authoring#placeholders">author guide</a>.
               </>,
             )}
+            <div role="group" aria-labelledby="insert-given-title" aria-describedby="insert-given-hint" className="flex flex-col gap-1">
+              <h3 id="insert-given-title" className="text-sm font-medium">
+                Insert a given
+              </h3>
+              <p id="insert-given-hint" className="text-xs text-muted">
+                {hydrated ? 'Puts its placeholder at the cursor in the prompt.' : 'Copy a placeholder into the prompt.'}
+              </p>
+              {promptGivens.length === 0 ? (
+                <p className="text-xs text-muted">Name a given below and it shows here.</p>
+              ) : (
+                <ul className="flex flex-col gap-1">
+                  {promptGivens.map((g) => {
+                    const text = placeholderText(g.name)
+                    const label = g.label ? <span className="truncate text-xs text-muted">{g.label}</span> : null
+                    return (
+                      <li key={g.name}>
+                        {hydrated ? (
+                          <button
+                            type="button"
+                            onClick={() => insertAtCursor(text)}
+                            className="flex w-full min-w-0 items-baseline gap-2 rounded-md border border-line bg-white px-2 py-1 text-left text-sm hover:bg-paper focus-visible:outline-2 focus-visible:outline-accent"
+                          >
+                            <span className="sr-only">Insert </span>
+                            <code>{text}</code>
+                            {label}
+                          </button>
+                        ) : (
+                          <span className="flex min-w-0 items-baseline gap-2 px-2 py-1 text-sm">
+                            <code className="select-all">{text}</code>
+                            {label}
+                          </span>
+                        )}
+                      </li>
+                    )
+                  })}
+                </ul>
+              )}
+              <p className="sr-only" aria-live="polite">
+                {inserted}
+              </p>
+            </div>
           </div>
         </section>
 
@@ -379,9 +533,9 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                   const show = (k: string) => !hydrated || kind === k
                   return (
                     <tr key={i} className="border-t border-line">
-                      {cellInput(`${p}.name`, `Given ${n} name`, 'T1')}
-                      {cellInput(`${p}.label`, `Given ${n} label`, 'inlet temperature')}
-                      {cellInput(`${p}.unit`, `Given ${n} unit`, 'K')}
+                      {cellInput(`${p}.name`, `Given ${n} name`, 'e.g. T1')}
+                      {cellInput(`${p}.label`, `Given ${n} label`, 'e.g. inlet temperature')}
+                      {cellInput(`${p}.unit`, `Given ${n} unit`, 'e.g. K')}
                       <td className="px-1 py-1 align-top">
                         <select
                           id={fieldId(`${p}.rule.kind`)}
@@ -419,14 +573,14 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                           <label htmlFor={fieldId(`${p}.rule.values`)} className="text-xs text-muted">
                             values, separated by commas
                           </label>
-                          {textInput(`${p}.rule.values`, { placeholder: '95, 100, 105' })}
+                          {textInput(`${p}.rule.values`, { placeholder: 'e.g. 95, 100, 105' })}
                           {errorText(`${p}.rule.values`)}
                         </div>
                         <div hidden={!show('expression')} className="mt-1 flex flex-col">
                           <label htmlFor={fieldId(`${p}.rule.expression`)} className="text-xs text-muted">
                             expression
                           </label>
-                          {textInput(`${p}.rule.expression`, { placeholder: 'T1 + 500 K' })}
+                          {textInput(`${p}.rule.expression`, { placeholder: 'e.g. T1 + 500 K' })}
                           {errorText(`${p}.rule.expression`)}
                         </div>
                       </td>
@@ -444,7 +598,7 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                         </div>
                       </td>
                       <td className="px-1 py-1 text-center align-top">
-                        <input type="checkbox" name={`${p}._remove`} aria-label={`Remove given ${n}`} className="mt-2 size-4" />
+                        {removeButton('givens', i)}
                       </td>
                     </tr>
                   )
@@ -492,7 +646,7 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                   const n = i + 1
                   return (
                     <tr key={i} className="border-t border-line">
-                      {cellInput(`${p}.left`, `Constraint ${n} left side`, 'T3')}
+                      {cellInput(`${p}.left`, `Constraint ${n} left side`, 'e.g. T3')}
                       <td className="px-1 py-1 align-top">
                         <select
                           id={fieldId(`${p}.op`)}
@@ -511,10 +665,10 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                         </select>
                         {errorText(`${p}.op`)}
                       </td>
-                      {cellInput(`${p}.right`, `Constraint ${n} right side`, '2000 K')}
+                      {cellInput(`${p}.right`, `Constraint ${n} right side`, 'e.g. 2000 K')}
                       {cellInput(`${p}.message`, `Constraint ${n} message`)}
                       <td className="px-1 py-1 text-center align-top">
-                        <input type="checkbox" name={`${p}._remove`} aria-label={`Remove constraint ${n}`} className="mt-2 size-4" />
+                        {removeButton('constraints', i)}
                       </td>
                     </tr>
                   )
@@ -584,7 +738,8 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                 />,
                 <>
                   The <code>cycle</code> object of a spec file: gas, system, amount, states and steps (docs/spec-format.md). A text that is exactly a
-                  given’s name becomes that given’s value with its unit; <code>@{'{name}'}</code> works inside longer texts.
+                  given’s name becomes that given’s value with its unit; <code>@{'{name}'}</code> works inside longer texts (in the physics only; the
+                  prompt writes <code>[name]</code>).
                 </>,
               )}
             </div>
@@ -661,8 +816,8 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                 <fieldset key={i} className="rounded-md border border-line p-4">
                   <legend className="px-1 text-sm font-semibold">Find {n}</legend>
                   <div className="grid gap-3 md:grid-cols-4">
-                    {labelled(`${p}.name`, 'Name', textInput(`${p}.name`, { placeholder: 'wnet' }))}
-                    <div className="md:col-span-3">{labelled(`${p}.label`, 'Question beside the answer box', textInput(`${p}.label`, { placeholder: 'Net work per kilogram of air' }))}</div>
+                    {labelled(`${p}.name`, 'Name', textInput(`${p}.name`, { placeholder: 'e.g. wnet' }))}
+                    <div className="md:col-span-3">{labelled(`${p}.label`, 'Question beside the answer box', textInput(`${p}.label`, { placeholder: 'e.g. Net work per kilogram of air' }))}</div>
                     {labelled(
                       `${p}.source.kind`,
                       'Answer comes from',
@@ -684,13 +839,13 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                       </select>,
                     )}
                     <div hidden={hydrated && source !== 'output'} className="md:col-span-3">
-                      {labelled(`${p}.source.path`, 'Output path', textInput(`${p}.source.path`, { list: `${datalistId}-paths`, placeholder: 'totals.netWork', hint: true }), 'For example totals.efficiency, states.3.T, steps.2.q.')}
+                      {labelled(`${p}.source.path`, 'Output path', textInput(`${p}.source.path`, { list: `${datalistId}-paths`, placeholder: 'e.g. totals.netWork', hint: true }), 'For example totals.efficiency, states.3.T, steps.2.q.')}
                     </div>
                     <div hidden={hydrated && source !== 'expression'} className="md:col-span-3">
-                      {labelled(`${p}.source.expression`, 'Expression', textInput(`${p}.source.expression`, { placeholder: 'wnet / qin' }))}
+                      {labelled(`${p}.source.expression`, 'Expression', textInput(`${p}.source.expression`, { placeholder: 'e.g. wnet / qin' }))}
                     </div>
-                    {labelled(`${p}.unit`, 'Unit', textInput(`${p}.unit`, { placeholder: 'kJ/kg', hint: true }), 'Empty for a pure number.')}
-                    {labelled(`${p}.points`, 'Points', textInput(`${p}.points`, { inputMode: 'decimal', placeholder: '1' }))}
+                    {labelled(`${p}.unit`, 'Unit', textInput(`${p}.unit`, { placeholder: 'e.g. kJ/kg', hint: true }), 'Empty for a pure number.')}
+                    {labelled(`${p}.points`, 'Points', textInput(`${p}.points`, { inputMode: 'decimal', placeholder: 'e.g. 1' }))}
                     {labelled(
                       `${p}.tolerance.kind`,
                       'Tolerance',
@@ -714,11 +869,11 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                     {labelled(
                       `${p}.tolerance.value`,
                       'Tolerance value',
-                      textInput(`${p}.tolerance.value`, { placeholder: tolerance === 'relative' ? '0.01' : '2', hint: true }),
+                      textInput(`${p}.tolerance.value`, { placeholder: tolerance === 'relative' ? 'e.g. 0.01' : 'e.g. 2', hint: true }),
                       hydrated && tolerance === 'absolute' ? 'In the tolerance unit.' : 'Relative: a fraction (0.01) or a percentage (1 %).',
                     )}
                     <div hidden={hydrated && tolerance !== 'absolute'}>
-                      {labelled(`${p}.tolerance.unit`, 'Tolerance unit (absolute)', textInput(`${p}.tolerance.unit`, { placeholder: 'K', hint: true }), 'Empty: the find’s unit.')}
+                      {labelled(`${p}.tolerance.unit`, 'Tolerance unit (absolute)', textInput(`${p}.tolerance.unit`, { placeholder: 'e.g. K', hint: true }), 'Empty: the find’s unit.')}
                     </div>
                     <div className="md:col-span-2">
                       {labelled(
@@ -788,10 +943,7 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
                     })()}
                     {errorText(`${p}.pitfalls`)}
                   </fieldset>
-                  <label className="mt-3 flex items-center gap-2 text-sm">
-                    <input type="checkbox" name={`${p}._remove`} className="size-4" />
-                    Remove find {n}
-                  </label>
+                  <div className="mt-3">{removeButton('finds', i)}</div>
                 </fieldset>
               )
             })}
@@ -816,14 +968,18 @@ export function ProblemEditor({ state, issues, options, preview, focusSummary, s
         </div>
       </Form>
 
-      <section id="preview" aria-labelledby="preview-title" className="flex flex-col gap-3">
+      <section
+        id="preview"
+        aria-labelledby="preview-title"
+        className="flex min-w-0 flex-col gap-3 xl:sticky xl:top-4 xl:max-h-[calc(100vh-2rem)] xl:overflow-y-auto xl:rounded-lg xl:border xl:border-line xl:bg-white xl:p-4 xl:shadow-sm"
+      >
         <h2 id="preview-title" className="text-xl font-semibold">
           Preview
         </h2>
         <p className="text-sm text-muted">
           {hydrated
             ? 'A few seeded variants, as students would see them, updated as you type.'
-            : 'Press “Preview variants” to see a few seeded variants as students would see them.'}
+            : 'Press “Preview variants” (below the form) to see a few seeded variants as students would see them.'}
         </p>
         {courseConvention ? (
           <div className="flex items-center gap-2 text-sm">

@@ -8,8 +8,11 @@ import {
   fieldPathForIssue,
   formValuesFromDefinition,
   GENERAL_CYCLE,
+  editorStateWithout,
   keepTemplateInputs,
   mergeIssues,
+  readRemoveIntent,
+  removeIntent,
 } from './problem-form.ts'
 
 // Invented demo problems: they exercise every field of the form, not the physics.
@@ -180,6 +183,21 @@ describe('rows', () => {
     expect(state.values['givens.1.name']).toBe('r')
     expect(state.values['finds.0.name']).toBe('dT')
     expect(Object.keys(state.values).some((k) => k.endsWith('._remove'))).toBe(false)
+  })
+
+  test('a "Remove" button names its row; the state without it is renumbered and keeps the rest as typed', () => {
+    expect(readRemoveIntent(removeIntent('givens', 3))).toEqual({ table: 'givens', index: 3 })
+    expect(readRemoveIntent('remove:finds:0')).toEqual({ table: 'finds', index: 0 })
+    for (const bad of ['remove:givens', 'remove:people:1', 'remove:givens:-1', 'save', null, 'remove:givens:99999']) expect(readRemoveIntent(bad)).toBeNull()
+    const fd = toFormData(formValuesFromDefinition(ottoProblem))
+    fd.set('intent', removeIntent('givens', 0))
+    fd.set('givens.2.label', 'typed but not saved')
+    const state = editorStateWithout(fd, 'givens', 0)
+    expect(state.values['givens.0.name']).toBe('p1')
+    expect(state.values['givens.1.label']).toBe('typed but not saved')
+    expect(state.values.intent).toBeUndefined()
+    expect(state.rows.givens).toBe(ottoProblem.givens.length - 1 + 1)
+    expect(state.values.prompt).toBe(ottoProblem.prompt)
   })
 
   test('"add a given" shows one more blank row than was sent; other tables keep one', () => {

@@ -6,7 +6,7 @@
  * own form with the same code to draft the live preview.
  *
  * Table rows: a row whose text fields are all blank is dropped (the editor always shows one
- * blank row to type into), a row with its `_remove` box ticked is dropped, and the rows that
+ * blank row to type into), a row named by a "Remove" button (a `_remove` field) is dropped, and the rows that
  * stay are renumbered 0, 1, 2… both in the draft and in the refilled values, so an issue
  * path and a field name always agree.
  */
@@ -414,6 +414,30 @@ export function editorStateFromForm(form: FormData, add?: RowTable): EditorState
   }
   const count = (t: RowTable) => rows[t].kept.length + (add === t ? Math.max(1, rows[t].blank) + 1 : 1)
   return { values, rows: { givens: count('givens'), constraints: count('constraints'), finds: count('finds') } }
+}
+
+/** The value of a row's "Remove" button: `remove:givens:2`. */
+export function removeIntent(table: RowTable, index: number): string {
+  return `remove:${table}:${index}`
+}
+
+const REMOVE_INTENT = /^remove:(givens|constraints|finds):(\d{1,4})$/
+
+/** The row a "Remove" button's value names, or null. */
+export function readRemoveIntent(intent: unknown): { table: RowTable; index: number } | null {
+  const m = typeof intent === 'string' ? REMOVE_INTENT.exec(intent) : null
+  return m ? { table: m[1] as RowTable, index: Number(m[2]) } : null
+}
+
+/**
+ * The form as typed without one row, renumbered, to refill the editor: what the "Remove"
+ * button does, on the server without JavaScript and in the browser with it.
+ */
+export function editorStateWithout(form: FormData, table: RowTable, index: number): EditorState {
+  const copy = new FormData()
+  for (const [k, v] of form.entries()) if (k !== 'intent') copy.append(k, v)
+  copy.set(`${table}.${index}._remove`, 'on')
+  return editorStateFromForm(copy)
 }
 
 /** After the template changed: keep only the inputs the new template takes (shared ones stay filled). */

@@ -1,7 +1,7 @@
 /**
  * What the editor's two pages (new problem, edit problem) share on the server: the template
- * and pitfall lists the form offers, and the action for every button of the form — adding a
- * row, switching template, previewing without JavaScript, and checking a draft before it is
+ * and pitfall lists the form offers, and the action for every button of the form — adding or
+ * removing a row, switching template, previewing without JavaScript, and checking a draft before it is
  * saved. Only the save itself differs (create or new version), so the routes pass it in.
  */
 import { data, redirect } from 'react-router'
@@ -10,7 +10,18 @@ import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { lintDefinition } from '#app/domain/authoring/lint.ts'
 import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
 import { RANKINE_TEMPLATES, templates } from '#app/domain/thermo/templates/index.ts'
-import { buildEditorOptions, definitionFromForm, editorStateFromForm, findTemplate, keepTemplateInputs, mergeIssues, type EditorState, type FormIssue } from '#app/lib/problem-form.ts'
+import {
+  buildEditorOptions,
+  definitionFromForm,
+  editorStateFromForm,
+  editorStateWithout,
+  findTemplate,
+  keepTemplateInputs,
+  mergeIssues,
+  readRemoveIntent,
+  type EditorState,
+  type FormIssue,
+} from '#app/lib/problem-form.ts'
 import { parseDefinition, VISIBILITIES } from '#app/lib/problem-schema.ts'
 import type { PreviewResult } from '#app/lib/preview.ts'
 import { echoValues } from '#app/lib/text-field.ts'
@@ -39,6 +50,8 @@ function answer(state: EditorState, issues: FormIssue[] = [], preview: PreviewRe
  * problem's id; it may throw ProblemAccessError (403) or InvalidDefinitionError (shown on the form).
  */
 export async function runEditorAction(form: FormData, save: (problem: SavableProblem) => Promise<number>) {
+  const removal = readRemoveIntent(form.get('intent'))
+  if (removal) return answer(editorStateWithout(form, removal.table, removal.index))
   const intent = IntentSchema.safeParse(form.get('intent'))
   if (!intent.success) return data(answer(editorStateFromForm(form), [{ path: 'title', message: 'Use one of the buttons at the bottom of the form.' }]), { status: 400 })
   switch (intent.data) {
