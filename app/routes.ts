@@ -67,6 +67,7 @@ export default [
     route('exports', 'routes/admin/exports.tsx'),
     route('exports/:exportId', 'routes/resources/grade-export-download.ts'),
   ]),
+  route('help/:page', 'routes/help.tsx'),
   route('healthz', 'routes/resources/healthz.ts'),
   route('*', 'routes/not-found.tsx'),
 ] satisfies RouteConfig

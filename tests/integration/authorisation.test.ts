@@ -526,6 +526,8 @@ const EXPECTED: Record<string, Entry> = {
   },
   'routes/resources/grade-export-download.ts': { params: (w) => ({ exportId: String(w.ids.exportId) }), get: { expect: adminOnly } },
 
+  // The author guide and bank format: for the people who may use the bank.
+  'routes/help.tsx': { params: () => ({ page: 'authoring' }), get: { expect: bankUsers } },
   'routes/resources/healthz.ts': { get: { expect: everyone('ok') } },
   'routes/not-found.tsx': { params: () => ({ '*': 'no/such/page' }), get: { expect: everyone(404) }, post: { expect: everyone(404), body: () => ({ form: {} }) } },
 }

@@ -244,3 +244,81 @@ export function renderPrompt(markdown: string, givens: readonly DrawnGiven[], di
 export function renderMarkdown(markdown: string): RenderResult {
   return renderPrompt(markdown, [])
 }
+
+// ---- Guides (docs/*.md served as help pages) ---------------------------------------------
+
+/** A heading's anchor: "Placeholder syntax" → "placeholder-syntax" (as GitHub makes them). */
+export function headingSlug(text: string): string {
+  return text
+    .trim()
+    .toLowerCase()
+    .replace(/[^\p{L}\p{N}\s-]/gu, '')
+    .replace(/\s/g, '-')
+}
+
+interface GuideEnv {
+  readonly errors: { message: string }[]
+  readonly givens: ReadonlyMap<string, DrawnGiven>
+  readonly displays: undefined
+  readonly links: Readonly<Record<string, string>>
+  readonly dropped: boolean[]
+  readonly slugs: Map<string, number>
+}
+
+/** The pages a guide may link to: "authoring.md#x" → "/help/authoring#x"; others lose their link. */
+function guideHref(href: string, links: Readonly<Record<string, string>>): string | null {
+  if (/^(https?:|mailto:)/i.test(href) || href.startsWith('#')) return href
+  const [file, anchor] = href.split('#', 2)
+  const page = links[(file ?? '').replace(/^\.\//, '')]
+  return page === undefined ? null : anchor ? `${page}#${anchor}` : page
+}
+
+function createGuideRenderer(): MarkdownItInstance {
+  const g = new MarkdownIt({ html: false, linkify: false, typographer: false })
+  g.disable('image')
+  // Every address is read; guideHref decides which stay links.
+  g.validateLink = (url: string) => !/^\s*(javascript|vbscript|data|file):/i.test(url)
+  g.block.ruler.before('fence', 'cw_math_block', mathBlock, { alt: ['paragraph', 'reference', 'blockquote', 'list'] })
+  g.inline.ruler.after('escape', 'cw_math', mathInline)
+  g.renderer.rules.cw_math = (tokens, idx, _options, env) => {
+    const t = tokens[idx]!
+    return mathHtml(t.content, Boolean((t.meta as { display?: boolean } | null)?.display), env as unknown as RenderEnv)
+  }
+  g.renderer.rules.cw_math_block = (tokens, idx, _options, env) => `<div class="math-display">${mathHtml(tokens[idx]!.content, true, env as unknown as RenderEnv)}</div>\n`
+  g.renderer.rules.heading_open = (tokens, idx, options, env, self) => {
+    const e = env as unknown as GuideEnv
+    const base = headingSlug(tokens[idx + 1]?.content ?? '') || 'section'
+    const n = e.slugs.get(base) ?? 0
+    e.slugs.set(base, n + 1)
+    tokens[idx]!.attrSet('id', n === 0 ? base : `${base}-${n}`)
+    return self.renderToken(tokens, idx, options)
+  }
+  g.renderer.rules.link_open = (tokens, idx, options, env, self) => {
+    const e = env as unknown as GuideEnv
+    const t = tokens[idx]!
+    const href = guideHref(String(t.attrGet('href') ?? ''), e.links)
+    e.dropped.push(href === null)
+    if (href === null) return ''
+    t.attrSet('href', href)
+    if (/^https?:/i.test(href)) t.attrSet('rel', 'nofollow noopener noreferrer')
+    return self.renderToken(tokens, idx, options)
+  }
+  g.renderer.rules.link_close = (tokens, idx, options, env, self) => ((env as unknown as GuideEnv).dropped.pop() ? '' : self.renderToken(tokens, idx, options))
+  return g
+}
+
+const guide = createGuideRenderer()
+
+/**
+ * A guide (docs/*.md) as HTML: the same Markdown and KaTeX as prompts, without placeholders
+ * (a guide shows them as examples), headings with anchors, and links to other guides mapped
+ * by `links` ({ 'bank-format.md': '/help/bank-format' }); a link to anything else keeps its text.
+ */
+export function renderGuide(markdown: string, links: Readonly<Record<string, string>>): RenderResult {
+  const env: GuideEnv = { errors: [], givens: new Map(), displays: undefined, links, dropped: [], slugs: new Map() }
+  try {
+    return { html: guide.render(markdown, env as unknown as Record<string, unknown>), errors: env.errors }
+  } catch (e) {
+    return { html: `<p>${errorSpan('the page could not be shown')}</p>`, errors: [{ message: `internal error: ${e instanceof Error ? e.message : String(e)}` }] }
+  }
+}

@@ -68,7 +68,8 @@ export default function ImportRoute({ actionData }: Route.ComponentProps) {
       <h1 className="mt-1 text-3xl font-semibold">Import problems</h1>
       <p className="mt-2 text-muted">
         Upload a bank document exported from Cyclewright (a .json file, at most {MAX_IMPORT_MB} MB). Every problem is checked first; if any is invalid, nothing
-        is written and each problem is listed here with what to fix. Imported problems are private to you until you share them. Its format is documented for developers in docs/bank-format.md.
+        is written and each problem is listed here with what to fix. Imported problems are private to you until you share them. The file’s layout is described in{' '}
+        <Link to="/help/bank-format">the bank format</Link>; how to write a problem is in <Link to="/help/authoring">the author guide</Link>.
       </p>
       {actionData?.formError ? (
         <Notice tone="error" className="mt-6">
