@@ -1,4 +1,4 @@
-// `npm test`: the same set-up as `npm start`, then everything in order — typecheck, unit
+// `npm test`: the same set-up as `npm start`, then everything in order — lint, typecheck, unit
 // tests, integration tests against real PostgreSQL, the production build, end-to-end
 // tests in Debian's Chromium. Stops at the first failing step. The last line states the
 // totals. Plain Node so it can run before the dependencies are installed.
@@ -80,6 +80,7 @@ function commandStep(name, cmd, args) {
 }
 
 const steps = [
+  () => commandStep('lint', bin('eslint'), ['.']),
   () => commandStep('typecheck', 'sh', ['-c', `"${bin('react-router')}" typegen && "${bin('tsc')}"`]),
   () => (log('\n▸ unit tests'), vitestStep('unit tests', 'unit')),
   () => (log('\n▸ integration tests (PostgreSQL)'), vitestStep('integration tests', 'integration')),

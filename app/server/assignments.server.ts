@@ -15,7 +15,6 @@ import {
   rulesOf,
   studentDueAt,
   submissionWindow,
-  type AssignmentRules,
   type StudentExtension,
   type SubmissionWindow,
 } from '#app/domain/assignments/policy.ts'

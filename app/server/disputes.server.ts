@@ -27,7 +27,7 @@
  * finds its score changes by the part ids its 'dispute-resolved' row lists and that `at`.
  */
 import { createHash } from 'node:crypto'
-import { and, asc, count, desc, eq, inArray, isNotNull, lte, ne, sql, type SQL } from 'drizzle-orm'
+import { and, asc, desc, eq, inArray, isNotNull, lte, ne, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/pg-core'
 import { fileTypeFromBuffer } from 'file-type'
 import { disputeWindow, sameAnswerValue, sameGivens } from '#app/domain/assignments/disputes.ts'

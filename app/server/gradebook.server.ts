@@ -15,7 +15,7 @@
  */
 import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm'
 import { z } from 'zod'
-import { attemptsAllowed, rulesOf, type AssignmentRules, type StudentExtension } from '#app/domain/assignments/policy.ts'
+import { attemptsAllowed, rulesOf, type StudentExtension } from '#app/domain/assignments/policy.ts'
 import { findShares, findState, roundScore } from '#app/domain/assignments/scoring.ts'
 import { groupWrongAnswers, groupWrongAnswersByMultiple, histogram, mean, median, type HistogramBin, type WrongAnswerGroup } from '#app/domain/assignments/statistics.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'

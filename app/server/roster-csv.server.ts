@@ -187,7 +187,6 @@ export function parseRosterCsv(input: string): ParsedRoster {
     }
     for (const column of Object.keys(raw) as RosterColumn[]) {
       const value = raw[column]
-      // eslint-disable-next-line no-control-regex
       if (/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.test(value))
         errors.push(`The ${columnWords[column]} contains a control character (such as a NUL byte). Retype it.`)
       else if (value.length > rosterLimits[column]) errors.push(`The ${columnWords[column]} is longer than ${rosterLimits[column]} characters.`)

@@ -27,7 +27,7 @@ interface Expected {
   x: number
   y?: number
 }
-let ref: Record<string, Expected> = {}
+const ref: Record<string, Expected> = {}
 let available = false
 
 beforeAll(() => {

@@ -118,9 +118,13 @@ function range(values: number[], scale: 'linear' | 'log', nonNegative: boolean):
 function axes(curves: Curve[], points: Plot['points'], dome: Pair[] | undefined, scale: 'linear' | 'log', nonNegX: boolean, nonNegY: boolean) {
   const xs: number[] = []
   const ys: number[] = []
-  for (const c of curves) for (const [x, y] of c.points) (xs.push(x), ys.push(y))
-  for (const p of points) (xs.push(p.x), ys.push(p.y))
-  for (const [x, y] of dome ?? []) (xs.push(x), ys.push(y))
+  const add = (x: number, y: number) => {
+    xs.push(x)
+    ys.push(y)
+  }
+  for (const c of curves) for (const [x, y] of c.points) add(x, y)
+  for (const p of points) add(p.x, p.y)
+  for (const [x, y] of dome ?? []) add(x, y)
   return { x: range(xs, scale, nonNegX), y: range(ys, scale, nonNegY) }
 }
 

@@ -249,7 +249,7 @@ function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
     }
   }
 
-  const { diff, bound, within } = compare(a, e, p, r)
+  const { bound, within } = compare(a, e, p, r)
   const numbers = { difference: a - e, allowedDifference: bound, withinTolerance: within }
 
   let sigFigs: CheckDetail['sigFigs']

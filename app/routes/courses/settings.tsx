@@ -211,3 +211,7 @@ function ConfirmConvention({ error, checked, answers }: { error?: string; checke
     </div>
   )
 }
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />
+}

@@ -85,11 +85,11 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function AssignmentRoute({ loaderData, actionData }: Route.ComponentProps) {
-  if (loaderData.notOpen !== null) return <NotYetOpen course={loaderData.course} info={loaderData.notOpen} />
+  if (loaderData.notOpen !== null) return <NotYetOpen info={loaderData.notOpen} />
   return <AssignmentPage loaderData={loaderData} actionData={actionData} />
 }
 
-function NotYetOpen({ course, info }: { course: { id: number; code: string; title: string }; info: { title: string; message: string } }) {
+function NotYetOpen({ info }: { info: { title: string; message: string } }) {
   return (
     <div>
       <h1 className="mt-1 text-3xl font-semibold">{info.title}</h1>

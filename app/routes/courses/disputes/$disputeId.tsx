@@ -15,7 +15,7 @@ import { requireIdParam } from '#app/lib/params.ts'
 import { echoValues, textField } from '#app/lib/text-field.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { getDisputeDetail, resolveDispute, type DisputeDetail } from '#app/server/disputes.server.ts'
+import { getDisputeDetail, resolveDispute } from '#app/server/disputes.server.ts'
 import { appUrl } from '#app/server/env.server.ts'
 import type { Route } from './+types/$disputeId'
 
@@ -90,7 +90,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
-  const { courseId, course, dispute: d, timeZone, find, changed, staff, mine } = loaderData
+  const { courseId, dispute: d, timeZone, find, changed, staff, mine } = loaderData
   const fmt = (at: string) => formatInZone(at, timeZone)
   const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', { courseId: String(courseId), assignmentId: String(d.assignmentId), position: String(d.position) })
   const outcome = disputeOutcomeText(d)

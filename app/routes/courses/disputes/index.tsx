@@ -56,7 +56,7 @@ function excerpt(text: string, max = 140): string {
 }
 
 export default function DisputesRoute({ loaderData }: Route.ComponentProps) {
-  const { course, staff } = loaderData
+  const { staff } = loaderData
   return (
     <div>
       {staff ? <StaffQueue data={loaderData} /> : <StudentList data={loaderData} />}
