@@ -87,7 +87,7 @@ test('an instructor writes a problem, previews it, checks it, exports it and imp
   const file = await download.path()
   const doc = JSON.parse(fs.readFileSync(file, 'utf8')) as { format: string; version: number; problems: { definition: { title: string } }[] }
   expect(doc.format).toBe('cyclewright-bank')
-  expect(doc.version).toBe(1)
+  expect(doc.version).toBe(2)
   expect(doc.problems.map((p) => p.definition.title)).toEqual([title])
 
   await page.goto(`${baseURL}/bank/import`)
