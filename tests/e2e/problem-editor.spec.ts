@@ -31,6 +31,8 @@ test('at 1400 px the preview is beside the form and stays in view while the form
   expect(preview.x).toBeGreaterThanOrEqual(form.x + form.width)
   expect(Math.abs(preview.y - form.y)).toBeLessThan(40)
   expect(form.width).toBeGreaterThan(600)
+  // Wider than the page column (1152 px): the editor uses the window's width.
+  expect(preview.x + preview.width - form.x).toBeGreaterThan(1250)
   await page.getByRole('button', { name: 'Add a find' }).scrollIntoViewIfNeeded()
   const after = (await page.locator('#preview').boundingBox())!
   expect(after.y).toBeGreaterThanOrEqual(0)
