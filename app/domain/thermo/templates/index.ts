@@ -5,12 +5,13 @@
  */
 import { GAS_TURBINE_TEMPLATES } from './gas-turbine.ts'
 import { IDEAL_GAS_TEMPLATES } from './ideal-gas.ts'
+import { PISTON_TEMPLATES } from './piston.ts'
 import type { TemplateDef } from './types.ts'
 
 export type { TemplateDef, TemplateInput, TemplateValues, BuildResult, InputKind } from './types.ts'
 export { defineTemplate, parseTemplateInputs } from './types.ts'
 
-export const templates: Record<string, TemplateDef> = Object.fromEntries([...IDEAL_GAS_TEMPLATES, ...GAS_TURBINE_TEMPLATES].map((t) => [t.id, t]))
+export const templates: Record<string, TemplateDef> = Object.fromEntries([...IDEAL_GAS_TEMPLATES, ...GAS_TURBINE_TEMPLATES, ...PISTON_TEMPLATES].map((t) => [t.id, t]))
 
 // Steam (IAPWS-IF97) Rankine templates 'rankine', 'rankine-reheat', 'rankine-regenerative'
 // (docs/steam.md). Their result has no Gas, so they are not TemplateDefs: a spec entry point
