@@ -324,7 +324,7 @@ function EditorForm({
   return (
     // Wide screens: the editor takes the window's width (beyond the page column), form and
     // preview side by side, the preview sticky while the form scrolls.
-    <div data-editor-layout className="flex flex-col gap-8 xl:mx-[calc(50%-50vw+1.5rem)] xl:grid xl:grid-cols-[minmax(0,7fr)_minmax(0,5fr)] xl:items-start">
+    <div data-editor-layout className="flex flex-col gap-8 xl:mx-[calc(50%-50vw+1.5rem)] xl:grid xl:grid-cols-[minmax(0,2fr)_minmax(24rem,1fr)] xl:items-start">
       {issues.length > 0 ? (
         <div ref={summaryRef} tabIndex={-1} aria-labelledby="editor-issues-title" className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger xl:col-span-2">
           <h2 id="editor-issues-title" className="font-semibold">
@@ -502,7 +502,7 @@ function EditorForm({
           </p>
           {errorText('givens')}
           <div className="mt-4 overflow-x-auto">
-            <table className="w-full min-w-[56rem] text-left text-sm">
+            <table className="w-full min-w-[50rem] text-left text-sm">
               <thead className="text-xs text-muted">
                 <tr>
                   <th scope="col" className="px-1 py-1">
