@@ -10,6 +10,7 @@ import type { Slips } from './slips.ts'
 import { constantCpGas } from './substances/constant-cp.ts'
 import type { Basis, Gas } from './substances/gas.ts'
 import { gasPreset } from './substances/presets.ts'
+import { polynomialCpGas } from './substances/polynomial-cp.ts'
 import { swapCpCv, swapMonatomicDiatomic, switchBasisNumbers, withLog10 } from './substances/slipped.ts'
 import { parseQuantity } from './units.ts'
 import type { Dimension } from './units.ts'
@@ -75,7 +76,11 @@ export function parseGas(raw: unknown, slips: Slips = {}): Parsed<Gas> {
       if (!r.ok) return r
       M = r.value.value
     }
-    if (typeof raw.preset === 'string') {
+    if (raw.cpPolynomial !== undefined) {
+      const r = parseCpPolynomial(raw, basis, M)
+      if (!r.ok) return r
+      gas = r.value
+    } else if (typeof raw.preset === 'string') {
       const r = gasPreset(raw.preset, basis, M)
       if (!r.ok) return err('invalid-gas', r.error.message, 'gas.preset')
       gas = r.gas
@@ -112,6 +117,51 @@ export function parseGas(raw: unknown, slips: Slips = {}): Parsed<Gas> {
     return err('invalid-gas', 'gas must be a preset name or an object with constants', 'gas')
   }
   return applyGasSlips(gas, slips)
+}
+
+/**
+ * { cpPolynomial: { a, b?, c?, d?, unit, Tmin, Tmax }, molarMass?, R?, basis?, label? }:
+ * cp = a + bT + cT² + dT³ with T in K and cp in `unit` (per mol or per kg), valid Tmin–Tmax.
+ */
+function parseCpPolynomial(raw: Record<string, unknown>, basis: Basis | undefined, M: number | undefined): Parsed<Gas> {
+  const poly = raw.cpPolynomial
+  const where = 'gas.cpPolynomial'
+  if (!isObj(poly)) return err('invalid-gas', `${where} must be an object { a, b, c, d, unit, Tmin, Tmax }`, where)
+  for (const key of Object.keys(poly)) if (!['a', 'b', 'c', 'd', 'unit', 'Tmin', 'Tmax'].includes(key)) return err('invalid-gas', `${where}: unknown key "${key}" (it takes a, b, c, d, unit, Tmin, Tmax)`, `${where}.${key}`)
+  if (typeof poly.unit !== 'string') return err('invalid-gas', `${where}.unit must name the unit of cp, e.g. "kJ/(kmol K)" or "kJ/(kg K)"`, `${where}.unit`)
+  const u = readValue(`1 ${poly.unit}`, ['specificHeat', 'molarHeat'], `${where}.unit`)
+  if (!u.ok) return u
+  const own: Basis = u.value.dimension === 'molarHeat' ? 'mole' : 'mass'
+  const target = basis ?? own
+  let scale = u.value.value
+  if (own !== target) {
+    if (M === undefined) return err('invalid-gas', `${where} is per ${own === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`, 'gas.molarMass')
+    scale = own === 'mole' ? scale / M : scale * M
+  }
+  const coeffs: number[] = []
+  for (const key of ['a', 'b', 'c', 'd'] as const) {
+    const x = poly[key] ?? (key === 'a' ? undefined : 0)
+    if (typeof x !== 'number' || !Number.isFinite(x)) return err('invalid-gas', `${where}.${key} must be a number (cp = a + bT + cT² + dT³, T in K, cp in ${poly.unit})${key === 'a' ? '' : '; leave it out for 0'}`, `${where}.${key}`)
+    coeffs.push(x * scale)
+  }
+  const range: number[] = []
+  for (const key of ['Tmin', 'Tmax'] as const) {
+    if (poly[key] === undefined) return err('invalid-gas', `${where}.${key} is required: the polynomial's validity range, e.g. "273 K" to "1800 K"`, `${where}.${key}`)
+    const r = readValue(poly[key], ['temperature'], `${where}.${key}`)
+    if (!r.ok) return r
+    range.push(r.value.value)
+  }
+  let R: number | undefined
+  if (raw.R !== undefined) {
+    const r = readValue(raw.R, ['specificHeat', 'molarHeat'], 'gas.R')
+    if (!r.ok) return r
+    const b: Basis = r.value.dimension === 'molarHeat' ? 'mole' : 'mass'
+    if (b !== target && M === undefined) return err('invalid-gas', `gas.R is per ${b === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`, 'gas.R')
+    R = b === target ? r.value.value : b === 'mole' ? r.value.value / M! : r.value.value * M!
+  }
+  const g = polynomialCpGas({ basis: target, coeffs: coeffs as unknown as [number, number, number, number], Tmin: range[0]!, Tmax: range[1]!, R, molarMass: M, label: typeof raw.label === 'string' ? raw.label : undefined })
+  if (!g.ok) return err('invalid-gas', `gas: ${g.error.message}`, `${where}.${g.error.property ?? ''}`)
+  return { ok: true, value: g.gas }
 }
 
 export function applyGasSlips(gas: Gas, slips: Slips): Parsed<Gas> {

@@ -1,6 +1,8 @@
 export type { Basis, Gas } from './gas.ts'
 export { constantCpGas, makeConstantCp } from './constant-cp.ts'
 export type { ConstantCpParams, GasResult } from './constant-cp.ts'
+export { polynomialCpGas, cpPoly, hPoly, sPoly } from './polynomial-cp.ts'
+export type { PolynomialCpParams } from './polynomial-cp.ts'
 export { gasPreset, GAS_PRESET_IDS } from './presets.ts'
 export type { GasPresetId } from './presets.ts'
 export { nasa7Gas, mixNasa7, speciesSet, DRY_AIR_NASA, cpOverR, hOverR, sOverR } from './nasa7.ts'
