@@ -83,6 +83,15 @@ const miller = defineTemplate({
       { process: 'isobaric', expectHeat: 'out', label: 'heat rejection at constant pressure' },
     ]
     const T5 = (v.num.T1! * re) / rc
+    // Over-expansion check with the gas's own functions (any ideal gas): p4/p1 = T4/T5 since
+    // V4 = V5. Skipped when a temperature is out of the data's range (the solver says so then).
+    const T2 = v.gas.isentropicTfromV(v.num.T1!, rc, 1)
+    const T3 = v.num.T3 ?? (q?.heat !== undefined ? v.gas.TfromU(v.gas.u(T2) + q.heat) : NaN)
+    const T4 = v.gas.isentropicTfromV(T3, 1, re)
+    if (Number.isFinite(T4) && T4 < T5) {
+      const p4 = (v.num.p1! * T4) / T5
+      return bad(`with expansionRatio ${re} the expansion ends at ${+(p4 / 1000).toPrecision(4)} kPa, below p1 (${+(v.num.p1! / 1000).toPrecision(4)} kPa), so there is no blowdown to reject heat: lower expansionRatio, or use the atkinson template for expansion down to p1`, 'expansionRatio')
+    }
     return { ok: true, spec: { gas: v.gas, amount: v.amount, system: 'closed', purpose: 'engine', reservoirs: reservoirs(v), states: [{ p: v.num.p1, T: v.num.T1, V: v.num.V1 }, {}, { T: v.num.T3 }, {}, { p: v.num.p1, T: T5 }], steps, labels: v.labels } }
   },
 })
