@@ -54,6 +54,7 @@ export function specMentions(raw: unknown, what: 'celsius' | 'kJ'): boolean {
 /**
  * A gas from its spec: a preset id ("air", "monatomic", "nasa:dry-air", …) or an object
  * { preset?, basis?: 'mole' | 'mass', molarMass?, R?, cp?, cv?, gamma? } with strings with units.
+ * or { cpPolynomial: { a, b, c, d, unit, Tmin, Tmax }, molarMass?, R?, basis? } (see parseCpPolynomial).
  */
 export function parseGas(raw: unknown, slips: Slips = {}): Parsed<Gas> {
   let gas: Gas

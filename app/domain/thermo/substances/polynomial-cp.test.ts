@@ -63,6 +63,18 @@ describe('exact integrals of cp(T)', () => {
   })
 })
 
+describe('textbook example', () => {
+  // Çengel & Boles, Thermodynamics (8th ed.), Example 4-7 "Evaluation of the Δu of an ideal gas"
+  // (from memory): air heated from 300 K to 600 K; with the Table A-2c cp(T) polynomial
+  // Δū = 6447 kJ/kmol, Δu = 6447/28.97 = 222.5 kJ/kg. Tolerance 0.1 % (the book rounds).
+  test('Çengel & Boles 8th ed. Example 4-7(b), from memory', () => {
+    const mol = gasOf(airSpec)
+    expect(Math.abs((mol.u(600) - mol.u(300)) / 6447 - 1)).toBeLessThan(1e-3)
+    const kg = gasOf({ ...airSpec, basis: 'mass' })
+    expect(Math.abs((kg.u(600) - kg.u(300)) / 222.5e3 - 1)).toBeLessThan(1e-3)
+  })
+})
+
 describe('against the NASA-7 route for the same gas', () => {
   // A NASA set whose polynomial is this cubic (a4 = 0, one range) describes the same gas: the two
   // routes must give the same differences of h and s°, and the same isentropic end states.
