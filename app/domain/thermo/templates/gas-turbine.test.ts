@@ -120,6 +120,9 @@ describe('bad input gives messages, never a throw', () => {
     [{ regeneratorEffectiveness: 1.2 }, /regeneratorEffectiveness/],
     [{ compressorEfficiency: 0 }, /compressorEfficiency/],
     [{ pressureRatio: 1 }, /pressureRatio/],
+    // an intercooler that would heat, or a reheater that would cool, is refused by the solver
+    [{ intercoolerT: '500 K' }, /Step 2 \(2→3\): this step should reject heat/],
+    [{ reheatT: '900 K' }, /Step 6 \(6→7\): this step should take heat in/],
   ])('%o', (extra, msg) => {
     const r = templates[ID]!.solve({ ...inputs, ...extra })
     expect(r.ok).toBe(false)
