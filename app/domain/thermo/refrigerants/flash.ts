@@ -15,10 +15,10 @@ function densityIn(m: Model, T: number, p: number, lo: number, hi: number, guess
   let rho = Math.min(Math.max(guess, lo), hi)
   for (let it = 0; it < 200; it++) {
     pressureAndSlope(m, T, rho, buf)
-    const f = buf[0] - p
+    const f = buf[0]! - p
     if (f > 0) hi = rho
     else lo = rho
-    let next = buf[1] > 0 ? rho - f / buf[1] : NaN
+    let next = buf[1]! > 0 ? rho - f / buf[1]! : NaN
     if (!(next > lo && next < hi)) next = 0.5 * (lo + hi)
     if (Math.abs(next - rho) <= 1e-14 * rho) return next
     rho = next
@@ -48,7 +48,7 @@ function stateTP(m: Model, T: number, p: number): FluidResult<FluidState> {
   const d = m.data
   const top = rhoMax(m)
   pressureAndSlope(m, T, top, buf)
-  if (buf[0] < p) return outOfRange(m, `${(p / 1e6).toPrecision(4)} MPa at ${T.toFixed(2)} K lies beyond the liquid densities this equation covers`)
+  if (buf[0]! < p) return outOfRange(m, `${(p / 1e6).toPrecision(4)} MPa at ${T.toFixed(2)} K lies beyond the liquid densities this equation covers`)
   if (T <= d.Tc - SAT_T_MARGIN) {
     const sd = satDensities(m, T)
     if (!sd) return fail('no-convergence', `${d.id}: saturation did not converge at ${T.toFixed(3)} K`)
@@ -69,7 +69,7 @@ function stateTP(m: Model, T: number, p: number): FluidResult<FluidState> {
   }
   const rho = densityIn(m, T, p, 0, top, p / (m.R * T))
   pressureAndSlope(m, T, rho, buf)
-  if (Math.abs(buf[0] - p) > 1e-8 * p) return fail('no-convergence', `${d.id}: density did not converge at ${T.toFixed(2)} K, ${(p / 1e6).toPrecision(5)} MPa`)
+  if (Math.abs(buf[0]! - p) > 1e-8 * p) return fail('no-convergence', `${d.id}: density did not converge at ${T.toFixed(2)} K, ${(p / 1e6).toPrecision(5)} MPa`)
   const phase = p >= d.pc ? 'supercritical' : 'vapour'
   return ok(stateAt(m, T, rho, T >= d.Tc && p >= d.pc ? 'supercritical' : phase, null))
 }

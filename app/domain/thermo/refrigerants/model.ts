@@ -11,7 +11,7 @@ export interface Ancillary { readonly kind: 'linear' | 'exp'; readonly Ta: numbe
 export function ancillary(a: Ancillary, T: number): number {
   const th = Math.max(1 - T / a.Ta, 0)
   let s = 0
-  for (let i = 0; i < a.n.length; i++) s += a.n[i] * Math.pow(th, a.t[i])
+  for (let i = 0; i < a.n.length; i++) s += a.n[i]! * Math.pow(th, a.t[i]!)
   if (a.kind === 'linear') return a.r * (1 + s)
   return a.r * Math.exp(a.tauR ? (a.Ta / T) * s : s)
 }
@@ -58,7 +58,7 @@ export function pressure(m: Model, T: number, rho: number): number {
   return rho * m.R * T * (1 + delta * r.d)
 }
 
-/** p and ∂p/∂ρ at T, filled into out[0], out[1] */
+/** p and ∂p/∂ρ at T, filled into out[0], out[1]! */
 export function pressureAndSlope(m: Model, T: number, rho: number, out: Float64Array): void {
   const delta = rho / m.rhor
   residual(m.data.eos, m.data.eos.Tr / T, delta, r)

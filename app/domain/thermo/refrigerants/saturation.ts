@@ -38,7 +38,15 @@ export function satDensities(m: Model, T: number): SatDensities | null {
     dL = ancillary(m.data.rhoL, T) / eos.rhor
     dV = ancillary(m.data.rhoV, T) / eos.rhor
   }
-  return solve(m, T, dL, dV, dc)
+  const first = solve(m, T, dL, dV, dc)
+  if (first || gap >= NEAR) return first
+  // continuation: march in from 0.1 K further from Tc, using each solution as the next guess
+  let prev = satDensities(m, Math.min(T - 0.1, m.data.Tc - NEAR))
+  for (let k = 1; k <= 4 && prev; k++) {
+    const Tk = T - 0.1 * (1 - k / 4)
+    prev = solve(m, Tk, prev.rhoL / m.rhor, prev.rhoV / m.rhor, dc)
+  }
+  return prev
 }
 
 function solve(m: Model, T: number, dL: number, dV: number, dc: number): SatDensities | null {
@@ -78,7 +86,7 @@ function solve(m: Model, T: number, dL: number, dV: number, dc: number): SatDens
   const rhoL = dL * m.rhor, rhoV = dV * m.rhor
   const out = new Float64Array(2)
   pressureGibbs(m, T, rhoL, out)
-  const pL = out[0]
+  const pL = out[0]!
   // the pressure is computed from the liquid; the vapour agrees to ~1e-12 relative
   return { rhoL, rhoV, p: pL }
 }

@@ -28,7 +28,7 @@ export const R134A: FluidData = {
     Tr: 374.18,
     rhor: 4978.830171,
     ideal: { a1: -1.019535, a2: 9.047135, logTau: -1.629789, power: [{ n: -9.723916, t: -0.5 }, { n: -3.92717, t: -0.75 }], planck: [] },
-    power: n.map((ni, i) => ({ n: ni, d: d[i], t: t[i], l: l[i] })),
+    power: n.map((ni, i) => ({ n: ni, d: d[i]!, t: t[i]!, l: l[i]! })),
     gauss: [],
     nonAnalytic: [],
   },

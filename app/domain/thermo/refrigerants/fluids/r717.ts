@@ -27,7 +27,7 @@ export const R717: FluidData = {
     Tr: 405.4,
     rhor,
     ideal: { a1: -15.81502, a2: 4.255726, logTau: -1, power: [{ n: 11.47434, t: 1 / 3 }, { n: -1.296211, t: -1.5 }, { n: 0.5706757, t: -1.75 }], planck: [] },
-    power: n.map((ni, i) => ({ n: ni, d: d[i], t: t[i], l: l[i] })),
+    power: n.map((ni, i) => ({ n: ni, d: d[i]!, t: t[i]!, l: l[i]! })),
     gauss: [],
     nonAnalytic: [],
   },
