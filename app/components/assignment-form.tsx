@@ -7,6 +7,7 @@ import { useEffect, useRef, type ReactNode } from 'react'
 import { Form, Link, useNavigation } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
+import { VersionPicker } from '#app/components/version-picker.tsx'
 import { cn } from '#app/lib/cn.ts'
 import type { FieldErrors } from '#app/lib/form.ts'
 import type { AssignmentFormState, BankChoice, LockedItem } from '#app/server/assignments.server.ts'
@@ -17,6 +18,8 @@ export interface AssignmentFormProps {
   readonly formError?: string
   readonly choices: readonly BankChoice[]
   readonly locked: readonly LockedItem[]
+  /** item id → the version it holds on the saved assignment (edit page): keeping it asks for no override */
+  readonly stored?: Readonly<Record<string, string>>
   readonly timeZone: string
   readonly submitLabel: string
   /** Where answered items are regraded (edit page); absent for a new assignment. */
@@ -50,7 +53,7 @@ function fieldDomId(key: string) {
   return `af-${key.replace(/\./g, '-')}`
 }
 
-export function AssignmentForm({ state, fieldErrors, formError, choices, locked, timeZone, submitLabel, regradeBase, cancelTo }: AssignmentFormProps) {
+export function AssignmentForm({ state, fieldErrors, formError, choices, locked, stored = {}, timeZone, submitLabel, regradeBase, cancelTo }: AssignmentFormProps) {
   const navigation = useNavigation()
   const busy = navigation.state === 'submitting'
   const saving = busy && navigation.formData?.get('intent') === 'save'
@@ -70,6 +73,7 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
       </p>
     ) : null
   const lockedById = new Map(locked.map((l) => [String(l.itemId), l]))
+  const storedById = new Map(Object.entries(stored))
 
   return (
     <Form method="post" className="mt-6 grid max-w-4xl gap-6" noValidate>
@@ -337,29 +341,19 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
                         </>
                       ) : (
                         <>
-                          <label htmlFor={fieldDomId(vKey)} className="sr-only">
-                            Problem {i + 1}
-                          </label>
-                          <select
-                            id={fieldDomId(vKey)}
+                          <VersionPicker
+                            index={i}
                             name={vKey}
-                            defaultValue={row.versionId}
-                            aria-invalid={err(vKey) ? true : undefined}
-                            aria-describedby={describedBy(vKey)}
-                            className={cn(inputClass(!!err(vKey)), 'w-full max-w-md')}
-                          >
-                            <option value="">Choose a problem…</option>
-                            {choices.map((c) => (
-                              <optgroup key={c.problemId} label={c.title}>
-                                {c.versions.map((ver, j) => (
-                                  <option key={ver.id} value={String(ver.id)}>
-                                    {c.title} — version {ver.number}
-                                    {j === 0 ? ' (newest)' : ''}
-                                  </option>
-                                ))}
-                              </optgroup>
-                            ))}
-                          </select>
+                            overrideName={`items.${i}.override`}
+                            domId={fieldDomId(vKey)}
+                            value={row.versionId}
+                            override={row.override ?? ''}
+                            storedVersionId={storedById.get(row.itemId) ?? ''}
+                            choices={choices}
+                            timeZone={timeZone}
+                            invalid={!!err(vKey)}
+                            describedBy={describedBy(vKey)}
+                          />
                         </>
                       )}
                       {errorText(vKey)}

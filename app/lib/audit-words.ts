@@ -23,6 +23,7 @@ export const AUDIT_KIND_WORDS: Readonly<Record<string, string>> = {
   'key-released': 'Key released',
   'grades-released': 'Grades released',
   'assignment-changed': 'Assignment changed',
+  'assignment-check-overridden': 'Version assigned over its check',
   'assignment-deleted': 'Assignment deleted',
   'course-created': 'Course created',
   'course-settings-changed': 'Course settings changed',

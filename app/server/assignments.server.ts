@@ -37,6 +37,7 @@ import {
   users,
   type Assignment,
 } from './db/schema.server.ts'
+import { checkWords, latestChecks, needsOverride, NEVER_CHECKED, refusalText, type VersionCheck } from './assignment-items.server.ts'
 import { listFindScores } from './grading.server.ts'
 import { bankViewerFor, freezeProblemVersion, type BankViewer } from './problems.server.ts'
 import type { SignedInUser } from './users.server.ts'
@@ -333,7 +334,13 @@ function toItem(r: { id: number; position: number; problemId: number; problemVer
 // ---- The form -----------------------------------------------------------------------------
 
 /** One row of the problems table as typed: the chosen version, the points, and the item it edits. */
-export type ItemRow = { itemId: string; versionId: string; points: string }
+export type ItemRow = {
+  itemId: string
+  versionId: string
+  points: string
+  /** the id of the version the instructor assigns although its check failed, could not run, is running or never ran; an override of another version counts for nothing */
+  override?: string
+}
 
 /** What the assignment form shows: every field as text, so that nothing typed is lost on an error. */
 export type AssignmentFormState = {
@@ -354,12 +361,16 @@ export type AssignmentFormState = {
 }
 
 /** A bank problem the instructor may choose, with its versions (newest first). */
-export type BankChoice = { problemId: number; title: string; versions: { id: number; number: number }[] }
+export type BankChoice = {
+  problemId: number
+  title: string
+  versions: { id: number; number: number; savedAt: Date; author: string; check: VersionCheck }[]
+}
 
 /** An item students have answered: only a regrade changes its version or points. */
 export type LockedItem = { itemId: number; position: number; title: string; versionNumber: number; points: number }
 
-const ITEM_KEY = /^items\.(\d{1,3})\.(itemId|versionId|points)$/
+const ITEM_KEY = /^items\.(\d{1,3})\.(itemId|versionId|points|override)$/
 export const MAX_ITEMS = 50
 
 function text(form: FormData, name: string): string {
@@ -460,9 +471,12 @@ export async function listBankChoices(database: Database, viewer: BankViewer, ke
       departmentId: problems.departmentId,
       versionId: problemVersions.id,
       number: problemVersions.number,
+      savedAt: problemVersions.createdAt,
+      author: users.name,
     })
     .from(problems)
     .innerJoin(problemVersions, eq(problemVersions.problemId, problems.id))
+    .innerJoin(users, eq(users.id, problemVersions.createdBy))
     .where(
       and(
         viewer.isAdmin
@@ -479,10 +493,11 @@ export async function listBankChoices(database: Database, viewer: BankViewer, ke
     )
     .orderBy(sql`lower(${problems.title})`, asc(problems.id), desc(problemVersions.number))
   const byProblem = new Map<number, BankChoice>()
-  for (const r of rows) {
-    if (!canSeeProblem(viewer, r) && !keepVersionIds.includes(r.versionId)) continue
+  const visible = rows.filter((r) => canSeeProblem(viewer, r) || keepVersionIds.includes(r.versionId))
+  const checks = await latestChecks(database, visible.map((r) => r.versionId))
+  for (const r of visible) {
     const choice = byProblem.get(r.problemId) ?? { problemId: r.problemId, title: r.title, versions: [] }
-    choice.versions.push({ id: r.versionId, number: r.number })
+    choice.versions.push({ id: r.versionId, number: r.number, savedAt: r.savedAt, author: r.author, check: checks.get(r.versionId) ?? NEVER_CHECKED })
     byProblem.set(r.problemId, choice)
   }
   return [...byProblem.values()]
@@ -536,6 +551,8 @@ export const AssignmentSettingsSchema = z
   })
 
 type CheckedItem = { itemId: number | null; problemId: number; versionId: number; points: number }
+/** A version put on the assignment by the instructor's override of its check (for the audit log). */
+type CheckOverride = { position: number; versionId: number; check: string }
 type CheckedAssignment = {
   title: string
   instructions: string
@@ -549,6 +566,7 @@ type CheckedAssignment = {
   /** null: not given (a form without the field); a new assignment takes the default, an edit keeps its value */
   disputeDays: number | null
   items: CheckedItem[]
+  overrides: CheckOverride[]
 }
 
 export type SaveResult = { ok: true; assignmentId: number } | { ok: false; fieldErrors: FieldErrors; formError: string }
@@ -593,6 +611,8 @@ async function checkForm(
         .innerJoin(problems, eq(problems.id, problemVersions.problemId))
         .where(inArray(problemVersions.id, versionIds))
     : []
+  const checks = await latestChecks(database, versionRows.map((r) => r.versionId))
+  const overrides: CheckOverride[] = []
   const existingById = new Map(opts.existing.map((e) => [e.id, e]))
   const onAssignment = new Set(opts.existing.map((e) => e.problemVersionId))
   const items: CheckedItem[] = []
@@ -622,6 +642,18 @@ async function checkForm(
       if (!p.success) {
         fieldErrors[`items.${i}.points`] = p.error.issues[0]!.message
         return
+      }
+      // A new row, or a row switched to another version, needs a passed check or the override;
+      // a row left on its stored version does not ask again.
+      if (prev?.problemVersionId !== v.versionId) {
+        const check = checks.get(v.versionId) ?? NEVER_CHECKED
+        if (needsOverride(check)) {
+          if (row.override?.trim() !== String(v.versionId)) {
+            fieldErrors[`items.${i}.versionId`] = refusalText(check)
+            return
+          }
+          overrides.push({ position: i + 1, versionId: v.versionId, check: checkWords(check) })
+        }
       }
       versionId = v.versionId
       points = p.data
@@ -661,6 +693,7 @@ async function checkForm(
       keyRelease: v.keyRelease,
       disputeDays: v.disputeDays === undefined || v.disputeDays.trim() === '' ? null : Number(v.disputeDays.trim()),
       items,
+      overrides,
     },
   }
 }
@@ -699,7 +732,9 @@ export async function getEditAssignmentForm(database: Database, opts: { courseId
   const { timeZone } = await courseZone(database, opts.courseId)
   const items = await existingItems(database, a.id)
   const choices = await listBankChoices(database, await bankViewerFor(database, opts.user), items.map((i) => i.problemVersionId))
-  return { assignment: a, timeZone, state: formOfAssignment(a, items, timeZone), choices, locked: lockedOf(items) }
+  // Which version each item holds now: keeping it asks for no override of its check.
+  const stored: Record<string, string> = Object.fromEntries(items.map((i) => [String(i.id), String(i.problemVersionId)]))
+  return { assignment: a, timeZone, state: formOfAssignment(a, items, timeZone), choices, locked: lockedOf(items), stored }
 }
 
 function lockedOf(items: Awaited<ReturnType<typeof existingItems>>): LockedItem[] {
@@ -723,7 +758,7 @@ export async function createAssignment(database: Db, opts: { courseId: number; u
   const viewer = await bankViewerFor(database, opts.user)
   const checked = await checkForm(database, { state: opts.state, timeZone, viewer, existing: [] })
   if (!checked.ok) return { ok: false, fieldErrors: checked.fieldErrors, formError: SUMMARY }
-  const { items, disputeDays, ...rest } = checked.value
+  const { items, overrides, disputeDays, ...rest } = checked.value
   const settings = { ...rest, disputeDays: disputeDays ?? DEFAULT_DISPUTE_DAYS }
   const assignmentId = await database.transaction(async (tx) => {
     const [row] = await tx
@@ -734,9 +769,23 @@ export async function createAssignment(database: Db, opts: { courseId: number; u
       items.map((it, i) => ({ assignmentId: row!.id, position: i + 1, problemId: it.problemId, problemVersionId: it.versionId, points: it.points })),
     )
     for (const versionId of new Set(items.map((i) => i.versionId))) await freezeProblemVersion(tx, versionId)
+    if (overrides.length) await auditCheckOverride(tx, { actorId: opts.user.id, courseId: opts.courseId, assignmentId: row!.id, overrides })
     return row!.id
   })
   return { ok: true, assignmentId }
+}
+
+/** One audit row per save that assigned versions over their check: which rows, which versions, what the check said. */
+async function auditCheckOverride(tx: Tx, o: { actorId: number; courseId: number; assignmentId: number; overrides: CheckOverride[] }) {
+  await tx.insert(auditEvents).values({
+    actorId: o.actorId,
+    courseId: o.courseId,
+    assignmentId: o.assignmentId,
+    kind: 'assignment-check-overridden',
+    before: {},
+    after: { items: o.overrides },
+    note: o.overrides.map((x) => `Problem ${x.position} assigned although: ${x.check}`).join('; '),
+  })
 }
 
 const SETTING_KEYS = ['title', 'instructions', 'opensAt', 'dueAt', 'attemptsPerFind', 'latePolicy', 'latePenaltyPercentPerDay', 'lateDaysAllowed', 'keyRelease', 'disputeDays'] as const
@@ -764,7 +813,7 @@ export async function updateAssignment(
     const existing = await existingItems(tx, current.id)
     const checked = await checkForm(tx, { state: opts.state, timeZone, viewer, existing })
     if (!checked.ok) return { ok: false as const, fieldErrors: checked.fieldErrors, formError: SUMMARY }
-    const { items, disputeDays, ...rest } = checked.value
+    const { items, overrides, disputeDays, ...rest } = checked.value
     const settings = { ...rest, disputeDays: disputeDays ?? current.disputeDays }
 
     const before: Record<string, unknown> = {}
@@ -806,6 +855,7 @@ export async function updateAssignment(
     if (Object.keys(after).length) {
       await tx.insert(auditEvents).values({ actorId: opts.user.id, courseId: opts.courseId, assignmentId: current.id, kind: 'assignment-changed', before, after })
     }
+    if (overrides.length) await auditCheckOverride(tx, { actorId: opts.user.id, courseId: opts.courseId, assignmentId: current.id, overrides })
     return { ok: true as const, assignmentId: current.id }
   })
 }

@@ -22,7 +22,7 @@ import { releaseGrades } from '#app/server/releases.server.ts'
 import { assignmentItems, assignments, auditEvents, extensions, problemVersions, submissions } from '#app/server/db/schema.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { loadSignedInUser } from '#app/server/users.server.ts'
-import { addMember, createAssignment, createCourse, createProblemWithVersion, createUser } from '#tests/support/factories.ts'
+import { addMember, createAssignment, createCourse, createProblemWithVersion, createUser, recordCheck } from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { sessionCookie } from '#tests/support/login.ts'
@@ -81,6 +81,8 @@ describe('creating an assignment', () => {
     const { course, instructor } = await setUp()
     const a = await createProblemWithVersion(db(), instructor.id, otto, { frozen: false })
     const b = await createProblemWithVersion(db(), instructor.id, diesel, { frozen: false })
+    await recordCheck(db(), a.versionId, instructor.id)
+    await recordCheck(db(), b.versionId, instructor.id)
     const cookie = await sessionCookie(instructor)
     const path = `/courses/${course.id}/assignments/new`
     const res = (await newAction(
@@ -105,6 +107,7 @@ describe('creating an assignment', () => {
   test('a due date typed as 23:59 in America/Chicago in winter is stored as 05:59 UTC the next day', async () => {
     const { course, instructor } = await setUp({ timeZone: 'America/Chicago' })
     const a = await createProblemWithVersion(db(), instructor.id, otto, { frozen: false })
+    await recordCheck(db(), a.versionId, instructor.id)
     const res = (await newAction(
       args(
         formRequest(`/courses/${course.id}/assignments/new`, settingsFields({ dueAt: '2027-01-15T23:59', 'items.0.versionId': String(a.versionId), 'items.0.points': '10' }), {
@@ -122,6 +125,7 @@ describe('creating an assignment', () => {
   test('a due date before the opening, an unknown problem and a problem not shared with the instructor come back as field errors, with nothing written', async () => {
     const { course, instructor } = await setUp()
     const mine = await createProblemWithVersion(db(), instructor.id, otto, { frozen: false })
+    await recordCheck(db(), mine.versionId, instructor.id)
     const stranger = await createUser(db(), { departmentId: null })
     const hidden = await createProblemWithVersion(db(), stranger.id, diesel, { frozen: false })
     const fields = settingsFields({

@@ -12,6 +12,7 @@ import {
   departments,
   memberships,
   problems,
+  problemSweeps,
   problemVersions,
   terms,
   users,
@@ -126,6 +127,33 @@ export async function createProblemWithVersion(db: Db, ownerId: number, definiti
   return { problemId: problem!.id, versionId: version!.id }
 }
 
+/**
+ * A finished (or running, or broken) check of a version, as the sweep job leaves it: by
+ * default 500 of 500 variants passed. The assignment form refuses versions whose latest
+ * check did not pass unless overridden (issue #15).
+ */
+export async function recordCheck(
+  db: Db,
+  versionId: number,
+  requestedBy: number,
+  options: { status?: 'queued' | 'running' | 'done' | 'failed'; total?: number; checked?: number; failed?: number; createdAt?: Date } = {},
+) {
+  const total = options.total ?? 500
+  const [row] = await db
+    .insert(problemSweeps)
+    .values({
+      problemVersionId: versionId,
+      requestedBy,
+      status: options.status ?? 'done',
+      total,
+      checked: options.checked ?? total,
+      failed: options.failed ?? 0,
+      ...(options.createdAt ? { createdAt: options.createdAt } : {}),
+    })
+    .returning({ id: problemSweeps.id })
+  return row!
+}
+
 export type AssignmentOverrides = Partial<Omit<NewAssignment, 'courseId' | 'createdBy'>>
 
 /**
@@ -171,12 +199,13 @@ export async function createAssignment(
 
 /**
  * A course with an instructor, `students` students (sections A and B alternating) and one
- * assignment over the given demo problem definitions. For integration tests and benches.
+ * assignment over the given demo problem definitions, each version with a passed check. For
+ * integration tests and benches.
  */
 export async function createCourseWithAssignment(
   db: Db,
   definitions: readonly ProblemDefinition[],
-  options: { students?: number; signConvention?: SignConvention; timeZone?: string; assignment?: AssignmentOverrides } = {},
+  options: { students?: number; signConvention?: SignConvention; timeZone?: string; assignment?: AssignmentOverrides; checked?: boolean } = {},
 ) {
   const course = await createCourse(db, { signConvention: options.signConvention ?? 'engineering', timeZone: options.timeZone ?? 'UTC' })
   const instructor = await createUser(db, { name: 'Course Instructor', departmentId: course.departmentId, password: null })
@@ -189,6 +218,8 @@ export async function createCourseWithAssignment(
   }
   const made = []
   for (const d of definitions) made.push(await createProblemWithVersion(db, instructor.id, d))
+  // Its versions passed their check, as the assignment form asks (checked: false leaves them never checked).
+  if (options.checked !== false) for (const m of made) await recordCheck(db, m.versionId, instructor.id)
   const { assignment, items } = await createAssignment(db, course.id, instructor.id, made, options.assignment ?? {})
   return { course, instructor, students, assignment, items }
 }

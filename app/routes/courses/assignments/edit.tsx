@@ -33,7 +33,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function EditAssignmentRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { course, assignment, timeZone, choices, locked } = loaderData
+  const { course, assignment, timeZone, choices, locked, stored } = loaderData
   const shown = actionData ?? { state: loaderData.state, fieldErrors: {}, formError: undefined, nonce: 'initial' }
   const base = `/courses/${course.id}/assignments/${assignment.id}`
   return (
@@ -52,6 +52,7 @@ export default function EditAssignmentRoute({ loaderData, actionData }: Route.Co
         formError={shown.formError}
         choices={choices}
         locked={locked}
+        stored={stored}
         timeZone={timeZone}
         submitLabel="Save changes"
         regradeBase={`${base}/problems`}

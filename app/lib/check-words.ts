@@ -1,0 +1,56 @@
+/**
+ * A version's latest check (sweep) in words, for the assignment picker and the server's
+ * refusal (issue #15). Pure: app/server/assignment-items.server.ts reads the checks.
+ */
+export type VersionCheck =
+  | { state: 'passed'; total: number; checked: number; failed: 0 }
+  | { state: 'failed'; total: number; checked: number; failed: number }
+  | { state: 'broken'; total: number; checked: number; failed: number }
+  | { state: 'running'; total: number; checked: number; failed: number }
+  | { state: 'never' }
+
+export const NEVER_CHECKED: VersionCheck = { state: 'never' }
+
+const variants = (n: number) => `${n} variant${n === 1 ? '' : 's'}`
+
+/** The check result as the picker says it. */
+export function checkWords(c: VersionCheck): string {
+  switch (c.state) {
+    case 'passed':
+      return `Checked: ${c.checked} of ${variants(c.total)} passed`
+    case 'failed':
+      return `Check failed: ${c.failed} of ${variants(c.checked)}`
+    case 'broken':
+      return 'Check could not run'
+    case 'running':
+      return `Check running: ${c.checked} of ${variants(c.total)} so far`
+    case 'never':
+      return 'Never checked'
+  }
+}
+
+/** Only a finished check with no failure lets a version be assigned without an override. */
+export function needsOverride(c: VersionCheck): boolean {
+  return c.state !== 'passed'
+}
+
+/** The override checkbox's label, naming the reason. */
+export function overrideLabel(c: VersionCheck): string {
+  switch (c.state) {
+    case 'passed':
+      return ''
+    case 'failed':
+      return `Assign although the check failed (${c.failed} of ${variants(c.checked)})`
+    case 'broken':
+      return 'Assign although the check could not run'
+    case 'running':
+      return 'Assign although the check has not finished'
+    case 'never':
+      return 'Assign although the version was never checked'
+  }
+}
+
+/** The refusal next to the row's field. */
+export function refusalText(c: VersionCheck): string {
+  return `${checkWords(c)}. Choose a version whose check passed, or tick “${overrideLabel(c)}” to assign it anyway.`
+}
