@@ -9,6 +9,7 @@ import { performance } from 'node:perf_hooks'
 import { constantCpGas, gasPreset, solveCycle, templates } from '#app/domain/thermo/index.ts'
 import type { CycleResult, Gas } from '#app/domain/thermo/index.ts'
 import { mulberry32 } from '#app/domain/random.ts'
+import { REFRIGERANTS, REFRIGERANT_IDS } from '#app/domain/thermo/refrigerants/index.ts'
 
 const TARGET_US = 10
 const MULTI_STAGE = new Set(['brayton-intercool-reheat'])
@@ -115,4 +116,27 @@ const perSec = all.length / secs
 console.log(`\nvalidated ${all.length} random variants (solve + first-law, ΔS and Carnot checks): ${okCount} passed, ${Math.round(perSec).toLocaleString('en')} variants/s (${((secs * 1e6) / all.length).toFixed(2)} µs each)`)
 const met = worst <= TARGET_US
 console.log(`target ≤ ${TARGET_US} µs per variant: ${met ? 'MET' : 'NOT MET'} (slowest median ${worst.toFixed(2)} µs)`)
+
+// Refrigerant property calls (Helmholtz-energy equations of state). No reference library for
+// these fluids runs on this machine (CoolProp is not installable here), so only our rate is printed.
+console.log('\nrefrigerant property calls (no reference library available here to compare against):')
+for (const id of REFRIGERANT_IDS) {
+  const f = REFRIGERANTS[id]
+  const N = 2000
+  const Ts = Array.from({ length: N }, () => u(f.Ttriple + 5, f.Tc - 5))
+  const sats = Ts.map((T) => f.saturationT(T))
+  const tp = Ts.map((T, i) => { const s = sats[i]!; return [T + u(2, 30), s.ok ? s.value.p : f.pc / 2] as const })
+  let bad = 0
+  const time = (label: string, fn: (i: number) => boolean) => {
+    const t = performance.now()
+    for (let i = 0; i < N; i++) if (!fn(i)) bad++
+    const s = (performance.now() - t) / 1000
+    console.log(`${(id + ' ' + label).padEnd(24)} ${Math.round(N / s).toLocaleString('en')} calls/s (${((s * 1e6) / N).toFixed(1)} µs each)`)
+  }
+  const hs = tp.map(([T, p]) => f.stateTP(T, p))
+  time('stateTP', (i) => f.stateTP(tp[i]![0], tp[i]![1]).ok)
+  time('statePH', (i) => { const s = hs[i]!; return s.ok && f.statePH(s.value.p, s.value.h).ok })
+  time('statePS', (i) => { const s = hs[i]!; return s.ok && f.statePS(s.value.p, s.value.s).ok })
+  if (bad > 0) { console.log(`${id}: ${bad} calls failed`); process.exitCode = 1 }
+}
 if (okCount !== all.length) process.exitCode = 1

@@ -63,15 +63,16 @@ function stateTP(m: Model, T: number, p: number): FluidResult<FluidState> {
     const rho = densityIn(m, T, p, 0, sd.rhoV, Math.min(p / (m.R * T), sd.rhoV))
     return ok(stateAt(m, T, rho, 'vapour', null))
   }
-  if (T < d.Tc) {
-    // within SAT_T_MARGIN below Tc: still a two-branch region; decide by the stable branch
-    return outOfRange(m, `${T.toFixed(3)} K is within ${SAT_T_MARGIN} K of the critical temperature (${d.Tc} K), where these properties are not computed`)
+  if (T < d.Tc && Math.abs(p - d.pc) < 0.01 * d.pc) {
+    // within SAT_T_MARGIN below Tc and near pc: the dome's tip, not computed
+    return outOfRange(m, `${T.toFixed(3)} K and ${(p / 1e6).toPrecision(5)} MPa are within ${SAT_T_MARGIN} K and 1 % of the critical point (${d.Tc} K, ${(d.pc / 1e6).toPrecision(5)} MPa), where these properties are not computed`)
   }
+  // above Tc, or just below it but away from pc, p(ρ) crosses p once: bracketed Newton over all ρ
   const rho = densityIn(m, T, p, 0, top, p / (m.R * T))
   pressureAndSlope(m, T, rho, buf)
   if (Math.abs(buf[0]! - p) > 1e-8 * p) return fail('no-convergence', `${d.id}: density did not converge at ${T.toFixed(2)} K, ${(p / 1e6).toPrecision(5)} MPa`)
-  const phase = p >= d.pc ? 'supercritical' : 'vapour'
-  return ok(stateAt(m, T, rho, T >= d.Tc && p >= d.pc ? 'supercritical' : phase, null))
+  const phase = T >= d.Tc ? (p >= d.pc ? 'supercritical' : 'vapour') : p > d.pc ? 'liquid' : 'vapour'
+  return ok(stateAt(m, T, rho, phase, null))
 }
 
 function mix(sat: SaturationPair, x: number): FluidState {

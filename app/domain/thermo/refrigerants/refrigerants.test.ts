@@ -125,3 +125,18 @@ describe('transcritical CO2 (gas-cooler states above pc)', () => {
     }
   })
 })
+
+describe('states within 0.01 K below Tc but away from pc', () => {
+  it('CO2 vapour at 304.123 K, 5.12 MPa solves (a (p, s) solve passes through this band)', () => {
+    const st = val(REFRIGERANTS.R744.stateTP(304.123, 5.12e6))
+    expect(st.phase).toBe('vapour')
+    expect(Math.abs(st.p - 5.12e6) / 5.12e6).toBeLessThan(1e-9)
+    const hot = val(REFRIGERANTS.R744.stateTP(304.122, 1.7618e6))
+    expect(Math.abs(val(REFRIGERANTS.R744.statePS(1.7618e6, hot.s)).T - 304.122) / 304.122).toBeLessThan(1e-9)
+  })
+  it('but the tip of the dome (within 1 % of pc) is refused plainly', () => {
+    const r = REFRIGERANTS.R744.stateTP(304.123, 7.37e6)
+    expect(r.ok).toBe(false)
+    if (!r.ok) expect(r.error.message).toMatch(/critical point/)
+  })
+})

@@ -117,13 +117,21 @@ function tGuess(m: Model, p: number): number {
   return 0.5 * (lo + hi)
 }
 
+const endCache = new WeakMap<Model, { lo: FluidResult<SaturationPair>; top: FluidResult<SaturationPair> }>()
+/** saturation at the triple point and at Tc − margin, computed once per fluid */
+function ends(m: Model) {
+  let e = endCache.get(m)
+  if (!e) { e = { lo: satAtT(m, m.data.Ttriple), top: satAtT(m, m.data.Tc - SAT_T_MARGIN) }; endCache.set(m, e) }
+  return e
+}
+
 export function satAtP(m: Model, p: number): FluidResult<SaturationPair> {
   const d = m.data
   if (!Number.isFinite(p) || p <= 0) return fail('invalid-input', `${d.id}: saturation pressure must be a positive number of pascals`)
-  const lo = satAtT(m, d.Ttriple)
+  const lo = ends(m).lo
   if (!lo.ok) return lo
   if (p < lo.value.p * (1 - 1e-12)) return fail('out-of-range', `${d.id}: ${(p / 1000).toPrecision(5)} kPa is below the triple-point pressure (${(lo.value.p / 1000).toPrecision(5)} kPa)`)
-  const top = satAtT(m, d.Tc - SAT_T_MARGIN)
+  const top = ends(m).top
   if (!top.ok) return top
   if (p > top.value.p) {
     return fail('out-of-range', `${d.id}: no saturation at ${(p / 1e6).toPrecision(5)} MPa — at or above the critical pressure (${(d.pc / 1e6).toPrecision(5)} MPa) the fluid is supercritical`)
