@@ -11,6 +11,17 @@ export type VersionCheck =
 
 export const NEVER_CHECKED: VersionCheck = { state: 'never' }
 
+type SweepRow = { status: 'queued' | 'running' | 'done' | 'failed'; total: number; checked: number; failed: number }
+
+/** A sweep row as a check result: done with no failure is the only pass. */
+export function checkOfSweep(s: SweepRow | undefined): VersionCheck {
+  if (!s) return NEVER_CHECKED
+  if (s.status === 'queued' || s.status === 'running') return { state: 'running', total: s.total, checked: s.checked, failed: s.failed }
+  if (s.status === 'failed') return { state: 'broken', total: s.total, checked: s.checked, failed: s.failed }
+  if (s.failed > 0) return { state: 'failed', total: s.total, checked: s.checked, failed: s.failed }
+  return { state: 'passed', total: s.total, checked: s.checked, failed: 0 }
+}
+
 const variants = (n: number) => `${n} variant${n === 1 ? '' : 's'}`
 
 /** The check result as the picker says it. */

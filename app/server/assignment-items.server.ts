@@ -6,24 +6,13 @@
  */
 import { desc, inArray } from 'drizzle-orm'
 import type { Db, Tx } from '#app/server/db/client.server.ts'
-import { NEVER_CHECKED, type VersionCheck } from '#app/lib/check-words.ts'
+import { checkOfSweep, type VersionCheck } from '#app/lib/check-words.ts'
 import { problemSweeps } from '#app/server/db/schema.server.ts'
 
 type Database = Db | Tx
 
 export type { VersionCheck } from '#app/lib/check-words.ts'
-export { checkWords, needsOverride, overrideLabel, refusalText, NEVER_CHECKED } from '#app/lib/check-words.ts'
-
-type SweepRow = { status: 'queued' | 'running' | 'done' | 'failed'; total: number; checked: number; failed: number }
-
-/** A sweep row as a check result: done with no failure is the only pass. */
-export function checkOfSweep(s: SweepRow | undefined): VersionCheck {
-  if (!s) return NEVER_CHECKED
-  if (s.status === 'queued' || s.status === 'running') return { state: 'running', total: s.total, checked: s.checked, failed: s.failed }
-  if (s.status === 'failed') return { state: 'broken', total: s.total, checked: s.checked, failed: s.failed }
-  if (s.failed > 0) return { state: 'failed', total: s.total, checked: s.checked, failed: s.failed }
-  return { state: 'passed', total: s.total, checked: s.checked, failed: 0 }
-}
+export { checkOfSweep, checkWords, needsOverride, overrideLabel, refusalText, NEVER_CHECKED } from '#app/lib/check-words.ts'
 
 /** The latest check of each version (by when it was asked for); versions never checked are absent. */
 export async function latestChecks(database: Database, versionIds: readonly number[]): Promise<Map<number, VersionCheck>> {
