@@ -334,6 +334,14 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
         note: f.note,
       }
     }
+    case 'assignment-check-overridden': {
+      const list = (Array.isArray(a.items) ? a.items : []).filter(isRecord)
+      return {
+        what: `${f.assignmentTitle ? quoted(f.assignmentTitle) : 'An assignment'}: ${list.length === 1 ? 'a version' : `${list.length} versions`} assigned although the check did not pass`,
+        change: list.length ? list.map((x) => `problem ${String(x.position)}: ${String(x.check)}`).join('; ') : null,
+        note: f.note,
+      }
+    }
     case 'assignment-deleted': {
       // The assignment is gone, so its title comes from the row itself.
       const title = str(b.title) ?? f.assignmentTitle

@@ -23,3 +23,24 @@ describe('a version’s check in words', () => {
     expect(refusalText({ state: 'never' })).toBe('Never checked. Choose a version whose check passed, or tick “Assign although the version was never checked” to assign it anyway.')
   })
 })
+
+describe('the audit log', () => {
+  test('an override reads as the versions assigned over their check, with the check’s words', async () => {
+    const { describeAuditEntry } = await import('./audit-words.ts')
+    const entry = {
+      kind: 'assignment-check-overridden',
+      before: {},
+      after: { items: [{ position: 2, versionId: 9, check: 'Check failed: 83 of 500 variants' }] },
+      note: 'Problem 2 assigned although: Check failed: 83 of 500 variants',
+      subject: null,
+      assignmentTitle: 'Week 9',
+      assignmentDueAt: null,
+      question: null,
+      maxScore: null,
+      regrade: null,
+    }
+    const d = describeAuditEntry(entry as never, { timeZone: 'UTC' } as never)
+    expect(d.what).toBe('“Week 9”: a version assigned although the check did not pass')
+    expect(d.change).toBe('problem 2: Check failed: 83 of 500 variants')
+  })
+})
