@@ -565,6 +565,99 @@ const threeStep: ProblemDefinition = {
 }
 
 /** The demo bank, in seeding order (a copy comes after the problem it was copied from). */
+// ---- More gas cycles: intercooling and reheat, Atkinson, Miller ----------------------------
+
+const braytonIntercoolReheat: ProblemDefinition = {
+  format: 2,
+  title: 'Gas turbine with intercooling, reheat and a regenerator',
+  tags: { topics: ['brayton', 'intercooling', 'reheat', 'regeneration', 'gas turbine'], difficulty: 'challenging', level: 'upper-level' },
+  convention: 'course',
+  prompt: [
+    'A gas-turbine plant compresses air from 100 kPa and [T1] in two stages through an overall pressure ratio of [rp], with an intercooler between them at the geometric-mean pressure that cools the air back to [T1]. It expands in two turbine stages with a reheater between them, at the same intermediate pressure, back to the turbine inlet temperature [TIT]. Every compressor stage has an isentropic efficiency of [etaC, 2 dp] and every turbine stage 0.88; a regenerator of effectiveness [eps, 2 dp] heats the compressed air with the exhaust.',
+    '',
+    'With constant specific heats (air-standard), find per kilogram of air:',
+    '',
+    '1. the net work delivered,',
+    '2. the back work ratio,',
+    '3. the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('T1', 'compressor inlet temperature', 'K', 290, 310, 10),
+    range('rp', 'overall pressure ratio', '', 8, 14, 1),
+    range('TIT', 'turbine inlet temperature', 'K', 1200, 1400, 50),
+    choice('etaC', 'compressor stage isentropic efficiency', '', [0.82, 0.85, 0.88]),
+    range('eps', 'regenerator effectiveness', '', 0.7, 0.9, 0.05),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'brayton-intercool-reheat',
+    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', pressureRatio: 'rp', turbineInletT: 'TIT', compressorEfficiency: 'etaC', turbineEfficiency: '0.88', regeneratorEffectiveness: 'eps' },
+  },
+  finds: [
+    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, { sense: 'work-by-system', pitfalls: ['sign-convention-flipped', 'cp-cv-swapped', 'kilo-factor'] }),
+    output('bwr', 'Back work ratio', 'totals.backWorkRatio', '', 2),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 3),
+  ],
+}
+
+const atkinson: ProblemDefinition = {
+  format: 2,
+  title: 'Air-standard Atkinson cycle',
+  tags: { topics: ['atkinson', 'over-expansion', 'spark ignition'], difficulty: 'standard', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    'An air-standard Atkinson cycle starts at 100 kPa and [T1]. The air is compressed isentropically through a compression ratio of [rc], heated at constant volume to [T3], expanded isentropically all the way down to 100 kPa, and then cooled at constant pressure back to the start.',
+    '',
+    'With constant specific heats, find per kilogram of air:',
+    '',
+    '1. the heat added,',
+    '2. the net work delivered,',
+    '3. the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('T1', 'temperature at the start of compression', 'K', 290, 310, 10),
+    range('rc', 'compression ratio', '', 7, 10, 0.5),
+    range('T3', 'peak temperature', 'K', 1600, 2000, 50),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'atkinson', inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', compressionRatio: 'rc', T3: 'T3' } },
+  finds: [
+    output('qin', 'Heat added per kg of air', 'totals.heatIn', 'kJ/kg', 3, { pitfalls: ['cp-cv-swapped', 'kilo-factor'] }),
+    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, { sense: 'work-by-system', pitfalls: ['sign-convention-flipped', 'kilo-factor'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 3),
+  ],
+}
+
+const miller: ProblemDefinition = {
+  format: 2,
+  title: 'Air-standard Miller cycle',
+  tags: { topics: ['miller', 'over-expansion', 'mean effective pressure'], difficulty: 'challenging', level: 'upper-level' },
+  convention: 'course',
+  prompt: [
+    'An air-standard Miller (over-expanded) cycle starts at 100 kPa and [T1]. The compression ratio is [rc] and the expansion ratio [re]; [qin] of heat is added per kilogram of air at constant volume. After the expansion the air is cooled at constant volume down to 100 kPa and then at constant pressure back to the start.',
+    '',
+    'With constant specific heats, find:',
+    '',
+    '1. the net work delivered per kilogram of air,',
+    '2. the thermal efficiency,',
+    '3. the mean effective pressure.',
+  ].join('\n'),
+  givens: [
+    range('T1', 'temperature at the start of compression', 'K', 290, 310, 10),
+    range('rc', 'compression ratio', '', 8, 10, 0.5),
+    range('re', 'expansion ratio', '', 11, 13, 0.5),
+    range('qin', 'heat added per kg of air', 'kJ/kg', 900, 1300, 100),
+  ],
+  constraints: [],
+  physics: { kind: 'template', template: 'miller', inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', compressionRatio: 'rc', expansionRatio: 're', heatIn: 'qin' } },
+  finds: [
+    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, { sense: 'work-by-system', pitfalls: ['sign-convention-flipped', 'kilo-factor'] }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 3),
+    output('mep', 'Mean effective pressure', 'totals.meanEffectivePressure', 'kPa', 2),
+  ],
+}
+
 export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'amara', visibility: 'department', definition: carnotEngine },
   { owner: 'tobias', visibility: 'department', definition: carnotRefrigerator },
@@ -574,6 +667,9 @@ export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'tobias', visibility: 'private', definition: dual },
   { owner: 'tobias', visibility: 'installation', definition: brayton },
   { owner: 'tobias', visibility: 'department', definition: braytonRegenerative },
+  { owner: 'tobias', visibility: 'department', definition: braytonIntercoolReheat },
+  { owner: 'amara', visibility: 'department', definition: atkinson },
+  { owner: 'amara', visibility: 'private', definition: miller },
   { owner: 'amara', visibility: 'department', definition: stirling },
   { owner: 'tobias', visibility: 'private', definition: stirlingAir, copiedFrom: stirling.title },
   { owner: 'amara', visibility: 'installation', definition: ericsson },

@@ -39,7 +39,7 @@ export const DEFINITION_LIMITS = {
   decimals: { max: 10 },
 } as const
 
-/** The solver's template ids (app/domain/thermo/templates, steam/rankine-template.ts). */
+/** The templates bank problems may use: the browser's copy of bankTemplateIds() (app/domain/thermo/catalog.ts), checked by problem-schema.test.ts. */
 export const TEMPLATE_IDS = [
   'otto',
   'diesel',
@@ -51,6 +51,9 @@ export const TEMPLATE_IDS = [
   'carnot-heat-pump',
   'stirling',
   'ericsson',
+  'brayton-intercool-reheat',
+  'atkinson',
+  'miller',
   'rankine',
   'rankine-reheat',
   'rankine-regenerative',

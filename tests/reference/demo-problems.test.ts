@@ -10,8 +10,7 @@ import { lintDefinition } from '#app/domain/authoring/lint.ts'
 import { renderPrompt } from '#app/domain/authoring/prompt.ts'
 import { sweepVariants } from '#app/domain/authoring/sweep.ts'
 import { drawVariant } from '#app/domain/authoring/variant.ts'
-import { templates } from '#app/domain/thermo/index.ts'
-import { RANKINE_TEMPLATES } from '#app/domain/thermo/steam/rankine-template.ts'
+import { bankTemplateIds } from '#app/domain/thermo/catalog.ts'
 import { definitionIssues } from '#app/lib/problem-schema.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 
@@ -51,7 +50,7 @@ describe.each(versions)('%s', (_label, def) => {
 })
 
 test('every cycle template of the solver and a general cycle appear in the demo bank', () => {
-  const wanted = [...Object.keys(templates), ...RANKINE_TEMPLATES.map((t) => t.id), 'general'].sort()
+  const wanted = [...bankTemplateIds(), 'general'].sort()
   const covered = new Set(DEMO_PROBLEMS.map((p) => cycleOf(p.definition.physics)))
   expect(wanted.filter((id) => !covered.has(id))).toEqual([])
   expect(wanted.length).toBeGreaterThanOrEqual(14)

@@ -6,13 +6,13 @@
  * two states (independent of the zero of h and s), since our reference state is our own.
  */
 import { describe, expect, it } from 'vitest'
-import { stateTRho } from '../../app/domain/thermo/refrigerants/flash.ts'
-import { R134A } from '../../app/domain/thermo/refrigerants/fluids/r134a.ts'
-import { R1234YF } from '../../app/domain/thermo/refrigerants/fluids/r1234yf.ts'
-import { R717 } from '../../app/domain/thermo/refrigerants/fluids/r717.ts'
-import { R744 } from '../../app/domain/thermo/refrigerants/fluids/r744.ts'
-import { REFRIGERANTS } from '../../app/domain/thermo/refrigerants/index.ts'
-import type { FluidData } from '../../app/domain/thermo/refrigerants/model.ts'
+import { stateTRho } from '#app/domain/thermo/refrigerants/flash.ts'
+import { R134A } from '#app/domain/thermo/refrigerants/fluids/r134a.ts'
+import { R1234YF } from '#app/domain/thermo/refrigerants/fluids/r1234yf.ts'
+import { R717 } from '#app/domain/thermo/refrigerants/fluids/r717.ts'
+import { R744 } from '#app/domain/thermo/refrigerants/fluids/r744.ts'
+import { REFRIGERANTS } from '#app/domain/thermo/refrigerants/index.ts'
+import type { FluidData } from '#app/domain/thermo/refrigerants/model.ts'
 
 interface Molar { T: number; rhomolar: number; p: number; hmolar: number; smolar: number }
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b)

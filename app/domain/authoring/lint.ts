@@ -37,8 +37,10 @@ function sentence(s: string): string {
   return /[.!?]$/.test(c) ? c : `${c}.`
 }
 
-function templateInputs(id: string): readonly TemplateInput[] | null {
-  return templateEntry(id)?.inputs ?? null
+/** The inputs of a template bank problems may use; null for any other id. */
+function templateInputs(id: string): readonly Pick<TemplateInput, 'name' | 'required' | 'description'>[] | null {
+  const e = templateEntry(id)
+  return e && e.bank ? e.inputs : null
 }
 
 /** Every `@{name}` in the strings of a JSON-like value, with the path of its string. */

@@ -15,6 +15,15 @@ test('every listed template is one the spec entry point knows (it may refuse the
   }
 })
 
+test('bank templates solve for bank problems; the others are refused there with a plain reason', async () => {
+  const { solveBankSpec, NOT_IN_BANK } = await import('./solve-spec.ts')
+  for (const e of TEMPLATE_CATALOG) {
+    const r = solveBankSpec({ template: e.id, inputs: {} })
+    if (e.bank) expect(r.ok || r.error.code !== NOT_IN_BANK, e.id).toBe(true)
+  }
+  expect(TEMPLATE_CATALOG.filter((e) => !e.bank).map((e) => e.id)).toEqual(expect.arrayContaining(['combined-cycle', 'steam-throttling-calorimeter', 'steam-carnot']))
+})
+
 test('short labels come from the titles', () => {
   expect(shortLabel('Otto cycle (air-standard spark ignition)')).toBe('Otto')
   expect(shortLabel('Brayton cycle with regenerator')).toBe('Brayton with regenerator')
@@ -25,7 +34,7 @@ test('short labels come from the titles', () => {
 
 test('the bank filters list every template and the general cycle, labelled', () => {
   const choices = cycleChoices()
-  expect(choices.map(([id]) => id)).toEqual([...TEMPLATE_CATALOG.map((e) => e.id), 'general'])
+  expect(choices.map(([id]) => id)).toEqual([...TEMPLATE_CATALOG.filter((e) => e.bank).map((e) => e.id), 'general'])
   expect(cycleName('general')).toBe('General cycle')
   expect(cycleName('rankine-reheat')).toBe('Rankine with reheat')
   expect(cycleName('no-such-cycle')).toBe('no-such-cycle')

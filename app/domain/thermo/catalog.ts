@@ -1,19 +1,23 @@
 /**
  * Every template the spec entry point (solve-spec.ts) accepts, across the solver's families,
  * read from each family's own registry: the ideal-gas TemplateDefs (templates/index.ts) and the
- * steam Rankine templates (steam/rankine-template.ts). A family added later lists its templates
- * here once; the bank's cycle names, the editor's template choices, the lint's input lists and
+ * steam templates (steam/), the combined cycle (combined/). A family added later lists its
+ * templates here once; the bank's cycle names, the editor's template choices, the lint's input lists and
  * the unknown-template message all come from this list, so nothing else is kept by hand.
  *
  * Each entry's short label is its title without the word "cycle" and the parenthetical
  * ("Otto cycle (air-standard spark ignition)" → "Otto"), unless the template states a label.
  * Pure: no web, database, queue or Node imports.
  */
-import { RANKINE_TEMPLATES } from './steam/rankine-template.ts'
+import { COMBINED_TEMPLATES } from './combined/combined-template.ts'
+import { CALORIMETER_TEMPLATE } from './steam/calorimeter.ts'
+import { RANKINE_TEMPLATES, STEAM_PLANT_TEMPLATES } from './steam/rankine-template.ts'
+import type { PlantTemplateInput } from './steam/rankine-template.ts'
+import { STEAM_CARNOT_TEMPLATE } from './steam/steam-cycle.ts'
 import { templates } from './templates/index.ts'
 import type { TemplateInput } from './templates/types.ts'
 
-export type TemplateFamily = 'ideal-gas' | 'steam'
+export type TemplateFamily = 'ideal-gas' | 'steam' | 'combined'
 
 export interface CatalogEntry {
   readonly id: string
@@ -22,14 +26,21 @@ export interface CatalogEntry {
   /** a short name for tables and filters */
   readonly label: string
   readonly description: string
-  readonly inputs: readonly TemplateInput[]
+  readonly inputs: readonly (TemplateInput | PlantTemplateInput)[]
+  /**
+   * Whether bank problems may use it: its result is one the authoring layer keys, explains and
+   * draws, and the editor can show its inputs (app/lib/problem-schema.ts lists these ids for
+   * the browser; problem-schema.test.ts checks the two agree). The others solve in spec files
+   * and `npm run solve` only, for now.
+   */
+  readonly bank: boolean
 }
 
 interface Described {
   readonly id: string
   readonly title: string
   readonly description: string
-  readonly inputs: readonly TemplateInput[]
+  readonly inputs: readonly (TemplateInput | PlantTemplateInput)[]
   readonly label?: string
 }
 
@@ -39,11 +50,24 @@ export function shortLabel(title: string): string {
   return bare === '' ? title : bare.charAt(0).toUpperCase() + bare.slice(1)
 }
 
-function entries(family: TemplateFamily, list: readonly Described[]): CatalogEntry[] {
-  return list.map((t) => ({ id: t.id, family, title: t.title, label: t.label ?? shortLabel(t.title), description: t.description, inputs: t.inputs }))
+function entries(family: TemplateFamily, list: readonly Described[], bank: boolean): CatalogEntry[] {
+  return list.map((t) => ({ id: t.id, family, title: t.title, label: t.label ?? shortLabel(t.title), description: t.description, inputs: t.inputs, bank }))
 }
 
-export const TEMPLATE_CATALOG: readonly CatalogEntry[] = [...entries('ideal-gas', Object.values(templates)), ...entries('steam', RANKINE_TEMPLATES)]
+export const TEMPLATE_CATALOG: readonly CatalogEntry[] = [
+  ...entries('ideal-gas', Object.values(templates), true),
+  ...entries('steam', RANKINE_TEMPLATES, true),
+  // A heater list, a calorimeter, water in the general cycle format and the combined cycle
+  // have results or inputs the editor and the authoring layer do not handle yet.
+  ...entries('steam', STEAM_PLANT_TEMPLATES, false),
+  ...entries('steam', [CALORIMETER_TEMPLATE, STEAM_CARNOT_TEMPLATE], false),
+  ...entries('combined', COMBINED_TEMPLATES, false),
+]
+
+/** The templates bank problems may use (see CatalogEntry.bank). */
+export function bankTemplateIds(): string[] {
+  return TEMPLATE_CATALOG.filter((e) => e.bank).map((e) => e.id)
+}
 
 const BY_ID = new Map(TEMPLATE_CATALOG.map((e) => [e.id, e]))
 
@@ -65,7 +89,7 @@ export const GENERAL_CYCLE = { id: 'general', label: 'General cycle' } as const
 
 /** Every cycle a bank problem can be about, as [id, label] in the order the filters list them. */
 export function cycleChoices(): [string, string][] {
-  return [...TEMPLATE_CATALOG.map((e): [string, string] => [e.id, e.label]), [GENERAL_CYCLE.id, GENERAL_CYCLE.label]]
+  return [...TEMPLATE_CATALOG.filter((e) => e.bank).map((e): [string, string] => [e.id, e.label]), [GENERAL_CYCLE.id, GENERAL_CYCLE.label]]
 }
 
 /** The label of a bank problem's cycle; an id no longer offered is shown as it is. */

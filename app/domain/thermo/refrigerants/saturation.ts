@@ -68,8 +68,8 @@ function solve(m: Model, T: number, dL: number, dV: number, dc: number): SatDens
     const f1 = JV - JL, f2 = KV - KL
     const det = JVd * KLd - JLd * KVd
     if (!Number.isFinite(det) || det === 0) return null
-    let stepL = (f2 * JVd - f1 * KVd) / det
-    let stepV = (f2 * JLd - f1 * KLd) / det
+    const stepL = (f2 * JVd - f1 * KVd) / det
+    const stepV = (f2 * JLd - f1 * KLd) / det
     // keep both densities positive and on their own side of the critical density
     let lam = 1
     for (let k = 0; k < 40; k++) {
