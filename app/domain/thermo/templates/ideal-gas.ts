@@ -70,6 +70,7 @@ const diesel = defineTemplate({
     const rc = v.num.cutoffRatio
     const q = v.heat.heatIn
     if ([rc, v.num.T3, q].filter((x) => x !== undefined).length !== 1) return bad('give exactly one of cutoffRatio, T3 or heatIn', 'cutoffRatio')
+    if (rc !== undefined && !(rc < r)) return bad(`cutoffRatio must be below the compression ratio ${r}: heat addition ends at V3 = rc·V2, which must stay below V1 = r·V2 (got rc = ${rc})`, 'cutoffRatio')
     const steps: StepSpec[] = [
       { process: 'isentropic', volumeRatio: 1 / r, label: 'compression' },
       { process: 'isobaric', volumeRatio: rc, expectHeat: 'in', label: 'heat addition', ...q },
@@ -103,6 +104,7 @@ const dual = defineTemplate({
     if ((rc === undefined) === (T4 === undefined)) return bad('give exactly one of cutoffRatio or T4', 'cutoffRatio')
     if (rp !== undefined && !(rp >= 1)) return bad('pressureRatio must be at least 1', 'pressureRatio')
     if (rc !== undefined && !(rc >= 1)) return bad('cutoffRatio must be at least 1', 'cutoffRatio')
+    if (rc !== undefined && !(rc < v.num.compressionRatio!)) return bad(`cutoffRatio must be below the compression ratio ${v.num.compressionRatio}: heat addition ends at V4 = rc·V3, which must stay below V1 = r·V3 (got rc = ${rc})`, 'cutoffRatio')
     const r = v.num.compressionRatio!
     const steps: StepSpec[] = [
       { process: 'isentropic', volumeRatio: 1 / r, label: 'compression' },
