@@ -15,6 +15,7 @@ import type { FormattedSolution } from './format.ts'
 import type { Slips } from './slips.ts'
 import { parseCycleSpec } from './spec.ts'
 import { isRankineTemplate, solveRankineTemplate, templates } from './templates/index.ts'
+import { templateIds } from './catalog.ts'
 import type { FormattedRankine } from './steam/rankine-template.ts'
 import { isCombinedTemplate, solveCombinedTemplate } from './combined/combined-template.ts'
 import type { FormattedCombined } from './combined/combined-template.ts'
@@ -43,7 +44,7 @@ export function solveSpecNumeric(raw: unknown, slips: Slips = {}): CycleResult |
     const r = raw as Record<string, unknown>
     if (r.template !== undefined) {
       const t = typeof r.template === 'string' ? templates[r.template] : undefined
-      if (!t) return { ok: false, error: { code: 'invalid-spec', message: `unknown template "${String(r.template)}": use one of ${Object.keys(templates).join(', ')}`, property: 'template' } }
+      if (!t) return { ok: false, error: { code: 'invalid-spec', message: `unknown template "${String(r.template)}": use one of ${templateIds().join(', ')}`, property: 'template' } }
       const inputs = r.inputs ?? {}
       if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs)) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
       return t.solve(inputs as Record<string, unknown>, { slips })
