@@ -10,6 +10,7 @@
  * Pure: no web, database, queue or Node imports.
  */
 import { COMBINED_TEMPLATES } from './combined/combined-template.ts'
+import { REFRIGERATION_TEMPLATES } from './refrigerants/refrigeration-template.ts'
 import { CALORIMETER_TEMPLATE } from './steam/calorimeter.ts'
 import { RANKINE_TEMPLATES, STEAM_PLANT_TEMPLATES } from './steam/rankine-template.ts'
 import type { PlantTemplateInput } from './steam/rankine-template.ts'
@@ -17,7 +18,7 @@ import { STEAM_CARNOT_TEMPLATE } from './steam/steam-cycle.ts'
 import { templates } from './templates/index.ts'
 import type { TemplateInput } from './templates/types.ts'
 
-export type TemplateFamily = 'ideal-gas' | 'steam' | 'combined'
+export type TemplateFamily = 'ideal-gas' | 'steam' | 'combined' | 'refrigeration'
 
 export interface CatalogEntry {
   readonly id: string
@@ -62,6 +63,7 @@ export const TEMPLATE_CATALOG: readonly CatalogEntry[] = [
   ...entries('steam', STEAM_PLANT_TEMPLATES, false),
   ...entries('steam', [CALORIMETER_TEMPLATE, STEAM_CARNOT_TEMPLATE], false),
   ...entries('combined', COMBINED_TEMPLATES, false),
+  ...entries('refrigeration', REFRIGERATION_TEMPLATES, false),
 ]
 
 /** The templates bank problems may use (see CatalogEntry.bank). */

@@ -19,13 +19,15 @@ import { templateIds } from './catalog.ts'
 import type { FormattedRankine } from './steam/rankine-template.ts'
 import { isCombinedTemplate, solveCombinedTemplate } from './combined/combined-template.ts'
 import type { FormattedCombined } from './combined/combined-template.ts'
+import { isRefrigerationTemplate, solveRefrigerationTemplate } from './refrigerants/refrigeration-template.ts'
+import type { FormattedRefrigeration } from './refrigerants/refrigeration-template.ts'
 import { isCalorimeterTemplate, solveCalorimeterSpec } from './steam/calorimeter.ts'
 import type { FormattedCalorimeter } from './steam/calorimeter.ts'
 import { STEAM_CARNOT_TEMPLATE, solveSteamCycleSpec } from './steam/steam-cycle.ts'
 import type { FormattedSteamCycle } from './steam/steam-cycle.ts'
 
 /** Every solution a spec file can give (the bank uses the first two: BankSolution). */
-export type AnySolution = FormattedSolution | FormattedRankine | FormattedCombined | FormattedCalorimeter | FormattedSteamCycle
+export type AnySolution = FormattedSolution | FormattedRankine | FormattedCombined | FormattedCalorimeter | FormattedSteamCycle | FormattedRefrigeration
 
 export interface SpecFailure {
   readonly ok: false
@@ -78,6 +80,7 @@ export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): AnySolu
   const t = (raw as { template?: unknown } | null)?.template
   // The combined gas–steam cycle (./combined) formats its own result too.
   if (isCombinedTemplate(t)) return solveCombinedTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
+  if (isRefrigerationTemplate(t)) return solveRefrigerationTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
   // Water in the general cycle format ({ "steamCycle": … } or the vapour Carnot template) and the
   // throttling calorimeter (./steam) read their own spec and convention.
   const withConvention = { ...(raw as object), convention: conv }
@@ -113,6 +116,7 @@ export type BankSolution = FormattedSolution | FormattedRankine
  */
 function isBankSolution(r: AnySolution): r is BankSolution {
   if ('gasStates' in r) return false // combined cycle
+  if ('template' in r && r.template === 'vapour-compression') return false
   if ('template' in r && r.template === 'steam-throttling-calorimeter') return false
   if ('steps' in r && 'substance' in r) return false // water in the general cycle format (ideal-gas results name a gas, not a substance)
   return true
