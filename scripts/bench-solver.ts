@@ -140,3 +140,27 @@ for (const id of REFRIGERANT_IDS) {
   if (bad > 0) { console.log(`${id}: ${bad} calls failed`); process.exitCode = 1 }
 }
 if (okCount !== all.length) process.exitCode = 1
+
+// Vapour-compression cycles (four refrigerant states each, two of them by (p, s) and (p, h)).
+{
+  const { solveVapourCompression } = await import('#app/domain/thermo/refrigerants/vapour-compression.ts')
+  console.log('\nvapour-compression cycles:')
+  const cases = [
+    ['R134a', { evaporator: { T: 263.15 }, condenser: { T: 313.15 } }],
+    ['R1234yf', { evaporator: { T: 268.15 }, condenser: { T: 318.15 } }],
+    ['R717', { evaporator: { T: 253.15 }, condenser: { T: 303.15 } }],
+    ['R744', { evaporator: { T: 268.15 }, gasCooler: { p: 10e6, exitT: 308.15 } }],
+  ] as const
+  for (const [id, c] of cases) {
+    const N = 200
+    let failed = 0
+    const t = performance.now()
+    for (let i = 0; i < N; i++) {
+      const r = solveVapourCompression({ refrigerant: REFRIGERANTS[id], purpose: 'refrigerator', ...c, superheat: 2 + (i % 5), compressorEfficiency: 0.75 + (i % 20) / 100 })
+      if (!r.ok) failed++
+    }
+    const s = (performance.now() - t) / 1000
+    console.log(`${id.padEnd(10)} ${Math.round(N / s).toLocaleString('en')} cycles/s (${((s * 1e3) / N).toFixed(2)} ms each)${failed ? `, ${failed} failed` : ''}`)
+    if (failed) process.exitCode = 1
+  }
+}
