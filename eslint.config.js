@@ -16,10 +16,16 @@ const DOMAIN_FORBIDDEN = {
     { name: 'zod', message: 'app/domain is pure: parsing with zod happens at the edges (app/lib, app/server).' },
   ],
   patterns: [
-    { group: ['react/*', 'react-dom/*', 'react-router/*', 'drizzle-orm/*', '@react-router/*'], message: 'app/domain is pure: no web or database packages.' },
+    {
+      group: ['react/*', 'react-dom/*', 'react-router/*', 'drizzle-orm/*', '@react-router/*'],
+      message: 'app/domain is pure: no web or database packages.',
+    },
     { group: ['node:*'], message: 'app/domain is pure: no Node built-ins.' },
     // (a regex: in the gitignore-style groups a leading # starts a comment)
-    { regex: '^#(app/(server|routes|components|lib)|jobs|seed|scripts|tests)/', message: 'app/domain imports only app/domain.' },
+    {
+      regex: '^#(app/(server|routes|components|lib)|jobs|seed|scripts|tests)/',
+      message: 'app/domain imports only app/domain.',
+    },
   ],
 }
 
@@ -41,10 +47,31 @@ export default tseslint.config(
       // The app refuses control characters in what people type, on purpose: its patterns name them.
       'no-control-regex': 'off',
       // Unused names are mistakes; a leading underscore marks one left on purpose.
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_', destructuredArrayIgnorePattern: '^_' }],
-      '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports', disallowTypeAnnotations: false }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        {
+          argsIgnorePattern: '^_',
+          varsIgnorePattern: '^_',
+          caughtErrorsIgnorePattern: '^_',
+          destructuredArrayIgnorePattern: '^_',
+        },
+      ],
+      '@typescript-eslint/consistent-type-imports': [
+        'error',
+        { fixStyle: 'inline-type-imports', disallowTypeAnnotations: false },
+      ],
       // Code is reached through the #app/*, #tests/* … map; only documents (docs/) by a path.
-      'no-restricted-imports': ['error', { patterns: [{ regex: '^(\\.\\./){2,}(?!(\\.\\./)*docs/)', message: 'Import through the #app/*, #tests/* … map instead of ../../.' }] }],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              regex: '^(\\.\\./){2,}(?!(\\.\\./)*docs/)',
+              message: 'Import through the #app/*, #tests/* … map instead of ../../.',
+            },
+          ],
+        },
+      ],
     },
   },
   {
@@ -52,8 +79,14 @@ export default tseslint.config(
     ignores: ['app/domain/**/*.test.ts'],
     rules: {
       'no-restricted-imports': ['error', DOMAIN_FORBIDDEN],
-      'no-restricted-globals': ['error', { name: 'process', message: 'app/domain is pure: no environment (pass values in).' }],
-      'no-restricted-syntax': ['error', { selector: 'ImportExpression', message: 'app/domain is pure: no dynamic imports.' }],
+      'no-restricted-globals': [
+        'error',
+        { name: 'process', message: 'app/domain is pure: no environment (pass values in).' },
+      ],
+      'no-restricted-syntax': [
+        'error',
+        { selector: 'ImportExpression', message: 'app/domain is pure: no dynamic imports.' },
+      ],
     },
   },
   {
@@ -66,7 +99,12 @@ export default tseslint.config(
             { name: 'react', message: 'Background jobs render no pages.' },
             { name: 'react-router', message: 'Background jobs are not routes.' },
           ],
-          patterns: [{ regex: '^#app/(routes|components)/', message: 'Background jobs use app/server and app/domain, never pages or components.' }],
+          patterns: [
+            {
+              regex: '^#app/(routes|components)/',
+              message: 'Background jobs use app/server and app/domain, never pages or components.',
+            },
+          ],
         },
       ],
     },

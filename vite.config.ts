@@ -16,7 +16,13 @@ export default defineConfig({
         test: {
           name: 'unit',
           environment: 'node',
-          include: ['app/**/*.test.{ts,tsx}', 'jobs/**/*.test.ts', 'seed/**/*.test.ts', 'scripts/**/*.test.ts', 'tests/reference/**/*.test.ts'],
+          include: [
+            'app/**/*.test.{ts,tsx}',
+            'jobs/**/*.test.ts',
+            'seed/**/*.test.ts',
+            'scripts/**/*.test.ts',
+            'tests/reference/**/*.test.ts',
+          ],
           testTimeout: 60_000,
         },
       },

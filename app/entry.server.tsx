@@ -14,7 +14,13 @@ import { isDatabaseUnavailable } from './server/db/unavailable.server.ts'
 
 export const streamTimeout = 5_000
 
-export default function handleRequest(request: Request, status: number, headers: Headers, context: EntryContext, loadContext?: AppLoadContext) {
+export default function handleRequest(
+  request: Request,
+  status: number,
+  headers: Headers,
+  context: EntryContext,
+  loadContext?: AppLoadContext,
+) {
   const nonce = loadContext?.cspNonce
   return new Promise<Response>((resolve, reject) => {
     let shellRendered = false

@@ -55,7 +55,10 @@ function Shell({ children }: { children: React.ReactNode }) {
   const items = navFor(user)
   return (
     <div className="flex min-h-screen flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:px-3 focus:py-2">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:px-3 focus:py-2"
+      >
         Skip to content
       </a>
       <header className="border-b border-line bg-white">
@@ -84,7 +87,10 @@ function Shell({ children }: { children: React.ReactNode }) {
                 {user.name}
               </span>
               <Form method="post" action="/sign-out">
-                <button type="submit" className="min-h-11 rounded-md border border-line px-3 py-1.5 hover:bg-paper sm:min-h-0">
+                <button
+                  type="submit"
+                  className="min-h-11 rounded-md border border-line px-3 py-1.5 hover:bg-paper sm:min-h-0"
+                >
                   Sign out
                 </button>
               </Form>
@@ -96,8 +102,8 @@ function Shell({ children }: { children: React.ReactNode }) {
         {children}
       </main>
       <footer className="border-t border-line py-4 text-center text-xs text-muted">
-        Cyclewright is a teaching tool. Its numbers are for learning thermodynamics, not design data; for real plant follow the
-        applicable codes and licensed engineering practice.
+        Cyclewright is a teaching tool. Its numbers are for learning thermodynamics, not design data; for real plant
+        follow the applicable codes and licensed engineering practice.
       </footer>
     </div>
   )

@@ -30,7 +30,12 @@ export const PURGE_CRON = '17 * * * *'
  * and pg-boss moves it to the dead-letter queue.
  */
 async function failForGood(boss: PgBoss, job: PgBoss.Job<unknown>) {
-  await boss.getDb().executeSql(`update ${PGBOSS_SCHEMA}.job set retry_limit = retry_count where name = $1 and id = $2`, [job.name, job.id])
+  await boss
+    .getDb()
+    .executeSql(`update ${PGBOSS_SCHEMA}.job set retry_limit = retry_count where name = $1 and id = $2`, [
+      job.name,
+      job.id,
+    ])
 }
 
 export type WorkerOptions = {
@@ -87,11 +92,16 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
         const { valid, invalid } = splitGradeJobs(jobs)
         if (valid.length === 0) return invalid
         try {
-          const outcomes = await gradeSubmissions(database, valid.map((v) => v.submissionId))
+          const outcomes = await gradeSubmissions(
+            database,
+            valid.map((v) => v.submissionId),
+          )
           // A submission another transaction holds is run again on its own (and retried if still held).
           return [...invalid, ...valid.filter((v) => outcomes.get(v.submissionId) === 'busy').map((v) => v.job)]
         } catch (e) {
-          logError(`Grading a batch of ${valid.length} failed (${e instanceof Error ? e.message : String(e)}); grading them one by one.`)
+          logError(
+            `Grading a batch of ${valid.length} failed (${e instanceof Error ? e.message : String(e)}); grading them one by one.`,
+          )
           return jobs
         }
       },
@@ -116,21 +126,27 @@ export async function startWorker(opts: WorkerOptions = {}): Promise<RunningWork
     } catch (e) {
       const permanent = e instanceof PermanentJobError
       const message = e instanceof Error ? e.message : String(e)
-      logError(`Job ${job.name} ${job.id} failed${permanent ? ' for good' : ` (attempt ${attempt.number} of ${attempt.of})`}: ${message}`)
+      logError(
+        `Job ${job.name} ${job.id} failed${permanent ? ' for good' : ` (attempt ${attempt.number} of ${attempt.of})`}: ${message}`,
+      )
       if (permanent) await failForGood(boss, job)
       await boss.fail(job.name, job.id, { message })
     }
   }
   for (const q of queues) {
     for (let loop = 0; loop < q.loops; loop++) {
-      await boss.work<unknown>(q.name, { batchSize: q.batchSize, includeMetadata: true, pollingIntervalSeconds: 0.5 }, async (fetched) => {
-        const jobs = q.handleBatch ? await q.handleBatch(fetched) : fetched
-        let next = 0
-        const lane = async () => {
-          while (next < jobs.length) await runOne(q.handle, jobs[next++]!)
-        }
-        await Promise.all(Array.from({ length: Math.min(q.concurrency, jobs.length) }, lane))
-      })
+      await boss.work<unknown>(
+        q.name,
+        { batchSize: q.batchSize, includeMetadata: true, pollingIntervalSeconds: 0.5 },
+        async (fetched) => {
+          const jobs = q.handleBatch ? await q.handleBatch(fetched) : fetched
+          let next = 0
+          const lane = async () => {
+            while (next < jobs.length) await runOne(q.handle, jobs[next++]!)
+          }
+          await Promise.all(Array.from({ length: Math.min(q.concurrency, jobs.length) }, lane))
+        },
+      )
     }
   }
   // Hourly clean-up of expired sessions and old sign-in attempts. pg-boss keeps one schedule

@@ -71,7 +71,10 @@ const problem = (title: string): ProblemDefinition => {
   if (!p) throw new Error(`The demo bank has no problem "${title}"`)
   return p.definition
 }
-const definitions = [problem('Air-standard Otto cycle'), problem('Gas-turbine (Brayton) cycle with component efficiencies')]
+const definitions = [
+  problem('Air-standard Otto cycle'),
+  problem('Gas-turbine (Brayton) cycle with component efficiencies'),
+]
 
 /** A small deterministic generator (the bench's answers are the same every run). */
 function lcg(seed: number) {
@@ -123,7 +126,12 @@ async function main() {
     const now = Date.now()
     const made = await createCourseWithAssignment(db(), definitions, {
       students: STUDENTS,
-      assignment: { title: 'Grading bench', attemptsPerFind: 100, opensAt: new Date(now - 3600_000), dueAt: new Date(now + 7 * 24 * 3600_000) },
+      assignment: {
+        title: 'Grading bench',
+        attemptsPerFind: 100,
+        opensAt: new Date(now - 3600_000),
+        dueAt: new Date(now + 7 * 24 * 3600_000),
+      },
     })
     // The answers' keys are drawn here without studentVariant, so the worker's variant
     // cache starts cold, as in a worker that has not seen these students yet.
@@ -140,17 +148,32 @@ async function main() {
     for (const s of made.students) {
       for (const item of made.items) {
         const def = definitions[item.position - 1]!
-        const drawn = drawVariant(def, studentSeed(made.assignment.id, item.problemId, s.id), { convention: resolveConvention(def, made.course.signConvention) })
+        const drawn = drawVariant(def, studentSeed(made.assignment.id, item.problemId, s.id), {
+          convention: resolveConvention(def, made.course.signConvention),
+        })
         if (!drawn.ok) throw new Error(`A bench variant could not be drawn: ${drawn.error.message}`)
-        const shares = findShares(item.points, def.finds.map((f) => f.points))
+        const shares = findShares(
+          item.points,
+          def.finds.map((f) => f.points),
+        )
         const finds = def.finds.map((f, i) => {
           const k = drawn.variant.key.find((e) => e.name === f.name)!
           return { name: f.name, value: k.value, unit: k.unit, pitfalls: f.pitfalls, share: shares[i]! }
         })
-        pairs.push({ userId: s.id, itemId: item.id, position: item.position, finds, hard: (s.id * 7 + item.position) % finds.length, sentCorrect: new Set(), attempts: new Map() })
+        pairs.push({
+          userId: s.id,
+          itemId: item.id,
+          position: item.position,
+          finds,
+          hard: (s.id * 7 + item.position) % finds.length,
+          sentCorrect: new Set(),
+          attempts: new Map(),
+        })
       }
     }
-    console.log(`Set up ${STUDENTS} students × ${made.items.length} problems in ${((performance.now() - setUpStart) / 1000).toFixed(1)} s.`)
+    console.log(
+      `Set up ${STUDENTS} students × ${made.items.length} problems in ${((performance.now() - setUpStart) / 1000).toFixed(1)} s.`,
+    )
 
     const rand = lcg(20261202)
     /**
@@ -179,7 +202,13 @@ async function main() {
     const refused: string[] = []
     const submitOne = async (): Promise<number | null> => {
       const pair = nextPair()
-      const r = await submitAnswers(db(), { courseId: made.course.id, assignmentId: made.assignment.id, position: pair.position, userId: pair.userId, answers: answersFor(pair) })
+      const r = await submitAnswers(db(), {
+        courseId: made.course.id,
+        assignmentId: made.assignment.id,
+        position: pair.position,
+        userId: pair.userId,
+        answers: answersFor(pair),
+      })
       if (r.ok) return r.receipt.submissionId
       refused.push(r.formError)
       return null
@@ -207,7 +236,10 @@ async function main() {
       if (presses.length === 0) return []
       return withJobTransaction(db(), async (tx, jobs) => {
         const subValues = sql.join(
-          presses.map((p) => sql`(${made.assignment.id}::int, ${p.pair.itemId}::int, ${p.pair.userId}::int, ${JSON.stringify(p.answers)}::jsonb, clock_timestamp())`),
+          presses.map(
+            (p) =>
+              sql`(${made.assignment.id}::int, ${p.pair.itemId}::int, ${p.pair.userId}::int, ${JSON.stringify(p.answers)}::jsonb, clock_timestamp())`,
+          ),
           sql`, `,
         )
         const inserted = await tx.execute<{ id: number }>(
@@ -216,13 +248,21 @@ async function main() {
         const ids = inserted.rows.map((r) => r.id)
         const partValues = sql.join(
           presses.flatMap((p, i) =>
-            p.parts.map((part) => sql`(${ids[i]}::int, ${made.assignment.id}::int, ${p.pair.itemId}::int, ${p.pair.userId}::int, ${part.findName}::text, ${part.answer}::text, ${part.attempt}::int, ${part.maxScore}::float8)`),
+            p.parts.map(
+              (part) =>
+                sql`(${ids[i]}::int, ${made.assignment.id}::int, ${p.pair.itemId}::int, ${p.pair.userId}::int, ${part.findName}::text, ${part.answer}::text, ${part.attempt}::int, ${part.maxScore}::float8)`,
+            ),
           ),
           sql`, `,
         )
-        await tx.execute(sql`insert into part_results (submission_id, assignment_id, item_id, user_id, find_name, answer, attempt, max_score) values ${partValues}`)
+        await tx.execute(
+          sql`insert into part_results (submission_id, assignment_id, item_id, user_id, find_name, answer, attempt, max_score) values ${partValues}`,
+        )
         const boss = await getBoss()
-        await boss.insert(ids.map((id) => ({ name: 'grade-submission', data: { v: 1, submissionId: id } })), { db: jobs } as never)
+        await boss.insert(
+          ids.map((id) => ({ name: 'grade-submission', data: { v: 1, submissionId: id } })),
+          { db: jobs } as never,
+        )
         return ids
       })
     }
@@ -234,7 +274,9 @@ async function main() {
       let stored = 0
       let behind = 0
       while (stored < count && !interrupted && performance.now() - t0 < BUDGET_MS) {
-        const due = Number.isFinite(rate) ? Math.min(count, Math.floor(((performance.now() - t0) / 1000) * rate)) : count
+        const due = Number.isFinite(rate)
+          ? Math.min(count, Math.floor(((performance.now() - t0) / 1000) * rate))
+          : count
         const take = Math.min(due - stored, 500)
         if (take <= 0) {
           await sleep(50 - ((performance.now() - t0) % 50))
@@ -292,10 +334,15 @@ async function main() {
       const hi = Math.max(...ids)
       const end = performance.now() + limitMs
       for (;;) {
-        const r = await db().execute<{ queued: number }>(sql`select count(*)::int as queued from submissions where id between ${lo} and ${hi} and status = 'queued'`)
+        const r = await db().execute<{ queued: number }>(
+          sql`select count(*)::int as queued from submissions where id between ${lo} and ${hi} and status = 'queued'`,
+        )
         if (r.rows[0]!.queued === 0) return
         if (interrupted) throw new Error('Interrupted')
-        if (performance.now() > end) throw new Error(`${r.rows[0]!.queued} submissions were still waiting for the grader after ${limitMs / 1000} s`)
+        if (performance.now() > end)
+          throw new Error(
+            `${r.rows[0]!.queued} submissions were still waiting for the grader after ${limitMs / 1000} s`,
+          )
         await sleep(100)
       }
     }
@@ -313,7 +360,8 @@ async function main() {
     type Running = Awaited<ReturnType<typeof startWorker>>
     const startWorkers = async () => {
       const list: Running[] = []
-      for (let i = 0; i < WORKERS; i++) list.push(await startWorker({ databaseUrl: url, log: () => {}, logError: (l) => workerErrors.push(l) }))
+      for (let i = 0; i < WORKERS; i++)
+        list.push(await startWorker({ databaseUrl: url, log: () => {}, logError: (l) => workerErrors.push(l) }))
       return list
     }
     const stopWorkers = async (list: Running[]) => {
@@ -323,7 +371,9 @@ async function main() {
     cleanups.unshift(() => stopWorkers(workers))
 
     // ---- steady load -------------------------------------------------------------------
-    console.log(`Steady: ${N.toLocaleString('en')} submissions arriving at ${RATE}/s for ${WORKERS} worker${WORKERS === 1 ? '' : 's'}…`)
+    console.log(
+      `Steady: ${N.toLocaleString('en')} submissions arriving at ${RATE}/s for ${WORKERS} worker${WORKERS === 1 ? '' : 's'}…`,
+    )
     const steady = await arrive(N, RATE)
     await waitGraded(steady.ids, 120_000)
     const times = await readTimes(steady.ids)
@@ -348,7 +398,11 @@ async function main() {
       const bt = await readTimes(queued.ids)
       const firstGraded = Math.min(...bt.map((t) => t.graded))
       const lastBurst = Math.max(...bt.map((t) => t.graded))
-      burst = { queued: queued.ids.length, queueSeconds: queued.seconds, perSecond: (bt.length - 1) / ((lastBurst - firstGraded) / 1000) }
+      burst = {
+        queued: queued.ids.length,
+        queueSeconds: queued.seconds,
+        perSecond: (bt.length - 1) / ((lastBurst - firstGraded) / 1000),
+      }
     }
 
     // ---- the form's submit path ----------------------------------------------------------
@@ -359,28 +413,59 @@ async function main() {
       await waitGraded(pressed.ids, 120_000)
       const pt = await readTimes(pressed.ids)
       const lat = pt.map((t) => t.graded - t.submitted).sort((a, b) => a - b)
-      submitPath = { stored: pressed.ids.length, perSecond: pressed.ids.length / pressed.seconds, p50: percentile(lat, 50), p99: percentile(lat, 99) }
+      submitPath = {
+        stored: pressed.ids.length,
+        perSecond: pressed.ids.length / pressed.seconds,
+        p50: percentile(lat, 50),
+        p99: percentile(lat, 99),
+      }
     }
 
     const s = (ms: number) => `${(ms / 1000).toFixed(3)} s`
     const pass = gradedPerSecond >= TARGET_PER_SECOND && p99 <= TARGET_P99_MS
     console.log('')
     console.log('Cyclewright grading benchmark')
-    console.log(`machine          ${os.cpus().length} CPUs (${os.cpus()[0]?.model ?? 'unknown'}), node ${process.version}, ${os.platform()} ${os.release()}; load average ${os.loadavg().map((l) => l.toFixed(1)).join(' ')} (other work on the machine skews every figure)`)
-    console.log(`set-up           ${STUDENTS} students × 2 problems (Otto, Brayton), ${WORKERS} in-process worker${WORKERS === 1 ? '' : 's'} with default fetch loops`)
-    if (steady.started < N) console.log(`note             only ${steady.started.toLocaleString('en')} of ${N.toLocaleString('en')} arrived within --max-seconds ${BUDGET_MS / 1000}: queueing could not keep up with ${RATE}/s`)
-    console.log(`steady           ${steady.ids.length.toLocaleString('en')} submissions arriving at ${RATE}/s, queued in ${steady.seconds.toFixed(1)} s = ${(steady.ids.length / steady.seconds).toFixed(0)}/s${steady.lateStarts > 0 ? ` (${steady.lateStarts} batches > 250 ms behind schedule)` : ''}`)
+    console.log(
+      `machine          ${os.cpus().length} CPUs (${os.cpus()[0]?.model ?? 'unknown'}), node ${process.version}, ${os.platform()} ${os.release()}; load average ${os
+        .loadavg()
+        .map((l) => l.toFixed(1))
+        .join(' ')} (other work on the machine skews every figure)`,
+    )
+    console.log(
+      `set-up           ${STUDENTS} students × 2 problems (Otto, Brayton), ${WORKERS} in-process worker${WORKERS === 1 ? '' : 's'} with default fetch loops`,
+    )
+    if (steady.started < N)
+      console.log(
+        `note             only ${steady.started.toLocaleString('en')} of ${N.toLocaleString('en')} arrived within --max-seconds ${BUDGET_MS / 1000}: queueing could not keep up with ${RATE}/s`,
+      )
+    console.log(
+      `steady           ${steady.ids.length.toLocaleString('en')} submissions arriving at ${RATE}/s, queued in ${steady.seconds.toFixed(1)} s = ${(steady.ids.length / steady.seconds).toFixed(0)}/s${steady.lateStarts > 0 ? ` (${steady.lateStarts} batches > 250 ms behind schedule)` : ''}`,
+    )
     console.log(`graded/s         ${gradedPerSecond.toFixed(0)}  (first submitted → last graded)`)
     console.log(`latency          p50 ${s(p50)}   p90 ${s(p90)}   p99 ${s(p99)}   max ${s(max)}`)
-    if (burst) console.log(`burst            ${burst.queued.toLocaleString('en')} queued in ${burst.queueSeconds.toFixed(1)} s (${(burst.queued / burst.queueSeconds).toFixed(0)}/s), drained at ${burst.perSecond.toFixed(0)} graded/s`)
-    if (submitPath) console.log(`submit path      ${submitPath.stored.toLocaleString('en')} presses through submitAnswers in this one process: ${submitPath.perSecond.toFixed(0)} stored/s; submit → graded p50 ${s(submitPath.p50)}, p99 ${s(submitPath.p99)} (no target: web processes scale out)`)
-    if (refused.length > 0) console.log(`refused          ${refused.length} presses stored nothing (first: ${refused[0]})`)
-    if (failed > 0 || workerErrors.length > 0) console.log(`problems         ${failed} submissions failed to grade; ${workerErrors.length} worker errors${workerErrors[0] ? ` (first: ${workerErrors[0]})` : ''}`)
-    console.log(`targets          ≥ ${TARGET_PER_SECOND} graded/s: ${gradedPerSecond >= TARGET_PER_SECOND ? 'met' : 'missed'}; p99 ≤ ${s(TARGET_P99_MS)}: ${p99 <= TARGET_P99_MS ? 'met' : 'missed'}`)
+    if (burst)
+      console.log(
+        `burst            ${burst.queued.toLocaleString('en')} queued in ${burst.queueSeconds.toFixed(1)} s (${(burst.queued / burst.queueSeconds).toFixed(0)}/s), drained at ${burst.perSecond.toFixed(0)} graded/s`,
+      )
+    if (submitPath)
+      console.log(
+        `submit path      ${submitPath.stored.toLocaleString('en')} presses through submitAnswers in this one process: ${submitPath.perSecond.toFixed(0)} stored/s; submit → graded p50 ${s(submitPath.p50)}, p99 ${s(submitPath.p99)} (no target: web processes scale out)`,
+      )
+    if (refused.length > 0)
+      console.log(`refused          ${refused.length} presses stored nothing (first: ${refused[0]})`)
+    if (failed > 0 || workerErrors.length > 0)
+      console.log(
+        `problems         ${failed} submissions failed to grade; ${workerErrors.length} worker errors${workerErrors[0] ? ` (first: ${workerErrors[0]})` : ''}`,
+      )
+    console.log(
+      `targets          ≥ ${TARGET_PER_SECOND} graded/s: ${gradedPerSecond >= TARGET_PER_SECOND ? 'met' : 'missed'}; p99 ≤ ${s(TARGET_P99_MS)}: ${p99 <= TARGET_P99_MS ? 'met' : 'missed'}`,
+    )
     console.log(pass ? 'PASS' : 'FAIL')
   } finally {
     for (const c of cleanups) await c().catch((e) => console.error('Clean-up:', e instanceof Error ? e.message : e))
-    await dropDatabase(server, name).catch((e) => console.error(`Could not drop the bench database ${name}:`, e instanceof Error ? e.message : e))
+    await dropDatabase(server, name).catch((e) =>
+      console.error(`Could not drop the bench database ${name}:`, e instanceof Error ? e.message : e),
+    )
     process.off('SIGINT', onSignal)
   }
 }

@@ -33,14 +33,29 @@ const makers: Record<string, () => Variant> = {
     }
   },
   brayton: () => {
-    const num = { p1: u(90e3, 110e3), T1: u(280, 320), pressureRatio: u(5, 20), turbineInletT: u(1200, 1600), compressorEfficiency: u(0.8, 0.9), turbineEfficiency: u(0.85, 0.92) }
+    const num = {
+      p1: u(90e3, 110e3),
+      T1: u(280, 320),
+      pressureRatio: u(5, 20),
+      turbineInletT: u(1200, 1600),
+      compressorEfficiency: u(0.8, 0.9),
+      turbineEfficiency: u(0.85, 0.92),
+    }
     return () => {
       const b = templates.brayton!.build({ gas: air, num, heat: {}, labels: {} })
       return b.ok ? solveCycle(b.spec) : (b as CycleResult)
     }
   },
   'brayton-intercool-reheat': () => {
-    const num = { p1: u(90e3, 110e3), T1: u(280, 320), pressureRatio: u(6, 16), turbineInletT: u(1200, 1500), regeneratorEffectiveness: u(0.6, 0.9), compressorEfficiency: u(0.8, 0.9), turbineEfficiency: u(0.85, 0.92) }
+    const num = {
+      p1: u(90e3, 110e3),
+      T1: u(280, 320),
+      pressureRatio: u(6, 16),
+      turbineInletT: u(1200, 1500),
+      regeneratorEffectiveness: u(0.6, 0.9),
+      compressorEfficiency: u(0.8, 0.9),
+      turbineEfficiency: u(0.85, 0.92),
+    }
     return () => {
       const b = templates['brayton-intercool-reheat']!.build({ gas: air, num, heat: {}, labels: {} })
       return b.ok ? solveCycle(b.spec) : (b as CycleResult)
@@ -55,7 +70,13 @@ const makers: Record<string, () => Variant> = {
   },
   miller: () => {
     const rc = u(7, 10)
-    const num = { p1: u(80e3, 120e3), T1: u(280, 320), compressionRatio: rc, expansionRatio: rc * u(1.1, 1.3), T3: u(1800, 2400) }
+    const num = {
+      p1: u(80e3, 120e3),
+      T1: u(280, 320),
+      compressionRatio: rc,
+      expansionRatio: rc * u(1.1, 1.3),
+      T3: u(1800, 2400),
+    }
     return () => {
       const b = templates.miller!.build({ gas: air, num, heat: {}, labels: {} })
       return b.ok ? solveCycle(b.spec) : (b as CycleResult)
@@ -76,7 +97,12 @@ function check(r: CycleResult): boolean {
   const scale = Math.abs(t.qIn) + Math.abs(t.qOut) + 1
   let sumQ = 0
   for (const s of r.steps) sumQ += s.q
-  return Math.abs(sumQ + t.wNet) < 1e-9 * scale && Math.abs(t.duCycle) < 1e-9 * scale && Math.abs(t.dsCycle) < 1e-9 * scale && (t.efficiency ?? 0) <= t.carnotBound + 1e-12
+  return (
+    Math.abs(sumQ + t.wNet) < 1e-9 * scale &&
+    Math.abs(t.duCycle) < 1e-9 * scale &&
+    Math.abs(t.dsCycle) < 1e-9 * scale &&
+    (t.efficiency ?? 0) <= t.carnotBound + 1e-12
+  )
 }
 
 function median(xs: number[]): number {
@@ -103,7 +129,9 @@ for (const [name, make] of Object.entries(makers)) {
   // the target is for the usual four- or five-state cycles; multi-stage plants are reported only
   const many = MULTI_STAGE.has(name)
   if (!many) worst = Math.max(worst, m)
-  console.log(`${name.padEnd(24)} median ${m.toFixed(2)} µs per solved variant${many ? ' (ten states; outside the target)' : ''}`)
+  console.log(
+    `${name.padEnd(24)} median ${m.toFixed(2)} µs per solved variant${many ? ' (ten states; outside the target)' : ''}`,
+  )
 }
 
 const names = Object.keys(makers)
@@ -113,7 +141,9 @@ let okCount = 0
 for (const v of all) if (check(v())) okCount++
 const secs = (performance.now() - t0) / 1000
 const perSec = all.length / secs
-console.log(`\nvalidated ${all.length} random variants (solve + first-law, ΔS and Carnot checks): ${okCount} passed, ${Math.round(perSec).toLocaleString('en')} variants/s (${((secs * 1e6) / all.length).toFixed(2)} µs each)`)
+console.log(
+  `\nvalidated ${all.length} random variants (solve + first-law, ΔS and Carnot checks): ${okCount} passed, ${Math.round(perSec).toLocaleString('en')} variants/s (${((secs * 1e6) / all.length).toFixed(2)} µs each)`,
+)
 const met = worst <= TARGET_US
 console.log(`target ≤ ${TARGET_US} µs per variant: ${met ? 'MET' : 'NOT MET'} (slowest median ${worst.toFixed(2)} µs)`)
 
@@ -125,19 +155,33 @@ for (const id of REFRIGERANT_IDS) {
   const N = 2000
   const Ts = Array.from({ length: N }, () => u(f.Ttriple + 5, f.Tc - 5))
   const sats = Ts.map((T) => f.saturationT(T))
-  const tp = Ts.map((T, i) => { const s = sats[i]!; return [T + u(2, 30), s.ok ? s.value.p : f.pc / 2] as const })
+  const tp = Ts.map((T, i) => {
+    const s = sats[i]!
+    return [T + u(2, 30), s.ok ? s.value.p : f.pc / 2] as const
+  })
   let bad = 0
   const time = (label: string, fn: (i: number) => boolean) => {
     const t = performance.now()
     for (let i = 0; i < N; i++) if (!fn(i)) bad++
     const s = (performance.now() - t) / 1000
-    console.log(`${(id + ' ' + label).padEnd(24)} ${Math.round(N / s).toLocaleString('en')} calls/s (${((s * 1e6) / N).toFixed(1)} µs each)`)
+    console.log(
+      `${(id + ' ' + label).padEnd(24)} ${Math.round(N / s).toLocaleString('en')} calls/s (${((s * 1e6) / N).toFixed(1)} µs each)`,
+    )
   }
   const hs = tp.map(([T, p]) => f.stateTP(T, p))
   time('stateTP', (i) => f.stateTP(tp[i]![0], tp[i]![1]).ok)
-  time('statePH', (i) => { const s = hs[i]!; return s.ok && f.statePH(s.value.p, s.value.h).ok })
-  time('statePS', (i) => { const s = hs[i]!; return s.ok && f.statePS(s.value.p, s.value.s).ok })
-  if (bad > 0) { console.log(`${id}: ${bad} calls failed`); process.exitCode = 1 }
+  time('statePH', (i) => {
+    const s = hs[i]!
+    return s.ok && f.statePH(s.value.p, s.value.h).ok
+  })
+  time('statePS', (i) => {
+    const s = hs[i]!
+    return s.ok && f.statePS(s.value.p, s.value.s).ok
+  })
+  if (bad > 0) {
+    console.log(`${id}: ${bad} calls failed`)
+    process.exitCode = 1
+  }
 }
 if (okCount !== all.length) process.exitCode = 1
 
@@ -156,11 +200,19 @@ if (okCount !== all.length) process.exitCode = 1
     let failed = 0
     const t = performance.now()
     for (let i = 0; i < N; i++) {
-      const r = solveVapourCompression({ refrigerant: REFRIGERANTS[id], purpose: 'refrigerator', ...c, superheat: 2 + (i % 5), compressorEfficiency: 0.75 + (i % 20) / 100 })
+      const r = solveVapourCompression({
+        refrigerant: REFRIGERANTS[id],
+        purpose: 'refrigerator',
+        ...c,
+        superheat: 2 + (i % 5),
+        compressorEfficiency: 0.75 + (i % 20) / 100,
+      })
       if (!r.ok) failed++
     }
     const s = (performance.now() - t) / 1000
-    console.log(`${id.padEnd(10)} ${Math.round(N / s).toLocaleString('en')} cycles/s (${((s * 1e3) / N).toFixed(2)} ms each)${failed ? `, ${failed} failed` : ''}`)
+    console.log(
+      `${id.padEnd(10)} ${Math.round(N / s).toLocaleString('en')} cycles/s (${((s * 1e3) / N).toFixed(2)} ms each)${failed ? `, ${failed} failed` : ''}`,
+    )
     if (failed) process.exitCode = 1
   }
 }

@@ -82,7 +82,11 @@ if (!existsSync(PYTHON)) {
 const pts: [number, number][] = []
 for (let i = 0; i < N; i++) pts.push([P[i]!, T[i]!])
 console.log('  running the same points through python3-iapws (one process, about 10-20 s) ...')
-const r = spawnSync(PYTHON, ['-c', SCRIPT], { input: JSON.stringify(pts), encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 })
+const r = spawnSync(PYTHON, ['-c', SCRIPT], {
+  input: JSON.stringify(pts),
+  encoding: 'utf8',
+  maxBuffer: 64 * 1024 * 1024,
+})
 if (r.status !== 0) {
   console.log(`  python3-iapws run failed (is it installed? apt-get install -y python3-iapws):\n${r.stderr}`)
   process.exit(1)
@@ -95,12 +99,20 @@ const lowRate = N / py.low_seconds
 let worst = 0
 py.h.forEach((h, k) => {
   const i = k * 97
-  worst = Math.max(worst, Math.abs(H[i]! / 1000 - h) / Math.abs(h), Math.abs(S[i]! / 1000 - py.s[k]!) / Math.max(Math.abs(py.s[k]!), 1e-3))
+  worst = Math.max(
+    worst,
+    Math.abs(H[i]! / 1000 - h) / Math.abs(h),
+    Math.abs(S[i]! / 1000 - py.s[k]!) / Math.max(Math.abs(py.s[k]!), 1e-3),
+  )
 })
 
 const ratio = oursRate / classRate
 const ratioLow = oursRate / lowRate
-console.log('  python3-iapws IAPWS97(P, T):   %s calls/s  (%s s)', classRate.toExponential(3), py.class_seconds.toFixed(3))
+console.log(
+  '  python3-iapws IAPWS97(P, T):   %s calls/s  (%s s)',
+  classRate.toExponential(3),
+  py.class_seconds.toFixed(3),
+)
 console.log('  python3-iapws region functions: %s calls/s  (%s s)', lowRate.toExponential(3), py.low_seconds.toFixed(3))
 console.log('  ratio ours / IAPWS97 class:      %s x', ratio.toFixed(1))
 console.log('  ratio ours / region functions:   %s x', ratioLow.toFixed(1))

@@ -47,7 +47,9 @@ function findBinDir(): string | null {
       .sort((a, b) => Number(b) - Number(a))
     for (const v of versions) candidates.push(path.join(base, v, 'bin'))
   }
-  return candidates.find((dir) => fs.existsSync(path.join(dir, 'pg_ctl')) && fs.existsSync(path.join(dir, 'initdb'))) ?? null
+  return (
+    candidates.find((dir) => fs.existsSync(path.join(dir, 'pg_ctl')) && fs.existsSync(path.join(dir, 'initdb'))) ?? null
+  )
 }
 
 /** Finds Debian's server binaries, installing the `postgresql` package when run as root. */
@@ -186,12 +188,16 @@ export async function startCluster(log: (line: string) => void = console.log): P
     chownToServerUser(dir)
     try {
       runServerTool(bin, 'initdb', [
-        '-D', c.dataDir,
-        '-U', c.user,
-        '--pwfile', pwfile,
+        '-D',
+        c.dataDir,
+        '-U',
+        c.user,
+        '--pwfile',
+        pwfile,
         '--auth-local=scram-sha-256',
         '--auth-host=scram-sha-256',
-        '-E', 'UTF8',
+        '-E',
+        'UTF8',
         '--locale=C.UTF-8',
       ])
     } finally {
@@ -232,11 +238,15 @@ export async function startCluster(log: (line: string) => void = console.log): P
   }
   runServerTool(bin, 'pg_ctl', [
     'start',
-    '-D', c.dataDir,
-    '-l', c.logFile,
+    '-D',
+    c.dataDir,
+    '-l',
+    c.logFile,
     '-w',
-    '-t', '60',
-    '-o', `-c listen_addresses=127.0.0.1 -p ${c.port} -k ${c.socketDir} -c max_connections=200 -c fsync=${process.env.CI ? 'off' : 'on'}`,
+    '-t',
+    '60',
+    '-o',
+    `-c listen_addresses=127.0.0.1 -p ${c.port} -k ${c.socketDir} -c max_connections=200 -c fsync=${process.env.CI ? 'off' : 'on'}`,
   ])
   log(`PostgreSQL is listening on 127.0.0.1:${c.port}.`)
   const full = { ...c, password, ...urls({ ...c, password }) }
@@ -265,7 +275,9 @@ export function clusterStatus(): string {
   const c = describe(clusterDir())
   if (!bin) return 'PostgreSQL server binaries are not installed.'
   if (!fs.existsSync(path.join(c.dataDir, 'PG_VERSION'))) return `No cluster yet (it will be created in ${c.dir}).`
-  return isRunning(bin, c) ? `Running on 127.0.0.1:${c.port} (data in ${c.dataDir}).` : `Stopped (data in ${c.dataDir}).`
+  return isRunning(bin, c)
+    ? `Running on 127.0.0.1:${c.port} (data in ${c.dataDir}).`
+    : `Stopped (data in ${c.dataDir}).`
 }
 
 /** Creates a database in the cluster when it does not exist yet. */

@@ -25,7 +25,13 @@ import { createRequestHandler } from './http/request-handler.ts'
 import { noStore, nonceOf, sameOriginWrites, securityHeaders } from './http/security.ts'
 import { projectRoot } from './postgres.ts'
 
-export type RunningServer = { port: number; url: string; close: () => Promise<void>; smtp: FakeSmtp | null; server: import('node:http').Server }
+export type RunningServer = {
+  port: number
+  url: string
+  close: () => Promise<void>
+  smtp: FakeSmtp | null
+  server: import('node:http').Server
+}
 
 /** Idle keep-alive connections are kept this long. */
 export const KEEP_ALIVE_MS = 65_000
@@ -77,10 +83,16 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
     const devServer = await vite.createServer({ server: { middlewareMode: true }, root: projectRoot })
     closeVite = () => devServer.close()
     app.use(devServer.middlewares)
-    build = withOutagePagesLazy(() => devServer.ssrLoadModule('virtual:react-router/server-build') as Promise<ServerBuild>, log)
+    build = withOutagePagesLazy(
+      () => devServer.ssrLoadModule('virtual:react-router/server-build') as Promise<ServerBuild>,
+      log,
+    )
   } else {
     const buildDir = path.join(projectRoot, 'build')
-    build = withOutagePages((await import(pathToFileURL(path.join(buildDir, 'server', 'index.js')).href)) as ServerBuild, log)
+    build = withOutagePages(
+      (await import(pathToFileURL(path.join(buildDir, 'server', 'index.js')).href)) as ServerBuild,
+      log,
+    )
     app.use('/assets', express.static(path.join(buildDir, 'client', 'assets'), { immutable: true, maxAge: '1y' }))
     app.use(express.static(path.join(buildDir, 'client'), { maxAge: '1h' }))
   }
@@ -101,12 +113,21 @@ export async function startServer(opts: ServerOptions): Promise<RunningServer> {
 
   // Last resort (a build that cannot load, a broken header): a short page, never a stack trace.
   app.use((error: unknown, req: express.Request, res: express.Response, _next: express.NextFunction) => {
-    log(`Unexpected error during ${req.method} ${req.path}: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`)
+    log(
+      `Unexpected error during ${req.method} ${req.path}: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`,
+    )
     if (res.headersSent) {
       res.destroy()
       return
     }
-    refuse(req, res, 500, 'Something went wrong', 'Something went wrong on our side. Your saved work is safe; please try again in a moment.', { close: true })
+    refuse(
+      req,
+      res,
+      500,
+      'Something went wrong',
+      'Something went wrong on our side. Your saved work is safe; please try again in a moment.',
+      { close: true },
+    )
   })
 
   const server = await new Promise<import('node:http').Server>((resolve, reject) => {

@@ -23,7 +23,8 @@ try {
 } catch (e) {
   die(`cannot read ${shown}`, (e as NodeJS.ErrnoException).code ?? 'unreadable')
 }
-if (text.trim() === '') die(`${shown} is empty: a spec is a JSON object with "template" and "inputs", or "cycle"`, 'empty-file')
+if (text.trim() === '')
+  die(`${shown} is empty: a spec is a JSON object with "template" and "inputs", or "cycle"`, 'empty-file')
 let raw: unknown
 try {
   raw = JSON.parse(text)

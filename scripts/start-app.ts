@@ -26,7 +26,11 @@ try {
   console.log(`  ${seeded.courseIds.length} courses, ${seeded.students} students.`)
   if (!process.argv.includes('--no-build')) {
     step('Building the app')
-    const r = spawnSync('npx', ['react-router', 'build'], { cwd: projectRoot, stdio: 'inherit', env: { ...process.env, NODE_ENV: 'production' } })
+    const r = spawnSync('npx', ['react-router', 'build'], {
+      cwd: projectRoot,
+      stdio: 'inherit',
+      env: { ...process.env, NODE_ENV: 'production' },
+    })
     if (r.status !== 0) throw new Error('The build failed; see the messages above.')
   }
   step('Web server')
@@ -44,7 +48,8 @@ try {
   process.on('SIGTERM', stop)
 } catch (e) {
   if (e instanceof ClusterError) console.error(`\n${e.message}`)
-  else if ((e as NodeJS.ErrnoException).code === 'EADDRINUSE') console.error(`\nPort ${process.env.PORT ?? 3000} is taken. Set PORT to another port.`)
+  else if ((e as NodeJS.ErrnoException).code === 'EADDRINUSE')
+    console.error(`\nPort ${process.env.PORT ?? 3000} is taken. Set PORT to another port.`)
   else console.error('\nCould not start Cyclewright:', e instanceof Error ? e.message : e)
   process.exit(1)
 }

@@ -1,4 +1,4 @@
-// `npm test`: the same set-up as `npm start`, then everything in order — lint, typecheck, unit
+// `npm test`: the same set-up as `npm start`, then everything in order — format, lint, typecheck, unit
 // tests, integration tests against real PostgreSQL, the production build, end-to-end
 // tests in Debian's Chromium. Stops at the first failing step. The last line states the
 // totals. Plain Node so it can run before the dependencies are installed.
@@ -28,12 +28,17 @@ function systemNeeds() {
 const needs = systemNeeds()
 if (needs.length > 0) {
   if (!isRoot) {
-    console.error(`Missing Debian packages: ${needs.join(' ')}. Install them with:\n  sudo apt-get update && sudo apt-get install -y ${needs.join(' ')}`)
+    console.error(
+      `Missing Debian packages: ${needs.join(' ')}. Install them with:\n  sudo apt-get update && sudo apt-get install -y ${needs.join(' ')}`,
+    )
     process.exit(1)
   }
   log(`Installing Debian packages: ${needs.join(' ')} …`)
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' }
-  for (const args of [['update', '-qq'], ['install', '-y', '-qq', ...needs]]) {
+  for (const args of [
+    ['update', '-qq'],
+    ['install', '-y', '-qq', ...needs],
+  ]) {
     const r = spawnSync('apt-get', args, { stdio: 'inherit', env })
     if (r.status !== 0) {
       console.error(`apt-get ${args.join(' ')} failed.`)
@@ -50,24 +55,35 @@ const summary = []
 function vitestStep(name, project) {
   const out = path.join(resultsDir, `${project}.json`)
   fs.rmSync(out, { force: true })
-  const r = spawnSync(bin('vitest'), ['run', '--project', project, '--reporter=default', '--reporter=json', `--outputFile.json=${out}`], {
-    cwd: root,
-    stdio: 'inherit',
-    env: { ...process.env, FORCE_COLOR: process.env.FORCE_COLOR ?? '0' },
-  })
+  const r = spawnSync(
+    bin('vitest'),
+    ['run', '--project', project, '--reporter=default', '--reporter=json', `--outputFile.json=${out}`],
+    {
+      cwd: root,
+      stdio: 'inherit',
+      env: { ...process.env, FORCE_COLOR: process.env.FORCE_COLOR ?? '0' },
+    },
+  )
   let counts = { passed: 0, failed: 0, skipped: 0 }
   if (fs.existsSync(out)) {
     const j = JSON.parse(fs.readFileSync(out, 'utf8'))
-    counts = { passed: j.numPassedTests ?? 0, failed: (j.numFailedTests ?? 0) + (j.numRuntimeErrorTestSuites ?? 0), skipped: (j.numPendingTests ?? 0) + (j.numTodoTests ?? 0) }
+    counts = {
+      passed: j.numPassedTests ?? 0,
+      failed: (j.numFailedTests ?? 0) + (j.numRuntimeErrorTestSuites ?? 0),
+      skipped: (j.numPendingTests ?? 0) + (j.numTodoTests ?? 0),
+    }
     // A file that failed to load counts as a failure even when no test in it ran.
-    for (const f of j.testResults ?? []) if (f.status === 'failed' && (f.assertionResults ?? []).length === 0) counts.failed += 1
+    for (const f of j.testResults ?? [])
+      if (f.status === 'failed' && (f.assertionResults ?? []).length === 0) counts.failed += 1
   }
   const ok = r.status === 0 && counts.failed === 0
   if (!ok && counts.failed === 0) counts.failed = 1
   totals.passed += counts.passed
   totals.failed += counts.failed
   totals.skipped += counts.skipped
-  summary.push(`${name}: ${counts.passed} passed, ${counts.failed} failed${counts.skipped ? `, ${counts.skipped} skipped` : ''}`)
+  summary.push(
+    `${name}: ${counts.passed} passed, ${counts.failed} failed${counts.skipped ? `, ${counts.skipped} skipped` : ''}`,
+  )
   return ok
 }
 
@@ -80,6 +96,7 @@ function commandStep(name, cmd, args) {
 }
 
 const steps = [
+  () => commandStep('format (Prettier)', bin('prettier'), ['--check', '--log-level', 'warn', '.']),
   () => commandStep('lint', bin('eslint'), ['.']),
   () => commandStep('typecheck', 'sh', ['-c', `"${bin('react-router')}" typegen && "${bin('tsc')}"`]),
   () => (log('\n▸ unit tests'), vitestStep('unit tests', 'unit')),

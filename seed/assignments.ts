@@ -44,7 +44,10 @@ type DemoAssignment = {
   /** [days from the seed's now, local wall-clock time] */
   opens: [number, string]
   due: [number, string]
-  rules: Pick<NewAssignment, 'attemptsPerFind' | 'latePolicy' | 'latePenaltyPercentPerDay' | 'lateDaysAllowed' | 'keyRelease'>
+  rules: Pick<
+    NewAssignment,
+    'attemptsPerFind' | 'latePolicy' | 'latePenaltyPercentPerDay' | 'lateDaysAllowed' | 'keyRelease'
+  >
   /** Bank problems by owner and title; `version` pins an earlier (frozen) version, else the latest. */
   items: { owner: DemoOwner; title: string; version?: number; points: number }[]
   /** Whether the demo students have answered it. */
@@ -56,10 +59,17 @@ export const DEMO_ASSIGNMENTS: readonly DemoAssignment[] = [
   {
     course: 'engineering',
     title: 'Week 6: Otto and Diesel cycles',
-    instructions: 'Two air-standard engines. Keep four significant figures in intermediate results and give each answer with its unit.',
+    instructions:
+      'Two air-standard engines. Keep four significant figures in intermediate results and give each answer with its unit.',
     opens: [-21, '08:00'],
     due: [-7, '23:59'],
-    rules: { attemptsPerFind: 3, latePolicy: 'closed', latePenaltyPercentPerDay: 0, lateDaysAllowed: 0, keyRelease: 'after-due' },
+    rules: {
+      attemptsPerFind: 3,
+      latePolicy: 'closed',
+      latePenaltyPercentPerDay: 0,
+      lateDaysAllowed: 0,
+      keyRelease: 'after-due',
+    },
     // Version 1 of the Otto problem is the one this assignment froze; the bank has moved on to version 2.
     items: [
       { owner: 'tobias', title: 'Air-standard Otto cycle', version: 1, points: 10 },
@@ -70,10 +80,17 @@ export const DEMO_ASSIGNMENTS: readonly DemoAssignment[] = [
   {
     course: 'engineering',
     title: 'Week 9: Gas turbines',
-    instructions: 'Simple and regenerative gas turbines. Late answers are accepted for three days at 10 % of the points per day.',
+    instructions:
+      'Simple and regenerative gas turbines. Late answers are accepted for three days at 10 % of the points per day.',
     opens: [-4, '08:00'],
     due: [7, '23:59'],
-    rules: { attemptsPerFind: 3, latePolicy: 'penalty', latePenaltyPercentPerDay: 10, lateDaysAllowed: 3, keyRelease: 'manual' },
+    rules: {
+      attemptsPerFind: 3,
+      latePolicy: 'penalty',
+      latePenaltyPercentPerDay: 10,
+      lateDaysAllowed: 3,
+      keyRelease: 'manual',
+    },
     items: [
       { owner: 'tobias', title: 'Gas-turbine (Brayton) cycle with component efficiencies', points: 10 },
       { owner: 'tobias', title: 'Regenerative gas turbine', points: 10 },
@@ -87,7 +104,13 @@ export const DEMO_ASSIGNMENTS: readonly DemoAssignment[] = [
     instructions: 'Steam power plants. Use the steam properties the problem gives you.',
     opens: [7, '08:00'],
     due: [21, '23:59'],
-    rules: { attemptsPerFind: 3, latePolicy: 'closed', latePenaltyPercentPerDay: 0, lateDaysAllowed: 0, keyRelease: 'after-due' },
+    rules: {
+      attemptsPerFind: 3,
+      latePolicy: 'closed',
+      latePenaltyPercentPerDay: 0,
+      lateDaysAllowed: 0,
+      keyRelease: 'after-due',
+    },
     items: [
       { owner: 'tobias', title: 'Ideal Rankine cycle with superheat', points: 10 },
       { owner: 'tobias', title: 'Reheat Rankine cycle', points: 10 },
@@ -97,10 +120,17 @@ export const DEMO_ASSIGNMENTS: readonly DemoAssignment[] = [
   {
     course: 'chemistry',
     title: 'Problem set 3: The Carnot engine',
-    instructions: 'One mole of a monatomic gas. Work per mole in the chemistry convention: w is the work done on the gas.',
+    instructions:
+      'One mole of a monatomic gas. Work per mole in the chemistry convention: w is the work done on the gas.',
     opens: [-24, '09:00'],
     due: [-10, '17:00'],
-    rules: { attemptsPerFind: 3, latePolicy: 'penalty', latePenaltyPercentPerDay: 20, lateDaysAllowed: 2, keyRelease: 'after-due' },
+    rules: {
+      attemptsPerFind: 3,
+      latePolicy: 'penalty',
+      latePenaltyPercentPerDay: 20,
+      lateDaysAllowed: 2,
+      keyRelease: 'after-due',
+    },
     items: [{ owner: 'amara', title: 'Carnot engine on one mole of a monatomic gas', points: 10 }],
     answered: true,
   },
@@ -110,7 +140,13 @@ export const DEMO_ASSIGNMENTS: readonly DemoAssignment[] = [
     instructions: 'Reversible machines run backwards. Mind the signs of q and w.',
     opens: [-2, '09:00'],
     due: [5, '17:00'],
-    rules: { attemptsPerFind: 3, latePolicy: 'closed', latePenaltyPercentPerDay: 0, lateDaysAllowed: 0, keyRelease: 'after-due' },
+    rules: {
+      attemptsPerFind: 3,
+      latePolicy: 'closed',
+      latePenaltyPercentPerDay: 0,
+      lateDaysAllowed: 0,
+      keyRelease: 'after-due',
+    },
     items: [
       { owner: 'amara', title: 'Reversible heat pump on a diatomic gas', points: 10 },
       { owner: 'tobias', title: 'Carnot refrigerator for a cold store', points: 10 },
@@ -152,7 +188,13 @@ function typedAnswer(find: Find, key: KeyEntry, rand: Rand): string {
   return rand() < 0.5 ? `about ${formatAnswer(key.value, '')}` : `${formatAnswer(key.value, '')}..`
 }
 
-type Resolved = { itemId: number; position: number; problemId: number; versionId: number; definition: ProblemDefinition }
+type Resolved = {
+  itemId: number
+  position: number
+  problemId: number
+  versionId: number
+  definition: ProblemDefinition
+}
 
 export type SeedAssignmentsResult = { assignmentIds: number[]; created: number; submissions: number }
 
@@ -178,19 +220,30 @@ export async function seedDemoAssignments(
       ids.push(found.id)
       continue
     }
-    const [course] = await db.select({ timeZone: courses.timeZone, convention: courses.signConvention }).from(courses).where(eq(courses.id, courseId))
+    const [course] = await db
+      .select({ timeZone: courses.timeZone, convention: courses.signConvention })
+      .from(courses)
+      .where(eq(courses.id, courseId))
     const zone = course!.timeZone
     const author = input.owners[spec.course === 'engineering' ? 'tobias' : 'amara']
     const versions: { problemId: number; versionId: number; definition: unknown; points: number }[] = []
     for (const it of spec.items) {
       const [row] = await db
-        .select({ problemId: problems.id, versionId: problemVersions.id, number: problemVersions.number, definition: problemVersions.definition })
+        .select({
+          problemId: problems.id,
+          versionId: problemVersions.id,
+          number: problemVersions.number,
+          definition: problemVersions.definition,
+        })
         .from(problems)
         .innerJoin(problemVersions, eq(problemVersions.problemId, problems.id))
         .where(and(eq(problems.ownerId, input.owners[it.owner]), eq(problems.title, it.title)))
         .orderBy(sql`${problemVersions.number} = ${it.version ?? 0} desc`, sql`${problemVersions.number} desc`)
         .limit(1)
-      if (!row || (it.version !== undefined && row.number !== it.version)) throw new Error(`Demo assignment "${spec.title}" needs the bank problem "${it.title}"${it.version ? ` version ${it.version}` : ''}`)
+      if (!row || (it.version !== undefined && row.number !== it.version))
+        throw new Error(
+          `Demo assignment "${spec.title}" needs the bank problem "${it.title}"${it.version ? ` version ${it.version}` : ''}`,
+        )
       versions.push({ ...row, points: it.points })
     }
     const opensAt = localDay(now, spec.opens[0], spec.opens[1], zone)
@@ -198,11 +251,28 @@ export async function seedDemoAssignments(
     const made = await db.transaction(async (tx) => {
       const [a] = await tx
         .insert(assignments)
-        .values({ courseId, createdBy: author, title: spec.title, instructions: spec.instructions, opensAt, dueAt, ...spec.rules, createdAt: new Date(opensAt.getTime() - 3 * DAY_MS) })
+        .values({
+          courseId,
+          createdBy: author,
+          title: spec.title,
+          instructions: spec.instructions,
+          opensAt,
+          dueAt,
+          ...spec.rules,
+          createdAt: new Date(opensAt.getTime() - 3 * DAY_MS),
+        })
         .returning({ id: assignments.id })
       const rows = await tx
         .insert(assignmentItems)
-        .values(versions.map((v, i) => ({ assignmentId: a!.id, position: i + 1, problemId: v.problemId, problemVersionId: v.versionId, points: v.points })))
+        .values(
+          versions.map((v, i) => ({
+            assignmentId: a!.id,
+            position: i + 1,
+            problemId: v.problemId,
+            problemVersionId: v.versionId,
+            points: v.points,
+          })),
+        )
         .returning({ id: assignmentItems.id, position: assignmentItems.position })
       for (const v of versions) await freezeProblemVersion(tx, v.versionId)
       return { id: a!.id, itemIds: rows.sort((x, y) => x.position - y.position).map((r) => r.id) }
@@ -229,27 +299,52 @@ export async function seedDemoAssignments(
     }
     if (!spec.answered) continue
 
-    const items: Resolved[] = versions.map((v, i) => ({ itemId: made.itemIds[i]!, position: i + 1, problemId: v.problemId, versionId: v.versionId, definition: v.definition as ProblemDefinition }))
+    const items: Resolved[] = versions.map((v, i) => ({
+      itemId: made.itemIds[i]!,
+      position: i + 1,
+      problemId: v.problemId,
+      versionId: v.versionId,
+      definition: v.definition as ProblemDefinition,
+    }))
     // The window the demo answers fall in: from opening to the seed's now, or to the end of
     // the late days for a past assignment (a few students answer late).
-    const lateEnd = spec.rules.latePolicy === 'penalty' ? dueAt.getTime() + (spec.rules.lateDaysAllowed ?? 0) * DAY_MS : dueAt.getTime()
+    const lateEnd =
+      spec.rules.latePolicy === 'penalty'
+        ? dueAt.getTime() + (spec.rules.lateDaysAllowed ?? 0) * DAY_MS
+        : dueAt.getTime()
     const windowEnd = Math.min(now.getTime() - HOUR_MS, lateEnd)
     const stored: number[] = []
     for (const { userId } of students) {
       const rand = mulberry32(seedFrom('demo-answers', spec.title, userId))
       if (rand() >= 0.5) continue
       for (const item of items) {
-        const drawn = studentVariant({ versionId: item.versionId, definition: item.definition, assignmentId, problemId: item.problemId, userId, courseConvention: course!.convention })
+        const drawn = studentVariant({
+          versionId: item.versionId,
+          definition: item.definition,
+          assignmentId,
+          problemId: item.problemId,
+          userId,
+          courseConvention: course!.convention,
+        })
         if (!drawn.ok) continue
         const keys = new Map(drawn.variant.key.map((k) => [k.name, k]))
         const span = windowEnd - opensAt.getTime()
         // Most answer before the due date; under a penalty policy some answer late.
         const late = windowEnd > dueAt.getTime() && rand() < 0.15
-        let at = late ? dueAt.getTime() + rand() * (windowEnd - dueAt.getTime()) * 0.8 : opensAt.getTime() + span * (0.1 + 0.5 * rand())
+        let at = late
+          ? dueAt.getTime() + rand() * (windowEnd - dueAt.getTime()) * 0.8
+          : opensAt.getTime() + span * (0.1 + 0.5 * rand())
         let answers: Record<string, string> = {}
         for (const f of item.definition.finds) answers[f.name] = typedAnswer(f, keys.get(f.name)!, rand)
         for (let attempt = 0; attempt < 3 && at < windowEnd; attempt++) {
-          const result = await submitAnswers(db, { courseId, assignmentId, position: item.position, userId, answers, now: new Date(at) })
+          const result = await submitAnswers(db, {
+            courseId,
+            assignmentId,
+            position: item.position,
+            userId,
+            answers,
+            now: new Date(at),
+          })
           if (result.ok) {
             await gradeSubmission(db, result.receipt.submissionId)
             stored.push(result.receipt.submissionId)
@@ -259,11 +354,24 @@ export async function seedDemoAssignments(
           const graded = await db
             .select({ findName: partResults.findName })
             .from(partResults)
-            .where(and(eq(partResults.itemId, item.itemId), eq(partResults.userId, userId), eq(partResults.verdict, 'correct')))
+            .where(
+              and(
+                eq(partResults.itemId, item.itemId),
+                eq(partResults.userId, userId),
+                eq(partResults.verdict, 'correct'),
+              ),
+            )
           const correct = new Set(graded.map((g) => g.findName))
           if (correct.size === item.definition.finds.length) break
           answers = Object.fromEntries(
-            item.definition.finds.map((f) => [f.name, correct.has(f.name) ? answers[f.name]! : rand() < 0.75 ? formatAnswer(keys.get(f.name)!.value, keys.get(f.name)!.unit) : typedAnswer(f, keys.get(f.name)!, rand)]),
+            item.definition.finds.map((f) => [
+              f.name,
+              correct.has(f.name)
+                ? answers[f.name]!
+                : rand() < 0.75
+                  ? formatAnswer(keys.get(f.name)!.value, keys.get(f.name)!.unit)
+                  : typedAnswer(f, keys.get(f.name)!, rand),
+            ]),
           )
           at += (2 + 20 * rand()) * HOUR_MS
         }
@@ -271,11 +379,20 @@ export async function seedDemoAssignments(
     }
     if (stored.length > 0) {
       // Graded "a few seconds after submitting", as a running worker would have, not at seed time.
-      await db.execute(sql`update ${submissions} set graded_at = submitted_at + make_interval(secs => 2 + id % 5) where id in (${sql.join(stored.map((id) => sql`${id}`), sql`, `)})`)
-      await db.execute(sql`update ${partResults} p set graded_at = s.graded_at from ${submissions} s where s.id = p.submission_id and p.submission_id in (${sql.join(stored.map((id) => sql`${id}`), sql`, `)})`)
+      await db.execute(
+        sql`update ${submissions} set graded_at = submitted_at + make_interval(secs => 2 + id % 5) where id in (${sql.join(
+          stored.map((id) => sql`${id}`),
+          sql`, `,
+        )})`,
+      )
+      await db.execute(
+        sql`update ${partResults} p set graded_at = s.graded_at from ${submissions} s where s.id = p.submission_id and p.submission_id in (${sql.join(
+          stored.map((id) => sql`${id}`),
+          sql`, `,
+        )})`,
+      )
     }
     submitted += stored.length
   }
   return { assignmentIds: ids, created, submissions: submitted }
 }
-

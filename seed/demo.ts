@@ -5,7 +5,16 @@
 import { and, desc, eq } from 'drizzle-orm'
 import { cycleOf } from '#app/domain/authoring/definition.ts'
 import type { Db } from '#app/server/db/client.server.ts'
-import { courseSections, courses, departments, problemVersions, problems, sectionStaff, terms, users } from '#app/server/db/schema.server.ts'
+import {
+  courseSections,
+  courses,
+  departments,
+  problemVersions,
+  problems,
+  sectionStaff,
+  terms,
+  users,
+} from '#app/server/db/schema.server.ts'
 import { hashPassword } from '#app/server/passwords.server.ts'
 import { addMember } from '#tests/support/factories.ts'
 import { seedDemoAssignments } from './assignments.ts'
@@ -16,7 +25,14 @@ import { DEMO_PROBLEMS } from './problems.ts'
 export const DEMO_DOMAIN = 'kestrel-hollow.example'
 export const DEMO_PASSWORD = 'cycle-demo-2026'
 
-type Person = { email: string; name: string; isAdmin?: boolean; studentNumber?: string; familyName?: string; givenName?: string }
+type Person = {
+  email: string
+  name: string
+  isAdmin?: boolean
+  studentNumber?: string
+  familyName?: string
+  givenName?: string
+}
 
 export const demoPeople = {
   admin: { email: `ines.carvalho@${DEMO_DOMAIN}`, name: 'Ines Carvalho-Lund', isAdmin: true },
@@ -30,8 +46,40 @@ export const demoPeople = {
   ],
 } satisfies Record<string, Person | Person[]>
 
-const FIRST = ['Aino', 'Bastien', 'Chiara', 'Dawit', 'Elif', 'Femi', 'Greta', 'Hiro', 'Isla', 'Joaquín', 'Kofi', 'Lena', 'Mateo', 'Nadia', 'Oskar', 'Parisa', 'Quentin', 'Rania', 'Soren', 'Tamsin']
-const LAST = ['Abernethy', 'Bellweather', 'Castellano', 'Drummond', 'Eskildsen', 'Farrow', 'Gathii', 'Holmqvist', 'Ibarra', 'Jovanović']
+const FIRST = [
+  'Aino',
+  'Bastien',
+  'Chiara',
+  'Dawit',
+  'Elif',
+  'Femi',
+  'Greta',
+  'Hiro',
+  'Isla',
+  'Joaquín',
+  'Kofi',
+  'Lena',
+  'Mateo',
+  'Nadia',
+  'Oskar',
+  'Parisa',
+  'Quentin',
+  'Rania',
+  'Soren',
+  'Tamsin',
+]
+const LAST = [
+  'Abernethy',
+  'Bellweather',
+  'Castellano',
+  'Drummond',
+  'Eskildsen',
+  'Farrow',
+  'Gathii',
+  'Holmqvist',
+  'Ibarra',
+  'Jovanović',
+]
 
 /** 40 students with invented names, the same every time. */
 export function demoStudents(): Person[] {
@@ -45,7 +93,13 @@ export function demoStudents(): Person[] {
       .toLowerCase()
     // Invented student IDs in the demo department's own shape (KH + year + four digits).
     const studentNumber = `KH26${String(i + 1).padStart(4, '0')}`
-    out.push({ email: `${local}${i + 1}@students.${DEMO_DOMAIN}`, name: `${first} ${last}`, studentNumber, familyName: last, givenName: first })
+    out.push({
+      email: `${local}${i + 1}@students.${DEMO_DOMAIN}`,
+      name: `${first} ${last}`,
+      studentNumber,
+      familyName: last,
+      givenName: first,
+    })
   }
   return out
 }
@@ -53,7 +107,9 @@ export function demoStudents(): Person[] {
 async function upsertPerson(db: Db, p: Person, passwordHash: string, departmentId: number) {
   const [found] = await db.select({ id: users.id }).from(users).where(eq(users.email, p.email))
   if (found) return found.id
-  const roster = p.studentNumber ? { studentNumber: p.studentNumber, familyName: p.familyName ?? null, givenName: p.givenName ?? null } : {}
+  const roster = p.studentNumber
+    ? { studentNumber: p.studentNumber, familyName: p.familyName ?? null, givenName: p.givenName ?? null }
+    : {}
   const [row] = await db
     .insert(users)
     .values({ email: p.email, name: p.name, passwordHash, isAdmin: p.isAdmin ?? false, departmentId, ...roster })
@@ -66,21 +122,51 @@ export async function seedDemo(db: Db, options: { now?: Date } = {}) {
   const slug = 'kestrel-hollow-energy'
   let [dept] = await db.select().from(departments).where(eq(departments.slug, slug))
   if (!dept) {
-    ;[dept] = await db.insert(departments).values({ slug, name: 'School of Energy and Process Engineering, Kestrel Hollow Institute', timeZone: 'Europe/Oslo' }).returning()
+    ;[dept] = await db
+      .insert(departments)
+      .values({
+        slug,
+        name: 'School of Energy and Process Engineering, Kestrel Hollow Institute',
+        timeZone: 'Europe/Oslo',
+      })
+      .returning()
   }
   const termName = 'Autumn 2026'
-  let [term] = await db.select().from(terms).where(and(eq(terms.departmentId, dept!.id), eq(terms.name, termName)))
+  let [term] = await db
+    .select()
+    .from(terms)
+    .where(and(eq(terms.departmentId, dept!.id), eq(terms.name, termName)))
   if (!term) {
-    ;[term] = await db.insert(terms).values({ departmentId: dept!.id, name: termName, startsOn: '2026-09-07', endsOn: '2026-12-18' }).returning()
+    ;[term] = await db
+      .insert(terms)
+      .values({ departmentId: dept!.id, name: termName, startsOn: '2026-09-07', endsOn: '2026-12-18' })
+      .returning()
   }
   const courseSpecs = [
-    { code: 'ENTH 210', title: 'Engineering Thermodynamics I', timeZone: 'Europe/Oslo', signConvention: 'engineering' as const },
-    { code: 'CHEM 342', title: 'Chemical Thermodynamics', timeZone: 'Europe/Oslo', signConvention: 'chemistry' as const },
+    {
+      code: 'ENTH 210',
+      title: 'Engineering Thermodynamics I',
+      timeZone: 'Europe/Oslo',
+      signConvention: 'engineering' as const,
+    },
+    {
+      code: 'CHEM 342',
+      title: 'Chemical Thermodynamics',
+      timeZone: 'Europe/Oslo',
+      signConvention: 'chemistry' as const,
+    },
   ]
   const courseIds: number[] = []
   for (const spec of courseSpecs) {
-    let [c] = await db.select({ id: courses.id }).from(courses).where(and(eq(courses.termId, term!.id), eq(courses.code, spec.code)))
-    if (!c) [c] = await db.insert(courses).values({ ...spec, departmentId: dept!.id, termId: term!.id }).returning({ id: courses.id })
+    let [c] = await db
+      .select({ id: courses.id })
+      .from(courses)
+      .where(and(eq(courses.termId, term!.id), eq(courses.code, spec.code)))
+    if (!c)
+      [c] = await db
+        .insert(courses)
+        .values({ ...spec, departmentId: dept!.id, termId: term!.id })
+        .returning({ id: courses.id })
     courseIds.push(c!.id)
   }
   const [engineering, chemistry] = courseIds as [number, number]
@@ -113,15 +199,30 @@ export async function seedDemo(db: Db, options: { now?: Date } = {}) {
     [engineering, 'B', strandTaId],
     [chemistry, 'C', halloranId],
   ] as const) {
-    const [section] = await db.insert(courseSections).values({ courseId, name }).onConflictDoNothing().returning({ id: courseSections.id })
+    const [section] = await db
+      .insert(courseSections)
+      .values({ courseId, name })
+      .onConflictDoNothing()
+      .returning({ id: courseSections.id })
     if (section) await db.insert(sectionStaff).values({ sectionId: section.id, userId: taId }).onConflictDoNothing()
   }
   const owners = { tobias: wrenfieldId, amara: okaforId }
   const problemCount = await seedDemoProblems(db, owners)
-  const seeded = await seedDemoAssignments(db, { now: options.now ?? new Date(), courseIds: { engineering, chemistry }, owners })
+  const seeded = await seedDemoAssignments(db, {
+    now: options.now ?? new Date(),
+    courseIds: { engineering, chemistry },
+    owners,
+  })
   const strandId = await upsertPerson(db, strand!, passwordHash, dept!.id)
   const disputeCount = await seedDemoDisputes(db, { courseIds: { engineering, chemistry }, reviewerId: strandId })
-  return { departmentId: dept!.id, courseIds, students: students.length, problems: problemCount, assignments: seeded.assignmentIds.length, disputes: disputeCount }
+  return {
+    departmentId: dept!.id,
+    courseIds,
+    students: students.length,
+    problems: problemCount,
+    assignments: seeded.assignmentIds.length,
+    disputes: disputeCount,
+  }
 }
 
 // Fixed dates in the demo term, so a re-seeded database looks the same.

@@ -24,8 +24,15 @@ async function candidates(db: Db, courseId: number, assignmentTitle: string, cou
   return r.rows
 }
 
-export async function seedDemoDisputes(db: Db, options: { courseIds: { engineering: number; chemistry: number }; reviewerId: number }): Promise<number> {
-  const [already] = await db.select({ id: disputes.id }).from(disputes).where(and(eq(disputes.courseId, options.courseIds.engineering))).limit(1)
+export async function seedDemoDisputes(
+  db: Db,
+  options: { courseIds: { engineering: number; chemistry: number }; reviewerId: number },
+): Promise<number> {
+  const [already] = await db
+    .select({ id: disputes.id })
+    .from(disputes)
+    .where(and(eq(disputes.courseId, options.courseIds.engineering)))
+    .limit(1)
   if (already) return 0
   let made = 0
   const raise = async (c: Candidate, reason: string, withFile: boolean) => {
@@ -43,20 +50,43 @@ export async function seedDemoDisputes(db: Db, options: { courseIds: { engineeri
     return r.disputeId
   }
   const [first, second, third] = await candidates(db, options.courseIds.engineering, 'Week 9: Gas turbines', 3)
-  if (first) await raise(first, 'I think my answer is right within rounding: I kept four figures all the way through. My working is attached.', true)
-  if (second) await raise(second, 'The question did not say which convention to use for the sign of the work, so my sign should count.', false)
+  if (first)
+    await raise(
+      first,
+      'I think my answer is right within rounding: I kept four figures all the way through. My working is attached.',
+      true,
+    )
+  if (second)
+    await raise(
+      second,
+      'The question did not say which convention to use for the sign of the work, so my sign should count.',
+      false,
+    )
   if (third) {
-    const id = await raise(third, 'I believe I used the right pressure ratio; could you check the compressor step?', false)
+    const id = await raise(
+      third,
+      'I believe I used the right pressure ratio; could you check the compressor step?',
+      false,
+    )
     const resolved = await resolveDispute(db, {
       courseId: options.courseIds.engineering,
       disputeId: id,
       actor: { id: options.reviewerId, isAdmin: false, role: 'ta' },
       decision: 'reject',
-      comment: 'The temperature after the compressor needs the isentropic efficiency as well; see step 1 of the worked solution once the key is released.',
+      comment:
+        'The temperature after the compressor needs the isentropic efficiency as well; see step 1 of the worked solution once the key is released.',
     })
-    if (!resolved.ok) throw new Error(`A demo dispute could not be resolved: ${resolved.formError ?? JSON.stringify(resolved.fieldErrors)}`)
+    if (!resolved.ok)
+      throw new Error(
+        `A demo dispute could not be resolved: ${resolved.formError ?? JSON.stringify(resolved.fieldErrors)}`,
+      )
   }
-  const [chem] = await candidates(db, options.courseIds.chemistry, 'Problem set 4: Carnot heat pumps and refrigerators', 1)
+  const [chem] = await candidates(
+    db,
+    options.courseIds.chemistry,
+    'Problem set 4: Carnot heat pumps and refrigerators',
+    1,
+  )
   if (chem) await raise(chem, 'I used w on the gas as the course convention says; please look at my sign again.', false)
   return made
 }

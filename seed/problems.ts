@@ -30,9 +30,26 @@ export interface DemoProblem {
 }
 
 const rel = (value: number): Tolerance => ({ kind: 'relative', value })
-const range = (name: string, label: string, unit: string, min: number, max: number, step: number): Given => ({ name, label, unit, rule: { kind: 'range', min, max, step } })
-const choice = (name: string, label: string, unit: string, values: readonly (number | string)[]): Given => ({ name, label, unit, rule: { kind: 'choice', values } })
-const output = (name: string, label: string, path: string, unit: string, points: number, extra: Partial<Find> = {}): Find => ({
+const range = (name: string, label: string, unit: string, min: number, max: number, step: number): Given => ({
+  name,
+  label,
+  unit,
+  rule: { kind: 'range', min, max, step },
+})
+const choice = (name: string, label: string, unit: string, values: readonly (number | string)[]): Given => ({
+  name,
+  label,
+  unit,
+  rule: { kind: 'choice', values },
+})
+const output = (
+  name: string,
+  label: string,
+  path: string,
+  unit: string,
+  points: number,
+  extra: Partial<Find> = {},
+): Find => ({
   name,
   label,
   source: { kind: 'output', path },
@@ -43,14 +60,19 @@ const output = (name: string, label: string, path: string, unit: string, points:
   ...extra,
 })
 
-const STEAM_CAUTION = '> Teaching values: the steam properties and results in this problem are for learning thermodynamics, not design data.'
+const STEAM_CAUTION =
+  '> Teaching values: the steam properties and results in this problem are for learning thermodynamics, not design data.'
 
 // ---- Carnot (chemistry flavour) --------------------------------------------------------
 
 const carnotEngine: ProblemDefinition = {
   format: 2,
   title: 'Carnot engine on one mole of a monatomic gas',
-  tags: { topics: ['carnot', 'isothermal', 'second law', 'efficiency'], difficulty: 'introductory', level: 'first-year' },
+  tags: {
+    topics: ['carnot', 'isothermal', 'second law', 'efficiency'],
+    difficulty: 'introductory',
+    level: 'first-year',
+  },
   convention: 'course',
   prompt: [
     'One mole of an ideal monatomic gas runs a reversible Carnot cycle between a hot reservoir at $T_H =$ [TH] and a cold reservoir at $T_L =$ [TL].',
@@ -67,19 +89,38 @@ const carnotEngine: ProblemDefinition = {
     range('p1', 'pressure at the start of the isothermal expansion', 'kPa', 500, 1500, 100),
     choice('r', 'isothermal expansion ratio V2/V1', '', [1.5, 2, 2.5, 3]),
   ],
-  constraints: [{ left: 'TH', op: '>=', right: 'TL + 100 K', message: 'The hot reservoir must be at least 100 K above the cold one.' }],
-  physics: { kind: 'template', template: 'carnot-engine', inputs: { gas: 'monatomic', Th: 'TH', Tc: 'TL', p1: 'p1', expansionRatio: 'r' } },
+  constraints: [
+    {
+      left: 'TH',
+      op: '>=',
+      right: 'TL + 100 K',
+      message: 'The hot reservoir must be at least 100 K above the cold one.',
+    },
+  ],
+  physics: {
+    kind: 'template',
+    template: 'carnot-engine',
+    inputs: { gas: 'monatomic', Th: 'TH', Tc: 'TL', p1: 'p1', expansionRatio: 'r' },
+  },
   finds: [
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2, { sigFigs: { min: 2 } }),
-    output('qH', 'Heat taken in at T_H, per mole', 'steps.1.q', 'kJ/mol', 3, { pitfalls: ['log10-for-ln', 'kilo-factor'] }),
-    output('wNet', 'Net work of the cycle, per mole', 'totals.netWork', 'kJ/mol', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln', 'kilo-factor'] }),
+    output('qH', 'Heat taken in at T_H, per mole', 'steps.1.q', 'kJ/mol', 3, {
+      pitfalls: ['log10-for-ln', 'kilo-factor'],
+    }),
+    output('wNet', 'Net work of the cycle, per mole', 'totals.netWork', 'kJ/mol', 3, {
+      pitfalls: ['sign-convention-flipped', 'log10-for-ln', 'kilo-factor'],
+    }),
   ],
 }
 
 const carnotRefrigerator: ProblemDefinition = {
   format: 2,
   title: 'Carnot refrigerator for a cold store',
-  tags: { topics: ['carnot', 'refrigeration', 'coefficient of performance'], difficulty: 'introductory', level: 'first-year' },
+  tags: {
+    topics: ['carnot', 'refrigeration', 'coefficient of performance'],
+    difficulty: 'introductory',
+    level: 'first-year',
+  },
   convention: 'course',
   prompt: [
     'A cold store is kept at [Tc] while the plant room around it is at [Th]. As an upper bound on what any refrigerator could do, model the plant as a reversible Carnot refrigerator with air as the working fluid, taking heat from the cold space at $T_C$ and rejecting it at $T_H$.',
@@ -90,7 +131,7 @@ const carnotRefrigerator: ProblemDefinition = {
     '',
     '1. the coefficient of performance,',
     '2. the heat taken from the cold store per kilogram of air per cycle,',
-    '3. the net work of the cycle per kilogram of air (in your course\'s sign convention).',
+    "3. the net work of the cycle per kilogram of air (in your course's sign convention).",
   ].join('\n'),
   givens: [
     range('Tc', 'cold store temperature', '°C', -20, 0, 5),
@@ -99,18 +140,33 @@ const carnotRefrigerator: ProblemDefinition = {
     choice('r', 'isothermal expansion ratio V2/V1', '', [1.5, 1.8, 2]),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'carnot-refrigerator', inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: 'p1', expansionRatio: 'r' } },
+  physics: {
+    kind: 'template',
+    template: 'carnot-refrigerator',
+    inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: 'p1', expansionRatio: 'r' },
+  },
   finds: [
-    output('cop', 'Coefficient of performance (refrigerator)', 'totals.copRefrigerator', '', 3, { sigFigs: { min: 3 }, pitfalls: ['celsius-for-kelvin'] }),
-    output('qL', 'Heat taken from the cold store per kg of air', 'steps.1.q', 'kJ/kg', 3, { pitfalls: ['celsius-for-kelvin', 'log10-for-ln'] }),
-    output('wNet', 'Net work of the cycle per kg of air', 'totals.netWork', 'kJ/kg', 2, { pitfalls: ['sign-convention-flipped', 'celsius-for-kelvin'] }),
+    output('cop', 'Coefficient of performance (refrigerator)', 'totals.copRefrigerator', '', 3, {
+      sigFigs: { min: 3 },
+      pitfalls: ['celsius-for-kelvin'],
+    }),
+    output('qL', 'Heat taken from the cold store per kg of air', 'steps.1.q', 'kJ/kg', 3, {
+      pitfalls: ['celsius-for-kelvin', 'log10-for-ln'],
+    }),
+    output('wNet', 'Net work of the cycle per kg of air', 'totals.netWork', 'kJ/kg', 2, {
+      pitfalls: ['sign-convention-flipped', 'celsius-for-kelvin'],
+    }),
   ],
 }
 
 const carnotHeatPump: ProblemDefinition = {
   format: 2,
   title: 'Reversible heat pump on a diatomic gas',
-  tags: { topics: ['carnot', 'heat pump', 'coefficient of performance', 'per mole'], difficulty: 'standard', level: 'second-year' },
+  tags: {
+    topics: ['carnot', 'heat pump', 'coefficient of performance', 'per mole'],
+    difficulty: 'standard',
+    level: 'second-year',
+  },
   convention: 'chemistry',
   prompt: [
     'A reversible (Carnot) heat pump uses an ideal diatomic gas ($c_v = \\tfrac{5}{2}R$). It takes heat from outdoor air at $T_C =$ [Tc] and delivers heat indoors at $T_H = T_C +$ [lift] $=$ [Th].',
@@ -131,11 +187,19 @@ const carnotHeatPump: ProblemDefinition = {
     range('r', 'isothermal expansion ratio V2/V1', '', 1.2, 2, 0.2),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'carnot-heat-pump', inputs: { gas: 'diatomic', Th: 'Th', Tc: 'Tc', p1: 'p1', expansionRatio: 'r' } },
+  physics: {
+    kind: 'template',
+    template: 'carnot-heat-pump',
+    inputs: { gas: 'diatomic', Th: 'Th', Tc: 'Tc', p1: 'p1', expansionRatio: 'r' },
+  },
   finds: [
     output('cop', 'Coefficient of performance (heat pump)', 'totals.copHeatPump', '', 3, { sigFigs: { min: 3 } }),
-    output('qOut', 'Heat delivered indoors per mole', 'totals.heatOut', 'J/mol', 3, { pitfalls: ['log10-for-ln', 'kilo-factor'] }),
-    output('wNet', 'Net work w on the gas per mole', 'totals.netWork', 'J/mol', 2, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+    output('qOut', 'Heat delivered indoors per mole', 'totals.heatOut', 'J/mol', 3, {
+      pitfalls: ['log10-for-ln', 'kilo-factor'],
+    }),
+    output('wNet', 'Net work w on the gas per mole', 'totals.netWork', 'J/mol', 2, {
+      pitfalls: ['sign-convention-flipped', 'log10-for-ln'],
+    }),
   ],
 }
 
@@ -152,7 +216,7 @@ const ottoV1: ProblemDefinition = {
     'Use air with constant specific heats ($c_p = 1.005$ kJ/(kg K), $c_v = 0.718$ kJ/(kg K)). Find:',
     '',
     '1. the temperature at the end of compression,',
-    '2. the net work per kilogram (in your course\'s sign convention),',
+    "2. the net work per kilogram (in your course's sign convention),",
     '3. the thermal efficiency.',
   ].join('\n'),
   givens: [
@@ -162,10 +226,16 @@ const ottoV1: ProblemDefinition = {
     range('qin', 'heat added per kg', 'kJ/kg', 600, 1000, 50),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'otto', inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', heatIn: 'qin' } },
+  physics: {
+    kind: 'template',
+    template: 'otto',
+    inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', heatIn: 'qin' },
+  },
   finds: [
     output('T2', 'Temperature at the end of compression', 'states.2.T', 'K', 2, { pitfalls: ['celsius-for-kelvin'] }),
-    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'kilo-factor'] }),
+    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, {
+      pitfalls: ['sign-convention-flipped', 'kilo-factor'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
   ],
 }
@@ -181,7 +251,7 @@ const ottoV2: ProblemDefinition = {
     'Use air with constant specific heats ($c_p = 1.005$ kJ/(kg K), $c_v = 0.718$ kJ/(kg K)). Find:',
     '',
     '1. the temperature $T_2$ at the end of compression,',
-    '2. the net work per kilogram (in your course\'s sign convention),',
+    "2. the net work per kilogram (in your course's sign convention),",
     '3. the thermal efficiency, to three significant figures,',
     '4. the mean effective pressure $\\mathrm{MEP} = w_\\text{net}/(v_1 - v_2)$.',
   ].join('\n'),
@@ -190,7 +260,10 @@ const ottoV2: ProblemDefinition = {
     ottoV1.finds[0]!,
     ottoV1.finds[1]!,
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2, { sigFigs: { min: 3, max: 4 } }),
-    output('mep', 'Mean effective pressure', 'totals.meanEffectivePressure', 'kPa', 2, { tolerance: rel(0.02), pitfalls: ['kilo-factor'] }),
+    output('mep', 'Mean effective pressure', 'totals.meanEffectivePressure', 'kPa', 2, {
+      tolerance: rel(0.02),
+      pitfalls: ['kilo-factor'],
+    }),
   ],
 }
 
@@ -215,10 +288,16 @@ const diesel: ProblemDefinition = {
     range('rc', 'cutoff ratio', '', 1.6, 2.4, 0.2),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'diesel', inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', cutoffRatio: 'rc' } },
+  physics: {
+    kind: 'template',
+    template: 'diesel',
+    inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', cutoffRatio: 'rc' },
+  },
   finds: [
     output('T3', 'Temperature at the end of heat addition', 'states.3.T', 'K', 2),
-    output('qin', 'Heat added per kg of air', 'totals.heatIn', 'kJ/kg', 3, { pitfalls: ['cp-cv-swapped', 'kilo-factor'] }),
+    output('qin', 'Heat added per kg of air', 'totals.heatIn', 'kJ/kg', 3, {
+      pitfalls: ['cp-cv-swapped', 'kilo-factor'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '%', 2, { sigFigs: { min: 3 } }),
   ],
 }
@@ -234,7 +313,7 @@ const dual: ProblemDefinition = {
     'Find:',
     '',
     '1. the peak pressure,',
-    '2. the net work per kilogram (in your course\'s sign convention),',
+    "2. the net work per kilogram (in your course's sign convention),",
     '3. the thermal efficiency.',
   ].join('\n'),
   givens: [
@@ -245,10 +324,16 @@ const dual: ProblemDefinition = {
     range('rc', 'cutoff ratio of the constant-pressure heating V4/V3', '', 1.2, 1.8, 0.1),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'dual', inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', pressureRatio: 'rp', cutoffRatio: 'rc' } },
+  physics: {
+    kind: 'template',
+    template: 'dual',
+    inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', pressureRatio: 'rp', cutoffRatio: 'rc' },
+  },
   finds: [
     output('p3', 'Peak pressure', 'states.3.p', 'MPa', 2),
-    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'cp-cv-swapped'] }),
+    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, {
+      pitfalls: ['sign-convention-flipped', 'cp-cv-swapped'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
   ],
 }
@@ -258,7 +343,11 @@ const dual: ProblemDefinition = {
 const brayton: ProblemDefinition = {
   format: 2,
   title: 'Gas-turbine (Brayton) cycle with component efficiencies',
-  tags: { topics: ['brayton', 'gas turbine', 'isentropic efficiency', 'back work ratio'], difficulty: 'standard', level: 'second-year' },
+  tags: {
+    topics: ['brayton', 'gas turbine', 'isentropic efficiency', 'back work ratio'],
+    difficulty: 'standard',
+    level: 'second-year',
+  },
   convention: 'course',
   prompt: [
     'A simple gas-turbine plant takes in air at 100 kPa and [T1] and compresses it through a pressure ratio of [rp]. The turbine inlet temperature is [TIT]. The compressor and turbine have isentropic efficiencies of [etaC, 2 dp] and [etaT, 2 dp].',
@@ -266,7 +355,7 @@ const brayton: ProblemDefinition = {
     'Treat the working fluid as air with constant specific heats throughout (air-standard analysis). Per kilogram of air, find:',
     '',
     '1. the temperature leaving the compressor,',
-    '2. the net work (in your course\'s sign convention),',
+    "2. the net work (in your course's sign convention),",
     '3. the back work ratio,',
     '4. the thermal efficiency.',
   ].join('\n'),
@@ -281,11 +370,21 @@ const brayton: ProblemDefinition = {
   physics: {
     kind: 'template',
     template: 'brayton',
-    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', pressureRatio: 'rp', turbineInletT: 'TIT', compressorEfficiency: 'etaC', turbineEfficiency: 'etaT' },
+    inputs: {
+      gas: 'air',
+      p1: '100 kPa',
+      T1: 'T1',
+      pressureRatio: 'rp',
+      turbineInletT: 'TIT',
+      compressorEfficiency: 'etaC',
+      turbineEfficiency: 'etaT',
+    },
   },
   finds: [
     output('T2', 'Compressor exit temperature', 'states.2.T', 'K', 2),
-    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'cp-cv-swapped', 'kilo-factor'] }),
+    output('wNet', 'Net work per kg of air', 'totals.netWork', 'kJ/kg', 3, {
+      pitfalls: ['sign-convention-flipped', 'cp-cv-swapped', 'kilo-factor'],
+    }),
     output('bwr', 'Back work ratio', 'totals.backWorkRatio', '', 2),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
   ],
@@ -294,7 +393,11 @@ const brayton: ProblemDefinition = {
 const braytonRegenerative: ProblemDefinition = {
   format: 2,
   title: 'Regenerative gas turbine',
-  tags: { topics: ['brayton', 'regeneration', 'gas turbine', 'effectiveness'], difficulty: 'challenging', level: 'second-year' },
+  tags: {
+    topics: ['brayton', 'regeneration', 'gas turbine', 'effectiveness'],
+    difficulty: 'challenging',
+    level: 'second-year',
+  },
   convention: 'course',
   prompt: [
     'A gas-turbine plant with a regenerator compresses air from 100 kPa and [T1] through a pressure ratio of [rp]; the turbine inlet temperature is [TIT]. The compressor and turbine isentropic efficiencies are [etaC, 2 dp] and 0.88. The regenerator has an effectiveness of [eps, 2 dp].',
@@ -316,11 +419,22 @@ const braytonRegenerative: ProblemDefinition = {
   physics: {
     kind: 'template',
     template: 'brayton-regenerative',
-    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', pressureRatio: 'rp', turbineInletT: 'TIT', compressorEfficiency: 'etaC', turbineEfficiency: '0.88', regeneratorEffectiveness: 'eps' },
+    inputs: {
+      gas: 'air',
+      p1: '100 kPa',
+      T1: 'T1',
+      pressureRatio: 'rp',
+      turbineInletT: 'TIT',
+      compressorEfficiency: 'etaC',
+      turbineEfficiency: '0.88',
+      regeneratorEffectiveness: 'eps',
+    },
   },
   finds: [
     output('T3', 'Temperature entering the combustor', 'states.3.T', 'K', 2),
-    output('qin', 'Heat added in the combustor per kg of air', 'totals.heatIn', 'kJ/kg', 3, { pitfalls: ['cp-cv-swapped', 'kilo-factor'] }),
+    output('qin', 'Heat added in the combustor per kg of air', 'totals.heatIn', 'kJ/kg', 3, {
+      pitfalls: ['cp-cv-swapped', 'kilo-factor'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 3),
   ],
 }
@@ -330,7 +444,11 @@ const braytonRegenerative: ProblemDefinition = {
 const stirling: ProblemDefinition = {
   format: 2,
   title: 'Ideal Stirling engine on a monatomic gas',
-  tags: { topics: ['stirling', 'isothermal', 'regeneration', 'per mole'], difficulty: 'standard', level: 'second-year' },
+  tags: {
+    topics: ['stirling', 'isothermal', 'regeneration', 'per mole'],
+    difficulty: 'standard',
+    level: 'second-year',
+  },
   convention: 'course',
   prompt: [
     'An ideal Stirling engine works with an ideal monatomic gas between [Tc] and [Th], with an ideal regenerator. At the start of the isothermal compression (at $T_C$, largest volume) the gas is at [p1]; the compression ratio $V_1/V_2$ is [r].',
@@ -338,7 +456,7 @@ const stirling: ProblemDefinition = {
     'Per mole of gas, find:',
     '',
     '1. the heat taken in during the isothermal expansion at $T_H$,',
-    '2. the net work of the cycle (in your course\'s sign convention),',
+    "2. the net work of the cycle (in your course's sign convention),",
     '3. the thermal efficiency.',
     '',
     'Why does the regenerator make the efficiency equal to the Carnot value?',
@@ -349,11 +467,21 @@ const stirling: ProblemDefinition = {
     range('p1', 'pressure at the start of compression', 'kPa', 100, 400, 50),
     range('r', 'compression ratio V1/V2', '', 2, 5, 0.5),
   ],
-  constraints: [{ left: 'Th', op: '>=', right: 'Tc + 200 K', message: 'The hot side must be at least 200 K above the cold side.' }],
-  physics: { kind: 'template', template: 'stirling', inputs: { gas: 'monatomic', Th: 'Th', Tc: 'Tc', p1: 'p1', compressionRatio: 'r' } },
+  constraints: [
+    { left: 'Th', op: '>=', right: 'Tc + 200 K', message: 'The hot side must be at least 200 K above the cold side.' },
+  ],
+  physics: {
+    kind: 'template',
+    template: 'stirling',
+    inputs: { gas: 'monatomic', Th: 'Th', Tc: 'Tc', p1: 'p1', compressionRatio: 'r' },
+  },
   finds: [
-    output('qH', 'Heat taken in at T_H, per mole', 'steps.3.q', 'kJ/mol', 3, { pitfalls: ['log10-for-ln', 'kilo-factor'] }),
-    output('wNet', 'Net work of the cycle, per mole', 'totals.netWork', 'kJ/mol', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+    output('qH', 'Heat taken in at T_H, per mole', 'steps.3.q', 'kJ/mol', 3, {
+      pitfalls: ['log10-for-ln', 'kilo-factor'],
+    }),
+    output('wNet', 'Net work of the cycle, per mole', 'totals.netWork', 'kJ/mol', 3, {
+      pitfalls: ['sign-convention-flipped', 'log10-for-ln'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
   ],
 }
@@ -369,13 +497,21 @@ const stirlingAir: ProblemDefinition = {
     'Per kilogram of air ($R = 0.287$ kJ/(kg K)), find:',
     '',
     '1. the heat added during the isothermal expansion,',
-    '2. the net work of the cycle (in your course\'s sign convention),',
+    "2. the net work of the cycle (in your course's sign convention),",
     '3. the thermal efficiency.',
   ].join('\n'),
-  physics: { kind: 'template', template: 'stirling', inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: 'p1', compressionRatio: 'r' } },
+  physics: {
+    kind: 'template',
+    template: 'stirling',
+    inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: 'p1', compressionRatio: 'r' },
+  },
   finds: [
-    output('qH', 'Heat added at T_H, per kg of air', 'steps.3.q', 'kJ/kg', 3, { pitfalls: ['log10-for-ln', 'kilo-factor'] }),
-    output('wNet', 'Net work of the cycle, per kg of air', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+    output('qH', 'Heat added at T_H, per kg of air', 'steps.3.q', 'kJ/kg', 3, {
+      pitfalls: ['log10-for-ln', 'kilo-factor'],
+    }),
+    output('wNet', 'Net work of the cycle, per kg of air', 'totals.netWork', 'kJ/kg', 3, {
+      pitfalls: ['sign-convention-flipped', 'log10-for-ln'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
   ],
 }
@@ -383,15 +519,19 @@ const stirlingAir: ProblemDefinition = {
 const ericsson: ProblemDefinition = {
   format: 2,
   title: 'Ideal Ericsson cycle in steady flow',
-  tags: { topics: ['ericsson', 'isothermal', 'regeneration', 'steady flow'], difficulty: 'standard', level: 'second-year' },
+  tags: {
+    topics: ['ericsson', 'isothermal', 'regeneration', 'steady flow'],
+    difficulty: 'standard',
+    level: 'second-year',
+  },
   convention: 'course',
   prompt: [
     'An ideal Ericsson cycle runs in steady flow with air. The air is compressed isothermally at [Tc] from 100 kPa through a pressure ratio of [rp], heated at constant pressure in an ideal regenerator, expanded isothermally at [Th], and cooled back through the regenerator.',
     '',
     'Per kilogram of air, find:',
     '',
-    '1. the shaft work of the isothermal compressor (in your course\'s sign convention),',
-    '2. the net work of the cycle (in your course\'s sign convention),',
+    "1. the shaft work of the isothermal compressor (in your course's sign convention),",
+    "2. the net work of the cycle (in your course's sign convention),",
     '3. the thermal efficiency.',
   ].join('\n'),
   givens: [
@@ -400,10 +540,18 @@ const ericsson: ProblemDefinition = {
     range('rp', 'pressure ratio p2/p1', '', 3, 8, 1),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'ericsson', inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: '100 kPa', pressureRatio: 'rp' } },
+  physics: {
+    kind: 'template',
+    template: 'ericsson',
+    inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: '100 kPa', pressureRatio: 'rp' },
+  },
   finds: [
-    output('wC', 'Shaft work of the isothermal compressor per kg', 'steps.1.w', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
-    output('wNet', 'Net work of the cycle per kg', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['sign-convention-flipped', 'log10-for-ln'] }),
+    output('wC', 'Shaft work of the isothermal compressor per kg', 'steps.1.w', 'kJ/kg', 3, {
+      pitfalls: ['sign-convention-flipped', 'log10-for-ln'],
+    }),
+    output('wNet', 'Net work of the cycle per kg', 'totals.netWork', 'kJ/kg', 3, {
+      pitfalls: ['sign-convention-flipped', 'log10-for-ln'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
   ],
 }
@@ -413,7 +561,11 @@ const ericsson: ProblemDefinition = {
 const rankine: ProblemDefinition = {
   format: 2,
   title: 'Ideal Rankine cycle with superheat',
-  tags: { topics: ['rankine', 'steam', 'superheat', 'turbine exit quality'], difficulty: 'standard', level: 'second-year' },
+  tags: {
+    topics: ['rankine', 'steam', 'superheat', 'turbine exit quality'],
+    difficulty: 'standard',
+    level: 'second-year',
+  },
   convention: 'course',
   prompt: [
     STEAM_CAUTION,
@@ -432,7 +584,11 @@ const rankine: ProblemDefinition = {
     range('TIT', 'turbine inlet temperature', '°C', 400, 550, 25),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'rankine', inputs: { boilerPressure: 'pB', condenserPressure: 'pC', turbineInletTemperature: 'TIT' } },
+  physics: {
+    kind: 'template',
+    template: 'rankine',
+    inputs: { boilerPressure: 'pB', condenserPressure: 'pC', turbineInletTemperature: 'TIT' },
+  },
   finds: [
     output('x4', 'Quality at the turbine exit', 'totals.turbineExitQuality', '', 2, { tolerance: rel(0.015) }),
     output('wNet', 'Net work output per kg of steam', 'totals.netWork', 'kJ/kg', 3, { pitfalls: ['kilo-factor'] }),
@@ -466,11 +622,21 @@ const rankineReheat: ProblemDefinition = {
   physics: {
     kind: 'template',
     template: 'rankine-reheat',
-    inputs: { boilerPressure: 'pB', condenserPressure: '10 kPa', turbineInletTemperature: 'TIT', reheatPressure: 'pR', reheatTemperature: 'TR' },
+    inputs: {
+      boilerPressure: 'pB',
+      condenserPressure: '10 kPa',
+      turbineInletTemperature: 'TIT',
+      reheatPressure: 'pR',
+      reheatTemperature: 'TR',
+    },
   },
   finds: [
-    output('qin', 'Heat added in the boiler and reheater per kg', 'totals.heatIn', 'kJ/kg', 3, { pitfalls: ['kilo-factor'] }),
-    output('x6', 'Quality at the low-pressure turbine exit', 'totals.turbineExitQuality', '', 2, { tolerance: rel(0.015) }),
+    output('qin', 'Heat added in the boiler and reheater per kg', 'totals.heatIn', 'kJ/kg', 3, {
+      pitfalls: ['kilo-factor'],
+    }),
+    output('x6', 'Quality at the low-pressure turbine exit', 'totals.turbineExitQuality', '', 2, {
+      tolerance: rel(0.015),
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2, { sigFigs: { min: 3 } }),
   ],
 }
@@ -478,7 +644,11 @@ const rankineReheat: ProblemDefinition = {
 const rankineRegenerative: ProblemDefinition = {
   format: 2,
   title: 'Regenerative Rankine cycle with an open feedwater heater',
-  tags: { topics: ['rankine', 'steam', 'feedwater heater', 'regeneration', 'isentropic efficiency'], difficulty: 'challenging', level: 'upper-level' },
+  tags: {
+    topics: ['rankine', 'steam', 'feedwater heater', 'regeneration', 'isentropic efficiency'],
+    difficulty: 'challenging',
+    level: 'upper-level',
+  },
   convention: 'course',
   prompt: [
     STEAM_CAUTION,
@@ -501,7 +671,14 @@ const rankineRegenerative: ProblemDefinition = {
   physics: {
     kind: 'template',
     template: 'rankine-regenerative',
-    inputs: { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: 'TIT', feedwaterHeaterPressure: 'pF', turbineEfficiency: 'etaT', pumpEfficiency: 'etaP' },
+    inputs: {
+      boilerPressure: '15 MPa',
+      condenserPressure: '10 kPa',
+      turbineInletTemperature: 'TIT',
+      feedwaterHeaterPressure: 'pF',
+      turbineEfficiency: 'etaT',
+      pumpEfficiency: 'etaP',
+    },
   },
   finds: [
     output('y', 'Fraction of steam bled to the heater', 'totals.bleedFraction', '', 3, { tolerance: rel(0.02) }),
@@ -515,7 +692,11 @@ const rankineRegenerative: ProblemDefinition = {
 const threeStep: ProblemDefinition = {
   format: 2,
   title: 'Three-step cycle: polytropic compression, isobaric expansion, isochoric cooling',
-  tags: { topics: ['polytropic', 'isobaric', 'isochoric', 'first law', 'per mole'], difficulty: 'challenging', level: 'second-year' },
+  tags: {
+    topics: ['polytropic', 'isobaric', 'isochoric', 'first law', 'per mole'],
+    difficulty: 'challenging',
+    level: 'second-year',
+  },
   convention: 'course',
   prompt: [
     'Two moles of an ideal [gas] gas start in state A at 100 kPa and [VA]. The gas is',
@@ -526,9 +707,9 @@ const threeStep: ProblemDefinition = {
     '',
     'For the whole two moles, find:',
     '',
-    '1. the work in the compression A→B (in your course\'s sign convention),',
+    "1. the work in the compression A→B (in your course's sign convention),",
     '2. the heat added in the expansion B→C,',
-    '3. the net work of the cycle (in your course\'s sign convention),',
+    "3. the net work of the cycle (in your course's sign convention),",
     '4. the thermal efficiency $\\eta = W_\\text{net}/Q_\\text{in}$.',
   ].join('\n'),
   givens: [
@@ -557,9 +738,15 @@ const threeStep: ProblemDefinition = {
     },
   },
   finds: [
-    output('wAB', 'Work in the compression A→B (whole gas)', 'steps.1.total.w', 'kJ', 3, { pitfalls: ['sign-convention-flipped', 'kilo-factor'] }),
-    output('qBC', 'Heat added in the expansion B→C (whole gas)', 'steps.2.total.q', 'kJ', 3, { pitfalls: ['cp-cv-swapped', 'gamma-monatomic-diatomic-swapped', 'kilo-factor'] }),
-    output('wNet', 'Net work of the cycle (whole gas)', 'totals.total.netWork', 'kJ', 2, { pitfalls: ['sign-convention-flipped'] }),
+    output('wAB', 'Work in the compression A→B (whole gas)', 'steps.1.total.w', 'kJ', 3, {
+      pitfalls: ['sign-convention-flipped', 'kilo-factor'],
+    }),
+    output('qBC', 'Heat added in the expansion B→C (whole gas)', 'steps.2.total.q', 'kJ', 3, {
+      pitfalls: ['cp-cv-swapped', 'gamma-monatomic-diatomic-swapped', 'kilo-factor'],
+    }),
+    output('wNet', 'Net work of the cycle (whole gas)', 'totals.total.netWork', 'kJ', 2, {
+      pitfalls: ['sign-convention-flipped'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
   ],
 }
@@ -570,7 +757,11 @@ const threeStep: ProblemDefinition = {
 const braytonIntercoolReheat: ProblemDefinition = {
   format: 2,
   title: 'Gas turbine with intercooling, reheat and a regenerator',
-  tags: { topics: ['brayton', 'intercooling', 'reheat', 'regeneration', 'gas turbine'], difficulty: 'challenging', level: 'upper-level' },
+  tags: {
+    topics: ['brayton', 'intercooling', 'reheat', 'regeneration', 'gas turbine'],
+    difficulty: 'challenging',
+    level: 'upper-level',
+  },
   convention: 'course',
   prompt: [
     'A gas-turbine plant compresses air from 100 kPa and [T1] in two stages through an overall pressure ratio of [rp], with an intercooler between them at the geometric-mean pressure that cools the air back to [T1]. It expands in two turbine stages with a reheater between them, at the same intermediate pressure, back to the turbine inlet temperature [TIT]. Every compressor stage has an isentropic efficiency of [etaC, 2 dp] and every turbine stage 0.88; a regenerator of effectiveness [eps, 2 dp] heats the compressed air with the exhaust.',
@@ -592,10 +783,22 @@ const braytonIntercoolReheat: ProblemDefinition = {
   physics: {
     kind: 'template',
     template: 'brayton-intercool-reheat',
-    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', pressureRatio: 'rp', turbineInletT: 'TIT', compressorEfficiency: 'etaC', turbineEfficiency: '0.88', regeneratorEffectiveness: 'eps' },
+    inputs: {
+      gas: 'air',
+      p1: '100 kPa',
+      T1: 'T1',
+      pressureRatio: 'rp',
+      turbineInletT: 'TIT',
+      compressorEfficiency: 'etaC',
+      turbineEfficiency: '0.88',
+      regeneratorEffectiveness: 'eps',
+    },
   },
   finds: [
-    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, { sense: 'work-by-system', pitfalls: ['sign-convention-flipped', 'cp-cv-swapped', 'kilo-factor'] }),
+    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, {
+      sense: 'work-by-system',
+      pitfalls: ['sign-convention-flipped', 'cp-cv-swapped', 'kilo-factor'],
+    }),
     output('bwr', 'Back work ratio', 'totals.backWorkRatio', '', 2),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 3),
   ],
@@ -621,10 +824,19 @@ const atkinson: ProblemDefinition = {
     range('T3', 'peak temperature', 'K', 1600, 2000, 50),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'atkinson', inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', compressionRatio: 'rc', T3: 'T3' } },
+  physics: {
+    kind: 'template',
+    template: 'atkinson',
+    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', compressionRatio: 'rc', T3: 'T3' },
+  },
   finds: [
-    output('qin', 'Heat added per kg of air', 'totals.heatIn', 'kJ/kg', 3, { pitfalls: ['cp-cv-swapped', 'kilo-factor'] }),
-    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, { sense: 'work-by-system', pitfalls: ['sign-convention-flipped', 'kilo-factor'] }),
+    output('qin', 'Heat added per kg of air', 'totals.heatIn', 'kJ/kg', 3, {
+      pitfalls: ['cp-cv-swapped', 'kilo-factor'],
+    }),
+    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, {
+      sense: 'work-by-system',
+      pitfalls: ['sign-convention-flipped', 'kilo-factor'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 3),
   ],
 }
@@ -632,7 +844,11 @@ const atkinson: ProblemDefinition = {
 const miller: ProblemDefinition = {
   format: 2,
   title: 'Air-standard Miller cycle',
-  tags: { topics: ['miller', 'over-expansion', 'mean effective pressure'], difficulty: 'challenging', level: 'upper-level' },
+  tags: {
+    topics: ['miller', 'over-expansion', 'mean effective pressure'],
+    difficulty: 'challenging',
+    level: 'upper-level',
+  },
   convention: 'course',
   prompt: [
     'An air-standard Miller (over-expanded) cycle starts at 100 kPa and [T1]. The compression ratio is [rc] and the expansion ratio [re]; [qin] of heat is added per kilogram of air at constant volume. After the expansion the air is cooled at constant volume down to 100 kPa and then at constant pressure back to the start.',
@@ -650,9 +866,16 @@ const miller: ProblemDefinition = {
     range('qin', 'heat added per kg of air', 'kJ/kg', 900, 1300, 100),
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'miller', inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', compressionRatio: 'rc', expansionRatio: 're', heatIn: 'qin' } },
+  physics: {
+    kind: 'template',
+    template: 'miller',
+    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', compressionRatio: 'rc', expansionRatio: 're', heatIn: 'qin' },
+  },
   finds: [
-    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, { sense: 'work-by-system', pitfalls: ['sign-convention-flipped', 'kilo-factor'] }),
+    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, {
+      sense: 'work-by-system',
+      pitfalls: ['sign-convention-flipped', 'kilo-factor'],
+    }),
     output('eta', 'Thermal efficiency', 'totals.efficiency', '', 3),
     output('mep', 'Mean effective pressure', 'totals.meanEffectivePressure', 'kPa', 2),
   ],

@@ -13,7 +13,13 @@ import { Link, type FetcherWithComponents } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { cn } from '#app/lib/cn.ts'
 import { formatInZone } from '#app/lib/dates.ts'
-import { DISPUTE_STATUS_LABELS, SUBMISSION_STATUS_LABELS, TONE_TEXT, VERDICT_LABELS, VERDICT_TONES } from '#app/lib/labels.ts'
+import {
+  DISPUTE_STATUS_LABELS,
+  SUBMISSION_STATUS_LABELS,
+  TONE_TEXT,
+  VERDICT_LABELS,
+  VERDICT_TONES,
+} from '#app/lib/labels.ts'
 import { formatPoints } from '#app/lib/points.ts'
 import type { MyDispute } from '#app/server/disputes.server.ts'
 import type { FindView } from '#app/server/submissions.server.ts'
@@ -26,7 +32,6 @@ export function answerField(findName: string): string {
 function inputId(findName: string): string {
   return `answer-${findName}`
 }
-
 
 export type AnswerFormMode =
   /** the student may submit */
@@ -91,8 +96,17 @@ export function AnswerForm({
   const fields = (
     <>
       {hasErrors ? (
-        <div ref={summaryRef} tabIndex={-1} role="alert" className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger">
-          {formError ? <p className="font-semibold">{formError}</p> : <p className="font-semibold">Some answers were not submitted. They did not use an attempt.</p>}
+        <div
+          ref={summaryRef}
+          tabIndex={-1}
+          role="alert"
+          className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger"
+        >
+          {formError ? (
+            <p className="font-semibold">{formError}</p>
+          ) : (
+            <p className="font-semibold">Some answers were not submitted. They did not use an attempt.</p>
+          )}
           {errorNames.length > 0 ? (
             <ul className="mt-1 list-disc pl-5">
               {errorNames.map((n) => (
@@ -110,7 +124,14 @@ export function AnswerForm({
       <ol className="space-y-4">
         {finds.map((f, i) => (
           <li key={f.name}>
-            <FindRow find={f} index={i + 1} value={values[f.name] ?? ''} error={fieldErrors[f.name]} mode={mode} disputes={disputes} />
+            <FindRow
+              find={f}
+              index={i + 1}
+              value={values[f.name] ?? ''}
+              error={fieldErrors[f.name]}
+              mode={mode}
+              disputes={disputes}
+            />
           </li>
         ))}
       </ol>
@@ -139,7 +160,11 @@ export function AnswerForm({
           <p className="text-sm text-muted">Blank questions are not submitted and use no attempt.</p>
         </div>
       ) : null}
-      {mode === 'submit' && !open ? <p className="text-sm text-muted">Every question is answered correctly or out of attempts: nothing more to submit here.</p> : null}
+      {mode === 'submit' && !open ? (
+        <p className="text-sm text-muted">
+          Every question is answered correctly or out of attempts: nothing more to submit here.
+        </p>
+      ) : null}
     </Form>
   )
 }
@@ -168,7 +193,14 @@ function FindRow({
   const shown = locked ? (f.last?.answer ?? value) : value
   const left = Math.max(0, f.attemptsAllowed - f.attemptsUsed)
   return (
-    <div className={cn('rounded-md border bg-white p-3', error ? 'border-danger' : f.state === 'correct' ? 'border-ok/40' : 'border-line')} data-find={f.name} data-state={f.state}>
+    <div
+      className={cn(
+        'rounded-md border bg-white p-3',
+        error ? 'border-danger' : f.state === 'correct' ? 'border-ok/40' : 'border-line',
+      )}
+      data-find={f.name}
+      data-state={f.state}
+    >
       <label htmlFor={id} className="block font-medium text-ink">
         <span className="text-muted">{index}. </span>
         {f.label}
@@ -218,7 +250,9 @@ function FindRow({
             : `Attempt ${f.last?.attempt ?? f.attemptsUsed} of ${f.attemptsAllowed}${f.state === 'correct' ? '' : `; ${left} left`}.`}
         </p>
         <LastVerdict find={f} />
-        {f.state === 'out-of-attempts' ? <p className="font-medium text-danger">You have used all {f.attemptsAllowed} attempts for this question.</p> : null}
+        {f.state === 'out-of-attempts' ? (
+          <p className="font-medium text-danger">You have used all {f.attemptsAllowed} attempts for this question.</p>
+        ) : null}
         {disputes ? <DisputeState find={f} disputes={disputes} /> : null}
       </div>
     </div>
@@ -229,13 +263,21 @@ function LastVerdict({ find: f }: { find: FindView }) {
   const last = f.last
   if (!last) return null
   if (last.verdict === null) {
-    if (last.gradingFailed) return <p className="text-danger">Your answer “{last.answer}” could not be graded. It is stored, and your teacher sees it among the answers to this problem; please tell them.</p>
+    if (last.gradingFailed)
+      return (
+        <p className="text-danger">
+          Your answer “{last.answer}” could not be graded. It is stored, and your teacher sees it among the answers to
+          this problem; please tell them.
+        </p>
+      )
     return <p className="font-medium text-accent-strong">{SUBMISSION_STATUS_LABELS.queued}…</p>
   }
   return (
     <>
       <p>
-        <span className={cn('font-semibold', TONE_TEXT[VERDICT_TONES[last.verdict]])}>{VERDICT_LABELS[last.verdict]}</span>
+        <span className={cn('font-semibold', TONE_TEXT[VERDICT_TONES[last.verdict]])}>
+          {VERDICT_LABELS[last.verdict]}
+        </span>
         {last.verdict === 'correct' ? null : <> — your answer “{last.answer}”</>}
         {last.message && last.verdict !== 'correct' ? <>: {last.message}</> : null}
       </p>
@@ -243,7 +285,6 @@ function LastVerdict({ find: f }: { find: FindView }) {
     </>
   )
 }
-
 
 function withComment(text: string, comment: string | null) {
   return comment ? `${text} — ${comment}` : text
@@ -260,7 +301,10 @@ export function disputeOutcome(d: MyDispute): string {
       return withComment(`${DISPUTE_STATUS_LABELS.adjusted}: from ${from} to ${to}`, d.comment)
     }
     case 'rejected':
-      return withComment(`${DISPUTE_STATUS_LABELS.rejected}${d.scoreAfter === null ? '' : ` at ${formatPoints(d.scoreAfter)}`}`, d.comment)
+      return withComment(
+        `${DISPUTE_STATUS_LABELS.rejected}${d.scoreAfter === null ? '' : ` at ${formatPoints(d.scoreAfter)}`}`,
+        d.comment,
+      )
     case 'open':
       return DISPUTE_STATUS_LABELS.open
   }
@@ -278,12 +322,19 @@ function DisputeState({ find: f, disputes }: { find: FindView; disputes: AnswerF
   return (
     <>
       {latest ? (
-        <p className={cn('rounded px-2 py-1', open ? 'bg-accent-soft text-accent-strong' : 'bg-paper text-ink')} data-dispute={latest.status}>
+        <p
+          className={cn('rounded px-2 py-1', open ? 'bg-accent-soft text-accent-strong' : 'bg-paper text-ink')}
+          data-dispute={latest.status}
+        >
           {open ? (
             <>Dispute open since {formatInZone(latest.createdAt, disputes.timeZone)}.</>
           ) : (
             <>
-              <span className="font-semibold">Dispute {latest.resolvedAt ? `resolved ${formatInZone(latest.resolvedAt, disputes.timeZone)}` : 'resolved'}.</span> {disputeOutcome(latest)}
+              <span className="font-semibold">
+                Dispute{' '}
+                {latest.resolvedAt ? `resolved ${formatInZone(latest.resolvedAt, disputes.timeZone)}` : 'resolved'}.
+              </span>{' '}
+              {disputeOutcome(latest)}
             </>
           )}
         </p>

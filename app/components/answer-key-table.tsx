@@ -70,7 +70,10 @@ export function AnswerKeyTable({
       </thead>
       <tbody>
         {entries.map((k) => (
-          <tr key={k.name} className={`border-t border-line ${k.name === highlight ? 'bg-warn-soft font-semibold' : ''}`}>
+          <tr
+            key={k.name}
+            className={`border-t border-line ${k.name === highlight ? 'bg-warn-soft font-semibold' : ''}`}
+          >
             <th scope="row" className="py-1 pr-3 font-normal">
               {k.label}
               {showNames ? <code className="ml-1 text-xs text-muted">{k.name}</code> : null}
@@ -79,7 +82,9 @@ export function AnswerKeyTable({
               <KeyValue value={k.value} />
             </td>
             <td className={showPoints ? 'py-1 pr-3' : 'py-1'}>{unitOf?.(k.name) || k.unit || '—'}</td>
-            {showPoints ? <td className="py-1 text-right tabular-nums">{k.points === undefined ? '—' : formatPoints(k.points)}</td> : null}
+            {showPoints ? (
+              <td className="py-1 text-right tabular-nums">{k.points === undefined ? '—' : formatPoints(k.points)}</td>
+            ) : null}
           </tr>
         ))}
       </tbody>

@@ -27,7 +27,8 @@ export interface AssignmentFormProps {
   readonly cancelTo: string
 }
 
-const inputClass = (invalid: boolean) => cn('rounded-md border bg-white px-3 py-2 shadow-sm', invalid ? 'border-danger' : 'border-line focus:border-accent')
+const inputClass = (invalid: boolean) =>
+  cn('rounded-md border bg-white px-3 py-2 shadow-sm', invalid ? 'border-danger' : 'border-line focus:border-accent')
 
 const LABELS: Record<string, string> = {
   title: 'Title',
@@ -53,7 +54,18 @@ function fieldDomId(key: string) {
   return `af-${key.replace(/\./g, '-')}`
 }
 
-export function AssignmentForm({ state, fieldErrors, formError, choices, locked, stored = {}, timeZone, submitLabel, regradeBase, cancelTo }: AssignmentFormProps) {
+export function AssignmentForm({
+  state,
+  fieldErrors,
+  formError,
+  choices,
+  locked,
+  stored = {},
+  timeZone,
+  submitLabel,
+  regradeBase,
+  cancelTo,
+}: AssignmentFormProps) {
   const navigation = useNavigation()
   const busy = navigation.state === 'submitting'
   const saving = busy && navigation.formData?.get('intent') === 'save'
@@ -65,7 +77,8 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
 
   const v = state.values
   const err = (key: string) => fieldErrors[key]
-  const describedBy = (key: string, hint?: string) => [hint, err(key) ? `${fieldDomId(key)}-error` : null].filter(Boolean).join(' ') || undefined
+  const describedBy = (key: string, hint?: string) =>
+    [hint, err(key) ? `${fieldDomId(key)}-error` : null].filter(Boolean).join(' ') || undefined
   const errorText = (key: string) =>
     err(key) ? (
       <p id={`${fieldDomId(key)}-error`} className="text-sm text-danger">
@@ -78,9 +91,22 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
   return (
     <Form method="post" className="mt-6 grid max-w-4xl gap-6" noValidate>
       {/* Enter in a field submits with the form's first submit button; without this it would be a row's Remove. */}
-      <button type="submit" name="intent" value="save" tabIndex={-1} aria-hidden="true" className="absolute -left-[9999px] h-px w-px overflow-hidden" />
+      <button
+        type="submit"
+        name="intent"
+        value="save"
+        tabIndex={-1}
+        aria-hidden="true"
+        className="absolute -left-[9999px] h-px w-px overflow-hidden"
+      />
       {formError && errorKeys.length ? (
-        <div ref={summaryRef} tabIndex={-1} role="alert" aria-labelledby="af-summary-title" className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger">
+        <div
+          ref={summaryRef}
+          tabIndex={-1}
+          role="alert"
+          aria-labelledby="af-summary-title"
+          className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger"
+        >
           <p id="af-summary-title" className="font-semibold">
             {formError}
           </p>
@@ -184,11 +210,24 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
         <fieldset aria-describedby={describedBy('latePolicy')} className="grid gap-3">
           <legend className="text-sm font-medium">After the due date</legend>
           <label className="flex items-start gap-2">
-            <input type="radio" name="latePolicy" value="closed" defaultChecked={v.latePolicy !== 'penalty'} className="mt-1" />
+            <input
+              type="radio"
+              name="latePolicy"
+              value="closed"
+              defaultChecked={v.latePolicy !== 'penalty'}
+              className="mt-1"
+            />
             <span>Closed: no answers are accepted after the due date.</span>
           </label>
           <div className="flex flex-wrap items-start gap-2">
-            <input id="af-late-penalty" type="radio" name="latePolicy" value="penalty" defaultChecked={v.latePolicy === 'penalty'} className="mt-3" />
+            <input
+              id="af-late-penalty"
+              type="radio"
+              name="latePolicy"
+              value="penalty"
+              defaultChecked={v.latePolicy === 'penalty'}
+              className="mt-3"
+            />
             <label htmlFor="af-late-penalty" className="mt-2">
               Accepted with a penalty of
             </label>
@@ -235,12 +274,29 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
         <fieldset aria-describedby={describedBy('keyRelease')} className="grid gap-3">
           <legend className="sr-only">When students see the key and worked solutions</legend>
           <label className="flex items-start gap-2">
-            <input type="radio" name="keyRelease" value="after-due" defaultChecked={v.keyRelease !== 'manual'} className="mt-1" />
-            <span>After the due date: each student sees them once they can no longer submit (their extension and any late window included).</span>
+            <input
+              type="radio"
+              name="keyRelease"
+              value="after-due"
+              defaultChecked={v.keyRelease !== 'manual'}
+              className="mt-1"
+            />
+            <span>
+              After the due date: each student sees them once they can no longer submit (their extension and any late
+              window included).
+            </span>
           </label>
           <label className="flex items-start gap-2">
-            <input type="radio" name="keyRelease" value="manual" defaultChecked={v.keyRelease === 'manual'} className="mt-1" />
-            <span>By hand: when an instructor presses “Release key now”. Releasing it closes the assignment to answers.</span>
+            <input
+              type="radio"
+              name="keyRelease"
+              value="manual"
+              defaultChecked={v.keyRelease === 'manual'}
+              className="mt-1"
+            />
+            <span>
+              By hand: when an instructor presses “Release key now”. Releasing it closes the assignment to answers.
+            </span>
           </label>
           {errorText('keyRelease')}
         </fieldset>
@@ -268,8 +324,8 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
             <span>days (0–60)</span>
           </span>
           <p id="af-dispute-days-hint" className="text-sm text-muted">
-            Students may dispute the verdict on a graded answer until grades are released and for this many days after; 0 closes disputes when grades
-            are released.
+            Students may dispute the verdict on a graded answer until grades are released and for this many days after;
+            0 closes disputes when grades are released.
           </p>
           {errorText('disputeDays')}
         </div>
@@ -278,13 +334,15 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
       <Section title="Problems">
         {choices.length === 0 ? (
           <Notice tone="warn">
-            Your bank has no problems yet. <Link to="/bank/new">Write a problem</Link> or <Link to="/bank/import">import some</Link> first.
+            Your bank has no problems yet. <Link to="/bank/new">Write a problem</Link> or{' '}
+            <Link to="/bank/import">import some</Link> first.
           </Notice>
         ) : null}
         {locked.length > 0 ? (
           <p className="text-sm text-muted">
-            Students have answered the problems marked “answered”: their version and points stay as they are here. To move them to another version or change
-            their points or tolerance, use Regrade, which shows whose scores would change first.
+            Students have answered the problems marked “answered”: their version and points stay as they are here. To
+            move them to another version or change their points or tolerance, use Regrade, which shows whose scores
+            would change first.
           </p>
         ) : null}
         {errorText('items')}
@@ -331,11 +389,15 @@ export function AssignmentForm({ state, fieldErrors, formError, choices, locked,
                           <input type="hidden" name={vKey} value={row.versionId} />
                           <span id={fieldDomId(vKey)}>
                             {lockedItem.title}, version {lockedItem.versionNumber}{' '}
-                            <span className="rounded bg-accent-soft px-1.5 py-0.5 text-xs text-accent-strong">answered</span>
+                            <span className="rounded bg-accent-soft px-1.5 py-0.5 text-xs text-accent-strong">
+                              answered
+                            </span>
                           </span>
                           {regradeBase ? (
                             <span className="block text-xs">
-                              <Link to={`${regradeBase}/${lockedItem.position}/regrade`}>Regrade to change its version or points</Link>
+                              <Link to={`${regradeBase}/${lockedItem.position}/regrade`}>
+                                Regrade to change its version or points
+                              </Link>
                             </span>
                           ) : null}
                         </>

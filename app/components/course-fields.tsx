@@ -9,16 +9,42 @@ import { cn } from '#app/lib/cn.ts'
 import { conventionText, type SignConventionName } from '#app/lib/conventions.ts'
 import { COMMON_TIME_ZONES, TIME_ZONE_HINT } from '#app/lib/time-zones.ts'
 
-export function ConventionChoice({ defaultValue, error, hint, name = 'signConvention' }: { defaultValue?: string; error?: string; hint?: ReactNode; name?: string }) {
+export function ConventionChoice({
+  defaultValue,
+  error,
+  hint,
+  name = 'signConvention',
+}: {
+  defaultValue?: string
+  error?: string
+  hint?: ReactNode
+  name?: string
+}) {
   const id = useId()
   const hintId = hint ? `${id}-hint` : undefined
   const errorId = error ? `${id}-error` : undefined
   return (
-    <fieldset aria-describedby={[hintId, errorId].filter(Boolean).join(' ') || undefined} className="flex flex-col gap-2">
+    <fieldset
+      aria-describedby={[hintId, errorId].filter(Boolean).join(' ') || undefined}
+      className="flex flex-col gap-2"
+    >
       <legend className="text-sm font-medium text-ink">Sign convention</legend>
       {(['engineering', 'chemistry'] as const satisfies readonly SignConventionName[]).map((c) => (
-        <label key={c} className={cn('flex items-start gap-3 rounded-md border bg-white px-3 py-2', error ? 'border-danger' : 'border-line')}>
-          <input type="radio" name={name} value={c} defaultChecked={defaultValue === c} aria-invalid={error ? true : undefined} className="mt-1" />
+        <label
+          key={c}
+          className={cn(
+            'flex items-start gap-3 rounded-md border bg-white px-3 py-2',
+            error ? 'border-danger' : 'border-line',
+          )}
+        >
+          <input
+            type="radio"
+            name={name}
+            value={c}
+            defaultChecked={defaultValue === c}
+            aria-invalid={error ? true : undefined}
+            className="mt-1"
+          />
           <span>
             {conventionText[c].label}: <span className="font-mono whitespace-nowrap">{conventionText[c].equation}</span>
             <span className="block text-sm text-muted">{conventionText[c].meaning}</span>
@@ -39,7 +65,15 @@ export function ConventionChoice({ defaultValue, error, hint, name = 'signConven
   )
 }
 
-export function TimeZoneField({ defaultValue, error, hint }: { defaultValue?: string; error?: string; hint?: ReactNode }) {
+export function TimeZoneField({
+  defaultValue,
+  error,
+  hint,
+}: {
+  defaultValue?: string
+  error?: string
+  hint?: ReactNode
+}) {
   const listId = useId()
   return (
     <>

@@ -25,7 +25,19 @@ function scaleFor(axis: Axis, from: number, to: number): Scale {
   return (x) => from + ((x - axis.min) / span) * (to - from)
 }
 
-const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' }
+const SUPERSCRIPT: Record<string, string> = {
+  '-': '⁻',
+  '0': '⁰',
+  '1': '¹',
+  '2': '²',
+  '3': '³',
+  '4': '⁴',
+  '5': '⁵',
+  '6': '⁶',
+  '7': '⁷',
+  '8': '⁸',
+  '9': '⁹',
+}
 const sup = (n: number) => [...String(n)].map((c) => SUPERSCRIPT[c] ?? c).join('')
 
 function tickText(x: number, decimals: number): string {
@@ -85,7 +97,9 @@ function pathData(points: [number, number][], sx: Scale, sy: Scale): string {
 
 /** A small arrowhead halfway along the curve, pointing in the direction of the process. */
 function arrowAt(points: [number, number][], sx: Scale, sy: Scale): string | null {
-  const scr = points.map(([x, y]) => [sx(x), sy(y)] as const).filter(([x, y]) => Number.isFinite(x) && Number.isFinite(y))
+  const scr = points
+    .map(([x, y]) => [sx(x), sy(y)] as const)
+    .filter(([x, y]) => Number.isFinite(x) && Number.isFinite(y))
   if (scr.length < 2) return null
   const seg = scr.slice(1).map((p, i) => Math.hypot(p[0] - scr[i]![0], p[1] - scr[i]![1]))
   const total = seg.reduce((a, b) => a + b, 0)
@@ -153,7 +167,13 @@ export function CycleDiagram({ plot }: { plot: Plot }) {
   const hasDashed = plot.curves.some((c) => c.style === 'dashed')
   return (
     <div className="min-w-0">
-      <svg role="img" aria-labelledby={`${titleId} ${descId}`} viewBox={`0 0 ${W} ${H}`} className="h-auto w-full text-ink" fontFamily="inherit">
+      <svg
+        role="img"
+        aria-labelledby={`${titleId} ${descId}`}
+        viewBox={`0 0 ${W} ${H}`}
+        className="h-auto w-full text-ink"
+        fontFamily="inherit"
+      >
         <title id={titleId}>{plot.title}</title>
         <desc id={descId}>{describePlot(plot)}</desc>
         <defs>
@@ -163,10 +183,26 @@ export function CycleDiagram({ plot }: { plot: Plot }) {
         </defs>
         <g aria-hidden="true">
           {xt.map((t) => (
-            <line key={`gx${t.value}`} x1={sx(t.value)} x2={sx(t.value)} y1={M.top} y2={M.top + PH} className="stroke-line" strokeWidth={1} />
+            <line
+              key={`gx${t.value}`}
+              x1={sx(t.value)}
+              x2={sx(t.value)}
+              y1={M.top}
+              y2={M.top + PH}
+              className="stroke-line"
+              strokeWidth={1}
+            />
           ))}
           {yt.map((t) => (
-            <line key={`gy${t.value}`} x1={M.left} x2={M.left + PW} y1={sy(t.value)} y2={sy(t.value)} className="stroke-line" strokeWidth={1} />
+            <line
+              key={`gy${t.value}`}
+              x1={M.left}
+              x2={M.left + PW}
+              y1={sy(t.value)}
+              y2={sy(t.value)}
+              className="stroke-line"
+              strokeWidth={1}
+            />
           ))}
         </g>
         <g clipPath={`url(#${clipId})`}>
@@ -195,7 +231,14 @@ export function CycleDiagram({ plot }: { plot: Plot }) {
           ))}
           {plot.curves.map((c, i) => {
             const a = arrowAt(c.points, sx, sy)
-            return a ? <polygon key={`a${i}`} points={a} className={c.style === 'dashed' ? 'fill-warn' : 'fill-accent'} aria-hidden="true" /> : null
+            return a ? (
+              <polygon
+                key={`a${i}`}
+                points={a}
+                className={c.style === 'dashed' ? 'fill-warn' : 'fill-accent'}
+                aria-hidden="true"
+              />
+            ) : null
           })}
         </g>
         <g aria-hidden="true" className="fill-ink" fontSize={11}>
@@ -220,7 +263,13 @@ export function CycleDiagram({ plot }: { plot: Plot }) {
           <text x={M.left + PW / 2} y={H - 10} textAnchor="middle" fontSize={12}>
             {axisTitle(plot.x)}
           </text>
-          <text x={14} y={M.top + PH / 2} textAnchor="middle" fontSize={12} transform={`rotate(-90 14 ${M.top + PH / 2})`}>
+          <text
+            x={14}
+            y={M.top + PH / 2}
+            textAnchor="middle"
+            fontSize={12}
+            transform={`rotate(-90 14 ${M.top + PH / 2})`}
+          >
             {axisTitle(plot.y)}
           </text>
         </g>
@@ -271,7 +320,15 @@ export function CycleDiagram({ plot }: { plot: Plot }) {
 }
 
 /** Both diagrams side by side, stacked on narrow screens or, with `stacked`, always (in a narrow column). */
-export function CycleDiagrams({ diagrams, caption, stacked = false }: { diagrams: Diagrams; caption?: string; stacked?: boolean }) {
+export function CycleDiagrams({
+  diagrams,
+  caption,
+  stacked = false,
+}: {
+  diagrams: Diagrams
+  caption?: string
+  stacked?: boolean
+}) {
   return (
     <figure className="my-4 break-inside-avoid">
       <div className={stacked ? 'grid gap-4' : 'grid gap-6 md:grid-cols-2'}>

@@ -8,9 +8,24 @@ import { useId } from 'react'
 export function CyclewrightMark({ className, title = 'Cyclewright' }: { className?: string; title?: string }) {
   const id = useId()
   return (
-    <svg viewBox="0 0 32 32" width="28" height="28" role="img" aria-labelledby={id} className={className} focusable="false">
+    <svg
+      viewBox="0 0 32 32"
+      width="28"
+      height="28"
+      role="img"
+      aria-labelledby={id}
+      className={className}
+      focusable="false"
+    >
       <title id={id}>{title}</title>
-      <path d="M5 3.5 V27 H28.5" fill="none" stroke="var(--color-muted, #5b6470)" strokeWidth="1.75" strokeLinecap="round" strokeLinejoin="round" />
+      <path
+        d="M5 3.5 V27 H28.5"
+        fill="none"
+        stroke="var(--color-muted, #5b6470)"
+        strokeWidth="1.75"
+        strokeLinecap="round"
+        strokeLinejoin="round"
+      />
       <g fill="none" stroke="var(--color-accent, #1d5c63)" strokeWidth="2.5" strokeLinecap="round">
         <path d="M10 7 C14.5 7.8 19.5 10.5 24.5 15" />
         <path d="M24.5 15 C25.6 17.2 25.6 19.6 25 22" />

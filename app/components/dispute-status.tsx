@@ -3,7 +3,13 @@
  * word itself, so colour is never the only signal.
  */
 import { cn } from '#app/lib/cn.ts'
-import { DISPUTE_STATUS_LABELS, DISPUTE_STATUS_MEANINGS, DISPUTE_STATUS_TONES, TONE_CLASSES, type DisputeStatus } from '#app/lib/labels.ts'
+import {
+  DISPUTE_STATUS_LABELS,
+  DISPUTE_STATUS_MEANINGS,
+  DISPUTE_STATUS_TONES,
+  TONE_CLASSES,
+  type DisputeStatus,
+} from '#app/lib/labels.ts'
 import { formatPoints } from '#app/lib/points.ts'
 
 export type DisputeStatusValue = DisputeStatus
@@ -16,15 +22,24 @@ export const DISPUTE_STATUS_MEANING: Readonly<Record<DisputeStatusValue, string>
 
 export function DisputeStatusBadge({ status, className }: { status: DisputeStatusValue; className?: string }) {
   return (
-    <span className={cn('inline-block rounded border px-1.5 py-0.5 text-xs font-semibold whitespace-nowrap', TONE_CLASSES[DISPUTE_STATUS_TONES[status]], className)}>
+    <span
+      className={cn(
+        'inline-block rounded border px-1.5 py-0.5 text-xs font-semibold whitespace-nowrap',
+        TONE_CLASSES[DISPUTE_STATUS_TONES[status]],
+        className,
+      )}
+    >
       {DISPUTE_STATUS_LABELS[status]}
     </span>
   )
 }
 
-
 /** "2 → 3 points", "kept at 1 point", or nothing while the dispute is open. */
-export function disputeOutcomeText(d: { status: DisputeStatusValue; scoreBefore: number | null; scoreAfter: number | null }): string | null {
+export function disputeOutcomeText(d: {
+  status: DisputeStatusValue
+  scoreBefore: number | null
+  scoreAfter: number | null
+}): string | null {
   if (d.status === 'open') return null
   if (d.scoreBefore === null || d.scoreAfter === null) return DISPUTE_STATUS_WORDS[d.status]
   const unit = (n: number) => (n === 1 ? 'point' : 'points')

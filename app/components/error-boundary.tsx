@@ -24,13 +24,17 @@ export function GeneralErrorBoundary() {
     status = error.status
     if (typeof error.data === 'string' && error.data.length > 0 && error.data.length < 300) message = error.data
     else if (status === 404) message = 'The address may be mistyped, or the page may have moved.'
-    else if (status === 403) message = 'Your account does not have a role that allows this. If you think it should, ask your instructor.'
+    else if (status === 403)
+      message = 'Your account does not have a role that allows this. If you think it should, ask your instructor.'
   } else if (import.meta.env.DEV && error instanceof Error) {
     details = error.stack
   }
   const title = titles[status] ?? 'Something went wrong'
   return (
-    <section aria-labelledby="error-title" className="mx-auto max-w-xl rounded-lg border border-line bg-white p-8 shadow-sm">
+    <section
+      aria-labelledby="error-title"
+      className="mx-auto max-w-xl rounded-lg border border-line bg-white p-8 shadow-sm"
+    >
       <p className="text-sm font-semibold tracking-wide text-muted uppercase">Error {status}</p>
       <h1 id="error-title" className="mt-2 text-2xl font-semibold">
         {title}

@@ -48,18 +48,41 @@ function hrefFor(view: GradebookView, change: Partial<GradebookView>): string {
  * than the box: the screen less the page's padding and the box's border), and so does the
  * student column, so every score is read beside its student.
  */
-const PHONE_CAPTION = 'px-3 py-2 text-left text-sm text-muted max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-2rem-2px)]'
+const PHONE_CAPTION =
+  'px-3 py-2 text-left text-sm text-muted max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-2rem-2px)]'
 const STUDENT_HEADER = 'sticky left-0 z-10 bg-paper px-3 py-2 shadow-[1px_0_0_var(--color-line)]'
 
-function SortHeader({ view, sort, children, className }: { view: GradebookView; sort: GradebookSort; children: React.ReactNode; className?: string }) {
+function SortHeader({
+  view,
+  sort,
+  children,
+  className,
+}: {
+  view: GradebookView
+  sort: GradebookSort
+  children: React.ReactNode
+  className?: string
+}) {
   const active = view.sort === sort
   const nextDir = active && view.dir === 'asc' ? 'desc' : 'asc'
   return (
-    <th scope="col" className={className ?? 'px-3 py-2'} aria-sort={active ? (view.dir === 'asc' ? 'ascending' : 'descending') : undefined}>
-      <Link to={hrefFor(view, { sort, dir: nextDir })} preventScrollReset className="inline-flex items-center gap-1 underline-offset-2 hover:underline">
+    <th
+      scope="col"
+      className={className ?? 'px-3 py-2'}
+      aria-sort={active ? (view.dir === 'asc' ? 'ascending' : 'descending') : undefined}
+    >
+      <Link
+        to={hrefFor(view, { sort, dir: nextDir })}
+        preventScrollReset
+        className="inline-flex items-center gap-1 underline-offset-2 hover:underline"
+      >
         {children}
         <span aria-hidden="true">{active ? (view.dir === 'asc' ? '▲' : '▼') : '↕'}</span>
-        <span className="sr-only">{active ? `, sorted ${view.dir === 'asc' ? 'ascending' : 'descending'}; sort the other way` : ', sort by this column'}</span>
+        <span className="sr-only">
+          {active
+            ? `, sorted ${view.dir === 'asc' ? 'ascending' : 'descending'}; sort the other way`
+            : ', sort by this column'}
+        </span>
       </Link>
     </th>
   )
@@ -73,7 +96,12 @@ export function GradebookFilters({ view, sections }: { view: GradebookView; sect
         <label htmlFor="gb-section" className="text-sm font-medium">
           Section
         </label>
-        <select id="gb-section" name="section" defaultValue={view.section} className="rounded-md border border-line bg-white px-3 py-2">
+        <select
+          id="gb-section"
+          name="section"
+          defaultValue={view.section}
+          className="rounded-md border border-line bg-white px-3 py-2"
+        >
           <option value="">All sections</option>
           {sections.map((s) => (
             <option key={s} value={s}>
@@ -86,7 +114,12 @@ export function GradebookFilters({ view, sections }: { view: GradebookView; sect
         <label htmlFor="gb-status" className="text-sm font-medium">
           Status
         </label>
-        <select id="gb-status" name="status" defaultValue={view.status} className="rounded-md border border-line bg-white px-3 py-2">
+        <select
+          id="gb-status"
+          name="status"
+          defaultValue={view.status}
+          className="rounded-md border border-line bg-white px-3 py-2"
+        >
           {Object.entries(filterLabels).map(([value, label]) => (
             <option key={value} value={value}>
               {label}
@@ -98,12 +131,22 @@ export function GradebookFilters({ view, sections }: { view: GradebookView; sect
         <label htmlFor="gb-q" className="text-sm font-medium">
           Name, e-mail or student ID
         </label>
-        <input id="gb-q" name="q" type="search" defaultValue={view.q} maxLength={200} className="w-full rounded-md border border-line px-3 py-2 sm:w-56" />
+        <input
+          id="gb-q"
+          name="q"
+          type="search"
+          defaultValue={view.q}
+          maxLength={200}
+          className="w-full rounded-md border border-line px-3 py-2 sm:w-56"
+        />
       </div>
       {view.sort !== 'name' ? <input type="hidden" name="sort" value={view.sort} /> : null}
       {view.dir !== 'asc' ? <input type="hidden" name="dir" value={view.dir} /> : null}
       {view.expand ? <input type="hidden" name="expand" value={view.expand} /> : null}
-      <button type="submit" className="min-h-11 rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong sm:min-h-0">
+      <button
+        type="submit"
+        className="min-h-11 rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong sm:min-h-0"
+      >
         Show
       </button>
       <Link to="?" className="inline-flex min-h-11 items-center text-sm underline sm:min-h-0 sm:py-2">
@@ -118,7 +161,9 @@ function StatusCell({ status, late, pending }: { status: StudentStatus; late: bo
     <td className="px-3 py-2 whitespace-nowrap">
       {statusLabels[status]}
       {pending > 0 ? <span className="ml-1 text-muted">({pending} waiting)</span> : null}
-      {late ? <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">{LATE_LABEL}</span> : null}
+      {late ? (
+        <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">{LATE_LABEL}</span>
+      ) : null}
     </td>
   )
 }
@@ -128,9 +173,18 @@ export function sortedName(s: { familyName: string; givenName: string }): string
   return s.givenName ? `${s.familyName}, ${s.givenName}` : s.familyName
 }
 
-function StudentCell({ student, href }: { student: { familyName: string; givenName: string; email: string; studentNumber: string | null }; href: string }) {
+function StudentCell({
+  student,
+  href,
+}: {
+  student: { familyName: string; givenName: string; email: string; studentNumber: string | null }
+  href: string
+}) {
   return (
-    <th scope="row" className="sticky left-0 min-w-40 bg-white px-3 py-2 text-left font-normal shadow-[1px_0_0_var(--color-line)]">
+    <th
+      scope="row"
+      className="sticky left-0 min-w-40 bg-white px-3 py-2 text-left font-normal shadow-[1px_0_0_var(--color-line)]"
+    >
       <Link to={href} className="font-medium">
         {sortedName(student)}
       </Link>
@@ -153,8 +207,12 @@ export function DroppedStudents({ dropped, timeZone }: { dropped: readonly Dropp
       <ul className="mt-2 space-y-1">
         {dropped.map((d) => (
           <li key={d.userId} className="[overflow-wrap:anywhere]">
-            {sortedName(d)} <span className="text-muted">· {d.studentNumber ? `ID ${d.studentNumber} · ` : ''}{d.email}
-            {d.section ? ` · section ${d.section}` : ''} · dropped {formatInZone(d.droppedAt, timeZone)}</span>
+            {sortedName(d)}{' '}
+            <span className="text-muted">
+              · {d.studentNumber ? `ID ${d.studentNumber} · ` : ''}
+              {d.email}
+              {d.section ? ` · section ${d.section}` : ''} · dropped {formatInZone(d.droppedAt, timeZone)}
+            </span>
           </li>
         ))}
       </ul>
@@ -199,7 +257,10 @@ export function AssignmentGradebookTable({ data, basePath }: { data: AssignmentG
               expanded ? (
                 item.finds.map((f) => (
                   <th key={`${item.position}-${f.name}`} scope="col" className="px-3 py-2">
-                    <Link to={`${basePath}/problems/${item.position}/answers?find=${encodeURIComponent(f.name)}`} className="underline-offset-2 hover:underline">
+                    <Link
+                      to={`${basePath}/problems/${item.position}/answers?find=${encodeURIComponent(f.name)}`}
+                      className="underline-offset-2 hover:underline"
+                    >
                       {item.position}. {f.name}
                     </Link>
                     <span className="block font-normal normal-case">/ {formatPoints(f.share)}</span>
@@ -207,7 +268,11 @@ export function AssignmentGradebookTable({ data, basePath }: { data: AssignmentG
                 ))
               ) : (
                 <th key={item.position} scope="col" className="px-3 py-2">
-                  <Link to={`${basePath}/problems/${item.position}/answers`} className="underline-offset-2 hover:underline" title={item.title}>
+                  <Link
+                    to={`${basePath}/problems/${item.position}/answers`}
+                    className="underline-offset-2 hover:underline"
+                    title={item.title}
+                  >
                     Problem {item.position}
                   </Link>
                   <span className="block font-normal normal-case">/ {formatPoints(item.points)}</span>
@@ -225,7 +290,13 @@ export function AssignmentGradebookTable({ data, basePath }: { data: AssignmentG
         <tbody>
           {data.students.map((s) => (
             <tr key={s.userId} className="border-t border-line align-top">
-              <StudentCell student={s} href={href('/courses/:courseId/students/:userId', { courseId: String(data.assignment.courseId), userId: String(s.userId) })} />
+              <StudentCell
+                student={s}
+                href={href('/courses/:courseId/students/:userId', {
+                  courseId: String(data.assignment.courseId),
+                  userId: String(s.userId),
+                })}
+              />
               <td className="px-3 py-2">{s.section ?? '—'}</td>
               {s.items.map((item) =>
                 expanded ? (
@@ -283,7 +354,8 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
     <div className="relative mt-4 overflow-x-auto rounded-lg border border-line bg-white">
       <table className="w-full text-left text-sm">
         <caption className={PHONE_CAPTION}>
-          {data.students.length} of {data.studentCount} students · scores out of each assignment’s points; “—” marks an assignment not counted yet
+          {data.students.length} of {data.studentCount} students · scores out of each assignment’s points; “—” marks an
+          assignment not counted yet
         </caption>
         <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
           <tr>
@@ -295,11 +367,21 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
             </SortHeader>
             {data.assignments.map((a) => (
               <th key={a.id} scope="col" className="min-w-32 px-3 py-2">
-                <Link to={href('/courses/:courseId/assignments/:assignmentId/gradebook', { courseId: String(data.course.id), assignmentId: String(a.id) })} className="underline-offset-2 hover:underline">
+                <Link
+                  to={href('/courses/:courseId/assignments/:assignmentId/gradebook', {
+                    courseId: String(data.course.id),
+                    assignmentId: String(a.id),
+                  })}
+                  className="underline-offset-2 hover:underline"
+                >
                   {a.title}
                 </Link>
                 <span className="block font-normal normal-case">/ {formatPoints(a.points)}</span>
-                {a.counted ? null : <span className="block font-normal normal-case">{a.stage === 'not-open' ? 'not open yet' : 'not due yet'}: not counted</span>}
+                {a.counted ? null : (
+                  <span className="block font-normal normal-case">
+                    {a.stage === 'not-open' ? 'not open yet' : 'not due yet'}: not counted
+                  </span>
+                )}
               </th>
             ))}
             <SortHeader view={view} sort="total">
@@ -313,7 +395,13 @@ export function CourseGradebookTable({ data }: { data: CourseGradebook }) {
         <tbody>
           {data.students.map((s) => (
             <tr key={s.userId} className="border-t border-line align-top">
-              <StudentCell student={s} href={href('/courses/:courseId/students/:userId', { courseId: String(data.course.id), userId: String(s.userId) })} />
+              <StudentCell
+                student={s}
+                href={href('/courses/:courseId/students/:userId', {
+                  courseId: String(data.course.id),
+                  userId: String(s.userId),
+                })}
+              />
               <td className="px-3 py-2">{s.section ?? '—'}</td>
               {s.assignments.map((c) => (
                 <td key={c.assignmentId} className="px-3 py-2 whitespace-nowrap tabular-nums">

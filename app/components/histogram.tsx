@@ -32,9 +32,22 @@ export function Histogram({ bins, title }: { bins: readonly HistogramBin[]; titl
           const h = (b.count / most) * (HEIGHT - 12)
           return (
             <g key={i}>
-              <rect x={i * barWidth + 2} y={HEIGHT - h} width={barWidth - 4} height={h} fill="currentColor" fillOpacity={0.75} />
+              <rect
+                x={i * barWidth + 2}
+                y={HEIGHT - h}
+                width={barWidth - 4}
+                height={h}
+                fill="currentColor"
+                fillOpacity={0.75}
+              />
               {b.count > 0 ? (
-                <text x={i * barWidth + barWidth / 2} y={HEIGHT - h - 2} textAnchor="middle" fontSize={9} fill="currentColor">
+                <text
+                  x={i * barWidth + barWidth / 2}
+                  y={HEIGHT - h - 2}
+                  textAnchor="middle"
+                  fontSize={9}
+                  fill="currentColor"
+                >
                   {b.count}
                 </text>
               ) : null}
@@ -42,7 +55,14 @@ export function Histogram({ bins, title }: { bins: readonly HistogramBin[]; titl
           )
         })}
         {[0, 0.5, 1].map((x) => (
-          <text key={x} x={x * WIDTH} y={HEIGHT + 13} textAnchor={x === 0 ? 'start' : x === 1 ? 'end' : 'middle'} fontSize={9} fill="currentColor">
+          <text
+            key={x}
+            x={x * WIDTH}
+            y={HEIGHT + 13}
+            textAnchor={x === 0 ? 'start' : x === 1 ? 'end' : 'middle'}
+            fontSize={9}
+            fill="currentColor"
+          >
             {percent(x)}
           </text>
         ))}

@@ -9,7 +9,10 @@ const texts: Record<LinkProblem, string> = {
 
 export function LinkProblemPanel({ problem, what }: { problem: LinkProblem; what: 'invitation' | 'password-reset' }) {
   return (
-    <section className="mx-auto max-w-md rounded-lg border border-line bg-white p-6 shadow-sm" aria-labelledby="link-title">
+    <section
+      className="mx-auto max-w-md rounded-lg border border-line bg-white p-6 shadow-sm"
+      aria-labelledby="link-title"
+    >
       <h1 id="link-title" className="text-2xl font-semibold">
         {what === 'invitation' ? 'This invitation cannot be used' : 'This reset link cannot be used'}
       </h1>

@@ -2,7 +2,13 @@ import { rules } from '#app/lib/validation.ts'
 import { Field } from './ui/field.tsx'
 
 /** A new password typed twice (joining a course, resetting a password). */
-export function NewPasswordFields({ label, errors }: { label: string; errors?: { password?: string; confirm?: string } }) {
+export function NewPasswordFields({
+  label,
+  errors,
+}: {
+  label: string
+  errors?: { password?: string; confirm?: string }
+}) {
   return (
     <>
       <Field
@@ -15,7 +21,14 @@ export function NewPasswordFields({ label, errors }: { label: string; errors?: {
         hint={`At least ${rules.password.minLength} characters.`}
         error={errors?.password}
       />
-      <Field label="The same password again" name="confirm" type="password" autoComplete="new-password" required error={errors?.confirm} />
+      <Field
+        label="The same password again"
+        name="confirm"
+        type="password"
+        autoComplete="new-password"
+        required
+        error={errors?.confirm}
+      />
     </>
   )
 }

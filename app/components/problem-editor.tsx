@@ -14,7 +14,13 @@ import { Form, useNavigation } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { VariantPreview } from '#app/components/variant-preview.tsx'
-import { DIFFICULTIES, FIND_SENSES, FIND_SENSE_WORDS, LEVELS, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import {
+  DIFFICULTIES,
+  FIND_SENSES,
+  FIND_SENSE_WORDS,
+  LEVELS,
+  type ProblemDefinition,
+} from '#app/domain/authoring/definition.ts'
 import { placeholderText } from '#app/domain/authoring/placeholder-syntax.ts'
 import { senseWarnings, type ProblemVisibility, type SenseFinding } from '#app/domain/authoring/sense.ts'
 import { applicablePitfalls } from '#app/domain/grading/applicable-pitfalls.ts'
@@ -56,8 +62,18 @@ export interface ProblemEditorProps {
   readonly saveNote?: ReactNode
 }
 
-const RULE_WORDS: Record<(typeof RULE_KINDS)[number], string> = { range: 'Range', choice: 'One of a list', expression: 'Expression' }
-const OP_WORDS: Record<(typeof CONSTRAINT_OPS)[number], string> = { '<': '<', '<=': '≤', '>': '>', '>=': '≥', '!=': '≠' }
+const RULE_WORDS: Record<(typeof RULE_KINDS)[number], string> = {
+  range: 'Range',
+  choice: 'One of a list',
+  expression: 'Expression',
+}
+const OP_WORDS: Record<(typeof CONSTRAINT_OPS)[number], string> = {
+  '<': '<',
+  '<=': '≤',
+  '>': '>',
+  '>=': '≥',
+  '!=': '≠',
+}
 const PREVIEW_DEBOUNCE_MS = 600
 const FORM_ID = 'problem-form'
 
@@ -87,10 +103,19 @@ function issuesByField(issues: readonly FormIssue[]): Map<string, string[]> {
 }
 
 function isPreviewResult(x: unknown): x is PreviewResult {
-  return typeof x === 'object' && x !== null && Array.isArray((x as PreviewResult).issues) && Array.isArray((x as PreviewResult).variants)
+  return (
+    typeof x === 'object' &&
+    x !== null &&
+    Array.isArray((x as PreviewResult).issues) &&
+    Array.isArray((x as PreviewResult).variants)
+  )
 }
 
-async function fetchPreview(definitionJson: string, convention: string | undefined, signal: AbortSignal): Promise<PreviewResult> {
+async function fetchPreview(
+  definitionJson: string,
+  convention: string | undefined,
+  signal: AbortSignal,
+): Promise<PreviewResult> {
   const response = await fetch('/api/preview', {
     method: 'POST',
     headers: { 'Content-Type': 'application/json', Accept: 'application/json' },
@@ -104,10 +129,14 @@ async function fetchPreview(definitionJson: string, convention: string | undefin
     // A non-JSON answer (a proxy's error page) is reported by status below.
   }
   if (!response.ok) {
-    const message = typeof body === 'object' && body !== null && typeof (body as { error?: unknown }).error === 'string' ? (body as { error: string }).error : null
+    const message =
+      typeof body === 'object' && body !== null && typeof (body as { error?: unknown }).error === 'string'
+        ? (body as { error: string }).error
+        : null
     throw new Error(message ?? `The preview could not be made just now (status ${response.status}).`)
   }
-  if (!isPreviewResult(body)) throw new Error('The preview came back in a form this page cannot read. Reload the page and try again.')
+  if (!isPreviewResult(body))
+    throw new Error('The preview came back in a form this page cannot read. Reload the page and try again.')
   return body
 }
 
@@ -147,7 +176,10 @@ function EditorForm({
   saveNote,
   focusTable,
   onRemoved,
-}: ProblemEditorProps & { focusTable: RowTable | undefined; onRemoved: (state: EditorState, focus: RowTable, said: string) => void }) {
+}: ProblemEditorProps & {
+  focusTable: RowTable | undefined
+  onRemoved: (state: EditorState, focus: RowTable, said: string) => void
+}) {
   const { values, rows } = state
   const hydrated = useHydrated()
   const busy = useNavigation().state === 'submitting'
@@ -155,20 +187,38 @@ function EditorForm({
   const summaryRef = useRef<HTMLDivElement>(null)
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined)
   const [template, setTemplate] = useState(values['physics.template'] || 'otto')
-  const [ruleKinds, setRuleKinds] = useState(() => Array.from({ length: rows.givens }, (_, i) => values[`givens.${i}.rule.kind`] || 'range'))
-  const [sourceKinds, setSourceKinds] = useState(() => Array.from({ length: rows.finds }, (_, i) => values[`finds.${i}.source.kind`] || 'output'))
-  const [toleranceKinds, setToleranceKinds] = useState(() => Array.from({ length: rows.finds }, (_, i) => values[`finds.${i}.tolerance.kind`] || 'relative'))
+  const [ruleKinds, setRuleKinds] = useState(() =>
+    Array.from({ length: rows.givens }, (_, i) => values[`givens.${i}.rule.kind`] || 'range'),
+  )
+  const [sourceKinds, setSourceKinds] = useState(() =>
+    Array.from({ length: rows.finds }, (_, i) => values[`finds.${i}.source.kind`] || 'output'),
+  )
+  const [toleranceKinds, setToleranceKinds] = useState(() =>
+    Array.from({ length: rows.finds }, (_, i) => values[`finds.${i}.tolerance.kind`] || 'relative'),
+  )
   // Template inputs typed before a switch of template come back when a template with the
   // same input is chosen again (the inputs unmount while another template is shown).
   const typedInputs = useRef<Record<string, string>>({})
-  const [draft, setDraft] = useState<{ json: string; convention: string; formIssues: FormIssue[]; definition: ProblemDefinition; visibility: string } | null>(null)
+  const [draft, setDraft] = useState<{
+    json: string
+    convention: string
+    formIssues: FormIssue[]
+    definition: ProblemDefinition
+    visibility: string
+  } | null>(null)
   const [previewConvention, setPreviewConvention] = useState(values._previewConvention || 'engineering')
   const errors = issuesByField(issues)
 
   function readDraft() {
     if (!formRef.current) return
     const { draft: d, formIssues, visibility } = definitionFromForm(new FormData(formRef.current))
-    setDraft({ json: JSON.stringify(d), convention: (d as { convention?: string }).convention ?? '', formIssues, definition: d as ProblemDefinition, visibility })
+    setDraft({
+      json: JSON.stringify(d),
+      convention: (d as { convention?: string }).convention ?? '',
+      formIssues,
+      definition: d as ProblemDefinition,
+      visibility,
+    })
   }
   function scheduleDraft() {
     clearTimeout(timer.current)
@@ -187,10 +237,13 @@ function EditorForm({
   }, [focusTable])
   // Row names as typed, so each "Remove" button names its row even before the draft catches up.
   const [typedNames, setTypedNames] = useState<Record<string, string>>({})
-  const rowName = (table: RowTable, i: number) => (typedNames[`${table}.${i}.name`] ?? values[`${table}.${i}.name`] ?? '').trim()
+  const rowName = (table: RowTable, i: number) =>
+    (typedNames[`${table}.${i}.name`] ?? values[`${table}.${i}.name`] ?? '').trim()
   const removeLabel = (table: RowTable, i: number) => {
     const name = table === 'constraints' ? '' : rowName(table, i)
-    return name ? `Remove ${TABLE_WORDS[table]} ${name}` : `Remove ${TABLE_WORDS[table]} ${i + 1}${table === 'constraints' ? '' : ' (no name yet)'}`
+    return name
+      ? `Remove ${TABLE_WORDS[table]} ${name}`
+      : `Remove ${TABLE_WORDS[table]} ${i + 1}${table === 'constraints' ? '' : ' (no name yet)'}`
   }
   const removeButton = (table: RowTable, i: number) => (
     <Button
@@ -204,7 +257,11 @@ function EditorForm({
         if (!formRef.current) return
         e.preventDefault()
         const label = removeLabel(table, i).replace(/^Remove /, '')
-        onRemoved(editorStateWithout(new FormData(formRef.current), table, i), table, `${label.charAt(0).toUpperCase()}${label.slice(1)} removed.`)
+        onRemoved(
+          editorStateWithout(new FormData(formRef.current), table, i),
+          table,
+          `${label.charAt(0).toUpperCase()}${label.slice(1)} removed.`,
+        )
       }}
     >
       Remove
@@ -248,7 +305,9 @@ function EditorForm({
   if (draftDefinition !== null) {
     let found: SenseFinding[] = []
     try {
-      found = Array.isArray(draftDefinition.finds) ? senseWarnings(draftDefinition, { visibility: draft!.visibility as ProblemVisibility }) : []
+      found = Array.isArray(draftDefinition.finds)
+        ? senseWarnings(draftDefinition, { visibility: draft!.visibility as ProblemVisibility })
+        : []
     } catch {
       found = []
     }
@@ -258,7 +317,9 @@ function EditorForm({
   // ---- field helpers (plain functions returning JSX, so no remounts) ------------------
   const v = (path: string) => values[path] ?? ''
   const describedBy = (path: string, hint?: boolean) =>
-    [hint ? `${fieldId(path)}-hint` : null, errors.has(path) ? `${fieldId(path)}-error` : null].filter(Boolean).join(' ') || undefined
+    [hint ? `${fieldId(path)}-hint` : null, errors.has(path) ? `${fieldId(path)}-error` : null]
+      .filter(Boolean)
+      .join(' ') || undefined
   const invalid = (path: string) => (errors.has(path) ? true : undefined)
   const errorText = (path: string) =>
     errors.has(path) ? (
@@ -282,7 +343,15 @@ function EditorForm({
   )
   const textInput = (
     path: string,
-    extra: { ariaLabel?: string; placeholder?: string; hint?: boolean; list?: string; inputMode?: 'decimal' | 'numeric'; required?: boolean; remember?: boolean } = {},
+    extra: {
+      ariaLabel?: string
+      placeholder?: string
+      hint?: boolean
+      list?: string
+      inputMode?: 'decimal' | 'numeric'
+      required?: boolean
+      remember?: boolean
+    } = {},
   ) => (
     <input
       id={fieldId(path)}
@@ -306,27 +375,47 @@ function EditorForm({
     </td>
   )
 
-
   const chosen = template === GENERAL_CYCLE ? undefined : findTemplate(options, template)
   const templateInputNames = new Set(chosen?.inputs.map((i) => i.name) ?? [])
   const leftoverInputs = Object.keys(values)
-    .filter((k) => k.startsWith('physics.inputs.') && values[k] !== '' && !templateInputNames.has(k.slice('physics.inputs.'.length)))
+    .filter(
+      (k) =>
+        k.startsWith('physics.inputs.') &&
+        values[k] !== '' &&
+        !templateInputNames.has(k.slice('physics.inputs.'.length)),
+    )
     .map((k) => k.slice('physics.inputs.'.length))
-  const givenNames = Array.from({ length: rows.givens }, (_, i) => values[`givens.${i}.name`]).filter((n): n is string => Boolean(n))
+  const givenNames = Array.from({ length: rows.givens }, (_, i) => values[`givens.${i}.name`]).filter(
+    (n): n is string => Boolean(n),
+  )
   const datalistId = useId()
 
   const promptGivens = (
     draftDefinition && Array.isArray(draftDefinition.givens)
-      ? draftDefinition.givens.map((g) => ({ name: typeof g?.name === 'string' ? g.name : '', label: typeof g?.label === 'string' ? g.label : '' }))
-      : Array.from({ length: rows.givens }, (_, i) => ({ name: (values[`givens.${i}.name`] ?? '').trim(), label: (values[`givens.${i}.label`] ?? '').trim() }))
+      ? draftDefinition.givens.map((g) => ({
+          name: typeof g?.name === 'string' ? g.name : '',
+          label: typeof g?.label === 'string' ? g.label : '',
+        }))
+      : Array.from({ length: rows.givens }, (_, i) => ({
+          name: (values[`givens.${i}.name`] ?? '').trim(),
+          label: (values[`givens.${i}.label`] ?? '').trim(),
+        }))
   ).filter((g) => /^[A-Za-z][A-Za-z0-9_]{0,31}$/.test(g.name))
 
   return (
     // Wide screens: the editor takes the window's width (beyond the page column), form and
     // preview side by side, the preview sticky while the form scrolls.
-    <div data-editor-layout className="flex flex-col gap-8 xl:mx-[calc(50%-50vw+1.5rem)] xl:grid xl:grid-cols-[minmax(0,2fr)_minmax(24rem,1fr)] xl:items-start">
+    <div
+      data-editor-layout
+      className="flex flex-col gap-8 xl:mx-[calc(50%-50vw+1.5rem)] xl:grid xl:grid-cols-[minmax(0,2fr)_minmax(24rem,1fr)] xl:items-start"
+    >
       {issues.length > 0 ? (
-        <div ref={summaryRef} tabIndex={-1} aria-labelledby="editor-issues-title" className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger xl:col-span-2">
+        <div
+          ref={summaryRef}
+          tabIndex={-1}
+          aria-labelledby="editor-issues-title"
+          className="rounded-md border border-danger/30 bg-danger-soft px-4 py-3 text-sm text-danger xl:col-span-2"
+        >
           <h2 id="editor-issues-title" className="font-semibold">
             Nothing was saved: {issues.length === 1 ? 'one thing needs' : `${issues.length} things need`} your attention
           </h2>
@@ -366,18 +455,32 @@ function EditorForm({
         className="flex min-w-0 flex-col gap-8"
         noValidate
       >
-        {values._basedOn ? <input type="hidden" id={fieldId('_basedOn')} name="_basedOn" value={values._basedOn} /> : null}
+        {values._basedOn ? (
+          <input type="hidden" id={fieldId('_basedOn')} name="_basedOn" value={values._basedOn} />
+        ) : null}
         <section aria-labelledby="basics-title" className="rounded-lg border border-line bg-white p-6 shadow-sm">
           <h2 id="basics-title" className="text-xl font-semibold">
             Basics
           </h2>
           <div className="mt-4 grid gap-4 md:grid-cols-2">
             <div className="md:col-span-2">{labelled('title', 'Title', textInput('title', { required: true }))}</div>
-            {labelled('tags.topics', 'Topics', textInput('tags.topics', { hint: true, placeholder: 'e.g. otto, air standard' }), 'Words separated by commas; they help colleagues find the problem.')}
+            {labelled(
+              'tags.topics',
+              'Topics',
+              textInput('tags.topics', { hint: true, placeholder: 'e.g. otto, air standard' }),
+              'Words separated by commas; they help colleagues find the problem.',
+            )}
             {labelled(
               'tags.difficulty',
               'Difficulty',
-              <select id={fieldId('tags.difficulty')} name="tags.difficulty" defaultValue={v('tags.difficulty') || 'standard'} aria-invalid={invalid('tags.difficulty')} aria-describedby={describedBy('tags.difficulty')} className={inputClass(errors.has('tags.difficulty'))}>
+              <select
+                id={fieldId('tags.difficulty')}
+                name="tags.difficulty"
+                defaultValue={v('tags.difficulty') || 'standard'}
+                aria-invalid={invalid('tags.difficulty')}
+                aria-describedby={describedBy('tags.difficulty')}
+                className={inputClass(errors.has('tags.difficulty'))}
+              >
                 {DIFFICULTIES.map((d) => (
                   <option key={d} value={d}>
                     {difficultyLabel[d]}
@@ -388,7 +491,14 @@ function EditorForm({
             {labelled(
               'tags.level',
               'Level',
-              <select id={fieldId('tags.level')} name="tags.level" defaultValue={v('tags.level') || 'second-year'} aria-invalid={invalid('tags.level')} aria-describedby={describedBy('tags.level')} className={inputClass(errors.has('tags.level'))}>
+              <select
+                id={fieldId('tags.level')}
+                name="tags.level"
+                defaultValue={v('tags.level') || 'second-year'}
+                aria-invalid={invalid('tags.level')}
+                aria-describedby={describedBy('tags.level')}
+                className={inputClass(errors.has('tags.level'))}
+              >
                 {LEVELS.map((l) => (
                   <option key={l} value={l}>
                     {levelLabel[l]}
@@ -399,7 +509,14 @@ function EditorForm({
             {labelled(
               'visibility',
               'Who can use it',
-              <select id={fieldId('visibility')} name="visibility" defaultValue={v('visibility') || 'private'} aria-invalid={invalid('visibility')} aria-describedby={describedBy('visibility')} className={inputClass(errors.has('visibility'))}>
+              <select
+                id={fieldId('visibility')}
+                name="visibility"
+                defaultValue={v('visibility') || 'private'}
+                aria-invalid={invalid('visibility')}
+                aria-describedby={describedBy('visibility')}
+                className={inputClass(errors.has('visibility'))}
+              >
                 {VISIBILITIES.map((x) => (
                   <option key={x} value={x}>
                     {visibilityLabel[x]}
@@ -410,7 +527,14 @@ function EditorForm({
             {labelled(
               'convention',
               'Sign convention',
-              <select id={fieldId('convention')} name="convention" defaultValue={v('convention') || 'course'} aria-invalid={invalid('convention')} aria-describedby={describedBy('convention', true)} className={inputClass(errors.has('convention'))}>
+              <select
+                id={fieldId('convention')}
+                name="convention"
+                defaultValue={v('convention') || 'course'}
+                aria-invalid={invalid('convention')}
+                aria-describedby={describedBy('convention', true)}
+                className={inputClass(errors.has('convention'))}
+              >
                 <option value="course">The course’s convention</option>
                 <option value="engineering">
                   {conventionText.engineering.label} ({conventionText.engineering.equation})
@@ -443,12 +567,18 @@ function EditorForm({
                 className={cn(inputClass(errors.has('prompt')), 'font-mono')}
               />,
               <>
-                Markdown. <code>[T1]</code> shows a given with its unit, <code>[p1 in kPa]</code> converts it, <code>[r, 3 sf]</code> or{' '}
-                <code>[r, 2 dp]</code> rounds it; <code>\[</code> is a bracket that is only a bracket. Math goes between <code>$…$</code> (inline) or{' '}
-                <code>$$…$$</code> (display). More in the <a href="/help/authoring#placeholders">author guide</a>.
+                Markdown. <code>[T1]</code> shows a given with its unit, <code>[p1 in kPa]</code> converts it,{' '}
+                <code>[r, 3 sf]</code> or <code>[r, 2 dp]</code> rounds it; <code>\[</code> is a bracket that is only a
+                bracket. Math goes between <code>$…$</code> (inline) or <code>$$…$$</code> (display). More in the{' '}
+                <a href="/help/authoring#placeholders">author guide</a>.
               </>,
             )}
-            <div role="group" aria-labelledby="insert-given-title" aria-describedby="insert-given-hint" className="flex flex-col gap-1">
+            <div
+              role="group"
+              aria-labelledby="insert-given-title"
+              aria-describedby="insert-given-hint"
+              className="flex flex-col gap-1"
+            >
               <h3 id="insert-given-title" className="text-sm font-medium">
                 Insert a given
               </h3>
@@ -492,13 +622,18 @@ function EditorForm({
           </div>
         </section>
 
-        <section id={fieldId('givens')} tabIndex={-1} aria-labelledby="givens-title" className="rounded-lg border border-line bg-white p-6 shadow-sm">
+        <section
+          id={fieldId('givens')}
+          tabIndex={-1}
+          aria-labelledby="givens-title"
+          className="rounded-lg border border-line bg-white p-6 shadow-sm"
+        >
           <h2 id="givens-title" className="text-xl font-semibold">
             Givens
           </h2>
           <p className="mt-1 text-sm text-muted">
-            Drawn per student. A range gives lowest, lowest + step, … up to highest; a list gives one of its values (numbers, or words such as gas
-            names); an expression is computed from the givens above it.
+            Drawn per student. A range gives lowest, lowest + step, … up to highest; a list gives one of its values
+            (numbers, or words such as gas names); an expression is computed from the givens above it.
           </p>
           {errorText('givens')}
           <div className="mt-4 overflow-x-auto">
@@ -597,9 +732,7 @@ function EditorForm({
                           ))}
                         </div>
                       </td>
-                      <td className="px-1 py-1 text-center align-top">
-                        {removeButton('givens', i)}
-                      </td>
+                      <td className="px-1 py-1 text-center align-top">{removeButton('givens', i)}</td>
                     </tr>
                   )
                 })}
@@ -611,12 +744,18 @@ function EditorForm({
           </Button>
         </section>
 
-        <section id={fieldId('constraints')} tabIndex={-1} aria-labelledby="constraints-title" className="rounded-lg border border-line bg-white p-6 shadow-sm">
+        <section
+          id={fieldId('constraints')}
+          tabIndex={-1}
+          aria-labelledby="constraints-title"
+          className="rounded-lg border border-line bg-white p-6 shadow-sm"
+        >
           <h2 id="constraints-title" className="text-xl font-semibold">
             Constraints
           </h2>
           <p className="mt-1 text-sm text-muted">
-            Combinations of givens a variant must satisfy; others are drawn again. Both sides may use givens and units (“TH − TL” ≥ “100 K”).
+            Combinations of givens a variant must satisfy; others are drawn again. Both sides may use givens and units
+            (“TH − TL” ≥ “100 K”).
           </p>
           {errorText('constraints')}
           <div className="mt-4 overflow-x-auto">
@@ -667,16 +806,21 @@ function EditorForm({
                       </td>
                       {cellInput(`${p}.right`, `Constraint ${n} right side`, 'e.g. 2000 K')}
                       {cellInput(`${p}.message`, `Constraint ${n} message`)}
-                      <td className="px-1 py-1 text-center align-top">
-                        {removeButton('constraints', i)}
-                      </td>
+                      <td className="px-1 py-1 text-center align-top">{removeButton('constraints', i)}</td>
                     </tr>
                   )
                 })}
               </tbody>
             </table>
           </div>
-          <Button type="submit" name="intent" value="add-constraint" variant="secondary" className="mt-3" formNoValidate>
+          <Button
+            type="submit"
+            name="intent"
+            value="add-constraint"
+            variant="secondary"
+            className="mt-3"
+            formNoValidate
+          >
             Add a constraint
           </Button>
         </section>
@@ -711,7 +855,9 @@ function EditorForm({
                   <optgroup label="Other">
                     <option value={GENERAL_CYCLE}>General state-and-process cycle</option>
                   </optgroup>
-                  {template !== GENERAL_CYCLE && !chosen ? <option value={template}>{template} (not a known template)</option> : null}
+                  {template !== GENERAL_CYCLE && !chosen ? (
+                    <option value={template}>{template} (not a known template)</option>
+                  ) : null}
                 </select>,
               )}
             </div>
@@ -737,9 +883,10 @@ function EditorForm({
                   className={cn(inputClass(errors.has('physics.cycle')), 'font-mono')}
                 />,
                 <>
-                  The <code>cycle</code> object of a spec file: gas, system, amount, states and steps (docs/spec-format.md). A text that is exactly a
-                  given’s name becomes that given’s value with its unit; <code>@{'{name}'}</code> works inside longer texts (in the physics only; the
-                  prompt writes <code>[name]</code>).
+                  The <code>cycle</code> object of a spec file: gas, system, amount, states and steps
+                  (docs/spec-format.md). A text that is exactly a given’s name becomes that given’s value with its unit;{' '}
+                  <code>@{'{name}'}</code> works inside longer texts (in the physics only; the prompt writes{' '}
+                  <code>[name]</code>).
                 </>,
               )}
             </div>
@@ -747,8 +894,8 @@ function EditorForm({
             <div className="mt-4">
               {chosen ? <p className="text-sm text-muted">{chosen.description}</p> : null}
               <p className="mt-2 text-sm text-muted">
-                Each input takes a given’s name{givenNames.length > 0 ? ` (${givenNames.join(', ')})` : ''}, or a fixed value with its unit such as
-                “100 kPa”; leave optional inputs empty.
+                Each input takes a given’s name{givenNames.length > 0 ? ` (${givenNames.join(', ')})` : ''}, or a fixed
+                value with its unit such as “100 kPa”; leave optional inputs empty.
               </p>
               <div className="mt-3 grid gap-4 md:grid-cols-2">
                 {chosen?.inputs.map((input) => {
@@ -758,7 +905,8 @@ function EditorForm({
                       {labelled(
                         path,
                         <>
-                          <code>{input.name}</code> <span className="font-normal text-muted">({input.required ? 'required' : 'optional'})</span>
+                          <code>{input.name}</code>{' '}
+                          <span className="font-normal text-muted">({input.required ? 'required' : 'optional'})</span>
                         </>,
                         textInput(path, { hint: true, list: `${datalistId}-givens`, remember: true }),
                         <>
@@ -792,11 +940,18 @@ function EditorForm({
           )}
         </section>
 
-        <section id={fieldId('finds')} tabIndex={-1} aria-labelledby="finds-title" className="rounded-lg border border-line bg-white p-6 shadow-sm">
+        <section
+          id={fieldId('finds')}
+          tabIndex={-1}
+          aria-labelledby="finds-title"
+          className="rounded-lg border border-line bg-white p-6 shadow-sm"
+        >
           <h2 id="finds-title" className="text-xl font-semibold">
             Finds
           </h2>
-          <p className="mt-1 text-sm text-muted">What students answer. Each comes from a solver output or an expression over the givens and earlier finds.</p>
+          <p className="mt-1 text-sm text-muted">
+            What students answer. Each comes from a solver output or an expression over the givens and earlier finds.
+          </p>
           {errorText('finds')}
           <datalist id={`${datalistId}-paths`}>
             {COMMON_OUTPUT_PATHS.map((o) => (
@@ -817,7 +972,13 @@ function EditorForm({
                   <legend className="px-1 text-sm font-semibold">Find {n}</legend>
                   <div className="grid gap-3 md:grid-cols-4">
                     {labelled(`${p}.name`, 'Name', textInput(`${p}.name`, { placeholder: 'e.g. wnet' }))}
-                    <div className="md:col-span-3">{labelled(`${p}.label`, 'Question beside the answer box', textInput(`${p}.label`, { placeholder: 'e.g. Net work per kilogram of air' }))}</div>
+                    <div className="md:col-span-3">
+                      {labelled(
+                        `${p}.label`,
+                        'Question beside the answer box',
+                        textInput(`${p}.label`, { placeholder: 'e.g. Net work per kilogram of air' }),
+                      )}
+                    </div>
                     {labelled(
                       `${p}.source.kind`,
                       'Answer comes from',
@@ -839,13 +1000,35 @@ function EditorForm({
                       </select>,
                     )}
                     <div hidden={hydrated && source !== 'output'} className="md:col-span-3">
-                      {labelled(`${p}.source.path`, 'Output path', textInput(`${p}.source.path`, { list: `${datalistId}-paths`, placeholder: 'e.g. totals.netWork', hint: true }), 'For example totals.efficiency, states.3.T, steps.2.q.')}
+                      {labelled(
+                        `${p}.source.path`,
+                        'Output path',
+                        textInput(`${p}.source.path`, {
+                          list: `${datalistId}-paths`,
+                          placeholder: 'e.g. totals.netWork',
+                          hint: true,
+                        }),
+                        'For example totals.efficiency, states.3.T, steps.2.q.',
+                      )}
                     </div>
                     <div hidden={hydrated && source !== 'expression'} className="md:col-span-3">
-                      {labelled(`${p}.source.expression`, 'Expression', textInput(`${p}.source.expression`, { placeholder: 'e.g. wnet / qin' }))}
+                      {labelled(
+                        `${p}.source.expression`,
+                        'Expression',
+                        textInput(`${p}.source.expression`, { placeholder: 'e.g. wnet / qin' }),
+                      )}
                     </div>
-                    {labelled(`${p}.unit`, 'Unit', textInput(`${p}.unit`, { placeholder: 'e.g. kJ/kg', hint: true }), 'Empty for a pure number.')}
-                    {labelled(`${p}.points`, 'Points', textInput(`${p}.points`, { inputMode: 'decimal', placeholder: 'e.g. 1' }))}
+                    {labelled(
+                      `${p}.unit`,
+                      'Unit',
+                      textInput(`${p}.unit`, { placeholder: 'e.g. kJ/kg', hint: true }),
+                      'Empty for a pure number.',
+                    )}
+                    {labelled(
+                      `${p}.points`,
+                      'Points',
+                      textInput(`${p}.points`, { inputMode: 'decimal', placeholder: 'e.g. 1' }),
+                    )}
                     {labelled(
                       `${p}.tolerance.kind`,
                       'Tolerance',
@@ -869,11 +1052,21 @@ function EditorForm({
                     {labelled(
                       `${p}.tolerance.value`,
                       'Tolerance value',
-                      textInput(`${p}.tolerance.value`, { placeholder: tolerance === 'relative' ? 'e.g. 0.01' : 'e.g. 2', hint: true }),
-                      hydrated && tolerance === 'absolute' ? 'In the tolerance unit.' : 'Relative: a fraction (0.01) or a percentage (1 %).',
+                      textInput(`${p}.tolerance.value`, {
+                        placeholder: tolerance === 'relative' ? 'e.g. 0.01' : 'e.g. 2',
+                        hint: true,
+                      }),
+                      hydrated && tolerance === 'absolute'
+                        ? 'In the tolerance unit.'
+                        : 'Relative: a fraction (0.01) or a percentage (1 %).',
                     )}
                     <div hidden={hydrated && tolerance !== 'absolute'}>
-                      {labelled(`${p}.tolerance.unit`, 'Tolerance unit (absolute)', textInput(`${p}.tolerance.unit`, { placeholder: 'e.g. K', hint: true }), 'Empty: the find’s unit.')}
+                      {labelled(
+                        `${p}.tolerance.unit`,
+                        'Tolerance unit (absolute)',
+                        textInput(`${p}.tolerance.unit`, { placeholder: 'e.g. K', hint: true }),
+                        'Empty: the find’s unit.',
+                      )}
                     </div>
                     <div className="md:col-span-2">
                       {labelled(
@@ -884,7 +1077,14 @@ function EditorForm({
                           name={`${p}.sense`}
                           defaultValue={v(`${p}.sense`)}
                           aria-invalid={invalid(`${p}.sense`)}
-                          aria-describedby={[describedBy(`${p}.sense`, true), senseNotes.length > 0 ? `${fieldId(`${p}.sense`)}-warning` : null].filter(Boolean).join(' ') || undefined}
+                          aria-describedby={
+                            [
+                              describedBy(`${p}.sense`, true),
+                              senseNotes.length > 0 ? `${fieldId(`${p}.sense`)}-warning` : null,
+                            ]
+                              .filter(Boolean)
+                              .join(' ') || undefined
+                          }
                           className={inputClass(errors.has(`${p}.sense`))}
                         >
                           <option value="">Not stated: the course’s convention decides the sign</option>
@@ -902,16 +1102,36 @@ function EditorForm({
                         </p>
                       ) : null}
                     </div>
-                    {labelled(`${p}.sigFigs.min`, 'Fewest significant figures', textInput(`${p}.sigFigs.min`, { inputMode: 'numeric' }))}
-                    {labelled(`${p}.sigFigs.max`, 'Most significant figures', textInput(`${p}.sigFigs.max`, { inputMode: 'numeric' }))}
+                    {labelled(
+                      `${p}.sigFigs.min`,
+                      'Fewest significant figures',
+                      textInput(`${p}.sigFigs.min`, { inputMode: 'numeric' }),
+                    )}
+                    {labelled(
+                      `${p}.sigFigs.max`,
+                      'Most significant figures',
+                      textInput(`${p}.sigFigs.max`, { inputMode: 'numeric' }),
+                    )}
                   </div>
                   <div className="mt-3 flex flex-wrap gap-x-6 gap-y-2 text-sm">
                     <label className="flex items-center gap-2">
-                      <input type="checkbox" id={fieldId(`${p}.isDifference`)} name={`${p}.isDifference`} defaultChecked={Boolean(values[`${p}.isDifference`])} className="size-4" />
+                      <input
+                        type="checkbox"
+                        id={fieldId(`${p}.isDifference`)}
+                        name={`${p}.isDifference`}
+                        defaultChecked={Boolean(values[`${p}.isDifference`])}
+                        className="size-4"
+                      />
                       A temperature difference (°C and °F carry no offset)
                     </label>
                     <label className="flex items-center gap-2">
-                      <input type="checkbox" id={fieldId(`${p}.allowBareNumber`)} name={`${p}.allowBareNumber`} defaultChecked={Boolean(values[`${p}.allowBareNumber`])} className="size-4" />
+                      <input
+                        type="checkbox"
+                        id={fieldId(`${p}.allowBareNumber`)}
+                        name={`${p}.allowBareNumber`}
+                        defaultChecked={Boolean(values[`${p}.allowBareNumber`])}
+                        className="size-4"
+                      />
                       Accept a number without a unit (read in the find’s unit)
                     </label>
                   </div>
@@ -925,19 +1145,32 @@ function EditorForm({
                   >
                     <legend className="text-sm font-medium">Pitfalls to recognise in wrong answers</legend>
                     <div className="mt-1 grid gap-1 text-sm sm:grid-cols-2">
-                      {offered.length === 0 ? <p className="text-muted">None can be recognised for this find (pitfalls need a solver output).</p> : null}
+                      {offered.length === 0 ? (
+                        <p className="text-muted">
+                          None can be recognised for this find (pitfalls need a solver output).
+                        </p>
+                      ) : null}
                       {offered.map((pf) => (
                         <label key={pf.id} className="flex items-center gap-2">
-                          <input type="checkbox" name={`${p}.pitfalls`} value={pf.id} defaultChecked={picked.has(pf.id)} className="size-4" />
+                          <input
+                            type="checkbox"
+                            name={`${p}.pitfalls`}
+                            value={pf.id}
+                            defaultChecked={picked.has(pf.id)}
+                            className="size-4"
+                          />
                           {pf.title}
                         </label>
                       ))}
                     </div>
                     {(() => {
-                      const dropped = options.pitfalls.filter((pf) => picked.has(pf.id) && !offered.some((o) => o.id === pf.id))
+                      const dropped = options.pitfalls.filter(
+                        (pf) => picked.has(pf.id) && !offered.some((o) => o.id === pf.id),
+                      )
                       return dropped.length > 0 ? (
                         <p className="mt-1 text-xs text-warn">
-                          Ticked before but never recognised for this find, so saving drops it: {dropped.map((pf) => pf.title).join(', ')}.
+                          Ticked before but never recognised for this find, so saving drops it:{' '}
+                          {dropped.map((pf) => pf.title).join(', ')}.
                         </p>
                       ) : null
                     })()}
@@ -1007,7 +1240,8 @@ function EditorForm({
             <ul className="mt-1 list-disc pl-5">
               {previewIssues.map((issue, i) => (
                 <li key={i}>
-                  <a href={`#${fieldId(fieldPathForIssue(issue.path))}`}>{describeField(issue.path)}</a>: {issue.message}
+                  <a href={`#${fieldId(fieldPathForIssue(issue.path))}`}>{describeField(issue.path)}</a>:{' '}
+                  {issue.message}
                 </li>
               ))}
             </ul>

@@ -13,7 +13,6 @@ function lateText(r: Pick<Receipt, 'daysLate' | 'latePenalty'>): string | null {
   return `${r.daysLate} day${r.daysLate === 1 ? '' : 's'} late, ${pct} % off`
 }
 
-
 /**
  * The receipt box shown after a submission. `live` says the page polls for results (JavaScript
  * is running); without it the student is told to reload. Put it inside a live region that is
@@ -22,7 +21,12 @@ function lateText(r: Pick<Receipt, 'daysLate' | 'latePenalty'>): string | null {
 export function ReceiptBox({ receipt, timeZone, live }: { receipt: Receipt; timeZone: string; live: boolean }) {
   const late = lateText(receipt)
   return (
-    <section aria-labelledby="receipt-title" id="receipt" className="rounded-lg border border-ok/30 bg-ok-soft p-4 text-sm text-ink" data-receipt={receipt.submissionId}>
+    <section
+      aria-labelledby="receipt-title"
+      id="receipt"
+      className="rounded-lg border border-ok/30 bg-ok-soft p-4 text-sm text-ink"
+      data-receipt={receipt.submissionId}
+    >
       <h2 id="receipt-title" className="text-base font-semibold text-ok">
         Answers received
       </h2>
@@ -58,7 +62,8 @@ export function ReceiptBox({ receipt, timeZone, live }: { receipt: Receipt; time
 
 /** Every earlier submission on this problem, newest first. */
 export function ReceiptList({ receipts, timeZone }: { receipts: readonly Receipt[]; timeZone: string }) {
-  if (receipts.length === 0) return <p className="text-sm text-muted">You have not submitted answers to this problem yet.</p>
+  if (receipts.length === 0)
+    return <p className="text-sm text-muted">You have not submitted answers to this problem yet.</p>
   return (
     <table className="w-full text-left text-sm">
       <caption className="text-left text-base font-semibold">Your submissions</caption>
@@ -84,7 +89,11 @@ export function ReceiptList({ receipts, timeZone }: { receipts: readonly Receipt
             <td className="py-1 pr-3">
               <time dateTime={r.submittedAt}>{formatInZone(r.submittedAt, timeZone)}</time>
             </td>
-            <td className="py-1 pr-3">{r.parts.length === 0 ? '—' : r.parts.map((p) => `${p.label} (attempt ${p.attempt} of ${p.of})`).join('; ')}</td>
+            <td className="py-1 pr-3">
+              {r.parts.length === 0
+                ? '—'
+                : r.parts.map((p) => `${p.label} (attempt ${p.attempt} of ${p.of})`).join('; ')}
+            </td>
             <td className="py-1 pr-3">{SUBMISSION_STATUS_LABELS[r.status]}</td>
             <td className="py-1">{lateText(r) ?? 'On time'}</td>
           </tr>

@@ -49,24 +49,36 @@ export function RegradeProgress({ initial, refreshHref }: { initial: RegradeSnap
       </h2>
       <div aria-live="polite" className="mt-2">
         <p className="text-sm">
-          <span className="font-semibold">{REGRADE_STATUS_WORDS[r.status]}.</span>{' '}
-          {r.done} of {r.total} {r.total === 1 ? 'answer' : 'answers'} regraded, {r.changed} changed.
+          <span className="font-semibold">{REGRADE_STATUS_WORDS[r.status]}.</span> {r.done} of {r.total}{' '}
+          {r.total === 1 ? 'answer' : 'answers'} regraded, {r.changed} changed.
         </p>
-        <progress className="mt-2 h-2 w-full" max={Math.max(1, r.total)} value={r.total === 0 && r.status === 'done' ? 1 : r.done} aria-label="Answers regraded">
+        <progress
+          className="mt-2 h-2 w-full"
+          max={Math.max(1, r.total)}
+          value={r.total === 0 && r.status === 'done' ? 1 : r.done}
+          aria-label="Answers regraded"
+        >
           {r.done} of {r.total}
         </progress>
         {r.status === 'done' ? (
           <p className="mt-2 text-sm text-muted">
-            {r.changed === 0 ? 'No answer’s grade changed.' : `${answersText(r.changed)} changed grade; each change is in the audit log.`} Answers submitted from now on are graded
-            with the new version and tolerances.
+            {r.changed === 0
+              ? 'No answer’s grade changed.'
+              : `${answersText(r.changed)} changed grade; each change is in the audit log.`}{' '}
+            Answers submitted from now on are graded with the new version and tolerances.
           </p>
         ) : null}
-        {r.error ? <p className={`mt-2 text-sm ${r.status === 'failed' ? 'text-danger' : 'text-muted'}`}>{r.error}</p> : null}
-        {live.isError ? <p className="mt-2 text-sm text-danger">{live.error.message} Use Refresh to try again.</p> : null}
+        {r.error ? (
+          <p className={`mt-2 text-sm ${r.status === 'failed' ? 'text-danger' : 'text-muted'}`}>{r.error}</p>
+        ) : null}
+        {live.isError ? (
+          <p className="mt-2 text-sm text-danger">{live.error.message} Use Refresh to try again.</p>
+        ) : null}
       </div>
       {active || live.isError ? (
         <p className="mt-3 text-sm">
-          <a href={refreshHref}>Refresh</a> <span className="text-muted">(the numbers update by themselves when JavaScript is on)</span>
+          <a href={refreshHref}>Refresh</a>{' '}
+          <span className="text-muted">(the numbers update by themselves when JavaScript is on)</span>
         </p>
       ) : null}
     </section>

@@ -66,8 +66,9 @@ export function SweepPanel({ versionNumber, initial }: { versionNumber: number; 
         Check version {versionNumber} over many variants
       </h2>
       <p className="mt-1 text-sm text-muted">
-        Draws variants with seeds 1 to N, solves each, and lists every one that is not physical (T ≤ 0, p ≤ 0, efficiency outside 0 to the Carnot bound,
-        quality outside 0 to 1, a find that cannot be computed, a constraint never met), with its seed, so you can fix the ranges.
+        Draws variants with seeds 1 to N, solves each, and lists every one that is not physical (T ≤ 0, p ≤ 0,
+        efficiency outside 0 to the Carnot bound, quality outside 0 to 1, a find that cannot be computed, a constraint
+        never met), with its seed, so you can fix the ranges.
       </p>
       <Form method="post" className="mt-4 flex flex-wrap items-end gap-3">
         <input type="hidden" name="intent" value="sweep" />
@@ -75,9 +76,22 @@ export function SweepPanel({ versionNumber, initial }: { versionNumber: number; 
           <label htmlFor="sweep-total" className="text-sm font-medium">
             Variants to check
           </label>
-          <input id="sweep-total" name="total" type="number" min={10} max={5000} step={10} defaultValue={500} className="w-32 rounded-md border border-line px-3 py-2" />
+          <input
+            id="sweep-total"
+            name="total"
+            type="number"
+            min={10}
+            max={5000}
+            step={10}
+            defaultValue={500}
+            className="w-32 rounded-md border border-line px-3 py-2"
+          />
         </div>
-        <button type="submit" disabled={busy || running} className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong disabled:opacity-60">
+        <button
+          type="submit"
+          disabled={busy || running}
+          className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong disabled:opacity-60"
+        >
           {busy ? 'Starting…' : running ? `${SWEEP_STATUS_LABELS.running}…` : 'Check this version'}
         </button>
       </Form>
@@ -133,7 +147,9 @@ export function SweepPanel({ versionNumber, initial }: { versionNumber: number; 
                 </tbody>
               </table>
               {sweep.failed > sweep.failures.length ? (
-                <p className="px-3 py-2 text-xs text-muted">The first {sweep.failures.length} of {sweep.failed} failures are listed.</p>
+                <p className="px-3 py-2 text-xs text-muted">
+                  The first {sweep.failures.length} of {sweep.failed} failures are listed.
+                </p>
               ) : null}
             </div>
           ) : null}

@@ -12,7 +12,13 @@ import type { PreviewVariant } from '#app/lib/preview.ts'
 
 export { KeyValue } from '#app/components/answer-key-table.tsx'
 
-export function VariantPreview({ variants, showKey = true }: { variants: readonly PreviewVariant[]; showKey?: boolean }) {
+export function VariantPreview({
+  variants,
+  showKey = true,
+}: {
+  variants: readonly PreviewVariant[]
+  showKey?: boolean
+}) {
   if (variants.length === 0) return <p className="text-sm text-muted">No variants to show.</p>
   return (
     <div className="grid grid-cols-1 gap-4 lg:grid-cols-[repeat(auto-fit,minmax(18rem,1fr))]">
@@ -26,7 +32,11 @@ export function VariantPreview({ variants, showKey = true }: { variants: readonl
 function VariantColumn({ variant: v, showKey }: { variant: PreviewVariant; showKey: boolean }) {
   const headingId = `variant-${v.seed}-title`
   return (
-    <article aria-labelledby={headingId} data-variant-seed={v.seed} className="flex min-w-0 flex-col gap-3 rounded-lg border border-line bg-white p-4 shadow-sm">
+    <article
+      aria-labelledby={headingId}
+      data-variant-seed={v.seed}
+      className="flex min-w-0 flex-col gap-3 rounded-lg border border-line bg-white p-4 shadow-sm"
+    >
       <h3 id={headingId} className="text-lg font-semibold">
         Variant (seed {v.seed})
       </h3>
@@ -61,11 +71,12 @@ function VariantColumn({ variant: v, showKey }: { variant: PreviewVariant; showK
             <h4 className="text-sm font-semibold text-muted">Prompt</h4>
             {/* Rendered and sanitised on the server (Markdown + KaTeX, tags and attributes
                 allowed by a list), so it is safe to insert as it is. */}
-            <div className="prompt-html mt-1 text-sm leading-relaxed [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: v.promptHtml }} />
+            <div
+              className="prompt-html mt-1 text-sm leading-relaxed [&_p]:mt-2"
+              dangerouslySetInnerHTML={{ __html: v.promptHtml }}
+            />
           </section>
-          {showKey ? (
-            <AnswerKeyTable entries={v.key} caption="Key" showNames />
-          ) : null}
+          {showKey ? <AnswerKeyTable entries={v.key} caption="Key" showNames /> : null}
           {v.warnings.length > 0 ? (
             <Notice tone="warn">
               <p className="font-semibold">Check this variant</p>
@@ -80,7 +91,10 @@ function VariantColumn({ variant: v, showKey }: { variant: PreviewVariant; showK
             <details className="text-sm">
               <summary className="cursor-pointer font-semibold">Worked solution</summary>
               {/* Sanitised on the server, like the prompt. */}
-              <div className="mt-2 overflow-x-auto leading-relaxed" dangerouslySetInnerHTML={{ __html: v.workedHtml }} />
+              <div
+                className="mt-2 overflow-x-auto leading-relaxed"
+                dangerouslySetInnerHTML={{ __html: v.workedHtml }}
+              />
             </details>
           ) : null}
           <CycleDiagrams diagrams={v.diagrams} caption={`P–v and T–s diagrams of seed ${v.seed}`} stacked />

@@ -46,7 +46,19 @@ export interface VersionPickerProps {
   readonly describedBy?: string
 }
 
-export function VersionPicker({ index, name, overrideName, domId, value, override, storedVersionId, choices, timeZone, invalid, describedBy }: VersionPickerProps) {
+export function VersionPicker({
+  index,
+  name,
+  overrideName,
+  domId,
+  value,
+  override,
+  storedVersionId,
+  choices,
+  timeZone,
+  invalid,
+  describedBy,
+}: VersionPickerProps) {
   const chosen = choices.flatMap((c) => c.versions.map((v) => ({ c, v }))).find((x) => String(x.v.id) === value)
   const needsOverride = chosen && chosen.v.check.state !== 'passed' && String(chosen.v.id) !== storedVersionId
   return (
@@ -55,13 +67,20 @@ export function VersionPicker({ index, name, overrideName, domId, value, overrid
         <summary className="cursor-pointer">
           {chosen ? (
             <span>
-              {chosen.c.title}, version {chosen.v.number} <CheckBadge check={chosen.v.check} /> <span className="text-accent underline">Change</span>
+              {chosen.c.title}, version {chosen.v.number} <CheckBadge check={chosen.v.check} />{' '}
+              <span className="text-accent underline">Change</span>
             </span>
           ) : (
             <span>Choose a problem</span>
           )}
         </summary>
-        <fieldset id={domId} tabIndex={-1} aria-invalid={invalid ? true : undefined} aria-describedby={describedBy} className={cn('mt-2 grid gap-3 rounded-md border p-2', invalid ? 'border-danger' : 'border-line')}>
+        <fieldset
+          id={domId}
+          tabIndex={-1}
+          aria-invalid={invalid ? true : undefined}
+          aria-describedby={describedBy}
+          className={cn('mt-2 grid gap-3 rounded-md border p-2', invalid ? 'border-danger' : 'border-line')}
+        >
           <legend className="px-1 text-sm font-medium">Problem {index + 1}: choose a problem and version</legend>
           {choices.map((c) => (
             <div key={c.problemId} role="group" aria-labelledby={`${domId}-p${c.problemId}`} className="grid gap-1">
@@ -70,20 +89,31 @@ export function VersionPicker({ index, name, overrideName, domId, value, overrid
               </p>
               <ul className="grid gap-1">
                 {c.versions.map((ver, j) => (
-                  <li key={ver.id} className="flex flex-wrap items-start gap-x-3 gap-y-1 rounded px-1 py-1 hover:bg-paper">
+                  <li
+                    key={ver.id}
+                    className="flex flex-wrap items-start gap-x-3 gap-y-1 rounded px-1 py-1 hover:bg-paper"
+                  >
                     <label className="flex min-w-0 flex-1 items-start gap-2">
-                      <input type="radio" name={name} value={String(ver.id)} defaultChecked={String(ver.id) === value} className="mt-1" />
+                      <input
+                        type="radio"
+                        name={name}
+                        value={String(ver.id)}
+                        defaultChecked={String(ver.id) === value}
+                        className="mt-1"
+                      />
                       <span className="min-w-0 break-words">
                         <span className="sr-only">{c.title}, </span>
                         Version {ver.number}
-                        {j === 0 ? ' (newest)' : ''}, saved {formatInZone(ver.savedAt, timeZone, { withZone: false })} by {ver.author}
+                        {j === 0 ? ' (newest)' : ''}, saved {formatInZone(ver.savedAt, timeZone, { withZone: false })}{' '}
+                        by {ver.author}
                         <span className="block">
                           <CheckBadge check={ver.check} />
                         </span>
                       </span>
                     </label>
                     <Link to={`/bank/${c.problemId}?version=${ver.number}`} className="text-sm">
-                      Preview<span className="sr-only">
+                      Preview
+                      <span className="sr-only">
                         {' '}
                         {c.title}, version {ver.number}
                       </span>
@@ -97,7 +127,13 @@ export function VersionPicker({ index, name, overrideName, domId, value, overrid
       </details>
       {needsOverride ? (
         <label className="flex items-start gap-2 text-sm">
-          <input type="checkbox" name={overrideName} value={String(chosen.v.id)} defaultChecked={override === String(chosen.v.id)} className="mt-1" />
+          <input
+            type="checkbox"
+            name={overrideName}
+            value={String(chosen.v.id)}
+            defaultChecked={override === String(chosen.v.id)}
+            className="mt-1"
+          />
           <span>{overrideLabel(chosen.v.check)}</span>
         </label>
       ) : null}

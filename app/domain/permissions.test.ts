@@ -51,7 +51,14 @@ describe('permissions', () => {
 
 describe('the problem bank', () => {
   test.each([
-    ['an instructor of one course', actor([[1, 'student'], [2, 'instructor']]), true],
+    [
+      'an instructor of one course',
+      actor([
+        [1, 'student'],
+        [2, 'instructor'],
+      ]),
+      true,
+    ],
     ['an admin without courses', actor([], true), true],
     ['a TA only', actor([[1, 'ta']]), false],
     ['a student only', actor([[1, 'student']]), false],
@@ -65,7 +72,11 @@ describe('the problem bank', () => {
   const elsewhere = { id: 3, isAdmin: false, departmentId: 20 }
   const homeless = { id: 4, isAdmin: false, departmentId: null }
   const admin = { id: 5, isAdmin: true, departmentId: 20 }
-  const problem = (visibility: ProblemVisibility, departmentId: number | null = 10) => ({ ownerId: 1, visibility, departmentId })
+  const problem = (visibility: ProblemVisibility, departmentId: number | null = 10) => ({
+    ownerId: 1,
+    visibility,
+    departmentId,
+  })
 
   test.each([
     ['private', owner, true],

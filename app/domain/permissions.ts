@@ -78,7 +78,8 @@ export function canUseBank(actor: Actor): boolean {
 export function canSeeProblem(viewer: BankViewerFacts, problem: BankProblemFacts): boolean {
   if (viewer.isAdmin || problem.ownerId === viewer.id) return true
   if (problem.visibility === 'installation') return true
-  if (problem.visibility === 'department') return viewer.departmentId !== null && viewer.departmentId === problem.departmentId
+  if (problem.visibility === 'department')
+    return viewer.departmentId !== null && viewer.departmentId === problem.departmentId
   return false
 }
 

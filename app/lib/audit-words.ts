@@ -83,11 +83,23 @@ export type AuditWords = {
 
 /** Verdicts and dispute statuses in the product's one set of words (labels.ts), inside a sentence. */
 const disputeStatusText = (v: unknown): string =>
-  typeof v === 'string' && v in DISPUTE_STATUS_LABELS ? inSentence(DISPUTE_STATUS_LABELS[v as keyof typeof DISPUTE_STATUS_LABELS]) : String(v ?? 'resolved')
-const LATE_POLICY_WORDS: Readonly<Record<string, string>> = { closed: 'no late answers', penalty: 'late answers with a penalty' }
+  typeof v === 'string' && v in DISPUTE_STATUS_LABELS
+    ? inSentence(DISPUTE_STATUS_LABELS[v as keyof typeof DISPUTE_STATUS_LABELS])
+    : String(v ?? 'resolved')
+const LATE_POLICY_WORDS: Readonly<Record<string, string>> = {
+  closed: 'no late answers',
+  penalty: 'late answers with a penalty',
+}
 const KEY_RELEASE_WORDS: Readonly<Record<string, string>> = { 'after-due': 'after the due date', manual: 'by hand' }
-const CONVENTION_WORDS: Readonly<Record<string, string>> = { chemistry: 'chemistry (work done on the system is positive)', engineering: 'engineering (work done by the system is positive)' }
-const ROLE_WORDS: Readonly<Record<string, string>> = { instructor: 'instructor', ta: 'teaching assistant', student: 'student' }
+const CONVENTION_WORDS: Readonly<Record<string, string>> = {
+  chemistry: 'chemistry (work done on the system is positive)',
+  engineering: 'engineering (work done by the system is positive)',
+}
+const ROLE_WORDS: Readonly<Record<string, string>> = {
+  instructor: 'instructor',
+  ta: 'teaching assistant',
+  student: 'student',
+}
 
 function isRecord(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v)
@@ -95,7 +107,8 @@ function isRecord(v: unknown): v is Record<string, unknown> {
 const rec = (v: unknown): Record<string, unknown> => (isRecord(v) ? v : {})
 const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null)
 const str = (v: unknown): string | null => (typeof v === 'string' ? v : null)
-const plural = (n: number, one: string, many = `${one}s`) => `${Number.isInteger(n) ? n : formatPoints(n)} ${n === 1 ? one : many}`
+const plural = (n: number, one: string, many = `${one}s`) =>
+  `${Number.isInteger(n) ? n : formatPoints(n)} ${n === 1 ? one : many}`
 const quoted = (s: string) => `“${s}”`
 const ISO = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:?\d{2})$/
 
@@ -157,7 +170,10 @@ function valueWords(v: unknown, timeZone: string): string {
   if (typeof v === 'number') return Number.isFinite(v) ? String(Number(v.toPrecision(6))) : 'none'
   if (typeof v === 'boolean') return v ? 'yes' : 'no'
   if (typeof v === 'string') return ISO.test(v) ? when(v, timeZone) : v === '' ? 'empty' : quoted(v)
-  if (Array.isArray(v)) return v.every((x) => typeof x === 'string') ? v.map((x) => quoted(String(x))).join(', ') || 'none' : plural(v.length, 'entry', 'entries')
+  if (Array.isArray(v))
+    return v.every((x) => typeof x === 'string')
+      ? v.map((x) => quoted(String(x))).join(', ') || 'none'
+      : plural(v.length, 'entry', 'entries')
   return 'a value'
 }
 
@@ -256,7 +272,11 @@ function courseSettingChange(key: string, b: unknown, a: unknown, tz: string): s
 // ---- Extensions ---------------------------------------------------------------------------
 
 function extensionSide(side: Record<string, unknown>, fallbackDue: string | null, tz: string): string {
-  const due = str(side.dueAt) ? `due ${when(side.dueAt, tz)}` : fallbackDue ? `due ${when(fallbackDue, tz)} (the assignment’s)` : 'the assignment’s due date'
+  const due = str(side.dueAt)
+    ? `due ${when(side.dueAt, tz)}`
+    : fallbackDue
+      ? `due ${when(fallbackDue, tz)} (the assignment’s)`
+      : 'the assignment’s due date'
   const extra = num(side.extraAttempts) ?? 0
   return extra > 0 ? `${due}, ${plural(extra, 'extra attempt')}` : due
 }
@@ -265,15 +285,29 @@ function extensionWords(f: AuditEntryFacts, tz: string): { what: string; change:
   const who = f.subject ?? 'a student'
   const b = isRecord(f.before) ? f.before : null
   const a = isRecord(f.after) ? f.after : null
-  if (!a && b) return { what: `Extension of ${who} removed`, change: arrow(extensionSide(b, f.assignmentDueAt, tz), extensionSide({}, f.assignmentDueAt, tz)) }
-  if (a && !b) return { what: `Extension given to ${who}`, change: arrow(extensionSide({}, f.assignmentDueAt, tz), extensionSide(a, f.assignmentDueAt, tz)) }
+  if (!a && b)
+    return {
+      what: `Extension of ${who} removed`,
+      change: arrow(extensionSide(b, f.assignmentDueAt, tz), extensionSide({}, f.assignmentDueAt, tz)),
+    }
+  if (a && !b)
+    return {
+      what: `Extension given to ${who}`,
+      change: arrow(extensionSide({}, f.assignmentDueAt, tz), extensionSide(a, f.assignmentDueAt, tz)),
+    }
   if (a && b) {
     const parts: string[] = []
     if (str(b.dueAt) !== str(a.dueAt)) {
-      const side = (s: Record<string, unknown>) => (str(s.dueAt) ? when(s.dueAt, tz) : f.assignmentDueAt ? `${when(f.assignmentDueAt, tz)} (the assignment’s)` : 'the assignment’s')
+      const side = (s: Record<string, unknown>) =>
+        str(s.dueAt)
+          ? when(s.dueAt, tz)
+          : f.assignmentDueAt
+            ? `${when(f.assignmentDueAt, tz)} (the assignment’s)`
+            : 'the assignment’s'
       parts.push(`due ${arrow(side(b), side(a))}`)
     }
-    if ((num(b.extraAttempts) ?? 0) !== (num(a.extraAttempts) ?? 0)) parts.push(`extra attempts ${arrow(String(num(b.extraAttempts) ?? 0), String(num(a.extraAttempts) ?? 0))}`)
+    if ((num(b.extraAttempts) ?? 0) !== (num(a.extraAttempts) ?? 0))
+      parts.push(`extra attempts ${arrow(String(num(b.extraAttempts) ?? 0), String(num(a.extraAttempts) ?? 0))}`)
     if ((str(b.reason) ?? '') !== (str(a.reason) ?? '')) parts.push('reason changed')
     return { what: `Extension of ${who} changed`, change: parts.length ? parts.join('; ') : 'nothing changed' }
   }
@@ -287,7 +321,12 @@ export function describeAuditEntry(f: AuditEntryFacts, lookups: AuditLookups): A
   try {
     return { kind: kindLabel(f.kind), ...words(f, lookups) }
   } catch {
-    return { kind: kindLabel(f.kind), what: kindLabel(f.kind), change: genericChange(f.before, f.after, lookups.timeZone), note: f.note }
+    return {
+      kind: kindLabel(f.kind),
+      what: kindLabel(f.kind),
+      change: genericChange(f.before, f.after, lookups.timeZone),
+      note: f.note,
+    }
   }
 }
 
@@ -299,11 +338,12 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
   const q = questionText(f.question)
   switch (f.kind) {
     case 'regrade': {
-      const versions = f.regrade && f.regrade.fromVersion !== null && f.regrade.toVersion !== null
-        ? f.regrade.fromVersion === f.regrade.toVersion
-          ? `, version ${f.regrade.toVersion} with a new tolerance`
-          : `, version ${arrow(String(f.regrade.fromVersion), String(f.regrade.toVersion))}`
-        : ''
+      const versions =
+        f.regrade && f.regrade.fromVersion !== null && f.regrade.toVersion !== null
+          ? f.regrade.fromVersion === f.regrade.toVersion
+            ? `, version ${f.regrade.toVersion} with a new tolerance`
+            : `, version ${arrow(String(f.regrade.fromVersion), String(f.regrade.toVersion))}`
+          : ''
       const removed = a.verdict === 'removed' || /not part of the new version/.test(f.note)
       return {
         what: `Regrade of ${q}${versions} for ${who}`,
@@ -312,22 +352,37 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
       }
     }
     case 'dispute':
-      return { what: `Score of ${who} on ${q} changed on review of a dispute`, change: gradeChange(f.before, f.after, f.maxScore), note: f.note }
+      return {
+        what: `Score of ${who} on ${q} changed on review of a dispute`,
+        change: gradeChange(f.before, f.after, f.maxScore),
+        note: f.note,
+      }
     case 'dispute-raised':
       return { what: `${who} disputed the grade on ${q}`, change: null, note: f.note }
     case 'dispute-resolved': {
       const status = disputeStatusText(a.status)
       const changed = num(a.changed)
       const others = changed !== null && changed > 0 ? `; ${plural(changed, 'answer')} changed` : ''
-      return { what: `Dispute of ${who} on ${q} resolved: ${status}`, change: `${scoreChange(num(b.score), num(a.score), f.maxScore)}${others}`, note: f.note }
+      return {
+        what: `Dispute of ${who} on ${q} resolved: ${status}`,
+        change: `${scoreChange(num(b.score), num(a.score), f.maxScore)}${others}`,
+        note: f.note,
+      }
     }
     case 'extension':
       return { ...extensionWords(f, tz), note: f.note }
     case 'key-released':
-      return { what: `Key and worked solutions of ${f.assignmentTitle ? quoted(f.assignmentTitle) : 'the assignment'} released`, change: str(a.keyReleasedAt) ? `released ${when(a.keyReleasedAt, tz)}` : null, note: f.note }
+      return {
+        what: `Key and worked solutions of ${f.assignmentTitle ? quoted(f.assignmentTitle) : 'the assignment'} released`,
+        change: str(a.keyReleasedAt) ? `released ${when(a.keyReleasedAt, tz)}` : null,
+        note: f.note,
+      }
     case 'grades-released': {
       const mailed = num(a.mailed)
-      const parts = [mailed !== null ? `${plural(mailed, 'student')} e-mailed` : null, a.early === true ? 'released before every student’s window closed' : null].filter(Boolean)
+      const parts = [
+        mailed !== null ? `${plural(mailed, 'student')} e-mailed` : null,
+        a.early === true ? 'released before every student’s window closed' : null,
+      ].filter(Boolean)
       return {
         what: `Grades of ${f.assignmentTitle ? quoted(f.assignmentTitle) : 'the assignment'} released${a.early === true ? ' early' : ''}`,
         change: parts.length ? parts.join('; ') : null,
@@ -353,7 +408,11 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
         items !== null ? plural(items, 'problem') : null,
         extensions ? `${plural(extensions, 'extension')} removed with it` : null,
       ].filter(Boolean)
-      return { what: `Assignment ${title ? quoted(title) : 'without a title'} deleted (nobody had answered it)`, change: parts.length ? parts.join('; ') : null, note: f.note }
+      return {
+        what: `Assignment ${title ? quoted(title) : 'without a title'} deleted (nobody had answered it)`,
+        change: parts.length ? parts.join('; ') : null,
+        note: f.note,
+      }
     }
     case 'assignment-changed': {
       const keys = [...new Set([...Object.keys(b), ...Object.keys(a)])]
@@ -370,11 +429,21 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
         str(a.signConvention) ? `${str(a.signConvention)} sign convention` : null,
         str(a.timeZone) ? `times in ${str(a.timeZone)}` : null,
       ].filter(Boolean)
-      return { what: `Course ${str(a.code) ?? ''} ${str(a.title) ? quoted(str(a.title)!) : ''} created`.replace(/\s+/g, ' ').trim(), change: parts.length ? parts.join(', ') : null, note: f.note }
+      return {
+        what: `Course ${str(a.code) ?? ''} ${str(a.title) ? quoted(str(a.title)!) : ''} created`
+          .replace(/\s+/g, ' ')
+          .trim(),
+        change: parts.length ? parts.join(', ') : null,
+        note: f.note,
+      }
     }
     case 'course-settings-changed': {
       const keys = [...new Set([...Object.keys(b), ...Object.keys(a)])]
-      return { what: 'Course settings changed', change: keys.length ? keys.map((k) => courseSettingChange(k, b[k], a[k], tz)).join('; ') : null, note: f.note }
+      return {
+        what: 'Course settings changed',
+        change: keys.length ? keys.map((k) => courseSettingChange(k, b[k], a[k], tz)).join('; ') : null,
+        note: f.note,
+      }
     }
     case 'course-copied': {
       const fromTerm = num(b.termId) !== null ? lookups.terms?.[String(b.termId)] : undefined
@@ -384,7 +453,11 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
       const staff = num(a.instructors)
       const parts = [
         n !== null ? `${plural(n, 'assignment')} copied` : null,
-        offset !== null ? (offset === 0 ? 'dates kept' : `dates moved ${offset > 0 ? 'later' : 'earlier'} by ${plural(Math.abs(offset), 'day')}`) : null,
+        offset !== null
+          ? offset === 0
+            ? 'dates kept'
+            : `dates moved ${offset > 0 ? 'later' : 'earlier'} by ${plural(Math.abs(offset), 'day')}`
+          : null,
         staff !== null ? `${plural(staff, 'instructor')}` : null,
       ].filter(Boolean)
       const from = `${str(b.code) ?? 'another course'}${fromTerm ? ` (${fromTerm})` : ''}`
@@ -402,7 +475,9 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
     }
     case 'roster-import': {
       const count = (k: string) => num(a[k]) ?? 0
-      const sections = Array.isArray(a.newSections) ? a.newSections.filter((s): s is string => typeof s === 'string') : []
+      const sections = Array.isArray(a.newSections)
+        ? a.newSections.filter((s): s is string => typeof s === 'string')
+        : []
       const parts = [
         `${plural(count('rows'), 'row')} read`,
         count('new') ? `${plural(count('new'), 'new account')}` : null,
@@ -410,7 +485,9 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
         count('update') ? `${plural(count('update'), 'student')} updated` : null,
         count('unchanged') ? `${count('unchanged')} unchanged` : null,
         count('invited') ? `${plural(count('invited'), 'invitation')} sent` : null,
-        sections.length ? `new ${sections.length === 1 ? 'section' : 'sections'} ${sections.map(quoted).join(', ')}` : null,
+        sections.length
+          ? `new ${sections.length === 1 ? 'section' : 'sections'} ${sections.map(quoted).join(', ')}`
+          : null,
       ].filter(Boolean)
       return { what: 'Class list imported', change: parts.join(', '), note: f.note }
     }
@@ -423,12 +500,29 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
     case 'invitation-revoked':
       return { what: `Invitation to ${str(a.email) ?? 'someone'} withdrawn`, change: null, note: f.note }
     case 'student-dropped':
-      return { what: `${who} dropped from the course`, change: 'on the roster → dropped (answers kept, in no total)', note: f.note }
+      return {
+        what: `${who} dropped from the course`,
+        change: 'on the roster → dropped (answers kept, in no total)',
+        note: f.note,
+      }
     case 'student-undropped':
-      return { what: `${who} back on the roster`, change: `dropped${str(b.droppedAt) ? ` on ${when(b.droppedAt, tz)}` : ''} → on the roster`, note: f.note }
+      return {
+        what: `${who} back on the roster`,
+        change: `dropped${str(b.droppedAt) ? ` on ${when(b.droppedAt, tz)}` : ''} → on the roster`,
+        note: f.note,
+      }
     case 'section-created': {
-      const names = Array.isArray(a.names) ? a.names.filter((s): s is string => typeof s === 'string') : str(a.name) ? [str(a.name)!] : []
-      return { what: names.length === 1 ? `Section ${quoted(names[0]!)} added` : `Sections added: ${names.map(quoted).join(', ')}`, change: null, note: f.note }
+      const names = Array.isArray(a.names)
+        ? a.names.filter((s): s is string => typeof s === 'string')
+        : str(a.name)
+          ? [str(a.name)!]
+          : []
+      return {
+        what:
+          names.length === 1 ? `Section ${quoted(names[0]!)} added` : `Sections added: ${names.map(quoted).join(', ')}`,
+        change: null,
+        note: f.note,
+      }
     }
     case 'section-renamed': {
       const moved = num(a.students)
@@ -440,7 +534,11 @@ function words(f: AuditEntryFacts, lookups: AuditLookups): { what: string; chang
     }
     case 'section-deleted': {
       const left = num(a.studentsWithoutSection)
-      return { what: `Section ${quoted(str(b.name) ?? '?')} deleted`, change: left ? `${plural(left, 'student')} now without a section` : null, note: f.note }
+      return {
+        what: `Section ${quoted(str(b.name) ?? '?')} deleted`,
+        change: left ? `${plural(left, 'student')} now without a section` : null,
+        note: f.note,
+      }
     }
     case 'student-section': {
       const side = (v: unknown) => (str(v) ? `section ${quoted(str(v)!)}` : 'no section')

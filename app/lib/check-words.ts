@@ -16,7 +16,8 @@ type SweepRow = { status: 'queued' | 'running' | 'done' | 'failed'; total: numbe
 /** A sweep row as a check result: done with no failure is the only pass. */
 export function checkOfSweep(s: SweepRow | undefined): VersionCheck {
   if (!s) return NEVER_CHECKED
-  if (s.status === 'queued' || s.status === 'running') return { state: 'running', total: s.total, checked: s.checked, failed: s.failed }
+  if (s.status === 'queued' || s.status === 'running')
+    return { state: 'running', total: s.total, checked: s.checked, failed: s.failed }
   if (s.status === 'failed') return { state: 'broken', total: s.total, checked: s.checked, failed: s.failed }
   if (s.failed > 0) return { state: 'failed', total: s.total, checked: s.checked, failed: s.failed }
   return { state: 'passed', total: s.total, checked: s.checked, failed: 0 }

@@ -11,6 +11,13 @@ test('a TA sees the staff pages but not the audit log or settings', () => {
 
 test('an instructor sees every course page; the course page itself matches only exactly', () => {
   const items = courseNavFor(7, 'instructor')
-  expect(items.map((i) => i.to)).toEqual(['/courses/7', '/courses/7/gradebook', '/courses/7/people', '/courses/7/disputes', '/courses/7/audit', '/courses/7/settings'])
+  expect(items.map((i) => i.to)).toEqual([
+    '/courses/7',
+    '/courses/7/gradebook',
+    '/courses/7/people',
+    '/courses/7/disputes',
+    '/courses/7/audit',
+    '/courses/7/settings',
+  ])
   expect(items[0]!.end).toBe(true)
 })

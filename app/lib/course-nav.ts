@@ -21,6 +21,10 @@ export function courseNavFor(courseId: number, role: CourseRole): CourseNavItem[
     { to: href('/courses/:courseId/people', p), label: 'People' },
     { to: href('/courses/:courseId/disputes', p), label: 'Review queue' },
   )
-  if (role === 'instructor') items.push({ to: href('/courses/:courseId/audit', p), label: 'Audit log' }, { to: href('/courses/:courseId/settings', p), label: 'Settings' })
+  if (role === 'instructor')
+    items.push(
+      { to: href('/courses/:courseId/audit', p), label: 'Audit log' },
+      { to: href('/courses/:courseId/settings', p), label: 'Settings' },
+    )
   return items
 }

@@ -22,7 +22,9 @@ test.each(['', '2026-13-01T00:00', 'tomorrow', '2026-01-15 09:30x'])('%j is not 
 })
 
 test('formatting names the zone', () => {
-  expect(formatInZone(new Date('2026-01-16T05:59:00Z'), 'America/Chicago')).toBe('Thu 15 Jan 2026, 23:59 (America/Chicago)')
+  expect(formatInZone(new Date('2026-01-16T05:59:00Z'), 'America/Chicago')).toBe(
+    'Thu 15 Jan 2026, 23:59 (America/Chicago)',
+  )
   expect(formatInZone('2026-01-16T05:59:00Z', 'UTC', { withZone: false })).toBe('Fri 16 Jan 2026, 05:59')
 })
 

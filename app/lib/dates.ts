@@ -19,7 +19,14 @@ export function parseLocalDateTime(value: string, timeZone: string): Date | null
   const date = new TZDate(y, mo - 1, d, h, mi, s, timeZone)
   if (Number.isNaN(date.getTime())) return null
   // A time in a spring-forward gap comes back moved; refuse it rather than guess.
-  if (date.getFullYear() !== y || date.getMonth() !== mo - 1 || date.getDate() !== d || date.getHours() !== h || date.getMinutes() !== mi) return null
+  if (
+    date.getFullYear() !== y ||
+    date.getMonth() !== mo - 1 ||
+    date.getDate() !== d ||
+    date.getHours() !== h ||
+    date.getMinutes() !== mi
+  )
+    return null
   return new Date(date.getTime())
 }
 

@@ -42,7 +42,12 @@ export function disputeResolutionMail(f: ResolutionMailFacts): { subject: string
 }
 
 /** The history's last line: "Resolved: score kept; the find's score stays at 1 point." */
-export function disputeResolvedHistoryText(d: { outcome: DisputeOutcome; scoreBefore: number; scoreAfter: number; comment: string | null }): string {
+export function disputeResolvedHistoryText(d: {
+  outcome: DisputeOutcome
+  scoreBefore: number
+  scoreAfter: number
+  comment: string | null
+}): string {
   const score =
     d.scoreBefore === d.scoreAfter
       ? `the find's score stays at ${formatPointsWord(d.scoreAfter)}`

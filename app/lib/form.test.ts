@@ -2,7 +2,10 @@ import { describe, expect, test } from 'vitest'
 import { z } from 'zod'
 import { parseForm, readFormData } from './form.ts'
 
-const Schema = z.object({ email: z.string().email('Enter a valid e-mail address.'), password: z.string().min(10, 'Too short.') })
+const Schema = z.object({
+  email: z.string().email('Enter a valid e-mail address.'),
+  password: z.string().min(10, 'Too short.'),
+})
 
 test('returns the typed value when the form is valid', () => {
   const fd = new FormData()

@@ -4,8 +4,7 @@ import type { z } from 'zod'
 export type FieldErrors = Record<string, string | undefined>
 
 export type FormResult<T> =
-  | { ok: true; value: T }
-  | { ok: false; fieldErrors: FieldErrors; formError?: string; values: Record<string, string> }
+  { ok: true; value: T } | { ok: false; fieldErrors: FieldErrors; formError?: string; values: Record<string, string> }
 
 /** Parses a form body with a zod schema; on failure, one message per field and the typed values back. */
 export function parseForm<S extends z.ZodType>(formData: FormData, schema: S): FormResult<z.infer<S>> {

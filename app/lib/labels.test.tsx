@@ -50,15 +50,26 @@ describe('every value of every enum has its words', () => {
   })
 
   test('where a student stands (the gradebook filter less "all" and the "late" flag)', () => {
-    expectWordsFor(STUDENT_STATUS_LABELS, GRADEBOOK_STATUSES.filter((s) => s !== 'all' && s !== 'late'))
+    expectWordsFor(
+      STUDENT_STATUS_LABELS,
+      GRADEBOOK_STATUSES.filter((s) => s !== 'all' && s !== 'late'),
+    )
   })
 
   test('each tone is a colour of the theme', () => {
-    for (const tone of [...Object.values(VERDICT_TONES), ...Object.values(DISPUTE_STATUS_TONES)]) expect(TONE_CLASSES[tone]).toMatch(/^border-\S+ bg-\S+ text-\S+$/)
+    for (const tone of [...Object.values(VERDICT_TONES), ...Object.values(DISPUTE_STATUS_TONES)])
+      expect(TONE_CLASSES[tone]).toMatch(/^border-\S+ bg-\S+ text-\S+$/)
   })
 
   test('no two values of one enum share a word', () => {
-    for (const record of [VERDICT_LABELS, SUBMISSION_STATUS_LABELS, DISPUTE_STATUS_LABELS, STUDENT_STATUS_LABELS, REGRADE_STATUS_LABELS, SWEEP_STATUS_LABELS]) {
+    for (const record of [
+      VERDICT_LABELS,
+      SUBMISSION_STATUS_LABELS,
+      DISPUTE_STATUS_LABELS,
+      STUDENT_STATUS_LABELS,
+      REGRADE_STATUS_LABELS,
+      SWEEP_STATUS_LABELS,
+    ]) {
       const words = Object.values(record)
       expect(new Set(words).size).toBe(words.length)
     }
@@ -84,7 +95,18 @@ describe('one word per concept', () => {
     for (const v of verdict.enumValues) {
       const other = v === 'correct' ? 'incorrect' : 'correct'
       const w = describeAuditEntry(
-        { kind: 'regrade', before: { verdict: other, score: 0 }, after: { verdict: v, score: 0 }, note: '', subject: 'Ada', assignmentTitle: 'Week 9', assignmentDueAt: null, question: null, maxScore: 3, regrade: null },
+        {
+          kind: 'regrade',
+          before: { verdict: other, score: 0 },
+          after: { verdict: v, score: 0 },
+          note: '',
+          subject: 'Ada',
+          assignmentTitle: 'Week 9',
+          assignmentDueAt: null,
+          question: null,
+          maxScore: 3,
+          regrade: null,
+        },
         { timeZone: 'UTC' },
       )
       expect(w.change).toContain(`→ ${inSentence(VERDICT_LABELS[v])};`)
@@ -114,20 +136,47 @@ describe('a resolved dispute: the e-mail, the badge, the student’s page, the h
     expect(mail.subject.endsWith(`: ${inSentence(word)}`)).toBe(true)
     expect(mail.lines.some((l) => l.startsWith(`Outcome: ${word}. `))).toBe(true)
 
-    const mine: MyDispute = { id: 1, findName: 'wNet', status: outcome, comment: null, scoreBefore: 1, scoreAfter: outcome === 'rejected' ? 1 : 3, createdAt: '2026-12-01T08:00:00.000Z', resolvedAt: '2026-12-02T08:00:00.000Z' }
+    const mine: MyDispute = {
+      id: 1,
+      findName: 'wNet',
+      status: outcome,
+      comment: null,
+      scoreBefore: 1,
+      scoreAfter: outcome === 'rejected' ? 1 : 3,
+      createdAt: '2026-12-01T08:00:00.000Z',
+      resolvedAt: '2026-12-02T08:00:00.000Z',
+    }
     expect(disputeOutcome(mine).startsWith(word)).toBe(true)
 
-    expect(disputeResolvedHistoryText({ outcome, scoreBefore: 1, scoreAfter: 3, comment: null })).toMatch(new RegExp(`^Resolved: ${inSentence(word)};`))
+    expect(disputeResolvedHistoryText({ outcome, scoreBefore: 1, scoreAfter: 3, comment: null })).toMatch(
+      new RegExp(`^Resolved: ${inSentence(word)};`),
+    )
 
     const audit = describeAuditEntry(
-      { kind: 'dispute-resolved', before: { status: 'open', score: 1 }, after: { status: outcome, score: 3, changed: 1 }, note: '', subject: 'Ada Okafor', assignmentTitle: 'Week 9', assignmentDueAt: null, question: { label: 'Net work per unit mass', position: 2 }, maxScore: 3, regrade: null },
+      {
+        kind: 'dispute-resolved',
+        before: { status: 'open', score: 1 },
+        after: { status: outcome, score: 3, changed: 1 },
+        note: '',
+        subject: 'Ada Okafor',
+        assignmentTitle: 'Week 9',
+        assignmentDueAt: null,
+        question: { label: 'Net work per unit mass', position: 2 },
+        maxScore: 3,
+        regrade: null,
+      },
       { timeZone: 'UTC' },
     )
     expect(audit.what.endsWith(`resolved: ${inSentence(word)}`)).toBe(true)
   })
 
   test('the e-mail says the scores and the reviewer’s comment', () => {
-    const kept = disputeResolutionMail({ ...facts, outcome: 'rejected', scoreAfter: 1, comment: 'The sign is part of the answer.' })
+    const kept = disputeResolutionMail({
+      ...facts,
+      outcome: 'rejected',
+      scoreAfter: 1,
+      comment: 'The sign is part of the answer.',
+    })
     expect(kept.subject).toBe('ENG 2040: your dispute on Week 9, problem 2: score kept')
     expect(kept.lines).toEqual([
       'Hello Ada Okafor,',
@@ -136,7 +185,9 @@ describe('a resolved dispute: the e-mail, the badge, the student’s page, the h
       'Comment from the reviewer: The sign is part of the answer.',
     ])
     const adjusted = disputeResolutionMail({ ...facts, outcome: 'adjusted', scoreAfter: 2.5 })
-    expect(adjusted.lines[2]).toBe('Outcome: Score adjusted. Your score for this question was changed from 1 point to 2.5 points of 3.')
+    expect(adjusted.lines[2]).toBe(
+      'Outcome: Score adjusted. Your score for this question was changed from 1 point to 2.5 points of 3.',
+    )
     expect(adjusted.lines).toHaveLength(3)
   })
 })

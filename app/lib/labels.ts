@@ -82,7 +82,10 @@ export const SUBMISSION_STATUS_LABELS = {
  * An answer's result in a table: its verdict once graded, else its submission's status
  * ("Being graded", "Grading failed"). A verdict of 'removed' (a regrade's) is "No longer asked".
  */
-export function answerResultLabel(a: { verdict: Verdict | 'removed' | null; status?: SubmissionStatus | null }): string {
+export function answerResultLabel(a: {
+  verdict: Verdict | 'removed' | null
+  status?: SubmissionStatus | null
+}): string {
   if (a.verdict === 'removed') return REMOVED_FIND_LABEL
   if (a.verdict) return VERDICT_LABELS[a.verdict]
   return SUBMISSION_STATUS_LABELS[a.status === 'failed' ? 'failed' : 'queued']

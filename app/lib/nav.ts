@@ -15,7 +15,8 @@ export function navFor(user: NavUser | null): NavItem[] {
   const items: NavItem[] = [{ to: '/', label: 'Home', end: true }]
   for (const c of user.courses) items.push({ to: `/courses/${c.id}`, label: c.code })
   // The same rule as canUseBank in app/domain/permissions.ts.
-  if (user.isAdmin || user.courses.some((c) => c.role === 'instructor')) items.push({ to: '/bank', label: 'Problem bank' })
+  if (user.isAdmin || user.courses.some((c) => c.role === 'instructor'))
+    items.push({ to: '/bank', label: 'Problem bank' })
   if (user.isAdmin) {
     items.push({ to: '/admin', label: 'Department', end: true })
     items.push({ to: '/admin/outbox', label: 'Outbox' })

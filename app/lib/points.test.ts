@@ -27,11 +27,14 @@ describe('roundPoints', () => {
     expect(roundPoints(x)).toBe(expected)
   })
 
-  test.each([[-0], [-1e-12], [-3], [Number.NaN], [Number.POSITIVE_INFINITY], [Number.NEGATIVE_INFINITY]])('%d is never shown as negative or NaN: 0', (x) => {
-    expect(roundPoints(x)).toBe(0)
-    expect(Object.is(roundPoints(x), -0)).toBe(false)
-    expect(formatPoints(x)).toBe('0')
-  })
+  test.each([[-0], [-1e-12], [-3], [Number.NaN], [Number.POSITIVE_INFINITY], [Number.NEGATIVE_INFINITY]])(
+    '%d is never shown as negative or NaN: 0',
+    (x) => {
+      expect(roundPoints(x)).toBe(0)
+      expect(Object.is(roundPoints(x), -0)).toBe(false)
+      expect(formatPoints(x)).toBe('0')
+    },
+  )
 })
 
 describe('formatPoints and formatScore', () => {

@@ -24,8 +24,20 @@ const ottoProblem: ProblemDefinition = {
   prompt: 'Air at [p1 in kPa] and [T1] is compressed with ratio [r].\n\nFind $w_{net}$ and $\\eta$.',
   givens: [
     { name: 'T1', label: 'inlet temperature', unit: 'K', rule: { kind: 'range', min: 290, max: 310, step: 5 } },
-    { name: 'p1', label: 'inlet pressure', unit: 'kPa', rule: { kind: 'choice', values: [95, 100, 105] }, display: { decimals: 0 } },
-    { name: 'r', label: 'compression ratio', unit: '', rule: { kind: 'range', min: 7, max: 10, step: 0.5 }, display: { sigFigs: 2 } },
+    {
+      name: 'p1',
+      label: 'inlet pressure',
+      unit: 'kPa',
+      rule: { kind: 'choice', values: [95, 100, 105] },
+      display: { decimals: 0 },
+    },
+    {
+      name: 'r',
+      label: 'compression ratio',
+      unit: '',
+      rule: { kind: 'range', min: 7, max: 10, step: 0.5 },
+      display: { sigFigs: 2 },
+    },
     { name: 'gas', label: 'working gas', unit: '', rule: { kind: 'choice', values: ['air', 'diatomic'] } },
     { name: 'q', label: 'heat added', unit: 'kJ/kg', rule: { kind: 'expression', expression: '2.5 * r * 100 kJ/kg' } },
   ],
@@ -33,7 +45,11 @@ const ottoProblem: ProblemDefinition = {
     { left: 'T1', op: '<', right: '400 K', message: 'T1 must stay below 400 K' },
     { left: 'r', op: '>=', right: '7' },
   ],
-  physics: { kind: 'template', template: 'otto', inputs: { gas: 'gas', p1: 'p1', T1: 'T1', compressionRatio: 'r', heatIn: 'q' } },
+  physics: {
+    kind: 'template',
+    template: 'otto',
+    inputs: { gas: 'gas', p1: 'p1', T1: 'T1', compressionRatio: 'r', heatIn: 'q' },
+  },
   finds: [
     {
       name: 'wnet',
@@ -75,7 +91,11 @@ const cycleProblem: ProblemDefinition = {
       gas: { basis: 'mole', cv: '12.47 J/(mol K)' },
       system: 'closed',
       amount: '2 mol',
-      states: [{ name: 'A', p: '1 bar', V: '40 L' }, { name: 'B', p: 'pB' }, { name: 'C', V: '40 L' }],
+      states: [
+        { name: 'A', p: '1 bar', V: '40 L' },
+        { name: 'B', p: 'pB' },
+        { name: 'C', V: '40 L' },
+      ],
       steps: [{ process: 'polytropic', n: 1.3 }, { process: 'isobaric' }, { process: 'isochoric' }],
     },
   },
@@ -162,7 +182,9 @@ describe('rows', () => {
     fd.append('givens.1.rule.max', '320')
     fd.append('givens.1.rule.step', '10')
     const { draft } = definitionFromForm(fd)
-    expect((draft as ProblemDefinition).givens).toEqual([{ name: 'T1', label: '', unit: '', rule: { kind: 'range', min: 300, max: 320, step: 10 } }])
+    expect((draft as ProblemDefinition).givens).toEqual([
+      { name: 'T1', label: '', unit: '', rule: { kind: 'range', min: 300, max: 320, step: 10 } },
+    ])
     const state = editorStateFromForm(fd)
     expect(state.values['givens.0.name']).toBe('T1')
     expect(state.values['givens.0.rule.min']).toBe('300')
@@ -188,7 +210,8 @@ describe('rows', () => {
   test('a "Remove" button names its row; the state without it is renumbered and keeps the rest as typed', () => {
     expect(readRemoveIntent(removeIntent('givens', 3))).toEqual({ table: 'givens', index: 3 })
     expect(readRemoveIntent('remove:finds:0')).toEqual({ table: 'finds', index: 0 })
-    for (const bad of ['remove:givens', 'remove:people:1', 'remove:givens:-1', 'save', null, 'remove:givens:99999']) expect(readRemoveIntent(bad)).toBeNull()
+    for (const bad of ['remove:givens', 'remove:people:1', 'remove:givens:-1', 'save', null, 'remove:givens:99999'])
+      expect(readRemoveIntent(bad)).toBeNull()
     const fd = toFormData(formValuesFromDefinition(ottoProblem))
     fd.set('intent', removeIntent('givens', 0))
     fd.set('givens.2.label', 'typed but not saved')
@@ -240,7 +263,13 @@ describe('bad input gives issues by field, never a throw', () => {
   test('an empty form reads as an empty draft', () => {
     const { draft, formIssues } = definitionFromForm(new FormData())
     expect(formIssues).toEqual([])
-    expect(draft).toMatchObject({ title: '', givens: [], constraints: [], finds: [], physics: { kind: 'template', template: '', inputs: {} } })
+    expect(draft).toMatchObject({
+      title: '',
+      givens: [],
+      constraints: [],
+      finds: [],
+      physics: { kind: 'template', template: '', inputs: {} },
+    })
   })
 
   test('a bad percentage', () => {
@@ -325,7 +354,10 @@ describe('issues and fields', () => {
   })
 
   test('changing the template keeps only the inputs the new one takes', () => {
-    const kept = keepTemplateInputs({ title: 't', 'physics.inputs.T1': 'T1', 'physics.inputs.heatIn': 'q' }, ['T1', 'p1'])
+    const kept = keepTemplateInputs({ title: 't', 'physics.inputs.T1': 'T1', 'physics.inputs.heatIn': 'q' }, [
+      'T1',
+      'p1',
+    ])
     expect(kept).toEqual({ title: 't', 'physics.inputs.T1': 'T1' })
   })
 })

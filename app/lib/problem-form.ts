@@ -63,7 +63,12 @@ export interface TemplateChoice {
   readonly id: string
   readonly title: string
   readonly description: string
-  readonly inputs: readonly { readonly name: string; readonly unit: string; readonly description: string; readonly required: boolean }[]
+  readonly inputs: readonly {
+    readonly name: string
+    readonly unit: string
+    readonly description: string
+    readonly required: boolean
+  }[]
 }
 
 export interface EditorOptions {
@@ -104,7 +109,18 @@ export function findTemplate(options: EditorOptions, id: string): TemplateChoice
 
 /** The fields whose text decides whether a row is blank; selects always carry a value. */
 const CONTENT_FIELDS: Record<RowTable, readonly string[]> = {
-  givens: ['name', 'label', 'unit', 'rule.min', 'rule.max', 'rule.step', 'rule.values', 'rule.expression', 'display.decimals', 'display.sigFigs'],
+  givens: [
+    'name',
+    'label',
+    'unit',
+    'rule.min',
+    'rule.max',
+    'rule.step',
+    'rule.values',
+    'rule.expression',
+    'display.decimals',
+    'display.sigFigs',
+  ],
   constraints: ['left', 'right', 'message'],
   finds: [
     'name',
@@ -203,7 +219,8 @@ export function definitionFromForm(form: FormData): { draft: unknown; visibility
     const p = `givens.${i}`
     const kind = trimmed(`${p}.rule.kind`)
     let rule: Record<string, unknown>
-    if (kind === 'range') rule = compact({ kind, min: num(`${p}.rule.min`), max: num(`${p}.rule.max`), step: num(`${p}.rule.step`) })
+    if (kind === 'range')
+      rule = compact({ kind, min: num(`${p}.rule.min`), max: num(`${p}.rule.max`), step: num(`${p}.rule.step`) })
     else if (kind === 'choice') {
       const items = splitList(text(`${p}.rule.values`))
       const numbers = items.map(parseNumber)
@@ -222,7 +239,12 @@ export function definitionFromForm(form: FormData): { draft: unknown; visibility
 
   const constraints = rows.constraints.kept.map((i) => {
     const p = `constraints.${i}`
-    return compact({ left: trimmed(`${p}.left`), op: trimmed(`${p}.op`), right: trimmed(`${p}.right`), message: optionalText(`${p}.message`) })
+    return compact({
+      left: trimmed(`${p}.left`),
+      op: trimmed(`${p}.op`),
+      right: trimmed(`${p}.right`),
+      message: optionalText(`${p}.message`),
+    })
   })
 
   const template = trimmed('physics.template')
@@ -267,10 +289,19 @@ export function definitionFromForm(form: FormData): { draft: unknown; visibility
       const percent = /^(.*?)\s*%$/.exec(raw)
       if (percent) {
         const n = parseNumber(percent[1]!)
-        if (n === null) formIssues.push({ path: `${p}.tolerance.value`, message: `“${raw}” is not a percentage. Type a fraction (0.01) or a percentage (1 %).` })
+        if (n === null)
+          formIssues.push({
+            path: `${p}.tolerance.value`,
+            message: `“${raw}” is not a percentage. Type a fraction (0.01) or a percentage (1 %).`,
+          })
         tolerance = { kind: tolKind, value: n === null ? raw : n / 100 }
       } else tolerance = compact({ kind: tolKind, value: num(`${p}.tolerance.value`) })
-    } else tolerance = compact({ kind: tolKind, value: num(`${p}.tolerance.value`), unit: optionalText(`${p}.tolerance.unit`) })
+    } else
+      tolerance = compact({
+        kind: tolKind,
+        value: num(`${p}.tolerance.value`),
+        unit: optionalText(`${p}.tolerance.unit`),
+      })
     const sigFigs = compact({ min: num(`${p}.sigFigs.min`), max: num(`${p}.sigFigs.max`) })
     return compact({
       name: trimmed(`${p}.name`),
@@ -383,7 +414,13 @@ export function editorStateFromDefinition(def: ProblemDefinition, visibility: st
 /** A new problem: one blank given, constraint and find, the Otto template chosen. */
 export function emptyEditorState(): EditorState {
   return {
-    values: { visibility: 'private', convention: 'course', 'tags.difficulty': 'standard', 'tags.level': 'second-year', 'physics.template': 'otto' },
+    values: {
+      visibility: 'private',
+      convention: 'course',
+      'tags.difficulty': 'standard',
+      'tags.level': 'second-year',
+      'physics.template': 'otto',
+    },
     rows: { givens: 1, constraints: 1, finds: 1 },
   }
 }
@@ -441,7 +478,10 @@ export function editorStateWithout(form: FormData, table: RowTable, index: numbe
 }
 
 /** After the template changed: keep only the inputs the new template takes (shared ones stay filled). */
-export function keepTemplateInputs(values: Readonly<Record<string, string>>, inputNames: readonly string[]): Record<string, string> {
+export function keepTemplateInputs(
+  values: Readonly<Record<string, string>>,
+  inputNames: readonly string[],
+): Record<string, string> {
   const keep = new Set(inputNames.map((n) => `physics.inputs.${n}`))
   return Object.fromEntries(Object.entries(values).filter(([k]) => !k.startsWith('physics.inputs.') || keep.has(k)))
 }

@@ -22,11 +22,25 @@ function carnot(): ProblemDefinition {
     convention: 'course',
     prompt: 'A Carnot engine runs between [TH] and [TL]. Find its thermal efficiency.',
     givens: [
-      { name: 'TH', label: 'hot reservoir temperature', unit: 'K', rule: { kind: 'range', min: 600, max: 1200, step: 50 } },
-      { name: 'TL', label: 'cold reservoir temperature', unit: 'K', rule: { kind: 'range', min: 280, max: 350, step: 10 } },
+      {
+        name: 'TH',
+        label: 'hot reservoir temperature',
+        unit: 'K',
+        rule: { kind: 'range', min: 600, max: 1200, step: 50 },
+      },
+      {
+        name: 'TL',
+        label: 'cold reservoir temperature',
+        unit: 'K',
+        rule: { kind: 'range', min: 280, max: 350, step: 10 },
+      },
     ],
     constraints: [{ left: 'TH', op: '>', right: 'TL + 100 K', message: 'TH must exceed TL by 100 K' }],
-    physics: { kind: 'template', template: 'carnot-engine', inputs: { Th: 'TH', Tc: 'TL', p1: '100 kPa', expansionRatio: '3' } },
+    physics: {
+      kind: 'template',
+      template: 'carnot-engine',
+      inputs: { Th: 'TH', Tc: 'TL', p1: '100 kPa', expansionRatio: '3' },
+    },
     finds: [
       {
         name: 'eta',
@@ -57,8 +71,12 @@ describe('ProblemDefinitionSchema', () => {
   })
 
   test('a general cycle takes any JSON object, but not a list', () => {
-    expect(definitionIssues(edited((d) => (d.physics = { kind: 'cycle', cycle: { gas: 'air', states: [], steps: [] } })))).toEqual([])
-    expect(definitionIssues(edited((d) => (d.physics = { kind: 'cycle', cycle: [1, 2] }))).map((i) => i.path)).toEqual(['physics.cycle'])
+    expect(
+      definitionIssues(edited((d) => (d.physics = { kind: 'cycle', cycle: { gas: 'air', states: [], steps: [] } }))),
+    ).toEqual([])
+    expect(definitionIssues(edited((d) => (d.physics = { kind: 'cycle', cycle: [1, 2] }))).map((i) => i.path)).toEqual([
+      'physics.cycle',
+    ])
   })
 
   test.each<[string, (d: any) => void, string]>([
@@ -77,19 +95,35 @@ describe('ProblemDefinitionSchema', () => {
     ['unknown rule kind', (d) => (d.givens[0].rule = { kind: 'normal', mean: 1 }), 'givens.0.rule.kind'],
     ['empty choice', (d) => (d.givens[0].rule = { kind: 'choice', values: [] }), 'givens.0.rule.values'],
     ['unknown field in a given', (d) => (d.givens[0].colour = 'red'), 'givens.0.colour'],
-    ['too many givens', (d) => (d.givens = Array.from({ length: 41 }, (_, i) => ({ ...d.givens[0], name: `g${i}` }))), 'givens'],
+    [
+      'too many givens',
+      (d) => (d.givens = Array.from({ length: 41 }, (_, i) => ({ ...d.givens[0], name: `g${i}` }))),
+      'givens',
+    ],
     ['constraint operator', (d) => (d.constraints[0].op = '=='), 'constraints.0.op'],
-    ['too many constraints', (d) => (d.constraints = Array.from({ length: 21 }, () => d.constraints[0])), 'constraints'],
+    [
+      'too many constraints',
+      (d) => (d.constraints = Array.from({ length: 21 }, () => d.constraints[0])),
+      'constraints',
+    ],
     ['unknown physics kind', (d) => (d.physics.kind = 'magic'), 'physics.kind'],
     ['unknown template', (d) => (d.physics.template = 'otto-turbo'), 'physics.template'],
     ['template input value not text', (d) => (d.physics.inputs.p1 = 100), 'physics.inputs.p1'],
     ['no finds', (d) => (d.finds = []), 'finds'],
-    ['too many finds', (d) => (d.finds = Array.from({ length: 31 }, (_, i) => ({ ...d.finds[0], name: `f${i}` }))), 'finds'],
+    [
+      'too many finds',
+      (d) => (d.finds = Array.from({ length: 31 }, (_, i) => ({ ...d.finds[0], name: `f${i}` }))),
+      'finds',
+    ],
     ['find name used by a given', (d) => (d.finds[0].name = 'TH'), 'finds.0.name'],
     ['output path not dotted', (d) => (d.finds[0].source.path = 'totals..efficiency'), 'finds.0.source.path'],
     ['relative tolerance zero', (d) => (d.finds[0].tolerance.value = 0), 'finds.0.tolerance.value'],
     ['relative tolerance above 1', (d) => (d.finds[0].tolerance.value = 2), 'finds.0.tolerance.value'],
-    ['absolute tolerance negative', (d) => (d.finds[0].tolerance = { kind: 'absolute', value: -1, unit: 'K' }), 'finds.0.tolerance.value'],
+    [
+      'absolute tolerance negative',
+      (d) => (d.finds[0].tolerance = { kind: 'absolute', value: -1, unit: 'K' }),
+      'finds.0.tolerance.value',
+    ],
     ['points above 1000', (d) => (d.finds[0].points = 1001), 'finds.0.points'],
     ['points infinite', (d) => (d.finds[0].points = Number.POSITIVE_INFINITY), 'finds.0.points'],
     ['sig figs below 1', (d) => (d.finds[0].sigFigs = { min: 0 }), 'finds.0.sigFigs.min'],
@@ -126,12 +160,27 @@ describe('ProblemDefinitionSchema', () => {
 })
 
 function bankDoc(problems: unknown[], over: Record<string, unknown> = {}) {
-  return { format: BANK_FORMAT_ID, version: BANK_FORMAT_VERSION, exportedAt: '2026-12-02T09:30:00.000Z', problems, ...over }
+  return {
+    format: BANK_FORMAT_ID,
+    version: BANK_FORMAT_VERSION,
+    exportedAt: '2026-12-02T09:30:00.000Z',
+    problems,
+    ...over,
+  }
 }
 
 describe('readBankDocument', () => {
   test('a valid document gives its problems', () => {
-    const r = readBankDocument(bankDoc([{ title: 'Carnot engine efficiency', visibility: 'department', origin: { title: 'Carnot', author: 'A. Author' }, definition: carnot() }]))
+    const r = readBankDocument(
+      bankDoc([
+        {
+          title: 'Carnot engine efficiency',
+          visibility: 'department',
+          origin: { title: 'Carnot', author: 'A. Author' },
+          definition: carnot(),
+        },
+      ]),
+    )
     expect(r.ok).toBe(true)
     if (r.ok) expect(r.problems[0]?.definition).toEqual(carnot())
   })
@@ -139,14 +188,22 @@ describe('readBankDocument', () => {
   test('reads JSON text too', () => {
     expect(readBankDocument(JSON.stringify(bankDoc([{ title: 'x', definition: carnot() }]))).ok).toBe(true)
     const bad = readBankDocument('{"format": "cyclewright-bank", ')
-    expect(bad).toEqual({ ok: false, errors: [{ problem: 'The document', field: '', message: expect.stringMatching(/not valid JSON/) }] })
+    expect(bad).toEqual({
+      ok: false,
+      errors: [{ problem: 'The document', field: '', message: expect.stringMatching(/not valid JSON/) }],
+    })
   })
 
   test('collects every error of every problem, naming the problem and the field', () => {
     const r = readBankDocument(
       bankDoc([
         { title: 'Carnot engine efficiency', definition: carnot() },
-        { title: 'Otto cycle efficiency', definition: edited((d) => ((d.title = 'Otto cycle efficiency'), (d.givens[0].rule.min = 'low'), (d.finds[0].points = -1))) },
+        {
+          title: 'Otto cycle efficiency',
+          definition: edited(
+            (d) => ((d.title = 'Otto cycle efficiency'), (d.givens[0].rule.min = 'low'), (d.finds[0].points = -1)),
+          ),
+        },
         { title: 'Untitled', definition: edited((d) => (d.physics.template = 'nope')), visibility: 'everyone' },
         'not a problem',
       ]),
@@ -169,12 +226,27 @@ describe('readBankDocument', () => {
 
   test.each<[string, unknown, string, RegExp]>([
     ['another format', bankDoc([], { format: 'some-other-bank' }), 'format', /not a Cyclewright bank document/],
-    ['a newer version', bankDoc([{ title: 'x', definition: carnot() }], { version: 3 }), 'version', /newer Cyclewright/],
+    [
+      'a newer version',
+      bankDoc([{ title: 'x', definition: carnot() }], { version: 3 }),
+      'version',
+      /newer Cyclewright/,
+    ],
     ['a version that is not a number', bankDoc([], { version: 'one' }), 'version', /Set version to 2/],
     ['a list instead of an object', [carnot()], '', /one JSON object/],
     ['no problems', bankDoc([]), 'problems', /no problems/],
-    ['more than 500 problems', bankDoc(Array.from({ length: 501 }, () => ({ title: 'x', definition: carnot() }))), 'problems', /at most 500/],
-    ['a bad export date', bankDoc([{ title: 'x', definition: carnot() }], { exportedAt: 'yesterday' }), 'exportedAt', /date and time/],
+    [
+      'more than 500 problems',
+      bankDoc(Array.from({ length: 501 }, () => ({ title: 'x', definition: carnot() }))),
+      'problems',
+      /at most 500/,
+    ],
+    [
+      'a bad export date',
+      bankDoc([{ title: 'x', definition: carnot() }], { exportedAt: 'yesterday' }),
+      'exportedAt',
+      /date and time/,
+    ],
     ['an unknown field', bankDoc([{ title: 'x', definition: carnot() }], { author: 'me' }), 'author', /not a field/],
   ])('the document: %s', (_, raw, field, message) => {
     const r = readBankDocument(raw)

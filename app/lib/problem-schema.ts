@@ -74,7 +74,10 @@ export const VISIBILITIES = ['private', 'department', 'installation'] as const
 
 // ---- Building blocks ------------------------------------------------------------------
 
-const finite = (what: string) => z.number({ error: (iss) => (iss.input === undefined ? `Enter ${what}.` : `${capitalise(what)} must be a finite number.`) })
+const finite = (what: string) =>
+  z.number({
+    error: (iss) => (iss.input === undefined ? `Enter ${what}.` : `${capitalise(what)} must be a finite number.`),
+  })
 
 const text = (what: string, max: number, min = 0) =>
   z
@@ -85,7 +88,10 @@ const text = (what: string, max: number, min = 0) =>
 
 const Name = z
   .string({ error: 'Give a name.' })
-  .regex(NAME_PATTERN, 'A name starts with a letter and uses only letters, digits and _ (at most 32 characters), so it can be used in expressions.')
+  .regex(
+    NAME_PATTERN,
+    'A name starts with a letter and uses only letters, digits and _ (at most 32 characters), so it can be used in expressions.',
+  )
 
 const Expression = text('the expression', DEFINITION_LIMITS.expression.max, 1)
 
@@ -100,11 +106,16 @@ const GivenRuleSchema = z.discriminatedUnion(
         step: finite('the step').positive('The step must be greater than 0.'),
       })
       .refine((r) => r.min <= r.max, { message: 'The largest value must not be below the smallest.', path: ['max'] })
-      .refine((r) => (r.max - r.min) / r.step <= 1_000_000, { message: 'The step is too small for this range: keep it to at most a million values.', path: ['step'] }),
+      .refine((r) => (r.max - r.min) / r.step <= 1_000_000, {
+        message: 'The step is too small for this range: keep it to at most a million values.',
+        path: ['step'],
+      }),
     z.strictObject({
       kind: z.literal('choice'),
       values: z
-        .array(z.union([finite('a value'), text('a value', 200, 1)], { error: 'Each choice is a number or a short text.' }))
+        .array(
+          z.union([finite('a value'), text('a value', 200, 1)], { error: 'Each choice is a number or a short text.' }),
+        )
         .min(1, 'Give at least one value to choose from.')
         .max(DEFINITION_LIMITS.choices.max, `Give at most ${DEFINITION_LIMITS.choices.max} values to choose from.`),
     }),
@@ -120,8 +131,16 @@ const GivenSchema = z.strictObject({
   rule: GivenRuleSchema,
   display: z
     .strictObject({
-      decimals: z.int('Decimals must be a whole number.').min(0, 'Decimals cannot be negative.').max(DEFINITION_LIMITS.decimals.max, `Show at most ${DEFINITION_LIMITS.decimals.max} decimals.`).optional(),
-      sigFigs: z.int('Significant figures must be a whole number.').min(1, 'Show at least 1 significant figure.').max(DEFINITION_LIMITS.sigFigs.max, `Show at most ${DEFINITION_LIMITS.sigFigs.max} significant figures.`).optional(),
+      decimals: z
+        .int('Decimals must be a whole number.')
+        .min(0, 'Decimals cannot be negative.')
+        .max(DEFINITION_LIMITS.decimals.max, `Show at most ${DEFINITION_LIMITS.decimals.max} decimals.`)
+        .optional(),
+      sigFigs: z
+        .int('Significant figures must be a whole number.')
+        .min(1, 'Show at least 1 significant figure.')
+        .max(DEFINITION_LIMITS.sigFigs.max, `Show at most ${DEFINITION_LIMITS.sigFigs.max} significant figures.`)
+        .optional(),
     })
     .optional(),
 })
@@ -140,14 +159,23 @@ const PhysicsSchema = z.discriminatedUnion(
       kind: z.literal('template'),
       template: z.enum(TEMPLATE_IDS, { error: `Choose one of the solver's templates: ${TEMPLATE_IDS.join(', ')}.` }),
       inputs: z
-        .record(z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,39}$/, 'A template input name is a word of letters, digits and _.'), text('the input value', 500), {
-          error: 'Give the template inputs as names with text values.',
-        })
-        .refine((r) => Object.keys(r).length <= DEFINITION_LIMITS.templateInputs.max, `Give at most ${DEFINITION_LIMITS.templateInputs.max} template inputs.`),
+        .record(
+          z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,39}$/, 'A template input name is a word of letters, digits and _.'),
+          text('the input value', 500),
+          {
+            error: 'Give the template inputs as names with text values.',
+          },
+        )
+        .refine(
+          (r) => Object.keys(r).length <= DEFINITION_LIMITS.templateInputs.max,
+          `Give at most ${DEFINITION_LIMITS.templateInputs.max} template inputs.`,
+        ),
     }),
     z.strictObject({
       kind: z.literal('cycle'),
-      cycle: z.record(z.string(), z.unknown(), { error: 'Give the cycle as an object with states and steps, as in a spec file.' }),
+      cycle: z.record(z.string(), z.unknown(), {
+        error: 'Give the cycle as an object with states and steps, as in a spec file.',
+      }),
     }),
   ],
   { error: 'Choose the kind of physics: template or cycle.' },
@@ -158,7 +186,9 @@ const ToleranceSchema = z.discriminatedUnion(
   [
     z.strictObject({
       kind: z.literal('relative'),
-      value: finite('the tolerance').gt(0, 'A relative tolerance must be greater than 0.').max(1, 'A relative tolerance is a fraction: at most 1 (0.02 means 2 %).'),
+      value: finite('the tolerance')
+        .gt(0, 'A relative tolerance must be greater than 0.')
+        .max(1, 'A relative tolerance is a fraction: at most 1 (0.02 means 2 %).'),
     }),
     z.strictObject({
       kind: z.literal('absolute'),
@@ -171,10 +201,21 @@ const ToleranceSchema = z.discriminatedUnion(
 
 const SigFigsSchema = z
   .strictObject({
-    min: z.int('Significant figures must be a whole number.').min(1, 'Ask for at least 1 significant figure.').max(10, 'Ask for at most 10 significant figures.').optional(),
-    max: z.int('Significant figures must be a whole number.').min(1, 'Allow at least 1 significant figure.').max(10, 'Allow at most 10 significant figures.').optional(),
+    min: z
+      .int('Significant figures must be a whole number.')
+      .min(1, 'Ask for at least 1 significant figure.')
+      .max(10, 'Ask for at most 10 significant figures.')
+      .optional(),
+    max: z
+      .int('Significant figures must be a whole number.')
+      .min(1, 'Allow at least 1 significant figure.')
+      .max(10, 'Allow at most 10 significant figures.')
+      .optional(),
   })
-  .refine((s) => s.min === undefined || s.max === undefined || s.min <= s.max, { message: 'The most significant figures allowed must not be below the fewest.', path: ['max'] })
+  .refine((s) => s.min === undefined || s.max === undefined || s.min <= s.max, {
+    message: 'The most significant figures allowed must not be below the fewest.',
+    path: ['max'],
+  })
 
 const FindSourceSchema = z.discriminatedUnion(
   'kind',
@@ -183,7 +224,10 @@ const FindSourceSchema = z.discriminatedUnion(
       kind: z.literal('output'),
       path: z
         .string({ error: 'Give the solver output, like totals.netWork.' })
-        .regex(/^[A-Za-z][A-Za-z0-9]*(\.([A-Za-z][A-Za-z0-9]*|\d{1,3}))*$/, 'Give the solver output as a dotted path, like totals.netWork or states.2.T.')
+        .regex(
+          /^[A-Za-z][A-Za-z0-9]*(\.([A-Za-z][A-Za-z0-9]*|\d{1,3}))*$/,
+          'Give the solver output as a dotted path, like totals.netWork or states.2.T.',
+        )
         .max(120, 'Keep the output path under 121 characters.'),
     }),
     z.strictObject({ kind: z.literal('expression'), expression: Expression }),
@@ -196,15 +240,21 @@ const FindSchema = z.strictObject({
   label: text('the question', DEFINITION_LIMITS.label.max, 1),
   source: FindSourceSchema,
   unit: text('the unit', DEFINITION_LIMITS.unit.max),
-  points: finite('the points').min(0, 'Points cannot be negative.').max(DEFINITION_LIMITS.points.max, `Give at most ${DEFINITION_LIMITS.points.max} points.`),
+  points: finite('the points')
+    .min(0, 'Points cannot be negative.')
+    .max(DEFINITION_LIMITS.points.max, `Give at most ${DEFINITION_LIMITS.points.max} points.`),
   tolerance: ToleranceSchema,
   sigFigs: SigFigsSchema.optional(),
   isDifference: z.boolean({ error: 'Say true or false.' }).optional(),
   allowBareNumber: z.boolean({ error: 'Say true or false.' }).optional(),
   pitfalls: z
-    .array(z.enum(PITFALL_IDS, { error: `Choose pitfalls from: ${PITFALL_IDS.join(', ')}.` }), { error: 'List the pitfalls (an empty list is fine).' })
+    .array(z.enum(PITFALL_IDS, { error: `Choose pitfalls from: ${PITFALL_IDS.join(', ')}.` }), {
+      error: 'List the pitfalls (an empty list is fine).',
+    })
     .max(PITFALL_IDS.length, 'Each pitfall can be listed once.'),
-  sense: z.enum(FIND_SENSES, { error: `Choose the sense from: ${FIND_SENSES.join(', ')} (or leave it out).` }).optional(),
+  sense: z
+    .enum(FIND_SENSES, { error: `Choose the sense from: ${FIND_SENSES.join(', ')} (or leave it out).` })
+    .optional(),
 })
 
 export const ProblemDefinitionSchema = z
@@ -218,19 +268,37 @@ export const ProblemDefinitionSchema = z
     title: text('a title', DEFINITION_LIMITS.title.max, DEFINITION_LIMITS.title.min),
     tags: z.strictObject({
       topics: z
-        .array(z.string({ error: 'Each topic is a short text.' }).trim().toLowerCase().min(1, 'A topic cannot be empty.').max(DEFINITION_LIMITS.topics.wordMax, `Keep each topic under ${DEFINITION_LIMITS.topics.wordMax + 1} characters.`), {
-          error: 'List the topics (an empty list is fine).',
-        })
+        .array(
+          z
+            .string({ error: 'Each topic is a short text.' })
+            .trim()
+            .toLowerCase()
+            .min(1, 'A topic cannot be empty.')
+            .max(
+              DEFINITION_LIMITS.topics.wordMax,
+              `Keep each topic under ${DEFINITION_LIMITS.topics.wordMax + 1} characters.`,
+            ),
+          {
+            error: 'List the topics (an empty list is fine).',
+          },
+        )
         .max(DEFINITION_LIMITS.topics.max, `Give at most ${DEFINITION_LIMITS.topics.max} topics.`),
       difficulty: z.enum(DIFFICULTIES, { error: `Choose a difficulty: ${DIFFICULTIES.join(', ')}.` }),
       level: z.enum(LEVELS, { error: `Choose a level: ${LEVELS.join(', ')}.` }),
     }),
-    convention: z.enum(['course', 'chemistry', 'engineering'], { error: 'Choose the sign convention: course, chemistry or engineering.' }),
+    convention: z.enum(['course', 'chemistry', 'engineering'], {
+      error: 'Choose the sign convention: course, chemistry or engineering.',
+    }),
     prompt: z
       .string({ error: 'Write the problem text.' })
       .min(1, 'Write the problem text.')
-      .max(DEFINITION_LIMITS.prompt.max, `Keep the problem text under ${DEFINITION_LIMITS.prompt.max.toLocaleString('en')} characters.`),
-    givens: z.array(GivenSchema, { error: 'List the givens (an empty list is fine).' }).max(DEFINITION_LIMITS.givens.max, `Give at most ${DEFINITION_LIMITS.givens.max} givens.`),
+      .max(
+        DEFINITION_LIMITS.prompt.max,
+        `Keep the problem text under ${DEFINITION_LIMITS.prompt.max.toLocaleString('en')} characters.`,
+      ),
+    givens: z
+      .array(GivenSchema, { error: 'List the givens (an empty list is fine).' })
+      .max(DEFINITION_LIMITS.givens.max, `Give at most ${DEFINITION_LIMITS.givens.max} givens.`),
     constraints: z
       .array(ConstraintSchema, { error: 'List the constraints (an empty list is fine).' })
       .max(DEFINITION_LIMITS.constraints.max, `Give at most ${DEFINITION_LIMITS.constraints.max} constraints.`),
@@ -244,13 +312,19 @@ export const ProblemDefinitionSchema = z
     // Givens and finds share one namespace: expressions and placeholders refer to both.
     const seen = new Set<string>()
     const check = (list: 'givens' | 'finds', name: string, i: number) => {
-      if (seen.has(name)) ctx.addIssue({ code: 'custom', path: [list, i, 'name'], message: `The name ${name} is already used by another given or find.` })
+      if (seen.has(name))
+        ctx.addIssue({
+          code: 'custom',
+          path: [list, i, 'name'],
+          message: `The name ${name} is already used by another given or find.`,
+        })
       seen.add(name)
     }
     d.givens.forEach((g, i) => check('givens', g.name, i))
     d.finds.forEach((f, i) => check('finds', f.name, i))
     d.finds.forEach((f, i) => {
-      if (new Set(f.pitfalls).size !== f.pitfalls.length) ctx.addIssue({ code: 'custom', path: ['finds', i, 'pitfalls'], message: 'Each pitfall can be listed once.' })
+      if (new Set(f.pitfalls).size !== f.pitfalls.length)
+        ctx.addIssue({ code: 'custom', path: ['finds', i, 'pitfalls'], message: 'Each pitfall can be listed once.' })
     })
   })
 
@@ -258,7 +332,9 @@ export type ProblemDefinitionInput = z.input<typeof ProblemDefinitionSchema>
 
 // The schema's output must be usable as the domain type (definition.ts is the contract).
 type Assert<T extends true> = T
-export type SchemaAgreesWithDefinition = Assert<z.output<typeof ProblemDefinitionSchema> extends ProblemDefinition ? true : false>
+export type SchemaAgreesWithDefinition = Assert<
+  z.output<typeof ProblemDefinitionSchema> extends ProblemDefinition ? true : false
+>
 export type PitfallListComplete = Assert<PitfallId extends (typeof PITFALL_IDS)[number] ? true : false>
 
 // ---- Messages -------------------------------------------------------------------------
@@ -286,15 +362,27 @@ function authorMessage(iss: z.core.$ZodRawIssue): string | undefined {
       return `This should be ${want}.`
     }
     case 'invalid_value':
-      return iss.values.length === 1 ? `This must be ${JSON.stringify(iss.values[0])}.` : `Choose one of: ${iss.values.join(', ')}.`
+      return iss.values.length === 1
+        ? `This must be ${JSON.stringify(iss.values[0])}.`
+        : `Choose one of: ${iss.values.join(', ')}.`
     case 'invalid_union':
       return 'This does not match any of the allowed forms.'
     case 'too_small':
-      return iss.origin === 'array' ? `Give at least ${iss.minimum}.` : iss.origin === 'string' ? `Write at least ${iss.minimum} characters.` : `This must be at least ${iss.minimum}.`
+      return iss.origin === 'array'
+        ? `Give at least ${iss.minimum}.`
+        : iss.origin === 'string'
+          ? `Write at least ${iss.minimum} characters.`
+          : `This must be at least ${iss.minimum}.`
     case 'too_big':
-      return iss.origin === 'array' ? `Give at most ${iss.maximum}.` : iss.origin === 'string' ? `Keep this under ${Number(iss.maximum) + 1} characters.` : `This must be at most ${iss.maximum}.`
+      return iss.origin === 'array'
+        ? `Give at most ${iss.maximum}.`
+        : iss.origin === 'string'
+          ? `Keep this under ${Number(iss.maximum) + 1} characters.`
+          : `This must be at most ${iss.maximum}.`
     case 'invalid_format':
-      return iss.format === 'datetime' ? 'Give a date and time like 2026-12-02T10:00:00Z.' : 'This is not in the expected form.'
+      return iss.format === 'datetime'
+        ? 'Give a date and time like 2026-12-02T10:00:00Z.'
+        : 'This is not in the expected form.'
     default:
       return undefined
   }
@@ -308,7 +396,11 @@ function toFieldIssues(issues: readonly z.core.$ZodIssue[], prefix: readonly Pro
     const at = [...prefix, ...iss.path]
     if (iss.code === 'unrecognized_keys') {
       // One line per unknown field, at the field itself, so the author sees where it is.
-      for (const key of iss.keys) out.push({ path: dotted([...at, key]), message: `${key} is not a field here: remove it or check its spelling.` })
+      for (const key of iss.keys)
+        out.push({
+          path: dotted([...at, key]),
+          message: `${key} is not a field here: remove it or check its spelling.`,
+        })
     } else out.push({ path: dotted(at), message: iss.message })
   }
   return out
@@ -327,7 +419,9 @@ export function definitionIssues(raw: unknown): FieldIssue[] {
 }
 
 /** Parses a definition with the author-facing messages; the value is normalised (trimmed, topics lower case). */
-export function parseDefinition(raw: unknown): { ok: true; value: ProblemDefinition } | { ok: false; issues: FieldIssue[] } {
+export function parseDefinition(
+  raw: unknown,
+): { ok: true; value: ProblemDefinition } | { ok: false; issues: FieldIssue[] } {
   // Checked before the shape: PostgreSQL cannot store a NUL in a definition, wherever it is.
   // The editor shows its fields back without NUL characters (problem-editor.server.ts), and says so.
   const control = controlCharIssues(raw, () => 'this text', { echoed: true })
@@ -407,7 +501,12 @@ const EnvelopeSchema = z.object({
 function problemName(index: number, raw: unknown): string {
   const o = raw && typeof raw === 'object' ? (raw as Record<string, unknown>) : {}
   const def = o.definition && typeof o.definition === 'object' ? (o.definition as Record<string, unknown>) : {}
-  const title = typeof def.title === 'string' && def.title.trim() ? def.title.trim() : typeof o.title === 'string' && o.title.trim() ? o.title.trim() : null
+  const title =
+    typeof def.title === 'string' && def.title.trim()
+      ? def.title.trim()
+      : typeof o.title === 'string' && o.title.trim()
+        ? o.title.trim()
+        : null
   // Shown on the import page: control characters (a NUL cannot be shown) are left out of the name.
   const plain = title?.replace(/[\u0000-\u001F\u007F]/g, '') ?? null
   const short = plain && plain.length > 60 ? `${plain.slice(0, 57)}…` : plain
@@ -419,40 +518,61 @@ function problemName(index: number, raw: unknown): string {
  * which field (dotted path). Accepts the parsed JSON, or the JSON text itself.
  */
 export function readBankDocument(raw: unknown): BankReadResult {
-  const doc = (message: string, field = ''): BankReadResult => ({ ok: false, errors: [{ problem: THE_DOCUMENT, field, message }] })
+  const doc = (message: string, field = ''): BankReadResult => ({
+    ok: false,
+    errors: [{ problem: THE_DOCUMENT, field, message }],
+  })
   let value = raw
   if (typeof raw === 'string') {
     try {
       value = JSON.parse(raw)
     } catch {
-      return doc('This file is not valid JSON. Export the bank again, or check the file was not cut short or edited by hand.')
+      return doc(
+        'This file is not valid JSON. Export the bank again, or check the file was not cut short or edited by hand.',
+      )
     }
   }
-  if (!value || typeof value !== 'object' || Array.isArray(value)) return doc('This is not a Cyclewright bank document: it should be one JSON object.')
+  if (!value || typeof value !== 'object' || Array.isArray(value))
+    return doc('This is not a Cyclewright bank document: it should be one JSON object.')
   const o = value as Record<string, unknown>
-  if (o.format !== BANK_FORMAT_ID) return doc(`This is not a Cyclewright bank document: format should be "${BANK_FORMAT_ID}".`, 'format')
+  if (o.format !== BANK_FORMAT_ID)
+    return doc(`This is not a Cyclewright bank document: format should be "${BANK_FORMAT_ID}".`, 'format')
   if (typeof o.version === 'number' && Number.isInteger(o.version) && o.version > BANK_FORMAT_VERSION) {
-    return doc(`This document was made by a newer Cyclewright (bank format version ${o.version}); this one reads version ${BANK_FORMAT_VERSION}. Update Cyclewright, or export again from an older one.`, 'version')
+    return doc(
+      `This document was made by a newer Cyclewright (bank format version ${o.version}); this one reads version ${BANK_FORMAT_VERSION}. Update Cyclewright, or export again from an older one.`,
+      'version',
+    )
   }
-  if (typeof o.version !== 'number' || !BANK_FORMAT_VERSIONS_READ.includes(o.version)) return doc(`Set version to ${BANK_FORMAT_VERSION}.`, 'version')
+  if (typeof o.version !== 'number' || !BANK_FORMAT_VERSIONS_READ.includes(o.version))
+    return doc(`Set version to ${BANK_FORMAT_VERSION}.`, 'version')
 
   const errors: BankError[] = []
   const envelope = EnvelopeSchema.safeParse(value, { error: authorMessage })
-  if (!envelope.success) for (const i of toFieldIssues(envelope.error.issues)) errors.push({ problem: THE_DOCUMENT, field: i.path, message: i.message })
+  if (!envelope.success)
+    for (const i of toFieldIssues(envelope.error.issues))
+      errors.push({ problem: THE_DOCUMENT, field: i.path, message: i.message })
   const extra = Object.keys(o).filter((k) => !['format', 'version', 'exportedAt', 'problems'].includes(k))
-  for (const k of extra) errors.push({ problem: THE_DOCUMENT, field: k, message: `${k} is not a field of a bank document: remove it or check its spelling.` })
+  for (const k of extra)
+    errors.push({
+      problem: THE_DOCUMENT,
+      field: k,
+      message: `${k} is not a field of a bank document: remove it or check its spelling.`,
+    })
   if (!Array.isArray(o.problems) || o.problems.length > BANK_MAX_PROBLEMS) return { ok: false, errors }
 
   const problems: BankProblem[] = []
   o.problems.forEach((p, i) => {
     const control = controlCharIssues(p, () => 'this text')
     if (control.length > 0) {
-      for (const issue of control) errors.push({ problem: problemName(i, p), field: issue.path, message: issue.message })
+      for (const issue of control)
+        errors.push({ problem: problemName(i, p), field: issue.path, message: issue.message })
       return
     }
     const r = BankProblemSchema.safeParse(p, { error: authorMessage })
     if (r.success) problems.push(r.data)
-    else for (const issue of toFieldIssues(r.error.issues)) errors.push({ problem: problemName(i, p), field: issue.path, message: issue.message })
+    else
+      for (const issue of toFieldIssues(r.error.issues))
+        errors.push({ problem: problemName(i, p), field: issue.path, message: issue.message })
   })
   return errors.length ? { ok: false, errors } : { ok: true, problems }
 }

@@ -14,12 +14,26 @@ describe('page numbers from the address', () => {
   })
 
   test('anything else is refused with a message that quotes it, names the parameter and gives the range', () => {
-    for (const bad of ['99999999999999999999', '1e308', '-1', '0', '2.5', String(MAX_PAGE + 1), 'abc', '3%00', 'Infinity', '0x10', ' 1 2 ']) {
+    for (const bad of [
+      '99999999999999999999',
+      '1e308',
+      '-1',
+      '0',
+      '2.5',
+      String(MAX_PAGE + 1),
+      'abc',
+      '3%00',
+      'Infinity',
+      '0x10',
+      ' 1 2 ',
+    ]) {
       const r = readPageParam(q(`page=${bad}`))
       expect(r.ok, bad).toBe(false)
       if (!r.ok) {
         expect(r.problem.param).toBe('page')
-        expect(r.problem.message).toMatch(/^The page number in the address \(page=“.*”\) must be a whole number from 1 to 100,000\./)
+        expect(r.problem.message).toMatch(
+          /^The page number in the address \(page=“.*”\) must be a whole number from 1 to 100,000\./,
+        )
         expect(r.problem.message).not.toMatch(/\u0000/)
       }
     }
@@ -34,7 +48,11 @@ describe('page numbers from the address', () => {
       pageParam(q('page=1e308'))
       expect.unreachable()
     } catch (e) {
-      expect(e).toMatchObject({ type: 'DataWithResponseInit', init: { status: 400 }, data: expect.stringMatching(/page number/) })
+      expect(e).toMatchObject({
+        type: 'DataWithResponseInit',
+        init: { status: 400 },
+        data: expect.stringMatching(/page number/),
+      })
     }
   })
 })
@@ -47,14 +65,19 @@ describe('text from the address', () => {
 
   test('a NUL is refused, the text given back without it', () => {
     const r = readTextParam(q('q=ot%00to'), 'q', 'the search')
-    expect(r).toEqual({ ok: false, value: 'otto', problem: { param: 'q', message: expect.stringMatching(/^The search had a NUL character/) } })
+    expect(r).toEqual({
+      ok: false,
+      value: 'otto',
+      problem: { param: 'q', message: expect.stringMatching(/^The search had a NUL character/) },
+    })
   })
 
   test('textParamProblem names the first parameter with a control character', () => {
     expect(textParamProblem(q('q=a&section=B'), { q: 'the search', section: 'the section' })).toBeNull()
     expect(textParamProblem(q('q=a&section=B%07'), { q: 'the search', section: 'the section' })).toEqual({
       param: 'section',
-      message: 'The section in the address (section) has an invisible control character (U+0007, at character 2), which cannot be accepted. Remove it and try again.',
+      message:
+        'The section in the address (section) has an invisible control character (U+0007, at character 2), which cannot be accepted. Remove it and try again.',
     })
   })
 })

@@ -22,7 +22,11 @@ function quoted(raw: string): string {
  * Reads a page number: absent or empty means 1; otherwise a whole number from 1 to max.
  * Returns the number, or the problem to report.
  */
-export function readPageParam(search: URLSearchParams, name = 'page', max = MAX_PAGE): { ok: true; page: number } | { ok: false; problem: ParamProblem } {
+export function readPageParam(
+  search: URLSearchParams,
+  name = 'page',
+  max = MAX_PAGE,
+): { ok: true; page: number } | { ok: false; problem: ParamProblem } {
   const raw = search.get(name)
   if (raw === null || raw.trim() === '') return { ok: true, page: 1 }
   const text = raw.trim()
@@ -50,7 +54,11 @@ export function pageParam(search: URLSearchParams, name = 'page', max = MAX_PAGE
  * A free-text parameter (a search): the text, or the problem when it holds control
  * characters. `what` names it for the person ("the search").
  */
-export function readTextParam(search: URLSearchParams, name: string, what: string): { ok: true; value: string } | { ok: false; value: string; problem: ParamProblem } {
+export function readTextParam(
+  search: URLSearchParams,
+  name: string,
+  what: string,
+): { ok: true; value: string } | { ok: false; value: string; problem: ParamProblem } {
   const raw = search.get(name) ?? ''
   if (!hasControlChar(raw)) return { ok: true, value: raw }
   return { ok: false, value: withoutNul(raw), problem: { param: name, message: controlCharMessage(what, raw) } }
@@ -60,7 +68,8 @@ export function readTextParam(search: URLSearchParams, name: string, what: strin
 export function textParamProblem(search: URLSearchParams, params: Record<string, string>): ParamProblem | null {
   for (const [name, what] of Object.entries(params)) {
     const raw = search.get(name)
-    if (raw !== null && hasControlChar(raw)) return { param: name, message: controlCharMessage(`${what} in the address (${name})`, raw, { echoed: false }) }
+    if (raw !== null && hasControlChar(raw))
+      return { param: name, message: controlCharMessage(`${what} in the address (${name})`, raw, { echoed: false }) }
   }
   return null
 }

@@ -35,7 +35,9 @@ export function controlCharMessage(what: string, text: string, options: { echoed
   const subject = capitalise(what)
   if (!found) return `${subject} cannot be saved as it is.`
   if (text.includes('\u0000')) {
-    const rest = hasControlChar(withoutNul(text)) ? ' It also has other invisible control characters: remove them too.' : ''
+    const rest = hasControlChar(withoutNul(text))
+      ? ' It also has other invisible control characters: remove them too.'
+      : ''
     return options.echoed === false
       ? `${subject} has a NUL character (an invisible control code, often left by copying from another program), which cannot be accepted. Remove it and try again.`
       : `${subject} had a NUL character (an invisible control code, often left by copying from another program), which cannot be accepted. It has been taken out of the text shown here: check the text and send it again.${rest}`
@@ -58,9 +60,10 @@ export function echoValues<T extends Record<string, string>>(values: T): T {
  * reason"). Chain `.trim()`, `.min()`, `.max()` after it as with `z.string()`.
  */
 export function textField(what: string, options: { echoed?: boolean; required?: string } = {}) {
-  return z
-    .string({ error: options.required ?? `Write ${what} as text.` })
-    .refine((s) => !hasControlChar(s), { error: (iss) => controlCharMessage(what, String(iss.input ?? ''), options), abort: true })
+  return z.string({ error: options.required ?? `Write ${what} as text.` }).refine((s) => !hasControlChar(s), {
+    error: (iss) => controlCharMessage(what, String(iss.input ?? ''), options),
+    abort: true,
+  })
 }
 
 export type ControlCharIssue = { path: string; message: string }
@@ -88,7 +91,8 @@ export function controlCharIssues(
     const entries = Array.isArray(v) ? v.map((x, i) => [String(i), x] as const) : Object.entries(v)
     for (const [k, x] of entries) {
       const at = path ? `${path}.${k}` : k
-      if (hasControlChar(k)) out.push({ path: at, message: controlCharMessage(`the name of ${describe(at)}`, k, { echoed }) })
+      if (hasControlChar(k))
+        out.push({ path: at, message: controlCharMessage(`the name of ${describe(at)}`, k, { echoed }) })
       walk(x, at)
     }
   }

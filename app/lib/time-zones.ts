@@ -61,7 +61,8 @@ export const COMMON_TIME_ZONES: readonly string[] = [
   'Pacific/Auckland',
 ]
 
-export const TIME_ZONE_HINT = 'A zone name such as Europe/Oslo or America/Chicago: dates and times in the course are shown and read in it.'
+export const TIME_ZONE_HINT =
+  'A zone name such as Europe/Oslo or America/Chicago: dates and times in the course are shown and read in it.'
 
 function runtimeZones(): readonly string[] {
   try {
@@ -81,17 +82,25 @@ export function readTimeZone(raw: string): { ok: true; timeZone: string } | { ok
   if (text === '') return { ok: false, message: 'Choose or type a time zone, such as Europe/Oslo.' }
   if (text.length > 64) return { ok: false, message: 'That is not a time zone name. Type one such as Europe/Oslo.' }
   if (/^(?:utc|gmt|z)?\s*[+-]\d/i.test(text)) {
-    return { ok: false, message: 'Use a zone name such as Europe/Oslo, not an offset: an offset does not follow summer time.' }
+    return {
+      ok: false,
+      message: 'Use a zone name such as Europe/Oslo, not an offset: an offset does not follow summer time.',
+    }
   }
   const lower = text.toLowerCase()
   if (lower === 'utc') return { ok: true, timeZone: 'UTC' }
-  const known = COMMON_TIME_ZONES.find((z) => z.toLowerCase() === lower) ?? runtimeZones().find((z) => z.toLowerCase() === lower)
+  const known =
+    COMMON_TIME_ZONES.find((z) => z.toLowerCase() === lower) ?? runtimeZones().find((z) => z.toLowerCase() === lower)
   if (known) return { ok: true, timeZone: known }
-  if (!text.includes('/')) return { ok: false, message: `“${text}” is not a zone name. Type a region and city, such as Europe/Oslo.` }
+  if (!text.includes('/'))
+    return { ok: false, message: `“${text}” is not a zone name. Type a region and city, such as Europe/Oslo.` }
   try {
     // An alias the runtime knows (America/Buenos_Aires): stored under the runtime's own name.
     return { ok: true, timeZone: new Intl.DateTimeFormat('en', { timeZone: text }).resolvedOptions().timeZone }
   } catch {
-    return { ok: false, message: `“${text}” is not a time zone we know. Check the spelling, such as Europe/Oslo or America/Chicago.` }
+    return {
+      ok: false,
+      message: `“${text}” is not a time zone we know. Check the spelling, such as Europe/Oslo or America/Chicago.`,
+    }
   }
 }

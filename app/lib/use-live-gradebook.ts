@@ -10,7 +10,11 @@ export const GRADEBOOK_POLL_MS = 1500
 export const GRADEBOOK_IDLE_POLL_MS = 10_000
 
 /** The freshest gradebook, and why the last refresh failed (the table keeps the last grades read). */
-export function useLiveGradebook<T extends { pendingCount: number }>(key: readonly unknown[], url: string, initial: T): { gradebook: T; refreshError: string | null } {
+export function useLiveGradebook<T extends { pendingCount: number }>(
+  key: readonly unknown[],
+  url: string,
+  initial: T,
+): { gradebook: T; refreshError: string | null } {
   const live = useQuery({
     queryKey: [...key, url],
     queryFn: async (): Promise<T> => {

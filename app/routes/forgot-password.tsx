@@ -18,7 +18,8 @@ const ForgotFormSchema = z.object({ email: EmailSchema })
 
 export async function action({ request }: Route.ActionArgs) {
   const form = parseForm(await readFormData(request), ForgotFormSchema)
-  if (!form.ok) return data({ sent: false, fieldErrors: form.fieldErrors, values: echoValues(form.values) }, { status: 400 })
+  if (!form.ok)
+    return data({ sent: false, fieldErrors: form.fieldErrors, values: echoValues(form.values) }, { status: 400 })
   // Sent, not sent (no account) or throttled: the same answer, so it reveals nothing.
   await requestPasswordReset(db(), form.value.email, { clientAddress: clientAddress(request), baseUrl: appUrl() })
   return { sent: true, fieldErrors: noFieldErrors, values: noValues }

@@ -24,7 +24,10 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.title ?
 export async function loader({ request, params }: Route.LoaderArgs) {
   await requireBankUser(request)
   const page = params.page
-  if (!Object.hasOwn(GUIDES, page)) throw data('There is no such help page. The guides are “Writing a problem” and “The bank document”.', { status: 404 })
+  if (!Object.hasOwn(GUIDES, page))
+    throw data('There is no such help page. The guides are “Writing a problem” and “The bank document”.', {
+      status: 404,
+    })
   const g = GUIDES[page as keyof typeof GUIDES]
   return { title: g.title, html: renderGuide(g.markdown, LINKS).html }
 }
@@ -33,7 +36,8 @@ export default function HelpRoute({ loaderData }: Route.ComponentProps) {
   return (
     <div className="max-w-3xl">
       <p className="text-sm text-muted">
-        <a href="/bank">Problem bank</a> · <a href="/help/authoring">Writing a problem</a> · <a href="/help/bank-format">The bank document</a>
+        <a href="/bank">Problem bank</a> · <a href="/help/authoring">Writing a problem</a> ·{' '}
+        <a href="/help/bank-format">The bank document</a>
       </p>
       <article
         className="prompt-html mt-4 leading-relaxed [&_a]:text-accent [&_a]:underline [&_blockquote]:my-3 [&_blockquote]:border-l-4 [&_blockquote]:border-line [&_blockquote]:pl-3 [&_blockquote]:text-muted [&_h1]:text-3xl [&_h1]:font-semibold [&_h2]:mt-8 [&_h2]:text-2xl [&_h2]:font-semibold [&_h3]:mt-6 [&_h3]:text-lg [&_h3]:font-semibold [&_li]:mt-1 [&_p]:mt-3 [&_pre]:mt-3 [&_pre]:overflow-x-auto [&_pre]:rounded-md [&_pre]:bg-white [&_pre]:p-3 [&_pre]:text-xs [&_table]:mt-3 [&_table]:text-sm [&_td]:border [&_td]:border-line [&_td]:px-2 [&_td]:py-1 [&_th]:border [&_th]:border-line [&_th]:px-2 [&_th]:py-1 [&_th]:text-left"

@@ -90,7 +90,9 @@ function ToDo({ home }: { home: HomeData }) {
           <h2 id="due-title" className="text-xl font-semibold">
             Due next
           </h2>
-          {home.student.every((c) => c.due.length === 0) ? <p className="mt-2 text-muted">Nothing is due right now.</p> : null}
+          {home.student.every((c) => c.due.length === 0) ? (
+            <p className="mt-2 text-muted">Nothing is due right now.</p>
+          ) : null}
           <div className="mt-3 grid gap-4">
             {home.student.map((c) =>
               c.dropped ? (
@@ -107,11 +109,19 @@ function ToDo({ home }: { home: HomeData }) {
                   {c.due.length > 0 ? (
                     <ul className="mt-2 grid gap-2">
                       {c.due.map((d) => (
-                        <li key={d.assignmentId} data-due={d.title} className={d.late ? 'rounded border-l-4 border-warn pl-2' : 'pl-3'}>
+                        <li
+                          key={d.assignmentId}
+                          data-due={d.title}
+                          className={d.late ? 'rounded border-l-4 border-warn pl-2' : 'pl-3'}
+                        >
                           <Link to={d.href} className="font-medium">
                             {d.title}
                           </Link>
-                          {d.late ? <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">{LATE_LABEL}</span> : null}
+                          {d.late ? (
+                            <span className="ml-2 rounded bg-warn-soft px-1.5 py-0.5 text-xs font-semibold text-warn">
+                              {LATE_LABEL}
+                            </span>
+                          ) : null}
                           <div className="text-sm text-muted">
                             Due {d.dueText} · {d.timeLeft} · {d.progress}
                           </div>
@@ -122,7 +132,9 @@ function ToDo({ home }: { home: HomeData }) {
                     <p className="mt-2 text-sm text-muted">Nothing due in this course right now.</p>
                   )}
                   {c.opening.length > 0 ? (
-                    <p className="mt-2 text-sm text-muted">Opening next: {c.opening.map((o) => `${o.title} (${o.opensText})`).join('; ')}</p>
+                    <p className="mt-2 text-sm text-muted">
+                      Opening next: {c.opening.map((o) => `${o.title} (${o.opensText})`).join('; ')}
+                    </p>
                   ) : null}
                 </div>
               ),
@@ -135,7 +147,11 @@ function ToDo({ home }: { home: HomeData }) {
           <h2 id="waiting-title" className="text-xl font-semibold">
             Waiting for you
           </h2>
-          {waiting.length === 0 && home.failedChecks.length === 0 ? <p className="mt-2 text-muted">Nothing is waiting: no open disputes, no grades to release, no failed checks.</p> : null}
+          {waiting.length === 0 && home.failedChecks.length === 0 ? (
+            <p className="mt-2 text-muted">
+              Nothing is waiting: no open disputes, no grades to release, no failed checks.
+            </p>
+          ) : null}
           <ul className="mt-3 grid gap-3">
             {waiting.map((c) => (
               <li key={c.courseId} className="rounded-lg border border-line bg-white p-4" data-waiting-course={c.code}>
@@ -174,7 +190,10 @@ function ToDo({ home }: { home: HomeData }) {
                 <ul className="mt-1 list-disc pl-5 text-sm">
                   {home.failedChecks.map((f) => (
                     <li key={f.problemId}>
-                      <Link to={`/bank/${f.problemId}#check`}>{f.title}</Link>: {f.status === 'failed' ? `the check ${inSentence(SWEEP_STATUS_LABELS.failed)} before it finished` : `${f.failed} of ${f.total} variants failed`}
+                      <Link to={`/bank/${f.problemId}#check`}>{f.title}</Link>:{' '}
+                      {f.status === 'failed'
+                        ? `the check ${inSentence(SWEEP_STATUS_LABELS.failed)} before it finished`
+                        : `${f.failed} of ${f.total} variants failed`}
                     </li>
                   ))}
                 </ul>

@@ -38,27 +38,41 @@ export async function loader({ params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const found = await findAccessLink(db(), params.token, 'invitation')
-  if (!found.ok) return data({ fieldErrors: noFieldErrors, values: noValues, formError: 'This invitation can no longer be used.' }, { status: 400 })
+  if (!found.ok)
+    return data(
+      { fieldErrors: noFieldErrors, values: noValues, formError: 'This invitation can no longer be used.' },
+      { status: 400 },
+    )
   const courseTarget = (courseId: number | null) => (courseId ? `/courses/${courseId}` : '/')
   if (found.existingUser?.hasPassword) {
     // An existing account only gains the course; it must prove who it is by signing in.
     const accepted = await acceptInvitation(db(), params.token, {})
-    if (!accepted) return data({ fieldErrors: noFieldErrors, values: noValues, formError: 'This invitation can no longer be used.' }, { status: 400 })
+    if (!accepted)
+      return data(
+        { fieldErrors: noFieldErrors, values: noValues, formError: 'This invitation can no longer be used.' },
+        { status: 400 },
+      )
     const current = await getUser(request)
     const target = courseTarget(accepted.courseId)
     if (current?.id === accepted.userId) return redirect(target)
     return redirect(`/sign-in?${new URLSearchParams({ redirectTo: target })}`)
   }
   const form = parseForm(await readFormData(request), NewAccountSchema)
-  if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values, formError: form.formError }, { status: 400 })
+  if (!form.ok)
+    return data({ fieldErrors: form.fieldErrors, values: form.values, formError: form.formError }, { status: 400 })
   const accepted = await acceptInvitation(db(), params.token, { name: form.value.name, password: form.value.password })
-  if (!accepted) return data({ fieldErrors: noFieldErrors, values: noValues, formError: 'This invitation can no longer be used.' }, { status: 400 })
+  if (!accepted)
+    return data(
+      { fieldErrors: noFieldErrors, values: noValues, formError: 'This invitation can no longer be used.' },
+      { status: 400 },
+    )
   return startSession(accepted.userId, courseTarget(accepted.courseId))
 }
 
 export default function JoinRoute({ loaderData, actionData }: Route.ComponentProps) {
   const busy = useNavigation().state === 'submitting'
-  if (loaderData.problem || !loaderData.invitation) return <LinkProblemPanel problem={loaderData.problem ?? 'unknown'} what="invitation" />
+  if (loaderData.problem || !loaderData.invitation)
+    return <LinkProblemPanel problem={loaderData.problem ?? 'unknown'} what="invitation" />
   const inv = loaderData.invitation
   return (
     <section className="mx-auto max-w-md" aria-labelledby="join-title">
@@ -75,7 +89,9 @@ export default function JoinRoute({ loaderData, actionData }: Route.ComponentPro
       ) : null}
       <Form method="post" className="mt-6 flex flex-col gap-4 rounded-lg border border-line bg-white p-6 shadow-sm">
         {inv.hasAccount ? (
-          <p>You already have a Cyclewright account. Add this course to it, then sign in if you are not signed in yet.</p>
+          <p>
+            You already have a Cyclewright account. Add this course to it, then sign in if you are not signed in yet.
+          </p>
         ) : (
           <>
             <Field

@@ -21,7 +21,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = parseForm(await readFormData(request), PasswordPairSchema)
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, formError: form.formError }, { status: 400 })
   const done = await resetPassword(db(), params.token, form.value.password)
-  if (!done) return data({ fieldErrors: noFieldErrors, formError: 'This link can no longer be used. Ask for a new one.' }, { status: 400 })
+  if (!done)
+    return data(
+      { fieldErrors: noFieldErrors, formError: 'This link can no longer be used. Ask for a new one.' },
+      { status: 400 },
+    )
   return redirect('/sign-in?reset=1')
 }
 
@@ -33,7 +37,9 @@ export default function ResetPasswordRoute({ loaderData, actionData }: Route.Com
       <h1 id="reset-title" className="text-3xl font-semibold">
         Choose a new password
       </h1>
-      <p className="mt-2 text-muted">For {loaderData.email}. Every device signed in to this account will be signed out.</p>
+      <p className="mt-2 text-muted">
+        For {loaderData.email}. Every device signed in to this account will be signed out.
+      </p>
       {actionData?.formError ? (
         <Notice tone="error" className="mt-4">
           {actionData.formError}

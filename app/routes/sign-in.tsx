@@ -53,7 +53,14 @@ export default function SignInRoute({ actionData }: Route.ComponentProps) {
         </Notice>
       ) : null}
       <Form method="post" className="mt-6 flex flex-col gap-4 rounded-lg border border-line bg-white p-6 shadow-sm">
-        <Field label="E-mail address" name="email" type="email" autoComplete="email" required defaultValue={actionData?.email} />
+        <Field
+          label="E-mail address"
+          name="email"
+          type="email"
+          autoComplete="email"
+          required
+          defaultValue={actionData?.email}
+        />
         <Field label="Password" name="password" type="password" autoComplete="current-password" required />
         <Button type="submit" disabled={busy}>
           {busy ? 'Signing in…' : 'Sign in'}

@@ -58,7 +58,12 @@ export async function inviteToCourse(
 
 export type LinkProblem = 'unknown' | 'used' | 'expired' | 'revoked'
 
-export async function findAccessLink(database: Db, token: string, purpose: 'invitation' | 'password-reset', now = new Date()) {
+export async function findAccessLink(
+  database: Db,
+  token: string,
+  purpose: 'invitation' | 'password-reset',
+  now = new Date(),
+) {
   if (!/^[A-Za-z0-9_-]{10,64}$/.test(token)) return { ok: false as const, problem: 'unknown' as LinkProblem }
   const [row] = await database
     .select({
@@ -86,7 +91,9 @@ export async function findAccessLink(database: Db, token: string, purpose: 'invi
   return {
     ok: true as const,
     link: row,
-    existingUser: existing ? { id: existing.id, name: existing.name, hasPassword: existing.hasPassword !== null } : null,
+    existingUser: existing
+      ? { id: existing.id, name: existing.name, hasPassword: existing.hasPassword !== null }
+      : null,
   }
 }
 
@@ -95,7 +102,14 @@ async function claim(tx: Db, linkId: number, now: Date): Promise<boolean> {
   const claimed = await tx
     .update(accessTokens)
     .set({ usedAt: now })
-    .where(and(eq(accessTokens.id, linkId), isNull(accessTokens.usedAt), isNull(accessTokens.revokedAt), gt(accessTokens.expiresAt, now)))
+    .where(
+      and(
+        eq(accessTokens.id, linkId),
+        isNull(accessTokens.usedAt),
+        isNull(accessTokens.revokedAt),
+        gt(accessTokens.expiresAt, now),
+      ),
+    )
     .returning({ id: accessTokens.id })
   return claimed.length === 1
 }
@@ -126,7 +140,10 @@ export async function acceptInvitation(
       }
     } else {
       if (!passwordHash || !input.name) throw new Error('name and password are required for a new account')
-      const [created] = await tx.insert(users).values({ email: link.email, name: input.name, passwordHash }).returning({ id: users.id })
+      const [created] = await tx
+        .insert(users)
+        .values({ email: link.email, name: input.name, passwordHash })
+        .returning({ id: users.id })
       userId = created!.id
     }
     if (link.courseId && link.role) {
@@ -170,10 +187,15 @@ export async function requestPasswordReset(
     linkMail({
       to: email,
       subject: 'Reset your Cyclewright password',
-      lines: ['Someone asked to reset the password of your Cyclewright account.', 'If it was you, open the link and choose a new password.'],
+      lines: [
+        'Someone asked to reset the password of your Cyclewright account.',
+        'If it was you, open the link and choose a new password.',
+      ],
       link,
       linkLabel: 'Choose a new password',
-      after: [`The link works once and expires in ${RESET_MINUTES} minutes. If you did not ask for this, ignore this message.`],
+      after: [
+        `The link works once and expires in ${RESET_MINUTES} minutes. If you did not ask for this, ignore this message.`,
+      ],
     }),
   )
   return { sent: true, throttled: false }

@@ -12,10 +12,20 @@ import { problemSweeps } from '#app/server/db/schema.server.ts'
 type Database = Db | Tx
 
 export type { VersionCheck } from '#app/lib/check-words.ts'
-export { checkOfSweep, checkWords, needsOverride, overrideLabel, refusalText, NEVER_CHECKED } from '#app/lib/check-words.ts'
+export {
+  checkOfSweep,
+  checkWords,
+  needsOverride,
+  overrideLabel,
+  refusalText,
+  NEVER_CHECKED,
+} from '#app/lib/check-words.ts'
 
 /** The latest check of each version (by when it was asked for); versions never checked are absent. */
-export async function latestChecks(database: Database, versionIds: readonly number[]): Promise<Map<number, VersionCheck>> {
+export async function latestChecks(
+  database: Database,
+  versionIds: readonly number[],
+): Promise<Map<number, VersionCheck>> {
   const out = new Map<number, VersionCheck>()
   if (versionIds.length === 0) return out
   const rows = await database
@@ -32,4 +42,3 @@ export async function latestChecks(database: Database, versionIds: readonly numb
   for (const r of rows) out.set(r.versionId, checkOfSweep(r))
   return out
 }
-

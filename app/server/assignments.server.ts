@@ -37,7 +37,14 @@ import {
   users,
   type Assignment,
 } from './db/schema.server.ts'
-import { checkWords, latestChecks, needsOverride, NEVER_CHECKED, refusalText, type VersionCheck } from './assignment-items.server.ts'
+import {
+  checkWords,
+  latestChecks,
+  needsOverride,
+  NEVER_CHECKED,
+  refusalText,
+  type VersionCheck,
+} from './assignment-items.server.ts'
 import { listFindScores } from './grading.server.ts'
 import { bankViewerFor, freezeProblemVersion, type BankViewer } from './problems.server.ts'
 import type { SignedInUser } from './users.server.ts'
@@ -70,7 +77,10 @@ export function notOpenSentence(o: NotOpenInfo): string {
 }
 
 /** The assignment's title and opening when it exists in the course and has not opened yet; null otherwise. */
-export async function notYetOpen(database: Database, opts: { courseId: number; assignmentId: number; now?: Date }): Promise<NotOpenInfo | null> {
+export async function notYetOpen(
+  database: Database,
+  opts: { courseId: number; assignmentId: number; now?: Date },
+): Promise<NotOpenInfo | null> {
   if (!Number.isInteger(opts.assignmentId) || opts.assignmentId <= 0) return null
   const [row] = await database
     .select({ title: assignments.title, opensAt: assignments.opensAt, timeZone: courses.timeZone })
@@ -105,7 +115,11 @@ export async function requireInstructor(database: Database, userId: number, cour
 }
 
 export async function courseZone(database: Database, courseId: number) {
-  const [row] = await database.select({ timeZone: courses.timeZone, code: courses.code, title: courses.title }).from(courses).where(eq(courses.id, courseId)).limit(1)
+  const [row] = await database
+    .select({ timeZone: courses.timeZone, code: courses.code, title: courses.title })
+    .from(courses)
+    .where(eq(courses.id, courseId))
+    .limit(1)
   if (!row) throw new AssignmentNotFoundError('There is no such course.')
   return row
 }
@@ -120,7 +134,6 @@ export async function findAssignment(database: Database, courseId: number, assig
   if (!row) throw new AssignmentNotFoundError()
   return row
 }
-
 
 export { keyReleaseText, latePolicyText } from '#app/lib/assignment-text.ts'
 
@@ -139,7 +152,11 @@ export type AssignmentListRow = {
   mine: { score: number; pending: number; window: SubmissionWindow; extended: boolean } | null
 }
 
-async function extensionsFor(database: Database, assignmentIds: number[], userId: number): Promise<Map<number, StudentExtension>> {
+async function extensionsFor(
+  database: Database,
+  assignmentIds: number[],
+  userId: number,
+): Promise<Map<number, StudentExtension>> {
   if (assignmentIds.length === 0) return new Map()
   const rows = await database
     .select({ assignmentId: extensions.assignmentId, dueAt: extensions.dueAt, extraAttempts: extensions.extraAttempts })
@@ -167,7 +184,12 @@ export async function listAssignmentsForCourse(
       maxScore: sql<number>`(select coalesce(sum(ai.points), 0) from ${assignmentItems} ai where ai.assignment_id = "assignments"."id")::float8`,
     })
     .from(assignments)
-    .where(and(eq(assignments.courseId, opts.courseId), student ? sql`${assignments.opensAt} <= ${now.toISOString()}` : undefined))
+    .where(
+      and(
+        eq(assignments.courseId, opts.courseId),
+        student ? sql`${assignments.opensAt} <= ${now.toISOString()}` : undefined,
+      ),
+    )
     .orderBy(asc(assignments.dueAt), asc(assignments.id))
   const ids = rows.map((r) => r.assignment.id)
   const exts = student ? await extensionsFor(database, ids, opts.userId) : new Map<number, StudentExtension>()
@@ -193,7 +215,12 @@ export async function listAssignmentsForCourse(
       maxScore: Number(maxScore),
       gradesReleasedAt: a.gradesReleasedAt,
       mine: student
-        ? { score: roundScore(s?.score ?? 0), pending: s?.pending ?? 0, window: submissionWindow(rules, ext, now), extended: ext?.dueAt != null }
+        ? {
+            score: roundScore(s?.score ?? 0),
+            pending: s?.pending ?? 0,
+            window: submissionWindow(rules, ext, now),
+            extended: ext?.dueAt != null,
+          }
         : null,
     }
   })
@@ -221,7 +248,13 @@ export type AssignmentDetail = {
   maxScore: number
   timeZone: string
   /** students only */
-  student: { extension: (StudentExtension & { reason: string }) | null; dueAt: Date; attempts: number; window: SubmissionWindow; total: number } | null
+  student: {
+    extension: (StudentExtension & { reason: string }) | null
+    dueAt: Date
+    attempts: number
+    window: SubmissionWindow
+    total: number
+  } | null
   /** staff only */
   staff: { extensionCount: number; studentCount: number } | null
 }
@@ -238,7 +271,8 @@ export async function getAssignmentDetail(
   const a = await findAssignment(database, opts.courseId, opts.assignmentId)
   const isStudent = opts.role === 'student'
   const { timeZone } = await courseZone(database, opts.courseId)
-  if (isStudent && a.opensAt.getTime() > now.getTime()) throw new AssignmentNotOpenError({ title: a.title, opensAt: a.opensAt, timeZone })
+  if (isStudent && a.opensAt.getTime() > now.getTime())
+    throw new AssignmentNotOpenError({ title: a.title, opensAt: a.opensAt, timeZone })
   const itemRows = await database
     .select({
       id: assignmentItems.id,
@@ -289,7 +323,12 @@ export async function getAssignmentDetail(
       names.length > 0 &&
       names.every((name) => {
         const f = mineFinds.find((x) => x.findName === name)
-        const state = findState({ attemptsUsed: f?.attempts ?? 0, attemptsAllowed: attempts, anyCorrect: f?.correct ?? false, anyPending: (f?.pending ?? 0) > 0 })
+        const state = findState({
+          attemptsUsed: f?.attempts ?? 0,
+          attemptsAllowed: attempts,
+          anyCorrect: f?.correct ?? false,
+          anyPending: (f?.pending ?? 0) > 0,
+        })
         return state === 'correct' || state === 'out-of-attempts'
       })
     return {
@@ -319,7 +358,15 @@ export async function getAssignmentDetail(
   }
 }
 
-function toItem(r: { id: number; position: number; problemId: number; problemVersionId: number; versionNumber: number; definition: unknown; points: number }) {
+function toItem(r: {
+  id: number
+  position: number
+  problemId: number
+  problemVersionId: number
+  versionNumber: number
+  definition: unknown
+  points: number
+}) {
   return {
     id: r.id,
     position: r.position,
@@ -428,7 +475,11 @@ export function newAssignmentForm(timeZone: string, now = new Date()): Assignmen
   }
 }
 
-function formOfAssignment(a: Assignment, items: { id: number; problemVersionId: number; points: number }[], timeZone: string): AssignmentFormState {
+function formOfAssignment(
+  a: Assignment,
+  items: { id: number; problemVersionId: number; points: number }[],
+  timeZone: string,
+): AssignmentFormState {
   return {
     values: {
       title: a.title,
@@ -442,26 +493,47 @@ function formOfAssignment(a: Assignment, items: { id: number; problemVersionId: 
       keyRelease: a.keyRelease,
       disputeDays: String(a.disputeDays),
     },
-    items: items.map((i) => ({ itemId: String(i.id), versionId: String(i.problemVersionId), points: String(i.points) })),
+    items: items.map((i) => ({
+      itemId: String(i.id),
+      versionId: String(i.problemVersionId),
+      points: String(i.points),
+    })),
   }
 }
 
 /** Adds an empty row, or removes row `index` (an answered item stays: it is refused with a message). */
-export function changeRows(state: AssignmentFormState, change: { add: true } | { remove: number }, locked: readonly LockedItem[] = []): { state: AssignmentFormState; fieldErrors: FieldErrors } {
+export function changeRows(
+  state: AssignmentFormState,
+  change: { add: true } | { remove: number },
+  locked: readonly LockedItem[] = [],
+): { state: AssignmentFormState; fieldErrors: FieldErrors } {
   if ('add' in change) {
-    if (state.items.length >= MAX_ITEMS) return { state, fieldErrors: { items: `An assignment holds at most ${MAX_ITEMS} problems.` } }
-    return { state: { ...state, items: [...state.items, { itemId: '', versionId: '', points: '10' }] }, fieldErrors: {} }
+    if (state.items.length >= MAX_ITEMS)
+      return { state, fieldErrors: { items: `An assignment holds at most ${MAX_ITEMS} problems.` } }
+    return {
+      state: { ...state, items: [...state.items, { itemId: '', versionId: '', points: '10' }] },
+      fieldErrors: {},
+    }
   }
   const row = state.items[change.remove]
   if (!row) return { state, fieldErrors: {} }
   if (locked.some((l) => String(l.itemId) === row.itemId)) {
-    return { state, fieldErrors: { [`items.${change.remove}.versionId`]: 'Students have answered this problem, so it stays in the assignment.' } }
+    return {
+      state,
+      fieldErrors: {
+        [`items.${change.remove}.versionId`]: 'Students have answered this problem, so it stays in the assignment.',
+      },
+    }
   }
   return { state: { ...state, items: state.items.filter((_, i) => i !== change.remove) }, fieldErrors: {} }
 }
 
 /** Every problem the viewer can see in the bank and not archived, with its versions, plus any version already on the assignment. */
-export async function listBankChoices(database: Database, viewer: BankViewer, keepVersionIds: readonly number[] = []): Promise<BankChoice[]> {
+export async function listBankChoices(
+  database: Database,
+  viewer: BankViewer,
+  keepVersionIds: readonly number[] = [],
+): Promise<BankChoice[]> {
   const rows = await database
     .select({
       problemId: problems.id,
@@ -484,20 +556,33 @@ export async function listBankChoices(database: Database, viewer: BankViewer, ke
           : or(
               eq(problems.ownerId, viewer.id),
               eq(problems.visibility, 'installation'),
-              viewer.departmentId === null ? undefined : and(eq(problems.visibility, 'department'), eq(problems.departmentId, viewer.departmentId)),
+              viewer.departmentId === null
+                ? undefined
+                : and(eq(problems.visibility, 'department'), eq(problems.departmentId, viewer.departmentId)),
               keepVersionIds.length ? inArray(problemVersions.id, [...keepVersionIds]) : undefined,
             ),
         // Archived problems are not offered; a version already on the assignment stays choosable.
-        keepVersionIds.length ? or(isNull(problems.archivedAt), inArray(problemVersions.id, [...keepVersionIds])) : isNull(problems.archivedAt),
+        keepVersionIds.length
+          ? or(isNull(problems.archivedAt), inArray(problemVersions.id, [...keepVersionIds]))
+          : isNull(problems.archivedAt),
       ),
     )
     .orderBy(sql`lower(${problems.title})`, asc(problems.id), desc(problemVersions.number))
   const byProblem = new Map<number, BankChoice>()
   const visible = rows.filter((r) => canSeeProblem(viewer, r) || keepVersionIds.includes(r.versionId))
-  const checks = await latestChecks(database, visible.map((r) => r.versionId))
+  const checks = await latestChecks(
+    database,
+    visible.map((r) => r.versionId),
+  )
   for (const r of visible) {
     const choice = byProblem.get(r.problemId) ?? { problemId: r.problemId, title: r.title, versions: [] }
-    choice.versions.push({ id: r.versionId, number: r.number, savedAt: r.savedAt, author: r.author, check: checks.get(r.versionId) ?? NEVER_CHECKED })
+    choice.versions.push({
+      id: r.versionId,
+      number: r.number,
+      savedAt: r.savedAt,
+      author: r.author,
+      check: checks.get(r.versionId) ?? NEVER_CHECKED,
+    })
     byProblem.set(r.problemId, choice)
   }
   return [...byProblem.values()]
@@ -515,7 +600,12 @@ const Int = (label: string, min: number, max: number) =>
     .min(1, `Enter ${label}.`)
     .regex(/^\d+$/, `Enter ${label} as a whole number.`)
     .transform(Number)
-    .pipe(z.number().min(min, `${label[0]!.toUpperCase()}${label.slice(1)} must be at least ${min}.`).max(max, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most ${max}.`))
+    .pipe(
+      z
+        .number()
+        .min(min, `${label[0]!.toUpperCase()}${label.slice(1)} must be at least ${min}.`)
+        .max(max, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most ${max}.`),
+    )
 const Num = (label: string, min: number, max: number) =>
   z
     .string()
@@ -523,7 +613,12 @@ const Num = (label: string, min: number, max: number) =>
     .min(1, `Enter ${label}.`)
     .regex(/^\d+(\.\d+)?$/, `Enter ${label} as a number such as 10 or 2.5.`)
     .transform(Number)
-    .pipe(z.number().min(min, `${label[0]!.toUpperCase()}${label.slice(1)} must be at least ${min}.`).max(max, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most ${max}.`))
+    .pipe(
+      z
+        .number()
+        .min(min, `${label[0]!.toUpperCase()}${label.slice(1)} must be at least ${min}.`)
+        .max(max, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most ${max}.`),
+    )
 
 export const AssignmentSettingsSchema = z
   .object({
@@ -545,9 +640,11 @@ export const AssignmentSettingsSchema = z
     }
     if (v.latePolicy !== 'penalty') return
     const pct = Num('the penalty per day', 0, 100).safeParse(v.latePenaltyPercentPerDay)
-    if (!pct.success) ctx.addIssue({ code: 'custom', path: ['latePenaltyPercentPerDay'], message: pct.error.issues[0]!.message })
+    if (!pct.success)
+      ctx.addIssue({ code: 'custom', path: ['latePenaltyPercentPerDay'], message: pct.error.issues[0]!.message })
     const days = Int('the days late accepted', 0, 60).safeParse(v.lateDaysAllowed)
-    if (!days.success) ctx.addIssue({ code: 'custom', path: ['lateDaysAllowed'], message: days.error.issues[0]!.message })
+    if (!days.success)
+      ctx.addIssue({ code: 'custom', path: ['lateDaysAllowed'], message: days.error.issues[0]!.message })
   })
 
 type CheckedItem = { itemId: number | null; problemId: number; versionId: number; points: number }
@@ -580,22 +677,31 @@ const SUMMARY = 'The assignment was not saved. Correct the fields marked below.'
  */
 async function checkForm(
   database: Database,
-  opts: { state: AssignmentFormState; timeZone: string; viewer: BankViewer; existing: { id: number; problemVersionId: number; points: number; answered: boolean }[] },
+  opts: {
+    state: AssignmentFormState
+    timeZone: string
+    viewer: BankViewer
+    existing: { id: number; problemVersionId: number; points: number; answered: boolean }[]
+  },
 ): Promise<{ ok: true; value: CheckedAssignment } | { ok: false; fieldErrors: FieldErrors }> {
   const fieldErrors: FieldErrors = {}
   const parsed = AssignmentSettingsSchema.safeParse(opts.state.values)
-  if (!parsed.success) for (const issue of parsed.error.issues) fieldErrors[String(issue.path[0] ?? 'title')] ??= issue.message
+  if (!parsed.success)
+    for (const issue of parsed.error.issues) fieldErrors[String(issue.path[0] ?? 'title')] ??= issue.message
   const opensAt = parseLocalDateTime(opts.state.values.opensAt, opts.timeZone)
   const dueAt = parseLocalDateTime(opts.state.values.dueAt, opts.timeZone)
   const badDate = `Enter a date and time that exists in ${opts.timeZone} (clock changes skip an hour).`
   if (!fieldErrors.opensAt && !opensAt) fieldErrors.opensAt = badDate
   if (!fieldErrors.dueAt && !dueAt) fieldErrors.dueAt = badDate
-  if (opensAt && dueAt && dueAt.getTime() <= opensAt.getTime()) fieldErrors.dueAt ??= 'The due date must be after the opening date.'
+  if (opensAt && dueAt && dueAt.getTime() <= opensAt.getTime())
+    fieldErrors.dueAt ??= 'The due date must be after the opening date.'
 
   const rows = opts.state.items
   if (rows.length === 0) fieldErrors.items = 'Add at least one problem.'
   if (rows.length > MAX_ITEMS) fieldErrors.items = `An assignment holds at most ${MAX_ITEMS} problems.`
-  const typed = rows.map((r) => (/^\d{1,9}$/.test(r.versionId.trim()) ? Number(r.versionId.trim()) : null)).filter((x): x is number => x !== null)
+  const typed = rows
+    .map((r) => (/^\d{1,9}$/.test(r.versionId.trim()) ? Number(r.versionId.trim()) : null))
+    .filter((x): x is number => x !== null)
   const versionIds = [...new Set([...typed, ...opts.existing.map((e) => e.problemVersionId)])]
   const versionRows = versionIds.length
     ? await database
@@ -611,7 +717,10 @@ async function checkForm(
         .innerJoin(problems, eq(problems.id, problemVersions.problemId))
         .where(inArray(problemVersions.id, versionIds))
     : []
-  const checks = await latestChecks(database, versionRows.map((r) => r.versionId))
+  const checks = await latestChecks(
+    database,
+    versionRows.map((r) => r.versionId),
+  )
   const overrides: CheckOverride[] = []
   const existingById = new Map(opts.existing.map((e) => [e.id, e]))
   const onAssignment = new Set(opts.existing.map((e) => e.problemVersionId))
@@ -635,7 +744,8 @@ async function checkForm(
         return
       }
       if (v.archivedAt && !onAssignment.has(v.versionId)) {
-        fieldErrors[`items.${i}.versionId`] = 'That problem is archived; restore it in the bank first, or choose another.'
+        fieldErrors[`items.${i}.versionId`] =
+          'That problem is archived; restore it in the bank first, or choose another.'
         return
       }
       const p = Num('the points', 0, 10_000).safeParse(row.points)
@@ -665,7 +775,8 @@ async function checkForm(
     }
     const twin = seenProblems.get(problemId)
     if (twin !== undefined) {
-      fieldErrors[`items.${i}.versionId`] = `This problem is already problem ${twin + 1}; each student would get the same numbers twice.`
+      fieldErrors[`items.${i}.versionId`] =
+        `This problem is already problem ${twin + 1}; each student would get the same numbers twice.`
       return
     }
     seenProblems.set(problemId, i)
@@ -673,10 +784,13 @@ async function checkForm(
   })
   // Rows of answered items that the form no longer lists: refuse rather than delete answers.
   const kept = new Set(items.map((i) => i.itemId))
-  const dropped = opts.existing.filter((e) => e.answered && !kept.has(e.id) && !rows.some((r) => r.itemId === String(e.id)))
+  const dropped = opts.existing.filter(
+    (e) => e.answered && !kept.has(e.id) && !rows.some((r) => r.itemId === String(e.id)),
+  )
   if (dropped.length) fieldErrors.items ??= 'Problems students have answered cannot be removed.'
 
-  if (!parsed.success || Object.values(fieldErrors).some(Boolean) || !opensAt || !dueAt) return { ok: false, fieldErrors }
+  if (!parsed.success || Object.values(fieldErrors).some(Boolean) || !opensAt || !dueAt)
+    return { ok: false, fieldErrors }
   const v = parsed.data
   const penalty = v.latePolicy === 'penalty'
   return {
@@ -718,7 +832,10 @@ async function existingItems(database: Database, assignmentId: number) {
 }
 
 /** What the new-assignment page needs: the course's zone, starting values and the bank. */
-export async function getNewAssignmentForm(database: Database, opts: { courseId: number; user: SignedInUser; now?: Date }) {
+export async function getNewAssignmentForm(
+  database: Database,
+  opts: { courseId: number; user: SignedInUser; now?: Date },
+) {
   await requireInstructor(database, opts.user.id, opts.courseId)
   const { timeZone } = await courseZone(database, opts.courseId)
   const choices = await listBankChoices(database, await bankViewerFor(database, opts.user))
@@ -726,19 +843,43 @@ export async function getNewAssignmentForm(database: Database, opts: { courseId:
 }
 
 /** What the edit page needs: the stored assignment as form values, the bank, and the answered items. */
-export async function getEditAssignmentForm(database: Database, opts: { courseId: number; assignmentId: number; user: SignedInUser }) {
+export async function getEditAssignmentForm(
+  database: Database,
+  opts: { courseId: number; assignmentId: number; user: SignedInUser },
+) {
   await requireInstructor(database, opts.user.id, opts.courseId)
   const a = await findAssignment(database, opts.courseId, opts.assignmentId)
   const { timeZone } = await courseZone(database, opts.courseId)
   const items = await existingItems(database, a.id)
-  const choices = await listBankChoices(database, await bankViewerFor(database, opts.user), items.map((i) => i.problemVersionId))
+  const choices = await listBankChoices(
+    database,
+    await bankViewerFor(database, opts.user),
+    items.map((i) => i.problemVersionId),
+  )
   // Which version each item holds now: keeping it asks for no override of its check.
-  const stored: Record<string, string> = Object.fromEntries(items.map((i) => [String(i.id), String(i.problemVersionId)]))
-  return { assignment: a, timeZone, state: formOfAssignment(a, items, timeZone), choices, locked: lockedOf(items), stored }
+  const stored: Record<string, string> = Object.fromEntries(
+    items.map((i) => [String(i.id), String(i.problemVersionId)]),
+  )
+  return {
+    assignment: a,
+    timeZone,
+    state: formOfAssignment(a, items, timeZone),
+    choices,
+    locked: lockedOf(items),
+    stored,
+  }
 }
 
 function lockedOf(items: Awaited<ReturnType<typeof existingItems>>): LockedItem[] {
-  return items.filter((i) => i.answered).map((i) => ({ itemId: i.id, position: i.position, title: i.title, versionNumber: i.versionNumber, points: i.points }))
+  return items
+    .filter((i) => i.answered)
+    .map((i) => ({
+      itemId: i.id,
+      position: i.position,
+      title: i.title,
+      versionNumber: i.versionNumber,
+      points: i.points,
+    }))
 }
 
 export async function listLockedItems(database: Database, assignmentId: number): Promise<LockedItem[]> {
@@ -747,12 +888,17 @@ export async function listLockedItems(database: Database, assignmentId: number):
 
 /** The bank as the form shows it, for re-rendering after an error or a row change. */
 export async function bankChoicesFor(database: Database, opts: { user: SignedInUser; assignmentId?: number }) {
-  const keep = opts.assignmentId ? (await existingItems(database, opts.assignmentId)).map((i) => i.problemVersionId) : []
+  const keep = opts.assignmentId
+    ? (await existingItems(database, opts.assignmentId)).map((i) => i.problemVersionId)
+    : []
   return listBankChoices(database, await bankViewerFor(database, opts.user), keep)
 }
 
 /** Creates the assignment and its items, freezing each version used, in one transaction. */
-export async function createAssignment(database: Db, opts: { courseId: number; user: SignedInUser; state: AssignmentFormState }): Promise<SaveResult> {
+export async function createAssignment(
+  database: Db,
+  opts: { courseId: number; user: SignedInUser; state: AssignmentFormState },
+): Promise<SaveResult> {
   await requireInstructor(database, opts.user.id, opts.courseId)
   const { timeZone } = await courseZone(database, opts.courseId)
   const viewer = await bankViewerFor(database, opts.user)
@@ -766,17 +912,27 @@ export async function createAssignment(database: Db, opts: { courseId: number; u
       .values({ courseId: opts.courseId, createdBy: opts.user.id, ...settings })
       .returning({ id: assignments.id })
     await tx.insert(assignmentItems).values(
-      items.map((it, i) => ({ assignmentId: row!.id, position: i + 1, problemId: it.problemId, problemVersionId: it.versionId, points: it.points })),
+      items.map((it, i) => ({
+        assignmentId: row!.id,
+        position: i + 1,
+        problemId: it.problemId,
+        problemVersionId: it.versionId,
+        points: it.points,
+      })),
     )
     for (const versionId of new Set(items.map((i) => i.versionId))) await freezeProblemVersion(tx, versionId)
-    if (overrides.length) await auditCheckOverride(tx, { actorId: opts.user.id, courseId: opts.courseId, assignmentId: row!.id, overrides })
+    if (overrides.length)
+      await auditCheckOverride(tx, { actorId: opts.user.id, courseId: opts.courseId, assignmentId: row!.id, overrides })
     return row!.id
   })
   return { ok: true, assignmentId }
 }
 
 /** One audit row per save that assigned versions over their check: which rows, which versions, what the check said. */
-async function auditCheckOverride(tx: Tx, o: { actorId: number; courseId: number; assignmentId: number; overrides: CheckOverride[] }) {
+async function auditCheckOverride(
+  tx: Tx,
+  o: { actorId: number; courseId: number; assignmentId: number; overrides: CheckOverride[] },
+) {
   await tx.insert(auditEvents).values({
     actorId: o.actorId,
     courseId: o.courseId,
@@ -788,7 +944,18 @@ async function auditCheckOverride(tx: Tx, o: { actorId: number; courseId: number
   })
 }
 
-const SETTING_KEYS = ['title', 'instructions', 'opensAt', 'dueAt', 'attemptsPerFind', 'latePolicy', 'latePenaltyPercentPerDay', 'lateDaysAllowed', 'keyRelease', 'disputeDays'] as const
+const SETTING_KEYS = [
+  'title',
+  'instructions',
+  'opensAt',
+  'dueAt',
+  'attemptsPerFind',
+  'latePolicy',
+  'latePenaltyPercentPerDay',
+  'lateDaysAllowed',
+  'keyRelease',
+  'disputeDays',
+] as const
 
 /**
  * Saves the edit: settings, and the problem rows (new rows inserted, removed unanswered rows
@@ -826,7 +993,8 @@ export async function updateAssignment(
         after[key] = now
       }
     }
-    const summary = (list: { versionId: number; points: number }[]) => list.map((i) => ({ versionId: i.versionId, points: i.points }))
+    const summary = (list: { versionId: number; points: number }[]) =>
+      list.map((i) => ({ versionId: i.versionId, points: i.points }))
     const oldItems = summary(existing.map((e) => ({ versionId: e.problemVersionId, points: e.points })))
     const newItems = summary(items)
     if (JSON.stringify(oldItems) !== JSON.stringify(newItems)) {
@@ -840,7 +1008,10 @@ export async function updateAssignment(
       .where(eq(assignments.id, current.id))
     const keptIds = new Set(items.map((i) => i.itemId).filter((x): x is number => x !== null))
     const removed = existing.filter((e) => !keptIds.has(e.id)).map((e) => e.id)
-    if (removed.length) await tx.delete(assignmentItems).where(and(eq(assignmentItems.assignmentId, current.id), inArray(assignmentItems.id, removed)))
+    if (removed.length)
+      await tx
+        .delete(assignmentItems)
+        .where(and(eq(assignmentItems.assignmentId, current.id), inArray(assignmentItems.id, removed)))
     for (const [i, it] of items.entries()) {
       if (it.itemId !== null) {
         await tx
@@ -848,21 +1019,48 @@ export async function updateAssignment(
           .set({ position: i + 1, problemId: it.problemId, problemVersionId: it.versionId, points: it.points })
           .where(eq(assignmentItems.id, it.itemId))
       } else {
-        await tx.insert(assignmentItems).values({ assignmentId: current.id, position: i + 1, problemId: it.problemId, problemVersionId: it.versionId, points: it.points })
+        await tx.insert(assignmentItems).values({
+          assignmentId: current.id,
+          position: i + 1,
+          problemId: it.problemId,
+          problemVersionId: it.versionId,
+          points: it.points,
+        })
       }
     }
     for (const versionId of new Set(items.map((i) => i.versionId))) await freezeProblemVersion(tx, versionId)
     if (Object.keys(after).length) {
-      await tx.insert(auditEvents).values({ actorId: opts.user.id, courseId: opts.courseId, assignmentId: current.id, kind: 'assignment-changed', before, after })
+      await tx.insert(auditEvents).values({
+        actorId: opts.user.id,
+        courseId: opts.courseId,
+        assignmentId: current.id,
+        kind: 'assignment-changed',
+        before,
+        after,
+      })
     }
-    if (overrides.length) await auditCheckOverride(tx, { actorId: opts.user.id, courseId: opts.courseId, assignmentId: current.id, overrides })
+    if (overrides.length)
+      await auditCheckOverride(tx, {
+        actorId: opts.user.id,
+        courseId: opts.courseId,
+        assignmentId: current.id,
+        overrides,
+      })
     return { ok: true as const, assignmentId: current.id }
   })
 }
 
 // ---- Extensions ---------------------------------------------------------------------------
 
-export type ExtensionRow = { userId: number; name: string; email: string; section: string | null; dueAt: Date | null; extraAttempts: number; reason: string }
+export type ExtensionRow = {
+  userId: number
+  name: string
+  email: string
+  section: string | null
+  dueAt: Date | null
+  extraAttempts: number
+  reason: string
+}
 
 /** The course's students, each with their extension on this assignment if any. */
 export async function listExtensions(database: Database, opts: { courseId: number; assignmentId: number }) {
@@ -887,18 +1085,34 @@ export async function listExtensions(database: Database, opts: { courseId: numbe
   const students = rows.map((r) => ({ userId: r.userId, name: r.name, email: r.email, section: r.section }))
   const granted: ExtensionRow[] = rows
     .filter((r) => r.hasExtension)
-    .map((r) => ({ userId: r.userId, name: r.name, email: r.email, section: r.section, dueAt: r.dueAt, extraAttempts: r.extraAttempts ?? 0, reason: r.reason ?? '' }))
+    .map((r) => ({
+      userId: r.userId,
+      name: r.name,
+      email: r.email,
+      section: r.section,
+      dueAt: r.dueAt,
+      extraAttempts: r.extraAttempts ?? 0,
+      reason: r.reason ?? '',
+    }))
   return { assignment: a, timeZone, students, extensions: granted }
 }
 
 export const ExtensionFormSchema = z.object({
-  userId: z.string().regex(/^\d{1,9}$/, 'Choose a student.').transform(Number),
+  userId: z
+    .string()
+    .regex(/^\d{1,9}$/, 'Choose a student.')
+    .transform(Number),
   dueAt: z.string().trim(),
   extraAttempts: z
     .string()
     .trim()
     .transform((s) => (s === '' ? '0' : s))
-    .pipe(z.string().regex(/^\d{1,3}$/, 'Enter extra attempts as a whole number from 0 to 100.').transform(Number))
+    .pipe(
+      z
+        .string()
+        .regex(/^\d{1,3}$/, 'Enter extra attempts as a whole number from 0 to 100.')
+        .transform(Number),
+    )
     .pipe(z.number().max(100, 'At most 100 extra attempts.')),
   reason: z.string().trim().max(500, 'Keep the reason under 500 characters.'),
 })
@@ -918,14 +1132,17 @@ export async function setExtension(
   const a = await findAssignment(database, opts.courseId, opts.assignmentId)
   const { timeZone } = await courseZone(database, opts.courseId)
   const fieldErrors: FieldErrors = {}
-  if ((await roleInCourse(database, opts.input.userId, opts.courseId)) !== 'student') fieldErrors.userId = 'Choose a student of this course.'
+  if ((await roleInCourse(database, opts.input.userId, opts.courseId)) !== 'student')
+    fieldErrors.userId = 'Choose a student of this course.'
   let dueAt: Date | null = null
   if (opts.input.dueAt !== '') {
     dueAt = parseLocalDateTime(opts.input.dueAt, timeZone)
     if (!dueAt) fieldErrors.dueAt = `Enter a date and time that exists in ${timeZone}.`
-    else if (dueAt.getTime() <= a.dueAt.getTime()) fieldErrors.dueAt = `An extension’s due date must be after the assignment’s (${formatInZone(a.dueAt, timeZone)}).`
+    else if (dueAt.getTime() <= a.dueAt.getTime())
+      fieldErrors.dueAt = `An extension’s due date must be after the assignment’s (${formatInZone(a.dueAt, timeZone)}).`
   }
-  if (dueAt === null && !fieldErrors.dueAt && opts.input.extraAttempts === 0) fieldErrors.dueAt = 'Give a later due date, extra attempts, or both.'
+  if (dueAt === null && !fieldErrors.dueAt && opts.input.extraAttempts === 0)
+    fieldErrors.dueAt = 'Give a later due date, extra attempts, or both.'
   if (Object.keys(fieldErrors).length) return { ok: false, fieldErrors }
   await database.transaction(async (tx) => {
     const [prev] = await tx
@@ -937,14 +1154,19 @@ export async function setExtension(
     await tx
       .insert(extensions)
       .values({ assignmentId: a.id, userId: opts.input.userId, createdBy: opts.actorId, ...values })
-      .onConflictDoUpdate({ target: [extensions.assignmentId, extensions.userId], set: { ...values, updatedAt: new Date() } })
+      .onConflictDoUpdate({
+        target: [extensions.assignmentId, extensions.userId],
+        set: { ...values, updatedAt: new Date() },
+      })
     await tx.insert(auditEvents).values({
       actorId: opts.actorId,
       courseId: opts.courseId,
       assignmentId: a.id,
       userId: opts.input.userId,
       kind: 'extension',
-      before: prev ? { dueAt: prev.dueAt?.toISOString() ?? null, extraAttempts: prev.extraAttempts, reason: prev.reason } : null,
+      before: prev
+        ? { dueAt: prev.dueAt?.toISOString() ?? null, extraAttempts: prev.extraAttempts, reason: prev.reason }
+        : null,
       after: { dueAt: dueAt?.toISOString() ?? null, extraAttempts: values.extraAttempts, reason: values.reason },
       note: opts.input.reason,
     })
@@ -953,7 +1175,10 @@ export async function setExtension(
 }
 
 /** Takes a student's extension away (an 'extension' audit row with after null). False when they had none. */
-export async function removeExtension(database: Db, opts: { courseId: number; assignmentId: number; actorId: number; userId: number }): Promise<boolean> {
+export async function removeExtension(
+  database: Db,
+  opts: { courseId: number; assignmentId: number; actorId: number; userId: number },
+): Promise<boolean> {
   await requireInstructor(database, opts.actorId, opts.courseId)
   const a = await findAssignment(database, opts.courseId, opts.assignmentId)
   return database.transaction(async (tx) => {
@@ -998,7 +1223,12 @@ export async function deletionSummary(database: Database, opts: { courseId: numb
       submissions: sql<number>`(select count(*) from ${submissions} where ${submissions.assignmentId} = ${a.id})::int`,
     })
     .from(sql`(select 1) as one`)
-  return { title: a.title, items: row?.items ?? 0, extensions: row?.extensions ?? 0, answered: (row?.submissions ?? 0) > 0 }
+  return {
+    title: a.title,
+    items: row?.items ?? 0,
+    extensions: row?.extensions ?? 0,
+    answered: (row?.submissions ?? 0) > 0,
+  }
 }
 
 /**
@@ -1006,7 +1236,10 @@ export async function deletionSummary(database: Database, opts: { courseId: numb
  * locked first, so a submission being stored at that moment either lands before (and the
  * deletion is refused) or waits and is refused itself.
  */
-export async function deleteAssignment(database: Db, opts: { courseId: number; assignmentId: number; actorId: number }): Promise<{ title: string }> {
+export async function deleteAssignment(
+  database: Db,
+  opts: { courseId: number; assignmentId: number; actorId: number },
+): Promise<{ title: string }> {
   await requireInstructor(database, opts.actorId, opts.courseId)
   return database.transaction(async (tx) => {
     const [a] = await tx
@@ -1016,14 +1249,23 @@ export async function deleteAssignment(database: Db, opts: { courseId: number; a
       .for('update')
     if (!a) throw new AssignmentNotFoundError()
     const summary = await deletionSummary(tx, opts)
-    if (summary.answered) throw new AssignmentInUseError(`“${a.title}” cannot be deleted: students have answered it, and their work is kept. Change its dates instead, or leave it unreleased.`)
+    if (summary.answered)
+      throw new AssignmentInUseError(
+        `“${a.title}” cannot be deleted: students have answered it, and their work is kept. Change its dates instead, or leave it unreleased.`,
+      )
     await tx.delete(assignments).where(eq(assignments.id, a.id))
     await tx.insert(auditEvents).values({
       actorId: opts.actorId,
       courseId: opts.courseId,
       assignmentId: a.id,
       kind: 'assignment-deleted',
-      before: { title: a.title, opensAt: a.opensAt.toISOString(), dueAt: a.dueAt.toISOString(), items: summary.items, extensions: summary.extensions },
+      before: {
+        title: a.title,
+        opensAt: a.opensAt.toISOString(),
+        dueAt: a.dueAt.toISOString(),
+        items: summary.items,
+        extensions: summary.extensions,
+      },
       after: null,
     })
     return { title: a.title }
@@ -1037,11 +1279,20 @@ export function dueText(dueAt: Date, timeZone: string): string {
 
 // ---- The form's action (new and edit pages) ------------------------------------------------
 
-export type AssignmentFormAnswer = { state: AssignmentFormState; fieldErrors: FieldErrors; formError?: string; nonce: string }
+export type AssignmentFormAnswer = {
+  state: AssignmentFormState
+  fieldErrors: FieldErrors
+  formError?: string
+  nonce: string
+}
 
 const IntentSchema = z.union([z.literal('save'), z.literal('add-item'), z.string().regex(/^remove-item:\d{1,3}$/)])
 
-function formAnswer(state: AssignmentFormState, fieldErrors: FieldErrors = {}, formError?: string): AssignmentFormAnswer {
+function formAnswer(
+  state: AssignmentFormState,
+  fieldErrors: FieldErrors = {},
+  formError?: string,
+): AssignmentFormAnswer {
   // A fresh nonce remounts the form, so refilled values replace what the browser kept.
   return { state, fieldErrors, ...(formError ? { formError } : {}), nonce: crypto.randomUUID() }
 }
@@ -1057,7 +1308,8 @@ export async function runAssignmentFormAction(
 ): Promise<{ status: 200 | 400; answer: AssignmentFormAnswer } | { status: 'saved'; assignmentId: number }> {
   const state = assignmentFormFromData(form)
   const intent = IntentSchema.safeParse(form.get('intent'))
-  if (!intent.success) return { status: 400, answer: formAnswer(state, { title: 'Use one of the buttons of the form.' }, SUMMARY) }
+  if (!intent.success)
+    return { status: 400, answer: formAnswer(state, { title: 'Use one of the buttons of the form.' }, SUMMARY) }
   if (intent.data === 'add-item') {
     const changed = changeRows(state, { add: true }, opts.locked)
     return { status: 200, answer: formAnswer(changed.state, changed.fieldErrors) }
@@ -1076,7 +1328,12 @@ export async function orErrorPage<T>(work: Promise<T>): Promise<T> {
   try {
     return await work
   } catch (e) {
-    if (e instanceof AssignmentNotFoundError || e instanceof AssignmentPermissionError || e instanceof AssignmentInUseError) throw data(e.message, { status: e.status })
+    if (
+      e instanceof AssignmentNotFoundError ||
+      e instanceof AssignmentPermissionError ||
+      e instanceof AssignmentInUseError
+    )
+      throw data(e.message, { status: e.status })
     throw e
   }
 }

@@ -9,7 +9,17 @@ import { alias } from 'drizzle-orm/pg-core'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import type { AuditEntryFacts, AuditLookups } from '#app/lib/audit-words.ts'
 import type { Db, Tx } from './db/client.server.ts'
-import { assignmentItems, assignments, auditEvents, partResults, problems, problemVersions, regrades, terms, users } from './db/schema.server.ts'
+import {
+  assignmentItems,
+  assignments,
+  auditEvents,
+  partResults,
+  problems,
+  problemVersions,
+  regrades,
+  terms,
+  users,
+} from './db/schema.server.ts'
 import { frozenDefinitions } from './grading.server.ts'
 
 type Database = Db | Tx
@@ -63,18 +73,32 @@ export async function listAuditLog(
   const [total] = await database.select({ n: count() }).from(auditEvents).where(where)
 
   // Regrades named by their entries' notes ("Regrade 12"), with their versions' numbers.
-  const regradeIds = [...new Set(rows.filter((r) => r.kind === 'regrade').map((r) => Number(REGRADE_NOTE.exec(r.note)?.[1] ?? NaN)).filter(Number.isFinite))]
+  const regradeIds = [
+    ...new Set(
+      rows
+        .filter((r) => r.kind === 'regrade')
+        .map((r) => Number(REGRADE_NOTE.exec(r.note)?.[1] ?? NaN))
+        .filter(Number.isFinite),
+    ),
+  ]
   const regradeRows = regradeIds.length
-    ? await database.select({ id: regrades.id, fromVersionId: regrades.fromVersionId, toVersionId: regrades.toVersionId }).from(regrades).where(inArray(regrades.id, regradeIds))
+    ? await database
+        .select({ id: regrades.id, fromVersionId: regrades.fromVersionId, toVersionId: regrades.toVersionId })
+        .from(regrades)
+        .where(inArray(regrades.id, regradeIds))
     : []
   const regradeOf = new Map(regradeRows.map((r) => [r.id, r]))
 
   // Problem versions named anywhere: the items' (for question labels), the regrades', and an
   // assignment change's lists of problems.
-  const itemVersionIds = (v: unknown) => (Array.isArray(v) ? v.map((x) => (isRecord(x) ? Number(x.versionId) : NaN)).filter(Number.isInteger) : [])
+  const itemVersionIds = (v: unknown) =>
+    Array.isArray(v) ? v.map((x) => (isRecord(x) ? Number(x.versionId) : NaN)).filter(Number.isInteger) : []
   const listed = rows
     .filter((r) => r.kind === 'assignment-changed')
-    .flatMap((r) => [...itemVersionIds(isRecord(r.before) ? r.before.items : null), ...itemVersionIds(isRecord(r.after) ? r.after.items : null)])
+    .flatMap((r) => [
+      ...itemVersionIds(isRecord(r.before) ? r.before.items : null),
+      ...itemVersionIds(isRecord(r.after) ? r.after.items : null),
+    ])
   const versionIds = [
     ...new Set([
       ...rows.flatMap((r) => [r.itemVersionId, r.gradedVersionId]).filter((x): x is number => x !== null),
@@ -90,8 +114,17 @@ export async function listAuditLog(
         .where(inArray(problemVersions.id, versionIds))
     : []
   const versionInfo = new Map(versionRows.map((v) => [v.id, v]))
-  const labelVersions = [...new Set(rows.flatMap((r) => [r.itemVersionId, r.gradedVersionId]).filter((x): x is number => x !== null).concat(regradeRows.map((r) => r.fromVersionId)))]
-  const definitions: Map<number, ProblemDefinition> = labelVersions.length ? await frozenDefinitions(database, labelVersions) : new Map()
+  const labelVersions = [
+    ...new Set(
+      rows
+        .flatMap((r) => [r.itemVersionId, r.gradedVersionId])
+        .filter((x): x is number => x !== null)
+        .concat(regradeRows.map((r) => r.fromVersionId)),
+    ),
+  ]
+  const definitions: Map<number, ProblemDefinition> = labelVersions.length
+    ? await frozenDefinitions(database, labelVersions)
+    : new Map()
 
   // Terms named by course entries.
   const termIds = [
@@ -102,7 +135,9 @@ export async function listAuditLog(
         .filter((x): x is number => typeof x === 'number' && Number.isInteger(x)),
     ),
   ]
-  const termRows = termIds.length ? await database.select({ id: terms.id, name: terms.name }).from(terms).where(inArray(terms.id, termIds)) : []
+  const termRows = termIds.length
+    ? await database.select({ id: terms.id, name: terms.name }).from(terms).where(inArray(terms.id, termIds))
+    : []
 
   const out: AuditLogRow[] = rows.map((r) => {
     const regradeId = r.kind === 'regrade' ? Number(REGRADE_NOTE.exec(r.note)?.[1] ?? NaN) : NaN
@@ -133,7 +168,12 @@ export async function listAuditLog(
       assignmentDueAt: r.assignmentDueAt?.toISOString() ?? null,
       question: findName ? { label: label ?? findName, position: r.position } : null,
       maxScore: r.maxScore,
-      regrade: regrade ? { fromVersion: versionInfo.get(regrade.fromVersionId)?.number ?? null, toVersion: versionInfo.get(regrade.toVersionId)?.number ?? null } : null,
+      regrade: regrade
+        ? {
+            fromVersion: versionInfo.get(regrade.fromVersionId)?.number ?? null,
+            toVersion: versionInfo.get(regrade.toVersionId)?.number ?? null,
+          }
+        : null,
     }
   })
   return {

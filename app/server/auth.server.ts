@@ -10,7 +10,13 @@ import { canUseBank, hasCourseRole, type CourseRole } from '#app/domain/permissi
 import { db } from './db/client.server.ts'
 import { checkPassword } from './passwords.server.ts'
 import { beginSignInAttempt, markSignInSucceeded, waitInWords } from './rate-limit.server.ts'
-import { createSessionRow, deleteSessionRow, findLiveSession, getCookieSession, sessionStorage } from './session.server.ts'
+import {
+  createSessionRow,
+  deleteSessionRow,
+  findLiveSession,
+  getCookieSession,
+  sessionStorage,
+} from './session.server.ts'
 import { findUserByEmail, loadSignedInUser, normaliseEmail, toActor, type SignedInUser } from './users.server.ts'
 
 /** A sign-in that failed for a reason the person may be told. */
@@ -42,7 +48,8 @@ authenticator.use(
     const database = db()
     // Counted and recorded in one step before any password is checked (rate-limit.server.ts).
     const gate = await beginSignInAttempt(database, email, address)
-    if (!gate.allowed) throw new SignInError(`Too many sign-in attempts. Try again in ${waitInWords(gate.retryInSeconds)}.`)
+    if (!gate.allowed)
+      throw new SignInError(`Too many sign-in attempts. Try again in ${waitInWords(gate.retryInSeconds)}.`)
     const user = await findUserByEmail(database, email)
     // Always one argon2 verify, against a dummy hash when there is no account to check.
     const ok = await checkPassword(user?.passwordHash, parsed.data.password)

@@ -24,7 +24,13 @@ export class BankChangeError extends Error {
   }
 }
 
-export type ProblemUsage = { archivedAt: string | null; assignmentCount: number; answered: boolean; versionCount: number; deletable: boolean }
+export type ProblemUsage = {
+  archivedAt: string | null
+  assignmentCount: number
+  answered: boolean
+  versionCount: number
+  deletable: boolean
+}
 
 /** Whether the problem is archived, how many assignments use it, and whether it may be deleted. */
 export async function problemUsage(database: Database, problemId: number): Promise<ProblemUsage | null> {
@@ -49,14 +55,25 @@ export async function problemUsage(database: Database, problemId: number): Promi
 }
 
 async function ownProblem(database: Database, viewer: BankViewer, problemId: number) {
-  const [row] = await database.select({ id: problems.id, ownerId: problems.ownerId, title: problems.title, archivedAt: problems.archivedAt }).from(problems).where(eq(problems.id, problemId)).for('update')
+  const [row] = await database
+    .select({ id: problems.id, ownerId: problems.ownerId, title: problems.title, archivedAt: problems.archivedAt })
+    .from(problems)
+    .where(eq(problems.id, problemId))
+    .for('update')
   if (!row) throw new BankChangeError('There is no such problem in your bank.', 404)
-  if (!canEditProblem(viewer, row)) throw new BankChangeError('Only the problem’s owner can archive, restore or delete it.', 403)
+  if (!canEditProblem(viewer, row))
+    throw new BankChangeError('Only the problem’s owner can archive, restore or delete it.', 403)
   return row
 }
 
 /** Archives (true) or restores (false) the viewer's own problem. Doing it twice changes nothing. */
-export async function setProblemArchived(database: Db, viewer: BankViewer, problemId: number, archived: boolean, now = new Date()): Promise<{ changed: boolean }> {
+export async function setProblemArchived(
+  database: Db,
+  viewer: BankViewer,
+  problemId: number,
+  archived: boolean,
+  now = new Date(),
+): Promise<{ changed: boolean }> {
   return database.transaction(async (tx) => {
     await ownProblem(tx, viewer, problemId)
     const rows = await tx
@@ -73,7 +90,12 @@ export async function setProblemArchived(database: Db, viewer: BankViewer, probl
  * The problem row is locked first; an assignment saved at that moment waits on its versions'
  * freezing and then finds the problem gone.
  */
-export async function deleteProblem(database: Db, viewer: BankViewer, problemId: number, opts: { confirmed: boolean }): Promise<{ title: string }> {
+export async function deleteProblem(
+  database: Db,
+  viewer: BankViewer,
+  problemId: number,
+  opts: { confirmed: boolean },
+): Promise<{ title: string }> {
   return database.transaction(async (tx) => {
     const p = await ownProblem(tx, viewer, problemId)
     const usage = await problemUsage(tx, problemId)
@@ -84,7 +106,11 @@ export async function deleteProblem(database: Db, viewer: BankViewer, problemId:
         409,
       )
     }
-    if (!opts.confirmed) throw new BankChangeError('Nothing was deleted: deleting cannot be undone, so it needs the confirmation step. Use the button on the problem page and confirm.', 400)
+    if (!opts.confirmed)
+      throw new BankChangeError(
+        'Nothing was deleted: deleting cannot be undone, so it needs the confirmation step. Use the button on the problem page and confirm.',
+        400,
+      )
     await tx.delete(problems).where(eq(problems.id, problemId))
     return { title: p.title }
   })

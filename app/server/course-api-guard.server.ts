@@ -14,7 +14,10 @@ import { toActor, type SignedInUser } from './users.server.ts'
 export type StaffCourse = SignedInUser['courses'][number]
 
 /** The signed-in instructor or TA of `courseId` and the course, or a thrown JSON 401/403. */
-export async function requireApiCourseStaff(request: Request, courseId: number): Promise<{ user: SignedInUser; course: StaffCourse }> {
+export async function requireApiCourseStaff(
+  request: Request,
+  courseId: number,
+): Promise<{ user: SignedInUser; course: StaffCourse }> {
   const user = await getUser(request)
   if (!user) throw jsonError(401, 'Sign in to see this course’s grades.')
   return { user, course: staffCourse(user, courseId) }
@@ -22,7 +25,8 @@ export async function requireApiCourseStaff(request: Request, courseId: number):
 
 function staffCourse(user: SignedInUser, courseId: number): StaffCourse {
   const course = user.courses.find((c) => c.id === courseId)
-  if (!course || !canSeeCourseAsStaff(toActor(user), courseId)) throw jsonError(403, 'Only the course’s instructors and teaching assistants can see its grades.')
+  if (!course || !canSeeCourseAsStaff(toActor(user), courseId))
+    throw jsonError(403, 'Only the course’s instructors and teaching assistants can see its grades.')
   return course
 }
 
@@ -33,7 +37,11 @@ function staffCourse(user: SignedInUser, courseId: number): StaffCourse {
 export async function requireApiAssignmentStaff(request: Request, database: Db, assignmentId: number) {
   const user = await getUser(request)
   if (!user) throw jsonError(401, 'Sign in to see this course’s grades.')
-  const [row] = await database.select({ courseId: assignments.courseId }).from(assignments).where(eq(assignments.id, assignmentId)).limit(1)
+  const [row] = await database
+    .select({ courseId: assignments.courseId })
+    .from(assignments)
+    .where(eq(assignments.id, assignmentId))
+    .limit(1)
   if (!row) throw jsonError(404, 'There is no such assignment.')
   return { user, course: staffCourse(user, row.courseId), courseId: row.courseId }
 }

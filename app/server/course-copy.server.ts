@@ -14,7 +14,15 @@ import { z } from 'zod'
 import type { FieldErrors } from '#app/lib/form.ts'
 import { CourseCodeSchema, CourseTitleSchema, codeTakenMessage, daysBetween, type Outcome } from './courses.server.ts'
 import type { Db } from './db/client.server.ts'
-import { assignmentItems, assignments, auditEvents, courses, memberships, problemVersions, terms } from './db/schema.server.ts'
+import {
+  assignmentItems,
+  assignments,
+  auditEvents,
+  courses,
+  memberships,
+  problemVersions,
+  terms,
+} from './db/schema.server.ts'
 
 export const MAX_OFFSET_DAYS = 3660
 
@@ -57,12 +65,20 @@ export function shiftDays(instant: Date, days: number, timeZone: string): Date {
 }
 
 /** An assignment's two dates moved together; the due date always stays after the opening. */
-export function shiftWindow(opensAt: Date, dueAt: Date, days: number, timeZone: string): { opensAt: Date; dueAt: Date } {
+export function shiftWindow(
+  opensAt: Date,
+  dueAt: Date,
+  days: number,
+  timeZone: string,
+): { opensAt: Date; dueAt: Date } {
   const opens = shiftDays(opensAt, days, timeZone)
   const due = shiftDays(dueAt, days, timeZone)
   if (due > opens) return { opensAt: opens, dueAt: due }
   // Only a window of an hour or so across a clock change can fold over; keep its length.
-  return { opensAt: new Date(opensAt.getTime() + days * 86_400_000), dueAt: new Date(dueAt.getTime() + days * 86_400_000) }
+  return {
+    opensAt: new Date(opensAt.getTime() + days * 86_400_000),
+    dueAt: new Date(dueAt.getTime() + days * 86_400_000),
+  }
 }
 
 /**
@@ -131,10 +147,19 @@ export async function copyCourse(
       const staff = await tx
         .select({ userId: memberships.userId })
         .from(memberships)
-        .where(and(eq(memberships.courseId, source.id), eq(memberships.role, 'instructor'), isNull(memberships.droppedAt)))
-      if (staff.length) await tx.insert(memberships).values(staff.map((s) => ({ userId: s.userId, courseId, role: 'instructor' as const })))
+        .where(
+          and(eq(memberships.courseId, source.id), eq(memberships.role, 'instructor'), isNull(memberships.droppedAt)),
+        )
+      if (staff.length)
+        await tx
+          .insert(memberships)
+          .values(staff.map((s) => ({ userId: s.userId, courseId, role: 'instructor' as const })))
 
-      const old = await tx.select().from(assignments).where(eq(assignments.courseId, source.id)).orderBy(asc(assignments.dueAt), asc(assignments.id))
+      const old = await tx
+        .select()
+        .from(assignments)
+        .where(eq(assignments.courseId, source.id))
+        .orderBy(asc(assignments.dueAt), asc(assignments.id))
       const items = old.length
         ? await tx
             .select()
@@ -180,38 +205,44 @@ export async function copyCourse(
         mapping.push({ from: a.id, to: made!.id })
         const own = items.filter((i) => i.assignmentId === a.id)
         if (own.length) {
-          await tx
-            .insert(assignmentItems)
-            .values(
-              own.map((i) => ({
-                assignmentId: made!.id,
-                position: i.position,
-                problemId: i.problemId,
-                problemVersionId: i.problemVersionId,
-                points: i.points,
-                toleranceOverrides: i.toleranceOverrides,
-              })),
-            )
+          await tx.insert(assignmentItems).values(
+            own.map((i) => ({
+              assignmentId: made!.id,
+              position: i.position,
+              problemId: i.problemId,
+              problemVersionId: i.problemVersionId,
+              points: i.points,
+              toleranceOverrides: i.toleranceOverrides,
+            })),
+          )
         }
       }
 
-      await tx
-        .insert(auditEvents)
-        .values({
-          actorId: opts.actorId,
+      await tx.insert(auditEvents).values({
+        actorId: opts.actorId,
+        courseId,
+        kind: 'course-copied',
+        before: { courseId: source.id, code: source.code, termId: source.termId },
+        after: {
           courseId,
-          kind: 'course-copied',
-          before: { courseId: source.id, code: source.code, termId: source.termId },
-          after: { courseId, code: input.code, termId: target.id, offsetDays, assignments: mapping, instructors: staff.length },
-          note: `Copied from ${source.code}; dates moved by ${offsetDays} day${Math.abs(offsetDays) === 1 ? '' : 's'}`,
-        })
+          code: input.code,
+          termId: target.id,
+          offsetDays,
+          assignments: mapping,
+          instructors: staff.length,
+        },
+        note: `Copied from ${source.code}; dates moved by ${offsetDays} day${Math.abs(offsetDays) === 1 ? '' : 's'}`,
+      })
       return { ok: true as const, courseId, offsetDays, assignments: mapping.length }
     })
   } catch (e) {
     for (let err: unknown = e; err && typeof err === 'object'; err = (err as { cause?: unknown }).cause) {
       const { code, constraint } = err as { code?: string; constraint?: string }
       if (code === '23505' && constraint === 'courses_term_code_key')
-        return { ok: false, fieldErrors: { code: `That term already has a course ${input.code}. Choose another code or another term.` } }
+        return {
+          ok: false,
+          fieldErrors: { code: `That term already has a course ${input.code}. Choose another code or another term.` },
+        }
     }
     throw e
   }

@@ -7,7 +7,19 @@ import { readTimeZone } from '#app/lib/time-zones.ts'
 import { EmailSchema } from '#app/lib/validation.ts'
 import { inviteToCourse } from './access-links.server.ts'
 import type { Db, Tx } from './db/client.server.ts'
-import { accessTokens, assignmentItems, assignments, auditEvents, courses, departments, memberships, problemVersions, submissions, terms, users } from './db/schema.server.ts'
+import {
+  accessTokens,
+  assignmentItems,
+  assignments,
+  auditEvents,
+  courses,
+  departments,
+  memberships,
+  problemVersions,
+  submissions,
+  terms,
+  users,
+} from './db/schema.server.ts'
 import { normaliseEmail } from './users.server.ts'
 
 type Database = Db | Tx
@@ -33,7 +45,13 @@ export async function findCourse(database: Db, courseId: number) {
 
 export async function listCourseMembers(database: Db, courseId: number) {
   return database
-    .select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, section: memberships.section })
+    .select({
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      role: memberships.role,
+      section: memberships.section,
+    })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(eq(memberships.courseId, courseId))
@@ -79,18 +97,27 @@ export const CourseCodeSchema = z
   .trim()
   .min(2, 'Enter a course code, such as ENTH 210.')
   .max(24, 'Keep the code to 24 characters.')
-  .regex(/^[\p{L}\p{N}][\p{L}\p{N} .&/_-]*$/u, 'Use letters, digits, spaces and . - / & _ in the code, starting with a letter or digit.')
+  .regex(
+    /^[\p{L}\p{N}][\p{L}\p{N} .&/_-]*$/u,
+    'Use letters, digits, spaces and . - / & _ in the code, starting with a letter or digit.',
+  )
 
-export const CourseTitleSchema = z.string({ message: 'Enter the course title.' }).trim().min(2, 'Enter the course title.').max(120, 'Keep the title to 120 characters.')
+export const CourseTitleSchema = z
+  .string({ message: 'Enter the course title.' })
+  .trim()
+  .min(2, 'Enter the course title.')
+  .max(120, 'Keep the title to 120 characters.')
 
-export const TimeZoneSchema = z.string({ message: 'Choose or type a time zone, such as Europe/Oslo.' }).transform((text, ctx) => {
-  const read = readTimeZone(text)
-  if (!read.ok) {
-    ctx.addIssue({ code: 'custom', message: read.message })
-    return z.NEVER
-  }
-  return read.timeZone
-})
+export const TimeZoneSchema = z
+  .string({ message: 'Choose or type a time zone, such as Europe/Oslo.' })
+  .transform((text, ctx) => {
+    const read = readTimeZone(text)
+    if (!read.ok) {
+      ctx.addIssue({ code: 'custom', message: read.message })
+      return z.NEVER
+    }
+    return read.timeZone
+  })
 
 export const SignConventionSchema = z.enum(['chemistry', 'engineering'], { message: 'Choose a sign convention.' })
 
@@ -105,7 +132,9 @@ function isCalendarDate(text: string): boolean {
   if (!m) return false
   const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])]
   const date = new Date(Date.UTC(y, mo - 1, d))
-  return date.getUTCFullYear() === y && date.getUTCMonth() === mo - 1 && date.getUTCDate() === d && y >= 2000 && y <= 2200
+  return (
+    date.getUTCFullYear() === y && date.getUTCMonth() === mo - 1 && date.getUTCDate() === d && y >= 2000 && y <= 2200
+  )
 }
 
 const dateField = (message: string) => z.string({ message }).trim().refine(isCalendarDate, message)
@@ -119,15 +148,25 @@ export const MAX_TERM_DAYS = 731
 
 export const TermFormSchema = z
   .object({
-    name: z.string({ message: 'Name the term, such as Spring 2027.' }).trim().min(2, 'Name the term, such as Spring 2027.').max(60, 'Keep the name to 60 characters.'),
+    name: z
+      .string({ message: 'Name the term, such as Spring 2027.' })
+      .trim()
+      .min(2, 'Name the term, such as Spring 2027.')
+      .max(60, 'Keep the name to 60 characters.'),
     startsOn: dateField('Enter the first day of the term.'),
     endsOn: dateField('Enter the last day of the term.'),
   })
   .superRefine((v, ctx) => {
     if (!isCalendarDate(v.startsOn) || !isCalendarDate(v.endsOn)) return
     const days = daysBetween(v.startsOn, v.endsOn)
-    if (days <= 0) ctx.addIssue({ code: 'custom', path: ['endsOn'], message: 'The last day must come after the first day.' })
-    else if (days > MAX_TERM_DAYS) ctx.addIssue({ code: 'custom', path: ['endsOn'], message: 'A term is at most two years long: check the year of the last day.' })
+    if (days <= 0)
+      ctx.addIssue({ code: 'custom', path: ['endsOn'], message: 'The last day must come after the first day.' })
+    else if (days > MAX_TERM_DAYS)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['endsOn'],
+        message: 'A term is at most two years long: check the year of the last day.',
+      })
   })
 
 export const NewCourseFormSchema = z.object({
@@ -184,13 +223,21 @@ export async function listTerms(database: Database, departmentId: number) {
     .orderBy(desc(terms.startsOn), asc(terms.name))
 }
 
-export async function createTermFor(database: Database, departmentId: number, input: z.output<typeof TermFormSchema>): Promise<Outcome<{ termId: number }>> {
+export async function createTermFor(
+  database: Database,
+  departmentId: number,
+  input: z.output<typeof TermFormSchema>,
+): Promise<Outcome<{ termId: number }>> {
   const [clash] = await database
     .select({ id: terms.id })
     .from(terms)
     .where(and(eq(terms.departmentId, departmentId), sql`lower(${terms.name}) = lower(${input.name})`))
-  if (clash) return { ok: false, fieldErrors: { name: `There is already a term called ${input.name}. Choose another name.` } }
-  const [row] = await database.insert(terms).values({ departmentId, name: input.name, startsOn: input.startsOn, endsOn: input.endsOn }).returning({ id: terms.id })
+  if (clash)
+    return { ok: false, fieldErrors: { name: `There is already a term called ${input.name}. Choose another name.` } }
+  const [row] = await database
+    .insert(terms)
+    .values({ departmentId, name: input.name, startsOn: input.startsOn, endsOn: input.endsOn })
+    .returning({ id: terms.id })
   return { ok: true, termId: row!.id }
 }
 
@@ -198,11 +245,18 @@ async function codeTaken(database: Database, termId: number, code: string, excep
   const [row] = await database
     .select({ id: courses.id })
     .from(courses)
-    .where(and(eq(courses.termId, termId), sql`lower(${courses.code}) = lower(${code})`, exceptCourseId ? ne(courses.id, exceptCourseId) : undefined))
+    .where(
+      and(
+        eq(courses.termId, termId),
+        sql`lower(${courses.code}) = lower(${code})`,
+        exceptCourseId ? ne(courses.id, exceptCourseId) : undefined,
+      ),
+    )
   return Boolean(row)
 }
 
-export const codeTakenMessage = (code: string, termName: string) => `${termName} already has a course ${code}. Choose another code or another term.`
+export const codeTakenMessage = (code: string, termName: string) =>
+  `${termName} already has a course ${code}. Choose another code or another term.`
 
 /** A new course in one of the department's terms; writes a course-created audit row. */
 export async function createCourseFor(
@@ -215,7 +269,8 @@ export async function createCourseFor(
     .from(terms)
     .where(and(eq(terms.id, input.termId), eq(terms.departmentId, opts.departmentId)))
   if (!term) return { ok: false, fieldErrors: { termId: 'Choose one of your department’s terms.' } }
-  if (await codeTaken(database, term.id, input.code)) return { ok: false, fieldErrors: { code: codeTakenMessage(input.code, term.name) } }
+  if (await codeTaken(database, term.id, input.code))
+    return { ok: false, fieldErrors: { code: codeTakenMessage(input.code, term.name) } }
   try {
     return await database.transaction(async (tx) => {
       const [row] = await tx
@@ -229,18 +284,23 @@ export async function createCourseFor(
           timeZone: input.timeZone,
         })
         .returning({ id: courses.id })
-      await tx
-        .insert(auditEvents)
-        .values({
-          actorId: opts.actorId,
-          courseId: row!.id,
-          kind: 'course-created',
-          after: { code: input.code, title: input.title, termId: term.id, signConvention: input.signConvention, timeZone: input.timeZone },
-        })
+      await tx.insert(auditEvents).values({
+        actorId: opts.actorId,
+        courseId: row!.id,
+        kind: 'course-created',
+        after: {
+          code: input.code,
+          title: input.title,
+          termId: term.id,
+          signConvention: input.signConvention,
+          timeZone: input.timeZone,
+        },
+      })
       return { ok: true as const, courseId: row!.id }
     })
   } catch (e) {
-    if (isUniqueViolation(e, 'courses_term_code_key')) return { ok: false, fieldErrors: { code: codeTakenMessage(input.code, term.name) } }
+    if (isUniqueViolation(e, 'courses_term_code_key'))
+      return { ok: false, fieldErrors: { code: codeTakenMessage(input.code, term.name) } }
     throw e
   }
 }
@@ -275,7 +335,12 @@ export async function adminCoursePage(database: Database, courseId: number, now 
     .where(eq(courses.id, courseId))
   if (!course) return null
   const instructors = await database
-    .select({ userId: users.id, name: users.name, email: users.email, hasPassword: sql<boolean>`${users.passwordHash} is not null` })
+    .select({
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      hasPassword: sql<boolean>`${users.passwordHash} is not null`,
+    })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(eq(memberships.courseId, courseId), eq(memberships.role, 'instructor')))
@@ -308,7 +373,11 @@ export async function adminCoursePage(database: Database, courseId: number, now 
   return { course, instructors, invitations, assignments: assignmentRows, counts }
 }
 
-export type AssignInstructorOutcome = Outcome<{ outcome: 'added' | 'already' | 'invited'; email: string; name: string | null }>
+export type AssignInstructorOutcome = Outcome<{
+  outcome: 'added' | 'already' | 'invited'
+  email: string
+  name: string | null
+}>
 
 /**
  * Makes the person with this address an instructor of the course: an existing account gains
@@ -316,9 +385,15 @@ export type AssignInstructorOutcome = Outcome<{ outcome: 'added' | 'already' | '
  * never set a password, gets an invitation as instructor, through the same links as every
  * other invitation.
  */
-export async function assignInstructor(database: Db, opts: { actorId: number; courseId: number; email: string }): Promise<AssignInstructorOutcome> {
+export async function assignInstructor(
+  database: Db,
+  opts: { actorId: number; courseId: number; email: string },
+): Promise<AssignInstructorOutcome> {
   const email = normaliseEmail(opts.email)
-  const [existing] = await database.select({ id: users.id, name: users.name, hasPassword: sql<boolean>`${users.passwordHash} is not null` }).from(users).where(eq(users.email, email))
+  const [existing] = await database
+    .select({ id: users.id, name: users.name, hasPassword: sql<boolean>`${users.passwordHash} is not null` })
+    .from(users)
+    .where(eq(users.email, email))
   // No account, or one never signed in to (no password yet): the invitation's link sets it up.
   if (!existing || !existing.hasPassword) {
     await inviteToCourse(database, { email, courseId: opts.courseId, role: 'instructor', invitedBy: opts.actorId })
@@ -330,21 +405,23 @@ export async function assignInstructor(database: Db, opts: { actorId: number; co
       .from(memberships)
       .where(and(eq(memberships.userId, existing.id), eq(memberships.courseId, opts.courseId)))
       .for('update')
-    if (membership?.role === 'instructor') return { ok: true as const, outcome: 'already' as const, email, name: existing.name }
+    if (membership?.role === 'instructor')
+      return { ok: true as const, outcome: 'already' as const, email, name: existing.name }
     await tx
       .insert(memberships)
       .values({ userId: existing.id, courseId: opts.courseId, role: 'instructor' })
-      .onConflictDoUpdate({ target: [memberships.userId, memberships.courseId], set: { role: 'instructor', droppedAt: null } })
-    await tx
-      .insert(auditEvents)
-      .values({
-        actorId: opts.actorId,
-        courseId: opts.courseId,
-        userId: existing.id,
-        kind: 'instructor-added',
-        before: membership ? { role: membership.role } : null,
-        after: { role: 'instructor' },
+      .onConflictDoUpdate({
+        target: [memberships.userId, memberships.courseId],
+        set: { role: 'instructor', droppedAt: null },
       })
+    await tx.insert(auditEvents).values({
+      actorId: opts.actorId,
+      courseId: opts.courseId,
+      userId: existing.id,
+      kind: 'instructor-added',
+      before: membership ? { role: membership.role } : null,
+      after: { role: 'instructor' },
+    })
     return { ok: true as const, outcome: 'added' as const, email, name: existing.name }
   })
 }
@@ -368,7 +445,12 @@ export async function conventionImpact(database: Database, courseId: number) {
     .innerJoin(assignments, eq(assignments.id, assignmentItems.assignmentId))
     .innerJoin(problemVersions, eq(problemVersions.id, assignmentItems.problemVersionId))
     .where(eq(assignments.courseId, courseId))
-  return { answers: answers?.answers ?? 0, students: answers?.students ?? 0, followingProblems: items?.follow ?? 0, fixedProblems: items?.fixed ?? 0 }
+  return {
+    answers: answers?.answers ?? 0,
+    students: answers?.students ?? 0,
+    followingProblems: items?.follow ?? 0,
+    fixedProblems: items?.fixed ?? 0,
+  }
 }
 
 /** The settings page of a course: its settings, what a convention change would touch, and the terms it may be copied to. */
@@ -399,7 +481,10 @@ export async function courseSettingsPage(database: Database, courseId: number) {
     defaultOffsetDays: daysBetween(course.termStartsOn, t.startsOn),
     current: t.id === course.termId,
   }))
-  const [assignmentCount] = await database.select({ n: count() }).from(assignments).where(eq(assignments.courseId, courseId))
+  const [assignmentCount] = await database
+    .select({ n: count() })
+    .from(assignments)
+    .where(eq(assignments.courseId, courseId))
   const [instructorCount] = await database
     .select({ n: count() })
     .from(memberships)
@@ -421,10 +506,18 @@ export async function courseSettingsPage(database: Database, courseId: number) {
         assignments: ((copied.after as { assignments?: unknown[] } | null)?.assignments ?? []).length,
       }
     : null
-  return { course, impact, copyTerms, assignmentCount: assignmentCount?.n ?? 0, instructorCount: instructorCount?.n ?? 0, copyOf }
+  return {
+    course,
+    impact,
+    copyTerms,
+    assignmentCount: assignmentCount?.n ?? 0,
+    instructorCount: instructorCount?.n ?? 0,
+    copyOf,
+  }
 }
 
-export const CONFIRM_CONVENTION_MESSAGE = 'Students have already answered in this course. Tick the box to confirm that you want to change the sign convention.'
+export const CONFIRM_CONVENTION_MESSAGE =
+  'Students have already answered in this course. Tick the box to confirm that you want to change the sign convention.'
 
 /** Saves an instructor's changes to the course; writes a course-settings-changed audit row with what changed. */
 export async function updateCourseSettings(
@@ -452,34 +545,44 @@ export async function updateCourseSettings(
         .select({ role: memberships.role })
         .from(memberships)
         .where(and(eq(memberships.userId, opts.actorId), eq(memberships.courseId, opts.courseId)))
-      if (role?.role !== 'instructor') throw data('Only the course’s instructors can change its settings.', { status: 403 })
+      if (role?.role !== 'instructor')
+        throw data('Only the course’s instructors can change its settings.', { status: 403 })
       const fieldErrors: FieldErrors = {}
       if (input.signConvention !== current.signConvention && !input.confirmConvention) {
         const impact = await conventionImpact(tx as unknown as Db, opts.courseId)
         if (impact.answers > 0) fieldErrors.confirmConvention = CONFIRM_CONVENTION_MESSAGE
       }
-      if (input.code !== current.code && (await codeTaken(tx as unknown as Db, current.termId, input.code, opts.courseId))) {
+      if (
+        input.code !== current.code &&
+        (await codeTaken(tx as unknown as Db, current.termId, input.code, opts.courseId))
+      ) {
         fieldErrors.code = codeTakenMessage(input.code, current.termName)
       }
       if (Object.keys(fieldErrors).length) return { ok: false as const, fieldErrors }
-      const next = { code: input.code, title: input.title, timeZone: input.timeZone, signConvention: input.signConvention }
+      const next = {
+        code: input.code,
+        title: input.title,
+        timeZone: input.timeZone,
+        signConvention: input.signConvention,
+      }
       const changed = (Object.keys(next) as (keyof typeof next)[]).filter((k) => next[k] !== current[k])
       if (changed.length === 0) return { ok: true as const, changed: [] }
       await tx.update(courses).set(next).where(eq(courses.id, opts.courseId))
-      await tx
-        .insert(auditEvents)
-        .values({
-          actorId: opts.actorId,
-          courseId: opts.courseId,
-          kind: 'course-settings-changed',
-          before: Object.fromEntries(changed.map((k) => [k, current[k]])),
-          after: Object.fromEntries(changed.map((k) => [k, next[k]])),
-        })
+      await tx.insert(auditEvents).values({
+        actorId: opts.actorId,
+        courseId: opts.courseId,
+        kind: 'course-settings-changed',
+        before: Object.fromEntries(changed.map((k) => [k, current[k]])),
+        after: Object.fromEntries(changed.map((k) => [k, next[k]])),
+      })
       return { ok: true as const, changed }
     })
   } catch (e) {
     if (isUniqueViolation(e, 'courses_term_code_key'))
-      return { ok: false, fieldErrors: { code: `Another course of this term already has the code ${input.code}. Choose another code.` } }
+      return {
+        ok: false,
+        fieldErrors: { code: `Another course of this term already has the code ${input.code}. Choose another code.` },
+      }
     throw e
   }
 }

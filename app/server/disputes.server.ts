@@ -129,7 +129,19 @@ export type DisputeDetail = {
   timeZone: string
   find: { name: string; label: string; unit: string; share: number }
   /** the disputed answer and its grade */
-  answer: { text: string; attempt: number; verdict: string | null; message: string | null; pitfallId: string | null; pitfallTitle: string | null; pitfallFeedback: string | null; score: number | null; maxScore: number; submittedAt: string; daysLate: number }
+  answer: {
+    text: string
+    attempt: number
+    verdict: string | null
+    message: string | null
+    pitfallId: string | null
+    pitfallTitle: string | null
+    pitfallFeedback: string | null
+    score: number | null
+    maxScore: number
+    submittedAt: string
+    daysLate: number
+  }
   /** every answer of this student to this find, oldest first */
   attempts: { text: string; attempt: number; verdict: string | null; score: number | null; submittedAt: string }[]
   /** the find's current score for the student (best of the graded answers) */
@@ -158,14 +170,35 @@ export type ResolveDisputeInput = {
   baseUrl?: string
 }
 
-export type ResolveDisputeResult = { ok: true; changed: number } | { ok: false; formError?: string; fieldErrors: { newScore?: string; comment?: string; decision?: string } }
+export type ResolveDisputeResult =
+  | { ok: true; changed: number }
+  | { ok: false; formError?: string; fieldErrors: { newScore?: string; comment?: string; decision?: string } }
 
 /** A find's dispute state for the student's problem page. */
-export type MyDispute = { id: number; findName: string; status: DisputeStatus; createdAt: string; resolvedAt: string | null; comment: string | null; scoreBefore: number | null; scoreAfter: number | null }
+export type MyDispute = {
+  id: number
+  findName: string
+  status: DisputeStatus
+  createdAt: string
+  resolvedAt: string | null
+  comment: string | null
+  scoreBefore: number | null
+  scoreAfter: number | null
+}
 
 export type DisputeAllowance = { allowed: true; until: string | null } | { allowed: false; reason: string }
 
-export type AuditRow = { id: number; at: string; actor: string | null; kind: string; student: string | null; assignmentTitle: string | null; before: unknown; after: unknown; note: string }
+export type AuditRow = {
+  id: number
+  at: string
+  actor: string | null
+  kind: string
+  student: string | null
+  assignmentTitle: string | null
+  before: unknown
+  after: unknown
+  note: string
+}
 
 export const REASON_MIN = DISPUTE_REASON_MIN
 export const REASON_MAX = DISPUTE_REASON_MAX
@@ -243,14 +276,21 @@ async function loadItemContext(database: Database, where: SQL | undefined): Prom
 }
 
 function itemByPosition(courseId: number, assignmentId: number, position: number) {
-  return and(eq(assignments.courseId, courseId), eq(assignments.id, assignmentId), eq(assignmentItems.position, position))
+  return and(
+    eq(assignments.courseId, courseId),
+    eq(assignments.id, assignmentId),
+    eq(assignmentItems.position, position),
+  )
 }
 
 function findOf(ctx: ItemContext, findName: string): { find: Find; share: number } | null {
   const index = ctx.definition.finds.findIndex((f) => f.name === findName)
   const find = ctx.definition.finds[index]
   if (!find) return null
-  const shares = findShares(ctx.points, ctx.definition.finds.map((f) => f.points))
+  const shares = findShares(
+    ctx.points,
+    ctx.definition.finds.map((f) => f.points),
+  )
   return { find, share: shares[index] ?? 0 }
 }
 
@@ -265,7 +305,17 @@ function variantOf(ctx: ItemContext, userId: number) {
   })
 }
 
-type GradedPart = { id: number; userId: number; attempt: number; answer: string; verdict: string | null; value: number | null; score: number | null; maxScore: number; latePenalty: number }
+type GradedPart = {
+  id: number
+  userId: number
+  attempt: number
+  answer: string
+  verdict: string | null
+  value: number | null
+  score: number | null
+  maxScore: number
+  latePenalty: number
+}
 
 const gradedPartColumns = {
   id: partResults.id,
@@ -280,12 +330,24 @@ const gradedPartColumns = {
 }
 
 /** A student's graded answers to one find, oldest first. */
-async function gradedParts(database: Database, itemId: number, userId: number, findName: string): Promise<GradedPart[]> {
+async function gradedParts(
+  database: Database,
+  itemId: number,
+  userId: number,
+  findName: string,
+): Promise<GradedPart[]> {
   return database
     .select(gradedPartColumns)
     .from(partResults)
     .innerJoin(submissions, eq(submissions.id, partResults.submissionId))
-    .where(and(eq(partResults.itemId, itemId), eq(partResults.userId, userId), eq(partResults.findName, findName), isNotNull(partResults.verdict)))
+    .where(
+      and(
+        eq(partResults.itemId, itemId),
+        eq(partResults.userId, userId),
+        eq(partResults.findName, findName),
+        isNotNull(partResults.verdict),
+      ),
+    )
     .orderBy(asc(partResults.attempt), asc(partResults.id))
 }
 
@@ -298,7 +360,13 @@ function best(parts: readonly { score: number | null }[]): number {
  * variant (every given reads the same) as this student's answer. Values are compared first,
  * so variants are drawn only for the few students whose number matches.
  */
-async function sameAnswerParts(database: Database, ctx: ItemContext, findName: string, userId: number, value: number | null): Promise<GradedPart[]> {
+async function sameAnswerParts(
+  database: Database,
+  ctx: ItemContext,
+  findName: string,
+  userId: number,
+  value: number | null,
+): Promise<GradedPart[]> {
   if (value === null || !Number.isFinite(value)) return []
   const mine = variantOf(ctx, userId)
   if (!mine.ok) return []
@@ -306,7 +374,15 @@ async function sameAnswerParts(database: Database, ctx: ItemContext, findName: s
     .select(gradedPartColumns)
     .from(partResults)
     .innerJoin(submissions, eq(submissions.id, partResults.submissionId))
-    .where(and(eq(partResults.itemId, ctx.itemId), eq(partResults.findName, findName), ne(partResults.userId, userId), isNotNull(partResults.verdict), isNotNull(partResults.value)))
+    .where(
+      and(
+        eq(partResults.itemId, ctx.itemId),
+        eq(partResults.findName, findName),
+        ne(partResults.userId, userId),
+        isNotNull(partResults.verdict),
+        isNotNull(partResults.value),
+      ),
+    )
     .orderBy(asc(partResults.id))
   const sameVariant = new Map<number, boolean>()
   return candidates.filter((p) => {
@@ -355,7 +431,11 @@ export async function disputeOffers(
   return out
 }
 
-async function allowanceFor(database: Database, ctx: ItemContext, input: { findName: string; userId: number; courseId: number; now?: Date }) {
+async function allowanceFor(
+  database: Database,
+  ctx: ItemContext,
+  input: { findName: string; userId: number; courseId: number; now?: Date },
+) {
   if ((await courseRoleOf(database, input.userId, input.courseId)) !== 'student') {
     return { allowed: false as const, code: 'not-student', reason: 'Only students of this course can dispute a grade.' }
   }
@@ -387,7 +467,14 @@ async function allowanceFor(database: Database, ctx: ItemContext, input: { findN
     now,
     format: (d) => formatInZone(d, ctx.timeZone),
     dropped: (await droppedFrom(database, input.userId, input.courseId)) !== null,
-    latest: latest ? { verdict: latest.verdict ?? '', score: latest.score ?? 0, maxScore: latest.maxScore, disputeResolved: facts?.resolvedOnLatest === true } : undefined,
+    latest: latest
+      ? {
+          verdict: latest.verdict ?? '',
+          score: latest.score ?? 0,
+          maxScore: latest.maxScore,
+          disputeResolved: facts?.resolvedOnLatest === true,
+        }
+      : undefined,
     attemptsLeft: Math.max(0, attemptsAllowed(ctx.rules, ext ?? null) - (facts?.used ?? 0)),
     canStillAnswer: windowNow.state === 'open' || windowNow.state === 'late',
   })
@@ -409,16 +496,27 @@ function megabytes(n: number): string {
  * Checks an upload: none, or at most 10 MB of PDF, PNG or JPEG as read from its first bytes.
  * An empty file counts as no upload (a form posted without choosing a file sends one).
  */
-export async function checkUpload(upload: Upload | null | undefined): Promise<{ ok: true; file: { fileName: string; contentType: AttachmentType; bytes: Uint8Array } | null } | { ok: false; error: string }> {
+export async function checkUpload(
+  upload: Upload | null | undefined,
+): Promise<
+  | { ok: true; file: { fileName: string; contentType: AttachmentType; bytes: Uint8Array } | null }
+  | { ok: false; error: string }
+> {
   if (!upload || upload.bytes.byteLength === 0) return { ok: true, file: null }
   if (upload.bytes.byteLength > MAX_ATTACHMENT_BYTES) {
-    return { ok: false, error: `The file is larger than 10 MB (it is ${megabytes(upload.bytes.byteLength)} MB). Attach a smaller PDF, PNG or JPEG, or send the dispute without it.` }
+    return {
+      ok: false,
+      error: `The file is larger than 10 MB (it is ${megabytes(upload.bytes.byteLength)} MB). Attach a smaller PDF, PNG or JPEG, or send the dispute without it.`,
+    }
   }
   const detected = await fileTypeFromBuffer(upload.bytes)
   const type = ALLOWED_ATTACHMENT_TYPES.find((t) => t === detected?.mime)
   if (!type) {
     const looks = detected ? `a .${detected.ext} file` : 'something else'
-    return { ok: false, error: `Only PDF, PNG or JPEG files can be attached, and this file looks like ${looks} (the type is read from the file's content, not its name).` }
+    return {
+      ok: false,
+      error: `Only PDF, PNG or JPEG files can be attached, and this file looks like ${looks} (the type is read from the file's content, not its name).`,
+    }
   }
   return { ok: true, file: { fileName: cleanFileName(upload.fileName), contentType: type, bytes: upload.bytes } }
 }
@@ -428,11 +526,13 @@ function checkReason(text: string): string | null {
   if (hasControlChar(reason)) return controlCharMessage('the reason', reason)
   if (reason === '') return 'Say why you think this grade is wrong.'
   if (reason.length < REASON_MIN) return `Say a little more: the reason needs at least ${REASON_MIN} characters.`
-  if (reason.length > REASON_MAX) return `Keep the reason to ${REASON_MAX.toLocaleString('en')} characters (it has ${reason.length.toLocaleString('en')}).`
+  if (reason.length > REASON_MAX)
+    return `Keep the reason to ${REASON_MAX.toLocaleString('en')} characters (it has ${reason.length.toLocaleString('en')}).`
   return null
 }
 
-const OPEN_ALREADY = 'You already have an open dispute on this question. You can raise another once it has been resolved.'
+const OPEN_ALREADY =
+  'You already have an open dispute on this question. You can raise another once it has been resolved.'
 
 class OpenDisputeExists extends Error {}
 
@@ -457,10 +557,12 @@ export async function raiseDispute(database: Db, input: RaiseDisputeInput): Prom
       if (!ctx) return { ok: false, formError: 'There is no such problem in this course.', fieldErrors }
       const allowance = await allowanceFor(tx, ctx, { ...input, now: input.now ?? new Date() })
       if (!allowance.allowed) {
-        if (allowance.code === 'open-dispute' || allowance.code === 'no-find') return { ok: false, fieldErrors: { ...fieldErrors, findName: allowance.reason } }
+        if (allowance.code === 'open-dispute' || allowance.code === 'no-find')
+          return { ok: false, fieldErrors: { ...fieldErrors, findName: allowance.reason } }
         return { ok: false, formError: allowance.reason, fieldErrors }
       }
-      if (Object.keys(fieldErrors).length > 0) return { ok: false, formError: 'The dispute was not sent. Correct what is marked below.', fieldErrors }
+      if (Object.keys(fieldErrors).length > 0)
+        return { ok: false, formError: 'The dispute was not sent. Correct what is marked below.', fieldErrors }
       let attachmentId: number | null = null
       if (upload.ok && upload.file) {
         const bytes = Buffer.from(upload.file.bytes.buffer, upload.file.bytes.byteOffset, upload.file.bytes.byteLength)
@@ -513,7 +615,8 @@ export async function raiseDispute(database: Db, input: RaiseDisputeInput): Prom
       return { ok: true, disputeId }
     })
   } catch (e) {
-    if (e instanceof OpenDisputeExists || isUniqueViolation(e, 'disputes_one_open_per_find')) return { ok: false, fieldErrors: { findName: OPEN_ALREADY } }
+    if (e instanceof OpenDisputeExists || isUniqueViolation(e, 'disputes_one_open_per_find'))
+      return { ok: false, fieldErrors: { findName: OPEN_ALREADY } }
     throw e
   }
 }
@@ -597,15 +700,25 @@ export async function listDisputes(
       isStaffRole(role) ? undefined : eq(disputes.userId, input.viewer.id),
       f.assignmentId === undefined ? undefined : eq(disputes.assignmentId, f.assignmentId),
       f.status === undefined || f.status === 'all' ? undefined : eq(disputes.status, f.status),
-      f.olderThanDays === undefined || !(f.olderThanDays > 0) ? undefined : lte(disputes.createdAt, new Date(now.getTime() - f.olderThanDays * 86_400_000)),
+      f.olderThanDays === undefined || !(f.olderThanDays > 0)
+        ? undefined
+        : lte(disputes.createdAt, new Date(now.getTime() - f.olderThanDays * 86_400_000)),
     ),
   ).orderBy(asc(disputes.createdAt), asc(disputes.id))
-  const definitions = await frozenDefinitions(database, rows.map((r) => r.versionId))
+  const definitions = await frozenDefinitions(
+    database,
+    rows.map((r) => r.versionId),
+  )
   return rows.map((r) => toListRow(r, definitions.get(r.versionId)))
 }
 
 /** The dispute if the viewer may see it (staff of its course, or the student who raised it). */
-async function visibleDispute(database: Database, courseId: number, disputeId: number, viewerId: number): Promise<{ row: DisputeRecord; staff: boolean } | null> {
+async function visibleDispute(
+  database: Database,
+  courseId: number,
+  disputeId: number,
+  viewerId: number,
+): Promise<{ row: DisputeRecord; staff: boolean } | null> {
   const [row] = await disputeQuery(database, and(eq(disputes.id, disputeId), eq(disputes.courseId, courseId))).limit(1)
   if (!row) return null
   const staff = isStaffRole(await courseRoleOf(database, viewerId, courseId))
@@ -622,7 +735,10 @@ function pitfallTitle(id: string | null): string | null {
  * Null when there is no such dispute in the course or the viewer may not see it (a student sees
  * only their own, and without the key, worked solution, diagrams or the count of others).
  */
-export async function getDisputeDetail(database: Database, input: { courseId: number; disputeId: number; viewer: DisputeActor }): Promise<DisputeDetail | null> {
+export async function getDisputeDetail(
+  database: Database,
+  input: { courseId: number; disputeId: number; viewer: DisputeActor },
+): Promise<DisputeDetail | null> {
   const visible = await visibleDispute(database, input.courseId, input.disputeId, input.viewer.id)
   if (!visible) return null
   const { row, staff } = visible
@@ -649,16 +765,33 @@ export async function getDisputeDetail(database: Database, input: { courseId: nu
     .where(eq(partResults.id, row.partResultId))
   if (!answer) return null
   const attempts = await database
-    .select({ text: partResults.answer, attempt: partResults.attempt, verdict: partResults.verdict, score: partResults.score, submittedAt: submissions.submittedAt })
+    .select({
+      text: partResults.answer,
+      attempt: partResults.attempt,
+      verdict: partResults.verdict,
+      score: partResults.score,
+      submittedAt: submissions.submittedAt,
+    })
     .from(partResults)
     .innerJoin(submissions, eq(submissions.id, partResults.submissionId))
-    .where(and(eq(partResults.itemId, row.itemId), eq(partResults.userId, row.userId), eq(partResults.findName, row.findName)))
+    .where(
+      and(
+        eq(partResults.itemId, row.itemId),
+        eq(partResults.userId, row.userId),
+        eq(partResults.findName, row.findName),
+      ),
+    )
     .orderBy(asc(partResults.attempt), asc(partResults.id))
   const drawn = variantOf(ctx, row.userId)
   const displays = Object.fromEntries(ctx.definition.givens.filter((g) => g.display).map((g) => [g.name, g.display!]))
   const [file] = row.attachmentId
     ? await database
-        .select({ id: attachments.id, fileName: attachments.fileName, contentType: attachments.contentType, size: attachments.size })
+        .select({
+          id: attachments.id,
+          fileName: attachments.fileName,
+          contentType: attachments.contentType,
+          size: attachments.size,
+        })
         .from(attachments)
         .where(eq(attachments.id, row.attachmentId))
     : []
@@ -669,7 +802,12 @@ export async function getDisputeDetail(database: Database, input: { courseId: nu
   return {
     dispute: { ...toListRow(row, ctx.definition), comment: row.comment, resolvedBy: row.resolvedByName },
     timeZone: ctx.timeZone,
-    find: { name: row.findName, label: find?.label ?? row.findName, unit: find?.unit ?? '', share: findInfo?.share ?? answer.maxScore },
+    find: {
+      name: row.findName,
+      label: find?.label ?? row.findName,
+      unit: find?.unit ?? '',
+      share: findInfo?.share ?? answer.maxScore,
+    },
     answer: {
       text: answer.answer,
       attempt: answer.attempt,
@@ -683,14 +821,22 @@ export async function getDisputeDetail(database: Database, input: { courseId: nu
       submittedAt: answer.submittedAt.toISOString(),
       daysLate: answer.daysLate,
     },
-    attempts: attempts.map((a) => ({ text: a.text, attempt: a.attempt, verdict: a.verdict, score: a.score, submittedAt: a.submittedAt.toISOString() })),
+    attempts: attempts.map((a) => ({
+      text: a.text,
+      attempt: a.attempt,
+      verdict: a.verdict,
+      score: a.score,
+      submittedAt: a.submittedAt.toISOString(),
+    })),
     findScore: best(attempts),
     givens: drawn.ok ? drawn.variant.givens : [],
     promptHtml: drawn.ok ? renderPrompt(ctx.definition.prompt, drawn.variant.givens, displays).html : null,
     key: keyShown ? drawn.variant.key : [],
     workedHtml: keyShown ? renderWorkedSolution(workedSolution(drawn.variant, ctx.definition)) : null,
     diagrams: keyShown ? cycleDiagrams(drawn.variant.solution) : null,
-    attachment: file ? { id: file.id, fileName: file.fileName, contentType: file.contentType as AttachmentType, size: file.size } : null,
+    attachment: file
+      ? { id: file.id, fileName: file.fileName, contentType: file.contentType as AttachmentType, size: file.size }
+      : null,
     sameAnswerOnVariant: new Set(others.map((p) => p.userId)).size,
     history: await disputeHistory(database, row, find?.label ?? row.findName),
   }
@@ -704,7 +850,11 @@ function gradeText(g: GradeState | null | undefined): string {
 }
 
 /** The dispute's story in words, oldest first: raised, each score change it caused, resolved. */
-async function disputeHistory(database: Database, row: DisputeRecord, findLabel: string): Promise<DisputeHistoryEntry[]> {
+async function disputeHistory(
+  database: Database,
+  row: DisputeRecord,
+  findLabel: string,
+): Promise<DisputeHistoryEntry[]> {
   const actor = alias(users, 'actor')
   const subject = alias(users, 'subject')
   const auditQuery = (where: SQL | undefined) =>
@@ -729,7 +879,11 @@ async function disputeHistory(database: Database, row: DisputeRecord, findLabel:
       .where(where)
       .orderBy(asc(auditEvents.at), asc(auditEvents.id))
   const own = await auditQuery(
-    and(eq(auditEvents.courseId, row.courseId), inArray(auditEvents.kind, ['dispute-raised', 'dispute-resolved']), sql`${auditEvents.after}->>'disputeId' = ${String(row.id)}`),
+    and(
+      eq(auditEvents.courseId, row.courseId),
+      inArray(auditEvents.kind, ['dispute-raised', 'dispute-resolved']),
+      sql`${auditEvents.after}->>'disputeId' = ${String(row.id)}`,
+    ),
   )
   const raised = own.find((e) => e.kind === 'dispute-raised')
   const resolved = own.find((e) => e.kind === 'dispute-resolved')
@@ -737,10 +891,13 @@ async function disputeHistory(database: Database, row: DisputeRecord, findLabel:
   const events =
     resolved && Array.isArray(changedIds) && changedIds.length > 0
       ? await auditQuery(
-          and(eq(auditEvents.courseId, row.courseId), eq(auditEvents.kind, 'dispute'),
+          and(
+            eq(auditEvents.courseId, row.courseId),
+            eq(auditEvents.kind, 'dispute'),
             // The same transaction, so the same now(); compared in SQL, where the microseconds are.
             sql`${auditEvents.at} = (select a2.at from ${auditEvents} a2 where a2.id = ${resolved.id})`,
-            inArray(auditEvents.partResultId, changedIds.map(Number))),
+            inArray(auditEvents.partResultId, changedIds.map(Number)),
+          ),
         )
       : []
   const out: DisputeHistoryEntry[] = []
@@ -766,7 +923,12 @@ async function disputeHistory(database: Database, row: DisputeRecord, findLabel:
       at: (resolved?.at ?? row.resolvedAt ?? row.createdAt).toISOString(),
       who: resolved?.actorName ?? row.resolvedByName,
       kind: 'resolved',
-      text: disputeResolvedHistoryText({ outcome: row.status, scoreBefore: before, scoreAfter: after, comment: row.comment }),
+      text: disputeResolvedHistoryText({
+        outcome: row.status,
+        scoreBefore: before,
+        scoreAfter: after,
+        comment: row.comment,
+      }),
     })
   }
   return out
@@ -794,21 +956,26 @@ type PartChange = { part: GradedPart; next: { verdict: 'correct' | null; score: 
 export async function resolveDispute(database: Db, input: ResolveDisputeInput): Promise<ResolveDisputeResult> {
   const fieldErrors: { newScore?: string; comment?: string; decision?: string } = {}
   const decision = DECISIONS.find((d) => d === input.decision)
-  if (!decision) fieldErrors.decision = 'Choose how to resolve the dispute: keep the score, adjust it, or accept the answer.'
+  if (!decision)
+    fieldErrors.decision = 'Choose how to resolve the dispute: keep the score, adjust it, or accept the answer.'
   const comment = (input.comment ?? '').trim()
   if (hasControlChar(comment)) fieldErrors.comment = controlCharMessage('the comment', comment)
-  else if (comment.length > COMMENT_MAX) fieldErrors.comment = `Keep the comment to ${COMMENT_MAX.toLocaleString('en')} characters (it has ${comment.length.toLocaleString('en')}).`
+  else if (comment.length > COMMENT_MAX)
+    fieldErrors.comment = `Keep the comment to ${COMMENT_MAX.toLocaleString('en')} characters (it has ${comment.length.toLocaleString('en')}).`
   if (decision === 'adjust') {
     if (comment === '') fieldErrors.comment ??= 'Say why the score changes.'
-    if (input.newScore === undefined || !Number.isFinite(input.newScore)) fieldErrors.newScore = 'Enter the new score for this question.'
+    if (input.newScore === undefined || !Number.isFinite(input.newScore))
+      fieldErrors.newScore = 'Enter the new score for this question.'
   }
-  if (!decision || Object.keys(fieldErrors).length > 0) return { ok: false, formError: 'The dispute was not resolved. Correct what is marked below.', fieldErrors }
+  if (!decision || Object.keys(fieldErrors).length > 0)
+    return { ok: false, formError: 'The dispute was not resolved. Correct what is marked below.', fieldErrors }
   const now = input.now ?? new Date()
   const baseUrl = (input.baseUrl ?? appUrl()).replace(/\/$/, '')
 
   return withJobTransaction(database, async (tx, jobs): Promise<ResolveDisputeResult> => {
     const role = await courseRoleOf(tx, input.actor.id, input.courseId)
-    if (!isStaffRole(role)) return { ok: false, formError: 'Only the course’s instructors and TAs can resolve disputes.', fieldErrors: {} }
+    if (!isStaffRole(role))
+      return { ok: false, formError: 'Only the course’s instructors and TAs can resolve disputes.', fieldErrors: {} }
     // Locked: two reviewers pressing at once resolve it once.
     const [locked] = await tx
       .select({ id: disputes.id, status: disputes.status })
@@ -823,7 +990,12 @@ export async function resolveDispute(database: Db, input: ResolveDisputeInput): 
     const findInfo = findOf(ctx, row.findName)
     const mine = await gradedParts(tx, ctx.itemId, row.userId, row.findName)
     const disputed = mine.find((p) => p.id === row.partResultId)
-    if (!disputed) return { ok: false, formError: 'The disputed answer is no longer graded; it cannot be resolved now.', fieldErrors: {} }
+    if (!disputed)
+      return {
+        ok: false,
+        formError: 'The disputed answer is no longer graded; it cannot be resolved now.',
+        fieldErrors: {},
+      }
     const share = disputed.maxScore
     const scoreBefore = best(mine)
 
@@ -831,7 +1003,13 @@ export async function resolveDispute(database: Db, input: ResolveDisputeInput): 
     if (decision === 'adjust') {
       const newScore = input.newScore!
       if (newScore < 0 || newScore > share + 1e-9) {
-        return { ok: false, formError: 'The dispute was not resolved. Correct what is marked below.', fieldErrors: { newScore: `The score must be between 0 and ${points(share)} (this question’s share of the points).` } }
+        return {
+          ok: false,
+          formError: 'The dispute was not resolved. Correct what is marked below.',
+          fieldErrors: {
+            newScore: `The score must be between 0 and ${points(share)} (this question’s share of the points).`,
+          },
+        }
       }
       const target = Math.min(newScore, share)
       for (const p of mine) {
@@ -842,7 +1020,8 @@ export async function resolveDispute(database: Db, input: ResolveDisputeInput): 
       const others = await sameAnswerParts(tx, ctx, row.findName, row.userId, disputed.value)
       for (const p of [disputed, ...others]) {
         const score = answerScore('correct', p.latePenalty, p.maxScore)
-        if (p.verdict !== 'correct' || p.score !== score) changes.push({ part: p, next: { verdict: 'correct', score }, setCorrect: true })
+        if (p.verdict !== 'correct' || p.score !== score)
+          changes.push({ part: p, next: { verdict: 'correct', score }, setCorrect: true })
       }
     }
 
@@ -850,7 +1029,17 @@ export async function resolveDispute(database: Db, input: ResolveDisputeInput): 
     for (const c of changes) {
       await tx
         .update(partResults)
-        .set(c.setCorrect ? { verdict: 'correct', score: c.next.score, message: 'Accepted on review', pitfallId: null, pitfallFeedback: null } : { score: c.next.score })
+        .set(
+          c.setCorrect
+            ? {
+                verdict: 'correct',
+                score: c.next.score,
+                message: 'Accepted on review',
+                pitfallId: null,
+                pitfallFeedback: null,
+              }
+            : { score: c.next.score },
+        )
         .where(eq(partResults.id, c.part.id))
     }
     if (changes.length > 0) {
@@ -882,7 +1071,13 @@ export async function resolveDispute(database: Db, input: ResolveDisputeInput): 
       partResultId: row.partResultId,
       kind: 'dispute-resolved',
       before: { disputeId: row.id, status: 'open', score: scoreBefore },
-      after: { disputeId: row.id, status, score: scoreAfter, changed: changes.length, partResultIds: changes.map((c) => c.part.id) },
+      after: {
+        disputeId: row.id,
+        status,
+        score: scoreAfter,
+        changed: changes.length,
+        partResultIds: changes.map((c) => c.part.id),
+      },
       note,
     })
 
@@ -917,7 +1112,10 @@ export async function resolveDispute(database: Db, input: ResolveDisputeInput): 
 // ---- The student's side, attachments, the audit log ---------------------------------------
 
 /** The student's disputes on one problem, newest first per find. */
-export async function listMyDisputes(database: Database, input: { itemId: number; userId: number }): Promise<MyDispute[]> {
+export async function listMyDisputes(
+  database: Database,
+  input: { itemId: number; userId: number },
+): Promise<MyDispute[]> {
   const rows = await database
     .select({
       id: disputes.id,
@@ -932,7 +1130,11 @@ export async function listMyDisputes(database: Database, input: { itemId: number
     .from(disputes)
     .where(and(eq(disputes.itemId, input.itemId), eq(disputes.userId, input.userId)))
     .orderBy(asc(disputes.findName), desc(disputes.createdAt), desc(disputes.id))
-  return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString(), resolvedAt: r.resolvedAt ? r.resolvedAt.toISOString() : null }))
+  return rows.map((r) => ({
+    ...r,
+    createdAt: r.createdAt.toISOString(),
+    resolvedAt: r.resolvedAt ? r.resolvedAt.toISOString() : null,
+  }))
 }
 
 /** The bytes of an attachment, for its owner or the course's staff; null otherwise. */
@@ -941,14 +1143,19 @@ export async function getAttachmentForViewer(
   input: { courseId: number; disputeId: number; viewer: DisputeActor },
 ): Promise<{ fileName: string; contentType: AttachmentType; data: Buffer } | null> {
   const [row] = await database
-    .select({ ownerId: disputes.userId, fileName: attachments.fileName, contentType: attachments.contentType, data: attachments.data })
+    .select({
+      ownerId: disputes.userId,
+      fileName: attachments.fileName,
+      contentType: attachments.contentType,
+      data: attachments.data,
+    })
     .from(disputes)
     .innerJoin(attachments, and(eq(attachments.id, disputes.attachmentId), eq(attachments.courseId, disputes.courseId)))
     .where(and(eq(disputes.id, input.disputeId), eq(disputes.courseId, input.courseId)))
   if (!row) return null
-  if (row.ownerId !== input.viewer.id && !isStaffRole(await courseRoleOf(database, input.viewer.id, input.courseId))) return null
+  if (row.ownerId !== input.viewer.id && !isStaffRole(await courseRoleOf(database, input.viewer.id, input.courseId)))
+    return null
   const contentType = ALLOWED_ATTACHMENT_TYPES.find((t) => t === row.contentType)
   if (!contentType) return null
   return { fileName: row.fileName, contentType, data: Buffer.from(row.data) }
 }
-

@@ -41,8 +41,23 @@ function escapeHtml(s: string) {
 }
 
 /** A short plain message with one link, as text and as simple HTML. */
-export function linkMail(opts: { to: string; subject: string; lines: string[]; link: string; linkLabel: string; after?: string[] }): OutgoingMail {
-  const text = [...opts.lines, '', `${opts.linkLabel}: ${opts.link}`, '', ...(opts.after ?? []), '', '— Cyclewright'].join('\n')
+export function linkMail(opts: {
+  to: string
+  subject: string
+  lines: string[]
+  link: string
+  linkLabel: string
+  after?: string[]
+}): OutgoingMail {
+  const text = [
+    ...opts.lines,
+    '',
+    `${opts.linkLabel}: ${opts.link}`,
+    '',
+    ...(opts.after ?? []),
+    '',
+    '— Cyclewright',
+  ].join('\n')
   const html = [
     ...opts.lines.map((l) => `<p>${escapeHtml(l)}</p>`),
     `<p><a href="${escapeHtml(opts.link)}">${escapeHtml(opts.linkLabel)}</a></p>`,

@@ -16,11 +16,15 @@ describe('APP_URL', () => {
   })
 
   test('an empty APP_URL counts as unset in production', () => {
-    expect(() => parseEnv({ ...base, NODE_ENV: 'production', APP_URL: '' })).toThrow(/APP_URL must be set in production/)
+    expect(() => parseEnv({ ...base, NODE_ENV: 'production', APP_URL: '' })).toThrow(
+      /APP_URL must be set in production/,
+    )
   })
 
   test('production starts with it', () => {
-    expect(parseEnv({ ...base, NODE_ENV: 'production', APP_URL: 'https://cyclewright.example.org' }).APP_URL).toBe('https://cyclewright.example.org')
+    expect(parseEnv({ ...base, NODE_ENV: 'production', APP_URL: 'https://cyclewright.example.org' }).APP_URL).toBe(
+      'https://cyclewright.example.org',
+    )
   })
 
   test('only http and https addresses are accepted', () => {

@@ -71,7 +71,6 @@ export const CSV_OPTIONS: StringifyOptions = {
   cast: { string: (value) => neutraliseCell(value), boolean: (value) => (value ? 'yes' : '') },
 }
 
-
 /** Lower-case ASCII words joined by '-', for file names ("Fall 2026" → "fall-2026"). */
 export function fileSlug(text: string, fallback = 'export'): string {
   const slug = text
@@ -86,7 +85,12 @@ export function fileSlug(text: string, fallback = 'export'): string {
 }
 
 /** "th-101-grades-2026-12-02.csv" (or .xlsx), dated in the course's zone. */
-export function courseCsvFileName(courseCode: string, timeZone: string, now = new Date(), extension: 'csv' | 'xlsx' = 'csv'): string {
+export function courseCsvFileName(
+  courseCode: string,
+  timeZone: string,
+  now = new Date(),
+  extension: 'csv' | 'xlsx' = 'csv',
+): string {
   return `${fileSlug(courseCode, 'course')}-grades-${format(new TZDate(now.getTime(), timeZone), 'yyyy-MM-dd')}.${extension}`
 }
 
@@ -107,7 +111,9 @@ export function courseGradeTable(gradebook: CourseGradebook): { header: string[]
     'E-mail',
     'Section',
     ...gradebook.assignments.map((a) =>
-      a.counted ? `${a.title} (${formatPoints(a.points)})` : `${a.title} (${formatPoints(a.points)}) — not counted, due ${wallClock(a.dueAt, zone)} ${zone}`,
+      a.counted
+        ? `${a.title} (${formatPoints(a.points)})`
+        : `${a.title} (${formatPoints(a.points)}) — not counted, due ${wallClock(a.dueAt, zone)} ${zone}`,
     ),
     `Total (${formatPoints(gradebook.points)})`,
     'Answers being graded',
@@ -136,7 +142,11 @@ async function loadCourseGradebook(database: Database, courseId: number, now: Da
  * The data is read before this resolves, so a database error surfaces before any byte is
  * sent; rows are then stringified one at a time as the client reads them.
  */
-export async function courseGradeCsv(database: Database, courseId: number, options: { now?: Date } = {}): Promise<ReadableStream<Uint8Array>> {
+export async function courseGradeCsv(
+  database: Database,
+  courseId: number,
+  options: { now?: Date } = {},
+): Promise<ReadableStream<Uint8Array>> {
   const { header, rows } = courseGradeTable(await loadCourseGradebook(database, courseId, options.now ?? new Date()))
   function* records() {
     yield header
@@ -146,7 +156,8 @@ export async function courseGradeCsv(database: Database, courseId: number, optio
   pipeline(Readable.from(records()), stringifier, (error) => {
     // A client that stops reading (closed tab, cancelled download) is not an error worth logging.
     const code = (error as { code?: string } | null)?.code
-    if (error && error.name !== 'AbortError' && code !== 'ERR_STREAM_PREMATURE_CLOSE') console.error('Course CSV stream stopped:', error.message)
+    if (error && error.name !== 'AbortError' && code !== 'ERR_STREAM_PREMATURE_CLOSE')
+      console.error('Course CSV stream stopped:', error.message)
   })
   return Readable.toWeb(stringifier) as unknown as ReadableStream<Uint8Array>
 }
@@ -158,7 +169,11 @@ export const XLSX_CONTENT_TYPE = 'application/vnd.openxmlformats-officedocument.
  * as numbers, text neutralised like the CSV, the header row frozen) and a "Notes" sheet with
  * the counting rule in words.
  */
-export async function courseGradeXlsx(database: Database, courseId: number, options: { now?: Date } = {}): Promise<Buffer> {
+export async function courseGradeXlsx(
+  database: Database,
+  courseId: number,
+  options: { now?: Date } = {},
+): Promise<Buffer> {
   const gradebook = await loadCourseGradebook(database, courseId, options.now ?? new Date())
   const { header, rows } = courseGradeTable(gradebook)
   const text = (c: Cell) => (typeof c === 'string' ? neutraliseCell(c) : typeof c === 'boolean' ? (c ? 'yes' : '') : c)
@@ -174,7 +189,9 @@ export async function courseGradeXlsx(database: Database, courseId: number, opti
   })
   const notes = workbook.addWorksheet('Notes')
   notes.addRow([neutraliseCell(gradebook.rule)])
-  notes.addRow([`Scores are points to 0.01, with late penalties taken off. Empty cells: assignments not counted yet. "Answers being graded" above 0: the row may still change.`])
+  notes.addRow([
+    `Scores are points to 0.01, with late penalties taken off. Empty cells: assignments not counted yet. "Answers being graded" above 0: the row may still change.`,
+  ])
   notes.getColumn(1).width = 120
   return Buffer.from(await workbook.xlsx.writeBuffer())
 }
@@ -187,7 +204,11 @@ export class ExportRequestError extends Error {
 }
 
 async function adminScope(database: Database, userId: number) {
-  const [row] = await database.select({ isAdmin: users.isAdmin, departmentId: users.departmentId }).from(users).where(eq(users.id, userId)).limit(1)
+  const [row] = await database
+    .select({ isAdmin: users.isAdmin, departmentId: users.departmentId })
+    .from(users)
+    .where(eq(users.id, userId))
+    .limit(1)
   return row ?? null
 }
 
@@ -196,7 +217,13 @@ export async function listExportableTerms(database: Database, adminUserId: numbe
   const scope = await adminScope(database, adminUserId)
   if (!scope?.isAdmin) return []
   return database
-    .select({ id: terms.id, name: terms.name, departmentName: departments.name, startsOn: terms.startsOn, endsOn: terms.endsOn })
+    .select({
+      id: terms.id,
+      name: terms.name,
+      departmentName: departments.name,
+      startsOn: terms.startsOn,
+      endsOn: terms.endsOn,
+    })
     .from(terms)
     .innerJoin(departments, eq(departments.id, terms.departmentId))
     .where(scope.departmentId === null ? undefined : eq(terms.departmentId, scope.departmentId))
@@ -229,17 +256,32 @@ export async function listExportsForAdmin(database: Database, adminUserId: numbe
 
 /** The download links of one export: two files, or the single file of an export made before the split. */
 function exportFiles(e: { id: number; fileName: string; legacy: boolean }) {
-  if (e.legacy) return [{ label: 'Download the CSV', name: termExportFileName(e.fileName, null), href: `/admin/exports/${e.id}` }]
+  if (e.legacy)
+    return [{ label: 'Download the CSV', name: termExportFileName(e.fileName, null), href: `/admin/exports/${e.id}` }]
   return [
-    { label: 'Course totals', name: termExportFileName(e.fileName, 'course-totals'), href: `/admin/exports/${e.id}?file=course-totals` },
-    { label: 'Assignment rows', name: termExportFileName(e.fileName, 'assignments'), href: `/admin/exports/${e.id}?file=assignments` },
+    {
+      label: 'Course totals',
+      name: termExportFileName(e.fileName, 'course-totals'),
+      href: `/admin/exports/${e.id}?file=course-totals`,
+    },
+    {
+      label: 'Assignment rows',
+      name: termExportFileName(e.fileName, 'assignments'),
+      href: `/admin/exports/${e.id}?file=assignments`,
+    },
   ]
 }
 
 /** What /admin/exports shows: the terms to choose from and the admin's own exports with their files. */
 export async function adminExportsPage(database: Database, adminUserId: number) {
-  const [termOptions, exports] = await Promise.all([listExportableTerms(database, adminUserId), listExportsForAdmin(database, adminUserId)])
-  return { terms: termOptions, exports: exports.map(({ legacy, ...e }) => ({ ...e, files: exportFiles({ ...e, legacy }) })) }
+  const [termOptions, exports] = await Promise.all([
+    listExportableTerms(database, adminUserId),
+    listExportsForAdmin(database, adminUserId),
+  ])
+  return {
+    terms: termOptions,
+    exports: exports.map(({ legacy, ...e }) => ({ ...e, files: exportFiles({ ...e, legacy }) })),
+  }
 }
 
 /**
@@ -248,11 +290,19 @@ export async function adminExportsPage(database: Database, adminUserId: number) 
  * returned instead of a second (a double click makes one file).
  * Throws ExportRequestError for a term that does not exist or is outside the admin's department.
  */
-export async function requestTermExport(database: Db, input: { adminUser: { id: number }; termId: number; now?: Date }): Promise<{ exportId: number; created: boolean }> {
+export async function requestTermExport(
+  database: Db,
+  input: { adminUser: { id: number }; termId: number; now?: Date },
+): Promise<{ exportId: number; created: boolean }> {
   const scope = await adminScope(database, input.adminUser.id)
   if (!scope?.isAdmin) throw new ExportRequestError('Only department admins can export a term’s grades.')
-  const [term] = await database.select({ id: terms.id, name: terms.name, departmentId: terms.departmentId }).from(terms).where(eq(terms.id, input.termId)).limit(1)
-  if (!term || (scope.departmentId !== null && term.departmentId !== scope.departmentId)) throw new ExportRequestError('Choose one of the terms listed.')
+  const [term] = await database
+    .select({ id: terms.id, name: terms.name, departmentId: terms.departmentId })
+    .from(terms)
+    .where(eq(terms.id, input.termId))
+    .limit(1)
+  if (!term || (scope.departmentId !== null && term.departmentId !== scope.departmentId))
+    throw new ExportRequestError('Choose one of the terms listed.')
   const day = (input.now ?? new Date()).toISOString().slice(0, 10)
   return withJobTransaction(database, async (tx, jobs) => {
     // Serialises two requests of the same admin, so the check below sees the other's row.
@@ -260,22 +310,51 @@ export async function requestTermExport(database: Db, input: { adminUser: { id: 
     const [open] = await tx
       .select({ id: gradeExports.id })
       .from(gradeExports)
-      .where(and(eq(gradeExports.requestedBy, input.adminUser.id), eq(gradeExports.termId, term.id), inArray(gradeExports.status, ['queued', 'running'])))
+      .where(
+        and(
+          eq(gradeExports.requestedBy, input.adminUser.id),
+          eq(gradeExports.termId, term.id),
+          inArray(gradeExports.status, ['queued', 'running']),
+        ),
+      )
       .limit(1)
     if (open) return { exportId: open.id, created: false }
     const [row] = await tx
       .insert(gradeExports)
-      .values({ requestedBy: input.adminUser.id, termId: term.id, status: 'queued', fileName: `grades-${fileSlug(term.name, 'term')}-${day}` })
+      .values({
+        requestedBy: input.adminUser.id,
+        termId: term.id,
+        status: 'queued',
+        fileName: `grades-${fileSlug(term.name, 'term')}-${day}`,
+      })
       .returning({ id: gradeExports.id })
     await enqueue('export-grades', { v: 1, exportId: row!.id }, { connection: jobs })
     return { exportId: row!.id, created: true }
   })
 }
 
-const WHO_HEADER = ['Course code', 'Course title', 'Student ID', 'Family name', 'Given name', 'E-mail', 'Section'] as const
+const WHO_HEADER = [
+  'Course code',
+  'Course title',
+  'Student ID',
+  'Family name',
+  'Given name',
+  'E-mail',
+  'Section',
+] as const
 
 /** The term export's assignment rows: one per (course, student, assignment). */
-export const TERM_ASSIGNMENTS_HEADER = [...WHO_HEADER, 'Assignment', 'Due', 'Time zone', 'Counted', 'Score', 'Possible', 'Late', 'Answers being graded'] as const
+export const TERM_ASSIGNMENTS_HEADER = [
+  ...WHO_HEADER,
+  'Assignment',
+  'Due',
+  'Time zone',
+  'Counted',
+  'Score',
+  'Possible',
+  'Late',
+  'Answers being graded',
+] as const
 
 /** The term export's course totals: one per (course, student). */
 export const TERM_TOTALS_HEADER = [
@@ -301,7 +380,12 @@ export function readStoredExport(text: string): { files: Record<TermExportFile, 
   if (text.startsWith('{')) {
     try {
       const parsed = JSON.parse(text) as Partial<StoredTermExport>
-      if (parsed.format === STORED_FORMAT && typeof parsed.files?.assignments === 'string' && typeof parsed.files['course-totals'] === 'string') return { files: parsed.files }
+      if (
+        parsed.format === STORED_FORMAT &&
+        typeof parsed.files?.assignments === 'string' &&
+        typeof parsed.files['course-totals'] === 'string'
+      )
+        return { files: parsed.files }
     } catch {
       // not ours: served as the text it is
     }
@@ -325,7 +409,11 @@ export type BuildOutcome = 'done' | 'already-done' | 'missing'
  * On failure it records why and rethrows: failed for a PermanentJobError or when
  * `lastAttempt`, else back to queued with the reason, as the job will be retried.
  */
-export async function buildTermExport(database: Db, exportId: number, options: { lastAttempt?: boolean } = {}): Promise<BuildOutcome> {
+export async function buildTermExport(
+  database: Db,
+  exportId: number,
+  options: { lastAttempt?: boolean } = {},
+): Promise<BuildOutcome> {
   const [row] = await database
     .select({ status: gradeExports.status, requestedBy: gradeExports.requestedBy, termId: gradeExports.termId })
     .from(gradeExports)
@@ -333,14 +421,23 @@ export async function buildTermExport(database: Db, exportId: number, options: {
     .limit(1)
   if (!row) return 'missing'
   if (row.status === 'done') return 'already-done'
-  await database.update(gradeExports).set({ status: 'running', rows: 0, error: null }).where(eq(gradeExports.id, exportId))
+  await database
+    .update(gradeExports)
+    .set({ status: 'running', rows: 0, error: null })
+    .where(eq(gradeExports.id, exportId))
   try {
     const scope = await adminScope(database, row.requestedBy)
-    if (!scope?.isAdmin) throw new PermanentJobError('The person who asked for this export is no longer a department admin.')
+    if (!scope?.isAdmin)
+      throw new PermanentJobError('The person who asked for this export is no longer a department admin.')
     const courseRows = await database
       .select({ id: courses.id, code: courses.code, title: courses.title, timeZone: courses.timeZone })
       .from(courses)
-      .where(and(eq(courses.termId, row.termId), scope.departmentId === null ? undefined : eq(courses.departmentId, scope.departmentId)))
+      .where(
+        and(
+          eq(courses.termId, row.termId),
+          scope.departmentId === null ? undefined : eq(courses.departmentId, scope.departmentId),
+        ),
+      )
       .orderBy(asc(courses.code), asc(courses.id))
 
     const now = new Date()
@@ -351,12 +448,40 @@ export async function buildTermExport(database: Db, exportId: number, options: {
       const zone = course.timeZone
       const counted = gradebook.assignments.filter((a) => a.counted).length
       for (const s of gradebook.students) {
-        const who: Cell[] = [course.code, course.title, s.studentNumber ?? '', s.familyName, s.givenName, s.email, s.section ?? '']
+        const who: Cell[] = [
+          course.code,
+          course.title,
+          s.studentNumber ?? '',
+          s.familyName,
+          s.givenName,
+          s.email,
+          s.section ?? '',
+        ]
         gradebook.assignments.forEach((a, i) => {
           const c = s.assignments[i]!
-          assignmentRecords.push([...who, a.title, wallClock(a.dueAt, zone), zone, a.counted, a.counted ? roundPoints(c.score) : '', roundPoints(a.points), c.late, c.pending])
+          assignmentRecords.push([
+            ...who,
+            a.title,
+            wallClock(a.dueAt, zone),
+            zone,
+            a.counted,
+            a.counted ? roundPoints(c.score) : '',
+            roundPoints(a.points),
+            c.late,
+            c.pending,
+          ])
         })
-        totalRecords.push([...who, roundPoints(s.total), roundPoints(gradebook.points), counted, gradebook.assignments.length, wallClock(now, zone), zone, s.late, s.pending])
+        totalRecords.push([
+          ...who,
+          roundPoints(s.total),
+          roundPoints(gradebook.points),
+          counted,
+          gradebook.assignments.length,
+          wallClock(now, zone),
+          zone,
+          s.late,
+          s.pending,
+        ])
       }
       await database
         .update(gradeExports)
@@ -365,11 +490,20 @@ export async function buildTermExport(database: Db, exportId: number, options: {
     }
     const stored: StoredTermExport = {
       format: STORED_FORMAT,
-      files: { assignments: stringifySync(assignmentRecords, CSV_OPTIONS), 'course-totals': stringifySync(totalRecords, CSV_OPTIONS) },
+      files: {
+        assignments: stringifySync(assignmentRecords, CSV_OPTIONS),
+        'course-totals': stringifySync(totalRecords, CSV_OPTIONS),
+      },
     }
     await database
       .update(gradeExports)
-      .set({ status: 'done', csv: JSON.stringify(stored), rows: assignmentRecords.length + totalRecords.length - 2, error: null, finishedAt: sql`clock_timestamp()` })
+      .set({
+        status: 'done',
+        csv: JSON.stringify(stored),
+        rows: assignmentRecords.length + totalRecords.length - 2,
+        error: null,
+        finishedAt: sql`clock_timestamp()`,
+      })
       .where(eq(gradeExports.id, exportId))
     return 'done'
   } catch (e) {
@@ -379,7 +513,11 @@ export async function buildTermExport(database: Db, exportId: number, options: {
       .update(gradeExports)
       .set(
         failed
-          ? { status: 'failed', error: e instanceof PermanentJobError ? reason : `The export stopped: ${reason}`, finishedAt: sql`clock_timestamp()` }
+          ? {
+              status: 'failed',
+              error: e instanceof PermanentJobError ? reason : `The export stopped: ${reason}`,
+              finishedAt: sql`clock_timestamp()`,
+            }
           : { status: 'queued', error: `An attempt stopped (${reason}); trying again shortly.` },
       )
       .where(eq(gradeExports.id, exportId))
@@ -401,7 +539,10 @@ export async function getExportDownload(database: Database, exportId: number, fi
     .limit(1)
   if (!row || row.csv === null) return null
   const stored = readStoredExport(row.csv)
-  if ('legacy' in stored) return file === null || file === 'assignments' ? { fileName: termExportFileName(row.fileName, null), csv: stored.legacy } : null
+  if ('legacy' in stored)
+    return file === null || file === 'assignments'
+      ? { fileName: termExportFileName(row.fileName, null), csv: stored.legacy }
+      : null
   const chosen = file ?? 'assignments'
   return { fileName: termExportFileName(row.fileName, chosen), csv: stored.files[chosen] }
 }

@@ -1,7 +1,15 @@
 import { parse } from 'csv-parse/sync'
 import { stringify } from 'csv-stringify/sync'
 import { describe, expect, test } from 'vitest'
-import { courseCsvFileName, courseGradeTable, CSV_OPTIONS, fileSlug, neutraliseCell, readStoredExport, termExportFileName } from './exports.server.ts'
+import {
+  courseCsvFileName,
+  courseGradeTable,
+  CSV_OPTIONS,
+  fileSlug,
+  neutraliseCell,
+  readStoredExport,
+  termExportFileName,
+} from './exports.server.ts'
 
 describe('neutraliseCell', () => {
   test.each([
@@ -78,8 +86,24 @@ describe('the course table from a gradebook', () => {
   const gradebook = {
     course: { id: 1, timeZone: 'UTC' },
     assignments: [
-      { id: 10, title: 'Week 3 — Otto cycle', opensAt: '2026-10-01T00:00:00Z', dueAt: '2026-10-08T23:59:00Z', points: 30 / 7, stage: 'due', counted: true },
-      { id: 11, title: '=Week 9', opensAt: '2026-12-20T00:00:00Z', dueAt: '2026-12-27T23:59:00Z', points: 5, stage: 'not-open', counted: false },
+      {
+        id: 10,
+        title: 'Week 3 — Otto cycle',
+        opensAt: '2026-10-01T00:00:00Z',
+        dueAt: '2026-10-08T23:59:00Z',
+        points: 30 / 7,
+        stage: 'due',
+        counted: true,
+      },
+      {
+        id: 11,
+        title: '=Week 9',
+        opensAt: '2026-12-20T00:00:00Z',
+        dueAt: '2026-12-27T23:59:00Z',
+        points: 5,
+        stage: 'not-open',
+        counted: false,
+      },
     ],
     points: 30 / 7,
     students: [
@@ -126,12 +150,18 @@ describe('a stored term export', () => {
     expect(readStoredExport(JSON.stringify({ format: 'term-export/2', files }))).toEqual({ files })
     expect(readStoredExport('\uFEFF"Course code"\r\n')).toEqual({ legacy: '\uFEFF"Course code"\r\n' })
     expect(readStoredExport('{not json')).toEqual({ legacy: '{not json' })
-    expect(readStoredExport(JSON.stringify({ format: 'other', files }))).toEqual({ legacy: JSON.stringify({ format: 'other', files }) })
+    expect(readStoredExport(JSON.stringify({ format: 'other', files }))).toEqual({
+      legacy: JSON.stringify({ format: 'other', files }),
+    })
   })
 
   test('file names: the stored base with the file’s name; an older export keeps its .csv', () => {
-    expect(termExportFileName('grades-fall-2026-2026-12-02', 'course-totals')).toBe('grades-fall-2026-2026-12-02-course-totals.csv')
-    expect(termExportFileName('grades-fall-2026-2026-12-02', 'assignments')).toBe('grades-fall-2026-2026-12-02-assignments.csv')
+    expect(termExportFileName('grades-fall-2026-2026-12-02', 'course-totals')).toBe(
+      'grades-fall-2026-2026-12-02-course-totals.csv',
+    )
+    expect(termExportFileName('grades-fall-2026-2026-12-02', 'assignments')).toBe(
+      'grades-fall-2026-2026-12-02-assignments.csv',
+    )
     expect(termExportFileName('grades-old-2026-11-01.csv', null)).toBe('grades-old-2026-11-01.csv')
     expect(termExportFileName('"; evil\r\nX: 1', 'assignments')).toBe('evil-x-1-assignments.csv')
   })

@@ -12,7 +12,11 @@ const MAX_MESSAGE_BYTES = 5 * 1024 * 1024
 
 export type FakeSmtp = { port: number; close: () => Promise<void> }
 
-export function startFakeSmtp(database: Db, port: number, log: (line: string) => void = console.log): Promise<FakeSmtp> {
+export function startFakeSmtp(
+  database: Db,
+  port: number,
+  log: (line: string) => void = console.log,
+): Promise<FakeSmtp> {
   const server = new SMTPServer({
     authOptional: true,
     disabledCommands: ['STARTTLS', 'AUTH'],

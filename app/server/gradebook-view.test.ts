@@ -13,7 +13,11 @@ const row = (name: string, familyName: string, givenName: string, email: string,
   late: false,
 })
 
-const rows = [row('Aino Abernethy', 'Abernethy', 'Aino', 'aino@example.test', 'KH260001'), row('Kofi Gathii', 'Gathii', 'Kofi', 'kofi@example.test', 'KH260042'), row('Lena Ibarra', 'Ibarra', 'Lena', 'lena@example.test', null)]
+const rows = [
+  row('Aino Abernethy', 'Abernethy', 'Aino', 'aino@example.test', 'KH260001'),
+  row('Kofi Gathii', 'Gathii', 'Kofi', 'kofi@example.test', 'KH260042'),
+  row('Lena Ibarra', 'Ibarra', 'Lena', 'lena@example.test', null),
+]
 
 test('the gradebook search finds a student by name, e-mail or student ID, in any case', () => {
   const names = (q: string) => applyGradebookView(rows, { ...DEFAULT_GRADEBOOK_VIEW, q }).map((r) => r.name)

@@ -17,13 +17,31 @@ import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm'
 import { z } from 'zod'
 import { attemptsAllowed, rulesOf, type StudentExtension } from '#app/domain/assignments/policy.ts'
 import { findShares, findState, roundScore } from '#app/domain/assignments/scoring.ts'
-import { groupWrongAnswers, groupWrongAnswersByMultiple, histogram, mean, median, type HistogramBin, type WrongAnswerGroup } from '#app/domain/assignments/statistics.ts'
+import {
+  groupWrongAnswers,
+  groupWrongAnswersByMultiple,
+  histogram,
+  mean,
+  median,
+  type HistogramBin,
+  type WrongAnswerGroup,
+} from '#app/domain/assignments/statistics.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { formatPoints } from '#app/lib/points.ts'
 import type { Db, Tx } from './db/client.server.ts'
-import { assignmentItems, assignments, courses, extensions, memberships, partResults, problemVersions, submissions, users } from './db/schema.server.ts'
+import {
+  assignmentItems,
+  assignments,
+  courses,
+  extensions,
+  memberships,
+  partResults,
+  problemVersions,
+  submissions,
+  users,
+} from './db/schema.server.ts'
 import { listAssignmentTotals, listFindScores, type FindScoreRow } from './grading.server.ts'
 import { textParamProblem, type ParamProblem } from '#app/lib/query-params.ts'
 
@@ -74,13 +92,26 @@ export function readGradebookView(url: URL): GradebookView {
 /** The whole gradebook, by name. */
 export const DEFAULT_GRADEBOOK_VIEW: GradebookView = { section: '', status: 'all', q: '', sort: 'name', dir: 'asc' }
 
-type ViewRow = { name: string; familyName: string; givenName: string; email: string; studentNumber?: string | null; section: string | null; total: number; status: StudentStatus; late: boolean }
+type ViewRow = {
+  name: string
+  familyName: string
+  givenName: string
+  email: string
+  studentNumber?: string | null
+  section: string | null
+  total: number
+  status: StudentStatus
+  late: boolean
+}
 
 // Sorted here rather than in SQL so the order does not depend on the database's collation.
 const collator = new Intl.Collator('en', { sensitivity: 'base', numeric: true })
 
 /** Family name, then given name, then the display name and e-mail (so the order is total). */
-export function compareStudents(a: Omit<StudentNames, 'studentNumber'> & { name: string; email: string }, b: Omit<StudentNames, 'studentNumber'> & { name: string; email: string }): number {
+export function compareStudents(
+  a: Omit<StudentNames, 'studentNumber'> & { name: string; email: string },
+  b: Omit<StudentNames, 'studentNumber'> & { name: string; email: string },
+): number {
   return (
     collator.compare(a.familyName, b.familyName) ||
     collator.compare(a.givenName, b.givenName) ||
@@ -121,7 +152,10 @@ type ItemFacts = {
   finds: { name: string; label: string; unit: string; share: number }[]
 }
 
-async function listItems(database: Database, assignmentIds: number[]): Promise<(ItemFacts & { assignmentId: number })[]> {
+async function listItems(
+  database: Database,
+  assignmentIds: number[],
+): Promise<(ItemFacts & { assignmentId: number })[]> {
   if (assignmentIds.length === 0) return []
   const rows = await database
     .select({
@@ -137,14 +171,22 @@ async function listItems(database: Database, assignmentIds: number[]): Promise<(
     .orderBy(asc(assignmentItems.assignmentId), asc(assignmentItems.position))
   return rows.map((r) => {
     const def = r.definition as ProblemDefinition
-    const shares = findShares(r.points, def.finds.map((f) => f.points))
+    const shares = findShares(
+      r.points,
+      def.finds.map((f) => f.points),
+    )
     return {
       id: r.id,
       assignmentId: r.assignmentId,
       position: r.position,
       title: def.title,
       points: r.points,
-      finds: def.finds.map((f, i) => ({ name: f.name, label: f.label, unit: f.unit, share: roundScore(shares[i] ?? 0) })),
+      finds: def.finds.map((f, i) => ({
+        name: f.name,
+        label: f.label,
+        unit: f.unit,
+        share: roundScore(shares[i] ?? 0),
+      })),
     }
   })
 }
@@ -159,12 +201,27 @@ export type StudentNames = {
 }
 
 /** The names a gradebook sorts and exports by, falling back to the display name. */
-export function studentNames(u: { name: string; studentNumber: string | null; familyName: string | null; givenName: string | null }): StudentNames {
+export function studentNames(u: {
+  name: string
+  studentNumber: string | null
+  familyName: string | null
+  givenName: string | null
+}): StudentNames {
   const family = u.familyName?.trim() ?? ''
-  return { studentNumber: u.studentNumber?.trim() || null, familyName: family || u.name, givenName: u.givenName?.trim() ?? '' }
+  return {
+    studentNumber: u.studentNumber?.trim() || null,
+    familyName: family || u.name,
+    givenName: u.givenName?.trim() ?? '',
+  }
 }
 
-export type DroppedStudent = StudentNames & { userId: number; name: string; email: string; section: string | null; droppedAt: string }
+export type DroppedStudent = StudentNames & {
+  userId: number
+  name: string
+  email: string
+  section: string | null
+  droppedAt: string
+}
 
 /** The course's current students in gradebook order, and its dropped students apart. */
 async function listStudents(database: Database, courseId: number) {
@@ -183,22 +240,37 @@ async function listStudents(database: Database, courseId: number) {
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(eq(memberships.courseId, courseId), eq(memberships.role, 'student')))
   const people = rows
-    .map((r) => ({ userId: r.userId, name: r.name, email: r.email, section: r.section, droppedAt: r.droppedAt, ...studentNames(r) }))
+    .map((r) => ({
+      userId: r.userId,
+      name: r.name,
+      email: r.email,
+      section: r.section,
+      droppedAt: r.droppedAt,
+      ...studentNames(r),
+    }))
     .sort((a, b) => compareStudents(a, b) || a.userId - b.userId)
   const current = people.filter((p) => p.droppedAt === null).map(({ droppedAt: _d, ...p }) => p)
-  const dropped: DroppedStudent[] = people.filter((p) => p.droppedAt !== null).map((p) => ({ ...p, droppedAt: p.droppedAt!.toISOString() }))
+  const dropped: DroppedStudent[] = people
+    .filter((p) => p.droppedAt !== null)
+    .map((p) => ({ ...p, droppedAt: p.droppedAt!.toISOString() }))
   return { current, dropped }
 }
 
 function sectionsOf(students: readonly { section: string | null }[]): string[] {
-  return [...new Set(students.map((s) => s.section).filter((s): s is string => s !== null))].sort((a, b) => a.localeCompare(b, 'en', { numeric: true }))
+  return [...new Set(students.map((s) => s.section).filter((s): s is string => s !== null))].sort((a, b) =>
+    a.localeCompare(b, 'en', { numeric: true }),
+  )
 }
 
 /**
  * One student's standing on one assignment: being graded while any answer waits; not started
  * with no answer; finished when every find is right or out of attempts; else in progress.
  */
-function studentStatus(items: readonly ItemFacts[], scores: ReadonlyMap<string, FindScoreRow>, allowed: number): StudentStatus {
+function studentStatus(
+  items: readonly ItemFacts[],
+  scores: ReadonlyMap<string, FindScoreRow>,
+  allowed: number,
+): StudentStatus {
   let answered = false
   let open = false
   let pending = false
@@ -207,7 +279,12 @@ function studentStatus(items: readonly ItemFacts[], scores: ReadonlyMap<string, 
       const row = scores.get(`${item.id}|${f.name}`)
       if (row) answered = true
       if (row && row.pending > 0) pending = true
-      const state = findState({ attemptsUsed: row?.attempts ?? 0, attemptsAllowed: allowed, anyCorrect: row?.correct ?? false, anyPending: (row?.pending ?? 0) > 0 })
+      const state = findState({
+        attemptsUsed: row?.attempts ?? 0,
+        attemptsAllowed: allowed,
+        anyCorrect: row?.correct ?? false,
+        anyPending: (row?.pending ?? 0) > 0,
+      })
       if (state !== 'correct' && state !== 'out-of-attempts') open = true
     }
   if (pending) return 'being-graded'
@@ -232,14 +309,23 @@ async function findAssignment(database: Database, assignmentId: number, courseId
     .select({ assignment: assignments, timeZone: courses.timeZone })
     .from(assignments)
     .innerJoin(courses, eq(courses.id, assignments.courseId))
-    .where(and(eq(assignments.id, assignmentId), courseId === undefined ? undefined : eq(assignments.courseId, courseId)))
+    .where(
+      and(eq(assignments.id, assignmentId), courseId === undefined ? undefined : eq(assignments.courseId, courseId)),
+    )
     .limit(1)
   return row ?? null
 }
 
 // ---- Assignment gradebook ----------------------------------------------------------------
 
-export type GradebookFind = { name: string; score: number; max: number; attempts: number; correct: boolean; pending: number }
+export type GradebookFind = {
+  name: string
+  score: number
+  max: number
+  attempts: number
+  correct: boolean
+  pending: number
+}
 export type GradebookStudent = StudentNames & {
   userId: number
   name: string
@@ -311,9 +397,21 @@ export async function getAssignmentGradebook(
     const perItem = items.map((item) => {
       const finds = item.finds.map((f) => {
         const r = mine.get(`${item.id}|${f.name}`)
-        return { name: f.name, score: r?.score ?? 0, max: f.share, attempts: r?.attempts ?? 0, correct: r?.correct ?? false, pending: r?.pending ?? 0 }
+        return {
+          name: f.name,
+          score: r?.score ?? 0,
+          max: f.share,
+          attempts: r?.attempts ?? 0,
+          correct: r?.correct ?? false,
+          pending: r?.pending ?? 0,
+        }
       })
-      return { position: item.position, score: roundScore(finds.reduce((a, f) => a + f.score, 0)), max: item.points, finds }
+      return {
+        position: item.position,
+        score: roundScore(finds.reduce((a, f) => a + f.score, 0)),
+        max: item.points,
+        finds,
+      }
     })
     return {
       ...s,
@@ -366,7 +464,13 @@ export function assignmentStage(a: { opensAt: Date; dueAt: Date }, now: Date): A
  * The rule, in one sentence, as the page shows it above the table and the exports carry it:
  * which assignments the total counts, as of when.
  */
-export function countingRule(input: { counted: number; of: number; points: number; asOf: Date; timeZone: string }): string {
+export function countingRule(input: {
+  counted: number
+  of: number
+  points: number
+  asOf: Date
+  timeZone: string
+}): string {
   const when = formatInZone(input.asOf, input.timeZone)
   const which =
     input.of === 0
@@ -404,7 +508,15 @@ export type CourseGradebookStudent = StudentNames & {
 }
 export type CourseGradebook = {
   course: { id: number; timeZone: string }
-  assignments: { id: number; title: string; opensAt: string; dueAt: string; points: number; stage: AssignmentStage; counted: boolean }[]
+  assignments: {
+    id: number
+    title: string
+    opensAt: string
+    dueAt: string
+    points: number
+    stage: AssignmentStage
+    counted: boolean
+  }[]
   /** the most a student can earn over the counted assignments (what the total is out of) */
   points: number
   /** the most a student can earn over every assignment, counted or not */
@@ -441,9 +553,17 @@ export async function getCourseGradebook(
   options: { now?: Date } = {},
 ): Promise<CourseGradebook | null> {
   const now = options.now ?? new Date()
-  const [course] = await database.select({ id: courses.id, timeZone: courses.timeZone }).from(courses).where(eq(courses.id, courseId)).limit(1)
+  const [course] = await database
+    .select({ id: courses.id, timeZone: courses.timeZone })
+    .from(courses)
+    .where(eq(courses.id, courseId))
+    .limit(1)
   if (!course) return null
-  const assignmentRows = await database.select().from(assignments).where(eq(assignments.courseId, courseId)).orderBy(asc(assignments.dueAt), asc(assignments.id))
+  const assignmentRows = await database
+    .select()
+    .from(assignments)
+    .where(eq(assignments.courseId, courseId))
+    .orderBy(asc(assignments.dueAt), asc(assignments.id))
   const ids = assignmentRows.map((a) => a.id)
   const [items, { current: students, dropped }, scores, totals, exts] = await Promise.all([
     listItems(database, ids),
@@ -451,7 +571,15 @@ export async function getCourseGradebook(
     listFindScores(database, { assignmentIds: ids }),
     listAssignmentTotals(database, { courseIds: [courseId] }),
     ids.length
-      ? database.select({ assignmentId: extensions.assignmentId, userId: extensions.userId, dueAt: extensions.dueAt, extraAttempts: extensions.extraAttempts }).from(extensions).where(inArray(extensions.assignmentId, ids))
+      ? database
+          .select({
+            assignmentId: extensions.assignmentId,
+            userId: extensions.userId,
+            dueAt: extensions.dueAt,
+            extraAttempts: extensions.extraAttempts,
+          })
+          .from(extensions)
+          .where(inArray(extensions.assignmentId, ids))
       : Promise.resolve([]),
   ])
   const byStudent = indexScores(scores)
@@ -504,7 +632,13 @@ export async function getCourseGradebook(
     points: coursePoints,
     allPoints,
     asOf: now.toISOString(),
-    rule: countingRule({ counted: countedIds.size, of: ids.length, points: coursePoints, asOf: now, timeZone: course.timeZone }),
+    rule: countingRule({
+      counted: countedIds.size,
+      of: ids.length,
+      points: coursePoints,
+      asOf: now,
+      timeZone: course.timeZone,
+    }),
     sections: sectionsOf(students),
     studentCount: students.length,
     students: applyGradebookView(rows, view),
@@ -561,9 +695,17 @@ export async function getFindAnswers(
   const items = await listItems(database, [input.assignmentId])
   const item = items.find((i) => i.position === input.position)
   if (!item) return null
-  const find = input.findName === undefined || input.findName === '' ? (item.finds[0] ?? null) : (item.finds.find((f) => f.name === input.findName) ?? null)
+  const find =
+    input.findName === undefined || input.findName === ''
+      ? (item.finds[0] ?? null)
+      : (item.finds.find((f) => f.name === input.findName) ?? null)
   const base = {
-    assignment: { id: found.assignment.id, courseId: found.assignment.courseId, title: found.assignment.title, timeZone: found.timeZone },
+    assignment: {
+      id: found.assignment.id,
+      courseId: found.assignment.courseId,
+      title: found.assignment.title,
+      timeZone: found.timeZone,
+    },
     item: { position: item.position, title: item.title, points: item.points },
     finds: item.finds,
     find,
@@ -592,7 +734,10 @@ export async function getFindAnswers(
     .from(partResults)
     .innerJoin(submissions, eq(submissions.id, partResults.submissionId))
     .innerJoin(users, eq(users.id, partResults.userId))
-    .leftJoin(memberships, and(eq(memberships.userId, partResults.userId), eq(memberships.courseId, found.assignment.courseId)))
+    .leftJoin(
+      memberships,
+      and(eq(memberships.userId, partResults.userId), eq(memberships.courseId, found.assignment.courseId)),
+    )
     .where(and(eq(partResults.itemId, item.id), eq(partResults.findName, find.name)))
     .orderBy(asc(users.name), asc(users.email), asc(partResults.userId), asc(partResults.attempt))
   return {
@@ -638,7 +783,12 @@ export type AssignmentStatistics = {
 }
 
 function summarise(shares: number[]): ScoreSummary {
-  return { count: shares.length, mean: mean(shares), median: median(shares), histogram: histogram(shares, HISTOGRAM_BINS, [0, 1]) }
+  return {
+    count: shares.length,
+    mean: mean(shares),
+    median: median(shares),
+    histogram: histogram(shares, HISTOGRAM_BINS, [0, 1]),
+  }
 }
 
 /**
@@ -647,7 +797,9 @@ function summarise(shares: number[]): ScoreSummary {
  * share right at the first attempt; and the most common wrong answers (statistics.ts says how
  * they are grouped). Answers still waiting for the grader are not counted yet.
  */
-type NamedGroup = Omit<WrongAnswerGroup, 'pitfall'> & { pitfall: { id: string; title: string; feedback: string; count: number } | null }
+type NamedGroup = Omit<WrongAnswerGroup, 'pitfall'> & {
+  pitfall: { id: string; title: string; feedback: string; count: number } | null
+}
 
 /** The student's key in the find's unit, from the checker's detail (answer − key). */
 function expectedOf(value: number | null, detail: unknown): number | null {
@@ -655,7 +807,11 @@ function expectedOf(value: number | null, detail: unknown): number | null {
   return value !== null && typeof difference === 'number' && Number.isFinite(difference) ? value - difference : null
 }
 
-export async function getAssignmentStatistics(database: Database, assignmentId: number, courseId?: number): Promise<AssignmentStatistics | null> {
+export async function getAssignmentStatistics(
+  database: Database,
+  assignmentId: number,
+  courseId?: number,
+): Promise<AssignmentStatistics | null> {
   const found = await findAssignment(database, assignmentId, courseId)
   if (!found) return null
   const [items, graded] = await Promise.all([
@@ -695,9 +851,14 @@ export async function getAssignmentStatistics(database: Database, assignmentId: 
       }
       for (const [userId, s] of best) itemBest.set(userId, (itemBest.get(userId) ?? 0) + s)
       const shares = f.share > 0 ? [...best.values()].map((s) => Math.min(1, s / f.share)) : []
-      const incorrect = rows.filter((r) => r.verdict === 'incorrect').map((r) => ({ ...r, expected: expectedOf(r.value, r.detail) }))
+      const incorrect = rows
+        .filter((r) => r.verdict === 'incorrect')
+        .map((r) => ({ ...r, expected: expectedOf(r.value, r.detail) }))
       const wrong = groupWrongAnswers(incorrect)
-      const named = (g: WrongAnswerGroup): NamedGroup => ({ ...g, pitfall: g.pitfall ? { ...g.pitfall, title: pitfallTitle(g.pitfall.id) } : null })
+      const named = (g: WrongAnswerGroup): NamedGroup => ({
+        ...g,
+        pitfall: g.pitfall ? { ...g.pitfall, title: pitfallTitle(g.pitfall.id) } : null,
+      })
       return {
         ...f,
         summary: summarise(shares),

@@ -98,7 +98,10 @@ const DEFINITION_CACHE_LIMIT = 500
 const definitionCache = new Map<number, ProblemDefinition>()
 
 /** The definitions of these versions in one query; frozen ones come from (and go to) the per-process cache. */
-export async function frozenDefinitions(database: Database, versionIds: readonly number[]): Promise<Map<number, ProblemDefinition>> {
+export async function frozenDefinitions(
+  database: Database,
+  versionIds: readonly number[],
+): Promise<Map<number, ProblemDefinition>> {
   const out = new Map<number, ProblemDefinition>()
   const missing: number[] = []
   for (const id of new Set(versionIds)) {
@@ -140,15 +143,23 @@ export async function gradeSubmission(database: Db, submissionId: number): Promi
  * is skipped (SKIP LOCKED) and reported 'busy', for its job to be retried (that transaction
  * may still roll back). Returns each id's outcome.
  */
-export async function gradeSubmissions(database: Db, submissionIds: readonly number[]): Promise<Map<number, GradeOutcome>> {
+export async function gradeSubmissions(
+  database: Db,
+  submissionIds: readonly number[],
+): Promise<Map<number, GradeOutcome>> {
   const ids = [...new Set(submissionIds)]
   const outcomes = new Map<number, GradeOutcome>(ids.map((id) => [id, 'missing']))
   if (ids.length === 0) return outcomes
   return database.transaction(async (tx) => {
-    const idList = sql.join(ids.map((id) => sql`${id}`), sql`, `)
+    const idList = sql.join(
+      ids.map((id) => sql`${id}`),
+      sql`, `,
+    )
     // The items first (shared): a regrade moving an item to another version holds it
     // exclusively, so a grade is never computed from a version the regrade has replaced.
-    await tx.execute(sql`select 1 from ${assignmentItems} where id in (select item_id from ${submissions} where id in (${idList})) order by id for share`)
+    await tx.execute(
+      sql`select 1 from ${assignmentItems} where id in (select item_id from ${submissions} where id in (${idList})) order by id for share`,
+    )
     const rows = await tx
       .select({
         id: submissions.id,
@@ -181,22 +192,55 @@ export async function gradeSubmissions(database: Db, submissionIds: readonly num
     const queued = rows.filter((r) => r.status === 'queued')
     if (queued.length === 0) return outcomes
 
-    const definitions = await frozenDefinitions(tx, queued.map((r) => r.versionId))
+    const definitions = await frozenDefinitions(
+      tx,
+      queued.map((r) => r.versionId),
+    )
     const parts = await tx
-      .select({ id: partResults.id, submissionId: partResults.submissionId, findName: partResults.findName, answer: partResults.answer })
+      .select({
+        id: partResults.id,
+        submissionId: partResults.submissionId,
+        findName: partResults.findName,
+        answer: partResults.answer,
+      })
       .from(partResults)
-      .where(and(inArray(partResults.submissionId, queued.map((r) => r.id)), isNull(partResults.verdict)))
+      .where(
+        and(
+          inArray(
+            partResults.submissionId,
+            queued.map((r) => r.id),
+          ),
+          isNull(partResults.verdict),
+        ),
+      )
     const partsOf = new Map<number, typeof parts>()
     for (const p of parts) partsOf.set(p.submissionId, [...(partsOf.get(p.submissionId) ?? []), p])
 
-    type Graded = { id: number; verdict: string; value: number | null; score: number; message: string; pitfallId: string | null; pitfallFeedback: string | null; detail: unknown; versionId: number }
+    type Graded = {
+      id: number
+      verdict: string
+      value: number | null
+      score: number
+      message: string
+      pitfallId: string | null
+      pitfallFeedback: string | null
+      detail: unknown
+      versionId: number
+    }
     const graded: Graded[] = []
     const done: number[] = []
     const failed: { id: number; error: string }[] = []
     for (const row of queued) {
       const definition = definitions.get(row.versionId)
       const drawn = definition
-        ? studentVariant({ versionId: row.versionId, definition, assignmentId: row.assignmentId, problemId: row.problemId, userId: row.userId, courseConvention: row.convention })
+        ? studentVariant({
+            versionId: row.versionId,
+            definition,
+            assignmentId: row.assignmentId,
+            problemId: row.problemId,
+            userId: row.userId,
+            courseConvention: row.convention,
+          })
         : null
       if (!definition || !drawn || !drawn.ok) {
         const why = drawn && !drawn.ok ? drawn.error.message : 'its problem version is missing'
@@ -204,16 +248,36 @@ export async function gradeSubmissions(database: Db, submissionIds: readonly num
         outcomes.set(row.id, 'failed')
         continue
       }
-      const shares = findShares(row.itemPoints, definition.finds.map((f) => f.points))
+      const shares = findShares(
+        row.itemPoints,
+        definition.finds.map((f) => f.points),
+      )
       const overrides = row.toleranceOverrides as Record<string, Tolerance>
       for (const p of partsOf.get(row.id) ?? []) {
         const index = definition.finds.findIndex((f) => f.name === p.findName)
         const find = definition.finds[index]
         if (!find) {
-          graded.push({ id: p.id, verdict: 'incorrect', value: null, score: 0, message: 'This question is no longer part of the problem.', pitfallId: null, pitfallFeedback: null, detail: null, versionId: row.versionId })
+          graded.push({
+            id: p.id,
+            verdict: 'incorrect',
+            value: null,
+            score: 0,
+            message: 'This question is no longer part of the problem.',
+            pitfallId: null,
+            pitfallFeedback: null,
+            detail: null,
+            versionId: row.versionId,
+          })
           continue
         }
-        const g = gradeAnswer({ find, variant: drawn.variant, answer: p.answer, tolerance: overrides[find.name], share: shares[index] ?? 0, latePenalty: row.latePenalty })
+        const g = gradeAnswer({
+          find,
+          variant: drawn.variant,
+          answer: p.answer,
+          tolerance: overrides[find.name],
+          share: shares[index] ?? 0,
+          latePenalty: row.latePenalty,
+        })
         graded.push({
           id: p.id,
           verdict: g.verdict,
@@ -247,10 +311,16 @@ export async function gradeSubmissions(database: Db, submissionIds: readonly num
         where p.id = v.id`)
     }
     if (done.length > 0) {
-      await tx.update(submissions).set({ status: 'graded', gradedAt: sql`clock_timestamp()`, error: null }).where(inArray(submissions.id, done))
+      await tx
+        .update(submissions)
+        .set({ status: 'graded', gradedAt: sql`clock_timestamp()`, error: null })
+        .where(inArray(submissions.id, done))
     }
     for (const f of failed) {
-      await tx.update(submissions).set({ status: 'failed', gradedAt: sql`clock_timestamp()`, error: f.error }).where(eq(submissions.id, f.id))
+      await tx
+        .update(submissions)
+        .set({ status: 'failed', gradedAt: sql`clock_timestamp()`, error: f.error })
+        .where(eq(submissions.id, f.id))
     }
     return outcomes
   })
@@ -276,7 +346,10 @@ export type FindScoreRow = {
  * The best score of each (student, find) with an answer, for the given assignments and
  * optionally one student. Finds never answered have no row (they score 0).
  */
-export async function listFindScores(database: Database, filter: { assignmentIds: number[]; userId?: number }): Promise<FindScoreRow[]> {
+export async function listFindScores(
+  database: Database,
+  filter: { assignmentIds: number[]; userId?: number },
+): Promise<FindScoreRow[]> {
   if (filter.assignmentIds.length === 0) return []
   const rows = await database
     .select({
@@ -294,9 +367,19 @@ export async function listFindScores(database: Database, filter: { assignmentIds
     })
     .from(partResults)
     .innerJoin(submissions, eq(submissions.id, partResults.submissionId))
-    .where(and(inArray(partResults.assignmentId, filter.assignmentIds), filter.userId === undefined ? undefined : eq(partResults.userId, filter.userId)))
+    .where(
+      and(
+        inArray(partResults.assignmentId, filter.assignmentIds),
+        filter.userId === undefined ? undefined : eq(partResults.userId, filter.userId),
+      ),
+    )
     .groupBy(partResults.assignmentId, partResults.itemId, partResults.userId, partResults.findName)
-  return rows.map((r) => ({ ...r, correct: r.correct === true, late: r.late === true, firstCorrect: r.firstCorrect === true }))
+  return rows.map((r) => ({
+    ...r,
+    correct: r.correct === true,
+    late: r.late === true,
+    firstCorrect: r.firstCorrect === true,
+  }))
 }
 
 export type AssignmentTotalRow = {
@@ -317,10 +400,21 @@ export type AssignmentTotalRow = {
  * Each student's total on each assignment of the given courses (students with no answer to
  * an assignment get a row with score 0). Students are the courses' current student members.
  */
-export async function listAssignmentTotals(database: Database, filter: { courseIds: number[]; assignmentIds?: number[] }): Promise<AssignmentTotalRow[]> {
+export async function listAssignmentTotals(
+  database: Database,
+  filter: { courseIds: number[]; assignmentIds?: number[] },
+): Promise<AssignmentTotalRow[]> {
   if (filter.courseIds.length === 0) return []
-  const courseList = sql.join(filter.courseIds.map((id) => sql`${id}`), sql`, `)
-  const assignmentFilter = filter.assignmentIds ? sql`and a.id in (${sql.join([0, ...filter.assignmentIds].map((id) => sql`${id}`), sql`, `)})` : sql``
+  const courseList = sql.join(
+    filter.courseIds.map((id) => sql`${id}`),
+    sql`, `,
+  )
+  const assignmentFilter = filter.assignmentIds
+    ? sql`and a.id in (${sql.join(
+        [0, ...filter.assignmentIds].map((id) => sql`${id}`),
+        sql`, `,
+      )})`
+    : sql``
   const result = await database.execute<{
     course_id: number
     assignment_id: number

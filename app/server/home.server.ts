@@ -12,7 +12,15 @@ import { formatInZone } from '#app/lib/dates.ts'
 import { formatScore } from '#app/lib/points.ts'
 import { listAssignmentsForCourse } from './assignments.server.ts'
 import type { Db, Tx } from './db/client.server.ts'
-import { accessTokens, assignments, disputes, memberships, problems, problemSweeps, problemVersions } from './db/schema.server.ts'
+import {
+  accessTokens,
+  assignments,
+  disputes,
+  memberships,
+  problems,
+  problemSweeps,
+  problemVersions,
+} from './db/schema.server.ts'
 import type { SignedInUser } from './users.server.ts'
 
 type Database = Db | Tx
@@ -29,7 +37,15 @@ export type DueRow = {
   dueAt: string
 }
 
-export type StudentCourseHome = { courseId: number; code: string; title: string; timeZone: string; due: DueRow[]; opening: { title: string; opensText: string }[]; dropped: boolean }
+export type StudentCourseHome = {
+  courseId: number
+  code: string
+  title: string
+  timeZone: string
+  due: DueRow[]
+  opening: { title: string; opensText: string }[]
+  dropped: boolean
+}
 export type StaffCourseHome = {
   courseId: number
   code: string
@@ -58,7 +74,13 @@ export function durationText(ms: number): string {
   return mins > 0 ? unit(mins, 'minute') : 'less than a minute'
 }
 
-async function studentCourse(database: Database, user: SignedInUser, c: SignedInUser['courses'][number], dropped: boolean, now: Date): Promise<StudentCourseHome> {
+async function studentCourse(
+  database: Database,
+  user: SignedInUser,
+  c: SignedInUser['courses'][number],
+  dropped: boolean,
+  now: Date,
+): Promise<StudentCourseHome> {
   const base = { courseId: c.id, code: c.code, title: c.title, timeZone: c.timeZone, dropped }
   if (dropped) return { ...base, due: [], opening: [] }
   const list = await listAssignmentsForCourse(database, { courseId: c.id, role: 'student', userId: user.id, now })
@@ -72,7 +94,9 @@ async function studentCourse(database: Database, user: SignedInUser, c: SignedIn
       title: a.title,
       href: `/courses/${c.id}/assignments/${a.id}`,
       dueText: formatInZone(a.dueAt, c.timeZone),
-      timeLeft: late ? `late: accepted for ${durationText(w.until.getTime() - now.getTime())} more, with a penalty` : `${durationText(a.dueAt.getTime() - now.getTime())} left`,
+      timeLeft: late
+        ? `late: accepted for ${durationText(w.until.getTime() - now.getTime())} more, with a penalty`
+        : `${durationText(a.dueAt.getTime() - now.getTime())} left`,
       late,
       progress: `${formatScore(a.mine!.score, a.maxScore)} points so far${a.mine!.pending > 0 ? ' (some answers are being graded)' : ''}`,
       dueAt: a.dueAt.toISOString(),
@@ -85,7 +109,11 @@ async function studentCourse(database: Database, user: SignedInUser, c: SignedIn
     .where(and(eq(assignments.courseId, c.id), gt(assignments.opensAt, now)))
     .orderBy(asc(assignments.opensAt))
     .limit(3)
-  return { ...base, due, opening: upcoming.map((u) => ({ title: u.title, opensText: formatInZone(u.opensAt, c.timeZone) })) }
+  return {
+    ...base,
+    due,
+    opening: upcoming.map((u) => ({ title: u.title, opensText: formatInZone(u.opensAt, c.timeZone) })),
+  }
 }
 
 export async function getHomeData(database: Database, user: SignedInUser, now = new Date()): Promise<HomeData> {
@@ -99,11 +127,16 @@ export async function getHomeData(database: Database, user: SignedInUser, now = 
   const droppedIn = new Set(droppedRows.filter((r) => r.droppedAt !== null).map((r) => r.courseId))
 
   const student: StudentCourseHome[] = []
-  for (const c of user.courses.filter((x) => x.role === 'student')) student.push(await studentCourse(database, user, c, droppedIn.has(c.id), now))
+  for (const c of user.courses.filter((x) => x.role === 'student'))
+    student.push(await studentCourse(database, user, c, droppedIn.has(c.id), now))
   // The course with the next due date first; courses with nothing due after.
-  student.sort((a, b) => (a.due[0]?.dueAt ?? '9999').localeCompare(b.due[0]?.dueAt ?? '9999') || a.code.localeCompare(b.code))
+  student.sort(
+    (a, b) => (a.due[0]?.dueAt ?? '9999').localeCompare(b.due[0]?.dueAt ?? '9999') || a.code.localeCompare(b.code),
+  )
 
-  const staffCourses = user.courses.filter((c): c is typeof c & { role: 'ta' | 'instructor' } => c.role === 'ta' || c.role === 'instructor')
+  const staffCourses = user.courses.filter(
+    (c): c is typeof c & { role: 'ta' | 'instructor' } => c.role === 'ta' || c.role === 'instructor',
+  )
   const staff: StaffCourseHome[] = []
   for (const c of staffCourses) {
     const [open] = await database
@@ -117,9 +150,20 @@ export async function getHomeData(database: Database, user: SignedInUser, now = 
       const rows = await database
         .select({ id: assignments.id, title: assignments.title, dueAt: assignments.dueAt })
         .from(assignments)
-        .where(and(eq(assignments.courseId, c.id), isNull(assignments.gradesReleasedAt), sql`${assignments.dueAt} < ${now.toISOString()}`))
+        .where(
+          and(
+            eq(assignments.courseId, c.id),
+            isNull(assignments.gradesReleasedAt),
+            sql`${assignments.dueAt} < ${now.toISOString()}`,
+          ),
+        )
         .orderBy(asc(assignments.dueAt))
-      unreleased = rows.map((r) => ({ assignmentId: r.id, title: r.title, href: `/courses/${c.id}/assignments/${r.id}`, dueText: formatInZone(r.dueAt, c.timeZone) }))
+      unreleased = rows.map((r) => ({
+        assignmentId: r.id,
+        title: r.title,
+        href: `/courses/${c.id}/assignments/${r.id}`,
+        dueText: formatInZone(r.dueAt, c.timeZone),
+      }))
       const [inv] = await database
         .select({ n: sql<number>`count(*)::int` })
         .from(accessTokens)
@@ -150,7 +194,13 @@ export async function getHomeData(database: Database, user: SignedInUser, now = 
   // Checks of the instructor's own bank problems: the latest check of each problem's newest version, when it found failures.
   let failedChecks: FailedCheck[] = []
   if (staffCourses.some((c) => c.role === 'instructor') || user.isAdmin) {
-    const r = await database.execute<{ problem_id: number; title: string; failed: number; total: number; status: string }>(sql`
+    const r = await database.execute<{
+      problem_id: number
+      title: string
+      failed: number
+      total: number
+      status: string
+    }>(sql`
       select distinct on (p.id) p.id as problem_id, p.title, s.failed, s.total, s.status
       from ${problems} p
       join ${problemVersions} v on v.problem_id = p.id
@@ -160,7 +210,13 @@ export async function getHomeData(database: Database, user: SignedInUser, now = 
       order by p.id, s.id desc`)
     failedChecks = r.rows
       .filter((x) => x.status === 'failed' || (x.status === 'done' && Number(x.failed) > 0))
-      .map((x) => ({ problemId: Number(x.problem_id), title: x.title, failed: Number(x.failed), total: Number(x.total), status: x.status }))
+      .map((x) => ({
+        problemId: Number(x.problem_id),
+        title: x.title,
+        failed: Number(x.failed),
+        total: Number(x.total),
+        status: x.status,
+      }))
   }
   return { student, staff, failedChecks }
 }

@@ -58,7 +58,11 @@ export function previewProblem(raw: unknown, options: PreviewOptions = {}): Prev
       }
     } catch (e) {
       console.error('preview failed for seed', seed, e)
-      return { seed, ok: false, error: { code: 'invalid-definition', message: 'This variant could not be previewed; please report this.' } }
+      return {
+        seed,
+        ok: false,
+        error: { code: 'invalid-definition', message: 'This variant could not be previewed; please report this.' },
+      }
     }
   })
   return { issues, variants }

@@ -33,7 +33,11 @@ const VisibilitySchema = z.enum(VISIBILITIES)
 const PreviewConventionSchema = z.enum(['chemistry', 'engineering']).catch('engineering')
 
 export type EditorAnswer = { state: EditorState; issues: FormIssue[]; preview: PreviewResult | null; nonce: string }
-export type SavableProblem = { definition: ProblemDefinition; visibility: z.infer<typeof VisibilitySchema>; basedOn?: string }
+export type SavableProblem = {
+  definition: ProblemDefinition
+  visibility: z.infer<typeof VisibilitySchema>
+  basedOn?: string
+}
 
 export function editorOptions() {
   return buildEditorOptions(Object.values(templates), RANKINE_TEMPLATES, PITFALLS)
@@ -53,7 +57,13 @@ export async function runEditorAction(form: FormData, save: (problem: SavablePro
   const removal = readRemoveIntent(form.get('intent'))
   if (removal) return answer(editorStateWithout(form, removal.table, removal.index))
   const intent = IntentSchema.safeParse(form.get('intent'))
-  if (!intent.success) return data(answer(editorStateFromForm(form), [{ path: 'title', message: 'Use one of the buttons at the bottom of the form.' }]), { status: 400 })
+  if (!intent.success)
+    return data(
+      answer(editorStateFromForm(form), [
+        { path: 'title', message: 'Use one of the buttons at the bottom of the form.' },
+      ]),
+      { status: 400 },
+    )
   switch (intent.data) {
     case 'add-given':
       return answer(editorStateFromForm(form, 'givens'))
@@ -68,7 +78,9 @@ export async function runEditorAction(form: FormData, save: (problem: SavablePro
     }
     case 'preview': {
       const { draft, formIssues } = definitionFromForm(form)
-      const result = previewProblem(draft, { convention: PreviewConventionSchema.parse(form.get('_previewConvention')) })
+      const result = previewProblem(draft, {
+        convention: PreviewConventionSchema.parse(form.get('_previewConvention')),
+      })
       return answer(editorStateFromForm(form), [], { ...result, issues: mergeIssues(formIssues, result.issues) })
     }
     case 'save': {
@@ -83,7 +95,10 @@ export async function runEditorAction(form: FormData, save: (problem: SavablePro
           // Keep everything typed, and take the newer save as the base: saving again replaces it on purpose.
           const state = editorStateFromForm(form)
           const message = `Someone saved this problem after you opened it (at ${e.savedAt.slice(11, 16)} UTC, perhaps in another tab). Your changes are still here; open the problem in a new tab to compare, then save again to replace that version.`
-          return data(answer({ ...state, values: { ...state.values, _basedOn: e.savedAt } }, [{ path: '_basedOn', message }]), { status: 409 })
+          return data(
+            answer({ ...state, values: { ...state.values, _basedOn: e.savedAt } }, [{ path: '_basedOn', message }]),
+            { status: 409 },
+          )
         }
         if (!(e instanceof InvalidDefinitionError)) throw e
         return data(answer(editorStateFromForm(form), [{ path: 'title', message: e.message }]), { status: 400 })
@@ -97,7 +112,9 @@ export async function runEditorAction(form: FormData, save: (problem: SavablePro
 function checkForSave(form: FormData): { ok: true; value: SavableProblem } | { ok: false; issues: FormIssue[] } {
   const { draft, visibility, formIssues } = definitionFromForm(form)
   const vis = VisibilitySchema.safeParse(visibility)
-  const own = vis.success ? formIssues : [...formIssues, { path: 'visibility', message: 'Choose who can use the problem.' }]
+  const own = vis.success
+    ? formIssues
+    : [...formIssues, { path: 'visibility', message: 'Choose who can use the problem.' }]
   const parsed = parseDefinition(draft)
   if (!parsed.ok) return { ok: false, issues: mergeIssues(own, parsed.issues) }
   if (own.length > 0 || !vis.success) return { ok: false, issues: own }
@@ -106,9 +123,21 @@ function checkForSave(form: FormData): { ok: true; value: SavableProblem } | { o
     lint = lintDefinition(parsed.value)
   } catch (e) {
     console.error('lintDefinition failed', e)
-    lint = [{ path: 'physics.template', message: 'The problem could not be checked just now; please try again, and report it if it persists.' }]
+    lint = [
+      {
+        path: 'physics.template',
+        message: 'The problem could not be checked just now; please try again, and report it if it persists.',
+      },
+    ]
   }
   if (lint.length > 0) return { ok: false, issues: lint }
   const basedOn = form.get('_basedOn')
-  return { ok: true, value: { definition: parsed.value, visibility: vis.data, ...(typeof basedOn === 'string' && basedOn !== '' ? { basedOn } : {}) } }
+  return {
+    ok: true,
+    value: {
+      definition: parsed.value,
+      visibility: vis.data,
+      ...(typeof basedOn === 'string' && basedOn !== '' ? { basedOn } : {}),
+    },
+  }
 }

@@ -10,7 +10,13 @@
 import { and, asc, desc, eq, ilike, inArray, isNotNull, isNull, ne, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/pg-core'
 import { z } from 'zod'
-import { cycleOf, DIFFICULTIES, LEVELS, type ProblemDefinition, upgradeDefinition } from '#app/domain/authoring/definition.ts'
+import {
+  cycleOf,
+  DIFFICULTIES,
+  LEVELS,
+  type ProblemDefinition,
+  upgradeDefinition,
+} from '#app/domain/authoring/definition.ts'
 import { canEditProblem, canSeeProblem } from '#app/domain/permissions.ts'
 import {
   BANK_FORMAT_ID,
@@ -41,7 +47,9 @@ export class ProblemAccessError extends Error {
 /** A definition that fails the schema reached the server: the route should have checked it. */
 export class InvalidDefinitionError extends Error {
   constructor(readonly issues: { path: string; message: string }[]) {
-    super(`The problem definition is not valid: ${issues.map((i) => `${i.path || '(whole)'}: ${i.message}`).join('; ')}`)
+    super(
+      `The problem definition is not valid: ${issues.map((i) => `${i.path || '(whole)'}: ${i.message}`).join('; ')}`,
+    )
     this.name = 'InvalidDefinitionError'
   }
 }
@@ -65,14 +73,21 @@ export class BankExportError extends Error {
 }
 
 export async function bankViewerFor(database: Database, user: SignedInUser): Promise<BankViewer> {
-  const [row] = await database.select({ departmentId: users.departmentId }).from(users).where(eq(users.id, user.id)).limit(1)
+  const [row] = await database
+    .select({ departmentId: users.departmentId })
+    .from(users)
+    .where(eq(users.id, user.id))
+    .limit(1)
   return { id: user.id, isAdmin: user.isAdmin, departmentId: row?.departmentId ?? null }
 }
 
 /** The visibility rule of canSeeProblem, as SQL over the problems table. */
 function visibleTo(viewer: BankViewer): SQL | undefined {
   if (viewer.isAdmin) return undefined
-  const department = viewer.departmentId === null ? undefined : and(eq(problems.visibility, 'department'), eq(problems.departmentId, viewer.departmentId))
+  const department =
+    viewer.departmentId === null
+      ? undefined
+      : and(eq(problems.visibility, 'department'), eq(problems.departmentId, viewer.departmentId))
   return or(eq(problems.ownerId, viewer.id), eq(problems.visibility, 'installation'), department)
 }
 
@@ -119,10 +134,16 @@ export type BankQuery = z.output<typeof BankQuerySchema>
  * characters (PostgreSQL refuses a NUL), are refused so the caller can answer 400. On a refused
  * search, `query.q` is the text as typed without its NUL characters, to show back in the box.
  */
-export function readBankSearch(search: URLSearchParams): { ok: true; query: BankQuery } | { ok: false; query: BankQuery; problem: ParamProblem } {
+export function readBankSearch(
+  search: URLSearchParams,
+): { ok: true; query: BankQuery } | { ok: false; query: BankQuery; problem: ParamProblem } {
   const page = readPageParam(search)
   const q = readTextParam(search, 'q', 'the search')
-  const query = BankQuerySchema.parse({ ...Object.fromEntries(search), page: page.ok ? String(page.page) : '1', q: q.ok ? q.value : '' })
+  const query = BankQuerySchema.parse({
+    ...Object.fromEntries(search),
+    page: page.ok ? String(page.page) : '1',
+    q: q.ok ? q.value : '',
+  })
   if (!page.ok) return { ok: false, query, problem: page.problem }
   if (!q.ok) return { ok: false, query: { ...query, q: q.value.trim().slice(0, 200) }, problem: q.problem }
   return { ok: true, query }
@@ -154,7 +175,10 @@ export async function listBankProblems(
   query: BankQuery,
 ): Promise<{ rows: BankRow[]; total: number; page: number; pageSize: number }> {
   // Archived problems are listed only under the "Archived" filter, and then only those.
-  const conditions: (SQL | undefined)[] = [visibleTo(viewer), query.archived ? isNotNull(problems.archivedAt) : isNull(problems.archivedAt)]
+  const conditions: (SQL | undefined)[] = [
+    visibleTo(viewer),
+    query.archived ? isNotNull(problems.archivedAt) : isNull(problems.archivedAt),
+  ]
   if (query.scope === 'mine') conditions.push(eq(problems.ownerId, viewer.id))
   if (query.scope === 'shared') conditions.push(ne(problems.ownerId, viewer.id))
   if (query.cycle) conditions.push(eq(problems.cycle, query.cycle))
@@ -164,11 +188,20 @@ export async function listBankProblems(
   const words = query.q.split(/\s+/).filter(Boolean).slice(0, 8)
   for (const word of words) {
     const pattern = `%${escapeLike(word)}%`
-    conditions.push(or(ilike(problems.title, pattern), ilike(problems.cycle, pattern), sql`array_to_string(${problems.topics}, ' ') ilike ${pattern}`))
+    conditions.push(
+      or(
+        ilike(problems.title, pattern),
+        ilike(problems.cycle, pattern),
+        sql`array_to_string(${problems.topics}, ' ') ilike ${pattern}`,
+      ),
+    )
   }
   const where = and(...conditions)
 
-  const [counted] = await database.select({ n: sql<number>`count(*)::int` }).from(problems).where(where)
+  const [counted] = await database
+    .select({ n: sql<number>`count(*)::int` })
+    .from(problems)
+    .where(where)
   const total = counted?.n ?? 0
   const lastPage = Math.max(1, Math.ceil(total / query.pageSize))
   const page = Math.min(query.page, lastPage)
@@ -261,7 +294,14 @@ function versionColumns() {
   }
 }
 
-type VersionRow = { id: number; number: number; createdAt: Date; frozenAt: Date | null; createdByName: string; definition: unknown }
+type VersionRow = {
+  id: number
+  number: number
+  createdAt: Date
+  frozenAt: Date | null
+  createdByName: string
+  definition: unknown
+}
 
 function toVersionInfo(r: VersionRow): VersionInfo {
   return {
@@ -297,7 +337,11 @@ async function findProblem(database: Database, problemId: number) {
   return row ?? null
 }
 
-export async function getProblemDetail(database: Database, viewer: BankViewer, problemId: number): Promise<ProblemDetail | null> {
+export async function getProblemDetail(
+  database: Database,
+  viewer: BankViewer,
+  problemId: number,
+): Promise<ProblemDetail | null> {
   const problem = await findProblem(database, problemId)
   if (!problem || !canSeeProblem(viewer, problem)) return null
   const versionRows = await database
@@ -317,8 +361,16 @@ export async function getProblemDetail(database: Database, viewer: BankViewer, p
     const [version] =
       problem.originVersionId === null
         ? []
-        : await database.select({ number: problemVersions.number }).from(problemVersions).where(eq(problemVersions.id, problem.originVersionId)).limit(1)
-    origin = { problemId: visible ? source.id : null, title: visible ? source.title : null, versionNumber: version?.number ?? null }
+        : await database
+            .select({ number: problemVersions.number })
+            .from(problemVersions)
+            .where(eq(problemVersions.id, problem.originVersionId))
+            .limit(1)
+    origin = {
+      problemId: visible ? source.id : null,
+      title: visible ? source.title : null,
+      versionNumber: version?.number ?? null,
+    }
   }
 
   return {
@@ -337,10 +389,20 @@ export async function getProblemDetail(database: Database, viewer: BankViewer, p
   }
 }
 
-export async function getVersionForViewer(database: Database, viewer: BankViewer, versionId: number): Promise<{ problemId: number; version: VersionInfo } | null> {
+export async function getVersionForViewer(
+  database: Database,
+  viewer: BankViewer,
+  versionId: number,
+): Promise<{ problemId: number; version: VersionInfo } | null> {
   if (!Number.isInteger(versionId) || versionId <= 0) return null
   const [row] = await database
-    .select({ ...versionColumns(), problemId: problems.id, ownerId: problems.ownerId, visibility: problems.visibility, departmentId: problems.departmentId })
+    .select({
+      ...versionColumns(),
+      problemId: problems.id,
+      ownerId: problems.ownerId,
+      visibility: problems.visibility,
+      departmentId: problems.departmentId,
+    })
     .from(problemVersions)
     .innerJoin(problems, eq(problems.id, problemVersions.problemId))
     .innerJoin(creators, eq(creators.id, problemVersions.createdBy))
@@ -360,14 +422,25 @@ function checkedDefinition(definition: unknown): ProblemDefinition {
 
 /** The columns the bank page searches and sorts on, copied from the definition. */
 function listingColumns(d: ProblemDefinition) {
-  return { title: d.title, cycle: cycleOf(d.physics), topics: [...d.tags.topics], difficulty: d.tags.difficulty, level: d.tags.level }
+  return {
+    title: d.title,
+    cycle: cycleOf(d.physics),
+    topics: [...d.tags.topics],
+    difficulty: d.tags.difficulty,
+    level: d.tags.level,
+  }
 }
 
 async function insertProblem(
   database: Database,
   viewer: BankViewer,
   definition: ProblemDefinition,
-  extra: { visibility: ProblemVisibility; originProblemId?: number; originVersionId?: number; importedFrom?: { title: string; author: string } },
+  extra: {
+    visibility: ProblemVisibility
+    originProblemId?: number
+    originVersionId?: number
+    importedFrom?: { title: string; author: string }
+  },
 ): Promise<{ problemId: number; versionId: number }> {
   const [problem] = await database
     .insert(problems)
@@ -409,10 +482,12 @@ export async function saveProblem(
       .from(problems)
       .where(eq(problems.id, problemId))
       .for('update')
-    if (!problem || !canEditProblem(viewer, problem)) throw new ProblemAccessError('Only the owner of a problem can change it; make a copy to change your own.')
+    if (!problem || !canEditProblem(viewer, problem))
+      throw new ProblemAccessError('Only the owner of a problem can change it; make a copy to change your own.')
     // The editor says which save it started from; a later save (another tab, another device)
     // must not be overwritten without the author knowing.
-    if (input.basedOn !== undefined && input.basedOn !== problem.updatedAt.toISOString()) throw new ProblemConflictError(problem.updatedAt.toISOString())
+    if (input.basedOn !== undefined && input.basedOn !== problem.updatedAt.toISOString())
+      throw new ProblemConflictError(problem.updatedAt.toISOString())
     const [latest] = await tx
       .select({ id: problemVersions.id, number: problemVersions.number, frozenAt: problemVersions.frozenAt })
       .from(problemVersions)
@@ -425,7 +500,10 @@ export async function saveProblem(
       result = { versionId: latest.id, versionNumber: latest.number, newVersion: false }
     } else {
       const number = (latest?.number ?? 0) + 1
-      const [row] = await tx.insert(problemVersions).values({ problemId, number, definition, createdBy: viewer.id }).returning({ id: problemVersions.id })
+      const [row] = await tx
+        .insert(problemVersions)
+        .values({ problemId, number, definition, createdBy: viewer.id })
+        .returning({ id: problemVersions.id })
       result = { versionId: row!.id, versionNumber: number, newVersion: true }
     }
     await tx
@@ -457,14 +535,22 @@ async function latestVersionOf(database: Database, problemId: number) {
 }
 
 /** Copies a visible problem's latest version into the viewer's bank, private, remembering its origin. */
-export async function copyProblem(database: Database, viewer: BankViewer, problemId: number): Promise<{ problemId: number }> {
+export async function copyProblem(
+  database: Database,
+  viewer: BankViewer,
+  problemId: number,
+): Promise<{ problemId: number }> {
   const source = await findProblem(database, problemId)
   if (!source || !canSeeProblem(viewer, source)) throw new ProblemAccessError()
   return database.transaction(async (tx) => {
     const latest = await latestVersionOf(tx, problemId)
     if (!latest) throw new ProblemAccessError()
     const definition = upgradeDefinition(latest.definition) as ProblemDefinition
-    const made = await insertProblem(tx, viewer, definition, { visibility: 'private', originProblemId: problemId, originVersionId: latest.id })
+    const made = await insertProblem(tx, viewer, definition, {
+      visibility: 'private',
+      originProblemId: problemId,
+      originVersionId: latest.id,
+    })
     return { problemId: made.problemId }
   })
 }
@@ -476,11 +562,16 @@ export async function copyProblem(database: Database, viewer: BankViewer, proble
  * Throws ProblemAccessError naming nothing when a listed id is missing or not visible, and
  * BankExportError when there is nothing to export or more than one document holds.
  */
-export async function exportBank(database: Database, viewer: BankViewer, problemIds: readonly number[] | 'own'): Promise<BankDocument> {
+export async function exportBank(
+  database: Database,
+  viewer: BankViewer,
+  problemIds: readonly number[] | 'own',
+): Promise<BankDocument> {
   const ids = problemIds === 'own' ? null : [...new Set(problemIds)]
   if (ids && ids.some((id) => !Number.isInteger(id) || id <= 0)) throw new ProblemAccessError()
   if (ids && ids.length === 0) throw new BankExportError('Choose at least one problem to export.')
-  if (ids && ids.length > BANK_MAX_PROBLEMS) throw new BankExportError(`Export at most ${BANK_MAX_PROBLEMS} problems at a time.`)
+  if (ids && ids.length > BANK_MAX_PROBLEMS)
+    throw new BankExportError(`Export at most ${BANK_MAX_PROBLEMS} problems at a time.`)
 
   const origins = alias(problems, 'origins')
   const originOwners = alias(users, 'origin_owners')
@@ -515,7 +606,8 @@ export async function exportBank(database: Database, viewer: BankViewer, problem
     }
   }
   if (rows.length === 0) throw new BankExportError('There are no problems to export yet.')
-  if (rows.length > BANK_MAX_PROBLEMS) throw new BankExportError(`You own more than ${BANK_MAX_PROBLEMS} problems: choose the ones to export.`)
+  if (rows.length > BANK_MAX_PROBLEMS)
+    throw new BankExportError(`You own more than ${BANK_MAX_PROBLEMS} problems: choose the ones to export.`)
 
   return {
     format: BANK_FORMAT_ID,
@@ -531,11 +623,17 @@ export async function exportBank(database: Database, viewer: BankViewer, problem
         r.originAuthor !== null &&
         r.originOwnerId !== null &&
         r.originVisibility !== null &&
-        canSeeProblem(viewer, { ownerId: r.originOwnerId, visibility: r.originVisibility, departmentId: r.originDepartmentId })
+        canSeeProblem(viewer, {
+          ownerId: r.originOwnerId,
+          visibility: r.originVisibility,
+          departmentId: r.originDepartmentId,
+        })
       return {
         title: definition.title,
         visibility: r.visibility,
-        origin: originVisible ? { title: r.originTitle!, author: r.originAuthor! } : (r.importedFrom ?? { title: definition.title, author: r.ownerName }),
+        origin: originVisible
+          ? { title: r.originTitle!, author: r.originAuthor! }
+          : (r.importedFrom ?? { title: definition.title, author: r.ownerName }),
         definition,
       }
     }),

@@ -65,7 +65,14 @@ export const MAINTENANCE_INTERVAL_SECONDS = 3
 export const queueSettings: { [N in QueueName]: QueueSettings<N> } = {
   'problem-sweep': {
     // 'short': at most one waiting job per singleton key.
-    options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    options: {
+      policy: 'short',
+      retryLimit: 2,
+      retryDelay: 10,
+      retryBackoff: true,
+      expireInSeconds: 30 * 60,
+      deadLetter: DEAD_LETTER_QUEUE,
+    },
     singletonKey: (p) => `sweep-${p.sweepId}`,
   },
   'grade-submission': {
@@ -74,24 +81,59 @@ export const queueSettings: { [N in QueueName]: QueueSettings<N> } = {
     // Expiry: a fetched batch of 100 takes under 1 s to grade (≈ 2.3 s on the one-by-one
     // fallback, measured cold), so 15 s is ample for a live worker, and a dead worker's jobs
     // are retried about 15–25 s after they were fetched (docs/grading.md, "A worker that dies").
-    options: { policy: 'standard', retryLimit: 3, retryDelay: 1, retryBackoff: true, expireInSeconds: GRADE_EXPIRE_SECONDS, deadLetter: DEAD_LETTER_QUEUE },
+    options: {
+      policy: 'standard',
+      retryLimit: 3,
+      retryDelay: 1,
+      retryBackoff: true,
+      expireInSeconds: GRADE_EXPIRE_SECONDS,
+      deadLetter: DEAD_LETTER_QUEUE,
+    },
   },
   regrade: {
-    options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    options: {
+      policy: 'short',
+      retryLimit: 2,
+      retryDelay: 10,
+      retryBackoff: true,
+      expireInSeconds: 30 * 60,
+      deadLetter: DEAD_LETTER_QUEUE,
+    },
     singletonKey: (p) => `regrade-${p.regradeId}`,
   },
   'send-mail': {
     // 'standard': many mails wait at once ('short' keeps one per key, and no key is a key).
     // Duplicates are prevented where mail is queued: in the transaction that records why.
-    options: { policy: 'standard', retryLimit: 5, retryDelay: 30, retryBackoff: true, expireInSeconds: 5 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    options: {
+      policy: 'standard',
+      retryLimit: 5,
+      retryDelay: 30,
+      retryBackoff: true,
+      expireInSeconds: 5 * 60,
+      deadLetter: DEAD_LETTER_QUEUE,
+    },
   },
   'export-grades': {
-    options: { policy: 'short', retryLimit: 2, retryDelay: 10, retryBackoff: true, expireInSeconds: 30 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    options: {
+      policy: 'short',
+      retryLimit: 2,
+      retryDelay: 10,
+      retryBackoff: true,
+      expireInSeconds: 30 * 60,
+      deadLetter: DEAD_LETTER_QUEUE,
+    },
     singletonKey: (p) => `export-${p.exportId}`,
   },
   'purge-expired': {
     // 'short' with one key: a run that is still waiting absorbs the next schedule's.
-    options: { policy: 'short', retryLimit: 2, retryDelay: 60, retryBackoff: true, expireInSeconds: 10 * 60, deadLetter: DEAD_LETTER_QUEUE },
+    options: {
+      policy: 'short',
+      retryLimit: 2,
+      retryDelay: 60,
+      retryBackoff: true,
+      expireInSeconds: 10 * 60,
+      deadLetter: DEAD_LETTER_QUEUE,
+    },
     singletonKey: () => 'purge-expired',
   },
 }
@@ -134,8 +176,17 @@ export async function ensureQueues(boss: PgBoss) {
  * processes that supervise: the workers), so its interval bounds how late a dead worker's job
  * is retried; the producer passes `supervise: false` and runs none.
  */
-export function bossOptions(connectionString: string, extra: PgBoss.ConstructorOptions = {}): PgBoss.ConstructorOptions {
-  return { connectionString, schema: PGBOSS_SCHEMA, application_name: 'cyclewright-jobs', maintenanceIntervalSeconds: MAINTENANCE_INTERVAL_SECONDS, ...extra }
+export function bossOptions(
+  connectionString: string,
+  extra: PgBoss.ConstructorOptions = {},
+): PgBoss.ConstructorOptions {
+  return {
+    connectionString,
+    schema: PGBOSS_SCHEMA,
+    application_name: 'cyclewright-jobs',
+    maintenanceIntervalSeconds: MAINTENANCE_INTERVAL_SECONDS,
+    ...extra,
+  }
 }
 
 type Holder = { boss?: Promise<PgBoss>; url?: string }
@@ -185,7 +236,10 @@ export async function enqueue<N extends QueueName>(
   options: { connection?: JobConnection; startAfter?: Date } = {},
 ): Promise<string | null> {
   const parsed = queuePayloads[name].safeParse(payload)
-  if (!parsed.success) throw new Error(`Job payload for ${name} is not valid: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`)
+  if (!parsed.success)
+    throw new Error(
+      `Job payload for ${name} is not valid: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`,
+    )
   const data = parsed.data as QueuePayload<N>
   const settings = queueSettings[name] as QueueSettings<N>
   const boss = await getBoss()
@@ -214,7 +268,10 @@ function drizzleOn(client: pg.PoolClient): Db {
  * connection on the same PostgreSQL connection: rows written and jobs enqueued commit or
  * roll back together (pg-boss 10 has no Drizzle adapter, STYLE 2.9).
  */
-export async function withJobTransaction<T>(database: Db, work: (tx: Db, jobs: JobConnection) => Promise<T>): Promise<T> {
+export async function withJobTransaction<T>(
+  database: Db,
+  work: (tx: Db, jobs: JobConnection) => Promise<T>,
+): Promise<T> {
   const source = (database as { $client?: unknown }).$client
   if (!(source instanceof pg.Pool)) throw new Error('withJobTransaction needs a database on a pg.Pool')
   // Started before the transaction: its first start installs pg-boss's schema and queues.

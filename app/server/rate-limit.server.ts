@@ -89,7 +89,8 @@ async function decideSignIn(tx: Db, email: string, clientAddress: string, now: D
     .from(signInAttempts)
     .where(and(failed, eq(signInAttempts.clientAddress, clientAddress), gt(signInAttempts.createdAt, windowStart)))
   const addressFirst = asDate(byAddress?.first)
-  if ((byAddress?.n ?? 0) >= e.SIGNIN_ADDRESS_MAX_FAILURES && addressFirst) waits.push(addressFirst.getTime() + windowMs - now.getTime())
+  if ((byAddress?.n ?? 0) >= e.SIGNIN_ADDRESS_MAX_FAILURES && addressFirst)
+    waits.push(addressFirst.getTime() + windowMs - now.getTime())
 
   // The account, across addresses: only a very high count slows it for everyone.
   const [byAccount] = await tx
@@ -97,7 +98,8 @@ async function decideSignIn(tx: Db, email: string, clientAddress: string, now: D
     .from(signInAttempts)
     .where(and(failed, eq(signInAttempts.email, email), gt(signInAttempts.createdAt, windowStart)))
   const accountFirst = asDate(byAccount?.first)
-  if ((byAccount?.n ?? 0) >= e.SIGNIN_ACCOUNT_MAX_FAILURES && accountFirst) waits.push(accountFirst.getTime() + windowMs - now.getTime())
+  if ((byAccount?.n ?? 0) >= e.SIGNIN_ACCOUNT_MAX_FAILURES && accountFirst)
+    waits.push(accountFirst.getTime() + windowMs - now.getTime())
 
   const wait = Math.max(0, ...waits)
   if (wait <= 0) return { allowed: true }
@@ -110,7 +112,12 @@ async function decideSignIn(tx: Db, email: string, clientAddress: string, now: D
  * that parallel tries are counted one after another. Blocked tries are not recorded: they
  * checked no password.
  */
-export async function beginSignInAttempt(database: Db, email: string, clientAddress: string, now = new Date()): Promise<SignInGate> {
+export async function beginSignInAttempt(
+  database: Db,
+  email: string,
+  clientAddress: string,
+  now = new Date(),
+): Promise<SignInGate> {
   return database.transaction(async (t) => {
     const tx = t as unknown as Db
     // Always e-mail first, then address: one order, so two tries never wait on each other in a circle.
@@ -131,7 +138,12 @@ export async function markSignInSucceeded(database: Db, attemptId: number) {
 }
 
 /** Only the decision, recording nothing (for tests and diagnostics). */
-export async function checkSignInRate(database: Db, email: string, clientAddress: string, now = new Date()): Promise<RateDecision> {
+export async function checkSignInRate(
+  database: Db,
+  email: string,
+  clientAddress: string,
+  now = new Date(),
+): Promise<RateDecision> {
   return decideSignIn(database, email, clientAddress, now)
 }
 
@@ -141,7 +153,12 @@ export async function checkSignInRate(database: Db, email: string, clientAddress
  * (whether or not the address has an account, so the counts reveal nothing); a refused one
  * is not, so the limit lifts an hour after the requests that filled it.
  */
-export async function claimResetRequest(database: Db, email: string, clientAddress: string, now = new Date()): Promise<RateDecision> {
+export async function claimResetRequest(
+  database: Db,
+  email: string,
+  clientAddress: string,
+  now = new Date(),
+): Promise<RateDecision> {
   const e = env()
   return database.transaction(async (t) => {
     const tx = t as unknown as Db
@@ -173,6 +190,8 @@ export async function claimResetRequest(database: Db, email: string, clientAddre
 /** Attempts older than the longest lookback no longer count for anything; returns how many went. */
 export async function clearOldAttempts(database: Db, now = new Date()): Promise<number> {
   const keepMs = Math.max(ATTEMPT_RETENTION_MS, env().SIGNIN_WINDOW_MINUTES * 60_000)
-  const deleted = await database.delete(signInAttempts).where(lt(signInAttempts.createdAt, new Date(now.getTime() - keepMs)))
+  const deleted = await database
+    .delete(signInAttempts)
+    .where(lt(signInAttempts.createdAt, new Date(now.getTime() - keepMs)))
   return deleted.rowCount ?? 0
 }

@@ -76,7 +76,10 @@ export type RegradeItem = {
 }
 
 /** The item at `position` of an assignment (of `courseId` when given), with its problem's versions; null when there is none. */
-export async function getRegradeItem(database: Database, input: { courseId?: number; assignmentId: number; position: number }): Promise<RegradeItem | null> {
+export async function getRegradeItem(
+  database: Database,
+  input: { courseId?: number; assignmentId: number; position: number },
+): Promise<RegradeItem | null> {
   const [row] = await database
     .select({
       itemId: assignmentItems.id,
@@ -106,26 +109,46 @@ export async function getRegradeItem(database: Database, input: { courseId?: num
     .limit(1)
   if (!row) return null
   const versions = await database
-    .select({ id: problemVersions.id, number: problemVersions.number, frozenAt: problemVersions.frozenAt, createdAt: problemVersions.createdAt })
+    .select({
+      id: problemVersions.id,
+      number: problemVersions.number,
+      frozenAt: problemVersions.frozenAt,
+      createdAt: problemVersions.createdAt,
+    })
     .from(problemVersions)
     .where(eq(problemVersions.problemId, row.problemId))
     .orderBy(asc(problemVersions.number))
   return {
     ...row,
     toleranceOverrides: (row.toleranceOverrides ?? {}) as Record<string, Tolerance>,
-    versions: versions.map((v) => ({ id: v.id, number: v.number, frozen: v.frozenAt !== null, current: v.id === row.currentVersionId, createdAt: v.createdAt.toISOString() })),
+    versions: versions.map((v) => ({
+      id: v.id,
+      number: v.number,
+      frozen: v.frozenAt !== null,
+      current: v.id === row.currentVersionId,
+      createdAt: v.createdAt.toISOString(),
+    })),
   }
 }
 
 async function versionDefinition(database: Database, versionId: number): Promise<ProblemDefinition> {
-  const [row] = await database.select({ definition: problemVersions.definition }).from(problemVersions).where(eq(problemVersions.id, versionId))
+  const [row] = await database
+    .select({ definition: problemVersions.definition })
+    .from(problemVersions)
+    .where(eq(problemVersions.id, versionId))
   if (!row) throw new RegradeError('That version no longer exists.', { version: 'That version no longer exists.' })
   return row.definition as ProblemDefinition
 }
 
 export async function listVersionFinds(database: Database, versionId: number): Promise<RegradeFind[]> {
   const definition = await versionDefinition(database, versionId)
-  return definition.finds.map((f) => ({ name: f.name, label: f.label, unit: f.unit, points: f.points, tolerance: f.tolerance }))
+  return definition.finds.map((f) => ({
+    name: f.name,
+    label: f.label,
+    unit: f.unit,
+    points: f.points,
+    tolerance: f.tolerance,
+  }))
 }
 
 // ---- Tolerance overrides ------------------------------------------------------------------
@@ -153,7 +176,10 @@ function readNumber(text: string): number | null {
  * or a percentage (5 %), at least 0 and below 1 (100 %). Absolute: at least 0, in a unit that
  * fits the find (empty: the find's own unit), as validateCheckRule judges it.
  */
-export function checkToleranceOverrides(finds: readonly Find[], typed: Readonly<Record<string, ToleranceFields>>): OverrideCheck {
+export function checkToleranceOverrides(
+  finds: readonly Find[],
+  typed: Readonly<Record<string, ToleranceFields>>,
+): OverrideCheck {
   const overrides: Record<string, Tolerance> = {}
   const fieldErrors: Record<string, string> = {}
   const ignored: string[] = []
@@ -188,7 +214,8 @@ export function checkToleranceOverrides(finds: readonly Find[], typed: Readonly<
       }
       const value = percent ? n / 100 : n
       if (value < 0 || value >= 1) {
-        fieldErrors[`value.${name}`] = 'A relative tolerance is at least 0 and below 1 (100 %), for example 0.05 or 5 %.'
+        fieldErrors[`value.${name}`] =
+          'A relative tolerance is at least 0 and below 1 (100 %), for example 0.05 or 5 %.'
         continue
       }
       tolerance = { kind: 'relative', value }
@@ -209,7 +236,9 @@ export function checkToleranceOverrides(finds: readonly Find[], typed: Readonly<
     if (!valid.ok) {
       const field = valid.error.property.endsWith('unit') ? `unit.${name}` : `value.${name}`
       fieldErrors[field] =
-        field === `unit.${name}` ? `“${fields.unit.trim()}” does not fit this find’s unit (${find.unit || 'a pure number'}).` : 'This tolerance cannot be used for this find.'
+        field === `unit.${name}`
+          ? `“${fields.unit.trim()}” does not fit this find’s unit (${find.unit || 'a pure number'}).`
+          : 'This tolerance cannot be used for this find.'
       continue
     }
     overrides[name] = tolerance
@@ -251,7 +280,18 @@ const REMOVED_MESSAGE = 'This question is no longer part of the problem.'
 function regradePart(target: Target, part: PartToRegrade): NewGrade | null {
   const index = target.definition.finds.findIndex((f) => f.name === part.findName)
   const find = target.definition.finds[index]
-  if (!find) return { verdict: 'incorrect', value: null, score: 0, maxScore: 0, message: REMOVED_MESSAGE, pitfallId: null, pitfallFeedback: null, detail: null, removed: true }
+  if (!find)
+    return {
+      verdict: 'incorrect',
+      value: null,
+      score: 0,
+      maxScore: 0,
+      message: REMOVED_MESSAGE,
+      pitfallId: null,
+      pitfallFeedback: null,
+      detail: null,
+      removed: true,
+    }
   const drawn = studentVariant({
     versionId: target.versionId,
     definition: target.definition,
@@ -262,7 +302,14 @@ function regradePart(target: Target, part: PartToRegrade): NewGrade | null {
   })
   if (!drawn.ok) return null
   const share = target.shares[index] ?? 0
-  const g = gradeAnswer({ find, variant: drawn.variant, answer: part.answer, tolerance: target.overrides[find.name], share, latePenalty: part.latePenalty })
+  const g = gradeAnswer({
+    find,
+    variant: drawn.variant,
+    answer: part.answer,
+    tolerance: target.overrides[find.name],
+    share,
+    latePenalty: part.latePenalty,
+  })
   return {
     verdict: g.verdict,
     value: g.value,
@@ -288,10 +335,12 @@ async function prepareRegrade(database: Database, input: RegradeRequest): Promis
   const item = await getRegradeItem(database, input)
   if (!item) throw new RegradeError('There is no such problem in this assignment.')
   const toVersion = item.versions.find((v) => v.id === input.toVersionId)
-  if (!toVersion) throw new RegradeError('Choose a version of this problem.', { version: 'Choose one of the versions listed.' })
+  if (!toVersion)
+    throw new RegradeError('Choose a version of this problem.', { version: 'Choose one of the versions listed.' })
   const definition = await versionDefinition(database, toVersion.id)
   const check = checkToleranceOverrides(definition.finds, input.toleranceOverrides)
-  if (Object.keys(check.fieldErrors).length > 0) throw new RegradeError('Some tolerances cannot be used; see the marked fields.', check.fieldErrors)
+  if (Object.keys(check.fieldErrors).length > 0)
+    throw new RegradeError('Some tolerances cannot be used; see the marked fields.', check.fieldErrors)
   const target: Target = {
     assignmentId: item.assignmentId,
     problemId: item.problemId,
@@ -319,7 +368,14 @@ export type RegradeRequest = {
 }
 
 /** A find whose standing changes for a student (its best score before and after, for the record). */
-export type FindChange = { name: string; label: string; oldVerdict: FindVerdict; newVerdict: FindVerdict; oldScore: number; newScore: number }
+export type FindChange = {
+  name: string
+  label: string
+  oldVerdict: FindVerdict
+  newVerdict: FindVerdict
+  oldScore: number
+  newScore: number
+}
 
 /** A find's standing for one student: correct if any answer is, else the last answer's verdict. */
 export type FindVerdict = Verdict | 'removed'
@@ -422,7 +478,15 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
       unchanged++
       continue
     }
-    const byFind = new Map<string, { oldV: { verdict: FindVerdict; attempt: number }[]; newV: { verdict: FindVerdict; attempt: number }[]; oldS: number; newS: number }>()
+    const byFind = new Map<
+      string,
+      {
+        oldV: { verdict: FindVerdict; attempt: number }[]
+        newV: { verdict: FindVerdict; attempt: number }[]
+        oldS: number
+        newS: number
+      }
+    >()
     for (const { part, next } of graded) {
       const n = next!
       const entry = byFind.get(part.findName) ?? { oldV: [], newV: [], oldS: 0, newS: 0 }
@@ -448,7 +512,14 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
       const oldVerdict = findVerdict(e.oldV)
       const newVerdict = findVerdict(e.newV)
       if (oldVerdict !== newVerdict) {
-        finds.push({ name, label: labels.get(name) ?? name, oldVerdict, newVerdict, oldScore: roundScore(e.oldS), newScore: roundScore(e.newS) })
+        finds.push({
+          name,
+          label: labels.get(name) ?? name,
+          oldVerdict,
+          newVerdict,
+          oldScore: roundScore(e.oldS),
+          newScore: roundScore(e.newS),
+        })
       }
     }
     oldScore = roundScore(oldScore)
@@ -458,7 +529,16 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
       unchanged++
       continue
     }
-    changed.push({ userId, name: who?.name ?? `User ${userId}`, email: who?.email ?? '', section: who?.section ?? null, oldScore, newScore, change, finds })
+    changed.push({
+      userId,
+      name: who?.name ?? `User ${userId}`,
+      email: who?.email ?? '',
+      section: who?.section ?? null,
+      oldScore,
+      newScore,
+      change,
+      finds,
+    })
   }
   changed.sort((a, b) => Math.abs(b.change) - Math.abs(a.change) || a.name.localeCompare(b.name))
   const affected = changed.filter((c) => c.change !== 0)
@@ -476,7 +556,12 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
       parts: rows.length,
       partsChanged,
     },
-    removedFinds: [...removed].map(([name, r]) => ({ name, label: labels.get(name) ?? name, parts: r.parts, students: r.students.size })),
+    removedFinds: [...removed].map(([name, r]) => ({
+      name,
+      label: labels.get(name) ?? name,
+      parts: r.parts,
+      students: r.students.size,
+    })),
     notRegraded,
     pending: pendingRow?.n ?? 0,
   }
@@ -485,7 +570,12 @@ export async function previewRegrade(database: Database, input: RegradeRequest):
 // ---- Apply --------------------------------------------------------------------------------
 
 function sameOverrides(a: Record<string, Tolerance>, b: Record<string, Tolerance>): boolean {
-  const norm = (o: Record<string, Tolerance>) => JSON.stringify(Object.keys(o).sort().map((k) => [k, o[k]!.kind, o[k]!.value, 'unit' in o[k]! ? (o[k]!.unit ?? null) : null]))
+  const norm = (o: Record<string, Tolerance>) =>
+    JSON.stringify(
+      Object.keys(o)
+        .sort()
+        .map((k) => [k, o[k]!.kind, o[k]!.value, 'unit' in o[k]! ? (o[k]!.unit ?? null) : null]),
+    )
   return norm(a) === norm(b)
 }
 
@@ -499,7 +589,11 @@ export async function applyRegrade(database: Db, input: RegradeRequest & { reque
     const { item, target, toVersion } = await prepareRegrade(tx, input)
     // The item's row lock makes two instructors applying at once wait for each other, so the
     // second sees the first's regrade below.
-    await tx.select({ id: assignmentItems.id }).from(assignmentItems).where(eq(assignmentItems.id, item.itemId)).for('update')
+    await tx
+      .select({ id: assignmentItems.id })
+      .from(assignmentItems)
+      .where(eq(assignmentItems.id, item.itemId))
+      .for('update')
     const [busy] = await tx
       .select({ id: regrades.id })
       .from(regrades)
@@ -507,7 +601,9 @@ export async function applyRegrade(database: Db, input: RegradeRequest & { reque
       .limit(1)
     if (busy) throw new RegradeError('A regrade of this problem is already under way; wait until it has finished.')
     if (toVersion.id === item.currentVersionId && sameOverrides(target.overrides, item.toleranceOverrides)) {
-      throw new RegradeError('This is the problem’s current version with the same tolerances: choose another version or change a tolerance.')
+      throw new RegradeError(
+        'This is the problem’s current version with the same tolerances: choose another version or change a tolerance.',
+      )
     }
     const [count] = await tx
       .select({ n: sql<number>`count(*)::int` })
@@ -555,14 +651,23 @@ export type RunRegradeOutcome = 'done' | 'already-done' | 'missing'
  * stopped, and a 'done' regrade is not run again. Each chunk writes its answers, its audit
  * events and the progress counters in one transaction.
  */
-export async function runRegrade(database: Db, regradeId: number, options: { chunk?: number } = {}): Promise<RunRegradeOutcome> {
+export async function runRegrade(
+  database: Db,
+  regradeId: number,
+  options: { chunk?: number } = {},
+): Promise<RunRegradeOutcome> {
   const chunk = Math.max(1, Math.floor(options.chunk ?? REGRADE_CHUNK))
   const [regrade] = await database.select().from(regrades).where(eq(regrades.id, regradeId))
   if (!regrade) return 'missing'
   if (regrade.status === 'done') return 'already-done'
 
   const [context] = await database
-    .select({ courseId: assignments.courseId, convention: courses.signConvention, problemId: assignmentItems.problemId, points: assignmentItems.points })
+    .select({
+      courseId: assignments.courseId,
+      convention: courses.signConvention,
+      problemId: assignmentItems.problemId,
+      points: assignmentItems.points,
+    })
     .from(assignmentItems)
     .innerJoin(assignments, eq(assignments.id, assignmentItems.assignmentId))
     .innerJoin(courses, eq(courses.id, assignments.courseId))
@@ -585,14 +690,23 @@ export async function runRegrade(database: Db, regradeId: number, options: { chu
 
   await database.transaction(async (tx) => {
     await tx.update(regrades).set({ status: 'running', error: null }).where(eq(regrades.id, regradeId))
-    await tx.update(assignmentItems).set({ problemVersionId: regrade.toVersionId, toleranceOverrides: overrides }).where(eq(assignmentItems.id, regrade.itemId))
+    await tx
+      .update(assignmentItems)
+      .set({ problemVersionId: regrade.toVersionId, toleranceOverrides: overrides })
+      .where(eq(assignmentItems.id, regrade.itemId))
   })
 
-  const waiting = and(eq(partResults.itemId, regrade.itemId), isNotNull(partResults.verdict), or(isNull(partResults.regradeId), ne(partResults.regradeId, regradeId)))
-  for (let settled = false; !settled; ) {
+  const waiting = and(
+    eq(partResults.itemId, regrade.itemId),
+    isNotNull(partResults.verdict),
+    or(isNull(partResults.regradeId), ne(partResults.regradeId, regradeId)),
+  )
+  for (let settled = false; !settled;) {
     let after = 0
     for (;;) {
-      const moved = await database.transaction((tx) => regradeChunk(tx, { regrade, target, courseId: context.courseId, waiting, after, chunk }))
+      const moved = await database.transaction((tx) =>
+        regradeChunk(tx, { regrade, target, courseId: context.courseId, waiting, after, chunk }),
+      )
       if (moved === null) break
       after = moved
     }
@@ -602,9 +716,15 @@ export async function runRegrade(database: Db, regradeId: number, options: { chu
         .from(submissions)
         .where(and(eq(submissions.itemId, regrade.itemId), eq(submissions.status, 'queued')))
         .for('update')
-      const [left] = await tx.select({ n: sql<number>`count(*)::int` }).from(partResults).where(waiting)
+      const [left] = await tx
+        .select({ n: sql<number>`count(*)::int` })
+        .from(partResults)
+        .where(waiting)
       if ((left?.n ?? 0) > 0) return false
-      await tx.update(regrades).set({ status: 'done', finishedAt: sql`clock_timestamp()`, error: null }).where(eq(regrades.id, regradeId))
+      await tx
+        .update(regrades)
+        .set({ status: 'done', finishedAt: sql`clock_timestamp()`, error: null })
+        .where(eq(regrades.id, regradeId))
       return true
     })
   }
@@ -614,7 +734,14 @@ export async function runRegrade(database: Db, regradeId: number, options: { chu
 /** Rewrites the next chunk of waiting answers (ids above `after`); returns the last id, or null when none was left. */
 async function regradeChunk(
   tx: Tx,
-  input: { regrade: Regrade; target: Target; courseId: number; waiting: ReturnType<typeof and>; after: number; chunk: number },
+  input: {
+    regrade: Regrade
+    target: Target
+    courseId: number
+    waiting: ReturnType<typeof and>
+    after: number
+    chunk: number
+  },
 ): Promise<number | null> {
   const { regrade, target } = input
   const parts = await tx
@@ -694,10 +821,18 @@ async function regradeChunk(
 }
 
 /** Marks a regrade that stopped: queued again when the job will retry, failed when not. */
-export async function recordRegradeFailure(database: Db, regradeId: number, input: { message: string; willRetry: boolean }): Promise<void> {
+export async function recordRegradeFailure(
+  database: Db,
+  regradeId: number,
+  input: { message: string; willRetry: boolean },
+): Promise<void> {
   await database
     .update(regrades)
-    .set(input.willRetry ? { status: 'queued', error: input.message } : { status: 'failed', error: input.message, finishedAt: sql`clock_timestamp()` })
+    .set(
+      input.willRetry
+        ? { status: 'queued', error: input.message }
+        : { status: 'failed', error: input.message, finishedAt: sql`clock_timestamp()` },
+    )
     .where(and(eq(regrades.id, regradeId), ne(regrades.status, 'done')))
 }
 
@@ -741,10 +876,20 @@ const progressColumns = {
   finishedAt: regrades.finishedAt,
 }
 
-async function toProgress(database: Database, rows: { [K in keyof typeof progressColumns]: unknown }[]): Promise<RegradeProgress[]> {
+async function toProgress(
+  database: Database,
+  rows: { [K in keyof typeof progressColumns]: unknown }[],
+): Promise<RegradeProgress[]> {
   const ids = [...new Set(rows.flatMap((r) => [r.fromVersionId as number, r.toVersionId as number]))]
   const numbers = ids.length
-    ? new Map((await database.select({ id: problemVersions.id, number: problemVersions.number }).from(problemVersions).where(inArray(problemVersions.id, ids))).map((v) => [v.id, v.number]))
+    ? new Map(
+        (
+          await database
+            .select({ id: problemVersions.id, number: problemVersions.number })
+            .from(problemVersions)
+            .where(inArray(problemVersions.id, ids))
+        ).map((v) => [v.id, v.number]),
+      )
     : new Map<number, number>()
   return rows.map((r) => ({
     id: r.id as number,
@@ -810,7 +955,8 @@ export type RegradePage = {
 
 function toleranceValues(name: string, t: Tolerance | undefined): Record<string, string> {
   if (!t) return { [`kind.${name}`]: 'default', [`value.${name}`]: '', [`unit.${name}`]: '' }
-  if (t.kind === 'relative') return { [`kind.${name}`]: 'relative', [`value.${name}`]: `${roundScore(t.value * 100)} %`, [`unit.${name}`]: '' }
+  if (t.kind === 'relative')
+    return { [`kind.${name}`]: 'relative', [`value.${name}`]: `${roundScore(t.value * 100)} %`, [`unit.${name}`]: '' }
   return { [`kind.${name}`]: 'absolute', [`value.${name}`]: String(t.value), [`unit.${name}`]: t.unit ?? '' }
 }
 
@@ -821,7 +967,15 @@ function toleranceValues(name: string, t: Tolerance | undefined): Record<string,
  */
 export async function loadRegradePage(
   database: Database,
-  input: { courseId: number; assignmentId: number; position: number; versionId?: number; typed?: Record<string, ToleranceFields>; preview: boolean; regradeId?: number },
+  input: {
+    courseId: number
+    assignmentId: number
+    position: number
+    versionId?: number
+    typed?: Record<string, ToleranceFields>
+    preview: boolean
+    regradeId?: number
+  },
 ): Promise<RegradePage | null> {
   const item = await getRegradeItem(database, input)
   if (!item) return null
@@ -830,21 +984,48 @@ export async function loadRegradePage(
   const values: Record<string, string> = { version: String(targetVersion.id) }
   for (const f of finds) Object.assign(values, toleranceValues(f.name, item.toleranceOverrides[f.name]))
   if (input.typed) {
-    for (const [name, t] of Object.entries(input.typed)) Object.assign(values, { [`kind.${name}`]: t.kind, [`value.${name}`]: t.value, [`unit.${name}`]: t.unit })
+    for (const [name, t] of Object.entries(input.typed))
+      Object.assign(values, { [`kind.${name}`]: t.kind, [`value.${name}`]: t.value, [`unit.${name}`]: t.unit })
   }
   let preview: RegradePreview | null = null
   let previewError: RegradePage['previewError'] = null
   if (input.preview) {
     // The item's current overrides, replaced by whatever the form sent.
-    const typed = { ...Object.fromEntries(finds.map((f) => [f.name, { kind: values[`kind.${f.name}`]!, value: values[`value.${f.name}`]!, unit: values[`unit.${f.name}`]! }])), ...input.typed }
+    const typed = {
+      ...Object.fromEntries(
+        finds.map((f) => [
+          f.name,
+          { kind: values[`kind.${f.name}`]!, value: values[`value.${f.name}`]!, unit: values[`unit.${f.name}`]! },
+        ]),
+      ),
+      ...input.typed,
+    }
     try {
-      preview = await previewRegrade(database, { courseId: input.courseId, assignmentId: input.assignmentId, position: input.position, toVersionId: targetVersion.id, toleranceOverrides: typed })
+      preview = await previewRegrade(database, {
+        courseId: input.courseId,
+        assignmentId: input.assignmentId,
+        position: input.position,
+        toVersionId: targetVersion.id,
+        toleranceOverrides: typed,
+      })
     } catch (e) {
       if (!(e instanceof RegradeError)) throw e
       previewError = { message: e.message, fieldErrors: e.fieldErrors }
     }
   }
   const list = await listItemRegrades(database, item.itemId)
-  const asked = input.regradeId === undefined ? null : (list.find((r) => r.id === input.regradeId) ?? (await getRegradeProgress(database, input.regradeId)))
-  return { item, targetVersion, finds, values, preview, previewError, regrades: list, progress: asked && asked.itemId === item.itemId ? asked : null }
+  const asked =
+    input.regradeId === undefined
+      ? null
+      : (list.find((r) => r.id === input.regradeId) ?? (await getRegradeProgress(database, input.regradeId)))
+  return {
+    item,
+    targetVersion,
+    finds,
+    values,
+    preview,
+    previewError,
+    regrades: list,
+    progress: asked && asked.itemId === item.itemId ? asked : null,
+  }
 }

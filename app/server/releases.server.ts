@@ -12,7 +12,13 @@ import { rulesOf } from '#app/domain/assignments/policy.ts'
 import { releaseChecks, studentsWord, type ReleaseChecks } from '#app/domain/assignments/releases.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { formatScore } from '#app/lib/points.ts'
-import { AssignmentNotFoundError, AssignmentPermissionError, courseZone, findAssignment, requireInstructor } from './assignments.server.ts'
+import {
+  AssignmentNotFoundError,
+  AssignmentPermissionError,
+  courseZone,
+  findAssignment,
+  requireInstructor,
+} from './assignments.server.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import { assignments, auditEvents, extensions, memberships, users, type Assignment } from './db/schema.server.ts'
 import { linkMail } from './email.server.ts'
@@ -31,7 +37,8 @@ export class ReleaseRefusedError extends Error {
   }
 }
 
-export const NOT_CONFIRMED = 'Nothing was released: a release cannot be undone, so it needs the confirmation step. Use the button on the assignment page and confirm.'
+export const NOT_CONFIRMED =
+  'Nothing was released: a release cannot be undone, so it needs the confirmation step. Use the button on the assignment page and confirm.'
 
 /** The active (not dropped) students of the course, each with their extension on this assignment. */
 async function activeStudents(database: Database, a: Assignment) {
@@ -42,12 +49,19 @@ async function activeStudents(database: Database, a: Assignment) {
     .where(and(eq(memberships.courseId, a.courseId), eq(memberships.role, 'student'), isNull(memberships.droppedAt)))
 }
 
-async function checksFor(database: Database, a: Assignment, timeZone: string, now: Date): Promise<ReleaseChecks & { studentIds: number[] }> {
+async function checksFor(
+  database: Database,
+  a: Assignment,
+  timeZone: string,
+  now: Date,
+): Promise<ReleaseChecks & { studentIds: number[] }> {
   const students = await activeStudents(database, a)
   const checks = releaseChecks(
     {
       rules: rulesOf(a),
-      students: students.map((s) => (s.dueAt === null && s.extraAttempts === null ? null : { dueAt: s.dueAt, extraAttempts: s.extraAttempts ?? 0 })),
+      students: students.map((s) =>
+        s.dueAt === null && s.extraAttempts === null ? null : { dueAt: s.dueAt, extraAttempts: s.extraAttempts ?? 0 },
+      ),
       keyReleasedAt: a.keyReleasedAt,
       gradesReleasedAt: a.gradesReleasedAt,
     },
@@ -58,7 +72,10 @@ async function checksFor(database: Database, a: Assignment, timeZone: string, no
 }
 
 /** What the assignment page may offer now: the same checks the releases below apply. */
-export async function getReleaseChecks(database: Database, opts: { courseId: number; assignmentId: number; now?: Date }): Promise<ReleaseChecks> {
+export async function getReleaseChecks(
+  database: Database,
+  opts: { courseId: number; assignmentId: number; now?: Date },
+): Promise<ReleaseChecks> {
   const a = await findAssignment(database, opts.courseId, opts.assignmentId)
   const { timeZone } = await courseZone(database, opts.courseId)
   const { studentIds: _ids, ...checks } = await checksFor(database, a, timeZone, opts.now ?? new Date())
@@ -71,10 +88,16 @@ export type ReleaseResult = { released: boolean; at: Date }
  * Releases the key and worked solutions now (manual release only), once every student's window
  * has closed and the release is confirmed. Releasing again changes nothing.
  */
-export async function releaseKey(database: Db, opts: { courseId: number; assignmentId: number; actorId: number; confirmed: boolean; now?: Date }): Promise<ReleaseResult> {
+export async function releaseKey(
+  database: Db,
+  opts: { courseId: number; assignmentId: number; actorId: number; confirmed: boolean; now?: Date },
+): Promise<ReleaseResult> {
   await requireInstructor(database, opts.actorId, opts.courseId)
   const a = await findAssignment(database, opts.courseId, opts.assignmentId)
-  if (a.keyRelease !== 'manual') throw new AssignmentPermissionError('This assignment releases its key after the due date; change that setting to release it by hand.')
+  if (a.keyRelease !== 'manual')
+    throw new AssignmentPermissionError(
+      'This assignment releases its key after the due date; change that setting to release it by hand.',
+    )
   const now = opts.now ?? new Date()
   if (a.keyReleasedAt) return { released: false, at: a.keyReleasedAt }
   const { timeZone } = await courseZone(database, opts.courseId)
@@ -88,7 +111,14 @@ export async function releaseKey(database: Db, opts: { courseId: number; assignm
       .where(and(eq(assignments.id, a.id), isNull(assignments.keyReleasedAt)))
       .returning({ at: assignments.keyReleasedAt })
     if (!row) return { released: false, at: a.keyReleasedAt ?? now }
-    await tx.insert(auditEvents).values({ actorId: opts.actorId, courseId: opts.courseId, assignmentId: a.id, kind: 'key-released', before: { keyReleasedAt: null }, after: { keyReleasedAt: now.toISOString() } })
+    await tx.insert(auditEvents).values({
+      actorId: opts.actorId,
+      courseId: opts.courseId,
+      assignmentId: a.id,
+      kind: 'key-released',
+      before: { keyReleasedAt: null },
+      after: { keyReleasedAt: now.toISOString() },
+    })
     return { released: true, at: now }
   })
 }
@@ -103,7 +133,15 @@ export type GradeReleaseResult = { released: boolean; at: Date; mailed: number }
  */
 export async function releaseGrades(
   database: Db,
-  opts: { courseId: number; assignmentId: number; actorId: number; confirmed: boolean; early?: boolean; baseUrl?: string; now?: Date },
+  opts: {
+    courseId: number
+    assignmentId: number
+    actorId: number
+    confirmed: boolean
+    early?: boolean
+    baseUrl?: string
+    now?: Date
+  },
 ): Promise<GradeReleaseResult> {
   await requireInstructor(database, opts.actorId, opts.courseId)
   const a = await findAssignment(database, opts.courseId, opts.assignmentId)
@@ -127,12 +165,19 @@ export async function releaseGrades(
       .where(and(eq(assignments.id, a.id), isNull(assignments.gradesReleasedAt)))
       .returning({ id: assignments.id })
     if (!row) return { released: false, at: a.gradesReleasedAt ?? now, mailed: 0 }
-    const totals = (await listAssignmentTotals(tx, { courseIds: [opts.courseId], assignmentIds: [a.id] })).filter((t) => active.has(t.userId))
+    const totals = (await listAssignmentTotals(tx, { courseIds: [opts.courseId], assignmentIds: [a.id] })).filter((t) =>
+      active.has(t.userId),
+    )
     const people = totals.length
       ? await tx
           .select({ id: users.id, email: users.email, name: users.name })
           .from(users)
-          .where(inArray(users.id, totals.map((t) => t.userId)))
+          .where(
+            inArray(
+              users.id,
+              totals.map((t) => t.userId),
+            ),
+          )
       : []
     const byId = new Map(people.map((p) => [p.id, p]))
     let mailed = 0
@@ -146,7 +191,11 @@ export async function releaseGrades(
           `Hello ${person.name},`,
           `The grades for ${a.title} in ${course.code} ${course.title} have been released.`,
           `Your score: ${formatScore(t.score, t.maxScore)} points.`,
-          ...(t.pending > 0 ? [`${t.pending} of your answers were still being graded when the grades were released; the page shows the final score.`] : []),
+          ...(t.pending > 0
+            ? [
+                `${t.pending} of your answers were still being graded when the grades were released; the page shows the final score.`,
+              ]
+            : []),
         ],
         link,
         linkLabel: 'See the assignment',
@@ -171,7 +220,12 @@ export async function orReleaseErrorPage<T>(work: Promise<T>): Promise<T> {
   try {
     return await work
   } catch (e) {
-    if (e instanceof ReleaseRefusedError || e instanceof AssignmentNotFoundError || e instanceof AssignmentPermissionError) throw data(e.message, { status: e.status })
+    if (
+      e instanceof ReleaseRefusedError ||
+      e instanceof AssignmentNotFoundError ||
+      e instanceof AssignmentPermissionError
+    )
+      throw data(e.message, { status: e.status })
     throw e
   }
 }

@@ -9,18 +9,45 @@ function ok(text: string) {
 
 describe('reading a class list', () => {
   test('comma-separated with the plain headings', () => {
-    const r = ok('Student ID,Family name,Given name,E-mail\n1001,Okafor,Ngozi,N.Okafor@Uni.Example\n1002,Berg,Lars,lars@uni.example\n')
+    const r = ok(
+      'Student ID,Family name,Given name,E-mail\n1001,Okafor,Ngozi,N.Okafor@Uni.Example\n1002,Berg,Lars,lars@uni.example\n',
+    )
     expect(r.hasSection).toBe(false)
     expect(r.rows).toEqual([
-      { line: 2, studentNumber: '1001', familyName: 'Okafor', givenName: 'Ngozi', email: 'n.okafor@uni.example', section: '', errors: [] },
-      { line: 3, studentNumber: '1002', familyName: 'Berg', givenName: 'Lars', email: 'lars@uni.example', section: '', errors: [] },
+      {
+        line: 2,
+        studentNumber: '1001',
+        familyName: 'Okafor',
+        givenName: 'Ngozi',
+        email: 'n.okafor@uni.example',
+        section: '',
+        errors: [],
+      },
+      {
+        line: 3,
+        studentNumber: '1002',
+        familyName: 'Berg',
+        givenName: 'Lars',
+        email: 'lars@uni.example',
+        section: '',
+        errors: [],
+      },
     ])
   })
 
   test('a BOM, semicolons, CRLF, other heading spellings in another order, quoted separators and a section column', () => {
-    const r = ok('\uFEFFE-MAIL ADDRESS;surname;First_Name;student number;Lab group\r\na@x.example;"de la Cruz; Jr";Ana;S-9;Tuesday\r\n\r\n')
+    const r = ok(
+      '\uFEFFE-MAIL ADDRESS;surname;First_Name;student number;Lab group\r\na@x.example;"de la Cruz; Jr";Ana;S-9;Tuesday\r\n\r\n',
+    )
     expect(r.hasSection).toBe(true)
-    expect(r.rows[0]).toMatchObject({ studentNumber: 'S-9', familyName: 'de la Cruz; Jr', givenName: 'Ana', email: 'a@x.example', section: 'Tuesday', errors: [] })
+    expect(r.rows[0]).toMatchObject({
+      studentNumber: 'S-9',
+      familyName: 'de la Cruz; Jr',
+      givenName: 'Ana',
+      email: 'a@x.example',
+      section: 'Tuesday',
+      errors: [],
+    })
   })
 
   test('a tab-separated paste from a spreadsheet', () => {
@@ -69,9 +96,13 @@ describe('reading a class list', () => {
       return p.formError
     }
     expect(fail('')).toMatch(/empty/)
-    expect(fail('Student ID,Given name,E-mail\n1,A,a@x.example')).toMatch(/Missing: family name\. Found: “Student ID”, “Given name”, “E-mail”/)
+    expect(fail('Student ID,Given name,E-mail\n1,A,a@x.example')).toMatch(
+      /Missing: family name\. Found: “Student ID”, “Given name”, “E-mail”/,
+    )
     expect(fail('Student ID,Family name,Given name,E-mail\n')).toMatch(/no students/)
-    expect(fail('Student ID,Family name,Given name,E-mail\n1,"A,B,a@x.example\n')).toMatch(/quotation mark opened on line 2 is never closed/)
+    expect(fail('Student ID,Family name,Given name,E-mail\n1,"A,B,a@x.example\n')).toMatch(
+      /quotation mark opened on line 2 is never closed/,
+    )
     const header = 'Student ID,Family name,Given name,E-mail\n'
     const many = header + Array.from({ length: MAX_ROSTER_ROWS + 1 }, (_, i) => `${i},F,G,s${i}@x.example`).join('\n')
     expect(fail(many)).toMatch(/at most 5,000 can be imported at once/)

@@ -43,7 +43,17 @@ const HEADER_SPELLINGS: Record<RosterColumn, string[]> = {
     'universityid',
   ],
   familyName: ['familyname', 'lastname', 'surname', 'family', 'last', 'familynames', 'lastnames'],
-  givenName: ['givenname', 'firstname', 'givennames', 'firstnames', 'forename', 'forenames', 'given', 'first', 'preferredname'],
+  givenName: [
+    'givenname',
+    'firstname',
+    'givennames',
+    'firstnames',
+    'forename',
+    'forenames',
+    'given',
+    'first',
+    'preferredname',
+  ],
   email: ['email', 'emailaddress', 'mail', 'emailid', 'universityemail', 'studentemail'],
   section: ['section', 'sectionname', 'group', 'groupname', 'lab', 'labgroup', 'tutorial', 'tutorialgroup'],
 }
@@ -59,7 +69,8 @@ export function headerKey(header: string): string {
 
 function columnOf(header: string): RosterColumn | null {
   const key = headerKey(header)
-  for (const [column, spellings] of Object.entries(HEADER_SPELLINGS) as [RosterColumn, string[]][]) if (spellings.includes(key)) return column
+  for (const [column, spellings] of Object.entries(HEADER_SPELLINGS) as [RosterColumn, string[]][])
+    if (spellings.includes(key)) return column
   return null
 }
 
@@ -104,7 +115,8 @@ export function detectDelimiter(text: string): string {
 function describeParseError(e: unknown): string {
   const err = e as { code?: string; lines?: number }
   const where = typeof err.lines === 'number' ? ` on line ${err.lines}` : ''
-  if (err.code === 'CSV_QUOTE_NOT_CLOSED') return `A quotation mark opened${where} is never closed. Check that line, or remove the quotation mark.`
+  if (err.code === 'CSV_QUOTE_NOT_CLOSED')
+    return `A quotation mark opened${where} is never closed. Check that line, or remove the quotation mark.`
   return `The text could not be read as a CSV${where}. Check that line for stray quotation marks.`
 }
 
@@ -189,11 +201,13 @@ export function parseRosterCsv(input: string): ParsedRoster {
       const value = raw[column]
       if (/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.test(value))
         errors.push(`The ${columnWords[column]} contains a control character (such as a NUL byte). Retype it.`)
-      else if (value.length > rosterLimits[column]) errors.push(`The ${columnWords[column]} is longer than ${rosterLimits[column]} characters.`)
+      else if (value.length > rosterLimits[column])
+        errors.push(`The ${columnWords[column]} is longer than ${rosterLimits[column]} characters.`)
     }
     if (raw.studentNumber === '') errors.push('The student ID is missing.')
     else if (/\s/.test(raw.studentNumber)) errors.push('The student ID contains a space.')
-    if (raw.familyName === '' && raw.givenName === '') errors.push('The name is missing: give a family name, a given name or both.')
+    if (raw.familyName === '' && raw.givenName === '')
+      errors.push('The name is missing: give a family name, a given name or both.')
     if (raw.email === '') errors.push('The e-mail address is missing.')
     else if (raw.email.length <= rosterLimits.email && !EmailCheck.safeParse(raw.email).success)
       errors.push('The e-mail address is not valid (expected something like name@example.org).')

@@ -13,7 +13,15 @@ import { nanoid } from 'nanoid'
 import { roleLabels, type CourseRole } from '#app/domain/permissions.ts'
 import { INVITATION_DAYS } from './access-links.server.ts'
 import type { Db } from './db/client.server.ts'
-import { accessTokens, auditEvents, courseSections, courses, memberships, sectionStaff, users } from './db/schema.server.ts'
+import {
+  accessTokens,
+  auditEvents,
+  courseSections,
+  courses,
+  memberships,
+  sectionStaff,
+  users,
+} from './db/schema.server.ts'
 import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
 import { withJobTransaction, type JobConnection } from './queue.server.ts'
@@ -62,7 +70,11 @@ type Existing = {
   hasPassword: boolean
 }
 
-async function planRoster(database: Db, courseId: number, parsed: Extract<ParsedRoster, { ok: true }>): Promise<RosterPlan> {
+async function planRoster(
+  database: Db,
+  courseId: number,
+  parsed: Extract<ParsedRoster, { ok: true }>,
+): Promise<RosterPlan> {
   const ids = [...new Set(parsed.rows.map((r) => r.studentNumber).filter((s) => s !== ''))]
   const emails = [...new Set(parsed.rows.map((r) => r.email).filter((s) => s !== ''))]
   const found: Existing[] = []
@@ -110,7 +122,10 @@ async function planRoster(database: Db, courseId: number, parsed: Extract<Parsed
       .where(and(eq(memberships.courseId, courseId), inArray(memberships.userId, part)))
     for (const m of rows) members.set(m.userId, m)
   }
-  const sections = await database.select({ name: courseSections.name }).from(courseSections).where(eq(courseSections.courseId, courseId))
+  const sections = await database
+    .select({ name: courseSections.name })
+    .from(courseSections)
+    .where(eq(courseSections.courseId, courseId))
   const sectionByKey = new Map(sections.map((s) => [s.name.toLowerCase(), s.name]))
   const newSections = new Map<string, string>()
 
@@ -142,7 +157,9 @@ async function planRoster(database: Db, courseId: number, parsed: Extract<Parsed
       return plan
     }
     if (!idOwner && emailOwner?.studentNumber && emailOwner.studentNumber !== row.studentNumber) {
-      errors.push(`The e-mail address ${row.email} is already registered to a different student ID. Check the student ID.`)
+      errors.push(
+        `The e-mail address ${row.email} is already registered to a different student ID. Check the student ID.`,
+      )
       return plan
     }
     const person = idOwner ?? emailOwner
@@ -153,12 +170,16 @@ async function planRoster(database: Db, courseId: number, parsed: Extract<Parsed
     plan.userId = person.id
     const membership = members.get(person.id)
     if (membership && membership.role !== 'student') {
-      errors.push(`${row.email} is a ${roleLabels[membership.role].toLowerCase()} of this course, so cannot be added as a student.`)
+      errors.push(
+        `${row.email} is a ${roleLabels[membership.role].toLowerCase()} of this course, so cannot be added as a student.`,
+      )
       return plan
     }
     const name = displayName(row)
-    if ((person.familyName ?? '') !== row.familyName) changes.push(`family name “${person.familyName ?? ''}” → “${row.familyName}”`)
-    if ((person.givenName ?? '') !== row.givenName) changes.push(`given name “${person.givenName ?? ''}” → “${row.givenName}”`)
+    if ((person.familyName ?? '') !== row.familyName)
+      changes.push(`family name “${person.familyName ?? ''}” → “${row.familyName}”`)
+    if ((person.givenName ?? '') !== row.givenName)
+      changes.push(`given name “${person.givenName ?? ''}” → “${row.givenName}”`)
     if (changes.length === 0 && person.name !== name) changes.push(`name “${person.name}” → “${name}”`)
     if (!person.studentNumber) changes.push(`student ID set to ${row.studentNumber}`)
     if (!membership) {
@@ -166,7 +187,8 @@ async function planRoster(database: Db, courseId: number, parsed: Extract<Parsed
       return plan
     }
     plan.dropped = membership.droppedAt !== null
-    if (section !== '' && membership.section !== section) changes.push(`section “${membership.section ?? 'none'}” → “${section}”`)
+    if (section !== '' && membership.section !== section)
+      changes.push(`section “${membership.section ?? 'none'}” → “${section}”`)
     plan.status = changes.length > 0 ? 'update' : 'unchanged'
     return plan
   })
@@ -192,7 +214,11 @@ async function planRoster(database: Db, courseId: number, parsed: Extract<Parsed
 }
 
 /** The preview: what an import would do, row by row. Writes nothing. */
-export async function previewRoster(database: Db, courseId: number, parsed: Extract<ParsedRoster, { ok: true }>): Promise<RosterPlan> {
+export async function previewRoster(
+  database: Db,
+  courseId: number,
+  parsed: Extract<ParsedRoster, { ok: true }>,
+): Promise<RosterPlan> {
   return planRoster(database, courseId, parsed)
 }
 
@@ -346,7 +372,8 @@ export async function importRoster(
     return {
       ok: false,
       plan,
-      formError: 'The accounts changed while importing, so nothing was imported. Check the rows below and import again.',
+      formError:
+        'The accounts changed while importing, so nothing was imported. Check the rows below and import again.',
     }
   }
 }
@@ -356,7 +383,10 @@ export async function importRoster(
 type CourseFacts = { id: number; code: string; title: string }
 
 async function courseFacts(database: Db, courseId: number): Promise<CourseFacts> {
-  const [course] = await database.select({ id: courses.id, code: courses.code, title: courses.title }).from(courses).where(eq(courses.id, courseId))
+  const [course] = await database
+    .select({ id: courses.id, code: courses.code, title: courses.title })
+    .from(courses)
+    .where(eq(courses.id, courseId))
   if (!course) throw new Error(`No course ${courseId}`)
   return course
 }
@@ -366,7 +396,14 @@ async function nameOf(database: Db, userId: number): Promise<string> {
   return u?.name ?? 'An instructor'
 }
 
-function invitationMail(opts: { course: CourseFacts; email: string; role: CourseRole; inviterName: string; link: string; reminder: boolean }) {
+function invitationMail(opts: {
+  course: CourseFacts
+  email: string
+  role: CourseRole
+  inviterName: string
+  link: string
+  reminder: boolean
+}) {
   return linkMail({
     to: opts.email,
     subject: `${opts.reminder ? 'Reminder: you' : 'You'} are invited to ${opts.course.code} on Cyclewright`,
@@ -384,7 +421,15 @@ function invitationMail(opts: { course: CourseFacts; email: string; role: Course
 async function createInvitations(
   tx: Db,
   jobs: JobConnection,
-  opts: { course: CourseFacts; emails: string[]; role: CourseRole; actorId: number; inviterName: string; baseUrl: string; now: Date },
+  opts: {
+    course: CourseFacts
+    emails: string[]
+    role: CourseRole
+    actorId: number
+    inviterName: string
+    baseUrl: string
+    now: Date
+  },
 ) {
   const expiresAt = new Date(opts.now.getTime() + INVITATION_DAYS * 86_400_000)
   const links = opts.emails.map((email) => ({ email, token: nanoid(32) }))
@@ -402,7 +447,9 @@ async function createInvitations(
       })),
     )
   for (const { email, token } of links)
-    await queueMail(invitationMail({ ...opts, email, link: `${opts.baseUrl}/join/${token}`, reminder: false }), { connection: jobs })
+    await queueMail(invitationMail({ ...opts, email, link: `${opts.baseUrl}/join/${token}`, reminder: false }), {
+      connection: jobs,
+    })
 }
 
 export type PendingInvitation = {
@@ -416,7 +463,11 @@ export type PendingInvitation = {
 }
 
 /** Invitations of the course not used and not revoked, oldest first; expired ones included (a resend renews them). */
-export async function listPendingInvitations(database: Db, courseId: number, now = new Date()): Promise<PendingInvitation[]> {
+export async function listPendingInvitations(
+  database: Db,
+  courseId: number,
+  now = new Date(),
+): Promise<PendingInvitation[]> {
   const rows = await database
     .select({
       id: accessTokens.id,
@@ -429,7 +480,14 @@ export async function listPendingInvitations(database: Db, courseId: number, now
     })
     .from(accessTokens)
     .leftJoin(users, eq(users.email, accessTokens.email))
-    .where(and(eq(accessTokens.courseId, courseId), eq(accessTokens.purpose, 'invitation'), isNull(accessTokens.usedAt), isNull(accessTokens.revokedAt)))
+    .where(
+      and(
+        eq(accessTokens.courseId, courseId),
+        eq(accessTokens.purpose, 'invitation'),
+        isNull(accessTokens.usedAt),
+        isNull(accessTokens.revokedAt),
+      ),
+    )
     .orderBy(asc(accessTokens.createdAt), asc(accessTokens.id))
   return rows.map((r) => ({
     id: r.id,
@@ -571,7 +629,10 @@ export type RosterMember = {
   joined: boolean
 }
 
-export async function listRoster(database: Db, courseId: number): Promise<{ active: RosterMember[]; dropped: RosterMember[] }> {
+export async function listRoster(
+  database: Db,
+  courseId: number,
+): Promise<{ active: RosterMember[]; dropped: RosterMember[] }> {
   const rows = await database
     .select({
       userId: users.id,
@@ -658,7 +719,9 @@ export async function setDropped(
     })
     return {
       ok: true as const,
-      message: input.dropped ? `${student.name} was dropped. Their answers are kept.` : `${student.name} is back on the roster.`,
+      message: input.dropped
+        ? `${student.name} was dropped. Their answers are kept.`
+        : `${student.name} is back on the roster.`,
     }
   })
 }
@@ -741,7 +804,11 @@ async function sectionNamed(tx: Db, courseId: number, name: string, exceptId?: n
     .select({ id: courseSections.id, name: courseSections.name })
     .from(courseSections)
     .where(
-      and(eq(courseSections.courseId, courseId), sql`lower(${courseSections.name}) = lower(${name})`, exceptId ? ne(courseSections.id, exceptId) : undefined),
+      and(
+        eq(courseSections.courseId, courseId),
+        sql`lower(${courseSections.name}) = lower(${name})`,
+        exceptId ? ne(courseSections.id, exceptId) : undefined,
+      ),
     )
   return row ?? null
 }
@@ -750,7 +817,10 @@ async function audit(tx: Db, row: typeof auditEvents.$inferInsert) {
   await tx.insert(auditEvents).values(row)
 }
 
-export async function createSection(database: Db, input: { courseId: number; actorId: number; name: string }): Promise<RosterChange> {
+export async function createSection(
+  database: Db,
+  input: { courseId: number; actorId: number; name: string },
+): Promise<RosterChange> {
   const checked = checkSectionName(input.name)
   if (!checked.ok) return checked
   return database.transaction(async (tx) => {
@@ -760,7 +830,10 @@ export async function createSection(database: Db, input: { courseId: number; act
         ok: false as const,
         message: `There is already a section called “${checked.name}”.`,
       }
-    const [row] = await tx.insert(courseSections).values({ courseId: input.courseId, name: checked.name }).returning({ id: courseSections.id })
+    const [row] = await tx
+      .insert(courseSections)
+      .values({ courseId: input.courseId, name: checked.name })
+      .returning({ id: courseSections.id })
     await audit(tx as unknown as Db, {
       actorId: input.actorId,
       courseId: input.courseId,
@@ -773,7 +846,10 @@ export async function createSection(database: Db, input: { courseId: number; act
 }
 
 /** Renames a section and the section of every student in it, together. */
-export async function renameSection(database: Db, input: { courseId: number; actorId: number; sectionId: number; name: string }): Promise<RosterChange> {
+export async function renameSection(
+  database: Db,
+  input: { courseId: number; actorId: number; sectionId: number; name: string },
+): Promise<RosterChange> {
   const checked = checkSectionName(input.name)
   if (!checked.ok) return checked
   return database.transaction(async (tx) => {
@@ -814,7 +890,10 @@ export async function renameSection(database: Db, input: { courseId: number; act
 }
 
 /** Deletes a section; its students are left without a section (nothing else of theirs changes). */
-export async function deleteSection(database: Db, input: { courseId: number; actorId: number; sectionId: number }): Promise<RosterChange> {
+export async function deleteSection(
+  database: Db,
+  input: { courseId: number; actorId: number; sectionId: number },
+): Promise<RosterChange> {
   return database.transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext('course-sections'), ${input.courseId})`)
     const [section] = await tx
@@ -914,14 +993,20 @@ export async function setSectionStaff(
       .select({ name: users.name })
       .from(memberships)
       .innerJoin(users, eq(users.id, memberships.userId))
-      .where(and(eq(memberships.courseId, input.courseId), eq(memberships.userId, input.userId), eq(memberships.role, 'ta')))
+      .where(
+        and(eq(memberships.courseId, input.courseId), eq(memberships.userId, input.userId), eq(memberships.role, 'ta')),
+      )
     if (!ta)
       return {
         ok: false as const,
         message: 'Only teaching assistants of this course can be assigned to a section.',
       }
     const changed = input.assigned
-      ? await tx.insert(sectionStaff).values({ sectionId: section.id, userId: input.userId }).onConflictDoNothing().returning({ id: sectionStaff.userId })
+      ? await tx
+          .insert(sectionStaff)
+          .values({ sectionId: section.id, userId: input.userId })
+          .onConflictDoNothing()
+          .returning({ id: sectionStaff.userId })
       : await tx
           .delete(sectionStaff)
           .where(and(eq(sectionStaff.sectionId, section.id), eq(sectionStaff.userId, input.userId)))
@@ -945,13 +1030,18 @@ export async function setSectionStaff(
       })
     return {
       ok: true as const,
-      message: input.assigned ? `${ta.name} looks after section ${section.name}.` : `${ta.name} no longer looks after section ${section.name}.`,
+      message: input.assigned
+        ? `${ta.name} looks after section ${section.name}.`
+        : `${ta.name} no longer looks after section ${section.name}.`,
     }
   })
 }
 
 /** Sets up, as sections, names students already carry. */
-export async function adoptLooseSections(database: Db, input: { courseId: number; actorId: number }): Promise<RosterChange> {
+export async function adoptLooseSections(
+  database: Db,
+  input: { courseId: number; actorId: number },
+): Promise<RosterChange> {
   return database.transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext('course-sections'), ${input.courseId})`)
     const names = await listLooseSectionNames(tx as unknown as Db, input.courseId)

@@ -25,7 +25,9 @@ export function sessionStorage() {
       sameSite: 'lax',
       path: '/',
       secure: (e.APP_URL ?? '').startsWith('https://'),
-      secrets: e.SESSION_SECRET.split(',').map((s) => s.trim()).filter(Boolean),
+      secrets: e.SESSION_SECRET.split(',')
+        .map((s) => s.trim())
+        .filter(Boolean),
       maxAge: e.SESSION_DAYS * 24 * 60 * 60,
     },
   })

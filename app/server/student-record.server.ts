@@ -69,14 +69,24 @@ export type RecordItem = {
   points: number
   /** the student's variant: givens as text with units, the key in each find's unit */
   variant:
-    | { ok: true; givens: { name: string; label: string; text: string }[]; key: { name: string; label: string; value: number; unit: string }[] }
+    | {
+        ok: true
+        givens: { name: string; label: string; text: string }[]
+        key: { name: string; label: string; value: number; unit: string }[]
+      }
     | { ok: false; message: string }
   finds: RecordFind[]
   /** answers to finds the current version no longer has (kept after a regrade to a new version) */
   otherAnswers: (RecordAnswer & { findName: string })[]
 }
 
-export type RecordExtension = { dueAt: string | null; extraAttempts: number; reason: string; grantedBy: string; updatedAt: string }
+export type RecordExtension = {
+  dueAt: string | null
+  extraAttempts: number
+  reason: string
+  grantedBy: string
+  updatedAt: string
+}
 
 export type RecordAssignment = {
   id: number
@@ -132,10 +142,19 @@ const pitfallTitle = (id: string) => PITFALLS.find((p) => p.id === id)?.title ??
  * The record of student `userId` in course `courseId`, or null when they are not a student of
  * that course (never a member, staff, or a member of another course only).
  */
-export async function getStudentRecord(database: Database, input: { courseId: number; userId: number }): Promise<StudentRecord | null> {
+export async function getStudentRecord(
+  database: Database,
+  input: { courseId: number; userId: number },
+): Promise<StudentRecord | null> {
   const [who] = await database
     .select({
-      course: { id: courses.id, code: courses.code, title: courses.title, timeZone: courses.timeZone, convention: courses.signConvention },
+      course: {
+        id: courses.id,
+        code: courses.code,
+        title: courses.title,
+        timeZone: courses.timeZone,
+        convention: courses.signConvention,
+      },
       user: {
         id: users.id,
         name: users.name,
@@ -151,7 +170,13 @@ export async function getStudentRecord(database: Database, input: { courseId: nu
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .innerJoin(courses, eq(courses.id, memberships.courseId))
-    .where(and(eq(memberships.courseId, input.courseId), eq(memberships.userId, input.userId), eq(memberships.role, 'student')))
+    .where(
+      and(
+        eq(memberships.courseId, input.courseId),
+        eq(memberships.userId, input.userId),
+        eq(memberships.role, 'student'),
+      ),
+    )
     .limit(1)
   if (!who) return null
   const { course, user } = who
@@ -244,7 +269,10 @@ export async function getStudentRecord(database: Database, input: { courseId: nu
       ])
     : [[], [], [], []]
 
-  const definitions = await frozenDefinitions(database, itemRows.map((i) => i.versionId))
+  const definitions = await frozenDefinitions(
+    database,
+    itemRows.map((i) => i.versionId),
+  )
   const answersOf = new Map<number, typeof answerRows>()
   for (const a of answerRows) answersOf.set(a.itemId, [...(answersOf.get(a.itemId) ?? []), a])
   const toAnswer = (a: (typeof answerRows)[number]): RecordAnswer => ({
@@ -258,11 +286,16 @@ export async function getStudentRecord(database: Database, input: { courseId: nu
     maxScore: a.maxScore,
     daysLate: a.daysLate,
     latePenalty: a.latePenalty,
-    pitfall: a.pitfallId ? { id: a.pitfallId, title: pitfallTitle(a.pitfallId), feedback: a.pitfallFeedback ?? '' } : null,
+    pitfall: a.pitfallId
+      ? { id: a.pitfallId, title: pitfallTitle(a.pitfallId), feedback: a.pitfallFeedback ?? '' }
+      : null,
     message: a.message,
   })
 
-  const itemInfo = new Map<number, { position: number; assignmentId: number; definition: ProblemDefinition | undefined }>()
+  const itemInfo = new Map<
+    number,
+    { position: number; assignmentId: number; definition: ProblemDefinition | undefined }
+  >()
   const itemsOf = new Map<number, RecordItem[]>()
   for (const row of itemRows) {
     const definition = definitions.get(row.versionId)
@@ -270,11 +303,28 @@ export async function getStudentRecord(database: Database, input: { courseId: nu
     const mine = answersOf.get(row.id) ?? []
     let item: RecordItem
     if (!definition) {
-      item = { position: row.position, title: 'A problem whose version is missing', points: row.points, variant: { ok: false, message: 'Its problem version is missing.' }, finds: [], otherAnswers: mine.map((a) => ({ ...toAnswer(a), findName: a.findName })) }
+      item = {
+        position: row.position,
+        title: 'A problem whose version is missing',
+        points: row.points,
+        variant: { ok: false, message: 'Its problem version is missing.' },
+        finds: [],
+        otherAnswers: mine.map((a) => ({ ...toAnswer(a), findName: a.findName })),
+      }
     } else {
-      const drawn = studentVariant({ versionId: row.versionId, definition, assignmentId: row.assignmentId, problemId: row.problemId, userId: user.id, courseConvention: course.convention })
+      const drawn = studentVariant({
+        versionId: row.versionId,
+        definition,
+        assignmentId: row.assignmentId,
+        problemId: row.problemId,
+        userId: user.id,
+        courseConvention: course.convention,
+      })
       const displays = new Map(definition.givens.map((g) => [g.name, g.display]))
-      const shares = findShares(row.points, definition.finds.map((f) => f.points))
+      const shares = findShares(
+        row.points,
+        definition.finds.map((f) => f.points),
+      )
       const names = new Set(definition.finds.map((f) => f.name))
       item = {
         position: row.position,
@@ -287,13 +337,25 @@ export async function getStudentRecord(database: Database, input: { courseId: nu
                 const shown = formatGivenValue(g, displays.get(g.name), { tex: false })
                 return { name: g.name, label: g.label, text: shown.ok ? shown.text : g.text }
               }),
-              key: drawn.variant.key.map((k) => ({ name: k.name, label: k.label, value: k.value, unit: unitToText(k.unit) })),
+              key: drawn.variant.key.map((k) => ({
+                name: k.name,
+                label: k.label,
+                value: k.value,
+                unit: unitToText(k.unit),
+              })),
             }
           : { ok: false, message: drawn.error.message },
         finds: definition.finds.map((f, i) => {
           const answers = mine.filter((a) => a.findName === f.name).map(toAnswer)
           const graded = answers.filter((a) => a.score !== null).map((a) => a.score!)
-          return { name: f.name, label: f.label, unit: unitToText(f.unit), share: shares[i] ?? 0, best: graded.length ? Math.max(...graded) : null, answers }
+          return {
+            name: f.name,
+            label: f.label,
+            unit: unitToText(f.unit),
+            share: shares[i] ?? 0,
+            best: graded.length ? Math.max(...graded) : null,
+            answers,
+          }
         }),
         otherAnswers: mine.filter((a) => !names.has(a.findName)).map((a) => ({ ...toAnswer(a), findName: a.findName })),
       }
@@ -313,9 +375,18 @@ export async function getStudentRecord(database: Database, input: { courseId: nu
       attemptsPerFind: a.attemptsPerFind,
       points: items.reduce((s, i) => s + i.points, 0),
       score: items.reduce((s, i) => s + i.finds.reduce((t, f) => t + (f.best ?? 0), 0), 0),
-      answered: items.reduce((s, i) => s + i.finds.reduce((t, f) => t + f.answers.length, 0) + i.otherAnswers.length, 0),
+      answered: items.reduce(
+        (s, i) => s + i.finds.reduce((t, f) => t + f.answers.length, 0) + i.otherAnswers.length,
+        0,
+      ),
       extension: ext
-        ? { dueAt: ext.dueAt?.toISOString() ?? null, extraAttempts: ext.extraAttempts, reason: ext.reason, grantedBy: ext.grantedBy, updatedAt: ext.updatedAt.toISOString() }
+        ? {
+            dueAt: ext.dueAt?.toISOString() ?? null,
+            extraAttempts: ext.extraAttempts,
+            reason: ext.reason,
+            grantedBy: ext.grantedBy,
+            updatedAt: ext.updatedAt.toISOString(),
+          }
         : null,
       items,
     }

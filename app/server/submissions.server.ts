@@ -101,7 +101,10 @@ async function loadItem(database: Database, ref: ProblemRef): Promise<LoadedItem
     })
     .from(assignments)
     .innerJoin(courses, eq(courses.id, assignments.courseId))
-    .innerJoin(assignmentItems, and(eq(assignmentItems.assignmentId, assignments.id), eq(assignmentItems.position, ref.position)))
+    .innerJoin(
+      assignmentItems,
+      and(eq(assignmentItems.assignmentId, assignments.id), eq(assignmentItems.position, ref.position)),
+    )
     .leftJoin(extensions, and(eq(extensions.assignmentId, assignments.id), eq(extensions.userId, ref.userId)))
     .where(and(eq(assignments.id, ref.assignmentId), eq(assignments.courseId, ref.courseId)))
     .limit(1)
@@ -179,7 +182,14 @@ export type FindView = {
   /** best score so far */
   score: number
   /** the latest counted answer and its grade (verdict null while it is being graded) */
-  last: { answer: string; attempt: number; verdict: PartRow['verdict']; message: string | null; pitfallFeedback: string | null; gradingFailed: boolean } | null
+  last: {
+    answer: string
+    attempt: number
+    verdict: PartRow['verdict']
+    message: string | null
+    pitfallFeedback: string | null
+    gradingFailed: boolean
+  } | null
 }
 
 export type Receipt = {
@@ -204,7 +214,10 @@ export type MyResults = {
 
 function findViews(item: LoadedItem, parts: PartRow[]): FindView[] {
   const allowed = attemptsAllowed(item.rules, item.extension)
-  const shares = findShares(item.points, item.definition.finds.map((f) => f.points))
+  const shares = findShares(
+    item.points,
+    item.definition.finds.map((f) => f.points),
+  )
   return item.definition.finds.map((f, i) => {
     const mine = parts.filter((p) => p.findName === f.name)
     const last = mine.at(-1)
@@ -221,7 +234,14 @@ function findViews(item: LoadedItem, parts: PartRow[]): FindView[] {
       attemptsAllowed: allowed,
       score: mine.reduce((best, p) => Math.max(best, p.score ?? 0), 0),
       last: last
-        ? { answer: last.answer, attempt: last.attempt, verdict: last.verdict, message: last.message, pitfallFeedback: last.pitfallFeedback, gradingFailed: last.status === 'failed' }
+        ? {
+            answer: last.answer,
+            attempt: last.attempt,
+            verdict: last.verdict,
+            message: last.message,
+            pitfallFeedback: last.pitfallFeedback,
+            gradingFailed: last.status === 'failed',
+          }
         : null,
     }
   })
@@ -233,7 +253,11 @@ async function myResults(database: Database, item: LoadedItem, userId: number): 
 
 type LatestPress = { id: number; answers: Record<string, string> }
 
-async function myResultsAndParts(database: Database, item: LoadedItem, userId: number): Promise<{ results: MyResults; parts: PartRow[]; latest: LatestPress | null }> {
+async function myResultsAndParts(
+  database: Database,
+  item: LoadedItem,
+  userId: number,
+): Promise<{ results: MyResults; parts: PartRow[]; latest: LatestPress | null }> {
   const parts = await loadParts(database, item.itemId, userId)
   const finds = findViews(item, parts)
   const subs = await database
@@ -259,7 +283,12 @@ async function myResultsAndParts(database: Database, item: LoadedItem, userId: n
     latePenalty: s.latePenalty,
     parts: parts
       .filter((p) => p.submissionId === s.id)
-      .map((p) => ({ findName: p.findName, label: labels.get(p.findName) ?? p.findName, attempt: p.attempt, of: allowed })),
+      .map((p) => ({
+        findName: p.findName,
+        label: labels.get(p.findName) ?? p.findName,
+        attempt: p.attempt,
+        of: allowed,
+      })),
   }))
   const results: MyResults = {
     finds,
@@ -269,11 +298,16 @@ async function myResultsAndParts(database: Database, item: LoadedItem, userId: n
     points: item.points,
     lastTyped: (subs[0]?.answers as Record<string, string> | undefined) ?? {},
   }
-  return { results, parts, latest: subs[0] ? { id: subs[0].id, answers: subs[0].answers as Record<string, string> } : null }
+  return {
+    results,
+    parts,
+    latest: subs[0] ? { id: subs[0].id, answers: subs[0].answers as Record<string, string> } : null,
+  }
 }
 
 /** How one press treats one find's text: not sent, skipped (already correct), refused (with why, no attempt used) or counted. */
-type PartDecision = { kind: 'blank' } | { kind: 'skip' } | { kind: 'refuse'; message: string } | { kind: 'count'; text: string }
+type PartDecision =
+  { kind: 'blank' } | { kind: 'skip' } | { kind: 'refuse'; message: string } | { kind: 'count'; text: string }
 
 /**
  * The rules of a press for one find, in order: blank, already correct, out of attempts, too
@@ -284,8 +318,13 @@ function decidePart(find: Find, typed: string, earlier: readonly PartRow[], allo
   const text = typed.slice(0, MAX_ANSWER_LENGTH).trim()
   if (text === '') return { kind: 'blank' }
   if (earlier.some((p) => p.verdict === 'correct')) return { kind: 'skip' }
-  if (earlier.length >= allowed) return { kind: 'refuse', message: `You have used all ${allowed} attempts for this question.` }
-  if (typed.length > MAX_ANSWER_LENGTH) return { kind: 'refuse', message: `This answer is longer than ${MAX_ANSWER_LENGTH} characters; shorten it. It did not use an attempt.` }
+  if (earlier.length >= allowed)
+    return { kind: 'refuse', message: `You have used all ${allowed} attempts for this question.` }
+  if (typed.length > MAX_ANSWER_LENGTH)
+    return {
+      kind: 'refuse',
+      message: `This answer is longer than ${MAX_ANSWER_LENGTH} characters; shorten it. It did not use an attempt.`,
+    }
   const check = precheckAnswer(find, text)
   if (!check.ok) return { kind: 'refuse', message: `${check.message} This did not use an attempt.` }
   return { kind: 'count', text }
@@ -302,17 +341,30 @@ function refusalsOf(item: LoadedItem, parts: readonly PartRow[], press: LatestPr
   for (const f of item.definition.finds) {
     const mine = parts.filter((p) => p.findName === f.name)
     if (mine.some((p) => p.submissionId === press.id)) continue
-    const decision = decidePart(f, String(press.answers[f.name] ?? ''), mine.filter((p) => p.submissionId < press.id), allowed)
+    const decision = decidePart(
+      f,
+      String(press.answers[f.name] ?? ''),
+      mine.filter((p) => p.submissionId < press.id),
+      allowed,
+    )
     if (decision.kind === 'refuse') out[f.name] = decision.message
     // Stored text that the rules would count now was refused for a reason the stored text no
     // longer shows (it was cut to the longest kept length).
-    else if (decision.kind === 'count') out[f.name] = 'This answer was not counted; check it and submit it again. It did not use an attempt.'
+    else if (decision.kind === 'count')
+      out[f.name] = 'This answer was not counted; check it and submit it again. It did not use an attempt.'
   }
   return out
 }
 
 export type StudentProblem = {
-  assignment: { id: number; title: string; timeZone: string; dueAt: string; hasExtension: boolean; rules: AssignmentRules }
+  assignment: {
+    id: number
+    title: string
+    timeZone: string
+    dueAt: string
+    hasExtension: boolean
+    rules: AssignmentRules
+  }
   item: { id: number; position: number; count: number; points: number; title: string }
   window: SubmissionWindow
   /** null when the variant could not be drawn (a broken problem version; staff are told) */
@@ -349,7 +401,11 @@ export async function getStudentProblem(
   const released = ref.showKey === true || isKeyReleased(item.rules, item.extension, now)
   let key: StudentProblem['key'] = null
   if (drawn.ok && released) {
-    key = { entries: drawn.variant.key, workedHtml: renderWorkedSolution(workedSolution(drawn.variant, item.definition)), diagrams: cycleDiagrams(drawn.variant.solution) }
+    key = {
+      entries: drawn.variant.key,
+      workedHtml: renderWorkedSolution(workedSolution(drawn.variant, item.definition)),
+      diagrams: cycleDiagrams(drawn.variant.solution),
+    }
   }
   const mine = await myResultsAndParts(database, item, ref.userId)
   // Only for the latest press: the form is refilled with its text, so its refusals sit beside it.
@@ -366,10 +422,18 @@ export async function getStudentProblem(
       hasExtension: item.extension !== null,
       rules: item.rules,
     },
-    item: { id: item.itemId, position: item.position, count: item.itemCount, points: item.points, title: item.definition.title },
+    item: {
+      id: item.itemId,
+      position: item.position,
+      count: item.itemCount,
+      points: item.points,
+      title: item.definition.title,
+    },
     window: submissionWindow(item.rules, item.extension, now),
     promptHtml: drawn.ok ? renderPrompt(item.definition.prompt, drawn.variant.givens, displays).html : null,
-    variantError: drawn.ok ? null : 'This problem could not be set up for you. Please tell your teacher; your answers to other problems are not affected.',
+    variantError: drawn.ok
+      ? null
+      : 'This problem could not be set up for you. Please tell your teacher; your answers to other problems are not affected.',
     results: mine.results,
     refused,
     key,
@@ -389,7 +453,10 @@ export async function getMyResults(database: Database, ref: ProblemRef & { now?:
 
 /** The course an assignment belongs to, or null. */
 export async function findAssignmentCourseId(database: Database, assignmentId: number): Promise<number | null> {
-  const [row] = await database.select({ courseId: assignments.courseId }).from(assignments).where(eq(assignments.id, assignmentId))
+  const [row] = await database
+    .select({ courseId: assignments.courseId })
+    .from(assignments)
+    .where(eq(assignments.id, assignmentId))
   return row?.courseId ?? null
 }
 
@@ -407,7 +474,12 @@ export type SubmitResult =
     }
   | { ok: false; formError: string; fieldErrors: Record<string, string>; values: Record<string, string> }
 
-function receiptOf(item: LoadedItem, allowed: number, sub: { id: number; submittedAt: Date; daysLate: number; latePenalty: number; status: Receipt['status'] }, counted: readonly { findName: string; attempt: number }[]): Receipt {
+function receiptOf(
+  item: LoadedItem,
+  allowed: number,
+  sub: { id: number; submittedAt: Date; daysLate: number; latePenalty: number; status: Receipt['status'] },
+  counted: readonly { findName: string; attempt: number }[],
+): Receipt {
   const labels = new Map(item.definition.finds.map((f) => [f.name, f.label]))
   return {
     submissionId: sub.id,
@@ -415,7 +487,12 @@ function receiptOf(item: LoadedItem, allowed: number, sub: { id: number; submitt
     status: sub.status,
     daysLate: sub.daysLate,
     latePenalty: sub.latePenalty,
-    parts: counted.map((c) => ({ findName: c.findName, label: labels.get(c.findName) ?? c.findName, attempt: c.attempt, of: allowed })),
+    parts: counted.map((c) => ({
+      findName: c.findName,
+      label: labels.get(c.findName) ?? c.findName,
+      attempt: c.attempt,
+      of: allowed,
+    })),
   }
 }
 
@@ -447,7 +524,13 @@ async function answerRepeat(
 ): Promise<SubmitResult> {
   const answers = stored.answers as Record<string, string>
   if (stored.itemId !== item.itemId) {
-    return { ok: false, formError: 'This form was already sent from another problem’s page. Reload this page and submit again; your answers are still in the form.', fieldErrors: {}, values: typed }
+    return {
+      ok: false,
+      formError:
+        'This form was already sent from another problem’s page. Reload this page and submit again; your answers are still in the form.',
+      fieldErrors: {},
+      values: typed,
+    }
   }
   const parts = await loadParts(database, item.itemId, userId)
   const allowed = attemptsAllowed(item.rules, item.extension)
@@ -477,7 +560,10 @@ function isFormTokenClash(e: unknown): boolean {
  * first did (`repeated`). Without a token (a page from before tokens) the press is stored
  * as a fresh one. Never throws for a student's input.
  */
-export async function submitAnswers(database: Db, ref: ProblemRef & { answers: Record<string, string>; now?: Date; formToken?: string | null }): Promise<SubmitResult> {
+export async function submitAnswers(
+  database: Db,
+  ref: ProblemRef & { answers: Record<string, string>; now?: Date; formToken?: string | null },
+): Promise<SubmitResult> {
   const formToken = ref.formToken && FORM_TOKEN_PATTERN.test(ref.formToken) ? ref.formToken : null
   try {
     return await storePress(database, { ...ref, formToken })
@@ -488,13 +574,18 @@ export async function submitAnswers(database: Db, ref: ProblemRef & { answers: R
   }
 }
 
-async function storePress(database: Db, ref: ProblemRef & { answers: Record<string, string>; now?: Date; formToken: string | null }): Promise<SubmitResult> {
+async function storePress(
+  database: Db,
+  ref: ProblemRef & { answers: Record<string, string>; now?: Date; formToken: string | null },
+): Promise<SubmitResult> {
   const values: Record<string, string> = {}
   return withJobTransaction(database, async (tx, jobs) => {
     const item = await loadItem(tx, ref)
-    if (!item) return { ok: false, formError: 'There is no such problem in this course.', fieldErrors: {}, values: ref.answers }
+    if (!item)
+      return { ok: false, formError: 'There is no such problem in this course.', fieldErrors: {}, values: ref.answers }
     for (const f of item.definition.finds) values[f.name] = (ref.answers[f.name] ?? '').slice(0, MAX_ANSWER_LENGTH)
-    if ((await droppedFrom(tx, ref.userId, ref.courseId)) !== null) return { ok: false, formError: DROPPED_SUBMIT_MESSAGE, fieldErrors: {}, values }
+    if ((await droppedFrom(tx, ref.userId, ref.courseId)) !== null)
+      return { ok: false, formError: DROPPED_SUBMIT_MESSAGE, fieldErrors: {}, values }
     // The clock is read inside the transaction, after the lock, so lateness is judged at storage time.
     await tx.execute(sql`select pg_advisory_xact_lock(${item.itemId}, ${ref.userId})`)
     // After the lock: a press with the same token that got here first has committed, so it is seen.
@@ -515,7 +606,10 @@ async function storePress(database: Db, ref: ProblemRef & { answers: Record<stri
     }
     const parts = await loadParts(tx, item.itemId, ref.userId)
     const allowed = attemptsAllowed(item.rules, item.extension)
-    const shares = findShares(item.points, item.definition.finds.map((f) => f.points))
+    const shares = findShares(
+      item.points,
+      item.definition.finds.map((f) => f.points),
+    )
     const fieldErrors: Record<string, string> = {}
     const skipped: string[] = []
     const counted: { findName: string; answer: string; attempt: number; maxScore: number }[] = []
@@ -524,7 +618,8 @@ async function storePress(database: Db, ref: ProblemRef & { answers: Record<stri
       const decision = decidePart(f, ref.answers[f.name] ?? '', mine, allowed)
       if (decision.kind === 'skip') skipped.push(f.name)
       else if (decision.kind === 'refuse') fieldErrors[f.name] = decision.message
-      else if (decision.kind === 'count') counted.push({ findName: f.name, answer: decision.text, attempt: mine.length + 1, maxScore: shares[i] ?? 0 })
+      else if (decision.kind === 'count')
+        counted.push({ findName: f.name, answer: decision.text, attempt: mine.length + 1, maxScore: shares[i] ?? 0 })
     })
     if (counted.length === 0) {
       const formError =
@@ -537,12 +632,19 @@ async function storePress(database: Db, ref: ProblemRef & { answers: Record<stri
     }
     // The submission and its parts in one statement (one round trip fewer on the busiest path).
     const partValues = sql.join(
-      counted.map((c) => sql`(${c.findName}::text, ${c.answer}::text, ${c.attempt}::int, ${c.maxScore}::double precision)`),
+      counted.map(
+        (c) => sql`(${c.findName}::text, ${c.answer}::text, ${c.attempt}::int, ${c.maxScore}::double precision)`,
+      ),
       sql`, `,
     )
     const daysLate = window.state === 'late' ? window.daysLate : 0
     const penalty = window.state === 'late' ? window.penalty : 0
-    const inserted = await tx.execute<{ id: number; submitted_at: Date | string; days_late: number; late_penalty: number }>(sql`
+    const inserted = await tx.execute<{
+      id: number
+      submitted_at: Date | string
+      days_late: number
+      late_penalty: number
+    }>(sql`
       with s as (
         insert into ${submissions} (assignment_id, item_id, user_id, answers, submitted_at, days_late, late_penalty, form_token)
         values (${item.assignmentId}, ${item.itemId}, ${ref.userId}, ${JSON.stringify(values)}::jsonb, ${now.toISOString()}::timestamptz, ${daysLate}, ${penalty}, ${ref.formToken}::text)
@@ -554,7 +656,12 @@ async function storePress(database: Db, ref: ProblemRef & { answers: Record<stri
       )
       select id, submitted_at, days_late, late_penalty from s`)
     const row = inserted.rows[0]!
-    const sub = { id: row.id, submittedAt: new Date(row.submitted_at), daysLate: row.days_late, latePenalty: Number(row.late_penalty) }
+    const sub = {
+      id: row.id,
+      submittedAt: new Date(row.submitted_at),
+      daysLate: row.days_late,
+      latePenalty: Number(row.late_penalty),
+    }
     await enqueue('grade-submission', { v: 1, submissionId: sub.id }, { connection: jobs })
     return {
       ok: true,

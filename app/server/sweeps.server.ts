@@ -56,14 +56,26 @@ export type StartedSweep = { sweepId: number; reused: boolean }
  * Inserted as 'queued' with its job in one transaction, under an advisory lock so that
  * parallel starts cannot both pass the counts.
  */
-export async function startSweep(database: Db, input: { versionId: number; requestedBy: number; total?: number }): Promise<StartedSweep> {
+export async function startSweep(
+  database: Db,
+  input: { versionId: number; requestedBy: number; total?: number },
+): Promise<StartedSweep> {
   const total = clampSweepTotal(input.total)
   return withJobTransaction(database, async (tx, jobs) => {
     await tx.execute(sql`select pg_advisory_xact_lock(${SWEEP_START_LOCK})`)
-    const [version] = await tx.select({ problemId: problemVersions.problemId }).from(problemVersions).where(eq(problemVersions.id, input.versionId))
+    const [version] = await tx
+      .select({ problemId: problemVersions.problemId })
+      .from(problemVersions)
+      .where(eq(problemVersions.id, input.versionId))
     if (!version) throw data('There is no such problem version to check.', { status: 404 })
     const active = await tx
-      .select({ id: problemSweeps.id, versionId: problemSweeps.problemVersionId, number: problemVersions.number, problemId: problemVersions.problemId, requestedBy: problemSweeps.requestedBy })
+      .select({
+        id: problemSweeps.id,
+        versionId: problemSweeps.problemVersionId,
+        number: problemVersions.number,
+        problemId: problemVersions.problemId,
+        requestedBy: problemSweeps.requestedBy,
+      })
       .from(problemSweeps)
       .innerJoin(problemVersions, eq(problemVersions.id, problemSweeps.problemVersionId))
       .where(
@@ -78,15 +90,21 @@ export async function startSweep(database: Db, input: { versionId: number; reque
     const sameVersion = sameProblem.find((a) => a.versionId === input.versionId)
     if (sameVersion) return { sweepId: sameVersion.id, reused: true }
     if (sameProblem.length > 0) {
-      throw data(`A check of version ${sameProblem[0]!.number} of this problem is still running. Start another once it has finished (usually within a minute).`, {
-        status: 409,
-      })
+      throw data(
+        `A check of version ${sameProblem[0]!.number} of this problem is still running. Start another once it has finished (usually within a minute).`,
+        {
+          status: 409,
+        },
+      )
     }
     const mine = active.filter((a) => a.requestedBy === input.requestedBy)
     if (mine.length >= MAX_ACTIVE_SWEEPS_PER_USER) {
-      throw data(`You already have ${mine.length} checks waiting or running, the most at once. Start this one when one of them has finished (usually within a minute).`, {
-        status: 429,
-      })
+      throw data(
+        `You already have ${mine.length} checks waiting or running, the most at once. Start this one when one of them has finished (usually within a minute).`,
+        {
+          status: 429,
+        },
+      )
     }
     const [row] = await tx
       .insert(problemSweeps)

@@ -9,7 +9,13 @@ export function normaliseEmail(email: string): string {
 
 export async function findUserByEmail(database: Db, email: string) {
   const rows = await database
-    .select({ id: users.id, email: users.email, name: users.name, passwordHash: users.passwordHash, isAdmin: users.isAdmin })
+    .select({
+      id: users.id,
+      email: users.email,
+      name: users.name,
+      passwordHash: users.passwordHash,
+      isAdmin: users.isAdmin,
+    })
     .from(users)
     .where(eq(users.email, normaliseEmail(email)))
     .limit(1)

@@ -18,7 +18,9 @@ function fakeBuild(outcome: Awaited<ReturnType<typeof buildTermExport>> = 'done'
 describe('handleExportGrades', () => {
   test('builds the export named in the payload and returns what the build says', async () => {
     const { build, calls } = fakeBuild('already-done')
-    expect(await handleExportGrades({ v: 1, exportId: 42 }, { database, attempt: { number: 1, of: 3 }, build })).toBe('already-done')
+    expect(await handleExportGrades({ v: 1, exportId: 42 }, { database, attempt: { number: 1, of: 3 }, build })).toBe(
+      'already-done',
+    )
     expect(calls).toEqual([{ database, exportId: 42, lastAttempt: false }])
   })
 
@@ -40,7 +42,9 @@ describe('handleExportGrades', () => {
     ['another version', { v: 2, exportId: 7 }],
   ])('a malformed payload (%s) fails for good without building', async (_what, payload) => {
     const { build, calls } = fakeBuild()
-    await expect(handleExportGrades(payload, { database, attempt: { number: 1, of: 3 }, build })).rejects.toBeInstanceOf(PermanentJobError)
+    await expect(
+      handleExportGrades(payload, { database, attempt: { number: 1, of: 3 }, build }),
+    ).rejects.toBeInstanceOf(PermanentJobError)
     expect(calls).toEqual([])
   })
 
@@ -49,6 +53,8 @@ describe('handleExportGrades', () => {
     const build: typeof buildTermExport = async () => {
       throw error
     }
-    await expect(handleExportGrades({ v: 1, exportId: 7 }, { database, attempt: { number: 1, of: 3 }, build })).rejects.toBe(error)
+    await expect(
+      handleExportGrades({ v: 1, exportId: 7 }, { database, attempt: { number: 1, of: 3 }, build }),
+    ).rejects.toBe(error)
   })
 })

@@ -11,7 +11,10 @@ export type ExportGradesDeps = { database: Db; attempt: { number: number; of: nu
 
 export async function handleExportGrades(payload: unknown, deps: ExportGradesDeps): Promise<BuildOutcome> {
   const parsed = queuePayloads['export-grades'].safeParse(payload)
-  if (!parsed.success) throw new PermanentJobError(`export-grades payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
+  if (!parsed.success)
+    throw new PermanentJobError(`export-grades payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
   // The last attempt records the failure for the admin; earlier ones put the export back in the queue.
-  return (deps.build ?? buildTermExport)(deps.database, parsed.data.exportId, { lastAttempt: deps.attempt.number >= deps.attempt.of })
+  return (deps.build ?? buildTermExport)(deps.database, parsed.data.exportId, {
+    lastAttempt: deps.attempt.number >= deps.attempt.of,
+  })
 }

@@ -11,15 +11,20 @@ test('grades the submission named by the payload', async () => {
   expect(grade).toHaveBeenCalledWith(database, 42)
 })
 
-test.each([[{ v: 1 }], [{ v: 2, submissionId: 1 }], [{ v: 1, submissionId: -3 }], ['42'], [null]])('a malformed payload %j fails for good', async (payload) => {
-  const grade = vi.fn()
-  await expect(handleGradeSubmission(payload, { database, grade })).rejects.toBeInstanceOf(PermanentJobError)
-  expect(grade).not.toHaveBeenCalled()
-})
+test.each([[{ v: 1 }], [{ v: 2, submissionId: 1 }], [{ v: 1, submissionId: -3 }], ['42'], [null]])(
+  'a malformed payload %j fails for good',
+  async (payload) => {
+    const grade = vi.fn()
+    await expect(handleGradeSubmission(payload, { database, grade })).rejects.toBeInstanceOf(PermanentJobError)
+    expect(grade).not.toHaveBeenCalled()
+  },
+)
 
 test('a database failure is thrown, so pg-boss retries the job', async () => {
   const grade = vi.fn(async () => {
     throw new Error('connection reset')
   })
-  await expect(handleGradeSubmission({ v: 1, submissionId: 7 }, { database, grade })).rejects.toThrow('connection reset')
+  await expect(handleGradeSubmission({ v: 1, submissionId: 7 }, { database, grade })).rejects.toThrow(
+    'connection reset',
+  )
 })

@@ -13,10 +13,14 @@ export type GradeSubmissionDeps = { database: Db; grade?: typeof gradeSubmission
 
 export async function handleGradeSubmission(payload: unknown, deps: GradeSubmissionDeps): Promise<GradeOutcome> {
   const parsed = queuePayloads['grade-submission'].safeParse(payload)
-  if (!parsed.success) throw new PermanentJobError(`grade-submission payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
+  if (!parsed.success)
+    throw new PermanentJobError(
+      `grade-submission payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`,
+    )
   const outcome = await (deps.grade ?? gradeSubmission)(deps.database, parsed.data.submissionId)
   // Thrown so pg-boss retries it: the transaction holding it may yet roll back.
-  if (outcome === 'busy') throw new Error(`submission ${parsed.data.submissionId} is being graded by another transaction; trying again later`)
+  if (outcome === 'busy')
+    throw new Error(`submission ${parsed.data.submissionId} is being graded by another transaction; trying again later`)
   return outcome
 }
 
@@ -24,7 +28,9 @@ export async function handleGradeSubmission(payload: unknown, deps: GradeSubmiss
  * The jobs of a fetched batch whose payload names a submission, with its id, and the others
  * (which the worker runs one by one, so they fail for good on their own).
  */
-export function splitGradeJobs<J extends { data: unknown }>(jobs: readonly J[]): { valid: { job: J; submissionId: number }[]; invalid: J[] } {
+export function splitGradeJobs<J extends { data: unknown }>(
+  jobs: readonly J[],
+): { valid: { job: J; submissionId: number }[]; invalid: J[] } {
   const valid: { job: J; submissionId: number }[] = []
   const invalid: J[] = []
   for (const job of jobs) {

@@ -27,9 +27,14 @@ const definition = { convention: 'course' } as unknown as ProblemDefinition
 /** A sweep that fails every seed divisible by 3 and records what it was asked. */
 function fakeSweep() {
   const calls: { seeds: number[]; convention: string; keep: number | undefined }[] = []
-  const sweep = (_def: ProblemDefinition, options: { seeds: readonly number[]; convention: 'chemistry' | 'engineering'; keep?: number }): SweepSummary => {
+  const sweep = (
+    _def: ProblemDefinition,
+    options: { seeds: readonly number[]; convention: 'chemistry' | 'engineering'; keep?: number },
+  ): SweepSummary => {
     calls.push({ seeds: [...options.seeds], convention: options.convention, keep: options.keep })
-    const failures: SweepFailure[] = options.seeds.filter((s) => s % 3 === 0).map((seed) => ({ seed, code: 'solve-error', message: `seed ${seed}` }))
+    const failures: SweepFailure[] = options.seeds
+      .filter((s) => s % 3 === 0)
+      .map((seed) => ({ seed, code: 'solve-error', message: `seed ${seed}` }))
     return { checked: options.seeds.length, failed: failures.length, failures: failures.slice(0, options.keep ?? 200) }
   }
   return { sweep, calls }
@@ -49,14 +54,23 @@ describe('handleProblemSweep', () => {
     // 'course' has no course to take a convention from in the bank.
     expect(calls.every((c) => c.convention === 'engineering')).toBe(true)
 
-    expect(updates[0]).toMatchObject({ status: 'running', checked: 0, failed: 0, failures: [], error: null, finishedAt: null })
+    expect(updates[0]).toMatchObject({
+      status: 'running',
+      checked: 0,
+      failed: 0,
+      failures: [],
+      error: null,
+      finishedAt: null,
+    })
     expect(updates[0]!.startedAt).toBeInstanceOf(Date)
     expect(updates.slice(1, 4).map((u) => [u.checked, u.failed])).toEqual([
       [25, 8],
       [50, 16],
       [60, 20],
     ])
-    expect((updates[3]!.failures as SweepFailure[]).map((f) => f.seed)).toEqual(Array.from({ length: 20 }, (_, i) => 3 * (i + 1)))
+    expect((updates[3]!.failures as SweepFailure[]).map((f) => f.seed)).toEqual(
+      Array.from({ length: 20 }, (_, i) => 3 * (i + 1)),
+    )
     expect(updates[4]).toMatchObject({ status: 'done' })
     expect(updates[4]!.finishedAt).toBeInstanceOf(Date)
     expect(updates).toHaveLength(5)
@@ -99,7 +113,9 @@ describe('handleProblemSweep', () => {
   test('a malformed payload throws a permanent error before touching the database', async () => {
     const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
     for (const payload of [null, {}, { v: 2, sweepId: 1 }, { v: 1, sweepId: -1 }, { v: 1, sweepId: '1' }]) {
-      await expect(handleProblemSweep(payload, { database, sweep: fakeSweep().sweep })).rejects.toBeInstanceOf(PermanentJobError)
+      await expect(handleProblemSweep(payload, { database, sweep: fakeSweep().sweep })).rejects.toBeInstanceOf(
+        PermanentJobError,
+      )
     }
     expect(updates).toEqual([])
   })
@@ -115,20 +131,42 @@ describe('handleProblemSweep', () => {
 
   test('an attempt that fails with retries left puts the sweep back in the queue and says a retry is coming', async () => {
     const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
-    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep: failingSweep(), chunk: 25, attempt: { number: 1, of: 3 } })).rejects.toThrow('solver blew up')
+    await expect(
+      handleProblemSweep(
+        { v: 1, sweepId: 7 },
+        { database, sweep: failingSweep(), chunk: 25, attempt: { number: 1, of: 3 } },
+      ),
+    ).rejects.toThrow('solver blew up')
     expect(updates.map((u) => u.status ?? 'progress')).toEqual(['running', 'progress', 'queued'])
-    expect(updates.at(-1)).toEqual({ status: 'queued', finishedAt: null, error: 'Attempt 1 of 3 stopped (solver blew up); trying again shortly.' })
+    expect(updates.at(-1)).toEqual({
+      status: 'queued',
+      finishedAt: null,
+      error: 'Attempt 1 of 3 stopped (solver blew up); trying again shortly.',
+    })
   })
 
   test('the next-to-last attempt still waits for the last one', async () => {
     const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
-    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep: failingSweep(), chunk: 25, attempt: { number: 2, of: 3 } })).rejects.toThrow()
-    expect(updates.at(-1)).toMatchObject({ status: 'queued', error: 'Attempt 2 of 3 stopped (solver blew up); trying again shortly.' })
+    await expect(
+      handleProblemSweep(
+        { v: 1, sweepId: 7 },
+        { database, sweep: failingSweep(), chunk: 25, attempt: { number: 2, of: 3 } },
+      ),
+    ).rejects.toThrow()
+    expect(updates.at(-1)).toMatchObject({
+      status: 'queued',
+      error: 'Attempt 2 of 3 stopped (solver blew up); trying again shortly.',
+    })
   })
 
   test('the last attempt marks the sweep failed, saying how many attempts were made', async () => {
     const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
-    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep: failingSweep(), chunk: 25, attempt: { number: 3, of: 3 } })).rejects.toThrow('solver blew up')
+    await expect(
+      handleProblemSweep(
+        { v: 1, sweepId: 7 },
+        { database, sweep: failingSweep(), chunk: 25, attempt: { number: 3, of: 3 } },
+      ),
+    ).rejects.toThrow('solver blew up')
     expect(updates.map((u) => u.status ?? 'progress')).toEqual(['running', 'progress', 'failed'])
     expect(updates.at(-1)!.error).toBe('The check stopped after 3 attempts: solver blew up')
     expect(updates.at(-1)!.finishedAt).toBeInstanceOf(Date)
@@ -137,8 +175,13 @@ describe('handleProblemSweep', () => {
   test('a permanent error marks the sweep failed even with retries left', async () => {
     const { database, updates } = fakeDatabase({ status: 'queued', total: 60, definition })
     const sweep = failingSweep(new PermanentJobError('this version can never be checked'))
-    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep, chunk: 25, attempt: { number: 1, of: 3 } })).rejects.toBeInstanceOf(PermanentJobError)
-    expect(updates.at(-1)).toMatchObject({ status: 'failed', error: 'The check stopped: this version can never be checked' })
+    await expect(
+      handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep, chunk: 25, attempt: { number: 1, of: 3 } }),
+    ).rejects.toBeInstanceOf(PermanentJobError)
+    expect(updates.at(-1)).toMatchObject({
+      status: 'failed',
+      error: 'The check stopped: this version can never be checked',
+    })
   })
 
   test('without attempt numbers an error is taken as final: failed, with a one-line message, thrown again', async () => {
@@ -148,7 +191,9 @@ describe('handleProblemSweep', () => {
       if (++n === 2) throw new Error('solver blew up\n    at somewhere.ts:1')
       return { checked: o.seeds.length, failed: 0, failures: [] }
     }
-    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep, chunk: 25 })).rejects.toThrow('solver blew up')
+    await expect(handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep, chunk: 25 })).rejects.toThrow(
+      'solver blew up',
+    )
     expect(updates.map((u) => u.status ?? 'progress')).toEqual(['running', 'progress', 'failed'])
     expect(updates.at(-1)!.error).toBe('The check stopped: solver blew up')
   })

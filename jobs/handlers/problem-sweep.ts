@@ -51,8 +51,10 @@ function willRetry(e: unknown, attempt: SweepAttempt | undefined): boolean {
 
 /** The row's error text while a retry waits, and once the check has stopped for good. */
 export function sweepErrorText(e: unknown, attempt: SweepAttempt | undefined): string {
-  if (attempt !== undefined && willRetry(e, attempt)) return `Attempt ${attempt.number} of ${attempt.of} stopped (${reason(e)}); trying again shortly.`
-  const tries = attempt !== undefined && attempt.of > 1 && !(e instanceof PermanentJobError) ? ` after ${attempt.of} attempts` : ''
+  if (attempt !== undefined && willRetry(e, attempt))
+    return `Attempt ${attempt.number} of ${attempt.of} stopped (${reason(e)}); trying again shortly.`
+  const tries =
+    attempt !== undefined && attempt.of > 1 && !(e instanceof PermanentJobError) ? ` after ${attempt.of} attempts` : ''
   return `The check stopped${tries}: ${reason(e)}`
 }
 
@@ -60,7 +62,9 @@ export function sweepErrorText(e: unknown, attempt: SweepAttempt | undefined): s
 export async function handleProblemSweep(payload: unknown, deps: ProblemSweepDeps): Promise<ProblemSweepOutcome> {
   const parsed = queuePayloads['problem-sweep'].safeParse(payload)
   if (!parsed.success) {
-    throw new PermanentJobError(`problem-sweep payload is malformed: ${parsed.error.issues.map((i) => `${i.path.join('.') || '(payload)'}: ${i.message}`).join('; ')}`)
+    throw new PermanentJobError(
+      `problem-sweep payload is malformed: ${parsed.error.issues.map((i) => `${i.path.join('.') || '(payload)'}: ${i.message}`).join('; ')}`,
+    )
   }
   const { sweepId } = parsed.data
   const { database } = deps
@@ -78,7 +82,18 @@ export async function handleProblemSweep(payload: unknown, deps: ProblemSweepDep
 
   const where = eq(problemSweeps.id, sweepId)
   try {
-    await database.update(problemSweeps).set({ status: 'running', startedAt: new Date(), finishedAt: null, error: null, checked: 0, failed: 0, failures: [] }).where(where)
+    await database
+      .update(problemSweeps)
+      .set({
+        status: 'running',
+        startedAt: new Date(),
+        finishedAt: null,
+        error: null,
+        checked: 0,
+        failed: 0,
+        failures: [],
+      })
+      .where(where)
     const definition = row.definition as ProblemDefinition
     // A bank problem belongs to no course, so 'course' has none to take; the check does
     // not depend on the convention except for signs, and engineering is the common one.
@@ -103,10 +118,18 @@ export async function handleProblemSweep(payload: unknown, deps: ProblemSweepDep
   } catch (e) {
     try {
       // The row tells the author what will happen next: a retry is coming, or nothing is.
-      const next = willRetry(e, deps.attempt) ? { status: 'queued' as const, finishedAt: null } : { status: 'failed' as const, finishedAt: new Date() }
-      await database.update(problemSweeps).set({ ...next, error: sweepErrorText(e, deps.attempt) }).where(where)
+      const next = willRetry(e, deps.attempt)
+        ? { status: 'queued' as const, finishedAt: null }
+        : { status: 'failed' as const, finishedAt: new Date() }
+      await database
+        .update(problemSweeps)
+        .set({ ...next, error: sweepErrorText(e, deps.attempt) })
+        .where(where)
     } catch (writeError) {
-      console.error(`problem-sweep ${sweepId}: could not record the failure:`, writeError instanceof Error ? writeError.message : writeError)
+      console.error(
+        `problem-sweep ${sweepId}: could not record the failure:`,
+        writeError instanceof Error ? writeError.message : writeError,
+      )
     }
     throw e
   }

@@ -13,7 +13,8 @@ export type PurgeOutcome = { sessions: number; attempts: number }
 
 export async function handlePurgeExpired(payload: unknown, deps: { database: Db; now?: Date }): Promise<PurgeOutcome> {
   const parsed = queuePayloads['purge-expired'].safeParse(payload)
-  if (!parsed.success) throw new PermanentJobError(`purge-expired payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
+  if (!parsed.success)
+    throw new PermanentJobError(`purge-expired payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
   const now = deps.now ?? new Date()
   const sessions = await purgeExpiredSessions(deps.database, now)
   const attempts = await clearOldAttempts(deps.database, now)

@@ -13,9 +13,13 @@ function reason(e: unknown): string {
   return line.length > 300 ? `${line.slice(0, 297)}…` : line
 }
 
-export async function handleRegrade(payload: unknown, deps: { database: Db; attempt: { number: number; of: number } }): Promise<RunRegradeOutcome> {
+export async function handleRegrade(
+  payload: unknown,
+  deps: { database: Db; attempt: { number: number; of: number } },
+): Promise<RunRegradeOutcome> {
   const parsed = queuePayloads.regrade.safeParse(payload)
-  if (!parsed.success) throw new PermanentJobError(`regrade payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
+  if (!parsed.success)
+    throw new PermanentJobError(`regrade payload is not valid: ${parsed.error.issues[0]?.message ?? 'unknown'}`)
   const { regradeId } = parsed.data
   try {
     return await runRegrade(deps.database, regradeId)
@@ -27,7 +31,10 @@ export async function handleRegrade(payload: unknown, deps: { database: Db; atte
     try {
       await recordRegradeFailure(deps.database, regradeId, { message, willRetry })
     } catch (writeError) {
-      console.error(`regrade ${regradeId}: could not record the failure:`, writeError instanceof Error ? writeError.message : writeError)
+      console.error(
+        `regrade ${regradeId}: could not record the failure:`,
+        writeError instanceof Error ? writeError.message : writeError,
+      )
     }
     throw e
   }

@@ -19,9 +19,22 @@ function recorder(fail?: unknown) {
 describe('handleSendMail', () => {
   test('sends the queued message as composed', async () => {
     const { sent, send } = recorder()
-    const payload = { v: 1, to: 'ada@test.example', subject: 'Grades released', text: 'Your grades are in.', html: '<p>Your grades are in.</p>' }
+    const payload = {
+      v: 1,
+      to: 'ada@test.example',
+      subject: 'Grades released',
+      text: 'Your grades are in.',
+      html: '<p>Your grades are in.</p>',
+    }
     expect(await handleSendMail(payload, { database, attempt, send })).toBe('sent')
-    expect(sent).toEqual([{ to: 'ada@test.example', subject: 'Grades released', text: 'Your grades are in.', html: '<p>Your grades are in.</p>' }])
+    expect(sent).toEqual([
+      {
+        to: 'ada@test.example',
+        subject: 'Grades released',
+        text: 'Your grades are in.',
+        html: '<p>Your grades are in.</p>',
+      },
+    ])
   })
 
   test('a message without HTML is sent as text only', async () => {
@@ -47,14 +60,20 @@ describe('handleSendMail', () => {
     ['a temporary refusal', Object.assign(new Error('451 try again later'), { responseCode: 451 })],
   ])('%s is thrown as it is, so the job is retried', async (_what, error) => {
     const { send } = recorder(error)
-    const thrown = await handleSendMail({ v: 1, to: 'a@test.example', subject: 'S', text: 'T' }, { database, attempt, send }).catch((e: unknown) => e)
+    const thrown = await handleSendMail(
+      { v: 1, to: 'a@test.example', subject: 'S', text: 'T' },
+      { database, attempt, send },
+    ).catch((e: unknown) => e)
     expect(thrown).toBe(error)
     expect(thrown).not.toBeInstanceOf(PermanentJobError)
   })
 
   test('a permanent refusal (5xx) fails for good with the server’s answer', async () => {
     const { send } = recorder(Object.assign(new Error('550 mailbox unavailable'), { responseCode: 550 }))
-    const thrown = await handleSendMail({ v: 1, to: 'a@test.example', subject: 'S', text: 'T' }, { database, attempt, send }).catch((e: unknown) => e)
+    const thrown = await handleSendMail(
+      { v: 1, to: 'a@test.example', subject: 'S', text: 'T' },
+      { database, attempt, send },
+    ).catch((e: unknown) => e)
     expect(thrown).toBeInstanceOf(PermanentJobError)
     expect((thrown as Error).message).toContain('550 mailbox unavailable')
   })

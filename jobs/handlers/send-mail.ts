@@ -11,7 +11,11 @@ import type { Db } from '#app/server/db/client.server.ts'
 import { sendMail, type OutgoingMail } from '#app/server/email.server.ts'
 import { PermanentJobError, queuePayloads } from '#app/server/queue.server.ts'
 
-export type SendMailDeps = { database: Db; attempt: { number: number; of: number }; send?: (mail: OutgoingMail) => Promise<unknown> }
+export type SendMailDeps = {
+  database: Db
+  attempt: { number: number; of: number }
+  send?: (mail: OutgoingMail) => Promise<unknown>
+}
 
 function smtpResponseCode(e: unknown): number | undefined {
   const code = (e as { responseCode?: unknown } | null)?.responseCode
@@ -20,14 +24,18 @@ function smtpResponseCode(e: unknown): number | undefined {
 
 export async function handleSendMail(payload: unknown, deps: SendMailDeps): Promise<'sent'> {
   const parsed = queuePayloads['send-mail'].safeParse(payload)
-  if (!parsed.success) throw new PermanentJobError(`send-mail payload is not valid: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`)
+  if (!parsed.success)
+    throw new PermanentJobError(
+      `send-mail payload is not valid: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`,
+    )
   const { to, subject, text, html } = parsed.data
   try {
     await (deps.send ?? sendMail)(html === undefined ? { to, subject, text } : { to, subject, text, html })
   } catch (e) {
     const code = smtpResponseCode(e)
     const message = e instanceof Error ? e.message : String(e)
-    if (code !== undefined && code >= 500 && code < 600) throw new PermanentJobError(`The mail server refused the message for good (${code}): ${message}`)
+    if (code !== undefined && code >= 500 && code < 600)
+      throw new PermanentJobError(`The mail server refused the message for good (${code}): ${message}`)
     throw e
   }
   return 'sent'

@@ -4,18 +4,33 @@ import { describe, expect, test } from 'vitest'
 import { MAX_ATTACHMENT_BYTES } from '#app/lib/dispute-limits.ts'
 import { MAX_IMPORT_BYTES } from '#app/routes/bank/import.tsx'
 import { MAX_DISPUTE_BODY_BYTES } from '#app/routes/courses/assignments/dispute.tsx'
-import { BANK_IMPORT_DOCUMENT_BYTES, BodyTooLargeError, boundedBody, bodyLimitFor, DEFAULT_BODY_BYTES } from './body-limit.ts'
+import {
+  BANK_IMPORT_DOCUMENT_BYTES,
+  BodyTooLargeError,
+  boundedBody,
+  bodyLimitFor,
+  DEFAULT_BODY_BYTES,
+} from './body-limit.ts'
 
 describe('limits per path', () => {
   test('come from the pages’ own limits: the dispute upload and the bank import, 1 MB for everything else', () => {
     expect(BANK_IMPORT_DOCUMENT_BYTES).toBe(MAX_IMPORT_BYTES)
-    for (const path of ['/courses/3/assignments/7/problems/2/dispute', '/courses/3/assignments/7/problems/2/dispute.data']) {
+    for (const path of [
+      '/courses/3/assignments/7/problems/2/dispute',
+      '/courses/3/assignments/7/problems/2/dispute.data',
+    ]) {
       expect(bodyLimitFor(path).limit).toBe(MAX_DISPUTE_BODY_BYTES)
     }
     expect(MAX_DISPUTE_BODY_BYTES).toBeGreaterThan(MAX_ATTACHMENT_BYTES)
     expect(bodyLimitFor('/bank/import').limit).toBeGreaterThan(MAX_IMPORT_BYTES)
     expect(bodyLimitFor('/bank/import.data').limit).toBe(bodyLimitFor('/bank/import').limit)
-    for (const path of ['/sign-in', '/api/preview', '/courses/3/assignments/7/problems/2', '/courses/3/assignments/7/problems/2/dispute/x', '/bank/import/x']) {
+    for (const path of [
+      '/sign-in',
+      '/api/preview',
+      '/courses/3/assignments/7/problems/2',
+      '/courses/3/assignments/7/problems/2/dispute/x',
+      '/bank/import/x',
+    ]) {
       expect(bodyLimitFor(path).limit).toBe(DEFAULT_BODY_BYTES)
     }
   })

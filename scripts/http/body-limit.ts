@@ -106,7 +106,9 @@ export function limitBodies() {
     if (stated !== undefined) {
       const length = Number(stated)
       if (!Number.isSafeInteger(length) || length < 0) {
-        refuse(req, res, 400, 'That request could not be read', 'The request states a length that is not a number.', { close: true })
+        refuse(req, res, 400, 'That request could not be read', 'The request states a length that is not a number.', {
+          close: true,
+        })
         return
       }
       if (length > limit) {

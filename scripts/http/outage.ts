@@ -36,7 +36,10 @@ export function withOutagePages(build: ServerBuild, log: (line: string) => void 
 }
 
 /** The same for a build loaded on each request (development): wrapped once per build. */
-export function withOutagePagesLazy(load: () => Promise<ServerBuild>, log?: (line: string) => void): () => Promise<ServerBuild> {
+export function withOutagePagesLazy(
+  load: () => Promise<ServerBuild>,
+  log?: (line: string) => void,
+): () => Promise<ServerBuild> {
   const wrapped = new WeakMap<ServerBuild, ServerBuild>()
   return async () => {
     const build = await load()

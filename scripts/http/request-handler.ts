@@ -38,7 +38,11 @@ export function createRequestHandler(opts: {
       res.on('close', () => {
         if (!res.writableFinished) controller.abort()
       })
-      const init: RequestInit & { duplex?: 'half' } = { method: req.method, headers: headersOf(req), signal: controller.signal }
+      const init: RequestInit & { duplex?: 'half' } = {
+        method: req.method,
+        headers: headersOf(req),
+        signal: controller.signal,
+      }
       if (req.method !== 'GET' && req.method !== 'HEAD') {
         const body = (res.locals as BodyLocals).body
         if (!body) throw new Error('The body limit middleware must run before the React Router handler.')
@@ -81,7 +85,8 @@ async function send(req: ExpressRequest, res: ExpressResponse, response: Respons
   }
   for (const [key, value] of response.headers.entries()) res.append(key, value)
   // A database outage (scripts/http/outage.ts): tell clients and balancers when to retry.
-  if (response.status === 503 && !response.headers.has('retry-after')) res.setHeader('Retry-After', String(RETRY_AFTER_SECONDS))
+  if (response.status === 503 && !response.headers.has('retry-after'))
+    res.setHeader('Retry-After', String(RETRY_AFTER_SECONDS))
   // A body still arriving that nobody read (a chunked post to a page that ignores it): do
   // not keep reading it for the next request on this connection.
   if (req.method !== 'GET' && req.method !== 'HEAD' && !req.complete) res.setHeader('Connection', 'close')

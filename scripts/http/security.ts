@@ -35,7 +35,9 @@ export function securityHeaders(mode: 'production' | 'development') {
       useDefaults: false,
       directives: {
         defaultSrc: ["'self'"],
-        scriptSrc: dev ? ["'self'", "'unsafe-inline'"] : ["'self'", (_req, res) => `'nonce-${nonceOf(res as Response)}'`],
+        scriptSrc: dev
+          ? ["'self'", "'unsafe-inline'"]
+          : ["'self'", (_req, res) => `'nonce-${nonceOf(res as Response)}'`],
         styleSrc: ["'self'", "'unsafe-inline'"],
         imgSrc: ["'self'", 'data:'],
         fontSrc: ["'self'", 'data:'],

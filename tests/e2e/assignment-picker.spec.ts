@@ -23,7 +23,9 @@ test('a checked version is taken; an unchecked one is refused until the override
     [instructorEmail],
   )
   expect(course, 'a demo course of the instructor').toBeTruthy()
-  const [source] = await e2eQuery<{ problem_id: number; version_id: number }>('select problem_id, id as version_id from problem_versions order by id limit 1')
+  const [source] = await e2eQuery<{ problem_id: number; version_id: number }>(
+    'select problem_id, id as version_id from problem_versions order by id limit 1',
+  )
   const stamp = Date.now().toString(36)
   // Two problems of the instructor's, set up directly: one whose version passed its check, one never checked.
   const make = async (title: string) => {
@@ -41,10 +43,10 @@ test('a checked version is taken; an unchecked one is refused until the override
   const uncheckedTitle = `Unchecked drill ${stamp}`
   const checked = await make(checkedTitle)
   const unchecked = await make(uncheckedTitle)
-  await e2eQuery(`insert into problem_sweeps (problem_version_id, requested_by, status, total, checked, failed) values ($1, $2, 'done', 500, 500, 0)`, [
-    checked.versionId,
-    course!.instructor_id,
-  ])
+  await e2eQuery(
+    `insert into problem_sweeps (problem_version_id, requested_by, status, total, checked, failed) values ($1, $2, 'done', 500, 500, 0)`,
+    [checked.versionId, course!.instructor_id],
+  )
 
   await signIn(page, baseURL, instructorEmail, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
@@ -53,10 +55,14 @@ test('a checked version is taken; an unchecked one is refused until the override
   await page.getByLabel('Title').fill(title)
 
   const row1 = page.locator('#af-items-0-versionId')
-  const checkedRadio = row1.getByRole('radio', { name: new RegExp(`^${escape(checkedTitle)}, Version 1 .*Checked: 500 of 500 variants passed`) })
+  const checkedRadio = row1.getByRole('radio', {
+    name: new RegExp(`^${escape(checkedTitle)}, Version 1 .*Checked: 500 of 500 variants passed`),
+  })
   await checkedRadio.check()
   // Each version links to its preview in the bank.
-  expect(await row1.getByRole('link', { name: `Preview ${checkedTitle}, version 1` }).getAttribute('href')).toBe(`/bank/${checked.problemId}?version=1`)
+  expect(await row1.getByRole('link', { name: `Preview ${checkedTitle}, version 1` }).getAttribute('href')).toBe(
+    `/bank/${checked.problemId}?version=1`,
+  )
   await page.getByRole('button', { name: 'Add a problem' }).click()
 
   const row2 = page.locator('#af-items-1-versionId')
@@ -65,7 +71,13 @@ test('a checked version is taken; an unchecked one is refused until the override
   await page.getByRole('button', { name: 'Create assignment' }).click()
 
   // Refused, with the reason beside the field; what was typed is still there.
-  await page.getByText('Never checked. Choose a version whose check passed, or tick “Assign although the version was never checked” to assign it anyway.', { exact: true }).first().waitFor()
+  await page
+    .getByText(
+      'Never checked. Choose a version whose check passed, or tick “Assign although the version was never checked” to assign it anyway.',
+      { exact: true },
+    )
+    .first()
+    .waitFor()
   expect(page.url()).toContain('/assignments/new')
   expect(await page.getByLabel('Title').inputValue()).toBe(title)
   expect(await e2eQuery('select id from assignments where title = $1', [title])).toEqual([])
@@ -78,10 +90,18 @@ test('a checked version is taken; an unchecked one is refused until the override
 
   const [saved] = await e2eQuery<{ id: number }>('select id from assignments where title = $1', [title])
   expect(saved).toBeTruthy()
-  const items = await e2eQuery<{ problem_version_id: number }>('select problem_version_id from assignment_items where assignment_id = $1 order by position', [saved!.id])
+  const items = await e2eQuery<{ problem_version_id: number }>(
+    'select problem_version_id from assignment_items where assignment_id = $1 order by position',
+    [saved!.id],
+  )
   expect(items.map((i) => i.problem_version_id)).toEqual([checked.versionId, unchecked.versionId])
-  const audit = await e2eQuery<{ after: unknown }>(`select after from audit_events where assignment_id = $1 and kind = 'assignment-check-overridden'`, [saved!.id])
-  expect(audit).toEqual([{ after: { items: [{ position: 2, versionId: unchecked.versionId, check: 'Never checked' }] } }])
+  const audit = await e2eQuery<{ after: unknown }>(
+    `select after from audit_events where assignment_id = $1 and kind = 'assignment-check-overridden'`,
+    [saved!.id],
+  )
+  expect(audit).toEqual([
+    { after: { items: [{ position: 2, versionId: unchecked.versionId, check: 'Never checked' }] } },
+  ])
 
   // On a phone the choices fit: the radio rows and the preview links end within 390 px.
   await page.setViewportSize({ width: 390, height: 844 })

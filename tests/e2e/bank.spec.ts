@@ -27,7 +27,9 @@ test('an instructor writes a problem, previews it, checks it, exports it and imp
 
   await field('title').fill(title)
   await field('tags.topics').fill('carnot, second law')
-  await field('prompt').fill('A reversible engine runs between $T_H = $ [Th] and a cold reservoir at 300 K. What is its efficiency?')
+  await field('prompt').fill(
+    'A reversible engine runs between $T_H = $ [Th] and a cold reservoir at 300 K. What is its efficiency?',
+  )
   await field('givens.0.name').fill('Th')
   await field('givens.0.label').fill('hot reservoir temperature')
   await field('givens.0.unit').fill('K')
@@ -54,7 +56,10 @@ test('an instructor writes a problem, previews it, checks it, exports it and imp
 
   // The live preview draws the seeded variants while the author types.
   const preview = page.locator('#preview')
-  await preview.getByRole('heading', { name: /seed 1/ }).first().waitFor({ timeout: 30_000 })
+  await preview
+    .getByRole('heading', { name: /seed 1/ })
+    .first()
+    .waitFor({ timeout: 30_000 })
   await expect.poll(() => preview.getByText('Thermal efficiency').count(), { timeout: 30_000 }).toBeGreaterThan(0)
 
   await page.getByRole('button', { name: 'Save' }).click()
@@ -64,7 +69,10 @@ test('an instructor writes a problem, previews it, checks it, exports it and imp
 
   // The key of each previewed variant is the Carnot efficiency 1 − Tc/Th of its own givens
   // (common practice: the Carnot efficiency of reversible engines).
-  const [version] = await e2eQuery<{ definition: { givens: { name: string }[] } }>('select definition from problem_versions where problem_id = $1', [problemId])
+  const [version] = await e2eQuery<{ definition: { givens: { name: string }[] } }>(
+    'select definition from problem_versions where problem_id = $1',
+    [problemId],
+  )
   expect(version!.definition.givens[0]!.name).toBe('Th')
   const columns = page.locator('[data-variant-seed]')
   expect(await columns.count()).toBe(3)
@@ -83,15 +91,24 @@ test('an instructor writes a problem, previews it, checks it, exports it and imp
   await page.getByText('All 50 variants are physical.').waitFor({ timeout: 60_000 })
 
   // Export this problem, then import the document again.
-  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Export', exact: true }).click()])
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('link', { name: 'Export', exact: true }).click(),
+  ])
   const file = await download.path()
-  const doc = JSON.parse(fs.readFileSync(file, 'utf8')) as { format: string; version: number; problems: { definition: { title: string } }[] }
+  const doc = JSON.parse(fs.readFileSync(file, 'utf8')) as {
+    format: string
+    version: number
+    problems: { definition: { title: string } }[]
+  }
   expect(doc.format).toBe('cyclewright-bank')
   expect(doc.version).toBe(2)
   expect(doc.problems.map((p) => p.definition.title)).toEqual([title])
 
   await page.goto(`${baseURL}/bank/import`)
-  await page.getByLabel('Bank document').setInputFiles({ name: 'bank.json', mimeType: 'application/json', buffer: fs.readFileSync(file) })
+  await page
+    .getByLabel('Bank document')
+    .setInputFiles({ name: 'bank.json', mimeType: 'application/json', buffer: fs.readFileSync(file) })
   await page.getByRole('button', { name: 'Import' }).click()
   await page.waitForURL(/\/bank\?imported=1/)
   await page.getByText('Imported 1 problem into your bank').waitFor()
@@ -104,8 +121,15 @@ test('a document with an invalid problem is refused whole, with the problem and 
   await page.waitForURL(`${baseURL}/`)
   const before = await e2eQuery<{ n: number }>('select count(*)::int as n from problems')
   await page.goto(`${baseURL}/bank/import`)
-  const bad = { format: 'cyclewright-bank', version: 1, exportedAt: new Date().toISOString(), problems: [{ title: 'Broken', definition: { format: 1, title: 'Broken' } }] }
-  await page.getByLabel('Bank document').setInputFiles({ name: 'broken.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(bad)) })
+  const bad = {
+    format: 'cyclewright-bank',
+    version: 1,
+    exportedAt: new Date().toISOString(),
+    problems: [{ title: 'Broken', definition: { format: 1, title: 'Broken' } }],
+  }
+  await page
+    .getByLabel('Bank document')
+    .setInputFiles({ name: 'broken.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(bad)) })
   await page.getByRole('button', { name: 'Import' }).click()
   const alert = page.getByRole('alert')
   await alert.waitFor()
@@ -118,7 +142,9 @@ test('a document with an invalid problem is refused whole, with the problem and 
 test('students cannot open the bank', async () => {
   await signIn(page, baseURL, demoStudents()[2]!.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
-  expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Problem bank' }).count()).toBe(0)
+  expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Problem bank' }).count()).toBe(
+    0,
+  )
   const res = await page.goto(`${baseURL}/bank`)
   expect(res?.status()).toBe(403)
   const api = await page.goto(`${baseURL}/api/problems`)

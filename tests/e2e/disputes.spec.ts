@@ -16,7 +16,15 @@ const baseURL = inject('baseURL')
 let page: Page
 useBrowserPage((p) => (page = p))
 
-type Target = { course_id: number; assignment_id: number; position: number; find_name: string; email: string; name: string; user_id: number }
+type Target = {
+  course_id: number
+  assignment_id: number
+  position: number
+  find_name: string
+  email: string
+  name: string
+  user_id: number
+}
 
 /** A demo student with a wrong graded answer on the open week-9 assignment and no dispute yet. */
 async function studentToDispute(): Promise<Target> {
@@ -40,12 +48,17 @@ async function raiseWithFile(t: Target, problemUrl: string, file: { name: string
   const disputeLink = page.locator(`a[href$="/dispute?find=${t.find_name}"]`)
   await disputeLink.first().click()
   await page.getByLabel('Why do you think the verdict is wrong?').waitFor()
-  await page.getByLabel('Why do you think the verdict is wrong?').fill('I used the isentropic relation correctly; my working is attached. Please check the rounding.')
+  await page
+    .getByLabel('Why do you think the verdict is wrong?')
+    .fill('I used the isentropic relation correctly; my working is attached. Please check the rounding.')
   await page.getByLabel('Your worked solution (optional)').setInputFiles(file)
   await page.getByRole('button', { name: 'Send dispute' }).click()
   await page.waitForURL(/\?disputed=/)
   await page.getByText('Your dispute was sent; you will get an e-mail when it is resolved.').waitFor()
-  await page.getByText(/Dispute open since/).first().waitFor()
+  await page
+    .getByText(/Dispute open since/)
+    .first()
+    .waitFor()
   await page.getByRole('button', { name: 'Sign out' }).click()
   await page.waitForURL(/\/sign-in/)
 }
@@ -80,12 +93,20 @@ test('a student disputes a verdict with a file, a TA adjusts it, and everyone se
 
   await page.getByLabel('Adjust this find’s score').check()
   await page.getByLabel('New score').fill('1')
-  await page.getByLabel('Comment to the student').fill('Your method is right; one point for it, the rounding cost the rest.')
+  await page
+    .getByLabel('Comment to the student')
+    .fill('Your method is right; one point for it, the rounding cost the rest.')
   await page.getByRole('button', { name: 'Resolve dispute' }).click()
   await page.getByText(/Resolved: 1 answer/).waitFor()
 
   // The e-mail to the student went through the queue to the outbox.
-  const lastMail = async () => (await e2eQuery<{ subject: string; text: string }>('select subject, text from mail_messages where $1 = any(envelope_to) order by id desc limit 1', [t.email]))[0]
+  const lastMail = async () =>
+    (
+      await e2eQuery<{ subject: string; text: string }>(
+        'select subject, text from mail_messages where $1 = any(envelope_to) order by id desc limit 1',
+        [t.email],
+      )
+    )[0]
   await expect.poll(lastMail, { timeout: 20_000 }).toBeTruthy()
   expect((await lastMail())!.text).toContain('one point for it')
 
@@ -95,7 +116,10 @@ test('a student disputes a verdict with a file, a TA adjusts it, and everyone se
     [t.user_id, t.assignment_id, t.position, t.find_name],
   )
   expect(score!.score).toBe(1)
-  const [audit] = await e2eQuery<{ n: number }>(`select count(*)::int as n from audit_events where kind = 'dispute' and user_id = $1`, [t.user_id])
+  const [audit] = await e2eQuery<{ n: number }>(
+    `select count(*)::int as n from audit_events where kind = 'dispute' and user_id = $1`,
+    [t.user_id],
+  )
   expect(audit!.n).toBe(1)
   await page.getByRole('button', { name: 'Sign out' }).click()
   await page.waitForURL(/\/sign-in/)
@@ -104,7 +128,10 @@ test('a student disputes a verdict with a file, a TA adjusts it, and everyone se
   await signIn(page, baseURL, t.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
   await page.goto(problemUrl)
-  await page.getByText(/Score adjusted: from .* to 1/).first().waitFor()
+  await page
+    .getByText(/Score adjusted: from .* to 1/)
+    .first()
+    .waitFor()
 })
 
 test('a PDF that carries JavaScript is offered as a download only: never opened in the page, and its script never runs', async () => {
@@ -123,7 +150,9 @@ test('a PDF that carries JavaScript is offered as a download only: never opened 
   await reviewAsTa(t)
   const link = page.getByRole('link', { name: 'Download working.pdf' })
   await link.waitFor()
-  await page.getByText('PDF files are downloaded, not opened here, so nothing inside them runs in this site.', { exact: false }).waitFor()
+  await page
+    .getByText('PDF files are downloaded, not opened here, so nothing inside them runs in this site.', { exact: false })
+    .waitFor()
   expect(await page.getByText(/\(PDF, \d+ bytes\)/).count()).toBe(1)
   // Nothing on the page opens the file: no frame, embed or object points at it.
   expect(await page.locator('iframe, embed, object').count()).toBe(0)
@@ -131,7 +160,11 @@ test('a PDF that carries JavaScript is offered as a download only: never opened 
   const href = (await link.getAttribute('href'))!
   const headers = await page.evaluate(async (url) => {
     const r = await fetch(url)
-    return { type: r.headers.get('content-type'), disposition: r.headers.get('content-disposition'), csp: r.headers.get('content-security-policy') }
+    return {
+      type: r.headers.get('content-type'),
+      disposition: r.headers.get('content-disposition'),
+      csp: r.headers.get('content-security-policy'),
+    }
   }, href)
   expect(headers.type).toBe('application/pdf')
   expect(headers.disposition).toMatch(/^attachment; filename="working\.pdf"/)

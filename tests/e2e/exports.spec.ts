@@ -33,7 +33,10 @@ test('the instructor downloads the XLSX, and it holds the totals the page shows'
   )
   expect(onScreen.length).toBeGreaterThan(0)
 
-  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download XLSX' }).click()])
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('link', { name: 'Download XLSX' }).click(),
+  ])
   expect(download.suggestedFilename()).toMatch(/-grades-\d{4}-\d{2}-\d{2}\.xlsx$/)
   const dir = await fs.mkdtemp(path.join(os.tmpdir(), 'cw-xlsx-'))
   try {
@@ -56,7 +59,9 @@ test('the instructor downloads the XLSX, and it holds the totals the page shows'
     }
     // Numbers as numbers, the same figures as on the page, in the same order.
     for (const r of inFile) expect(typeof r.total).toBe('number')
-    expect(inFile.map((r) => ({ name: r.name, total: String(r.total) }))).toEqual(onScreen.map((r) => ({ name: r.name, total: r.total.trim() })))
+    expect(inFile.map((r) => ({ name: r.name, total: String(r.total) }))).toEqual(
+      onScreen.map((r) => ({ name: r.name, total: r.total.trim() })),
+    )
   } finally {
     await fs.rm(dir, { recursive: true, force: true })
   }

@@ -54,12 +54,20 @@ test('an instructor invites a student, who follows the e-mailed link, sets a pas
   const email = `invited.${Date.now()}@students.kestrel-hollow.example`
   await signIn(page, baseURL, demoPeople.instructors[0]!.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
-  await page.getByRole('list', { name: 'Courses' }).getByRole('link', { name: /ENTH 210 Engineering Thermodynamics I/ }).click()
+  await page
+    .getByRole('list', { name: 'Courses' })
+    .getByRole('link', { name: /ENTH 210 Engineering Thermodynamics I/ })
+    .click()
   await page.getByRole('navigation', { name: 'Course' }).getByRole('link', { name: 'People' }).click()
   // The course header is rendered once, by the course layout, with the current page marked.
   await page.getByRole('heading', { level: 1, name: 'People' }).waitFor()
   expect(await page.getByRole('navigation', { name: 'Course' }).count()).toBe(1)
-  expect(await page.getByRole('navigation', { name: 'Course' }).getByRole('link', { name: 'People' }).getAttribute('aria-current')).toBe('page')
+  expect(
+    await page
+      .getByRole('navigation', { name: 'Course' })
+      .getByRole('link', { name: 'People' })
+      .getAttribute('aria-current'),
+  ).toBe('page')
   await page.getByLabel('E-mail address').fill(email)
   await page.getByLabel('Role').selectOption('student')
   await page.getByRole('button', { name: 'Send invitation' }).click()
@@ -69,7 +77,13 @@ test('an instructor invites a student, who follows the e-mailed link, sets a pas
 
   // The message went over real SMTP to the local catcher, which stored it in PostgreSQL.
   // It is sent by the worker's 'send-mail' job, so it may take a moment.
-  const lastMail = async () => (await e2eQuery<{ text: string; subject: string }>('select text, subject from mail_messages where $1 = any(envelope_to) order by id desc limit 1', [email]))[0]
+  const lastMail = async () =>
+    (
+      await e2eQuery<{ text: string; subject: string }>(
+        'select text, subject from mail_messages where $1 = any(envelope_to) order by id desc limit 1',
+        [email],
+      )
+    )[0]
   await expect.poll(lastMail, { timeout: 20_000 }).toBeTruthy()
   const mail = await lastMail()
   expect(mail?.subject).toBe('You are invited to ENTH 210 on Cyclewright')

@@ -21,7 +21,9 @@ test('the instructor’s gradebook shows a new answer graded without a reload', 
 
   await signIn(page, baseURL, demoPeople.instructors[0]!.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
-  await page.goto(`${baseURL}/courses/${ref.courseId}/assignments/${ref.assignmentId}/gradebook?q=${encodeURIComponent(student.email)}&expand=1`)
+  await page.goto(
+    `${baseURL}/courses/${ref.courseId}/assignments/${ref.assignmentId}/gradebook?q=${encodeURIComponent(student.email)}&expand=1`,
+  )
   // The row by the student's e-mail: the gradebook writes names family name first.
   const row = page.getByRole('row', { name: new RegExp(student.email.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')) })
   await row.waitFor()

@@ -20,9 +20,15 @@ const TITLE = 'Week 11: Rankine cycles'
 let original: string | null = null
 
 beforeAll(async () => {
-  const [row] = await e2eQuery<{ instructions: string | null }>('select instructions from assignments where title = $1', [TITLE])
+  const [row] = await e2eQuery<{ instructions: string | null }>(
+    'select instructions from assignments where title = $1',
+    [TITLE],
+  )
   original = row?.instructions ?? null
-  await e2eQuery('update assignments set instructions = $2 where title = $1', [TITLE, `${original ?? ''}\n\nThe efficiency is $\\eta = W_{\\text{net}}/Q_{\\text{in}}$.`])
+  await e2eQuery('update assignments set instructions = $2 where title = $1', [
+    TITLE,
+    `${original ?? ''}\n\nThe efficiency is $\\eta = W_{\\text{net}}/Q_{\\text{in}}$.`,
+  ])
 })
 
 afterAll(async () => {
@@ -60,7 +66,9 @@ test('the assignment page typesets the math in its instructions once', async () 
   const html = await page.locator('.prompt-html .katex-html').first().boundingBox()
   expect(html?.width ?? 0).toBeGreaterThan(20)
   // The stylesheet comes from the root, once.
-  const sheets = await page.evaluate(() => [...document.querySelectorAll('link[rel="stylesheet"]')].map((l) => (l as HTMLLinkElement).href))
+  const sheets = await page.evaluate(() =>
+    [...document.querySelectorAll('link[rel="stylesheet"]')].map((l) => (l as HTMLLinkElement).href),
+  )
   expect(new Set(sheets).size).toBe(sheets.length)
 })
 

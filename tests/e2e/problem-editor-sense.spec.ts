@@ -50,7 +50,9 @@ test('the editor offers only pitfalls that can fire, warns when the words and th
 
   // The question says "by the air"; with no sense a chemistry-convention course keys it negative.
   const warning = page.locator('#' + (await field('finds.0.sense').getAttribute('id'))! + '-warning')
-  await expect.poll(() => warning.textContent(), { timeout: 15_000 }).toMatch(/in a chemistry-convention course the key is the work done on the system/)
+  await expect
+    .poll(() => warning.textContent(), { timeout: 15_000 })
+    .toMatch(/in a chemistry-convention course the key is the work done on the system/)
   // No °C reaches the solver: that pitfall is not offered; the sign one is, for the net work.
   await expect.poll(() => pitfallBox(0, 'sign-convention-flipped').count(), { timeout: 15_000 }).toBe(1)
   expect(await pitfallBox(0, 'celsius-for-kelvin').count()).toBe(0)
@@ -68,7 +70,10 @@ test('the editor offers only pitfalls that can fire, warns when the words and th
   await page.getByRole('button', { name: 'Save' }).click()
   await page.getByRole('heading', { level: 1, name: title }).waitFor()
   const problemId = Number(new URL(page.url()).pathname.split('/').pop())
-  const [version] = await e2eQuery<{ definition: { finds: { sense?: string; pitfalls: string[] }[] } }>('select definition from problem_versions where problem_id = $1', [problemId])
+  const [version] = await e2eQuery<{ definition: { finds: { sense?: string; pitfalls: string[] }[] } }>(
+    'select definition from problem_versions where problem_id = $1',
+    [problemId],
+  )
   expect(version!.definition.finds[0]!.sense).toBe('work-by-system')
   expect(version!.definition.finds[0]!.pitfalls).toEqual(['sign-convention-flipped'])
 })

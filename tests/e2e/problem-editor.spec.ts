@@ -87,7 +87,9 @@ test('empty rows show hints, not values; Insert a given puts [T1] at the cursor;
   // At once, in the page: no round trip, and what was typed elsewhere stays.
   expect(page.url()).toBe(url)
   expect(await field('prompt').inputValue()).toBe('Air at [T1] (dry) enters.[T1]')
-  expect(await page.evaluate(() => document.activeElement?.id)).toBe(await page.locator('section[aria-labelledby="givens-title"]').getAttribute('id'))
+  expect(await page.evaluate(() => document.activeElement?.id)).toBe(
+    await page.locator('section[aria-labelledby="givens-title"]').getAttribute('id'),
+  )
   // The list beside the prompt follows the givens.
   await page.getByRole('button', { name: /^Insert \[p1\]/ }).waitFor({ timeout: 15_000 })
   await expect.poll(() => page.getByRole('button', { name: /^Insert \[T1\]/ }).count(), { timeout: 15_000 }).toBe(0)

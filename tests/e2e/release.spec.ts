@@ -26,8 +26,13 @@ test('the instructor releases grades through the confirmation; the student’s h
     `select u.email from memberships m join users u on u.id = m.user_id where m.course_id = $1 and m.role = 'student' and m.dropped_at is null order by u.id limit 1`,
     [course!.id],
   )
-  const [{ n: students } = { n: 0 }] = await e2eQuery<{ n: number }>(`select count(*)::int as n from memberships where course_id = $1 and role = 'student' and dropped_at is null`, [course!.id])
-  const [item] = await e2eQuery<{ problem_id: number; problem_version_id: number }>('select problem_id, problem_version_id from assignment_items order by id limit 1')
+  const [{ n: students } = { n: 0 }] = await e2eQuery<{ n: number }>(
+    `select count(*)::int as n from memberships where course_id = $1 and role = 'student' and dropped_at is null`,
+    [course!.id],
+  )
+  const [item] = await e2eQuery<{ problem_id: number; problem_version_id: number }>(
+    'select problem_id, problem_version_id from assignment_items order by id limit 1',
+  )
   const stamp = Date.now().toString(36)
   const pastTitle = `Release drill ${stamp}`
   const dueTitle = `Due soon ${stamp}`
@@ -37,7 +42,10 @@ test('the instructor releases grades through the confirmation; the student’s h
       `insert into assignments (course_id, title, opens_at, due_at, created_by) values ($1, $2, $3, $4, $5) returning id`,
       [course!.id, title, opensAt, dueAt, course!.instructor_id],
     )
-    await e2eQuery('insert into assignment_items (assignment_id, position, problem_id, problem_version_id, points) values ($1, 1, $2, $3, 10)', [a!.id, item!.problem_id, item!.problem_version_id])
+    await e2eQuery(
+      'insert into assignment_items (assignment_id, position, problem_id, problem_version_id, points) values ($1, 1, $2, $3, 10)',
+      [a!.id, item!.problem_id, item!.problem_version_id],
+    )
     return a!.id
   }
   const now = Date.now()
@@ -50,13 +58,25 @@ test('the instructor releases grades through the confirmation; the student’s h
   await page.goto(`${baseURL}/courses/${course!.id}/assignments/${pastId}`)
   await page.getByRole('button', { name: 'Release grades…' }).click()
   await page.waitForURL(/\?confirm=release-grades/)
-  await page.getByText(`E-mails ${students} student${students === 1 ? '' : 's'} their score for ${pastTitle}; this cannot be undone.`).waitFor()
+  await page
+    .getByText(
+      `E-mails ${students} student${students === 1 ? '' : 's'} their score for ${pastTitle}; this cannot be undone.`,
+    )
+    .waitFor()
   // Nothing is released by the first press.
-  expect((await e2eQuery<{ at: Date | null }>('select grades_released_at as at from assignments where id = $1', [pastId]))[0]!.at).toBeNull()
+  expect(
+    (
+      await e2eQuery<{ at: Date | null }>('select grades_released_at as at from assignments where id = $1', [pastId])
+    )[0]!.at,
+  ).toBeNull()
   await page.getByRole('button', { name: 'Yes, release the grades' }).click()
   await page.waitForURL(/\?done=grades/)
   await page.getByText('The grades are released; students are being e-mailed their scores.').waitFor()
-  expect((await e2eQuery<{ at: Date | null }>('select grades_released_at as at from assignments where id = $1', [pastId]))[0]!.at).not.toBeNull()
+  expect(
+    (
+      await e2eQuery<{ at: Date | null }>('select grades_released_at as at from assignments where id = $1', [pastId])
+    )[0]!.at,
+  ).not.toBeNull()
   await page.getByRole('button', { name: 'Sign out' }).click()
   await page.waitForURL(/\/sign-in/)
 

@@ -39,7 +39,10 @@ test('an instructor imports a class list, fixes a bad row, revokes an invitation
      returning id`,
     [`RST ${k}`],
   )
-  await e2eQuery(`insert into memberships (user_id, course_id, role) select id, $1, 'instructor' from users where email = $2`, [course!.id, instructor.email])
+  await e2eQuery(
+    `insert into memberships (user_id, course_id, role) select id, $1, 'instructor' from users where email = $2`,
+    [course!.id, instructor.email],
+  )
 
   await signIn(page, baseURL, instructor.email, DEMO_PASSWORD)
   await page.waitForURL(`${baseURL}/`)
@@ -54,14 +57,18 @@ test('an instructor imports a class list, fixes a bad row, revokes an invitation
     `R${k}2;Lindqvist;Maja;maja.${k}-at-students.example;Lab 1`,
     `R${k}3;Serrano;Tomás;tomas.${k}@students.example;Lab 2`,
   ].join('\r\n')
-  await page.getByLabel('CSV file').setInputFiles({ name: 'class-list.csv', mimeType: 'text/csv', buffer: Buffer.from(`\uFEFF${csv}\r\n`, 'utf8') })
+  await page
+    .getByLabel('CSV file')
+    .setInputFiles({ name: 'class-list.csv', mimeType: 'text/csv', buffer: Buffer.from(`\uFEFF${csv}\r\n`, 'utf8') })
   await page.getByRole('button', { name: 'Check the list' }).click()
   await page.getByRole('heading', { name: 'Rows to fix (1)' }).waitFor()
   const badRow = page.getByRole('row', { name: /Lindqvist/ })
   await badRow.getByText('The e-mail address is not valid', { exact: false }).waitFor()
   // Nothing is offered to import while a row is wrong, and nothing was written.
   expect(await page.getByRole('button', { name: /^Import \d+ student/ }).count()).toBe(0)
-  expect(await e2eQuery('select 1 from memberships where course_id = $1 and role = $2', [course!.id, 'student'])).toHaveLength(0)
+  expect(
+    await e2eQuery('select 1 from memberships where course_id = $1 and role = $2', [course!.id, 'student']),
+  ).toHaveLength(0)
   await expectNoSidewaysScroll()
 
   // Fix the row in the box that holds the list, and check again.
@@ -78,7 +85,8 @@ test('an instructor imports a class list, fixes a bad row, revokes an invitation
   await page.waitForURL(/\/people\?imported=3/)
   await page.getByText('Class list imported: 3 students added, 0 updated, 3 invitations sent.').waitFor()
   const roster = page.getByRole('table', { name: `People in RST ${k}` })
-  for (const name of ['Chidi Abara', 'Maja Lindqvist', 'Tomás Serrano']) await roster.getByRole('rowheader', { name: new RegExp(name) }).waitFor()
+  for (const name of ['Chidi Abara', 'Maja Lindqvist', 'Tomás Serrano'])
+    await roster.getByRole('rowheader', { name: new RegExp(name) }).waitFor()
   await page.getByRole('heading', { name: 'Invitations not yet accepted (3)' }).waitFor()
   await expectNoSidewaysScroll()
 
@@ -86,16 +94,20 @@ test('an instructor imports a class list, fixes a bad row, revokes an invitation
   await page.getByRole('button', { name: `Revoke the invitation to tomas.${k}@students.example` }).click()
   await page.getByText(`The invitation to tomas.${k}@students.example was revoked; its link no longer works.`).waitFor()
   await page.getByRole('heading', { name: 'Invitations not yet accepted (2)' }).waitFor()
-  const [revoked] = await e2eQuery<{ token: string; revoked: boolean }>(`select token, revoked_at is not null as revoked from access_tokens where email = $1`, [
-    `tomas.${k}@students.example`,
-  ])
+  const [revoked] = await e2eQuery<{ token: string; revoked: boolean }>(
+    `select token, revoked_at is not null as revoked from access_tokens where email = $1`,
+    [`tomas.${k}@students.example`],
+  )
   expect(revoked?.revoked).toBe(true)
 
   // Drop Maja: she moves to the dropped list with an undo.
   await page.getByRole('button', { name: 'Drop Maja Lindqvist' }).click()
   await page.getByText('Maja Lindqvist was dropped. Their answers are kept.').waitFor()
   await page.getByRole('heading', { name: 'Dropped students (1)' }).waitFor()
-  await page.getByRole('table', { name: `Students dropped from RST ${k}` }).getByRole('button', { name: 'Undo drop Maja Lindqvist' }).waitFor()
+  await page
+    .getByRole('table', { name: `Students dropped from RST ${k}` })
+    .getByRole('button', { name: 'Undo drop Maja Lindqvist' })
+    .waitFor()
   expect(await roster.getByRole('rowheader', { name: /Maja Lindqvist/ }).count()).toBe(0)
   const [m] = await e2eQuery<{ dropped: boolean }>(
     `select m.dropped_at is not null as dropped from memberships m join users u on u.id = m.user_id where m.course_id = $1 and u.email = $2`,

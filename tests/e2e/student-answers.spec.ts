@@ -32,14 +32,21 @@ test('with JavaScript off a student submits, is told what could not be read, and
   const t2 = page.getByLabel('Compressor exit temperature')
   await t2.fill('warm-ish')
   await page.getByRole('button', { name: 'Submit answers' }).click()
-  await page.getByText(/No attempt was used/).first().waitFor()
+  await page
+    .getByText(/No attempt was used/)
+    .first()
+    .waitFor()
   expect(await page.getByLabel('Compressor exit temperature').inputValue()).toBe('warm-ish')
-  expect(await e2eQuery('select id from submissions where item_id = $1 and user_id = $2', [ref.itemId, student.id])).toHaveLength(0)
+  expect(
+    await e2eQuery('select id from submissions where item_id = $1 and user_id = $2', [ref.itemId, student.id]),
+  ).toHaveLength(0)
 
   // A right temperature, a net work with the other convention's sign and an unreadable
   // efficiency, sent with a double click: one press is stored (the efficiency is refused and
   // uses no attempt), and the POST redirects to its receipt.
-  expect(await page.locator('input[type="hidden"][name="formToken"]').getAttribute('value')).toMatch(/^[A-Za-z0-9_-]{21}$/)
+  expect(await page.locator('input[type="hidden"][name="formToken"]').getAttribute('value')).toMatch(
+    /^[A-Za-z0-9_-]{21}$/,
+  )
   await page.getByLabel('Compressor exit temperature').fill(key.T2!.text)
   await page.getByLabel('Net work per kg of air').fill(`${-Number(key.wNet!.value.toPrecision(6))} kJ/kg`)
   await page.getByLabel('Thermal efficiency').fill('about half')
@@ -47,11 +54,18 @@ test('with JavaScript off a student submits, is told what could not be read, and
   await page.waitForURL(/\?receipt=\d+/)
   await page.getByText('Grading in the background. Reload the page to see the result.').waitFor()
   await page.getByText('Some answers were not submitted. They did not use an attempt.').waitFor()
-  expect(await page.getByLabel('Net work per kg of air').inputValue()).toBe(`${-Number(key.wNet!.value.toPrecision(6))} kJ/kg`)
+  expect(await page.getByLabel('Net work per kg of air').inputValue()).toBe(
+    `${-Number(key.wNet!.value.toPrecision(6))} kJ/kg`,
+  )
   expect(await page.getByLabel('Thermal efficiency').inputValue()).toBe('about half')
   expect(await page.getByLabel('Thermal efficiency').getAttribute('aria-invalid')).toBe('true')
-  const stored = () => e2eQuery<{ id: number }>('select id from submissions where item_id = $1 and user_id = $2', [ref.itemId, student.id])
-  const counted = () => e2eQuery<{ find_name: string; attempt: number }>('select find_name, attempt from part_results where item_id = $1 and user_id = $2 order by find_name', [ref.itemId, student.id])
+  const stored = () =>
+    e2eQuery<{ id: number }>('select id from submissions where item_id = $1 and user_id = $2', [ref.itemId, student.id])
+  const counted = () =>
+    e2eQuery<{ find_name: string; attempt: number }>(
+      'select find_name, attempt from part_results where item_id = $1 and user_id = $2 order by find_name',
+      [ref.itemId, student.id],
+    )
   expect(await stored()).toHaveLength(1)
   expect((await counted()).map((p) => [p.find_name, p.attempt])).toEqual([
     ['T2', 1],
@@ -76,6 +90,12 @@ test('with JavaScript off a student submits, is told what could not be read, and
     .toBe(0)
   await page.getByText('Correct').first().waitFor()
   await page.getByText('Incorrect').first().waitFor()
-  await page.getByText(/wrong sign/).first().waitFor()
-  await page.getByText(/Attempt 1 of \d+; \d+ left/).first().waitFor()
+  await page
+    .getByText(/wrong sign/)
+    .first()
+    .waitFor()
+  await page
+    .getByText(/Attempt 1 of \d+; \d+ left/)
+    .first()
+    .waitFor()
 })

@@ -17,7 +17,12 @@ const baseURL = inject('baseURL')
 let page: Page
 useBrowserPage((p) => (page = p), { viewport: { width: 390, height: 844 } })
 
-const VERDICT_WORDS: Record<string, string> = { correct: 'Correct', incorrect: 'Incorrect', unreadable: 'Could not be read', 'wrong-dimension': 'Wrong kind of unit' }
+const VERDICT_WORDS: Record<string, string> = {
+  correct: 'Correct',
+  incorrect: 'Incorrect',
+  unreadable: 'Could not be read',
+  'wrong-dimension': 'Wrong kind of unit',
+}
 
 /** A demo student of the first instructor's course with a graded answer, and that answer's problem. */
 async function studentWithAnswer() {
@@ -55,7 +60,14 @@ async function studentWithAnswer() {
 
 test('from the gradebook to a student’s page: their givens and an answer with its verdict', async () => {
   const s = await studentWithAnswer()
-  const drawn = studentVariant({ versionId: s.version_id, definition: s.definition, assignmentId: s.assignment_id, problemId: s.problem_id, userId: s.user_id, courseConvention: s.convention })
+  const drawn = studentVariant({
+    versionId: s.version_id,
+    definition: s.definition,
+    assignmentId: s.assignment_id,
+    problemId: s.problem_id,
+    userId: s.user_id,
+    courseConvention: s.convention,
+  })
   if (!drawn.ok) throw new Error(drawn.error.message)
   const given = drawn.variant.givens.find((g) => Number.isFinite(g.value))!
   const shown = formatGivenValue(given, s.definition.givens.find((g) => g.name === given.name)?.display, { tex: false })
@@ -70,12 +82,27 @@ test('from the gradebook to a student’s page: their givens and an answer with 
 
   await page.getByRole('heading', { level: 1 }).waitFor()
   await page.getByText(s.email).first().waitFor()
-  const givens = page.getByRole('region', { name: new RegExp(`problem`) }).filter({ hasText: given.label }).first()
-  await givens.getByRole('row', { name: new RegExp(given.label) }).first().waitFor()
-  const givenRow = (await givens.getByRole('row', { name: new RegExp(given.label) }).first().innerText()).replace(/\u00a0/g, ' ')
+  const givens = page
+    .getByRole('region', { name: new RegExp(`problem`) })
+    .filter({ hasText: given.label })
+    .first()
+  await givens
+    .getByRole('row', { name: new RegExp(given.label) })
+    .first()
+    .waitFor()
+  const givenRow = (
+    await givens
+      .getByRole('row', { name: new RegExp(given.label) })
+      .first()
+      .innerText()
+  ).replace(/\u00a0/g, ' ')
   expect(givenRow).toContain(shown.text.replace(/\u00a0/g, ' '))
 
-  const answer = page.getByRole('row').filter({ hasText: s.answer }).filter({ hasText: VERDICT_WORDS[s.verdict]! }).first()
+  const answer = page
+    .getByRole('row')
+    .filter({ hasText: s.answer })
+    .filter({ hasText: VERDICT_WORDS[s.verdict]! })
+    .first()
   await answer.waitFor()
   expect(await answer.isVisible()).toBe(true)
 
@@ -85,6 +112,9 @@ test('from the gradebook to a student’s page: their givens and an answer with 
 
   // The people page links the student here too.
   await page.goto(`${baseURL}/courses/${s.course_id}/people`)
-  const href = await page.locator(`a[href="/courses/${s.course_id}/students/${s.user_id}"]`).first().getAttribute('href')
+  const href = await page
+    .locator(`a[href="/courses/${s.course_id}/students/${s.user_id}"]`)
+    .first()
+    .getAttribute('href')
   expect(href).toBe(`/courses/${s.course_id}/students/${s.user_id}`)
 })

@@ -11,7 +11,14 @@ import { action as newAction, loader as newLoader } from '#app/routes/courses/as
 import { db } from '#app/server/db/client.server.ts'
 import { assignmentItems, assignments, auditEvents, problemVersions } from '#app/server/db/schema.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { addMember, createAssignment, createCourse, createProblemWithVersion, createUser, recordCheck } from '#tests/support/factories.ts'
+import {
+  addMember,
+  createAssignment,
+  createCourse,
+  createProblemWithVersion,
+  createUser,
+  recordCheck,
+} from '#tests/support/factories.ts'
 import { args, formRequest, getRequest } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { sessionCookie } from '#tests/support/login.ts'
@@ -46,10 +53,21 @@ function fields(extra: Record<string, string>): Record<string, string> {
   }
 }
 
-type Refused = { data: { fieldErrors: Record<string, string>; formError: string; state: { values: Record<string, string>; items: { versionId: string; override?: string }[] } }; init: { status: number } }
+type Refused = {
+  data: {
+    fieldErrors: Record<string, string>
+    formError: string
+    state: { values: Record<string, string>; items: { versionId: string; override?: string }[] }
+  }
+  init: { status: number }
+}
 
 async function postNew(courseId: number, cookie: string, extra: Record<string, string>) {
-  return newAction(args(formRequest(`/courses/${courseId}/assignments/new`, fields(extra), { Cookie: cookie }), { courseId: String(courseId) }))
+  return newAction(
+    args(formRequest(`/courses/${courseId}/assignments/new`, fields(extra), { Cookie: cookie }), {
+      courseId: String(courseId),
+    }),
+  )
 }
 
 async function overrideRows(assignmentId: number) {
@@ -67,15 +85,31 @@ describe('the picker’s data', () => {
     // An older passed check does not hide the newer failed one.
     await recordCheck(db(), a.versionId, instructor.id, { createdAt: new Date('2026-11-01T00:00:00Z') })
     await recordCheck(db(), a.versionId, instructor.id, { failed: 83, createdAt: new Date('2026-11-02T00:00:00Z') })
-    const [b2] = await db().insert(problemVersions).values({ problemId: b.problemId, number: 2, definition: diesel, createdBy: instructor.id }).returning()
+    const [b2] = await db()
+      .insert(problemVersions)
+      .values({ problemId: b.problemId, number: 2, definition: diesel, createdBy: instructor.id })
+      .returning()
     await recordCheck(db(), b2!.id, instructor.id, { status: 'running', total: 200, checked: 40 })
-    const other = await createProblemWithVersion(db(), instructor.id, { ...otto, title: 'A checked Otto cycle' }, { frozen: false })
+    const other = await createProblemWithVersion(
+      db(),
+      instructor.id,
+      { ...otto, title: 'A checked Otto cycle' },
+      { frozen: false },
+    )
     await recordCheck(db(), other.versionId, instructor.id)
 
-    const loaded = (await newLoader(args(getRequest(`/courses/${course.id}/assignments/new`, { Cookie: cookie }), { courseId: String(course.id) }))) as {
-      choices: { problemId: number; title: string; versions: { id: number; number: number; author: string; savedAt: Date; check: { state: string } }[] }[]
+    const loaded = (await newLoader(
+      args(getRequest(`/courses/${course.id}/assignments/new`, { Cookie: cookie }), { courseId: String(course.id) }),
+    )) as {
+      choices: {
+        problemId: number
+        title: string
+        versions: { id: number; number: number; author: string; savedAt: Date; check: { state: string } }[]
+      }[]
     }
-    const byVersion = new Map(loaded.choices.flatMap((c) => c.versions.map((v) => [v.id, { ...v, title: c.title }] as const)))
+    const byVersion = new Map(
+      loaded.choices.flatMap((c) => c.versions.map((v) => [v.id, { ...v, title: c.title }] as const)),
+    )
     expect(byVersion.get(a.versionId)!.check).toEqual({ state: 'failed', total: 500, checked: 500, failed: 83 })
     expect(byVersion.get(other.versionId)!.check).toEqual({ state: 'passed', total: 500, checked: 500, failed: 0 })
     expect(byVersion.get(b2!.id)!.check).toEqual({ state: 'running', total: 200, checked: 40, failed: 0 })
@@ -101,7 +135,9 @@ describe('adding a version whose check did not pass', () => {
     })) as unknown as Refused
     expect(r.init.status).toBe(400)
     expect(r.data.fieldErrors['items.0.versionId']).toBeUndefined()
-    expect(r.data.fieldErrors['items.1.versionId']).toMatch(/^Check failed: 83 of 500 variants\. .*Assign although the check failed \(83 of 500 variants\)/)
+    expect(r.data.fieldErrors['items.1.versionId']).toMatch(
+      /^Check failed: 83 of 500 variants\. .*Assign although the check failed \(83 of 500 variants\)/,
+    )
     expect(r.data.state.values.title).toBe('Week 4: checked problems')
     expect(r.data.state.items.map((i) => i.versionId)).toEqual([String(good.versionId), String(bad.versionId)])
     expect(await db().select().from(assignments).where(eq(assignments.courseId, course.id))).toEqual([])
@@ -129,19 +165,31 @@ describe('adding a version whose check did not pass', () => {
     await recordCheck(db(), bad.versionId, instructor.id, { failed: 83 })
     const other = await createProblemWithVersion(db(), instructor.id, diesel, { frozen: false })
 
-    const wrong = (await postNew(course.id, cookie, { 'items.0.versionId': String(bad.versionId), 'items.0.points': '10', 'items.0.override': String(other.versionId) })) as unknown as Refused
+    const wrong = (await postNew(course.id, cookie, {
+      'items.0.versionId': String(bad.versionId),
+      'items.0.points': '10',
+      'items.0.override': String(other.versionId),
+    })) as unknown as Refused
     expect(wrong.init.status).toBe(400)
     expect(wrong.data.fieldErrors['items.0.versionId']).toMatch(/^Check failed/)
     expect(wrong.data.state.items[0]!.override).toBe(String(other.versionId))
 
-    const res = (await postNew(course.id, cookie, { 'items.0.versionId': String(bad.versionId), 'items.0.points': '10', 'items.0.override': String(bad.versionId) })) as Response
+    const res = (await postNew(course.id, cookie, {
+      'items.0.versionId': String(bad.versionId),
+      'items.0.points': '10',
+      'items.0.override': String(bad.versionId),
+    })) as Response
     expect(res.status).toBe(302)
     const id = Number(res.headers.get('Location')!.split('/').pop())
     const items = await db().select().from(assignmentItems).where(eq(assignmentItems.assignmentId, id))
     expect(items.map((i) => i.problemVersionId)).toEqual([bad.versionId])
     const audit = await overrideRows(id)
     expect(audit).toHaveLength(1)
-    expect(audit[0]).toMatchObject({ actorId: instructor.id, courseId: course.id, after: { items: [{ position: 1, versionId: bad.versionId, check: 'Check failed: 83 of 500 variants' }] } })
+    expect(audit[0]).toMatchObject({
+      actorId: instructor.id,
+      courseId: course.id,
+      after: { items: [{ position: 1, versionId: bad.versionId, check: 'Check failed: 83 of 500 variants' }] },
+    })
     expect(audit[0]!.note).toMatch(/Problem 1 assigned although: Check failed: 83 of 500 variants/)
   })
 })
@@ -154,20 +202,49 @@ describe('editing an assignment', () => {
     const params = { courseId: String(course.id), assignmentId: String(assignment.id) }
     const path = `/courses/${course.id}/assignments/${assignment.id}/edit`
 
-    const loaded = (await editLoader(args(getRequest(path, { Cookie: cookie }), params))) as { stored: Record<string, string> }
+    const loaded = (await editLoader(args(getRequest(path, { Cookie: cookie }), params))) as {
+      stored: Record<string, string>
+    }
     expect(loaded.stored).toEqual({ [String(items[0]!.id)]: String(p.versionId) })
 
     const untouched = (await editAction(
-      args(formRequest(path, fields({ title: 'Renamed', 'items.0.itemId': String(items[0]!.id), 'items.0.versionId': String(p.versionId), 'items.0.points': '12' }), { Cookie: cookie }), params),
+      args(
+        formRequest(
+          path,
+          fields({
+            title: 'Renamed',
+            'items.0.itemId': String(items[0]!.id),
+            'items.0.versionId': String(p.versionId),
+            'items.0.points': '12',
+          }),
+          { Cookie: cookie },
+        ),
+        params,
+      ),
     )) as Response
     expect(untouched.status).toBe(302)
     const [renamed] = await db().select().from(assignments).where(eq(assignments.id, assignment.id))
     expect(renamed!.title).toBe('Renamed')
     expect(await overrideRows(assignment.id)).toEqual([])
 
-    const [v2] = await db().insert(problemVersions).values({ problemId: p.problemId, number: 2, definition: otto, createdBy: instructor.id }).returning()
+    const [v2] = await db()
+      .insert(problemVersions)
+      .values({ problemId: p.problemId, number: 2, definition: otto, createdBy: instructor.id })
+      .returning()
     const switched = (await editAction(
-      args(formRequest(path, fields({ title: 'Renamed', 'items.0.itemId': String(items[0]!.id), 'items.0.versionId': String(v2!.id), 'items.0.points': '12' }), { Cookie: cookie }), params),
+      args(
+        formRequest(
+          path,
+          fields({
+            title: 'Renamed',
+            'items.0.itemId': String(items[0]!.id),
+            'items.0.versionId': String(v2!.id),
+            'items.0.points': '12',
+          }),
+          { Cookie: cookie },
+        ),
+        params,
+      ),
     )) as unknown as Refused
     expect(switched.init.status).toBe(400)
     expect(switched.data.fieldErrors['items.0.versionId']).toMatch(/^Never checked\./)
@@ -178,7 +255,13 @@ describe('editing an assignment', () => {
       args(
         formRequest(
           path,
-          fields({ title: 'Renamed', 'items.0.itemId': String(items[0]!.id), 'items.0.versionId': String(v2!.id), 'items.0.points': '12', 'items.0.override': String(v2!.id) }),
+          fields({
+            title: 'Renamed',
+            'items.0.itemId': String(items[0]!.id),
+            'items.0.versionId': String(v2!.id),
+            'items.0.points': '12',
+            'items.0.override': String(v2!.id),
+          }),
           { Cookie: cookie },
         ),
         params,
@@ -193,7 +276,19 @@ describe('editing an assignment', () => {
 
     // Saved again on that version: no new override asked or written.
     const again = (await editAction(
-      args(formRequest(path, fields({ title: 'Renamed again', 'items.0.itemId': String(items[0]!.id), 'items.0.versionId': String(v2!.id), 'items.0.points': '12' }), { Cookie: cookie }), params),
+      args(
+        formRequest(
+          path,
+          fields({
+            title: 'Renamed again',
+            'items.0.itemId': String(items[0]!.id),
+            'items.0.versionId': String(v2!.id),
+            'items.0.points': '12',
+          }),
+          { Cookie: cookie },
+        ),
+        params,
+      ),
     )) as Response
     expect(again.status).toBe(302)
     expect(await overrideRows(assignment.id)).toHaveLength(1)

@@ -33,14 +33,31 @@ afterAll(async () => {
 })
 
 async function setUp() {
-  const made = await createCourseWithAssignment(db(), [ottoV1], { students: 1, timeZone: ZONE, assignment: { dueAt: new Date('2099-10-12T15:00:00Z') } })
+  const made = await createCourseWithAssignment(db(), [ottoV1], {
+    students: 1,
+    timeZone: ZONE,
+    assignment: { dueAt: new Date('2099-10-12T15:00:00Z') },
+  })
   const student = made.students[0]!
   const item = made.items[0]!
-  const drawn = studentVariant({ versionId: item.problemVersionId, definition: ottoV1, assignmentId: made.assignment.id, problemId: item.problemId, userId: student.id, courseConvention: made.course.signConvention })
+  const drawn = studentVariant({
+    versionId: item.problemVersionId,
+    definition: ottoV1,
+    assignmentId: made.assignment.id,
+    problemId: item.problemId,
+    userId: student.id,
+    courseConvention: made.course.signConvention,
+  })
   if (!drawn.ok) throw new Error(drawn.error.message)
   const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k.value]))
   // 3 % off: wrong under the problem's tolerance, right under the regrade's 5 %.
-  const sent = await submitAnswers(db(), { courseId: made.course.id, assignmentId: made.assignment.id, position: 1, userId: student.id, answers: { T2: `${key.T2! * 1.03} K` } })
+  const sent = await submitAnswers(db(), {
+    courseId: made.course.id,
+    assignmentId: made.assignment.id,
+    position: 1,
+    userId: student.id,
+    answers: { T2: `${key.T2! * 1.03} K` },
+  })
   if (!sent.ok) throw new Error('refused')
   expect(await gradeSubmission(db(), sent.receipt.submissionId)).toBe('graded')
   const regradeId = await applyRegrade(db(), {
@@ -62,10 +79,23 @@ async function setUp() {
   // A kind of entry the wording has never heard of.
   await db()
     .insert(auditEvents)
-    .values({ courseId: made.course.id, actorId: made.instructor.id, userId: student.id, kind: 'weights-changed', before: { weightId: 3, homeworkShare: 0.4 }, after: { weightId: 3, homeworkShare: 0.5 } })
+    .values({
+      courseId: made.course.id,
+      actorId: made.instructor.id,
+      userId: student.id,
+      kind: 'weights-changed',
+      before: { weightId: 3, homeworkShare: 0.4 },
+      after: { weightId: 3, homeworkShare: 0.5 },
+    })
   const ta = await createUser(db(), { name: 'Course TA', password: null })
   await addMember(db(), ta.id, made.course.id, 'ta')
-  return { ...made, student, ta, params: { courseId: String(made.course.id) }, path: `/courses/${made.course.id}/audit` }
+  return {
+    ...made,
+    student,
+    ta,
+    params: { courseId: String(made.course.id) },
+    path: `/courses/${made.course.id}/audit`,
+  }
 }
 
 describe('the audit page', () => {
@@ -77,8 +107,12 @@ describe('the audit page', () => {
     const [regrade] = byKind('regrade')
     const share = ottoV1.finds.find((f) => f.name === 'T2')!.points
     const sharePoints = (10 * share) / ottoV1.finds.reduce((a, f) => a + f.points, 0)
-    expect(regrade!.words.what).toBe(`Regrade of “${T2_LABEL}” (problem 1), version 1 with a new tolerance for ${s.student.name}`)
-    expect(regrade!.words.change).toBe(`incorrect → correct; score 0 → ${formatPoints(sharePoints)} of ${formatPoints(sharePoints)}`)
+    expect(regrade!.words.what).toBe(
+      `Regrade of “${T2_LABEL}” (problem 1), version 1 with a new tolerance for ${s.student.name}`,
+    )
+    expect(regrade!.words.change).toBe(
+      `incorrect → correct; score 0 → ${formatPoints(sharePoints)} of ${formatPoints(sharePoints)}`,
+    )
     expect(regrade!.actor).toBe(s.instructor.name)
 
     const [extension] = byKind('extension')
@@ -88,7 +122,11 @@ describe('the audit page', () => {
     expect(extension!.words.note).toBe('Away at a conference.')
 
     const [other] = byKind('weights-changed')
-    expect(other!.words).toMatchObject({ kind: 'Weights changed', what: `Weights changed (${s.student.name})`, change: 'homework share 0.4 → 0.5' })
+    expect(other!.words).toMatchObject({
+      kind: 'Weights changed',
+      what: `Weights changed (${s.student.name})`,
+      change: 'homework share 0.4 → 0.5',
+    })
 
     // Nothing internal reaches the page: no find names, output paths, ids or raw JSON.
     const shown = page.rows.flatMap((r) => [r.words.kind, r.words.what, r.words.change ?? '', r.words.note]).join('\n')
@@ -98,8 +136,17 @@ describe('the audit page', () => {
   test('the page’s HTML: the sentences, the filter of every kind, times in the zone', async () => {
     const s = await setUp()
     const loaderData = await loader(args(getRequest(s.path, await loginAs(s.instructor)), s.params))
-    const Stub = createRoutesStub([{ path: '/courses/:courseId/audit', Component: AuditRoute as never, loader: () => loaderData, HydrateFallback: () => null }])
-    const html = renderToString(createElement(Stub, { initialEntries: [s.path], hydrationData: { loaderData: { 0: loaderData } } })).replaceAll('<!-- -->', '')
+    const Stub = createRoutesStub([
+      {
+        path: '/courses/:courseId/audit',
+        Component: AuditRoute as never,
+        loader: () => loaderData,
+        HydrateFallback: () => null,
+      },
+    ])
+    const html = renderToString(
+      createElement(Stub, { initialEntries: [s.path], hydrationData: { loaderData: { 0: loaderData } } }),
+    ).replaceAll('<!-- -->', '')
     expect(html).toContain(`Regrade of “${T2_LABEL}” (problem 1)`)
     expect(html).toContain('due Wed 14 Oct 2099, 17:00')
     expect(html).toContain('<option value="roster-import">Class list imported</option>')

@@ -68,7 +68,16 @@ const ROUTES = flatten(routeConfig as unknown as RouteEntry[])
 
 // ---- Roles and outcomes -----------------------------------------------------------------
 
-const CORE_ROLES = ['signedOut', 'student', 'classmate', 'otherStudent', 'ta', 'instructor', 'otherInstructor', 'admin'] as const
+const CORE_ROLES = [
+  'signedOut',
+  'student',
+  'classmate',
+  'otherStudent',
+  'ta',
+  'instructor',
+  'otherInstructor',
+  'admin',
+] as const
 const CROSS_ROLES = ['otherStudentOwnCourse', 'otherInstructorOwnCourse'] as const
 type CoreRole = (typeof CORE_ROLES)[number]
 type CrossRole = (typeof CROSS_ROLES)[number]
@@ -103,21 +112,61 @@ type Entry = {
 // Shorthands for the common shapes of the table.
 const everyone = (o: Outcome): Expectations => Object.fromEntries(CORE_ROLES.map((r) => [r, o])) as Expectations
 /** The course's members (students, TA, instructor) only. */
-const courseMembers: Expectations = { signedOut: 'sign-in', student: 'ok', classmate: 'ok', otherStudent: 403, ta: 'ok', instructor: 'ok', otherInstructor: 403, admin: 403 }
+const courseMembers: Expectations = {
+  signedOut: 'sign-in',
+  student: 'ok',
+  classmate: 'ok',
+  otherStudent: 403,
+  ta: 'ok',
+  instructor: 'ok',
+  otherInstructor: 403,
+  admin: 403,
+}
 const courseStaff: Expectations = { ...courseMembers, student: 403, classmate: 403 }
 const courseInstructor: Expectations = { ...courseStaff, ta: 403 }
-const courseStaffApi: Expectations = { signedOut: 401, student: 403, classmate: 403, otherStudent: 403, ta: 'ok', instructor: 'ok', otherInstructor: 403, admin: 403 }
-const bankUsers: Expectations = { signedOut: 'sign-in', student: 403, classmate: 403, otherStudent: 403, ta: 403, instructor: 'ok', otherInstructor: 'ok', admin: 'ok' }
+const courseStaffApi: Expectations = {
+  signedOut: 401,
+  student: 403,
+  classmate: 403,
+  otherStudent: 403,
+  ta: 'ok',
+  instructor: 'ok',
+  otherInstructor: 403,
+  admin: 403,
+}
+const bankUsers: Expectations = {
+  signedOut: 'sign-in',
+  student: 403,
+  classmate: 403,
+  otherStudent: 403,
+  ta: 403,
+  instructor: 'ok',
+  otherInstructor: 'ok',
+  admin: 'ok',
+}
 const bankUsersApi: Expectations = { ...bankUsers, signedOut: 401 }
-const adminOnly: Expectations = { signedOut: 'sign-in', student: 403, classmate: 403, otherStudent: 403, ta: 403, instructor: 403, otherInstructor: 403, admin: 'ok' }
+const adminOnly: Expectations = {
+  signedOut: 'sign-in',
+  student: 403,
+  classmate: 403,
+  otherStudent: 403,
+  ta: 403,
+  instructor: 403,
+  otherInstructor: 403,
+  admin: 'ok',
+}
 /** The same, where the allowed answer is a redirect to the entry's `moved` place. */
-const redirecting = (e: Expectations): Expectations => Object.fromEntries(Object.entries(e).map(([r, o]) => [r, o === 'ok' ? 'moved' : o])) as Expectations
+const redirecting = (e: Expectations): Expectations =>
+  Object.fromEntries(Object.entries(e).map(([r, o]) => [r, o === 'ok' ? 'moved' : o])) as Expectations
 /**
  * The course in the URL is the caller's own (B) but the record is A's. A caller without the
  * role in B is refused by the role check (403); one with it finds no such record (404, or a
  * 400 form error where an action reports the record as missing in its form).
  */
-const cross = (otherStudentOwnCourse: Outcome, otherInstructorOwnCourse: Outcome) => ({ otherStudentOwnCourse, otherInstructorOwnCourse })
+const cross = (otherStudentOwnCourse: Outcome, otherInstructorOwnCourse: Outcome) => ({
+  otherStudentOwnCourse,
+  otherInstructorOwnCourse,
+})
 const crossMembers = cross(404, 404)
 const crossStaff = cross(403, 404)
 
@@ -139,7 +188,17 @@ function carnot(title = 'Carnot drill'): ProblemDefinition {
       template: 'carnot-engine',
       inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: '300 K', p1: '1000 kPa', expansionRatio: '2' },
     },
-    finds: [{ name: 'eta', label: 'Efficiency', source: { kind: 'output', path: 'totals.efficiency' }, unit: '', points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] }],
+    finds: [
+      {
+        name: 'eta',
+        label: 'Efficiency',
+        source: { kind: 'output', path: 'totals.efficiency' },
+        unit: '',
+        points: 1,
+        tolerance: { kind: 'relative', value: 0.01 },
+        pitfalls: [],
+      },
+    ],
   }
 }
 
@@ -150,22 +209,54 @@ type World = Awaited<ReturnType<typeof build>>
 let world: World
 
 async function build() {
-  const A = await createCourseWithAssignment(db(), [otto], { students: 2, assignment: { keyRelease: 'manual', gradesReleasedAt: new Date(Date.now() - 3600_000) } })
+  const A = await createCourseWithAssignment(db(), [otto], {
+    students: 2,
+    assignment: { keyRelease: 'manual', gradesReleasedAt: new Date(Date.now() - 3600_000) },
+  })
   const B = await createCourseWithAssignment(db(), [otto], { students: 1 })
   const [student, classmate] = A.students as [(typeof A.students)[0], (typeof A.students)[0]]
   const ta = await createUser(db(), { name: 'Course TA', password: null })
   await addMember(db(), ta.id, A.course.id, 'ta')
-  const admin = await createUser(db(), { name: 'Department Admin', isAdmin: true, departmentId: A.course.departmentId, password: null })
+  const admin = await createUser(db(), {
+    name: 'Department Admin',
+    isAdmin: true,
+    departmentId: A.course.departmentId,
+    password: null,
+  })
   const signInUser = await createUser(db(), { name: 'Signs In' })
   const item = A.items[0]!
-  const people = { student, classmate, otherStudent: B.students[0]!, ta, instructor: A.instructor, otherInstructor: B.instructor, admin }
+  const people = {
+    student,
+    classmate,
+    otherStudent: B.students[0]!,
+    ta,
+    instructor: A.instructor,
+    otherInstructor: B.instructor,
+    admin,
+  }
 
   /** A graded answer of `userId` to find T2 of `it`; returns the part result's id. */
   async function graded(userId: number, it: { id: number; assignmentId: number }) {
-    const [sub] = await db().insert(submissions).values({ assignmentId: it.assignmentId, itemId: it.id, userId, answers: { T2: '312 K' }, status: 'graded' }).returning({ id: submissions.id })
+    const [sub] = await db()
+      .insert(submissions)
+      .values({ assignmentId: it.assignmentId, itemId: it.id, userId, answers: { T2: '312 K' }, status: 'graded' })
+      .returning({ id: submissions.id })
     const [part] = await db()
       .insert(partResults)
-      .values({ submissionId: sub!.id, assignmentId: it.assignmentId, itemId: it.id, userId, findName: 'T2', answer: '312 K', attempt: 1, verdict: 'incorrect', value: 312, score: 0, maxScore: 2, message: 'Not within tolerance.' })
+      .values({
+        submissionId: sub!.id,
+        assignmentId: it.assignmentId,
+        itemId: it.id,
+        userId,
+        findName: 'T2',
+        answer: '312 K',
+        attempt: 1,
+        verdict: 'incorrect',
+        value: 312,
+        score: 0,
+        maxScore: 2,
+        message: 'Not within tolerance.',
+      })
       .returning({ id: partResults.id })
     return part!.id
   }
@@ -174,27 +265,57 @@ async function build() {
     const partId = await graded(student.id, it)
     const [file] = await db()
       .insert(attachments)
-      .values({ userId: student.id, courseId: A.course.id, fileName: 'working.png', contentType: 'image/png', size: 4, sha256: 'x', data: Buffer.from([0x89, 0x50, 0x4e, 0x47]) })
+      .values({
+        userId: student.id,
+        courseId: A.course.id,
+        fileName: 'working.png',
+        contentType: 'image/png',
+        size: 4,
+        sha256: 'x',
+        data: Buffer.from([0x89, 0x50, 0x4e, 0x47]),
+      })
       .returning({ id: attachments.id })
     const [row] = await db()
       .insert(disputes)
-      .values({ courseId: A.course.id, assignmentId: it.assignmentId, itemId: it.id, userId: student.id, findName: 'T2', partResultId: partId, reason: 'My T2 is right; see my working attached.', attachmentId: file!.id })
+      .values({
+        courseId: A.course.id,
+        assignmentId: it.assignmentId,
+        itemId: it.id,
+        userId: student.id,
+        findName: 'T2',
+        partResultId: partId,
+        reason: 'My T2 is right; see my working attached.',
+        attachmentId: file!.id,
+      })
       .returning({ id: disputes.id })
     return row!.id
   }
   /** A fresh assignment of course A over the bank problem, grades released an hour ago. */
   async function freshAssignment() {
-    const made = await createAssignment(db(), A.course.id, A.instructor.id, [{ problemId: item.problemId, versionId: item.problemVersionId }], {
-      keyRelease: 'manual',
-      gradesReleasedAt: new Date(Date.now() - 3600_000),
-    })
+    const made = await createAssignment(
+      db(),
+      A.course.id,
+      A.instructor.id,
+      [{ problemId: item.problemId, versionId: item.problemVersionId }],
+      {
+        keyRelease: 'manual',
+        gradesReleasedAt: new Date(Date.now() - 3600_000),
+      },
+    )
     return { assignment: made.assignment, item: made.items[0]! }
   }
   async function freshToken(purpose: 'invitation' | 'password-reset', email: string) {
     const token = nanoid(32)
     await db()
       .insert(accessTokens)
-      .values({ token, purpose, email, courseId: purpose === 'invitation' ? A.course.id : null, role: purpose === 'invitation' ? 'student' : null, expiresAt: new Date(Date.now() + 86_400_000) })
+      .values({
+        token,
+        purpose,
+        email,
+        courseId: purpose === 'invitation' ? A.course.id : null,
+        role: purpose === 'invitation' ? 'student' : null,
+        expiresAt: new Date(Date.now() + 86_400_000),
+      })
     return token
   }
 
@@ -202,13 +323,40 @@ async function build() {
   await graded(classmate.id, item)
   const [regrade] = await db()
     .insert(regrades)
-    .values({ assignmentId: A.assignment.id, itemId: item.id, fromVersionId: item.problemVersionId, toVersionId: item.problemVersionId, status: 'done', requestedBy: A.instructor.id })
+    .values({
+      assignmentId: A.assignment.id,
+      itemId: item.id,
+      fromVersionId: item.problemVersionId,
+      toVersionId: item.problemVersionId,
+      status: 'done',
+      requestedBy: A.instructor.id,
+    })
     .returning({ id: regrades.id })
-  const [sweep] = await db().insert(problemSweeps).values({ problemVersionId: item.problemVersionId, requestedBy: A.instructor.id, status: 'done', total: 10, checked: 10 }).returning({ id: problemSweeps.id })
-  const [mail] = await db().insert(mailMessages).values({ envelopeFrom: 'noreply@test.example', envelopeTo: [student.email], subject: 'A message', text: 'Hello.' }).returning({ id: mailMessages.id })
+  const [sweep] = await db()
+    .insert(problemSweeps)
+    .values({
+      problemVersionId: item.problemVersionId,
+      requestedBy: A.instructor.id,
+      status: 'done',
+      total: 10,
+      checked: 10,
+    })
+    .returning({ id: problemSweeps.id })
+  const [mail] = await db()
+    .insert(mailMessages)
+    .values({ envelopeFrom: 'noreply@test.example', envelopeTo: [student.email], subject: 'A message', text: 'Hello.' })
+    .returning({ id: mailMessages.id })
   const [gradeExport] = await db()
     .insert(gradeExports)
-    .values({ requestedBy: admin.id, termId: A.course.termId, status: 'done', rows: 1, fileName: 'term-grades.csv', csv: 'a,b\n1,2\n', finishedAt: new Date() })
+    .values({
+      requestedBy: admin.id,
+      termId: A.course.termId,
+      status: 'done',
+      rows: 1,
+      fileName: 'term-grades.csv',
+      csv: 'a,b\n1,2\n',
+      finishedAt: new Date(),
+    })
     .returning({ id: gradeExports.id })
   const viewerA = { id: A.instructor.id, isAdmin: false, departmentId: A.course.departmentId }
 
@@ -218,13 +366,22 @@ async function build() {
     people,
     signInUser,
     item,
-    ids: { disputeId, regradeId: regrade!.id, sweepId: sweep!.id, messageId: mail!.id, exportId: gradeExport!.id, problemId: item.problemId },
+    ids: {
+      disputeId,
+      regradeId: regrade!.id,
+      sweepId: sweep!.id,
+      messageId: mail!.id,
+      exportId: gradeExport!.id,
+      problemId: item.problemId,
+    },
     freshAssignment,
     openDispute,
     graded,
     freshToken,
     /** a fresh bank problem of A's instructor, not yet used anywhere */
-    freshProblem: async () => (await createProblem(db(), viewerA, { definition: carnot(`Drill ${unique()}`), visibility: 'private' })).problemId,
+    freshProblem: async () =>
+      (await createProblem(db(), viewerA, { definition: carnot(`Drill ${unique()}`), visibility: 'private' }))
+        .problemId,
   }
 }
 
@@ -261,7 +418,11 @@ function settingsFields(w: World): Record<string, string> {
   }
 }
 
-const editorFields = (title: string) => ({ ...formValuesFromDefinition(carnot(title)), visibility: 'private', intent: 'save' })
+const editorFields = (title: string) => ({
+  ...formValuesFromDefinition(carnot(title)),
+  visibility: 'private',
+  intent: 'save',
+})
 
 // ---- The table: one entry per route file ---------------------------------------------------
 
@@ -279,12 +440,20 @@ const EXPECTED: Record<string, Entry> = {
     get: { expect: everyone('moved'), moved: () => /^\/$/ },
     post: { expect: everyone('moved'), moved: () => /^\/sign-in$/, body: () => ({ form: {} }) },
   },
-  'routes/forgot-password.tsx': { post: { expect: everyone('ok'), body: (w) => ({ form: { email: w.people.student.email } }) } },
+  'routes/forgot-password.tsx': {
+    post: { expect: everyone('ok'), body: (w) => ({ form: { email: w.people.student.email } }) },
+  },
   // The token is the authority on these two: whoever holds the link may use it.
   'routes/reset-password.tsx': {
-    params: async (w) => ({ token: await w.freshToken('password-reset', (await createUser(db(), { password: null })).email) }),
+    params: async (w) => ({
+      token: await w.freshToken('password-reset', (await createUser(db(), { password: null })).email),
+    }),
     get: { expect: everyone('ok') },
-    post: { expect: everyone('moved'), moved: () => /^\/sign-in\?reset=1$/, body: () => ({ form: { password: 'a long new password 123', confirm: 'a long new password 123' } }) },
+    post: {
+      expect: everyone('moved'),
+      moved: () => /^\/sign-in\?reset=1$/,
+      body: () => ({ form: { password: 'a long new password 123', confirm: 'a long new password 123' } }),
+    },
   },
   'routes/join.tsx': {
     params: async (w) => ({ token: await w.freshToken('invitation', `new-${unique()}@test.example`.toLowerCase()) }),
@@ -292,7 +461,9 @@ const EXPECTED: Record<string, Entry> = {
     post: {
       expect: everyone('moved'),
       moved: (w) => new RegExp(`^/courses/${w.A.course.id}$`),
-      body: () => ({ form: { name: 'New Person', password: 'a long new password 123', confirm: 'a long new password 123' } }),
+      body: () => ({
+        form: { name: 'New Person', password: 'a long new password 123', confirm: 'a long new password 123' },
+      }),
     },
   },
 
@@ -301,7 +472,12 @@ const EXPECTED: Record<string, Entry> = {
   'routes/courses/people.tsx': {
     params: course,
     get: { expect: courseStaff },
-    post: { expect: courseInstructor, body: () => ({ form: { intent: 'invite', email: `invitee-${unique()}@test.example`.toLowerCase(), role: 'student' } }) },
+    post: {
+      expect: courseInstructor,
+      body: () => ({
+        form: { intent: 'invite', email: `invitee-${unique()}@test.example`.toLowerCase(), role: 'student' },
+      }),
+    },
   },
   'routes/courses/people/import.tsx': {
     params: course,
@@ -311,7 +487,10 @@ const EXPECTED: Record<string, Entry> = {
       body: () => {
         const form = new FormData()
         form.set('intent', 'preview')
-        form.set('csv', `Student ID,Family name,Given name,E-mail\nS${Date.now()},Listed,Person,listed-${unique().toLowerCase()}@test.example\n`)
+        form.set(
+          'csv',
+          `Student ID,Family name,Given name,E-mail\nS${Date.now()},Listed,Person,listed-${unique().toLowerCase()}@test.example\n`,
+        )
         return { multipart: form }
       },
     },
@@ -321,7 +500,10 @@ const EXPECTED: Record<string, Entry> = {
     get: { expect: courseStaff },
     post: { expect: courseInstructor, body: () => ({ form: { intent: 'create', name: `Lab ${unique()}` } }) },
   },
-  'routes/courses/students/$userId.tsx': { params: (w, ctx) => ({ ...course(w, ctx), userId: String(w.people.student.id) }), get: { expect: { ...courseStaff, ...crossStaff } } },
+  'routes/courses/students/$userId.tsx': {
+    params: (w, ctx) => ({ ...course(w, ctx), userId: String(w.people.student.id) }),
+    get: { expect: { ...courseStaff, ...crossStaff } },
+  },
   'routes/courses/gradebook.tsx': { params: course, get: { expect: courseStaff } },
   'routes/resources/course-gradebook-csv.ts': { params: course, get: { expect: courseStaff } },
   'routes/resources/course-gradebook-xlsx.ts': { params: course, get: { expect: courseStaff } },
@@ -331,13 +513,19 @@ const EXPECTED: Record<string, Entry> = {
     get: { expect: { ...courseMembers, classmate: 404, ...crossMembers } },
     post: {
       // Each try resolves a dispute of its own, so one allowed resolution does not spoil the next.
-      params: async (w, ctx) => ({ ...course(w, ctx), disputeId: String(await w.openDispute((await w.freshAssignment()).item)) }),
+      params: async (w, ctx) => ({
+        ...course(w, ctx),
+        disputeId: String(await w.openDispute((await w.freshAssignment()).item)),
+      }),
       expect: { ...redirecting(courseStaff), ...cross(403, 400) },
       moved: (w) => new RegExp(`^/courses/${w.A.course.id}/disputes/\\d+\\?resolved=\\d+$`),
       body: () => ({ form: { intent: 'resolve', decision: 'reject', comment: 'The key stands.' } }),
     },
   },
-  'routes/resources/dispute-attachment.ts': { params: dispute, get: { expect: { ...courseMembers, classmate: 404, ...crossMembers } } },
+  'routes/resources/dispute-attachment.ts': {
+    params: dispute,
+    get: { expect: { ...courseMembers, classmate: 404, ...crossMembers } },
+  },
   'routes/courses/audit.tsx': { params: course, get: { expect: courseInstructor } },
   'routes/courses/settings.tsx': {
     params: course,
@@ -345,7 +533,15 @@ const EXPECTED: Record<string, Entry> = {
     post: {
       expect: redirecting(courseInstructor),
       moved: (w) => new RegExp(`^/courses/${w.A.course.id}/settings\\?saved=1$`),
-      body: (w) => ({ form: { intent: 'save', code: w.A.course.code, title: w.A.course.title, signConvention: w.A.course.signConvention, timeZone: w.A.course.timeZone } }),
+      body: (w) => ({
+        form: {
+          intent: 'save',
+          code: w.A.course.code,
+          title: w.A.course.title,
+          signConvention: w.A.course.signConvention,
+          timeZone: w.A.course.timeZone,
+        },
+      }),
     },
   },
 
@@ -353,7 +549,11 @@ const EXPECTED: Record<string, Entry> = {
   'routes/courses/assignments/new.tsx': {
     params: course,
     get: { expect: courseInstructor },
-    post: { expect: redirecting(courseInstructor), moved: (w) => new RegExp(`^/courses/${w.A.course.id}/assignments/\\d+$`), body: (w) => ({ form: settingsFields(w) }) },
+    post: {
+      expect: redirecting(courseInstructor),
+      moved: (w) => new RegExp(`^/courses/${w.A.course.id}/assignments/\\d+$`),
+      body: (w) => ({ form: settingsFields(w) }),
+    },
   },
   'routes/courses/assignments/$assignmentId.tsx': {
     params: assignment,
@@ -369,7 +569,10 @@ const EXPECTED: Record<string, Entry> = {
     params: assignment,
     get: { expect: { ...courseInstructor, ...crossStaff } },
     post: {
-      params: async (w, ctx) => ({ ...course(w, ctx), assignmentId: String((await w.freshAssignment()).assignment.id) }),
+      params: async (w, ctx) => ({
+        ...course(w, ctx),
+        assignmentId: String((await w.freshAssignment()).assignment.id),
+      }),
       expect: { ...redirecting(courseInstructor), ...crossStaff },
       moved: (w) => new RegExp(`^/courses/${w.A.course.id}/assignments/\\d+$`),
       body: (w) => ({ form: settingsFields(w) }),
@@ -381,17 +584,35 @@ const EXPECTED: Record<string, Entry> = {
     post: {
       expect: { ...redirecting(courseInstructor), ...crossStaff },
       moved: (w) => new RegExp(`^/courses/${w.A.course.id}/assignments/${w.A.assignment.id}/extensions\\?done=saved$`),
-      body: (w) => ({ form: { intent: 'save', userId: String(w.people.student.id), dueAt: localMinute(new Date(Date.now() + 10 * 86_400_000)), extraAttempts: '1', reason: 'Ill for a week.' } }),
+      body: (w) => ({
+        form: {
+          intent: 'save',
+          userId: String(w.people.student.id),
+          dueAt: localMinute(new Date(Date.now() + 10 * 86_400_000)),
+          extraAttempts: '1',
+          reason: 'Ill for a week.',
+        },
+      }),
     },
   },
-  'routes/courses/assignments/gradebook.tsx': { params: assignment, get: { expect: { ...courseStaff, ...crossStaff } } },
-  'routes/courses/assignments/statistics.tsx': { params: assignment, get: { expect: { ...courseStaff, ...crossStaff } } },
+  'routes/courses/assignments/gradebook.tsx': {
+    params: assignment,
+    get: { expect: { ...courseStaff, ...crossStaff } },
+  },
+  'routes/courses/assignments/statistics.tsx': {
+    params: assignment,
+    get: { expect: { ...courseStaff, ...crossStaff } },
+  },
   'routes/courses/assignments/problem.tsx': {
     params: problem,
     get: { expect: { ...courseMembers, ...crossMembers } },
     post: {
       // A fresh assignment each time: the release-key case above releases the key of A's.
-      params: async (w, ctx) => ({ ...course(w, ctx), assignmentId: String((await w.freshAssignment()).assignment.id), position: '1' }),
+      params: async (w, ctx) => ({
+        ...course(w, ctx),
+        assignmentId: String((await w.freshAssignment()).assignment.id),
+        position: '1',
+      }),
       expect: { ...redirecting(courseMembers), ta: 403, instructor: 403, ...cross(400, 403) },
       moved: (w) => new RegExp(`^/courses/${w.A.course.id}/assignments/\\d+/problems/1\\?receipt=\\d+$`),
       body: async (w, ctx, params) => {
@@ -399,7 +620,14 @@ const EXPECTED: Record<string, Entry> = {
         // (the caller's own when they may see the page, else one of the student's).
         const mod = await import('#app/routes/courses/assignments/problem.tsx')
         const asker = ['student', 'classmate'].includes(ctx.role) ? ctx.headers : await loginAs(w.people.student)
-        const page = (await mod.loader(args(new Request(`${BASE}/courses/${w.A.course.id}/assignments/${params.assignmentId}/problems/1`, { headers: asker }), { ...params, courseId: String(w.A.course.id) }))) as {
+        const page = (await mod.loader(
+          args(
+            new Request(`${BASE}/courses/${w.A.course.id}/assignments/${params.assignmentId}/problems/1`, {
+              headers: asker,
+            }),
+            { ...params, courseId: String(w.A.course.id) },
+          ),
+        )) as {
           formToken?: string | null
         }
         return { form: { formToken: page.formToken ?? '', 'answer.T2': '583 K' } }
@@ -411,10 +639,22 @@ const EXPECTED: Record<string, Entry> = {
     params: problem,
     get: { expect: { ...courseInstructor, ...crossStaff } },
     post: {
-      params: async (w, ctx) => ({ ...course(w, ctx), assignmentId: String((await w.freshAssignment()).assignment.id), position: '1' }),
+      params: async (w, ctx) => ({
+        ...course(w, ctx),
+        assignmentId: String((await w.freshAssignment()).assignment.id),
+        position: '1',
+      }),
       expect: { ...redirecting(courseInstructor), ...cross(403, 400) },
       moved: (w) => new RegExp(`^/courses/${w.A.course.id}/assignments/\\d+/problems/1/regrade\\?regrade=\\d+$`),
-      body: (w) => ({ form: { intent: 'apply', version: String(w.item.problemVersionId), 'kind.T2': 'relative', 'value.T2': '5 %', 'unit.T2': '' } }),
+      body: (w) => ({
+        form: {
+          intent: 'apply',
+          version: String(w.item.problemVersionId),
+          'kind.T2': 'relative',
+          'value.T2': '5 %',
+          'unit.T2': '',
+        },
+      }),
     },
   },
   'routes/courses/assignments/dispute.tsx': {
@@ -443,7 +683,11 @@ const EXPECTED: Record<string, Entry> = {
   'routes/bank/index.tsx': { get: { expect: bankUsers } },
   'routes/bank/new.tsx': {
     get: { expect: bankUsers },
-    post: { expect: { ...bankUsers, instructor: 'moved', otherInstructor: 'moved', admin: 'moved' }, moved: () => /^\/bank\/\d+$/, body: () => ({ form: editorFields(`New ${unique()}`) }) },
+    post: {
+      expect: { ...bankUsers, instructor: 'moved', otherInstructor: 'moved', admin: 'moved' },
+      moved: () => /^\/bank\/\d+$/,
+      body: () => ({ form: editorFields(`New ${unique()}`) }),
+    },
   },
   'routes/bank/import.tsx': {
     get: { expect: bankUsers },
@@ -451,18 +695,29 @@ const EXPECTED: Record<string, Entry> = {
       expect: { ...bankUsers, instructor: 'moved', otherInstructor: 'moved', admin: 'moved' },
       moved: () => /^\/bank\?imported=1$/,
       body: () => {
-        const doc = { format: 'cyclewright-bank', version: 1, exportedAt: new Date().toISOString(), problems: [{ title: 'Carnot drill', definition: carnot(`Imported ${unique()}`) }] }
+        const doc = {
+          format: 'cyclewright-bank',
+          version: 1,
+          exportedAt: new Date().toISOString(),
+          problems: [{ title: 'Carnot drill', definition: carnot(`Imported ${unique()}`) }],
+        }
         const form = new FormData()
         form.set('document', new File([JSON.stringify(doc)], 'bank.json', { type: 'application/json' }))
         return { multipart: form }
       },
     },
   },
-  'routes/resources/bank-export.ts': { get: { expect: { ...bankUsers, otherInstructor: 404 }, query: (w) => `?ids=${w.ids.problemId}` } },
+  'routes/resources/bank-export.ts': {
+    get: { expect: { ...bankUsers, otherInstructor: 404 }, query: (w) => `?ids=${w.ids.problemId}` },
+  },
   'routes/bank/$problemId.tsx': {
     params: bankProblem,
     get: { expect: { ...bankUsers, otherInstructor: 404 } },
-    post: { expect: { ...bankUsers, instructor: 'moved', otherInstructor: 404, admin: 'moved' }, moved: () => /^\/bank\/\d+\?copied=1$/, body: () => ({ form: { intent: 'copy' } }) },
+    post: {
+      expect: { ...bankUsers, instructor: 'moved', otherInstructor: 404, admin: 'moved' },
+      moved: () => /^\/bank\/\d+\?copied=1$/,
+      body: () => ({ form: { intent: 'copy' } }),
+    },
   },
   'routes/bank/edit.tsx': {
     params: bankProblem,
@@ -478,22 +733,48 @@ const EXPECTED: Record<string, Entry> = {
 
   // -- The JSON API
   'routes/resources/api-problems.ts': { get: { expect: bankUsersApi } },
-  'routes/resources/api-problem.ts': { params: bankProblem, get: { expect: { ...bankUsersApi, otherInstructor: 404 } } },
+  'routes/resources/api-problem.ts': {
+    params: bankProblem,
+    get: { expect: { ...bankUsersApi, otherInstructor: 404 } },
+  },
   'routes/resources/api-preview.ts': {
     get: { expect: everyone(405) },
     post: { expect: bankUsersApi, body: () => ({ json: { definition: carnot(), seeds: [1, 2] } }) },
   },
-  'routes/resources/api-sweep.ts': { params: (w) => ({ sweepId: String(w.ids.sweepId) }), get: { expect: { ...bankUsersApi, otherInstructor: 404 } } },
+  'routes/resources/api-sweep.ts': {
+    params: (w) => ({ sweepId: String(w.ids.sweepId) }),
+    get: { expect: { ...bankUsersApi, otherInstructor: 404 } },
+  },
   // Only ever the caller's own results: a classmate gets theirs, a student of B nothing.
   'routes/resources/api-my-results.ts': {
     params: (w) => ({ ...apiAssignment(w), position: '1' }),
-    get: { expect: { signedOut: 401, student: 'ok', classmate: 'ok', otherStudent: 404, ta: 403, instructor: 403, otherInstructor: 403, admin: 403 } },
+    get: {
+      expect: {
+        signedOut: 401,
+        student: 'ok',
+        classmate: 'ok',
+        otherStudent: 404,
+        ta: 403,
+        instructor: 403,
+        otherInstructor: 403,
+        admin: 403,
+      },
+    },
   },
   'routes/resources/api-assignment-gradebook.ts': { params: apiAssignment, get: { expect: courseStaffApi } },
   'routes/resources/api-assignment-statistics.ts': { params: apiAssignment, get: { expect: courseStaffApi } },
-  'routes/resources/api-find-answers.ts': { params: (w) => ({ ...apiAssignment(w), position: '1' }), get: { expect: courseStaffApi } },
-  'routes/resources/api-course-gradebook.ts': { params: (w) => ({ courseId: String(w.A.course.id) }), get: { expect: courseStaffApi } },
-  'routes/resources/api-regrade.ts': { params: (w) => ({ regradeId: String(w.ids.regradeId) }), get: { expect: courseStaffApi } },
+  'routes/resources/api-find-answers.ts': {
+    params: (w) => ({ ...apiAssignment(w), position: '1' }),
+    get: { expect: courseStaffApi },
+  },
+  'routes/resources/api-course-gradebook.ts': {
+    params: (w) => ({ courseId: String(w.A.course.id) }),
+    get: { expect: courseStaffApi },
+  },
+  'routes/resources/api-regrade.ts': {
+    params: (w) => ({ regradeId: String(w.ids.regradeId) }),
+    get: { expect: courseStaffApi },
+  },
 
   // -- Department admin
   'routes/admin/index.tsx': { get: { expect: adminOnly } },
@@ -510,7 +791,15 @@ const EXPECTED: Record<string, Entry> = {
     post: {
       expect: { ...adminOnly, admin: 'moved' },
       moved: () => /^\/admin\/courses\/\d+\?created=1$/,
-      body: (w) => ({ form: { termId: String(w.A.course.termId), code: `AZ ${unique()}`, title: 'Heat engines', signConvention: 'engineering', timeZone: 'UTC' } }),
+      body: (w) => ({
+        form: {
+          termId: String(w.A.course.termId),
+          code: `AZ ${unique()}`,
+          title: 'Heat engines',
+          signConvention: 'engineering',
+          timeZone: 'UTC',
+        },
+      }),
     },
   },
   'routes/admin/courses/$courseId.tsx': {
@@ -519,17 +808,31 @@ const EXPECTED: Record<string, Entry> = {
     post: { expect: adminOnly, body: () => ({ form: { email: `teacher-${unique()}@test.example`.toLowerCase() } }) },
   },
   'routes/admin/outbox.tsx': { get: { expect: adminOnly } },
-  'routes/admin/outbox-message.tsx': { params: (w) => ({ messageId: String(w.ids.messageId) }), get: { expect: adminOnly } },
+  'routes/admin/outbox-message.tsx': {
+    params: (w) => ({ messageId: String(w.ids.messageId) }),
+    get: { expect: adminOnly },
+  },
   'routes/admin/exports.tsx': {
     get: { expect: adminOnly },
-    post: { expect: { ...adminOnly, admin: 'moved' }, moved: () => /^\/admin\/exports\?requested=\d+$/, body: (w) => ({ form: { termId: String(w.A.course.termId) } }) },
+    post: {
+      expect: { ...adminOnly, admin: 'moved' },
+      moved: () => /^\/admin\/exports\?requested=\d+$/,
+      body: (w) => ({ form: { termId: String(w.A.course.termId) } }),
+    },
   },
-  'routes/resources/grade-export-download.ts': { params: (w) => ({ exportId: String(w.ids.exportId) }), get: { expect: adminOnly } },
+  'routes/resources/grade-export-download.ts': {
+    params: (w) => ({ exportId: String(w.ids.exportId) }),
+    get: { expect: adminOnly },
+  },
 
   // The author guide and bank format: for the people who may use the bank.
   'routes/help.tsx': { params: () => ({ page: 'authoring' }), get: { expect: bankUsers } },
   'routes/resources/healthz.ts': { get: { expect: everyone('ok') } },
-  'routes/not-found.tsx': { params: () => ({ '*': 'no/such/page' }), get: { expect: everyone(404) }, post: { expect: everyone(404), body: () => ({ form: {} }) } },
+  'routes/not-found.tsx': {
+    params: () => ({ '*': 'no/such/page' }),
+    get: { expect: everyone(404) },
+    post: { expect: everyone(404), body: () => ({ form: {} }) },
+  },
 }
 
 // ---- Running one case -----------------------------------------------------------------------
@@ -544,13 +847,25 @@ function who(w: World, role: Role) {
 function toPath(pattern: string, params: Params): string {
   return pattern
     .split('/')
-    .map((seg) => (seg === '*' ? (params['*'] ?? '') : seg.startsWith(':') ? encodeURIComponent(params[seg.slice(1)] ?? `missing-${seg.slice(1)}`) : seg))
+    .map((seg) =>
+      seg === '*'
+        ? (params['*'] ?? '')
+        : seg.startsWith(':')
+          ? encodeURIComponent(params[seg.slice(1)] ?? `missing-${seg.slice(1)}`)
+          : seg,
+    )
     .join('/')
 }
 
-async function buildRequest(url: string, method: 'GET' | 'POST', headers: Record<string, string>, body?: Body): Promise<Request> {
+async function buildRequest(
+  url: string,
+  method: 'GET' | 'POST',
+  headers: Record<string, string>,
+  body?: Body,
+): Promise<Request> {
   const base = { 'x-cyclewright-client-address': '10.0.0.1', Origin: BASE, ...headers }
-  if (method === 'GET' || !body) return new Request(url, { method, headers: base, ...(method === 'POST' ? { body: '' } : {}) })
+  if (method === 'GET' || !body)
+    return new Request(url, { method, headers: base, ...(method === 'POST' ? { body: '' } : {}) })
   let payload: ArrayBuffer
   let type: string
   if ('json' in body) {
@@ -562,7 +877,11 @@ async function buildRequest(url: string, method: 'GET' | 'POST', headers: Record
     payload = await encoded.arrayBuffer()
     type = encoded.headers.get('Content-Type')!
   }
-  return new Request(url, { method, body: payload, headers: { ...base, 'Content-Type': type, 'Content-Length': String(payload.byteLength) } })
+  return new Request(url, {
+    method,
+    body: payload,
+    headers: { ...base, 'Content-Type': type, 'Content-Length': String(payload.byteLength) },
+  })
 }
 
 type Seen = { outcome: Outcome | string; detail: string }
@@ -592,17 +911,28 @@ function classify(result: unknown, moved: RegExp | undefined): Seen {
   return { outcome: status as Outcome, detail }
 }
 
-async function run(w: World, entry: Entry, pattern: string, file: string, method: 'GET' | 'POST', role: Role): Promise<Seen> {
+async function run(
+  w: World,
+  entry: Entry,
+  pattern: string,
+  file: string,
+  method: 'GET' | 'POST',
+  role: Role,
+): Promise<Seen> {
   const m = (method === 'GET' ? entry.get : entry.post)!
   const user = who(w, role)
   const headers = await loginAs(user)
-  const courseId = role === 'otherStudentOwnCourse' || role === 'otherInstructorOwnCourse' ? w.B.course.id : w.A.course.id
+  const courseId =
+    role === 'otherStudentOwnCourse' || role === 'otherInstructorOwnCourse' ? w.B.course.id : w.A.course.id
   const ctx: Ctx = { role, courseId, headers }
   const params = await (m.params ?? entry.params ?? (() => ({})))(w, ctx)
   const url = `${BASE}${toPath(pattern, params)}${m.query?.(w) ?? ''}`
   const body = method === 'POST' ? await (m as PostMethod).body(w, ctx, params) : undefined
   const request = await buildRequest(url, method, headers, body)
-  const mod = (await import(/* @vite-ignore */ new URL(`../../app/${file}`, import.meta.url).href)) as Record<string, (a: never) => Promise<unknown>>
+  const mod = (await import(/* @vite-ignore */ new URL(`../../app/${file}`, import.meta.url).href)) as Record<
+    string,
+    (a: never) => Promise<unknown>
+  >
   const fn = method === 'GET' ? mod.loader! : mod.action!
   let result: unknown
   try {
@@ -616,7 +946,8 @@ async function run(w: World, entry: Entry, pattern: string, file: string, method
 // ---- The checks --------------------------------------------------------------------------------
 
 /** Routes whose URL names a record of the course besides the course itself. */
-const namesCourseRecord = (pattern: string) => pattern.startsWith('/courses/:courseId/') && /:(?!courseId)\w+/.test(pattern)
+const namesCourseRecord = (pattern: string) =>
+  pattern.startsWith('/courses/:courseId/') && /:(?!courseId)\w+/.test(pattern)
 
 describe('the expectation table matches app/routes.ts', () => {
   test('the course layout guards nothing of its own: it has no loader or action (its pages do)', async () => {
@@ -627,7 +958,9 @@ describe('the expectation table matches app/routes.ts', () => {
 
   test('every route file in app/routes.ts has an entry', () => {
     const missing = [...new Set(ROUTES.map((r) => r.file))].filter((f) => !(f in EXPECTED))
-    expect(missing, `routes without an entry in EXPECTED (add who may GET/POST them): ${missing.join(', ')}`).toEqual([])
+    expect(missing, `routes without an entry in EXPECTED (add who may GET/POST them): ${missing.join(', ')}`).toEqual(
+      [],
+    )
   })
 
   test('every entry names a route that still exists', () => {
@@ -641,7 +974,10 @@ describe('the expectation table matches app/routes.ts', () => {
     for (const { file } of ROUTES) {
       const entry = EXPECTED[file]
       if (!entry) continue
-      const mod = (await import(/* @vite-ignore */ new URL(`../../app/${file}`, import.meta.url).href)) as Record<string, unknown>
+      const mod = (await import(/* @vite-ignore */ new URL(`../../app/${file}`, import.meta.url).href)) as Record<
+        string,
+        unknown
+      >
       if (typeof mod.loader === 'function' && !entry.get) wrong.push(`${file}: has a loader but no GET expectations`)
       if (typeof mod.loader !== 'function' && entry.get) wrong.push(`${file}: GET expectations but no loader`)
       if (typeof mod.action === 'function' && !entry.post) wrong.push(`${file}: has an action but no POST expectations`)
@@ -654,8 +990,12 @@ describe('the expectation table matches app/routes.ts', () => {
     const wrong: string[] = []
     for (const { pattern, file } of ROUTES) {
       if (!namesCourseRecord(pattern)) continue
-      for (const [method, m] of [['GET', EXPECTED[file]?.get], ['POST', EXPECTED[file]?.post]] as const) {
-        if (m && CROSS_ROLES.some((r) => m.expect[r] === undefined)) wrong.push(`${method} ${pattern} (${file}) lacks cross-course cases`)
+      for (const [method, m] of [
+        ['GET', EXPECTED[file]?.get],
+        ['POST', EXPECTED[file]?.post],
+      ] as const) {
+        if (m && CROSS_ROLES.some((r) => m.expect[r] === undefined))
+          wrong.push(`${method} ${pattern} (${file}) lacks cross-course cases`)
       }
     }
     expect(wrong).toEqual([])
@@ -674,7 +1014,8 @@ describe('who may do what, route by route', () => {
         const wrong: string[] = []
         for (const role of roles) {
           const seen = await run(world, entry, pattern, file, method, role)
-          if (seen.outcome !== m.expect[role]) wrong.push(`${role}: expected ${m.expect[role]}, got ${seen.outcome} ${seen.detail}`.trim())
+          if (seen.outcome !== m.expect[role])
+            wrong.push(`${role}: expected ${m.expect[role]}, got ${seen.outcome} ${seen.detail}`.trim())
         }
         expect(wrong, `${method} ${pattern} (${file})`).toEqual([])
       })
@@ -689,7 +1030,9 @@ describe('records of others named in the query string', () => {
     const mod = await import('#app/routes/courses/assignments/regrade.tsx')
     const params = { courseId: String(world.B.course.id), assignmentId: String(world.B.assignment.id), position: '1' }
     const url = `${BASE}/courses/${world.B.course.id}/assignments/${world.B.assignment.id}/problems/1/regrade?regrade=${world.ids.regradeId}`
-    const page = await mod.loader(args(new Request(url, { headers: await headersOf(world.people.otherInstructor) }), params))
+    const page = await mod.loader(
+      args(new Request(url, { headers: await headersOf(world.people.otherInstructor) }), params),
+    )
     expect(page.progress).toBeNull()
     expect(page.regrades.map((r: { id: number }) => r.id)).not.toContain(world.ids.regradeId)
   })
@@ -697,7 +1040,11 @@ describe('records of others named in the query string', () => {
   test('an instructor of course B filtering their review queue by A’s assignment lists none of A’s disputes', async () => {
     const mod = await import('#app/routes/courses/disputes/index.tsx')
     const url = `${BASE}/courses/${world.B.course.id}/disputes?assignment=${world.A.assignment.id}&status=all`
-    const page = await mod.loader(args(new Request(url, { headers: await headersOf(world.people.otherInstructor) }), { courseId: String(world.B.course.id) }))
+    const page = await mod.loader(
+      args(new Request(url, { headers: await headersOf(world.people.otherInstructor) }), {
+        courseId: String(world.B.course.id),
+      }),
+    )
     expect(page.rows).toEqual([])
   })
 })
@@ -710,7 +1057,13 @@ describe('refusals leave nothing behind', () => {
     const params = { courseId: String(world.A.course.id), assignmentId: String(fresh.assignment.id), position: '1' }
     for (const user of [world.people.ta, world.people.student, world.people.otherInstructor]) {
       const request = await buildRequest(`${BASE}${path}`, 'POST', await loginAs(user), {
-        form: { intent: 'apply', version: String(world.item.problemVersionId), 'kind.T2': 'relative', 'value.T2': '5 %', 'unit.T2': '' },
+        form: {
+          intent: 'apply',
+          version: String(world.item.problemVersionId),
+          'kind.T2': 'relative',
+          'value.T2': '5 %',
+          'unit.T2': '',
+        },
       })
       const seen = classify(await mod.action(args(request, params)).catch((e: unknown) => e), undefined)
       expect(seen.outcome).toBe(403)
@@ -723,12 +1076,15 @@ describe('refusals leave nothing behind', () => {
     const mod = await import('#app/routes/resources/dispute-attachment.ts')
     const params = { courseId: String(world.A.course.id), disputeId: String(world.ids.disputeId) }
     const path = `${BASE}/courses/${world.A.course.id}/disputes/${world.ids.disputeId}/attachment`
-    const mine = (await mod.loader(args(new Request(path, { headers: await loginAs(world.people.student) }), params))) as Response
+    const mine = (await mod.loader(
+      args(new Request(path, { headers: await loginAs(world.people.student) }), params),
+    )) as Response
     expect(new Uint8Array(await mine.arrayBuffer())).toEqual(new Uint8Array([0x89, 0x50, 0x4e, 0x47]))
     for (const user of [world.people.classmate, world.people.otherStudent, world.people.admin]) {
-      const out = await mod.loader(args(new Request(path, { headers: await loginAs(user) }), params)).catch((e: unknown) => e)
+      const out = await mod
+        .loader(args(new Request(path, { headers: await loginAs(user) }), params))
+        .catch((e: unknown) => e)
       expect(out).not.toBeInstanceOf(Response)
     }
   })
-
 })

@@ -12,7 +12,13 @@ import { listBankChoices } from '#app/server/assignments.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { problems } from '#app/server/db/schema.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
-import { addMember, createAssignment, createBankUser, createCourse, createProblemWithVersion } from '#tests/support/factories.ts'
+import {
+  addMember,
+  createAssignment,
+  createBankUser,
+  createCourse,
+  createProblemWithVersion,
+} from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { sessionCookie } from '#tests/support/login.ts'
@@ -31,7 +37,9 @@ function statusOf(out: { thrown: unknown } | { value: unknown }): number {
 }
 
 async function bankTitles(cookie: string, search = '') {
-  const page = (await bankLoader(args(getRequest(`/bank${search}`, { Cookie: cookie })))) as { rows: { id: number; title: string }[] }
+  const page = (await bankLoader(args(getRequest(`/bank${search}`, { Cookie: cookie })))) as {
+    rows: { id: number; title: string }[]
+  }
   return page.rows.map((r) => r.id)
 }
 
@@ -45,7 +53,9 @@ describe('archiving a bank problem', () => {
     const params = { problemId: String(p.problemId) }
     expect(await bankTitles(cookie)).toEqual(expect.arrayContaining([p.problemId, other.problemId]))
 
-    const done = (await problemAction(args(formRequest(path, { intent: 'archive' }, { Cookie: cookie }), params))) as Response
+    const done = (await problemAction(
+      args(formRequest(path, { intent: 'archive' }, { Cookie: cookie }), params),
+    )) as Response
     expect(done.headers.get('Location')).toBe(`${path}?done=archived`)
     expect(await bankTitles(cookie)).not.toContain(p.problemId)
     expect(await bankTitles(cookie)).toContain(other.problemId)
@@ -55,7 +65,9 @@ describe('archiving a bank problem', () => {
     expect(choices.map((c) => c.problemId)).toContain(other.problemId)
     // An assignment that already has the version still sees it among its choices.
     expect((await listBankChoices(db(), viewer, [p.versionId])).map((c) => c.problemId)).toContain(p.problemId)
-    const page = (await problemLoader(args(getRequest(path, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof problemLoader>>
+    const page = (await problemLoader(args(getRequest(path, { Cookie: cookie }), params))) as Awaited<
+      ReturnType<typeof problemLoader>
+    >
     expect(page.usage!.archivedAt).not.toBeNull()
 
     await problemAction(args(formRequest(path, { intent: 'restore' }, { Cookie: cookie }), params))
@@ -71,10 +83,15 @@ describe('archiving a bank problem', () => {
     const cookie = await sessionCookie(other.user)
     const params = { problemId: String(p.problemId) }
     for (const form of [{ intent: 'archive' }, { intent: 'delete', confirm: 'yes' }] as Record<string, string>[]) {
-      const out = await settle(problemAction(args(formRequest(`/bank/${p.problemId}`, form, { Cookie: cookie }), params)))
+      const out = await settle(
+        problemAction(args(formRequest(`/bank/${p.problemId}`, form, { Cookie: cookie }), params)),
+      )
       expect(statusOf(out)).toBe(403)
     }
-    const [row] = await db().select({ archivedAt: problems.archivedAt }).from(problems).where(eq(problems.id, p.problemId))
+    const [row] = await db()
+      .select({ archivedAt: problems.archivedAt })
+      .from(problems)
+      .where(eq(problems.id, p.problemId))
     expect(row).toEqual({ archivedAt: null })
   })
 })
@@ -86,13 +103,19 @@ describe('deleting a bank problem', () => {
     const p = await createProblemWithVersion(db(), user.id, otto)
     const path = `/bank/${p.problemId}`
     const params = { problemId: String(p.problemId) }
-    const page = (await problemLoader(args(getRequest(`${path}?confirm=delete`, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof problemLoader>>
+    const page = (await problemLoader(
+      args(getRequest(`${path}?confirm=delete`, { Cookie: cookie }), params),
+    )) as Awaited<ReturnType<typeof problemLoader>>
     expect(page.confirmDelete).toBe(true)
     expect(page.usage).toMatchObject({ deletable: true, assignmentCount: 0, versionCount: 1 })
-    const refused = await settle(problemAction(args(formRequest(path, { intent: 'delete' }, { Cookie: cookie }), params)))
+    const refused = await settle(
+      problemAction(args(formRequest(path, { intent: 'delete' }, { Cookie: cookie }), params)),
+    )
     expect(statusOf(refused)).toBe(400)
     expect(await db().select({ id: problems.id }).from(problems).where(eq(problems.id, p.problemId))).toHaveLength(1)
-    const done = (await problemAction(args(formRequest(path, { intent: 'delete', confirm: 'yes' }, { Cookie: cookie }), params))) as Response
+    const done = (await problemAction(
+      args(formRequest(path, { intent: 'delete', confirm: 'yes' }, { Cookie: cookie }), params),
+    )) as Response
     expect(done.headers.get('Location')).toBe('/bank?deleted=1')
     expect(await db().select({ id: problems.id }).from(problems).where(eq(problems.id, p.problemId))).toEqual([])
   })
@@ -105,11 +128,19 @@ describe('deleting a bank problem', () => {
     const p = await createProblemWithVersion(db(), user.id, otto)
     await createAssignment(db(), course.id, user.id, [p])
     const params = { problemId: String(p.problemId) }
-    const page = (await problemLoader(args(getRequest(`/bank/${p.problemId}`, { Cookie: cookie }), params))) as Awaited<ReturnType<typeof problemLoader>>
+    const page = (await problemLoader(args(getRequest(`/bank/${p.problemId}`, { Cookie: cookie }), params))) as Awaited<
+      ReturnType<typeof problemLoader>
+    >
     expect(page.usage).toMatchObject({ deletable: false, assignmentCount: 1 })
-    const out = await settle(problemAction(args(formRequest(`/bank/${p.problemId}`, { intent: 'delete', confirm: 'yes' }, { Cookie: cookie }), params)))
+    const out = await settle(
+      problemAction(
+        args(formRequest(`/bank/${p.problemId}`, { intent: 'delete', confirm: 'yes' }, { Cookie: cookie }), params),
+      ),
+    )
     expect(statusOf(out)).toBe(409)
-    expect((out as { value: { data: { formError: string } } }).value.data.formError).toMatch(/cannot be deleted: an assignment uses it\. Archive it instead/)
+    expect((out as { value: { data: { formError: string } } }).value.data.formError).toMatch(
+      /cannot be deleted: an assignment uses it\. Archive it instead/,
+    )
     expect(await db().select({ id: problems.id }).from(problems).where(eq(problems.id, p.problemId))).toHaveLength(1)
   })
 })

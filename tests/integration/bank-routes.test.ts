@@ -35,7 +35,17 @@ function carnot(title = 'Carnot drill'): ProblemDefinition {
       template: 'carnot-engine',
       inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: '300 K', p1: '1000 kPa', expansionRatio: '2' },
     },
-    finds: [{ name: 'eta', label: 'Efficiency', source: { kind: 'output', path: 'totals.efficiency' }, unit: '', points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] }],
+    finds: [
+      {
+        name: 'eta',
+        label: 'Efficiency',
+        source: { kind: 'output', path: 'totals.efficiency' },
+        unit: '',
+        points: 1,
+        tolerance: { kind: 'relative', value: 0.01 },
+        pitfalls: [],
+      },
+    ],
   }
 }
 
@@ -46,7 +56,11 @@ async function uploadRequest(path: string, form: FormData, cookie: string) {
   return new Request(`${BASE}${path}`, {
     method: 'POST',
     body,
-    headers: { 'Content-Type': encoded.headers.get('Content-Type')!, 'Content-Length': String(body.byteLength), Cookie: cookie },
+    headers: {
+      'Content-Type': encoded.headers.get('Content-Type')!,
+      'Content-Length': String(body.byteLength),
+      Cookie: cookie,
+    },
   })
 }
 
@@ -65,9 +79,22 @@ async function json(r: Response) {
 describe('POST /api/preview', () => {
   test('draws the seeded variants with prompt HTML (MathML), key and diagrams; the key is the Carnot efficiency 1 − Tc/Th', async () => {
     const { user } = await createBankUser(db())
-    const res = await json((await previewAction(args(postJson('/api/preview', { definition: carnot(), seeds: [1, 2, 3, 4] }, await sessionCookie(user))))) as Response)
+    const res = await json(
+      (await previewAction(
+        args(postJson('/api/preview', { definition: carnot(), seeds: [1, 2, 3, 4] }, await sessionCookie(user))),
+      )) as Response,
+    )
     expect(res.status).toBe(200)
-    const body = res.body as unknown as { issues: unknown[]; variants: { ok: boolean; givens: { value: number }[]; key: { value: number }[]; promptHtml: string; diagrams: { pv: { curves: unknown[] } } }[] }
+    const body = res.body as unknown as {
+      issues: unknown[]
+      variants: {
+        ok: boolean
+        givens: { value: number }[]
+        key: { value: number }[]
+        promptHtml: string
+        diagrams: { pv: { curves: unknown[] } }
+      }[]
+    }
     expect(body.issues).toEqual([])
     expect(body.variants).toHaveLength(4)
     for (const v of body.variants) {
@@ -81,8 +108,13 @@ describe('POST /api/preview', () => {
 
   test('a half-written problem comes back as issues by field, not an error', async () => {
     const { user } = await createBankUser(db())
-    const def = { ...carnot(), givens: [{ name: '1bad', label: '', unit: 'K', rule: { kind: 'range', min: 5, max: 1, step: 0 } }] }
-    const res = await json((await previewAction(args(postJson('/api/preview', { definition: def }, await sessionCookie(user))))) as Response)
+    const def = {
+      ...carnot(),
+      givens: [{ name: '1bad', label: '', unit: 'K', rule: { kind: 'range', min: 5, max: 1, step: 0 } }],
+    }
+    const res = await json(
+      (await previewAction(args(postJson('/api/preview', { definition: def }, await sessionCookie(user))))) as Response,
+    )
     expect(res.status).toBe(200)
     const issues = res.body.issues as { path: string }[]
     expect(issues.some((i) => i.path.startsWith('givens.0'))).toBe(true)
@@ -92,7 +124,11 @@ describe('POST /api/preview', () => {
   test('junk bodies get a JSON 400 with a message', async () => {
     const { user } = await createBankUser(db())
     const cookie = await sessionCookie(user)
-    for (const body of ['{not json', JSON.stringify({ definition: carnot(), seeds: 'many' }), JSON.stringify({ definition: carnot(), seeds: [1, 2, 3, 4, 5, 6, 7] })]) {
+    for (const body of [
+      '{not json',
+      JSON.stringify({ definition: carnot(), seeds: 'many' }),
+      JSON.stringify({ definition: carnot(), seeds: [1, 2, 3, 4, 5, 6, 7] }),
+    ]) {
       const res = await json((await previewAction(args(postJson('/api/preview', body, cookie)))) as Response)
       expect(res.status).toBe(400)
       expect(typeof res.body.error).toBe('string')
@@ -105,7 +141,9 @@ describe('POST /api/preview', () => {
     const student = await createUser(db())
     const course = await createCourse(db())
     await addMember(db(), student.id, course.id, 'student')
-    const r = await settle(previewAction(args(postJson('/api/preview', { definition: carnot() }, await sessionCookie(student)))))
+    const r = await settle(
+      previewAction(args(postJson('/api/preview', { definition: carnot() }, await sessionCookie(student)))),
+    )
     expect('thrown' in r).toBe(true)
     const res = await json((r as { thrown: Response }).thrown)
     expect(res.status).toBe(403)
@@ -118,19 +156,42 @@ describe('GET /api/problems and /api/problems/:id', () => {
     const a = await createBankUser(db())
     const b = await createBankUser(db())
     const mine = await createProblem(db(), a.viewer, { definition: carnot('Mine'), visibility: 'private' })
-    const shared = await createProblem(db(), b.viewer, { definition: carnot('Shared with all'), visibility: 'installation' })
+    const shared = await createProblem(db(), b.viewer, {
+      definition: carnot('Shared with all'),
+      visibility: 'installation',
+    })
     const hidden = await createProblem(db(), b.viewer, { definition: carnot('Hidden'), visibility: 'private' })
     const cookie = await sessionCookie(a.user)
-    const list = await json((await problemsLoader(args(getRequest('/api/problems?sort=title&dir=asc', { Cookie: cookie })))) as Response)
+    const list = await json(
+      (await problemsLoader(args(getRequest('/api/problems?sort=title&dir=asc', { Cookie: cookie })))) as Response,
+    )
     expect((list.body.rows as { title: string }[]).map((r) => r.title)).toEqual(['Mine', 'Shared with all'])
-    const one = await json((await problemLoader(args(getRequest(`/api/problems/${shared.problemId}`, { Cookie: cookie }), { problemId: String(shared.problemId) }))) as Response)
+    const one = await json(
+      (await problemLoader(
+        args(getRequest(`/api/problems/${shared.problemId}`, { Cookie: cookie }), {
+          problemId: String(shared.problemId),
+        }),
+      )) as Response,
+    )
     expect(one.status).toBe(200)
     expect(one.body.canEdit).toBe(false)
-    const own = await json((await problemLoader(args(getRequest(`/api/problems/${mine.problemId}`, { Cookie: cookie }), { problemId: String(mine.problemId) }))) as Response)
+    const own = await json(
+      (await problemLoader(
+        args(getRequest(`/api/problems/${mine.problemId}`, { Cookie: cookie }), { problemId: String(mine.problemId) }),
+      )) as Response,
+    )
     expect(own.body.canEdit).toBe(true)
-    const none = await json((await problemLoader(args(getRequest(`/api/problems/${hidden.problemId}`, { Cookie: cookie }), { problemId: String(hidden.problemId) }))) as Response)
+    const none = await json(
+      (await problemLoader(
+        args(getRequest(`/api/problems/${hidden.problemId}`, { Cookie: cookie }), {
+          problemId: String(hidden.problemId),
+        }),
+      )) as Response,
+    )
     expect(none.status).toBe(404)
-    const junk = await settle(problemLoader(args(getRequest('/api/problems/abc', { Cookie: cookie }), { problemId: 'abc' })))
+    const junk = await settle(
+      problemLoader(args(getRequest('/api/problems/abc', { Cookie: cookie }), { problemId: 'abc' })),
+    )
     expect('thrown' in junk && (junk.thrown as Response).status).toBe(404)
   })
 })
@@ -141,13 +202,19 @@ describe('export and import', () => {
     const b = await createBankUser(db())
     const hidden = await createProblem(db(), b.viewer, { definition: carnot('Hidden'), visibility: 'private' })
     const cookie = await sessionCookie(a.user)
-    const refused = await settle(exportLoader(args(getRequest(`/bank/export?ids=${hidden.problemId}`, { Cookie: cookie }))))
+    const refused = await settle(
+      exportLoader(args(getRequest(`/bank/export?ids=${hidden.problemId}`, { Cookie: cookie }))),
+    )
     expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(404)
     const junk = await settle(exportLoader(args(getRequest('/bank/export?ids=1;drop', { Cookie: cookie }))))
     expect('thrown' in junk && (junk.thrown as { init: { status: number } }).init.status).toBe(400)
     const mine = await createProblem(db(), a.viewer, { definition: carnot('Mine'), visibility: 'private' })
-    const ok = (await exportLoader(args(getRequest(`/bank/export?ids=${mine.problemId}`, { Cookie: cookie })))) as Response
-    expect(ok.headers.get('Content-Disposition')).toMatch(/attachment; filename="cyclewright-bank-\d{4}-\d{2}-\d{2}\.json"/)
+    const ok = (await exportLoader(
+      args(getRequest(`/bank/export?ids=${mine.problemId}`, { Cookie: cookie })),
+    )) as Response
+    expect(ok.headers.get('Content-Disposition')).toMatch(
+      /attachment; filename="cyclewright-bank-\d{4}-\d{2}-\d{2}\.json"/,
+    )
     const doc = (await ok.json()) as { problems: { definition: ProblemDefinition }[] }
     expect(doc.problems[0]!.definition).toEqual(carnot('Mine'))
   })
@@ -161,7 +228,11 @@ describe('export and import', () => {
       if (content !== null) form.set('document', new File([content], name, { type: 'application/json' }))
       return uploadRequest('/bank/import', form, cookie)
     }
-    const unstated = new Request(`${BASE}/bank/import`, { method: 'POST', body: 'document=x', headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie } })
+    const unstated = new Request(`${BASE}/bank/import`, {
+      method: 'POST',
+      body: 'document=x',
+      headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie },
+    })
     const cases: [Request, number, RegExp][] = [
       [await upload('x'.repeat(MAX_IMPORT_BYTES + 1)), 413, /larger than 2 MB/],
       [await upload('this is not json', 'notes.txt'), 400, /not a JSON document/],
@@ -170,7 +241,10 @@ describe('export and import', () => {
       [unstated, 411, /did not say how large/],
     ]
     for (const [request, status, message] of cases) {
-      const r = (await importAction(args(request))) as unknown as { data: { formError: string }; init: { status: number } }
+      const r = (await importAction(args(request))) as unknown as {
+        data: { formError: string }
+        init: { status: number }
+      }
       expect(r.init.status).toBe(status)
       expect(r.data.formError).toMatch(message)
     }
@@ -181,13 +255,19 @@ describe('export and import', () => {
 describe('the editor form', () => {
   function editorForm(def: ProblemDefinition, extra: Record<string, string>, cookie: string, path = '/bank/new') {
     const body = new URLSearchParams({ ...formValuesFromDefinition(def), visibility: 'private', ...extra })
-    return new Request(`${BASE}${path}`, { method: 'POST', body, headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie } })
+    return new Request(`${BASE}${path}`, {
+      method: 'POST',
+      body,
+      headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie },
+    })
   }
 
   test('a valid form saves version 1 and redirects to the problem; a bad one returns 400 with issues by field and saves nothing', async () => {
     const { user } = await createBankUser(db())
     const cookie = await sessionCookie(user)
-    const saved = (await newAction(args(editorForm(carnot('Saved from the form'), { intent: 'save' }, cookie)))) as Response
+    const saved = (await newAction(
+      args(editorForm(carnot('Saved from the form'), { intent: 'save' }, cookie)),
+    )) as Response
     expect(saved.status).toBe(302)
     const id = Number(saved.headers.get('Location')!.split('/').pop())
     const [version] = await db().select().from(problemVersions).where(eq(problemVersions.problemId, id))
@@ -195,7 +275,15 @@ describe('the editor form', () => {
     expect(version!.definition).toEqual(carnot('Saved from the form'))
 
     const before = (await db().select({ n: count() }).from(problems))[0]!.n
-    const bad = (await newAction(args(editorForm(carnot('Broken'), { intent: 'save', 'givens.0.rule.min': 'warm', 'finds.0.source.path': 'totals.nothingHere' }, cookie)))) as unknown as {
+    const bad = (await newAction(
+      args(
+        editorForm(
+          carnot('Broken'),
+          { intent: 'save', 'givens.0.rule.min': 'warm', 'finds.0.source.path': 'totals.nothingHere' },
+          cookie,
+        ),
+      ),
+    )) as unknown as {
       data: { issues: { path: string }[]; state: { values: Record<string, string> } }
       init: { status: number }
     }
@@ -205,7 +293,9 @@ describe('the editor form', () => {
     expect(bad.data.state.values['givens.0.rule.min']).toBe('warm')
     expect((await db().select({ n: count() }).from(problems))[0]!.n).toBe(before)
 
-    const unknownIntent = (await newAction(args(editorForm(carnot(), { intent: 'launch' }, cookie)))) as unknown as { init: { status: number } }
+    const unknownIntent = (await newAction(args(editorForm(carnot(), { intent: 'launch' }, cookie)))) as unknown as {
+      init: { status: number }
+    }
     expect(unknownIntent.init.status).toBe(400)
   })
 
@@ -217,12 +307,16 @@ describe('the editor form', () => {
     const path = `/bank/${made.problemId}/edit`
     const params = { problemId: String(made.problemId) }
     const changed = { ...carnot('Frozen drill'), prompt: 'Changed after the freeze: @{Th}.' }
-    const saved = (await editAction(args(editorForm(changed, { intent: 'save' }, await sessionCookie(a.user), path), params))) as Response
+    const saved = (await editAction(
+      args(editorForm(changed, { intent: 'save' }, await sessionCookie(a.user), path), params),
+    )) as Response
     expect(saved.status).toBe(302)
     const versions = await db().select().from(problemVersions).where(eq(problemVersions.problemId, made.problemId))
     expect(versions.map((v) => v.number).sort()).toEqual([1, 2])
     expect((versions.find((v) => v.number === 1)!.definition as ProblemDefinition).prompt).toBe(carnot().prompt)
-    const refused = await settle(editAction(args(editorForm(changed, { intent: 'save' }, await sessionCookie(b.user), path), params)))
+    const refused = await settle(
+      editAction(args(editorForm(changed, { intent: 'save' }, await sessionCookie(b.user), path), params)),
+    )
     expect('thrown' in refused && (refused.thrown as { init: { status: number } }).init.status).toBe(403)
   })
 })
@@ -234,11 +328,18 @@ describe('saving over a save made meanwhile', () => {
     const cookie = await sessionCookie(a.user)
     const params = { problemId: String(made.problemId) }
     const path = `/bank/${made.problemId}/edit`
-    const opened = (await db().select({ at: problems.updatedAt }).from(problems).where(eq(problems.id, made.problemId)))[0]!.at.toISOString()
+    const opened = (
+      await db().select({ at: problems.updatedAt }).from(problems).where(eq(problems.id, made.problemId))
+    )[0]!.at.toISOString()
     const post = (prompt: string, basedOn: string) =>
       new Request(`${BASE}${path}`, {
         method: 'POST',
-        body: new URLSearchParams({ ...formValuesFromDefinition({ ...carnot('Two tabs'), prompt }), visibility: 'private', intent: 'save', _basedOn: basedOn }),
+        body: new URLSearchParams({
+          ...formValuesFromDefinition({ ...carnot('Two tabs'), prompt }),
+          visibility: 'private',
+          intent: 'save',
+          _basedOn: basedOn,
+        }),
         headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie },
       })
     // The first tab saves.
@@ -254,7 +355,9 @@ describe('saving over a save made meanwhile', () => {
     const [v] = await db().select().from(problemVersions).where(eq(problemVersions.problemId, made.problemId))
     expect((v!.definition as ProblemDefinition).prompt).toBe('First tab: @{Th}.')
     // Saving again from the refilled form (now based on the newer save) replaces it.
-    const again = (await editAction(args(post('Second tab: @{Th}.', stale.data.state.values._basedOn!), params))) as Response
+    const again = (await editAction(
+      args(post('Second tab: @{Th}.', stale.data.state.values._basedOn!), params),
+    )) as Response
     expect(again.status).toBe(302)
     const [w] = await db().select().from(problemVersions).where(eq(problemVersions.problemId, made.problemId))
     expect((w!.definition as ProblemDefinition).prompt).toBe('Second tab: @{Th}.')
@@ -269,17 +372,32 @@ describe('import credit', () => {
       format: 'cyclewright-bank',
       version: 1,
       exportedAt: new Date().toISOString(),
-      problems: [{ title: 'Carnot drill', origin: { title: 'Carnot drill, first edition', author: 'R. Quillfeather' }, definition: carnot() }],
+      problems: [
+        {
+          title: 'Carnot drill',
+          origin: { title: 'Carnot drill, first edition', author: 'R. Quillfeather' },
+          definition: carnot(),
+        },
+      ],
     }
     const form = new FormData()
     form.set('document', new File([JSON.stringify(doc)], 'bank.json', { type: 'application/json' }))
     const res = (await importAction(args(await uploadRequest('/bank/import', form, cookie)))) as Response
     expect(res.status).toBe(302)
-    const [row] = await db().select({ id: problems.id, importedFrom: problems.importedFrom }).from(problems).where(eq(problems.ownerId, a.user.id))
+    const [row] = await db()
+      .select({ id: problems.id, importedFrom: problems.importedFrom })
+      .from(problems)
+      .where(eq(problems.ownerId, a.user.id))
     expect(row!.importedFrom).toEqual({ title: 'Carnot drill, first edition', author: 'R. Quillfeather' })
-    const detail = await json((await problemLoader(args(getRequest(`/api/problems/${row!.id}`, { Cookie: cookie }), { problemId: String(row!.id) }))) as Response)
+    const detail = await json(
+      (await problemLoader(
+        args(getRequest(`/api/problems/${row!.id}`, { Cookie: cookie }), { problemId: String(row!.id) }),
+      )) as Response,
+    )
     expect(detail.body.importedFrom).toEqual({ title: 'Carnot drill, first edition', author: 'R. Quillfeather' })
-    const download = (await exportLoader(args(getRequest(`/bank/export?ids=${row!.id}`, { Cookie: cookie })))) as Response
+    const download = (await exportLoader(
+      args(getRequest(`/bank/export?ids=${row!.id}`, { Cookie: cookie })),
+    )) as Response
     const exported = (await download.json()) as { problems: { origin: unknown }[] }
     expect(exported.problems[0]!.origin).toEqual({ title: 'Carnot drill, first edition', author: 'R. Quillfeather' })
   })

@@ -32,7 +32,15 @@ import { findLastMailTo, linksIn } from '#app/server/outbox.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { toLocalDateTimeValue, parseLocalDateTime } from '#app/lib/dates.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
-import { addMember, createAssignment, createCourse, createDepartment, createProblemWithVersion, createTerm, createUser } from '#tests/support/factories.ts'
+import {
+  addMember,
+  createAssignment,
+  createCourse,
+  createDepartment,
+  createProblemWithVersion,
+  createTerm,
+  createUser,
+} from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { sessionCookie } from '#tests/support/login.ts'
@@ -50,7 +58,11 @@ const followsCourse = DEMO_PROBLEMS.find((p) => p.definition.convention === 'cou
 const fixedChemistry = DEMO_PROBLEMS.find((p) => p.definition.convention === 'chemistry')!.definition
 
 type Answer = {
-  data: { fieldErrors: Record<string, string | undefined>; values: Record<string, string>; done?: { outcome: string } | null }
+  data: {
+    fieldErrors: Record<string, string | undefined>
+    values: Record<string, string>
+    done?: { outcome: string } | null
+  }
   init: { status: number } | null
 }
 
@@ -71,7 +83,8 @@ function redirectOf(out: unknown): string {
 
 async function anAdmin(options: { timeZone?: string } = {}) {
   const department = await createDepartment(db())
-  if (options.timeZone) await db().update(departments).set({ timeZone: options.timeZone }).where(eq(departments.id, department.id))
+  if (options.timeZone)
+    await db().update(departments).set({ timeZone: options.timeZone }).where(eq(departments.id, department.id))
   const admin = await createUser(db(), { name: 'Ada Admin', isAdmin: true, departmentId: department.id })
   return { department, admin, cookie: await sessionCookie(admin) }
 }
@@ -86,7 +99,15 @@ describe('terms (admin)', () => {
     const { department, cookie } = await anAdmin()
     const empty = await termsLoader(args(getRequest('/admin/terms', { Cookie: cookie })))
     expect(empty.terms).toEqual([])
-    const out = await termsAction(args(formRequest('/admin/terms', { name: ' Spring 2027 ', startsOn: '2027-01-11', endsOn: '2027-05-07' }, { Cookie: cookie })))
+    const out = await termsAction(
+      args(
+        formRequest(
+          '/admin/terms',
+          { name: ' Spring 2027 ', startsOn: '2027-01-11', endsOn: '2027-05-07' },
+          { Cookie: cookie },
+        ),
+      ),
+    )
     const location = redirectOf(out)
     const [row] = await db().select().from(terms).where(eq(terms.departmentId, department.id))
     expect(row).toMatchObject({ name: 'Spring 2027', startsOn: '2027-01-11', endsOn: '2027-05-07' })
@@ -98,16 +119,27 @@ describe('terms (admin)', () => {
 
   test.each([
     [{ name: '', startsOn: '2027-01-11', endsOn: '2027-05-07' }, { name: 'Name the term, such as Spring 2027.' }],
-    [{ name: 'Spring 2027', startsOn: '2027-02-30', endsOn: '2027-05-07' }, { startsOn: 'Enter the first day of the term.' }],
-    [{ name: 'Spring 2027', startsOn: '2027-05-07', endsOn: '2027-01-11' }, { endsOn: 'The last day must come after the first day.' }],
-    [{ name: 'Spring 2027', startsOn: '2027-01-11', endsOn: '2037-01-11' }, { endsOn: expect.stringContaining('at most two years') }],
+    [
+      { name: 'Spring 2027', startsOn: '2027-02-30', endsOn: '2027-05-07' },
+      { startsOn: 'Enter the first day of the term.' },
+    ],
+    [
+      { name: 'Spring 2027', startsOn: '2027-05-07', endsOn: '2027-01-11' },
+      { endsOn: 'The last day must come after the first day.' },
+    ],
+    [
+      { name: 'Spring 2027', startsOn: '2027-01-11', endsOn: '2037-01-11' },
+      { endsOn: expect.stringContaining('at most two years') },
+    ],
     [
       { name: 'Spring 2027', startsOn: 'soon' },
       { startsOn: expect.any(String), endsOn: 'Enter the last day of the term.' },
     ],
   ])('bad input %j gets field errors and writes nothing', async (fields, errors) => {
     const { department, cookie } = await anAdmin()
-    const out = (await termsAction(args(formRequest('/admin/terms', fields as Record<string, string>, { Cookie: cookie })))) as unknown as Answer
+    const out = (await termsAction(
+      args(formRequest('/admin/terms', fields as Record<string, string>, { Cookie: cookie })),
+    )) as unknown as Answer
     expect(out.init?.status).toBe(400)
     expect(out.data.fieldErrors).toMatchObject(errors)
     expect(out.data.values.name).toBe(fields.name)
@@ -118,7 +150,13 @@ describe('terms (admin)', () => {
     const { department, cookie } = await anAdmin()
     await createTerm(db(), department.id, { name: 'Autumn 2026' })
     const out = (await termsAction(
-      args(formRequest('/admin/terms', { name: 'autumn 2026', startsOn: '2026-09-01', endsOn: '2026-12-20' }, { Cookie: cookie })),
+      args(
+        formRequest(
+          '/admin/terms',
+          { name: 'autumn 2026', startsOn: '2026-09-01', endsOn: '2026-12-20' },
+          { Cookie: cookie },
+        ),
+      ),
     )) as unknown as Answer
     expect(out.init?.status).toBe(400)
     expect(out.data.fieldErrors.name).toContain('already a term called autumn 2026')
@@ -132,7 +170,19 @@ describe('terms (admin)', () => {
     const cookie = await sessionCookie(instructor)
     expect(statusOf(await settle(termsLoader(args(getRequest('/admin/terms', { Cookie: cookie })))))).toBe(403)
     expect(
-      statusOf(await settle(termsAction(args(formRequest('/admin/terms', { name: 'X term', startsOn: '2027-01-01', endsOn: '2027-02-01' }, { Cookie: cookie }))))),
+      statusOf(
+        await settle(
+          termsAction(
+            args(
+              formRequest(
+                '/admin/terms',
+                { name: 'X term', startsOn: '2027-01-01', endsOn: '2027-02-01' },
+                { Cookie: cookie },
+              ),
+            ),
+          ),
+        ),
+      ),
     ).toBe(403)
     expect(await countOf(terms, course.departmentId)).toBe(1)
 
@@ -140,14 +190,33 @@ describe('terms (admin)', () => {
     const hc = await sessionCookie(homeless)
     const page = await termsLoader(args(getRequest('/admin/terms', { Cookie: hc })))
     expect(page.department).toBeNull()
-    expect(statusOf(await settle(termsAction(args(formRequest('/admin/terms', { name: 'X term', startsOn: '2027-01-01', endsOn: '2027-02-01' }, { Cookie: hc })))))).toBe(
-      409,
-    )
+    expect(
+      statusOf(
+        await settle(
+          termsAction(
+            args(
+              formRequest(
+                '/admin/terms',
+                { name: 'X term', startsOn: '2027-01-01', endsOn: '2027-02-01' },
+                { Cookie: hc },
+              ),
+            ),
+          ),
+        ),
+      ),
+    ).toBe(409)
   })
 })
 
 function courseFields(termId: number, overrides: Record<string, string> = {}) {
-  return { termId: String(termId), code: 'ENTH 310', title: 'Applied Thermodynamics', signConvention: 'engineering', timeZone: 'Europe/Oslo', ...overrides }
+  return {
+    termId: String(termId),
+    code: 'ENTH 310',
+    title: 'Applied Thermodynamics',
+    signConvention: 'engineering',
+    timeZone: 'Europe/Oslo',
+    ...overrides,
+  }
 }
 
 describe('courses (admin)', () => {
@@ -160,7 +229,13 @@ describe('courses (admin)', () => {
     expect(form.department?.timeZone).toBe('America/Chicago')
 
     const out = await newCourseAction(
-      args(formRequest('/admin/courses/new', courseFields(term.id, { timeZone: ' europe/oslo ', signConvention: 'chemistry' }), { Cookie: cookie })),
+      args(
+        formRequest(
+          '/admin/courses/new',
+          courseFields(term.id, { timeZone: ' europe/oslo ', signConvention: 'chemistry' }),
+          { Cookie: cookie },
+        ),
+      ),
     )
     const location = redirectOf(out)
     const [row] = await db().select().from(courses).where(eq(courses.termId, term.id))
@@ -198,7 +273,9 @@ describe('courses (admin)', () => {
   ])('bad input %j gets field errors and writes nothing', async (overrides, errors) => {
     const { department, cookie } = await anAdmin()
     const term = await createTerm(db(), department.id)
-    const out = (await newCourseAction(args(formRequest('/admin/courses/new', courseFields(term.id, overrides), { Cookie: cookie })))) as unknown as Answer
+    const out = (await newCourseAction(
+      args(formRequest('/admin/courses/new', courseFields(term.id, overrides), { Cookie: cookie })),
+    )) as unknown as Answer
     expect(out.init?.status).toBe(400)
     expect(out.data.fieldErrors).toMatchObject(errors)
     expect(out.data.values.code).toBe(courseFields(term.id, overrides).code)
@@ -209,15 +286,21 @@ describe('courses (admin)', () => {
     const { department, cookie } = await anAdmin()
     const term = await createTerm(db(), department.id, { name: 'Spring 2027' })
     const elsewhere = await createCourse(db())
-    const foreign = (await newCourseAction(args(formRequest('/admin/courses/new', courseFields(elsewhere.termId), { Cookie: cookie })))) as unknown as Answer
+    const foreign = (await newCourseAction(
+      args(formRequest('/admin/courses/new', courseFields(elsewhere.termId), { Cookie: cookie })),
+    )) as unknown as Answer
     expect(foreign.init?.status).toBe(400)
     expect(foreign.data.fieldErrors.termId).toBe('Choose one of your department’s terms.')
     expect(await countOf(courses, elsewhere.departmentId)).toBe(1)
 
     await createCourse(db(), { departmentId: department.id, termId: term.id, code: 'ENTH 310' })
-    const clash = (await newCourseAction(args(formRequest('/admin/courses/new', courseFields(term.id, { code: 'enth 310' }), { Cookie: cookie })))) as unknown as Answer
+    const clash = (await newCourseAction(
+      args(formRequest('/admin/courses/new', courseFields(term.id, { code: 'enth 310' }), { Cookie: cookie })),
+    )) as unknown as Answer
     expect(clash.init?.status).toBe(400)
-    expect(clash.data.fieldErrors.code).toBe('Spring 2027 already has a course enth 310. Choose another code or another term.')
+    expect(clash.data.fieldErrors.code).toBe(
+      'Spring 2027 already has a course enth 310. Choose another code or another term.',
+    )
     expect(await countOf(courses, department.id)).toBe(1)
   })
 
@@ -226,22 +309,59 @@ describe('courses (admin)', () => {
     const instructor = await createUser(db(), { departmentId: course.departmentId })
     await addMember(db(), instructor.id, course.id, 'instructor')
     const cookie = await sessionCookie(instructor)
-    expect(statusOf(await settle(newCourseLoader(args(getRequest('/admin/courses/new', { Cookie: cookie })))))).toBe(403)
-    expect(statusOf(await settle(newCourseAction(args(formRequest('/admin/courses/new', courseFields(course.termId, { code: 'NEW 1' }), { Cookie: cookie })))))).toBe(403)
-    expect(statusOf(await settle(courseAdminLoader(args(getRequest(`/admin/courses/${course.id}`, { Cookie: cookie }), { courseId: String(course.id) }))))).toBe(403)
+    expect(statusOf(await settle(newCourseLoader(args(getRequest('/admin/courses/new', { Cookie: cookie })))))).toBe(
+      403,
+    )
+    expect(
+      statusOf(
+        await settle(
+          newCourseAction(
+            args(formRequest('/admin/courses/new', courseFields(course.termId, { code: 'NEW 1' }), { Cookie: cookie })),
+          ),
+        ),
+      ),
+    ).toBe(403)
+    expect(
+      statusOf(
+        await settle(
+          courseAdminLoader(
+            args(getRequest(`/admin/courses/${course.id}`, { Cookie: cookie }), { courseId: String(course.id) }),
+          ),
+        ),
+      ),
+    ).toBe(403)
     const out = await settle(
-      courseAdminAction(args(formRequest(`/admin/courses/${course.id}`, { email: 'x@test.example' }, { Cookie: cookie }), { courseId: String(course.id) })),
+      courseAdminAction(
+        args(formRequest(`/admin/courses/${course.id}`, { email: 'x@test.example' }, { Cookie: cookie }), {
+          courseId: String(course.id),
+        }),
+      ),
     )
     expect(statusOf(out)).toBe(403)
     expect(await countOf(courses, course.departmentId)).toBe(1)
-    const [tokens] = await db().select({ n: count() }).from(accessTokens).where(eq(accessTokens.email, 'x@test.example'))
+    const [tokens] = await db()
+      .select({ n: count() })
+      .from(accessTokens)
+      .where(eq(accessTokens.email, 'x@test.example'))
     expect(tokens!.n).toBe(0)
   })
 
   test('an unknown course is a 404 page for an admin', async () => {
     const { cookie } = await anAdmin()
-    expect(statusOf(await settle(courseAdminLoader(args(getRequest('/admin/courses/999999', { Cookie: cookie }), { courseId: '999999' }))))).toBe(404)
-    expect(statusOf(await settle(courseAdminLoader(args(getRequest('/admin/courses/abc', { Cookie: cookie }), { courseId: 'abc' }))))).toBe(404)
+    expect(
+      statusOf(
+        await settle(
+          courseAdminLoader(args(getRequest('/admin/courses/999999', { Cookie: cookie }), { courseId: '999999' })),
+        ),
+      ),
+    ).toBe(404)
+    expect(
+      statusOf(
+        await settle(
+          courseAdminLoader(args(getRequest('/admin/courses/abc', { Cookie: cookie }), { courseId: 'abc' })),
+        ),
+      ),
+    ).toBe(404)
   })
 })
 
@@ -261,7 +381,12 @@ describe('assigning instructors (admin)', () => {
     const ida = await createUser(db(), { name: 'Ida Instructor', email: 'ida@test.example' })
     const sam = await createUser(db(), { name: 'Sam Switch' })
     await addMember(db(), sam.id, course.id, 'student')
-    const post = (email: string) => courseAdminAction(args(formRequest(`/admin/courses/${course.id}`, { email }, { Cookie: cookie }), { courseId: String(course.id) }))
+    const post = (email: string) =>
+      courseAdminAction(
+        args(formRequest(`/admin/courses/${course.id}`, { email }, { Cookie: cookie }), {
+          courseId: String(course.id),
+        }),
+      )
 
     const first = (await post(' IDA@test.example ')) as { done: { outcome: string; name: string } }
     expect(first.done).toMatchObject({ outcome: 'added', name: 'Ida Instructor', email: 'ida@test.example' })
@@ -269,7 +394,10 @@ describe('assigning instructors (admin)', () => {
     expect(again.done.outcome).toBe('already')
     expect(((await post(sam.email)) as { done: { outcome: string } }).done.outcome).toBe('added')
 
-    const rows = await db().select({ userId: memberships.userId, role: memberships.role }).from(memberships).where(eq(memberships.courseId, course.id))
+    const rows = await db()
+      .select({ userId: memberships.userId, role: memberships.role })
+      .from(memberships)
+      .where(eq(memberships.courseId, course.id))
     expect(rows).toEqual(
       expect.arrayContaining([
         { userId: ida.id, role: 'instructor' },
@@ -287,7 +415,9 @@ describe('assigning instructors (admin)', () => {
       ]),
     )
     expect(audits).toHaveLength(2)
-    const page = await courseAdminLoader(args(getRequest(`/admin/courses/${course.id}`, { Cookie: cookie }), { courseId: String(course.id) }))
+    const page = await courseAdminLoader(
+      args(getRequest(`/admin/courses/${course.id}`, { Cookie: cookie }), { courseId: String(course.id) }),
+    )
     expect(page.instructors.map((i) => i.name)).toEqual(['Ida Instructor', 'Sam Switch'])
   })
 
@@ -295,7 +425,9 @@ describe('assigning instructors (admin)', () => {
     const { department, cookie } = await anAdmin()
     const course = await createCourse(db(), { departmentId: department.id, code: 'ENTH 320' })
     const out = (await courseAdminAction(
-      args(formRequest(`/admin/courses/${course.id}`, { email: 'New.Teacher@Test.Example' }, { Cookie: cookie }), { courseId: String(course.id) }),
+      args(formRequest(`/admin/courses/${course.id}`, { email: 'New.Teacher@Test.Example' }, { Cookie: cookie }), {
+        courseId: String(course.id),
+      }),
     )) as { done: { outcome: string; email: string } }
     expect(out.done).toMatchObject({ outcome: 'invited', email: 'new.teacher@test.example' })
     const [token] = await db().select().from(accessTokens).where(eq(accessTokens.email, 'new.teacher@test.example'))
@@ -306,10 +438,15 @@ describe('assigning instructors (admin)', () => {
     const link = linksIn(mail!.text).find((l) => l.includes('/join/'))!
     expect(link.endsWith(`/join/${token!.token}`)).toBe(true)
 
-    const page = await courseAdminLoader(args(getRequest(`/admin/courses/${course.id}`, { Cookie: cookie }), { courseId: String(course.id) }))
+    const page = await courseAdminLoader(
+      args(getRequest(`/admin/courses/${course.id}`, { Cookie: cookie }), { courseId: String(course.id) }),
+    )
     expect(page.invitations.map((i) => i.email)).toEqual(['new.teacher@test.example'])
 
-    const accepted = await acceptInvitation(db(), token!.token, { name: 'Nel Teacher', password: 'a long enough password' })
+    const accepted = await acceptInvitation(db(), token!.token, {
+      name: 'Nel Teacher',
+      password: 'a long enough password',
+    })
     const [m] = await db()
       .select()
       .from(memberships)
@@ -322,7 +459,9 @@ describe('assigning instructors (admin)', () => {
     const course = await createCourse(db(), { departmentId: department.id })
     const pending = await createUser(db(), { email: 'pending@test.example', password: null })
     const out = (await courseAdminAction(
-      args(formRequest(`/admin/courses/${course.id}`, { email: pending.email }, { Cookie: cookie }), { courseId: String(course.id) }),
+      args(formRequest(`/admin/courses/${course.id}`, { email: pending.email }, { Cookie: cookie }), {
+        courseId: String(course.id),
+      }),
     )) as { done: { outcome: string } }
     expect(out.done.outcome).toBe('invited')
     const [token] = await db().select().from(accessTokens).where(eq(accessTokens.email, pending.email))
@@ -335,7 +474,9 @@ describe('assigning instructors (admin)', () => {
     const { department, cookie } = await anAdmin()
     const course = await createCourse(db(), { departmentId: department.id })
     const out = (await courseAdminAction(
-      args(formRequest(`/admin/courses/${course.id}`, { email: 'not an address' }, { Cookie: cookie }), { courseId: String(course.id) }),
+      args(formRequest(`/admin/courses/${course.id}`, { email: 'not an address' }, { Cookie: cookie }), {
+        courseId: String(course.id),
+      }),
     )) as unknown as Answer
     expect(out.init?.status).toBe(400)
     expect(out.data.fieldErrors.email).toContain('valid e-mail address')
@@ -350,8 +491,16 @@ describe('assigning instructors (admin)', () => {
 /** A course in Europe/Oslo in a term starting 2026-09-07, with an instructor, a TA, a student and one assignment. */
 async function courseToCopy() {
   const department = await createDepartment(db())
-  const autumn = await createTerm(db(), department.id, { name: 'Autumn 2026', startsOn: '2026-09-07', endsOn: '2026-12-18' })
-  const winter = await createTerm(db(), department.id, { name: 'Winter 2027', startsOn: '2027-01-04', endsOn: '2027-04-30' })
+  const autumn = await createTerm(db(), department.id, {
+    name: 'Autumn 2026',
+    startsOn: '2026-09-07',
+    endsOn: '2026-12-18',
+  })
+  const winter = await createTerm(db(), department.id, {
+    name: 'Winter 2027',
+    startsOn: '2027-01-04',
+    endsOn: '2027-04-30',
+  })
   const course = await createCourse(db(), {
     departmentId: department.id,
     termId: autumn.id,
@@ -393,7 +542,9 @@ async function courseToCopy() {
       attemptsPerFind: 4,
     },
   )
-  await db().insert(extensions).values({ assignmentId: assignment.id, userId: student.id, extraAttempts: 1, createdBy: instructor.id })
+  await db()
+    .insert(extensions)
+    .values({ assignmentId: assignment.id, userId: student.id, extraAttempts: 1, createdBy: instructor.id })
   return { department, autumn, winter, course, instructor, coInstructor, ta, student, assignment, items, p1, p2 }
 }
 
@@ -405,7 +556,9 @@ describe('copying a course to another term (instructors)', () => {
   test('the copy: same settings and problem versions, dates moved by the terms’ difference on the Oslo clock, instructors only, nothing released', async () => {
     const s = await courseToCopy()
     const cookie = await sessionCookie(s.instructor)
-    const page = await settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), { courseId: String(s.course.id) }))
+    const page = await settingsLoader(
+      args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), { courseId: String(s.course.id) }),
+    )
     expect(page.copyTerms.find((t) => t.id === s.winter.id)).toMatchObject({ defaultOffsetDays: 119, current: false })
     expect(page.copyTerms.find((t) => t.id === s.autumn.id)).toMatchObject({ defaultOffsetDays: 0, current: true })
     expect(page).toMatchObject({ assignmentCount: 1, instructorCount: 2 })
@@ -431,7 +584,10 @@ describe('copying a course to another term (instructors)', () => {
       copiedFromId: s.course.id,
     })
 
-    const staff = await db().select({ userId: memberships.userId, role: memberships.role }).from(memberships).where(eq(memberships.courseId, copy!.id))
+    const staff = await db()
+      .select({ userId: memberships.userId, role: memberships.role })
+      .from(memberships)
+      .where(eq(memberships.courseId, copy!.id))
     expect(staff.sort((a, b) => a.userId - b.userId)).toEqual(
       [
         { userId: s.instructor.id, role: 'instructor' },
@@ -460,10 +616,22 @@ describe('copying a course to another term (instructors)', () => {
     const copiedItems = await db().select().from(assignmentItems).where(eq(assignmentItems.assignmentId, a!.id))
     expect(
       copiedItems
-        .map((i) => ({ position: i.position, problemId: i.problemId, versionId: i.problemVersionId, points: i.points, tol: i.toleranceOverrides }))
+        .map((i) => ({
+          position: i.position,
+          problemId: i.problemId,
+          versionId: i.problemVersionId,
+          points: i.points,
+          tol: i.toleranceOverrides,
+        }))
         .sort((x, y) => x.position - y.position),
     ).toEqual([
-      { position: 1, problemId: s.p1.problemId, versionId: s.p1.versionId, points: 12, tol: { wNet: { kind: 'relative', value: 0.05 } } },
+      {
+        position: 1,
+        problemId: s.p1.problemId,
+        versionId: s.p1.versionId,
+        points: 12,
+        tol: { wNet: { kind: 'relative', value: 0.05 } },
+      },
       { position: 2, problemId: s.p2.problemId, versionId: s.p2.versionId, points: 8, tol: {} },
     ])
     const versions = await db()
@@ -491,7 +659,9 @@ describe('copying a course to another term (instructors)', () => {
       after: expect.objectContaining({ offsetDays: 119, instructors: 2 }),
     })
 
-    const copiedPage = await settingsLoader(args(getRequest(`/courses/${copy!.id}/settings?copied=1`, { Cookie: cookie }), { courseId: String(copy!.id) }))
+    const copiedPage = await settingsLoader(
+      args(getRequest(`/courses/${copy!.id}/settings?copied=1`, { Cookie: cookie }), { courseId: String(copy!.id) }),
+    )
     expect(copiedPage.copied).toBe(true)
     expect(copiedPage.copyOf).toEqual({ code: 'ENTH 150', termName: 'Autumn 2026', offsetDays: 119, assignments: 1 })
   })
@@ -500,12 +670,30 @@ describe('copying a course to another term (instructors)', () => {
     const s = await courseToCopy()
     const cookie = await sessionCookie(s.instructor)
     const post = (fields: Record<string, string>) =>
-      settingsAction(args(formRequest(`/courses/${s.course.id}/settings`, { intent: 'copy', ...fields }, { Cookie: cookie }), { courseId: String(s.course.id) }))
-    const sameTerm = (await post({ termId: String(s.autumn.id), code: 'ENTH 150', title: 'Heat engines', offsetDays: '7' })) as unknown as Answer
+      settingsAction(
+        args(formRequest(`/courses/${s.course.id}/settings`, { intent: 'copy', ...fields }, { Cookie: cookie }), {
+          courseId: String(s.course.id),
+        }),
+      )
+    const sameTerm = (await post({
+      termId: String(s.autumn.id),
+      code: 'ENTH 150',
+      title: 'Heat engines',
+      offsetDays: '7',
+    })) as unknown as Answer
     expect(sameTerm.init?.status).toBe(400)
-    expect(sameTerm.data.fieldErrors.code).toBe('Autumn 2026 already has a course ENTH 150. Choose another code or another term.')
+    expect(sameTerm.data.fieldErrors.code).toBe(
+      'Autumn 2026 already has a course ENTH 150. Choose another code or another term.',
+    )
 
-    redirectOf(await post({ termId: String(s.autumn.id), code: 'ENTH 150B', title: 'Heat engines (second group)', offsetDays: '−7' }))
+    redirectOf(
+      await post({
+        termId: String(s.autumn.id),
+        code: 'ENTH 150B',
+        title: 'Heat engines (second group)',
+        offsetDays: '−7',
+      }),
+    )
     const [copy] = (await coursesIn(s.autumn.id)).filter((c) => c.code === 'ENTH 150B')
     const [a] = await db().select().from(assignments).where(eq(assignments.courseId, copy!.id))
     expect(toLocalDateTimeValue(a!.dueAt, 'Europe/Oslo')).toBe('2026-10-05T23:59')
@@ -521,9 +709,18 @@ describe('copying a course to another term (instructors)', () => {
   ])('bad copy input %j gets field errors and writes nothing', async (overrides, errors) => {
     const s = await courseToCopy()
     const cookie = await sessionCookie(s.instructor)
-    const fields = { intent: 'copy', termId: String(s.winter.id), code: 'ENTH 150', title: 'Heat engines', offsetDays: '', ...overrides }
+    const fields = {
+      intent: 'copy',
+      termId: String(s.winter.id),
+      code: 'ENTH 150',
+      title: 'Heat engines',
+      offsetDays: '',
+      ...overrides,
+    }
     const out = (await settingsAction(
-      args(formRequest(`/courses/${s.course.id}/settings`, fields, { Cookie: cookie }), { courseId: String(s.course.id) }),
+      args(formRequest(`/courses/${s.course.id}/settings`, fields, { Cookie: cookie }), {
+        courseId: String(s.course.id),
+      }),
     )) as unknown as Answer
     expect(out.init?.status).toBe(400)
     expect(out.data.fieldErrors).toMatchObject(errors)
@@ -551,7 +748,11 @@ describe('copying a course to another term (instructors)', () => {
     await createCourse(db(), { departmentId: s.department.id, termId: s.winter.id, code: 'ENTH 150' })
     const clash = (await settingsAction(
       args(
-        formRequest(`/courses/${s.course.id}/settings`, { intent: 'copy', termId: String(s.winter.id), code: 'enth 150', title: 'Heat engines' }, { Cookie: cookie }),
+        formRequest(
+          `/courses/${s.course.id}/settings`,
+          { intent: 'copy', termId: String(s.winter.id), code: 'enth 150', title: 'Heat engines' },
+          { Cookie: cookie },
+        ),
         { courseId: String(s.course.id) },
       ),
     )) as unknown as Answer
@@ -576,7 +777,11 @@ describe('copying a course to another term (instructors)', () => {
     const send = () =>
       settingsAction(
         args(
-          formRequest(`/courses/${s.course.id}/settings`, { intent: 'copy', termId: String(s.winter.id), code: 'ENTH 150', title: 'Heat engines' }, { Cookie: cookie }),
+          formRequest(
+            `/courses/${s.course.id}/settings`,
+            { intent: 'copy', termId: String(s.winter.id), code: 'ENTH 150', title: 'Heat engines' },
+            { Cookie: cookie },
+          ),
           { courseId: String(s.course.id) },
         ),
       )
@@ -598,11 +803,21 @@ describe('copying a course to another term (instructors)', () => {
     for (const who of [s.ta, s.student, admin, stranger]) {
       const cookie = await sessionCookie(who)
       const params = { courseId: String(s.course.id) }
-      expect(statusOf(await settle(settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), params))))).toBe(403)
+      expect(
+        statusOf(
+          await settle(
+            settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), params)),
+          ),
+        ),
+      ).toBe(403)
       const copy = await settle(
         settingsAction(
           args(
-            formRequest(`/courses/${s.course.id}/settings`, { intent: 'copy', termId: String(s.winter.id), code: 'ENTH 150', title: 'Heat engines' }, { Cookie: cookie }),
+            formRequest(
+              `/courses/${s.course.id}/settings`,
+              { intent: 'copy', termId: String(s.winter.id), code: 'ENTH 150', title: 'Heat engines' },
+              { Cookie: cookie },
+            ),
             params,
           ),
         ),
@@ -630,7 +845,14 @@ describe('copying a course to another term (instructors)', () => {
 
 describe('course settings (instructors)', () => {
   function settings(overrides: Record<string, string> = {}) {
-    return { intent: 'save', code: 'ENTH 150', title: 'Heat engines', timeZone: 'Europe/Oslo', signConvention: 'engineering', ...overrides }
+    return {
+      intent: 'save',
+      code: 'ENTH 150',
+      title: 'Heat engines',
+      timeZone: 'Europe/Oslo',
+      signConvention: 'engineering',
+      ...overrides,
+    }
   }
 
   test('an instructor renames the course and moves it to another zone; an audit row records what changed', async () => {
@@ -638,15 +860,24 @@ describe('course settings (instructors)', () => {
     const cookie = await sessionCookie(s.instructor)
     const out = await settingsAction(
       args(
-        formRequest(`/courses/${s.course.id}/settings`, settings({ title: 'Heat engines and refrigerators', code: 'ENTH 151', timeZone: 'america/chicago' }), {
-          Cookie: cookie,
-        }),
+        formRequest(
+          `/courses/${s.course.id}/settings`,
+          settings({ title: 'Heat engines and refrigerators', code: 'ENTH 151', timeZone: 'america/chicago' }),
+          {
+            Cookie: cookie,
+          },
+        ),
         { courseId: String(s.course.id) },
       ),
     )
     expect(redirectOf(out)).toBe(`/courses/${s.course.id}/settings?saved=1`)
     const [row] = await db().select().from(courses).where(eq(courses.id, s.course.id))
-    expect(row).toMatchObject({ title: 'Heat engines and refrigerators', code: 'ENTH 151', timeZone: 'America/Chicago', signConvention: 'engineering' })
+    expect(row).toMatchObject({
+      title: 'Heat engines and refrigerators',
+      code: 'ENTH 151',
+      timeZone: 'America/Chicago',
+      signConvention: 'engineering',
+    })
     const [audit] = await db()
       .select()
       .from(auditEvents)
@@ -670,7 +901,12 @@ describe('course settings (instructors)', () => {
     const s = await courseToCopy()
     const cookie = await sessionCookie(s.instructor)
     const out = (await settingsAction(
-      args(formRequest(`/courses/${s.course.id}/settings`, settings({ title: 'Renamed', ...overrides }), { Cookie: cookie }), { courseId: String(s.course.id) }),
+      args(
+        formRequest(`/courses/${s.course.id}/settings`, settings({ title: 'Renamed', ...overrides }), {
+          Cookie: cookie,
+        }),
+        { courseId: String(s.course.id) },
+      ),
     )) as unknown as Answer
     expect(out.init?.status).toBe(400)
     expect(out.data.fieldErrors).toMatchObject(errors)
@@ -688,20 +924,31 @@ describe('course settings (instructors)', () => {
     await createCourse(db(), { departmentId: s.department.id, termId: s.autumn.id, code: 'ENTH 160' })
     const cookie = await sessionCookie(s.instructor)
     const out = (await settingsAction(
-      args(formRequest(`/courses/${s.course.id}/settings`, settings({ code: 'ENTH 160' }), { Cookie: cookie }), { courseId: String(s.course.id) }),
+      args(formRequest(`/courses/${s.course.id}/settings`, settings({ code: 'ENTH 160' }), { Cookie: cookie }), {
+        courseId: String(s.course.id),
+      }),
     )) as unknown as Answer
     expect(out.init?.status).toBe(400)
-    expect(out.data.fieldErrors.code).toBe('Autumn 2026 already has a course ENTH 160. Choose another code or another term.')
+    expect(out.data.fieldErrors.code).toBe(
+      'Autumn 2026 already has a course ENTH 160. Choose another code or another term.',
+    )
   })
 
   test('before anyone has answered, the convention changes without a confirmation', async () => {
     const s = await courseToCopy()
     const cookie = await sessionCookie(s.instructor)
-    const page = await settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), { courseId: String(s.course.id) }))
+    const page = await settingsLoader(
+      args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), { courseId: String(s.course.id) }),
+    )
     expect(page.impact).toEqual({ answers: 0, students: 0, followingProblems: 1, fixedProblems: 1 })
     redirectOf(
       await settingsAction(
-        args(formRequest(`/courses/${s.course.id}/settings`, settings({ signConvention: 'chemistry' }), { Cookie: cookie }), { courseId: String(s.course.id) }),
+        args(
+          formRequest(`/courses/${s.course.id}/settings`, settings({ signConvention: 'chemistry' }), {
+            Cookie: cookie,
+          }),
+          { courseId: String(s.course.id) },
+        ),
       ),
     )
     const [row] = await db().select().from(courses).where(eq(courses.id, s.course.id))
@@ -712,14 +959,24 @@ describe('course settings (instructors)', () => {
     const s = await courseToCopy()
     await db()
       .insert(submissions)
-      .values({ assignmentId: s.assignment.id, itemId: s.items[0]!.id, userId: s.student.id, answers: { wNet: '120 kJ/kg' } })
+      .values({
+        assignmentId: s.assignment.id,
+        itemId: s.items[0]!.id,
+        userId: s.student.id,
+        answers: { wNet: '120 kJ/kg' },
+      })
     const cookie = await sessionCookie(s.instructor)
     const params = { courseId: String(s.course.id) }
     const page = await settingsLoader(args(getRequest(`/courses/${s.course.id}/settings`, { Cookie: cookie }), params))
     expect(page.impact).toMatchObject({ answers: 1, students: 1, followingProblems: 1 })
 
     const refused = (await settingsAction(
-      args(formRequest(`/courses/${s.course.id}/settings`, settings({ signConvention: 'chemistry', title: 'Renamed' }), { Cookie: cookie }), params),
+      args(
+        formRequest(`/courses/${s.course.id}/settings`, settings({ signConvention: 'chemistry', title: 'Renamed' }), {
+          Cookie: cookie,
+        }),
+        params,
+      ),
     )) as unknown as Answer
     expect(refused.init?.status).toBe(400)
     expect(refused.data.fieldErrors.confirmConvention).toContain('Tick the box to confirm')
@@ -728,11 +985,22 @@ describe('course settings (instructors)', () => {
     expect(row).toMatchObject({ signConvention: 'engineering', title: 'Heat engines' })
 
     // Other changes still save without the box while the convention stays.
-    redirectOf(await settingsAction(args(formRequest(`/courses/${s.course.id}/settings`, settings({ title: 'Renamed' }), { Cookie: cookie }), params)))
     redirectOf(
       await settingsAction(
         args(
-          formRequest(`/courses/${s.course.id}/settings`, settings({ title: 'Renamed', signConvention: 'chemistry', confirmConvention: 'yes' }), { Cookie: cookie }),
+          formRequest(`/courses/${s.course.id}/settings`, settings({ title: 'Renamed' }), { Cookie: cookie }),
+          params,
+        ),
+      ),
+    )
+    redirectOf(
+      await settingsAction(
+        args(
+          formRequest(
+            `/courses/${s.course.id}/settings`,
+            settings({ title: 'Renamed', signConvention: 'chemistry', confirmConvention: 'yes' }),
+            { Cookie: cookie },
+          ),
           params,
         ),
       ),
@@ -743,14 +1011,20 @@ describe('course settings (instructors)', () => {
       .select()
       .from(auditEvents)
       .where(and(eq(auditEvents.courseId, s.course.id), eq(auditEvents.kind, 'course-settings-changed')))
-    expect(audits.map((a) => a.after)).toEqual(expect.arrayContaining([{ title: 'Renamed' }, { signConvention: 'chemistry' }]))
+    expect(audits.map((a) => a.after)).toEqual(
+      expect.arrayContaining([{ title: 'Renamed' }, { signConvention: 'chemistry' }]),
+    )
   })
 
   test('an unknown intent is a 400 page, not a server error', async () => {
     const s = await courseToCopy()
     const cookie = await sessionCookie(s.instructor)
     const out = await settle(
-      settingsAction(args(formRequest(`/courses/${s.course.id}/settings`, { intent: 'delete' }, { Cookie: cookie }), { courseId: String(s.course.id) })),
+      settingsAction(
+        args(formRequest(`/courses/${s.course.id}/settings`, { intent: 'delete' }, { Cookie: cookie }), {
+          courseId: String(s.course.id),
+        }),
+      ),
     )
     expect(statusOf(out)).toBe(400)
   })
@@ -763,6 +1037,8 @@ describe('shifting dates on a course’s clock', () => {
     ['2027-03-20T12:00', 14, '2027-04-03T12:00'],
     ['2027-02-08T23:59', -119, '2026-10-12T23:59'],
   ])('%s + %i days is %s in Europe/Oslo', (from, days, to) => {
-    expect(toLocalDateTimeValue(shiftDays(parseLocalDateTime(from, 'Europe/Oslo')!, days, 'Europe/Oslo'), 'Europe/Oslo')).toBe(to)
+    expect(
+      toLocalDateTimeValue(shiftDays(parseLocalDateTime(from, 'Europe/Oslo')!, days, 'Europe/Oslo'), 'Europe/Oslo'),
+    ).toBe(to)
   })
 })

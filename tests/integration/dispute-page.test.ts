@@ -11,8 +11,17 @@ import { count, eq } from 'drizzle-orm'
 import { afterAll, describe, expect, test } from 'vitest'
 import { disputeOutcome } from '#app/components/answer-form.tsx'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
-import { action, loader, MAX_DISPUTE_BODY_BYTES, type DisputeActionData } from '#app/routes/courses/assignments/dispute.tsx'
-import { loader as problemLoader, action as problemAction, type ProblemPageData } from '#app/routes/courses/assignments/problem.tsx'
+import {
+  action,
+  loader,
+  MAX_DISPUTE_BODY_BYTES,
+  type DisputeActionData,
+} from '#app/routes/courses/assignments/dispute.tsx'
+import {
+  loader as problemLoader,
+  action as problemAction,
+  type ProblemPageData,
+} from '#app/routes/courses/assignments/problem.tsx'
 import { loader as disputeDetailLoader } from '#app/routes/courses/disputes/$disputeId.tsx'
 import { contentDisposition, loader as attachmentLoader } from '#app/routes/resources/dispute-attachment.ts'
 import { db } from '#app/server/db/client.server.ts'
@@ -59,7 +68,9 @@ function tinyPng(): Uint8Array<ArrayBuffer> {
   ihdr.set([8, 2, 0, 0, 0], 8) // 8-bit RGB, deflate, no filter method, no interlace
   const signature = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])
   const pixels = deflateSync(Buffer.from([0, 0x20, 0x60, 0xa0])) // filter byte, then one RGB pixel
-  return new Uint8Array(Buffer.concat([signature, chunk('IHDR', ihdr), chunk('IDAT', pixels), chunk('IEND', Buffer.alloc(0))]))
+  return new Uint8Array(
+    Buffer.concat([signature, chunk('IHDR', ihdr), chunk('IDAT', pixels), chunk('IEND', Buffer.alloc(0))]),
+  )
 }
 
 /** A student with a graded, wrong answer to wNet (the opposite sign) and a right one to T2. */
@@ -81,7 +92,16 @@ async function setUp() {
   const problemPath = `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/1`
   const params = { courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: '1' }
   const cookie = await sessionCookie(student)
-  const submitted = (await problemAction(args(formRequest(problemPath, { 'answer.T2': `${key.T2!.value} K`, 'answer.wNet': `${-key.wNet!.value} kJ/kg` }, { Cookie: cookie }), params))) as Response
+  const submitted = (await problemAction(
+    args(
+      formRequest(
+        problemPath,
+        { 'answer.T2': `${key.T2!.value} K`, 'answer.wNet': `${-key.wNet!.value} kJ/kg` },
+        { Cookie: cookie },
+      ),
+      params,
+    ),
+  )) as Response
   const submissionId = Number(new URL(submitted.headers.get('Location')!, BASE).searchParams.get('receipt'))
   expect(await gradeSubmission(db(), submissionId)).toBe('graded')
   const ta = await createUser(db(), { name: 'Course TA', password: null })
@@ -116,7 +136,10 @@ function disputeForm(fields: { find?: string; reason?: string; file?: File }) {
 async function upload(s: Setup, form: FormData, options: { cookie?: string; length?: string | null } = {}) {
   const encoded = new Response(form)
   const body = await encoded.arrayBuffer()
-  const headers: Record<string, string> = { 'Content-Type': encoded.headers.get('Content-Type')!, Cookie: options.cookie ?? s.cookie }
+  const headers: Record<string, string> = {
+    'Content-Type': encoded.headers.get('Content-Type')!,
+    Cookie: options.cookie ?? s.cookie,
+  }
   if (options.length !== null) headers['Content-Length'] = options.length ?? String(body.byteLength)
   return new Request(`${BASE}${s.path}?find=wNet`, { method: 'POST', body, headers })
 }
@@ -177,7 +200,9 @@ describe('raising a dispute', () => {
   test('a reason with a small PNG is stored with its detected type and redirects to the problem page, which then shows the open dispute', async () => {
     const s = await setUp()
     const png = tinyPng()
-    const res = (await action(args(await upload(s, disputeForm({ file: new File([png], 'my working.png', { type: 'image/png' }) })), s.params))) as Response
+    const res = (await action(
+      args(await upload(s, disputeForm({ file: new File([png], 'my working.png', { type: 'image/png' }) })), s.params),
+    )) as Response
     expect(res).toBeInstanceOf(Response)
     expect(res.status).toBe(302)
     expect(res.headers.get('Location')).toBe(`${s.problemPath}?disputed=wNet`)
@@ -211,7 +236,11 @@ describe('raising a dispute', () => {
 
   test('a reason that is too short comes back with its text, a message beside it, and a request to choose the file again', async () => {
     const s = await setUp()
-    const result = asData(await action(args(await upload(s, disputeForm({ reason: 'wrong', file: new File([tinyPng()], 'w.png') })), s.params)))
+    const result = asData(
+      await action(
+        args(await upload(s, disputeForm({ reason: 'wrong', file: new File([tinyPng()], 'w.png') })), s.params),
+      ),
+    )
     expect(result.status).toBe(400)
     expect(result.data.reason).toBe('wrong')
     expect(result.data.fieldErrors.reason).toMatch(/at least 10 characters/)
@@ -271,7 +300,11 @@ describe('raising a dispute', () => {
       method: 'POST',
       body,
       duplex: 'half',
-      headers: { 'Content-Type': `multipart/form-data; boundary=${boundary}`, 'Content-Length': String(MAX_DISPUTE_BODY_BYTES + 1024 * 1024), Cookie: s.cookie },
+      headers: {
+        'Content-Type': `multipart/form-data; boundary=${boundary}`,
+        'Content-Length': String(MAX_DISPUTE_BODY_BYTES + 1024 * 1024),
+        Cookie: s.cookie,
+      },
     } as RequestInit)
     const result = asData(await action(args(request, s.params)))
     expect(sentAfterHead).toBe(0)
@@ -285,7 +318,9 @@ describe('raising a dispute', () => {
 
   test('a stated length over the limit is refused even when the body is small', async () => {
     const s = await setUp()
-    const result = asData(await action(args(await upload(s, disputeForm({}), { length: String(MAX_DISPUTE_BODY_BYTES + 1) }), s.params)))
+    const result = asData(
+      await action(args(await upload(s, disputeForm({}), { length: String(MAX_DISPUTE_BODY_BYTES + 1) }), s.params)),
+    )
     expect(result.status).toBe(413)
     expect(await counts(s)).toEqual({ disputes: 0, attachments: 0 })
   })
@@ -296,7 +331,12 @@ describe('GET /courses/:c/disputes/:d/attachment', () => {
     const s = await setUp()
     const png = tinyPng()
     // Named .jpg on purpose: the stored type comes from the bytes, and the served name follows it.
-    await action(args(await upload(s, disputeForm({ file: new File([png], 'Résumé "final".jpg', { type: 'image/jpeg' }) })), s.params))
+    await action(
+      args(
+        await upload(s, disputeForm({ file: new File([png], 'Résumé "final".jpg', { type: 'image/jpeg' }) })),
+        s.params,
+      ),
+    )
     const [row] = await db().select().from(disputes).where(eq(disputes.userId, s.student.id))
     const path = `/courses/${s.course.id}/disputes/${row!.id}/attachment`
     const params = { courseId: String(s.course.id), disputeId: String(row!.id) }
@@ -316,7 +356,9 @@ describe('GET /courses/:c/disputes/:d/attachment', () => {
 
     const other = await settle(attachmentLoader(args(getRequest(path, { Cookie: s.otherCookie }), params)))
     expect('thrown' in other && statusOf(other.thrown)).toBe(404)
-    const missing = await settle(attachmentLoader(args(getRequest(path, { Cookie: s.cookie }), { ...params, disputeId: String(row!.id + 1000) })))
+    const missing = await settle(
+      attachmentLoader(args(getRequest(path, { Cookie: s.cookie }), { ...params, disputeId: String(row!.id + 1000) })),
+    )
     expect('thrown' in missing && statusOf(missing.thrown)).toBe(404)
   })
 
@@ -327,7 +369,12 @@ describe('GET /courses/:c/disputes/:d/attachment', () => {
       '%PDF-1.4\n1 0 obj << /Type /Catalog /Pages 2 0 R /OpenAction 3 0 R >> endobj\n2 0 obj << /Type /Pages /Kids [] /Count 0 >> endobj\n' +
         "3 0 obj << /S /JavaScript /JS (app.alert\\('from the PDF'\\)) >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n",
     )
-    const res0 = (await action(args(await upload(s, disputeForm({ file: new File([pdf], 'working.pdf', { type: 'application/pdf' }) })), s.params))) as Response
+    const res0 = (await action(
+      args(
+        await upload(s, disputeForm({ file: new File([pdf], 'working.pdf', { type: 'application/pdf' }) })),
+        s.params,
+      ),
+    )) as Response
     expect(res0.status).toBe(302)
     const [row] = await db().select().from(disputes).where(eq(disputes.userId, s.student.id))
     const path = `/courses/${s.course.id}/disputes/${row!.id}/attachment`
@@ -336,16 +383,30 @@ describe('GET /courses/:c/disputes/:d/attachment', () => {
       const res = (await attachmentLoader(args(getRequest(path, { Cookie: cookie }), params))) as Response
       expect(res.status).toBe(200)
       expect(res.headers.get('Content-Type')).toBe('application/pdf')
-      expect(res.headers.get('Content-Disposition')).toBe(`attachment; filename="working.pdf"; filename*=UTF-8''working.pdf`)
+      expect(res.headers.get('Content-Disposition')).toBe(
+        `attachment; filename="working.pdf"; filename*=UTF-8''working.pdf`,
+      )
       expect(res.headers.get('X-Content-Type-Options')).toBe('nosniff')
       expect(res.headers.get('Content-Security-Policy')).toBe("default-src 'none'; img-src 'self'; sandbox")
       expect(new Uint8Array(await res.arrayBuffer())).toEqual(pdf)
     }
     // The student's own dispute page knows it is a PDF and its size, to offer it as a download.
-    const mine = await disputeDetailLoader(args(getRequest(`/courses/${s.course.id}/disputes/${row!.id}`, { Cookie: s.cookie }), params))
-    expect(mine.mine?.attachment).toEqual({ fileName: 'working.pdf', contentType: 'application/pdf', size: pdf.byteLength })
-    const staff = await disputeDetailLoader(args(getRequest(`/courses/${s.course.id}/disputes/${row!.id}`, { Cookie: s.taCookie }), params))
-    expect(staff.staff?.attachment).toMatchObject({ fileName: 'working.pdf', contentType: 'application/pdf', size: pdf.byteLength })
+    const mine = await disputeDetailLoader(
+      args(getRequest(`/courses/${s.course.id}/disputes/${row!.id}`, { Cookie: s.cookie }), params),
+    )
+    expect(mine.mine?.attachment).toEqual({
+      fileName: 'working.pdf',
+      contentType: 'application/pdf',
+      size: pdf.byteLength,
+    })
+    const staff = await disputeDetailLoader(
+      args(getRequest(`/courses/${s.course.id}/disputes/${row!.id}`, { Cookie: s.taCookie }), params),
+    )
+    expect(staff.staff?.attachment).toMatchObject({
+      fileName: 'working.pdf',
+      contentType: 'application/pdf',
+      size: pdf.byteLength,
+    })
   })
 
   test('a dispute without a file has no attachment to serve', async () => {
@@ -353,19 +414,31 @@ describe('GET /courses/:c/disputes/:d/attachment', () => {
     await action(args(await upload(s, disputeForm({})), s.params))
     const [row] = await db().select().from(disputes).where(eq(disputes.userId, s.student.id))
     const params = { courseId: String(s.course.id), disputeId: String(row!.id) }
-    const res = await settle(attachmentLoader(args(getRequest(`/courses/${s.course.id}/disputes/${row!.id}/attachment`, { Cookie: s.cookie }), params)))
+    const res = await settle(
+      attachmentLoader(
+        args(getRequest(`/courses/${s.course.id}/disputes/${row!.id}/attachment`, { Cookie: s.cookie }), params),
+      ),
+    )
     expect('thrown' in res && statusOf(res.thrown)).toBe(404)
   })
 })
 
 describe('contentDisposition', () => {
   test('keeps an ASCII name for old clients and the original in UTF-8, always ending in the detected type', () => {
-    expect(contentDisposition('working.pdf', 'application/pdf')).toBe(`attachment; filename="working.pdf"; filename*=UTF-8''working.pdf`)
-    expect(contentDisposition('working.png', 'image/png')).toBe(`inline; filename="working.png"; filename*=UTF-8''working.png`)
-    expect(contentDisposition('Résumé "final";.png', 'image/png')).toBe(`inline; filename="Resume _final_.png"; filename*=UTF-8''R%C3%A9sum%C3%A9%20%22final%22%3B.png`)
+    expect(contentDisposition('working.pdf', 'application/pdf')).toBe(
+      `attachment; filename="working.pdf"; filename*=UTF-8''working.pdf`,
+    )
+    expect(contentDisposition('working.png', 'image/png')).toBe(
+      `inline; filename="working.png"; filename*=UTF-8''working.png`,
+    )
+    expect(contentDisposition('Résumé "final";.png', 'image/png')).toBe(
+      `inline; filename="Resume _final_.png"; filename*=UTF-8''R%C3%A9sum%C3%A9%20%22final%22%3B.png`,
+    )
     expect(contentDisposition('photo.JPEG', 'image/jpeg')).toMatch(/filename="photo\.JPEG"/)
     expect(contentDisposition('notes.txt', 'image/png')).toMatch(/filename="notes\.txt\.png"/)
-    expect(contentDisposition('計算.pdf', 'application/pdf')).toMatch(/^attachment; filename="attachment\.pdf"; filename\*=UTF-8''%E8%A8%88%E7%AE%97\.pdf$/)
+    expect(contentDisposition('計算.pdf', 'application/pdf')).toMatch(
+      /^attachment; filename="attachment\.pdf"; filename\*=UTF-8''%E8%A8%88%E7%AE%97\.pdf$/,
+    )
   })
 })
 
@@ -384,22 +457,42 @@ describe('the outcome on the problem page', () => {
     })
     expect(resolved.ok).toBe(true)
 
-    const page = (await problemLoader(args(getRequest(s.problemPath, { Cookie: s.cookie }), s.params))) as ProblemPageData
+    const page = (await problemLoader(
+      args(getRequest(s.problemPath, { Cookie: s.cookie }), s.params),
+    )) as ProblemPageData
     expect(page.disputed).toBeNull()
     const latest = page.disputes!.find((d) => d.findName === 'wNet')!
-    expect(latest).toMatchObject({ status: 'adjusted', scoreBefore: 0, scoreAfter: 1, comment: 'Half marks: the size is right.' })
+    expect(latest).toMatchObject({
+      status: 'adjusted',
+      scoreBefore: 0,
+      scoreAfter: 1,
+      comment: 'Half marks: the size is right.',
+    })
     expect(disputeOutcome(latest)).toBe('Score adjusted: from 0 to 1 — Half marks: the size is right.')
     expect(page.problem.results.finds.find((f) => f.name === 'wNet')!.score).toBe(1)
 
     // Staff preview their own variant: no disputes of theirs, and no confirmation from the query.
-    const staffPage = await problemLoader(args(getRequest(`${s.problemPath}?disputed=wNet`, { Cookie: s.staffCookie }), s.params))
+    const staffPage = await problemLoader(
+      args(getRequest(`${s.problemPath}?disputed=wNet`, { Cookie: s.staffCookie }), s.params),
+    )
     expect(staffPage.disputes).toEqual([])
     expect(staffPage.disputed).toBeNull()
   })
 
   test('upheld and rejected outcomes read as the student is told them', () => {
-    const base = { id: 1, findName: 'wNet', createdAt: '2026-12-01T10:00:00Z', resolvedAt: '2026-12-02T10:00:00Z', scoreBefore: 0, scoreAfter: 2 }
-    expect(disputeOutcome({ ...base, status: 'upheld', comment: null })).toBe('Answer accepted: your answer counts as correct')
-    expect(disputeOutcome({ ...base, status: 'rejected', scoreAfter: 0, comment: 'The sign is part of the answer.' })).toBe('Score kept at 0 — The sign is part of the answer.')
+    const base = {
+      id: 1,
+      findName: 'wNet',
+      createdAt: '2026-12-01T10:00:00Z',
+      resolvedAt: '2026-12-02T10:00:00Z',
+      scoreBefore: 0,
+      scoreAfter: 2,
+    }
+    expect(disputeOutcome({ ...base, status: 'upheld', comment: null })).toBe(
+      'Answer accepted: your answer counts as correct',
+    )
+    expect(
+      disputeOutcome({ ...base, status: 'rejected', scoreAfter: 0, comment: 'The sign is part of the answer.' }),
+    ).toBe('Score kept at 0 — The sign is part of the answer.')
   })
 })

@@ -17,9 +17,22 @@ import { loader as auditLoader } from '#app/routes/courses/audit.tsx'
 import { action as disputeAction, loader as disputeLoader } from '#app/routes/courses/disputes/$disputeId.tsx'
 import { loader as queueLoader } from '#app/routes/courses/disputes/index.tsx'
 import { db } from '#app/server/db/client.server.ts'
-import { assignmentItems, attachments, auditEvents, disputes, partResults, submissions } from '#app/server/db/schema.server.ts'
+import {
+  assignmentItems,
+  attachments,
+  auditEvents,
+  disputes,
+  partResults,
+  submissions,
+} from '#app/server/db/schema.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
-import { addMember, createAssignment, createCourse, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
+import {
+  addMember,
+  createAssignment,
+  createCourse,
+  createCourseWithAssignment,
+  createUser,
+} from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { sessionCookie } from '#tests/support/login.ts'
 
@@ -40,7 +53,13 @@ async function build() {
   const [s1, s2, s3] = students as [(typeof students)[0], (typeof students)[0], (typeof students)[0]]
   const item = made.items[0]!
   await db().update(assignmentItems).set({ points: 7 }).where(eq(assignmentItems.id, item.id))
-  const second = await createAssignment(db(), course.id, instructor.id, [{ problemId: item.problemId, versionId: item.problemVersionId, points: 7 }], { title: 'Assignment B' })
+  const second = await createAssignment(
+    db(),
+    course.id,
+    instructor.id,
+    [{ problemId: item.problemId, versionId: item.problemVersionId, points: 7 }],
+    { title: 'Assignment B' },
+  )
   const itemB = second.items[0]!
   const ta = await createUser(db(), { name: 'Course TA', password: null })
   await addMember(db(), ta.id, course.id, 'ta')
@@ -49,7 +68,14 @@ async function build() {
   await addMember(db(), otherTa.id, otherCourse.id, 'ta')
 
   const maxOf = { T2: 2, wNet: 3, eta: 2 } as const
-  async function graded(userId: number, it: { id: number; assignmentId: number }, findName: keyof typeof maxOf, text: string, value: number, score = 0) {
+  async function graded(
+    userId: number,
+    it: { id: number; assignmentId: number },
+    findName: keyof typeof maxOf,
+    text: string,
+    value: number,
+    score = 0,
+  ) {
     const [sub] = await db()
       .insert(submissions)
       .values({ assignmentId: it.assignmentId, itemId: it.id, userId, answers: { [findName]: text }, status: 'graded' })
@@ -73,7 +99,14 @@ async function build() {
       .returning({ id: partResults.id })
     return part!.id
   }
-  async function dispute(userId: number, it: { id: number; assignmentId: number }, findName: string, partResultId: number, daysOld: number, extra: Partial<typeof disputes.$inferInsert> = {}) {
+  async function dispute(
+    userId: number,
+    it: { id: number; assignmentId: number },
+    findName: string,
+    partResultId: number,
+    daysOld: number,
+    extra: Partial<typeof disputes.$inferInsert> = {},
+  ) {
     const [row] = await db()
       .insert(disputes)
       .values({
@@ -97,11 +130,26 @@ async function build() {
   const pB = await graded(s1.id, itemB, 'eta', '0.4', 0.4)
   const [file] = await db()
     .insert(attachments)
-    .values({ userId: s1.id, courseId: course.id, fileName: 'working.png', contentType: 'image/png', size: 4, sha256: 'x', data: Buffer.from([0x89, 0x50, 0x4e, 0x47]) })
+    .values({
+      userId: s1.id,
+      courseId: course.id,
+      fileName: 'working.png',
+      contentType: 'image/png',
+      size: 4,
+      sha256: 'x',
+      data: Buffer.from([0x89, 0x50, 0x4e, 0x47]),
+    })
     .returning({ id: attachments.id })
   const d1 = await dispute(s1.id, item, 'T2', p1, 5, { attachmentId: file!.id })
   const d2 = await dispute(s2.id, item, 'wNet', p2, 2)
-  const d4 = await dispute(s3.id, item, 'T2', p3, 1, { status: 'rejected', resolvedBy: instructor.id, resolvedAt: new Date(), scoreBefore: 0, scoreAfter: 0, comment: 'The key stands.' })
+  const d4 = await dispute(s3.id, item, 'T2', p3, 1, {
+    status: 'rejected',
+    resolvedBy: instructor.id,
+    resolvedAt: new Date(),
+    scoreBefore: 0,
+    scoreAfter: 0,
+    comment: 'The key stands.',
+  })
   const dB = await dispute(s1.id, itemB, 'eta', pB, 10)
 
   return {
@@ -130,7 +178,11 @@ type QueueData = Awaited<ReturnType<typeof queueLoader>>
 
 async function queue(query: string, cookie: string) {
   const path = `/courses/${world.course.id}/disputes${query}`
-  return settle(queueLoader(args(getRequest(path, { Cookie: cookie }), { courseId: String(world.course.id) })) as Promise<QueueData>)
+  return settle(
+    queueLoader(
+      args(getRequest(path, { Cookie: cookie }), { courseId: String(world.course.id) }),
+    ) as Promise<QueueData>,
+  )
 }
 
 async function queueIds(query: string, cookie = world.cookies.ta): Promise<number[]> {
@@ -163,7 +215,9 @@ describe('the review queue', () => {
     ['?status=all&assignment=A&age=2', ['d1', 'd2']],
     ['?status=nonsense&age=-4&assignment=x', ['dB', 'd1', 'd2']],
   ])('the filter %s lists %j', async (query, expected) => {
-    const q = query.replace('assignment=A', `assignment=${world.assignment.id}`).replace('assignment=B', `assignment=${world.assignmentB.id}`)
+    const q = query
+      .replace('assignment=A', `assignment=${world.assignment.id}`)
+      .replace('assignment=B', `assignment=${world.assignmentB.id}`)
     const names = new Map(Object.entries(world.ids).map(([k, v]) => [v, k]))
     expect((await queueIds(q)).map((id) => names.get(id))).toEqual(expected)
   })
@@ -188,9 +242,13 @@ describe('the dispute page', () => {
   const path = (id: number) => `/courses/${world.course.id}/disputes/${id}`
 
   test('a student opening another student’s dispute gets 404; their own shows without the key', async () => {
-    const other = await settle(disputeLoader(args(getRequest(path(world.ids.d2), { Cookie: world.cookies.s1 }), params(world.ids.d2))))
+    const other = await settle(
+      disputeLoader(args(getRequest(path(world.ids.d2), { Cookie: world.cookies.s1 }), params(world.ids.d2))),
+    )
     expect('thrown' in other && status(other.thrown)).toBe(404)
-    const own = await settle(disputeLoader(args(getRequest(path(world.ids.d1), { Cookie: world.cookies.s1 }), params(world.ids.d1))))
+    const own = await settle(
+      disputeLoader(args(getRequest(path(world.ids.d1), { Cookie: world.cookies.s1 }), params(world.ids.d1))),
+    )
     if (!('value' in own)) throw new Error('refused')
     expect(own.value.staff).toBeNull()
     expect(own.value.mine?.answer.text).toBe('312 K')
@@ -198,7 +256,9 @@ describe('the dispute page', () => {
   })
 
   test('staff see the answer, the key and the file', async () => {
-    const out = await settle(disputeLoader(args(getRequest(path(world.ids.d1), { Cookie: world.cookies.ta }), params(world.ids.d1))))
+    const out = await settle(
+      disputeLoader(args(getRequest(path(world.ids.d1), { Cookie: world.cookies.ta }), params(world.ids.d1))),
+    )
     if (!('value' in out)) throw new Error('refused')
     const staff = out.value.staff!
     expect(staff.answer.text).toBe('312 K')
@@ -209,7 +269,16 @@ describe('the dispute page', () => {
 
   test('adjusting without a comment is refused beside the field, values kept, nothing changed', async () => {
     const id = world.ids.d1
-    const result = (await disputeAction(args(formRequest(path(id), { intent: 'resolve', decision: 'adjust', newScore: '1.5', comment: '  ' }, { Cookie: world.cookies.ta }), params(id)))) as unknown as {
+    const result = (await disputeAction(
+      args(
+        formRequest(
+          path(id),
+          { intent: 'resolve', decision: 'adjust', newScore: '1.5', comment: '  ' },
+          { Cookie: world.cookies.ta },
+        ),
+        params(id),
+      ),
+    )) as unknown as {
       data: { fieldErrors: Record<string, string>; values: Record<string, string> }
       init: { status: number }
     }
@@ -219,13 +288,25 @@ describe('the dispute page', () => {
     expect(result.data.values.decision).toBe('adjust')
     const [d] = await db().select().from(disputes).where(eq(disputes.id, id))
     expect(d!.status).toBe('open')
-    const [p] = await db().select({ score: partResults.score }).from(partResults).where(eq(partResults.id, world.parts.p1))
+    const [p] = await db()
+      .select({ score: partResults.score })
+      .from(partResults)
+      .where(eq(partResults.id, world.parts.p1))
     expect(p!.score).toBe(0)
   })
 
   test('a score above the find’s share is refused beside the score', async () => {
     const id = world.ids.d1
-    const result = (await disputeAction(args(formRequest(path(id), { intent: 'resolve', decision: 'adjust', newScore: '5', comment: 'Too generous' }, { Cookie: world.cookies.ta }), params(id)))) as unknown as {
+    const result = (await disputeAction(
+      args(
+        formRequest(
+          path(id),
+          { intent: 'resolve', decision: 'adjust', newScore: '5', comment: 'Too generous' },
+          { Cookie: world.cookies.ta },
+        ),
+        params(id),
+      ),
+    )) as unknown as {
       data: { fieldErrors: Record<string, string> }
       init: { status: number }
     }
@@ -237,7 +318,18 @@ describe('the dispute page', () => {
 
   test('a student cannot resolve, not even their own dispute', async () => {
     const id = world.ids.d1
-    const out = await settle(disputeAction(args(formRequest(path(id), { intent: 'resolve', decision: 'adjust', newScore: '2', comment: 'Mine' }, { Cookie: world.cookies.s1 }), params(id))))
+    const out = await settle(
+      disputeAction(
+        args(
+          formRequest(
+            path(id),
+            { intent: 'resolve', decision: 'adjust', newScore: '2', comment: 'Mine' },
+            { Cookie: world.cookies.s1 },
+          ),
+          params(id),
+        ),
+      ),
+    )
     expect('thrown' in out && status(out.thrown)).toBe(403)
     const [d] = await db().select().from(disputes).where(eq(disputes.id, id))
     expect(d!.status).toBe('open')
@@ -246,11 +338,21 @@ describe('the dispute page', () => {
   test('adjusting with a comment changes the score, writes the audit row and redirects to the page with a notice', async () => {
     const id = world.ids.d1
     const res = (await disputeAction(
-      args(formRequest(path(id), { intent: 'resolve', decision: 'adjust', newScore: '1.5', comment: 'Right method, one slip in the ratio.' }, { Cookie: world.cookies.ta }), params(id)),
+      args(
+        formRequest(
+          path(id),
+          { intent: 'resolve', decision: 'adjust', newScore: '1.5', comment: 'Right method, one slip in the ratio.' },
+          { Cookie: world.cookies.ta },
+        ),
+        params(id),
+      ),
     )) as Response
     expect(res.status).toBe(302)
     expect(res.headers.get('Location')).toBe(`${path(id)}?resolved=1`)
-    const [p] = await db().select({ score: partResults.score }).from(partResults).where(eq(partResults.id, world.parts.p1))
+    const [p] = await db()
+      .select({ score: partResults.score })
+      .from(partResults)
+      .where(eq(partResults.id, world.parts.p1))
     expect(p!.score).toBe(1.5)
     const [d] = await db().select().from(disputes).where(eq(disputes.id, id))
     expect(d!.status).toBe('adjusted')
@@ -264,14 +366,21 @@ describe('the dispute page', () => {
     expect(audit[0]!.note).toBe('Right method, one slip in the ratio.')
 
     // The page after the redirect shows the outcome; the form is gone and the queue is shorter.
-    const page = await settle(disputeLoader(args(getRequest(`${path(id)}?resolved=1`, { Cookie: world.cookies.ta }), params(id))))
+    const page = await settle(
+      disputeLoader(args(getRequest(`${path(id)}?resolved=1`, { Cookie: world.cookies.ta }), params(id))),
+    )
     if (!('value' in page)) throw new Error('refused')
     expect(page.value.changed).toBe(1)
     expect(page.value.dispute.status).toBe('adjusted')
     expect(await queueIds('')).toEqual([world.ids.dB, world.ids.d2])
 
     // Pressing again is refused with a message, and nothing changes twice.
-    const again = (await disputeAction(args(formRequest(path(id), { intent: 'resolve', decision: 'reject', comment: '' }, { Cookie: world.cookies.ta }), params(id)))) as unknown as {
+    const again = (await disputeAction(
+      args(
+        formRequest(path(id), { intent: 'resolve', decision: 'reject', comment: '' }, { Cookie: world.cookies.ta }),
+        params(id),
+      ),
+    )) as unknown as {
       data: { formError: string }
       init: { status: number }
     }
@@ -282,15 +391,25 @@ describe('the dispute page', () => {
 
 describe('the audit log page', () => {
   const path = () => `/courses/${world.course.id}/audit`
-  const load = (cookie: string, query = '') => settle(auditLoader(args(getRequest(`${path()}${query}`, { Cookie: cookie }), { courseId: String(world.course.id) })))
+  const load = (cookie: string, query = '') =>
+    settle(
+      auditLoader(args(getRequest(`${path()}${query}`, { Cookie: cookie }), { courseId: String(world.course.id) })),
+    )
 
   test('an instructor reads it, newest first, with the dispute’s change in words', async () => {
     // A rejection changes no answer, yet the decision itself is logged.
     const res = (await disputeAction(
-      args(formRequest(`/courses/${world.course.id}/disputes/${world.ids.d2}`, { intent: 'resolve', decision: 'reject', comment: 'The sign follows the course convention.' }, { Cookie: world.cookies.ta }), {
-        courseId: String(world.course.id),
-        disputeId: String(world.ids.d2),
-      }),
+      args(
+        formRequest(
+          `/courses/${world.course.id}/disputes/${world.ids.d2}`,
+          { intent: 'resolve', decision: 'reject', comment: 'The sign follows the course convention.' },
+          { Cookie: world.cookies.ta },
+        ),
+        {
+          courseId: String(world.course.id),
+          disputeId: String(world.ids.d2),
+        },
+      ),
     )) as Response
     expect(res.status).toBe(302)
     expect(res.headers.get('Location')).toMatch(/\?resolved=0$/)

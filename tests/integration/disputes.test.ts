@@ -8,7 +8,12 @@ import { listAuditLog } from '#app/server/audit-log.server.ts'
 import { and, count, eq, inArray, sql } from 'drizzle-orm'
 import { afterAll, describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
-import { assignmentFormFromData, createAssignment as saveAssignment, newAssignmentForm, updateAssignment } from '#app/server/assignments.server.ts'
+import {
+  assignmentFormFromData,
+  createAssignment as saveAssignment,
+  newAssignmentForm,
+  updateAssignment,
+} from '#app/server/assignments.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { assignments, attachments, auditEvents, disputes, partResults } from '#app/server/db/schema.server.ts'
 import {
@@ -30,7 +35,13 @@ import { submitAnswers } from '#app/server/submissions.server.ts'
 import { loadSignedInUser } from '#app/server/users.server.ts'
 import { startWorker } from '#jobs/worker.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
-import { addMember, createCourse, createCourseWithAssignment, createUser, type AssignmentOverrides } from '#tests/support/factories.ts'
+import {
+  addMember,
+  createCourse,
+  createCourseWithAssignment,
+  createUser,
+  type AssignmentOverrides,
+} from '#tests/support/factories.ts'
 
 afterAll(async () => {
   await stopBoss()
@@ -43,26 +54,49 @@ const ottoV1: ProblemDefinition = otto.earlierVersions?.[0] ?? otto.definition
 const oneVariantOtto: ProblemDefinition = {
   ...ottoV1,
   title: 'Otto cycle, one variant',
-  givens: ottoV1.givens.map((g) => ({ ...g, rule: { kind: 'choice' as const, values: [g.rule.kind === 'range' ? g.rule.min : 1] } })),
+  givens: ottoV1.givens.map((g) => ({
+    ...g,
+    rule: { kind: 'choice' as const, values: [g.rule.kind === 'range' ? g.rule.min : 1] },
+  })),
 }
 
 // Minimal files from their magic bytes. file-type wants a PNG's IHDR chunk after the
 // signature (the 8 signature bytes alone are not recognised); a PDF is known by "%PDF".
 const PNG = new Uint8Array([
-  0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 6, 0, 0, 0, 0x1f, 0x15, 0xc4, 0x89,
+  0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 6, 0,
+  0, 0, 0x1f, 0x15, 0xc4, 0x89,
 ])
-const PDF = new TextEncoder().encode('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n')
+const PDF = new TextEncoder().encode(
+  '%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n',
+)
 
-const actor = (user: { id: number; isAdmin: boolean }, role: DisputeActor['role']): DisputeActor => ({ id: user.id, isAdmin: user.isAdmin, role })
+const actor = (user: { id: number; isAdmin: boolean }, role: DisputeActor['role']): DisputeActor => ({
+  id: user.id,
+  isAdmin: user.isAdmin,
+  role,
+})
 
-async function setUp(definition: ProblemDefinition = ottoV1, options: { students?: number; assignment?: AssignmentOverrides } = {}) {
+async function setUp(
+  definition: ProblemDefinition = ottoV1,
+  options: { students?: number; assignment?: AssignmentOverrides } = {},
+) {
   // One attempt per find: a wrong answer with attempts left is answered again, not disputed.
-  const made = await createCourseWithAssignment(db(), [definition], { students: options.students ?? 3, assignment: { attemptsPerFind: 1, ...options.assignment } })
+  const made = await createCourseWithAssignment(db(), [definition], {
+    students: options.students ?? 3,
+    assignment: { attemptsPerFind: 1, ...options.assignment },
+  })
   const ta = await createUser(db(), { name: 'Tara Assistant', password: null })
   await addMember(db(), ta.id, made.course.id, 'ta')
   const item = made.items[0]!
   const keyOf = (userId: number) => {
-    const drawn = studentVariant({ versionId: item.problemVersionId, definition, assignmentId: made.assignment.id, problemId: item.problemId, userId, courseConvention: made.course.signConvention })
+    const drawn = studentVariant({
+      versionId: item.problemVersionId,
+      definition,
+      assignmentId: made.assignment.id,
+      problemId: item.problemId,
+      userId,
+      courseConvention: made.course.signConvention,
+    })
     if (!drawn.ok) throw new Error(drawn.error.message)
     return Object.fromEntries(drawn.variant.key.map((k) => [k.name, k.value]))
   }
@@ -75,7 +109,12 @@ async function setUp(definition: ProblemDefinition = ottoV1, options: { students
     return r.receipt.submissionId
   }
   const raise = (userId: number, overrides: Partial<RaiseDisputeInput> = {}) =>
-    raiseDispute(db(), { ...ref(userId), findName: 'wNet', reason: 'I used the engineering convention as the course says.', ...overrides })
+    raiseDispute(db(), {
+      ...ref(userId),
+      findName: 'wNet',
+      reason: 'I used the engineering convention as the course says.',
+      ...overrides,
+    })
   return { ...made, ta, item, keyOf, ref, answer, raise }
 }
 
@@ -89,7 +128,15 @@ async function otherCourseTa() {
 
 async function partsOf(itemId: number, userId: number, findName: string) {
   return db()
-    .select({ id: partResults.id, attempt: partResults.attempt, verdict: partResults.verdict, score: partResults.score, maxScore: partResults.maxScore, message: partResults.message, pitfallId: partResults.pitfallId })
+    .select({
+      id: partResults.id,
+      attempt: partResults.attempt,
+      verdict: partResults.verdict,
+      score: partResults.score,
+      maxScore: partResults.maxScore,
+      message: partResults.message,
+      pitfallId: partResults.pitfallId,
+    })
     .from(partResults)
     .where(and(eq(partResults.itemId, itemId), eq(partResults.userId, userId), eq(partResults.findName, findName)))
     .orderBy(partResults.attempt)
@@ -121,15 +168,35 @@ describe('raising a dispute', () => {
     if (!result.ok) return
     const [d] = await db().select().from(disputes).where(eq(disputes.id, result.disputeId))
     const [part] = await partsOf(s.item.id, me!.id, 'wNet')
-    expect(d).toMatchObject({ status: 'open', findName: 'wNet', userId: me!.id, partResultId: part!.id, reason: 'I used the engineering convention as the course says.' })
+    expect(d).toMatchObject({
+      status: 'open',
+      findName: 'wNet',
+      userId: me!.id,
+      partResultId: part!.id,
+      reason: 'I used the engineering convention as the course says.',
+    })
     const [file] = await db().select().from(attachments).where(eq(attachments.id, d!.attachmentId!))
-    expect(file).toMatchObject({ fileName: 'my working.png', contentType: 'image/png', size: PNG.byteLength, userId: me!.id, courseId: s.course.id })
+    expect(file).toMatchObject({
+      fileName: 'my working.png',
+      contentType: 'image/png',
+      size: PNG.byteLength,
+      userId: me!.id,
+      courseId: s.course.id,
+    })
     expect(file!.sha256).toMatch(/^[0-9a-f]{64}$/)
     expect(Buffer.compare(file!.data, Buffer.from(PNG))).toBe(0)
     const audit = await auditOf(s.course.id, ['dispute-raised'])
     expect(audit).toHaveLength(1)
-    expect(audit[0]).toMatchObject({ actorId: me!.id, userId: me!.id, before: null, after: { disputeId: result.disputeId, findName: 'wNet' }, note: 'I used the engineering convention as the course says.' })
-    expect(await listMyDisputes(db(), { itemId: s.item.id, userId: me!.id })).toEqual([expect.objectContaining({ id: result.disputeId, findName: 'wNet', status: 'open' })])
+    expect(audit[0]).toMatchObject({
+      actorId: me!.id,
+      userId: me!.id,
+      before: null,
+      after: { disputeId: result.disputeId, findName: 'wNet' },
+      note: 'I used the engineering convention as the course says.',
+    })
+    expect(await listMyDisputes(db(), { itemId: s.item.id, userId: me!.id })).toEqual([
+      expect.objectContaining({ id: result.disputeId, findName: 'wNet', status: 'open' }),
+    ])
   })
 
   test('a PDF is accepted; the dispute page shows the answer, the givens, the key, the worked solution, the pitfall and the file', async () => {
@@ -139,10 +206,25 @@ describe('raising a dispute', () => {
     await s.answer(me.id, { wNet: `${-key.wNet!} kJ/kg` })
     const result = await s.raise(me.id, { upload: { fileName: 'solution.PDF', bytes: PDF } })
     if (!result.ok) throw new Error(JSON.stringify(result))
-    const detail = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: result.disputeId, viewer: actor(s.ta, 'ta') })
+    const detail = await getDisputeDetail(db(), {
+      courseId: s.course.id,
+      disputeId: result.disputeId,
+      viewer: actor(s.ta, 'ta'),
+    })
     expect(detail).not.toBeNull()
-    expect(detail!.attachment).toMatchObject({ fileName: 'solution.PDF', contentType: 'application/pdf', size: PDF.byteLength })
-    expect(detail!.answer).toMatchObject({ text: `${-key.wNet!} kJ/kg`, attempt: 1, verdict: 'incorrect', pitfallId: 'sign-convention-flipped', pitfallTitle: 'Sign convention flipped', score: 0 })
+    expect(detail!.attachment).toMatchObject({
+      fileName: 'solution.PDF',
+      contentType: 'application/pdf',
+      size: PDF.byteLength,
+    })
+    expect(detail!.answer).toMatchObject({
+      text: `${-key.wNet!} kJ/kg`,
+      attempt: 1,
+      verdict: 'incorrect',
+      pitfallId: 'sign-convention-flipped',
+      pitfallTitle: 'Sign convention flipped',
+      score: 0,
+    })
     expect(detail!.find.label).toBe('Net work per kg of air')
     expect(detail!.find.share).toBeCloseTo(10 * (3 / 7), 9)
     expect(detail!.givens.map((g) => g.name).sort()).toEqual(['T1', 'p1', 'qin', 'r'])
@@ -150,9 +232,20 @@ describe('raising a dispute', () => {
     expect(detail!.promptHtml).toContain('compression ratio')
     expect(detail!.workedHtml).toBeTruthy()
     expect(detail!.diagrams).not.toBeNull()
-    expect(detail!.dispute).toMatchObject({ problemTitle: 'Air-standard Otto cycle', findLabel: 'Net work per kg of air', hasAttachment: true, student: { id: me.id } })
-    expect(detail!.history).toEqual([expect.objectContaining({ kind: 'raised', who: me.name, text: expect.stringContaining('with an uploaded file') })])
-    const file = await getAttachmentForViewer(db(), { courseId: s.course.id, disputeId: result.disputeId, viewer: actor(me, 'student') })
+    expect(detail!.dispute).toMatchObject({
+      problemTitle: 'Air-standard Otto cycle',
+      findLabel: 'Net work per kg of air',
+      hasAttachment: true,
+      student: { id: me.id },
+    })
+    expect(detail!.history).toEqual([
+      expect.objectContaining({ kind: 'raised', who: me.name, text: expect.stringContaining('with an uploaded file') }),
+    ])
+    const file = await getAttachmentForViewer(db(), {
+      courseId: s.course.id,
+      disputeId: result.disputeId,
+      viewer: actor(me, 'student'),
+    })
     expect(file!.contentType).toBe('application/pdf')
     expect(Buffer.compare(file!.data, Buffer.from(PDF))).toBe(0)
   })
@@ -164,13 +257,24 @@ describe('raising a dispute', () => {
     const big = new Uint8Array(MAX_ATTACHMENT_BYTES + 1)
     big.set(PNG)
     const tooBig = await s.raise(me.id, { upload: { fileName: 'scan.png', bytes: big } })
-    expect(tooBig).toMatchObject({ ok: false, fieldErrors: { file: expect.stringMatching(/^The file is larger than 10 MB/) } })
-    const text = await s.raise(me.id, { upload: { fileName: 'scan.png', bytes: new TextEncoder().encode('this is just text, not a picture') } })
-    expect(text).toMatchObject({ ok: false, fieldErrors: { file: expect.stringMatching(/Only PDF, PNG or JPEG .* looks like something else/) } })
+    expect(tooBig).toMatchObject({
+      ok: false,
+      fieldErrors: { file: expect.stringMatching(/^The file is larger than 10 MB/) },
+    })
+    const text = await s.raise(me.id, {
+      upload: { fileName: 'scan.png', bytes: new TextEncoder().encode('this is just text, not a picture') },
+    })
+    expect(text).toMatchObject({
+      ok: false,
+      fieldErrors: { file: expect.stringMatching(/Only PDF, PNG or JPEG .* looks like something else/) },
+    })
     const exe = new Uint8Array(256)
     exe.set([0x4d, 0x5a, 0x90, 0x00, 0x03])
     const program = await s.raise(me.id, { upload: { fileName: 'solution.pdf', bytes: exe } })
-    expect(program).toMatchObject({ ok: false, fieldErrors: { file: expect.stringMatching(/looks like a \.exe file/) } })
+    expect(program).toMatchObject({
+      ok: false,
+      fieldErrors: { file: expect.stringMatching(/looks like a \.exe file/) },
+    })
     const short = await s.raise(me.id, { reason: '  wrong   ', upload: { fileName: 'a.png', bytes: PNG } })
     expect(short).toMatchObject({ ok: false, fieldErrors: { reason: expect.stringMatching(/at least 10 characters/) } })
     expect(short.ok === false && short.fieldErrors.file).toBeFalsy()
@@ -189,28 +293,50 @@ describe('raising a dispute', () => {
     await s.answer(b!.id, { wNet: '1 kJ/kg' })
     expect((await s.raise(a!.id)).ok).toBe(true)
     const again = await s.raise(a!.id, { upload: { fileName: 'x.png', bytes: PNG } })
-    expect(again).toMatchObject({ ok: false, fieldErrors: { findName: expect.stringMatching(/already have an open dispute/) } })
+    expect(again).toMatchObject({
+      ok: false,
+      fieldErrors: { findName: expect.stringMatching(/already have an open dispute/) },
+    })
     // Another find of the same problem is its own dispute.
     expect((await s.raise(a!.id, { findName: 'T2' })).ok).toBe(true)
     // Both presses pass the check before either commits; the unique index lets one through.
-    const both = await Promise.all([s.raise(b!.id, { upload: { fileName: 'x.png', bytes: PNG } }), s.raise(b!.id, { upload: { fileName: 'y.png', bytes: PNG } })])
+    const both = await Promise.all([
+      s.raise(b!.id, { upload: { fileName: 'x.png', bytes: PNG } }),
+      s.raise(b!.id, { upload: { fileName: 'y.png', bytes: PNG } }),
+    ])
     expect(both.filter((r) => r.ok)).toHaveLength(1)
-    expect(both.find((r) => !r.ok)).toMatchObject({ fieldErrors: { findName: expect.stringMatching(/already have an open dispute/) } })
+    expect(both.find((r) => !r.ok)).toMatchObject({
+      fieldErrors: { findName: expect.stringMatching(/already have an open dispute/) },
+    })
     expect(await rowsFor(b!.id)).toEqual({ disputes: 1, attachments: 1 })
   })
 
   test('only a graded find of a student of the course, and only until disputeDays after the release', async () => {
     const released = new Date('2026-11-20T12:00:00Z')
-    const s = await setUp(ottoV1, { assignment: { gradesReleasedAt: released, disputeDays: 7, opensAt: new Date('2026-11-01T00:00:00Z'), dueAt: new Date('2026-11-15T00:00:00Z') } })
+    const s = await setUp(ottoV1, {
+      assignment: {
+        gradesReleasedAt: released,
+        disputeDays: 7,
+        opensAt: new Date('2026-11-01T00:00:00Z'),
+        dueAt: new Date('2026-11-15T00:00:00Z'),
+      },
+    })
     const me = s.students[0]!
     const notGraded = await s.raise(me.id, { now: new Date('2026-11-21T00:00:00Z') })
     expect(notGraded).toMatchObject({ ok: false, formError: expect.stringMatching(/no graded answer/) })
     // Answered before the due date (the submission's own clock), graded now.
     await s.answer(me.id, { wNet: '1 kJ/kg' }, new Date('2026-11-10T00:00:00Z'))
-    const allowance = await disputeAllowance(db(), { ...s.ref(me.id), findName: 'wNet', now: new Date('2026-11-27T11:59:00Z') })
+    const allowance = await disputeAllowance(db(), {
+      ...s.ref(me.id),
+      findName: 'wNet',
+      now: new Date('2026-11-27T11:59:00Z'),
+    })
     expect(allowance).toEqual({ allowed: true, until: '2026-11-27T12:00:00.000Z' })
     const late = await s.raise(me.id, { now: new Date('2026-11-27T12:00:00Z') })
-    expect(late).toMatchObject({ ok: false, formError: expect.stringMatching(/closed on .*2026.*\(UTC\), 7 days after the grades were released/) })
+    expect(late).toMatchObject({
+      ok: false,
+      formError: expect.stringMatching(/closed on .*2026.*\(UTC\), 7 days after the grades were released/),
+    })
     const ta = await s.raise(s.ta.id, { now: new Date('2026-11-21T00:00:00Z') })
     expect(ta).toMatchObject({ ok: false, formError: 'Only students of this course can dispute a grade.' })
     const noFind = await s.raise(me.id, { findName: 'mep', now: new Date('2026-11-21T00:00:00Z') })
@@ -232,26 +358,83 @@ describe('who sees what', () => {
     const mine = await listDisputes(db(), { courseId: s.course.id, viewer: actor(a!, 'student') })
     expect(mine.map((r) => r.id)).toEqual([ra.disputeId])
     // A student asking as staff is still a student: the role comes from the database.
-    expect((await listDisputes(db(), { courseId: s.course.id, viewer: actor(a!, 'instructor') })).map((r) => r.id)).toEqual([ra.disputeId])
+    expect(
+      (await listDisputes(db(), { courseId: s.course.id, viewer: actor(a!, 'instructor') })).map((r) => r.id),
+    ).toEqual([ra.disputeId])
     const queue = await listDisputes(db(), { courseId: s.course.id, viewer: actor(s.ta, 'ta') })
     expect(queue.map((r) => r.id)).toEqual([ra.disputeId, rb.disputeId])
-    expect(queue[0]).toMatchObject({ problemTitle: 'Air-standard Otto cycle', findLabel: 'Net work per kg of air', hasAttachment: true, student: { id: a!.id, name: a!.name } })
-    expect(await listDisputes(db(), { courseId: s.course.id, viewer: actor(s.instructor, 'instructor'), filters: { status: 'rejected' } })).toEqual([])
-    expect((await listDisputes(db(), { courseId: s.course.id, viewer: actor(s.instructor, 'instructor'), filters: { status: 'open', assignmentId: s.assignment.id } })).length).toBe(2)
-    expect(await listDisputes(db(), { courseId: s.course.id, viewer: actor(s.ta, 'ta'), filters: { olderThanDays: 1 } })).toEqual([])
+    expect(queue[0]).toMatchObject({
+      problemTitle: 'Air-standard Otto cycle',
+      findLabel: 'Net work per kg of air',
+      hasAttachment: true,
+      student: { id: a!.id, name: a!.name },
+    })
+    expect(
+      await listDisputes(db(), {
+        courseId: s.course.id,
+        viewer: actor(s.instructor, 'instructor'),
+        filters: { status: 'rejected' },
+      }),
+    ).toEqual([])
+    expect(
+      (
+        await listDisputes(db(), {
+          courseId: s.course.id,
+          viewer: actor(s.instructor, 'instructor'),
+          filters: { status: 'open', assignmentId: s.assignment.id },
+        })
+      ).length,
+    ).toBe(2)
+    expect(
+      await listDisputes(db(), { courseId: s.course.id, viewer: actor(s.ta, 'ta'), filters: { olderThanDays: 1 } }),
+    ).toEqual([])
     const inTwoDays = new Date(Date.now() + 2 * 86_400_000)
-    expect((await listDisputes(db(), { courseId: s.course.id, viewer: actor(s.ta, 'ta'), filters: { olderThanDays: 1 }, now: inTwoDays })).length).toBe(2)
+    expect(
+      (
+        await listDisputes(db(), {
+          courseId: s.course.id,
+          viewer: actor(s.ta, 'ta'),
+          filters: { olderThanDays: 1 },
+          now: inTwoDays,
+        })
+      ).length,
+    ).toBe(2)
 
     const elsewhere = await otherCourseTa()
     expect(await listDisputes(db(), { courseId: s.course.id, viewer: actor(elsewhere, 'ta') })).toEqual([])
-    expect(await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(elsewhere, 'ta') })).toBeNull()
-    expect(await getAttachmentForViewer(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(elsewhere, 'ta') })).toBeNull()
-    expect(await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(b!, 'student') })).toBeNull()
-    expect(await getAttachmentForViewer(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(b!, 'student') })).toBeNull()
-    expect(await getAttachmentForViewer(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(s.ta, 'ta') })).toMatchObject({ contentType: 'image/png' })
-    const own = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(a!, 'student') })
+    expect(
+      await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(elsewhere, 'ta') }),
+    ).toBeNull()
+    expect(
+      await getAttachmentForViewer(db(), {
+        courseId: s.course.id,
+        disputeId: ra.disputeId,
+        viewer: actor(elsewhere, 'ta'),
+      }),
+    ).toBeNull()
+    expect(
+      await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(b!, 'student') }),
+    ).toBeNull()
+    expect(
+      await getAttachmentForViewer(db(), {
+        courseId: s.course.id,
+        disputeId: ra.disputeId,
+        viewer: actor(b!, 'student'),
+      }),
+    ).toBeNull()
+    expect(
+      await getAttachmentForViewer(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(s.ta, 'ta') }),
+    ).toMatchObject({ contentType: 'image/png' })
+    const own = await getDisputeDetail(db(), {
+      courseId: s.course.id,
+      disputeId: ra.disputeId,
+      viewer: actor(a!, 'student'),
+    })
     expect(own).toMatchObject({ answer: { text: '1 kJ/kg' }, key: [], workedHtml: null, diagrams: null })
-    expect((await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(s.ta, 'ta') }))!.key.length).toBeGreaterThan(0)
+    expect(
+      (await getDisputeDetail(db(), { courseId: s.course.id, disputeId: ra.disputeId, viewer: actor(s.ta, 'ta') }))!.key
+        .length,
+    ).toBeGreaterThan(0)
   })
 })
 
@@ -263,23 +446,54 @@ describe('resolving', () => {
     const r = await s.raise(me.id)
     if (!r.ok) throw new Error('not raised')
     // A student claiming to be staff is refused.
-    const bySelf = await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(me, 'instructor'), decision: 'reject', comment: '' })
+    const bySelf = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(me, 'instructor'),
+      decision: 'reject',
+      comment: '',
+    })
     expect(bySelf).toMatchObject({ ok: false, formError: expect.stringMatching(/instructors and TAs/) })
-    const res = await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.ta, 'ta'), decision: 'reject', comment: '' })
+    const res = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(s.ta, 'ta'),
+      decision: 'reject',
+      comment: '',
+    })
     expect(res).toEqual({ ok: true, changed: 0 })
     const [d] = await db().select().from(disputes).where(eq(disputes.id, r.disputeId))
     expect(d).toMatchObject({ status: 'rejected', resolvedBy: s.ta.id, scoreBefore: 0, scoreAfter: 0, comment: null })
     expect(await auditOf(s.course.id, ['dispute'])).toHaveLength(0)
     const resolved = await auditOf(s.course.id, ['dispute-resolved'])
     expect(resolved).toHaveLength(1)
-    expect(resolved[0]).toMatchObject({ actorId: s.ta.id, userId: me.id, before: { status: 'open', score: 0 }, after: { disputeId: r.disputeId, status: 'rejected', score: 0, changed: 0 } })
-    const again = await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.instructor, 'instructor'), decision: 'adjust', newScore: 1, comment: 'Second look.' })
+    expect(resolved[0]).toMatchObject({
+      actorId: s.ta.id,
+      userId: me.id,
+      before: { status: 'open', score: 0 },
+      after: { disputeId: r.disputeId, status: 'rejected', score: 0, changed: 0 },
+    })
+    const again = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(s.instructor, 'instructor'),
+      decision: 'adjust',
+      newScore: 1,
+      comment: 'Second look.',
+    })
     expect(again).toEqual({ ok: false, formError: 'This dispute was already resolved', fieldErrors: {} })
-    const detail = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: r.disputeId, viewer: actor(me, 'student') })
+    const detail = await getDisputeDetail(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      viewer: actor(me, 'student'),
+    })
     expect(detail!.history.map((h) => h.kind)).toEqual(['raised', 'resolved'])
     expect(detail!.history[1]!.text).toMatch(/^Resolved: score kept;/)
     // Resolved, the same answer is not disputed twice.
-    expect(await s.raise(me.id, { reason: 'Please look once more at step 3.' })).toMatchObject({ ok: false, formError: expect.stringMatching(/resolved, so it cannot be disputed again/) })
+    expect(await s.raise(me.id, { reason: 'Please look once more at step 3.' })).toMatchObject({
+      ok: false,
+      formError: expect.stringMatching(/resolved, so it cannot be disputed again/),
+    })
   })
 
   test('adjust sets the find’s score exactly (a higher earlier answer is lowered too), with a comment, an audit row per part, and the gradebook follows at once', async () => {
@@ -296,15 +510,42 @@ describe('resolving', () => {
     const disputed = (await db().select().from(disputes).where(eq(disputes.id, r.disputeId)))[0]!
     expect(disputed.partResultId).toBe(second!.id)
 
-    const noComment = await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.ta, 'ta'), decision: 'adjust', newScore: 1, comment: '  ' })
+    const noComment = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(s.ta, 'ta'),
+      decision: 'adjust',
+      newScore: 1,
+      comment: '  ',
+    })
     expect(noComment).toMatchObject({ ok: false, fieldErrors: { comment: 'Say why the score changes.' } })
-    const tooHigh = await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.ta, 'ta'), decision: 'adjust', newScore: share + 0.01, comment: 'Partial credit.' })
+    const tooHigh = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(s.ta, 'ta'),
+      decision: 'adjust',
+      newScore: share + 0.01,
+      comment: 'Partial credit.',
+    })
     expect(tooHigh).toMatchObject({ ok: false, fieldErrors: { newScore: expect.stringMatching(/between 0 and/) } })
-    const missing = await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.ta, 'ta'), decision: 'adjust', comment: 'Partial credit.' })
+    const missing = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(s.ta, 'ta'),
+      decision: 'adjust',
+      comment: 'Partial credit.',
+    })
     expect(missing).toMatchObject({ ok: false, fieldErrors: { newScore: expect.any(String) } })
     expect(await auditOf(s.course.id, ['dispute', 'dispute-resolved'])).toHaveLength(0)
 
-    const res = await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.ta, 'ta'), decision: 'adjust', newScore: 1, comment: 'Method right, arithmetic slip: partial credit.' })
+    const res = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(s.ta, 'ta'),
+      decision: 'adjust',
+      newScore: 1,
+      comment: 'Method right, arithmetic slip: partial credit.',
+    })
     expect(res).toEqual({ ok: true, changed: 2 })
     const after = await partsOf(s.item.id, me.id, 'wNet')
     expect(after.map((p) => [p.verdict, p.score])).toEqual([
@@ -313,24 +554,49 @@ describe('resolving', () => {
     ])
     const changes = await auditOf(s.course.id, ['dispute'])
     expect(changes.map((c) => [c.partResultId, c.before, c.after, c.note, c.actorId, c.userId])).toEqual([
-      [first!.id, { verdict: 'incorrect', score: share }, { verdict: 'incorrect', score: 1 }, 'Method right, arithmetic slip: partial credit.', s.ta.id, me.id],
-      [second!.id, { verdict: 'incorrect', score: 0 }, { verdict: 'incorrect', score: 1 }, 'Method right, arithmetic slip: partial credit.', s.ta.id, me.id],
+      [
+        first!.id,
+        { verdict: 'incorrect', score: share },
+        { verdict: 'incorrect', score: 1 },
+        'Method right, arithmetic slip: partial credit.',
+        s.ta.id,
+        me.id,
+      ],
+      [
+        second!.id,
+        { verdict: 'incorrect', score: 0 },
+        { verdict: 'incorrect', score: 1 },
+        'Method right, arithmetic slip: partial credit.',
+        s.ta.id,
+        me.id,
+      ],
     ])
     expect(await auditOf(s.course.id, ['dispute-resolved'])).toHaveLength(1)
     const [d] = await db().select().from(disputes).where(eq(disputes.id, r.disputeId))
-    expect(d).toMatchObject({ status: 'adjusted', scoreAfter: 1, comment: 'Method right, arithmetic slip: partial credit.' })
+    expect(d).toMatchObject({
+      status: 'adjusted',
+      scoreAfter: 1,
+      comment: 'Method right, arithmetic slip: partial credit.',
+    })
     expect(d!.scoreBefore).toBeCloseTo(share, 9)
     const scores = await listFindScores(db(), { assignmentIds: [s.assignment.id], userId: me.id })
     expect(scores.find((f) => f.findName === 'wNet')!.score).toBe(1)
     const totals = await listAssignmentTotals(db(), { courseIds: [s.course.id], assignmentIds: [s.assignment.id] })
     expect(totals.find((t) => t.userId === me.id)!.score).toBe(1)
-    const detail = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: r.disputeId, viewer: actor(s.instructor, 'instructor') })
+    const detail = await getDisputeDetail(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      viewer: actor(s.instructor, 'instructor'),
+    })
     expect(detail!.findScore).toBe(1)
     expect(detail!.history.map((h) => h.kind)).toEqual(['raised', 'score-changed', 'score-changed', 'resolved'])
   })
 
   test('accept-for-variant marks the same answer on the same variant correct for everyone who gave it (less each one’s late penalty), and no one else', async () => {
-    const s = await setUp(oneVariantOtto, { students: 4, assignment: { latePolicy: 'penalty', latePenaltyPercentPerDay: 10, lateDaysAllowed: 3 } })
+    const s = await setUp(oneVariantOtto, {
+      students: 4,
+      assignment: { latePolicy: 'penalty', latePenaltyPercentPerDay: 10, lateDaysAllowed: 3 },
+    })
     const [me, twin, lateTwin, other] = s.students
     const key = s.keyOf(me!.id)
     expect(s.keyOf(twin!.id)).toEqual(key)
@@ -342,10 +608,20 @@ describe('resolving', () => {
     await s.answer(other!.id, { wNet: `${key.wNet! * 1000} kJ/kg` })
     const r = await s.raise(me!.id)
     if (!r.ok) throw new Error('not raised')
-    const before = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: r.disputeId, viewer: actor(s.ta, 'ta') })
+    const before = await getDisputeDetail(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      viewer: actor(s.ta, 'ta'),
+    })
     expect(before!.sameAnswerOnVariant).toBe(2)
 
-    const res = await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.instructor, 'instructor'), decision: 'accept-for-variant', comment: '' })
+    const res = await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(s.instructor, 'instructor'),
+      decision: 'accept-for-variant',
+      comment: '',
+    })
     expect(res).toEqual({ ok: true, changed: 3 })
     const share = (await partsOf(s.item.id, me!.id, 'wNet'))[0]!.maxScore
     for (const [who, expected] of [
@@ -373,7 +649,11 @@ describe('resolving', () => {
     const totals = await listAssignmentTotals(db(), { courseIds: [s.course.id], assignmentIds: [s.assignment.id] })
     expect(totals.find((t) => t.userId === twin!.id)!.score).toBeCloseTo(share, 6)
     expect(totals.find((t) => t.userId === other!.id)!.score).toBe(0)
-    const detail = await getDisputeDetail(db(), { courseId: s.course.id, disputeId: r.disputeId, viewer: actor(s.ta, 'ta') })
+    const detail = await getDisputeDetail(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      viewer: actor(s.ta, 'ta'),
+    })
     expect(detail!.history.filter((h) => h.kind === 'score-changed')).toHaveLength(3)
   })
 
@@ -387,8 +667,19 @@ describe('resolving', () => {
     await s.answer(other!.id, { wNet: `${-key.wNet!} kJ/kg` })
     const r = await s.raise(me!.id)
     if (!r.ok) throw new Error('not raised')
-    expect((await getDisputeDetail(db(), { courseId: s.course.id, disputeId: r.disputeId, viewer: actor(s.ta, 'ta') }))!.sameAnswerOnVariant).toBe(0)
-    expect(await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.ta, 'ta'), decision: 'accept-for-variant', comment: 'Sign read the other way is fine here.' })).toEqual({ ok: true, changed: 1 })
+    expect(
+      (await getDisputeDetail(db(), { courseId: s.course.id, disputeId: r.disputeId, viewer: actor(s.ta, 'ta') }))!
+        .sameAnswerOnVariant,
+    ).toBe(0)
+    expect(
+      await resolveDispute(db(), {
+        courseId: s.course.id,
+        disputeId: r.disputeId,
+        actor: actor(s.ta, 'ta'),
+        decision: 'accept-for-variant',
+        comment: 'Sign read the other way is fine here.',
+      }),
+    ).toEqual({ ok: true, changed: 1 })
     expect((await partsOf(s.item.id, other!.id, 'wNet'))[0]).toMatchObject({ verdict: 'incorrect', score: 0 })
   })
 
@@ -418,7 +709,9 @@ describe('resolving', () => {
       }
       expect(mail).not.toBeNull()
       expect(mail!.subject).toMatch(/your dispute on .* problem 1: score kept$/)
-      expect(mail!.text).toContain(`http://cyclewright.test/courses/${s.course.id}/assignments/${s.assignment.id}/problems/1`)
+      expect(mail!.text).toContain(
+        `http://cyclewright.test/courses/${s.course.id}/assignments/${s.assignment.id}/problems/1`,
+      )
       expect(mail!.text).toContain('The sign is wrong for this course.')
       expect(mail!.text).toMatch(/stays at 0 points/)
     } finally {
@@ -434,11 +727,25 @@ describe('the audit log', () => {
     await s.answer(me.id, { wNet: '1 kJ/kg' })
     const r = await s.raise(me.id)
     if (!r.ok) throw new Error('not raised')
-    await resolveDispute(db(), { courseId: s.course.id, disputeId: r.disputeId, actor: actor(s.ta, 'ta'), decision: 'adjust', newScore: 0.5, comment: 'Half credit for the method.' })
+    await resolveDispute(db(), {
+      courseId: s.course.id,
+      disputeId: r.disputeId,
+      actor: actor(s.ta, 'ta'),
+      decision: 'adjust',
+      newScore: 0.5,
+      comment: 'Half credit for the method.',
+    })
     const all = await listAuditLog(db(), { courseId: s.course.id })
     expect(all.total).toBe(3)
     expect(all.rows.map((x) => x.kind)).toEqual(['dispute-resolved', 'dispute', 'dispute-raised'])
-    expect(all.rows[1]).toMatchObject({ actor: 'Tara Assistant', subject: me.name, assignmentTitle: s.assignment.title, before: { verdict: 'incorrect', score: 0 }, after: { verdict: 'incorrect', score: 0.5 }, note: 'Half credit for the method.' })
+    expect(all.rows[1]).toMatchObject({
+      actor: 'Tara Assistant',
+      subject: me.name,
+      assignmentTitle: s.assignment.title,
+      before: { verdict: 'incorrect', score: 0 },
+      after: { verdict: 'incorrect', score: 0.5 },
+      note: 'Half credit for the method.',
+    })
     const onlyChanges = await listAuditLog(db(), { courseId: s.course.id, kind: 'dispute' })
     expect(onlyChanges.total).toBe(1)
     const page = await listAuditLog(db(), { courseId: s.course.id, limit: 1, offset: 1 })
@@ -459,7 +766,8 @@ describe('the dispute window setting', () => {
     const base = newAssignmentForm('UTC', new Date('2027-01-01T00:00:00Z'))
     const form = (extra: Record<string, string>) => {
       const fd = new FormData()
-      for (const [k, v] of Object.entries({ ...base.values, title: 'Disputes window', ...extra })) if (k !== 'disputeDays') fd.set(k, v)
+      for (const [k, v] of Object.entries({ ...base.values, title: 'Disputes window', ...extra }))
+        if (k !== 'disputeDays') fd.set(k, v)
       if (extra.disputeDays !== undefined) fd.set('disputeDays', extra.disputeDays)
       fd.set('items.0.versionId', String(s.item.problemVersionId))
       fd.set('items.0.points', '10')
@@ -471,11 +779,25 @@ describe('the dispute window setting', () => {
     if (!twelve.ok) throw new Error(JSON.stringify(twelve))
     const bad = await saveAssignment(db(), { courseId: s.course.id, user, state: form({ disputeDays: '61' }) })
     expect(bad).toMatchObject({ ok: false, fieldErrors: { disputeDays: expect.stringMatching(/at most 60/) } })
-    const rows = await db().select({ id: assignments.id, disputeDays: assignments.disputeDays }).from(assignments).where(inArray(assignments.id, [plain.assignmentId, twelve.assignmentId]))
-    expect(Object.fromEntries(rows.map((x) => [x.id, x.disputeDays]))).toEqual({ [plain.assignmentId]: 7, [twelve.assignmentId]: 12 })
-    const edited = await updateAssignment(db(), { courseId: s.course.id, assignmentId: twelve.assignmentId, user, state: form({}) })
+    const rows = await db()
+      .select({ id: assignments.id, disputeDays: assignments.disputeDays })
+      .from(assignments)
+      .where(inArray(assignments.id, [plain.assignmentId, twelve.assignmentId]))
+    expect(Object.fromEntries(rows.map((x) => [x.id, x.disputeDays]))).toEqual({
+      [plain.assignmentId]: 7,
+      [twelve.assignmentId]: 12,
+    })
+    const edited = await updateAssignment(db(), {
+      courseId: s.course.id,
+      assignmentId: twelve.assignmentId,
+      user,
+      state: form({}),
+    })
     expect(edited.ok).toBe(true)
-    const [kept] = await db().select({ disputeDays: assignments.disputeDays }).from(assignments).where(eq(assignments.id, twelve.assignmentId))
+    const [kept] = await db()
+      .select({ disputeDays: assignments.disputeDays })
+      .from(assignments)
+      .where(eq(assignments.id, twelve.assignmentId))
     expect(kept!.disputeDays).toBe(12)
   })
 })

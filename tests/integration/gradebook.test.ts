@@ -18,8 +18,20 @@ import { loader as courseGradebookLoader } from '#app/routes/resources/api-cours
 import { loader as statisticsLoader } from '#app/routes/resources/api-assignment-statistics.ts'
 import { loader as answersLoader } from '#app/routes/resources/api-find-answers.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { assignmentItems, assignments, memberships, partResults, submissions, users } from '#app/server/db/schema.server.ts'
-import type { AssignmentGradebook, AssignmentStatistics, CourseGradebook, FindAnswers } from '#app/server/gradebook.server.ts'
+import {
+  assignmentItems,
+  assignments,
+  memberships,
+  partResults,
+  submissions,
+  users,
+} from '#app/server/db/schema.server.ts'
+import type {
+  AssignmentGradebook,
+  AssignmentStatistics,
+  CourseGradebook,
+  FindAnswers,
+} from '#app/server/gradebook.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { addMember, createAssignment, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { args, getRequest, settle } from '#tests/support/requests.ts'
@@ -36,7 +48,12 @@ async function build() {
   const { course, assignment, students, instructor } = made
   const item = made.items[0]!
   await db().update(assignmentItems).set({ points: 7 }).where(eq(assignmentItems.id, item.id))
-  const [s1, s2, s3, s4] = students as [(typeof students)[0], (typeof students)[0], (typeof students)[0], (typeof students)[0]]
+  const [s1, s2, s3, s4] = students as [
+    (typeof students)[0],
+    (typeof students)[0],
+    (typeof students)[0],
+    (typeof students)[0],
+  ]
   await db().update(users).set({ email: 'zed.quiet@test.example' }).where(eq(users.id, s4.id))
   const ta = await createUser(db(), { name: 'Course TA', password: null })
   await addMember(db(), ta.id, course.id, 'ta')
@@ -47,7 +64,15 @@ async function build() {
     userId: number,
     findName: keyof typeof maxOf,
     attempt: number,
-    a: { text: string; verdict: 'correct' | 'incorrect' | null; value?: number; score?: number; pitfallId?: string; daysLate?: number; latePenalty?: number },
+    a: {
+      text: string
+      verdict: 'correct' | 'incorrect' | null
+      value?: number
+      score?: number
+      pitfallId?: string
+      daysLate?: number
+      latePenalty?: number
+    },
   ) {
     const [sub] = await db()
       .insert(submissions)
@@ -85,16 +110,39 @@ async function build() {
   await answer(s1.id, 'wNet', 1, { text: '412 kJ/kg', verdict: 'correct', value: 412, score: 3 })
   await answer(s1.id, 'eta', 1, { text: '0.54', verdict: 'correct', value: 0.54, score: 2 })
   await answer(s1.id, 'eta', 2, { text: '0.6', verdict: 'incorrect', value: 0.6 })
-  await answer(s2.id, 'T2', 1, { text: '600 K', verdict: 'correct', value: 600, score: 1, daysLate: 1, latePenalty: 0.5 })
-  await answer(s2.id, 'wNet', 1, { text: '-412.3 kJ/kg', verdict: 'incorrect', value: -412.3, pitfallId: 'sign-convention-flipped' })
-  await answer(s2.id, 'wNet', 2, { text: '-412.04', verdict: 'incorrect', value: -412.04, pitfallId: 'sign-convention-flipped' })
+  await answer(s2.id, 'T2', 1, {
+    text: '600 K',
+    verdict: 'correct',
+    value: 600,
+    score: 1,
+    daysLate: 1,
+    latePenalty: 0.5,
+  })
+  await answer(s2.id, 'wNet', 1, {
+    text: '-412.3 kJ/kg',
+    verdict: 'incorrect',
+    value: -412.3,
+    pitfallId: 'sign-convention-flipped',
+  })
+  await answer(s2.id, 'wNet', 2, {
+    text: '-412.04',
+    verdict: 'incorrect',
+    value: -412.04,
+    pitfallId: 'sign-convention-flipped',
+  })
   await answer(s3.id, 'T2', 1, { text: '590 K', verdict: null })
 
   // A second assignment with nothing answered yet, for the course totals.
-  const second = await createAssignment(db(), course.id, instructor.id, [{ problemId: item.problemId, versionId: item.problemVersionId, points: 10 }], {
-    title: 'Later work',
-    dueAt: new Date(Date.now() + 14 * 24 * 3600_000),
-  })
+  const second = await createAssignment(
+    db(),
+    course.id,
+    instructor.id,
+    [{ problemId: item.problemId, versionId: item.problemVersionId, points: 10 }],
+    {
+      title: 'Later work',
+      dueAt: new Date(Date.now() + 14 * 24 * 3600_000),
+    },
+  )
   return {
     course,
     assignment,
@@ -103,7 +151,12 @@ async function build() {
     s2,
     s3,
     s4,
-    cookies: { instructor: await sessionCookie(instructor), ta: await sessionCookie(ta), student: await sessionCookie(s1), outsider: await sessionCookie(outsider) },
+    cookies: {
+      instructor: await sessionCookie(instructor),
+      ta: await sessionCookie(ta),
+      student: await sessionCookie(s1),
+      outsider: await sessionCookie(outsider),
+    },
   }
 }
 
@@ -111,14 +164,24 @@ beforeAll(async () => {
   world = await build()
 })
 
-async function getJson<T>(loader: (a: never) => Promise<Response>, path: string, params: Record<string, string>, cookie?: string) {
+async function getJson<T>(
+  loader: (a: never) => Promise<Response>,
+  path: string,
+  params: Record<string, string>,
+  cookie?: string,
+) {
   const out = await settle(loader(args(getRequest(path, cookie ? { Cookie: cookie } : {}), params)))
   const res = ('value' in out ? out.value : out.thrown) as Response
   return { status: res.status, body: (await res.json()) as T }
 }
 
 const gradebook = (query = '', cookie = world.cookies.instructor) =>
-  getJson<AssignmentGradebook>(assignmentGradebookLoader, `/api/assignments/${world.assignment.id}/gradebook${query}`, { assignmentId: String(world.assignment.id) }, cookie)
+  getJson<AssignmentGradebook>(
+    assignmentGradebookLoader,
+    `/api/assignments/${world.assignment.id}/gradebook${query}`,
+    { assignmentId: String(world.assignment.id) },
+    cookie,
+  )
 
 describe('GET /api/assignments/:id/gradebook', () => {
   test('totals are the best score of each find summed, late penalties included; the late flag and pending answers show', async () => {
@@ -147,7 +210,12 @@ describe('GET /api/assignments/:id/gradebook', () => {
       ['eta', 2, 2, true],
     ])
     expect([s1.late, s2.late, s3.late, s4.late]).toEqual([false, true, false, false])
-    expect([s1.status, s2.status, s3.status, s4.status]).toEqual(['finished', 'in-progress', 'being-graded', 'not-started'])
+    expect([s1.status, s2.status, s3.status, s4.status]).toEqual([
+      'finished',
+      'in-progress',
+      'being-graded',
+      'not-started',
+    ])
     expect(s3.pending).toBe(1)
     expect(body.pendingCount).toBe(1)
     expect(body.studentCount).toBe(4)
@@ -183,12 +251,32 @@ describe('GET /api/assignments/:id/gradebook', () => {
     expect(student.status).toBe(403)
     expect(student.body).toEqual({ error: expect.stringContaining('instructors and teaching assistants') })
     expect((await gradebook('', world.cookies.outsider)).status).toBe(403)
-    expect((await getJson(assignmentGradebookLoader, `/api/assignments/${world.assignment.id}/gradebook`, { assignmentId: String(world.assignment.id) })).status).toBe(401)
+    expect(
+      (
+        await getJson(assignmentGradebookLoader, `/api/assignments/${world.assignment.id}/gradebook`, {
+          assignmentId: String(world.assignment.id),
+        })
+      ).status,
+    ).toBe(401)
   })
 
   test('an unknown or malformed assignment id is a JSON 404', async () => {
-    expect((await getJson(assignmentGradebookLoader, '/api/assignments/999999/gradebook', { assignmentId: '999999' }, world.cookies.instructor)).status).toBe(404)
-    const bad = await getJson<{ error: string }>(assignmentGradebookLoader, '/api/assignments/x/gradebook', { assignmentId: 'x' }, world.cookies.instructor)
+    expect(
+      (
+        await getJson(
+          assignmentGradebookLoader,
+          '/api/assignments/999999/gradebook',
+          { assignmentId: '999999' },
+          world.cookies.instructor,
+        )
+      ).status,
+    ).toBe(404)
+    const bad = await getJson<{ error: string }>(
+      assignmentGradebookLoader,
+      '/api/assignments/x/gradebook',
+      { assignmentId: 'x' },
+      world.cookies.instructor,
+    )
     expect(bad.status).toBe(404)
     expect(bad.body.error).toMatch(/no such assignment/)
   })
@@ -196,7 +284,12 @@ describe('GET /api/assignments/:id/gradebook', () => {
 
 describe('GET /api/courses/:id/gradebook', () => {
   const course = (query = '', cookie = world.cookies.instructor) =>
-    getJson<CourseGradebook>(courseGradebookLoader, `/api/courses/${world.course.id}/gradebook${query}`, { courseId: String(world.course.id) }, cookie)
+    getJson<CourseGradebook>(
+      courseGradebookLoader,
+      `/api/courses/${world.course.id}/gradebook${query}`,
+      { courseId: String(world.course.id) },
+      cookie,
+    )
 
   test('students × assignments in due order; while nothing is due yet, every score is kept and no total counts it', async () => {
     const { status, body } = await course()
@@ -221,8 +314,14 @@ describe('GET /api/courses/:id/gradebook', () => {
   })
 
   test('once an assignment’s due date has passed its scores count: the total is out of the counted points only', async () => {
-    const [before] = await db().select({ dueAt: assignments.dueAt }).from(assignments).where(eq(assignments.id, world.assignment.id))
-    await db().update(assignments).set({ dueAt: new Date(Date.now() - 3600_000) }).where(eq(assignments.id, world.assignment.id))
+    const [before] = await db()
+      .select({ dueAt: assignments.dueAt })
+      .from(assignments)
+      .where(eq(assignments.id, world.assignment.id))
+    await db()
+      .update(assignments)
+      .set({ dueAt: new Date(Date.now() - 3600_000) })
+      .where(eq(assignments.id, world.assignment.id))
     try {
       const { body } = await course()
       expect(body.assignments.map((a) => [a.id, a.counted])).toEqual([
@@ -230,7 +329,9 @@ describe('GET /api/courses/:id/gradebook', () => {
         [world.second.id, false],
       ])
       expect(body.points).toBe(7)
-      expect(body.rule).toContain('1 of 2 assignments are past their due date and counted (7 points); the others are shown but not counted')
+      expect(body.rule).toContain(
+        '1 of 2 assignments are past their due date and counted (7 points); the others are shown but not counted',
+      )
       const totals = new Map(body.students.map((s) => [s.userId, [s.total, s.maxScore]]))
       expect([world.s1, world.s2, world.s3, world.s4].map((s) => totals.get(s.id))).toEqual([
         [7, 7],
@@ -260,19 +361,51 @@ describe('names and dropped students', () => {
   test('rows sort by family name, then given name, falling back to the display name; a dropped student is listed apart and in no total', async () => {
     const made = await createCourseWithAssignment(db(), [otto], { students: 5 })
     const [a, b, c, d, e] = made.students
-    const names = async (id: number, familyName: string | null, givenName: string | null, studentNumber: string | null) =>
-      db().update(users).set({ familyName, givenName, studentNumber }).where(eq(users.id, id))
+    const names = async (
+      id: number,
+      familyName: string | null,
+      givenName: string | null,
+      studentNumber: string | null,
+    ) => db().update(users).set({ familyName, givenName, studentNumber }).where(eq(users.id, id))
     await names(a!.id, 'Young', 'Amy', 'N-1')
     await names(b!.id, 'Baker', 'Zed', 'N-2')
     await names(c!.id, 'Baker', 'Al', 'N-3')
     await names(d!.id, null, null, null) // "Student 004": sorted by the display name
     await names(e!.id, 'Aardvark', 'Eve', 'N-5')
-    await db().update(memberships).set({ droppedAt: new Date('2026-11-15T10:00:00Z') }).where(and(eq(memberships.userId, e!.id), eq(memberships.courseId, made.course.id)))
-    const [sub] = await db().insert(submissions).values({ assignmentId: made.assignment.id, itemId: made.items[0]!.id, userId: e!.id, answers: { T2: '1' }, status: 'graded' }).returning({ id: submissions.id })
-    await db().insert(partResults).values({ submissionId: sub!.id, assignmentId: made.assignment.id, itemId: made.items[0]!.id, userId: e!.id, findName: 'T2', answer: '1', attempt: 1, verdict: 'correct', score: 2, maxScore: 2 })
+    await db()
+      .update(memberships)
+      .set({ droppedAt: new Date('2026-11-15T10:00:00Z') })
+      .where(and(eq(memberships.userId, e!.id), eq(memberships.courseId, made.course.id)))
+    const [sub] = await db()
+      .insert(submissions)
+      .values({
+        assignmentId: made.assignment.id,
+        itemId: made.items[0]!.id,
+        userId: e!.id,
+        answers: { T2: '1' },
+        status: 'graded',
+      })
+      .returning({ id: submissions.id })
+    await db().insert(partResults).values({
+      submissionId: sub!.id,
+      assignmentId: made.assignment.id,
+      itemId: made.items[0]!.id,
+      userId: e!.id,
+      findName: 'T2',
+      answer: '1',
+      attempt: 1,
+      verdict: 'correct',
+      score: 2,
+      maxScore: 2,
+    })
     const cookie = await sessionCookie(made.instructor)
 
-    const ag = await getJson<AssignmentGradebook>(assignmentGradebookLoader, `/api/assignments/${made.assignment.id}/gradebook`, { assignmentId: String(made.assignment.id) }, cookie)
+    const ag = await getJson<AssignmentGradebook>(
+      assignmentGradebookLoader,
+      `/api/assignments/${made.assignment.id}/gradebook`,
+      { assignmentId: String(made.assignment.id) },
+      cookie,
+    )
     expect(ag.body.students.map((s) => [s.familyName, s.givenName, s.studentNumber])).toEqual([
       ['Baker', 'Al', 'N-3'],
       ['Baker', 'Zed', 'N-2'],
@@ -280,10 +413,26 @@ describe('names and dropped students', () => {
       ['Young', 'Amy', 'N-1'],
     ])
     expect(ag.body.studentCount).toBe(4)
-    expect(ag.body.dropped.map((x) => [x.userId, x.familyName, x.droppedAt])).toEqual([[e!.id, 'Aardvark', '2026-11-15T10:00:00.000Z']])
-    expect((await getJson<AssignmentGradebook>(assignmentGradebookLoader, `/api/assignments/${made.assignment.id}/gradebook?sort=name&dir=desc`, { assignmentId: String(made.assignment.id) }, cookie)).body.students.map((s) => s.familyName)).toEqual(['Young', 'Student 004', 'Baker', 'Baker'])
+    expect(ag.body.dropped.map((x) => [x.userId, x.familyName, x.droppedAt])).toEqual([
+      [e!.id, 'Aardvark', '2026-11-15T10:00:00.000Z'],
+    ])
+    expect(
+      (
+        await getJson<AssignmentGradebook>(
+          assignmentGradebookLoader,
+          `/api/assignments/${made.assignment.id}/gradebook?sort=name&dir=desc`,
+          { assignmentId: String(made.assignment.id) },
+          cookie,
+        )
+      ).body.students.map((s) => s.familyName),
+    ).toEqual(['Young', 'Student 004', 'Baker', 'Baker'])
 
-    const cg = await getJson<CourseGradebook>(courseGradebookLoader, `/api/courses/${made.course.id}/gradebook`, { courseId: String(made.course.id) }, cookie)
+    const cg = await getJson<CourseGradebook>(
+      courseGradebookLoader,
+      `/api/courses/${made.course.id}/gradebook`,
+      { courseId: String(made.course.id) },
+      cookie,
+    )
     expect(cg.body.students.map((s) => s.userId)).toEqual([c!.id, b!.id, d!.id, a!.id])
     expect(cg.body.dropped.map((x) => x.userId)).toEqual([e!.id])
     expect(cg.body.students.some((s) => s.userId === e!.id)).toBe(false)
@@ -292,7 +441,12 @@ describe('names and dropped students', () => {
 
 describe('GET /api/assignments/:id/problems/:position/answers', () => {
   const answers = (query: string, position = '1', cookie = world.cookies.instructor) =>
-    getJson<FindAnswers & { error?: string }>(answersLoader, `/api/assignments/${world.assignment.id}/problems/${position}/answers${query}`, { assignmentId: String(world.assignment.id), position }, cookie)
+    getJson<FindAnswers & { error?: string }>(
+      answersLoader,
+      `/api/assignments/${world.assignment.id}/problems/${position}/answers${query}`,
+      { assignmentId: String(world.assignment.id), position },
+      cookie,
+    )
 
   test('every answer to the first find by default, as typed, with verdict, pending ones and late ones flagged', async () => {
     const { status, body } = await answers('')
@@ -304,7 +458,11 @@ describe('GET /api/assignments/:id/problems/:position/answers', () => {
       [world.s2.id, 1, '600 K', 'correct', true],
       [world.s3.id, 1, '590 K', null, false],
     ])
-    expect(body.answers[0]!.pitfall).toEqual({ id: 'celsius-for-kelvin', title: 'Celsius used where kelvin is needed', feedback: 'Feedback for celsius-for-kelvin' })
+    expect(body.answers[0]!.pitfall).toEqual({
+      id: 'celsius-for-kelvin',
+      title: 'Celsius used where kelvin is needed',
+      feedback: 'Feedback for celsius-for-kelvin',
+    })
     expect(body.answers[3]!.status).toBe('queued')
   })
 
@@ -326,7 +484,12 @@ describe('GET /api/assignments/:id/problems/:position/answers', () => {
 
 describe('GET /api/assignments/:id/statistics', () => {
   const stats = (cookie = world.cookies.instructor) =>
-    getJson<AssignmentStatistics>(statisticsLoader, `/api/assignments/${world.assignment.id}/statistics`, { assignmentId: String(world.assignment.id) }, cookie)
+    getJson<AssignmentStatistics>(
+      statisticsLoader,
+      `/api/assignments/${world.assignment.id}/statistics`,
+      { assignmentId: String(world.assignment.id) },
+      cookie,
+    )
 
   test('mean and median of scores as a share of the points, over students with a graded answer', async () => {
     const { status, body } = await stats()
@@ -336,7 +499,11 @@ describe('GET /api/assignments/:id/statistics', () => {
     expect(item.summary.count).toBe(2)
     expect(item.summary.mean).toBeCloseTo((1 + 1 / 7) / 2, 9)
     expect(item.summary.median).toBeCloseTo((1 + 1 / 7) / 2, 9)
-    const [t2, wNet, eta] = item.finds as [AssignmentStatistics['items'][0]['finds'][0], AssignmentStatistics['items'][0]['finds'][0], AssignmentStatistics['items'][0]['finds'][0]]
+    const [t2, wNet, eta] = item.finds as [
+      AssignmentStatistics['items'][0]['finds'][0],
+      AssignmentStatistics['items'][0]['finds'][0],
+      AssignmentStatistics['items'][0]['finds'][0],
+    ]
     // T2: S1 2/2 and S2 1/2 (late penalty) → 1 and 0.5.
     expect(t2.summary.mean).toBeCloseTo(0.75, 9)
     expect(t2.summary.median).toBeCloseTo(0.75, 9)
@@ -358,7 +525,12 @@ describe('GET /api/assignments/:id/statistics', () => {
         value: -412,
         count: 2,
         examples: ['-412.3 kJ/kg', '-412.04'],
-        pitfall: { id: 'sign-convention-flipped', title: 'Sign convention flipped', feedback: 'Feedback for sign-convention-flipped', count: 2 },
+        pitfall: {
+          id: 'sign-convention-flipped',
+          title: 'Sign convention flipped',
+          feedback: 'Feedback for sign-convention-flipped',
+          count: 2,
+        },
       },
     ])
     const t2 = body.items[0]!.finds.find((f) => f.name === 'T2')!
@@ -376,7 +548,9 @@ describe('the staff pages', () => {
     const { loader } = await import('#app/routes/courses/assignments/gradebook.tsx')
     const params = { courseId: String(world.course.id), assignmentId: String(world.assignment.id) }
     const path = `/courses/${world.course.id}/assignments/${world.assignment.id}/gradebook?status=late&expand=1`
-    const page = (await loader(args(getRequest(path, { Cookie: world.cookies.ta }), params))) as { gradebook: AssignmentGradebook }
+    const page = (await loader(args(getRequest(path, { Cookie: world.cookies.ta }), params))) as {
+      gradebook: AssignmentGradebook
+    }
     expect(page.gradebook.students.map((s) => s.userId)).toEqual([world.s2.id])
     expect(page.gradebook.view.expand).toBe('1')
     const refused = await settle(loader(args(getRequest(path, { Cookie: world.cookies.student }), params)))
@@ -388,7 +562,16 @@ describe('the staff pages', () => {
     const other = await createCourseWithAssignment(db(), [otto], { students: 1 })
     await addMember(db(), other.instructor.id, world.course.id, 'instructor')
     const params = { courseId: String(world.course.id), assignmentId: String(other.assignment.id), position: '1' }
-    const out = await settle(loader(args(getRequest(`/courses/${world.course.id}/assignments/${other.assignment.id}/problems/1/answers`, { Cookie: await sessionCookie(other.instructor) }), params)))
+    const out = await settle(
+      loader(
+        args(
+          getRequest(`/courses/${world.course.id}/assignments/${other.assignment.id}/problems/1/answers`, {
+            Cookie: await sessionCookie(other.instructor),
+          }),
+          params,
+        ),
+      ),
+    )
     expect('thrown' in out && (out.thrown as { init?: { status?: number } }).init?.status).toBe(404)
   })
 })

@@ -21,14 +21,19 @@ describe('help pages', () => {
   test('the author guide and the bank format render, with anchors and links between them', async () => {
     const { user } = await createBankUser(db())
     const cookie = await sessionCookie(user)
-    const guide = (await loader(args(getRequest('/help/authoring', { Cookie: cookie }), { page: 'authoring' }))) as { title: string; html: string }
+    const guide = (await loader(args(getRequest('/help/authoring', { Cookie: cookie }), { page: 'authoring' }))) as {
+      title: string
+      html: string
+    }
     expect(guide.title).toBe('Writing a problem')
     expect(guide.html).toContain('<h3 id="placeholders">')
     expect(guide.html).toContain('<code>[T1 in °C, 1 dp]</code>')
     expect(guide.html).toContain('href="/help/bank-format#how-the-format-evolves"')
     expect(guide.html).not.toContain('placeholder-error')
     expect(guide.html).not.toContain('katex-error')
-    const format = (await loader(args(getRequest('/help/bank-format', { Cookie: cookie }), { page: 'bank-format' }))) as { title: string; html: string }
+    const format = (await loader(
+      args(getRequest('/help/bank-format', { Cookie: cookie }), { page: 'bank-format' }),
+    )) as { title: string; html: string }
     expect(format.title).toBe('The bank document')
     expect(format.html).toContain('id="how-the-format-evolves"')
     expect(format.html).toContain('href="/help/authoring#placeholders"')
@@ -37,10 +42,14 @@ describe('help pages', () => {
 
   test('an unknown page is a 404; a student is refused', async () => {
     const { user } = await createBankUser(db())
-    const missing = await settle(loader(args(getRequest('/help/nothing', { Cookie: await sessionCookie(user) }), { page: 'nothing' })))
+    const missing = await settle(
+      loader(args(getRequest('/help/nothing', { Cookie: await sessionCookie(user) }), { page: 'nothing' })),
+    )
     expect(statusOf(missing)).toBe(404)
     const student = await createUser(db())
-    const refused = await settle(loader(args(getRequest('/help/authoring', { Cookie: await sessionCookie(student) }), { page: 'authoring' })))
+    const refused = await settle(
+      loader(args(getRequest('/help/authoring', { Cookie: await sessionCookie(student) }), { page: 'authoring' })),
+    )
     expect(statusOf(refused)).toBe(403)
   })
 })

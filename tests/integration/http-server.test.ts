@@ -22,15 +22,31 @@ import { ensureFreshBuild } from '#tests/support/fresh-build.ts'
 type Answer = { status: number; headers: http.IncomingHttpHeaders; body: string; ms: number }
 
 /** One request on its own connection, headers exactly as given (Host included). */
-function send(port: number, opts: { method?: string; path: string; headers?: Record<string, string>; body?: string | Buffer }): Promise<Answer> {
+function send(
+  port: number,
+  opts: { method?: string; path: string; headers?: Record<string, string>; body?: string | Buffer },
+): Promise<Answer> {
   const started = performance.now()
   return new Promise((resolve, reject) => {
-    const req = http.request({ host: '127.0.0.1', port, method: opts.method ?? 'GET', path: opts.path, headers: opts.headers, agent: false, setHost: !opts.headers?.Host }, (res) => {
-      let body = ''
-      res.setEncoding('utf8')
-      res.on('data', (c) => (body += c))
-      res.on('end', () => resolve({ status: res.statusCode!, headers: res.headers, body, ms: performance.now() - started }))
-    })
+    const req = http.request(
+      {
+        host: '127.0.0.1',
+        port,
+        method: opts.method ?? 'GET',
+        path: opts.path,
+        headers: opts.headers,
+        agent: false,
+        setHost: !opts.headers?.Host,
+      },
+      (res) => {
+        let body = ''
+        res.setEncoding('utf8')
+        res.on('data', (c) => (body += c))
+        res.on('end', () =>
+          resolve({ status: res.statusCode!, headers: res.headers, body, ms: performance.now() - started }),
+        )
+      },
+    )
     req.on('error', reject)
     req.end(opts.body)
   })
@@ -41,7 +57,11 @@ function send(port: number, opts: { method?: string; path: string; headers?: Rec
  * connection; never ended. Resolves with the answer's status (or null when the connection
  * was cut first) and how much was written.
  */
-function endlessUpload(port: number, path: string, headers: Record<string, string>): Promise<{ status: number | null; written: number; ms: number }> {
+function endlessUpload(
+  port: number,
+  path: string,
+  headers: Record<string, string>,
+): Promise<{ status: number | null; written: number; ms: number }> {
   const started = performance.now()
   return new Promise((resolve) => {
     let written = 0
@@ -99,7 +119,10 @@ async function failedSignInFrom(server: RunningServer, headers: Record<string, s
     body: new URLSearchParams({ email: user.email, password: 'not the password' }).toString(),
   })
   expect(r.status).toBe(400)
-  const rows = await db().select({ address: signInAttempts.clientAddress }).from(signInAttempts).where(eq(signInAttempts.email, user.email))
+  const rows = await db()
+    .select({ address: signInAttempts.clientAddress })
+    .from(signInAttempts)
+    .where(eq(signInAttempts.email, user.email))
   expect(rows).toHaveLength(1)
   return rows[0]!.address
 }
@@ -120,13 +143,19 @@ async function signIn(server: RunningServer) {
 
 describe('client addresses', () => {
   test('with no proxy (TRUST_PROXY=0) the address is the connection’s; X-Forwarded-For and our own header sent by a client are ignored', async () => {
-    const address = await failedSignInFrom(direct, { 'X-Forwarded-For': '203.0.113.7', 'X-Cyclewright-Client-Address': '198.51.100.1' })
+    const address = await failedSignInFrom(direct, {
+      'X-Forwarded-For': '203.0.113.7',
+      'X-Cyclewright-Client-Address': '198.51.100.1',
+    })
     expect(address).toMatch(/^(::ffff:)?127\.0\.0\.1$/)
   })
 
   test('behind one proxy (TRUST_PROXY=1) the address is the one that proxy appended, not one the client put before it', async () => {
     // The client forged "198.51.100.66"; our proxy appended the address it saw, 203.0.113.9.
-    const address = await failedSignInFrom(proxied, { 'X-Forwarded-For': '198.51.100.66, 203.0.113.9', 'X-Cyclewright-Client-Address': '198.51.100.1' })
+    const address = await failedSignInFrom(proxied, {
+      'X-Forwarded-For': '198.51.100.66, 203.0.113.9',
+      'X-Cyclewright-Client-Address': '198.51.100.1',
+    })
     expect(address).toBe('203.0.113.9')
   })
 })
@@ -147,20 +176,33 @@ describe('a forged Host', () => {
   })
 
   test('cannot make a post from that host look like one from this site', async () => {
-    const r = await send(direct.port, { method: 'POST', path: '/sign-out', headers: { ...FORM, Host: 'evil.example', Origin: 'http://evil.example' }, body: '' })
+    const r = await send(direct.port, {
+      method: 'POST',
+      path: '/sign-out',
+      headers: { ...FORM, Host: 'evil.example', Origin: 'http://evil.example' },
+      body: '',
+    })
     expect(r.status).toBe(403)
   })
 })
 
 describe('request bodies', () => {
   test('a body stated larger than its page accepts is refused at once with 413, unread', async () => {
-    const r = await send(direct.port, { method: 'POST', path: '/sign-in', headers: { ...FORM, Origin: ORIGIN, 'Content-Length': String(300 * 1024 * 1024) } })
+    const r = await send(direct.port, {
+      method: 'POST',
+      path: '/sign-in',
+      headers: { ...FORM, Origin: ORIGIN, 'Content-Length': String(300 * 1024 * 1024) },
+    })
     expect(r.status).toBe(413)
     expect(r.ms).toBeLessThan(2_000)
     expect(r.headers.connection).toBe('close')
     expect(r.body).toMatch(/larger than this page accepts \(1 MB\)/)
     // React Router's data requests get the message as text (its client shows it in the error page).
-    const data = await send(direct.port, { method: 'POST', path: '/sign-in.data', headers: { ...FORM, Origin: ORIGIN, 'Content-Length': String(2 * 1024 * 1024) } })
+    const data = await send(direct.port, {
+      method: 'POST',
+      path: '/sign-in.data',
+      headers: { ...FORM, Origin: ORIGIN, 'Content-Length': String(2 * 1024 * 1024) },
+    })
     expect(data.status).toBe(413)
     expect(data.headers['content-type']).toMatch(/^text\/plain/)
   })
@@ -168,7 +210,11 @@ describe('request bodies', () => {
   test('the dispute upload and the bank import accept their files’ sizes and refuse more', async () => {
     const dispute = '/courses/1/assignments/1/problems/1/dispute'
     const stated = (path: string, bytes: number) =>
-      send(direct.port, { method: 'POST', path, headers: { 'Content-Type': 'multipart/form-data; boundary=x', Origin: ORIGIN, 'Content-Length': String(bytes) } })
+      send(direct.port, {
+        method: 'POST',
+        path,
+        headers: { 'Content-Type': 'multipart/form-data; boundary=x', Origin: ORIGIN, 'Content-Length': String(bytes) },
+      })
     // Within the limit the page itself answers (here: sign in first), without waiting for the body.
     expect((await stated(dispute, 10 * 1024 * 1024)).status).toBe(302)
     const over = await stated(dispute, 11 * 1024 * 1024)
@@ -180,7 +226,9 @@ describe('request bodies', () => {
   })
 
   test('bodies without a length are cut off at the limit, and /healthz answers quickly while six stream', async () => {
-    const uploads = Array.from({ length: 6 }, () => endlessUpload(direct.port, '/sign-in', { ...FORM, Origin: ORIGIN, 'Transfer-Encoding': 'chunked' }))
+    const uploads = Array.from({ length: 6 }, () =>
+      endlessUpload(direct.port, '/sign-in', { ...FORM, Origin: ORIGIN, 'Transfer-Encoding': 'chunked' }),
+    )
     const health: number[] = []
     for (let i = 0; i < 5; i++) {
       const h = await send(direct.port, { path: '/healthz' })
@@ -204,22 +252,47 @@ describe('posts from other sites', () => {
   test('signing out from another site’s page is refused with 403 and the session stays; from our own page it signs out', async () => {
     const { user, cookie } = await signIn(direct)
     const live = async () => (await db().select().from(sessions).where(eq(sessions.userId, user.id))).length
-    for (const headers of [{ Origin: 'http://evil.example' }, { Origin: 'null' }, { Referer: 'http://evil.example/page' }, {}] as Record<string, string>[]) {
-      const r = await send(direct.port, { method: 'POST', path: '/sign-out', headers: { ...FORM, Cookie: cookie, ...headers }, body: '' })
+    for (const headers of [
+      { Origin: 'http://evil.example' },
+      { Origin: 'null' },
+      { Referer: 'http://evil.example/page' },
+      {},
+    ] as Record<string, string>[]) {
+      const r = await send(direct.port, {
+        method: 'POST',
+        path: '/sign-out',
+        headers: { ...FORM, Cookie: cookie, ...headers },
+        body: '',
+      })
       expect(r.status).toBe(403)
       expect(r.body).toMatch(/only accepts forms sent from its own pages/)
     }
     expect(await live()).toBe(1)
-    const ok = await send(direct.port, { method: 'POST', path: '/sign-out', headers: { ...FORM, Cookie: cookie, Referer: `${ORIGIN}/courses` }, body: '' })
+    const ok = await send(direct.port, {
+      method: 'POST',
+      path: '/sign-out',
+      headers: { ...FORM, Cookie: cookie, Referer: `${ORIGIN}/courses` },
+      body: '',
+    })
     expect(ok.status).toBe(302)
     expect(await live()).toBe(0)
   })
 
   test('a preview posted from another site is refused with 403 as JSON', async () => {
-    const r = await send(direct.port, { method: 'POST', path: '/api/preview', headers: { 'Content-Type': 'application/json', Origin: 'https://evil.example' }, body: '{}' })
+    const r = await send(direct.port, {
+      method: 'POST',
+      path: '/api/preview',
+      headers: { 'Content-Type': 'application/json', Origin: 'https://evil.example' },
+      body: '{}',
+    })
     expect(r.status).toBe(403)
     expect(JSON.parse(r.body)).toEqual({ error: expect.stringMatching(/only accepts forms sent from its own pages/) })
-    const same = await send(direct.port, { method: 'POST', path: '/api/preview', headers: { 'Content-Type': 'application/json', Origin: ORIGIN }, body: '{}' })
+    const same = await send(direct.port, {
+      method: 'POST',
+      path: '/api/preview',
+      headers: { 'Content-Type': 'application/json', Origin: ORIGIN },
+      body: '{}',
+    })
     expect(same.status).toBe(401)
   })
 
@@ -232,7 +305,12 @@ describe('posts from other sites', () => {
       body: new URLSearchParams({ email: user.email, password: 'wrong' }).toString(),
     })
     expect(r.status).toBe(403)
-    expect(await db().select().from(signInAttempts).where(and(eq(signInAttempts.email, user.email)))).toHaveLength(0)
+    expect(
+      await db()
+        .select()
+        .from(signInAttempts)
+        .where(and(eq(signInAttempts.email, user.email))),
+    ).toHaveLength(0)
   })
 })
 
@@ -327,7 +405,12 @@ describe('a database outage', () => {
     expect(page.body).toContain('Briefly unavailable')
     expect(page.body).toContain('cannot reach its database just now')
     expect(page.body).not.toMatch(/ECONNREFUSED|at \w+ \(/)
-    const post = await send(port, { method: 'POST', path: '/sign-in', headers: { ...FORM, ...own }, body: 'email=a%40b.example&password=whatever-it-is' })
+    const post = await send(port, {
+      method: 'POST',
+      path: '/sign-in',
+      headers: { ...FORM, ...own },
+      body: 'email=a%40b.example&password=whatever-it-is',
+    })
     expect(post.status).toBe(503)
     expect(post.body).toContain('nothing you sent was saved')
     const data = await send(port, { path: '/join/some-invitation-token.data' })

@@ -64,7 +64,11 @@ describe('invitations', () => {
     const cookie = await cookieOf(instructor.id)
     const email = 'New.Student@Test.Example'
 
-    const sent = await peopleAction(args(formRequest(`/courses/${course.id}/people`, { email, role: 'student' }, { Cookie: cookie }), { courseId: String(course.id) }))
+    const sent = await peopleAction(
+      args(formRequest(`/courses/${course.id}/people`, { email, role: 'student' }, { Cookie: cookie }), {
+        courseId: String(course.id),
+      }),
+    )
     expect(sent).toMatchObject({ ok: true, sentTo: 'New.Student@Test.Example' })
 
     const mail = await mailTo('new.student@test.example')
@@ -75,17 +79,33 @@ describe('invitations', () => {
     const page = await joinLoader(args(getRequest(`/join/${token}`), { token }))
     expect(page.invitation).toMatchObject({ email: 'new.student@test.example', role: 'Student', hasAccount: false })
 
-    const bad = await joinAction(args(formRequest(`/join/${token}`, { name: 'N', password: 'short', confirm: 'other' }), { token }))
+    const bad = await joinAction(
+      args(formRequest(`/join/${token}`, { name: 'N', password: 'short', confirm: 'other' }), { token }),
+    )
     expect((bad as { init: { status: number } }).init.status).toBe(400)
 
-    const done = (await settle(joinAction(args(formRequest(`/join/${token}`, { name: 'Nia Student', password: 'a long enough password', confirm: 'a long enough password' }), { token })))) as { value?: Response; thrown?: Response }
+    const done = (await settle(
+      joinAction(
+        args(
+          formRequest(`/join/${token}`, {
+            name: 'Nia Student',
+            password: 'a long enough password',
+            confirm: 'a long enough password',
+          }),
+          { token },
+        ),
+      ),
+    )) as { value?: Response; thrown?: Response }
     const res = (done.value ?? done.thrown)!
     expect(res.status).toBe(302)
     expect(res.headers.get('Location')).toBe(`/courses/${course.id}`)
     const [u] = await db().select().from(users).where(eq(users.email, 'new.student@test.example'))
     expect(u?.name).toBe('Nia Student')
     expect(await verifyPassword(u!.passwordHash!, 'a long enough password')).toBe(true)
-    const m = await db().select().from(memberships).where(and(eq(memberships.userId, u!.id), eq(memberships.courseId, course.id)))
+    const m = await db()
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.userId, u!.id), eq(memberships.courseId, course.id)))
     expect(m[0]?.role).toBe('student')
 
     const again = await joinLoader(args(getRequest(`/join/${token}`), { token }))
@@ -96,8 +116,20 @@ describe('invitations', () => {
     const course = await createCourse(db())
     const instructor = await createUser(db())
     await addMember(db(), instructor.id, course.id, 'instructor')
-    await peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'late@test.example', role: 'ta' }, { Cookie: await cookieOf(instructor.id) }), { courseId: String(course.id) }))
-    await db().update(accessTokens).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(accessTokens.email, 'late@test.example'))
+    await peopleAction(
+      args(
+        formRequest(
+          `/courses/${course.id}/people`,
+          { email: 'late@test.example', role: 'ta' },
+          { Cookie: await cookieOf(instructor.id) },
+        ),
+        { courseId: String(course.id) },
+      ),
+    )
+    await db()
+      .update(accessTokens)
+      .set({ expiresAt: new Date(Date.now() - 60_000) })
+      .where(eq(accessTokens.email, 'late@test.example'))
     const token = tokenFromMail((await mailTo('late@test.example'))!.text, '/join/')
     expect((await joinLoader(args(getRequest(`/join/${token}`), { token }))).problem).toBe('expired')
   })
@@ -108,10 +140,33 @@ describe('invitations', () => {
     await addMember(db(), ta.id, course.id, 'ta')
     const instructor = await createUser(db())
     await addMember(db(), instructor.id, course.id, 'instructor')
-    const byTa = await settle(peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'x@test.example', role: 'student' }, { Cookie: await cookieOf(ta.id) }), { courseId: String(course.id) })))
+    const byTa = await settle(
+      peopleAction(
+        args(
+          formRequest(
+            `/courses/${course.id}/people`,
+            { email: 'x@test.example', role: 'student' },
+            { Cookie: await cookieOf(ta.id) },
+          ),
+          { courseId: String(course.id) },
+        ),
+      ),
+    )
     expect('thrown' in byTa && (byTa.thrown as { init: { status: number } }).init.status).toBe(403)
-    const junk = await peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'not an address', role: 'wizard' }, { Cookie: await cookieOf(instructor.id) }), { courseId: String(course.id) }))
-    expect((junk as { data: { fieldErrors: Record<string, string> } }).data.fieldErrors).toMatchObject({ email: expect.any(String), role: 'Choose a role.' })
+    const junk = await peopleAction(
+      args(
+        formRequest(
+          `/courses/${course.id}/people`,
+          { email: 'not an address', role: 'wizard' },
+          { Cookie: await cookieOf(instructor.id) },
+        ),
+        { courseId: String(course.id) },
+      ),
+    )
+    expect((junk as { data: { fieldErrors: Record<string, string> } }).data.fieldErrors).toMatchObject({
+      email: expect.any(String),
+      role: 'Choose a role.',
+    })
   })
 
   test('a student of the course is refused the people page actions with 403, a stranger too', async () => {
@@ -120,7 +175,18 @@ describe('invitations', () => {
     await addMember(db(), student.id, course.id, 'student')
     const stranger = await createUser(db())
     for (const who of [student, stranger]) {
-      const r = await settle(peopleAction(args(formRequest(`/courses/${course.id}/people`, { email: 'y@test.example', role: 'student' }, { Cookie: await cookieOf(who.id) }), { courseId: String(course.id) })))
+      const r = await settle(
+        peopleAction(
+          args(
+            formRequest(
+              `/courses/${course.id}/people`,
+              { email: 'y@test.example', role: 'student' },
+              { Cookie: await cookieOf(who.id) },
+            ),
+            { courseId: String(course.id) },
+          ),
+        ),
+      )
       expect('thrown' in r && (r.thrown as { init: { status: number } }).init.status).toBe(403)
     }
   })
@@ -143,8 +209,16 @@ describe('password reset', () => {
     expect(answer).toMatchObject({ sent: true })
     const token = tokenFromMail((await mailTo(user.email))!.text, '/reset-password/')
     expect((await resetLoader(args(getRequest(`/reset-password/${token}`), { token }))).email).toBe(user.email)
-    const r = await settle(resetAction(args(formRequest(`/reset-password/${token}`, { password: 'the new password!', confirm: 'the new password!' }), { token })))
-    expect(('value' in r ? (r.value as Response) : (r.thrown as Response)).headers.get('Location')).toBe('/sign-in?reset=1')
+    const r = await settle(
+      resetAction(
+        args(formRequest(`/reset-password/${token}`, { password: 'the new password!', confirm: 'the new password!' }), {
+          token,
+        }),
+      ),
+    )
+    expect(('value' in r ? (r.value as Response) : (r.thrown as Response)).headers.get('Location')).toBe(
+      '/sign-in?reset=1',
+    )
     const [u] = await db().select().from(users).where(eq(users.id, user.id))
     expect(await verifyPassword(u!.passwordHash!, 'the new password!')).toBe(true)
     expect(await db().select().from(sessions).where(eq(sessions.userId, user.id))).toHaveLength(0)
@@ -194,7 +268,13 @@ describe('password reset', () => {
   test('thirty requests for one address queue three mails, and every answer is the same', async () => {
     const user = await createUser(db())
     const answers = await Promise.all(
-      Array.from({ length: 30 }, (_, i) => forgotAction(args(formRequest('/forgot-password', { email: user.email }, { 'x-cyclewright-client-address': `10.60.0.${i}` })))),
+      Array.from({ length: 30 }, (_, i) =>
+        forgotAction(
+          args(
+            formRequest('/forgot-password', { email: user.email }, { 'x-cyclewright-client-address': `10.60.0.${i}` }),
+          ),
+        ),
+      ),
     )
     for (const a of answers) expect(a).toEqual({ sent: true, fieldErrors: {}, values: {} })
     expect(await queuedMailsTo(user.email)).toBe(3)
@@ -202,20 +282,25 @@ describe('password reset', () => {
 
   test('one client address asking for many addresses is limited too, with the same answer', async () => {
     const client = { 'x-cyclewright-client-address': '10.61.0.1' }
-    for (let i = 0; i < 20; i++) await forgotAction(args(formRequest('/forgot-password', { email: `someone${i}@test.example` }, client)))
+    for (let i = 0; i < 20; i++)
+      await forgotAction(args(formRequest('/forgot-password', { email: `someone${i}@test.example` }, client)))
     const user = await createUser(db())
     const answer = await forgotAction(args(formRequest('/forgot-password', { email: user.email }, client)))
     expect(answer).toEqual({ sent: true, fieldErrors: {}, values: {} })
     expect(await queuedMailsTo(user.email)).toBe(0)
     // From another address the same person gets their link.
-    await forgotAction(args(formRequest('/forgot-password', { email: user.email }, { 'x-cyclewright-client-address': '10.61.0.2' })))
+    await forgotAction(
+      args(formRequest('/forgot-password', { email: user.email }, { 'x-cyclewright-client-address': '10.61.0.2' })),
+    )
     expect(await queuedMailsTo(user.email)).toBe(1)
   })
 
   test('an unknown address gets the same answer and no mail', async () => {
     const answer = await forgotAction(args(formRequest('/forgot-password', { email: 'ghost@test.example' })))
     expect(answer).toMatchObject({ sent: true })
-    const queued = await db().execute(sql`select id from pgboss.job where name = 'send-mail' and data->>'to' = 'ghost@test.example'`)
+    const queued = await db().execute(
+      sql`select id from pgboss.job where name = 'send-mail' and data->>'to' = 'ghost@test.example'`,
+    )
     expect(queued.rows).toHaveLength(0)
     expect(await findLastMailTo(db(), 'ghost@test.example')).toBeNull()
   })

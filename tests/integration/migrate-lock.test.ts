@@ -25,14 +25,18 @@ afterAll(async () => {
   for (const name of made) await dropDatabase(server, name)
 })
 
-const journal = JSON.parse(fs.readFileSync(path.join(migrationsFolder, 'meta', '_journal.json'), 'utf8')) as { entries: unknown[] }
+const journal = JSON.parse(fs.readFileSync(path.join(migrationsFolder, 'meta', '_journal.json'), 'utf8')) as {
+  entries: unknown[]
+}
 
 async function applied(url: string) {
   const client = new pg.Client({ connectionString: url })
   await client.connect()
   try {
     const migrations = await client.query('select count(*)::int as n from drizzle.__drizzle_migrations')
-    const users = await client.query("select count(*)::int as n from information_schema.tables where table_schema = 'public' and table_name = 'users'")
+    const users = await client.query(
+      "select count(*)::int as n from information_schema.tables where table_schema = 'public' and table_name = 'users'",
+    )
     return { migrations: migrations.rows[0].n as number, usersTable: users.rows[0].n as number }
   } finally {
     await client.end()

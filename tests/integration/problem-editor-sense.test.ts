@@ -12,10 +12,27 @@ const otto = (finds: Partial<ProblemDefinition['finds'][number]>): ProblemDefini
   tags: { topics: [], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
   prompt: 'Air enters at @{T1}.',
-  givens: [{ name: 'T1', label: 'intake temperature', unit: 'K', rule: { kind: 'range', min: 290, max: 310, step: 5 } }],
+  givens: [
+    { name: 'T1', label: 'intake temperature', unit: 'K', rule: { kind: 'range', min: 290, max: 310, step: 5 } },
+  ],
   constraints: [],
-  physics: { kind: 'template', template: 'otto', inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', compressionRatio: '8', heatIn: '800 kJ/kg' } },
-  finds: [{ name: 'wnet', label: 'Work done by the air (positive)', source: { kind: 'output', path: 'totals.netWork' }, unit: 'kJ/kg', points: 2, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [], ...finds }],
+  physics: {
+    kind: 'template',
+    template: 'otto',
+    inputs: { gas: 'air', p1: '100 kPa', T1: 'T1', compressionRatio: '8', heatIn: '800 kJ/kg' },
+  },
+  finds: [
+    {
+      name: 'wnet',
+      label: 'Work done by the air (positive)',
+      source: { kind: 'output', path: 'totals.netWork' },
+      unit: 'kJ/kg',
+      points: 2,
+      tolerance: { kind: 'relative', value: 0.01 },
+      pitfalls: [],
+      ...finds,
+    },
+  ],
 })
 
 function form(def: ProblemDefinition): FormData {
@@ -41,9 +58,22 @@ test('a find saved with its sense keeps it; a shared problem with a sense warnin
 
 test('the °C-for-K pitfall ticked where no °C reaches the solver is refused at its field, the typing kept', async () => {
   const saved: SavableProblem[] = []
-  const r = (await runEditorAction(form(otto({ pitfalls: ['celsius-for-kelvin'] })), async (p) => (saved.push(p), 7))) as unknown as { data: { issues: { path: string; message: string }[]; state: { values: Record<string, string> } }; init: { status: number } }
+  const r = (await runEditorAction(
+    form(otto({ pitfalls: ['celsius-for-kelvin'] })),
+    async (p) => (saved.push(p), 7),
+  )) as unknown as {
+    data: { issues: { path: string; message: string }[]; state: { values: Record<string, string> } }
+    init: { status: number }
+  }
   expect(saved).toEqual([])
   expect(r.init.status).toBe(400)
-  expect(r.data.issues).toEqual([{ path: 'finds.0.pitfalls', message: expect.stringMatching(/"celsius-for-kelvin" can never be recognised here: no temperature in °C reaches the solver/) }])
+  expect(r.data.issues).toEqual([
+    {
+      path: 'finds.0.pitfalls',
+      message: expect.stringMatching(
+        /"celsius-for-kelvin" can never be recognised here: no temperature in °C reaches the solver/,
+      ),
+    },
+  ])
   expect(r.data.state.values['finds.0.label']).toBe('Work done by the air (positive)')
 })

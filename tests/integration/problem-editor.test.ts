@@ -26,24 +26,50 @@ function carnot(prompt = 'An engine runs between $T_H =$ [Th] and [Tc].'): Probl
       { name: 'Tc', label: 'cold reservoir', unit: 'K', rule: { kind: 'range', min: 280, max: 320, step: 10 } },
     ],
     constraints: [],
-    physics: { kind: 'template', template: 'carnot-engine', inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: 'Tc', p1: '1000 kPa', expansionRatio: '2' } },
-    finds: [{ name: 'eta', label: 'Efficiency', source: { kind: 'output', path: 'totals.efficiency' }, unit: '', points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] }],
+    physics: {
+      kind: 'template',
+      template: 'carnot-engine',
+      inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: 'Tc', p1: '1000 kPa', expansionRatio: '2' },
+    },
+    finds: [
+      {
+        name: 'eta',
+        label: 'Efficiency',
+        source: { kind: 'output', path: 'totals.efficiency' },
+        unit: '',
+        points: 1,
+        tolerance: { kind: 'relative', value: 0.01 },
+        pitfalls: [],
+      },
+    ],
   }
 }
 
 function editorForm(def: ProblemDefinition, extra: Record<string, string>, cookie: string) {
   const body = new URLSearchParams({ ...formValuesFromDefinition(def), visibility: 'private', ...extra })
-  return new Request(`${BASE}/bank/new`, { method: 'POST', body, headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie } })
+  return new Request(`${BASE}/bank/new`, {
+    method: 'POST',
+    body,
+    headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie },
+  })
 }
 
-type Answer = { data?: unknown; state?: { values: Record<string, string>; rows: Record<string, number> }; issues?: { path: string; message: string }[] }
+type Answer = {
+  data?: unknown
+  state?: { values: Record<string, string>; rows: Record<string, number> }
+  issues?: { path: string; message: string }[]
+}
 
 describe('the editor without JavaScript', () => {
   test('"Remove" on a given sends the form back without it, renumbered, and saves nothing', async () => {
     const { user } = await createBankUser(db())
     const cookie = await sessionCookie(user)
     const before = (await db().select({ n: count() }).from(problems))[0]!.n
-    const r = (await newAction(args(editorForm(carnot(), { intent: removeIntent('givens', 0), 'givens.1.label': 'cold side, as typed' }, cookie)))) as Answer
+    const r = (await newAction(
+      args(
+        editorForm(carnot(), { intent: removeIntent('givens', 0), 'givens.1.label': 'cold side, as typed' }, cookie),
+      ),
+    )) as Answer
     expect(r.state!.values['givens.0.name']).toBe('Tc')
     expect(r.state!.values['givens.0.label']).toBe('cold side, as typed')
     expect(r.state!.values['givens.1.name']).toBeUndefined()
@@ -56,8 +82,16 @@ describe('the editor without JavaScript', () => {
   test('a placeholder naming no given is refused at save, naming it', async () => {
     const { user } = await createBankUser(db())
     const cookie = await sessionCookie(user)
-    const r = (await newAction(args(editorForm(carnot('Between [Th] and [Tx].'), { intent: 'save' }, cookie)))) as { data: Answer; init: { status: number } }
+    const r = (await newAction(args(editorForm(carnot('Between [Th] and [Tx].'), { intent: 'save' }, cookie)))) as {
+      data: Answer
+      init: { status: number }
+    }
     expect(r.init.status).toBe(400)
-    expect(r.data.issues).toEqual([expect.objectContaining({ path: 'prompt', message: expect.stringMatching(/placeholder \[Tx\] names no given \(the givens are Th, Tc\)/) })])
+    expect(r.data.issues).toEqual([
+      expect.objectContaining({
+        path: 'prompt',
+        message: expect.stringMatching(/placeholder \[Tx\] names no given \(the givens are Th, Tc\)/),
+      }),
+    ])
   })
 })

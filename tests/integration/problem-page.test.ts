@@ -11,7 +11,12 @@ import { renderToString } from 'react-dom/server'
 import { createRoutesStub } from 'react-router'
 import { afterAll, describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
-import ProblemRoute, { action, loader, type ProblemPageData, type SubmitActionData } from '#app/routes/courses/assignments/problem.tsx'
+import ProblemRoute, {
+  action,
+  loader,
+  type ProblemPageData,
+  type SubmitActionData,
+} from '#app/routes/courses/assignments/problem.tsx'
 import { loader as mineLoader } from '#app/routes/resources/api-my-results.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { assignments, partResults, submissions } from '#app/server/db/schema.server.ts'
@@ -64,8 +69,19 @@ async function tokenFor(s: Setup, cookie = s.cookie): Promise<string> {
 /** The page's server HTML for `url` (loader and component), as a browser without JavaScript gets it. */
 async function renderProblemPage(s: Setup, url: string): Promise<string> {
   const loaderData = await loader(args(getRequest(url, { Cookie: s.cookie }), s.params))
-  const Stub = createRoutesStub([{ path: '/courses/:courseId/assignments/:assignmentId/problems/:position', Component: ProblemRoute as never, loader: () => loaderData, HydrateFallback: () => null }])
-  const element = createElement(QueryClientProvider, { client: new QueryClient() }, createElement(Stub, { initialEntries: [url], hydrationData: { loaderData: { 0: loaderData } } }))
+  const Stub = createRoutesStub([
+    {
+      path: '/courses/:courseId/assignments/:assignmentId/problems/:position',
+      Component: ProblemRoute as never,
+      loader: () => loaderData,
+      HydrateFallback: () => null,
+    },
+  ])
+  const element = createElement(
+    QueryClientProvider,
+    { client: new QueryClient() },
+    createElement(Stub, { initialEntries: [url], hydrationData: { loaderData: { 0: loaderData } } }),
+  )
   return renderToString(element).replaceAll('<!-- -->', '')
 }
 
@@ -87,13 +103,21 @@ async function storedSubmissions(assignmentId: number) {
 async function mine(s: Setup, cookie: string | null, params = s.mineParams) {
   const result = await settle(mineLoader(args(getRequest(s.minePath, cookie ? { Cookie: cookie } : {}), params)))
   const res = ('value' in result ? result.value : result.thrown) as Response
-  return { status: res.status, cache: res.headers.get('Cache-Control'), body: (await res.json()) as MyResults & { error?: string } }
+  return {
+    status: res.status,
+    cache: res.headers.get('Cache-Control'),
+    body: (await res.json()) as MyResults & { error?: string },
+  }
 }
 
 describe('submitting from the problem page', () => {
   test('good answers redirect to the receipt (post/redirect/get) and store one submission with the text as typed', async () => {
     const s = await setUp()
-    const typed = { 'answer.T2': ` ${s.key.T2!.value} K`, 'answer.wNet': `${s.key.wNet!.value} kJ/kg`, 'answer.eta': '' }
+    const typed = {
+      'answer.T2': ` ${s.key.T2!.value} K`,
+      'answer.wNet': `${s.key.wNet!.value} kJ/kg`,
+      'answer.eta': '',
+    }
     const res = (await post(s, typed)) as Response
     expect(res).toBeInstanceOf(Response)
     expect(res.status).toBe(303)
@@ -101,18 +125,30 @@ describe('submitting from the problem page', () => {
     expect(rows).toHaveLength(1)
     expect(res.headers.get('Location')).toBe(`${s.path}?receipt=${rows[0]!.id}`)
     expect(rows[0]!.answers).toEqual({ T2: typed['answer.T2'], wNet: typed['answer.wNet'], eta: '' })
-    const parts = await db().select({ findName: partResults.findName, attempt: partResults.attempt }).from(partResults).where(eq(partResults.submissionId, rows[0]!.id))
+    const parts = await db()
+      .select({ findName: partResults.findName, attempt: partResults.attempt })
+      .from(partResults)
+      .where(eq(partResults.submissionId, rows[0]!.id))
     expect(parts.map((p) => [p.findName, p.attempt]).sort()).toEqual([
       ['T2', 1],
       ['wNet', 1],
     ])
 
     // The page the redirect lands on: the receipt, the answers back in the form, grading pending.
-    const page = (await loader(args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params))) as ProblemPageData
+    const page = (await loader(
+      args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params),
+    )) as ProblemPageData
     expect(page.staff).toBe(false)
     expect(page.receiptId).toBe(rows[0]!.id)
     expect(page.problem.results.pending).toBe(true)
-    expect(page.problem.results.receipts[0]).toMatchObject({ submissionId: rows[0]!.id, status: 'queued', parts: [{ attempt: 1, of: 3 }, { attempt: 1, of: 3 }] })
+    expect(page.problem.results.receipts[0]).toMatchObject({
+      submissionId: rows[0]!.id,
+      status: 'queued',
+      parts: [
+        { attempt: 1, of: 3 },
+        { attempt: 1, of: 3 },
+      ],
+    })
     expect(page.problem.results.lastTyped.T2).toBe(typed['answer.T2'])
     expect(page.problem.key).toBeNull()
   })
@@ -121,7 +157,12 @@ describe('submitting from the problem page', () => {
     const s = await setUp()
     const result = asData(await post(s, { inPlace: '1', 'answer.T2': `${s.key.T2!.value} K` }))
     expect(result.status).toBe(200)
-    expect(result.data).toMatchObject({ ok: true, formError: null, fieldErrors: {}, receipt: { status: 'queued', parts: [{ findName: 'T2', attempt: 1, of: 3 }] } })
+    expect(result.data).toMatchObject({
+      ok: true,
+      formError: null,
+      fieldErrors: {},
+      receipt: { status: 'queued', parts: [{ findName: 'T2', attempt: 1, of: 3 }] },
+    })
     expect(await storedSubmissions(s.assignment.id)).toHaveLength(1)
   })
 
@@ -138,14 +179,19 @@ describe('submitting from the problem page', () => {
     expect(parts.map((p) => [p.findName, p.attempt])).toEqual([['T2', 1]])
 
     // The GET the redirect leads to: the refusals with why, and everything typed back in the form.
-    const page = (await loader(args(getRequest(res.headers.get('Location')!, { Cookie: s.cookie }), s.params))) as ProblemPageData
+    const page = (await loader(
+      args(getRequest(res.headers.get('Location')!, { Cookie: s.cookie }), s.params),
+    )) as ProblemPageData
     expect(page.receiptId).toBe(rows[0]!.id)
     expect(page.problem.refused?.submissionId).toBe(rows[0]!.id)
     expect(Object.keys(page.problem.refused!.fieldErrors).sort()).toEqual(['eta', 'wNet'])
     expect(page.problem.refused!.fieldErrors.eta).toMatch(/did not use an attempt/)
     expect(page.problem.refused!.fieldErrors.wNet).toMatch(/did not use an attempt/)
     expect(page.problem.results.lastTyped).toEqual({ T2: typed['answer.T2'], wNet: '12 kg', eta: 'about half' })
-    expect(page.problem.results.receipts[0]).toMatchObject({ submissionId: rows[0]!.id, parts: [{ findName: 'T2', attempt: 1 }] })
+    expect(page.problem.results.receipts[0]).toMatchObject({
+      submissionId: rows[0]!.id,
+      parts: [{ findName: 'T2', attempt: 1 }],
+    })
     // Rendered on the server, the way a browser without JavaScript gets it.
     const html = await renderProblemPage(s, res.headers.get('Location')!)
     expect(html).toContain('Some answers were not submitted. They did not use an attempt.')
@@ -155,13 +201,22 @@ describe('submitting from the problem page', () => {
 
     // The refusals belong to that press: once another is stored, its receipt no longer shows them.
     await post(s, { 'answer.wNet': `${s.key.wNet!.value} kJ/kg`, formToken: await tokenFor(s) })
-    const older = (await loader(args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params))) as ProblemPageData
+    const older = (await loader(
+      args(getRequest(`${s.path}?receipt=${rows[0]!.id}`, { Cookie: s.cookie }), s.params),
+    )) as ProblemPageData
     expect(older.problem.refused).toBeNull()
   })
 
   test('with JavaScript (inPlace) a mixed press answers in place with the refusals and the text typed', async () => {
     const s = await setUp()
-    const result = asData(await post(s, { inPlace: '1', formToken: await tokenFor(s), 'answer.T2': `${s.key.T2!.value} K`, 'answer.eta': 'about half' }))
+    const result = asData(
+      await post(s, {
+        inPlace: '1',
+        formToken: await tokenFor(s),
+        'answer.T2': `${s.key.T2!.value} K`,
+        'answer.eta': 'about half',
+      }),
+    )
     expect(result.status).toBe(200)
     expect(result.data.ok).toBe(true)
     expect(result.data.values).toMatchObject({ T2: `${s.key.T2!.value} K`, eta: 'about half' })
@@ -184,7 +239,9 @@ describe('submitting from the problem page', () => {
   })
 
   test('after the due date the answers are refused with 400 and kept in the form', async () => {
-    const s = await setUp({ assignment: { opensAt: new Date(Date.now() - 10 * day), dueAt: new Date(Date.now() - day) } })
+    const s = await setUp({
+      assignment: { opensAt: new Date(Date.now() - 10 * day), dueAt: new Date(Date.now() - day) },
+    })
     const result = asData(await post(s, { 'answer.T2': '500 K' }))
     expect(result.status).toBe(400)
     expect(result.data.formError).toMatch(/due date has passed/)
@@ -205,11 +262,17 @@ describe('submitting from the problem page', () => {
   })
 
   test('a problem that is not open yet tells a student when it opens (nothing of the problem) and is a preview to staff', async () => {
-    const s = await setUp({ assignment: { opensAt: new Date(Date.now() + day), dueAt: new Date(Date.now() + 7 * day) } })
+    const s = await setUp({
+      assignment: { opensAt: new Date(Date.now() + day), dueAt: new Date(Date.now() + 7 * day) },
+    })
     const student = await settle(loader(args(getRequest(s.path, { Cookie: s.cookie }), s.params)))
     expect('value' in student && Object.keys(student.value as object)).toEqual(['notOpen'])
-    expect('value' in student && (student.value as { notOpen: { message: string } }).notOpen.message).toMatch(/ opens .+ Its problems appear here then\.$/)
-    const staff = (await loader(args(getRequest(s.path, { Cookie: await sessionCookie(s.instructor) }), s.params))) as ProblemPageData
+    expect('value' in student && (student.value as { notOpen: { message: string } }).notOpen.message).toMatch(
+      / opens .+ Its problems appear here then\.$/,
+    )
+    const staff = (await loader(
+      args(getRequest(s.path, { Cookie: await sessionCookie(s.instructor) }), s.params),
+    )) as ProblemPageData
     expect(staff.problem.window.state).toBe('not-open')
   })
 
@@ -219,7 +282,9 @@ describe('submitting from the problem page', () => {
     const page = await settle(loader(args(getRequest(s.path.replace(/1$/, '2'), { Cookie: s.cookie }), params)))
     expect('thrown' in page && (page.thrown as { init: { status: number }; data: string }).init.status).toBe(404)
     expect((page as { thrown: { data: string } }).thrown.data).toBe('There is no such problem, or it is not open yet.')
-    const posted = asData(await action(args(formRequest(s.path, { 'answer.T2': '500 K' }, { Cookie: s.cookie }), params)))
+    const posted = asData(
+      await action(args(formRequest(s.path, { 'answer.T2': '500 K' }, { Cookie: s.cookie }), params)),
+    )
     expect(posted.status).toBe(400)
     expect(await storedSubmissions(s.assignment.id)).toHaveLength(0)
     expect((await mine(s, s.cookie, { ...s.mineParams, position: '2' })).status).toBe(404)
@@ -247,7 +312,9 @@ describe('one press, one submission (form tokens)', () => {
     const b = await tokenFor(s)
     expect(a).toMatch(/^[A-Za-z0-9_-]{21}$/)
     expect(b).not.toBe(a)
-    const staff = (await loader(args(getRequest(s.path, { Cookie: await sessionCookie(s.instructor) }), s.params))) as ProblemPageData
+    const staff = (await loader(
+      args(getRequest(s.path, { Cookie: await sessionCookie(s.instructor) }), s.params),
+    )) as ProblemPageData
     expect(staff.formToken).toBeNull()
   })
 
@@ -288,7 +355,9 @@ describe('one press, one submission (form tokens)', () => {
     expect(responses.map((r) => r.status)).toEqual(Array(10).fill(303))
     const rows = await storedSubmissions(s.assignment.id)
     expect(rows).toHaveLength(1)
-    expect(new Set(responses.map((r) => r.headers.get('Location')))).toEqual(new Set([`${s.path}?receipt=${rows[0]!.id}`]))
+    expect(new Set(responses.map((r) => r.headers.get('Location')))).toEqual(
+      new Set([`${s.path}?receipt=${rows[0]!.id}`]),
+    )
     const parts = await db().select().from(partResults).where(eq(partResults.itemId, s.item.id))
     expect(parts.map((p) => [p.findName, p.attempt]).sort()).toEqual([
       ['T2', 1],
@@ -300,7 +369,10 @@ describe('one press, one submission (form tokens)', () => {
     const s = await setUp()
     const formToken = await tokenFor(s)
     const first = (await post(s, { formToken, 'answer.T2': `${s.key.T2!.value} K` })) as Response
-    await db().update(assignments).set({ dueAt: new Date(Date.now() - 1000) }).where(eq(assignments.id, s.assignment.id))
+    await db()
+      .update(assignments)
+      .set({ dueAt: new Date(Date.now() - 1000) })
+      .where(eq(assignments.id, s.assignment.id))
     const again = (await post(s, { formToken, 'answer.T2': `${s.key.T2!.value} K` })) as Response
     expect(again.status).toBe(303)
     expect(again.headers.get('Location')).toBe(first.headers.get('Location'))
@@ -310,13 +382,22 @@ describe('one press, one submission (form tokens)', () => {
   test('a token already used on another problem is refused with a message and the text kept; nothing is stored', async () => {
     const made = await createCourseWithAssignment(db(), [ottoV1, ottoV1], { students: 1 })
     const cookie = await sessionCookie(made.students[0]!)
-    const params = (position: number) => ({ courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: String(position) })
-    const path = (position: number) => `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/${position}`
+    const params = (position: number) => ({
+      courseId: String(made.course.id),
+      assignmentId: String(made.assignment.id),
+      position: String(position),
+    })
+    const path = (position: number) =>
+      `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/${position}`
     const page = await loader(args(getRequest(path(1), { Cookie: cookie }), params(1)))
     const formToken = page.formToken!
-    const one = (await action(args(formRequest(path(1), { formToken, 'answer.T2': '500 K' }, { Cookie: cookie }), params(1)))) as Response
+    const one = (await action(
+      args(formRequest(path(1), { formToken, 'answer.T2': '500 K' }, { Cookie: cookie }), params(1)),
+    )) as Response
     expect(one.status).toBe(303)
-    const two = asData(await action(args(formRequest(path(2), { formToken, 'answer.T2': '600 K' }, { Cookie: cookie }), params(2))))
+    const two = asData(
+      await action(args(formRequest(path(2), { formToken, 'answer.T2': '600 K' }, { Cookie: cookie }), params(2))),
+    )
     expect(two.status).toBe(400)
     expect(two.data.formError).toMatch(/Reload this page/)
     expect(two.data.values.T2).toBe('600 K')
@@ -326,19 +407,21 @@ describe('one press, one submission (form tokens)', () => {
     // press is held uncommitted while problem 1's is sent; problem 1's insert waits on it and,
     // once it commits, is told instead of failing.
     const fresh = (await loader(args(getRequest(path(1), { Cookie: cookie }), params(1)))).formToken!
-    const client = await ((db() as unknown as { $client: pg.Pool }).$client).connect()
+    const client = await (db() as unknown as { $client: pg.Pool }).$client.connect()
     try {
       await client.query('begin')
-      await client.query(`insert into submissions (assignment_id, item_id, user_id, answers, form_token) values ($1, $2, $3, '{}'::jsonb, $4)`, [
-        made.assignment.id,
-        made.items[1]!.id,
-        made.students[0]!.id,
-        fresh,
-      ])
-      const pending = action(args(formRequest(path(1), { formToken: fresh, 'answer.T2': '401 K' }, { Cookie: cookie }), params(1)))
+      await client.query(
+        `insert into submissions (assignment_id, item_id, user_id, answers, form_token) values ($1, $2, $3, '{}'::jsonb, $4)`,
+        [made.assignment.id, made.items[1]!.id, made.students[0]!.id, fresh],
+      )
+      const pending = action(
+        args(formRequest(path(1), { formToken: fresh, 'answer.T2': '401 K' }, { Cookie: cookie }), params(1)),
+      )
       // Until problem 1's insert is waiting on the uncommitted row.
       for (let i = 0; i < 100; i++) {
-        const waiting = await db().execute(sql`select 1 from pg_stat_activity where datname = current_database() and wait_event_type = 'Lock' and query like '%insert into "submissions"%'`)
+        const waiting = await db().execute(
+          sql`select 1 from pg_stat_activity where datname = current_database() and wait_event_type = 'Lock' and query like '%insert into "submissions"%'`,
+        )
         if (waiting.rows.length > 0) break
         if (i === 99) throw new Error('the second press never waited on the first')
         await new Promise((r) => setTimeout(r, 50))
@@ -351,7 +434,9 @@ describe('one press, one submission (form tokens)', () => {
     } finally {
       client.release()
     }
-    expect((await storedSubmissions(made.assignment.id)).filter((r) => r.formToken === fresh).map((r) => r.itemId)).toEqual([made.items[1]!.id])
+    expect(
+      (await storedSubmissions(made.assignment.id)).filter((r) => r.formToken === fresh).map((r) => r.itemId),
+    ).toEqual([made.items[1]!.id])
   })
 
   test('a form without a token (a page from before tokens) or with a malformed one is stored as a fresh press', async () => {
@@ -377,7 +462,10 @@ describe('GET /api/assignments/:a/problems/:p/mine', () => {
     expect(before.status).toBe(200)
     expect(before.cache).toBe('no-store')
     expect(before.body.pending).toBe(true)
-    expect(before.body.finds.find((f) => f.name === 'T2')).toMatchObject({ state: 'grading', last: { verdict: null, attempt: 1 } })
+    expect(before.body.finds.find((f) => f.name === 'T2')).toMatchObject({
+      state: 'grading',
+      last: { verdict: null, attempt: 1 },
+    })
     expect(before.body.receipts[0]).toMatchObject({ submissionId: id, status: 'queued' })
 
     expect(await gradeSubmission(db(), id)).toBe('graded')
@@ -385,7 +473,11 @@ describe('GET /api/assignments/:a/problems/:p/mine', () => {
     expect(after.body.pending).toBe(false)
     const byName = Object.fromEntries(after.body.finds.map((f) => [f.name, f]))
     expect(byName.T2).toMatchObject({ state: 'correct', last: { verdict: 'correct' } })
-    expect(byName.wNet).toMatchObject({ state: 'try-again', attemptsUsed: 1, last: { verdict: 'incorrect', answer: wrongSign } })
+    expect(byName.wNet).toMatchObject({
+      state: 'try-again',
+      attemptsUsed: 1,
+      last: { verdict: 'incorrect', answer: wrongSign },
+    })
     expect(byName.wNet!.last!.pitfallFeedback).toMatch(/sign/)
     expect(after.body.receipts[0]).toMatchObject({ submissionId: id, status: 'graded' })
     expect(after.body.score).toBeGreaterThan(0)
@@ -398,7 +490,10 @@ describe('GET /api/assignments/:a/problems/:p/mine', () => {
     expect(other.status).toBe(200)
     expect(other.body.receipts).toEqual([])
     expect(other.body.pending).toBe(false)
-    const [row] = await db().select({ n: submissions.id }).from(submissions).where(and(eq(submissions.assignmentId, s.assignment.id), eq(submissions.userId, s.student.id)))
+    const [row] = await db()
+      .select({ n: submissions.id })
+      .from(submissions)
+      .where(and(eq(submissions.assignmentId, s.assignment.id), eq(submissions.userId, s.student.id)))
     expect(row).toBeDefined()
   })
 

@@ -30,11 +30,25 @@ function carnot(overrides: Partial<ProblemDefinition> = {}): ProblemDefinition {
     convention: 'course',
     prompt: 'A Carnot engine runs between @{TH} and @{TL}. Find its thermal efficiency.',
     givens: [
-      { name: 'TH', label: 'hot reservoir temperature', unit: 'K', rule: { kind: 'range', min: 600, max: 1200, step: 50 } },
-      { name: 'TL', label: 'cold reservoir temperature', unit: 'K', rule: { kind: 'range', min: 280, max: 350, step: 10 } },
+      {
+        name: 'TH',
+        label: 'hot reservoir temperature',
+        unit: 'K',
+        rule: { kind: 'range', min: 600, max: 1200, step: 50 },
+      },
+      {
+        name: 'TL',
+        label: 'cold reservoir temperature',
+        unit: 'K',
+        rule: { kind: 'range', min: 280, max: 350, step: 10 },
+      },
     ],
     constraints: [],
-    physics: { kind: 'template', template: 'carnot-engine', inputs: { Th: 'TH', Tc: 'TL', p1: '100 kPa', expansionRatio: '3' } },
+    physics: {
+      kind: 'template',
+      template: 'carnot-engine',
+      inputs: { Th: 'TH', Tc: 'TL', p1: '100 kPa', expansionRatio: '3' },
+    },
     finds: [
       {
         name: 'eta',
@@ -63,7 +77,14 @@ describe('versions', () => {
     const { viewer } = await createBankUser(db())
     const { problemId, versionId } = await createProblem(db(), viewer, { definition: carnot(), visibility: 'private' })
     const [row] = await db().select().from(problems).where(eq(problems.id, problemId))
-    expect(row).toMatchObject({ ownerId: viewer.id, departmentId: viewer.departmentId, cycle: 'carnot-engine', topics: ['carnot', 'second law'], difficulty: 'introductory', level: 'first-year' })
+    expect(row).toMatchObject({
+      ownerId: viewer.id,
+      departmentId: viewer.departmentId,
+      cycle: 'carnot-engine',
+      topics: ['carnot', 'second law'],
+      difficulty: 'introductory',
+      level: 'first-year',
+    })
     const detail = await getProblemDetail(db(), viewer, problemId)
     expect(detail?.latest).toMatchObject({ id: versionId, number: 1, frozenAt: null, createdByName: 'Bank Instructor' })
     expect(detail?.latest.definition).toEqual(carnot())
@@ -74,7 +95,10 @@ describe('versions', () => {
   test('saving an unfrozen version changes it in place', async () => {
     const { viewer } = await createBankUser(db())
     const { problemId, versionId } = await createProblem(db(), viewer, { definition: carnot(), visibility: 'private' })
-    const saved = await saveProblem(db(), viewer, problemId, { definition: carnot({ title: 'Carnot engine: efficiency' }), visibility: 'installation' })
+    const saved = await saveProblem(db(), viewer, problemId, {
+      definition: carnot({ title: 'Carnot engine: efficiency' }),
+      visibility: 'installation',
+    })
     expect(saved).toEqual({ versionId, versionNumber: 1, newVersion: false })
     expect(await versionCount(problemId)).toBe(1)
     const detail = await getProblemDetail(db(), viewer, problemId)
@@ -86,10 +110,16 @@ describe('versions', () => {
     const { viewer } = await createBankUser(db())
     const { problemId, versionId } = await createProblem(db(), viewer, { definition: carnot(), visibility: 'private' })
     await freezeProblemVersion(db(), versionId)
-    const [first] = await db().select({ frozenAt: problemVersions.frozenAt }).from(problemVersions).where(eq(problemVersions.id, versionId))
+    const [first] = await db()
+      .select({ frozenAt: problemVersions.frozenAt })
+      .from(problemVersions)
+      .where(eq(problemVersions.id, versionId))
     expect(first?.frozenAt).toBeInstanceOf(Date)
     await freezeProblemVersion(db(), versionId)
-    const [again] = await db().select({ frozenAt: problemVersions.frozenAt }).from(problemVersions).where(eq(problemVersions.id, versionId))
+    const [again] = await db()
+      .select({ frozenAt: problemVersions.frozenAt })
+      .from(problemVersions)
+      .where(eq(problemVersions.id, versionId))
     expect(again?.frozenAt).toEqual(first?.frozenAt)
 
     const harder = carnot({ tags: { topics: ['carnot'], difficulty: 'standard', level: 'second-year' } })
@@ -102,7 +132,10 @@ describe('versions', () => {
     expect(detail?.versions.map((v) => v.number)).toEqual([2, 1])
     expect(detail?.versions[1]?.definition).toEqual(carnot())
     expect(detail?.latest.definition).toEqual(harder)
-    const [row] = await db().select({ difficulty: problems.difficulty, level: problems.level }).from(problems).where(eq(problems.id, problemId))
+    const [row] = await db()
+      .select({ difficulty: problems.difficulty, level: problems.level })
+      .from(problems)
+      .where(eq(problems.id, problemId))
     expect(row).toEqual({ difficulty: 'standard', level: 'second-year' })
 
     // Version 2 is not frozen: the next save stays on it.
@@ -121,7 +154,9 @@ describe('versions', () => {
     await blocker.query('begin')
     await blocker.query('lock table problem_versions in share row exclusive mode')
     const saving = Promise.allSettled(
-      Array.from({ length: 6 }, (_, i) => saveProblem(db(), viewer, problemId, { definition: carnot({ title: `Save ${i}` }), visibility: 'private' })),
+      Array.from({ length: 6 }, (_, i) =>
+        saveProblem(db(), viewer, problemId, { definition: carnot({ title: `Save ${i}` }), visibility: 'private' }),
+      ),
     )
     await new Promise((resolve) => setTimeout(resolve, 500))
     await blocker.query('commit')
@@ -151,7 +186,9 @@ describe('versions', () => {
   test('an invalid definition is refused before anything is written', async () => {
     const { viewer } = await createBankUser(db())
     const before = await db().select({ n: count() }).from(problems)
-    await expect(createProblem(db(), viewer, { definition: carnot({ title: 'x' }), visibility: 'private' })).rejects.toThrow(/title/)
+    await expect(
+      createProblem(db(), viewer, { definition: carnot({ title: 'x' }), visibility: 'private' }),
+    ).rejects.toThrow(/title/)
     expect(await db().select({ n: count() }).from(problems)).toEqual(before)
   })
 })
@@ -167,8 +204,14 @@ describe('visibility and the bank list', () => {
     const admin = (await createBankUser(db(), { isAdmin: true, departmentId: other.id })).viewer
     const tag = word()
     const make = (visibility: 'private' | 'department' | 'installation') =>
-      createProblem(db(), owner, { definition: carnot({ title: `${visibility} ${tag}` }), visibility }).then((r) => r.problemId)
-    const ids = { private: await make('private'), department: await make('department'), installation: await make('installation') }
+      createProblem(db(), owner, { definition: carnot({ title: `${visibility} ${tag}` }), visibility }).then(
+        (r) => r.problemId,
+      )
+    const ids = {
+      private: await make('private'),
+      department: await make('department'),
+      installation: await make('installation'),
+    }
     return { owner, sameDept, otherDept, noDept, admin, tag, ids }
   }
 
@@ -196,7 +239,10 @@ describe('visibility and the bank list', () => {
     const s = await setting()
     const detail = await getProblemDetail(db(), s.owner, s.ids.private)
     const versionId = detail!.latest.id
-    expect(await getVersionForViewer(db(), s.owner, versionId)).toMatchObject({ problemId: s.ids.private, version: { number: 1 } })
+    expect(await getVersionForViewer(db(), s.owner, versionId)).toMatchObject({
+      problemId: s.ids.private,
+      version: { number: 1 },
+    })
     expect(await getVersionForViewer(db(), s.sameDept, versionId)).toBeNull()
     expect(await getVersionForViewer(db(), s.owner, 987_654)).toBeNull()
   })
@@ -205,7 +251,11 @@ describe('visibility and the bank list', () => {
     const s = await setting()
     const mine = await listBankProblems(db(), s.owner, query({ q: s.tag, scope: 'mine' }))
     expect(mine.rows).toHaveLength(3)
-    expect(mine.rows.every((r) => r.isOwn && r.ownerName === 'Owner' && r.latestVersionNumber === 1 && r.originProblemId === null)).toBe(true)
+    expect(
+      mine.rows.every(
+        (r) => r.isOwn && r.ownerName === 'Owner' && r.latestVersionNumber === 1 && r.originProblemId === null,
+      ),
+    ).toBe(true)
     expect(mine.rows[0]?.updatedAt).toMatch(/^\d{4}-\d\d-\d\dT/)
     const shared = await listBankProblems(db(), s.sameDept, query({ q: s.tag, scope: 'shared' }))
     expect(shared.rows.map((r) => r.visibility).sort()).toEqual(['department', 'installation'])
@@ -219,12 +269,19 @@ describe('visibility and the bank list', () => {
     const otto: ProblemDefinition = carnot({
       title: `Spark engine ${tag}`,
       tags: { topics: ['air standard', `topic${tag}`], difficulty: 'standard', level: 'second-year' },
-      physics: { kind: 'template', template: 'otto', inputs: { p1: '100 kPa', T1: '300 K', compressionRatio: '8', T3: '1800 K' } },
+      physics: {
+        kind: 'template',
+        template: 'otto',
+        inputs: { p1: '100 kPa', T1: '300 K', compressionRatio: '8', T3: '1800 K' },
+      },
       givens: [],
     })
     const a = (await createProblem(db(), viewer, { definition: otto, visibility: 'private' })).problemId
-    const b = (await createProblem(db(), viewer, { definition: carnot({ title: `Carnot 100% ${tag}` }), visibility: 'private' })).problemId
-    const ids = async (q: string) => (await listBankProblems(db(), viewer, query({ q, scope: 'mine' }))).rows.map((r) => r.id).sort()
+    const b = (
+      await createProblem(db(), viewer, { definition: carnot({ title: `Carnot 100% ${tag}` }), visibility: 'private' })
+    ).problemId
+    const ids = async (q: string) =>
+      (await listBankProblems(db(), viewer, query({ q, scope: 'mine' }))).rows.map((r) => r.id).sort()
     expect(await ids(`SPARK ${tag}`)).toEqual([a])
     expect(await ids(`TOPIC${tag.toUpperCase()}`)).toEqual([a])
     expect(await ids(`otto ${tag}`)).toEqual([a])
@@ -244,13 +301,21 @@ describe('visibility and the bank list', () => {
       const difficulty = difficulties[i % 3]!
       const level = levels[i % 2]!
       const title = `${String.fromCharCode(76 - i)} item ${tag}`
-      const { problemId } = await createProblem(db(), viewer, { definition: carnot({ title, tags: { topics: [], difficulty, level } }), visibility: 'private' })
+      const { problemId } = await createProblem(db(), viewer, {
+        definition: carnot({ title, tags: { topics: [], difficulty, level } }),
+        visibility: 'private',
+      })
       made.push({ id: problemId, title, difficulty, level })
     }
     const list = (p: Record<string, string>) => listBankProblems(db(), viewer, query({ q: tag, ...p }))
 
     const graduate = await list({ level: 'graduate', difficulty: 'standard' })
-    expect(graduate.rows.map((r) => r.id).sort()).toEqual(made.filter((m) => m.level === 'graduate' && m.difficulty === 'standard').map((m) => m.id).sort())
+    expect(graduate.rows.map((r) => r.id).sort()).toEqual(
+      made
+        .filter((m) => m.level === 'graduate' && m.difficulty === 'standard')
+        .map((m) => m.id)
+        .sort(),
+    )
 
     const byTitle = await list({ sort: 'title', pageSize: '50' })
     expect(byTitle.rows.map((r) => r.title)).toEqual(made.map((m) => m.title).sort())
@@ -258,12 +323,17 @@ describe('visibility and the bank list', () => {
     // introductory < standard < challenging, not the alphabet; ties by title.
     const byDifficulty = await list({ sort: 'difficulty', dir: 'asc', pageSize: '50' })
     const rank = { introductory: 0, standard: 1, challenging: 2 } as Record<string, number>
-    const expected = [...made].sort((x, y) => rank[x.difficulty]! - rank[y.difficulty]! || x.title.localeCompare(y.title)).map((m) => m.id)
+    const expected = [...made]
+      .sort((x, y) => rank[x.difficulty]! - rank[y.difficulty]! || x.title.localeCompare(y.title))
+      .map((m) => m.id)
     expect(byDifficulty.rows.map((r) => r.id)).toEqual(expected)
 
     // Created one after another in one second or less: equal timestamps are possible, and the
     // id tie-break keeps pages from repeating or skipping rows.
-    await db().update(problems).set({ updatedAt: new Date('2026-11-30T12:00:00Z') }).where(eq(problems.ownerId, viewer.id))
+    await db()
+      .update(problems)
+      .set({ updatedAt: new Date('2026-11-30T12:00:00Z') })
+      .where(eq(problems.ownerId, viewer.id))
     const pages = [await list({ pageSize: '10', page: '1' }), await list({ pageSize: '10', page: '2' })]
     expect(pages.map((p) => p.total)).toEqual([12, 12])
     expect(pages.map((p) => p.rows.length)).toEqual([10, 2])
@@ -275,7 +345,19 @@ describe('visibility and the bank list', () => {
   })
 
   test('junk in the URL falls back to the defaults', () => {
-    expect(query({ q: '  otto  ', scope: 'everyone', sort: 'price', dir: 'up', page: '-3', pageSize: '1000', difficulty: 'hard', level: '', cycle: 'DROP TABLE' })).toEqual({
+    expect(
+      query({
+        q: '  otto  ',
+        scope: 'everyone',
+        sort: 'price',
+        dir: 'up',
+        page: '-3',
+        pageSize: '1000',
+        difficulty: 'hard',
+        level: '',
+        cycle: 'DROP TABLE',
+      }),
+    ).toEqual({
       q: 'otto',
       scope: 'all',
       sort: 'updated',
@@ -301,16 +383,30 @@ describe('copies', () => {
   test('a copy is private to the copier, version 1 of the latest definition, and remembers its origin', async () => {
     const { viewer: author } = await createBankUser(db(), { name: 'Original Author' })
     const { viewer: copier } = await createBankUser(db())
-    const { problemId, versionId } = await createProblem(db(), author, { definition: carnot(), visibility: 'installation' })
+    const { problemId, versionId } = await createProblem(db(), author, {
+      definition: carnot(),
+      visibility: 'installation',
+    })
     await freezeProblemVersion(db(), versionId)
-    const v2 = await saveProblem(db(), author, problemId, { definition: carnot({ title: 'Carnot engine, second take' }), visibility: 'installation' })
+    const v2 = await saveProblem(db(), author, problemId, {
+      definition: carnot({ title: 'Carnot engine, second take' }),
+      visibility: 'installation',
+    })
 
     const copy = await copyProblem(db(), copier, problemId)
     const detail = await getProblemDetail(db(), copier, copy.problemId)
-    expect(detail).toMatchObject({ ownerId: copier.id, visibility: 'private', canEdit: true, origin: { problemId, title: 'Carnot engine, second take', versionNumber: 2 } })
+    expect(detail).toMatchObject({
+      ownerId: copier.id,
+      visibility: 'private',
+      canEdit: true,
+      origin: { problemId, title: 'Carnot engine, second take', versionNumber: 2 },
+    })
     expect(detail?.versions).toHaveLength(1)
     expect(detail?.latest.definition).toEqual(carnot({ title: 'Carnot engine, second take' }))
-    const [row] = await db().select({ originProblemId: problems.originProblemId, originVersionId: problems.originVersionId }).from(problems).where(eq(problems.id, copy.problemId))
+    const [row] = await db()
+      .select({ originProblemId: problems.originProblemId, originVersionId: problems.originVersionId })
+      .from(problems)
+      .where(eq(problems.id, copy.problemId))
     expect(row).toEqual({ originProblemId: problemId, originVersionId: v2.versionId })
     expect(await getProblemDetail(db(), author, copy.problemId)).toBeNull()
   })
@@ -328,7 +424,10 @@ describe('export and import', () => {
     const { viewer: author } = await createBankUser(db(), { name: 'Exporting Author' })
     const { viewer: importer } = await createBankUser(db())
     const first = carnot()
-    const second = carnot({ title: 'Carnot engine with a given difference', constraints: [{ left: 'TH - TL', op: '>=', right: '200 K' }] })
+    const second = carnot({
+      title: 'Carnot engine with a given difference',
+      constraints: [{ left: 'TH - TL', op: '>=', right: '200 K' }],
+    })
     const a = (await createProblem(db(), author, { definition: first, visibility: 'installation' })).problemId
     const b = (await createProblem(db(), author, { definition: second, visibility: 'department' })).problemId
 
@@ -364,7 +463,10 @@ describe('export and import', () => {
 
   test('an import with one invalid problem writes nothing and names the problem and field', async () => {
     const { viewer } = await createBankUser(db())
-    const counts = async () => [(await db().select({ n: count() }).from(problems))[0]!.n, (await db().select({ n: count() }).from(problemVersions))[0]!.n]
+    const counts = async () => [
+      (await db().select({ n: count() }).from(problems))[0]!.n,
+      (await db().select({ n: count() }).from(problemVersions))[0]!.n,
+    ]
     const before = await counts()
     const broken = carnot({ title: 'Otto cycle efficiency' }) as unknown as { finds: { tolerance: unknown }[] }
     broken.finds[0]!.tolerance = { kind: 'relative', value: 5 }
@@ -378,7 +480,16 @@ describe('export and import', () => {
         { title: 'Otto cycle efficiency', definition: broken },
       ],
     })
-    expect(result).toEqual({ ok: false, errors: [{ problem: 'Problem 3 (Otto cycle efficiency)', field: 'definition.finds.0.tolerance.value', message: expect.stringMatching(/at most 1/) }] })
+    expect(result).toEqual({
+      ok: false,
+      errors: [
+        {
+          problem: 'Problem 3 (Otto cycle efficiency)',
+          field: 'definition.finds.0.tolerance.value',
+          message: expect.stringMatching(/at most 1/),
+        },
+      ],
+    })
     expect(await counts()).toEqual(before)
   })
 
@@ -387,7 +498,12 @@ describe('export and import', () => {
     // before it in the same import must be gone too.
     const ghost: BankViewer = { id: 987_654, isAdmin: false, departmentId: null }
     const before = (await db().select({ n: count() }).from(problems))[0]!.n
-    const doc = { format: 'cyclewright-bank', version: 1, exportedAt: '2026-12-02T10:00:00Z', problems: [{ title: 'a', definition: carnot() }] }
+    const doc = {
+      format: 'cyclewright-bank',
+      version: 1,
+      exportedAt: '2026-12-02T10:00:00Z',
+      problems: [{ title: 'a', definition: carnot() }],
+    }
     await expect(importBank(db(), ghost, doc)).rejects.toThrow()
     expect((await db().select({ n: count() }).from(problems))[0]!.n).toBe(before)
   })

@@ -35,7 +35,17 @@ function carnot(prompt: string, format: number = DEFINITION_FORMAT): ProblemDefi
       template: 'carnot-engine',
       inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: '300 K', p1: '@{p1}', expansionRatio: '2' },
     },
-    finds: [{ name: 'eta', label: 'Efficiency', source: { kind: 'output', path: 'totals.efficiency' }, unit: '', points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] }],
+    finds: [
+      {
+        name: 'eta',
+        label: 'Efficiency',
+        source: { kind: 'output', path: 'totals.efficiency' },
+        unit: '',
+        points: 1,
+        tolerance: { kind: 'relative', value: 0.01 },
+        pitfalls: [],
+      },
+    ],
   } as unknown as ProblemDefinition
 }
 
@@ -58,18 +68,30 @@ describe('the migration of stored prompts', () => {
     const a = await createBankUser(db())
     const ids: number[] = []
     for (const [i, prompt] of OLD_PROMPTS.entries()) {
-      const made = await createProblem(db(), a.viewer, { definition: carnot(`Placeholder-free at first ${i}.`), visibility: 'private' })
+      const made = await createProblem(db(), a.viewer, {
+        definition: carnot(`Placeholder-free at first ${i}.`),
+        visibility: 'private',
+      })
       if (i % 2 === 0) await freezeProblemVersion(db(), made.versionId)
       // Written the way a release before format 2 stored it.
-      await db().update(problemVersions).set({ definition: carnot(prompt, 1) }).where(eq(problemVersions.id, made.versionId))
+      await db()
+        .update(problemVersions)
+        .set({ definition: carnot(prompt, 1) })
+        .where(eq(problemVersions.id, made.versionId))
       ids.push(made.versionId)
     }
-    const current = await createProblem(db(), a.viewer, { definition: carnot('Already new: [Th] and \\[note] and @{p1}.'), visibility: 'private' })
+    const current = await createProblem(db(), a.viewer, {
+      definition: carnot('Already new: [Th] and \\[note] and @{p1}.'),
+      visibility: 'private',
+    })
 
     await runMigration()
 
     for (const [i, id] of ids.entries()) {
-      const [row] = await db().select({ definition: problemVersions.definition, frozenAt: problemVersions.frozenAt }).from(problemVersions).where(eq(problemVersions.id, id))
+      const [row] = await db()
+        .select({ definition: problemVersions.definition, frozenAt: problemVersions.frozenAt })
+        .from(problemVersions)
+        .where(eq(problemVersions.id, id))
       const def = row!.definition as ProblemDefinition
       expect(def.prompt, OLD_PROMPTS[i]).toBe(upgradeLegacyPrompt(OLD_PROMPTS[i]!))
       expect(def).toEqual(upgradeDefinition(carnot(OLD_PROMPTS[i]!, 1)))
@@ -79,10 +101,15 @@ describe('the migration of stored prompts', () => {
       expect(rest).toEqual(oldRest)
       expect(row!.frozenAt !== null).toBe(i % 2 === 0)
     }
-    expect((await db().select().from(problemVersions).where(eq(problemVersions.id, ids[0]!)))[0]!.definition).toMatchObject({
+    expect(
+      (await db().select().from(problemVersions).where(eq(problemVersions.id, ids[0]!)))[0]!.definition,
+    ).toMatchObject({
       prompt: 'An engine runs between $T_H =$ [Th] and 300 K, starting at [p1 in bar, 2 dp].',
     })
-    const [untouched] = await db().select({ definition: problemVersions.definition }).from(problemVersions).where(eq(problemVersions.id, current.versionId))
+    const [untouched] = await db()
+      .select({ definition: problemVersions.definition })
+      .from(problemVersions)
+      .where(eq(problemVersions.id, current.versionId))
     expect((untouched!.definition as ProblemDefinition).prompt).toBe('Already new: [Th] and \\[note] and @{p1}.')
 
     // Twice changes nothing.
@@ -99,7 +126,12 @@ describe('importing bank documents', () => {
       format: 'cyclewright-bank',
       version: 1,
       exportedAt: '2026-11-30T10:00:00.000Z',
-      problems: [{ title: 'Carnot drill', definition: carnot('Between @{Th} and 300 K; write @@{ for a brace, [see notes].', 1) }],
+      problems: [
+        {
+          title: 'Carnot drill',
+          definition: carnot('Between @{Th} and 300 K; write @@{ for a brace, [see notes].', 1),
+        },
+      ],
     }
     const oldResult = await importBank(db(), a.viewer, old)
     expect(oldResult).toMatchObject({ ok: true })
@@ -114,11 +146,18 @@ describe('importing bank documents', () => {
     if (!oldResult.ok || !newResult.ok) return
 
     const prompts = async (id: number) => {
-      const rows = await db().select({ definition: problemVersions.definition }).from(problemVersions).where(eq(problemVersions.problemId, id))
+      const rows = await db()
+        .select({ definition: problemVersions.definition })
+        .from(problemVersions)
+        .where(eq(problemVersions.problemId, id))
       return rows.map((r) => r.definition as ProblemDefinition)
     }
-    expect(await prompts(oldResult.problemIds[0]!)).toEqual([expect.objectContaining({ format: 2, prompt: 'Between [Th] and 300 K; write @{ for a brace, \\[see notes].' })])
-    expect(await prompts(newResult.problemIds[0]!)).toEqual([expect.objectContaining({ format: 2, prompt: 'Between [Th in °C, 0 dp] and 300 K.' })])
+    expect(await prompts(oldResult.problemIds[0]!)).toEqual([
+      expect.objectContaining({ format: 2, prompt: 'Between [Th] and 300 K; write @{ for a brace, \\[see notes].' }),
+    ])
+    expect(await prompts(newResult.problemIds[0]!)).toEqual([
+      expect.objectContaining({ format: 2, prompt: 'Between [Th in °C, 0 dp] and 300 K.' }),
+    ])
 
     const exported = await exportBank(db(), a.viewer, 'own')
     expect(exported.version).toBe(BANK_FORMAT_VERSION)
@@ -129,7 +168,12 @@ describe('importing bank documents', () => {
 
   test('a document from a newer release is refused with a clear message', async () => {
     const a = await createBankUser(db())
-    const r = await importBank(db(), a.viewer, { format: 'cyclewright-bank', version: BANK_FORMAT_VERSION + 1, exportedAt: '2026-12-03T10:00:00.000Z', problems: [] })
+    const r = await importBank(db(), a.viewer, {
+      format: 'cyclewright-bank',
+      version: BANK_FORMAT_VERSION + 1,
+      exportedAt: '2026-12-03T10:00:00.000Z',
+      problems: [],
+    })
     expect(r).toMatchObject({ ok: false, errors: [{ message: expect.stringMatching(/newer Cyclewright/) }] })
   })
 })

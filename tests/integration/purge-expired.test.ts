@@ -30,7 +30,13 @@ describe('purge-expired', () => {
       .values([
         { email: 'purge@test.example', clientAddress: '10.90.0.1', succeeded: false, kind: 'sign-in', createdAt: old },
         { email: 'purge@test.example', clientAddress: '10.90.0.1', succeeded: true, kind: 'reset', createdAt: old },
-        { email: 'purge@test.example', clientAddress: '10.90.0.1', succeeded: false, kind: 'sign-in', createdAt: recent },
+        {
+          email: 'purge@test.example',
+          clientAddress: '10.90.0.1',
+          succeeded: false,
+          kind: 'sign-in',
+          createdAt: recent,
+        },
         { email: 'purge@test.example', clientAddress: '10.90.0.1', succeeded: true, kind: 'reset', createdAt: recent },
       ])
       .returning({ id: signInAttempts.id, createdAt: signInAttempts.createdAt })
@@ -38,7 +44,15 @@ describe('purge-expired', () => {
     expect(await handlePurgeExpired({ v: 1 }, { database: db(), now })).toEqual({ sessions: 2, attempts: 2 })
     const left = await db().select({ id: sessions.id }).from(sessions).where(eq(sessions.userId, user.id))
     expect(left.map((r) => r.id)).toEqual(['purge-live'])
-    const attempts = await db().select({ createdAt: signInAttempts.createdAt }).from(signInAttempts).where(inArray(signInAttempts.id, inserted.map((r) => r.id)))
+    const attempts = await db()
+      .select({ createdAt: signInAttempts.createdAt })
+      .from(signInAttempts)
+      .where(
+        inArray(
+          signInAttempts.id,
+          inserted.map((r) => r.id),
+        ),
+      )
     expect(attempts.map((r) => r.createdAt.getTime())).toEqual([recent.getTime(), recent.getTime()])
 
     // A second run finds nothing more.

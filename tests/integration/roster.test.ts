@@ -11,7 +11,14 @@ import { action as sectionsAction, loader as sectionsLoader } from '#app/routes/
 import { action as peopleAction, loader as peopleLoader } from '#app/routes/courses/people.tsx'
 import { action as joinAction, loader as joinLoader } from '#app/routes/join.tsx'
 import { db } from '#app/server/db/client.server.ts'
-import { accessTokens, auditEvents, courseSections, memberships, sectionStaff, users } from '#app/server/db/schema.server.ts'
+import {
+  accessTokens,
+  auditEvents,
+  courseSections,
+  memberships,
+  sectionStaff,
+  users,
+} from '#app/server/db/schema.server.ts'
 import { findLastMailTo, linksIn } from '#app/server/outbox.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
@@ -46,11 +53,23 @@ async function multipart(path: string, fields: Record<string, string | File>, co
   return new Request(`${BASE}${path}`, {
     method: 'POST',
     body,
-    headers: { 'Content-Type': draft.headers.get('Content-Type')!, 'Content-Length': String(body.byteLength), Cookie: cookie },
+    headers: {
+      'Content-Type': draft.headers.get('Content-Type')!,
+      'Content-Length': String(body.byteLength),
+      Cookie: cookie,
+    },
   })
 }
 
-type ImportData = { formError: string | null; csv: string; plan: { rows: { line: number; status: string; errors: string[]; changes: string[] }[]; counts: Record<string, number>; newSections: string[] } | null }
+type ImportData = {
+  formError: string | null
+  csv: string
+  plan: {
+    rows: { line: number; status: string; errors: string[]; changes: string[] }[]
+    counts: Record<string, number>
+    newSections: string[]
+  } | null
+}
 function unwrap(r: unknown): { status: number; data: ImportData } {
   const x = r as { data?: ImportData; init?: { status?: number } | null }
   return { status: x.init?.status ?? 200, data: x.data! }
@@ -67,10 +86,16 @@ async function setup() {
 }
 
 async function preview(s: Awaited<ReturnType<typeof setup>>, fields: Record<string, string | File>) {
-  return unwrap(await importAction(args(await multipart(`${s.people}/import`, { intent: 'preview', ...fields }, s.cookie), s.cid)))
+  return unwrap(
+    await importAction(args(await multipart(`${s.people}/import`, { intent: 'preview', ...fields }, s.cookie), s.cid)),
+  )
 }
 async function confirm(s: Awaited<ReturnType<typeof setup>>, csv: string) {
-  const r = await settle(importAction(args(await multipart(`${s.people}/import`, { intent: 'import', csv, fileName: 'list.csv' }, s.cookie), s.cid)))
+  const r = await settle(
+    importAction(
+      args(await multipart(`${s.people}/import`, { intent: 'import', csv, fileName: 'list.csv' }, s.cookie), s.cid),
+    ),
+  )
   return 'thrown' in r ? { thrown: r.thrown } : { value: r.value }
 }
 
@@ -103,18 +128,48 @@ describe('importing a class list', () => {
     expect(res.status).toBe(302)
     expect(res.headers.get('Location')).toBe(`${s.people}?imported=2&updated=0&invited=2`)
 
-    const [ngozi] = await db().select().from(users).where(eq(users.email, `ngozi.${k}@uni.example`))
-    expect(ngozi).toMatchObject({ studentNumber: `A${k}1`, familyName: 'Okafor', givenName: 'Ngozi', name: 'Ngozi Okafor', passwordHash: null })
-    const [m] = await db().select().from(memberships).where(and(eq(memberships.userId, ngozi!.id), eq(memberships.courseId, s.course.id)))
+    const [ngozi] = await db()
+      .select()
+      .from(users)
+      .where(eq(users.email, `ngozi.${k}@uni.example`))
+    expect(ngozi).toMatchObject({
+      studentNumber: `A${k}1`,
+      familyName: 'Okafor',
+      givenName: 'Ngozi',
+      name: 'Ngozi Okafor',
+      passwordHash: null,
+    })
+    const [m] = await db()
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.userId, ngozi!.id), eq(memberships.courseId, s.course.id)))
     expect(m).toMatchObject({ role: 'student', section: 'Lab 1', droppedAt: null })
-    const sections = await db().select({ name: courseSections.name }).from(courseSections).where(eq(courseSections.courseId, s.course.id))
+    const sections = await db()
+      .select({ name: courseSections.name })
+      .from(courseSections)
+      .where(eq(courseSections.courseId, s.course.id))
     expect(sections.map((x) => x.name).sort()).toEqual(['Lab 1', 'Lab 2'])
-    const [tok] = await db().select().from(accessTokens).where(eq(accessTokens.email, `ngozi.${k}@uni.example`))
-    expect(tok).toMatchObject({ purpose: 'invitation', role: 'student', courseId: s.course.id, usedAt: null, revokedAt: null })
+    const [tok] = await db()
+      .select()
+      .from(accessTokens)
+      .where(eq(accessTokens.email, `ngozi.${k}@uni.example`))
+    expect(tok).toMatchObject({
+      purpose: 'invitation',
+      role: 'student',
+      courseId: s.course.id,
+      usedAt: null,
+      revokedAt: null,
+    })
     expect(tok!.lastSentAt).toBeInstanceOf(Date)
-    const audit = await db().select().from(auditEvents).where(and(eq(auditEvents.courseId, s.course.id), eq(auditEvents.kind, 'roster-import')))
+    const audit = await db()
+      .select()
+      .from(auditEvents)
+      .where(and(eq(auditEvents.courseId, s.course.id), eq(auditEvents.kind, 'roster-import')))
     expect(audit).toHaveLength(1)
-    expect(audit[0]).toMatchObject({ actorId: s.instructor.id, after: expect.objectContaining({ new: 2, invited: 2, newSections: ['Lab 1', 'Lab 2'] }) })
+    expect(audit[0]).toMatchObject({
+      actorId: s.instructor.id,
+      after: expect.objectContaining({ new: 2, invited: 2, newSections: ['Lab 1', 'Lab 2'] }),
+    })
 
     // The roster shows them from the first day; the invitation is pending.
     const page = await peopleLoader(args(getRequest(s.people, { Cookie: s.cookie }), s.cid))
@@ -127,10 +182,24 @@ describe('importing a class list', () => {
     const token = new URL(linksIn(mail!.text).find((l) => l.includes('/join/'))!).pathname.split('/').pop()!
     const join = await joinLoader(args(getRequest(`/join/${token}`), { token }))
     expect(join.invitation).toMatchObject({ hasAccount: false, name: 'Ngozi Okafor' })
-    const joined = await settle(joinAction(args(formRequest(`/join/${token}`, { name: 'Ngozi Okafor', password: 'a long enough password', confirm: 'a long enough password' }), { token })))
+    const joined = await settle(
+      joinAction(
+        args(
+          formRequest(`/join/${token}`, {
+            name: 'Ngozi Okafor',
+            password: 'a long enough password',
+            confirm: 'a long enough password',
+          }),
+          { token },
+        ),
+      ),
+    )
     const jr = ('value' in joined ? joined.value : joined.thrown) as Response
     expect(jr.status).toBe(302)
-    const after = await db().select().from(users).where(eq(users.email, `ngozi.${k}@uni.example`))
+    const after = await db()
+      .select()
+      .from(users)
+      .where(eq(users.email, `ngozi.${k}@uni.example`))
     expect(after).toHaveLength(1)
     expect(after[0]!.passwordHash).not.toBeNull()
     expect(after[0]!.id).toBe(ngozi!.id)
@@ -143,7 +212,10 @@ describe('importing a class list', () => {
     const k = uid()
     // Someone already registered elsewhere with a student ID.
     const other = await createUser(db(), { email: `taken.${k}@uni.example`, name: 'Taken Person' })
-    await db().update(users).set({ studentNumber: `T${k}` }).where(eq(users.id, other.id))
+    await db()
+      .update(users)
+      .set({ studentNumber: `T${k}` })
+      .where(eq(users.id, other.id))
     const ta = await createUser(db(), { email: `ta.${k}@uni.example` })
     await addMember(db(), ta.id, s.course.id, 'ta')
     const csv = [
@@ -177,7 +249,9 @@ describe('importing a class list', () => {
 
     const forced = await confirm(s, csv)
     expect('value' in forced && unwrap(forced.value).status).toBe(409)
-    expect('value' in forced && unwrap(forced.value).data.formError).toMatch(/Nothing was imported: 9 rows have problems/)
+    expect('value' in forced && unwrap(forced.value).data.formError).toMatch(
+      /Nothing was imported: 9 rows have problems/,
+    )
     expect(await countWrites(s.course.id)).toEqual(before)
     expect(await findLastMailTo(db(), `good.${k}@uni.example`)).toBeNull()
   })
@@ -192,14 +266,22 @@ describe('importing a class list', () => {
     const big = await preview(s, { file: new File(['x'.repeat(1024 * 1024 + 10)], 'big.csv') })
     expect(big.status).toBe(413)
     expect(big.data.formError).toMatch(/larger than 1 MB/)
-    const noLength = new Request(`${BASE}${s.people}/import`, { method: 'POST', body: 'intent=preview', headers: { Cookie: s.cookie, 'Content-Type': 'application/x-www-form-urlencoded' } })
+    const noLength = new Request(`${BASE}${s.people}/import`, {
+      method: 'POST',
+      body: 'intent=preview',
+      headers: { Cookie: s.cookie, 'Content-Type': 'application/x-www-form-urlencoded' },
+    })
     expect(unwrap(await importAction(args(noLength, s.cid))).status).toBe(411)
   })
 
   test('a file that is not UTF-8 is read as Windows-1252 and says so', async () => {
     const s = await setup()
     const k = uid()
-    const latin = new Uint8Array([...new TextEncoder().encode(`Student ID,Family name,Given name,E-mail\nW${k},M`), 0xfc, ...new TextEncoder().encode(`ller,Jos,w.${k}@uni.example\n`)])
+    const latin = new Uint8Array([
+      ...new TextEncoder().encode(`Student ID,Family name,Given name,E-mail\nW${k},M`),
+      0xfc,
+      ...new TextEncoder().encode(`ller,Jos,w.${k}@uni.example\n`),
+    ])
     const p = await preview(s, { file: new File([latin], 'excel.csv') })
     expect(p.data.plan?.counts.new).toBe(1)
     expect(p.data.csv).toContain('Müller')
@@ -215,11 +297,19 @@ describe('importing a class list', () => {
     await confirm(s, first)
     const second = `Student ID,Family name,Given name,E-mail,Section\nC${k}1,Smyth,Jo,JO.${k}@uni.example,Lab 2\nC${k}2,Account,Had,had.${k}@uni.example,\n`
     const p2 = await preview(s, { csv: second })
-    expect(p2.data.plan!.rows[0]).toMatchObject({ status: 'update', changes: ['family name “Smith” → “Smyth”', 'section “Lab 1” → “Lab 2”'] })
+    expect(p2.data.plan!.rows[0]).toMatchObject({
+      status: 'update',
+      changes: ['family name “Smith” → “Smyth”', 'section “Lab 1” → “Lab 2”'],
+    })
     expect(p2.data.plan!.rows[1]!.status).toBe('unchanged')
     const done = await confirm(s, second)
-    expect(((('thrown' in done ? done.thrown : done.value) as Response)).headers.get('Location')).toContain('imported=0&updated=1&invited=0')
-    const jo = await db().select().from(users).where(eq(users.email, `jo.${k}@uni.example`))
+    expect((('thrown' in done ? done.thrown : done.value) as Response).headers.get('Location')).toContain(
+      'imported=0&updated=1&invited=0',
+    )
+    const jo = await db()
+      .select()
+      .from(users)
+      .where(eq(users.email, `jo.${k}@uni.example`))
     expect(jo).toHaveLength(1)
     expect(jo[0]).toMatchObject({ familyName: 'Smyth', name: 'Jo Smyth', studentNumber: `C${k}1` })
     const [had] = await db().select().from(users).where(eq(users.id, existing.id))
@@ -238,22 +328,34 @@ describe('pending invitations', () => {
   test('resend keeps the link, renews it and moves lastSentAt; revoke makes the link say it was withdrawn', async () => {
     const s = await setup()
     const k = uid()
-    await confirm(s, `Student ID,Family name,Given name,E-mail\nD${k}1,Ray,Amy,amy.${k}@uni.example\nD${k}2,Ray,Ben,ben.${k}@uni.example\n`)
+    await confirm(
+      s,
+      `Student ID,Family name,Given name,E-mail\nD${k}1,Ray,Amy,amy.${k}@uni.example\nD${k}2,Ray,Ben,ben.${k}@uni.example\n`,
+    )
     const page = await peopleLoader(args(getRequest(s.people, { Cookie: s.cookie }), s.cid))
     const amy = page.pending.find((p) => p.email === `amy.${k}@uni.example`)!
     const ben = page.pending.find((p) => p.email === `ben.${k}@uni.example`)!
 
     // Too soon after the first e-mail.
-    const soon = unwrap(await peopleAction(args(formRequest(s.people, { intent: 'resend', invitationId: String(amy.id) }, { Cookie: s.cookie }), s.cid)))
+    const soon = unwrap(
+      await peopleAction(
+        args(formRequest(s.people, { intent: 'resend', invitationId: String(amy.id) }, { Cookie: s.cookie }), s.cid),
+      ),
+    )
     expect(soon.status).toBe(400)
     expect(soon.data).toMatchObject({ message: expect.stringMatching(/less than a minute ago/) })
 
     // The first e-mail has arrived before the reminder is sent, so "the last mail" is the reminder.
     expect((await mailTo(`amy.${k}@uni.example`))?.subject).toMatch(/^You are invited/)
     const old = new Date(Date.now() - 3 * 86_400_000)
-    await db().update(accessTokens).set({ lastSentAt: old, expiresAt: new Date(Date.now() - 1000) }).where(eq(accessTokens.id, amy.id))
+    await db()
+      .update(accessTokens)
+      .set({ lastSentAt: old, expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(accessTokens.id, amy.id))
     const [beforeRow] = await db().select().from(accessTokens).where(eq(accessTokens.id, amy.id))
-    const resent = await peopleAction(args(formRequest(s.people, { intent: 'resend', invitationId: String(amy.id) }, { Cookie: s.cookie }), s.cid))
+    const resent = await peopleAction(
+      args(formRequest(s.people, { intent: 'resend', invitationId: String(amy.id) }, { Cookie: s.cookie }), s.cid),
+    )
     expect(resent).toMatchObject({ ok: true, message: `The invitation was sent again to amy.${k}@uni.example.` })
     const [afterRow] = await db().select().from(accessTokens).where(eq(accessTokens.id, amy.id))
     expect(afterRow!.token).toBe(beforeRow!.token)
@@ -263,24 +365,47 @@ describe('pending invitations', () => {
     expect(reminder?.subject).toMatch(/^Reminder/)
     expect(reminder?.text).toContain(`/join/${afterRow!.token}`)
 
-    const revoked = await peopleAction(args(formRequest(s.people, { intent: 'revoke', invitationId: String(ben.id) }, { Cookie: s.cookie }), s.cid))
+    const revoked = await peopleAction(
+      args(formRequest(s.people, { intent: 'revoke', invitationId: String(ben.id) }, { Cookie: s.cookie }), s.cid),
+    )
     expect(revoked).toMatchObject({ ok: true })
     const [benRow] = await db().select().from(accessTokens).where(eq(accessTokens.id, ben.id))
     expect(benRow!.revokedAt).toBeInstanceOf(Date)
     const token = benRow!.token
     expect((await joinLoader(args(getRequest(`/join/${token}`), { token }))).problem).toBe('revoked')
-    const tryJoin = unwrap(await joinAction(args(formRequest(`/join/${token}`, { name: 'Ben Ray', password: 'a long enough password', confirm: 'a long enough password' }), { token })))
+    const tryJoin = unwrap(
+      await joinAction(
+        args(
+          formRequest(`/join/${token}`, {
+            name: 'Ben Ray',
+            password: 'a long enough password',
+            confirm: 'a long enough password',
+          }),
+          { token },
+        ),
+      ),
+    )
     expect(tryJoin.status).toBe(400)
-    const [ben2] = await db().select().from(users).where(eq(users.email, `ben.${k}@uni.example`))
+    const [ben2] = await db()
+      .select()
+      .from(users)
+      .where(eq(users.email, `ben.${k}@uni.example`))
     expect(ben2!.passwordHash).toBeNull()
     // Revoked twice, or resent after revoking: a clear refusal.
-    const again = unwrap(await peopleAction(args(formRequest(s.people, { intent: 'resend', invitationId: String(ben.id) }, { Cookie: s.cookie }), s.cid)))
+    const again = unwrap(
+      await peopleAction(
+        args(formRequest(s.people, { intent: 'resend', invitationId: String(ben.id) }, { Cookie: s.cookie }), s.cid),
+      ),
+    )
     expect(again.status).toBe(400)
     expect(again.data).toMatchObject({ message: expect.stringMatching(/no longer waiting/) })
     const listed = await peopleLoader(args(getRequest(s.people, { Cookie: s.cookie }), s.cid))
     expect(listed.pending.map((p) => p.email)).toEqual([`amy.${k}@uni.example`])
     expect(listed.roster.active.some((m) => m.email === `ben.${k}@uni.example`)).toBe(true)
-    const kinds = await db().select({ kind: auditEvents.kind }).from(auditEvents).where(eq(auditEvents.courseId, s.course.id))
+    const kinds = await db()
+      .select({ kind: auditEvents.kind })
+      .from(auditEvents)
+      .where(eq(auditEvents.courseId, s.course.id))
     expect(kinds.map((x) => x.kind)).toEqual(expect.arrayContaining(['invitation-resent', 'invitation-revoked']))
   })
 })
@@ -290,18 +415,32 @@ describe('dropping a student', () => {
     const s = await setup()
     const student = await createUser(db(), { name: 'Dara Drop' })
     await addMember(db(), student.id, s.course.id, 'student')
-    const dropped = await peopleAction(args(formRequest(s.people, { intent: 'drop', userId: String(student.id) }, { Cookie: s.cookie }), s.cid))
+    const dropped = await peopleAction(
+      args(formRequest(s.people, { intent: 'drop', userId: String(student.id) }, { Cookie: s.cookie }), s.cid),
+    )
     expect(dropped).toMatchObject({ ok: true, message: 'Dara Drop was dropped. Their answers are kept.' })
-    const [m] = await db().select().from(memberships).where(and(eq(memberships.userId, student.id), eq(memberships.courseId, s.course.id)))
+    const [m] = await db()
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.userId, student.id), eq(memberships.courseId, s.course.id)))
     expect(m!.droppedAt).toBeInstanceOf(Date)
     const page = await peopleLoader(args(getRequest(s.people, { Cookie: s.cookie }), s.cid))
     expect(page.roster.dropped.map((x) => x.userId)).toEqual([student.id])
     expect(page.roster.active.some((x) => x.userId === student.id)).toBe(false)
 
-    await peopleAction(args(formRequest(s.people, { intent: 'undrop', userId: String(student.id) }, { Cookie: s.cookie }), s.cid))
-    const [m2] = await db().select().from(memberships).where(and(eq(memberships.userId, student.id), eq(memberships.courseId, s.course.id)))
+    await peopleAction(
+      args(formRequest(s.people, { intent: 'undrop', userId: String(student.id) }, { Cookie: s.cookie }), s.cid),
+    )
+    const [m2] = await db()
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.userId, student.id), eq(memberships.courseId, s.course.id)))
     expect(m2!.droppedAt).toBeNull()
-    const kinds = await db().select({ kind: auditEvents.kind, userId: auditEvents.userId }).from(auditEvents).where(eq(auditEvents.courseId, s.course.id)).orderBy(auditEvents.id)
+    const kinds = await db()
+      .select({ kind: auditEvents.kind, userId: auditEvents.userId })
+      .from(auditEvents)
+      .where(eq(auditEvents.courseId, s.course.id))
+      .orderBy(auditEvents.id)
     expect(kinds).toEqual([
       { kind: 'student-dropped', userId: student.id },
       { kind: 'student-undropped', userId: student.id },
@@ -309,7 +448,11 @@ describe('dropping a student', () => {
     // Only students are dropped.
     const ta = await createUser(db())
     await addMember(db(), ta.id, s.course.id, 'ta')
-    const refused = unwrap(await peopleAction(args(formRequest(s.people, { intent: 'drop', userId: String(ta.id) }, { Cookie: s.cookie }), s.cid)))
+    const refused = unwrap(
+      await peopleAction(
+        args(formRequest(s.people, { intent: 'drop', userId: String(ta.id) }, { Cookie: s.cookie }), s.cid),
+      ),
+    )
     expect(refused.status).toBe(400)
     expect(refused.data).toMatchObject({ message: 'That person is not a student of this course.' })
   })
@@ -319,15 +462,34 @@ describe('sections', () => {
   test('create, rename (students follow), set a student’s section, assign a TA, delete', async () => {
     const s = await setup()
     const path = `${s.people}/sections`
-    const post = async (fields: Record<string, string>) => sectionsAction(args(formRequest(path, fields, { Cookie: s.cookie }), s.cid))
-    expect(await post({ intent: 'create', name: '  Lab   A ' })).toMatchObject({ data: { ok: true, message: 'Section “Lab A” added.' } })
-    expect(await post({ intent: 'create', name: 'lab a' })).toMatchObject({ data: { ok: false, message: 'There is already a section called “lab a”.' }, init: { status: 400 } })
-    expect(await post({ intent: 'create', name: '' })).toMatchObject({ data: { ok: false, message: 'Give the section a name.' } })
+    const post = async (fields: Record<string, string>) =>
+      sectionsAction(args(formRequest(path, fields, { Cookie: s.cookie }), s.cid))
+    expect(await post({ intent: 'create', name: '  Lab   A ' })).toMatchObject({
+      data: { ok: true, message: 'Section “Lab A” added.' },
+    })
+    expect(await post({ intent: 'create', name: 'lab a' })).toMatchObject({
+      data: { ok: false, message: 'There is already a section called “lab a”.' },
+      init: { status: 400 },
+    })
+    expect(await post({ intent: 'create', name: '' })).toMatchObject({
+      data: { ok: false, message: 'Give the section a name.' },
+    })
     const [section] = await db().select().from(courseSections).where(eq(courseSections.courseId, s.course.id))
 
     const student = await createUser(db(), { name: 'Sam Section' })
     await addMember(db(), student.id, s.course.id, 'student')
-    expect(await peopleAction(args(formRequest(s.people, { intent: 'set-section', userId: String(student.id), sectionId: String(section!.id) }, { Cookie: s.cookie }), s.cid))).toMatchObject({
+    expect(
+      await peopleAction(
+        args(
+          formRequest(
+            s.people,
+            { intent: 'set-section', userId: String(student.id), sectionId: String(section!.id) },
+            { Cookie: s.cookie },
+          ),
+          s.cid,
+        ),
+      ),
+    ).toMatchObject({
       ok: true,
       message: 'Sam Section is now in section Lab A.',
     })
@@ -337,24 +499,40 @@ describe('sections', () => {
 
     const ta = await createUser(db(), { name: 'Tariq TA' })
     await addMember(db(), ta.id, s.course.id, 'ta')
-    expect(await post({ intent: 'assign', sectionId: String(section!.id), userId: String(ta.id) })).toMatchObject({ data: { ok: true } })
+    expect(await post({ intent: 'assign', sectionId: String(section!.id), userId: String(ta.id) })).toMatchObject({
+      data: { ok: true },
+    })
     expect(await post({ intent: 'assign', sectionId: String(section!.id), userId: String(student.id) })).toMatchObject({
       data: { ok: false, message: 'Only teaching assistants of this course can be assigned to a section.' },
     })
     const view = await sectionsLoader(args(getRequest(path, { Cookie: s.cookie }), s.cid))
-    expect(view.sections).toEqual([{ id: section!.id, name: 'Lab Tuesday', students: 1, staff: [{ userId: ta.id, name: 'Tariq TA' }] }])
+    expect(view.sections).toEqual([
+      { id: section!.id, name: 'Lab Tuesday', students: 1, staff: [{ userId: ta.id, name: 'Tariq TA' }] },
+    ])
 
     // A section from another course is not this course's.
     const otherCourse = await createCourse(db())
     const [foreign] = await db().insert(courseSections).values({ courseId: otherCourse.id, name: 'X' }).returning()
-    expect(await post({ intent: 'delete', sectionId: String(foreign!.id) })).toMatchObject({ data: { ok: false, message: 'That section no longer exists.' } })
+    expect(await post({ intent: 'delete', sectionId: String(foreign!.id) })).toMatchObject({
+      data: { ok: false, message: 'That section no longer exists.' },
+    })
 
     expect(await post({ intent: 'delete', sectionId: String(section!.id) })).toMatchObject({ data: { ok: true } })
     const [m2] = await db().select().from(memberships).where(eq(memberships.userId, student.id))
     expect(m2!.section).toBeNull()
     expect(await db().select().from(sectionStaff).where(eq(sectionStaff.sectionId, section!.id))).toEqual([])
-    const kinds = await db().select({ kind: auditEvents.kind }).from(auditEvents).where(eq(auditEvents.courseId, s.course.id)).orderBy(auditEvents.id)
-    expect(kinds.map((x) => x.kind)).toEqual(['section-created', 'student-section', 'section-renamed', 'section-staff', 'section-deleted'])
+    const kinds = await db()
+      .select({ kind: auditEvents.kind })
+      .from(auditEvents)
+      .where(eq(auditEvents.courseId, s.course.id))
+      .orderBy(auditEvents.id)
+    expect(kinds.map((x) => x.kind)).toEqual([
+      'section-created',
+      'student-section',
+      'section-renamed',
+      'section-staff',
+      'section-deleted',
+    ])
   })
 
   test('section names students carry from before are set up on request', async () => {
@@ -379,16 +557,28 @@ describe('who may do what', () => {
     await addMember(db(), student.id, s.course.id, 'student')
     const stranger = await createUser(db())
     const [section] = await db().insert(courseSections).values({ courseId: s.course.id, name: 'S1' }).returning()
-    await db().insert(accessTokens).values({ token: `tok${uid()}xxxxxxxxxxxx`, purpose: 'invitation', email: 'p@x.example', courseId: s.course.id, role: 'student', expiresAt: new Date(Date.now() + 86_400_000) })
+    await db()
+      .insert(accessTokens)
+      .values({
+        token: `tok${uid()}xxxxxxxxxxxx`,
+        purpose: 'invitation',
+        email: 'p@x.example',
+        courseId: s.course.id,
+        role: 'student',
+        expiresAt: new Date(Date.now() + 86_400_000),
+      })
     const [invitation] = await db().select().from(accessTokens).where(eq(accessTokens.courseId, s.course.id))
 
     const taCookie = await sessionCookie(ta)
     const seen = await peopleLoader(args(getRequest(s.people, { Cookie: taCookie }), s.cid))
     expect(seen.mayManage).toBe(false)
     expect(seen.pending).toHaveLength(1)
-    expect((await sectionsLoader(args(getRequest(`${s.people}/sections`, { Cookie: taCookie }), s.cid))).mayManage).toBe(false)
+    expect(
+      (await sectionsLoader(args(getRequest(`${s.people}/sections`, { Cookie: taCookie }), s.cid))).mayManage,
+    ).toBe(false)
 
-    const status = (r: { thrown: unknown } | { value: unknown }) => ('thrown' in r ? (r.thrown as { init: { status: number } }).init?.status : 'no refusal')
+    const status = (r: { thrown: unknown } | { value: unknown }) =>
+      'thrown' in r ? (r.thrown as { init: { status: number } }).init?.status : 'no refusal'
     const changes: Record<string, string>[] = [
       { intent: 'drop', userId: String(student.id) },
       { intent: 'set-section', userId: String(student.id), sectionId: String(section!.id) },
@@ -397,24 +587,49 @@ describe('who may do what', () => {
     ]
     for (const who of [ta, student, stranger]) {
       const cookie = await sessionCookie(who)
-      for (const fields of changes) expect(status(await settle(peopleAction(args(formRequest(s.people, fields, { Cookie: cookie }), s.cid))))).toBe(403)
-      expect(status(await settle(sectionsAction(args(formRequest(`${s.people}/sections`, { intent: 'create', name: 'Nope' }, { Cookie: cookie }), s.cid))))).toBe(403)
-      expect(status(await settle(importLoader(args(getRequest(`${s.people}/import`, { Cookie: cookie }), s.cid))))).toBe(403)
+      for (const fields of changes)
+        expect(status(await settle(peopleAction(args(formRequest(s.people, fields, { Cookie: cookie }), s.cid))))).toBe(
+          403,
+        )
+      expect(
+        status(
+          await settle(
+            sectionsAction(
+              args(formRequest(`${s.people}/sections`, { intent: 'create', name: 'Nope' }, { Cookie: cookie }), s.cid),
+            ),
+          ),
+        ),
+      ).toBe(403)
+      expect(
+        status(await settle(importLoader(args(getRequest(`${s.people}/import`, { Cookie: cookie }), s.cid)))),
+      ).toBe(403)
       const csv = 'Student ID,Family name,Given name,E-mail\n1,A,B,b@x.example'
-      expect(status(await settle(importAction(args(await multipart(`${s.people}/import`, { intent: 'import', csv }, cookie), s.cid))))).toBe(403)
+      expect(
+        status(
+          await settle(
+            importAction(args(await multipart(`${s.people}/import`, { intent: 'import', csv }, cookie), s.cid)),
+          ),
+        ),
+      ).toBe(403)
     }
     for (const who of [student, stranger]) {
       const cookie = await sessionCookie(who)
       expect(status(await settle(peopleLoader(args(getRequest(s.people, { Cookie: cookie }), s.cid))))).toBe(403)
-      expect(status(await settle(sectionsLoader(args(getRequest(`${s.people}/sections`, { Cookie: cookie }), s.cid))))).toBe(403)
+      expect(
+        status(await settle(sectionsLoader(args(getRequest(`${s.people}/sections`, { Cookie: cookie }), s.cid)))),
+      ).toBe(403)
     }
     // Nothing changed.
     const [m] = await db().select().from(memberships).where(eq(memberships.userId, student.id))
     expect(m).toMatchObject({ droppedAt: null, section: null })
     const [inv] = await db().select().from(accessTokens).where(eq(accessTokens.id, invitation!.id))
     expect(inv!.revokedAt).toBeNull()
-    expect((await db().select().from(courseSections).where(eq(courseSections.courseId, s.course.id))).map((x) => x.name)).toEqual(['S1'])
-    expect((await db().execute(sql`select count(*)::int as n from audit_events where course_id = ${s.course.id}`)).rows[0]).toEqual({ n: 0 })
+    expect(
+      (await db().select().from(courseSections).where(eq(courseSections.courseId, s.course.id))).map((x) => x.name),
+    ).toEqual(['S1'])
+    expect(
+      (await db().execute(sql`select count(*)::int as n from audit_events where course_id = ${s.course.id}`)).rows[0],
+    ).toEqual({ n: 0 })
   })
 })
 
@@ -428,7 +643,10 @@ describe('a full-size class list', () => {
     const done = await confirm(s, lines.join('\n'))
     const res = ('thrown' in done ? done.thrown : done.value) as Response
     expect(res.headers.get('Location')).toContain('imported=5000')
-    const [m] = await db().select({ n: count() }).from(memberships).where(and(eq(memberships.courseId, s.course.id), eq(memberships.role, 'student')))
+    const [m] = await db()
+      .select({ n: count() })
+      .from(memberships)
+      .where(and(eq(memberships.courseId, s.course.id), eq(memberships.role, 'student')))
     const [t] = await db().select({ n: count() }).from(accessTokens).where(eq(accessTokens.courseId, s.course.id))
     expect([m!.n, t!.n]).toEqual([5000, 5000])
   }, 120_000)

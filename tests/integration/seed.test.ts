@@ -6,7 +6,9 @@ import { seedDemo } from '#seed/demo.ts'
 test('the demo seed is idempotent: a second run adds nothing', async () => {
   const first = await seedDemo(db())
   const count = async () => {
-    const r = await db().execute(sql`select (select count(*) from users)::int as u, (select count(*) from memberships)::int as m, (select count(*) from courses)::int as c, (select count(*) from course_sections)::int as s, (select count(*) from section_staff)::int as st`)
+    const r = await db().execute(
+      sql`select (select count(*) from users)::int as u, (select count(*) from memberships)::int as m, (select count(*) from courses)::int as c, (select count(*) from course_sections)::int as s, (select count(*) from section_staff)::int as st`,
+    )
     return r.rows[0]
   }
   const before = await count()

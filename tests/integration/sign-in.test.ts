@@ -21,11 +21,21 @@ type Failure = { data: { error: string }; init: { status: number } }
 async function addAttempts(email: string, clientAddress: string, n: number, from: Date) {
   await db()
     .insert(signInAttempts)
-    .values(Array.from({ length: n }, (_, i) => ({ email, clientAddress, succeeded: false, kind: 'sign-in' as const, createdAt: new Date(from.getTime() + i * 1000) })))
+    .values(
+      Array.from({ length: n }, (_, i) => ({
+        email,
+        clientAddress,
+        succeeded: false,
+        kind: 'sign-in' as const,
+        createdAt: new Date(from.getTime() + i * 1000),
+      })),
+    )
 }
 
 async function signIn(email: string, password: string, client = '10.0.0.1') {
-  const r = await settle(signInAction(args(formRequest('/sign-in', { email, password }, { 'x-cyclewright-client-address': client }))))
+  const r = await settle(
+    signInAction(args(formRequest('/sign-in', { email, password }, { 'x-cyclewright-client-address': client }))),
+  )
   if ('thrown' in r) return r.thrown as Response
   return r.value as unknown as { data: { error: string }; init: { status: number } } | Response
 }
@@ -46,8 +56,14 @@ describe('sign-in', () => {
 
   test('a wrong password and an unknown address get the same message', async () => {
     const user = await createUser(db())
-    const wrong = (await signIn(user.email, 'not the password')) as { data: { error: string }; init: { status: number } }
-    const unknown = (await signIn('nobody@test.example', 'whatever it is')) as { data: { error: string }; init: { status: number } }
+    const wrong = (await signIn(user.email, 'not the password')) as {
+      data: { error: string }
+      init: { status: number }
+    }
+    const unknown = (await signIn('nobody@test.example', 'whatever it is')) as {
+      data: { error: string }
+      init: { status: number }
+    }
     expect(wrong.init.status).toBe(400)
     expect(wrong.data.error).toBe(WRONG_CREDENTIALS)
     expect(unknown.data.error).toBe(WRONG_CREDENTIALS)
@@ -55,7 +71,8 @@ describe('sign-in', () => {
 
   test('five wrong passwords slow that address for that account (2 s, then doubling); the owner elsewhere signs in at once', async () => {
     const user = await createUser(db(), { password: 'the right password' })
-    for (let i = 0; i < 5; i++) expect(((await signIn(user.email, `wrong ${i}`, '10.1.0.1')) as Failure).data.error).toBe(WRONG_CREDENTIALS)
+    for (let i = 0; i < 5; i++)
+      expect(((await signIn(user.email, `wrong ${i}`, '10.1.0.1')) as Failure).data.error).toBe(WRONG_CREDENTIALS)
     const blocked = (await signIn(user.email, 'the right password', '10.1.0.1')) as Failure
     expect(blocked.init.status).toBe(400)
     expect(blocked.data.error).toMatch(/^Too many sign-in attempts\. Try again in [12] seconds?\.$/)
@@ -91,14 +108,17 @@ describe('sign-in', () => {
     const user = await createUser(db(), { password: 'the right password' })
     for (let i = 0; i < 4; i++) await signIn(user.email, `wrong ${i}`, '10.3.0.1')
     expect(((await signIn(user.email, 'the right password', '10.3.0.1')) as Response).status).toBe(302)
-    for (let i = 0; i < 4; i++) expect(((await signIn(user.email, `wrong again ${i}`, '10.3.0.1')) as Failure).data.error).toBe(WRONG_CREDENTIALS)
+    for (let i = 0; i < 4; i++)
+      expect(((await signIn(user.email, `wrong again ${i}`, '10.3.0.1')) as Failure).data.error).toBe(WRONG_CREDENTIALS)
     expect(((await signIn(user.email, 'the right password', '10.3.0.1')) as Response).status).toBe(302)
   })
 
   test('twenty wrong passwords at once: at most five get a password check', async () => {
     const user = await createUser(db(), { password: 'the right password' })
     vi.mocked(checkPassword).mockClear()
-    const results = (await Promise.all(Array.from({ length: 20 }, (_, i) => signIn(user.email, `parallel ${i}`, '10.4.0.1')))) as Failure[]
+    const results = (await Promise.all(
+      Array.from({ length: 20 }, (_, i) => signIn(user.email, `parallel ${i}`, '10.4.0.1')),
+    )) as Failure[]
     const errors = results.map((r) => r.data.error)
     expect(errors.filter((e) => e === WRONG_CREDENTIALS)).toHaveLength(5)
     expect(errors.filter((e) => /^Too many sign-in attempts/.test(e))).toHaveLength(15)
@@ -108,7 +128,8 @@ describe('sign-in', () => {
 
   test('one client address failing for many accounts is limited, generously (a lab shares one address)', async () => {
     const now = new Date()
-    for (let i = 0; i < 49; i++) await addAttempts(`stranger${i}@test.example`, '10.7.7.7', 1, new Date(now.getTime() - 60_000))
+    for (let i = 0; i < 49; i++)
+      await addAttempts(`stranger${i}@test.example`, '10.7.7.7', 1, new Date(now.getTime() - 60_000))
     const user = await createUser(db(), { password: 'the right password' })
     // 49 failures: the lab still signs in.
     expect(((await signIn(user.email, 'the right password', '10.7.7.7')) as Response).status).toBe(302)
@@ -152,7 +173,9 @@ describe('sign-in', () => {
     const user = await createUser(db(), { password: 'a good long password' })
     const res = (await signIn(user.email, 'a good long password')) as Response
     const cookie = cookieFrom(res)
-    const out = await signOutAction(args(new Request('http://127.0.0.1:9/sign-out', { method: 'POST', headers: { Cookie: cookie } })))
+    const out = await signOutAction(
+      args(new Request('http://127.0.0.1:9/sign-out', { method: 'POST', headers: { Cookie: cookie } })),
+    )
     expect((out as Response).status).toBe(302)
     expect(await db().select().from(sessions).where(eq(sessions.userId, user.id))).toHaveLength(0)
     expect(await getUser(getRequest('/', { Cookie: cookie }))).toBeNull()
@@ -161,7 +184,10 @@ describe('sign-in', () => {
   test('an expired session row is not accepted', async () => {
     const user = await createUser(db(), { password: 'a good long password' })
     const cookie = cookieFrom((await signIn(user.email, 'a good long password')) as Response)
-    await db().update(sessions).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(sessions.userId, user.id))
+    await db()
+      .update(sessions)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(sessions.userId, user.id))
     expect(await getUser(getRequest('/', { Cookie: cookie }))).toBeNull()
   })
 
@@ -171,7 +197,10 @@ describe('sign-in', () => {
 
   test('the sign-in redirect never leaves the site', async () => {
     const user = await createUser(db(), { password: 'a good long password' })
-    const req = formRequest('/sign-in?redirectTo=//evil.example/x', { email: user.email, password: 'a good long password' })
+    const req = formRequest('/sign-in?redirectTo=//evil.example/x', {
+      email: user.email,
+      password: 'a good long password',
+    })
     const r = await settle(signInAction(args(req)))
     const res = ('thrown' in r ? r.thrown : r.value) as Response
     expect(res.headers.get('Location')).toBe('/')
@@ -181,16 +210,22 @@ describe('sign-in', () => {
     ['CR LF', '/courses\r\nSet-Cookie: x=1', '/'],
     ['an encoded tab before a host', '/%09/evil.example', '/'],
     ['a non-Latin-1 path', '/ä', '/%C3%A4'],
-  ])('a redirectTo with %s signs in to a safe path, with no server error and one session', async (_what, redirectTo, location) => {
-    const user = await createUser(db(), { password: 'a good long password' })
-    const req = formRequest(`/sign-in?${new URLSearchParams({ redirectTo })}`, { email: user.email, password: 'a good long password' })
-    const r = await settle(signInAction(args(req)))
-    const res = ('thrown' in r ? r.thrown : r.value) as Response
-    expect(res).toBeInstanceOf(Response)
-    expect(res.status).toBe(302)
-    expect(res.headers.get('Location')).toBe(location)
-    expect(await db().select().from(sessions).where(eq(sessions.userId, user.id))).toHaveLength(1)
-  })
+  ])(
+    'a redirectTo with %s signs in to a safe path, with no server error and one session',
+    async (_what, redirectTo, location) => {
+      const user = await createUser(db(), { password: 'a good long password' })
+      const req = formRequest(`/sign-in?${new URLSearchParams({ redirectTo })}`, {
+        email: user.email,
+        password: 'a good long password',
+      })
+      const r = await settle(signInAction(args(req)))
+      const res = ('thrown' in r ? r.thrown : r.value) as Response
+      expect(res).toBeInstanceOf(Response)
+      expect(res.status).toBe(302)
+      expect(res.headers.get('Location')).toBe(location)
+      expect(await db().select().from(sessions).where(eq(sessions.userId, user.id))).toHaveLength(1)
+    },
+  )
 
   test('passwords are stored as argon2id hashes', async () => {
     const user = await createUser(db(), { password: 'a good long password' })

@@ -41,9 +41,19 @@ function statusOf(thrown: unknown): number {
 async function setUp() {
   const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2, timeZone: ZONE })
   const [student, classmate] = made.students as [(typeof made.students)[0], (typeof made.students)[0]]
-  await db().update(users).set({ studentNumber: `S${student.id}77`, familyName: 'Okafor', givenName: 'Ada' }).where(eq(users.id, student.id))
+  await db()
+    .update(users)
+    .set({ studentNumber: `S${student.id}77`, familyName: 'Okafor', givenName: 'Ada' })
+    .where(eq(users.id, student.id))
   const item = made.items[0]!
-  const drawn = studentVariant({ versionId: item.problemVersionId, definition: ottoV1, assignmentId: made.assignment.id, problemId: item.problemId, userId: student.id, courseConvention: made.course.signConvention })
+  const drawn = studentVariant({
+    versionId: item.problemVersionId,
+    definition: ottoV1,
+    assignmentId: made.assignment.id,
+    problemId: item.problemId,
+    userId: student.id,
+    courseConvention: made.course.signConvention,
+  })
   if (!drawn.ok) throw new Error(drawn.error.message)
   const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k]))
   const typed = { T2: `${key.T2!.value} K`, wNet: `${-key.wNet!.value} kJ/kg`, eta: '' }
@@ -60,15 +70,33 @@ async function setUp() {
   })
   expect(ext.ok).toBe(true)
 
-  await db().update(assignments).set({ gradesReleasedAt: new Date(Date.now() - 60_000) }).where(eq(assignments.id, made.assignment.id))
-  const raised = await raiseDispute(db(), { ...ref, findName: 'wNet', reason: 'My net work has the right size; the sign follows our notes.' })
+  await db()
+    .update(assignments)
+    .set({ gradesReleasedAt: new Date(Date.now() - 60_000) })
+    .where(eq(assignments.id, made.assignment.id))
+  const raised = await raiseDispute(db(), {
+    ...ref,
+    findName: 'wNet',
+    reason: 'My net work has the right size; the sign follows our notes.',
+  })
   if (!raised.ok) throw new Error('the dispute was refused')
 
   const ta = await createUser(db(), { name: 'Course TA', password: null })
   await addMember(db(), ta.id, made.course.id, 'ta')
   const other = await createCourseWithAssignment(db(), [ottoV1], { students: 1 })
   const stranger = await createUser(db(), { name: 'Not Enrolled', password: null })
-  return { ...made, student, classmate, ta, other, stranger, drawn: drawn.variant, typed, disputeId: raised.disputeId, params: { courseId: String(made.course.id), userId: String(student.id) } }
+  return {
+    ...made,
+    student,
+    classmate,
+    ta,
+    other,
+    stranger,
+    drawn: drawn.variant,
+    typed,
+    disputeId: raised.disputeId,
+    params: { courseId: String(made.course.id), userId: String(student.id) },
+  }
 }
 
 type Setup = Awaited<ReturnType<typeof setUp>>
@@ -77,8 +105,17 @@ const pathOf = (s: Setup, userId = s.student.id, courseId = s.course.id) => `/co
 
 async function renderPage(s: Setup, headers: Record<string, string>): Promise<string> {
   const loaderData = await loader(args(getRequest(pathOf(s), headers), s.params))
-  const Stub = createRoutesStub([{ path: '/courses/:courseId/students/:userId', Component: StudentRecordRoute as never, loader: () => loaderData, HydrateFallback: () => null }])
-  return renderToString(createElement(Stub, { initialEntries: [pathOf(s)], hydrationData: { loaderData: { 0: loaderData } } })).replaceAll('<!-- -->', '')
+  const Stub = createRoutesStub([
+    {
+      path: '/courses/:courseId/students/:userId',
+      Component: StudentRecordRoute as never,
+      loader: () => loaderData,
+      HydrateFallback: () => null,
+    },
+  ])
+  return renderToString(
+    createElement(Stub, { initialEntries: [pathOf(s)], hydrationData: { loaderData: { 0: loaderData } } }),
+  ).replaceAll('<!-- -->', '')
 }
 
 describe('a student’s page', () => {
@@ -86,7 +123,16 @@ describe('a student’s page', () => {
     const s = await setUp()
     const { record } = await loader(args(getRequest(pathOf(s), await loginAs(s.instructor)), s.params))
 
-    expect(record.student).toMatchObject({ id: s.student.id, name: s.student.name, email: s.student.email, studentNumber: `S${s.student.id}77`, familyName: 'Okafor', givenName: 'Ada', section: 'A', droppedAt: null })
+    expect(record.student).toMatchObject({
+      id: s.student.id,
+      name: s.student.name,
+      email: s.student.email,
+      studentNumber: `S${s.student.id}77`,
+      familyName: 'Okafor',
+      givenName: 'Ada',
+      section: 'A',
+      droppedAt: null,
+    })
     expect(record.course.timeZone).toBe(ZONE)
 
     const [a] = record.assignments
@@ -101,18 +147,35 @@ describe('a student’s page', () => {
     expect(item.variant.givens.find((g) => g.name === 'T1')!.text).toMatch(/°C$/)
 
     const byName = Object.fromEntries(item.finds.map((f) => [f.name, f]))
-    expect(byName.T2!.answers).toEqual([expect.objectContaining({ attempt: 1, answer: s.typed.T2, verdict: 'correct', daysLate: 0, latePenalty: 0 })])
+    expect(byName.T2!.answers).toEqual([
+      expect.objectContaining({ attempt: 1, answer: s.typed.T2, verdict: 'correct', daysLate: 0, latePenalty: 0 }),
+    ])
     expect(byName.T2!.best).toBeCloseTo(byName.T2!.share, 9)
-    expect(byName.wNet!.answers).toEqual([expect.objectContaining({ attempt: 1, answer: s.typed.wNet, verdict: 'incorrect', score: 0 })])
+    expect(byName.wNet!.answers).toEqual([
+      expect.objectContaining({ attempt: 1, answer: s.typed.wNet, verdict: 'incorrect', score: 0 }),
+    ])
     expect(byName.wNet!.answers[0]!.pitfall).toMatchObject({ id: 'sign-convention-flipped' })
     expect(byName.wNet!.label).toBe('Net work per kg of air')
     // A blank field uses no attempt: nothing to show.
     expect(byName.eta!.answers).toEqual([])
 
-    expect(a!.extension).toMatchObject({ extraAttempts: 1, reason: 'Away for a field trip.', grantedBy: s.instructor.name })
+    expect(a!.extension).toMatchObject({
+      extraAttempts: 1,
+      reason: 'Away for a field trip.',
+      grantedBy: s.instructor.name,
+    })
     expect(formatInZone(a!.extension!.dueAt!, ZONE, { withZone: false })).toBe('Tue 10 Mar 2099, 17:00')
 
-    expect(record.disputes).toEqual([expect.objectContaining({ id: s.disputeId, findName: 'wNet', findLabel: 'Net work per kg of air', status: 'open', position: 1, assignmentTitle: s.assignment.title })])
+    expect(record.disputes).toEqual([
+      expect.objectContaining({
+        id: s.disputeId,
+        findName: 'wNet',
+        findLabel: 'Net work per kg of air',
+        status: 'open',
+        position: 1,
+        assignmentTitle: s.assignment.title,
+      }),
+    ])
   })
 
   test('the page’s HTML: givens and key with units, answers with verdicts, the dispute linked, times in the course zone, empty states', async () => {
@@ -138,7 +201,12 @@ describe('a student’s page', () => {
 
   test('a student with nothing yet: no answers, no extension, no disputes', async () => {
     const s = await setUp()
-    const { record } = await loader(args(getRequest(pathOf(s, s.classmate.id), await loginAs(s.instructor)), { ...s.params, userId: String(s.classmate.id) }))
+    const { record } = await loader(
+      args(getRequest(pathOf(s, s.classmate.id), await loginAs(s.instructor)), {
+        ...s.params,
+        userId: String(s.classmate.id),
+      }),
+    )
     expect(record.student.section).toBe('B')
     expect(record.assignments[0]!.answered).toBe(0)
     expect(record.assignments[0]!.extension).toBeNull()
@@ -154,16 +222,29 @@ describe('a student’s page', () => {
     }
     const staff = await loginAs(s.instructor)
     for (const userId of [s.stranger.id, s.other.students[0]!.id, s.instructor.id, s.ta.id, 999_999_999]) {
-      const r = await settle(loader(args(getRequest(pathOf(s, userId), staff), { ...s.params, userId: String(userId) })))
+      const r = await settle(
+        loader(args(getRequest(pathOf(s, userId), staff), { ...s.params, userId: String(userId) })),
+      )
       expect('thrown' in r && statusOf(r.thrown)).toBe(404)
     }
     // Another course's instructor asking in their own course for this student: not theirs.
-    const r = await settle(loader(args(getRequest(pathOf(s, s.student.id, s.other.course.id), await loginAs(s.other.instructor)), { courseId: String(s.other.course.id), userId: String(s.student.id) })))
+    const r = await settle(
+      loader(
+        args(getRequest(pathOf(s, s.student.id, s.other.course.id), await loginAs(s.other.instructor)), {
+          courseId: String(s.other.course.id),
+          userId: String(s.student.id),
+        }),
+      ),
+    )
     expect('thrown' in r && statusOf(r.thrown)).toBe(404)
-    const bad = await settle(loader(args(getRequest(`/courses/${s.course.id}/students/abc`, staff), { ...s.params, userId: 'abc' })))
+    const bad = await settle(
+      loader(args(getRequest(`/courses/${s.course.id}/students/abc`, staff), { ...s.params, userId: 'abc' })),
+    )
     expect('thrown' in bad && statusOf(bad.thrown)).toBe(404)
     // Signed out: to the sign-in page.
     const out = await settle(loader(args(getRequest(pathOf(s)), s.params)))
-    expect('thrown' in out && out.thrown instanceof Response && out.thrown.headers.get('Location')).toMatch(/^\/sign-in/)
+    expect('thrown' in out && out.thrown instanceof Response && out.thrown.headers.get('Location')).toMatch(
+      /^\/sign-in/,
+    )
   })
 })

@@ -25,7 +25,14 @@ async function makeProblem(ownerId: number, versions = 1) {
     .returning()
   const rows = await db()
     .insert(problemVersions)
-    .values(Array.from({ length: versions }, (_, i) => ({ problemId: problem!.id, number: i + 1, definition, createdBy: ownerId })))
+    .values(
+      Array.from({ length: versions }, (_, i) => ({
+        problemId: problem!.id,
+        number: i + 1,
+        definition,
+        createdBy: ownerId,
+      })),
+    )
     .returning()
   return { problemId: problem!.id, versionIds: rows.map((r) => r.id) }
 }
@@ -47,7 +54,11 @@ async function sweepsOf(versionIds: number[]) {
 test('six parallel starts on one version make one check, and every press gets that one back', async () => {
   const owner = await createUser(db())
   const { versionIds } = await makeProblem(owner.id)
-  const results = await Promise.all(Array.from({ length: 6 }, () => outcome(startSweep(db(), { versionId: versionIds[0]!, requestedBy: owner.id, total: 5000 }))))
+  const results = await Promise.all(
+    Array.from({ length: 6 }, () =>
+      outcome(startSweep(db(), { versionId: versionIds[0]!, requestedBy: owner.id, total: 5000 })),
+    ),
+  )
   const rows = await sweepsOf(versionIds)
   expect(rows).toHaveLength(1)
   expect(results.every((r) => r.ok && r.sweepId === rows[0]!.id)).toBe(true)
@@ -64,7 +75,11 @@ test('while a check of one version runs, another version of the same problem is 
   ])
   expect([a, b].filter((r) => r.ok)).toHaveLength(1)
   const refused = [a, b].find((r) => !r.ok)!
-  expect(refused).toMatchObject({ ok: false, status: 409, message: expect.stringMatching(/check of version [12] of this problem is still running/) })
+  expect(refused).toMatchObject({
+    ok: false,
+    status: 409,
+    message: expect.stringMatching(/check of version [12] of this problem is still running/),
+  })
   expect(await sweepsOf(versionIds)).toHaveLength(1)
 })
 
@@ -72,25 +87,37 @@ test(`one person gets at most ${MAX_ACTIVE_SWEEPS_PER_USER} checks at once, even
   const owner = await createUser(db())
   const made = await Promise.all(Array.from({ length: 5 }, () => makeProblem(owner.id)))
   const versionIds = made.map((m) => m.versionIds[0]!)
-  const results = await Promise.all(versionIds.map((versionId) => outcome(startSweep(db(), { versionId, requestedBy: owner.id }))))
+  const results = await Promise.all(
+    versionIds.map((versionId) => outcome(startSweep(db(), { versionId, requestedBy: owner.id }))),
+  )
   expect(results.filter((r) => r.ok)).toHaveLength(MAX_ACTIVE_SWEEPS_PER_USER)
-  for (const r of results.filter((r) => !r.ok)) expect(r).toMatchObject({ status: 429, message: expect.stringMatching(/already have 3 checks waiting or running/) })
+  for (const r of results.filter((r) => !r.ok))
+    expect(r).toMatchObject({ status: 429, message: expect.stringMatching(/already have 3 checks waiting or running/) })
   expect(await sweepsOf(versionIds)).toHaveLength(MAX_ACTIVE_SWEEPS_PER_USER)
   // Another person is not held back by them.
   const other = await createUser(db())
   const mine = await makeProblem(other.id)
-  expect(await outcome(startSweep(db(), { versionId: mine.versionIds[0]!, requestedBy: other.id }))).toMatchObject({ ok: true, reused: false })
+  expect(await outcome(startSweep(db(), { versionId: mine.versionIds[0]!, requestedBy: other.id }))).toMatchObject({
+    ok: true,
+    reused: false,
+  })
 })
 
 test('finished checks and lost ones (still queued after half an hour) no longer count', async () => {
   const owner = await createUser(db())
   const { versionIds } = await makeProblem(owner.id)
   const first = await startSweep(db(), { versionId: versionIds[0]!, requestedBy: owner.id })
-  await db().update(problemSweeps).set({ status: 'done', finishedAt: new Date() }).where(eq(problemSweeps.id, first.sweepId))
+  await db()
+    .update(problemSweeps)
+    .set({ status: 'done', finishedAt: new Date() })
+    .where(eq(problemSweeps.id, first.sweepId))
   const second = await startSweep(db(), { versionId: versionIds[0]!, requestedBy: owner.id })
   expect(second).toMatchObject({ reused: false })
   expect(second.sweepId).not.toBe(first.sweepId)
-  await db().update(problemSweeps).set({ createdAt: sql`now() - interval '31 minutes'` }).where(eq(problemSweeps.id, second.sweepId))
+  await db()
+    .update(problemSweeps)
+    .set({ createdAt: sql`now() - interval '31 minutes'` })
+    .where(eq(problemSweeps.id, second.sweepId))
   const third = await startSweep(db(), { versionId: versionIds[0]!, requestedBy: owner.id })
   expect(third.reused).toBe(false)
   expect(new Set([first.sweepId, second.sweepId, third.sweepId]).size).toBe(3)

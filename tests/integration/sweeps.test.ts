@@ -3,8 +3,21 @@ import { afterAll, beforeAll, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { problems, problemSweeps, problemVersions } from '#app/server/db/schema.server.ts'
-import { DEAD_LETTER_QUEUE, enqueue, getBoss, PermanentJobError, stopBoss, withJobTransaction } from '#app/server/queue.server.ts'
-import { clampSweepTotal, getSweep, latestSweepForVersion, startSweep, type SweepView } from '#app/server/sweeps.server.ts'
+import {
+  DEAD_LETTER_QUEUE,
+  enqueue,
+  getBoss,
+  PermanentJobError,
+  stopBoss,
+  withJobTransaction,
+} from '#app/server/queue.server.ts'
+import {
+  clampSweepTotal,
+  getSweep,
+  latestSweepForVersion,
+  startSweep,
+  type SweepView,
+} from '#app/server/sweeps.server.ts'
 import { handleProblemSweep } from '#jobs/handlers/problem-sweep.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import { createUser } from '#tests/support/factories.ts'
@@ -18,11 +31,25 @@ const carnot: ProblemDefinition = {
   convention: 'engineering',
   prompt: 'A Carnot engine runs between @{TH} and @{TL}.',
   givens: [
-    { name: 'TH', label: 'hot reservoir temperature', unit: 'K', rule: { kind: 'range', min: 500, max: 900, step: 50 } },
-    { name: 'TL', label: 'cold reservoir temperature', unit: 'K', rule: { kind: 'range', min: 280, max: 400, step: 10 } },
+    {
+      name: 'TH',
+      label: 'hot reservoir temperature',
+      unit: 'K',
+      rule: { kind: 'range', min: 500, max: 900, step: 50 },
+    },
+    {
+      name: 'TL',
+      label: 'cold reservoir temperature',
+      unit: 'K',
+      rule: { kind: 'range', min: 280, max: 400, step: 10 },
+    },
   ],
   constraints: [],
-  physics: { kind: 'template', template: 'carnot-engine', inputs: { gas: 'air', Th: 'TH', Tc: 'TL', p1: '100 kPa', expansionRatio: '2' } },
+  physics: {
+    kind: 'template',
+    template: 'carnot-engine',
+    inputs: { gas: 'air', Th: 'TH', Tc: 'TL', p1: '100 kPa', expansionRatio: '2' },
+  },
   finds: [
     {
       name: 'efficiency',
@@ -37,7 +64,11 @@ const carnot: ProblemDefinition = {
 }
 
 // TL never exceeds TH in the ranges above, so this constraint can never be met.
-const impossible: ProblemDefinition = { ...carnot, title: 'Impossible check', constraints: [{ left: 'TL', op: '>', right: 'TH' }] }
+const impossible: ProblemDefinition = {
+  ...carnot,
+  title: 'Impossible check',
+  constraints: [{ left: 'TL', op: '>', right: 'TH' }],
+}
 
 let worker: RunningWorker
 const workerErrors: string[] = []
@@ -55,7 +86,13 @@ async function makeVersion(definition: ProblemDefinition) {
   const owner = await createUser(db())
   const [problem] = await db()
     .insert(problems)
-    .values({ ownerId: owner.id, title: definition.title, cycle: 'carnot-engine', difficulty: 'standard', level: 'first-year' })
+    .values({
+      ownerId: owner.id,
+      title: definition.title,
+      cycle: 'carnot-engine',
+      difficulty: 'standard',
+      level: 'first-year',
+    })
     .returning()
   const [version] = await db()
     .insert(problemVersions)
@@ -69,7 +106,8 @@ async function waitUntilFinished(sweepId: number, ms = 30_000): Promise<SweepVie
   for (;;) {
     const view = await getSweep(db(), sweepId)
     if (view && (view.status === 'done' || view.status === 'failed')) return view
-    if (Date.now() > until) throw new Error(`sweep ${sweepId} did not finish within ${ms / 1000} s: ${JSON.stringify(view)}`)
+    if (Date.now() > until)
+      throw new Error(`sweep ${sweepId} did not finish within ${ms / 1000} s: ${JSON.stringify(view)}`)
     await new Promise((r) => setTimeout(r, 200))
   }
 }
@@ -85,7 +123,16 @@ test('a sweep started from the server is run by the worker: 60 variants checked,
   expect((await getSweep(db(), sweepId))?.total).toBe(60)
 
   const view = await waitUntilFinished(sweepId)
-  expect(view).toMatchObject({ id: sweepId, versionId, status: 'done', total: 60, checked: 60, failed: 0, failures: [], error: null })
+  expect(view).toMatchObject({
+    id: sweepId,
+    versionId,
+    status: 'done',
+    total: 60,
+    checked: 60,
+    failed: 0,
+    failures: [],
+    error: null,
+  })
   expect(view.startedAt).not.toBeNull()
   expect(Date.parse(view.finishedAt!)).toBeGreaterThanOrEqual(Date.parse(view.startedAt!))
   expect((await latestSweepForVersion(db(), versionId))?.id).toBe(sweepId)
@@ -102,7 +149,13 @@ test('a problem whose constraint can never be met finishes with every variant fa
 })
 
 test('the number of variants is kept between 10 and 5000, 500 when not given', async () => {
-  expect([clampSweepTotal(3), clampSweepTotal(1_000_000), clampSweepTotal(undefined), clampSweepTotal(Number.NaN), clampSweepTotal(120)]).toEqual([10, 5000, 500, 500, 120])
+  expect([
+    clampSweepTotal(3),
+    clampSweepTotal(1_000_000),
+    clampSweepTotal(undefined),
+    clampSweepTotal(Number.NaN),
+    clampSweepTotal(120),
+  ]).toEqual([10, 5000, 500, 500, 120])
   const { ownerId, versionId } = await makeVersion(carnot)
   const { sweepId } = await startSweep(db(), { versionId, requestedBy: ownerId, total: 3 })
   expect(await waitUntilFinished(sweepId)).toMatchObject({ status: 'done', total: 10, checked: 10 })
@@ -111,7 +164,10 @@ test('the number of variants is kept between 10 and 5000, 500 when not given', a
 test('running the job twice on one sweep does not count twice', async () => {
   const { ownerId, versionId } = await makeVersion(impossible)
   // Inserted without a job, so only the calls below run it.
-  const [row] = await db().insert(problemSweeps).values({ problemVersionId: versionId, requestedBy: ownerId, total: 30 }).returning()
+  const [row] = await db()
+    .insert(problemSweeps)
+    .values({ problemVersionId: versionId, requestedBy: ownerId, total: 30 })
+    .returning()
   expect(await handleProblemSweep({ v: 1, sweepId: row!.id }, { database: db() })).toBe('done')
   const first = await sweepRow(row!.id)
   expect(await handleProblemSweep({ v: 1, sweepId: row!.id }, { database: db() })).toBe('already-done')
@@ -123,7 +179,15 @@ test('a sweep left running by a worker that died starts again from the first see
   const { ownerId, versionId } = await makeVersion(impossible)
   const [row] = await db()
     .insert(problemSweeps)
-    .values({ problemVersionId: versionId, requestedBy: ownerId, total: 30, status: 'running', checked: 25, failed: 25, startedAt: new Date() })
+    .values({
+      problemVersionId: versionId,
+      requestedBy: ownerId,
+      total: 30,
+      status: 'running',
+      checked: 25,
+      failed: 25,
+      startedAt: new Date(),
+    })
     .returning()
   expect(await handleProblemSweep({ v: 1, sweepId: row!.id }, { database: db() })).toBe('done')
   const after = await sweepRow(row!.id)
@@ -133,7 +197,9 @@ test('a sweep left running by a worker that died starts again from the first see
 
 test('a malformed payload is refused without touching any sweep', async () => {
   const before = await db().execute(sql`select coalesce(json_agg(s order by id), '[]') as rows from problem_sweeps s`)
-  await expect(handleProblemSweep({ v: 1, sweepId: 'one' }, { database: db() })).rejects.toBeInstanceOf(PermanentJobError)
+  await expect(handleProblemSweep({ v: 1, sweepId: 'one' }, { database: db() })).rejects.toBeInstanceOf(
+    PermanentJobError,
+  )
   await expect(handleProblemSweep({ sweepId: 1 }, { database: db() })).rejects.toBeInstanceOf(PermanentJobError)
   await expect(handleProblemSweep(null, { database: db() })).rejects.toBeInstanceOf(PermanentJobError)
   const after = await db().execute(sql`select coalesce(json_agg(s order by id), '[]') as rows from problem_sweeps s`)
@@ -153,7 +219,9 @@ test('the worker fails a malformed job at once, without retries, into the dead-l
     job = await boss.getJobById('problem-sweep', jobId!)
   }
   expect(job).toMatchObject({ state: 'failed', retryCount: 0 })
-  expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed for good: problem-sweep payload is malformed`))
+  expect(workerErrors).toContainEqual(
+    expect.stringContaining(`${jobId} failed for good: problem-sweep payload is malformed`),
+  )
   expect(await boss.getQueueSize(DEAD_LETTER_QUEUE)).toBe(deadBefore + 1)
 })
 
@@ -161,10 +229,17 @@ test('between a failed attempt and its retry the sweep says a retry is coming; a
   const { ownerId, versionId } = await makeVersion(carnot)
   // A definition the handler cannot read makes every attempt throw once the sweep is running.
   await db().execute(sql`update problem_versions set definition = 'null'::jsonb where id = ${versionId}`)
-  const [row] = await db().insert(problemSweeps).values({ problemVersionId: versionId, requestedBy: ownerId, total: 10 }).returning()
+  const [row] = await db()
+    .insert(problemSweeps)
+    .values({ problemVersionId: versionId, requestedBy: ownerId, total: 10 })
+    .returning()
   const boss = await getBoss()
   // Sent around enqueue() for a quick retry: one retry, a second after the first failure.
-  const jobId = await boss.send('problem-sweep', { v: 1, sweepId: row!.id }, { retryLimit: 1, retryDelay: 1, retryBackoff: false })
+  const jobId = await boss.send(
+    'problem-sweep',
+    { v: 1, sweepId: row!.id },
+    { retryLimit: 1, retryDelay: 1, retryBackoff: false },
+  )
   expect(jobId).not.toBeNull()
 
   const waiting = new Set<string>()
@@ -176,21 +251,30 @@ test('between a failed attempt and its retry the sweep says a retry is coming; a
     view = await getSweep(db(), row!.id)
   }
   expect([...waiting]).toEqual([expect.stringMatching(/^Attempt 1 of 2 stopped \(.+\); trying again shortly\.$/)])
-  expect(view).toMatchObject({ status: 'failed', error: expect.stringMatching(/^The check stopped after 2 attempts: .+/) })
+  expect(view).toMatchObject({
+    status: 'failed',
+    error: expect.stringMatching(/^The check stopped after 2 attempts: .+/),
+  })
   expect(view!.finishedAt).not.toBeNull()
   // The handler writes the row before it rethrows; pg-boss records the failure a moment later.
-  await expect.poll(async () => boss.getJobById('problem-sweep', jobId!), { timeout: 10_000 }).toMatchObject({ state: 'failed', retryCount: 1 })
+  await expect
+    .poll(async () => boss.getJobById('problem-sweep', jobId!), { timeout: 10_000 })
+    .toMatchObject({ state: 'failed', retryCount: 1 })
   await expect.poll(() => workerErrors.length, { timeout: 10_000 }).toBeGreaterThanOrEqual(2)
   expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed (attempt 1 of 2)`))
   expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed (attempt 2 of 2)`))
 })
 
 test('a job enqueued inside a transaction that rolls back is never sent', async () => {
-  const jobsFor = async (key: string) => (await db().execute(sql`select count(*)::int as n from pgboss.job where singleton_key = ${key}`)).rows[0]!.n
+  const jobsFor = async (key: string) =>
+    (await db().execute(sql`select count(*)::int as n from pgboss.job where singleton_key = ${key}`)).rows[0]!.n
   const { ownerId, versionId } = await makeVersion(carnot)
   await expect(
     withJobTransaction(db(), async (tx, jobs) => {
-      const [row] = await tx.insert(problemSweeps).values({ problemVersionId: versionId, requestedBy: ownerId, total: 10 }).returning()
+      const [row] = await tx
+        .insert(problemSweeps)
+        .values({ problemVersionId: versionId, requestedBy: ownerId, total: 10 })
+        .returning()
       await enqueue('problem-sweep', { v: 1, sweepId: row!.id }, { connection: jobs })
       expect(await jobsFor(`sweep-${row!.id}`)).toBe(0)
       throw new Error('changed my mind')
@@ -203,5 +287,7 @@ test('a job enqueued inside a transaction that rolls back is never sent', async 
 })
 
 test('enqueue refuses a payload that does not match its queue', async () => {
-  await expect(enqueue('problem-sweep', { v: 1, sweepId: 0 })).rejects.toThrow('Job payload for problem-sweep is not valid')
+  await expect(enqueue('problem-sweep', { v: 1, sweepId: 0 })).rejects.toThrow(
+    'Job payload for problem-sweep is not valid',
+  )
 })

@@ -41,12 +41,15 @@ describe.each(versions)('%s', (_label, def) => {
     expect(html.match(/<li>/g)?.length ?? 0).toBeGreaterThanOrEqual(def.finds.length)
   })
 
-  test.each(['engineering', 'chemistry'] as const)('100 variants in the %s convention are all physical', (convention) => {
-    const summary = sweepVariants(def, { seeds: SEEDS, convention })
-    expect(summary.failures).toEqual([])
-    expect(summary.failed).toBe(0)
-    expect(summary.checked).toBe(SEEDS.length)
-  })
+  test.each(['engineering', 'chemistry'] as const)(
+    '100 variants in the %s convention are all physical',
+    (convention) => {
+      const summary = sweepVariants(def, { seeds: SEEDS, convention })
+      expect(summary.failures).toEqual([])
+      expect(summary.failed).toBe(0)
+      expect(summary.checked).toBe(SEEDS.length)
+    },
+  )
 })
 
 test('every cycle template of the solver and a general cycle appear in the demo bank', () => {
@@ -63,7 +66,8 @@ test('titles are unique, so seeding by owner and title finds each problem again'
 
 test('a copy names a problem listed before it, and earlier versions keep the title of the current one', () => {
   DEMO_PROBLEMS.forEach((p, i) => {
-    if (p.copiedFrom !== undefined) expect(DEMO_PROBLEMS.slice(0, i).map((q) => q.definition.title)).toContain(p.copiedFrom)
+    if (p.copiedFrom !== undefined)
+      expect(DEMO_PROBLEMS.slice(0, i).map((q) => q.definition.title)).toContain(p.copiedFrom)
     for (const earlier of p.earlierVersions ?? []) {
       expect(earlier.title).toBe(p.definition.title)
       expect(earlier).not.toEqual(p.definition)
@@ -75,7 +79,9 @@ test('a copy names a problem listed before it, and earlier versions keep the tit
 
 test('both instructors own problems, and the conventions differ: a course-convention work find changes sign between the two', () => {
   expect(new Set(DEMO_PROBLEMS.map((p) => p.owner))).toEqual(new Set(['tobias', 'amara']))
-  const otto = DEMO_PROBLEMS.find((p) => p.definition.physics.kind === 'template' && p.definition.physics.template === 'otto')!.definition
+  const otto = DEMO_PROBLEMS.find(
+    (p) => p.definition.physics.kind === 'template' && p.definition.physics.template === 'otto',
+  )!.definition
   const eng = drawVariant(otto, 7, { convention: 'engineering' })
   const chem = drawVariant(otto, 7, { convention: 'chemistry' })
   if (!eng.ok || !chem.ok) throw new Error('the Otto problem should draw seed 7')

@@ -29,7 +29,12 @@ test.each([
 })
 
 test('a domain module that imports only the domain passes', async () => {
-  expect(await problems('app/domain/thermo/_probe.ts', "import { R_MOLAR } from '#app/domain/thermo/constants.ts'\nexport const x = 2 * R_MOLAR\n")).toEqual([])
+  expect(
+    await problems(
+      'app/domain/thermo/_probe.ts',
+      "import { R_MOLAR } from '#app/domain/thermo/constants.ts'\nexport const x = 2 * R_MOLAR\n",
+    ),
+  ).toEqual([])
 })
 
 test.each([
@@ -41,5 +46,10 @@ test.each([
 })
 
 test('a background job may use the server and the domain', async () => {
-  expect(await problems('jobs/handlers/_probe.ts', "import { db } from '#app/server/db/client.server.ts'\nimport { seedFrom } from '#app/domain/authoring/seed.ts'\nexport const x = [db, seedFrom]\n")).toEqual([])
+  expect(
+    await problems(
+      'jobs/handlers/_probe.ts',
+      "import { db } from '#app/server/db/client.server.ts'\nimport { seedFrom } from '#app/domain/authoring/seed.ts'\nexport const x = [db, seedFrom]\n",
+    ),
+  ).toEqual([])
 })

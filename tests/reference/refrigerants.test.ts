@@ -14,7 +14,13 @@ import { R744 } from '#app/domain/thermo/refrigerants/fluids/r744.ts'
 import { REFRIGERANTS } from '#app/domain/thermo/refrigerants/index.ts'
 import type { FluidData } from '#app/domain/thermo/refrigerants/model.ts'
 
-interface Molar { T: number; rhomolar: number; p: number; hmolar: number; smolar: number }
+interface Molar {
+  T: number
+  rhomolar: number
+  p: number
+  hmolar: number
+  smolar: number
+}
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b)
 
 function checkFile(name: string, data: FluidData, anchor: Molar, tl: Molar, tv: Molar) {
@@ -25,13 +31,15 @@ function checkFile(name: string, data: FluidData, anchor: Molar, tl: Molar, tv: 
       for (const st of [anchor, tl, tv]) expect(rel(at(st.T, st.rhomolar * M).p, st.p)).toBeLessThan(1e-8)
     })
     it('h and s differences between states to 1e-7', () => {
-      const a = at(anchor.T, anchor.rhomolar * M), l = at(tl.T, tl.rhomolar * M), v = at(tv.T, tv.rhomolar * M)
+      const a = at(anchor.T, anchor.rhomolar * M),
+        l = at(tl.T, tl.rhomolar * M),
+        v = at(tv.T, tv.rhomolar * M)
       expect(rel(a.h - l.h, (anchor.hmolar - tl.hmolar) / M)).toBeLessThan(1e-7)
       expect(rel(v.h - l.h, (tv.hmolar - tl.hmolar) / M)).toBeLessThan(1e-7)
       expect(rel(a.s - l.s, (anchor.smolar - tl.smolar) / M)).toBeLessThan(1e-7)
       expect(rel(v.s - l.s, (tv.smolar - tl.smolar) / M)).toBeLessThan(1e-7)
     })
-    it('saturation at the triple-point temperature reproduces the file\'s coexisting densities and pressure', () => {
+    it("saturation at the triple-point temperature reproduces the file's coexisting densities and pressure", () => {
       const s = REFRIGERANTS[data.id].saturationT(tl.T)
       expect(s.ok).toBe(true)
       if (!s.ok) return
@@ -43,20 +51,77 @@ function checkFile(name: string, data: FluidData, anchor: Molar, tl: Molar, tv: 
 }
 
 // dev/fluids/R134a.json, EOS[0].STATES (Tillner-Roth & Baehr 1994)
-checkFile('R-134a', R134A,
-  { T: 411.598, rhomolar: 4480.9471539000015, p: 6858750.808053112, hmolar: 45468.086192270304, smolar: 172.44139866136513 },
-  { T: 169.85, rhomolar: 15594.200379934837, p: 389.56378856198955, hmolar: 7290.6959446709525, smolar: 42.10013943778218 },
-  { T: 169.85, rhomolar: 0.27611228212880073, p: 389.56379159193614, hmolar: 34174.80559991693, smolar: 200.38162100644377 })
+checkFile(
+  'R-134a',
+  R134A,
+  {
+    T: 411.598,
+    rhomolar: 4480.9471539000015,
+    p: 6858750.808053112,
+    hmolar: 45468.086192270304,
+    smolar: 172.44139866136513,
+  },
+  {
+    T: 169.85,
+    rhomolar: 15594.200379934837,
+    p: 389.56378856198955,
+    hmolar: 7290.6959446709525,
+    smolar: 42.10013943778218,
+  },
+  {
+    T: 169.85,
+    rhomolar: 0.27611228212880073,
+    p: 389.56379159193614,
+    hmolar: 34174.80559991693,
+    smolar: 200.38162100644377,
+  },
+)
 // dev/fluids/CarbonDioxide.json, EOS[0].STATES (Span & Wagner 1996)
-checkFile('R-744', R744,
+checkFile(
+  'R-744',
+  R744,
   { T: 334.54102, rhomolar: 9562.41567, p: 12034846.936049871, hmolar: 17160.722172023383, smolar: 69.6221044162246 },
-  { T: 216.592, rhomolar: 26777.277860217495, p: 517964.34344772575, hmolar: 3522.347496266107, smolar: 22.943179480180966 },
-  { T: 216.592, rhomolar: 312.6777588871105, p: 517964.36480694986, hmolar: 18942.529431708266, smolar: 94.13778439068052 })
+  {
+    T: 216.592,
+    rhomolar: 26777.277860217495,
+    p: 517964.34344772575,
+    hmolar: 3522.347496266107,
+    smolar: 22.943179480180966,
+  },
+  {
+    T: 216.592,
+    rhomolar: 312.6777588871105,
+    p: 517964.36480694986,
+    hmolar: 18942.529431708266,
+    smolar: 94.13778439068052,
+  },
+)
 // dev/fluids/Ammonia.json, the Tillner-Roth, Harms-Watzenberg & Baehr 1993 EOS entry, STATES
-checkFile('R-717', R717,
-  { T: 445.94, rhomolar: 11890.599438881152, p: 18635643.933141705, hmolar: 25012.280343289814, smolar: 75.46262589632495 },
-  { T: 195.495, rhomolar: 43035.33929207322, p: 6091.2231081315085, hmolar: 0.14111811220522047, smolar: -1.9440525067083775e-6 },
-  { T: 195.495, rhomolar: 3.763506027681136, p: 6091.223108650368, hmolar: 25279.492873914965, smolar: 129.30945229032756 })
+checkFile(
+  'R-717',
+  R717,
+  {
+    T: 445.94,
+    rhomolar: 11890.599438881152,
+    p: 18635643.933141705,
+    hmolar: 25012.280343289814,
+    smolar: 75.46262589632495,
+  },
+  {
+    T: 195.495,
+    rhomolar: 43035.33929207322,
+    p: 6091.2231081315085,
+    hmolar: 0.14111811220522047,
+    smolar: -1.9440525067083775e-6,
+  },
+  {
+    T: 195.495,
+    rhomolar: 3.763506027681136,
+    p: 6091.223108650368,
+    hmolar: 25279.492873914965,
+    smolar: 129.30945229032756,
+  },
+)
 
 // This file version has no STATES block. Its ptriple agrees with ours to 1e-7; its
 // rhoLtriple/rhoVtriple differ by 2e-6 / 5e-5 although the pressure agrees, so they were not

@@ -40,5 +40,7 @@ test('seedFrom agrees with the independent Python implementation on 303 part lis
 })
 
 test('the three values pinned in seed.test.ts are what the script gives', () => {
-  expect(pythonSeeds([[], ['a'], ['assignment', 1, 'problem', 2, 'student', 3]])).toEqual([2872998923, 171730747, 3085255853])
+  expect(pythonSeeds([[], ['a'], ['assignment', 1, 'problem', 2, 'student', 3]])).toEqual([
+    2872998923, 171730747, 3085255853,
+  ])
 })

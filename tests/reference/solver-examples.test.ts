@@ -15,7 +15,8 @@ test.each(files)('docs/examples/%s solves', (f) => {
   // (the combined cycle lists its gas states and, in its bottoming cycle, the steam states)
   const states = 'gasStates' in r ? [...r.gasStates, ...r.bottoming.states] : r.states
   for (const s of states as unknown as Record<string, unknown>[]) {
-    for (const v of Object.values(s)) if (v && typeof v === 'object' && 'value' in v) expect(Number.isFinite((v as { value: number }).value)).toBe(true)
+    for (const v of Object.values(s))
+      if (v && typeof v === 'object' && 'value' in v) expect(Number.isFinite((v as { value: number }).value)).toBe(true)
   }
 })
 

@@ -6,7 +6,14 @@
 // install hint; they never skip.
 import { beforeAll, describe, expect, test } from 'vitest'
 import { mulberry32 as prng } from '#app/domain/random.ts'
-import { solveSteamCarnot, stateFromPT, stateFromPV, stateFromPx, stateFromTS, stateFromTV } from '#app/domain/thermo/steam/index.ts'
+import {
+  solveSteamCarnot,
+  stateFromPT,
+  stateFromPV,
+  stateFromPx,
+  stateFromTS,
+  stateFromTV,
+} from '#app/domain/thermo/steam/index.ts'
 import type { SteamState } from '#app/domain/thermo/steam/index.ts'
 import { referenceAvailable, referenceStates, REFERENCE_MISSING_MESSAGE } from '#tests/support/iapws-reference.ts'
 import type { RefQuery, RefState } from '#tests/support/iapws-reference.ts'
@@ -47,7 +54,9 @@ const TL = 323.15
 beforeAll(() => {
   available = referenceAvailable()
   if (!available) return
-  const q: RefQuery[] = cases.map((c) => (c.mine.x !== null ? { kind: 'Tx', T: c.mine.T, x: c.mine.x } : { kind: 'PT', p: c.mine.p, T: c.mine.T }))
+  const q: RefQuery[] = cases.map((c) =>
+    c.mine.x !== null ? { kind: 'Tx', T: c.mine.T, x: c.mine.x } : { kind: 'PT', p: c.mine.p, T: c.mine.T },
+  )
   refs = referenceStates(q)
   carnotRefs = referenceStates([
     { kind: 'Tx', T: TH, x: 0 },
@@ -58,21 +67,24 @@ beforeAll(() => {
 })
 
 describe('new state routes against python3-iapws', () => {
-  test.each(['Ts', 'Tv', 'pv'] as const)('%s: the given property at our state, relative 1e-7 (reference: IAPWS97(P, T) or (T, x))', (kind) => {
-    if (!available) throw new Error(REFERENCE_MISSING_MESSAGE)
-    const bad: string[] = []
-    let n = 0
-    cases.forEach((c, i) => {
-      if (c.kind !== kind) return
-      n++
-      const ref = refs[i]!
-      const got = kind === 'Ts' ? ref.s : ref.v
-      const err = Math.abs(got - c.given) / Math.max(Math.abs(c.given), kind === 'Ts' ? 1 : 0)
-      if (!(err <= 1e-7)) bad.push(`${kind} T=${c.mine.T} p=${c.mine.p}: given ${c.given}, iapws ${got}`)
-    })
-    expect(n).toBe(120)
-    expect(bad.slice(0, 10)).toEqual([])
-  })
+  test.each(['Ts', 'Tv', 'pv'] as const)(
+    '%s: the given property at our state, relative 1e-7 (reference: IAPWS97(P, T) or (T, x))',
+    (kind) => {
+      if (!available) throw new Error(REFERENCE_MISSING_MESSAGE)
+      const bad: string[] = []
+      let n = 0
+      cases.forEach((c, i) => {
+        if (c.kind !== kind) return
+        n++
+        const ref = refs[i]!
+        const got = kind === 'Ts' ? ref.s : ref.v
+        const err = Math.abs(got - c.given) / Math.max(Math.abs(c.given), kind === 'Ts' ? 1 : 0)
+        if (!(err <= 1e-7)) bad.push(`${kind} T=${c.mine.T} p=${c.mine.p}: given ${c.given}, iapws ${got}`)
+      })
+      expect(n).toBe(120)
+      expect(bad.slice(0, 10)).toEqual([])
+    },
+  )
 })
 
 describe('vapour Carnot cycle against python3-iapws', () => {

@@ -50,7 +50,7 @@ for (let i = 0; i < 350; i++) {
 }
 // Region 3: 623.15 K < T, p_B23(T) < p <= 100 MPa, away from the saturation line and from the
 // immediate neighbourhood of the critical point.
-for (let n = 0; n < 250; ) {
+for (let n = 0; n < 250;) {
   const T = uniform(623.4, 862.9)
   const pLow = pB23(T) * 1.02
   if (pLow >= 99.9) continue
@@ -141,7 +141,14 @@ describe('IAPWS-IF97 against python3-iapws (independent implementation), relativ
     expect(points.length).toBeGreaterThanOrEqual(1000)
   })
 
-  const categories: Category[] = ['region 1', 'region 2', 'region 3', 'region 5', 'saturation (p, x)', 'saturation region 3 (T, x)']
+  const categories: Category[] = [
+    'region 1',
+    'region 2',
+    'region 3',
+    'region 5',
+    'saturation (p, x)',
+    'saturation region 3 (T, x)',
+  ]
   test.each(categories)('%s: v, h, u, s, cp, cv, w (reference: python3-iapws IAPWS97)', (category) => {
     requireReference()
     const failures: string[] = []
@@ -158,7 +165,8 @@ describe('IAPWS-IF97 against python3-iapws (independent implementation), relativ
         if (ref.region !== want) failures.push(`reference chose region ${ref.region} at ${JSON.stringify(pt.query)}`)
       }
       const mine = ours(pt.query)
-      const props = category.startsWith('saturation (p') && mine.x !== 0 && mine.x !== 1 ? (['v', 'h', 'u', 's'] as const) : PROPS
+      const props =
+        category.startsWith('saturation (p') && mine.x !== 0 && mine.x !== 1 ? (['v', 'h', 'u', 's'] as const) : PROPS
       const bad = compare(mine, ref, props)
       count++
       if (bad.length) failures.push(`${JSON.stringify(pt.query)}: ${bad.join('; ')}`)
@@ -170,7 +178,9 @@ describe('IAPWS-IF97 against python3-iapws (independent implementation), relativ
 
 describe('saturation line p_s(T), T_s(p) and backward routes against python3-iapws', () => {
   const satT = Array.from({ length: 40 }, (_, i) => 273.15 + ((647.096 - 273.15) * (i + 0.5)) / 40)
-  const satP = Array.from({ length: 40 }, (_, i) => Math.exp(Math.log(611.3) + ((Math.log(22.06e6) - Math.log(611.3)) * (i + 0.5)) / 40))
+  const satP = Array.from({ length: 40 }, (_, i) =>
+    Math.exp(Math.log(611.3) + ((Math.log(22.06e6) - Math.log(611.3)) * (i + 0.5)) / 40),
+  )
   // (p, h) and (p, s) inputs built from random single-phase reference states.
   const route = points.filter((p) => p.query.kind === 'PT').filter((_, i) => i % 7 === 0)
   let satRefs: RefResult[] = []
@@ -219,7 +229,8 @@ describe('saturation line p_s(T), T_s(p) and backward routes against python3-iap
           continue
         }
         const mine = j === i ? stateFromPH(ref.p, ref.h) : stateFromPS(ref.p, ref.s)
-        if (ref.T > 1073.15 && mine.ok && mine.value.region !== 5) failures.push(`region ${mine.value.region} for a region-5 state at p=${ref.p}, T=${ref.T}`)
+        if (ref.T > 1073.15 && mine.ok && mine.value.region !== 5)
+          failures.push(`region ${mine.value.region} for a region-5 state at p=${ref.p}, T=${ref.T}`)
         if (!mine.ok) {
           failures.push(`ours failed: ${JSON.stringify(mine.error)}`)
           continue

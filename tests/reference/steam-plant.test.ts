@@ -12,7 +12,12 @@
 // the install hint; they never skip.
 import { beforeAll, describe, expect, test } from 'vitest'
 import { solveRankine, solveSteamPlant, solveThrottlingCalorimeter } from '#app/domain/thermo/steam/index.ts'
-import { referenceAvailable, referenceBatch, referenceStates, REFERENCE_MISSING_MESSAGE } from '#tests/support/iapws-reference.ts'
+import {
+  referenceAvailable,
+  referenceBatch,
+  referenceStates,
+  REFERENCE_MISSING_MESSAGE,
+} from '#tests/support/iapws-reference.ts'
 import type { RefQuery } from '#tests/support/iapws-reference.ts'
 
 const C = 273.15
@@ -107,7 +112,13 @@ beforeAll(() => {
     const y2 = 1 - y1 - F3 - y3
     const y4 = (F3 * (ho4 - hp1)) / (hb4 - hf4) // H4: y4 (hb4 - hf4) = F3 (ho4 - hp1)
     const m = 1 - y1 - y2 - y3 - y4
-    const wt = h0 - hb1 + (1 - y1) * (hb1 - hb2) + (1 - y1 - y2) * (hb2 - hb3) + (1 - y1 - y2 - y3) * (hb3 - hb4) + m * (hb4 - hex)
+    const wt =
+      h0 -
+      hb1 +
+      (1 - y1) * (hb1 - hb2) +
+      (1 - y1 - y2) * (hb2 - hb3) +
+      (1 - y1 - y2 - y3) * (hb3 - hb4) +
+      m * (hb4 - hex)
     const wp = F3 * (hp1 - hc) + (hp2 - hf2) + y3 * (hdp3 - hf3)
     const qin = h0 - ho1
     const qout = m * (hex - hc) + y4 * (hf4 - hc)
@@ -205,7 +216,14 @@ describe('steam plants recomputed with python3-iapws states and hand-written hea
   })
   test('Example 10-8 (b) (from memory): cogeneration, 70 % to process at 0.5 MPa', () => {
     need()
-    const r = value(solveSteamPlant({ boilerPressure: 7e6, condenserPressure: 5e3, turbineInletTemperature: 500 + C, process: { pressure: 0.5e6, fraction: 0.7 } }))
+    const r = value(
+      solveSteamPlant({
+        boilerPressure: 7e6,
+        condenserPressure: 5e3,
+        turbineInletTemperature: 500 + C,
+        process: { pressure: 0.5e6, fraction: 0.7 },
+      }),
+    )
     const w = want.C!
     close(r.processHeat!, w.qp!)
     close(r.netWork, w.net!)
@@ -220,8 +238,9 @@ describe('steam plants recomputed with python3-iapws states and hand-written hea
   })
   test('throttling calorimeter, Moran & Shapiro Example 4.8 (from memory): 2 MPa line, 0.1 MPa / 120 C', () => {
     need()
-    const r = value(solveThrottlingCalorimeter({ linePressure: 2e6, calorimeterPressure: 0.1e6, calorimeterTemperature: 120 + C }))
+    const r = value(
+      solveThrottlingCalorimeter({ linePressure: 2e6, calorimeterPressure: 0.1e6, calorimeterTemperature: 120 + C }),
+    )
     close(r.quality, want.E!.x!)
   })
 })
-

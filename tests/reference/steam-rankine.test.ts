@@ -104,15 +104,49 @@ function check(name: string, r: RankineResult) {
 
 describe('Rankine cycles recomputed with python3-iapws states (independent reference)', () => {
   test('Cengel & Boles 7th ed. Example 10-1 (from memory): 3 MPa / 350 C / 75 kPa, ideal', () => {
-    check('10-1', mine(solveRankine({ boilerPressure: 3e6, condenserPressure: 75e3, turbineInletTemperature: 350 + C })))
+    check(
+      '10-1',
+      mine(solveRankine({ boilerPressure: 3e6, condenserPressure: 75e3, turbineInletTemperature: 350 + C })),
+    )
   })
   test('Example 10-4 (from memory): 15 MPa / 600 C, reheat 4 MPa to 600 C, 10 kPa', () => {
-    check('10-4', mine(solveRankine({ boilerPressure: pB, condenserPressure: pC, turbineInletTemperature: T3, reheat: { pressure: 4e6, temperature: T3 } })))
+    check(
+      '10-4',
+      mine(
+        solveRankine({
+          boilerPressure: pB,
+          condenserPressure: pC,
+          turbineInletTemperature: T3,
+          reheat: { pressure: 4e6, temperature: T3 },
+        }),
+      ),
+    )
   })
   test('Example 10-5 (from memory): open feedwater heater at 1.2 MPa', () => {
-    check('10-5', mine(solveRankine({ boilerPressure: pB, condenserPressure: pC, turbineInletTemperature: T3, openFeedwaterHeater: { pressure: 1.2e6 } })))
+    check(
+      '10-5',
+      mine(
+        solveRankine({
+          boilerPressure: pB,
+          condenserPressure: pC,
+          turbineInletTemperature: T3,
+          openFeedwaterHeater: { pressure: 1.2e6 },
+        }),
+      ),
+    )
   })
   test('15 MPa / 600 C / 10 kPa with pump efficiency 0.85 and turbine efficiency 0.87', () => {
-    check('eff', mine(solveRankine({ boilerPressure: pB, condenserPressure: pC, turbineInletTemperature: T3, pumpEfficiency: 0.85, turbineEfficiency: 0.87 })))
+    check(
+      'eff',
+      mine(
+        solveRankine({
+          boilerPressure: pB,
+          condenserPressure: pC,
+          turbineInletTemperature: T3,
+          pumpEfficiency: 0.85,
+          turbineEfficiency: 0.87,
+        }),
+      ),
+    )
   })
 })

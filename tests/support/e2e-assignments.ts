@@ -46,7 +46,10 @@ export async function demoProblem(assignmentTitle: string, position: number): Pr
 }
 
 /** A student of the course who has not answered this problem yet (first by name), and not `except`. */
-export async function freshStudent(ref: DemoProblemRef, except: string[] = []): Promise<{ id: number; email: string; name: string }> {
+export async function freshStudent(
+  ref: DemoProblemRef,
+  except: string[] = [],
+): Promise<{ id: number; email: string; name: string }> {
   const rows = await e2eQuery<{ id: number; email: string; name: string }>(
     `select u.id, u.email, u.name from memberships m join users u on u.id = m.user_id
       where m.course_id = $1 and m.role = 'student' and not (u.email = any($3::text[]))
@@ -59,7 +62,10 @@ export async function freshStudent(ref: DemoProblemRef, except: string[] = []): 
 }
 
 /** The key of a student's variant: find name → "value unit", to 6 significant figures. */
-export function keyFor(ref: DemoProblemRef, userId: number): Record<string, { text: string; value: number; unit: string }> {
+export function keyFor(
+  ref: DemoProblemRef,
+  userId: number,
+): Record<string, { text: string; value: number; unit: string }> {
   const drawn = studentVariant({
     versionId: ref.versionId,
     definition: ref.definition,
@@ -69,5 +75,10 @@ export function keyFor(ref: DemoProblemRef, userId: number): Record<string, { te
     courseConvention: ref.convention,
   })
   if (!drawn.ok) throw new Error(drawn.error.message)
-  return Object.fromEntries(drawn.variant.key.map((k) => [k.name, { text: `${Number(k.value.toPrecision(6))}${k.unit ? ` ${k.unit}` : ''}`, value: k.value, unit: k.unit }]))
+  return Object.fromEntries(
+    drawn.variant.key.map((k) => [
+      k.name,
+      { text: `${Number(k.value.toPrecision(6))}${k.unit ? ` ${k.unit}` : ''}`, value: k.value, unit: k.unit },
+    ]),
+  )
 }

@@ -55,7 +55,11 @@ async function exited(child: ChildProcess, ms: number) {
 
 export default async function setup(project: TestProject) {
   if (!fs.existsSync(path.join(projectRoot, 'build', 'server', 'index.js'))) {
-    const r = spawnSync('npx', ['react-router', 'build'], { cwd: projectRoot, stdio: 'inherit', env: { ...process.env, NODE_ENV: 'production' } })
+    const r = spawnSync('npx', ['react-router', 'build'], {
+      cwd: projectRoot,
+      stdio: 'inherit',
+      env: { ...process.env, NODE_ENV: 'production' },
+    })
     if (r.status !== 0) throw new Error('react-router build failed')
   }
   const server = await serverUrl()
@@ -107,7 +111,8 @@ export default async function setup(project: TestProject) {
     for (const c of [worker, child]) c.kill('SIGTERM')
     // vitest gives a global teardown 10 s; a test worker has nothing worth a longer graceful stop.
     await Promise.all([exited(worker, 4_000), exited(child, 500)])
-    if (/Error|error/.test(output + workerOutput) && process.env.E2E_SHOW_SERVER_LOG === '1') console.log(output, workerOutput)
+    if (/Error|error/.test(output + workerOutput) && process.env.E2E_SHOW_SERVER_LOG === '1')
+      console.log(output, workerOutput)
     await dropDatabase(server, name)
   }
 }

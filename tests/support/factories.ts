@@ -27,21 +27,40 @@ const next = () => `${process.pid}-${++counter}-${Math.random().toString(36).sli
 
 export async function createDepartment(db: Db, overrides: Partial<{ slug: string; name: string }> = {}) {
   const slug = overrides.slug ?? `dept-${next()}`
-  const [row] = await db.insert(departments).values({ slug, name: overrides.name ?? `Department ${slug}` }).returning()
+  const [row] = await db
+    .insert(departments)
+    .values({ slug, name: overrides.name ?? `Department ${slug}` })
+    .returning()
   return row!
 }
 
-export async function createTerm(db: Db, departmentId: number, overrides: Partial<{ name: string; startsOn: string; endsOn: string }> = {}) {
+export async function createTerm(
+  db: Db,
+  departmentId: number,
+  overrides: Partial<{ name: string; startsOn: string; endsOn: string }> = {},
+) {
   const [row] = await db
     .insert(terms)
-    .values({ departmentId, name: overrides.name ?? `Term ${next()}`, startsOn: overrides.startsOn ?? '2026-09-01', endsOn: overrides.endsOn ?? '2026-12-20' })
+    .values({
+      departmentId,
+      name: overrides.name ?? `Term ${next()}`,
+      startsOn: overrides.startsOn ?? '2026-09-01',
+      endsOn: overrides.endsOn ?? '2026-12-20',
+    })
     .returning()
   return row!
 }
 
 export async function createCourse(
   db: Db,
-  overrides: Partial<{ departmentId: number; termId: number; code: string; title: string; timeZone: string; signConvention: SignConvention }> = {},
+  overrides: Partial<{
+    departmentId: number
+    termId: number
+    code: string
+    title: string
+    timeZone: string
+    signConvention: SignConvention
+  }> = {},
 ) {
   const departmentId = overrides.departmentId ?? (await createDepartment(db)).id
   const termId = overrides.termId ?? (await createTerm(db, departmentId)).id
@@ -61,7 +80,13 @@ export async function createCourse(
 
 export async function createUser(
   db: Db,
-  overrides: Partial<{ email: string; name: string; password: string | null; isAdmin: boolean; departmentId: number | null }> = {},
+  overrides: Partial<{
+    email: string
+    name: string
+    password: string | null
+    isAdmin: boolean
+    departmentId: number | null
+  }> = {},
 ) {
   const email = (overrides.email ?? `person-${next()}@test.example`).toLowerCase()
   const password = overrides.password === undefined ? 'correct horse battery' : overrides.password
@@ -78,7 +103,13 @@ export async function createUser(
   return { ...row!, password }
 }
 
-export async function addMember(db: Db, userId: number, courseId: number, role: CourseRole, section: string | null = null) {
+export async function addMember(
+  db: Db,
+  userId: number,
+  courseId: number,
+  role: CourseRole,
+  section: string | null = null,
+) {
   const [row] = await db
     .insert(memberships)
     .values({ userId, courseId, role, section })
@@ -96,9 +127,17 @@ export async function findUserIdByEmail(db: Db, email: string) {
  * Someone who may use the problem bank: an instructor of a fresh course in their department
  * (or an admin). Returns the user and the BankViewer the bank functions take.
  */
-export async function createBankUser(db: Db, overrides: Partial<{ name: string; departmentId: number | null; isAdmin: boolean }> = {}) {
+export async function createBankUser(
+  db: Db,
+  overrides: Partial<{ name: string; departmentId: number | null; isAdmin: boolean }> = {},
+) {
   const departmentId = overrides.departmentId === undefined ? (await createDepartment(db)).id : overrides.departmentId
-  const user = await createUser(db, { name: overrides.name ?? 'Bank Instructor', departmentId, isAdmin: overrides.isAdmin ?? false, password: null })
+  const user = await createUser(db, {
+    name: overrides.name ?? 'Bank Instructor',
+    departmentId,
+    isAdmin: overrides.isAdmin ?? false,
+    password: null,
+  })
   const course = await createCourse(db, departmentId === null ? {} : { departmentId })
   await addMember(db, user.id, course.id, 'instructor')
   return { user, viewer: { id: user.id, isAdmin: user.isAdmin, departmentId } }
@@ -108,7 +147,12 @@ export async function createBankUser(db: Db, overrides: Partial<{ name: string; 
  * A bank problem with one version (frozen, as an assignment uses it) owned by `ownerId`,
  * from a definition (a demo problem's, usually). Returns the problem and version ids.
  */
-export async function createProblemWithVersion(db: Db, ownerId: number, definition: ProblemDefinition, options: { frozen?: boolean } = {}) {
+export async function createProblemWithVersion(
+  db: Db,
+  ownerId: number,
+  definition: ProblemDefinition,
+  options: { frozen?: boolean } = {},
+) {
   const [problem] = await db
     .insert(problems)
     .values({
@@ -122,7 +166,13 @@ export async function createProblemWithVersion(db: Db, ownerId: number, definiti
     .returning({ id: problems.id })
   const [version] = await db
     .insert(problemVersions)
-    .values({ problemId: problem!.id, number: 1, definition, createdBy: ownerId, frozenAt: options.frozen === false ? null : new Date() })
+    .values({
+      problemId: problem!.id,
+      number: 1,
+      definition,
+      createdBy: ownerId,
+      frozenAt: options.frozen === false ? null : new Date(),
+    })
     .returning({ id: problemVersions.id })
   return { problemId: problem!.id, versionId: version!.id }
 }
@@ -136,7 +186,13 @@ export async function recordCheck(
   db: Db,
   versionId: number,
   requestedBy: number,
-  options: { status?: 'queued' | 'running' | 'done' | 'failed'; total?: number; checked?: number; failed?: number; createdAt?: Date } = {},
+  options: {
+    status?: 'queued' | 'running' | 'done' | 'failed'
+    total?: number
+    checked?: number
+    failed?: number
+    createdAt?: Date
+  } = {},
 ) {
   const total = options.total ?? 500
   const [row] = await db
@@ -164,7 +220,12 @@ export async function createAssignment(
   db: Db,
   courseId: number,
   createdBy: number,
-  items: readonly { problemId: number; versionId: number; points?: number; toleranceOverrides?: Record<string, unknown> }[],
+  items: readonly {
+    problemId: number
+    versionId: number
+    points?: number
+    toleranceOverrides?: Record<string, unknown>
+  }[],
   overrides: AssignmentOverrides = {},
 ) {
   const now = Date.now()
@@ -205,10 +266,23 @@ export async function createAssignment(
 export async function createCourseWithAssignment(
   db: Db,
   definitions: readonly ProblemDefinition[],
-  options: { students?: number; signConvention?: SignConvention; timeZone?: string; assignment?: AssignmentOverrides; checked?: boolean } = {},
+  options: {
+    students?: number
+    signConvention?: SignConvention
+    timeZone?: string
+    assignment?: AssignmentOverrides
+    checked?: boolean
+  } = {},
 ) {
-  const course = await createCourse(db, { signConvention: options.signConvention ?? 'engineering', timeZone: options.timeZone ?? 'UTC' })
-  const instructor = await createUser(db, { name: 'Course Instructor', departmentId: course.departmentId, password: null })
+  const course = await createCourse(db, {
+    signConvention: options.signConvention ?? 'engineering',
+    timeZone: options.timeZone ?? 'UTC',
+  })
+  const instructor = await createUser(db, {
+    name: 'Course Instructor',
+    departmentId: course.departmentId,
+    password: null,
+  })
   await addMember(db, instructor.id, course.id, 'instructor')
   const students = []
   for (let i = 0; i < (options.students ?? 3); i++) {

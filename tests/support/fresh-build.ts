@@ -21,11 +21,17 @@ function newest(target: string): number {
 export function ensureFreshBuild() {
   const output = path.join(projectRoot, 'build', 'server', 'index.js')
   const builtAt = fs.existsSync(output) ? fs.statSync(output).mtimeMs : 0
-  const sources = ['app', 'public', 'react-router.config.ts', 'vite.config.ts', 'package-lock.json'].map((p) => path.join(projectRoot, p)).filter((p) => fs.existsSync(p))
+  const sources = ['app', 'public', 'react-router.config.ts', 'vite.config.ts', 'package-lock.json']
+    .map((p) => path.join(projectRoot, p))
+    .filter((p) => fs.existsSync(p))
   if (Math.max(...sources.map(newest)) <= builtAt) return
   // Under vitest the Vite config leaves React Router's plugin out (VITEST is set): unset it.
   const childEnv: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: 'production' }
   for (const key of Object.keys(childEnv)) if (key.startsWith('VITEST')) delete childEnv[key]
-  const r = spawnSync(path.join(projectRoot, 'node_modules', '.bin', 'react-router'), ['build'], { cwd: projectRoot, env: childEnv, encoding: 'utf8' })
+  const r = spawnSync(path.join(projectRoot, 'node_modules', '.bin', 'react-router'), ['build'], {
+    cwd: projectRoot,
+    env: childEnv,
+    encoding: 'utf8',
+  })
   if (r.status !== 0) throw new Error(`react-router build failed:\n${r.stdout}${r.stderr}`)
 }

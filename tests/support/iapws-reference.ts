@@ -142,7 +142,8 @@ export function referenceBatch(queries: readonly RefQuery[], python: string = PY
 /** Like referenceBatch, but every result must be a state; throws with the query otherwise. */
 export function referenceStates(queries: readonly RefQuery[]): RefState[] {
   return referenceBatch(queries).map((r, i) => {
-    if (!r.ok || !('h' in r)) throw new Error(`iapws reference failed for ${JSON.stringify(queries[i])}: ${JSON.stringify(r)}`)
+    if (!r.ok || !('h' in r))
+      throw new Error(`iapws reference failed for ${JSON.stringify(queries[i])}: ${JSON.stringify(r)}`)
     return r
   })
 }

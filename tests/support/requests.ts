@@ -5,7 +5,11 @@ export function formRequest(path: string, fields: Record<string, string>, header
   return new Request(`${BASE}${path}`, {
     method: 'POST',
     body: new URLSearchParams(fields),
-    headers: { 'Content-Type': 'application/x-www-form-urlencoded', 'x-cyclewright-client-address': '10.0.0.1', ...headers },
+    headers: {
+      'Content-Type': 'application/x-www-form-urlencoded',
+      'x-cyclewright-client-address': '10.0.0.1',
+      ...headers,
+    },
   })
 }
 

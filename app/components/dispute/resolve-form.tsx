@@ -18,13 +18,22 @@ export interface ResolveResult {
  * The TA's decision on an open dispute: keep the score, adjust it (with a required comment), or
  * accept the same answer for every student with the same givens. Works without JavaScript.
  */
-export function ResolveForm({ detail, find, result }: { detail: StaffDetail; find: DisputeDetail['find']; result?: ResolveResult }) {
+export function ResolveForm({
+  detail,
+  find,
+  result,
+}: {
+  detail: StaffDetail
+  find: DisputeDetail['find']
+  result?: ResolveResult
+}) {
   const actionData = result
   const navigation = useNavigation()
   const busy = navigation.state === 'submitting'
   const errors: FieldErrors = actionData?.fieldErrors ?? {}
   const values: Record<string, string> = actionData?.values ?? {}
-  const described = (key: string, hint?: string) => [hint, errors[key] ? `resolve-${key}-error` : null].filter(Boolean).join(' ') || undefined
+  const described = (key: string, hint?: string) =>
+    [hint, errors[key] ? `resolve-${key}-error` : null].filter(Boolean).join(' ') || undefined
   const errorText = (key: string) =>
     errors[key] ? (
       <p id={`resolve-${key}-error`} className="text-sm text-danger">
@@ -33,7 +42,10 @@ export function ResolveForm({ detail, find, result }: { detail: StaffDetail; fin
     ) : null
   const others = detail.sameAnswerOnVariant
   return (
-    <section aria-labelledby="resolve-title" className="rounded-lg border-2 border-accent/40 bg-white p-4 shadow-sm sm:p-6">
+    <section
+      aria-labelledby="resolve-title"
+      className="rounded-lg border-2 border-accent/40 bg-white p-4 shadow-sm sm:p-6"
+    >
       <h2 id="resolve-title" className="text-xl font-semibold">
         Resolve this dispute
       </h2>
@@ -46,11 +58,24 @@ export function ResolveForm({ detail, find, result }: { detail: StaffDetail; fin
         <fieldset aria-describedby={described('decision')} className="grid gap-3">
           <legend className="font-medium">Decision</legend>
           <label className="flex items-start gap-2">
-            <input type="radio" name="decision" value="reject" defaultChecked={values.decision === 'reject'} className="mt-1" />
+            <input
+              type="radio"
+              name="decision"
+              value="reject"
+              defaultChecked={values.decision === 'reject'}
+              className="mt-1"
+            />
             <span>Keep the score — reject the dispute.</span>
           </label>
           <div className="flex items-start gap-2">
-            <input id="resolve-adjust" type="radio" name="decision" value="adjust" defaultChecked={values.decision === 'adjust'} className="mt-1" />
+            <input
+              id="resolve-adjust"
+              type="radio"
+              name="decision"
+              value="adjust"
+              defaultChecked={values.decision === 'adjust'}
+              className="mt-1"
+            />
             <span className="grid min-w-0 gap-1">
               <label htmlFor="resolve-adjust">Adjust this find’s score</label>
               <span className="flex flex-wrap items-center gap-2">
@@ -78,7 +103,13 @@ export function ResolveForm({ detail, find, result }: { detail: StaffDetail; fin
             </span>
           </div>
           <label className="flex items-start gap-2">
-            <input type="radio" name="decision" value="accept-for-variant" defaultChecked={values.decision === 'accept-for-variant'} className="mt-1" />
+            <input
+              type="radio"
+              name="decision"
+              value="accept-for-variant"
+              defaultChecked={values.decision === 'accept-for-variant'}
+              className="mt-1"
+            />
             <span>
               Accept this answer for every student who gave it on the same variant{' '}
               <span className="text-muted">
@@ -103,7 +134,8 @@ export function ResolveForm({ detail, find, result }: { detail: StaffDetail; fin
             className={`rounded-md border bg-white px-3 py-2 ${errors.comment ? 'border-danger' : 'border-line'}`}
           />
           <p id="resolve-comment-hint" className="text-sm text-muted">
-            Required when you adjust the score; optional otherwise. The student reads it in the e-mail and on the problem page, and it is kept in the audit log.
+            Required when you adjust the score; optional otherwise. The student reads it in the e-mail and on the
+            problem page, and it is kept in the audit log.
           </p>
           {errorText('comment')}
         </div>

@@ -28,7 +28,10 @@ export function StaffView({
   resolveResult?: ResolveResult
 }) {
   const a = detail.answer
-  const attachmentHref = href('/courses/:courseId/disputes/:disputeId/attachment', { courseId: String(courseId), disputeId: String(d.id) })
+  const attachmentHref = href('/courses/:courseId/disputes/:disputeId/attachment', {
+    courseId: String(courseId),
+    disputeId: String(d.id),
+  })
   return (
     <>
       {d.status === 'open' ? <ResolveForm detail={detail} find={find} result={resolveResult} /> : null}
@@ -41,7 +44,12 @@ export function StaffView({
           </dd>
           <dt className="font-medium">Where</dt>
           <dd>
-            {d.assignmentTitle}, <Link to={problemHref}>problem {d.position}: {d.problemTitle}</Link>, find {find.label} (<code>{find.name}</code>, {find.unit || 'pure number'}, worth {formatPoints(find.share)} points)
+            {d.assignmentTitle},{' '}
+            <Link to={problemHref}>
+              problem {d.position}: {d.problemTitle}
+            </Link>
+            , find {find.label} (<code>{find.name}</code>, {find.unit || 'pure number'}, worth{' '}
+            {formatPoints(find.share)} points)
           </dd>
           <dt className="font-medium">Answer</dt>
           <dd>
@@ -70,19 +78,34 @@ export function StaffView({
         </dl>
         <div className="relative mt-4 overflow-x-auto">
           <table className="w-full text-left text-sm">
-            <caption className="pb-1 text-left font-semibold max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-4rem-2px)]">Every answer of this student to {find.label}, oldest first</caption>
+            <caption className="pb-1 text-left font-semibold max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-4rem-2px)]">
+              Every answer of this student to {find.label}, oldest first
+            </caption>
             <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
               <tr>
-                <th scope="col" className="px-3 py-2">Attempt</th>
-                <th scope="col" className="px-3 py-2">Answer</th>
-                <th scope="col" className="px-3 py-2">Verdict</th>
-                <th scope="col" className="px-3 py-2">Score</th>
-                <th scope="col" className="px-3 py-2">Submitted</th>
+                <th scope="col" className="px-3 py-2">
+                  Attempt
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Answer
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Verdict
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Score
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Submitted
+                </th>
               </tr>
             </thead>
             <tbody>
               {detail.attempts.map((t) => (
-                <tr key={`${t.attempt}-${t.submittedAt}`} className={`border-t border-line ${t.attempt === a.attempt ? 'bg-warn-soft' : ''}`}>
+                <tr
+                  key={`${t.attempt}-${t.submittedAt}`}
+                  className={`border-t border-line ${t.attempt === a.attempt ? 'bg-warn-soft' : ''}`}
+                >
                   <th scope="row" className="px-3 py-2 font-normal">
                     {t.attempt}
                     {t.attempt === a.attempt ? <span className="block text-xs text-muted">disputed</span> : null}
@@ -102,7 +125,11 @@ export function StaffView({
 
       <Section id="file" title="The student’s file">
         {detail.attachment ? (
-          <AttachmentView href={attachmentHref} file={detail.attachment} alt={`The student’s worked solution, uploaded as ${detail.attachment.fileName}`} />
+          <AttachmentView
+            href={attachmentHref}
+            file={detail.attachment}
+            alt={`The student’s worked solution, uploaded as ${detail.attachment.fileName}`}
+          />
         ) : (
           <p className="text-muted">The student uploaded no file with this dispute.</p>
         )}
@@ -128,25 +155,40 @@ export function StaffView({
             )}
           </div>
           <div className="relative self-start overflow-x-auto">
-            <AnswerKeyTable caption="Key" captionClassName="text-left font-semibold" entries={detail.key} highlight={find.name} showNames showPoints />
+            <AnswerKeyTable
+              caption="Key"
+              captionClassName="text-left font-semibold"
+              entries={detail.key}
+              highlight={find.name}
+              showNames
+              showPoints
+            />
           </div>
         </div>
         <h3 className="mt-6 font-semibold">The prompt as the student saw it</h3>
         {detail.promptHtml ? (
           // Rendered and sanitised on the server (Markdown + KaTeX, tags allowed by a list).
-          <div className="prompt-html relative mt-1 overflow-x-auto leading-relaxed [overflow-wrap:anywhere] [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: detail.promptHtml }} />
+          <div
+            className="prompt-html relative mt-1 overflow-x-auto leading-relaxed [overflow-wrap:anywhere] [&_p]:mt-2"
+            dangerouslySetInnerHTML={{ __html: detail.promptHtml }}
+          />
         ) : (
           <p className="text-sm text-muted">The prompt could not be drawn for this student.</p>
         )}
         <details className="mt-6">
           <summary className="cursor-pointer font-semibold">Worked solution</summary>
           {detail.workedHtml ? (
-            <div className="relative mt-2 overflow-x-auto leading-relaxed" dangerouslySetInnerHTML={{ __html: detail.workedHtml }} />
+            <div
+              className="relative mt-2 overflow-x-auto leading-relaxed"
+              dangerouslySetInnerHTML={{ __html: detail.workedHtml }}
+            />
           ) : (
             <p className="mt-2 text-sm text-muted">No worked solution is available for this variant.</p>
           )}
         </details>
-        {detail.diagrams ? <CycleDiagrams diagrams={detail.diagrams} caption={`P–v and T–s diagrams of ${d.student.name}’s variant`} /> : null}
+        {detail.diagrams ? (
+          <CycleDiagrams diagrams={detail.diagrams} caption={`P–v and T–s diagrams of ${d.student.name}’s variant`} />
+        ) : null}
       </Section>
 
       <Section id="history" title="History">
@@ -172,10 +214,15 @@ export function StaffView({
 
 type AttachmentInfo = { fileName: string; contentType: string; size: number }
 
-const TYPE_WORDS: Record<string, string> = { 'application/pdf': 'PDF', 'image/png': 'PNG image', 'image/jpeg': 'JPEG image' }
+const TYPE_WORDS: Record<string, string> = {
+  'application/pdf': 'PDF',
+  'image/png': 'PNG image',
+  'image/jpeg': 'JPEG image',
+}
 
 /** Why a PDF is a download: told plainly wherever one is offered. */
-export const PDF_DOWNLOAD_NOTE = 'PDF files are downloaded, not opened here, so nothing inside them runs in this site. Open it with a PDF reader you trust.'
+export const PDF_DOWNLOAD_NOTE =
+  'PDF files are downloaded, not opened here, so nothing inside them runs in this site. Open it with a PDF reader you trust.'
 
 /**
  * A dispute's file. A PDF is offered as a download only (the server sends it as one): a PDF

@@ -7,7 +7,11 @@ const variants = {
   quiet: 'text-accent hover:underline',
 } as const
 
-export function Button({ variant = 'primary', className, ...props }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: keyof typeof variants }) {
+export function Button({
+  variant = 'primary',
+  className,
+  ...props
+}: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: keyof typeof variants }) {
   return (
     <button
       className={cn(

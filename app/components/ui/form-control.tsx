@@ -34,7 +34,11 @@ export function FormControl({ label, error, hint, id, className, describedBy, ch
       <label htmlFor={controlId} className="text-sm font-medium text-ink">
         {label}
       </label>
-      {children({ id: controlId, 'aria-invalid': error ? true : undefined, 'aria-describedby': [hintId, errorId, describedBy].filter(Boolean).join(' ') || undefined })}
+      {children({
+        id: controlId,
+        'aria-invalid': error ? true : undefined,
+        'aria-describedby': [hintId, errorId, describedBy].filter(Boolean).join(' ') || undefined,
+      })}
       {hint ? (
         <p id={hintId} className="text-sm text-muted">
           {hint}
@@ -51,5 +55,9 @@ export function FormControl({ label, error, hint, id, className, describedBy, ch
 
 /** The look shared by inputs, selects and textareas: a red border for an error. */
 export function controlClass(error: string | undefined, extra?: string): string {
-  return cn('rounded-md border bg-white px-3 py-2 text-base shadow-sm', error ? 'border-danger' : 'border-line focus:border-accent', extra)
+  return cn(
+    'rounded-md border bg-white px-3 py-2 text-base shadow-sm',
+    error ? 'border-danger' : 'border-line focus:border-accent',
+    extra,
+  )
 }

@@ -8,9 +8,20 @@ const tones = {
   error: 'border-danger/30 bg-danger-soft text-danger',
 } as const
 
-export function Notice({ tone = 'info', children, className }: { tone?: keyof typeof tones; children: ReactNode; className?: string }) {
+export function Notice({
+  tone = 'info',
+  children,
+  className,
+}: {
+  tone?: keyof typeof tones
+  children: ReactNode
+  className?: string
+}) {
   return (
-    <div role={tone === 'error' ? 'alert' : 'status'} className={cn('rounded-md border px-4 py-3 text-sm', tones[tone], className)}>
+    <div
+      role={tone === 'error' ? 'alert' : 'status'}
+      className={cn('rounded-md border px-4 py-3 text-sm', tones[tone], className)}
+    >
       {children}
     </div>
   )

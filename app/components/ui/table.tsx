@@ -16,7 +16,15 @@ type TableProps = TableHTMLAttributes<HTMLTableElement> & {
  * A data table in its own horizontal scroll box, so a wide table never widens the page on a
  * phone. The caption is always there for screen readers.
  */
-export function Table({ caption, captionVisible = false, boxClassName, framed = true, className, children, ...table }: TableProps) {
+export function Table({
+  caption,
+  captionVisible = false,
+  boxClassName,
+  framed = true,
+  className,
+  children,
+  ...table
+}: TableProps) {
   return (
     <div className={cn('relative overflow-x-auto', framed && 'rounded-lg border border-line bg-white', boxClassName)}>
       <table className={cn('w-full text-left text-sm', className)} {...table}>
@@ -29,11 +37,20 @@ export function Table({ caption, captionVisible = false, boxClassName, framed = 
 
 /** The header row's look: small capitals on the paper colour; sticky when the box scrolls. */
 export function TableHead({ sticky = false, children }: { sticky?: boolean; children: ReactNode }) {
-  return <thead className={cn('bg-paper text-xs tracking-wide text-muted uppercase', sticky && 'sticky top-0')}>{children}</thead>
+  return (
+    <thead className={cn('bg-paper text-xs tracking-wide text-muted uppercase', sticky && 'sticky top-0')}>
+      {children}
+    </thead>
+  )
 }
 
 /** A column heading (scope="col"), right-aligned for numbers. */
-export function ColumnHeader({ numeric = false, className, children, ...th }: ThHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
+export function ColumnHeader({
+  numeric = false,
+  className,
+  children,
+  ...th
+}: ThHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
   return (
     <th scope="col" className={cn('px-4 py-2', numeric && 'text-right', className)} {...th}>
       {children}
@@ -43,5 +60,9 @@ export function ColumnHeader({ numeric = false, className, children, ...th }: Th
 
 /** What a page shows where a list or table has nothing in it yet. */
 export function EmptyState({ className, children }: { className?: string; children: ReactNode }) {
-  return <div className={cn('rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted', className)}>{children}</div>
+  return (
+    <div className={cn('rounded-lg border border-dashed border-line bg-white p-8 text-center text-muted', className)}>
+      {children}
+    </div>
+  )
 }

@@ -23,17 +23,46 @@ describe('dispute window', () => {
   test('the end is disputeDays after the release; null while unreleased', () => {
     expect(disputeDeadline(released, 7)).toEqual(at('2026-11-27T12:00:00Z'))
     expect(disputeDeadline(null, 7)).toBeNull()
-    const w = disputeWindow({ gradesReleasedAt: released, disputeDays: 7, graded: true, hasOpenDispute: false, now: at('2026-11-21T00:00:00Z') })
+    const w = disputeWindow({
+      gradesReleasedAt: released,
+      disputeDays: 7,
+      graded: true,
+      hasOpenDispute: false,
+      now: at('2026-11-21T00:00:00Z'),
+    })
     expect(w).toEqual({ allowed: true, until: at('2026-11-27T12:00:00Z') })
-    expect(disputeWindow({ gradesReleasedAt: null, disputeDays: 7, graded: true, hasOpenDispute: false, now: released })).toEqual({ allowed: true, until: null })
+    expect(
+      disputeWindow({ gradesReleasedAt: null, disputeDays: 7, graded: true, hasOpenDispute: false, now: released }),
+    ).toEqual({ allowed: true, until: null })
   })
 
   test.each([
-    ['not graded', { graded: false, hasOpenDispute: false, now: '2026-11-21T00:00:00Z' }, 'not-graded', /no graded answer yet/],
-    ['open dispute', { graded: true, hasOpenDispute: true, now: '2026-11-21T00:00:00Z' }, 'open-dispute', /already have an open dispute/],
-    ['closed', { graded: true, hasOpenDispute: false, now: '2026-12-01T00:00:00Z' }, 'closed', /closed on FMT\(2026-11-27T12:00:00.000Z\), 7 days after/],
+    [
+      'not graded',
+      { graded: false, hasOpenDispute: false, now: '2026-11-21T00:00:00Z' },
+      'not-graded',
+      /no graded answer yet/,
+    ],
+    [
+      'open dispute',
+      { graded: true, hasOpenDispute: true, now: '2026-11-21T00:00:00Z' },
+      'open-dispute',
+      /already have an open dispute/,
+    ],
+    [
+      'closed',
+      { graded: true, hasOpenDispute: false, now: '2026-12-01T00:00:00Z' },
+      'closed',
+      /closed on FMT\(2026-11-27T12:00:00.000Z\), 7 days after/,
+    ],
   ] as const)('the reason in words: %s', (_name, facts, code, reason) => {
-    const w = disputeWindow({ gradesReleasedAt: released, disputeDays: 7, ...facts, now: at(facts.now), format: (d) => `FMT(${d.toISOString()})` })
+    const w = disputeWindow({
+      gradesReleasedAt: released,
+      disputeDays: 7,
+      ...facts,
+      now: at(facts.now),
+      format: (d) => `FMT(${d.toISOString()})`,
+    })
     expect(w.allowed).toBe(false)
     if (w.allowed) return
     expect(w.code).toBe(code)
@@ -41,14 +70,32 @@ describe('dispute window', () => {
   })
 
   test('not graded wins over an open dispute and a closed window (the first thing to fix is said first)', () => {
-    const w = disputeWindow({ gradesReleasedAt: released, disputeDays: 0, graded: false, hasOpenDispute: true, now: at('2027-01-01T00:00:00Z') })
+    const w = disputeWindow({
+      gradesReleasedAt: released,
+      disputeDays: 0,
+      graded: false,
+      hasOpenDispute: true,
+      now: at('2027-01-01T00:00:00Z'),
+    })
     expect(w).toMatchObject({ allowed: false, code: 'not-graded' })
   })
 
   test('one day is said in the singular, zero days says the release closed it', () => {
-    const one = disputeWindow({ gradesReleasedAt: released, disputeDays: 1, graded: true, hasOpenDispute: false, now: at('2026-11-22T00:00:00Z') })
+    const one = disputeWindow({
+      gradesReleasedAt: released,
+      disputeDays: 1,
+      graded: true,
+      hasOpenDispute: false,
+      now: at('2026-11-22T00:00:00Z'),
+    })
     expect(one.allowed ? '' : one.reason).toMatch(/1 day after/)
-    const zero = disputeWindow({ gradesReleasedAt: released, disputeDays: 0, graded: true, hasOpenDispute: false, now: released })
+    const zero = disputeWindow({
+      gradesReleasedAt: released,
+      disputeDays: 0,
+      graded: true,
+      hasOpenDispute: false,
+      now: released,
+    })
     expect(zero.allowed ? '' : zero.reason).toBe('Disputes for this assignment closed when its grades were released.')
   })
 })
@@ -73,28 +120,108 @@ describe('the same answer on the same variant', () => {
       { name: 'T1', text: '20 °C' },
     ]
     expect(sameGivens(a, [...a].reverse())).toBe(true)
-    expect(sameGivens(a, [{ name: 'p1', text: '100 kPa' }, { name: 'T1', text: '25 °C' }])).toBe(false)
+    expect(
+      sameGivens(a, [
+        { name: 'p1', text: '100 kPa' },
+        { name: 'T1', text: '25 °C' },
+      ]),
+    ).toBe(false)
     expect(sameGivens(a, [{ name: 'p1', text: '100 kPa' }])).toBe(false)
   })
 })
 
 describe('what can be disputed (the answer itself)', () => {
-  const base = { gradesReleasedAt: null, disputeDays: 7, graded: true, hasOpenDispute: false, now: at('2026-11-21T00:00:00Z') }
+  const base = {
+    gradesReleasedAt: null,
+    disputeDays: 7,
+    graded: true,
+    hasOpenDispute: false,
+    now: at('2026-11-21T00:00:00Z'),
+  }
   test.each([
-    ['correct with full points', { latest: { verdict: 'correct', score: 2, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: true }, 'full-points'],
-    ['correct with full points, no attempts left', { latest: { verdict: 'correct', score: 2, maxScore: 2, disputeResolved: false }, attemptsLeft: 0, canStillAnswer: false }, 'full-points'],
-    ['correct below full points while attempts remain and the assignment is open', { latest: { verdict: 'correct', score: 1.6, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: true }, 'answer-again'],
-    ['the latest answer’s dispute was resolved', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: true }, attemptsLeft: 0, canStillAnswer: false }, 'already-disputed'],
-    ['dropped from the course', { dropped: true, latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 0, canStillAnswer: false }, 'dropped'],
+    [
+      'correct with full points',
+      {
+        latest: { verdict: 'correct', score: 2, maxScore: 2, disputeResolved: false },
+        attemptsLeft: 2,
+        canStillAnswer: true,
+      },
+      'full-points',
+    ],
+    [
+      'correct with full points, no attempts left',
+      {
+        latest: { verdict: 'correct', score: 2, maxScore: 2, disputeResolved: false },
+        attemptsLeft: 0,
+        canStillAnswer: false,
+      },
+      'full-points',
+    ],
+    [
+      'correct below full points while attempts remain and the assignment is open',
+      {
+        latest: { verdict: 'correct', score: 1.6, maxScore: 2, disputeResolved: false },
+        attemptsLeft: 2,
+        canStillAnswer: true,
+      },
+      'answer-again',
+    ],
+    [
+      'the latest answer’s dispute was resolved',
+      {
+        latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: true },
+        attemptsLeft: 0,
+        canStillAnswer: false,
+      },
+      'already-disputed',
+    ],
+    [
+      'dropped from the course',
+      {
+        dropped: true,
+        latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false },
+        attemptsLeft: 0,
+        canStillAnswer: false,
+      },
+      'dropped',
+    ],
   ] as const)('refused: %s', (_name, facts, code) => {
     expect(disputeWindow({ ...base, ...facts })).toMatchObject({ allowed: false, code })
   })
 
   test.each([
-    ['correct below full points (a late penalty), the assignment closed', { latest: { verdict: 'correct', score: 1.6, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: false }],
-    ['incorrect while attempts remain', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: true }],
-    ['incorrect with no attempts left', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 0, canStillAnswer: true }],
-    ['incorrect, attempts left but the assignment closed', { latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false }, attemptsLeft: 2, canStillAnswer: false }],
+    [
+      'correct below full points (a late penalty), the assignment closed',
+      {
+        latest: { verdict: 'correct', score: 1.6, maxScore: 2, disputeResolved: false },
+        attemptsLeft: 2,
+        canStillAnswer: false,
+      },
+    ],
+    [
+      'incorrect while attempts remain',
+      {
+        latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false },
+        attemptsLeft: 2,
+        canStillAnswer: true,
+      },
+    ],
+    [
+      'incorrect with no attempts left',
+      {
+        latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false },
+        attemptsLeft: 0,
+        canStillAnswer: true,
+      },
+    ],
+    [
+      'incorrect, attempts left but the assignment closed',
+      {
+        latest: { verdict: 'incorrect', score: 0, maxScore: 2, disputeResolved: false },
+        attemptsLeft: 2,
+        canStillAnswer: false,
+      },
+    ],
   ] as const)('offered: %s', (_name, facts) => {
     expect(disputeWindow({ ...base, ...facts }).allowed).toBe(true)
   })

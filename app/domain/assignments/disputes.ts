@@ -36,12 +36,12 @@ export type DisputeWindowInput = {
   canStillAnswer?: boolean
 }
 
-export type DisputeWindowCode = 'dropped' | 'not-graded' | 'open-dispute' | 'already-disputed' | 'full-points' | 'answer-again' | 'closed'
+export type DisputeWindowCode =
+  'dropped' | 'not-graded' | 'open-dispute' | 'already-disputed' | 'full-points' | 'answer-again' | 'closed'
 
 export type DisputeWindow =
   /** until: when the window closes; null while the grades are not released */
-  | { allowed: true; until: Date | null }
-  | { allowed: false; code: DisputeWindowCode; reason: string; closedAt?: Date }
+  { allowed: true; until: Date | null } | { allowed: false; code: DisputeWindowCode; reason: string; closedAt?: Date }
 
 /** When disputes close for an assignment: disputeDays after the release; null while unreleased. */
 export function disputeDeadline(gradesReleasedAt: Date | null, disputeDays: number): Date | null {
@@ -52,10 +52,19 @@ export function disputeDeadline(gradesReleasedAt: Date | null, disputeDays: numb
 export function disputeWindow(input: DisputeWindowInput): DisputeWindow {
   const format = input.format ?? ((d: Date) => d.toISOString())
   if (input.dropped) {
-    return { allowed: false, code: 'dropped', reason: 'You have been dropped from this course, so you can no longer dispute a grade. Your past work stays here for you to read.' }
+    return {
+      allowed: false,
+      code: 'dropped',
+      reason:
+        'You have been dropped from this course, so you can no longer dispute a grade. Your past work stays here for you to read.',
+    }
   }
   if (!input.graded) {
-    return { allowed: false, code: 'not-graded', reason: 'This question has no graded answer yet, so there is no verdict to dispute.' }
+    return {
+      allowed: false,
+      code: 'not-graded',
+      reason: 'This question has no graded answer yet, so there is no verdict to dispute.',
+    }
   }
   if (input.hasOpenDispute) {
     return {
@@ -66,16 +75,25 @@ export function disputeWindow(input: DisputeWindowInput): DisputeWindow {
   }
   const latest = input.latest
   if (latest?.disputeResolved) {
-    return { allowed: false, code: 'already-disputed', reason: 'Your dispute on this answer has been resolved, so it cannot be disputed again. A new answer could be.' }
+    return {
+      allowed: false,
+      code: 'already-disputed',
+      reason: 'Your dispute on this answer has been resolved, so it cannot be disputed again. A new answer could be.',
+    }
   }
   if (latest && latest.verdict === 'correct' && latest.score >= latest.maxScore - 1e-9) {
-    return { allowed: false, code: 'full-points', reason: 'This answer is correct with full points, so there is nothing to dispute.' }
+    return {
+      allowed: false,
+      code: 'full-points',
+      reason: 'This answer is correct with full points, so there is nothing to dispute.',
+    }
   }
   if (latest && latest.verdict === 'correct' && input.canStillAnswer && (input.attemptsLeft ?? 0) > 0) {
     return {
       allowed: false,
       code: 'answer-again',
-      reason: 'This answer is correct, and the assignment is still open with attempts left; its score can be disputed once the assignment no longer takes your answers.',
+      reason:
+        'This answer is correct, and the assignment is still open with attempts left; its score can be disputed once the assignment no longer takes your answers.',
     }
   }
   const until = disputeDeadline(input.gradesReleasedAt, input.disputeDays)
@@ -97,7 +115,10 @@ export function sameAnswerValue(a: number, b: number): boolean {
 }
 
 /** Two variants are the same when every given reads the same (name and text as the solver got it). */
-export function sameGivens(a: readonly { name: string; text: string }[], b: readonly { name: string; text: string }[]): boolean {
+export function sameGivens(
+  a: readonly { name: string; text: string }[],
+  b: readonly { name: string; text: string }[],
+): boolean {
   if (a.length !== b.length) return false
   const other = new Map(b.map((g) => [g.name, g.text]))
   return a.every((g) => other.get(g.name) === g.text)

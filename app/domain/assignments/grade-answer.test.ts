@@ -21,12 +21,16 @@ describe('gradeAnswer', () => {
 
   test('a late correct answer loses its penalty', () => {
     const k = key('wNet')
-    expect(gradeAnswer({ find: find('wNet'), variant, answer: `${k.value} kJ/kg`, share: 4, latePenalty: 0.25 }).score).toBe(3)
+    expect(
+      gradeAnswer({ find: find('wNet'), variant, answer: `${k.value} kJ/kg`, share: 4, latePenalty: 0.25 }).score,
+    ).toBe(3)
   })
 
   test('the same work in J/kg is read and converted', () => {
     const k = key('wNet')
-    expect(gradeAnswer({ find: find('wNet'), variant, answer: `${k.value * 1000} J/kg`, share: 4, latePenalty: 0 }).verdict).toBe('correct')
+    expect(
+      gradeAnswer({ find: find('wNet'), variant, answer: `${k.value * 1000} J/kg`, share: 4, latePenalty: 0 }).verdict,
+    ).toBe('correct')
   })
 
   test('the sign of the other convention is named as a pitfall', () => {
@@ -45,13 +49,25 @@ describe('gradeAnswer', () => {
     const t1C = variant.givens.find((g) => g.name === 'T1')!.value
     const r = variant.givens.find((g) => g.name === 'r')!.value
     const slipped = t1C * r ** 0.4
-    const g = gradeAnswer({ find: find('T2'), variant, answer: `${slipped.toPrecision(5)} K`, share: 2, latePenalty: 0 })
+    const g = gradeAnswer({
+      find: find('T2'),
+      variant,
+      answer: `${slipped.toPrecision(5)} K`,
+      share: 2,
+      latePenalty: 0,
+    })
     expect(g.verdict).toBe('incorrect')
     expect(g.pitfall?.id).toBe('celsius-for-kelvin')
   })
 
   test('a wrong answer no pitfall explains has no pitfall', () => {
-    const g = gradeAnswer({ find: find('wNet'), variant, answer: `${key('wNet').value * 1.37} kJ/kg`, share: 4, latePenalty: 0 })
+    const g = gradeAnswer({
+      find: find('wNet'),
+      variant,
+      answer: `${key('wNet').value * 1.37} kJ/kg`,
+      share: 4,
+      latePenalty: 0,
+    })
     expect(g).toMatchObject({ verdict: 'incorrect', pitfall: null })
   })
 
@@ -59,7 +75,16 @@ describe('gradeAnswer', () => {
     const k = key('wNet')
     const answer = `${k.value * 1.03} kJ/kg`
     expect(gradeAnswer({ find: find('wNet'), variant, answer, share: 4, latePenalty: 0 }).verdict).toBe('incorrect')
-    expect(gradeAnswer({ find: find('wNet'), variant, answer, share: 4, latePenalty: 0, tolerance: { kind: 'relative', value: 0.05 } }).verdict).toBe('correct')
+    expect(
+      gradeAnswer({
+        find: find('wNet'),
+        variant,
+        answer,
+        share: 4,
+        latePenalty: 0,
+        tolerance: { kind: 'relative', value: 0.05 },
+      }).verdict,
+    ).toBe('correct')
   })
 })
 
@@ -90,11 +115,21 @@ describe('precheckAnswer', () => {
 describe('a find that states its sense', () => {
   // In a chemistry course the solver's net work is the work done on the gas (negative for an
   // engine); with the sense "work done by the system" the key is its negative (positive).
-  const byDef = { ...def, finds: def.finds.map((f) => (f.name === 'wNet' ? { ...f, sense: 'work-by-system' as const } : f)) }
+  const byDef = {
+    ...def,
+    finds: def.finds.map((f) => (f.name === 'wNet' ? { ...f, sense: 'work-by-system' as const } : f)),
+  }
   const chem = drawVariant(byDef, 4242, { convention: 'chemistry' })
   if (!chem.ok) throw new Error(chem.error.message)
   const k = chem.variant.key.find((x) => x.name === 'wNet')!
-  const grade = (answer: string) => gradeAnswer({ find: byDef.finds.find((f) => f.name === 'wNet')!, variant: chem.variant, answer, share: 4, latePenalty: 0 })
+  const grade = (answer: string) =>
+    gradeAnswer({
+      find: byDef.finds.find((f) => f.name === 'wNet')!,
+      variant: chem.variant,
+      answer,
+      share: 4,
+      latePenalty: 0,
+    })
 
   test('the positive key is correct in a chemistry course', () => {
     expect(k.value).toBeGreaterThan(0)

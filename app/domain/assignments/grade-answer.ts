@@ -62,12 +62,23 @@ const close = (a: number, b: number, rel: number) => Math.abs(a - b) <= rel * Ma
 export function gradeAnswer(input: GradeAnswerInput): AnswerGrade {
   const key = input.variant.key.find((k) => k.name === input.find.name)
   if (!key || !Number.isFinite(key.value)) {
-    return { verdict: 'incorrect', value: null, score: 0, message: 'This question could not be graded; your teacher has been told.', pitfall: null, detail: null }
+    return {
+      verdict: 'incorrect',
+      value: null,
+      score: 0,
+      message: 'This question could not be graded; your teacher has been told.',
+      pitfall: null,
+      detail: null,
+    }
   }
   const rule = { ...checkRuleOf(input.find), ...(input.tolerance ? { tolerance: input.tolerance } : {}) }
   const result = checkAnswer({ expected: { value: key.value, unit: key.unit }, answer: input.answer, rule })
-  const value = typeof result.valueInExpectedUnit === 'number' && Number.isFinite(result.valueInExpectedUnit) ? result.valueInExpectedUnit : null
-  const pitfall = result.verdict === 'incorrect' && value !== null ? findPitfall(input.find, key, input.variant, value) : null
+  const value =
+    typeof result.valueInExpectedUnit === 'number' && Number.isFinite(result.valueInExpectedUnit)
+      ? result.valueInExpectedUnit
+      : null
+  const pitfall =
+    result.verdict === 'incorrect' && value !== null ? findPitfall(input.find, key, input.variant, value) : null
   return {
     verdict: result.verdict,
     value,
@@ -114,7 +125,9 @@ export function pitfallFeedback(find: Find, id: PitfallId, general: string): str
   return `Your number has the right size but the wrong sign. This question counts the ${FIND_SENSE_WORDS[find.sense]} as positive, whatever the course's sign convention.`
 }
 
-export type Precheck = { readonly ok: true } | { readonly ok: false; readonly verdict: 'unreadable' | 'wrong-dimension'; readonly message: string }
+export type Precheck =
+  | { readonly ok: true }
+  | { readonly ok: false; readonly verdict: 'unreadable' | 'wrong-dimension'; readonly message: string }
 
 /**
  * Whether an answer can be graded at all, before it uses an attempt: it must read as a number
@@ -124,6 +137,7 @@ export type Precheck = { readonly ok: true } | { readonly ok: false; readonly ve
 export function precheckAnswer(find: Find, answer: string): Precheck {
   // The expected value does not matter for these two verdicts; 1 stands in for it.
   const result = checkAnswer({ expected: { value: 1, unit: find.unit }, answer, rule: checkRuleOf(find) })
-  if (result.verdict === 'unreadable' || result.verdict === 'wrong-dimension') return { ok: false, verdict: result.verdict, message: result.message }
+  if (result.verdict === 'unreadable' || result.verdict === 'wrong-dimension')
+    return { ok: false, verdict: result.verdict, message: result.message }
   return { ok: true }
 }

@@ -105,7 +105,9 @@ describe('attempts and key', () => {
   test('manual release waits for the instructor', () => {
     const manual: AssignmentRules = { ...closed, keyRelease: 'manual' }
     expect(isKeyReleased(manual, null, at('2027-01-01T00:00:00Z'))).toBe(false)
-    expect(isKeyReleased({ ...manual, keyReleasedAt: at('2026-03-09T00:00:00Z') }, null, at('2026-03-09T00:00:01Z'))).toBe(true)
+    expect(
+      isKeyReleased({ ...manual, keyReleasedAt: at('2026-03-09T00:00:00Z') }, null, at('2026-03-09T00:00:01Z')),
+    ).toBe(true)
   })
 })
 
@@ -114,5 +116,7 @@ test('window messages state the terms in words', () => {
   expect(windowMessage(submissionWindow(penalty, null, at('2026-03-09T06:00:00Z')), fmt)).toBe(
     'The due date (2026-03-08T23:59) has passed. Answers are accepted until 2026-03-11T23:59; they are 1 day late now and lose 10 % of their points.',
   )
-  expect(windowMessage(submissionWindow(closed, null, at('2026-03-09T06:00:00Z')), fmt)).toBe('This assignment closed on 2026-03-08T23:59 and no longer accepts answers.')
+  expect(windowMessage(submissionWindow(closed, null, at('2026-03-09T06:00:00Z')), fmt)).toBe(
+    'This assignment closed on 2026-03-08T23:59 and no longer accepts answers.',
+  )
 })

@@ -80,21 +80,33 @@ export function latePenalty(rules: AssignmentRules, ext: StudentExtension | null
 }
 
 export function isKeyReleased(rules: AssignmentRules, ext: StudentExtension | null | undefined, now: Date): boolean {
-  if (rules.keyRelease === 'manual') return rules.keyReleasedAt !== null && rules.keyReleasedAt.getTime() <= now.getTime()
+  if (rules.keyRelease === 'manual')
+    return rules.keyReleasedAt !== null && rules.keyReleasedAt.getTime() <= now.getTime()
   return now.getTime() > lastAcceptedAt(rules, ext).getTime()
 }
 
 export type SubmissionWindow =
   | { readonly state: 'not-open'; readonly opensAt: Date }
   | { readonly state: 'open'; readonly dueAt: Date }
-  | { readonly state: 'late'; readonly dueAt: Date; readonly until: Date; readonly daysLate: number; readonly penalty: number }
+  | {
+      readonly state: 'late'
+      readonly dueAt: Date
+      readonly until: Date
+      readonly daysLate: number
+      readonly penalty: number
+    }
   | { readonly state: 'closed'; readonly reason: 'past-due' | 'key-released'; readonly dueAt: Date }
 
 /** Whether this student may submit now, and on what terms. */
-export function submissionWindow(rules: AssignmentRules, ext: StudentExtension | null | undefined, now: Date): SubmissionWindow {
+export function submissionWindow(
+  rules: AssignmentRules,
+  ext: StudentExtension | null | undefined,
+  now: Date,
+): SubmissionWindow {
   const dueAt = studentDueAt(rules, ext)
   if (now.getTime() < rules.opensAt.getTime()) return { state: 'not-open', opensAt: rules.opensAt }
-  if (rules.keyRelease === 'manual' && isKeyReleased(rules, ext, now)) return { state: 'closed', reason: 'key-released', dueAt }
+  if (rules.keyRelease === 'manual' && isKeyReleased(rules, ext, now))
+    return { state: 'closed', reason: 'key-released', dueAt }
   if (now.getTime() <= dueAt.getTime()) return { state: 'open', dueAt }
   const until = lastAcceptedAt(rules, ext)
   if (now.getTime() > until.getTime()) return { state: 'closed', reason: 'past-due', dueAt }

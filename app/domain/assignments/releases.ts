@@ -33,7 +33,11 @@ export type ReleaseChecks = {
   grades: { state: 'released'; at: Date } | { state: 'not-yet'; reason: string } | { state: 'offered'; early: boolean }
 }
 
-export function releaseChecks(facts: ReleaseFacts, now: Date, format: (d: Date) => string = (d) => d.toISOString()): ReleaseChecks {
+export function releaseChecks(
+  facts: ReleaseFacts,
+  now: Date,
+  format: (d: Date) => string = (d) => d.toISOString(),
+): ReleaseChecks {
   const { rules } = facts
   let closesAt = lastAcceptedAt(rules, null)
   for (const ext of facts.students) {
@@ -59,7 +63,11 @@ export function releaseChecks(facts: ReleaseFacts, now: Date, format: (d: Date) 
 
   let grades: ReleaseChecks['grades']
   if (facts.gradesReleasedAt) grades = { state: 'released', at: facts.gradesReleasedAt }
-  else if (notOpen) grades = { state: 'not-yet', reason: `The grades can be released once the assignment has opened (${format(rules.opensAt)}).` }
+  else if (notOpen)
+    grades = {
+      state: 'not-yet',
+      reason: `The grades can be released once the assignment has opened (${format(rules.opensAt)}).`,
+    }
   else grades = { state: 'offered', early: stillAnswering > 0 }
 
   return { studentCount: facts.students.length, closesAt, stillAnswering, key, grades }

@@ -39,7 +39,12 @@ export function bestScore(scores: readonly (number | null | undefined)[]): numbe
 export type FindState = 'not-started' | 'grading' | 'correct' | 'try-again' | 'out-of-attempts'
 
 /** Where a student stands on a find: answered right, waiting, attempts left or none. */
-export function findState(input: { attemptsUsed: number; attemptsAllowed: number; anyCorrect: boolean; anyPending: boolean }): FindState {
+export function findState(input: {
+  attemptsUsed: number
+  attemptsAllowed: number
+  anyCorrect: boolean
+  anyPending: boolean
+}): FindState {
   if (input.anyCorrect) return 'correct'
   if (input.anyPending) return 'grading'
   if (input.attemptsUsed === 0) return 'not-started'

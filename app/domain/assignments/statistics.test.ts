@@ -1,5 +1,13 @@
 import { describe, expect, test } from 'vitest'
-import { groupWrongAnswers, groupWrongAnswersByMultiple, histogram, mean, median, roundSignificant, type WrongAnswer } from './statistics.ts'
+import {
+  groupWrongAnswers,
+  groupWrongAnswersByMultiple,
+  histogram,
+  mean,
+  median,
+  roundSignificant,
+  type WrongAnswer,
+} from './statistics.ts'
 
 describe('mean', () => {
   test.each([
@@ -84,7 +92,13 @@ const wrong = (value: number | null, pitfallId: string | null = null, answer = S
 
 describe('groupWrongAnswers', () => {
   test('answers equal to 3 significant figures share a group; the largest group comes first', () => {
-    const groups = groupWrongAnswers([wrong(-412.3, 'sign-convention-flipped'), wrong(-412.04, 'sign-convention-flipped'), wrong(-411.6), wrong(4.12), wrong(0.412)])
+    const groups = groupWrongAnswers([
+      wrong(-412.3, 'sign-convention-flipped'),
+      wrong(-412.04, 'sign-convention-flipped'),
+      wrong(-411.6),
+      wrong(4.12),
+      wrong(0.412),
+    ])
     expect(groups.map((g) => [g.value, g.count])).toEqual([
       [-412, 3],
       [0.412, 1],
@@ -93,7 +107,12 @@ describe('groupWrongAnswers', () => {
   })
 
   test('each group names the pitfall most of its answers were explained by, with its count', () => {
-    const [g] = groupWrongAnswers([wrong(100, 'kilo-factor'), wrong(100.1, 'celsius-for-kelvin'), wrong(100.2, 'celsius-for-kelvin'), wrong(99.96)])
+    const [g] = groupWrongAnswers([
+      wrong(100, 'kilo-factor'),
+      wrong(100.1, 'celsius-for-kelvin'),
+      wrong(100.2, 'celsius-for-kelvin'),
+      wrong(99.96),
+    ])
     expect(g!.count).toBe(4)
     expect(g!.pitfall).toEqual({ id: 'celsius-for-kelvin', feedback: 'feedback for celsius-for-kelvin', count: 2 })
   })
@@ -108,7 +127,17 @@ describe('groupWrongAnswers', () => {
   })
 
   test('keeps a few distinct texts as typed, and at most `limit` groups', () => {
-    const groups = groupWrongAnswers([wrong(300, null, '300 K'), wrong(300, null, ' 300 K '), wrong(300.04, null, '300.04'), wrong(1), wrong(2), wrong(3)], { limit: 2 })
+    const groups = groupWrongAnswers(
+      [
+        wrong(300, null, '300 K'),
+        wrong(300, null, ' 300 K '),
+        wrong(300.04, null, '300.04'),
+        wrong(1),
+        wrong(2),
+        wrong(3),
+      ],
+      { limit: 2 },
+    )
     expect(groups).toHaveLength(2)
     expect(groups[0]!.examples).toEqual(['300 K', '300.04'])
     expect(groups[1]!.value).toBe(1)
@@ -140,6 +169,13 @@ describe('groupWrongAnswersByMultiple', () => {
   })
 
   test('answers without a value or a usable key are left out', () => {
-    expect(groupWrongAnswersByMultiple([wrong(null, 3), wrong(5, 0), wrong(5, null), { ...wrong(5, 2), expected: undefined }])).toEqual([])
+    expect(
+      groupWrongAnswersByMultiple([
+        wrong(null, 3),
+        wrong(5, 0),
+        wrong(5, null),
+        { ...wrong(5, 2), expected: undefined },
+      ]),
+    ).toEqual([])
   })
 })

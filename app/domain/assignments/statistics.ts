@@ -87,8 +87,15 @@ export interface WrongAnswerGroup {
  * value first), at most `limit` groups. Answers without a value are left out: they have no
  * number to share.
  */
-export function groupWrongAnswers(answers: readonly WrongAnswer[], options: { limit?: number; examples?: number } = {}): WrongAnswerGroup[] {
-  return groupBy(answers, (a) => (a.value === null || !Number.isFinite(a.value) ? null : roundSignificant(a.value, 3)), options)
+export function groupWrongAnswers(
+  answers: readonly WrongAnswer[],
+  options: { limit?: number; examples?: number } = {},
+): WrongAnswerGroup[] {
+  return groupBy(
+    answers,
+    (a) => (a.value === null || !Number.isFinite(a.value) ? null : roundSignificant(a.value, 3)),
+    options,
+  )
 }
 
 /**
@@ -98,11 +105,21 @@ export function groupWrongAnswers(answers: readonly WrongAnswer[], options: { li
  * taken as J), so this is the grouping that finds the class's common mistakes. Answers
  * without a value or a non-zero key are left out.
  */
-export function groupWrongAnswersByMultiple(answers: readonly WrongAnswer[], options: { limit?: number; examples?: number } = {}): WrongAnswerGroup[] {
+export function groupWrongAnswersByMultiple(
+  answers: readonly WrongAnswer[],
+  options: { limit?: number; examples?: number } = {},
+): WrongAnswerGroup[] {
   return groupBy(
     answers,
     (a) => {
-      if (a.value === null || !Number.isFinite(a.value) || typeof a.expected !== 'number' || !Number.isFinite(a.expected) || a.expected === 0) return null
+      if (
+        a.value === null ||
+        !Number.isFinite(a.value) ||
+        typeof a.expected !== 'number' ||
+        !Number.isFinite(a.expected) ||
+        a.expected === 0
+      )
+        return null
       const multiple = roundSignificant(a.value / a.expected, 3)
       return Number.isFinite(multiple) ? multiple : null
     },
@@ -110,10 +127,17 @@ export function groupWrongAnswersByMultiple(answers: readonly WrongAnswer[], opt
   )
 }
 
-function groupBy(answers: readonly WrongAnswer[], keyOf: (a: WrongAnswer) => number | null, options: { limit?: number; examples?: number }): WrongAnswerGroup[] {
+function groupBy(
+  answers: readonly WrongAnswer[],
+  keyOf: (a: WrongAnswer) => number | null,
+  options: { limit?: number; examples?: number },
+): WrongAnswerGroup[] {
   const limit = options.limit ?? 5
   const maxExamples = options.examples ?? 3
-  const groups = new Map<number, { count: number; examples: string[]; pitfalls: Map<string, { feedback: string; count: number }> }>()
+  const groups = new Map<
+    number,
+    { count: number; examples: string[]; pitfalls: Map<string, { feedback: string; count: number }> }
+  >()
   for (const a of answers) {
     const key = keyOf(a)
     if (key === null) continue
@@ -134,7 +158,8 @@ function groupBy(answers: readonly WrongAnswer[], keyOf: (a: WrongAnswer) => num
   return [...groups.entries()]
     .map(([value, g]) => {
       let pitfall: WrongAnswerGroup['pitfall'] = null
-      for (const [id, p] of g.pitfalls) if (!pitfall || p.count > pitfall.count) pitfall = { id, feedback: p.feedback, count: p.count }
+      for (const [id, p] of g.pitfalls)
+        if (!pitfall || p.count > pitfall.count) pitfall = { id, feedback: p.feedback, count: p.count }
       return { value, count: g.count, examples: g.examples, pitfall }
     })
     .sort((a, b) => b.count - a.count || a.value - b.value)

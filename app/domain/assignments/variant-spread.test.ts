@@ -10,7 +10,9 @@ import { DEMO_PROBLEMS } from '#seed/problems.ts'
 
 test('seeds of 20,000 (assignment, problem, student) triples are all different', () => {
   const seeds = new Set<number>()
-  for (let a = 1; a <= 10; a++) for (let p = 1; p <= 10; p++) for (let s = 1; s <= 200; s++) seeds.add(seedFrom('assignment', a, 'problem', p, 'student', s))
+  for (let a = 1; a <= 10; a++)
+    for (let p = 1; p <= 10; p++)
+      for (let s = 1; s <= 200; s++) seeds.add(seedFrom('assignment', a, 'problem', p, 'student', s))
   expect(seeds.size).toBe(20_000)
 })
 
@@ -20,7 +22,9 @@ test('200 students of one assignment share givens about as rarely as chance allo
   const combinations = 3 * 5 * 7 * 9
   const distinct = new Set<string>()
   for (let s = 1; s <= 200; s++) {
-    const drawn = drawVariant(otto, seedFrom('assignment', 77, 'problem', 5, 'student', s), { convention: 'engineering' })
+    const drawn = drawVariant(otto, seedFrom('assignment', 77, 'problem', 5, 'student', s), {
+      convention: 'engineering',
+    })
     if (!drawn.ok) throw new Error(drawn.error.message)
     distinct.add(drawn.variant.givens.map((g) => g.text).join('|'))
   }

@@ -199,11 +199,7 @@ export interface Variant {
 }
 
 export type VariantErrorCode =
-  | 'invalid-definition'
-  | 'given-error'
-  | 'constraint-never-met'
-  | 'solve-error'
-  | 'find-undefined'
+  'invalid-definition' | 'given-error' | 'constraint-never-met' | 'solve-error' | 'find-undefined'
 
 export interface VariantError {
   readonly code: VariantErrorCode
@@ -212,7 +208,9 @@ export interface VariantError {
   readonly property?: string
 }
 
-export type DrawResult = { readonly ok: true; readonly variant: Variant } | { readonly ok: false; readonly seed: number; readonly error: VariantError }
+export type DrawResult =
+  | { readonly ok: true; readonly variant: Variant }
+  | { readonly ok: false; readonly seed: number; readonly error: VariantError }
 
 // ---- What a sweep gives (app/domain/authoring/sweep.ts) --------------------------------
 

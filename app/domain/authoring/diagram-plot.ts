@@ -45,7 +45,10 @@ const fmt = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))
 
 /** The axis quantity's symbol: the last word of its label ('p', 'v', 'T', 's'). */
 export function axisSymbol(axis: Axis): string {
-  const words = axis.label.replace(/\s*\(log scale\)\s*$/, '').trim().split(/\s+/)
+  const words = axis.label
+    .replace(/\s*\(log scale\)\s*$/, '')
+    .trim()
+    .split(/\s+/)
   return words[words.length - 1] ?? axis.label
 }
 
@@ -53,13 +56,22 @@ export function axisSymbol(axis: Axis): string {
 export function describePlot(plot: Plot): string {
   const xs = axisSymbol(plot.x)
   const ys = axisSymbol(plot.y)
-  const states = plot.points.map((p) => `${p.label} (${xs} = ${fmt(p.x)} ${plot.x.unit}, ${ys} = ${fmt(p.y)} ${plot.y.unit})`)
-  const steps = plot.curves.map((c) => `${c.from} to ${c.to}, ${c.process}${c.label ? ` (${c.label})` : ''}${c.style === 'dashed' ? ', dashed' : ''}`)
+  const states = plot.points.map(
+    (p) => `${p.label} (${xs} = ${fmt(p.x)} ${plot.x.unit}, ${ys} = ${fmt(p.y)} ${plot.y.unit})`,
+  )
+  const steps = plot.curves.map(
+    (c) =>
+      `${c.from} to ${c.to}, ${c.process}${c.label ? ` (${c.label})` : ''}${c.style === 'dashed' ? ', dashed' : ''}`,
+  )
   const parts = [`${plot.title}.`]
   if (plot.x.scale === 'log' || plot.y.scale === 'log') parts.push('Both axes are logarithmic.')
   if (states.length > 0) parts.push(`States: ${states.join('; ')}.`)
   if (steps.length > 0) parts.push(`Processes: ${steps.join('; ')}.`)
-  if (plot.curves.some((c) => c.style === 'dashed')) parts.push('Dashed lines mark irreversible or internal steps whose path is not defined by the solution.')
-  if (plot.dome) parts.push('The shaded outline is the saturation dome of water, from the triple point up to the critical point; inside it liquid and vapour coexist.')
+  if (plot.curves.some((c) => c.style === 'dashed'))
+    parts.push('Dashed lines mark irreversible or internal steps whose path is not defined by the solution.')
+  if (plot.dome)
+    parts.push(
+      'The shaded outline is the saturation dome of water, from the triple point up to the critical point; inside it liquid and vapour coexist.',
+    )
   return parts.join(' ')
 }

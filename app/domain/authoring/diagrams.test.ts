@@ -12,7 +12,8 @@ import { cycleDiagrams, describePlot } from './diagrams.ts'
 import type { Curve, Plot } from './diagrams.ts'
 
 const examples = join(import.meta.dirname, '../../../docs/examples')
-const readExample = (name: string) => JSON.parse(readFileSync(join(examples, `${name}.json`), 'utf8')) as Record<string, unknown>
+const readExample = (name: string) =>
+  JSON.parse(readFileSync(join(examples, `${name}.json`), 'utf8')) as Record<string, unknown>
 
 function solved(spec: unknown): FormattedSolution | FormattedRankine {
   const r = solveBankSpec(spec)
@@ -90,7 +91,10 @@ describe('ideal-gas cycles', () => {
 
   // Air as {R = 287 J/(kg K), γ = 1.4}: the textbook constant-cp model (common practice).
   const spec = readExample('otto')
-  const air14 = { ...spec, inputs: { ...(spec.inputs as object), gas: { basis: 'mass', R: '287 J/(kg K)', gamma: '1.4' } } }
+  const air14 = {
+    ...spec,
+    inputs: { ...(spec.inputs as object), gas: { basis: 'mass', R: '287 J/(kg K)', gamma: '1.4' } },
+  }
   const d14 = cycleDiagrams(solved(air14))
 
   test('isentropic P–v curves satisfy p v^γ = const (Poisson relation, common practice)', () => {
@@ -148,7 +152,10 @@ describe('ideal-gas cycles', () => {
     expect(comp.style).toBe('dashed')
     expect(comp.process).toMatch(/irreversible/)
     const [[x0, y0], [x1, y1]] = [comp.points[0]!, comp.points[comp.points.length - 1]!]
-    for (const [x, y] of comp.points) expect(Math.abs((x - x0) * (y1 - y0) - (y - y0) * (x1 - x0))).toBeLessThan(1e-9 * Math.abs((x1 - x0) * (y1 - y0)) + 1e-12)
+    for (const [x, y] of comp.points)
+      expect(Math.abs((x - x0) * (y1 - y0) - (y - y0) * (x1 - x0))).toBeLessThan(
+        1e-9 * Math.abs((x1 - x0) * (y1 - y0)) + 1e-12,
+      )
     expect(curve(b.ts, '2', '3').style).toBe('solid')
     expectEndsAtStates(b.pv)
     expectEndsAtStates(b.ts)
@@ -238,9 +245,25 @@ describe('Rankine cycles', () => {
 
   test('reheat and open feedwater heater: the right devices, and the bled steam drawn to the heater', () => {
     const reheat = cycleDiagrams(solved(readExample('rankine-reheat')))
-    expect(reheat.ts.curves.map((c) => c.process.split(' (')[0])).toEqual(['pump', 'boiler', 'turbine', 'reheater', 'turbine', 'condenser'])
+    expect(reheat.ts.curves.map((c) => c.process.split(' (')[0])).toEqual([
+      'pump',
+      'boiler',
+      'turbine',
+      'reheater',
+      'turbine',
+      'condenser',
+    ])
     const regen = cycleDiagrams(solved(readExample('rankine-regenerative')))
-    expect(regen.ts.curves.map((c) => c.process.split(' (')[0])).toEqual(['pump', 'open feedwater heater', 'pump', 'boiler', 'turbine', 'turbine', 'condenser', 'bleed steam to the open feedwater heater'])
+    expect(regen.ts.curves.map((c) => c.process.split(' (')[0])).toEqual([
+      'pump',
+      'open feedwater heater',
+      'pump',
+      'boiler',
+      'turbine',
+      'turbine',
+      'condenser',
+      'bleed steam to the open feedwater heater',
+    ])
     const bleed = curve(regen.ts, '6', '3')
     expect(bleed.style).toBe('dashed')
     expectEndsAtStates(regen.ts)
@@ -301,7 +324,9 @@ describe('robustness', () => {
 describe('rendering', () => {
   test('both diagrams render as accessible SVG with one path per curve', () => {
     const d = cycleDiagrams(solved(readExample('rankine-regenerative')))
-    const html = renderToStaticMarkup(createElement(CycleDiagrams, { diagrams: d, caption: 'Regenerative Rankine cycle' }))
+    const html = renderToStaticMarkup(
+      createElement(CycleDiagrams, { diagrams: d, caption: 'Regenerative Rankine cycle' }),
+    )
     expect(html.match(/role="img"/g)).toHaveLength(2)
     expect(html.match(/<desc id="[^"]+">/g)).toHaveLength(2)
     expect(html).toContain(`<title id=`)
@@ -312,6 +337,7 @@ describe('rendering', () => {
     expect(html).toContain('<figcaption')
     expect(html).not.toContain('NaN')
     // aria-labelledby points at the title and desc ids that exist
-    for (const m of html.matchAll(/aria-labelledby="([^"]+)"/g)) for (const id of m[1]!.split(' ')) expect(html).toContain(`id="${id}"`)
+    for (const m of html.matchAll(/aria-labelledby="([^"]+)"/g))
+      for (const id of m[1]!.split(' ')) expect(html).toContain(`id="${id}"`)
   })
 })

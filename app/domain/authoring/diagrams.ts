@@ -44,7 +44,8 @@ const same = (a: number, b: number, rel = 1e-9) => Math.abs(a - b) <= rel * Math
 
 /** A straight segment on screen: linear interpolation on linear axes, geometric on log axes. */
 function straight(a: Pair, b: Pair, scales: ['linear' | 'log', 'linear' | 'log'], n = N): Pair[] {
-  const lerp = (u: number, p: number, q: number, log: boolean) => (log && positive(p, q) ? p * Math.pow(q / p, u) : p + (q - p) * u)
+  const lerp = (u: number, p: number, q: number, log: boolean) =>
+    log && positive(p, q) ? p * Math.pow(q / p, u) : p + (q - p) * u
   const pts: Pair[] = []
   for (let i = 0; i < n; i++) {
     const u = i / (n - 1)
@@ -115,7 +116,14 @@ function range(values: number[], scale: 'linear' | 'log', nonNegative: boolean):
   return [lo, hi]
 }
 
-function axes(curves: Curve[], points: Plot['points'], dome: Pair[] | undefined, scale: 'linear' | 'log', nonNegX: boolean, nonNegY: boolean) {
+function axes(
+  curves: Curve[],
+  points: Plot['points'],
+  dome: Pair[] | undefined,
+  scale: 'linear' | 'log',
+  nonNegX: boolean,
+  nonNegY: boolean,
+) {
   const xs: number[] = []
   const ys: number[] = []
   const add = (x: number, y: number) => {
@@ -145,7 +153,13 @@ function gasDiagrams(sol: FormattedSolution): CycleDiagrams {
   const sFactor = mass ? 1e-3 : 1
   const R = Math.abs(sol.gas?.R?.value ?? 0)
   const states: (GasPoint | null)[] = (sol.states ?? []).map((st, i) => {
-    const g = { label: st.name || String(i + 1), p: st.p.value / 1000, v: st.v.value, T: st.T.value, s: st.s.value * sFactor }
+    const g = {
+      label: st.name || String(i + 1),
+      p: st.p.value / 1000,
+      v: st.v.value,
+      T: st.T.value,
+      s: st.s.value * sFactor,
+    }
     return finite(g.p, g.v, g.T, g.s) ? g : null
   })
   const pvCurves: Curve[] = []
@@ -160,7 +174,9 @@ function gasDiagrams(sol: FormattedSolution): CycleDiagrams {
     let dashed = false
     let processText = step.process
     if (step.process === 'adiabatic') {
-      processText = reversibleAdiabatic ? 'adiabatic, reversible (isentropic)' : 'adiabatic, irreversible (isentropic efficiency below 1)'
+      processText = reversibleAdiabatic
+        ? 'adiabatic, reversible (isentropic)'
+        : 'adiabatic, irreversible (isentropic efficiency below 1)'
       if (!reversibleAdiabatic) {
         kind = 'straight'
         dashed = true
@@ -170,7 +186,8 @@ function gasDiagrams(sol: FormattedSolution): CycleDiagrams {
       // carry the path, so read it off the end states. Dashed: heat exchanged inside the cycle.
       dashed = true
       kind = same(a.p, b.p) ? 'isobaric' : same(a.v, b.v) ? 'isochoric' : 'straight'
-      processText = kind === 'straight' ? 'regenerator (internal heat exchange)' : `regenerator, ${kind} (internal heat exchange)`
+      processText =
+        kind === 'straight' ? 'regenerator (internal heat exchange)' : `regenerator, ${kind} (internal heat exchange)`
     }
     const pa: Pair = [a.v, a.p]
     const pb: Pair = [b.v, b.p]
@@ -201,7 +218,13 @@ function gasDiagrams(sol: FormattedSolution): CycleDiagrams {
       pv = [pa, pb]
       ts = [ta, tb]
     }
-    const base = { from: a.label, to: b.label, process: processText, ...(step.label ? { label: step.label } : {}), style: dashed ? ('dashed' as const) : ('solid' as const) }
+    const base = {
+      from: a.label,
+      to: b.label,
+      process: processText,
+      ...(step.label ? { label: step.label } : {}),
+      style: dashed ? ('dashed' as const) : ('solid' as const),
+    }
     pvCurves.push(cleanCurve({ ...base, points: pv }))
     tsCurves.push(cleanCurve({ ...base, points: ts }))
   }
@@ -260,7 +283,8 @@ function steamDome(): { pv: Pair[]; ts: Pair[] } {
     vapour.push({ pv: [g.v, p / 1000], ts: [g.s / 1000, T] })
   }
   // At the critical point both branches meet: keep that point once.
-  if (vapour.length > 0 && liquid.length > 0 && vapour[vapour.length - 1]!.ts[1] === Tc) liquid[liquid.length - 1] = vapour.pop()!
+  if (vapour.length > 0 && liquid.length > 0 && vapour[vapour.length - 1]!.ts[1] === Tc)
+    liquid[liquid.length - 1] = vapour.pop()!
   const outline = [...liquid, ...vapour.reverse()]
   return { pv: outline.map((o) => o.pv), ts: outline.map((o) => o.ts) }
 }
@@ -306,7 +330,15 @@ function isentrope(s: number, pa: number, pb: number): { pv: Pair[]; ts: Pair[] 
 
 function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
   const states: (SteamPoint | null)[] = (sol.states ?? []).map((st: FormattedRankineState, i) => {
-    const g = { label: st.name || String(i + 1), p: st.p.value, T: st.T.value, s: st.s.value, v: st.v.value, x: st.x, phase: st.phase }
+    const g = {
+      label: st.name || String(i + 1),
+      p: st.p.value,
+      T: st.T.value,
+      s: st.s.value,
+      v: st.v.value,
+      x: st.x,
+      phase: st.phase,
+    }
     return positive(g.p, g.T, g.v) && finite(g.s) ? g : null
   })
   const n = states.length
@@ -317,7 +349,13 @@ function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
   const tsCurves: Curve[] = []
   const LOG: ['log', 'log'] = ['log', 'log']
 
-  const add = (a: SteamPoint, b: SteamPoint, process: string, dashed: boolean, path: 'isobar' | 'isentrope' | 'straight') => {
+  const add = (
+    a: SteamPoint,
+    b: SteamPoint,
+    process: string,
+    dashed: boolean,
+    path: 'isobar' | 'isentrope' | 'straight',
+  ) => {
     const pa: Pair = [a.v, a.p / 1000]
     const pb: Pair = [b.v, b.p / 1000]
     const ta: Pair = [a.s / 1000, a.T]
@@ -355,9 +393,21 @@ function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
           : 'heat rejection'
       add(a, b, `${device} (isobaric ${heating ? 'heating' : 'cooling'})`, false, 'isobar')
     } else if (b.p > a.p) {
-      add(a, b, isentropic ? 'pump (isentropic compression)' : 'pump (irreversible compression)', !isentropic, isentropic ? 'isentrope' : 'straight')
+      add(
+        a,
+        b,
+        isentropic ? 'pump (isentropic compression)' : 'pump (irreversible compression)',
+        !isentropic,
+        isentropic ? 'isentrope' : 'straight',
+      )
     } else {
-      add(a, b, isentropic ? 'turbine (isentropic expansion)' : 'turbine (irreversible expansion)', !isentropic, isentropic ? 'isentrope' : 'straight')
+      add(
+        a,
+        b,
+        isentropic ? 'turbine (isentropic expansion)' : 'turbine (irreversible expansion)',
+        !isentropic,
+        isentropic ? 'isentrope' : 'straight',
+      )
     }
   }
   // Open feedwater heater: steam bled from the turbine leaves the cycle order and condenses
@@ -407,8 +457,20 @@ function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
 function emptyDiagrams(): CycleDiagrams {
   const ax = (label: string, unit: string): Axis => ({ label, unit, scale: 'linear', min: 0, max: 1 })
   return {
-    pv: { title: 'P–v diagram', x: ax('specific volume v', 'm³/kg'), y: ax('pressure p', 'kPa'), curves: [], points: [] },
-    ts: { title: 'T–s diagram', x: ax('specific entropy s', 'kJ/(kg·K)'), y: ax('temperature T', 'K'), curves: [], points: [] },
+    pv: {
+      title: 'P–v diagram',
+      x: ax('specific volume v', 'm³/kg'),
+      y: ax('pressure p', 'kPa'),
+      curves: [],
+      points: [],
+    },
+    ts: {
+      title: 'T–s diagram',
+      x: ax('specific entropy s', 'kJ/(kg·K)'),
+      y: ax('temperature T', 'K'),
+      curves: [],
+      points: [],
+    },
   }
 }
 

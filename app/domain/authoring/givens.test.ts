@@ -2,7 +2,13 @@ import { expect, test } from 'vitest'
 import type { Constraint, Given, GivenRule, ProblemDefinition } from './definition.ts'
 import { MAX_DRAW_ATTEMPTS, drawGivens } from './givens.ts'
 
-const given = (name: string, unit: string, rule: GivenRule, display?: Given['display']): Given => ({ name, label: name, unit, rule, ...(display ? { display } : {}) })
+const given = (name: string, unit: string, rule: GivenRule, display?: Given['display']): Given => ({
+  name,
+  label: name,
+  unit,
+  rule,
+  ...(display ? { display } : {}),
+})
 
 function problem(givens: Given[], constraints: Constraint[] = []): ProblemDefinition {
   return {
@@ -27,7 +33,11 @@ function draw(def: ProblemDefinition, seed: number) {
 const seeds = (n: number) => Array.from({ length: n }, (_, i) => i + 1)
 
 test('the same seed gives the same givens; different seeds usually differ', () => {
-  const def = problem([given('T1', 'K', { kind: 'range', min: 280, max: 320, step: 1 }), given('r', '', { kind: 'range', min: 6, max: 12, step: 0.1 }), given('gas', '', { kind: 'choice', values: ['air', 'monatomic'] })])
+  const def = problem([
+    given('T1', 'K', { kind: 'range', min: 280, max: 320, step: 1 }),
+    given('r', '', { kind: 'range', min: 6, max: 12, step: 0.1 }),
+    given('gas', '', { kind: 'choice', values: ['air', 'monatomic'] }),
+  ])
   expect(draw(def, 12345)).toEqual(draw(def, 12345))
   // A fresh but equal definition object (nothing cached by identity changes the numbers).
   expect(draw(structuredClone(def), 12345)).toEqual(draw(def, 12345))
@@ -42,25 +52,31 @@ test.each([
   { min: 101.325, max: 101.325, step: 1, decimals: 3 },
   { min: 0.1, max: 0.7, step: 0.1, decimals: 1 },
   { min: -20, max: 40, step: 2.5, decimals: 1 },
-])('range $min to $max by $step: 1,000 draws on the grid, within bounds, every grid value seen, no float noise', ({ min, max, step, decimals }) => {
-  const def = problem([given('x', 'kPa', { kind: 'range', min, max, step })])
-  const gridSize = Math.floor((max - min) / step + 1e-9) + 1
-  const seen = new Set<number>()
-  for (const s of seeds(1000)) {
-    const g = draw(def, s)[0]!
-    expect(g.value).toBeGreaterThanOrEqual(min)
-    expect(g.value).toBeLessThanOrEqual(max)
-    const k = (g.value - min) / step
-    expect(Math.abs(k - Math.round(k))).toBeLessThan(1e-9)
-    expect(String(g.value).replace(/^-/, '').split('.')[1]?.length ?? 0).toBeLessThanOrEqual(decimals)
-    expect(g.text).toBe(`${g.value} kPa`)
-    seen.add(g.value)
-  }
-  expect(seen.size).toBe(gridSize)
-})
+])(
+  'range $min to $max by $step: 1,000 draws on the grid, within bounds, every grid value seen, no float noise',
+  ({ min, max, step, decimals }) => {
+    const def = problem([given('x', 'kPa', { kind: 'range', min, max, step })])
+    const gridSize = Math.floor((max - min) / step + 1e-9) + 1
+    const seen = new Set<number>()
+    for (const s of seeds(1000)) {
+      const g = draw(def, s)[0]!
+      expect(g.value).toBeGreaterThanOrEqual(min)
+      expect(g.value).toBeLessThanOrEqual(max)
+      const k = (g.value - min) / step
+      expect(Math.abs(k - Math.round(k))).toBeLessThan(1e-9)
+      expect(String(g.value).replace(/^-/, '').split('.')[1]?.length ?? 0).toBeLessThanOrEqual(decimals)
+      expect(g.text).toBe(`${g.value} kPa`)
+      seen.add(g.value)
+    }
+    expect(seen.size).toBe(gridSize)
+  },
+)
 
 test('a choice covers every value; a text choice has value NaN and its text', () => {
-  const def = problem([given('gas', '', { kind: 'choice', values: ['air', 'monatomic', 'diatomic'] }), given('r', '', { kind: 'choice', values: [8, 9.5, 10] })])
+  const def = problem([
+    given('gas', '', { kind: 'choice', values: ['air', 'monatomic', 'diatomic'] }),
+    given('r', '', { kind: 'choice', values: [8, 9.5, 10] }),
+  ])
   const gases = new Set<string>()
   const ratios = new Set<number>()
   for (const s of seeds(300)) {
@@ -75,7 +91,10 @@ test('a choice covers every value; a text choice has value NaN and its text', ()
 })
 
 test('an expression given in °C computed from one in K: offset conversion, printed without noise (0 °C = 273.15 K, SI Brochure, from memory)', () => {
-  const def = problem([given('T1', 'K', { kind: 'range', min: 290, max: 310, step: 1 }), given('T1C', 'degC', { kind: 'expression', expression: 'T1' })])
+  const def = problem([
+    given('T1', 'K', { kind: 'range', min: 290, max: 310, step: 1 }),
+    given('T1C', 'degC', { kind: 'expression', expression: 'T1' }),
+  ])
   for (const s of seeds(30)) {
     const [t1, t1c] = draw(def, s)
     expect(t1c!.value).toBeCloseTo(t1!.value - 273.15, 9)
@@ -93,12 +112,18 @@ test.each([
   { unit: '', from: ['r', '', 8], expression: 'r ^ 0.4', expected: 8 ** 0.4 },
 ])('expression "$expression" into "$unit"', ({ unit, from, expression, expected }) => {
   const [name, u, v] = from as [string, string, number]
-  const def = problem([given(name, u, { kind: 'choice', values: [v] }), given('y', unit, { kind: 'expression', expression })])
+  const def = problem([
+    given(name, u, { kind: 'choice', values: [v] }),
+    given('y', unit, { kind: 'expression', expression }),
+  ])
   expect(draw(def, 1)[1]!.value).toBeCloseTo(expected, 9)
 })
 
 test('an expression given is rounded to its display rule, so the prompt shows what the solver uses', () => {
-  const def = problem([given('r', '', { kind: 'choice', values: [8] }), given('T2', 'K', { kind: 'expression', expression: '300 K * r ^ 0.4' }, { decimals: 1 })])
+  const def = problem([
+    given('r', '', { kind: 'choice', values: [8] }),
+    given('T2', 'K', { kind: 'expression', expression: '300 K * r ^ 0.4' }, { decimals: 1 }),
+  ])
   const t2 = draw(def, 1)[1]!
   expect(t2.value).toBe(Number((300 * 8 ** 0.4).toFixed(1)))
   expect(t2.text).toBe(`${t2.value} K`)
@@ -111,7 +136,11 @@ test.each([
   ['no real value', 'K', 'sqrt(T1 - 1000 K) * sqrt(1 K)', /no real value/],
   ['a syntax slip', 'K', 'T1 *', /could not be read/],
 ])('an expression given with %s fails with an error naming the given', (_what, unit, expression, message) => {
-  const def = problem([given('T1', 'K', { kind: 'range', min: 300, max: 310, step: 1 }), given('T2', unit, { kind: 'expression', expression }), given('T3', 'K', { kind: 'choice', values: [500] })])
+  const def = problem([
+    given('T1', 'K', { kind: 'range', min: 300, max: 310, step: 1 }),
+    given('T2', unit, { kind: 'expression', expression }),
+    given('T3', 'K', { kind: 'choice', values: [500] }),
+  ])
   const r = drawGivens(def, 1)
   expect(r.ok).toBe(false)
   if (r.ok) return
@@ -122,7 +151,10 @@ test.each([
 })
 
 test('a constraint that is often unmet holds in every drawn variant, and the redraw was needed', () => {
-  const givens = [given('TH', 'K', { kind: 'range', min: 300, max: 1000, step: 10 }), given('TL', 'K', { kind: 'range', min: 250, max: 600, step: 10 })]
+  const givens = [
+    given('TH', 'K', { kind: 'range', min: 300, max: 1000, step: 10 }),
+    given('TL', 'K', { kind: 'range', min: 250, max: 600, step: 10 }),
+  ]
   const free = problem(givens)
   const constrained = problem(givens, [{ left: 'TH', op: '>', right: 'TL + 100 K' }])
   let redrawn = 0
@@ -147,12 +179,27 @@ test.each([
 })
 
 test('an impossible constraint gives constraint-never-met after the last draw, without hanging', () => {
-  const def = problem([given('TH', 'K', { kind: 'range', min: 300, max: 400, step: 10 }), given('TL', 'K', { kind: 'range', min: 350, max: 500, step: 10 })], [{ left: 'TH', op: '>', right: 'TL + 100 K' }])
+  const def = problem(
+    [
+      given('TH', 'K', { kind: 'range', min: 300, max: 400, step: 10 }),
+      given('TL', 'K', { kind: 'range', min: 350, max: 500, step: 10 }),
+    ],
+    [{ left: 'TH', op: '>', right: 'TL + 100 K' }],
+  )
   const t0 = performance.now()
   const r = drawGivens(def, 7)
   expect(performance.now() - t0).toBeLessThan(2000)
-  expect(r).toEqual({ ok: false, error: { code: 'constraint-never-met', message: `TH > TL + 100 K was not met in ${MAX_DRAW_ATTEMPTS} draws; widen the ranges`, property: 'constraints.0' } })
-  const withMessage = problem(def.givens as Given[], [{ left: 'TH', op: '>', right: 'TL + 100 K', message: 'TH must exceed TL by 100 K' }])
+  expect(r).toEqual({
+    ok: false,
+    error: {
+      code: 'constraint-never-met',
+      message: `TH > TL + 100 K was not met in ${MAX_DRAW_ATTEMPTS} draws; widen the ranges`,
+      property: 'constraints.0',
+    },
+  })
+  const withMessage = problem(def.givens as Given[], [
+    { left: 'TH', op: '>', right: 'TL + 100 K', message: 'TH must exceed TL by 100 K' },
+  ])
   const m = drawGivens(withMessage, 7)
   expect(!m.ok && m.error.message.startsWith('TH must exceed TL by 100 K')).toBe(true)
 })
@@ -161,7 +208,13 @@ test.each([
   ['different kinds', 'TH', 'p1', /different kinds/],
   ['an unknown name', 'TH', 'TX + 1 K', /"TX"/],
 ])('a constraint with %s is an invalid definition naming the constraint', (_what, left, right, message) => {
-  const def = problem([given('TH', 'K', { kind: 'range', min: 300, max: 400, step: 10 }), given('p1', 'kPa', { kind: 'choice', values: [100] })], [{ left, op: '>', right }])
+  const def = problem(
+    [
+      given('TH', 'K', { kind: 'range', min: 300, max: 400, step: 10 }),
+      given('p1', 'kPa', { kind: 'choice', values: [100] }),
+    ],
+    [{ left, op: '>', right }],
+  )
   const r = drawGivens(def, 1)
   expect(r.ok).toBe(false)
   if (!r.ok) {

@@ -20,7 +20,8 @@ import { seedFrom } from './seed.ts'
 /** How many draws a set of constraints gets before the problem is called impossible. */
 export const MAX_DRAW_ATTEMPTS = 200
 
-export type DrawGivensResult = { readonly ok: true; readonly givens: DrawnGiven[] } | { readonly ok: false; readonly error: VariantError }
+export type DrawGivensResult =
+  { readonly ok: true; readonly givens: DrawnGiven[] } | { readonly ok: false; readonly error: VariantError }
 
 // ---- Numbers ------------------------------------------------------------------------
 
@@ -58,8 +59,14 @@ function roundTo(x: number, decimals: number): number {
 
 /** A given's display rule applied to a computed value, so the prompt and the solver agree. */
 function applyDisplay(x: number, display: Given['display']): number {
-  if (display?.decimals !== undefined && Number.isInteger(display.decimals) && display.decimals >= 0) return roundTo(x, display.decimals)
-  if (display?.sigFigs !== undefined && Number.isInteger(display.sigFigs) && display.sigFigs >= 1 && display.sigFigs <= 21) {
+  if (display?.decimals !== undefined && Number.isInteger(display.decimals) && display.decimals >= 0)
+    return roundTo(x, display.decimals)
+  if (
+    display?.sigFigs !== undefined &&
+    Number.isInteger(display.sigFigs) &&
+    display.sigFigs >= 1 &&
+    display.sigFigs <= 21
+  ) {
     return x === 0 ? 0 : Number(x.toPrecision(display.sigFigs))
   }
   return cleanNumber(x)
@@ -113,7 +120,12 @@ export function unknownNames(text: string, allowed: ReadonlySet<string>): string
   const found = new Set<string>()
   for (const m of text.matchAll(/(?<![0-9.A-Za-z_])[A-Za-z][A-Za-z0-9_]*/g)) {
     const name = m[0]
-    if (allowed.has(name) || Object.hasOwn(ALLOWED_CONSTANTS, name) || (ALLOWED_FUNCTIONS as readonly string[]).includes(name)) continue
+    if (
+      allowed.has(name) ||
+      Object.hasOwn(ALLOWED_CONSTANTS, name) ||
+      (ALLOWED_FUNCTIONS as readonly string[]).includes(name)
+    )
+      continue
     if (isKnownUnitName(name)) continue
     found.add(name)
   }
@@ -121,10 +133,15 @@ export function unknownNames(text: string, allowed: ReadonlySet<string>): string
 }
 
 /** A reader error as an author-facing sentence, naming unknown names when there are some. */
-export function describeCompileError(text: string, allowed: ReadonlySet<string>, error: { code: string; message: string }): string {
+export function describeCompileError(
+  text: string,
+  allowed: ReadonlySet<string>,
+  error: { code: string; message: string },
+): string {
   if (error.code === 'unknown-symbol') {
     const names = unknownNames(text, allowed)
-    if (names.length > 0) return `uses ${names.map((n) => `"${n}"`).join(', ')}, which is not defined before it (nor a unit)`
+    if (names.length > 0)
+      return `uses ${names.map((n) => `"${n}"`).join(', ')}, which is not defined before it (nor a unit)`
   }
   return error.message.replace(/^The expression/, 'the expression').replace(/\.$/, '')
 }
@@ -143,7 +160,14 @@ interface PreparedConstraint {
   readonly right: CompiledRestrictedExpression
 }
 
-type Prepared = { readonly ok: true; readonly givens: readonly PreparedGiven[]; readonly constraints: readonly PreparedConstraint[]; readonly needsScope: boolean } | { readonly ok: false; readonly error: VariantError }
+type Prepared =
+  | {
+      readonly ok: true
+      readonly givens: readonly PreparedGiven[]
+      readonly constraints: readonly PreparedConstraint[]
+      readonly needsScope: boolean
+    }
+  | { readonly ok: false; readonly error: VariantError }
 
 // Compiling is most of the cost of a draw; a sweep draws the same definition hundreds of times.
 const preparedCache = new WeakMap<ProblemDefinition, Prepared>()
@@ -167,17 +191,25 @@ function prepareUncached(def: ProblemDefinition): Prepared {
     const rule = g.rule
     if (rule.kind === 'range') {
       const steps = rangeSteps(rule.min, rule.max, rule.step)
-      if (steps === null) return givenError(g, `the range needs finite min <= max and a step > 0 (got ${rule.min} to ${rule.max} by ${rule.step})`)
+      if (steps === null)
+        return givenError(
+          g,
+          `the range needs finite min <= max and a step > 0 (got ${rule.min} to ${rule.max} by ${rule.step})`,
+        )
       givens.push({ given: g, kind: 'range', steps, decimals: Math.max(decimalsOf(rule.min), decimalsOf(rule.step)) })
     } else if (rule.kind === 'choice') {
       if (rule.values.length === 0) return givenError(g, 'the choice has no values')
-      if (rule.values.some((v) => typeof v === 'number' && !Number.isFinite(v))) return givenError(g, 'a choice value is not a finite number')
+      if (rule.values.some((v) => typeof v === 'number' && !Number.isFinite(v)))
+        return givenError(g, 'a choice value is not a finite number')
       givens.push({ given: g, kind: 'choice' })
     } else {
       const allowed = new Set(earlier)
       const c = compileRestrictedExpression(rule.expression, { variables: earlier, expectedUnit: g.unit })
       if (!c.ok) {
-        const msg = c.error.code === 'wrong-dimension' ? `the unit "${g.unit}" cannot be read` : describeCompileError(rule.expression, allowed, c.error)
+        const msg =
+          c.error.code === 'wrong-dimension'
+            ? `the unit "${g.unit}" cannot be read`
+            : describeCompileError(rule.expression, allowed, c.error)
         return givenError(g, msg)
       }
       givens.push({ given: g, kind: 'expression', compiled: c.expression })
@@ -192,19 +224,35 @@ function prepareUncached(def: ProblemDefinition): Prepared {
       const text = constraint[side]
       const c = compileRestrictedExpression(text, { variables: earlier })
       if (!c.ok) {
-        return { ok: false, error: { code: 'invalid-definition', message: `Constraint ${index + 1} (${side} side "${text}"): ${describeCompileError(text, allowed, c.error)}.`, property: `constraints.${index}.${side}` } }
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-definition',
+            message: `Constraint ${index + 1} (${side} side "${text}"): ${describeCompileError(text, allowed, c.error)}.`,
+            property: `constraints.${index}.${side}`,
+          },
+        }
       }
       sides.push(c.expression)
     }
     constraints.push({ index, constraint, left: sides[0]!, right: sides[1]! })
   }
   // Quantities for the reader cost a mathjs call each: build them only when something reads them.
-  return { ok: true, givens, constraints, needsScope: constraints.length > 0 || givens.some((g) => g.kind === 'expression') }
+  return {
+    ok: true,
+    givens,
+    constraints,
+    needsScope: constraints.length > 0 || givens.some((g) => g.kind === 'expression'),
+  }
 }
 
 // ---- Drawing ---------------------------------------------------------------------------
 
-function drawOnce(givens: readonly PreparedGiven[], needsScope: boolean, rand: () => number): { ok: true; givens: DrawnGiven[]; scope: Record<string, ScopeValue> } | { ok: false; error: VariantError } {
+function drawOnce(
+  givens: readonly PreparedGiven[],
+  needsScope: boolean,
+  rand: () => number,
+): { ok: true; givens: DrawnGiven[]; scope: Record<string, ScopeValue> } | { ok: false; error: VariantError } {
   const drawn: DrawnGiven[] = []
   const scope: Record<string, ScopeValue> = {}
   for (const p of givens) {
@@ -229,7 +277,10 @@ function drawOnce(givens: readonly PreparedGiven[], needsScope: boolean, rand: (
     } else {
       const r = p.compiled.evaluate(scope)
       if (!r.ok) {
-        const detail = r.error.code === 'wrong-dimension' ? `the expression does not give a quantity in ${g.unit === '' ? 'a pure number' : `"${g.unit}"`}` : describeCompileError(p.compiled.text, new Set(p.compiled.variables), r.error)
+        const detail =
+          r.error.code === 'wrong-dimension'
+            ? `the expression does not give a quantity in ${g.unit === '' ? 'a pure number' : `"${g.unit}"`}`
+            : describeCompileError(p.compiled.text, new Set(p.compiled.variables), r.error)
         return givenError(g, detail)
       }
       value = applyDisplay(r.value, g.display)
@@ -268,9 +319,15 @@ function checkConstraint(c: PreparedConstraint, scope: Record<string, ScopeValue
   for (const [side, compiled] of [['left', c.left] as const, ['right', c.right] as const]) {
     const r = compiled.evaluate(scope)
     if (!r.ok) {
-      return { code: 'invalid-definition', message: `Constraint ${c.index + 1} (${side} side "${compiled.text}"): ${describeCompileError(compiled.text, new Set(compiled.variables), r.error)}.`, property: `constraints.${c.index}.${side}` }
+      return {
+        code: 'invalid-definition',
+        message: `Constraint ${c.index + 1} (${side} side "${compiled.text}"): ${describeCompileError(compiled.text, new Set(compiled.variables), r.error)}.`,
+        property: `constraints.${c.index}.${side}`,
+      }
     }
-    sides.push(r.kind === 'number' ? { kind: 'number', value: r.value } : { kind: 'quantity', si: r.siValue, unit: r.quantity })
+    sides.push(
+      r.kind === 'number' ? { kind: 'number', value: r.value } : { kind: 'quantity', si: r.siValue, unit: r.quantity },
+    )
   }
   const [l, r] = sides as [Side, Side]
   let a: number
@@ -293,7 +350,11 @@ function checkConstraint(c: PreparedConstraint, scope: Record<string, ScopeValue
 }
 
 function mismatch(c: PreparedConstraint): VariantError {
-  return { code: 'invalid-definition', message: `Constraint ${c.index + 1}: "${c.constraint.left}" and "${c.constraint.right}" are quantities of different kinds.`, property: `constraints.${c.index}` }
+  return {
+    code: 'invalid-definition',
+    message: `Constraint ${c.index + 1}: "${c.constraint.left}" and "${c.constraint.right}" are quantities of different kinds.`,
+    property: `constraints.${c.index}`,
+  }
 }
 
 /** The seed of the n-th draw: the variant's own seed first, then seeds derived from it. */
@@ -324,9 +385,17 @@ export function drawGivens(def: ProblemDefinition, seed: number): DrawGivensResu
     const worst = unmet.indexOf(Math.max(...unmet))
     const c = def.constraints[worst]!
     const what = `${c.left} ${c.op} ${c.right}`
-    const message = c.message ? `${c.message} (${what} was not met in ${MAX_DRAW_ATTEMPTS} draws; widen the ranges)` : `${what} was not met in ${MAX_DRAW_ATTEMPTS} draws; widen the ranges`
+    const message = c.message
+      ? `${c.message} (${what} was not met in ${MAX_DRAW_ATTEMPTS} draws; widen the ranges)`
+      : `${what} was not met in ${MAX_DRAW_ATTEMPTS} draws; widen the ranges`
     return { ok: false, error: { code: 'constraint-never-met', message, property: `constraints.${worst}` } }
   } catch (e) {
-    return { ok: false, error: { code: 'invalid-definition', message: `The givens could not be drawn (${e instanceof Error ? e.message : String(e)}).` } }
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-definition',
+        message: `The givens could not be drawn (${e instanceof Error ? e.message : String(e)}).`,
+      },
+    }
   }
 }

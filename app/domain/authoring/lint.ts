@@ -27,8 +27,10 @@ export interface LintFinding {
 }
 
 const NOTE_MESSAGES: Readonly<Record<CheckNote, string>> = {
-  'relative-tolerance-zero-expected': 'The key is 0 in the trial variant, so a relative tolerance accepts only exactly 0: use an absolute tolerance.',
-  'relative-tolerance-on-absolute-scale': 'A relative tolerance on a °C or °F value is applied on the absolute scale (1 % of 27 °C is 3 K).',
+  'relative-tolerance-zero-expected':
+    'The key is 0 in the trial variant, so a relative tolerance accepts only exactly 0: use an absolute tolerance.',
+  'relative-tolerance-on-absolute-scale':
+    'A relative tolerance on a °C or °F value is applied on the absolute scale (1 % of 27 °C is 3 K).',
 }
 
 function sentence(s: string): string {
@@ -76,7 +78,8 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
   // Names
   const seen = new Map<string, string>()
   const nameCheck = (name: string, path: string, what: string): void => {
-    if (!NAME_PATTERN.test(name)) add(path, `"${name}" is not a usable name: start with a letter, then letters, digits or _ (at most 32)`)
+    if (!NAME_PATTERN.test(name))
+      add(path, `"${name}" is not a usable name: start with a letter, then letters, digits or _ (at most 32)`)
     const before = seen.get(name)
     if (before !== undefined) add(path, `the name "${name}" is already used by ${before}`)
     else seen.set(name, what)
@@ -96,15 +99,22 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
       if (![rule.min, rule.max].every(Number.isFinite)) add(`${base}.rule.min`, 'min and max must be numbers')
       else if (rule.max < rule.min) add(`${base}.rule.max`, `max (${rule.max}) is below min (${rule.min})`)
       if (!Number.isFinite(rule.step) || rule.step <= 0) add(`${base}.rule.step`, 'the step must be greater than 0')
-      else if (rangeSteps(rule.min, rule.max, rule.step) !== null && (rule.max - rule.min) / rule.step > 1e6) add(`${base}.rule.step`, 'the step is so small that the range has over a million values')
+      else if (rangeSteps(rule.min, rule.max, rule.step) !== null && (rule.max - rule.min) / rule.step > 1e6)
+        add(`${base}.rule.step`, 'the step is so small that the range has over a million values')
     } else if (rule.kind === 'choice') {
       if (rule.values.length === 0) add(`${base}.rule.values`, 'the choice needs at least one value')
       const texts = rule.values.filter((v) => typeof v === 'string').length
-      if (texts > 0 && texts < rule.values.length) add(`${base}.rule.values`, 'mix of numbers and texts: give all numbers or all texts')
+      if (texts > 0 && texts < rule.values.length)
+        add(`${base}.rule.values`, 'mix of numbers and texts: give all numbers or all texts')
     } else if (unitOk) {
       const earlier = new Set(numericGivens)
       const c = compileRestrictedExpression(rule.expression, { variables: numericGivens, expectedUnit: g.unit })
-      if (!c.ok) add(`${base}.rule.expression`, laterNameMessage(rule.expression, earlier, givenNames, def) ?? describeCompileError(rule.expression, earlier, c.error))
+      if (!c.ok)
+        add(
+          `${base}.rule.expression`,
+          laterNameMessage(rule.expression, earlier, givenNames, def) ??
+            describeCompileError(rule.expression, earlier, c.error),
+        )
     }
     if (isNumericGiven(g)) numericGivens.push(g.name)
   })
@@ -128,10 +138,12 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
     } else {
       const known = new Set(inputs.map((x) => x.name))
       for (const k of Object.keys(p.inputs)) {
-        if (!known.has(k)) add(`physics.inputs.${k}`, `template "${p.template}" has no input "${k}"; it takes ${[...known].join(', ')}`)
+        if (!known.has(k))
+          add(`physics.inputs.${k}`, `template "${p.template}" has no input "${k}"; it takes ${[...known].join(', ')}`)
       }
       for (const inp of inputs) {
-        if (inp.required && !Object.hasOwn(p.inputs, inp.name)) add(`physics.inputs.${inp.name}`, `template "${p.template}" needs "${inp.name}" (${inp.description})`)
+        if (inp.required && !Object.hasOwn(p.inputs, inp.name))
+          add(`physics.inputs.${inp.name}`, `template "${p.template}" needs "${inp.name}" (${inp.description})`)
       }
     }
     placeholdersIn(p.inputs, 'physics.inputs', physicsPlaceholders)
@@ -150,12 +162,26 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
     if (!unitOk) add(`${base}.unit`, `"${f.unit}" is not a unit we can read`)
     if (f.source.kind === 'expression' && unitOk) {
       const allowed = new Set(findNames)
-      const c = compileRestrictedExpression(f.source.expression, { variables: [...allowed], expectedUnit: f.unit, temperatureDifference: f.isDifference === true })
-      if (!c.ok) add(`${base}.source.expression`, laterNameMessage(f.source.expression, allowed, new Set([...givenNames, ...def.finds.map((x) => x.name)]), def) ?? describeCompileError(f.source.expression, allowed, c.error))
+      const c = compileRestrictedExpression(f.source.expression, {
+        variables: [...allowed],
+        expectedUnit: f.unit,
+        temperatureDifference: f.isDifference === true,
+      })
+      if (!c.ok)
+        add(
+          `${base}.source.expression`,
+          laterNameMessage(
+            f.source.expression,
+            allowed,
+            new Set([...givenNames, ...def.finds.map((x) => x.name)]),
+            def,
+          ) ?? describeCompileError(f.source.expression, allowed, c.error),
+        )
     }
     if (unitOk) {
       const v = validateCheckRule({ value: 1, unit: f.unit }, checkRuleOf(f))
-      if (!v.ok && v.error.property !== 'expected.unit') add(`${base}.${v.error.property.replace(/^rule\./, '')}`, v.error.message)
+      if (!v.ok && v.error.property !== 'expected.unit')
+        add(`${base}.${v.error.property.replace(/^rule\./, '')}`, v.error.message)
     }
     f.pitfalls.forEach((id) => {
       const why = whyPitfallCannotFire(def, i, id)
@@ -170,7 +196,11 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
   for (const e of parsed.errors) add('prompt', e.message)
   const unknownInPrompt = [...new Set(parsed.placeholders.map((p) => p.name).filter((n) => !givenNames.has(n)))]
   const known = [...givenNames].join(', ')
-  for (const n of unknownInPrompt) add('prompt', `The placeholder [${n}] names no given${known ? ` (the givens are ${known})` : ''}; write \\[ for a bracket that is only a bracket`)
+  for (const n of unknownInPrompt)
+    add(
+      'prompt',
+      `The placeholder [${n}] names no given${known ? ` (the givens are ${known})` : ''}; write \\[ for a bracket that is only a bracket`,
+    )
 
   // A trial variant, only when the definition is otherwise sound: its errors would repeat the above.
   if (out.length === 0) trial(def, add)
@@ -183,7 +213,10 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
  * work or heat find with no sense in a problem shared with other courses. Pure and light (no
  * solver), never throws.
  */
-export function lintWarnings(def: ProblemDefinition, options: { readonly visibility?: ProblemVisibility } = {}): LintFinding[] {
+export function lintWarnings(
+  def: ProblemDefinition,
+  options: { readonly visibility?: ProblemVisibility } = {},
+): LintFinding[] {
   try {
     return senseWarnings(def, options)
   } catch {
@@ -192,12 +225,20 @@ export function lintWarnings(def: ProblemDefinition, options: { readonly visibil
 }
 
 /** "uses X, which is defined after it" when the expression names a later given or find. */
-function laterNameMessage(text: string, allowed: ReadonlySet<string>, all: ReadonlySet<string>, def: ProblemDefinition): string | null {
-  const later = [...new Set([...text.matchAll(/(?<![0-9.A-Za-z_])[A-Za-z][A-Za-z0-9_]*/g)].map((m) => m[0]))].filter((n) => all.has(n) && !allowed.has(n))
+function laterNameMessage(
+  text: string,
+  allowed: ReadonlySet<string>,
+  all: ReadonlySet<string>,
+  def: ProblemDefinition,
+): string | null {
+  const later = [...new Set([...text.matchAll(/(?<![0-9.A-Za-z_])[A-Za-z][A-Za-z0-9_]*/g)].map((m) => m[0]))].filter(
+    (n) => all.has(n) && !allowed.has(n),
+  )
   if (later.length === 0) return null
   const isText = (n: string): boolean => def.givens.some((g) => g.name === n && !isNumericGiven(g))
   const texts = later.filter(isText)
-  if (texts.length > 0) return `${texts.map((n) => `"${n}"`).join(', ')} is a text given and has no number to compute with`
+  if (texts.length > 0)
+    return `${texts.map((n) => `"${n}"`).join(', ')} is a text given and has no number to compute with`
   return `uses ${later.map((n) => `"${n}"`).join(', ')} before ${later.length === 1 ? 'it is' : 'they are'} defined: expressions may use only what is listed above them`
 }
 
@@ -208,14 +249,18 @@ function trial(def: ProblemDefinition, add: (path: string, message: string) => v
   if (!drawn.ok) {
     const e = drawn.error
     const gi = def.givens.findIndex((g) => g.name === e.property)
-    const givenPath = gi >= 0 ? (def.givens[gi]!.rule.kind === 'expression' ? `givens.${gi}.rule.expression` : `givens.${gi}`) : null
+    const givenPath =
+      gi >= 0 ? (def.givens[gi]!.rule.kind === 'expression' ? `givens.${gi}.rule.expression` : `givens.${gi}`) : null
     const path = givenPath ?? (e.property?.startsWith('constraints.') ? e.property : 'physics')
     add(path, e.message)
     return
   }
   const solved = solveBankSpec(buildSpec(def, drawn.givens, convention))
   if (!solved.ok) {
-    add(solverErrorPath(def.physics, solved.error.property), `the trial variant (seed ${seed}) does not solve: ${solved.error.message}`)
+    add(
+      solverErrorPath(def.physics, solved.error.property),
+      `the trial variant (seed ${seed}) does not solve: ${solved.error.message}`,
+    )
     return
   }
   let outputsOk = true
@@ -225,7 +270,10 @@ function trial(def: ProblemDefinition, add: (path: string, message: string) => v
     const siUnit = unitAtPath(solved, f.source.path)
     if (raw === null || siUnit === null) {
       outputsOk = false
-      add(`finds.${i}.source.path`, `the solution has no number at "${f.source.path}" (e.g. totals.netWork, states.2.T, steps.1.q)`)
+      add(
+        `finds.${i}.source.path`,
+        `the solution has no number at "${f.source.path}" (e.g. totals.netWork, states.2.T, steps.1.q)`,
+      )
       return
     }
     const v = convertFromSI(Number.isFinite(raw) ? raw : 0, siUnit, f.unit, f.isDifference === true)
@@ -238,7 +286,8 @@ function trial(def: ProblemDefinition, add: (path: string, message: string) => v
   const r = drawVariant(def, seed, { convention })
   if (!r.ok) {
     const fi = def.finds.findIndex((f) => f.name === r.error.property)
-    const physicsPath = r.error.code === 'solve-error' && r.error.property?.startsWith('physics') ? r.error.property : 'physics'
+    const physicsPath =
+      r.error.code === 'solve-error' && r.error.property?.startsWith('physics') ? r.error.property : 'physics'
     add(fi >= 0 ? findSourcePath(def.finds[fi]!, fi) : physicsPath, r.error.message.replace(/^Find "[^"]*": /, ''))
     return
   }

@@ -13,7 +13,12 @@ export interface PlaceholderSpelling {
 /** How a placeholder is written, for messages and the editor's "insert a given" list. */
 export function placeholderText(name: string, options: PlaceholderSpelling = {}): string {
   const unit = options.unit !== undefined ? ` in ${options.unit}` : ''
-  const round = options.sigFigs !== undefined ? `, ${options.sigFigs} sf` : options.decimals !== undefined ? `, ${options.decimals} dp` : ''
+  const round =
+    options.sigFigs !== undefined
+      ? `, ${options.sigFigs} sf`
+      : options.decimals !== undefined
+        ? `, ${options.decimals} dp`
+        : ''
   return `[${name}${unit}${round}]`
 }
 
@@ -45,7 +50,9 @@ export function upgradeLegacyPrompt(prompt: string): string {
   let out = prompt
   for (const [pattern, replacement] of LEGACY_REWRITES) {
     // PostgreSQL writes a group as \1 and a backslash as \\; JavaScript as $1 and \.
-    const js = replacement.replace(/\\\\|\\(\d)|\$/g, (m, d: string | undefined) => (m === '\\\\' ? '\\' : m === '$' ? '$$' : `$${d}`))
+    const js = replacement.replace(/\\\\|\\(\d)|\$/g, (m, d: string | undefined) =>
+      m === '\\\\' ? '\\' : m === '$' ? '$$' : `$${d}`,
+    )
     out = out.replace(new RegExp(pattern, 'g'), js)
   }
   return out

@@ -1,9 +1,24 @@
 import { describe, expect, test } from 'vitest'
 import type { DrawnGiven } from './definition.ts'
 import { upgradeDefinition } from './definition.ts'
-import { convertValue, expandPlaceholders, formatGivenValue, parsePlaceholders, placeholderText, scanPlaceholders, unitToTex, upgradeLegacyPrompt } from './placeholders.ts'
+import {
+  convertValue,
+  expandPlaceholders,
+  formatGivenValue,
+  parsePlaceholders,
+  placeholderText,
+  scanPlaceholders,
+  unitToTex,
+  upgradeLegacyPrompt,
+} from './placeholders.ts'
 
-const given = (name: string, value: number, unit: string, text = `${value} ${unit}`.trim()): DrawnGiven => ({ name, label: name, value, unit, text })
+const given = (name: string, value: number, unit: string, text = `${value} ${unit}`.trim()): DrawnGiven => ({
+  name,
+  label: name,
+  value,
+  unit,
+  text,
+})
 const T1 = given('T1', 300, 'K')
 const p1 = given('p1', 101.325, 'kPa')
 const gas = { name: 'gas', label: 'gas', value: NaN, unit: '', text: 'air' } satisfies DrawnGiven
@@ -72,7 +87,12 @@ describe('parsePlaceholders', () => {
   })
 
   test('placeholderText writes what the parser reads', () => {
-    for (const [name, o] of [['T1', {}], ['T1', { unit: '°C' }], ['p1', { sigFigs: 3 }], ['q', { unit: 'kJ/kg', decimals: 2 }]] as const) {
+    for (const [name, o] of [
+      ['T1', {}],
+      ['T1', { unit: '°C' }],
+      ['p1', { sigFigs: 3 }],
+      ['q', { unit: 'kJ/kg', decimals: 2 }],
+    ] as const) {
       const text = placeholderText(name, o)
       const { start: _s, end: _e, ...rest } = parsePlaceholders(text).placeholders[0]!
       expect(rest).toEqual({ name, ...o })
@@ -98,13 +118,23 @@ describe('upgradeLegacyPrompt (definition format 1 → 2)', () => {
   })
 
   test('old and new prompts show the same text for the same givens', () => {
-    const old = 'Air (@{gas}) at @{T1} = @{T1 in °C, 1 dp}; write @@{T1}, see [note] and [the tables](https://example.org)'
+    const old =
+      'Air (@{gas}) at @{T1} = @{T1 in °C, 1 dp}; write @@{T1}, see [note] and [the tables](https://example.org)'
     const upgraded = upgradeLegacyPrompt(old)
-    expect(expandPlaceholders(upgraded, [T1, gas])).toEqual({ text: 'Air (air) at 300\u00A0K = 26.9\u00A0°C; write @{T1}, see [note] and [the tables](https://example.org)', errors: [] })
+    expect(expandPlaceholders(upgraded, [T1, gas])).toEqual({
+      text: 'Air (air) at 300\u00A0K = 26.9\u00A0°C; write @{T1}, see [note] and [the tables](https://example.org)',
+      errors: [],
+    })
   })
 
   test('a format-2 definition is left as it is; a format-1 one changes only its prompt and format', () => {
-    const def = { format: 1, title: 't', prompt: 'at @{T1}', givens: [{ name: 'T1' }], physics: { kind: 'template', template: 'otto', inputs: { T3: '@{T1} + 500 K' } } }
+    const def = {
+      format: 1,
+      title: 't',
+      prompt: 'at @{T1}',
+      givens: [{ name: 'T1' }],
+      physics: { kind: 'template', template: 'otto', inputs: { T3: '@{T1} + 500 K' } },
+    }
     expect(upgradeDefinition(def)).toEqual({ ...def, format: 2, prompt: 'at [T1]' })
     const current = { ...def, format: 2 }
     expect(upgradeDefinition(current)).toBe(current)
@@ -114,11 +144,17 @@ describe('upgradeLegacyPrompt (definition format 1 → 2)', () => {
 
 describe('formatGivenValue', () => {
   test('as drawn, without float noise, with a no-break space before the unit', () => {
-    expect(formatGivenValue(given('x', 0.1 + 0.2, 'kJ/kg'), undefined, { tex: false })).toEqual({ ok: true, text: '0.3\u00A0kJ/kg' })
+    expect(formatGivenValue(given('x', 0.1 + 0.2, 'kJ/kg'), undefined, { tex: false })).toEqual({
+      ok: true,
+      text: '0.3\u00A0kJ/kg',
+    })
   })
   test('300 K in °C is 26.85 °C (0 °C = 273.15 K, SI Brochure 9th ed., from memory)', () => {
     expect(formatGivenValue(T1, undefined, { unit: '°C', tex: false })).toEqual({ ok: true, text: '26.85\u00A0°C' })
-    expect(formatGivenValue(given('t', 26.85, '°C'), undefined, { unit: 'K', tex: false })).toEqual({ ok: true, text: '300\u00A0K' })
+    expect(formatGivenValue(given('t', 26.85, '°C'), undefined, { unit: 'K', tex: false })).toEqual({
+      ok: true,
+      text: '300\u00A0K',
+    })
   })
   test('101.325 kPa is 1 atm and 1.01325 bar (exact by definition, SI Brochure Table 8, from memory)', () => {
     expect(formatGivenValue(p1, undefined, { unit: 'atm', tex: false })).toEqual({ ok: true, text: '1\u00A0atm' })
@@ -137,16 +173,34 @@ describe('formatGivenValue', () => {
   test('the given display rule applies in its own unit; the placeholder option wins', () => {
     expect(formatGivenValue(p1, { decimals: 1 }, { tex: false })).toEqual({ ok: true, text: '101.3\u00A0kPa' })
     expect(formatGivenValue(p1, { sigFigs: 2 }, { tex: false })).toEqual({ ok: true, text: '100\u00A0kPa' })
-    expect(formatGivenValue(p1, { decimals: 1 }, { decimals: 3, tex: false })).toEqual({ ok: true, text: '101.325\u00A0kPa' })
+    expect(formatGivenValue(p1, { decimals: 1 }, { decimals: 3, tex: false })).toEqual({
+      ok: true,
+      text: '101.325\u00A0kPa',
+    })
   })
   test('large and small numbers in scientific form; negatives with a minus sign', () => {
-    expect(formatGivenValue(given('E', 1.234e10, 'J'), undefined, { sigFigs: 3, tex: false })).toEqual({ ok: true, text: '1.23\u00A0×\u00A010¹⁰\u00A0J' })
-    expect(formatGivenValue(given('E', 1.5e-6, 'm^3'), undefined, { tex: true })).toEqual({ ok: true, text: '1.5\\times10^{-6}\\,\\mathrm{m}^{3}' })
-    expect(formatGivenValue(given('q', -800, 'kJ/kg'), undefined, { tex: false })).toEqual({ ok: true, text: '\u2212800\u00A0kJ/kg' })
+    expect(formatGivenValue(given('E', 1.234e10, 'J'), undefined, { sigFigs: 3, tex: false })).toEqual({
+      ok: true,
+      text: '1.23\u00A0×\u00A010¹⁰\u00A0J',
+    })
+    expect(formatGivenValue(given('E', 1.5e-6, 'm^3'), undefined, { tex: true })).toEqual({
+      ok: true,
+      text: '1.5\\times10^{-6}\\,\\mathrm{m}^{3}',
+    })
+    expect(formatGivenValue(given('q', -800, 'kJ/kg'), undefined, { tex: false })).toEqual({
+      ok: true,
+      text: '\u2212800\u00A0kJ/kg',
+    })
   })
   test('TeX form: thin space and units in \\mathrm', () => {
-    expect(formatGivenValue(given('T', 350, 'K'), undefined, { tex: true })).toEqual({ ok: true, text: '350\\,\\mathrm{K}' })
-    expect(formatGivenValue(T1, undefined, { unit: '°C', tex: true })).toEqual({ ok: true, text: '26.85\\,{}^{\\circ}\\mathrm{C}' })
+    expect(formatGivenValue(given('T', 350, 'K'), undefined, { tex: true })).toEqual({
+      ok: true,
+      text: '350\\,\\mathrm{K}',
+    })
+    expect(formatGivenValue(T1, undefined, { unit: '°C', tex: true })).toEqual({
+      ok: true,
+      text: '26.85\\,{}^{\\circ}\\mathrm{C}',
+    })
     expect(unitToTex('kJ/(kg·K)')).toBe('\\mathrm{kJ}/(\\mathrm{kg}{\\cdot}\\mathrm{K})')
     expect(unitToTex('kJ/(kg K)')).toBe('\\mathrm{kJ}/(\\mathrm{kg}{\\cdot}\\mathrm{K})')
     expect(unitToTex('m^3/kg')).toBe('\\mathrm{m}^{3}/\\mathrm{kg}')
@@ -155,15 +209,27 @@ describe('formatGivenValue', () => {
   test('a text choice inserts its text and refuses units or rounding', () => {
     expect(formatGivenValue(gas, undefined, { tex: false })).toEqual({ ok: true, text: 'air' })
     expect(formatGivenValue(gas, undefined, { tex: true })).toEqual({ ok: true, text: '\\text{air}' })
-    expect(formatGivenValue(gas, undefined, { unit: 'K', tex: false })).toMatchObject({ ok: false, message: expect.stringMatching(/text choice/) })
+    expect(formatGivenValue(gas, undefined, { unit: 'K', tex: false })).toMatchObject({
+      ok: false,
+      message: expect.stringMatching(/text choice/),
+    })
   })
   test('a unit of another dimension, or no unit at all, is a message, not a throw', () => {
-    expect(formatGivenValue(T1, undefined, { unit: 'kPa', tex: false })).toMatchObject({ ok: false, message: expect.stringMatching(/different dimensions/) })
-    expect(formatGivenValue(T1, undefined, { unit: 'furlongs per fortnight', tex: false })).toMatchObject({ ok: false, message: expect.stringMatching(/not a unit/) })
+    expect(formatGivenValue(T1, undefined, { unit: 'kPa', tex: false })).toMatchObject({
+      ok: false,
+      message: expect.stringMatching(/different dimensions/),
+    })
+    expect(formatGivenValue(T1, undefined, { unit: 'furlongs per fortnight', tex: false })).toMatchObject({
+      ok: false,
+      message: expect.stringMatching(/not a unit/),
+    })
   })
   test('a pure number shown in %', () => {
     expect(convertValue(0.85, '', '%')).toEqual({ ok: true, value: 85 })
-    expect(formatGivenValue(given('eta', 0.85, ''), undefined, { unit: '%', tex: false })).toEqual({ ok: true, text: '85\u00A0%' })
+    expect(formatGivenValue(given('eta', 0.85, ''), undefined, { unit: '%', tex: false })).toEqual({
+      ok: true,
+      text: '85\u00A0%',
+    })
   })
 })
 

@@ -67,7 +67,8 @@ export interface PlaceholderError {
   readonly offset: number
 }
 
-export type FormatResult = { readonly ok: true; readonly text: string } | { readonly ok: false; readonly message: string }
+export type FormatResult =
+  { readonly ok: true; readonly text: string } | { readonly ok: false; readonly message: string }
 
 /** Limits that keep toFixed/toPrecision in range and the output readable. */
 export const MAX_SIG_FIGS = 15
@@ -80,7 +81,9 @@ const MINUS = '\u2212'
 
 // ---- Parsing ------------------------------------------------------------------------
 
-type InnerParse = { readonly ok: true; readonly name: string; readonly options: PlaceholderOptions } | { readonly ok: false; readonly message: string; readonly name: string }
+type InnerParse =
+  | { readonly ok: true; readonly name: string; readonly options: PlaceholderOptions }
+  | { readonly ok: false; readonly message: string; readonly name: string }
 
 const INNER = /^\s*([^\s,]+)\s*(?:\s+in\s+([^,]*?))?\s*(?:,\s*(.*?))?\s*$/
 const NAME = /^[A-Za-z][A-Za-z0-9_]{0,31}$/
@@ -94,10 +97,19 @@ export function parsePlaceholderBody(body: string): InnerParse {
   if (!m || m[1] === undefined) {
     const first = /^\s*([A-Za-z][A-Za-z0-9_]*)/.exec(body)?.[1] ?? ''
     const n = first || 'name'
-    return { ok: false, name: first, message: `cannot read [${body.trim()}]: write [${n}], [${n} in unit], [${n}, 3 sf] or [${n}, 2 dp], or \\[ for a bracket that is only a bracket` }
+    return {
+      ok: false,
+      name: first,
+      message: `cannot read [${body.trim()}]: write [${n}], [${n} in unit], [${n}, 3 sf] or [${n}, 2 dp], or \\[ for a bracket that is only a bracket`,
+    }
   }
   const name = m[1]
-  if (!NAME.test(name)) return { ok: false, name: /^[A-Za-z][A-Za-z0-9_]*/.exec(name)?.[0] ?? '', message: `cannot read [${body.trim()}]: "${name}" is not a given name (a letter, then letters, digits or _); write \\[ for a bracket that is only a bracket` }
+  if (!NAME.test(name))
+    return {
+      ok: false,
+      name: /^[A-Za-z][A-Za-z0-9_]*/.exec(name)?.[0] ?? '',
+      message: `cannot read [${body.trim()}]: "${name}" is not a given name (a letter, then letters, digits or _); write \\[ for a bracket that is only a bracket`,
+    }
   const options: { unit?: string; sigFigs?: number; decimals?: number } = {}
   if (m[2] !== undefined) {
     const unit = m[2].trim()
@@ -107,10 +119,16 @@ export function parsePlaceholderBody(body: string): InnerParse {
   if (m[3] !== undefined) {
     const opt = m[3].trim()
     const o = OPTION.exec(opt)
-    if (!o || o[1] === undefined) return { ok: false, name, message: `unknown option "${opt}" in [${body.trim()}]: write ", 3 sf" for significant figures or ", 2 dp" for decimal places` }
+    if (!o || o[1] === undefined)
+      return {
+        ok: false,
+        name,
+        message: `unknown option "${opt}" in [${body.trim()}]: write ", 3 sf" for significant figures or ", 2 dp" for decimal places`,
+      }
     const n = Number(o[1])
     if (o[2] === 'sf') {
-      if (n < 1 || n > MAX_SIG_FIGS) return { ok: false, name, message: `significant figures must be 1 to ${MAX_SIG_FIGS}, not ${n}` }
+      if (n < 1 || n > MAX_SIG_FIGS)
+        return { ok: false, name, message: `significant figures must be 1 to ${MAX_SIG_FIGS}, not ${n}` }
       options.sigFigs = n
     } else {
       if (n > MAX_DECIMALS) return { ok: false, name, message: `decimal places must be 0 to ${MAX_DECIMALS}, not ${n}` }
@@ -123,11 +141,23 @@ export function parsePlaceholderBody(body: string): InnerParse {
 export type PlaceholderPiece =
   | { readonly kind: 'text'; readonly text: string; readonly offset: number }
   | { readonly kind: 'placeholder'; readonly placeholder: Placeholder }
-  | { readonly kind: 'error'; readonly offset: number; readonly end: number; readonly name: string; readonly message: string }
+  | {
+      readonly kind: 'error'
+      readonly offset: number
+      readonly end: number
+      readonly name: string
+      readonly message: string
+    }
 
 export type PlaceholderAt =
   | { readonly kind: 'placeholder'; readonly placeholder: Placeholder }
-  | { readonly kind: 'error'; readonly offset: number; readonly end: number; readonly name: string; readonly message: string }
+  | {
+      readonly kind: 'error'
+      readonly offset: number
+      readonly end: number
+      readonly name: string
+      readonly message: string
+    }
 
 /** The "[" at `i` follows a backslash, or a TeX command such as \sqrt or \left. */
 function afterBackslash(text: string, i: number): boolean {
@@ -145,12 +175,14 @@ export function readPlaceholderAt(text: string, i: number, limit = text.length, 
   if (text[i] !== '[' || !LETTER.test(text[i + 1] ?? '') || afterBackslash(text, i)) return null
   const close = text.indexOf(']', i + 1)
   const newline = text.indexOf('\n', i + 1)
-  if (close < 0 || close >= limit || (newline >= 0 && newline < close) || close - i > MAX_PLACEHOLDER_LENGTH) return null
+  if (close < 0 || close >= limit || (newline >= 0 && newline < close) || close - i > MAX_PLACEHOLDER_LENGTH)
+    return null
   const body = text.slice(i + 1, close)
   if (body.includes('[')) return null
   if (!math && text[close + 1] === '(') return null
   const inner = parsePlaceholderBody(body)
-  if (inner.ok) return { kind: 'placeholder', placeholder: { start: i, end: close + 1, name: inner.name, ...inner.options } }
+  if (inner.ok)
+    return { kind: 'placeholder', placeholder: { start: i, end: close + 1, name: inner.name, ...inner.options } }
   return { kind: 'error', offset: i, end: close + 1, name: inner.name, message: inner.message }
 }
 
@@ -243,10 +275,26 @@ function partsOf(x: number, rule: { sigFigs?: number; decimals?: number }): Numb
   }
   // toFixed avoids String()'s own exponent form for, say, 1.5e-7 (excluded above) or 1e21.
   const s = String(c)
-  return { negative: negative && c !== 0, mantissa: s.includes('e') ? c.toFixed(12).replace(/\.?0+$/, '') : s, exponent: null }
+  return {
+    negative: negative && c !== 0,
+    mantissa: s.includes('e') ? c.toFixed(12).replace(/\.?0+$/, '') : s,
+    exponent: null,
+  }
 }
 
-const SUPERSCRIPT: Readonly<Record<string, string>> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' }
+const SUPERSCRIPT: Readonly<Record<string, string>> = {
+  '-': '⁻',
+  '0': '⁰',
+  '1': '¹',
+  '2': '²',
+  '3': '³',
+  '4': '⁴',
+  '5': '⁵',
+  '6': '⁶',
+  '7': '⁷',
+  '8': '⁸',
+  '9': '⁹',
+}
 
 /** A number as plain text ("−26.85", "1.23 × 10⁻⁵") or TeX ("-26.85", "1.23\times10^{-5}"). */
 export function formatNumber(x: number, rule: { sigFigs?: number; decimals?: number }, tex: boolean): string {
@@ -291,7 +339,13 @@ export function texEscape(text: string): string {
   return text.replace(/[\\{}$&#%_^~]/g, (c) => TEX_SPECIAL[c] ?? c)
 }
 
-const DEGREE_TEX: Readonly<Record<string, string>> = { degC: '{}^{\\circ}\\mathrm{C}', degF: '{}^{\\circ}\\mathrm{F}', degR: '{}^{\\circ}\\mathrm{R}', celsius: '{}^{\\circ}\\mathrm{C}', fahrenheit: '{}^{\\circ}\\mathrm{F}' }
+const DEGREE_TEX: Readonly<Record<string, string>> = {
+  degC: '{}^{\\circ}\\mathrm{C}',
+  degF: '{}^{\\circ}\\mathrm{F}',
+  degR: '{}^{\\circ}\\mathrm{R}',
+  celsius: '{}^{\\circ}\\mathrm{C}',
+  fahrenheit: '{}^{\\circ}\\mathrm{F}',
+}
 
 /**
  * A unit as TeX: kJ/(kg·K) → \mathrm{kJ}/(\mathrm{kg}{\cdot}\mathrm{K}), m^3 → \mathrm{m}^{3},
@@ -307,7 +361,9 @@ export function unitToTex(unit: string): string {
     const word = /^[A-Za-zµμΩ]+/.exec(rest)
     if (word) {
       if (lastWasUnit) out += '{\\cdot}'
-      out += DEGREE_TEX[word[0]] ?? `\\mathrm{${word[0].replace('µ', '\\mu ').replace('μ', '\\mu ').replace('Ω', '\\Omega ')}}`
+      out +=
+        DEGREE_TEX[word[0]] ??
+        `\\mathrm{${word[0].replace('µ', '\\mu ').replace('μ', '\\mu ').replace('Ω', '\\Omega ')}}`
       i += word[0].length
       lastWasUnit = true
       continue
@@ -356,13 +412,20 @@ export function convertValue(value: number, from: string, to: string, name = 'th
   if (b === null) return { ok: false, message: `"${to}" is not a unit we know` }
   if (a === null) return { ok: false, message: `${name} has the unit "${from}", which we cannot convert` }
   if (a.kind === 'dimensionless' || b.kind === 'dimensionless') {
-    if (a.kind === 'dimensionless' && b.kind === 'dimensionless') return { ok: true, value: (value * a.scale) / b.scale }
-    return { ok: false, message: `cannot show ${name} (${from === '' ? 'a pure number' : from}) in ${to === '' ? 'a pure number' : to}: different dimensions` }
+    if (a.kind === 'dimensionless' && b.kind === 'dimensionless')
+      return { ok: true, value: (value * a.scale) / b.scale }
+    return {
+      ok: false,
+      message: `cannot show ${name} (${from === '' ? 'a pure number' : from}) in ${to === '' ? 'a pure number' : to}: different dimensions`,
+    }
   }
-  if (!a.unit.equalBase(b.unit)) return { ok: false, message: `cannot show ${name} (${from}) in ${to}: different dimensions` }
+  if (!a.unit.equalBase(b.unit))
+    return { ok: false, message: `cannot show ${name} (${from}) in ${to}: different dimensions` }
   try {
     const v = math.unit(value, a.unit.formatUnits()).toNumber(b.unit.formatUnits())
-    return Number.isFinite(v) ? { ok: true, value: v } : { ok: false, message: `${name} in ${to} is not a finite number` }
+    return Number.isFinite(v)
+      ? { ok: true, value: v }
+      : { ok: false, message: `${name} in ${to} is not a finite number` }
   } catch {
     return { ok: false, message: `cannot convert ${name} from ${from} to ${to}` }
   }
@@ -375,12 +438,26 @@ export function convertValue(value: number, from: string, to: string, name = 'th
  * else (in its own unit only) by the given's display rule, else as drawn without float noise.
  * A display rule in one unit does not carry over to another (2 dp in K is not 2 dp in °C).
  */
-export function formatGivenValue(given: DrawnGiven, display: DisplayRule | undefined, options: PlaceholderOptions & { readonly tex: boolean }): FormatResult {
-  if (options.sigFigs !== undefined && options.decimals !== undefined) return { ok: false, message: 'give significant figures or decimal places, not both' }
-  if (options.sigFigs !== undefined && !(Number.isInteger(options.sigFigs) && options.sigFigs >= 1 && options.sigFigs <= MAX_SIG_FIGS)) return { ok: false, message: `significant figures must be a whole number from 1 to ${MAX_SIG_FIGS}` }
-  if (options.decimals !== undefined && !(Number.isInteger(options.decimals) && options.decimals >= 0 && options.decimals <= MAX_DECIMALS)) return { ok: false, message: `decimal places must be a whole number from 0 to ${MAX_DECIMALS}` }
+export function formatGivenValue(
+  given: DrawnGiven,
+  display: DisplayRule | undefined,
+  options: PlaceholderOptions & { readonly tex: boolean },
+): FormatResult {
+  if (options.sigFigs !== undefined && options.decimals !== undefined)
+    return { ok: false, message: 'give significant figures or decimal places, not both' }
+  if (
+    options.sigFigs !== undefined &&
+    !(Number.isInteger(options.sigFigs) && options.sigFigs >= 1 && options.sigFigs <= MAX_SIG_FIGS)
+  )
+    return { ok: false, message: `significant figures must be a whole number from 1 to ${MAX_SIG_FIGS}` }
+  if (
+    options.decimals !== undefined &&
+    !(Number.isInteger(options.decimals) && options.decimals >= 0 && options.decimals <= MAX_DECIMALS)
+  )
+    return { ok: false, message: `decimal places must be a whole number from 0 to ${MAX_DECIMALS}` }
   if (Number.isNaN(given.value)) {
-    if (options.unit !== undefined || options.sigFigs !== undefined || options.decimals !== undefined) return { ok: false, message: `${given.name} is a text choice: it takes no unit, sf or dp` }
+    if (options.unit !== undefined || options.sigFigs !== undefined || options.decimals !== undefined)
+      return { ok: false, message: `${given.name} is a text choice: it takes no unit, sf or dp` }
     return { ok: true, text: options.tex ? `\\text{${texEscape(given.text)}}` : given.text }
   }
   let value = given.value
@@ -392,8 +469,20 @@ export function formatGivenValue(given: DrawnGiven, display: DisplayRule | undef
     value = c.value
     unit = options.unit
   } else if (display) {
-    if (display.decimals !== undefined && Number.isInteger(display.decimals) && display.decimals >= 0 && display.decimals <= MAX_DECIMALS) rule = { decimals: display.decimals }
-    else if (display.sigFigs !== undefined && Number.isInteger(display.sigFigs) && display.sigFigs >= 1 && display.sigFigs <= MAX_SIG_FIGS) rule = { sigFigs: display.sigFigs }
+    if (
+      display.decimals !== undefined &&
+      Number.isInteger(display.decimals) &&
+      display.decimals >= 0 &&
+      display.decimals <= MAX_DECIMALS
+    )
+      rule = { decimals: display.decimals }
+    else if (
+      display.sigFigs !== undefined &&
+      Number.isInteger(display.sigFigs) &&
+      display.sigFigs >= 1 &&
+      display.sigFigs <= MAX_SIG_FIGS
+    )
+      rule = { sigFigs: display.sigFigs }
   }
   if (options.sigFigs !== undefined) rule = { sigFigs: options.sigFigs }
   if (options.decimals !== undefined) rule = { decimals: options.decimals }
@@ -410,7 +499,12 @@ export function resolvePlaceholder(
   const g = givens.get(p.name)
   if (!g) return { ok: false, message: `unknown given ${p.name}` }
   const display = displays && Object.hasOwn(displays, p.name) ? displays[p.name] : undefined
-  return formatGivenValue(g, display, { tex, ...(p.unit !== undefined ? { unit: p.unit } : {}), ...(p.sigFigs !== undefined ? { sigFigs: p.sigFigs } : {}), ...(p.decimals !== undefined ? { decimals: p.decimals } : {}) })
+  return formatGivenValue(g, display, {
+    tex,
+    ...(p.unit !== undefined ? { unit: p.unit } : {}),
+    ...(p.sigFigs !== undefined ? { sigFigs: p.sigFigs } : {}),
+    ...(p.decimals !== undefined ? { decimals: p.decimals } : {}),
+  })
 }
 
 /** What a placeholder that cannot be shown becomes in plain text or TeX. */

@@ -17,7 +17,10 @@ describe('renderPrompt', () => {
   })
 
   test('display math, as a block and inline', () => {
-    const out = renderPrompt('Efficiency:\n\n$$\n\\eta = 1 - r^{1-\\gamma}\n$$\n\nand $$W = Q_{in} - Q_{out}$$ too.', [])
+    const out = renderPrompt(
+      'Efficiency:\n\n$$\n\\eta = 1 - r^{1-\\gamma}\n$$\n\nand $$W = Q_{in} - Q_{out}$$ too.',
+      [],
+    )
     expect(out.errors).toEqual([])
     expect(out.html).toContain('<div class="math-display">')
     expect(out.html.match(/class="katex-display"/g)).toHaveLength(2)
@@ -61,7 +64,11 @@ describe('renderPrompt', () => {
 
   test('each unclosed $ is reported once, an unclosed $$ once as display math', () => {
     const out = renderPrompt('Energy $$E = mc^2 and $a, then $b.', [])
-    expect(out.errors).toEqual([{ message: UNCLOSED_DISPLAY }, { message: UNCLOSED_INLINE }, { message: UNCLOSED_INLINE }])
+    expect(out.errors).toEqual([
+      { message: UNCLOSED_DISPLAY },
+      { message: UNCLOSED_INLINE },
+      { message: UNCLOSED_INLINE },
+    ])
     expect(out.html).toContain('Energy $$E = mc^2 and $a, then $b.')
     const block = renderPrompt('$$\n\\eta = 1\n\nNo closing line.', [])
     expect(block.errors).toEqual([{ message: UNCLOSED_DISPLAY }])
@@ -87,25 +94,35 @@ describe('renderPrompt', () => {
 
   test('a link stays a link, and a placeholder in its text still works', () => {
     const out = renderPrompt('See [the tables at [T1]](https://example.org/t) and [T1].', [T1])
-    expect(out.html).toContain('<a href="https://example.org/t" rel="nofollow noopener noreferrer">the tables at 300\u00A0K</a> and 300\u00A0K.')
+    expect(out.html).toContain(
+      '<a href="https://example.org/t" rel="nofollow noopener noreferrer">the tables at 300\u00A0K</a> and 300\u00A0K.',
+    )
     expect(out.errors).toEqual([])
   })
 
   test('TeX brackets stay TeX: \\sqrt[n] and \\left[', () => {
     const out = renderPrompt('$\\sqrt[n]{x} + \\left[T1 \\right] = [T1]$', [T1])
     expect(out.errors).toEqual([])
-    expect(out.html).toContain('<annotation encoding="application/x-tex">\\sqrt[n]{x} + \\left[T1 \\right] = 300\\,\\mathrm{K}</annotation>')
+    expect(out.html).toContain(
+      '<annotation encoding="application/x-tex">\\sqrt[n]{x} + \\left[T1 \\right] = 300\\,\\mathrm{K}</annotation>',
+    )
   })
 
   test('raw HTML is escaped, never passed through', () => {
-    const out = renderPrompt('<script>alert(1)</script>\n\nHi <img src=x onerror=alert(1)> <b onmouseover="x()">b</b>', [])
+    const out = renderPrompt(
+      '<script>alert(1)</script>\n\nHi <img src=x onerror=alert(1)> <b onmouseover="x()">b</b>',
+      [],
+    )
     expect(out.html).not.toMatch(/<script|<img|<b /)
     expect(out.html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;')
     expect(out.html).toContain('&lt;img src=x onerror=alert(1)&gt;')
   })
 
   test('only http, https and mailto links; no images', () => {
-    const out = renderPrompt('[a](javascript:alert(1)) [b](https://example.org/x) [c](mailto:staff@example.org) [d](data:text/html,hi) ![e](https://example.org/e.png)', [])
+    const out = renderPrompt(
+      '[a](javascript:alert(1)) [b](https://example.org/x) [c](mailto:staff@example.org) [d](data:text/html,hi) ![e](https://example.org/e.png)',
+      [],
+    )
     expect(out.html).not.toContain('href="javascript')
     expect(out.html).not.toContain('href="data:')
     expect(out.html).toContain('<a href="https://example.org/x" rel="nofollow noopener noreferrer">b</a>')

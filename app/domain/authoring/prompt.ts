@@ -12,7 +12,13 @@ import katex from 'katex'
 import MarkdownIt from 'markdown-it'
 import type { MarkdownIt as MarkdownItInstance, StateBlock, StateInline } from 'markdown-it'
 import type { DrawnGiven } from './definition.ts'
-import { expandPlaceholders, markerText, placeholderText, readPlaceholderAt, resolvePlaceholder } from './placeholders.ts'
+import {
+  expandPlaceholders,
+  markerText,
+  placeholderText,
+  readPlaceholderAt,
+  resolvePlaceholder,
+} from './placeholders.ts'
 import type { DisplayRule } from './placeholders.ts'
 
 export interface RenderResult {
@@ -32,7 +38,10 @@ interface RenderEnv {
 }
 
 export function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] ?? c)
+  return text.replace(
+    /[&<>"']/g,
+    (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] ?? c,
+  )
 }
 
 /**
@@ -41,11 +50,22 @@ export function escapeHtml(text: string): string {
  */
 export function renderMath(tex: string, displayMode: boolean): { html: string; error?: string } {
   if (tex.length > MAX_TEX_LENGTH) {
-    return { html: `<span class="math-error">${escapeHtml(markerText('formula too long', false))}</span>`, error: `a formula is longer than ${MAX_TEX_LENGTH} characters` }
+    return {
+      html: `<span class="math-error">${escapeHtml(markerText('formula too long', false))}</span>`,
+      error: `a formula is longer than ${MAX_TEX_LENGTH} characters`,
+    }
   }
   // trust: false keeps \href, \url, \htmlClass and friends out; maxSize/maxExpand bound the
   // work and size a formula can cause. strict 'ignore' keeps KaTeX from writing to the console.
-  const options = { output: 'htmlAndMathml', displayMode, throwOnError: true, strict: 'ignore', trust: false, maxSize: 20, maxExpand: 1000 } as const
+  const options = {
+    output: 'htmlAndMathml',
+    displayMode,
+    throwOnError: true,
+    strict: 'ignore',
+    trust: false,
+    maxSize: 20,
+    maxExpand: 1000,
+  } as const
   try {
     return { html: katex.renderToString(tex, options) }
   } catch (e) {
@@ -85,7 +105,8 @@ function findClosing(src: string, from: number, max: number, display: boolean): 
 }
 
 export const UNCLOSED_INLINE = 'A $ starts math that is never closed; write \\$ for a dollar sign.'
-export const UNCLOSED_DISPLAY = 'A $$ starts display math that is never closed; close it with $$, or write \\$ for a dollar sign.'
+export const UNCLOSED_DISPLAY =
+  'A $$ starts display math that is never closed; close it with $$, or write \\$ for a dollar sign.'
 
 function mathInline(state: StateInline, silent: boolean): boolean {
   const src = state.src
@@ -211,7 +232,8 @@ function createRenderer(): MarkdownItInstance {
     const t = tokens[idx]!
     return mathHtml(t.content, Boolean((t.meta as { display?: boolean } | null)?.display), env as unknown as RenderEnv)
   }
-  md.renderer.rules.cw_math_block = (tokens, idx, _options, env) => `<div class="math-display">${mathHtml(tokens[idx]!.content, true, env as unknown as RenderEnv)}</div>\n`
+  md.renderer.rules.cw_math_block = (tokens, idx, _options, env) =>
+    `<div class="math-display">${mathHtml(tokens[idx]!.content, true, env as unknown as RenderEnv)}</div>\n`
   md.renderer.rules.cw_placeholder = (tokens, idx) => {
     const t = tokens[idx]!
     const meta = t.meta as { ok: boolean; message?: string }
@@ -228,15 +250,26 @@ function createRenderer(): MarkdownItInstance {
 const md = createRenderer()
 
 /** A prompt with the givens of one variant, as HTML. */
-export function renderPrompt(markdown: string, givens: readonly DrawnGiven[], displays?: Readonly<Record<string, DisplayRule>>): RenderResult {
+export function renderPrompt(
+  markdown: string,
+  givens: readonly DrawnGiven[],
+  displays?: Readonly<Record<string, DisplayRule>>,
+): RenderResult {
   if (typeof markdown !== 'string') return { html: '', errors: [{ message: 'the prompt must be text' }] }
-  if (markdown.length > MAX_PROMPT_LENGTH) return { html: `<p>${errorSpan('prompt too long')}</p>`, errors: [{ message: `the prompt is longer than ${MAX_PROMPT_LENGTH} characters` }] }
+  if (markdown.length > MAX_PROMPT_LENGTH)
+    return {
+      html: `<p>${errorSpan('prompt too long')}</p>`,
+      errors: [{ message: `the prompt is longer than ${MAX_PROMPT_LENGTH} characters` }],
+    }
   const env: RenderEnv = { givens: new Map(givens.map((g) => [g.name, g])), displays, errors: [] }
   try {
     return { html: md.render(markdown, env as unknown as Record<string, unknown>), errors: env.errors }
   } catch (e) {
     // Not expected; keeps the promise that a prompt never takes a page down.
-    return { html: `<p>${errorSpan('the prompt could not be rendered')}</p>`, errors: [...env.errors, { message: `internal error: ${e instanceof Error ? e.message : String(e)}` }] }
+    return {
+      html: `<p>${errorSpan('the prompt could not be rendered')}</p>`,
+      errors: [...env.errors, { message: `internal error: ${e instanceof Error ? e.message : String(e)}` }],
+    }
   }
 }
 
@@ -284,7 +317,8 @@ function createGuideRenderer(): MarkdownItInstance {
     const t = tokens[idx]!
     return mathHtml(t.content, Boolean((t.meta as { display?: boolean } | null)?.display), env as unknown as RenderEnv)
   }
-  g.renderer.rules.cw_math_block = (tokens, idx, _options, env) => `<div class="math-display">${mathHtml(tokens[idx]!.content, true, env as unknown as RenderEnv)}</div>\n`
+  g.renderer.rules.cw_math_block = (tokens, idx, _options, env) =>
+    `<div class="math-display">${mathHtml(tokens[idx]!.content, true, env as unknown as RenderEnv)}</div>\n`
   g.renderer.rules.heading_open = (tokens, idx, options, env, self) => {
     const e = env as unknown as GuideEnv
     const base = headingSlug(tokens[idx + 1]?.content ?? '') || 'section'
@@ -303,7 +337,8 @@ function createGuideRenderer(): MarkdownItInstance {
     if (/^https?:/i.test(href)) t.attrSet('rel', 'nofollow noopener noreferrer')
     return self.renderToken(tokens, idx, options)
   }
-  g.renderer.rules.link_close = (tokens, idx, options, env, self) => ((env as unknown as GuideEnv).dropped.pop() ? '' : self.renderToken(tokens, idx, options))
+  g.renderer.rules.link_close = (tokens, idx, options, env, self) =>
+    (env as unknown as GuideEnv).dropped.pop() ? '' : self.renderToken(tokens, idx, options)
   return g
 }
 
@@ -319,6 +354,9 @@ export function renderGuide(markdown: string, links: Readonly<Record<string, str
   try {
     return { html: guide.render(markdown, env as unknown as Record<string, unknown>), errors: env.errors }
   } catch (e) {
-    return { html: `<p>${errorSpan('the page could not be shown')}</p>`, errors: [{ message: `internal error: ${e instanceof Error ? e.message : String(e)}` }] }
+    return {
+      html: `<p>${errorSpan('the page could not be shown')}</p>`,
+      errors: [{ message: `internal error: ${e instanceof Error ? e.message : String(e)}` }],
+    }
   }
 }

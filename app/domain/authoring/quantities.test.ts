@@ -28,17 +28,33 @@ describe('symbolTex: a given or find name as students see it', () => {
 
 describe('quantityAtPath: a solver output by its grammar, never the path itself', () => {
   test('totals follow the convention', () => {
-    expect(quantityAtPath('totals.netWork', { convention: 'engineering' })).toEqual({ tex: 'W_{\\text{net}}', name: 'net work done by the gas per unit amount' })
+    expect(quantityAtPath('totals.netWork', { convention: 'engineering' })).toEqual({
+      tex: 'W_{\\text{net}}',
+      name: 'net work done by the gas per unit amount',
+    })
     expect(quantityAtPath('totals.netWork', { convention: 'chemistry' })?.tex).toBe('w_{\\text{net}}')
-    expect(quantityAtPath('totals.heatIn', { convention: 'chemistry' })).toEqual({ tex: 'q_{\\text{in}}', name: 'heat added per unit amount' })
+    expect(quantityAtPath('totals.heatIn', { convention: 'chemistry' })).toEqual({
+      tex: 'q_{\\text{in}}',
+      name: 'heat added per unit amount',
+    })
     expect(quantityAtPath('totals.efficiency', { convention: 'chemistry' })?.tex).toBe('\\eta')
-    expect(quantityAtPath('totals.total.netWork', { convention: 'engineering' })?.name).toBe('net work done by the gas for the whole amount')
-    expect(quantityAtPath('totals.netWork', { convention: 'engineering', steam: true })?.name).toBe('net work delivered per kg through the boiler')
+    expect(quantityAtPath('totals.total.netWork', { convention: 'engineering' })?.name).toBe(
+      'net work done by the gas for the whole amount',
+    )
+    expect(quantityAtPath('totals.netWork', { convention: 'engineering', steam: true })?.name).toBe(
+      'net work delivered per kg through the boiler',
+    )
   })
   test('states and steps take the state names as subscripts', () => {
-    expect(quantityAtPath('states.3.T', { convention: 'engineering' })).toEqual({ tex: 'T_{3}', name: 'temperature at state 3' })
+    expect(quantityAtPath('states.3.T', { convention: 'engineering' })).toEqual({
+      tex: 'T_{3}',
+      name: 'temperature at state 3',
+    })
     const names = ['A', 'B', 'C']
-    expect(quantityAtPath('steps.2.q', { convention: 'engineering', stateNames: names })).toEqual({ tex: 'Q_{BC}', name: 'heat of step B → C, per unit amount' })
+    expect(quantityAtPath('steps.2.q', { convention: 'engineering', stateNames: names })).toEqual({
+      tex: 'Q_{BC}',
+      name: 'heat of step B → C, per unit amount',
+    })
     expect(quantityAtPath('steps.3.total.w', { convention: 'chemistry', stateNames: names })?.tex).toBe('w_{CA}')
   })
   test('an unknown path is null, so the caller falls back to the find’s own name', () => {
@@ -49,6 +65,10 @@ describe('quantityAtPath: a solver output by its grammar, never the path itself'
 })
 
 test('splitIdentifiers typesets T_H in a label and leaves words alone', () => {
-  expect(splitIdentifiers('Heat taken in at T_H, per mole')).toEqual([{ text: 'Heat taken in at ' }, { tex: 'T_{H}' }, { text: ', per mole' }])
+  expect(splitIdentifiers('Heat taken in at T_H, per mole')).toEqual([
+    { text: 'Heat taken in at ' },
+    { tex: 'T_{H}' },
+    { text: ', per mole' },
+  ])
   expect(splitIdentifiers('compression ratio V1/V2')).toEqual([{ text: 'compression ratio V1/V2' }])
 })

@@ -66,7 +66,10 @@ export function symbolTex(name: string): string {
   if (GREEK[name]) return GREEK[name]!
   const underscore = /^([^_]+)_(.+)$/.exec(name)
   if (underscore) return `${symbolTex(underscore[1]!)}_{${underscore[2]!.split('_').map(subscriptTex).join(',')}}`
-  const greek = /^(alpha|beta|gamma|delta|Delta|epsilon|eps|eta|theta|kappa|lambda|mu|nu|pi|rho|sigma|tau|phi|omega)([A-Z0-9].*)$/.exec(name)
+  const greek =
+    /^(alpha|beta|gamma|delta|Delta|epsilon|eps|eta|theta|kappa|lambda|mu|nu|pi|rho|sigma|tau|phi|omega)([A-Z0-9].*)$/.exec(
+      name,
+    )
   if (greek) return `${GREEK[greek[1]!]}_{${subscriptTex(greek[2]!)}}`
   if (/^[A-Za-z]$/.test(name)) return name
   const head = /^([A-Za-z])([A-Z0-9][A-Za-z0-9]*|[a-z]|in|out|net)$/.exec(name)
@@ -88,7 +91,13 @@ function totalsQuantity(field: string, convention: Convention): Quantity | null 
   const { Q, W } = heatWork(convention)
   switch (field) {
     case 'netWork':
-      return { tex: sub(W, txt('net')), name: convention === 'chemistry' ? 'net work done on the gas per unit amount' : 'net work done by the gas per unit amount' }
+      return {
+        tex: sub(W, txt('net')),
+        name:
+          convention === 'chemistry'
+            ? 'net work done on the gas per unit amount'
+            : 'net work done by the gas per unit amount',
+      }
     case 'netWorkSigned':
       return { tex: sub(W, txt('net')), name: 'net work per unit amount, in the course convention' }
     case 'heatIn':
@@ -166,8 +175,12 @@ export function quantityAtPath(path: string, ctx: PathContext): Quantity | null 
   const parts = path.split('.')
   if (parts[0] === 'totals') {
     const whole = parts[1] === 'total'
-    const field = whole ? parts[2] ?? '' : parts[1] ?? ''
-    if (ctx.steam && field === 'netWork' && !whole) return { tex: sub(heatWork(ctx.convention).W, txt('net,out')), name: 'net work delivered per kg through the boiler' }
+    const field = whole ? (parts[2] ?? '') : (parts[1] ?? '')
+    if (ctx.steam && field === 'netWork' && !whole)
+      return {
+        tex: sub(heatWork(ctx.convention).W, txt('net,out')),
+        name: 'net work delivered per kg through the boiler',
+      }
     const q = totalsQuantity(field, ctx.convention)
     if (!q || parts.length !== (whole ? 3 : 2)) return null
     return whole ? { tex: q.tex, name: q.name.replace(/ per unit amount/, ' for the whole amount') } : q
@@ -190,7 +203,10 @@ export function quantityAtPath(path: string, ctx: PathContext): Quantity | null 
     const whole = parts.length === 4
     const fromName = ctx.stateNames?.[k - 1] ?? String(k)
     const toName = ctx.stateNames?.[n > 0 && k === n ? 0 : k] ?? String(k + 1)
-    return { tex: sub(prop.tex, `${from}${to}`), name: `${prop.name} of step ${fromName} → ${toName}${whole ? ', whole amount' : ', per unit amount'}` }
+    return {
+      tex: sub(prop.tex, `${from}${to}`),
+      name: `${prop.name} of step ${fromName} → ${toName}${whole ? ', whole amount' : ', per unit amount'}`,
+    }
   }
   return null
 }

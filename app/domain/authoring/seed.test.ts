@@ -21,8 +21,14 @@ test.each([
 })
 
 test.each([
-  [['ab', 'c'], ['a', 'bc']],
-  [['assignment', 1, 'student', 2], ['assignment', 2, 'student', 1]],
+  [
+    ['ab', 'c'],
+    ['a', 'bc'],
+  ],
+  [
+    ['assignment', 1, 'student', 2],
+    ['assignment', 2, 'student', 1],
+  ],
   [['x'], ['x', '']],
 ] as const)('%j and %j give different seeds', (a, b) => {
   expect(seedFrom(...a)).not.toBe(seedFrom(...b))

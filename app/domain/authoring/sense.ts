@@ -35,7 +35,8 @@ export function oppositeSense(sense: FindSense): FindSense {
 }
 
 /** What a solver output path holds: work in the convention's sign, or a fixed sense, or neither. */
-export type OutputSense = { readonly kind: 'convention-work' } | { readonly kind: 'fixed'; readonly sense: FindSense } | null
+export type OutputSense =
+  { readonly kind: 'convention-work' } | { readonly kind: 'fixed'; readonly sense: FindSense } | null
 
 function isRankine(templateId: string | null): boolean {
   return templateId !== null && templateId.startsWith('rankine')
@@ -56,7 +57,8 @@ export function outputSense(path: string, templateId: string | null): OutputSens
     return null
   }
   if (/^steps\.[^.]+\.(total\.)?w$/.test(p) || /^totals\.(total\.)?netWork$/.test(p)) return { kind: 'convention-work' }
-  if (/^steps\.[^.]+\.(total\.)?q$/.test(p) || /^totals\.(total\.)?heatIn$/.test(p)) return { kind: 'fixed', sense: 'heat-into-system' }
+  if (/^steps\.[^.]+\.(total\.)?q$/.test(p) || /^totals\.(total\.)?heatIn$/.test(p))
+    return { kind: 'fixed', sense: 'heat-into-system' }
   if (/^totals\.(total\.)?heatOut$/.test(p)) return { kind: 'fixed', sense: 'heat-out-of-system' }
   return null
 }
@@ -77,7 +79,12 @@ export function solverSenseIn(o: NonNullable<OutputSense>, convention: Conventio
  * sense, an expression find, a path that holds no work or heat, or a sense of the other kind:
  * the lint reports those last two).
  */
-export function senseFactor(sense: FindSense | undefined, path: string | null, templateId: string | null, convention: Convention): 1 | -1 {
+export function senseFactor(
+  sense: FindSense | undefined,
+  path: string | null,
+  templateId: string | null,
+  convention: Convention,
+): 1 | -1 {
   if (sense === undefined || path === null) return 1
   const o = outputSense(path, templateId)
   if (o === null || outputSenseKind(o) !== senseKind(sense)) return 1
@@ -89,15 +96,36 @@ export function senseFactor(sense: FindSense | undefined, path: string | null, t
 const SYSTEM = String.raw`(?:gas|air|system|working fluid|fluid|steam|water|refrigerant|mixture|engine|cycle)`
 
 const WORDS: Readonly<Record<FindSense, readonly RegExp[]>> = {
-  'work-by-system': [new RegExp(String.raw`\bby (?:the )?${SYSTEM}\b`, 'i'), /\bwork (?:output|produced|delivered|developed)\b/i, /\b(?:produced|delivered|developed) by\b/i],
-  'work-on-system': [new RegExp(String.raw`\b(?:done )?on (?:the )?${SYSTEM}\b`, 'i'), /\bdone on\b/i, /\bwork (?:input|required|consumed|supplied|added)\b/i, /\b(?:required|consumed) by\b/i],
-  'heat-into-system': [/\b(?:added|supplied|absorbed|received)\b/i, new RegExp(String.raw`\b(?:into|to) (?:the )?${SYSTEM}\b`, 'i'), /\bheat input\b/i],
-  'heat-out-of-system': [/\b(?:rejected|removed|released|lost|given off|extracted)\b/i, new RegExp(String.raw`\b(?:out of|from) (?:the )?${SYSTEM}\b`, 'i'), /\bheat output\b/i],
+  'work-by-system': [
+    new RegExp(String.raw`\bby (?:the )?${SYSTEM}\b`, 'i'),
+    /\bwork (?:output|produced|delivered|developed)\b/i,
+    /\b(?:produced|delivered|developed) by\b/i,
+  ],
+  'work-on-system': [
+    new RegExp(String.raw`\b(?:done )?on (?:the )?${SYSTEM}\b`, 'i'),
+    /\bdone on\b/i,
+    /\bwork (?:input|required|consumed|supplied|added)\b/i,
+    /\b(?:required|consumed) by\b/i,
+  ],
+  'heat-into-system': [
+    /\b(?:added|supplied|absorbed|received)\b/i,
+    new RegExp(String.raw`\b(?:into|to) (?:the )?${SYSTEM}\b`, 'i'),
+    /\bheat input\b/i,
+  ],
+  'heat-out-of-system': [
+    /\b(?:rejected|removed|released|lost|given off|extracted)\b/i,
+    new RegExp(String.raw`\b(?:out of|from) (?:the )?${SYSTEM}\b`, 'i'),
+    /\bheat output\b/i,
+  ],
 }
 
 /** The phrase of `text` that states a sense of `kind`, or null when it states none or both ways. */
-export function senseInWords(text: string, kind: SenseKind): { readonly sense: FindSense; readonly phrase: string } | null {
-  const candidates: FindSense[] = kind === 'work' ? ['work-by-system', 'work-on-system'] : ['heat-into-system', 'heat-out-of-system']
+export function senseInWords(
+  text: string,
+  kind: SenseKind,
+): { readonly sense: FindSense; readonly phrase: string } | null {
+  const candidates: FindSense[] =
+    kind === 'work' ? ['work-by-system', 'work-on-system'] : ['heat-into-system', 'heat-out-of-system']
   const hits: { sense: FindSense; phrase: string }[] = []
   for (const sense of candidates) {
     for (const re of WORDS[sense]) {
@@ -131,7 +159,10 @@ function conventionsOf(c: ProblemConvention): readonly Convention[] {
   return c === 'course' ? ['engineering', 'chemistry'] : [c]
 }
 
-const CONVENTION_WORDS: Readonly<Record<Convention, string>> = { chemistry: 'a chemistry-convention course', engineering: 'an engineering-convention course' }
+const CONVENTION_WORDS: Readonly<Record<Convention, string>> = {
+  chemistry: 'a chemistry-convention course',
+  engineering: 'an engineering-convention course',
+}
 
 /**
  * A stated sense on a path it cannot apply to: these would silently leave the key unchanged,
@@ -145,9 +176,15 @@ export function senseErrors(def: ProblemDefinition): SenseFinding[] {
     const o = outputSense(f.source.path, templateId)
     const kind = outputSenseKind(o)
     if (kind === null) {
-      out.push({ path: `finds.${i}.sense`, message: `A sense is for work and heat only, and "${f.source.path}" is neither: choose "No sense stated".` })
+      out.push({
+        path: `finds.${i}.sense`,
+        message: `A sense is for work and heat only, and "${f.source.path}" is neither: choose "No sense stated".`,
+      })
     } else if (kind !== senseKind(f.sense)) {
-      out.push({ path: `finds.${i}.sense`, message: `"${f.source.path}" is ${kind === 'work' ? 'a work' : 'a heat'} output, but the sense says ${FIND_SENSE_WORDS[f.sense]}: choose a ${kind} sense or none.` })
+      out.push({
+        path: `finds.${i}.sense`,
+        message: `"${f.source.path}" is ${kind === 'work' ? 'a work' : 'a heat'} output, but the sense says ${FIND_SENSE_WORDS[f.sense]}: choose a ${kind} sense or none.`,
+      })
     }
   })
   return out
@@ -157,7 +194,10 @@ export function senseErrors(def: ProblemDefinition): SenseFinding[] {
  * Warnings that do not stop a save: a question whose words and key disagree in some
  * convention, and a work or heat find with no sense in a problem shared across courses.
  */
-export function senseWarnings(def: ProblemDefinition, options: { readonly visibility?: ProblemVisibility } = {}): SenseFinding[] {
+export function senseWarnings(
+  def: ProblemDefinition,
+  options: { readonly visibility?: ProblemVisibility } = {},
+): SenseFinding[] {
   const out: SenseFinding[] = []
   const templateId = def.physics.kind === 'template' ? def.physics.template : null
   const shared = options.visibility === 'department' || options.visibility === 'installation'
@@ -171,13 +211,18 @@ export function senseWarnings(def: ProblemDefinition, options: { readonly visibi
     if (words !== null) {
       if (f.sense !== undefined) {
         if (f.sense !== words.sense) {
-          out.push({ path: `finds.${i}.sense`, message: `The question says "${words.phrase}" (${FIND_SENSE_WORDS[words.sense]}), but the find's sense is ${FIND_SENSE_WORDS[f.sense]}, so the key has the opposite sign to the words.` })
+          out.push({
+            path: `finds.${i}.sense`,
+            message: `The question says "${words.phrase}" (${FIND_SENSE_WORDS[words.sense]}), but the find's sense is ${FIND_SENSE_WORDS[f.sense]}, so the key has the opposite sign to the words.`,
+          })
         }
       } else if (o !== null) {
         const wrong = conventionsOf(def.convention).find((c) => solverSenseIn(o, c) !== words.sense)
         if (wrong !== undefined) {
           const where =
-            o.kind === 'fixed' ? `the key ("${f.source.kind === 'output' ? f.source.path : ''}") is the ${FIND_SENSE_WORDS[o.sense]} in every convention` : `${def.convention === 'course' ? `in ${CONVENTION_WORDS[wrong]}` : `in the ${wrong} convention this problem uses`} the key is the ${FIND_SENSE_WORDS[solverSenseIn(o, wrong)]}`
+            o.kind === 'fixed'
+              ? `the key ("${f.source.kind === 'output' ? f.source.path : ''}") is the ${FIND_SENSE_WORDS[o.sense]} in every convention`
+              : `${def.convention === 'course' ? `in ${CONVENTION_WORDS[wrong]}` : `in the ${wrong} convention this problem uses`} the key is the ${FIND_SENSE_WORDS[solverSenseIn(o, wrong)]}`
           out.push({
             path: `finds.${i}.sense`,
             message: `The question says "${words.phrase}" (${FIND_SENSE_WORDS[words.sense]}), but ${where}, with the opposite sign. State the sense "${FIND_SENSE_WORDS[words.sense]}" so the key keeps the sign the words promise.`,

@@ -23,19 +23,43 @@ const withPhysics = (physics: Physics): ProblemDefinition => ({
 
 test('template: exact names become the given text, @{name} is replaced inside text, unknown names stay, the convention is stated', () => {
   const spec = buildSpec(
-    withPhysics({ kind: 'template', template: 'otto', inputs: { gas: 'gas', T1: 'T1', p1: '@{p1}', compressionRatio: 'r', heatIn: '800 kJ/kg', T3: '@{T1} + @{Tx}', p3: 'Tx' } }),
+    withPhysics({
+      kind: 'template',
+      template: 'otto',
+      inputs: {
+        gas: 'gas',
+        T1: 'T1',
+        p1: '@{p1}',
+        compressionRatio: 'r',
+        heatIn: '800 kJ/kg',
+        T3: '@{T1} + @{Tx}',
+        p3: 'Tx',
+      },
+    }),
     drawn,
     'chemistry',
   )
   expect(spec).toEqual({
     template: 'otto',
-    inputs: { gas: 'monatomic', T1: '350 K', p1: '101.325 kPa', compressionRatio: '8.5', heatIn: '800 kJ/kg', T3: '350 K + @{Tx}', p3: 'Tx' },
+    inputs: {
+      gas: 'monatomic',
+      T1: '350 K',
+      p1: '101.325 kPa',
+      compressionRatio: '8.5',
+      heatIn: '800 kJ/kg',
+      T3: '350 K + @{Tx}',
+      p3: 'Tx',
+    },
     convention: 'chemistry',
   })
 })
 
 test('a name inside a longer text without @{} is not replaced ("T1 max" is literal text)', () => {
-  const spec = buildSpec(withPhysics({ kind: 'template', template: 'otto', inputs: { label: 'T1 max', spaced: '@{ T1 }' } }), drawn, 'engineering')
+  const spec = buildSpec(
+    withPhysics({ kind: 'template', template: 'otto', inputs: { label: 'T1 max', spaced: '@{ T1 }' } }),
+    drawn,
+    'engineering',
+  )
   expect(spec.inputs).toEqual({ label: 'T1 max', spaced: '350 K' })
 })
 
@@ -45,7 +69,10 @@ test('cycle: substitution reaches every string however deep; numbers, booleans, 
     system: 'closed',
     T1: 'key named like a given stays a key',
     states: [{ name: '1', p: 'p1', T: 'T1' }, {}, { T: '@{T1}·4' }, { extra: [['r', 3, null, true]] }],
-    steps: [{ process: 'isentropic', compressionRatio: 'r' }, { process: 'isochoric', heat: '800 kJ/kg' }],
+    steps: [
+      { process: 'isentropic', compressionRatio: 'r' },
+      { process: 'isochoric', heat: '800 kJ/kg' },
+    ],
   }
   const before = structuredClone(cycle)
   const spec = buildSpec(withPhysics({ kind: 'cycle', cycle }), drawn, 'engineering')
@@ -55,7 +82,10 @@ test('cycle: substitution reaches every string however deep; numbers, booleans, 
       system: 'closed',
       T1: 'key named like a given stays a key',
       states: [{ name: '1', p: '101.325 kPa', T: '350 K' }, {}, { T: '350 K·4' }, { extra: [['8.5', 3, null, true]] }],
-      steps: [{ process: 'isentropic', compressionRatio: '8.5' }, { process: 'isochoric', heat: '800 kJ/kg' }],
+      steps: [
+        { process: 'isentropic', compressionRatio: '8.5' },
+        { process: 'isochoric', heat: '800 kJ/kg' },
+      ],
     },
     convention: 'engineering',
   })

@@ -29,7 +29,11 @@ function substituteDeep(x: unknown, byName: ReadonlyMap<string, DrawnGiven>): un
 }
 
 /** The spec file object for one variant: { template, inputs, convention } or { cycle, convention }. */
-export function buildSpec(def: ProblemDefinition, givens: readonly DrawnGiven[], convention: Convention): Record<string, unknown> {
+export function buildSpec(
+  def: ProblemDefinition,
+  givens: readonly DrawnGiven[],
+  convention: Convention,
+): Record<string, unknown> {
   const byName = new Map(givens.map((g) => [g.name, g]))
   const physics = def.physics
   if (physics.kind === 'template') {

@@ -7,9 +7,27 @@ import { checkVariantSanity, sweepVariants } from './sweep.ts'
 import { drawVariant } from './variant.ts'
 
 const rel = { kind: 'relative', value: 0.01 } as const
-const find = (name: string, path: string, unit: string): Find => ({ name, label: name, source: { kind: 'output', path }, unit, points: 1, tolerance: rel, pitfalls: [] })
-const range = (name: string, unit: string, min: number, max: number, step: number): Given => ({ name, label: name, unit, rule: { kind: 'range', min, max, step } })
-const problem = (givens: Given[], physics: Physics, finds: Find[], constraints: ProblemDefinition['constraints'] = []): ProblemDefinition => ({
+const find = (name: string, path: string, unit: string): Find => ({
+  name,
+  label: name,
+  source: { kind: 'output', path },
+  unit,
+  points: 1,
+  tolerance: rel,
+  pitfalls: [],
+})
+const range = (name: string, unit: string, min: number, max: number, step: number): Given => ({
+  name,
+  label: name,
+  unit,
+  rule: { kind: 'range', min, max, step },
+})
+const problem = (
+  givens: Given[],
+  physics: Physics,
+  finds: Find[],
+  constraints: ProblemDefinition['constraints'] = [],
+): ProblemDefinition => ({
   format: 2,
   title: 'Test',
   tags: { topics: [], difficulty: 'standard', level: 'second-year' },
@@ -22,8 +40,17 @@ const problem = (givens: Given[], physics: Physics, finds: Find[], constraints: 
 })
 
 const otto = problem(
-  [range('T1', 'K', 280, 320, 5), range('p1', 'kPa', 90, 110, 5), range('r', '', 6, 12, 0.5), range('qin', 'kJ/kg', 500, 1500, 50)],
-  { kind: 'template', template: 'otto', inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', heatIn: 'qin' } },
+  [
+    range('T1', 'K', 280, 320, 5),
+    range('p1', 'kPa', 90, 110, 5),
+    range('r', '', 6, 12, 0.5),
+    range('qin', 'kJ/kg', 500, 1500, 50),
+  ],
+  {
+    kind: 'template',
+    template: 'otto',
+    inputs: { gas: 'air', p1: 'p1', T1: 'T1', compressionRatio: 'r', heatIn: 'qin' },
+  },
   [find('eta', 'totals.efficiency', '%'), find('wnet', 'totals.netWork', 'kJ/kg'), find('T3', 'states.3.T', 'K')],
 )
 
@@ -32,13 +59,34 @@ const otto = problem(
 // 600–900 K are sometimes below it, and the combustor would have to reject heat.
 const badBrayton = problem(
   [range('rp', '', 4, 30, 1), range('TIT', 'K', 600, 900, 50)],
-  { kind: 'template', template: 'brayton', inputs: { gas: 'air', p1: '100 kPa', T1: '300 K', pressureRatio: 'rp', turbineInletT: 'TIT', compressorEfficiency: '0.8' } },
+  {
+    kind: 'template',
+    template: 'brayton',
+    inputs: {
+      gas: 'air',
+      p1: '100 kPa',
+      T1: '300 K',
+      pressureRatio: 'rp',
+      turbineInletT: 'TIT',
+      compressorEfficiency: '0.8',
+    },
+  },
   [find('eta', 'totals.efficiency', '')],
 )
 
 const rankine = problem(
   [range('pb', 'MPa', 8, 15, 0.5), range('Tin', 'degC', 450, 550, 10), range('pc', 'kPa', 5, 20, 5)],
-  { kind: 'template', template: 'rankine', inputs: { boilerPressure: 'pb', condenserPressure: 'pc', turbineInletTemperature: 'Tin', turbineEfficiency: '0.85', pumpEfficiency: '0.9' } },
+  {
+    kind: 'template',
+    template: 'rankine',
+    inputs: {
+      boilerPressure: 'pb',
+      condenserPressure: 'pc',
+      turbineInletTemperature: 'Tin',
+      turbineEfficiency: '0.85',
+      pumpEfficiency: '0.9',
+    },
+  },
   [find('x4', 'totals.turbineExitQuality', ''), find('eta', 'totals.efficiency', '%')],
 )
 
@@ -59,15 +107,37 @@ test('a sound Rankine problem passes 500 seeds with no failures in a few seconds
   expect(performance.now() - t0).toBeLessThan(5000)
 })
 
-test.each(['carnot-refrigerator', 'carnot-heat-pump', 'carnot-engine'])('a sound %s problem passes 200 seeds (COP or efficiency within the Carnot bound)', (template) => {
-  const def = problem(
-    [range('Tc', 'K', 250, 280, 5), range('dT', 'K', 30, 80, 10)],
-    { kind: 'template', template, inputs: { gas: 'air', Th: '@{Tc} + @{dT}', Tc: 'Tc', p1: '100 kPa', expansionRatio: '1.5' } },
-    [find('net', 'totals.netWork', 'kJ/kg')],
-  )
-  const def2 = { ...def, givens: [...def.givens, { name: 'Th', label: 'Th', unit: 'K', rule: { kind: 'expression' as const, expression: 'Tc + dT' } }], physics: { kind: 'template' as const, template, inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: '100 kPa', expansionRatio: '1.5' } } }
-  expect(sweepVariants(def2, { seeds: previewSeeds(200), convention: 'engineering' })).toEqual({ checked: 200, failed: 0, failures: [] })
-})
+test.each(['carnot-refrigerator', 'carnot-heat-pump', 'carnot-engine'])(
+  'a sound %s problem passes 200 seeds (COP or efficiency within the Carnot bound)',
+  (template) => {
+    const def = problem(
+      [range('Tc', 'K', 250, 280, 5), range('dT', 'K', 30, 80, 10)],
+      {
+        kind: 'template',
+        template,
+        inputs: { gas: 'air', Th: '@{Tc} + @{dT}', Tc: 'Tc', p1: '100 kPa', expansionRatio: '1.5' },
+      },
+      [find('net', 'totals.netWork', 'kJ/kg')],
+    )
+    const def2 = {
+      ...def,
+      givens: [
+        ...def.givens,
+        { name: 'Th', label: 'Th', unit: 'K', rule: { kind: 'expression' as const, expression: 'Tc + dT' } },
+      ],
+      physics: {
+        kind: 'template' as const,
+        template,
+        inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: '100 kPa', expansionRatio: '1.5' },
+      },
+    }
+    expect(sweepVariants(def2, { seeds: previewSeeds(200), convention: 'engineering' })).toEqual({
+      checked: 200,
+      failed: 0,
+      failures: [],
+    })
+  },
+)
 
 test('a Brayton whose turbine inlet is sometimes too cold: exactly the seeds the closed form condemns are flagged, with their givens', () => {
   const seeds = previewSeeds(300)
@@ -81,7 +151,9 @@ test('a Brayton whose turbine inlet is sometimes too cold: exactly the seeds the
   for (const seed of seeds) {
     const r = drawVariant(badBrayton, seed, { convention: 'engineering' })
     const rp = r.ok ? r.variant.givens[0]!.value : Number(bySeed.get(seed)!.givens![0]!.split(' = ')[1])
-    const tit = r.ok ? r.variant.givens[1]!.value : Number(bySeed.get(seed)!.givens![1]!.split(' = ')[1]!.replace(' K', ''))
+    const tit = r.ok
+      ? r.variant.givens[1]!.value
+      : Number(bySeed.get(seed)!.givens![1]!.split(' = ')[1]!.replace(' K', ''))
     // Air-standard Brayton with γ = 1.4 (Çengel & Boles, Brayton cycle relations, from memory):
     // T2 = T1·(1 + (rp^((γ−1)/γ) − 1)/ηc), T4 = T3·rp^(−(γ−1)/γ), w_net ∝ (T3 − T4) − (T2 − T1).
     const k = 0.4 / 1.4
@@ -105,7 +177,16 @@ test('a Brayton whose turbine inlet is sometimes too cold: exactly the seeds the
 test('a Rankine problem whose turbine exit is sometimes superheated: the quality find is undefined on those seeds', () => {
   const def = problem(
     [range('pb', 'MPa', 1, 4, 0.5), range('Tin', 'degC', 400, 600, 50)],
-    { kind: 'template', template: 'rankine', inputs: { boilerPressure: 'pb', condenserPressure: '50 kPa', turbineInletTemperature: 'Tin', turbineEfficiency: '0.8' } },
+    {
+      kind: 'template',
+      template: 'rankine',
+      inputs: {
+        boilerPressure: 'pb',
+        condenserPressure: '50 kPa',
+        turbineInletTemperature: 'Tin',
+        turbineEfficiency: '0.8',
+      },
+    },
     [find('x4', 'totals.turbineExitQuality', '')],
   )
   const s = sweepVariants(def, { seeds: previewSeeds(60), convention: 'engineering' })
@@ -119,8 +200,15 @@ test('a Rankine problem whose turbine exit is sometimes superheated: the quality
 
 test('a range that reaches T <= 0 through an expression is flagged on exactly those seeds', () => {
   const def = problem(
-    [range('Th', 'K', 300, 600, 10), { name: 'Tc', label: 'cold', unit: 'K', rule: { kind: 'expression', expression: 'Th - 400 K' } }],
-    { kind: 'template', template: 'carnot-engine', inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: '100 kPa', expansionRatio: '2' } },
+    [
+      range('Th', 'K', 300, 600, 10),
+      { name: 'Tc', label: 'cold', unit: 'K', rule: { kind: 'expression', expression: 'Th - 400 K' } },
+    ],
+    {
+      kind: 'template',
+      template: 'carnot-engine',
+      inputs: { gas: 'air', Th: 'Th', Tc: 'Tc', p1: '100 kPa', expansionRatio: '2' },
+    },
     [find('eta', 'totals.efficiency', '')],
   )
   const s = sweepVariants(def, { seeds: previewSeeds(200), convention: 'engineering' })
@@ -143,7 +231,9 @@ test('keep limits the failures listed; failed still counts every failing variant
   const some = sweepVariants(badBrayton, { seeds: previewSeeds(100), convention: 'engineering', keep: 3 })
   expect(some.failed).toBe(all.failed)
   expect(some.failures).toEqual(all.failures.slice(0, 3))
-  expect(sweepVariants(badBrayton, { seeds: previewSeeds(100), convention: 'engineering', keep: 0 }).failures).toEqual([])
+  expect(sweepVariants(badBrayton, { seeds: previewSeeds(100), convention: 'engineering', keep: 0 }).failures).toEqual(
+    [],
+  )
 })
 
 test('a draw that fails before solving (constraint never met) is a failure per seed, with its code', () => {
@@ -178,9 +268,19 @@ test('an untouched variant has no failures', () => {
 })
 
 test.each<[string, (s: Mutable<FormattedSolution>, v: Mutable<Variant>) => void, string, RegExp]>([
-  ['a state below absolute zero', (s) => void (s.states[1]!.T.value = -5), 'temperature-not-positive', /State 2: T = -5 K/],
+  [
+    'a state below absolute zero',
+    (s) => void (s.states[1]!.T.value = -5),
+    'temperature-not-positive',
+    /State 2: T = -5 K/,
+  ],
   ['a state at zero pressure', (s) => void (s.states[2]!.p.value = 0), 'pressure-not-positive', /State 3: p = 0 Pa/],
-  ['an efficiency above the Carnot bound', (s) => void (s.totals.efficiency!.value = s.totals.carnotBound.value + 0.01), 'efficiency-out-of-range', /Carnot bound/],
+  [
+    'an efficiency above the Carnot bound',
+    (s) => void (s.totals.efficiency!.value = s.totals.carnotBound.value + 0.01),
+    'efficiency-out-of-range',
+    /Carnot bound/,
+  ],
   ['a negative efficiency', (s) => void (s.totals.efficiency!.value = -0.05), 'efficiency-out-of-range', /-0\.05/],
   ['a key that is not finite', (_s, v) => void (v.key[1]!.value = Number.NaN), 'find-undefined', /"wnet"/],
 ])('ideal gas: %s is flagged', (_what, edit, code, message) => {
@@ -193,11 +293,22 @@ test.each<[string, (s: Mutable<FormattedSolution>, v: Mutable<Variant>) => void,
 })
 
 test.each<[string, (s: Mutable<FormattedSolution>) => void]>([
-  ['a refrigerator COP above Tmin/(Tmax − Tmin)', (s) => void (s.totals.copRefrigerator!.value = s.totals.carnotBound.value * 1.05)],
+  [
+    'a refrigerator COP above Tmin/(Tmax − Tmin)',
+    (s) => void (s.totals.copRefrigerator!.value = s.totals.carnotBound.value * 1.05),
+  ],
   ['a refrigerator COP of zero', (s) => void (s.totals.copRefrigerator!.value = 0)],
   ['a refrigerator that takes no work (no COP)', (s) => void (s.totals.copRefrigerator = null)],
 ])('refrigerator: %s is flagged as efficiency-out-of-range', (_what, edit) => {
-  const def = problem([range('Tc', 'K', 250, 270, 5)], { kind: 'template', template: 'carnot-refrigerator', inputs: { gas: 'air', Th: '300 K', Tc: 'Tc', p1: '100 kPa', expansionRatio: '1.5' } }, [find('net', 'totals.netWork', 'kJ/kg')])
+  const def = problem(
+    [range('Tc', 'K', 250, 270, 5)],
+    {
+      kind: 'template',
+      template: 'carnot-refrigerator',
+      inputs: { gas: 'air', Th: '300 K', Tc: 'Tc', p1: '100 kPa', expansionRatio: '1.5' },
+    },
+    [find('net', 'totals.netWork', 'kJ/kg')],
+  )
   const v = drawn(def)
   expect(checkVariantSanity({ ok: true, variant: v })).toEqual([])
   expect(checkVariantSanity(tamper<FormattedSolution>(v, edit)).map((f) => f.code)).toEqual(['efficiency-out-of-range'])
@@ -214,5 +325,7 @@ test.each<[string, (s: Mutable<FormattedRankine>) => void, string]>([
 })
 
 test('a failed draw becomes one failure with its code and message', () => {
-  expect(checkVariantSanity({ ok: false, seed: 9, error: { code: 'solve-error', message: 'State 3: no.' } })).toEqual([{ seed: 9, code: 'solve-error', message: 'State 3: no.' }])
+  expect(checkVariantSanity({ ok: false, seed: 9, error: { code: 'solve-error', message: 'State 3: no.' } })).toEqual([
+    { seed: 9, code: 'solve-error', message: 'State 3: no.' },
+  ])
 })

@@ -38,8 +38,16 @@ type Problem = Omit<SweepFailure, 'seed' | 'givens'>
 function stateProblems(states: readonly { name: string; T: { value: number }; p: { value: number } }[]): Problem[] {
   const out: Problem[] = []
   states.forEach((s, i) => {
-    if (!(s.T.value > 0)) out.push({ code: 'temperature-not-positive', message: `${stateName(s.name, i)}: T = ${fmt(s.T.value)} K is not above absolute zero.` })
-    if (!(s.p.value > 0)) out.push({ code: 'pressure-not-positive', message: `${stateName(s.name, i)}: p = ${fmt(s.p.value)} Pa is not positive.` })
+    if (!(s.T.value > 0))
+      out.push({
+        code: 'temperature-not-positive',
+        message: `${stateName(s.name, i)}: T = ${fmt(s.T.value)} K is not above absolute zero.`,
+      })
+    if (!(s.p.value > 0))
+      out.push({
+        code: 'pressure-not-positive',
+        message: `${stateName(s.name, i)}: p = ${fmt(s.p.value)} Pa is not positive.`,
+      })
   })
   return out
 }
@@ -50,9 +58,15 @@ function idealGasProblems(sol: FormattedSolution): Problem[] {
   const bound = t.carnotBound.value
   const check = (what: string, value: number | undefined, lowOk: (v: number) => boolean): void => {
     if (value === undefined || !Number.isFinite(value)) {
-      out.push({ code: 'efficiency-out-of-range', message: `The ${what} is undefined (the cycle does not work as a ${t.purpose}).` })
+      out.push({
+        code: 'efficiency-out-of-range',
+        message: `The ${what} is undefined (the cycle does not work as a ${t.purpose}).`,
+      })
     } else if (!lowOk(value) || value > bound + SLACK * Math.max(1, Math.abs(bound))) {
-      out.push({ code: 'efficiency-out-of-range', message: `The ${what} ${fmt(value)} is outside 0 to the Carnot bound ${fmt(bound)} for ${fmt(t.Tmin.value)} K to ${fmt(t.Tmax.value)} K.` })
+      out.push({
+        code: 'efficiency-out-of-range',
+        message: `The ${what} ${fmt(value)} is outside 0 to the Carnot bound ${fmt(bound)} for ${fmt(t.Tmin.value)} K to ${fmt(t.Tmax.value)} K.`,
+      })
     }
   }
   if (t.purpose === 'engine') check('efficiency', t.efficiency?.value, (v) => v >= -SLACK)
@@ -69,13 +83,21 @@ function rankineProblems(sol: FormattedRankine): Problem[] {
   const bound = 1 - tMin / tMax
   const eta = sol.totals.efficiency.value
   if (!Number.isFinite(eta) || eta < -SLACK || eta > bound + SLACK) {
-    out.push({ code: 'efficiency-out-of-range', message: `The efficiency ${fmt(eta)} is outside 0 to the Carnot bound ${fmt(bound)} for ${fmt(tMin)} K to ${fmt(tMax)} K.` })
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The efficiency ${fmt(eta)} is outside 0 to the Carnot bound ${fmt(bound)} for ${fmt(tMin)} K to ${fmt(tMax)} K.`,
+    })
   }
   sol.states.forEach((s, i) => {
-    if (s.x !== null && !(s.x >= -SLACK && s.x <= 1 + SLACK)) out.push({ code: 'quality-out-of-range', message: `${stateName(s.name, i)}: quality x = ${fmt(s.x)} is outside 0 to 1.` })
+    if (s.x !== null && !(s.x >= -SLACK && s.x <= 1 + SLACK))
+      out.push({
+        code: 'quality-out-of-range',
+        message: `${stateName(s.name, i)}: quality x = ${fmt(s.x)} is outside 0 to 1.`,
+      })
   })
   const x = sol.totals.turbineExitQuality?.value
-  if (x !== undefined && !(x >= -SLACK && x <= 1 + SLACK)) out.push({ code: 'quality-out-of-range', message: `Turbine exit quality ${fmt(x)} is outside 0 to 1.` })
+  if (x !== undefined && !(x >= -SLACK && x <= 1 + SLACK))
+    out.push({ code: 'quality-out-of-range', message: `Turbine exit quality ${fmt(x)} is outside 0 to 1.` })
   return out
 }
 
@@ -85,7 +107,8 @@ export function checkVariantSanity(result: DrawResult): SweepFailure[] {
   const v = result.variant
   const problems = isRankine(v.solution) ? rankineProblems(v.solution) : idealGasProblems(v.solution)
   for (const k of v.key) {
-    if (!Number.isFinite(k.value)) problems.push({ code: 'find-undefined', message: `Find "${k.name}": the key is not a finite number.` })
+    if (!Number.isFinite(k.value))
+      problems.push({ code: 'find-undefined', message: `Find "${k.name}": the key is not a finite number.` })
   }
   const givens = givenLines(v.givens)
   return problems.map((p) => ({ seed: v.seed, ...p, givens }))
@@ -95,8 +118,14 @@ export function checkVariantSanity(result: DrawResult): SweepFailure[] {
  * Draws and checks the variant of every seed. `failed` counts the variants with at least one
  * failure (all of them); `failures` keeps the first `keep` (default 200) failures. Never throws.
  */
-export function sweepVariants(def: ProblemDefinition, options: { readonly seeds: readonly number[]; readonly convention: Convention; readonly keep?: number }): SweepSummary {
-  const keep = options.keep === undefined || !Number.isFinite(options.keep) ? SWEEP_KEEP_DEFAULT : Math.max(0, Math.floor(options.keep))
+export function sweepVariants(
+  def: ProblemDefinition,
+  options: { readonly seeds: readonly number[]; readonly convention: Convention; readonly keep?: number },
+): SweepSummary {
+  const keep =
+    options.keep === undefined || !Number.isFinite(options.keep)
+      ? SWEEP_KEEP_DEFAULT
+      : Math.max(0, Math.floor(options.keep))
   let checked = 0
   let failed = 0
   const failures: SweepFailure[] = []
@@ -108,12 +137,23 @@ export function sweepVariants(def: ProblemDefinition, options: { readonly seeds:
       found = checkVariantSanity(result)
       // A variant that failed after its givens were drawn (the solver refused them) is most
       // useful with those givens beside the message.
-      if (!result.ok && found.length > 0 && result.error.code !== 'given-error' && result.error.code !== 'constraint-never-met') {
+      if (
+        !result.ok &&
+        found.length > 0 &&
+        result.error.code !== 'given-error' &&
+        result.error.code !== 'constraint-never-met'
+      ) {
         const g = drawGivens(def, seed)
         if (g.ok) found = found.map((f) => ({ ...f, givens: givenLines(g.givens) }))
       }
     } catch (e) {
-      found = [{ seed, code: 'invalid-definition', message: `The variant could not be checked (${e instanceof Error ? e.message : String(e)}).` }]
+      found = [
+        {
+          seed,
+          code: 'invalid-definition',
+          message: `The variant could not be checked (${e instanceof Error ? e.message : String(e)}).`,
+        },
+      ]
     }
     if (found.length === 0) continue
     failed++

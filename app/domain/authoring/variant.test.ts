@@ -3,15 +3,43 @@ import { readQuantity, solveSpec } from '#app/domain/thermo/index.ts'
 import type { Find, FindSource, Given, Physics, ProblemDefinition, ProblemConvention, Variant } from './definition.ts'
 import { drawVariant, resolveConvention } from './variant.ts'
 
-const find = (name: string, source: FindSource, unit: string, extra: Partial<Find> = {}): Find => ({ name, label: name, source, unit, points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [], ...extra })
+const find = (name: string, source: FindSource, unit: string, extra: Partial<Find> = {}): Find => ({
+  name,
+  label: name,
+  source,
+  unit,
+  points: 1,
+  tolerance: { kind: 'relative', value: 0.01 },
+  pitfalls: [],
+  ...extra,
+})
 const out = (path: string): FindSource => ({ kind: 'output', path })
 const expr = (expression: string): FindSource => ({ kind: 'expression', expression })
 
-function problem(givens: Given[], physics: Physics, finds: Find[], convention: ProblemConvention = 'course'): ProblemDefinition {
-  return { format: 2, title: 'Test', tags: { topics: [], difficulty: 'standard', level: 'second-year' }, convention, prompt: '', givens, constraints: [], physics, finds }
+function problem(
+  givens: Given[],
+  physics: Physics,
+  finds: Find[],
+  convention: ProblemConvention = 'course',
+): ProblemDefinition {
+  return {
+    format: 2,
+    title: 'Test',
+    tags: { topics: [], difficulty: 'standard', level: 'second-year' },
+    convention,
+    prompt: '',
+    givens,
+    constraints: [],
+    physics,
+    finds,
+  }
 }
 
-function variant(def: ProblemDefinition, seed: number, convention: 'engineering' | 'chemistry' = 'engineering'): Variant {
+function variant(
+  def: ProblemDefinition,
+  seed: number,
+  convention: 'engineering' | 'chemistry' = 'engineering',
+): Variant {
   const r = drawVariant(def, seed, { convention })
   if (!r.ok) throw new Error(JSON.stringify(r.error))
   return r.variant
@@ -33,7 +61,12 @@ const otto = problem(
       gas: { R: '287 J/(kg K)', gamma: 1.4 },
       system: 'closed',
       states: [{ p: 'p1', T: 'T1' }, {}, {}, {}],
-      steps: [{ process: 'isentropic', compressionRatio: 'r' }, { process: 'isochoric', heat: 'qin' }, { process: 'isentropic' }, { process: 'isochoric' }],
+      steps: [
+        { process: 'isentropic', compressionRatio: 'r' },
+        { process: 'isochoric', heat: 'qin' },
+        { process: 'isentropic' },
+        { process: 'isochoric' },
+      ],
     },
   },
   [
@@ -47,30 +80,33 @@ const otto = problem(
   ],
 )
 
-test.each([1, 2, 3, 42, 1000])('Otto, seed %d: η = 1 − r^(1−γ) and w_net = η·q_in in kJ/kg (Çengel & Boles, Otto cycle relations, from memory)', (seed) => {
-  const v = variant(otto, seed)
-  const r = givenOf(v, 'r')
-  const eta = 1 - r ** (1 - 1.4)
-  expect(keyOf(v, 'eta')).toBeCloseTo(eta, 9)
-  expect(keyOf(v, 'etaPct')).toBeCloseTo(100 * eta, 7)
-  expect(keyOf(v, 'wnet')).toBeCloseTo(eta * givenOf(v, 'qin'), 6)
-  // isentropic compression of an ideal gas: p2 = p1·r^γ (same source)
-  expect(keyOf(v, 'p2')).toBeCloseTo(givenOf(v, 'p1') * r ** 1.4, 6)
-  // 0 °C = 273.15 K (SI Brochure, from memory)
-  expect(keyOf(v, 'T1C')).toBeCloseTo(givenOf(v, 'T1') - 273.15, 9)
-  // first law over the cycle: q_out = q_in − w_net (common practice)
-  expect(keyOf(v, 'qout')).toBeCloseTo(givenOf(v, 'qin') * (1 - eta), 6)
-  expect(keyOf(v, 'wJ')).toBeCloseTo(1000 * keyOf(v, 'wnet'), 3)
-  expect(v.key.map((k) => [k.name, k.unit, k.path])).toEqual([
-    ['eta', '', 'totals.efficiency'],
-    ['etaPct', '%', 'totals.efficiency'],
-    ['wnet', 'kJ/kg', 'totals.netWork'],
-    ['T1C', 'degC', 'states.1.T'],
-    ['p2', 'kPa', 'states.2.p'],
-    ['qout', 'kJ/kg', null],
-    ['wJ', 'J/kg', null],
-  ])
-})
+test.each([1, 2, 3, 42, 1000])(
+  'Otto, seed %d: η = 1 − r^(1−γ) and w_net = η·q_in in kJ/kg (Çengel & Boles, Otto cycle relations, from memory)',
+  (seed) => {
+    const v = variant(otto, seed)
+    const r = givenOf(v, 'r')
+    const eta = 1 - r ** (1 - 1.4)
+    expect(keyOf(v, 'eta')).toBeCloseTo(eta, 9)
+    expect(keyOf(v, 'etaPct')).toBeCloseTo(100 * eta, 7)
+    expect(keyOf(v, 'wnet')).toBeCloseTo(eta * givenOf(v, 'qin'), 6)
+    // isentropic compression of an ideal gas: p2 = p1·r^γ (same source)
+    expect(keyOf(v, 'p2')).toBeCloseTo(givenOf(v, 'p1') * r ** 1.4, 6)
+    // 0 °C = 273.15 K (SI Brochure, from memory)
+    expect(keyOf(v, 'T1C')).toBeCloseTo(givenOf(v, 'T1') - 273.15, 9)
+    // first law over the cycle: q_out = q_in − w_net (common practice)
+    expect(keyOf(v, 'qout')).toBeCloseTo(givenOf(v, 'qin') * (1 - eta), 6)
+    expect(keyOf(v, 'wJ')).toBeCloseTo(1000 * keyOf(v, 'wnet'), 3)
+    expect(v.key.map((k) => [k.name, k.unit, k.path])).toEqual([
+      ['eta', '', 'totals.efficiency'],
+      ['etaPct', '%', 'totals.efficiency'],
+      ['wnet', 'kJ/kg', 'totals.netWork'],
+      ['T1C', 'degC', 'states.1.T'],
+      ['p2', 'kPa', 'states.2.p'],
+      ['qout', 'kJ/kg', null],
+      ['wJ', 'J/kg', null],
+    ])
+  },
+)
 
 test('the same seed gives an identical variant; different seeds usually differ', () => {
   expect(variant(otto, 77)).toEqual(variant(otto, 77))
@@ -88,15 +124,43 @@ test('Rankine: the turbine exit quality of the key equals solveSpec of the same 
   const def = problem(
     [
       { name: 'pb', label: 'boiler pressure', unit: 'MPa', rule: { kind: 'range', min: 3, max: 15, step: 0.5 } },
-      { name: 'Tin', label: 'turbine inlet temperature', unit: 'degC', rule: { kind: 'range', min: 400, max: 600, step: 25 } },
+      {
+        name: 'Tin',
+        label: 'turbine inlet temperature',
+        unit: 'degC',
+        rule: { kind: 'range', min: 400, max: 600, step: 25 },
+      },
     ],
-    { kind: 'template', template: 'rankine', inputs: { boilerPressure: 'pb', condenserPressure: '10 kPa', turbineInletTemperature: 'Tin' } },
-    [find('x4', out('totals.turbineExitQuality'), ''), find('eta', out('totals.efficiency'), '%'), find('h1', out('states.1.h'), 'kJ/kg')],
+    {
+      kind: 'template',
+      template: 'rankine',
+      inputs: { boilerPressure: 'pb', condenserPressure: '10 kPa', turbineInletTemperature: 'Tin' },
+    },
+    [
+      find('x4', out('totals.turbineExitQuality'), ''),
+      find('eta', out('totals.efficiency'), '%'),
+      find('h1', out('states.1.h'), 'kJ/kg'),
+    ],
   )
   for (const seed of [1, 2, 3]) {
     const v = variant(def, seed)
-    expect(v.spec).toEqual({ template: 'rankine', inputs: { boilerPressure: `${givenOf(v, 'pb')} MPa`, condenserPressure: '10 kPa', turbineInletTemperature: `${givenOf(v, 'Tin')} degC` }, convention: 'engineering' })
-    const direct = solveSpec({ template: 'rankine', inputs: { boilerPressure: `${givenOf(v, 'pb')} MPa`, condenserPressure: '10 kPa', turbineInletTemperature: `${givenOf(v, 'Tin')} °C` } })
+    expect(v.spec).toEqual({
+      template: 'rankine',
+      inputs: {
+        boilerPressure: `${givenOf(v, 'pb')} MPa`,
+        condenserPressure: '10 kPa',
+        turbineInletTemperature: `${givenOf(v, 'Tin')} degC`,
+      },
+      convention: 'engineering',
+    })
+    const direct = solveSpec({
+      template: 'rankine',
+      inputs: {
+        boilerPressure: `${givenOf(v, 'pb')} MPa`,
+        condenserPressure: '10 kPa',
+        turbineInletTemperature: `${givenOf(v, 'Tin')} °C`,
+      },
+    })
     if (!direct.ok) throw new Error(direct.error.message)
     expect(keyOf(v, 'x4')).toBe(readQuantity(direct, 'totals.turbineExitQuality'))
     expect(keyOf(v, 'x4')).toBeGreaterThan(0.7)
@@ -131,13 +195,21 @@ test.each([
 
 test.each([
   ['a path to nothing', find('x', out('states.9.T'), 'K'), 'find-undefined', /"states\.9\.T"/],
-  ['a null output (no COP for an engine)', find('x', out('totals.copRefrigerator'), ''), 'find-undefined', /totals\.copRefrigerator/],
+  [
+    'a null output (no COP for an engine)',
+    find('x', out('totals.copRefrigerator'), ''),
+    'find-undefined',
+    /totals\.copRefrigerator/,
+  ],
   ['an output in the wrong unit', find('x', out('totals.efficiency'), 'kPa'), 'invalid-definition', /kPa/],
   ['an expression of the wrong dimension', find('x', expr('T1 * 2'), 'kJ/kg'), 'invalid-definition', /kJ\/kg/],
   ['an expression over a later find', find('x', expr('later * 2'), 'K'), 'invalid-definition', /"later"/],
   ['an unreadable unit', find('x', out('states.1.T'), 'kelvinoids'), 'invalid-definition', /kelvinoids/],
 ] as const)('%s is an error naming the find', (_what, bad, code, message) => {
-  const def = { ...otto, finds: [find('eta', out('totals.efficiency'), ''), bad, find('later', out('states.1.T'), 'K')] }
+  const def = {
+    ...otto,
+    finds: [find('eta', out('totals.efficiency'), ''), bad, find('later', out('states.1.T'), 'K')],
+  }
   const r = drawVariant(def, 1, { convention: 'engineering' })
   expect(r.ok).toBe(false)
   if (r.ok) return
@@ -151,7 +223,11 @@ test.each([
 test('a Brayton variant whose turbine inlet is below the compressor exit is a solve-error with the solver message', () => {
   const def = problem(
     [{ name: 'TIT', label: 'turbine inlet temperature', unit: 'K', rule: { kind: 'choice', values: [450] } }],
-    { kind: 'template', template: 'brayton', inputs: { gas: 'air', p1: '100 kPa', T1: '300 K', pressureRatio: '12', turbineInletT: 'TIT' } },
+    {
+      kind: 'template',
+      template: 'brayton',
+      inputs: { gas: 'air', p1: '100 kPa', T1: '300 K', pressureRatio: '12', turbineInletT: 'TIT' },
+    },
     [find('eta', out('totals.efficiency'), '')],
   )
   const r = drawVariant(def, 1, { convention: 'engineering' })
@@ -169,19 +245,78 @@ const rankineInputs = { boilerPressure: '10 MPa', condenserPressure: '10 kPa', t
 
 test.each<[string, Given[], Physics, string, RegExp]>([
   // r = V_max/V_min > 1 by definition (Çengel & Boles, Otto cycle, from memory)
-  ['an Otto compression ratio below 1, written as a literal', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, compressionRatio: '0.5' } }, 'physics.inputs.compressionRatio', /compressionRatio must exceed 1/],
-  ['an Otto compression ratio below 1, drawn from a given', [{ name: 'r', label: 'compression ratio', unit: '', rule: { kind: 'choice', values: [0.5] } }], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, compressionRatio: 'r' } }, 'physics.inputs.compressionRatio', /exceed 1/],
+  [
+    'an Otto compression ratio below 1, written as a literal',
+    [],
+    { kind: 'template', template: 'otto', inputs: { ...ottoInputs, compressionRatio: '0.5' } },
+    'physics.inputs.compressionRatio',
+    /compressionRatio must exceed 1/,
+  ],
+  [
+    'an Otto compression ratio below 1, drawn from a given',
+    [{ name: 'r', label: 'compression ratio', unit: '', rule: { kind: 'choice', values: [0.5] } }],
+    { kind: 'template', template: 'otto', inputs: { ...ottoInputs, compressionRatio: 'r' } },
+    'physics.inputs.compressionRatio',
+    /exceed 1/,
+  ],
   // heat is rejected at the lower of the two pressures (Çengel & Boles, Rankine cycle, from memory)
-  ['a Rankine condenser pressure above the boiler pressure', [], { kind: 'template', template: 'rankine', inputs: { ...rankineInputs, condenserPressure: '12 MPa' } }, 'physics.inputs.condenserPressure', /below boilerPressure/],
+  [
+    'a Rankine condenser pressure above the boiler pressure',
+    [],
+    { kind: 'template', template: 'rankine', inputs: { ...rankineInputs, condenserPressure: '12 MPa' } },
+    'physics.inputs.condenserPressure',
+    /below boilerPressure/,
+  ],
   // the turbine inlet must be superheated vapour: T_sat(10 MPa) ≈ 311 °C (IAPWS-IF97 tables, from memory)
-  ['a Rankine turbine inlet below saturation', [], { kind: 'template', template: 'rankine', inputs: { ...rankineInputs, turbineInletTemperature: '200 degC' } }, 'physics.inputs.turbineInletTemperature', /saturation/],
-  ['an Otto input that cannot be read', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, T1: 'warm' } }, 'physics.inputs.T1', /T1/],
-  ['gas constants with a wrong basis (the solver says gas.basis)', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, gas: { basis: 'volume' } as unknown as string } }, 'physics.inputs.gas', /gas\.basis/],
-  ['a refusal about a state the template builds, not an input', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, heatIn: '-5000 kJ/kg' } }, 'physics', /^State 3/],
-  ['a solver message that opens with a plain word', [], { kind: 'template', template: 'otto', inputs: { ...ottoInputs, gas: 'unobtainium' } }, 'physics.inputs.gas', /^Unknown gas "unobtainium"/],
-  ['a general cycle refused by the solver', otto.givens.slice(), { kind: 'cycle', cycle: { ...(otto.physics as { cycle: object }).cycle, states: [{ p: '100 kPa', T: '-3 K' }, {}, {}, {}] } }, 'physics.cycle', /T must be a positive number/],
+  [
+    'a Rankine turbine inlet below saturation',
+    [],
+    { kind: 'template', template: 'rankine', inputs: { ...rankineInputs, turbineInletTemperature: '200 degC' } },
+    'physics.inputs.turbineInletTemperature',
+    /saturation/,
+  ],
+  [
+    'an Otto input that cannot be read',
+    [],
+    { kind: 'template', template: 'otto', inputs: { ...ottoInputs, T1: 'warm' } },
+    'physics.inputs.T1',
+    /T1/,
+  ],
+  [
+    'gas constants with a wrong basis (the solver says gas.basis)',
+    [],
+    { kind: 'template', template: 'otto', inputs: { ...ottoInputs, gas: { basis: 'volume' } as unknown as string } },
+    'physics.inputs.gas',
+    /gas\.basis/,
+  ],
+  [
+    'a refusal about a state the template builds, not an input',
+    [],
+    { kind: 'template', template: 'otto', inputs: { ...ottoInputs, heatIn: '-5000 kJ/kg' } },
+    'physics',
+    /^State 3/,
+  ],
+  [
+    'a solver message that opens with a plain word',
+    [],
+    { kind: 'template', template: 'otto', inputs: { ...ottoInputs, gas: 'unobtainium' } },
+    'physics.inputs.gas',
+    /^Unknown gas "unobtainium"/,
+  ],
+  [
+    'a general cycle refused by the solver',
+    otto.givens.slice(),
+    {
+      kind: 'cycle',
+      cycle: { ...(otto.physics as { cycle: object }).cycle, states: [{ p: '100 kPa', T: '-3 K' }, {}, {}, {}] },
+    },
+    'physics.cycle',
+    /T must be a positive number/,
+  ],
 ])('%s is a solve-error about %s', (_what, givens, physics, property, message) => {
-  const r = drawVariant(problem(givens, physics, [find('eta', out('totals.efficiency'), '')]), 1, { convention: 'engineering' })
+  const r = drawVariant(problem(givens, physics, [find('eta', out('totals.efficiency'), '')]), 1, {
+    convention: 'engineering',
+  })
   expect(r.ok).toBe(false)
   if (r.ok) return
   expect(r.error.code).toBe('solve-error')
@@ -192,7 +327,10 @@ test.each<[string, Given[], Physics, string, RegExp]>([
 test.each([
   ['physics that is not an object', { kind: 'cycle', cycle: 42 }],
   ['an unknown template', { kind: 'template', template: 'no-such', inputs: {} }],
-  ['a template given a number where text is expected', { kind: 'template', template: 'otto', inputs: { p1: { nested: true } } }],
+  [
+    'a template given a number where text is expected',
+    { kind: 'template', template: 'otto', inputs: { p1: { nested: true } } },
+  ],
 ] as const)('%s gives an error result, never a throw', (_what, physics) => {
   const r = drawVariant(problem([], physics as unknown as Physics, []), 1, { convention: 'engineering' })
   expect(r.ok).toBe(false)
@@ -205,24 +343,44 @@ test('a definition broken past its types (givens not a list) gives invalid-defin
 
 // ---- A find states its sense -----------------------------------------------------------
 
-test.each(['engineering', 'chemistry'] as const)('Otto, %s course: net work with the sense "by the system" is +(q_in − q_out) (for a cycle, net work done by the gas = heat in − heat out, common practice)', (course) => {
-  const def = { ...otto, finds: [find('wnet', out('totals.netWork'), 'kJ/kg', { sense: 'work-by-system' }), find('qin', out('totals.heatIn'), 'kJ/kg'), find('qout', out('totals.heatOut'), 'kJ/kg')] }
-  for (const seed of [1, 2, 42]) {
-    const v = variant(def, seed, course)
-    expect(v.convention).toBe(course)
-    const byGas = keyOf(v, 'qin') - keyOf(v, 'qout')
-    expect(byGas).toBeGreaterThan(0)
-    expect(keyOf(v, 'wnet')).toBeCloseTo(byGas, 6)
-    expect(v.key[0]!.flipped === true).toBe(course === 'chemistry')
-  }
-})
+test.each(['engineering', 'chemistry'] as const)(
+  'Otto, %s course: net work with the sense "by the system" is +(q_in − q_out) (for a cycle, net work done by the gas = heat in − heat out, common practice)',
+  (course) => {
+    const def = {
+      ...otto,
+      finds: [
+        find('wnet', out('totals.netWork'), 'kJ/kg', { sense: 'work-by-system' }),
+        find('qin', out('totals.heatIn'), 'kJ/kg'),
+        find('qout', out('totals.heatOut'), 'kJ/kg'),
+      ],
+    }
+    for (const seed of [1, 2, 42]) {
+      const v = variant(def, seed, course)
+      expect(v.convention).toBe(course)
+      const byGas = keyOf(v, 'qin') - keyOf(v, 'qout')
+      expect(byGas).toBeGreaterThan(0)
+      expect(keyOf(v, 'wnet')).toBeCloseTo(byGas, 6)
+      expect(v.key[0]!.flipped === true).toBe(course === 'chemistry')
+    }
+  },
+)
 
-test.each(['engineering', 'chemistry'] as const)('Otto, %s course: net work with the sense "on the system" is −(q_in − q_out)', (course) => {
-  const def = { ...otto, finds: [find('wnet', out('totals.netWork'), 'kJ/kg', { sense: 'work-on-system' }), find('qin', out('totals.heatIn'), 'kJ/kg'), find('qout', out('totals.heatOut'), 'kJ/kg')] }
-  const v = variant(def, 3, course)
-  expect(keyOf(v, 'wnet')).toBeLessThan(0)
-  expect(keyOf(v, 'wnet')).toBeCloseTo(-(keyOf(v, 'qin') - keyOf(v, 'qout')), 6)
-})
+test.each(['engineering', 'chemistry'] as const)(
+  'Otto, %s course: net work with the sense "on the system" is −(q_in − q_out)',
+  (course) => {
+    const def = {
+      ...otto,
+      finds: [
+        find('wnet', out('totals.netWork'), 'kJ/kg', { sense: 'work-on-system' }),
+        find('qin', out('totals.heatIn'), 'kJ/kg'),
+        find('qout', out('totals.heatOut'), 'kJ/kg'),
+      ],
+    }
+    const v = variant(def, 3, course)
+    expect(keyOf(v, 'wnet')).toBeLessThan(0)
+    expect(keyOf(v, 'wnet')).toBeCloseTo(-(keyOf(v, 'qin') - keyOf(v, 'qout')), 6)
+  },
+)
 
 test('without a sense the convention decides the sign of the net work, as before', () => {
   const def = { ...otto, finds: [find('wnet', out('totals.netWork'), 'kJ/kg')] }
@@ -233,7 +391,14 @@ test('without a sense the convention decides the sign of the net work, as before
 })
 
 test('heat senses: the heat of step 4→1 "out of the system" is positive, the heat out "into the system" negative, in both conventions', () => {
-  const def = { ...otto, finds: [find('q41', out('steps.4.q'), 'kJ/kg', { sense: 'heat-out-of-system' }), find('qoutIn', out('totals.heatOut'), 'kJ/kg', { sense: 'heat-into-system' }), find('q41raw', out('steps.4.q'), 'kJ/kg')] }
+  const def = {
+    ...otto,
+    finds: [
+      find('q41', out('steps.4.q'), 'kJ/kg', { sense: 'heat-out-of-system' }),
+      find('qoutIn', out('totals.heatOut'), 'kJ/kg', { sense: 'heat-into-system' }),
+      find('q41raw', out('steps.4.q'), 'kJ/kg'),
+    ],
+  }
   for (const course of ['engineering', 'chemistry'] as const) {
     const v = variant(def, 6, course)
     expect(keyOf(v, 'q41raw')).toBeLessThan(0) // heat into the system during heat rejection
@@ -242,16 +407,22 @@ test('heat senses: the heat of step 4→1 "out of the system" is positive, the h
   }
 })
 
-test.each(['engineering', 'chemistry'] as const)('the Otto demo, %s course: net work stated "by the system" keys +(q_in − q_out), "on the system" −(q_in − q_out) (for a cycle, net work done by the gas = heat in − heat out, common practice)', async (course) => {
-  const { DEMO_PROBLEMS } = await import('#seed/problems.ts')
-  const demo = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
-  const withSense = (sense: 'work-by-system' | 'work-on-system'): ProblemDefinition => ({ ...demo, finds: demo.finds.map((f) => (f.name === 'wNet' ? { ...f, sense } : f)) })
-  for (const seed of [11, 4242]) {
-    const by = variant(withSense('work-by-system'), seed, course)
-    const sol = by.solution as { totals: { heatIn: { value: number }; heatOut: { value: number } } }
-    const byGasKJ = (sol.totals.heatIn.value - sol.totals.heatOut.value) / 1000
-    expect(byGasKJ).toBeGreaterThan(0)
-    expect(keyOf(by, 'wNet')).toBeCloseTo(byGasKJ, 6)
-    expect(keyOf(variant(withSense('work-on-system'), seed, course), 'wNet')).toBeCloseTo(-byGasKJ, 6)
-  }
-})
+test.each(['engineering', 'chemistry'] as const)(
+  'the Otto demo, %s course: net work stated "by the system" keys +(q_in − q_out), "on the system" −(q_in − q_out) (for a cycle, net work done by the gas = heat in − heat out, common practice)',
+  async (course) => {
+    const { DEMO_PROBLEMS } = await import('#seed/problems.ts')
+    const demo = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
+    const withSense = (sense: 'work-by-system' | 'work-on-system'): ProblemDefinition => ({
+      ...demo,
+      finds: demo.finds.map((f) => (f.name === 'wNet' ? { ...f, sense } : f)),
+    })
+    for (const seed of [11, 4242]) {
+      const by = variant(withSense('work-by-system'), seed, course)
+      const sol = by.solution as { totals: { heatIn: { value: number }; heatOut: { value: number } } }
+      const byGasKJ = (sol.totals.heatIn.value - sol.totals.heatOut.value) / 1000
+      expect(byGasKJ).toBeGreaterThan(0)
+      expect(keyOf(by, 'wNet')).toBeCloseTo(byGasKJ, 6)
+      expect(keyOf(variant(withSense('work-on-system'), seed, course), 'wNet')).toBeCloseTo(-byGasKJ, 6)
+    }
+  },
+)

@@ -38,7 +38,8 @@ export function unitAtPath(sol: object, path: string): string | null {
     }
   }
   if (typeof cur === 'number') return ''
-  if (cur && typeof cur === 'object' && typeof (cur as { unit?: unknown }).unit === 'string') return (cur as { unit: string }).unit
+  if (cur && typeof cur === 'object' && typeof (cur as { unit?: unknown }).unit === 'string')
+    return (cur as { unit: string }).unit
   return null
 }
 
@@ -75,7 +76,9 @@ export function convertFromSI(value: number, siUnit: string, unit: string, isDif
   return value * factor
 }
 
-type CompiledFind = { readonly ok: true; readonly expression: CompiledRestrictedExpression | null } | { readonly ok: false; readonly error: VariantError }
+type CompiledFind =
+  | { readonly ok: true; readonly expression: CompiledRestrictedExpression | null }
+  | { readonly ok: false; readonly error: VariantError }
 
 const compiledFindsCache = new WeakMap<ProblemDefinition, readonly CompiledFind[]>()
 
@@ -92,10 +95,18 @@ function compileFinds(def: ProblemDefinition): readonly CompiledFind[] {
   for (const f of def.finds) {
     if (f.source.kind === 'expression') {
       const variables = [...new Set(names)]
-      const c = compileRestrictedExpression(f.source.expression, { variables, expectedUnit: f.unit, temperatureDifference: f.isDifference === true })
+      const c = compileRestrictedExpression(f.source.expression, {
+        variables,
+        expectedUnit: f.unit,
+        temperatureDifference: f.isDifference === true,
+      })
       if (c.ok) out.push({ ok: true, expression: c.expression })
-      else if (c.error.code === 'wrong-dimension') out.push(findError(f, 'invalid-definition', `the unit "${f.unit}" cannot be read`))
-      else out.push(findError(f, 'invalid-definition', describeCompileError(f.source.expression, new Set(variables), c.error)))
+      else if (c.error.code === 'wrong-dimension')
+        out.push(findError(f, 'invalid-definition', `the unit "${f.unit}" cannot be read`))
+      else
+        out.push(
+          findError(f, 'invalid-definition', describeCompileError(f.source.expression, new Set(variables), c.error)),
+        )
     } else {
       out.push({ ok: true, expression: null })
     }
@@ -123,7 +134,12 @@ function solverMessage(e: { message: string }): string {
   return /^[a-z]+\s/.test(e.message) ? e.message.charAt(0).toUpperCase() + e.message.slice(1) : e.message
 }
 
-function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solution: FormattedSolution | FormattedRankine, convention: Convention): { ok: true; key: KeyEntry[] } | { ok: false; error: VariantError } {
+function computeKey(
+  def: ProblemDefinition,
+  givens: readonly DrawnGiven[],
+  solution: FormattedSolution | FormattedRankine,
+  convention: Convention,
+): { ok: true; key: KeyEntry[] } | { ok: false; error: VariantError } {
   const compiled = compileFinds(def)
   // Quantities for the reader cost a mathjs call each: only expression finds need them.
   const needsScope = compiled.some((c) => c.ok && c.expression !== null)
@@ -141,7 +157,13 @@ function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solut
       const raw = readQuantity(solution, path)
       const siUnit = unitAtPath(solution, path)
       if (raw === null || siUnit === null || !Number.isFinite(raw)) {
-        return findError(f, 'find-undefined', raw === null || siUnit === null ? `the solution has no number at "${path}"` : `the value at "${path}" is not a finite number`)
+        return findError(
+          f,
+          'find-undefined',
+          raw === null || siUnit === null
+            ? `the solution has no number at "${path}"`
+            : `the value at "${path}" is not a finite number`,
+        )
       }
       const v = convertFromSI(raw, siUnit, f.unit, f.isDifference === true)
       if (typeof v === 'string') return findError(f, 'invalid-definition', `${v} (output "${path}")`)
@@ -151,13 +173,25 @@ function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solut
     } else {
       const r = c.expression!.evaluate(scope)
       if (!r.ok) {
-        const msg = r.error.code === 'wrong-dimension' ? `the expression does not give a quantity in ${f.unit === '' ? 'a pure number' : `"${f.unit}"`}` : describeCompileError(f.source.expression, new Set(c.expression!.variables), r.error)
+        const msg =
+          r.error.code === 'wrong-dimension'
+            ? `the expression does not give a quantity in ${f.unit === '' ? 'a pure number' : `"${f.unit}"`}`
+            : describeCompileError(f.source.expression, new Set(c.expression!.variables), r.error)
         return findError(f, 'invalid-definition', msg)
       }
       value = r.value
     }
-    if (!Number.isFinite(value)) return findError(f, 'find-undefined', `the key is not a finite number${path ? ` (output "${path}")` : ''}`)
-    key.push({ name: f.name, label: f.label, value, unit: f.unit, points: f.points, path, ...(flipped ? { flipped: true as const } : {}) })
+    if (!Number.isFinite(value))
+      return findError(f, 'find-undefined', `the key is not a finite number${path ? ` (output "${path}")` : ''}`)
+    key.push({
+      name: f.name,
+      label: f.label,
+      value,
+      unit: f.unit,
+      points: f.points,
+      path,
+      ...(flipped ? { flipped: true as const } : {}),
+    })
     if (!needsScope) continue
     const sv = toScopeValue(value, f.unit, f.isDifference === true)
     if (sv === null) return findError(f, 'invalid-definition', `the unit "${f.unit}" cannot be read`)
@@ -170,7 +204,11 @@ function computeKey(def: ProblemDefinition, givens: readonly DrawnGiven[], solut
  * Draws the variant of `seed`. `options.convention` is the course's; a problem that fixes its
  * own convention keeps it (resolveConvention). Never throws.
  */
-export function drawVariant(def: ProblemDefinition, seed: number, options: { readonly convention: Convention }): DrawResult {
+export function drawVariant(
+  def: ProblemDefinition,
+  seed: number,
+  options: { readonly convention: Convention },
+): DrawResult {
   try {
     const convention = resolveConvention(def, options.convention)
     const drawn = drawGivens(def, seed)
@@ -179,12 +217,23 @@ export function drawVariant(def: ProblemDefinition, seed: number, options: { rea
     const solved = solveBankSpec(spec)
     if (!solved.ok) {
       const e = solved.error
-      return { ok: false, seed, error: { code: 'solve-error', message: solverMessage(e), property: solverErrorPath(def.physics, e.property) } }
+      return {
+        ok: false,
+        seed,
+        error: { code: 'solve-error', message: solverMessage(e), property: solverErrorPath(def.physics, e.property) },
+      }
     }
     const key = computeKey(def, drawn.givens, solved, convention)
     if (!key.ok) return { ok: false, seed, error: key.error }
     return { ok: true, variant: { seed, convention, givens: drawn.givens, spec, solution: solved, key: key.key } }
   } catch (e) {
-    return { ok: false, seed, error: { code: 'invalid-definition', message: `The variant could not be drawn (${e instanceof Error ? e.message : String(e)}).` } }
+    return {
+      ok: false,
+      seed,
+      error: {
+        code: 'invalid-definition',
+        message: `The variant could not be drawn (${e instanceof Error ? e.message : String(e)}).`,
+      },
+    }
   }
 }

@@ -9,7 +9,15 @@ import { drawVariant } from './variant.ts'
 import { renderWorkedSolution, workedSolution } from './worked-solution.ts'
 import type { WorkedSolution } from './worked-solution.ts'
 
-const find = (name: string, label: string, unit: string, source: Find['source']): Find => ({ name, label, source, unit, points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] })
+const find = (name: string, label: string, unit: string, source: Find['source']): Find => ({
+  name,
+  label,
+  source,
+  unit,
+  points: 1,
+  tolerance: { kind: 'relative', value: 0.01 },
+  pitfalls: [],
+})
 
 function definition(finds: Find[], physics: ProblemDefinition['physics']): ProblemDefinition {
   return {
@@ -19,7 +27,13 @@ function definition(finds: Find[], physics: ProblemDefinition['physics']): Probl
     convention: 'course',
     prompt: '',
     givens: [
-      { name: 'T1', label: 'temperature at the start of compression', unit: 'K', rule: { kind: 'range', min: 280, max: 320, step: 5 }, display: { decimals: 0 } },
+      {
+        name: 'T1',
+        label: 'temperature at the start of compression',
+        unit: 'K',
+        rule: { kind: 'range', min: 280, max: 320, step: 5 },
+        display: { decimals: 0 },
+      },
       { name: 'r', label: 'compression ratio', unit: '', rule: { kind: 'choice', values: [7, 8, 9] } },
     ],
     constraints: [],
@@ -28,10 +42,20 @@ function definition(finds: Find[], physics: ProblemDefinition['physics']): Probl
   }
 }
 
-const T1: DrawnGiven = { name: 'T1', label: 'temperature at the start of compression', value: 300, unit: 'K', text: '300 K' }
+const T1: DrawnGiven = {
+  name: 'T1',
+  label: 'temperature at the start of compression',
+  value: 300,
+  unit: 'K',
+  text: '300 K',
+}
 const r: DrawnGiven = { name: 'r', label: 'compression ratio', value: 8, unit: '', text: '8' }
 
-function variantOf(spec: Record<string, unknown>, givens: DrawnGiven[], key: (sol: Variant['solution']) => KeyEntry[]): Variant {
+function variantOf(
+  spec: Record<string, unknown>,
+  givens: DrawnGiven[],
+  key: (sol: Variant['solution']) => KeyEntry[],
+): Variant {
   const sol = solveBankSpec(spec)
   if (!sol.ok) throw new Error(sol.error.message)
   return { seed: 1, convention: sol.convention.name, givens, spec, solution: sol, key: key(sol) }
@@ -39,15 +63,36 @@ function variantOf(spec: Record<string, unknown>, givens: DrawnGiven[], key: (so
 
 /** {R, γ = 1.4} air, as in the air-standard Otto analysis of Çengel & Boles (from memory). */
 function ottoVariant(convention: Convention) {
-  const spec = { template: 'otto', convention, inputs: { gas: { R: '287 J/(kg K)', gamma: 1.4 }, p1: '100 kPa', T1: '300 K', compressionRatio: 8, heatIn: '800 kJ/kg' } }
-  const finds = [find('eta', 'Thermal efficiency', '', { kind: 'output', path: 'totals.efficiency' }), find('wnet', 'Net work', 'kJ/kg', { kind: 'output', path: 'totals.netWork' }), find('etaPct', 'Efficiency in per cent', '%', { kind: 'expression', expression: 'eta * 100' })]
+  const spec = {
+    template: 'otto',
+    convention,
+    inputs: {
+      gas: { R: '287 J/(kg K)', gamma: 1.4 },
+      p1: '100 kPa',
+      T1: '300 K',
+      compressionRatio: 8,
+      heatIn: '800 kJ/kg',
+    },
+  }
+  const finds = [
+    find('eta', 'Thermal efficiency', '', { kind: 'output', path: 'totals.efficiency' }),
+    find('wnet', 'Net work', 'kJ/kg', { kind: 'output', path: 'totals.netWork' }),
+    find('etaPct', 'Efficiency in per cent', '%', { kind: 'expression', expression: 'eta * 100' }),
+  ]
   const def = definition(finds, { kind: 'template', template: 'otto', inputs: { T1: 'T1', compressionRatio: 'r' } })
   const variant = variantOf(spec, [T1, r], (sol) => {
     if ('devices' in sol) throw new Error('not an ideal-gas solution')
     const eta = sol.totals.efficiency!.value
     return [
       { name: 'eta', label: 'Thermal efficiency', value: eta, unit: '', points: 1, path: 'totals.efficiency' },
-      { name: 'wnet', label: 'Net work', value: sol.totals.netWork.value / 1000, unit: 'kJ/kg', points: 1, path: 'totals.netWork' },
+      {
+        name: 'wnet',
+        label: 'Net work',
+        value: sol.totals.netWork.value / 1000,
+        unit: 'kJ/kg',
+        points: 1,
+        path: 'totals.netWork',
+      },
       { name: 'etaPct', label: 'Efficiency in per cent', value: eta * 100, unit: '%', points: 1, path: null },
     ]
   })
@@ -66,7 +111,8 @@ const line = (ws: WorkedSolution, title: string, start: string) => {
   return l.tex
 }
 /** The number after the last "=" of a line (what a student reads as the result). */
-const lastNumber = (tex: string) => Number((tex.split('=').pop() ?? '').trim().split('\\,')[0]!.replace('\\times10^{', 'e').replace('}', ''))
+const lastNumber = (tex: string) =>
+  Number((tex.split('=').pop() ?? '').trim().split('\\,')[0]!.replace('\\times10^{', 'e').replace('}', ''))
 
 describe('workedSolution: Otto cycle, engineering convention', () => {
   const { variant, ws } = ottoVariant('engineering')
@@ -125,7 +171,9 @@ describe('workedSolution: Otto cycle, engineering convention', () => {
       const ds = line(ws, title, '\\Delta s')
       expect(Math.abs(lastNumber(ds) - st.dS.value / 1000)).toBeLessThan(Math.abs(st.dS.value / 1000) * 1e-3 + 1e-9)
     })
-    expect(line(ws, 'Step 2 → 3', 'Q_{23} = \\Delta u')).toContain(`= ${p4(sol.steps[1]!.q.value / 1000)}\\,\\mathrm{kJ}/\\mathrm{kg}`)
+    expect(line(ws, 'Step 2 → 3', 'Q_{23} = \\Delta u')).toContain(
+      `= ${p4(sol.steps[1]!.q.value / 1000)}\\,\\mathrm{kJ}/\\mathrm{kg}`,
+    )
     // Isochoric: no boundary work; isentropic: no heat (Çengel & Boles, Otto cycle, from memory).
     expect(line(ws, 'Step 2 → 3', 'w_{\\mathrm{by}}')).toBe('w_{\\mathrm{by}} = 0')
     expect(line(ws, 'Step 1 → 2', 'Q_{12}')).toBe('Q_{12} = 0')
@@ -141,13 +189,19 @@ describe('workedSolution: Otto cycle, engineering convention', () => {
     expect(lastNumber(formula)).toBe(Number(p4(closedForm)))
     expect(formula).toContain('(8.000)^{1 - 1.400}')
     // Carnot bound between the extreme temperatures, for comparison.
-    expect(lastNumber(line(ws, 'Cycle totals', '\\eta_{\\mathrm{Carnot}}'))).toBe(Number(p4(1 - sol.totals.Tmin.value / sol.totals.Tmax.value)))
+    expect(lastNumber(line(ws, 'Cycle totals', '\\eta_{\\mathrm{Carnot}}'))).toBe(
+      Number(p4(1 - sol.totals.Tmin.value / sol.totals.Tmax.value)),
+    )
   })
 
   test('Q_in, Q_out and W_net are the solution totals', () => {
     expect(lastNumber(line(ws, 'Cycle totals', 'Q_{\\mathrm{in}} = '))).toBe(Number(p4(sol.totals.heatIn.value / 1000)))
-    expect(lastNumber(line(ws, 'Cycle totals', 'Q_{\\mathrm{out}} = '))).toBe(Number(p4(sol.totals.heatOut.value / 1000)))
-    expect(lastNumber(line(ws, 'Cycle totals', 'W_{\\mathrm{net}} = '))).toBe(Number(p4(sol.totals.netWork.value / 1000)))
+    expect(lastNumber(line(ws, 'Cycle totals', 'Q_{\\mathrm{out}} = '))).toBe(
+      Number(p4(sol.totals.heatOut.value / 1000)),
+    )
+    expect(lastNumber(line(ws, 'Cycle totals', 'W_{\\mathrm{net}} = '))).toBe(
+      Number(p4(sol.totals.netWork.value / 1000)),
+    )
   })
 
   test('the key: each find with its value and unit; an expression find with its numbers', () => {
@@ -155,7 +209,9 @@ describe('workedSolution: Otto cycle, engineering convention', () => {
     expect(key[0]!.tex).toBe(`\\eta = ${p4(variant.key[0]!.value)}`)
     expect(key[1]!.tex).toBe(`W_{\\text{net}} = ${p4(variant.key[1]!.value)}\\,\\mathrm{kJ}/\\mathrm{kg}`)
     expect(key[1]!.note).toBe('Net work (1 pt)')
-    expect(key[2]!.tex).toBe(`\\eta_{\\text{pct}} = \\eta\\cdot100 = \\left(${p4(variant.key[0]!.value)}\\right)\\cdot100 = ${p4(variant.key[2]!.value)}\\,\\%`)
+    expect(key[2]!.tex).toBe(
+      `\\eta_{\\text{pct}} = \\eta\\cdot100 = \\left(${p4(variant.key[0]!.value)}\\right)\\cdot100 = ${p4(variant.key[2]!.value)}\\,\\%`,
+    )
     for (const l of key) expect(l.note).not.toMatch(/totals\./)
   })
 
@@ -163,9 +219,13 @@ describe('workedSolution: Otto cycle, engineering convention', () => {
     const html = renderWorkedSolution(ws)
     const formulas = ws.sections.flatMap((s) => s.lines).filter((l) => l.tex !== '').length
     expect(formulas).toBeGreaterThan(20)
-    expect(html.match(/<span class="worked-math"><span class="katex"><span class="katex-mathml"><math/g)).toHaveLength(formulas)
+    expect(html.match(/<span class="worked-math"><span class="katex"><span class="katex-mathml"><math/g)).toHaveLength(
+      formulas,
+    )
     // Lines of words only are text, so they wrap.
-    expect(html).toContain('<li><span class="worked-note">Values per unit amount; a negative heat leaves the system.</span></li>')
+    expect(html).toContain(
+      '<li><span class="worked-note">Values per unit amount; a negative heat leaves the system.</span></li>',
+    )
     expect(html).not.toContain('katex-error')
     expect(html).toContain('<h3>Cycle totals</h3>')
   })
@@ -192,9 +252,26 @@ describe('workedSolution: chemistry convention', () => {
 describe('workedSolution: Rankine cycle', () => {
   // Çengel & Boles, Example 10-1 (simple ideal Rankine cycle, 3 MPa / 350 °C / 75 kPa), from
   // memory: x4 ≈ 0.886, η ≈ 26.0 %.
-  const spec = { template: 'rankine', convention: 'engineering', inputs: { boilerPressure: '3 MPa', condenserPressure: '75 kPa', turbineInletTemperature: '350 °C' } }
-  const def = definition([find('eta', 'Thermal efficiency', '', { kind: 'output', path: 'totals.efficiency' })], { kind: 'template', template: 'rankine', inputs: {} })
-  const variant = variantOf(spec, [], (sol) => [{ name: 'eta', label: 'Thermal efficiency', value: (sol.totals.efficiency as { value: number }).value, unit: '', points: 1, path: 'totals.efficiency' }])
+  const spec = {
+    template: 'rankine',
+    convention: 'engineering',
+    inputs: { boilerPressure: '3 MPa', condenserPressure: '75 kPa', turbineInletTemperature: '350 °C' },
+  }
+  const def = definition([find('eta', 'Thermal efficiency', '', { kind: 'output', path: 'totals.efficiency' })], {
+    kind: 'template',
+    template: 'rankine',
+    inputs: {},
+  })
+  const variant = variantOf(spec, [], (sol) => [
+    {
+      name: 'eta',
+      label: 'Thermal efficiency',
+      value: (sol.totals.efficiency as { value: number }).value,
+      unit: '',
+      points: 1,
+      path: 'totals.efficiency',
+    },
+  ])
   const sol = variant.solution
   if (!('devices' in sol)) throw new Error('unexpected')
   const ws = workedSolution(variant, def)
@@ -211,9 +288,15 @@ describe('workedSolution: Rankine cycle', () => {
   })
 
   test('devices with enthalpy differences, efficiency and back work ratio from the solution', () => {
-    expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = h_{3} - h_{4}'))).toBe(Number(p4(sol.totals.turbineWork.value / 1000)))
-    expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{pump,in}} = h_{2} - h_{1}'))).toBe(Number(p4(sol.totals.pumpWork.value / 1000)))
-    expect(lastNumber(line(ws, 'Devices', 'Q_{\\mathrm{boiler}} = h_{3} - h_{2}'))).toBe(Number(p4(sol.totals.heatIn.value / 1000)))
+    expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = h_{3} - h_{4}'))).toBe(
+      Number(p4(sol.totals.turbineWork.value / 1000)),
+    )
+    expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{pump,in}} = h_{2} - h_{1}'))).toBe(
+      Number(p4(sol.totals.pumpWork.value / 1000)),
+    )
+    expect(lastNumber(line(ws, 'Devices', 'Q_{\\mathrm{boiler}} = h_{3} - h_{2}'))).toBe(
+      Number(p4(sol.totals.heatIn.value / 1000)),
+    )
     expect(lastNumber(line(ws, 'Cycle totals', '\\eta = '))).toBe(Number(p4(sol.totals.efficiency.value)))
     expect(lastNumber(line(ws, 'Cycle totals', '\\mathrm{bwr}'))).toBe(Number(p4(sol.totals.backWorkRatio.value)))
   })
@@ -228,36 +311,120 @@ describe('workedSolution: Rankine cycle', () => {
 
 describe('workedSolution: other cycles render without TeX errors', () => {
   test.each([
-    ['brayton with component efficiencies', { template: 'brayton', inputs: { gas: 'air', p1: '100 kPa', T1: '300 K', pressureRatio: 8, turbineInletT: '1300 K', compressorEfficiency: 0.8, turbineEfficiency: 0.85 } }],
-    ['stirling, chemistry', { template: 'stirling', convention: 'chemistry', inputs: { gas: 'monatomic', amount: '0.1 mol', Th: '700 K', Tc: '300 K', p1: '500 kPa', compressionRatio: 3 } }],
-    ['carnot refrigerator', { template: 'carnot-refrigerator', inputs: { gas: 'air', Th: '35 °C', Tc: '-5 °C', p1: '100 kPa', expansionRatio: 1.5 } }],
-    ['regenerative brayton, NASA gas', { template: 'brayton-regenerative', inputs: { gas: 'nasa:dry-air', p1: '100 kPa', T1: '300 K', pressureRatio: 6, turbineInletT: '1200 K', regeneratorEffectiveness: 0.8, amount: '1 kg' } }],
-    ['general polytropic cycle', { convention: 'chemistry', cycle: { gas: { basis: 'mole', cv: '12.47 J/(mol K)' }, amount: '2 mol', states: [{ name: 'A', p: '1 bar', V: '40 L' }, { name: 'B', p: '3 bar' }, { name: 'C', V: '40 L' }], steps: [{ process: 'polytropic', n: 1.3 }, { process: 'isobaric' }, { process: 'isochoric' }] } }],
-    ['rankine with reheat', { template: 'rankine-reheat', inputs: { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C', reheatPressure: '4 MPa', reheatTemperature: '600 °C' } }],
+    [
+      'brayton with component efficiencies',
+      {
+        template: 'brayton',
+        inputs: {
+          gas: 'air',
+          p1: '100 kPa',
+          T1: '300 K',
+          pressureRatio: 8,
+          turbineInletT: '1300 K',
+          compressorEfficiency: 0.8,
+          turbineEfficiency: 0.85,
+        },
+      },
+    ],
+    [
+      'stirling, chemistry',
+      {
+        template: 'stirling',
+        convention: 'chemistry',
+        inputs: { gas: 'monatomic', amount: '0.1 mol', Th: '700 K', Tc: '300 K', p1: '500 kPa', compressionRatio: 3 },
+      },
+    ],
+    [
+      'carnot refrigerator',
+      {
+        template: 'carnot-refrigerator',
+        inputs: { gas: 'air', Th: '35 °C', Tc: '-5 °C', p1: '100 kPa', expansionRatio: 1.5 },
+      },
+    ],
+    [
+      'regenerative brayton, NASA gas',
+      {
+        template: 'brayton-regenerative',
+        inputs: {
+          gas: 'nasa:dry-air',
+          p1: '100 kPa',
+          T1: '300 K',
+          pressureRatio: 6,
+          turbineInletT: '1200 K',
+          regeneratorEffectiveness: 0.8,
+          amount: '1 kg',
+        },
+      },
+    ],
+    [
+      'general polytropic cycle',
+      {
+        convention: 'chemistry',
+        cycle: {
+          gas: { basis: 'mole', cv: '12.47 J/(mol K)' },
+          amount: '2 mol',
+          states: [
+            { name: 'A', p: '1 bar', V: '40 L' },
+            { name: 'B', p: '3 bar' },
+            { name: 'C', V: '40 L' },
+          ],
+          steps: [{ process: 'polytropic', n: 1.3 }, { process: 'isobaric' }, { process: 'isochoric' }],
+        },
+      },
+    ],
+    [
+      'rankine with reheat',
+      {
+        template: 'rankine-reheat',
+        inputs: {
+          boilerPressure: '15 MPa',
+          condenserPressure: '10 kPa',
+          turbineInletTemperature: '600 °C',
+          reheatPressure: '4 MPa',
+          reheatTemperature: '600 °C',
+        },
+      },
+    ],
   ])('%s', (_name, spec) => {
     const variant = variantOf(spec, [], () => [])
     const ws = workedSolution(variant, definition([], { kind: 'template', template: 'x', inputs: {} }))
     const html = renderWorkedSolution(ws)
     expect(html).not.toContain('katex-error')
     expect(html).not.toMatch(/NaN|Infinity|undefined/)
-    expect(html.match(/<span class="worked-math"><span class="katex"><span class="katex-mathml"><math/g)?.length).toBe(ws.sections.reduce((n, s) => n + s.lines.filter((l) => l.tex !== '').length, 0))
+    expect(html.match(/<span class="worked-math"><span class="katex"><span class="katex-mathml"><math/g)?.length).toBe(
+      ws.sections.reduce((n, s) => n + s.lines.filter((l) => l.tex !== '').length, 0),
+    )
   })
 
   test('polytropic: n from the states agrees with the n given', () => {
-    const spec = { cycle: { gas: { basis: 'mole', cv: '12.47 J/(mol K)' }, states: [{ p: '1 bar', V: '40 L' }, { p: '3 bar' }, { V: '40 L' }], amount: '2 mol', steps: [{ process: 'polytropic', n: 1.3 }, { process: 'isobaric' }, { process: 'isochoric' }] } }
-    const ws = workedSolution(variantOf(spec, [], () => []), definition([], { kind: 'cycle', cycle: {} }))
+    const spec = {
+      cycle: {
+        gas: { basis: 'mole', cv: '12.47 J/(mol K)' },
+        states: [{ p: '1 bar', V: '40 L' }, { p: '3 bar' }, { V: '40 L' }],
+        amount: '2 mol',
+        steps: [{ process: 'polytropic', n: 1.3 }, { process: 'isobaric' }, { process: 'isochoric' }],
+      },
+    }
+    const ws = workedSolution(
+      variantOf(spec, [], () => []),
+      definition([], { kind: 'cycle', cycle: {} }),
+    )
     expect(lastNumber(line(ws, 'Step 1 → 2', 'n = '))).toBe(1.3)
   })
 })
 
 describe('workedSolution: Rankine devices with reheat and an open feedwater heater', () => {
   const examples = join(import.meta.dirname, '../../../docs/examples')
-  const readExample = (name: string) => JSON.parse(readFileSync(join(examples, `${name}.json`), 'utf8')) as Record<string, unknown>
+  const readExample = (name: string) =>
+    JSON.parse(readFileSync(join(examples, `${name}.json`), 'utf8')) as Record<string, unknown>
   const rankineOf = (spec: Record<string, unknown>) => {
     const variant = variantOf(spec, [], () => [])
     const sol = variant.solution
     if (!('devices' in sol)) throw new Error('not a Rankine solution')
-    return { sol, ws: workedSolution(variant, definition([], { kind: 'template', template: String(spec.template), inputs: {} })) }
+    return {
+      sol,
+      ws: workedSolution(variant, definition([], { kind: 'template', template: String(spec.template), inputs: {} })),
+    }
   }
   const fourSf = (x: number) => Number(x.toPrecision(4))
   const numbersIn = (tex: string) => (tex.match(/-?\d+(?:\.\d+)?/g) ?? []).map(Number)
@@ -268,13 +435,21 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
    * and with the solver's own device magnitude, all to 4 significant figures.
    */
   type DeviceRow = [start: string, a: string, b: string, bled: boolean, device: string]
-  function checkDevice(sol: ReturnType<typeof rankineOf>['sol'], ws: WorkedSolution, [start, a, b, bled, device]: DeviceRow) {
+  function checkDevice(
+    sol: ReturnType<typeof rankineOf>['sol'],
+    ws: WorkedSolution,
+    [start, a, b, bled, device]: DeviceRow,
+  ) {
     const tex = line(ws, 'Devices', start)
     const sa = sol.states.find((s) => s.name === a)!
     const sb = sol.states.find((s) => s.name === b)!
     const m = bled ? 1 - sol.totals.bleedFraction!.value : 1
     const numeric = tex.split(' = ')[2]!
-    expect(numbersIn(numeric)).toEqual([...(bled ? [fourSf(m)] : []), fourSf(sa.h.value / 1000), fourSf(sb.h.value / 1000)])
+    expect(numbersIn(numeric)).toEqual([
+      ...(bled ? [fourSf(m)] : []),
+      fourSf(sa.h.value / 1000),
+      fourSf(sb.h.value / 1000),
+    ])
     const recomputed = (m * (sa.h.value - sb.h.value)) / 1000
     expect(lastNumber(tex)).toBe(fourSf(recomputed))
     const d = sol.devices.find((x) => x.device === device)!
@@ -283,12 +458,21 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
   }
 
   /** η from the device lines as printed (4 s.f. each) agrees with the solver's η to rounding. */
-  function checkEfficiency(sol: ReturnType<typeof rankineOf>['sol'], ws: WorkedSolution, works: number[], pumps: number[], heats: number[]) {
+  function checkEfficiency(
+    sol: ReturnType<typeof rankineOf>['sol'],
+    ws: WorkedSolution,
+    works: number[],
+    pumps: number[],
+    heats: number[],
+  ) {
     const wNet = works.reduce((x, y) => x + y, 0) - pumps.reduce((x, y) => x + y, 0)
     const qIn = heats.reduce((x, y) => x + y, 0)
     expect(Math.abs(wNet / qIn - sol.totals.efficiency.value)).toBeLessThan(1e-3 * sol.totals.efficiency.value)
     const eta = line(ws, 'Cycle totals', '\\eta = \\frac{W_{\\mathrm{net,out}}}{Q_{\\mathrm{in}}}')
-    expect(numbersIn(eta.split(' = ')[2]!)).toEqual([fourSf(sol.totals.netWork.value / 1000), fourSf(sol.totals.heatIn.value / 1000)])
+    expect(numbersIn(eta.split(' = ')[2]!)).toEqual([
+      fourSf(sol.totals.netWork.value / 1000),
+      fourSf(sol.totals.heatIn.value / 1000),
+    ])
     expect(lastNumber(eta)).toBe(fourSf(sol.totals.netWork.value / sol.totals.heatIn.value))
     expect(lastNumber(eta)).toBe(fourSf(sol.totals.efficiency.value))
   }
@@ -297,7 +481,13 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
     const { sol, ws } = rankineOf(readExample('rankine-reheat'))
 
     test('the example inputs are those of Çengel & Boles 7th ed. Example 10-4: 15 MPa, 600 °C, reheat at 4 MPa to 600 °C, 10 kPa', () => {
-      expect(readExample('rankine-reheat').inputs).toEqual({ boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C', reheatPressure: '4 MPa', reheatTemperature: '600 °C' })
+      expect(readExample('rankine-reheat').inputs).toEqual({
+        boilerPressure: '15 MPa',
+        condenserPressure: '10 kPa',
+        turbineInletTemperature: '600 °C',
+        reheatPressure: '4 MPa',
+        reheatTemperature: '600 °C',
+      })
     })
 
     test('textbook values (Çengel & Boles 7th ed., Example 10-4, from memory: x6 ≈ 0.896, η ≈ 45.0 %)', () => {
@@ -315,8 +505,12 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
         ['Q_{\\mathrm{cond,out}} = h_{6} - h_{1}', '6', '1', false, 'condenser'],
       ]
       const [pump, boiler, hp, reheat, lp] = rows.map((row) => checkDevice(sol, ws, row))
-      expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = W_{\\mathrm{HP,out}} + W_{\\mathrm{LP,out}}'))).toBe(fourSf(sol.totals.turbineWork.value / 1000))
-      expect(lastNumber(line(ws, 'Devices', 'Q_{\\mathrm{in}} = Q_{\\mathrm{boiler}} + Q_{\\mathrm{reheat}}'))).toBe(fourSf(sol.totals.heatIn.value / 1000))
+      expect(
+        lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = W_{\\mathrm{HP,out}} + W_{\\mathrm{LP,out}}')),
+      ).toBe(fourSf(sol.totals.turbineWork.value / 1000))
+      expect(lastNumber(line(ws, 'Devices', 'Q_{\\mathrm{in}} = Q_{\\mathrm{boiler}} + Q_{\\mathrm{reheat}}'))).toBe(
+        fourSf(sol.totals.heatIn.value / 1000),
+      )
       checkEfficiency(sol, ws, [hp!, lp!], [pump!], [boiler!, reheat!])
     })
 
@@ -331,7 +525,12 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
     const h = (name: string) => sol.states.find((s) => s.name === name)!.h.value
 
     test('the example inputs are those of Çengel & Boles 7th ed. Example 10-5: 15 MPa, 600 °C, bleed at 1.2 MPa, 10 kPa', () => {
-      expect(readExample('rankine-regenerative').inputs).toEqual({ boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C', feedwaterHeaterPressure: '1.2 MPa' })
+      expect(readExample('rankine-regenerative').inputs).toEqual({
+        boilerPressure: '15 MPa',
+        condenserPressure: '10 kPa',
+        turbineInletTemperature: '600 °C',
+        feedwaterHeaterPressure: '1.2 MPa',
+      })
     })
 
     test('textbook values (Çengel & Boles 7th ed., Example 10-5, from memory: y ≈ 0.227, η ≈ 46.3 %)', () => {
@@ -342,7 +541,12 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
     test('the y line solves the heater’s balance y h6 + (1 − y) h2 = h3', () => {
       expect(line(ws, 'Devices', 'y\\,h_{6} + (1 - y)\\,h_{2} = h_{3}')).toBe('y\\,h_{6} + (1 - y)\\,h_{2} = h_{3}')
       const yLine = line(ws, 'Devices', 'y = \\frac{h_{3} - h_{2}}{h_{6} - h_{2}}')
-      expect(numbersIn(yLine.split(' = ')[2]!.replace(/\\frac/, ''))).toEqual([fourSf(h('3') / 1000), fourSf(h('2') / 1000), fourSf(h('6') / 1000), fourSf(h('2') / 1000)])
+      expect(numbersIn(yLine.split(' = ')[2]!.replace(/\\frac/, ''))).toEqual([
+        fourSf(h('3') / 1000),
+        fourSf(h('2') / 1000),
+        fourSf(h('6') / 1000),
+        fourSf(h('2') / 1000),
+      ])
       const shownY = lastNumber(yLine)
       expect(shownY).toBe(fourSf(y))
       // The printed y (4 s.f.) closes the energy balance to its own rounding.
@@ -362,8 +566,12 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
         ['Q_{\\mathrm{cond,out}} = (1 - y)(h_{7} - h_{1})', '7', '1', true, 'condenser'],
       ]
       const [p1, p2, boiler, hp, lp] = rows.map((row) => checkDevice(sol, ws, row))
-      expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{pump,in}} = W_{\\mathrm{pI,in}} + W_{\\mathrm{pII,in}}'))).toBe(fourSf(sol.totals.pumpWork.value / 1000))
-      expect(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = W_{\\mathrm{HP,out}} + W_{\\mathrm{LP,out}}'))).toBe(fourSf(sol.totals.turbineWork.value / 1000))
+      expect(
+        lastNumber(line(ws, 'Devices', 'W_{\\mathrm{pump,in}} = W_{\\mathrm{pI,in}} + W_{\\mathrm{pII,in}}')),
+      ).toBe(fourSf(sol.totals.pumpWork.value / 1000))
+      expect(
+        lastNumber(line(ws, 'Devices', 'W_{\\mathrm{turb,out}} = W_{\\mathrm{HP,out}} + W_{\\mathrm{LP,out}}')),
+      ).toBe(fourSf(sol.totals.turbineWork.value / 1000))
       checkEfficiency(sol, ws, [hp!, lp!], [p1!, p2!], [boiler!])
     })
 
@@ -371,12 +579,24 @@ describe('workedSolution: Rankine devices with reheat and an open feedwater heat
       const chem = rankineOf({ ...readExample('rankine-regenerative'), convention: 'chemistry' })
       const tex = line(chem.ws, 'Devices', 'w_{\\mathrm{pI,in}} = (1 - y)(h_{2} - h_{1})')
       expect(lastNumber(tex)).toBe(lastNumber(line(ws, 'Devices', 'W_{\\mathrm{pI,in}}')))
-      expect(line(chem.ws, 'Cycle totals', '\\eta = \\frac{w_{\\mathrm{net,out}}}{q_{\\mathrm{in}}}')).toContain(`= ${p4(sol.totals.efficiency.value)}`)
+      expect(line(chem.ws, 'Cycle totals', '\\eta = \\frac{w_{\\mathrm{net,out}}}{q_{\\mathrm{in}}}')).toContain(
+        `= ${p4(sol.totals.efficiency.value)}`,
+      )
     })
   })
 
   test('reheat and a feedwater heater together, bleed above the reheat pressure: the reheater carries 1 − y (solver totals only, no textbook case)', () => {
-    const { sol, ws } = rankineOf({ template: 'rankine', inputs: { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C', feedwaterHeaterPressure: '4 MPa', reheatPressure: '1 MPa', reheatTemperature: '500 °C' } })
+    const { sol, ws } = rankineOf({
+      template: 'rankine',
+      inputs: {
+        boilerPressure: '15 MPa',
+        condenserPressure: '10 kPa',
+        turbineInletTemperature: '600 °C',
+        feedwaterHeaterPressure: '4 MPa',
+        reheatPressure: '1 MPa',
+        reheatTemperature: '500 °C',
+      },
+    })
     const rows: DeviceRow[] = [
       ['W_{\\mathrm{pI,in}} = (1 - y)(h_{2} - h_{1})', '2', '1', true, 'pump I (condensate)'],
       ['W_{\\mathrm{pII,in}} = h_{4} - h_{3}', '4', '3', false, 'pump II (feedwater)'],
@@ -407,14 +627,23 @@ function textOutsideMath(html: string): string {
     }
     const [, closing, tag, attrs, selfClosing] = m
     if (closing) stack.pop()
-    else if (!selfClosing && !['br', 'img', 'hr', 'input', 'meta', 'link'].includes(tag!.toLowerCase())) stack.push(/\bclass="[^"]*\bkatex\b(?!-)/.test(attrs!))
+    else if (!selfClosing && !['br', 'img', 'hr', 'input', 'meta', 'link'].includes(tag!.toLowerCase()))
+      stack.push(/\bclass="[^"]*\bkatex\b(?!-)/.test(attrs!))
   }
-  return out.join(' ').replace(/&amp;/g, '&').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&#39;/g, "'")
+  return out
+    .join(' ')
+    .replace(/&amp;/g, '&')
+    .replace(/&lt;/g, '<')
+    .replace(/&gt;/g, '>')
+    .replace(/&quot;/g, '"')
+    .replace(/&#39;/g, "'")
 }
 
 /** The TeX of every formula in rendered HTML (KaTeX keeps it in the MathML annotation). */
 function texOf(html: string): string[] {
-  return [...html.matchAll(/<annotation encoding="application\/x-tex">([^<]*)<\/annotation>/g)].map((m) => m[1]!.replace(/&amp;/g, '&'))
+  return [...html.matchAll(/<annotation encoding="application\/x-tex">([^<]*)<\/annotation>/g)].map((m) =>
+    m[1]!.replace(/&amp;/g, '&'),
+  )
 }
 
 describe('worked solutions of the demo problems, as students read them', () => {
@@ -446,7 +675,8 @@ describe('worked solutions of the demo problems, as students read them', () => {
       if (!drawn.ok) throw new Error(drawn.error.message)
       return texOf(renderWorkedSolution(workedSolution(drawn.variant, def)))
     }
-    const answers = (lines: string[]) => lines.filter((l) => /^(\\eta|W_\{\\text\{net\}\}|w_\{\\text\{net\}\}) = /.test(l))
+    const answers = (lines: string[]) =>
+      lines.filter((l) => /^(\\eta|W_\{\\text\{net\}\}|w_\{\\text\{net\}\}) = /.test(l))
     expect(answers(texFor(otto, 'engineering')).some((l) => l.startsWith('W_{\\text{net}} = '))).toBe(true)
     expect(answers(texFor(otto, 'chemistry')).some((l) => l.startsWith('w_{\\text{net}} = '))).toBe(true)
     const d = texFor(diesel, 'engineering')
@@ -455,13 +685,22 @@ describe('worked solutions of the demo problems, as students read them', () => {
   })
 
   test('an author label with an identifier is typeset in the note', () => {
-    const html = renderWorkedSolution({ convention: 'engineering', sections: [{ title: 'Answers', lines: [{ tex: 'x = 1', note: 'Heat taken in at T_H, per mole' }] }] })
+    const html = renderWorkedSolution({
+      convention: 'engineering',
+      sections: [{ title: 'Answers', lines: [{ tex: 'x = 1', note: 'Heat taken in at T_H, per mole' }] }],
+    })
     expect(textOutsideMath(html)).not.toContain('T_H')
     expect(texOf(html)).toContain('T_{H}')
   })
 
   test('an expression find is shown with typeset names, not as code', () => {
-    const def: ProblemDefinition = { ...DEMO_PROBLEMS[3]!.definition, finds: [...DEMO_PROBLEMS[3]!.definition.finds, find('etaPct', 'Efficiency in per cent', '', { kind: 'expression', expression: 'eta * 100' })] }
+    const def: ProblemDefinition = {
+      ...DEMO_PROBLEMS[3]!.definition,
+      finds: [
+        ...DEMO_PROBLEMS[3]!.definition.finds,
+        find('etaPct', 'Efficiency in per cent', '', { kind: 'expression', expression: 'eta * 100' }),
+      ],
+    }
     const drawn = drawVariant(def, 3, { convention: 'engineering' })
     if (!drawn.ok) throw new Error(drawn.error.message)
     const html = renderWorkedSolution(workedSolution(drawn.variant, def))
@@ -475,25 +714,31 @@ describe('worked solutions of the demo problems, as students read them', () => {
 // A find that states its sense: in a course whose convention signs the solver's quantity the
 // other way, the answer line names the solver's quantity negated, so the symbol never
 // contradicts the sign (for a cycle, work done by the gas = −work done on it: common practice).
-test.each(['engineering', 'chemistry'] as const)('Otto demo, %s course: net work stated "by the system" reads with the sign the symbol has', (convention) => {
-  const demo = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
-  const def: ProblemDefinition = { ...demo, finds: demo.finds.map((f) => (f.name === 'wNet' ? { ...f, sense: 'work-by-system' as const } : f)) }
-  const drawn = drawVariant(def, 7, { convention })
-  if (!drawn.ok) throw new Error(drawn.error.message)
-  const key = drawn.variant.key.find((k) => k.name === 'wNet')!
-  expect(key.value).toBeGreaterThan(0)
-  const answers = workedSolution(drawn.variant, def).sections.find((s) => s.title === 'Answers')!
-  const line = answers.lines.find((l) => l.note?.startsWith('Net work'))!
-  expect(line.note).toContain('work done by the system')
-  if (convention === 'chemistry') {
-    // w is work done on the gas here: the positive key is −w_net.
-    expect(key.flipped).toBe(true)
-    expect(line.tex).toMatch(/^-w_/)
-    expect(line.note).toContain('minus the')
-  } else {
-    // W is work done by the gas here: no negation.
-    expect(key.flipped).toBeUndefined()
-    expect(line.tex).toMatch(/^W_/)
-    expect(line.tex).not.toMatch(/^-/)
-  }
-})
+test.each(['engineering', 'chemistry'] as const)(
+  'Otto demo, %s course: net work stated "by the system" reads with the sign the symbol has',
+  (convention) => {
+    const demo = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.definition
+    const def: ProblemDefinition = {
+      ...demo,
+      finds: demo.finds.map((f) => (f.name === 'wNet' ? { ...f, sense: 'work-by-system' as const } : f)),
+    }
+    const drawn = drawVariant(def, 7, { convention })
+    if (!drawn.ok) throw new Error(drawn.error.message)
+    const key = drawn.variant.key.find((k) => k.name === 'wNet')!
+    expect(key.value).toBeGreaterThan(0)
+    const answers = workedSolution(drawn.variant, def).sections.find((s) => s.title === 'Answers')!
+    const line = answers.lines.find((l) => l.note?.startsWith('Net work'))!
+    expect(line.note).toContain('work done by the system')
+    if (convention === 'chemistry') {
+      // w is work done on the gas here: the positive key is −w_net.
+      expect(key.flipped).toBe(true)
+      expect(line.tex).toMatch(/^-w_/)
+      expect(line.note).toContain('minus the')
+    } else {
+      // W is work done by the gas here: no negation.
+      expect(key.flipped).toBeUndefined()
+      expect(line.tex).toMatch(/^W_/)
+      expect(line.tex).not.toMatch(/^-/)
+    }
+  },
+)

@@ -118,11 +118,17 @@ function conventionSection(convention: Convention, flow: boolean): { text: strin
   const lines: WorkedLine[] =
     convention === 'chemistry'
       ? [
-          { tex: '\\Delta U = q + w', note: 'chemistry convention: q is the heat into the system, w the work done ON the system (positive when the gas is compressed)' },
+          {
+            tex: '\\Delta U = q + w',
+            note: 'chemistry convention: q is the heat into the system, w the work done ON the system (positive when the gas is compressed)',
+          },
           ...(flow ? [{ tex: '\\Delta h = q + w', note: 'steady flow: w is the shaft work done on the fluid' }] : []),
         ]
       : [
-          { tex: '\\Delta U = Q - W', note: 'engineering convention: Q is the heat into the system, W the work done BY the system (positive when the gas expands)' },
+          {
+            tex: '\\Delta U = Q - W',
+            note: 'engineering convention: Q is the heat into the system, W the work done BY the system (positive when the gas expands)',
+          },
           ...(flow ? [{ tex: '\\Delta h = Q - W', note: 'steady flow: W is the shaft work done by the fluid' }] : []),
         ]
   lines.push({ tex: '', note: 'Values per unit amount; a negative heat leaves the system.' })
@@ -205,7 +211,10 @@ function entropyLine(ctx: Ctx, a: FormattedState, b: FormattedState, ds: number)
       note: 'entropy change of an ideal gas with constant specific heats',
     }
   }
-  return { tex: `\\Delta s = s_{${nb}} - s_{${na}} = ${q4(u.s(shown), u.entropy)}`, note: 'entropy from the gas tables (NASA polynomials)' }
+  return {
+    tex: `\\Delta s = s_{${nb}} - s_{${na}} = ${q4(u.s(shown), u.entropy)}`,
+    note: 'entropy from the gas tables (NASA polynomials)',
+  }
 }
 
 function stepSection(ctx: Ctx, st: FormattedStep, k: number): WorkedSection {
@@ -221,7 +230,8 @@ function stepSection(ctx: Ctx, st: FormattedStep, k: number): WorkedSection {
   const E = (x: number) => q4(u.e(snap(x, 1e3)), u.energy)
   const wBySym = flow ? 'w_{\\mathrm{shaft,by}}' : 'w_{\\mathrm{by}}'
   const lines: WorkedLine[] = []
-  const heat = (relation: string, note?: string) => lines.push({ tex: `${sym.Q(ij)} = ${relation} = ${E(st.q.value)}`, ...(note ? { note } : {}) })
+  const heat = (relation: string, note?: string) =>
+    lines.push({ tex: `${sym.Q(ij)} = ${relation} = ${E(st.q.value)}`, ...(note ? { note } : {}) })
   const balanceName = flow ? 'h' : 'u'
   const balanceDelta = flow ? st.dH.value : st.dU.value
 
@@ -238,7 +248,10 @@ function stepSection(ctx: Ctx, st: FormattedStep, k: number): WorkedSection {
       break
     case 'isobaric':
       if (!flow) {
-        lines.push({ tex: `${wBySym} = p\\,(v_{${nb}} - v_{${na}}) = (${pressureTex(a.p.value)})(${n4(b.v.value)} - ${n4(a.v.value)})\\,${unitToTex(u.volume)} = ${E(wBy)}`, note: 'constant pressure: boundary work p Δv' })
+        lines.push({
+          tex: `${wBySym} = p\\,(v_{${nb}} - v_{${na}}) = (${pressureTex(a.p.value)})(${n4(b.v.value)} - ${n4(a.v.value)})\\,${unitToTex(u.volume)} = ${E(wBy)}`,
+          note: 'constant pressure: boundary work p Δv',
+        })
       } else {
         lines.push({ tex: `${wBySym} = 0`, note: 'a heat exchanger or combustor has no shaft work' })
       }
@@ -248,7 +261,10 @@ function stepSection(ctx: Ctx, st: FormattedStep, k: number): WorkedSection {
     case 'isothermal': {
       const ratio = flow ? a.p.value / b.p.value : b.v.value / a.v.value
       const rel = flow ? `R\\,T\\ln\\frac{p_{${na}}}{p_{${nb}}}` : `R\\,T\\ln\\frac{v_{${nb}}}{v_{${na}}}`
-      lines.push({ tex: `${wBySym} = ${rel} = (${ctx.R})(${q4(a.T.value, 'K')})\\ln(${n4(ratio)}) = ${E(wBy)}`, note: 'isothermal ideal gas' })
+      lines.push({
+        tex: `${wBySym} = ${rel} = (${ctx.R})(${q4(a.T.value, 'K')})\\ln(${n4(ratio)}) = ${E(wBy)}`,
+        note: 'isothermal ideal gas',
+      })
       heat(wBySym, `ideal gas at constant T: Δ${balanceName} = 0`)
       break
     }
@@ -264,20 +280,32 @@ function stepSection(ctx: Ctx, st: FormattedStep, k: number): WorkedSection {
         })
       }
       lines.push({ tex: deltaLine(ctx, balanceName, a, b, balanceDelta) })
-      lines.push({ tex: `${wBySym} = -\\Delta ${balanceName} = ${E(wBy)}`, note: flow ? 'steady-flow energy balance with q = 0' : 'first law with q = 0' })
+      lines.push({
+        tex: `${wBySym} = -\\Delta ${balanceName} = ${E(wBy)}`,
+        note: flow ? 'steady-flow energy balance with q = 0' : 'first law with q = 0',
+      })
       break
     case 'polytropic': {
       const nExp = Math.log(b.p.value / a.p.value) / Math.log(a.v.value / b.v.value)
-      lines.push({ tex: `n = \\frac{\\ln(p_{${nb}}/p_{${na}})}{\\ln(v_{${na}}/v_{${nb}})} = \\frac{\\ln(${n4(b.p.value / a.p.value)})}{\\ln(${n4(a.v.value / b.v.value)})} = ${n4(nExp)}`, note: stepSpec?.n !== undefined ? `the problem gives n = ${stepSpec.n}` : 'from p vⁿ = constant' })
+      lines.push({
+        tex: `n = \\frac{\\ln(p_{${nb}}/p_{${na}})}{\\ln(v_{${na}}/v_{${nb}})} = \\frac{\\ln(${n4(b.p.value / a.p.value)})}{\\ln(${n4(a.v.value / b.v.value)})} = ${n4(nExp)}`,
+        note: stepSpec?.n !== undefined ? `the problem gives n = ${stepSpec.n}` : 'from p vⁿ = constant',
+      })
       if (Math.abs(nExp - 1) < 1e-9) {
-        lines.push({ tex: `${wBySym} = R\\,T\\ln\\frac{v_{${nb}}}{v_{${na}}} = ${E(wBy)}`, note: 'n = 1 is isothermal' })
+        lines.push({
+          tex: `${wBySym} = R\\,T\\ln\\frac{v_{${nb}}}{v_{${na}}} = ${E(wBy)}`,
+          note: 'n = 1 is isothermal',
+        })
       } else if (!flow) {
         lines.push({
           tex: `${wBySym} = \\frac{p_{${nb}}v_{${nb}} - p_{${na}}v_{${na}}}{1 - n} = \\frac{(${n4(b.p.value / 1000)})(${n4(b.v.value)}) - (${n4(a.p.value / 1000)})(${n4(a.v.value)})}{1 - ${n4(nExp)}} = ${E(wBy)}`,
           note: 'polytropic boundary work (p in kPa times v gives kJ per unit amount)',
         })
       } else {
-        lines.push({ tex: `${wBySym} = \\frac{n\\,(p_{${nb}}v_{${nb}} - p_{${na}}v_{${na}})}{1 - n} = ${E(wBy)}`, note: 'polytropic shaft work in steady flow' })
+        lines.push({
+          tex: `${wBySym} = \\frac{n\\,(p_{${nb}}v_{${nb}} - p_{${na}}v_{${na}})}{1 - n} = ${E(wBy)}`,
+          note: 'polytropic shaft work in steady flow',
+        })
       }
       lines.push({ tex: deltaLine(ctx, balanceName, a, b, balanceDelta) })
       heat(`\\Delta ${balanceName} + ${wBySym}`, 'first law')
@@ -292,9 +320,15 @@ function stepSection(ctx: Ctx, st: FormattedStep, k: number): WorkedSection {
       if (eta !== undefined && eta > 0) {
         if (compressor) {
           const wIn = -wBy
-          lines.push({ tex: `${sym.W('\\mathrm{in}')} = \\frac{${sym.W('s,\\mathrm{in}')}}{\\eta_c} = \\frac{${n4(u.e(wIn * eta))}}{${n4(eta)}} = ${E(wIn)}`, note: 'compressor: the actual work is the isentropic work divided by the efficiency' })
+          lines.push({
+            tex: `${sym.W('\\mathrm{in}')} = \\frac{${sym.W('s,\\mathrm{in}')}}{\\eta_c} = \\frac{${n4(u.e(wIn * eta))}}{${n4(eta)}} = ${E(wIn)}`,
+            note: 'compressor: the actual work is the isentropic work divided by the efficiency',
+          })
         } else {
-          lines.push({ tex: `${sym.W('\\mathrm{out}')} = \\eta_t\\,${sym.W('s,\\mathrm{out}')} = (${n4(eta)})(${n4(u.e(wBy / eta))}) = ${E(wBy)}`, note: 'turbine: the actual work is the efficiency times the isentropic work' })
+          lines.push({
+            tex: `${sym.W('\\mathrm{out}')} = \\eta_t\\,${sym.W('s,\\mathrm{out}')} = (${n4(eta)})(${n4(u.e(wBy / eta))}) = ${E(wBy)}`,
+            note: 'turbine: the actual work is the efficiency times the isentropic work',
+          })
         }
       }
       break
@@ -305,19 +339,30 @@ function stepSection(ctx: Ctx, st: FormattedStep, k: number): WorkedSection {
       lines.push({ tex: `${wBySym} = 0` })
       lines.push({ tex: deltaLine(ctx, kind, a, b, kind === 'u' ? st.dU.value : st.dH.value) })
       const partner = stepSpec?.partner
-      heat(`\\Delta ${kind}`, `internal heat exchange${partner !== undefined ? ` with step ${partner + 1}` : ''}: not counted as heat from or to the surroundings`)
-      if (stepSpec?.effectiveness !== undefined && stepSpec.effectiveness < 1) lines.push({ tex: `\\varepsilon = ${n4(stepSpec.effectiveness)}`, note: 'regenerator effectiveness' })
+      heat(
+        `\\Delta ${kind}`,
+        `internal heat exchange${partner !== undefined ? ` with step ${partner + 1}` : ''}: not counted as heat from or to the surroundings`,
+      )
+      if (stepSpec?.effectiveness !== undefined && stepSpec.effectiveness < 1)
+        lines.push({ tex: `\\varepsilon = ${n4(stepSpec.effectiveness)}`, note: 'regenerator effectiveness' })
       break
     }
   }
-  if (st.process !== 'isentropic' && st.process !== 'adiabatic' && !lines.some((l) => l.tex.startsWith(sym.Q(ij)))) heat(`\\Delta ${balanceName} + ${wBySym}`)
+  if (st.process !== 'isentropic' && st.process !== 'adiabatic' && !lines.some((l) => l.tex.startsWith(sym.Q(ij))))
+    heat(`\\Delta ${balanceName} + ${wBySym}`)
   // In the course's convention.
   lines.push({
-    tex: sym.convention === 'chemistry' ? `${sym.W(ij)} = -${wBySym} = ${E(wConv)}` : `${sym.W(ij)} = ${wBySym} = ${E(wConv)}`,
+    tex:
+      sym.convention === 'chemistry'
+        ? `${sym.W(ij)} = -${wBySym} = ${E(wConv)}`
+        : `${sym.W(ij)} = ${wBySym} = ${E(wConv)}`,
     note: sym.convention === 'chemistry' ? 'work done ON the gas' : 'work done BY the gas',
   })
   const check = sym.convention === 'chemistry' ? `${sym.Q(ij)} + ${sym.W(ij)}` : `${sym.Q(ij)} - ${sym.W(ij)}`
-  const checkNums = sym.convention === 'chemistry' ? `${n4(u.e(snap(st.q.value, 1e3)))} + ${par(n4(u.e(snap(wConv, 1e3))))}` : `${n4(u.e(snap(st.q.value, 1e3)))} - ${par(n4(u.e(snap(wConv, 1e3))))}`
+  const checkNums =
+    sym.convention === 'chemistry'
+      ? `${n4(u.e(snap(st.q.value, 1e3)))} + ${par(n4(u.e(snap(wConv, 1e3))))}`
+      : `${n4(u.e(snap(st.q.value, 1e3)))} - ${par(n4(u.e(snap(wConv, 1e3))))}`
   lines.push({ tex: `\\Delta ${balanceName} = ${check} = ${checkNums} = ${E(balanceDelta)}`, note: 'first-law check' })
   lines.push(entropyLine(ctx, a, b, st.dS.value))
   const title = `Step ${a.name} → ${b.name}: ${st.process}${st.label ? ` (${st.label})` : ''}`
@@ -332,17 +377,26 @@ function closedFormEfficiency(ctx: Ctx, template: string | undefined): WorkedLin
   const g = gas.gamma(T1)
   if (template === 'otto' && s.length === 4) {
     const r = s[0]!.v.value / s[1]!.v.value
-    return { tex: `\\eta = 1 - r^{1-\\gamma} = 1 - (${n4(r)})^{1 - ${n4(g)}} = ${n4(1 - Math.pow(r, 1 - g))}`, note: 'air-standard Otto cycle with constant specific heats: the same as the net work over the heat added' }
+    return {
+      tex: `\\eta = 1 - r^{1-\\gamma} = 1 - (${n4(r)})^{1 - ${n4(g)}} = ${n4(1 - Math.pow(r, 1 - g))}`,
+      note: 'air-standard Otto cycle with constant specific heats: the same as the net work over the heat added',
+    }
   }
   if (template === 'diesel' && s.length === 4) {
     const r = s[0]!.v.value / s[1]!.v.value
     const rc = s[2]!.v.value / s[1]!.v.value
     const eta = 1 - (Math.pow(r, 1 - g) * (Math.pow(rc, g) - 1)) / (g * (rc - 1))
-    return { tex: `r = ${n4(r)},\\quad r_c = ${n4(rc)},\\quad \\eta = 1 - \\frac{1}{r^{\\gamma-1}}\\,\\frac{r_c^{\\gamma} - 1}{\\gamma\\,(r_c - 1)} = ${n4(eta)}`, note: 'air-standard Diesel cycle with constant specific heats: r is the compression ratio, r_c the cutoff ratio' }
+    return {
+      tex: `r = ${n4(r)},\\quad r_c = ${n4(rc)},\\quad \\eta = 1 - \\frac{1}{r^{\\gamma-1}}\\,\\frac{r_c^{\\gamma} - 1}{\\gamma\\,(r_c - 1)} = ${n4(eta)}`,
+      note: 'air-standard Diesel cycle with constant specific heats: r is the compression ratio, r_c the cutoff ratio',
+    }
   }
   if (template === 'brayton' && s.length === 4 && sol.steps.every((st) => st.process !== 'adiabatic')) {
     const rp = s[1]!.p.value / s[0]!.p.value
-    return { tex: `\\eta = 1 - r_p^{(1-\\gamma)/\\gamma} = 1 - (${n4(rp)})^{${n4((1 - g) / g)}} = ${n4(1 - Math.pow(rp, (1 - g) / g))}`, note: 'ideal Brayton cycle with constant specific heats' }
+    return {
+      tex: `\\eta = 1 - r_p^{(1-\\gamma)/\\gamma} = 1 - (${n4(rp)})^{${n4((1 - g) / g)}} = ${n4(1 - Math.pow(rp, (1 - g) / g))}`,
+      note: 'ideal Brayton cycle with constant specific heats',
+    }
   }
   return null
 }
@@ -354,38 +408,93 @@ function totalsSection(ctx: Ctx, template: string | undefined): WorkedSection {
   const E = (x: number) => q4(u.e(snap(x, 1e3)), u.energy)
   const stepSub = (st: FormattedStep) => `${sub(sol.states[st.from - 1]!.name)}${sub(sol.states[st.to - 1]!.name)}`
   const external = sol.steps.filter((st) => !st.internal)
-  const sumOf = (steps: readonly FormattedStep[], pick: (st: FormattedStep) => number, symbol: (st: FormattedStep) => string): string =>
-    steps.length === 0 ? '0' : `${steps.map(symbol).join(' + ')}${steps.length > 1 ? ` = ${steps.map((st) => par(n4(u.e(snap(pick(st), 1e3))))).join(' + ')}` : ''}`
+  const sumOf = (
+    steps: readonly FormattedStep[],
+    pick: (st: FormattedStep) => number,
+    symbol: (st: FormattedStep) => string,
+  ): string =>
+    steps.length === 0
+      ? '0'
+      : `${steps.map(symbol).join(' + ')}${steps.length > 1 ? ` = ${steps.map((st) => par(n4(u.e(snap(pick(st), 1e3))))).join(' + ')}` : ''}`
   const ins = external.filter((st) => st.q.value > 0)
   const outs = external.filter((st) => st.q.value < 0)
-  lines.push({ tex: `${sym.Q('\\mathrm{in}')} = ${sumOf(ins, (st) => st.q.value, (st) => sym.Q(stepSub(st)))} = ${E(t.heatIn.value)}`, note: 'heat taken from the surroundings (regenerator steps excluded)' })
-  lines.push({ tex: `${sym.Q('\\mathrm{out}')} = ${sumOf(outs, (st) => -st.q.value, (st) => `|${sym.Q(stepSub(st))}|`)} = ${E(t.heatOut.value)}`, note: 'heat given to the surroundings' })
-  lines.push({ tex: `${sym.W('\\mathrm{net}')} = ${sol.steps.map((st) => sym.W(stepSub(st))).join(' + ')} = ${E(t.netWork.value)}`, note: sym.convention === 'chemistry' ? 'net work done ON the gas per cycle' : 'net work done BY the gas per cycle' })
+  lines.push({
+    tex: `${sym.Q('\\mathrm{in}')} = ${sumOf(
+      ins,
+      (st) => st.q.value,
+      (st) => sym.Q(stepSub(st)),
+    )} = ${E(t.heatIn.value)}`,
+    note: 'heat taken from the surroundings (regenerator steps excluded)',
+  })
+  lines.push({
+    tex: `${sym.Q('\\mathrm{out}')} = ${sumOf(
+      outs,
+      (st) => -st.q.value,
+      (st) => `|${sym.Q(stepSub(st))}|`,
+    )} = ${E(t.heatOut.value)}`,
+    note: 'heat given to the surroundings',
+  })
+  lines.push({
+    tex: `${sym.W('\\mathrm{net}')} = ${sol.steps.map((st) => sym.W(stepSub(st))).join(' + ')} = ${E(t.netWork.value)}`,
+    note: sym.convention === 'chemistry' ? 'net work done ON the gas per cycle' : 'net work done BY the gas per cycle',
+  })
   const wOut = sym.convention === 'engineering' ? t.netWork.value : -t.netWork.value
   lines.push({
     tex: `${sym.Q('\\mathrm{in}')} - ${sym.Q('\\mathrm{out}')} = ${n4(u.e(t.heatIn.value))} - ${n4(u.e(t.heatOut.value))} = ${E(wOut)}`,
-    note: sym.convention === 'chemistry' ? 'over a cycle ΔU = 0, so the work delivered (minus the net work done on the gas) equals the net heat' : 'over a cycle ΔU = 0, so the net work equals the net heat',
+    note:
+      sym.convention === 'chemistry'
+        ? 'over a cycle ΔU = 0, so the work delivered (minus the net work done on the gas) equals the net heat'
+        : 'over a cycle ΔU = 0, so the net work equals the net heat',
   })
   const Tl = t.Tmin.value
   const Th = t.Tmax.value
   if (t.efficiency !== null) {
-    lines.push({ tex: `\\eta = \\frac{${sym.convention === 'chemistry' ? '-w_{\\mathrm{net}}' : 'W_{\\mathrm{net}}'}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(u.e(wOut))}}{${n4(u.e(t.heatIn.value))}} = ${n4(t.efficiency.value)}`, note: 'thermal efficiency' })
+    lines.push({
+      tex: `\\eta = \\frac{${sym.convention === 'chemistry' ? '-w_{\\mathrm{net}}' : 'W_{\\mathrm{net}}'}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(u.e(wOut))}}{${n4(u.e(t.heatIn.value))}} = ${n4(t.efficiency.value)}`,
+      note: 'thermal efficiency',
+    })
     const closed = closedFormEfficiency(ctx, template)
     if (closed) lines.push(closed)
-    lines.push({ tex: `\\eta_{\\mathrm{Carnot}} = 1 - \\frac{T_L}{T_H} = 1 - \\frac{${n4(Tl)}}{${n4(Th)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison: the Carnot bound between the lowest and highest temperatures of the cycle' })
+    lines.push({
+      tex: `\\eta_{\\mathrm{Carnot}} = 1 - \\frac{T_L}{T_H} = 1 - \\frac{${n4(Tl)}}{${n4(Th)}} = ${n4(t.carnotBound.value)}`,
+      note: 'for comparison: the Carnot bound between the lowest and highest temperatures of the cycle',
+    })
   } else if (t.copRefrigerator !== null && t.purpose === 'refrigerator') {
-    lines.push({ tex: `\\mathrm{COP}_R = \\frac{${sym.Q('L')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatIn.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copRefrigerator.value)}`, note: 'heat taken from the cold space over the net work put in' })
-    lines.push({ tex: `\\mathrm{COP}_{R,\\mathrm{Carnot}} = \\frac{T_L}{T_H - T_L} = \\frac{${n4(Tl)}}{${n4(Th)} - ${n4(Tl)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison' })
+    lines.push({
+      tex: `\\mathrm{COP}_R = \\frac{${sym.Q('L')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatIn.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copRefrigerator.value)}`,
+      note: 'heat taken from the cold space over the net work put in',
+    })
+    lines.push({
+      tex: `\\mathrm{COP}_{R,\\mathrm{Carnot}} = \\frac{T_L}{T_H - T_L} = \\frac{${n4(Tl)}}{${n4(Th)} - ${n4(Tl)}} = ${n4(t.carnotBound.value)}`,
+      note: 'for comparison',
+    })
   } else if (t.copHeatPump !== null) {
-    lines.push({ tex: `\\mathrm{COP}_{HP} = \\frac{${sym.Q('H')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatOut.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copHeatPump.value)}`, note: 'heat delivered to the warm space over the net work put in' })
-    lines.push({ tex: `\\mathrm{COP}_{HP,\\mathrm{Carnot}} = \\frac{T_H}{T_H - T_L} = \\frac{${n4(Th)}}{${n4(Th)} - ${n4(Tl)}} = ${n4(t.carnotBound.value)}`, note: 'for comparison' })
+    lines.push({
+      tex: `\\mathrm{COP}_{HP} = \\frac{${sym.Q('H')}}{${sym.W('\\mathrm{in}')}} = \\frac{${n4(u.e(t.heatOut.value))}}{${n4(u.e(-wOut))}} = ${n4(t.copHeatPump.value)}`,
+      note: 'heat delivered to the warm space over the net work put in',
+    })
+    lines.push({
+      tex: `\\mathrm{COP}_{HP,\\mathrm{Carnot}} = \\frac{T_H}{T_H - T_L} = \\frac{${n4(Th)}}{${n4(Th)} - ${n4(Tl)}} = ${n4(t.carnotBound.value)}`,
+      note: 'for comparison',
+    })
   }
   if (t.meanEffectivePressure !== null) {
     const vs = sol.states.map((s) => s.v.value)
-    lines.push({ tex: `\\mathrm{MEP} = \\frac{${sym.W('\\mathrm{net,out}')}}{v_{\\max} - v_{\\min}} = \\frac{${n4(u.e(wOut))}}{${n4(Math.max(...vs))} - ${n4(Math.min(...vs))}} = ${pressureTex(t.meanEffectivePressure.value)}`, note: 'mean effective pressure' })
+    lines.push({
+      tex: `\\mathrm{MEP} = \\frac{${sym.W('\\mathrm{net,out}')}}{v_{\\max} - v_{\\min}} = \\frac{${n4(u.e(wOut))}}{${n4(Math.max(...vs))} - ${n4(Math.min(...vs))}} = ${pressureTex(t.meanEffectivePressure.value)}`,
+      note: 'mean effective pressure',
+    })
   }
-  if (t.backWorkRatio !== null) lines.push({ tex: `\\mathrm{bwr} = \\frac{${sym.W('\\mathrm{comp,in}')}}{${sym.W('\\mathrm{turb,out}')}} = ${n4(t.backWorkRatio.value)}`, note: 'back work ratio' })
-  if (t.entropyGenerated !== null) lines.push({ tex: `s_{\\mathrm{gen}} = \\frac{${sym.Q('\\mathrm{out}')}}{T_{\\mathrm{sink}}} - \\frac{${sym.Q('\\mathrm{in}')}}{T_{\\mathrm{source}}} = ${q4(u.s(snap(t.entropyGenerated.value, 1e3)), u.entropy)}`, note: 'entropy generated per cycle with the given reservoirs' })
+  if (t.backWorkRatio !== null)
+    lines.push({
+      tex: `\\mathrm{bwr} = \\frac{${sym.W('\\mathrm{comp,in}')}}{${sym.W('\\mathrm{turb,out}')}} = ${n4(t.backWorkRatio.value)}`,
+      note: 'back work ratio',
+    })
+  if (t.entropyGenerated !== null)
+    lines.push({
+      tex: `s_{\\mathrm{gen}} = \\frac{${sym.Q('\\mathrm{out}')}}{T_{\\mathrm{sink}}} - \\frac{${sym.Q('\\mathrm{in}')}}{T_{\\mathrm{source}}} = ${q4(u.s(snap(t.entropyGenerated.value, 1e3)), u.entropy)}`,
+      note: 'entropy generated per cycle with the given reservoirs',
+    })
   if (sol.amount && t.total) {
     const amountUnit = sol.amount.unit
     lines.push({
@@ -407,10 +516,24 @@ function idealGasSections(sol: FormattedSolution, variant: Variant, sym: Symbols
   const gasLines: WorkedLine[] = [{ tex: `R = ${R}`, note: sol.gas.label }]
   if (gas?.constantCp) {
     const T = sol.states[0]?.T.value ?? 300
-    gasLines.push({ tex: `c_p = ${q4(u.s(gas.cp(T)), u.entropy)},\\quad c_v = ${q4(u.s(gas.cv(T)), u.entropy)},\\quad \\gamma = c_p/c_v = ${n4(gas.gamma(T))}`, note: 'constant specific heats' })
+    gasLines.push({
+      tex: `c_p = ${q4(u.s(gas.cp(T)), u.entropy)},\\quad c_v = ${q4(u.s(gas.cv(T)), u.entropy)},\\quad \\gamma = c_p/c_v = ${n4(gas.gamma(T))}`,
+      note: 'constant specific heats',
+    })
   }
-  gasLines.push({ tex: '', note: sol.system === 'flow' ? 'Steady flow: shaft work, energy balance on h.' : 'Closed system: boundary work, energy balance on u.' })
-  return [{ title: 'Working gas', lines: gasLines }, stateLines(ctx), ...sol.steps.map((st, k) => stepSection(ctx, st, k)), totalsSection(ctx, template)]
+  gasLines.push({
+    tex: '',
+    note:
+      sol.system === 'flow'
+        ? 'Steady flow: shaft work, energy balance on h.'
+        : 'Closed system: boundary work, energy balance on u.',
+  })
+  return [
+    { title: 'Working gas', lines: gasLines },
+    stateLines(ctx),
+    ...sol.steps.map((st, k) => stepSection(ctx, st, k)),
+    totalsSection(ctx, template),
+  ]
 }
 
 // ---- Rankine cycles -----------------------------------------------------------------
@@ -433,7 +556,10 @@ function rankineStateLine(s: FormattedRankineState): WorkedLine[] {
         note: `two-phase: quality from the saturation properties at ${formatNumber(s.p.value / 1000, { sigFigs: WORKED_SIG_FIGS }, false)} kPa`,
       })
     } else {
-      lines.push({ tex: `x_{${n}} = ${n4(s.x)}`, note: s.x === 0 ? 'saturated liquid' : s.x === 1 ? 'saturated vapour' : 'quality' })
+      lines.push({
+        tex: `x_{${n}} = ${n4(s.x)}`,
+        note: s.x === 0 ? 'saturated liquid' : s.x === 1 ? 'saturated vapour' : 'quality',
+      })
     }
   }
   return lines
@@ -469,7 +595,12 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
   const boilerExit = states[boilerIndex]
   const extraction = find('turbine extraction')
   const y = sol.totals.bleedFraction?.value ?? null
-  const heater = pumpIExit !== undefined || heaterExit !== undefined || pumpIIExit !== undefined || extraction !== undefined || y !== null
+  const heater =
+    pumpIExit !== undefined ||
+    heaterExit !== undefined ||
+    pumpIIExit !== undefined ||
+    extraction !== undefined ||
+    y !== null
   if (!condExit || !boilerExit) return null
   if (heater && !(pumpIExit && heaterExit && pumpIIExit && extraction && y !== null)) return null
   if (!heater && !pumpExit) return null
@@ -498,17 +629,29 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
 
   if (heater && pumpIExit && heaterExit && pumpIIExit && extraction && y !== null) {
     const [b, p1, h3] = [n(extraction), n(pumpIExit), n(heaterExit)]
-    lines.push({ tex: `y\\,h_{${b}} + (1 - y)\\,h_{${p1}} = h_{${h3}}`, note: 'open feedwater heater: adiabatic mixing of y kg of bled steam with 1 − y kg of condensate, leaving as 1 kg of saturated liquid' })
+    lines.push({
+      tex: `y\\,h_{${b}} + (1 - y)\\,h_{${p1}} = h_{${h3}}`,
+      note: 'open feedwater heater: adiabatic mixing of y kg of bled steam with 1 − y kg of condensate, leaving as 1 kg of saturated liquid',
+    })
     lines.push({
       tex: `y = \\frac{h_{${h3}} - h_{${p1}}}{h_{${b}} - h_{${p1}}} = \\frac{${hs(heaterExit)} - ${hs(pumpIExit)}}{${hs(extraction)} - ${hs(pumpIExit)}} = ${n4(y)}`,
       note: 'the balance solved for the bleed fraction',
     })
     const mixed = y * extraction.h.value + (1 - y) * pumpIExit.h.value
-    lines.push({ tex: `(${n4(y)})(${hs(extraction)}) + (${n4(1 - y)})(${hs(pumpIExit)}) = ${E(mixed)} = h_{${h3}}`, note: 'check' })
+    lines.push({
+      tex: `(${n4(y)})(${hs(extraction)}) + (${n4(1 - y)})(${hs(pumpIExit)}) = ${E(mixed)} = h_{${h3}}`,
+      note: 'check',
+    })
   }
 
   // Pumps: h differences, and the v Δp form a student may use instead.
-  const pumpLine = (symbol: string, flow: Flow, inlet: FormattedRankineState, exit: FormattedRankineState, name: string) => {
+  const pumpLine = (
+    symbol: string,
+    flow: Flow,
+    inlet: FormattedRankineState,
+    exit: FormattedRankineState,
+    name: string,
+  ) => {
     const d = diff(flow, exit, inlet)
     lines.push({ tex: `${symbol} = ${d.tex}`, note: `${name}${perKg(flow)}` })
     if (etaP !== null) {
@@ -522,10 +665,19 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
   }
   const pumps: { symbol: string; value: number }[] = []
   if (heater && pumpIExit && heaterExit && pumpIIExit) {
-    pumps.push({ symbol: sym.W('\\mathrm{pI,in}'), value: pumpLine(sym.W('\\mathrm{pI,in}'), rest, condExit, pumpIExit, 'pump I (condensate)') })
-    pumps.push({ symbol: sym.W('\\mathrm{pII,in}'), value: pumpLine(sym.W('\\mathrm{pII,in}'), WHOLE, heaterExit, pumpIIExit, 'pump II (feedwater)') })
+    pumps.push({
+      symbol: sym.W('\\mathrm{pI,in}'),
+      value: pumpLine(sym.W('\\mathrm{pI,in}'), rest, condExit, pumpIExit, 'pump I (condensate)'),
+    })
+    pumps.push({
+      symbol: sym.W('\\mathrm{pII,in}'),
+      value: pumpLine(sym.W('\\mathrm{pII,in}'), WHOLE, heaterExit, pumpIIExit, 'pump II (feedwater)'),
+    })
   } else if (pumpExit) {
-    pumps.push({ symbol: sym.W('\\mathrm{pump,in}'), value: pumpLine(sym.W('\\mathrm{pump,in}'), WHOLE, condExit, pumpExit, 'pump') })
+    pumps.push({
+      symbol: sym.W('\\mathrm{pump,in}'),
+      value: pumpLine(sym.W('\\mathrm{pump,in}'), WHOLE, condExit, pumpExit, 'pump'),
+    })
   }
   const feed = heater ? pumpIIExit! : pumpExit!
   const boiler = diff(WHOLE, boilerExit, feed)
@@ -533,8 +685,12 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
 
   // Turbine path: each section from the state before it, with the flow that passes it.
   const sectionCount = path.filter((s) => !s.description.startsWith('reheater exit')).length
-  const sectionName = (k: number) => (sectionCount === 1 ? 'turb' : sectionCount === 2 ? (k === 1 ? 'HP' : 'LP') : `T${k}`)
-  const efficiencyNote = etaT !== null && etaT < 1 ? `turbine isentropic efficiency ${formatNumber(etaT, { sigFigs: WORKED_SIG_FIGS }, false)}` : 'isentropic: s is conserved'
+  const sectionName = (k: number) =>
+    sectionCount === 1 ? 'turb' : sectionCount === 2 ? (k === 1 ? 'HP' : 'LP') : `T${k}`
+  const efficiencyNote =
+    etaT !== null && etaT < 1
+      ? `turbine isentropic efficiency ${formatNumber(etaT, { sigFigs: WORKED_SIG_FIGS }, false)}`
+      : 'isentropic: s is conserved'
   const sections: { symbol: string; value: number }[] = []
   const reheats: { symbol: string; value: number }[] = []
   let cur = boilerExit
@@ -549,7 +705,10 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
       const k = sections.length + 1
       const d = diff(flow, cur, s)
       const symbol = sym.W(`\\mathrm{${sectionName(k)},out}`)
-      const name = sectionCount === 1 ? 'turbine' : `turbine section ${k}, ${pressureText(cur.p.value)} → ${pressureText(s.p.value)}`
+      const name =
+        sectionCount === 1
+          ? 'turbine'
+          : `turbine section ${k}, ${pressureText(cur.p.value)} → ${pressureText(s.p.value)}`
       lines.push({ tex: `${symbol} = ${d.tex}`, note: `${name}: ${efficiencyNote}${perKg(flow)}` })
       sections.push({ symbol, value: d.value })
       if (s === extraction) flow = rest
@@ -561,22 +720,36 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
 
   const sum = (total: string, parts: { symbol: string; value: number }[], value: number, note: string) => {
     if (parts.length < 2) return
-    lines.push({ tex: `${total} = ${parts.map((p) => p.symbol).join(' + ')} = ${parts.map((p) => n4(p.value / 1000)).join(' + ')} = ${E(value)}`, note })
+    lines.push({
+      tex: `${total} = ${parts.map((p) => p.symbol).join(' + ')} = ${parts.map((p) => n4(p.value / 1000)).join(' + ')} = ${E(value)}`,
+      note,
+    })
   }
   sum(sym.W('\\mathrm{turb,out}'), sections, sol.totals.turbineWork.value, 'all turbine sections')
   sum(sym.W('\\mathrm{pump,in}'), pumps, sol.totals.pumpWork.value, 'both pumps')
-  if (reheats.length > 0) sum(sym.Q('\\mathrm{in}'), [{ symbol: sym.Q('\\mathrm{boiler}'), value: boiler.value }, ...reheats], sol.totals.heatIn.value, 'heat taken in: boiler and reheater')
+  if (reheats.length > 0)
+    sum(
+      sym.Q('\\mathrm{in}'),
+      [{ symbol: sym.Q('\\mathrm{boiler}'), value: boiler.value }, ...reheats],
+      sol.totals.heatIn.value,
+      'heat taken in: boiler and reheater',
+    )
   return lines
 }
 
 /** Pressure in words for a note: kPa below 1 MPa, MPa from there. */
 function pressureText(pa: number): string {
-  return Math.abs(pa) >= 1e6 ? `${formatNumber(pa / 1e6, { sigFigs: WORKED_SIG_FIGS }, false)} MPa` : `${formatNumber(pa / 1000, { sigFigs: WORKED_SIG_FIGS }, false)} kPa`
+  return Math.abs(pa) >= 1e6
+    ? `${formatNumber(pa / 1e6, { sigFigs: WORKED_SIG_FIGS }, false)} MPa`
+    : `${formatNumber(pa / 1000, { sigFigs: WORKED_SIG_FIGS }, false)} kPa`
 }
 
 function rankineSections(sol: FormattedRankine, variant: Variant, sym: Symbols): WorkedSection[] {
   const E = (x: number) => q4(snap(x, 1e3) / 1000, 'kJ/kg')
-  const stateSection: WorkedSection = { title: 'States (water/steam, IAPWS-IF97)', lines: sol.states.flatMap(rankineStateLine) }
+  const stateSection: WorkedSection = {
+    title: 'States (water/steam, IAPWS-IF97)',
+    lines: sol.states.flatMap(rankineStateLine),
+  }
   const lines =
     rankineDeviceLines(sol, variant, sym) ??
     sol.devices.map((d) => ({
@@ -586,20 +759,45 @@ function rankineSections(sol: FormattedRankine, variant: Variant, sym: Symbols):
   const deviceSection: WorkedSection = { title: 'Devices (per kg through the boiler)', lines }
   const conv: WorkedLine[] = sol.devices.map((d) => ({
     tex: `\\text{${texEscape(d.device)}}:\\ ${sym.Q('')} = ${E(d.q.value)},\\ ${sym.W('')} = ${E(d.w.value)}`,
-    note: sym.convention === 'chemistry' ? 'w is work done ON the water (pump positive, turbine negative)' : 'W is work done BY the water (turbine positive, pump negative)',
+    note:
+      sym.convention === 'chemistry'
+        ? 'w is work done ON the water (pump positive, turbine negative)'
+        : 'W is work done BY the water (turbine positive, pump negative)',
   }))
   const t = sol.totals
   const totals: WorkedLine[] = [
-    { tex: `${sym.W('\\mathrm{net,out}')} = ${sym.W('\\mathrm{turb,out}')} - ${sym.W('\\mathrm{pump,in}')} = ${n4(t.turbineWork.value / 1000)} - ${n4(t.pumpWork.value / 1000)} = ${E(t.netWork.value)}`, note: 'net work delivered per kg through the boiler' },
+    {
+      tex: `${sym.W('\\mathrm{net,out}')} = ${sym.W('\\mathrm{turb,out}')} - ${sym.W('\\mathrm{pump,in}')} = ${n4(t.turbineWork.value / 1000)} - ${n4(t.pumpWork.value / 1000)} = ${E(t.netWork.value)}`,
+      note: 'net work delivered per kg through the boiler',
+    },
     { tex: `${sym.W('\\mathrm{net}')} = ${E(t.netWorkSigned.value)}`, note: 'the same in the course convention' },
     { tex: `${sym.Q('\\mathrm{in}')} = ${E(t.heatIn.value)},\\quad ${sym.Q('\\mathrm{out}')} = ${E(t.heatOut.value)}` },
-    { tex: `\\eta = \\frac{${sym.W('\\mathrm{net,out}')}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(t.netWork.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(t.efficiency.value)}`, note: 'thermal efficiency' },
-    { tex: `\\eta = 1 - \\frac{${sym.Q('\\mathrm{out}')}}{${sym.Q('\\mathrm{in}')}} = 1 - \\frac{${n4(t.heatOut.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(1 - t.heatOut.value / t.heatIn.value)}`, note: 'the same from the heats: over a cycle the net work is the net heat' },
-    { tex: `\\mathrm{bwr} = \\frac{${sym.W('\\mathrm{pump,in}')}}{${sym.W('\\mathrm{turb,out}')}} = \\frac{${n4(t.pumpWork.value / 1000)}}{${n4(t.turbineWork.value / 1000)}} = ${n4(t.backWorkRatio.value)}`, note: 'back work ratio' },
+    {
+      tex: `\\eta = \\frac{${sym.W('\\mathrm{net,out}')}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(t.netWork.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(t.efficiency.value)}`,
+      note: 'thermal efficiency',
+    },
+    {
+      tex: `\\eta = 1 - \\frac{${sym.Q('\\mathrm{out}')}}{${sym.Q('\\mathrm{in}')}} = 1 - \\frac{${n4(t.heatOut.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(1 - t.heatOut.value / t.heatIn.value)}`,
+      note: 'the same from the heats: over a cycle the net work is the net heat',
+    },
+    {
+      tex: `\\mathrm{bwr} = \\frac{${sym.W('\\mathrm{pump,in}')}}{${sym.W('\\mathrm{turb,out}')}} = \\frac{${n4(t.pumpWork.value / 1000)}}{${n4(t.turbineWork.value / 1000)}} = ${n4(t.backWorkRatio.value)}`,
+      note: 'back work ratio',
+    },
   ]
-  if (t.turbineExitQuality !== null) totals.push({ tex: `x_{\\mathrm{turbine\\ exit}} = ${n4(t.turbineExitQuality.value)}`, note: 'turbine exit quality' })
-  if (t.bleedFraction !== null) totals.push({ tex: `y = ${n4(t.bleedFraction.value)}`, note: 'fraction of the steam bled to the feedwater heater' })
-  return [stateSection, deviceSection, { title: 'In the course convention', lines: conv }, { title: 'Cycle totals', lines: totals }]
+  if (t.turbineExitQuality !== null)
+    totals.push({
+      tex: `x_{\\mathrm{turbine\\ exit}} = ${n4(t.turbineExitQuality.value)}`,
+      note: 'turbine exit quality',
+    })
+  if (t.bleedFraction !== null)
+    totals.push({ tex: `y = ${n4(t.bleedFraction.value)}`, note: 'fraction of the steam bled to the feedwater heater' })
+  return [
+    stateSection,
+    deviceSection,
+    { title: 'In the course convention', lines: conv },
+    { title: 'Cycle totals', lines: totals },
+  ]
 }
 
 // ---- Givens and key -----------------------------------------------------------------
@@ -620,7 +818,10 @@ function givensSection(variant: Variant, def: ProblemDefinition): WorkedSection 
  * `values`, every given and earlier find replaced by its number and unit. Null when the
  * expression does not parse (the caller then shows only the result).
  */
-function expressionTex(expression: string, values?: ReadonlyMap<string, { value: number; unit: string }>): string | null {
+function expressionTex(
+  expression: string,
+  values?: ReadonlyMap<string, { value: number; unit: string }>,
+): string | null {
   try {
     const node = mathCore.parse(expression)
     return node.toTex({
@@ -644,7 +845,11 @@ function keySection(variant: Variant, def: ProblemDefinition): WorkedSection {
   const values = new Map<string, { value: number; unit: string }>()
   for (const g of variant.givens) if (!Number.isNaN(g.value)) values.set(g.name, { value: g.value, unit: g.unit })
   const stateNames = 'states' in variant.solution ? variant.solution.states.map((s) => s.name) : undefined
-  const ctx = { convention: variant.solution.convention.name, steam: isRankine(variant.solution), ...(stateNames ? { stateNames } : {}) }
+  const ctx = {
+    convention: variant.solution.convention.name,
+    steam: isRankine(variant.solution),
+    ...(stateNames ? { stateNames } : {}),
+  }
   const plain = (tex: string) => tex.replace(/\\text\{([^}]*)\}/g, '$1').replace(/[{}]/g, '')
   const lines: WorkedLine[] = []
   for (const k of variant.key) {
@@ -668,7 +873,10 @@ function keySection(variant: Variant, def: ProblemDefinition): WorkedSection {
       const lead = q && sameName ? solverTex : symbol
       const senseNote = find?.sense ? `, ${FIND_SENSE_WORDS[find.sense]}` : ''
       const quantityNote = q && (!sameName || k.flipped) ? `: ${k.flipped ? 'minus ' : ''}the ${q.name}` : ''
-      lines.push({ tex: `${lead}${q && !sameName ? ` = ${solverTex}` : ''} = ${value}`, note: `${k.label} (${k.points} pt)${senseNote}${quantityNote}` })
+      lines.push({
+        tex: `${lead}${q && !sameName ? ` = ${solverTex}` : ''} = ${value}`,
+        note: `${k.label} (${k.points} pt)${senseNote}${quantityNote}`,
+      })
     }
     values.set(k.name, { value: k.value, unit: k.unit })
   }

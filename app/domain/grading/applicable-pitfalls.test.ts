@@ -2,17 +2,37 @@ import { expect, test } from 'vitest'
 import type { Find, ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { applicablePitfalls, whyPitfallCannotFire } from './pitfalls.ts'
 
-const out = (name: string, path: string, unit: string): Find => ({ name, label: name, source: { kind: 'output', path }, unit, points: 1, tolerance: { kind: 'relative', value: 0.01 }, pitfalls: [] })
+const out = (name: string, path: string, unit: string): Find => ({
+  name,
+  label: name,
+  source: { kind: 'output', path },
+  unit,
+  points: 1,
+  tolerance: { kind: 'relative', value: 0.01 },
+  pitfalls: [],
+})
 const otto = (T1unit: string, T1input = 'T1', heatIn = '800 kJ/kg'): ProblemDefinition => ({
   format: 2,
   title: 'Otto',
   tags: { topics: [], difficulty: 'standard', level: 'second-year' },
   convention: 'course',
   prompt: '',
-  givens: [{ name: 'T1', label: 'intake temperature', unit: T1unit, rule: { kind: 'range', min: 20, max: 40, step: 5 } }],
+  givens: [
+    { name: 'T1', label: 'intake temperature', unit: T1unit, rule: { kind: 'range', min: 20, max: 40, step: 5 } },
+  ],
   constraints: [],
-  physics: { kind: 'template', template: 'otto', inputs: { gas: 'air', p1: '100 kPa', T1: T1input, compressionRatio: '8', heatIn } },
-  finds: [out('T2', 'states.2.T', 'K'), out('wnet', 'totals.netWork', 'kJ/kg'), out('qin', 'totals.heatIn', 'kJ/kg'), out('eta', 'totals.efficiency', ''), { ...out('x', 'x', 'K'), source: { kind: 'expression', expression: 'T1' } }],
+  physics: {
+    kind: 'template',
+    template: 'otto',
+    inputs: { gas: 'air', p1: '100 kPa', T1: T1input, compressionRatio: '8', heatIn },
+  },
+  finds: [
+    out('T2', 'states.2.T', 'K'),
+    out('wnet', 'totals.netWork', 'kJ/kg'),
+    out('qin', 'totals.heatIn', 'kJ/kg'),
+    out('eta', 'totals.efficiency', ''),
+    { ...out('x', 'x', 'K'), source: { kind: 'expression', expression: 'T1' } },
+  ],
 })
 
 test('°C for K: offered only when a temperature in °C reaches the solver', () => {
@@ -41,7 +61,14 @@ test('the factor of 1000: an energy answer or a kJ input', () => {
 test('an expression find can have no pitfall; the problem as a whole offers the union in the grader’s order', () => {
   expect(applicablePitfalls(otto('degC'), 4)).toEqual([])
   expect(whyPitfallCannotFire(otto('degC'), 4, 'kilo-factor')).toMatch(/not an expression/)
-  expect(applicablePitfalls(otto('K'))).toEqual(['sign-convention-flipped', 'cp-cv-swapped', 'gamma-monatomic-diatomic-swapped', 'kilo-factor', 'log10-for-ln', 'per-mole-vs-per-kg'])
+  expect(applicablePitfalls(otto('K'))).toEqual([
+    'sign-convention-flipped',
+    'cp-cv-swapped',
+    'gamma-monatomic-diatomic-swapped',
+    'kilo-factor',
+    'log10-for-ln',
+    'per-mole-vs-per-kg',
+  ])
 })
 
 test('a half-typed draft does not throw', () => {

@@ -15,7 +15,15 @@ import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { outputSense } from '#app/domain/authoring/sense.ts'
 import type { PitfallId } from './pitfalls.ts'
 
-const ALL: readonly PitfallId[] = ['sign-convention-flipped', 'celsius-for-kelvin', 'cp-cv-swapped', 'gamma-monatomic-diatomic-swapped', 'kilo-factor', 'log10-for-ln', 'per-mole-vs-per-kg']
+const ALL: readonly PitfallId[] = [
+  'sign-convention-flipped',
+  'celsius-for-kelvin',
+  'cp-cv-swapped',
+  'gamma-monatomic-diatomic-swapped',
+  'kilo-factor',
+  'log10-for-ln',
+  'per-mole-vs-per-kg',
+]
 
 /** As app/domain/thermo/spec.ts's specMentions reads a spec. */
 const CELSIUS = /(°\s*C|degC|℃)/
@@ -29,7 +37,9 @@ function physicsTexts(def: ProblemDefinition): string[] {
     if (typeof x === 'string') {
       const exact = units.get(x.trim())
       let t = exact !== undefined ? `1 ${exact}` : x
-      t = t.replace(/@\{\s*([A-Za-z][A-Za-z0-9_]*)[^}]*\}/g, (m, name: string) => (units.has(name) ? `1 ${units.get(name)}` : m))
+      t = t.replace(/@\{\s*([A-Za-z][A-Za-z0-9_]*)[^}]*\}/g, (m, name: string) =>
+        units.has(name) ? `1 ${units.get(name)}` : m,
+      )
       out.push(t)
     } else if (Array.isArray(x)) x.forEach(walk)
     else if (x !== null && typeof x === 'object') Object.values(x).forEach(walk)
@@ -80,7 +90,8 @@ export function applicablePitfalls(def: ProblemDefinition, findIndex?: number): 
 export function whyPitfallCannotFire(def: ProblemDefinition, findIndex: number, id: PitfallId): string | null {
   if (applicablePitfalls(def, findIndex).includes(id)) return null
   const f = def.finds?.[findIndex]
-  if (f?.source?.kind !== 'output') return 'pitfalls are recognised only on a find that comes from a solver output, not an expression'
+  if (f?.source?.kind !== 'output')
+    return 'pitfalls are recognised only on a find that comes from a solver output, not an expression'
   switch (id) {
     case 'celsius-for-kelvin':
       return 'no temperature in °C reaches the solver in this problem'

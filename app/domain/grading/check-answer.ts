@@ -25,7 +25,13 @@
 // checkAnswer never throws: any failure, including a broken rule, gives a result.
 
 import { mathCore } from './math-instance.ts'
-import { CORRECT_MESSAGE, OUTSIDE_RANGE_MESSAGE, sigFigMessage, temperatureLabelMessage, unreadableMessage } from './messages.ts'
+import {
+  CORRECT_MESSAGE,
+  OUTSIDE_RANGE_MESSAGE,
+  sigFigMessage,
+  temperatureLabelMessage,
+  unreadableMessage,
+} from './messages.ts'
 import type { AnswerErrorCode, TemperatureLabelSlip } from './messages.ts'
 import { readAnswer } from './read-answer.ts'
 import type { AnswerForm } from './read-answer.ts'
@@ -116,10 +122,14 @@ function invalid(property: string, message: string): RuleValidation & { ok: fals
   return { ok: false, error: { code: 'invalid-rule', message, property } }
 }
 
-function prepare(expected: unknown, rule: unknown): { ok: true; prepared: Prepared } | (RuleValidation & { ok: false }) {
+function prepare(
+  expected: unknown,
+  rule: unknown,
+): { ok: true; prepared: Prepared } | (RuleValidation & { ok: false }) {
   if (expected === null || typeof expected !== 'object') return invalid('expected', 'expected must be { value, unit }')
   const { value, unit } = expected as { value?: unknown; unit?: unknown }
-  if (typeof value !== 'number' || !Number.isFinite(value)) return invalid('expected.value', 'expected.value must be a finite number')
+  if (typeof value !== 'number' || !Number.isFinite(value))
+    return invalid('expected.value', 'expected.value must be a finite number')
   if (typeof unit !== 'string') return invalid('expected.unit', 'expected.unit must be a string')
   if (rule === null || typeof rule !== 'object') return invalid('rule', 'rule must be an object')
   const r = rule as Partial<Record<keyof CheckRule, unknown>>
@@ -162,7 +172,8 @@ function prepare(expected: unknown, rule: unknown): { ok: true; prepared: Prepar
         (tu.kind === 'dimensionless'
           ? expDiff.kind === 'dimensionless'
           : expDiff.kind === 'unit' && tu.unit.equalBase(expDiff.unit))
-      if (!fits) return invalid('rule.tolerance.unit', `tolerance.unit "${t.unit}" does not fit expected.unit "${unit}"`)
+      if (!fits)
+        return invalid('rule.tolerance.unit', `tolerance.unit "${t.unit}" does not fit expected.unit "${unit}"`)
     }
   } else {
     return invalid('rule.tolerance.kind', "tolerance.kind must be 'relative' or 'absolute'")
@@ -219,7 +230,11 @@ function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
     return {
       verdict: 'unreadable',
       message: unreadableMessage('invalid-rule', { expectedDisplay: '' }),
-      detail: { code: 'invalid-rule', expectedUnit: safeUnit(input), ruleProblem: `${prep.error.property}: ${prep.error.message}` },
+      detail: {
+        code: 'invalid-rule',
+        expectedUnit: safeUnit(input),
+        ruleProblem: `${prep.error.property}: ${prep.error.message}`,
+      },
     }
   }
   const p = prep.prepared
@@ -234,7 +249,11 @@ function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
     ...(r.dimension !== undefined ? { dimension: r.dimension } : {}),
   })
   if (!read.ok) {
-    return { verdict: read.verdict, message: read.message, detail: { code: read.error.code, expectedUnit: exp.unit, ...notes } }
+    return {
+      verdict: read.verdict,
+      message: read.message,
+      detail: { code: read.error.code, expectedUnit: exp.unit, ...notes },
+    }
   }
   const a = read.value
   const e = exp.value
@@ -264,9 +283,15 @@ function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
 
   if (!within) {
     // Still wrong, as a pitfall is; only the message names the slip.
-    const slip = read.literal !== null && read.studentUnit !== null ? temperatureLabelSlip(a, e, p, r, read.studentUnit) : null
+    const slip =
+      read.literal !== null && read.studentUnit !== null ? temperatureLabelSlip(a, e, p, r, read.studentUnit) : null
     const message = slip === null ? OUTSIDE_RANGE_MESSAGE : temperatureLabelMessage(slip, Number(read.literal))
-    return { verdict: 'incorrect', valueInExpectedUnit: a, message, detail: { ...base, ...numbers, ...sig, code: 'outside-tolerance', ...(slip ? { temperatureLabel: slip } : {}) } }
+    return {
+      verdict: 'incorrect',
+      valueInExpectedUnit: a,
+      message,
+      detail: { ...base, ...numbers, ...sig, code: 'outside-tolerance', ...(slip ? { temperatureLabel: slip } : {}) },
+    }
   }
   if (sigProblem && r.sigFigs) {
     return {
@@ -276,7 +301,12 @@ function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
       detail: { ...base, ...numbers, ...sig, code: 'sig-figs' },
     }
   }
-  return { verdict: 'correct', valueInExpectedUnit: a, message: CORRECT_MESSAGE, detail: { ...base, ...numbers, ...sig, code: 'within-tolerance' } }
+  return {
+    verdict: 'correct',
+    valueInExpectedUnit: a,
+    message: CORRECT_MESSAGE,
+    detail: { ...base, ...numbers, ...sig, code: 'within-tolerance' },
+  }
 }
 
 /** |a − e|, the allowed difference, and whether a is accepted, under the rule's tolerance. */
@@ -310,16 +340,31 @@ function compare(a: number, e: number, p: Prepared, r: CheckRule): { diff: numbe
  * label ("300 K" typed for a key of 573.15 K, i.e. 300 °C; or 573.15 °C for 300 °C). Read as
  * meant, within the same tolerance, the number would be accepted. Absolute temperatures only.
  */
-function temperatureLabelSlip(a: number, e: number, p: Prepared, r: CheckRule, studentUnit: string): TemperatureLabelSlip | null {
+function temperatureLabelSlip(
+  a: number,
+  e: number,
+  p: Prepared,
+  r: CheckRule,
+  studentUnit: string,
+): TemperatureLabelSlip | null {
   if (p.isDifference || p.expected.kind !== 'unit') return null
   const kelvin = resolveExpectedUnit('K', false)
   if (kelvin === null || kelvin.kind !== 'unit' || !p.expected.unit.equalBase(kelvin.unit)) return null
   const typed = resolveExpectedUnit(studentUnit, false)
   if (typed === null || typed.kind !== 'unit') return null
-  const comps = typed.unit.units as unknown as ReadonlyArray<{ unit: { name: string }; prefix: { name: string }; power: number }>
+  const comps = typed.unit.units as unknown as ReadonlyArray<{
+    unit: { name: string }
+    prefix: { name: string }
+    power: number
+  }>
   const only = comps.length === 1 ? comps[0]! : null
   if (only === null || only.power !== 1 || only.prefix.name !== '') return null
-  const slip: TemperatureLabelSlip | null = only.unit.name === 'K' ? 'celsius-labelled-kelvin' : only.unit.name === 'degC' || only.unit.name === 'celsius' ? 'kelvin-labelled-celsius' : null
+  const slip: TemperatureLabelSlip | null =
+    only.unit.name === 'K'
+      ? 'celsius-labelled-kelvin'
+      : only.unit.name === 'degC' || only.unit.name === 'celsius'
+        ? 'kelvin-labelled-celsius'
+        : null
   if (slip === null) return null
   // 273.15 K as a difference, in the expected unit's steps (1.8 per K for °F).
   const shift = 273.15 * differenceFactor(kelvin.unit, p.expected.unit)

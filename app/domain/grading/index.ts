@@ -16,7 +16,13 @@ export type {
 } from './check-answer.ts'
 
 export { readAnswer } from './read-answer.ts'
-export type { AnswerForm, ReadAnswerFailure, ReadAnswerOptions, ReadAnswerResult, ReadAnswerSuccess } from './read-answer.ts'
+export type {
+  AnswerForm,
+  ReadAnswerFailure,
+  ReadAnswerOptions,
+  ReadAnswerResult,
+  ReadAnswerSuccess,
+} from './read-answer.ts'
 
 export {
   ALLOWED_CONSTANTS,
@@ -49,4 +55,12 @@ export { normalizeTypography } from './typography.ts'
 export type { TypographyOptions } from './typography.ts'
 
 // Pitfalls: re-evaluating a variant with a catalogued slip (see pitfalls.ts).
-export { PITFALLS, diagnosePitfall, evaluateWithPitfall, type Diagnosis, type DiagnoseInput, type Pitfall, type PitfallId } from './pitfalls.ts'
+export {
+  PITFALLS,
+  diagnosePitfall,
+  evaluateWithPitfall,
+  type Diagnosis,
+  type DiagnoseInput,
+  type Pitfall,
+  type PitfallId,
+} from './pitfalls.ts'

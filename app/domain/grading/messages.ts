@@ -183,7 +183,11 @@ export function temperatureLabelMessage(slip: TemperatureLabelSlip, typed: numbe
     : `This looks like the temperature in K with a °C label: ${plainNumber(typed)} K is ${plainNumber(typed - 273.15)} °C.`
 }
 
-export function sigFigMessage(problem: 'too-few' | 'too-many', counted: { min: number; max: number }, rule: { min?: number; max?: number }): string {
+export function sigFigMessage(
+  problem: 'too-few' | 'too-many',
+  counted: { min: number; max: number },
+  rule: { min?: number; max?: number },
+): string {
   const ask =
     rule.min !== undefined && rule.max !== undefined
       ? rule.min === rule.max

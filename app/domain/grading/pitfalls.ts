@@ -30,37 +30,44 @@ export const PITFALLS: readonly Pitfall[] = [
   {
     id: 'sign-convention-flipped',
     title: 'Sign convention flipped',
-    feedback: 'Your number has the right size but the wrong sign. Check which convention this course uses: is w the work done on the gas, or W the work done by it?',
+    feedback:
+      'Your number has the right size but the wrong sign. Check which convention this course uses: is w the work done on the gas, or W the work done by it?',
   },
   {
     id: 'celsius-for-kelvin',
     title: 'Celsius used where kelvin is needed',
-    feedback: 'It looks as if a temperature in °C went into a formula that needs absolute temperature. Add 273.15 before using T in pV = nRT, ratios or logarithms.',
+    feedback:
+      'It looks as if a temperature in °C went into a formula that needs absolute temperature. Add 273.15 before using T in pV = nRT, ratios or logarithms.',
   },
   {
     id: 'cp-cv-swapped',
     title: 'cp and cv swapped',
-    feedback: 'Heat at constant volume uses cv and heat at constant pressure uses cp; your answer matches the two exchanged.',
+    feedback:
+      'Heat at constant volume uses cv and heat at constant pressure uses cp; your answer matches the two exchanged.',
   },
   {
     id: 'gamma-monatomic-diatomic-swapped',
     title: 'Wrong γ for the kind of gas',
-    feedback: 'A monatomic gas has γ = 5/3 (cv = 3/2 R), a diatomic one γ = 7/5 (cv = 5/2 R). Your answer fits the other kind of gas.',
+    feedback:
+      'A monatomic gas has γ = 5/3 (cv = 3/2 R), a diatomic one γ = 7/5 (cv = 5/2 R). Your answer fits the other kind of gas.',
   },
   {
     id: 'kilo-factor',
     title: 'Factor of 1000 (kJ and J)',
-    feedback: 'Your answer is off by a factor of 1000: a value in kJ was probably used as J, or the other way round. Carry the units through the calculation.',
+    feedback:
+      'Your answer is off by a factor of 1000: a value in kJ was probably used as J, or the other way round. Carry the units through the calculation.',
   },
   {
     id: 'log10-for-ln',
     title: 'log10 used instead of ln',
-    feedback: 'Isothermal work and entropy changes use the natural logarithm (ln). Your answer matches log10, which is smaller by a factor of 2.303.',
+    feedback:
+      'Isothermal work and entropy changes use the natural logarithm (ln). Your answer matches log10, which is smaller by a factor of 2.303.',
   },
   {
     id: 'per-mole-vs-per-kg',
     title: 'Per mole mixed up with per kilogram',
-    feedback: 'Your answer matches molar constants used with a mass (or per-kilogram constants with moles). Check that R, cp and cv are on the same basis as the amount of gas.',
+    feedback:
+      'Your answer matches molar constants used with a mass (or per-kilogram constants with moles). Check that R, cp and cv are on the same basis as the amount of gas.',
   },
 ]
 
@@ -137,7 +144,9 @@ function unitOf(sol: object, path: string): string {
     if (cur === null || typeof cur !== 'object') return ''
     cur = Array.isArray(cur) ? cur[Number(key) - 1] : (cur as Record<string, unknown>)[key]
   }
-  return cur && typeof cur === 'object' && typeof (cur as { unit?: unknown }).unit === 'string' ? (cur as { unit: string }).unit : ''
+  return cur && typeof cur === 'object' && typeof (cur as { unit?: unknown }).unit === 'string'
+    ? (cur as { unit: string }).unit
+    : ''
 }
 
 /**

@@ -51,17 +51,39 @@ describe('the same energy, typed many ways (SI prefixes: SI Brochure 9th ed. Tab
 describe('what readAnswer reports besides the value', () => {
   test('plain quantity', () => {
     const r = readAnswer('1.20×10^4 J', kJ)
-    expect(r).toMatchObject({ ok: true, value: 12, unit: 'kJ', form: 'quantity', literal: '1.20e4', studentUnit: 'J', readAs: '1.20e4 J', raw: '1.20×10^4 J' })
+    expect(r).toMatchObject({
+      ok: true,
+      value: 12,
+      unit: 'kJ',
+      form: 'quantity',
+      literal: '1.20e4',
+      studentUnit: 'J',
+      readAs: '1.20e4 J',
+      raw: '1.20×10^4 J',
+    })
   })
   test('expression', () => {
     expect(readAnswer('2*6 kJ', kJ)).toMatchObject({ ok: true, form: 'expression', literal: null, readAs: '12 kJ' })
   })
   test('bare and percent', () => {
-    expect(readAnswer('12', { expectedUnit: 'kJ', allowBareNumber: true })).toMatchObject({ form: 'bare', literal: '12', studentUnit: null, readAs: '12 kJ' })
-    expect(readAnswer('42 %', { expectedUnit: '' })).toMatchObject({ form: 'percent', literal: '42', value: 0.42, readAs: '42 %' })
+    expect(readAnswer('12', { expectedUnit: 'kJ', allowBareNumber: true })).toMatchObject({
+      form: 'bare',
+      literal: '12',
+      studentUnit: null,
+      readAs: '12 kJ',
+    })
+    expect(readAnswer('42 %', { expectedUnit: '' })).toMatchObject({
+      form: 'percent',
+      literal: '42',
+      value: 0.42,
+      readAs: '42 %',
+    })
   })
   test('the slash rule shows in readAs', () => {
-    expect(readAnswer('1.005 kJ/kg·K', { expectedUnit: 'kJ/(kg K)' })).toMatchObject({ value: 1.005, readAs: '1.005 kJ/(kg·K)' })
+    expect(readAnswer('1.005 kJ/kg·K', { expectedUnit: 'kJ/(kg K)' })).toMatchObject({
+      value: 1.005,
+      readAs: '1.005 kJ/(kg·K)',
+    })
   })
 })
 
@@ -124,7 +146,10 @@ describe('temperatures', () => {
     ['18 °F', 10],
     ['-10 °C', -10],
   ])('difference (dimension temperature-difference): %j = %f K', (answer, value) => {
-    expect(valueOf(readAnswer(answer, { expectedUnit: 'K', dimension: 'temperature-difference' }))).toBeCloseTo(value, 9)
+    expect(valueOf(readAnswer(answer, { expectedUnit: 'K', dimension: 'temperature-difference' }))).toBeCloseTo(
+      value,
+      9,
+    )
   })
   test('difference with an expected unit of °C', () => {
     expect(valueOf(readAnswer('10 K', { expectedUnit: '°C', temperatureDifference: true }))).toBeCloseTo(10, 12)
@@ -182,23 +207,67 @@ describe('unreadable answers get a specific message', () => {
   test.each([
     ['', 'empty', 'Please type an answer, for example 12.5 kJ.'],
     ['   ', 'empty', 'Please type an answer, for example 12.5 kJ.'],
-    ['12,5 kJ', 'decimal-comma', 'Please use a point for decimals (12.5, not 12,5) and no commas between thousands (12500, not 12,500).'],
-    ['12,500 J', 'decimal-comma', 'Please use a point for decimals (12.5, not 12,5) and no commas between thousands (12500, not 12,500).'],
-    ['12 KJ', 'unknown-unit', 'We don\u2019t recognise “KJ” as a unit. Did you mean kJ? Units are case-sensitive.'.replace('\u2019', "'")],
+    [
+      '12,5 kJ',
+      'decimal-comma',
+      'Please use a point for decimals (12.5, not 12,5) and no commas between thousands (12500, not 12,500).',
+    ],
+    [
+      '12,500 J',
+      'decimal-comma',
+      'Please use a point for decimals (12.5, not 12,5) and no commas between thousands (12500, not 12,500).',
+    ],
+    [
+      '12 KJ',
+      'unknown-unit',
+      'We don\u2019t recognise “KJ” as a unit. Did you mean kJ? Units are case-sensitive.'.replace('\u2019', "'"),
+    ],
     ['12 kJ/kgK', 'unknown-unit', "We don't recognise “kgK” as a unit. Did you mean kg·K? Units are case-sensitive."],
     ['12 zorks', 'unknown-unit', "We don't recognise “zorks” as a unit."],
     ['kJ', 'no-number', 'We found a unit but no number. Type a number and a unit, like 12.5 kJ.'],
     ['x = 12 kJ', 'equals-sign', 'Type only the value, without “=”: for example 12.5 kJ.'],
-    ['12 kJ; 5 kJ', 'multiple-expressions', 'Please type one value only, on a single line. Type a number and a unit, like 12.5 kJ.'],
-    ['12 kJ\n5 kJ', 'multiple-expressions', 'Please type one value only, on a single line. Type a number and a unit, like 12.5 kJ.'],
+    [
+      '12 kJ; 5 kJ',
+      'multiple-expressions',
+      'Please type one value only, on a single line. Type a number and a unit, like 12.5 kJ.',
+    ],
+    [
+      '12 kJ\n5 kJ',
+      'multiple-expressions',
+      'Please type one value only, on a single line. Type a number and a unit, like 12.5 kJ.',
+    ],
     ['max(1, 2) kJ', 'bad-character', 'We could not read the character “,”. Type a number and a unit, like 12.5 kJ.'],
     ['12 kJ @', 'bad-character', 'We could not read the character “@”. Type a number and a unit, like 12.5 kJ.'],
-    ['12 kJ \u{1F600}', 'bad-character', 'This answer contains a character we cannot read. Type a number and a unit, like 12.5 kJ.'],
-    ['1e999 kJ', 'out-of-range', 'This number is too large or too small to work with (or it divides by zero). Please check it.'],
-    ['1e-999 kJ', 'out-of-range', 'This number is too large or too small to work with (or it divides by zero). Please check it.'],
-    ['sqrt(-4) kJ', 'not-real', 'This calculation has no real value (for example the square root or logarithm of a negative number).'],
-    ['12 kJ + 3 kg', 'incompatible-units', 'Parts of this answer have units that do not fit together (for example kJ + kg).'],
-    ['cbrt(8) kJ', 'function-not-allowed', 'Only these functions can be used in an answer: sqrt, exp, ln, log, log10, sin, cos, tan, abs (ln and log are both the natural logarithm).'],
+    [
+      '12 kJ \u{1F600}',
+      'bad-character',
+      'This answer contains a character we cannot read. Type a number and a unit, like 12.5 kJ.',
+    ],
+    [
+      '1e999 kJ',
+      'out-of-range',
+      'This number is too large or too small to work with (or it divides by zero). Please check it.',
+    ],
+    [
+      '1e-999 kJ',
+      'out-of-range',
+      'This number is too large or too small to work with (or it divides by zero). Please check it.',
+    ],
+    [
+      'sqrt(-4) kJ',
+      'not-real',
+      'This calculation has no real value (for example the square root or logarithm of a negative number).',
+    ],
+    [
+      '12 kJ + 3 kg',
+      'incompatible-units',
+      'Parts of this answer have units that do not fit together (for example kJ + kg).',
+    ],
+    [
+      'cbrt(8) kJ',
+      'function-not-allowed',
+      'Only these functions can be used in an answer: sqrt, exp, ln, log, log10, sin, cos, tan, abs (ln and log are both the natural logarithm).',
+    ],
     ['12 kJ in J', 'unsupported-syntax', 'We could not read this answer. Type a number and a unit, like 12.5 kJ.'],
     ['0x1F kJ', 'syntax', 'We could not read this answer. Type a number and a unit, like 12.5 kJ.'],
     ['((12 kJ', 'syntax', 'We could not read this answer. Type a number and a unit, like 12.5 kJ.'],
@@ -215,7 +284,9 @@ describe('unreadable answers get a specific message', () => {
     expect(codeOf(readAnswer(justRight, kJ))).toBe('ok')
     const r = readAnswer('1'.repeat(201), kJ)
     expect(codeOf(r)).toBe('too-long')
-    expect(r.ok ? '' : r.message).toBe('This answer is too long (more than 200 characters). Type just the number and its unit.')
+    expect(r.ok ? '' : r.message).toBe(
+      'This answer is too long (more than 200 characters). Type just the number and its unit.',
+    )
   })
 
   test('non-string input and broken options do not throw', () => {
@@ -224,7 +295,9 @@ describe('unreadable answers get a specific message', () => {
     expect(codeOf(readAnswer('12 kJ', { expectedUnit: 'zork' }))).toBe('invalid-expected-unit')
     expect(codeOf(readAnswer('12 kJ', { expectedUnit: 'kJ', dimension: 'pressure' }))).toBe('invalid-expected-unit')
     expect(codeOf(readAnswer('12 kJ', null as unknown as ReadAnswerOptions))).toBe('invalid-expected-unit')
-    expect(codeOf(readAnswer('12 kJ', { expectedUnit: 'kJ', dimension: 'nonsense' as never }))).toBe('invalid-expected-unit')
+    expect(codeOf(readAnswer('12 kJ', { expectedUnit: 'kJ', dimension: 'nonsense' as never }))).toBe(
+      'invalid-expected-unit',
+    )
   })
 })
 
@@ -261,6 +334,8 @@ describe('security: mathjs internals are not reachable from an answer', () => {
     expect(r.ok).toBe(false)
     expect(r.ok ? null : r.verdict).toBe('unreadable')
     const message = r.ok ? '' : r.message
-    expect(message).not.toMatch(/mathjs|disabled|Error|stack|undefined|proto|constructor|import|createUnit|evaluate|parse|compile|typed/i)
+    expect(message).not.toMatch(
+      /mathjs|disabled|Error|stack|undefined|proto|constructor|import|createUnit|evaluate|parse|compile|typed/i,
+    )
   })
 })

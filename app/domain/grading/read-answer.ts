@@ -137,19 +137,35 @@ export function readAnswer(text: unknown, options: ReadAnswerOptions): ReadAnswe
   } catch (e) {
     const display = ctx?.expectedDisplay ?? ''
     if (e instanceof AnswerError) {
-      return failure(raw, e.code, e.verdict, e.detailMessage ?? unreadableMessage(e.code, { expectedDisplay: display, maxLength: ctx?.maxLength }))
+      return failure(
+        raw,
+        e.code,
+        e.verdict,
+        e.detailMessage ?? unreadableMessage(e.code, { expectedDisplay: display, maxLength: ctx?.maxLength }),
+      )
     }
     const r = toRestrictedError(e)
     return restrictedFailure(raw, r, display, ctx?.maxLength)
   }
 }
 
-function failure(raw: string, code: AnswerErrorCode, verdict: 'unreadable' | 'wrong-dimension', message: string): ReadAnswerFailure {
+function failure(
+  raw: string,
+  code: AnswerErrorCode,
+  verdict: 'unreadable' | 'wrong-dimension',
+  message: string,
+): ReadAnswerFailure {
   return { ok: false, verdict, message, error: { code, message }, raw }
 }
 
-function restrictedFailure(raw: string, r: RestrictedError, expectedDisplay: string, maxLength?: number): ReadAnswerFailure {
-  const code: AnswerErrorCode = r.code === 'unknown-symbol' ? 'unknown-unit' : r.code === 'wrong-dimension' ? 'internal' : r.code
+function restrictedFailure(
+  raw: string,
+  r: RestrictedError,
+  expectedDisplay: string,
+  maxLength?: number,
+): ReadAnswerFailure {
+  const code: AnswerErrorCode =
+    r.code === 'unknown-symbol' ? 'unknown-unit' : r.code === 'wrong-dimension' ? 'internal' : r.code
   const message = unreadableMessage(code, {
     expectedDisplay,
     symbol: r.symbol,
@@ -162,11 +178,19 @@ function restrictedFailure(raw: string, r: RestrictedError, expectedDisplay: str
 function prepareContext(raw: string, options: ReadAnswerOptions): { ctx: Ctx } | { fail: ReadAnswerFailure } {
   const opts = (options ?? {}) as Partial<ReadAnswerOptions>
   const invalid = (): { fail: ReadAnswerFailure } => ({
-    fail: failure(raw, 'invalid-expected-unit', 'unreadable', unreadableMessage('invalid-expected-unit', { expectedDisplay: '' })),
+    fail: failure(
+      raw,
+      'invalid-expected-unit',
+      'unreadable',
+      unreadableMessage('invalid-expected-unit', { expectedDisplay: '' }),
+    ),
   })
   if (opts.dimension !== undefined && !isDimensionName(opts.dimension)) return invalid()
   const temperatureDifference = opts.temperatureDifference === true || opts.dimension === 'temperature-difference'
-  const expected = resolveExpectedUnit(typeof opts.expectedUnit === 'string' ? opts.expectedUnit : '\u0000', temperatureDifference)
+  const expected = resolveExpectedUnit(
+    typeof opts.expectedUnit === 'string' ? opts.expectedUnit : '\u0000',
+    temperatureDifference,
+  )
   if (expected === null) return invalid()
   if (opts.dimension !== undefined) {
     const ref = referenceUnitOf(opts.dimension)
@@ -268,10 +292,15 @@ function readPlain(s: string, ctx: Ctx): Read | null {
       maxLength: Number.MAX_SAFE_INTEGER,
       alreadyNormalized: true,
     })
-    unit = evaluateTree(parsed.tree, { scope: new Map(), allowConstants: false, temperatureDifference: ctx.temperatureDifference })
+    unit = evaluateTree(parsed.tree, {
+      scope: new Map(),
+      allowConstants: false,
+      temperatureDifference: ctx.temperatureDifference,
+    })
   } catch (e) {
     if (e instanceof RestrictedError && e.code === 'unknown-symbol' && e.symbol !== undefined) {
-      const isConstantOrFunction = Object.hasOwn(ALLOWED_CONSTANTS, e.symbol) || (ALLOWED_FUNCTIONS as readonly string[]).includes(e.symbol)
+      const isConstantOrFunction =
+        Object.hasOwn(ALLOWED_CONSTANTS, e.symbol) || (ALLOWED_FUNCTIONS as readonly string[]).includes(e.symbol)
       if (!isConstantOrFunction) throw e
     }
     return null // not "number unit": try the general reader
@@ -289,14 +318,24 @@ function readExpression(s: string, ctx: Ctx): Read {
     maxLength: Number.MAX_SAFE_INTEGER,
     alreadyNormalized: true,
   })
-  const value = evaluateTree(parsed.tree, { scope: new Map(), allowConstants: true, temperatureDifference: ctx.temperatureDifference })
+  const value = evaluateTree(parsed.tree, {
+    scope: new Map(),
+    allowConstants: true,
+    temperatureDifference: ctx.temperatureDifference,
+  })
   return { value, usesUnits: parsed.facts.usesUnits, literal: null, unitText: null }
 }
 
 function finish(read: Read, percent: boolean, s: string, ctx: Ctx): ReadAnswerSuccess {
   const { expected } = ctx
   const v = read.value
-  const form: AnswerForm = percent ? 'percent' : read.literal === null ? 'expression' : read.usesUnits ? 'quantity' : 'bare'
+  const form: AnswerForm = percent
+    ? 'percent'
+    : read.literal === null
+      ? 'expression'
+      : read.usesUnits
+        ? 'quantity'
+        : 'bare'
   const isBare = !percent && !read.usesUnits
 
   let value: number

@@ -77,12 +77,16 @@ describe('evaluateRestrictedExpression: what is allowed', () => {
   })
 
   test('variables shadow unit names (m is a mass variable here, not metre)', () => {
-    const r = evaluateRestrictedExpression('m*cp*(T2 - T1)', {
-      m: { value: 2, unit: 'kg' },
-      cp: { value: 1.005, unit: 'kJ/(kg·K)' },
-      T1: { value: 300, unit: 'K' },
-      T2: { value: 400, unit: 'K' },
-    }, { expectedUnit: 'kJ' })
+    const r = evaluateRestrictedExpression(
+      'm*cp*(T2 - T1)',
+      {
+        m: { value: 2, unit: 'kg' },
+        cp: { value: 1.005, unit: 'kJ/(kg·K)' },
+        T1: { value: 300, unit: 'K' },
+        T2: { value: 400, unit: 'K' },
+      },
+      { expectedUnit: 'kJ' },
+    )
     // closed form: Q = m·cp·ΔT = 2 × 1.005 × 100 kJ
     expect(r.ok && r.kind === 'quantity' ? r.value : NaN).toBeCloseTo(201, 9)
   })

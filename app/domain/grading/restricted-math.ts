@@ -400,7 +400,8 @@ function evalFunction(name: string, x: Value): Value {
     case 'sin':
     case 'cos':
     case 'tan': {
-      if (typeof x === 'number') return checkNumber(name === 'sin' ? Math.sin(x) : name === 'cos' ? Math.cos(x) : Math.tan(x))
+      if (typeof x === 'number')
+        return checkNumber(name === 'sin' ? Math.sin(x) : name === 'cos' ? Math.cos(x) : Math.tan(x))
       const fn = name === 'sin' ? mathCore.sin : name === 'cos' ? mathCore.cos : mathCore.tan
       return checkNumber(viaMath(() => fn(requireValued(x)))) // mathjs accepts angle units only; anything else throws
     }

@@ -14,8 +14,7 @@
 // An answer that is a calculation (2*3.5 kJ, sqrt(2) kPa) has no typed number to count.
 
 export type SigFigCount =
-  | { readonly kind: 'count'; readonly min: number; readonly max: number }
-  | { readonly kind: 'zero' }
+  { readonly kind: 'count'; readonly min: number; readonly max: number } | { readonly kind: 'zero' }
 
 export interface SigFigRule {
   readonly min?: number

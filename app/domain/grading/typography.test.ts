@@ -2,7 +2,8 @@ import { describe, expect, test } from 'vitest'
 import { isKnownUnitName } from './restricted-math.ts'
 import { applySlashRule, normalizeTypography } from './typography.ts'
 
-const norm = (s: string, letterXIsTimes = true): string => normalizeTypography(s, { isUnitName: isKnownUnitName, letterXIsTimes })
+const norm = (s: string, letterXIsTimes = true): string =>
+  normalizeTypography(s, { isUnitName: isKnownUnitName, letterXIsTimes })
 
 describe('normalizeTypography', () => {
   test.each([

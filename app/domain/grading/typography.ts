@@ -93,7 +93,10 @@ export function normalizeTypography(text: string, options: TypographyOptions): s
   s = s.replace(timesTen, (_m, mantissa: string, inParens?: string, bare?: string) => {
     return `${mantissa}e${inParens ?? bare ?? ''}`
   })
-  s = s.replace(/[\u00B5\u03BC]/g, 'u').replace(/\u03C0/g, 'pi').replace(/\u00F7/g, '/')
+  s = s
+    .replace(/[\u00B5\u03BC]/g, 'u')
+    .replace(/\u03C0/g, 'pi')
+    .replace(/\u00F7/g, '/')
   s = s.replace(LETTER_DOT_LETTER, '\u00B7')
   s = s.replace(MIDDLE_DOTS, '\u00B7')
   s = s.replace(/ {2,}/g, ' ').replace(/\( /g, '(').replace(/ \)/g, ')')
@@ -149,11 +152,7 @@ export function applySlashRule(s: string, isUnitName: (name: string) => boolean)
       j = k
     }
     const next = chainEnd >= 0 ? s[skipSpaces(s, chainEnd)] : undefined
-    if (
-      members.length >= 2 &&
-      next !== '(' &&
-      members.every((m) => isUnitName(m.name))
-    ) {
+    if (members.length >= 2 && next !== '(' && members.every((m) => isUnitName(m.name))) {
       out += '(' + s.slice(skipSpaces(s, i), chainEnd) + ')'
       i = chainEnd
     }

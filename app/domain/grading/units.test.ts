@@ -45,7 +45,12 @@ describe('unit definitions (each against its legal or standard definition)', () 
     // Specific quantities
     ['1 kJ/kg', 'J/kg', 1000, 'SI prefixes'],
     ['1 kJ/(kg·K)', 'J/(kg K)', 1000, 'SI prefixes'],
-    ['1 kJ/(kg·°C)', 'J/(kg K)', 1000, 'closed form: a kelvin and a degree Celsius are the same size (SI Brochure 2.3.1)'],
+    [
+      '1 kJ/(kg·°C)',
+      'J/(kg K)',
+      1000,
+      'closed form: a kelvin and a degree Celsius are the same size (SI Brochure 2.3.1)',
+    ],
     ['1 kJ/kmol', 'J/mol', 1, 'SI prefixes'],
     // Mass: international avoirdupois pound = 0.45359237 kg exactly (1959 agreement)
     ['1 lbm', 'kg', 0.45359237, 'international yard and pound agreement (1959)'],
@@ -112,9 +117,12 @@ describe('temperatures: absolute readings use the offsets, differences do not', 
 })
 
 describe('expected units', () => {
-  test.each(['kJ', 'kJ/(kg·K)', 'kJ/kg·K', 'kJ/kg K', '°C', 'm³/kg', 'kPa', 'W', 'J/K', '1/s', 'kg^-1'])('%s is a unit', (u) => {
-    expect(resolveExpectedUnit(u, false)?.kind).toBe('unit')
-  })
+  test.each(['kJ', 'kJ/(kg·K)', 'kJ/kg·K', 'kJ/kg K', '°C', 'm³/kg', 'kPa', 'W', 'J/K', '1/s', 'kg^-1'])(
+    '%s is a unit',
+    (u) => {
+      expect(resolveExpectedUnit(u, false)?.kind).toBe('unit')
+    },
+  )
   test.each([
     ['', 1],
     ['1', 1],

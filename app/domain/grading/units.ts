@@ -39,7 +39,10 @@ export const DIMENSIONS = {
   'specific-energy': { reference: 'J/kg', label: 'a specific energy (energy per mass)' },
   'molar-energy': { reference: 'J/mol', label: 'a molar energy (energy per mole)' },
   entropy: { reference: 'J/K', label: 'an entropy (energy per kelvin)' },
-  'specific-entropy': { reference: 'J/(kg K)', label: 'a specific entropy or heat capacity (energy per mass and kelvin)' },
+  'specific-entropy': {
+    reference: 'J/(kg K)',
+    label: 'a specific entropy or heat capacity (energy per mass and kelvin)',
+  },
   'molar-entropy': { reference: 'J/(mol K)', label: 'a molar entropy or heat capacity (energy per mole and kelvin)' },
   'mass-flow-rate': { reference: 'kg/s', label: 'a mass flow rate' },
   'volume-flow-rate': { reference: 'm^3/s', label: 'a volume flow rate' },
@@ -153,7 +156,13 @@ function resolveUncached(text: string, temperatureDifference: boolean): Expected
   if (u === null) return null
   if (u === 1) return { kind: 'dimensionless', text: t, scale: 1, display: '' }
   if ((u.dimensions as readonly number[]).every((d) => d === 0)) return null // kJ/J and the like
-  return { kind: 'unit', text: t, unit: u, absoluteTwin: absoluteTwinOf(u), display: formatUnitForDisplay(u.formatUnits()) }
+  return {
+    kind: 'unit',
+    text: t,
+    unit: u,
+    absoluteTwin: absoluteTwinOf(u),
+    display: formatUnitForDisplay(u.formatUnits()),
+  }
 }
 
 const ABSOLUTE_TWIN: Readonly<Record<string, string>> = { degC: 'K', celsius: 'K', degF: 'degR', fahrenheit: 'degR' }
@@ -208,7 +217,19 @@ export function sameDimension(q: Unit | number, ref: Unit | 1): boolean {
 
 /** A unit as we show it: degC → °C, kJ / (kg K) → kJ/(kg·K), m^3 → m³. */
 export function formatUnitForDisplay(unitText: string): string {
-  const sup: Readonly<Record<string, string>> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' }
+  const sup: Readonly<Record<string, string>> = {
+    '-': '⁻',
+    '0': '⁰',
+    '1': '¹',
+    '2': '²',
+    '3': '³',
+    '4': '⁴',
+    '5': '⁵',
+    '6': '⁶',
+    '7': '⁷',
+    '8': '⁸',
+    '9': '⁹',
+  }
   return unitText
     .replace(/\bdegC\b/g, '°C')
     .replace(/\bdegF\b/g, '°F')
@@ -221,9 +242,44 @@ export function formatUnitForDisplay(unitText: string): string {
 
 /** Common units, for "did you mean …" suggestions on a mistyped unit. */
 const COMMON_UNITS: readonly string[] = [
-  'J', 'kJ', 'MJ', 'GJ', 'W', 'kW', 'MW', 'Wh', 'kWh', 'Pa', 'kPa', 'MPa', 'GPa', 'bar', 'atm', 'psi',
-  'K', 'degC', 'degF', 'degR', 'kg', 'g', 'mol', 'kmol', 'm', 'cm', 'mm', 'L', 'mL', 's', 'min', 'h',
-  'N', 'kN', 'cal', 'kcal', 'BTU', 'Btu',
+  'J',
+  'kJ',
+  'MJ',
+  'GJ',
+  'W',
+  'kW',
+  'MW',
+  'Wh',
+  'kWh',
+  'Pa',
+  'kPa',
+  'MPa',
+  'GPa',
+  'bar',
+  'atm',
+  'psi',
+  'K',
+  'degC',
+  'degF',
+  'degR',
+  'kg',
+  'g',
+  'mol',
+  'kmol',
+  'm',
+  'cm',
+  'mm',
+  'L',
+  'mL',
+  's',
+  'min',
+  'h',
+  'N',
+  'kN',
+  'cal',
+  'kcal',
+  'BTU',
+  'Btu',
 ]
 
 /**
@@ -236,11 +292,13 @@ export function suggestUnit(name: string): string | null {
   const byCase = COMMON_UNITS.filter((u) => u.toLowerCase() === lower && u !== name)
   if (byCase.length === 1 && byCase[0] !== undefined) return formatUnitForDisplay(byCase[0])
   const power = /^([A-Za-z]+)([2-4])$/.exec(name)
-  if (power && power[1] !== undefined && isKnownUnitName(power[1])) return formatUnitForDisplay(`${power[1]}^${power[2]}`)
+  if (power && power[1] !== undefined && isKnownUnitName(power[1]))
+    return formatUnitForDisplay(`${power[1]}^${power[2]}`)
   for (let i = 1; i < name.length; i++) {
     const a = name.slice(0, i)
     const b = name.slice(i)
-    if (COMMON_UNITS.includes(a) && COMMON_UNITS.includes(b)) return `${formatUnitForDisplay(a)}·${formatUnitForDisplay(b)}`
+    if (COMMON_UNITS.includes(a) && COMMON_UNITS.includes(b))
+      return `${formatUnitForDisplay(a)}·${formatUnitForDisplay(b)}`
   }
   return null
 }

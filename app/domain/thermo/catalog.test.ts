@@ -21,7 +21,9 @@ test('bank templates solve for bank problems; the others are refused there with 
     const r = solveBankSpec({ template: e.id, inputs: {} })
     if (e.bank) expect(r.ok || r.error.code !== NOT_IN_BANK, e.id).toBe(true)
   }
-  expect(TEMPLATE_CATALOG.filter((e) => !e.bank).map((e) => e.id)).toEqual(expect.arrayContaining(['combined-cycle', 'steam-throttling-calorimeter', 'steam-carnot']))
+  expect(TEMPLATE_CATALOG.filter((e) => !e.bank).map((e) => e.id)).toEqual(
+    expect.arrayContaining(['combined-cycle', 'steam-throttling-calorimeter', 'steam-carnot']),
+  )
 })
 
 test('short labels come from the titles', () => {

@@ -47,12 +47,24 @@ interface Described {
 
 /** "Otto cycle (air-standard spark ignition)" → "Otto"; "Brayton cycle with regenerator" → "Brayton with regenerator". */
 export function shortLabel(title: string): string {
-  const bare = title.replace(/\s*\([^)]*\)\s*/g, ' ').replace(/\bcycle\b\s*/i, '').replace(/\s+/g, ' ').trim()
+  const bare = title
+    .replace(/\s*\([^)]*\)\s*/g, ' ')
+    .replace(/\bcycle\b\s*/i, '')
+    .replace(/\s+/g, ' ')
+    .trim()
   return bare === '' ? title : bare.charAt(0).toUpperCase() + bare.slice(1)
 }
 
 function entries(family: TemplateFamily, list: readonly Described[], bank: boolean): CatalogEntry[] {
-  return list.map((t) => ({ id: t.id, family, title: t.title, label: t.label ?? shortLabel(t.title), description: t.description, inputs: t.inputs, bank }))
+  return list.map((t) => ({
+    id: t.id,
+    family,
+    title: t.title,
+    label: t.label ?? shortLabel(t.title),
+    description: t.description,
+    inputs: t.inputs,
+    bank,
+  }))
 }
 
 export const TEMPLATE_CATALOG: readonly CatalogEntry[] = [
@@ -91,7 +103,10 @@ export const GENERAL_CYCLE = { id: 'general', label: 'General cycle' } as const
 
 /** Every cycle a bank problem can be about, as [id, label] in the order the filters list them. */
 export function cycleChoices(): [string, string][] {
-  return [...TEMPLATE_CATALOG.filter((e) => e.bank).map((e): [string, string] => [e.id, e.label]), [GENERAL_CYCLE.id, GENERAL_CYCLE.label]]
+  return [
+    ...TEMPLATE_CATALOG.filter((e) => e.bank).map((e): [string, string] => [e.id, e.label]),
+    [GENERAL_CYCLE.id, GENERAL_CYCLE.label],
+  ]
 }
 
 /** The label of a bank problem's cycle; an id no longer offered is shown as it is. */

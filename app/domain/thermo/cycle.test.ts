@@ -24,7 +24,13 @@ function solved(spec: CycleSpec): CycleSolution {
   if (!r.ok) throw new Error(r.error.message)
   return r
 }
-function build(id: string, gas: Gas, num: Record<string, number | undefined>, heat: TemplateValues['heat'] = {}, amount?: number): CycleSolution {
+function build(
+  id: string,
+  gas: Gas,
+  num: Record<string, number | undefined>,
+  heat: TemplateValues['heat'] = {},
+  amount?: number,
+): CycleSolution {
   const b = templates[id]!.build({ gas, num, heat, labels: {}, amount })
   if (!b.ok) throw new Error(b.error.message)
   return solved(b.spec)
@@ -51,11 +57,14 @@ describe('closed-form efficiencies (cold-air-standard)', () => {
   test.each([
     [14, 1.5, 1.6, 1.4],
     [16, 1.2, 1.3, 1.4],
-  ])('dual r = %d, rp = %d, rc = %d: η = 1 − (rp·rc^γ − 1)/(r^(γ−1)[(rp − 1) + γ·rp(rc − 1)]) (closed form)', (r, rp, rc, g) => {
-    const s = build('dual', gasK(g), { p1: 1e5, T1: 300, compressionRatio: r, pressureRatio: rp, cutoffRatio: rc })
-    const eta = 1 - (rp * Math.pow(rc, g) - 1) / (Math.pow(r, g - 1) * (rp - 1 + g * rp * (rc - 1)))
-    expect(s.totals.efficiency!).toBeCloseTo(eta, 12)
-  })
+  ])(
+    'dual r = %d, rp = %d, rc = %d: η = 1 − (rp·rc^γ − 1)/(r^(γ−1)[(rp − 1) + γ·rp(rc − 1)]) (closed form)',
+    (r, rp, rc, g) => {
+      const s = build('dual', gasK(g), { p1: 1e5, T1: 300, compressionRatio: r, pressureRatio: rp, cutoffRatio: rc })
+      const eta = 1 - (rp * Math.pow(rc, g) - 1) / (Math.pow(r, g - 1) * (rp - 1 + g * rp * (rc - 1)))
+      expect(s.totals.efficiency!).toBeCloseTo(eta, 12)
+    },
+  )
   test.each([
     [8, 1.4],
     [15, 1.4],
@@ -77,8 +86,12 @@ describe('closed-form efficiencies (cold-air-standard)', () => {
     expect(h.totals.copHeatPump!).toBeCloseTo(300 / 50, 10)
   })
   test('Stirling and Ericsson with ideal regenerators reach the Carnot efficiency 1 − Tc/Th (closed form)', () => {
-    expect(build('stirling', preset('monatomic'), { Th: 900, Tc: 300, p1: 1e5, compressionRatio: 4 }).totals.efficiency!).toBeCloseTo(2 / 3, 12)
-    expect(build('ericsson', preset('air'), { Th: 1000, Tc: 300, p1: 1e5, pressureRatio: 5 }).totals.efficiency!).toBeCloseTo(0.7, 12)
+    expect(
+      build('stirling', preset('monatomic'), { Th: 900, Tc: 300, p1: 1e5, compressionRatio: 4 }).totals.efficiency!,
+    ).toBeCloseTo(2 / 3, 12)
+    expect(
+      build('ericsson', preset('air'), { Th: 1000, Tc: 300, p1: 1e5, pressureRatio: 5 }).totals.efficiency!,
+    ).toBeCloseTo(0.7, 12)
   })
   test('Otto mean effective pressure = w_net/(v1 − v2) (definition)', () => {
     const s = build('otto', gasK(1.4), { p1: 1e5, T1: 300, compressionRatio: 8, T3: 1800 })
@@ -89,7 +102,11 @@ describe('closed-form efficiencies (cold-air-standard)', () => {
 test('T·V^(γ−1) is constant on a reversible adiabat (closed form), for the isentropic and the n = γ polytropic step', () => {
   const g = gasK(1.4)
   for (const step of [{ process: 'isentropic' as const }, { process: 'polytropic' as const, n: 1.4 }]) {
-    const s = solved({ gas: g, states: [{ p: 1e5, T: 300 }, { v: 0.1 }, { T: 300 }], steps: [step, { process: 'isobaric' }, { process: 'isothermal' }] })
+    const s = solved({
+      gas: g,
+      states: [{ p: 1e5, T: 300 }, { v: 0.1 }, { T: 300 }],
+      steps: [step, { process: 'isobaric' }, { process: 'isothermal' }],
+    })
     const [a, b] = s.states
     expect(b!.T * Math.pow(b!.v, 0.4)).toBeCloseTo(a!.T * Math.pow(a!.v, 0.4), 9)
     expect(s.steps[0]!.q).toBe(0) // n = γ handled exactly, not as Δu + w ≈ 0
@@ -98,11 +115,19 @@ test('T·V^(γ−1) is constant on a reversible adiabat (closed form), for the i
 
 test('polytropic n = 1 is exactly isothermal: w = −R T ln(v2/v1) (closed form)', () => {
   const g = gasK(1.4)
-  const s = solved({ gas: g, states: [{ p: 1e5, T: 300 }, { v: 0.2 }, {}], steps: [{ process: 'polytropic', n: 1 }, { process: 'isochoric' }, { process: 'isobaric' }] })
+  const s = solved({
+    gas: g,
+    states: [{ p: 1e5, T: 300 }, { v: 0.2 }, {}],
+    steps: [{ process: 'polytropic', n: 1 }, { process: 'isochoric' }, { process: 'isobaric' }],
+  })
   expect(s.states[1]!.T).toBe(300)
   expect(s.steps[0]!.w).toBeCloseTo(-287 * 300 * Math.log(0.2 / 0.861), 9)
   // n very close to 1 tends to the same value (no division by ~0)
-  const near = solved({ gas: g, states: [{ p: 1e5, T: 300 }, { v: 0.2 }, {}], steps: [{ process: 'polytropic', n: 1 + 1e-12 }, { process: 'isochoric' }, { process: 'isobaric' }] })
+  const near = solved({
+    gas: g,
+    states: [{ p: 1e5, T: 300 }, { v: 0.2 }, {}],
+    steps: [{ process: 'polytropic', n: 1 + 1e-12 }, { process: 'isochoric' }, { process: 'isobaric' }],
+  })
   expect(near.steps[0]!.w).toBeCloseTo(s.steps[0]!.w, 3)
 })
 
@@ -160,7 +185,14 @@ describe('worked textbook examples', () => {
     expect(Math.abs(s.states[3]!.T / 770 - 1)).toBeLessThan(0.01)
     expect(Math.abs(s.totals.backWorkRatio! / 0.403 - 1)).toBeLessThan(0.02)
     expect(Math.abs(s.totals.efficiency! / 0.426 - 1)).toBeLessThan(0.02)
-    const a = build('brayton', air, { p1: 100e3, T1: 300, pressureRatio: 8, turbineInletT: 1300, compressorEfficiency: 0.8, turbineEfficiency: 0.85 })
+    const a = build('brayton', air, {
+      p1: 100e3,
+      T1: 300,
+      pressureRatio: 8,
+      turbineInletT: 1300,
+      compressorEfficiency: 0.8,
+      turbineEfficiency: 0.85,
+    })
     expect(Math.abs(a.totals.backWorkRatio! / 0.592 - 1)).toBeLessThan(0.02)
     expect(Math.abs(a.totals.efficiency! / 0.266 - 1)).toBeLessThan(0.03)
     expect(Math.abs(a.states[3]!.T / 853 - 1)).toBeLessThan(0.01)
@@ -168,7 +200,11 @@ describe('worked textbook examples', () => {
   // Isothermal expansion of 1 mol ideal gas at 298.15 K doubling its volume: w = −RT ln 2 =
   // −1718.5 J (hand-derived closed form).
   test('isothermal doubling: w = −RT ln 2', () => {
-    const s = solved({ gas: preset('monatomic'), states: [{ p: 1e5, T: 298.15 }, { p: 0.5e5 }, {}], steps: [{ process: 'isothermal' }, { process: 'isochoric' }, { process: 'isobaric' }] })
+    const s = solved({
+      gas: preset('monatomic'),
+      states: [{ p: 1e5, T: 298.15 }, { p: 0.5e5 }, {}],
+      steps: [{ process: 'isothermal' }, { process: 'isochoric' }, { process: 'isobaric' }],
+    })
     expect(s.steps[0]!.w).toBeCloseTo(-R_MOLAR * 298.15 * Math.LN2, 9)
     expect(s.steps[0]!.w).toBeCloseTo(-1718.5, 0)
   })
@@ -177,7 +213,16 @@ describe('worked textbook examples', () => {
 describe('errors name the state and property', () => {
   const g = gasK(1.4)
   test('underdetermined', () => {
-    const r = solveCycle({ gas: g, states: [{ p: 1e5, T: 300 }, {}, {}, {}], steps: [{ process: 'isentropic', volumeRatio: 1 / 8 }, { process: 'isochoric' }, { process: 'isentropic' }, { process: 'isochoric' }] })
+    const r = solveCycle({
+      gas: g,
+      states: [{ p: 1e5, T: 300 }, {}, {}, {}],
+      steps: [
+        { process: 'isentropic', volumeRatio: 1 / 8 },
+        { process: 'isochoric' },
+        { process: 'isentropic' },
+        { process: 'isochoric' },
+      ],
+    })
     expect(r.ok).toBe(false)
     if (r.ok) return
     expect(r.error.code).toBe('underdetermined')
@@ -197,14 +242,33 @@ describe('errors name the state and property', () => {
     expect(r.error.message).toBe('State 2: p given as 4.2 bar but the isochoric step 1→2 requires 300 kPa')
   })
   test('bad step data and the ideal-gas law', () => {
-    expect(solveCycle({ gas: g, states: [{ p: 1e5, T: 300, v: 1 }, { T: 400 }], steps: [{ process: 'isobaric' }, { process: 'isobaric' }] }).ok).toBe(false)
-    const r = solveCycle({ gas: g, states: [{ p: 1e5, T: 300 }, {}], steps: [{ process: 'polytropic' }, { process: 'isobaric' }] })
+    expect(
+      solveCycle({
+        gas: g,
+        states: [{ p: 1e5, T: 300, v: 1 }, { T: 400 }],
+        steps: [{ process: 'isobaric' }, { process: 'isobaric' }],
+      }).ok,
+    ).toBe(false)
+    const r = solveCycle({
+      gas: g,
+      states: [{ p: 1e5, T: 300 }, {}],
+      steps: [{ process: 'polytropic' }, { process: 'isobaric' }],
+    })
     expect(!r.ok && r.error.property).toBe('n')
-    const amountless = solveCycle({ gas: g, states: [{ p: 1e5, T: 300 }, { p: 2e5 }, { p: 2e5, T: 300 }], steps: [{ process: 'isentropic' }, { process: 'isobaric', heatTotal: 100 }, { process: 'isothermal' }] })
+    const amountless = solveCycle({
+      gas: g,
+      states: [{ p: 1e5, T: 300 }, { p: 2e5 }, { p: 2e5, T: 300 }],
+      steps: [{ process: 'isentropic' }, { process: 'isobaric', heatTotal: 100 }, { process: 'isothermal' }],
+    })
     expect(!amountless.ok && amountless.error.property).toBe('amount')
   })
   test('Otto with T3 below T2 is unphysical', () => {
-    const b = templates.otto!.build({ gas: g, num: { p1: 1e5, T1: 300, compressionRatio: 10, T3: 500 }, heat: {}, labels: {} })
+    const b = templates.otto!.build({
+      gas: g,
+      num: { p1: 1e5, T1: 300, compressionRatio: 10, T3: 500 },
+      heat: {},
+      labels: {},
+    })
     if (!b.ok) throw new Error()
     const r = solveCycle(b.spec)
     expect(!r.ok && r.error.code).toBe('unphysical')
@@ -213,7 +277,12 @@ describe('errors name the state and property', () => {
 
 describe('property-based: first-law closure and ΔS_cycle = 0 on random valid cycles (seeded)', () => {
   const rand = mulberry32(20260)
-  const gases = [() => gasK(uniform(rand, 1.15, 1.67)), () => preset('nasa:dry-air', 'mass'), () => preset('nasa:CO2'), () => preset('monatomic')]
+  const gases = [
+    () => gasK(uniform(rand, 1.15, 1.67)),
+    () => preset('nasa:dry-air', 'mass'),
+    () => preset('nasa:CO2'),
+    () => preset('monatomic'),
+  ]
   const cases: [string, () => CycleSolution][] = []
   for (let k = 0; k < 60; k++) {
     const gas = gases[k % gases.length]!()
@@ -227,15 +296,43 @@ describe('property-based: first-law closure and ΔS_cycle = 0 on random valid cy
           case 0:
             return build('otto', gas, { p1, T1, compressionRatio: uniform(rand, 4, 12), T3: uniform(rand, 1500, 2500) })
           case 1:
-            return build('diesel', gas, { p1, T1, compressionRatio: uniform(rand, 12, 22), cutoffRatio: uniform(rand, 1.2, 2.5) })
+            return build('diesel', gas, {
+              p1,
+              T1,
+              compressionRatio: uniform(rand, 12, 22),
+              cutoffRatio: uniform(rand, 1.2, 2.5),
+            })
           case 2:
-            return build('brayton', gas, { p1, T1, pressureRatio: uniform(rand, 4, 20), turbineInletT: uniform(rand, 1300, 1700), compressorEfficiency: uniform(rand, 0.75, 1), turbineEfficiency: uniform(rand, 0.75, 1) })
+            return build('brayton', gas, {
+              p1,
+              T1,
+              pressureRatio: uniform(rand, 4, 20),
+              turbineInletT: uniform(rand, 1300, 1700),
+              compressorEfficiency: uniform(rand, 0.75, 1),
+              turbineEfficiency: uniform(rand, 0.75, 1),
+            })
           case 3:
-            return build('brayton-regenerative', gas, { p1, T1, pressureRatio: uniform(rand, 3, 6), turbineInletT: uniform(rand, 1200, 1500), regeneratorEffectiveness: uniform(rand, 0, 1) })
+            return build('brayton-regenerative', gas, {
+              p1,
+              T1,
+              pressureRatio: uniform(rand, 3, 6),
+              turbineInletT: uniform(rand, 1200, 1500),
+              regeneratorEffectiveness: uniform(rand, 0, 1),
+            })
           case 4:
-            return build('carnot-engine', gas, { Th: uniform(rand, 600, 1200), Tc: T1, p1, expansionRatio: uniform(rand, 1.1, 4) })
+            return build('carnot-engine', gas, {
+              Th: uniform(rand, 600, 1200),
+              Tc: T1,
+              p1,
+              expansionRatio: uniform(rand, 1.1, 4),
+            })
           default:
-            return build('stirling', gas, { Th: uniform(rand, 600, 1200), Tc: T1, p1, compressionRatio: uniform(rand, 1.5, 5) })
+            return build('stirling', gas, {
+              Th: uniform(rand, 600, 1200),
+              Tc: T1,
+              p1,
+              compressionRatio: uniform(rand, 1.5, 5),
+            })
         }
       },
     ])
@@ -244,7 +341,8 @@ describe('property-based: first-law closure and ΔS_cycle = 0 on random valid cy
     const s = run()
     const scale = Math.max(...s.states.map((x) => Math.abs(x.h))) + 1e3
     // first law per step: closed Δu = q + w; flow Δh = q + w_s (definition of the conventions)
-    for (const st of s.steps) expect(Math.abs((s.system === 'flow' ? st.dh : st.du) - st.q - st.w)).toBeLessThan(1e-9 * scale)
+    for (const st of s.steps)
+      expect(Math.abs((s.system === 'flow' ? st.dh : st.du) - st.q - st.w)).toBeLessThan(1e-9 * scale)
     // per cycle: Σq + Σw = 0 and the state functions close
     const sumQ = s.steps.reduce((a, x) => a + x.q, 0)
     expect(Math.abs(sumQ + s.totals.wNet)).toBeLessThan(1e-9 * scale)
@@ -264,7 +362,12 @@ describe('property-based: random general cycles (polytropic → isochoric → is
     return [`case ${k} (n = ${n.toFixed(3)})`, gas, n, rp, uniform(rand, 250, 400), uniform(rand, 5e4, 2e5)] as const
   })
   test.each(cases)('%s', (_name, gas, n, rp, T1, p1) => {
-    const s = solved({ gas, states: [{ p: p1, T: T1 }, {}, {}], steps: [{ process: 'polytropic', n, pressureRatio: rp }, { process: 'isochoric' }, { process: 'isobaric' }], amount: 2 })
+    const s = solved({
+      gas,
+      states: [{ p: p1, T: T1 }, {}, {}],
+      steps: [{ process: 'polytropic', n, pressureRatio: rp }, { process: 'isochoric' }, { process: 'isobaric' }],
+      amount: 2,
+    })
     const [a, b] = s.states
     // polytropic work in closed form: w_by = (p2 v2 − p1 v1)/(1 − n)
     expect(-s.steps[0]!.w).toBeCloseTo((b!.p * b!.v - a!.p * a!.v) / (1 - n), 6)

@@ -15,8 +15,17 @@
 import { P_REF } from './constants.ts'
 import type { Gas } from './substances/gas.ts'
 
-export type ProcessKind = 'isothermal' | 'isentropic' | 'isochoric' | 'isobaric' | 'polytropic' | 'adiabatic' | 'regenerator'
-export const PROCESS_KINDS: readonly ProcessKind[] = ['isothermal', 'isentropic', 'isochoric', 'isobaric', 'polytropic', 'adiabatic', 'regenerator']
+export type ProcessKind =
+  'isothermal' | 'isentropic' | 'isochoric' | 'isobaric' | 'polytropic' | 'adiabatic' | 'regenerator'
+export const PROCESS_KINDS: readonly ProcessKind[] = [
+  'isothermal',
+  'isentropic',
+  'isochoric',
+  'isobaric',
+  'polytropic',
+  'adiabatic',
+  'regenerator',
+]
 
 export interface StepSpec {
   readonly process: ProcessKind
@@ -166,7 +175,11 @@ const TOL = 1e-6
 const Y_ORDER = [-1, T, P, V] as const
 const X_ORDER = [P, T, V] as const
 
-const fail = (code: SolveErrorCode, message: string, extra: Partial<SolveError> = {}): { ok: false; error: SolveError } => ({
+const fail = (
+  code: SolveErrorCode,
+  message: string,
+  extra: Partial<SolveError> = {},
+): { ok: false; error: SolveError } => ({
   ok: false,
   error: { code, message, ...extra },
 })
@@ -205,7 +218,18 @@ function relClose(a: number, b: number, tol = TOL): boolean {
  * state (dir = −1), given at most one more property of b (Y = P, V, T or −1). Returns false
  * if the relation does not fix b with what is known. Writes into out[0..2].
  */
-function predict(gas: Gas, system: 'closed' | 'flow', s: StepSpec, q: number, a: Float64Array | number[], ao: number, Y: number, y: number, dir: 1 | -1, out: Float64Array): boolean {
+function predict(
+  gas: Gas,
+  system: 'closed' | 'flow',
+  s: StepSpec,
+  q: number,
+  a: Float64Array | number[],
+  ao: number,
+  Y: number,
+  y: number,
+  dir: 1 | -1,
+  out: Float64Array,
+): boolean {
   out[0] = NaN
   out[1] = NaN
   out[2] = NaN
@@ -245,7 +269,17 @@ function gasLawInto(R: number, out: Float64Array): void {
   else if (tn && !pn && !vn) out[T] = (out[P]! * out[V]!) / R
 }
 
-function applyRelation(gas: Gas, system: 'closed' | 'flow', s: StepSpec, q: number, pa: number, va: number, Ta: number, dir: 1 | -1, out: Float64Array): void {
+function applyRelation(
+  gas: Gas,
+  system: 'closed' | 'flow',
+  s: StepSpec,
+  q: number,
+  pa: number,
+  va: number,
+  Ta: number,
+  dir: 1 | -1,
+  out: Float64Array,
+): void {
   const R = gas.R
   const hasQ = !Number.isNaN(q)
   switch (s.process) {
@@ -276,7 +310,8 @@ function applyRelation(gas: Gas, system: 'closed' | 'flow', s: StepSpec, q: numb
       if (!Number.isNaN(out[V]!) && Number.isNaN(out[P]!)) out[P] = pa * Math.pow(va / out[V]!, n)
       else if (!Number.isNaN(out[P]!) && Number.isNaN(out[V]!)) out[V] = va * Math.pow(pa / out[P]!, 1 / n)
       // T fixes v only when n is not ~1 (the exponent 1/(n−1) would amplify rounding)
-    else if (!Number.isNaN(out[T]!) && Number.isNaN(out[V]!) && Number.isNaN(out[P]!) && Math.abs(n - 1) > 1e-6) out[V] = va * Math.pow(Ta / out[T]!, 1 / (n - 1))
+      else if (!Number.isNaN(out[T]!) && Number.isNaN(out[V]!) && Number.isNaN(out[P]!) && Math.abs(n - 1) > 1e-6)
+        out[V] = va * Math.pow(Ta / out[T]!, 1 / (n - 1))
       break
     }
     case 'adiabatic': {
@@ -307,7 +342,12 @@ function fmtValue(prop: number, x: number, basis: 'mole' | 'mass'): string {
 }
 
 function describeStep(s: StepSpec, k: number, from: number, to: number): string {
-  const what = s.process === 'adiabatic' ? `adiabatic (η = ${s.efficiency ?? 1})` : s.process === 'polytropic' ? `polytropic (n = ${s.n})` : s.process
+  const what =
+    s.process === 'adiabatic'
+      ? `adiabatic (η = ${s.efficiency ?? 1})`
+      : s.process === 'polytropic'
+        ? `polytropic (n = ${s.n})`
+        : s.process
   return `the ${what} step ${from + 1}→${to + 1}`
 }
 
@@ -335,7 +375,9 @@ class Work {
   }
   label(i: number, prop: number): string | undefined {
     const l = this.spec.labels
-    return l?.[`${PROP[prop]}${i + 1}`] ?? l?.[`${prop === V && !Number.isNaN(this.Vtot[i]!) ? 'V' : PROP[prop]}${i + 1}`]
+    return (
+      l?.[`${PROP[prop]}${i + 1}`] ?? l?.[`${prop === V && !Number.isNaN(this.Vtot[i]!) ? 'V' : PROP[prop]}${i + 1}`]
+    )
   }
   known(i: number, prop: number): boolean {
     return !Number.isNaN(this.val[3 * i + prop]!)
@@ -381,7 +423,11 @@ class Work {
     else if (vk && tk && !pk) this.set(i, P, (R * val[o + 2]!) / val[o + 1]!, GAS_LAW)
   }
   heatOf(s: StepSpec): number {
-    return s.heat !== undefined ? s.heat : s.heatTotal !== undefined && !Number.isNaN(this.amount) ? s.heatTotal / this.amount : NaN
+    return s.heat !== undefined
+      ? s.heat
+      : s.heatTotal !== undefined && !Number.isNaN(this.amount)
+        ? s.heatTotal / this.amount
+        : NaN
   }
   /** Regenerator pair rule: [cold step, hot step, T cold out, T hot out] from the inlet temperatures. */
   regenOutlets(k: number, m: number): [number, number, number, number] | null {
@@ -422,12 +468,19 @@ class Work {
           const blame = src[3 * j + X] === GIVEN ? X : ([P, T, V].find((x) => x !== Y && src[3 * j + x] === GIVEN) ?? X)
           const expected = tmp[blame]!
           const nm = this.stateName(j)
-          const givenTxt = src[3 * j + blame] === GIVEN ? `given as ${this.label(j, blame) ?? fmtValue(blame, val[3 * j + blame]!, basis)}` : `is ${fmtValue(blame, val[3 * j + blame]!, basis)}`
-          return fail('conflict', `State ${nm}: ${PROP[blame]} ${givenTxt} but ${describeStep(s, k, i, j)} requires ${fmtValue(blame, expected, basis)}`, {
-            state: j + 1,
-            property: PROP[blame],
-            step: k + 1,
-          })
+          const givenTxt =
+            src[3 * j + blame] === GIVEN
+              ? `given as ${this.label(j, blame) ?? fmtValue(blame, val[3 * j + blame]!, basis)}`
+              : `is ${fmtValue(blame, val[3 * j + blame]!, basis)}`
+          return fail(
+            'conflict',
+            `State ${nm}: ${PROP[blame]} ${givenTxt} but ${describeStep(s, k, i, j)} requires ${fmtValue(blame, expected, basis)}`,
+            {
+              state: j + 1,
+              property: PROP[blame],
+              step: k + 1,
+            },
+          )
         }
       }
       break
@@ -443,11 +496,15 @@ class Work {
         ] as const) {
           const o = stepIdx + 1 === N ? 0 : stepIdx + 1
           if (!relClose(val[3 * o + T]!, Tx)) {
-            return fail('conflict', `State ${this.stateName(o)}: T ${src[3 * o + T] === GIVEN ? `given as ${this.label(o, T) ?? fmtValue(T, val[3 * o + T]!, basis)}` : `is ${fmtValue(T, val[3 * o + T]!, basis)}`} but the regenerator (steps ${k + 1} and ${s.partner! + 1}, ε = ${s.effectiveness ?? steps[s.partner!]!.effectiveness ?? 1}) requires ${fmtValue(T, Tx, basis)}`, {
-              state: o + 1,
-              property: 'T',
-              step: stepIdx + 1,
-            })
+            return fail(
+              'conflict',
+              `State ${this.stateName(o)}: T ${src[3 * o + T] === GIVEN ? `given as ${this.label(o, T) ?? fmtValue(T, val[3 * o + T]!, basis)}` : `is ${fmtValue(T, val[3 * o + T]!, basis)}`} but the regenerator (steps ${k + 1} and ${s.partner! + 1}, ε = ${s.effectiveness ?? steps[s.partner!]!.effectiveness ?? 1}) requires ${fmtValue(T, Tx, basis)}`,
+              {
+                state: o + 1,
+                property: 'T',
+                step: stepIdx + 1,
+              },
+            )
           }
         }
       }
@@ -465,7 +522,11 @@ export function solveCycle(spec: CycleSpec): CycleResult {
   const system = spec.system ?? 'closed'
   const N = st.length
   if (N < 2) return fail('invalid-input', 'a cycle needs at least two states')
-  if (steps.length !== N) return fail('invalid-input', `a cycle of ${N} states needs ${N} steps (the last joins state ${N} back to state 1); got ${steps.length}`)
+  if (steps.length !== N)
+    return fail(
+      'invalid-input',
+      `a cycle of ${N} states needs ${N} steps (the last joins state ${N} back to state 1); got ${steps.length}`,
+    )
   const R = gas.R
   const basis = gas.basis
 
@@ -473,25 +534,56 @@ export function solveCycle(spec: CycleSpec): CycleResult {
   for (let k = 0; k < N; k++) {
     const s = steps[k]!
     const sn = k + 1
-    if (!PROCESS_KINDS.includes(s.process)) return fail('invalid-input', `Step ${sn}: unknown process "${String(s.process)}"`, { step: sn, property: 'process' })
-    if (s.process === 'polytropic' && !(typeof s.n === 'number' && Number.isFinite(s.n))) return fail('invalid-input', `Step ${sn}: a polytropic step needs its exponent n`, { step: sn, property: 'n' })
+    if (!PROCESS_KINDS.includes(s.process))
+      return fail('invalid-input', `Step ${sn}: unknown process "${String(s.process)}"`, {
+        step: sn,
+        property: 'process',
+      })
+    if (s.process === 'polytropic' && !(typeof s.n === 'number' && Number.isFinite(s.n)))
+      return fail('invalid-input', `Step ${sn}: a polytropic step needs its exponent n`, { step: sn, property: 'n' })
     if (s.process === 'adiabatic' && s.efficiency !== undefined && !(s.efficiency > 0 && s.efficiency <= 1)) {
-      return fail('invalid-input', `Step ${sn}: isentropic efficiency must be in (0, 1]`, { step: sn, property: 'efficiency' })
+      return fail('invalid-input', `Step ${sn}: isentropic efficiency must be in (0, 1]`, {
+        step: sn,
+        property: 'efficiency',
+      })
     }
     if (s.process === 'regenerator') {
       const m = s.partner
-      if (m === undefined || !Number.isInteger(m) || m < 0 || m >= N || m === k || steps[m]!.process !== 'regenerator' || (steps[m]!.partner !== undefined && steps[m]!.partner !== k)) {
-        return fail('invalid-input', `Step ${sn}: a regenerator step needs a partner regenerator step (the other side of the exchanger)`, { step: sn, property: 'partner' })
+      if (
+        m === undefined ||
+        !Number.isInteger(m) ||
+        m < 0 ||
+        m >= N ||
+        m === k ||
+        steps[m]!.process !== 'regenerator' ||
+        (steps[m]!.partner !== undefined && steps[m]!.partner !== k)
+      ) {
+        return fail(
+          'invalid-input',
+          `Step ${sn}: a regenerator step needs a partner regenerator step (the other side of the exchanger)`,
+          { step: sn, property: 'partner' },
+        )
       }
       const e = s.effectiveness
-      if (e !== undefined && !(e >= 0 && e <= 1)) return fail('invalid-input', `Step ${sn}: regenerator effectiveness must be in [0, 1]`, { step: sn, property: 'effectiveness' })
+      if (e !== undefined && !(e >= 0 && e <= 1))
+        return fail('invalid-input', `Step ${sn}: regenerator effectiveness must be in [0, 1]`, {
+          step: sn,
+          property: 'effectiveness',
+        })
     }
     for (const key of ['pressureRatio', 'volumeRatio', 'temperatureRatio'] as const) {
       const r = s[key]
-      if (r !== undefined && !(Number.isFinite(r) && r > 0)) return fail('invalid-input', `Step ${sn}: ${key} must be a positive number`, { step: sn, property: key })
+      if (r !== undefined && !(Number.isFinite(r) && r > 0))
+        return fail('invalid-input', `Step ${sn}: ${key} must be a positive number`, { step: sn, property: key })
     }
-    if ((s.heat !== undefined || s.heatTotal !== undefined) && !['isothermal', 'isochoric', 'isobaric'].includes(s.process)) {
-      return fail('invalid-input', `Step ${sn}: heat can be given only for isothermal, isochoric or isobaric steps`, { step: sn, property: 'heat' })
+    if (
+      (s.heat !== undefined || s.heatTotal !== undefined) &&
+      !['isothermal', 'isochoric', 'isobaric'].includes(s.process)
+    ) {
+      return fail('invalid-input', `Step ${sn}: heat can be given only for isothermal, isochoric or isobaric steps`, {
+        step: sn,
+        property: 'heat',
+      })
     }
   }
 
@@ -500,21 +592,31 @@ export function solveCycle(spec: CycleSpec): CycleResult {
   const src = new Int16Array(3 * N).fill(UNKNOWN)
   const Vtot = new Float64Array(N).fill(NaN)
 
-  if (spec.amount !== undefined && !(spec.amount > 0 && Number.isFinite(spec.amount))) return fail('invalid-input', 'the amount of gas must be a positive number', { property: 'amount' })
+  if (spec.amount !== undefined && !(spec.amount > 0 && Number.isFinite(spec.amount)))
+    return fail('invalid-input', 'the amount of gas must be a positive number', { property: 'amount' })
   for (let i = 0; i < N; i++) {
     const s = st[i]!
     for (let prop = 0; prop < 3; prop++) {
       const x = prop === P ? s.p : prop === V ? s.v : s.T
       if (x === undefined) continue
-      if (!(Number.isFinite(x) && x > 0)) return fail('invalid-input', `State ${i + 1}: ${PROP[prop]} must be a positive number`, { state: i + 1, property: PROP[prop] })
+      if (!(Number.isFinite(x) && x > 0))
+        return fail('invalid-input', `State ${i + 1}: ${PROP[prop]} must be a positive number`, {
+          state: i + 1,
+          property: PROP[prop],
+        })
       if (prop === T && (x < gas.Tmin || x > gas.Tmax)) {
-        return fail('out-of-range', `State ${i + 1}: T = ${x} K is outside the range of the ${gas.label} data (${gas.Tmin}–${gas.Tmax} K)`, { state: i + 1, property: 'T' })
+        return fail(
+          'out-of-range',
+          `State ${i + 1}: T = ${x} K is outside the range of the ${gas.label} data (${gas.Tmin}–${gas.Tmax} K)`,
+          { state: i + 1, property: 'T' },
+        )
       }
       val[3 * i + prop] = x
       src[3 * i + prop] = GIVEN
     }
     if (s.V !== undefined) {
-      if (!(Number.isFinite(s.V) && s.V > 0)) return fail('invalid-input', `State ${i + 1}: V must be a positive number`, { state: i + 1, property: 'V' })
+      if (!(Number.isFinite(s.V) && s.V > 0))
+        return fail('invalid-input', `State ${i + 1}: V must be a positive number`, { state: i + 1, property: 'V' })
       Vtot[i] = s.V
     }
   }
@@ -524,7 +626,11 @@ export function solveCycle(spec: CycleSpec): CycleResult {
     if (src[o] === GIVEN && src[o + 1] === GIVEN && src[o + 2] === GIVEN) {
       const ratio = (val[o]! * val[o + 1]!) / (R * val[o + 2]!)
       if (!relClose(ratio, 1)) {
-        return fail('conflict', `State ${st[i]!.name ?? String(i + 1)}: p, v and T are all given but do not satisfy the ideal-gas law (p·v/(R·T) = ${ratio.toPrecision(4)})`, { state: i + 1, property: 'T' })
+        return fail(
+          'conflict',
+          `State ${st[i]!.name ?? String(i + 1)}: p, v and T are all given but do not satisfy the ideal-gas law (p·v/(R·T) = ${ratio.toPrecision(4)})`,
+          { state: i + 1, property: 'T' },
+        )
       }
     }
   }
@@ -570,7 +676,10 @@ export function solveCycle(spec: CycleSpec): CycleResult {
         for (let prop = 0; prop < 3 && Y < 0; prop++) if (c.known(j, prop) && !isForced(s, prop)) Y = prop
         if (predict(gas, system, s, q, val, 3 * i, Y, Y >= 0 ? val[3 * j + Y]! : NaN, 1, c.tmp)) {
           for (let n2 = 0; n2 < 3; n2++) c.set(j, (n2 + 2) % 3, c.tmp[(n2 + 2) % 3]!, k) // T first, for the message
-        } else if (!Number.isNaN(q) || (Y >= 0 && !(Y === T && (s.process === 'adiabatic' || s.process === 'polytropic')))) {
+        } else if (
+          !Number.isNaN(q) ||
+          (Y >= 0 && !(Y === T && (s.process === 'adiabatic' || s.process === 'polytropic')))
+        ) {
           // The relation had everything it needs, so a NaN came from an inverse function or
           // a root outside the data range: report it as out of range (c.set records it).
           for (let n2 = 0; n2 < 3; n2++) c.set(j, (n2 + 2) % 3, c.tmp[(n2 + 2) % 3]!, k) // T first, for the message
@@ -602,7 +711,11 @@ export function solveCycle(spec: CycleSpec): CycleResult {
     const have = [P, V, T].filter((p) => c.known(i, p))
     const nm = c.stateName(i)
     if (have.length === 0) {
-      return fail('underdetermined', `State ${nm}: neither p, v nor T is fixed: give two of p${nm}, T${nm}, v${nm} (or a ratio or heat on an adjacent step)`, { state: i + 1, property: 'T' })
+      return fail(
+        'underdetermined',
+        `State ${nm}: neither p, v nor T is fixed: give two of p${nm}, T${nm}, v${nm} (or a ratio or heat on an adjacent step)`,
+        { state: i + 1, property: 'T' },
+      )
     }
     const missing = [P, V, T].filter((p) => !c.known(i, p))
     const first = missing.includes(T) ? T : missing[0]!
@@ -616,14 +729,22 @@ export function solveCycle(spec: CycleSpec): CycleResult {
   let needsAmount = false
   for (let k = 0; k < N; k++) if (steps[k]!.heatTotal !== undefined || !Number.isNaN(Vtot[k]!)) needsAmount = true
   if (needsAmount && Number.isNaN(c.amount)) {
-    return fail('underdetermined', 'the amount of gas is not fixed: give the amount (n or m), or p, V and T of one state', { property: 'amount' })
+    return fail(
+      'underdetermined',
+      'the amount of gas is not fixed: give the amount (n or m), or p, V and T of one state',
+      { property: 'amount' },
+    )
   }
 
   // ---- verification: every relation must hold (over-specified data must agree)
   for (let i = 0; i < N; i++) {
     const Vt = Vtot[i]!
     if (!Number.isNaN(Vt) && !relClose(Vt, c.amount * val[3 * i + V]!)) {
-      return fail('conflict', `State ${c.stateName(i)}: V given as ${spec.labels?.[`V${i + 1}`] ?? `${Vt} m³`} but the other data require ${Number((c.amount * val[3 * i + V]!).toPrecision(4))} m³`, { state: i + 1, property: 'V' })
+      return fail(
+        'conflict',
+        `State ${c.stateName(i)}: V given as ${spec.labels?.[`V${i + 1}`] ?? `${Vt} m³`} but the other data require ${Number((c.amount * val[3 * i + V]!).toPrecision(4))} m³`,
+        { state: i + 1, property: 'V' },
+      )
     }
   }
   for (let k = 0; k < N; k++) {
@@ -649,10 +770,18 @@ export function solveCycle(spec: CycleSpec): CycleResult {
     const shrinks = byVolume ? b < a * (1 - 1e-9) : b > a * (1 + 1e-9)
     const what = byVolume ? 'volume' : 'pressure'
     if (/\b(expansion|turbine)\b/i.test(label) && shrinks) {
-      return fail('unphysical', `Step ${k + 1} (${label}) would compress the gas: its ${what} goes from ${Number(a.toPrecision(4))} to ${Number(b.toPrecision(4))}. Check the data that fix state ${c.stateName(j)} (for a Diesel or dual cycle, the cutoff ratio must be below the compression ratio).`, { step: k + 1 })
+      return fail(
+        'unphysical',
+        `Step ${k + 1} (${label}) would compress the gas: its ${what} goes from ${Number(a.toPrecision(4))} to ${Number(b.toPrecision(4))}. Check the data that fix state ${c.stateName(j)} (for a Diesel or dual cycle, the cutoff ratio must be below the compression ratio).`,
+        { step: k + 1 },
+      )
     }
     if (/\bcompress(ion|or)\b/i.test(label) && grows) {
-      return fail('unphysical', `Step ${k + 1} (${label}) would expand the gas: its ${what} goes from ${Number(a.toPrecision(4))} to ${Number(b.toPrecision(4))}. Check the data that fix state ${c.stateName(j)}.`, { step: k + 1 })
+      return fail(
+        'unphysical',
+        `Step ${k + 1} (${label}) would expand the gas: its ${what} goes from ${Number(a.toPrecision(4))} to ${Number(b.toPrecision(4))}. Check the data that fix state ${c.stateName(j)}.`,
+        { step: k + 1 },
+      )
     }
   }
 
@@ -738,11 +867,15 @@ export function solveCycle(spec: CycleSpec): CycleResult {
       const scale = Math.max(Math.abs(a.h), Math.abs(b.h), R * a.T, 1)
       const okSign = s.expectHeat === 'in' ? q > 1e-12 * scale : q < -1e-12 * scale
       if (!okSign) {
-        return fail('unphysical', `Step ${k + 1} (${c.stateName(k)}→${c.stateName(j)}): this step should ${s.expectHeat === 'in' ? 'take heat in' : 'reject heat'}, but with these data q = ${Number(q.toPrecision(4))} J/${basis === 'mass' ? 'kg' : 'mol'} (T${c.stateName(k)} = ${Number(a.T.toPrecision(4))} K, T${c.stateName(j)} = ${Number(b.T.toPrecision(4))} K)`, {
-          step: k + 1,
-          state: j + 1,
-          property: 'T',
-        })
+        return fail(
+          'unphysical',
+          `Step ${k + 1} (${c.stateName(k)}→${c.stateName(j)}): this step should ${s.expectHeat === 'in' ? 'take heat in' : 'reject heat'}, but with these data q = ${Number(q.toPrecision(4))} J/${basis === 'mass' ? 'kg' : 'mol'} (T${c.stateName(k)} = ${Number(a.T.toPrecision(4))} K, T${c.stateName(j)} = ${Number(b.T.toPrecision(4))} K)`,
+          {
+            step: k + 1,
+            state: j + 1,
+            property: 'T',
+          },
+        )
       }
     }
   }
@@ -762,14 +895,21 @@ export function solveCycle(spec: CycleSpec): CycleResult {
   const efficiency = isEngine && qIn > 0 ? wBy / qIn : null
   const copRefrigerator = !isEngine && wNet > 0 ? qIn / wNet : null
   const copHeatPump = !isEngine && wNet > 0 ? qOut / wNet : null
-  const carnotBound = isEngine ? 1 - Tmin / Tmax : purpose === 'refrigerator' ? Tmin / (Tmax - Tmin) : Tmax / (Tmax - Tmin)
+  const carnotBound = isEngine
+    ? 1 - Tmin / Tmax
+    : purpose === 'refrigerator'
+      ? Tmin / (Tmax - Tmin)
+      : Tmax / (Tmax - Tmin)
   const mep = system === 'closed' && vmax > vmin ? wBy / (vmax - vmin) : null
   const backWorkRatio = system === 'flow' && wTurbOut > 0 ? wCompIn / wTurbOut : null
   const TH = spec.reservoirs?.hot
   const TC = spec.reservoirs?.cold
   let entropyGenerated: number | null = null
   if (TH !== undefined && TC !== undefined) {
-    if (!(TH > 0 && TC > 0 && TH > TC)) return fail('invalid-input', 'reservoir temperatures must be positive, hot above cold', { property: 'reservoirs' })
+    if (!(TH > 0 && TC > 0 && TH > TC))
+      return fail('invalid-input', 'reservoir temperatures must be positive, hot above cold', {
+        property: 'reservoirs',
+      })
     // ΔS_gas = 0 per cycle, so S_gen = Σ Q_to_reservoir / T_reservoir
     entropyGenerated = isEngine ? qOut / TC - qIn / TH : qOut / TH - qIn / TC
   }
@@ -780,6 +920,22 @@ export function solveCycle(spec: CycleSpec): CycleResult {
     amount: Number.isNaN(c.amount) ? null : c.amount,
     states,
     steps: results,
-    totals: { qIn, qOut, wNet, purpose, efficiency, copRefrigerator, copHeatPump, mep, backWorkRatio, Tmin, Tmax, carnotBound, entropyGenerated, duCycle, dsCycle },
+    totals: {
+      qIn,
+      qOut,
+      wNet,
+      purpose,
+      efficiency,
+      copRefrigerator,
+      copHeatPump,
+      mep,
+      backWorkRatio,
+      Tmin,
+      Tmax,
+      carnotBound,
+      entropyGenerated,
+      duCycle,
+      dsCycle,
+    },
   }
 }

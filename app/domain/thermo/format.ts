@@ -56,14 +56,25 @@ export interface FormattedTotals {
   readonly Tmax: Quantity
   readonly entropyGenerated: Quantity | null
   readonly closure: { readonly dU: Quantity; readonly dS: Quantity }
-  readonly total?: { readonly heatIn: Quantity; readonly heatOut: Quantity; readonly netWork: Quantity; readonly entropyGenerated: Quantity | null }
+  readonly total?: {
+    readonly heatIn: Quantity
+    readonly heatOut: Quantity
+    readonly netWork: Quantity
+    readonly entropyGenerated: Quantity | null
+  }
 }
 
 export interface FormattedSolution {
   readonly ok: true
   readonly convention: ConventionStatement
   readonly system: 'closed' | 'flow'
-  readonly gas: { readonly id: string; readonly label: string; readonly basis: 'mole' | 'mass'; readonly R: Quantity; readonly source: string }
+  readonly gas: {
+    readonly id: string
+    readonly label: string
+    readonly basis: 'mole' | 'mass'
+    readonly R: Quantity
+    readonly source: string
+  }
   readonly reference: string
   readonly amount: Quantity | null
   readonly states: readonly FormattedState[]
@@ -81,13 +92,45 @@ export function formatSolution(sol: CycleSolution, convention: Convention): Form
   const E = `J/${per}`
   const S = `J/(${per} K)`
   const states = sol.states.map((s): FormattedState => {
-    const base = { name: s.name, p: q(s.p, 'Pa'), T: q(s.T, 'K'), v: q(s.v, `m^3/${per}`), u: q(s.u, E), h: q(s.h, E), s: q(s.s, S) }
-    return n === null ? base : { ...base, V: q(s.v * n, 'm^3'), U: q(s.u * n, 'J'), H: q(s.h * n, 'J'), S: q(s.s * n, 'J/K') }
+    const base = {
+      name: s.name,
+      p: q(s.p, 'Pa'),
+      T: q(s.T, 'K'),
+      v: q(s.v, `m^3/${per}`),
+      u: q(s.u, E),
+      h: q(s.h, E),
+      s: q(s.s, S),
+    }
+    return n === null
+      ? base
+      : { ...base, V: q(s.v * n, 'm^3'), U: q(s.u * n, 'J'), H: q(s.h * n, 'J'), S: q(s.s * n, 'J/K') }
   })
   const steps = sol.steps.map((st): FormattedStep => {
     const w = workIn(convention, st.w)
-    const base = { from: st.from, to: st.to, process: st.process, ...(st.label ? { label: st.label } : {}), internal: st.internal, q: q(st.q, E), w: q(w, E), dU: q(st.du, E), dH: q(st.dh, E), dS: q(st.ds, S) }
-    return n === null ? base : { ...base, total: { q: q(st.q * n, 'J'), w: q(w * n, 'J'), dU: q(st.du * n, 'J'), dH: q(st.dh * n, 'J'), dS: q(st.ds * n, 'J/K') } }
+    const base = {
+      from: st.from,
+      to: st.to,
+      process: st.process,
+      ...(st.label ? { label: st.label } : {}),
+      internal: st.internal,
+      q: q(st.q, E),
+      w: q(w, E),
+      dU: q(st.du, E),
+      dH: q(st.dh, E),
+      dS: q(st.ds, S),
+    }
+    return n === null
+      ? base
+      : {
+          ...base,
+          total: {
+            q: q(st.q * n, 'J'),
+            w: q(w * n, 'J'),
+            dU: q(st.du * n, 'J'),
+            dH: q(st.dh * n, 'J'),
+            dS: q(st.ds * n, 'J/K'),
+          },
+        }
   })
   const t = sol.totals
   const net = workIn(convention, t.wNet)

@@ -9,7 +9,19 @@ export { brent, solveIncreasing } from './numeric.ts'
 export * from './substances/index.ts'
 export { REFRIGERANTS, REFRIGERANT_IDS, getRefrigerant } from './refrigerants/index.ts'
 export { solveCycle, PROCESS_KINDS } from './cycle.ts'
-export type { CycleSpec, StateSpec, StepSpec, ProcessKind, CycleResult, CycleSolution, CycleTotals, StateResult, StepResult, SolveError, SolveErrorCode } from './cycle.ts'
+export type {
+  CycleSpec,
+  StateSpec,
+  StepSpec,
+  ProcessKind,
+  CycleResult,
+  CycleSolution,
+  CycleTotals,
+  StateResult,
+  StepResult,
+  SolveError,
+  SolveErrorCode,
+} from './cycle.ts'
 export { CONVENTIONS, CONVENTION_IDS, workIn, isConvention } from './conventions.ts'
 export type { Convention, ConventionStatement } from './conventions.ts'
 export { formatSolution, readQuantity, TEACHING_NOTICE } from './format.ts'

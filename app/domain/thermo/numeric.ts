@@ -84,6 +84,12 @@ export function brent(f: (x: number) => number, a: number, b: number, xtol = 1e-
  * Solve g(x) = target for an increasing function g on [lo, hi] (the NASA property ranges).
  * Returns NaN when the target lies outside g's range on that interval.
  */
-export function solveIncreasing(g: (x: number) => number, target: number, lo: number, hi: number, xtol = 1e-10): number {
+export function solveIncreasing(
+  g: (x: number) => number,
+  target: number,
+  lo: number,
+  hi: number,
+  xtol = 1e-10,
+): number {
   return brent((x) => g(x) - target, lo, hi, xtol)
 }

@@ -4,7 +4,10 @@ import { NOT_IN_BANK, solveBankSpec, solveSpec } from './solve-spec.ts'
 // Each family's own checks are in its folder; these only check that the one spec entry point
 // reaches every family, and that bank problems are offered only the ones the authoring layer
 // can key and draw.
-const calorimeter = { template: 'steam-throttling-calorimeter', inputs: { linePressure: '1 MPa', calorimeterPressure: '100 kPa', calorimeterTemperature: '120 °C' } }
+const calorimeter = {
+  template: 'steam-throttling-calorimeter',
+  inputs: { linePressure: '1 MPa', calorimeterPressure: '100 kPa', calorimeterTemperature: '120 °C' },
+}
 const vapourCarnot = { template: 'steam-carnot', inputs: { hotTemperature: '250 °C', coldTemperature: '40 °C' } }
 
 test.each([
@@ -30,6 +33,13 @@ test.each([
 })
 
 test('ideal-gas and Rankine templates stay open to bank problems', () => {
-  expect(solveBankSpec({ template: 'otto', inputs: { p1: '100 kPa', T1: '300 K', compressionRatio: '8', T3: '1800 K' } }).ok).toBe(true)
-  expect(solveBankSpec({ template: 'rankine', inputs: { boilerPressure: '8 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '480 °C' } }).ok).toBe(true)
+  expect(
+    solveBankSpec({ template: 'otto', inputs: { p1: '100 kPa', T1: '300 K', compressionRatio: '8', T3: '1800 K' } }).ok,
+  ).toBe(true)
+  expect(
+    solveBankSpec({
+      template: 'rankine',
+      inputs: { boilerPressure: '8 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '480 °C' },
+    }).ok,
+  ).toBe(true)
 })

@@ -27,11 +27,23 @@ import { STEAM_CARNOT_TEMPLATE, solveSteamCycleSpec } from './steam/steam-cycle.
 import type { FormattedSteamCycle } from './steam/steam-cycle.ts'
 
 /** Every solution a spec file can give (the bank uses the first two: BankSolution). */
-export type AnySolution = FormattedSolution | FormattedRankine | FormattedCombined | FormattedCalorimeter | FormattedSteamCycle | FormattedRefrigeration
+export type AnySolution =
+  | FormattedSolution
+  | FormattedRankine
+  | FormattedCombined
+  | FormattedCalorimeter
+  | FormattedSteamCycle
+  | FormattedRefrigeration
 
 export interface SpecFailure {
   readonly ok: false
-  readonly error: { readonly code: string; readonly message: string; readonly state?: number; readonly property?: string; readonly step?: number }
+  readonly error: {
+    readonly code: string
+    readonly message: string
+    readonly state?: number
+    readonly property?: string
+    readonly step?: number
+  }
 }
 
 export interface SolveSpecOptions {
@@ -42,13 +54,26 @@ export interface SolveSpecOptions {
 
 export function solveSpecNumeric(raw: unknown, slips: Slips = {}): CycleResult | SpecFailure {
   try {
-    if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template" or "cycle"' } }
+    if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+      return {
+        ok: false,
+        error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template" or "cycle"' },
+      }
     const r = raw as Record<string, unknown>
     if (r.template !== undefined) {
       const t = typeof r.template === 'string' ? templates[r.template] : undefined
-      if (!t) return { ok: false, error: { code: 'invalid-spec', message: `unknown template "${String(r.template)}": use one of ${templateIds().join(', ')}`, property: 'template' } }
+      if (!t)
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `unknown template "${String(r.template)}": use one of ${templateIds().join(', ')}`,
+            property: 'template',
+          },
+        }
       const inputs = r.inputs ?? {}
-      if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs)) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
+      if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs))
+        return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
       return t.solve(inputs as Record<string, unknown>, { slips })
     }
     if (r.cycle !== undefined) {
@@ -59,7 +84,10 @@ export function solveSpecNumeric(raw: unknown, slips: Slips = {}): CycleResult |
     return { ok: false, error: { code: 'invalid-spec', message: 'a spec needs "template" (with "inputs") or "cycle"' } }
   } catch (e) {
     // Not expected; keeps the no-throw promise if a bug slips through.
-    return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+    return {
+      ok: false,
+      error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` },
+    }
   }
 }
 
@@ -76,21 +104,30 @@ export function specConvention(raw: unknown): Convention | { error: string } {
  */
 export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): AnySolution | SpecFailure {
   const conv = options.convention ?? specConvention(raw)
-  if (typeof conv !== 'string') return { ok: false, error: { code: 'invalid-spec', message: conv.error, property: 'convention' } }
+  if (typeof conv !== 'string')
+    return { ok: false, error: { code: 'invalid-spec', message: conv.error, property: 'convention' } }
   const t = (raw as { template?: unknown } | null)?.template
   // The combined gas–steam cycle (./combined) formats its own result too.
   if (isCombinedTemplate(t)) return solveCombinedTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
-  if (isRefrigerationTemplate(t)) return solveRefrigerationTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
+  if (isRefrigerationTemplate(t))
+    return solveRefrigerationTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
   // Water in the general cycle format ({ "steamCycle": … } or the vapour Carnot template) and the
   // throttling calorimeter (./steam) read their own spec and convention.
   const withConvention = { ...(raw as object), convention: conv }
   if (isCalorimeterTemplate(t)) return solveCalorimeterSpec(withConvention)
-  if (t === STEAM_CARNOT_TEMPLATE.id || (t === undefined && (raw as { steamCycle?: unknown } | null)?.steamCycle !== undefined)) return solveSteamCycleSpec(withConvention)
+  if (
+    t === STEAM_CARNOT_TEMPLATE.id ||
+    (t === undefined && (raw as { steamCycle?: unknown } | null)?.steamCycle !== undefined)
+  )
+    return solveSteamCycleSpec(withConvention)
   if (isRankineTemplate(t)) {
     try {
       return solveRankineTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
     } catch (e) {
-      return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+      return {
+        ok: false,
+        error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` },
+      }
     }
   }
   const r = solveSpecNumeric(raw, options.slips)
@@ -98,7 +135,10 @@ export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): AnySolu
   try {
     return formatSolution(r, conv)
   } catch (e) {
-    return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+    return {
+      ok: false,
+      error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` },
+    }
   }
 }
 
@@ -125,8 +165,18 @@ function isBankSolution(r: AnySolution): r is BankSolution {
 export function solveBankSpec(raw: unknown, options: SolveSpecOptions = {}): BankSolution | SpecFailure {
   const r = solveSpec(raw, options)
   if (r.ok && !isBankSolution(r)) {
-    const what = 'template' in r && typeof r.template === 'string' ? `the "${r.template}" template` : 'a water/steam cycle written out in full'
-    return { ok: false, error: { code: NOT_IN_BANK, message: `${what} solves in spec files but cannot be used in bank problems yet`, property: 'template' } }
+    const what =
+      'template' in r && typeof r.template === 'string'
+        ? `the "${r.template}" template`
+        : 'a water/steam cycle written out in full'
+    return {
+      ok: false,
+      error: {
+        code: NOT_IN_BANK,
+        message: `${what} solves in spec files but cannot be used in bank problems yet`,
+        property: 'template',
+      },
+    }
   }
   return r as BankSolution | SpecFailure
 }

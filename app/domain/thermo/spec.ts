@@ -16,13 +16,17 @@ import { parseQuantity } from './units.ts'
 import type { Dimension } from './units.ts'
 
 export interface SpecError {
-  readonly code: 'invalid-spec' | 'invalid-gas' | 'unreadable' | 'wrong-dimension' | 'not-finite' | 'slip-not-applicable'
+  readonly code:
+    'invalid-spec' | 'invalid-gas' | 'unreadable' | 'wrong-dimension' | 'not-finite' | 'slip-not-applicable'
   readonly message: string
   readonly property?: string
 }
 export type Parsed<T> = { ok: true; value: T } | { ok: false; error: SpecError }
 
-const err = (code: SpecError['code'], message: string, property?: string): { ok: false; error: SpecError } => ({ ok: false, error: { code, message, property } })
+const err = (code: SpecError['code'], message: string, property?: string): { ok: false; error: SpecError } => ({
+  ok: false,
+  error: { code, message, property },
+})
 
 export interface ReadValue {
   readonly value: number
@@ -31,11 +35,17 @@ export interface ReadValue {
 }
 
 /** parseQuantity plus the slips that act on how a given is read. */
-export function readValue(text: unknown, dims: readonly Dimension[], where: string, slips: Slips = {}): Parsed<ReadValue> {
+export function readValue(
+  text: unknown,
+  dims: readonly Dimension[],
+  where: string,
+  slips: Slips = {},
+): Parsed<ReadValue> {
   const r = parseQuantity(text, dims)
   if (!r.ok) return err(r.error.code, `${where}: ${r.error.message}`, where)
   let value = r.value.value
-  if (slips.celsiusForKelvin && r.value.dimension === 'temperature' && r.value.typedUnit === 'degC') value = r.value.typedNumber
+  if (slips.celsiusForKelvin && r.value.dimension === 'temperature' && r.value.typedUnit === 'degC')
+    value = r.value.typedNumber
   if (slips.kiloFactor === 'input-kJ-as-J' && /^kJ\b/.test(r.value.typedUnit)) value /= 1000
   return { ok: true, value: { value, dimension: r.value.dimension, text: r.value.text } }
 }
@@ -47,7 +57,14 @@ function isObj(x: unknown): x is Record<string, unknown> {
 /** Does the spec contain any temperature typed in °C, or any given in kJ? (slip applicability) */
 export function specMentions(raw: unknown, what: 'celsius' | 'kJ'): boolean {
   const re = what === 'celsius' ? /(°\s*C|degC|℃)/ : /\bkJ\b/
-  const walk = (x: unknown): boolean => (typeof x === 'string' ? re.test(x) : Array.isArray(x) ? x.some(walk) : isObj(x) ? Object.values(x).some(walk) : false)
+  const walk = (x: unknown): boolean =>
+    typeof x === 'string'
+      ? re.test(x)
+      : Array.isArray(x)
+        ? x.some(walk)
+        : isObj(x)
+          ? Object.values(x).some(walk)
+          : false
   return walk(raw)
 }
 
@@ -97,7 +114,12 @@ export function parseGas(raw: unknown, slips: Slips = {}): Parsed<Gas> {
         const target = basis ?? inferred
         let x = r.value.value
         if (b !== target) {
-          if (M === undefined) return err('invalid-gas', `gas.${key} is per ${b === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`, `gas.${key}`)
+          if (M === undefined)
+            return err(
+              'invalid-gas',
+              `gas.${key} is per ${b === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`,
+              `gas.${key}`,
+            )
           x = b === 'mole' ? x / M : x * M
         }
         consts[key] = x
@@ -109,8 +131,17 @@ export function parseGas(raw: unknown, slips: Slips = {}): Parsed<Gas> {
         consts.gamma = r.value.value
       }
       if (consts.R === undefined && M !== undefined) consts.R = basis === 'mole' ? R_MOLAR : R_MOLAR / M
-      if (consts.R === undefined && basis === 'mole' && consts.cp === undefined !== (consts.cv === undefined)) consts.R = R_MOLAR
-      const r = constantCpGas({ basis, R: consts.R, cp: consts.cp, cv: consts.cv, gamma: consts.gamma, molarMass: M, label: typeof raw.label === 'string' ? raw.label : undefined })
+      if (consts.R === undefined && basis === 'mole' && (consts.cp === undefined) !== (consts.cv === undefined))
+        consts.R = R_MOLAR
+      const r = constantCpGas({
+        basis,
+        R: consts.R,
+        cp: consts.cp,
+        cv: consts.cv,
+        gamma: consts.gamma,
+        molarMass: M,
+        label: typeof raw.label === 'string' ? raw.label : undefined,
+      })
       if (!r.ok) return err('invalid-gas', `gas: ${r.error.message}`, `gas.${r.error.property ?? ''}`)
       gas = r.gas
     }
@@ -128,26 +159,52 @@ function parseCpPolynomial(raw: Record<string, unknown>, basis: Basis | undefine
   const poly = raw.cpPolynomial
   const where = 'gas.cpPolynomial'
   if (!isObj(poly)) return err('invalid-gas', `${where} must be an object { a, b, c, d, unit, Tmin, Tmax }`, where)
-  for (const key of Object.keys(poly)) if (!['a', 'b', 'c', 'd', 'unit', 'Tmin', 'Tmax'].includes(key)) return err('invalid-gas', `${where}: unknown key "${key}" (it takes a, b, c, d, unit, Tmin, Tmax)`, `${where}.${key}`)
-  if (typeof poly.unit !== 'string') return err('invalid-gas', `${where}.unit must name the unit of cp, e.g. "kJ/(kmol K)" or "kJ/(kg K)"`, `${where}.unit`)
+  for (const key of Object.keys(poly))
+    if (!['a', 'b', 'c', 'd', 'unit', 'Tmin', 'Tmax'].includes(key))
+      return err(
+        'invalid-gas',
+        `${where}: unknown key "${key}" (it takes a, b, c, d, unit, Tmin, Tmax)`,
+        `${where}.${key}`,
+      )
+  if (typeof poly.unit !== 'string')
+    return err(
+      'invalid-gas',
+      `${where}.unit must name the unit of cp, e.g. "kJ/(kmol K)" or "kJ/(kg K)"`,
+      `${where}.unit`,
+    )
   const u = readValue(`1 ${poly.unit}`, ['specificHeat', 'molarHeat'], `${where}.unit`)
   if (!u.ok) return u
   const own: Basis = u.value.dimension === 'molarHeat' ? 'mole' : 'mass'
   const target = basis ?? own
   let scale = u.value.value
   if (own !== target) {
-    if (M === undefined) return err('invalid-gas', `${where} is per ${own === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`, 'gas.molarMass')
+    if (M === undefined)
+      return err(
+        'invalid-gas',
+        `${where} is per ${own === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`,
+        'gas.molarMass',
+      )
     scale = own === 'mole' ? scale / M : scale * M
   }
   const coeffs: number[] = []
   for (const key of ['a', 'b', 'c', 'd'] as const) {
     const x = poly[key] ?? (key === 'a' ? undefined : 0)
-    if (typeof x !== 'number' || !Number.isFinite(x)) return err('invalid-gas', `${where}.${key} must be a number (cp = a + bT + cT² + dT³, T in K, cp in ${poly.unit})${key === 'a' ? '' : '; leave it out for 0'}`, `${where}.${key}`)
+    if (typeof x !== 'number' || !Number.isFinite(x))
+      return err(
+        'invalid-gas',
+        `${where}.${key} must be a number (cp = a + bT + cT² + dT³, T in K, cp in ${poly.unit})${key === 'a' ? '' : '; leave it out for 0'}`,
+        `${where}.${key}`,
+      )
     coeffs.push(x * scale)
   }
   const range: number[] = []
   for (const key of ['Tmin', 'Tmax'] as const) {
-    if (poly[key] === undefined) return err('invalid-gas', `${where}.${key} is required: the polynomial's validity range, e.g. "273 K" to "1800 K"`, `${where}.${key}`)
+    if (poly[key] === undefined)
+      return err(
+        'invalid-gas',
+        `${where}.${key} is required: the polynomial's validity range, e.g. "273 K" to "1800 K"`,
+        `${where}.${key}`,
+      )
     const r = readValue(poly[key], ['temperature'], `${where}.${key}`)
     if (!r.ok) return r
     range.push(r.value.value)
@@ -157,10 +214,23 @@ function parseCpPolynomial(raw: Record<string, unknown>, basis: Basis | undefine
     const r = readValue(raw.R, ['specificHeat', 'molarHeat'], 'gas.R')
     if (!r.ok) return r
     const b: Basis = r.value.dimension === 'molarHeat' ? 'mole' : 'mass'
-    if (b !== target && M === undefined) return err('invalid-gas', `gas.R is per ${b === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`, 'gas.R')
+    if (b !== target && M === undefined)
+      return err(
+        'invalid-gas',
+        `gas.R is per ${b === 'mole' ? 'mole' : 'kilogram'} but the gas is per ${target === 'mole' ? 'mole' : 'kilogram'}: give gas.molarMass`,
+        'gas.R',
+      )
     R = b === target ? r.value.value : b === 'mole' ? r.value.value / M! : r.value.value * M!
   }
-  const g = polynomialCpGas({ basis: target, coeffs: coeffs as unknown as [number, number, number, number], Tmin: range[0]!, Tmax: range[1]!, R, molarMass: M, label: typeof raw.label === 'string' ? raw.label : undefined })
+  const g = polynomialCpGas({
+    basis: target,
+    coeffs: coeffs as unknown as [number, number, number, number],
+    Tmin: range[0]!,
+    Tmax: range[1]!,
+    R,
+    molarMass: M,
+    label: typeof raw.label === 'string' ? raw.label : undefined,
+  })
   if (!g.ok) return err('invalid-gas', `gas: ${g.error.message}`, `${where}.${g.error.property ?? ''}`)
   return { ok: true, value: g.gas }
 }
@@ -189,7 +259,12 @@ export function readAmount(raw: unknown, gas: Gas, where: string, slips: Slips):
   const b: Basis = r.value.dimension === 'amount' ? 'mole' : 'mass'
   if (b === gas.basis) return { ok: true, value: r.value.value }
   const M = gas.molarMass
-  if (M === undefined) return err('invalid-spec', `${where}: the gas is counted per ${gas.basis === 'mole' ? 'mole' : 'kilogram'} and has no molar mass to convert ${r.value.text}`, where)
+  if (M === undefined)
+    return err(
+      'invalid-spec',
+      `${where}: the gas is counted per ${gas.basis === 'mole' ? 'mole' : 'kilogram'} and has no molar mass to convert ${r.value.text}`,
+      where,
+    )
   return { ok: true, value: b === 'mole' ? r.value.value * M : r.value.value / M }
 }
 
@@ -200,19 +275,26 @@ export function readSpecificVolume(raw: unknown, gas: Gas, where: string, slips:
   const b: Basis = r.value.dimension === 'molarVolume' ? 'mole' : 'mass'
   if (b === gas.basis) return { ok: true, value: r.value.value }
   const M = gas.molarMass
-  if (M === undefined) return err('invalid-spec', `${where}: cannot convert ${r.value.text} without a molar mass`, where)
+  if (M === undefined)
+    return err('invalid-spec', `${where}: cannot convert ${r.value.text} without a molar mass`, where)
   return { ok: true, value: b === 'mole' ? r.value.value / M : r.value.value * M }
 }
 
 /** Heat: "1800 kJ/kg" (per unit amount) or "500 J" (total). */
-export function readHeat(raw: unknown, gas: Gas, where: string, slips: Slips): Parsed<{ heat?: number; heatTotal?: number }> {
+export function readHeat(
+  raw: unknown,
+  gas: Gas,
+  where: string,
+  slips: Slips,
+): Parsed<{ heat?: number; heatTotal?: number }> {
   const r = readValue(raw, ['energy', 'specificEnergy', 'molarEnergy'], where, slips)
   if (!r.ok) return r
   if (r.value.dimension === 'energy') return { ok: true, value: { heatTotal: r.value.value } }
   const b: Basis = r.value.dimension === 'molarEnergy' ? 'mole' : 'mass'
   if (b === gas.basis) return { ok: true, value: { heat: r.value.value } }
   const M = gas.molarMass
-  if (M === undefined) return err('invalid-spec', `${where}: cannot convert ${r.value.text} without a molar mass`, where)
+  if (M === undefined)
+    return err('invalid-spec', `${where}: cannot convert ${r.value.text} without a molar mass`, where)
   return { ok: true, value: { heat: b === 'mole' ? r.value.value / M : r.value.value * M } }
 }
 
@@ -232,15 +314,22 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
   if (!g.ok) return g
   const gas = g.value
   const system = raw.system ?? 'closed'
-  if (system !== 'closed' && system !== 'flow') return err('invalid-spec', 'system must be "closed" or "flow"', 'system')
+  if (system !== 'closed' && system !== 'flow')
+    return err('invalid-spec', 'system must be "closed" or "flow"', 'system')
   let amount: number | undefined
   if (raw.amount !== undefined) {
     const r = readAmount(raw.amount, gas, 'amount', slips)
     if (!r.ok) return r
     amount = r.value
   }
-  if (!Array.isArray(raw.states) || raw.states.length < 2) return err('invalid-spec', 'states must be a list of at least two states', 'states')
-  if (!Array.isArray(raw.steps)) return err('invalid-spec', 'steps must be a list (step k joins state k to state k+1; the last joins back to state 1)', 'steps')
+  if (!Array.isArray(raw.states) || raw.states.length < 2)
+    return err('invalid-spec', 'states must be a list of at least two states', 'states')
+  if (!Array.isArray(raw.steps))
+    return err(
+      'invalid-spec',
+      'steps must be a list (step k joins state k to state k+1; the last joins back to state 1)',
+      'steps',
+    )
   const labels: Record<string, string> = {}
   const states: StateSpec[] = []
   for (let i = 0; i < raw.states.length; i++) {
@@ -284,7 +373,14 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
       return err('invalid-spec', `${where}.process must be one of ${PROCESS_KINDS.join(', ')}`, `${where}.process`)
     }
     const out: Record<string, unknown> = { process: s.process }
-    for (const key of ['n', 'efficiency', 'effectiveness', 'pressureRatio', 'volumeRatio', 'temperatureRatio'] as const) {
+    for (const key of [
+      'n',
+      'efficiency',
+      'effectiveness',
+      'pressureRatio',
+      'volumeRatio',
+      'temperatureRatio',
+    ] as const) {
       if (s[key] === undefined) continue
       const r = readNumber(s[key], `${where}.${key}`)
       if (!r.ok) return r
@@ -293,11 +389,13 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
     if (s.compressionRatio !== undefined) {
       const r = readNumber(s.compressionRatio, `${where}.compressionRatio`)
       if (!r.ok) return r
-      if (!(r.value > 0)) return err('invalid-spec', `${where}.compressionRatio must be positive`, `${where}.compressionRatio`)
+      if (!(r.value > 0))
+        return err('invalid-spec', `${where}.compressionRatio must be positive`, `${where}.compressionRatio`)
       out.volumeRatio = 1 / r.value
     }
     if (s.partner !== undefined) {
-      if (!Number.isInteger(s.partner)) return err('invalid-spec', `${where}.partner must be a step number`, `${where}.partner`)
+      if (!Number.isInteger(s.partner))
+        return err('invalid-spec', `${where}.partner must be a step number`, `${where}.partner`)
       out.partner = (s.partner as number) - 1
     }
     for (const key of ['device', 'path', 'expectHeat', 'label'] as const) if (s[key] !== undefined) out[key] = s[key]
@@ -319,6 +417,7 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
     }
   }
   const purpose = raw.purpose
-  if (purpose !== undefined && purpose !== 'engine' && purpose !== 'refrigerator' && purpose !== 'heat-pump') return err('invalid-spec', 'purpose must be engine, refrigerator or heat-pump', 'purpose')
+  if (purpose !== undefined && purpose !== 'engine' && purpose !== 'refrigerator' && purpose !== 'heat-pump')
+    return err('invalid-spec', 'purpose must be engine, refrigerator or heat-pump', 'purpose')
   return { ok: true, value: { gas, system, amount, states, steps, purpose, reservoirs, labels } }
 }

@@ -20,7 +20,10 @@ describe('parseQuantity', () => {
     expect(r.ok).toBe(true)
     if (r.ok) expect(r.value.value).toBeCloseTo(value, 9)
   })
-  test.each(['300', '1 m', 'abc', 'sqrt(4) K', '1 K; evaluate("2")', '', 'x'.repeat(200)])('rejects %s for a temperature without throwing', (t) => {
-    expect(parseQuantity(t, ['temperature']).ok).toBe(false)
-  })
+  test.each(['300', '1 m', 'abc', 'sqrt(4) K', '1 K; evaluate("2")', '', 'x'.repeat(200)])(
+    'rejects %s for a temperature without throwing',
+    (t) => {
+      expect(parseQuantity(t, ['temperature']).ok).toBe(false)
+    },
+  )
 })

@@ -113,14 +113,29 @@ function dimensionOf(u: Unit): Dimension | null {
  */
 export function parseQuantity(text: unknown, allowed: readonly Dimension[]): ParseResult {
   if (typeof text === 'number') {
-    if (!Number.isFinite(text)) return { ok: false, error: { code: 'not-finite', message: `${text} is not a finite number` } }
+    if (!Number.isFinite(text))
+      return { ok: false, error: { code: 'not-finite', message: `${text} is not a finite number` } }
     if (allowed.includes('dimensionless')) {
-      return { ok: true, value: { value: text, dimension: 'dimensionless', typedNumber: text, typedUnit: '', text: String(text) } }
+      return {
+        ok: true,
+        value: { value: text, dimension: 'dimensionless', typedNumber: text, typedUnit: '', text: String(text) },
+      }
     }
-    return { ok: false, error: { code: 'unreadable', message: `${text} has no unit: write it with one, e.g. "${text} ${SI_UNIT[allowed[0] ?? 'pressure']}"` } }
+    return {
+      ok: false,
+      error: {
+        code: 'unreadable',
+        message: `${text} has no unit: write it with one, e.g. "${text} ${SI_UNIT[allowed[0] ?? 'pressure']}"`,
+      },
+    }
   }
-  if (typeof text !== 'string') return { ok: false, error: { code: 'unreadable', message: 'expected a quantity written as a string, e.g. "300 K"' } }
-  if (text.length > MAX_LENGTH) return { ok: false, error: { code: 'unreadable', message: `"${text.slice(0, 20)}…" is too long for a quantity` } }
+  if (typeof text !== 'string')
+    return {
+      ok: false,
+      error: { code: 'unreadable', message: 'expected a quantity written as a string, e.g. "300 K"' },
+    }
+  if (text.length > MAX_LENGTH)
+    return { ok: false, error: { code: 'unreadable', message: `"${text.slice(0, 20)}…" is too long for a quantity` } }
   let t = normaliseUnitText(text)
   let percent = false
   if (/%\s*$/.test(t)) {
@@ -143,13 +158,17 @@ export function parseQuantity(text: unknown, allowed: readonly Dimension[]): Par
   const dim = dimensionOf(u)
   if (dim === null || !allowed.includes(dim)) {
     const want = allowed.map((a) => (a === 'dimensionless' ? 'a plain number' : SI_UNIT[a])).join(' or ')
-    return { ok: false, error: { code: 'wrong-dimension', message: `"${text}" has the wrong dimension: expected ${want}` } }
+    return {
+      ok: false,
+      error: { code: 'wrong-dimension', message: `"${text}" has the wrong dimension: expected ${want}` },
+    }
   }
   let value: number
   if (dim === 'dimensionless') value = u.units.length ? u.toNumber('') : typedNumber
   else value = u.toNumber(SI_UNIT[dim])
   if (percent) {
-    if (dim !== 'dimensionless') return { ok: false, error: { code: 'unreadable', message: `"${text}": % only applies to plain numbers` } }
+    if (dim !== 'dimensionless')
+      return { ok: false, error: { code: 'unreadable', message: `"${text}": % only applies to plain numbers` } }
     value /= 100
   }
   if (!Number.isFinite(value)) return { ok: false, error: { code: 'not-finite', message: `"${text}" is not finite` } }

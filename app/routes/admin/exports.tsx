@@ -23,7 +23,10 @@ const RequestExportSchema = z.object({
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireAdmin(request)
   const requested = new URL(request.url).searchParams.get('requested')
-  return { ...(await adminExportsPage(db(), user.id)), requested: requested && /^\d{1,9}$/.test(requested) ? Number(requested) : null }
+  return {
+    ...(await adminExportsPage(db(), user.id)),
+    requested: requested && /^\d{1,9}$/.test(requested) ? Number(requested) : null,
+  }
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -34,7 +37,11 @@ export async function action({ request }: Route.ActionArgs) {
     const { exportId } = await requestTermExport(db(), { adminUser: user, termId: form.value.termId })
     return redirect(`/admin/exports?requested=${exportId}`)
   } catch (e) {
-    if (e instanceof ExportRequestError) return data({ fieldErrors: { termId: e.message }, values: { termId: String(form.value.termId) } }, { status: 400 })
+    if (e instanceof ExportRequestError)
+      return data(
+        { fieldErrors: { termId: e.message }, values: { termId: String(form.value.termId) } },
+        { status: 400 },
+      )
     throw e
   }
 }
@@ -86,16 +93,15 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Grade exports</h1>
       <p className="mt-2 max-w-2xl text-muted">
-        The grades of every course of a term, as two CSV files a grade system can import one at a time: the assignment rows (each student’s
-        score on each assignment) and the course totals (one row per student). Totals count only assignments whose due date has passed
-        when the export is built; the others are listed with an empty score. Dropped students are left out. The files are built in the
-        background and appear below when they are ready. Times in UTC.
+        The grades of every course of a term, as two CSV files a grade system can import one at a time: the assignment
+        rows (each student’s score on each assignment) and the course totals (one row per student). Totals count only
+        assignments whose due date has passed when the export is built; the others are listed with an empty score.
+        Dropped students are left out. The files are built in the background and appear below when they are ready. Times
+        in UTC.
       </p>
 
       {terms.length === 0 ? (
-        <EmptyState className="mt-8">
-          There are no terms to export yet.
-        </EmptyState>
+        <EmptyState className="mt-8">There are no terms to export yet.</EmptyState>
       ) : (
         <Form method="post" className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4">
           <div className="flex min-w-0 max-w-full flex-col gap-1">
@@ -139,68 +145,68 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
       <h2 className="mt-8 text-xl font-semibold">Your exports</h2>
       {unfinished > 0 ? (
         <p role="status" className="mt-2 text-sm text-muted">
-          {unfinished === 1 ? 'One export is' : `${unfinished} exports are`} not finished yet; this page checks every few seconds.{' '}
-          <Link to="/admin/exports">Refresh</Link>
+          {unfinished === 1 ? 'One export is' : `${unfinished} exports are`} not finished yet; this page checks every
+          few seconds. <Link to="/admin/exports">Refresh</Link>
         </p>
       ) : null}
       {exports.length === 0 ? (
-        <EmptyState className="mt-4">
-          You have not exported any grades yet. Choose a term above.
-        </EmptyState>
+        <EmptyState className="mt-4">You have not exported any grades yet. Choose a term above.</EmptyState>
       ) : (
         <Table boxClassName="mt-4" caption="Your grade exports, newest first">
-            <TableHead>
-              <tr>
-                <th scope="col" className="px-4 py-2">
-                  Term
+          <TableHead>
+            <tr>
+              <th scope="col" className="px-4 py-2">
+                Term
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Requested
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Status
+              </th>
+              <th scope="col" className="px-4 py-2 text-right">
+                Rows
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Files
+              </th>
+            </tr>
+          </TableHead>
+          <tbody>
+            {exports.map((e) => (
+              <tr key={e.id} className="border-t border-line align-top">
+                <th scope="row" className="min-w-44 px-4 py-2 font-normal">
+                  {e.termName} · {e.departmentName}
                 </th>
-                <th scope="col" className="px-4 py-2">
-                  Requested
-                </th>
-                <th scope="col" className="px-4 py-2">
-                  Status
-                </th>
-                <th scope="col" className="px-4 py-2 text-right">
-                  Rows
-                </th>
-                <th scope="col" className="px-4 py-2">
-                  Files
-                </th>
+                <td className="px-4 py-2">
+                  <time dateTime={new Date(e.createdAt).toISOString()}>{when.format(new Date(e.createdAt))} UTC</time>
+                </td>
+                <td className="min-w-36 px-4 py-2">
+                  <Progress row={e} />
+                </td>
+                <td className="px-4 py-2 text-right tabular-nums">
+                  {e.status === 'done' || e.status === 'running' ? e.rows.toLocaleString('en-GB') : '—'}
+                </td>
+                <td className="min-w-56 px-4 py-2">
+                  {e.status === 'done' ? (
+                    <ul>
+                      {e.files.map((f) => (
+                        <li key={f.name}>
+                          <a href={f.href} download={f.name}>
+                            {f.label}
+                          </a>{' '}
+                          <span className="text-muted [overflow-wrap:anywhere]">({f.name})</span>
+                        </li>
+                      ))}
+                    </ul>
+                  ) : (
+                    <span className="text-muted">Not ready</span>
+                  )}
+                </td>
               </tr>
-            </TableHead>
-            <tbody>
-              {exports.map((e) => (
-                <tr key={e.id} className="border-t border-line align-top">
-                  <th scope="row" className="min-w-44 px-4 py-2 font-normal">
-                    {e.termName} · {e.departmentName}
-                  </th>
-                  <td className="px-4 py-2">
-                    <time dateTime={new Date(e.createdAt).toISOString()}>{when.format(new Date(e.createdAt))} UTC</time>
-                  </td>
-                  <td className="min-w-36 px-4 py-2">
-                    <Progress row={e} />
-                  </td>
-                  <td className="px-4 py-2 text-right tabular-nums">{e.status === 'done' || e.status === 'running' ? e.rows.toLocaleString('en-GB') : '—'}</td>
-                  <td className="min-w-56 px-4 py-2">
-                    {e.status === 'done' ? (
-                      <ul>
-                        {e.files.map((f) => (
-                          <li key={f.name}>
-                            <a href={f.href} download={f.name}>
-                              {f.label}
-                            </a>{' '}
-                            <span className="text-muted [overflow-wrap:anywhere]">({f.name})</span>
-                          </li>
-                        ))}
-                      </ul>
-                    ) : (
-                      <span className="text-muted">Not ready</span>
-                    )}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </Table>
+            ))}
+          </tbody>
+        </Table>
       )}
     </div>
   )

@@ -32,33 +32,45 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
         </EmptyState>
       ) : (
         <Table boxClassName="mt-6" caption="Courses">
-            <TableHead>
-              <tr>
-                <th scope="col" className="px-4 py-2">Course</th>
-                <th scope="col" className="px-4 py-2">Term</th>
-                <th scope="col" className="px-4 py-2">Convention</th>
-                <th scope="col" className="px-4 py-2">Time zone</th>
-                <th scope="col" className="px-4 py-2 text-right">Students</th>
-                <th scope="col" className="px-4 py-2 text-right">Staff</th>
+          <TableHead>
+            <tr>
+              <th scope="col" className="px-4 py-2">
+                Course
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Term
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Convention
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Time zone
+              </th>
+              <th scope="col" className="px-4 py-2 text-right">
+                Students
+              </th>
+              <th scope="col" className="px-4 py-2 text-right">
+                Staff
+              </th>
+            </tr>
+          </TableHead>
+          <tbody>
+            {courses.map((c) => (
+              <tr key={c.id} className="border-t border-line">
+                <th scope="row" className="px-4 py-2 font-normal">
+                  <Link to={href('/admin/courses/:courseId', { courseId: String(c.id) })}>
+                    {c.code} {c.title}
+                  </Link>
+                </th>
+                <td className="px-4 py-2">{c.termName}</td>
+                <td className="px-4 py-2 font-mono whitespace-nowrap">{conventionText[c.signConvention].equation}</td>
+                <td className="px-4 py-2">{c.timeZone}</td>
+                <td className="px-4 py-2 text-right tabular-nums">{c.students}</td>
+                <td className="px-4 py-2 text-right tabular-nums">{c.staff}</td>
               </tr>
-            </TableHead>
-            <tbody>
-              {courses.map((c) => (
-                <tr key={c.id} className="border-t border-line">
-                  <th scope="row" className="px-4 py-2 font-normal">
-                    <Link to={href('/admin/courses/:courseId', { courseId: String(c.id) })}>
-                      {c.code} {c.title}
-                    </Link>
-                  </th>
-                  <td className="px-4 py-2">{c.termName}</td>
-                  <td className="px-4 py-2 font-mono whitespace-nowrap">{conventionText[c.signConvention].equation}</td>
-                  <td className="px-4 py-2">{c.timeZone}</td>
-                  <td className="px-4 py-2 text-right tabular-nums">{c.students}</td>
-                  <td className="px-4 py-2 text-right tabular-nums">{c.staff}</td>
-                </tr>
-              ))}
-            </tbody>
-          </Table>
+            ))}
+          </tbody>
+        </Table>
       )}
       <ul className="mt-6 flex flex-wrap gap-x-6 gap-y-2" aria-label="Department tools">
         <li>

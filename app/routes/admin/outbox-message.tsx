@@ -6,7 +6,9 @@ import { db } from '#app/server/db/client.server.ts'
 import { findOutboxMessage, linksIn } from '#app/server/outbox.server.ts'
 import type { Route } from './+types/outbox-message'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.message.subject ?? 'Message'} · Outbox · Cyclewright` }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.message.subject ?? 'Message'} · Outbox · Cyclewright` },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   await requireAdmin(request)
@@ -60,7 +62,9 @@ export default function OutboxMessageRoute({ loaderData }: Route.ComponentProps)
           </ul>
         </section>
       ) : null}
-      <pre className="mt-6 rounded-lg border border-line bg-white p-4 font-sans text-sm whitespace-pre-wrap">{message.text}</pre>
+      <pre className="mt-6 rounded-lg border border-line bg-white p-4 font-sans text-sm whitespace-pre-wrap">
+        {message.text}
+      </pre>
     </article>
   )
 }

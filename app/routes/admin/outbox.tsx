@@ -15,7 +15,10 @@ export async function loader({ request }: Route.LoaderArgs) {
   await requireAdmin(request)
   // A page number beyond use is refused with a message rather than sent to the database as an offset.
   const page = pageParam(new URL(request.url).searchParams)
-  const [messages, total] = await Promise.all([listOutbox(db(), { limit: PAGE, offset: (page - 1) * PAGE }), countOutbox(db())])
+  const [messages, total] = await Promise.all([
+    listOutbox(db(), { limit: PAGE, offset: (page - 1) * PAGE }),
+    countOutbox(db()),
+  ])
   return { messages, total, page, pages: Math.max(1, Math.ceil(total / PAGE)) }
 }
 
@@ -27,13 +30,11 @@ export default function OutboxRoute({ loaderData }: Route.ComponentProps) {
     <div>
       <h1 className="text-3xl font-semibold">Outbox</h1>
       <p className="mt-2 max-w-2xl text-muted">
-        Mail caught by the local mail server of this installation ({total} message{total === 1 ? '' : 's'}). Nothing here left the
-        machine. Times in UTC.
+        Mail caught by the local mail server of this installation ({total} message{total === 1 ? '' : 's'}). Nothing
+        here left the machine. Times in UTC.
       </p>
       {messages.length === 0 ? (
-        <EmptyState className="mt-8">
-          No mail yet. Invitations and password resets appear here.
-        </EmptyState>
+        <EmptyState className="mt-8">No mail yet. Invitations and password resets appear here.</EmptyState>
       ) : (
         <ul className="mt-6 divide-y divide-line rounded-lg border border-line bg-white" aria-label="Messages">
           {messages.map((m) => (
@@ -42,7 +43,8 @@ export default function OutboxRoute({ loaderData }: Route.ComponentProps) {
                 {m.subject || '(no subject)'}
               </Link>
               <span className="text-sm text-muted">
-                to {m.envelopeTo.join(', ')} · <time dateTime={new Date(m.receivedAt).toISOString()}>{when.format(new Date(m.receivedAt))}</time>
+                to {m.envelopeTo.join(', ')} ·{' '}
+                <time dateTime={new Date(m.receivedAt).toISOString()}>{when.format(new Date(m.receivedAt))}</time>
               </span>
             </li>
           ))}

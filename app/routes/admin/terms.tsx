@@ -17,13 +17,18 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireAdmin(request)
   const department = await findUserDepartment(db(), user.id)
   const created = new URL(request.url).searchParams.get('created')
-  return { department, terms: department ? await listTerms(db(), department.id) : [], created: created && /^\d{1,9}$/.test(created) ? Number(created) : null }
+  return {
+    department,
+    terms: department ? await listTerms(db(), department.id) : [],
+    created: created && /^\d{1,9}$/.test(created) ? Number(created) : null,
+  }
 }
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireAdmin(request)
   const department = await findUserDepartment(db(), user.id)
-  if (!department) throw data('Your account belongs to no department, so there is nowhere to add a term.', { status: 409 })
+  if (!department)
+    throw data('Your account belongs to no department, so there is nowhere to add a term.', { status: 409 })
   const formData = await readFormData(request)
   const form = parseForm(formData, TermFormSchema)
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
@@ -45,15 +50,19 @@ export default function AdminTermsRoute({ loaderData, actionData }: Route.Compon
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Terms</h1>
       {department ? (
-        <p className="mt-2 text-muted">The terms of {department.name}. Dates are calendar days; each course shows its times in its own time zone.</p>
+        <p className="mt-2 text-muted">
+          The terms of {department.name}. Dates are calendar days; each course shows its times in its own time zone.
+        </p>
       ) : (
         <Notice tone="warn" className="mt-4">
-          Your account belongs to no department, so you cannot add terms. Ask whoever runs this installation to set your department.
+          Your account belongs to no department, so you cannot add terms. Ask whoever runs this installation to set your
+          department.
         </Notice>
       )}
       {createdTerm ? (
         <Notice tone="ok" className="mt-4">
-          {createdTerm.name} was added. <Link to={`/admin/courses/new?termId=${createdTerm.id}`}>Create a course in it</Link>.
+          {createdTerm.name} was added.{' '}
+          <Link to={`/admin/courses/new?termId=${createdTerm.id}`}>Create a course in it</Link>.
         </Notice>
       ) : null}
       {department ? (
@@ -61,46 +70,72 @@ export default function AdminTermsRoute({ loaderData, actionData }: Route.Compon
           <EmptyState className="mt-6">No terms yet — create the first below.</EmptyState>
         ) : (
           <Table boxClassName="mt-6" caption="Terms, latest first">
-              <TableHead>
-                <tr>
-                  <th scope="col" className="px-4 py-2">
-                    Term
+            <TableHead>
+              <tr>
+                <th scope="col" className="px-4 py-2">
+                  Term
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  First day
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Last day
+                </th>
+                <th scope="col" className="px-4 py-2 text-right">
+                  Courses
+                </th>
+              </tr>
+            </TableHead>
+            <tbody>
+              {terms.map((t) => (
+                <tr key={t.id} className="border-t border-line">
+                  <th scope="row" className="px-4 py-2 font-normal">
+                    {t.name}
                   </th>
-                  <th scope="col" className="px-4 py-2">
-                    First day
-                  </th>
-                  <th scope="col" className="px-4 py-2">
-                    Last day
-                  </th>
-                  <th scope="col" className="px-4 py-2 text-right">
-                    Courses
-                  </th>
+                  <td className="px-4 py-2 whitespace-nowrap">{formatCalendarDate(t.startsOn)}</td>
+                  <td className="px-4 py-2 whitespace-nowrap">{formatCalendarDate(t.endsOn)}</td>
+                  <td className="px-4 py-2 text-right tabular-nums">{t.courses}</td>
                 </tr>
-              </TableHead>
-              <tbody>
-                {terms.map((t) => (
-                  <tr key={t.id} className="border-t border-line">
-                    <th scope="row" className="px-4 py-2 font-normal">
-                      {t.name}
-                    </th>
-                    <td className="px-4 py-2 whitespace-nowrap">{formatCalendarDate(t.startsOn)}</td>
-                    <td className="px-4 py-2 whitespace-nowrap">{formatCalendarDate(t.endsOn)}</td>
-                    <td className="px-4 py-2 text-right tabular-nums">{t.courses}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </Table>
+              ))}
+            </tbody>
+          </Table>
         )
       ) : null}
       {department ? (
-        <section aria-labelledby="new-term-title" className="mt-8 max-w-2xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
+        <section
+          aria-labelledby="new-term-title"
+          className="mt-8 max-w-2xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6"
+        >
           <h2 id="new-term-title" className="text-xl font-semibold">
             New term
           </h2>
           <Form method="post" className="mt-4 grid gap-4 sm:grid-cols-3" noValidate>
-            <Field label="Name" name="name" required maxLength={60} placeholder="Spring 2027" defaultValue={values.name} error={errors.name} className="sm:col-span-3" />
-            <Field label="First day" name="startsOn" type="date" required defaultValue={values.startsOn} error={errors.startsOn} />
-            <Field label="Last day" name="endsOn" type="date" required defaultValue={values.endsOn} error={errors.endsOn} />
+            <Field
+              label="Name"
+              name="name"
+              required
+              maxLength={60}
+              placeholder="Spring 2027"
+              defaultValue={values.name}
+              error={errors.name}
+              className="sm:col-span-3"
+            />
+            <Field
+              label="First day"
+              name="startsOn"
+              type="date"
+              required
+              defaultValue={values.startsOn}
+              error={errors.startsOn}
+            />
+            <Field
+              label="Last day"
+              name="endsOn"
+              type="date"
+              required
+              defaultValue={values.endsOn}
+              error={errors.endsOn}
+            />
             <div className="flex items-end">
               <Button type="submit" disabled={busy} className="w-full sm:w-auto">
                 {busy ? 'Adding…' : 'Add term'}

@@ -39,7 +39,17 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const usage = await problemUsage(db(), problem.id)
   const confirmDelete = problem.canEdit && url.searchParams.get('confirm') === 'delete'
   const notice = url.searchParams.get('done')
-  return { problem, version, preview, convention, sweep, usage, confirmDelete, notice, cycle: cycleName(cycleOf(version.definition.physics)) }
+  return {
+    problem,
+    version,
+    preview,
+    convention,
+    sweep,
+    usage,
+    confirmDelete,
+    notice,
+    cycle: cycleName(cycleOf(version.definition.physics)),
+  }
 }
 
 const ActionSchema = z.discriminatedUnion('intent', [
@@ -111,13 +121,18 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
               {def.tags.topics.length > 0 ? ` · ${def.tags.topics.join(', ')}` : ''}
             </p>
             <p className="mt-1 text-sm text-muted">
-              By {problem.canEdit ? 'you' : problem.ownerName} · {visibilityLabel[problem.visibility]} · version {version.number}
+              By {problem.canEdit ? 'you' : problem.ownerName} · {visibilityLabel[problem.visibility]} · version{' '}
+              {version.number}
               {version.frozenAt ? ' (frozen: used by an assignment)' : ''}
             </p>
             {problem.origin ? (
               <p className="mt-1 text-sm text-muted">
                 Copied from{' '}
-                {problem.origin.problemId ? <Link to={`/bank/${problem.origin.problemId}`}>{problem.origin.title ?? 'another problem'}</Link> : (problem.origin.title ?? 'a problem that no longer exists')}
+                {problem.origin.problemId ? (
+                  <Link to={`/bank/${problem.origin.problemId}`}>{problem.origin.title ?? 'another problem'}</Link>
+                ) : (
+                  (problem.origin.title ?? 'a problem that no longer exists')
+                )}
                 {problem.origin.versionNumber ? `, version ${problem.origin.versionNumber}` : ''}
               </p>
             ) : null}
@@ -129,27 +144,48 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
           </div>
           <div className="flex flex-wrap gap-2">
             {problem.canEdit ? (
-              <Link to={`/bank/${problem.id}/edit`} className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white no-underline hover:bg-accent-strong hover:no-underline">
+              <Link
+                to={`/bank/${problem.id}/edit`}
+                className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white no-underline hover:bg-accent-strong hover:no-underline"
+              >
                 Edit
               </Link>
             ) : (
               <Form method="post">
                 <input type="hidden" name="intent" value="copy" />
-                <button type="submit" disabled={busy} className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong">
+                <button
+                  type="submit"
+                  disabled={busy}
+                  className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong"
+                >
                   Copy into my bank
                 </button>
               </Form>
             )}
-            <a href={`/bank/export?ids=${problem.id}`} className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline">
+            <a
+              href={`/bank/export?ids=${problem.id}`}
+              className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline"
+            >
               Export
             </a>
           </div>
         </div>
       </div>
 
-      {notice === 'archived' ? <Notice tone="ok">Archived: this problem no longer shows in the bank list or the assignment picker. Assignments that use it keep it.</Notice> : null}
-      {notice === 'restored' ? <Notice tone="ok">Restored: this problem is back in the bank list and the assignment picker.</Notice> : null}
-      {usage?.archivedAt ? <Notice tone="warn">This problem is archived: it is hidden from the bank list and the assignment picker.</Notice> : null}
+      {notice === 'archived' ? (
+        <Notice tone="ok">
+          Archived: this problem no longer shows in the bank list or the assignment picker. Assignments that use it keep
+          it.
+        </Notice>
+      ) : null}
+      {notice === 'restored' ? (
+        <Notice tone="ok">Restored: this problem is back in the bank list and the assignment picker.</Notice>
+      ) : null}
+      {usage?.archivedAt ? (
+        <Notice tone="warn">
+          This problem is archived: it is hidden from the bank list and the assignment picker.
+        </Notice>
+      ) : null}
       {formError && !confirmDelete ? <Notice tone="error">{formError}</Notice> : null}
 
       {problem.canEdit && usage ? (
@@ -165,14 +201,21 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
           <div className="mt-3 flex flex-wrap gap-3">
             <Form method="post">
               <input type="hidden" name="intent" value={usage.archivedAt ? 'restore' : 'archive'} />
-              <button type="submit" disabled={busy} className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold hover:bg-paper">
+              <button
+                type="submit"
+                disabled={busy}
+                className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold hover:bg-paper"
+              >
                 {usage.archivedAt ? 'Restore' : 'Archive'}
               </button>
             </Form>
             {usage.deletable && !confirmDelete ? (
               <Form method="get">
                 <input type="hidden" name="confirm" value="delete" />
-                <button type="submit" className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-danger hover:bg-paper">
+                <button
+                  type="submit"
+                  className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-danger hover:bg-paper"
+                >
                   Delete…
                 </button>
               </Form>
@@ -182,17 +225,26 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
             <div className="mt-4 rounded-md border border-warn/40 bg-warn-soft p-4" data-confirm="delete">
               <p className="font-semibold text-warn">Delete this problem?</p>
               <p className="mt-1">
-                Deletes “{def.title}” with its {usage.versionCount} version{usage.versionCount === 1 ? '' : 's'} and their checks; this cannot be undone.
+                Deletes “{def.title}” with its {usage.versionCount} version{usage.versionCount === 1 ? '' : 's'} and
+                their checks; this cannot be undone.
               </p>
               {formError ? (
                 <Notice tone="error" className="mt-2">
                   {formError}
                 </Notice>
               ) : null}
-              <Form method="post" action={`/bank/${problem.id}?confirm=delete`} className="mt-3 flex flex-wrap items-center gap-4">
+              <Form
+                method="post"
+                action={`/bank/${problem.id}?confirm=delete`}
+                className="mt-3 flex flex-wrap items-center gap-4"
+              >
                 <input type="hidden" name="intent" value="delete" />
                 <input type="hidden" name="confirm" value="yes" />
-                <button type="submit" disabled={busy} className="rounded-md bg-danger px-4 py-2 text-sm font-semibold text-white">
+                <button
+                  type="submit"
+                  disabled={busy}
+                  className="rounded-md bg-danger px-4 py-2 text-sm font-semibold text-white"
+                >
                   Yes, delete it
                 </button>
                 <Link to={`/bank/${problem.id}`}>Cancel</Link>
@@ -204,7 +256,8 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
 
       {!isLatest ? (
         <Notice tone="warn">
-          You are looking at version {version.number}. The newest is <Link to={`/bank/${problem.id}`}>version {problem.latest.number}</Link>.
+          You are looking at version {version.number}. The newest is{' '}
+          <Link to={`/bank/${problem.id}`}>version {problem.latest.number}</Link>.
         </Notice>
       ) : null}
 
@@ -232,7 +285,12 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
             <Form method="get" className="flex items-end gap-2 text-sm">
               {!isLatest ? <input type="hidden" name="version" value={version.number} /> : null}
               <label htmlFor="preview-convention">Preview in the convention of</label>
-              <select id="preview-convention" name="convention" defaultValue={convention} className="rounded-md border border-line bg-white px-2 py-1">
+              <select
+                id="preview-convention"
+                name="convention"
+                defaultValue={convention}
+                className="rounded-md border border-line bg-white px-2 py-1"
+              >
                 <option value="engineering">an engineering course (ΔU = Q − W)</option>
                 <option value="chemistry">a chemistry course (ΔU = q + w)</option>
               </select>
@@ -254,7 +312,8 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
           Versions
         </h2>
         <p className="mt-1 text-sm text-muted">
-          A version is frozen once an assignment uses it; editing a frozen version makes a new one, and assignments keep theirs until you move them.
+          A version is frozen once an assignment uses it; editing a frozen version makes a new one, and assignments keep
+          theirs until you move them.
         </p>
         <ol className="mt-3 divide-y divide-line rounded-lg border border-line bg-white text-sm">
           {problem.versions.map((v) => (
@@ -263,7 +322,15 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
                 {v.number === version.number ? (
                   <strong>Version {v.number}</strong>
                 ) : (
-                  <Link to={v.number === problem.latest.number ? `/bank/${problem.id}` : `/bank/${problem.id}?version=${v.number}`}>Version {v.number}</Link>
+                  <Link
+                    to={
+                      v.number === problem.latest.number
+                        ? `/bank/${problem.id}`
+                        : `/bank/${problem.id}?version=${v.number}`
+                    }
+                  >
+                    Version {v.number}
+                  </Link>
                 )}{' '}
                 <span className="text-muted">
                   · {v.createdByName} · <time dateTime={v.createdAt}>{v.createdAt.slice(0, 10)}</time>

@@ -11,7 +11,9 @@ import { bankViewerFor, getProblemDetail, saveProblem } from '#app/server/proble
 import type { Route } from './+types/edit'
 import { readFormData } from '#app/lib/form.ts'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.problem.title ? `Edit ${data.problem.title}` : 'Edit problem'} · Problem bank · Cyclewright` }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.problem.title ? `Edit ${data.problem.title}` : 'Edit problem'} · Problem bank · Cyclewright` },
+]
 
 /** The save the form starts from, sent back with the form to detect a save made meanwhile. */
 function withBase<S extends { values: Record<string, string> }>(state: S, updatedAt: string): S {
@@ -24,7 +26,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const database = db()
   const detail = await getProblemDetail(database, await bankViewerFor(database, user), problemId)
   if (!detail) throw data('There is no such problem in your bank, or it is not shared with you.', { status: 404 })
-  if (!detail.canEdit) throw data('Only the owner of a problem can change it; make a copy to change your own.', { status: 403 })
+  if (!detail.canEdit)
+    throw data('Only the owner of a problem can change it; make a copy to change your own.', { status: 403 })
   const { latest } = detail
   return {
     problem: { id: detail.id, title: detail.title, versionNumber: latest.number, frozen: latest.frozenAt !== null },
@@ -53,7 +56,10 @@ export default function EditProblemRoute({ loaderData, actionData }: Route.Compo
         <a href="/bank">Problem bank</a> · <a href={`/bank/${problem.id}`}>{problem.title}</a>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Edit problem</h1>
-      <p className="mt-2 text-muted">Version {problem.versionNumber}{problem.frozen ? ', used in an assignment' : ''}.</p>
+      <p className="mt-2 text-muted">
+        Version {problem.versionNumber}
+        {problem.frozen ? ', used in an assignment' : ''}.
+      </p>
       <div className="mt-6">
         <ProblemEditor
           key={actionData?.nonce ?? 'start'}
@@ -66,8 +72,8 @@ export default function EditProblemRoute({ loaderData, actionData }: Route.Compo
           saveNote={
             problem.frozen ? (
               <Notice tone="info">
-                Version {problem.versionNumber} is used in an assignment, so it stays as it is. Saving makes version {problem.versionNumber + 1};
-                assignments keep version {problem.versionNumber}.
+                Version {problem.versionNumber} is used in an assignment, so it stays as it is. Saving makes version{' '}
+                {problem.versionNumber + 1}; assignments keep version {problem.versionNumber}.
               </Notice>
             ) : null
           }

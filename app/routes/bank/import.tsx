@@ -32,7 +32,8 @@ export async function action({ request }: Route.ActionArgs) {
   const header = request.headers.get('content-length')
   if (header === null) return fail('The upload did not say how large it is. Choose the file again and retry.', [], 411)
   const length = Number(header)
-  if (!Number.isFinite(length) || length > MAX_IMPORT_BYTES + 64 * 1024) return fail(`That file is larger than ${MAX_IMPORT_MB} MB. Export fewer problems at a time.`, [], 413)
+  if (!Number.isFinite(length) || length > MAX_IMPORT_BYTES + 64 * 1024)
+    return fail(`That file is larger than ${MAX_IMPORT_MB} MB. Export fewer problems at a time.`, [], 413)
   let form: FormData
   try {
     form = await request.formData()
@@ -41,7 +42,8 @@ export async function action({ request }: Route.ActionArgs) {
   }
   const file = form.get('document')
   if (!(file instanceof File) || file.size === 0) return fail('Choose a bank document (a .json file) to import.')
-  if (file.size > MAX_IMPORT_BYTES) return fail(`That file is larger than ${MAX_IMPORT_MB} MB. Export fewer problems at a time.`, [], 413)
+  if (file.size > MAX_IMPORT_BYTES)
+    return fail(`That file is larger than ${MAX_IMPORT_MB} MB. Export fewer problems at a time.`, [], 413)
   let raw: unknown
   try {
     raw = JSON.parse(await file.text())
@@ -67,9 +69,11 @@ export default function ImportRoute({ actionData }: Route.ComponentProps) {
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Import problems</h1>
       <p className="mt-2 text-muted">
-        Upload a bank document exported from Cyclewright (a .json file, at most {MAX_IMPORT_MB} MB). Every problem is checked first; if any is invalid, nothing
-        is written and each problem is listed here with what to fix. Imported problems are private to you until you share them. The file’s layout is described in{' '}
-        <Link to="/help/bank-format">the bank format</Link>; how to write a problem is in <Link to="/help/authoring">the author guide</Link>.
+        Upload a bank document exported from Cyclewright (a .json file, at most {MAX_IMPORT_MB} MB). Every problem is
+        checked first; if any is invalid, nothing is written and each problem is listed here with what to fix. Imported
+        problems are private to you until you share them. The file’s layout is described in{' '}
+        <Link to="/help/bank-format">the bank format</Link>; how to write a problem is in{' '}
+        <Link to="/help/authoring">the author guide</Link>.
       </p>
       {actionData?.formError ? (
         <Notice tone="error" className="mt-6">
@@ -94,7 +98,11 @@ export default function ImportRoute({ actionData }: Route.ComponentProps) {
           ) : null}
         </Notice>
       ) : null}
-      <Form method="post" encType="multipart/form-data" className="mt-6 flex flex-col gap-4 rounded-lg border border-line bg-white p-6 shadow-sm">
+      <Form
+        method="post"
+        encType="multipart/form-data"
+        className="mt-6 flex flex-col gap-4 rounded-lg border border-line bg-white p-6 shadow-sm"
+      >
         <div className="flex flex-col gap-1">
           <label htmlFor="import-document" className="text-sm font-medium">
             Bank document

@@ -19,19 +19,45 @@ export async function loader({ request }: Route.LoaderArgs) {
     // A page number beyond use has no field to mark: the error page says what to change.
     if (read.problem.param === 'page') throw data(read.problem.message, { status: 400 })
     // A search that cannot be run: the box keeps the words, marked, and no list is shown.
-    const refused = { rows: [] as BankRow[], total: 0, page: 1, pageSize: read.query.pageSize, query: read.query, imported: 0, searchError: read.problem.message, cycles: cycleChoices() }
+    const refused = {
+      rows: [] as BankRow[],
+      total: 0,
+      page: 1,
+      pageSize: read.query.pageSize,
+      query: read.query,
+      imported: 0,
+      searchError: read.problem.message,
+      cycles: cycleChoices(),
+    }
     return data(refused, { status: 400 })
   }
   const { query } = read
   const viewer = await bankViewerFor(db(), user)
   const result = await listBankProblems(db(), viewer, query)
   const imported = Number(url.searchParams.get('imported') ?? '0')
-  return { ...result, query, imported: Number.isInteger(imported) && imported > 0 ? imported : 0, deleted: url.searchParams.get('deleted') === '1', searchError: null as string | null, cycles: cycleChoices() }
+  return {
+    ...result,
+    query,
+    imported: Number.isInteger(imported) && imported > 0 ? imported : 0,
+    deleted: url.searchParams.get('deleted') === '1',
+    searchError: null as string | null,
+    cycles: cycleChoices(),
+  }
 }
 
 type SortKey = 'updated' | 'title' | 'cycle' | 'difficulty'
 
-function SortHeader({ label, sortKey, current, dir }: { label: string; sortKey: SortKey; current: string; dir: string }) {
+function SortHeader({
+  label,
+  sortKey,
+  current,
+  dir,
+}: {
+  label: string
+  sortKey: SortKey
+  current: string
+  dir: string
+}) {
   const [params] = useSearchParams()
   const active = current === sortKey
   const next = new URLSearchParams(params)
@@ -60,24 +86,36 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
     next.set('page', String(p))
     return `?${next}`
   }
-  const filtered = Boolean(query.q || query.cycle || query.difficulty || query.level || query.scope !== 'all' || query.archived)
+  const filtered = Boolean(
+    query.q || query.cycle || query.difficulty || query.level || query.scope !== 'all' || query.archived,
+  )
   return (
     <div>
       <div className="flex flex-wrap items-end justify-between gap-4">
         <div>
           <h1 className="text-3xl font-semibold">Problem bank</h1>
           <p className="mt-1 max-w-2xl text-muted">
-            Problems belong to you, not to a course: reuse them in any course and term. Each student draws their own givens; the server solves every variant.
+            Problems belong to you, not to a course: reuse them in any course and term. Each student draws their own
+            givens; the server solves every variant.
           </p>
         </div>
         <div className="flex flex-wrap gap-2">
-          <Link to="/bank/new" className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white no-underline hover:bg-accent-strong hover:no-underline">
+          <Link
+            to="/bank/new"
+            className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white no-underline hover:bg-accent-strong hover:no-underline"
+          >
             New problem
           </Link>
-          <Link to="/bank/import" className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline">
+          <Link
+            to="/bank/import"
+            className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline"
+          >
             Import
           </Link>
-          <a href="/bank/export" className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline">
+          <a
+            href="/bank/export"
+            className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline"
+          >
             Export all of mine
           </a>
         </div>
@@ -90,7 +128,8 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
       ) : null}
       {query.archived ? (
         <p className="mt-4 text-sm">
-          Showing archived problems: they are hidden from the bank list and the assignment picker until restored. <Link to="/bank">Show the others</Link>
+          Showing archived problems: they are hidden from the bank list and the assignment picker until restored.{' '}
+          <Link to="/bank">Show the others</Link>
         </p>
       ) : null}
       {imported > 0 ? (
@@ -99,7 +138,12 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
         </Notice>
       ) : null}
 
-      <Form method="get" role="search" aria-label="Search the bank" className="mt-6 grid gap-3 rounded-lg border border-line bg-white p-4 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_1fr_auto_auto] lg:items-end">
+      <Form
+        method="get"
+        role="search"
+        aria-label="Search the bank"
+        className="mt-6 grid gap-3 rounded-lg border border-line bg-white p-4 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_1fr_auto_auto] lg:items-end"
+      >
         <div className="flex flex-col gap-1">
           <label htmlFor="bank-q" className="text-sm font-medium">
             Search
@@ -121,8 +165,20 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
           ) : null}
         </div>
         <FilterSelect id="bank-cycle" name="cycle" label="Cycle" value={query.cycle ?? ''} options={cycles} />
-        <FilterSelect id="bank-difficulty" name="difficulty" label="Difficulty" value={query.difficulty ?? ''} options={DIFFICULTIES.map((d) => [d, difficultyLabel[d]])} />
-        <FilterSelect id="bank-level" name="level" label="Level" value={query.level ?? ''} options={LEVELS.map((l) => [l, levelLabel[l]])} />
+        <FilterSelect
+          id="bank-difficulty"
+          name="difficulty"
+          label="Difficulty"
+          value={query.difficulty ?? ''}
+          options={DIFFICULTIES.map((d) => [d, difficultyLabel[d]])}
+        />
+        <FilterSelect
+          id="bank-level"
+          name="level"
+          label="Level"
+          value={query.level ?? ''}
+          options={LEVELS.map((l) => [l, levelLabel[l]])}
+        />
         <FilterSelect
           id="bank-scope"
           name="scope"
@@ -139,7 +195,10 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
           Archived
         </label>
         <div className="flex gap-2">
-          <button type="submit" className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong">
+          <button
+            type="submit"
+            className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white hover:bg-accent-strong"
+          >
             Search
           </button>
           {filtered ? (
@@ -151,7 +210,11 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
       </Form>
 
       <p className="mt-4 text-sm text-muted" aria-live="polite">
-        {busy ? 'Loading…' : searchError ? 'The search was not run: see the message under the search box.' : `${total} problem${total === 1 ? '' : 's'}${filtered ? ' match' : ''}`}
+        {busy
+          ? 'Loading…'
+          : searchError
+            ? 'The search was not run: see the message under the search box.'
+            : `${total} problem${total === 1 ? '' : 's'}${filtered ? ' match' : ''}`}
       </p>
 
       {searchError ? null : rows.length === 0 ? (
@@ -172,7 +235,9 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
         <Form method="get" action="/bank/export" reloadDocument>
           <div className="mt-2 overflow-x-auto rounded-lg border border-line bg-white">
             <table className="w-full text-left text-sm">
-              <caption className="sr-only">Problems in the bank, page {page} of {pages}</caption>
+              <caption className="sr-only">
+                Problems in the bank, page {page} of {pages}
+              </caption>
               <thead className="bg-paper text-xs tracking-wide uppercase">
                 <tr>
                   <th scope="col" className="w-10 px-3 py-2">
@@ -194,7 +259,13 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
                 {rows.map((r) => (
                   <tr key={r.id} className="border-t border-line align-top">
                     <td className="px-3 py-2">
-                      <input type="checkbox" name="ids" value={r.id} aria-label={`Select “${r.title}” for export`} className="size-4" />
+                      <input
+                        type="checkbox"
+                        name="ids"
+                        value={r.id}
+                        aria-label={`Select “${r.title}” for export`}
+                        className="size-4"
+                      />
                     </td>
                     <td className="px-3 py-2">
                       <Link to={`/bank/${r.id}`} className="font-semibold">
@@ -207,7 +278,14 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
                       </div>
                       {query.archived && r.isOwn ? (
                         // Inside the export form: this button posts to the problem's own page instead.
-                        <button type="submit" name="intent" value="restore" formMethod="post" formAction={`/bank/${r.id}`} className="mt-1 text-xs text-accent underline">
+                        <button
+                          type="submit"
+                          name="intent"
+                          value="restore"
+                          formMethod="post"
+                          formAction={`/bank/${r.id}`}
+                          className="mt-1 text-xs text-accent underline"
+                        >
                           restore<span className="sr-only"> “{r.title}”</span>
                         </button>
                       ) : null}
@@ -216,7 +294,9 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
                     <td className="px-3 py-2 text-muted">{r.topics.length > 0 ? r.topics.join(', ') : '—'}</td>
                     <td className="px-3 py-2">
                       {difficultyLabel[r.difficulty as keyof typeof difficultyLabel] ?? r.difficulty}
-                      <div className="text-xs text-muted">{levelLabel[r.level as keyof typeof levelLabel] ?? r.level}</div>
+                      <div className="text-xs text-muted">
+                        {levelLabel[r.level as keyof typeof levelLabel] ?? r.level}
+                      </div>
                     </td>
                     <td className="px-3 py-2">
                       {r.isOwn ? 'You' : r.ownerName}
@@ -236,11 +316,19 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
             </button>
             {pages > 1 ? (
               <nav aria-label="Pages" className="flex items-center gap-3 text-sm">
-                {page > 1 ? <Link to={pageLink(page - 1)}>← Previous</Link> : <span className="text-muted">← Previous</span>}
+                {page > 1 ? (
+                  <Link to={pageLink(page - 1)}>← Previous</Link>
+                ) : (
+                  <span className="text-muted">← Previous</span>
+                )}
                 <span>
                   Page {page} of {pages}
                 </span>
-                {page < pages ? <Link to={pageLink(page + 1)}>Next →</Link> : <span className="text-muted">Next →</span>}
+                {page < pages ? (
+                  <Link to={pageLink(page + 1)}>Next →</Link>
+                ) : (
+                  <span className="text-muted">Next →</span>
+                )}
               </nav>
             ) : null}
           </div>

@@ -34,8 +34,8 @@ export default function NewProblemRoute({ loaderData, actionData }: Route.Compon
       </p>
       <h1 className="mt-1 text-3xl font-semibold">New problem</h1>
       <p className="mt-2 max-w-3xl text-muted">
-        Givens are drawn per student, the physics turns them into a key, and finds are what students answer. Save when the preview looks right; you
-        can edit it until it is used in an assignment.
+        Givens are drawn per student, the physics turns them into a key, and finds are what students answer. Save when
+        the preview looks right; you can edit it until it is used in an assignment.
       </p>
       <div className="mt-6">
         <ProblemEditor

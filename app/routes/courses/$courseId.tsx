@@ -14,7 +14,9 @@ import { listDisputes } from '#app/server/disputes.server.ts'
 import type { Route } from './+types/$courseId'
 import { EmptyState, Table, TableHead } from '#app/components/ui/table.tsx'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.course.code} · Cyclewright` : 'Course · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `${data.course.code} · Cyclewright` : 'Course · Cyclewright' },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -22,7 +24,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const counts = course.role === 'student' ? null : await countMembersByRole(db(), courseId)
   const assignments = await listAssignmentsForCourse(db(), { courseId, role: course.role, userId: user.id })
   const openDisputes =
-    course.role === 'student' ? null : (await listDisputes(db(), { courseId, viewer: { id: user.id, isAdmin: user.isAdmin, role: course.role }, filters: { status: 'open' } })).length
+    course.role === 'student'
+      ? null
+      : (
+          await listDisputes(db(), {
+            courseId,
+            viewer: { id: user.id, isAdmin: user.isAdmin, role: course.role },
+            filters: { status: 'open' },
+          })
+        ).length
   return { course, counts, assignments, openDisputes }
 }
 
@@ -54,7 +64,9 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
           <div className="rounded-lg border border-line bg-white p-4">
             <dt className="text-xs font-semibold tracking-wide text-muted uppercase">Disputes</dt>
             <dd className="mt-1">
-              <Link to={href('/courses/:courseId/disputes', { courseId: String(course.id) })}>{openDisputes === 1 ? '1 open dispute' : `${openDisputes} open disputes`}</Link>
+              <Link to={href('/courses/:courseId/disputes', { courseId: String(course.id) })}>
+                {openDisputes === 1 ? '1 open dispute' : `${openDisputes} open disputes`}
+              </Link>
             </dd>
           </div>
         ) : null}
@@ -67,12 +79,30 @@ export default function CourseRoute({ loaderData }: Route.ComponentProps) {
           </div>
         ) : null}
       </dl>
-      <Assignments courseId={course.id} timeZone={course.timeZone} rows={assignments} staff={staff} instructor={course.role === 'instructor'} />
+      <Assignments
+        courseId={course.id}
+        timeZone={course.timeZone}
+        rows={assignments}
+        staff={staff}
+        instructor={course.role === 'instructor'}
+      />
     </div>
   )
 }
 
-function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId: number; timeZone: string; rows: AssignmentListRow[]; staff: boolean; instructor: boolean }) {
+function Assignments({
+  courseId,
+  timeZone,
+  rows,
+  staff,
+  instructor,
+}: {
+  courseId: number
+  timeZone: string
+  rows: AssignmentListRow[]
+  staff: boolean
+  instructor: boolean
+}) {
   const fmt = (d: Date) => formatInZone(d, timeZone)
   return (
     <section aria-labelledby="assignments-title" className="mt-8">
@@ -82,7 +112,11 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
         </h2>
         {staff ? (
           <p className="flex flex-wrap gap-4 text-sm">
-            {instructor ? <Link to={href('/courses/:courseId/assignments/new', { courseId: String(courseId) })}>New assignment</Link> : null}
+            {instructor ? (
+              <Link to={href('/courses/:courseId/assignments/new', { courseId: String(courseId) })}>
+                New assignment
+              </Link>
+            ) : null}
             <Link to={href('/courses/:courseId/gradebook', { courseId: String(courseId) })}>Course gradebook</Link>
             <a href={href('/courses/:courseId/gradebook.csv', { courseId: String(courseId) })} download>
               Download grades (CSV)
@@ -100,65 +134,98 @@ function Assignments({ courseId, timeZone, rows, staff, instructor }: { courseId
         </EmptyState>
       ) : (
         <Table boxClassName="mt-4" caption={<>Assignments, by due date; times in {timeZone}</>}>
-            <TableHead>
-              <tr>
-                <th scope="col" className="px-4 py-2">Title</th>
-                <th scope="col" className="px-4 py-2">Opens</th>
-                <th scope="col" className="px-4 py-2">Due</th>
+          <TableHead>
+            <tr>
+              <th scope="col" className="px-4 py-2">
+                Title
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Opens
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Due
+              </th>
+              {staff ? (
+                <>
+                  <th scope="col" className="px-4 py-2">
+                    Problems
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Pages
+                  </th>
+                </>
+              ) : (
+                <>
+                  <th scope="col" className="px-4 py-2">
+                    Your score
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    State
+                  </th>
+                </>
+              )}
+            </tr>
+          </TableHead>
+          <tbody>
+            {rows.map((a) => (
+              <tr key={a.id} className="border-t border-line align-top">
+                <th scope="row" className="min-w-40 px-4 py-2 font-normal">
+                  <Link
+                    to={href('/courses/:courseId/assignments/:assignmentId', {
+                      courseId: String(courseId),
+                      assignmentId: String(a.id),
+                    })}
+                  >
+                    {a.title}
+                  </Link>
+                </th>
+                <td className="px-4 py-2">{fmt(a.opensAt)}</td>
+                <td className="px-4 py-2">
+                  {fmt(a.dueAt)}
+                  {a.mine?.extended ? <span className="block text-xs text-muted">your extension</span> : null}
+                </td>
                 {staff ? (
                   <>
-                    <th scope="col" className="px-4 py-2">Problems</th>
-                    <th scope="col" className="px-4 py-2">Pages</th>
+                    <td className="px-4 py-2">
+                      {a.itemCount} ({formatPoints(a.maxScore)} points)
+                    </td>
+                    <td className="px-4 py-2">
+                      <span className="flex flex-wrap gap-3">
+                        <Link
+                          to={href('/courses/:courseId/assignments/:assignmentId', {
+                            courseId: String(courseId),
+                            assignmentId: String(a.id),
+                          })}
+                        >
+                          Overview<span className="sr-only"> of {a.title}</span>
+                        </Link>
+                        <Link
+                          to={href('/courses/:courseId/assignments/:assignmentId/gradebook', {
+                            courseId: String(courseId),
+                            assignmentId: String(a.id),
+                          })}
+                        >
+                          Gradebook<span className="sr-only"> of {a.title}</span>
+                        </Link>
+                      </span>
+                    </td>
                   </>
                 ) : (
                   <>
-                    <th scope="col" className="px-4 py-2">Your score</th>
-                    <th scope="col" className="px-4 py-2">State</th>
+                    <td className="px-4 py-2">
+                      {a.mine?.score ?? 0} of {a.maxScore}
+                      {a.mine && a.mine.pending > 0 ? (
+                        <span className="block text-xs text-muted">some answers are being graded</span>
+                      ) : null}
+                      {a.gradesReleasedAt ? <span className="block text-xs text-muted">grades released</span> : null}
+                    </td>
+                    <td className="px-4 py-2">{a.mine ? windowMessage(a.mine.window, fmt) : null}</td>
                   </>
                 )}
               </tr>
-            </TableHead>
-            <tbody>
-              {rows.map((a) => (
-                <tr key={a.id} className="border-t border-line align-top">
-                  <th scope="row" className="min-w-40 px-4 py-2 font-normal">
-                    <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(courseId), assignmentId: String(a.id) })}>{a.title}</Link>
-                  </th>
-                  <td className="px-4 py-2">{fmt(a.opensAt)}</td>
-                  <td className="px-4 py-2">
-                    {fmt(a.dueAt)}
-                    {a.mine?.extended ? <span className="block text-xs text-muted">your extension</span> : null}
-                  </td>
-                  {staff ? (
-                    <>
-                      <td className="px-4 py-2">
-                        {a.itemCount} ({formatPoints(a.maxScore)} points)
-                      </td>
-                      <td className="px-4 py-2">
-                        <span className="flex flex-wrap gap-3">
-                          <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(courseId), assignmentId: String(a.id) })}>
-                            Overview<span className="sr-only"> of {a.title}</span>
-                          </Link>
-                          <Link to={href('/courses/:courseId/assignments/:assignmentId/gradebook', { courseId: String(courseId), assignmentId: String(a.id) })}>
-                            Gradebook<span className="sr-only"> of {a.title}</span>
-                          </Link>
-                        </span>
-                      </td>
-                    </>
-                  ) : (
-                    <>
-                      <td className="px-4 py-2">
-                        {a.mine?.score ?? 0} of {a.maxScore}
-                        {a.mine && a.mine.pending > 0 ? <span className="block text-xs text-muted">some answers are being graded</span> : null}
-                        {a.gradesReleasedAt ? <span className="block text-xs text-muted">grades released</span> : null}
-                      </td>
-                      <td className="px-4 py-2">{a.mine ? windowMessage(a.mine.window, fmt) : null}</td>
-                    </>
-                  )}
-                </tr>
-              ))}
-            </tbody>
-          </Table>
+            ))}
+          </tbody>
+        </Table>
       )}
     </section>
   )

@@ -12,7 +12,9 @@ import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/audit'
 import { EmptyState } from '#app/components/ui/table.tsx'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Audit log · ${data.course.code} · Cyclewright` : 'Audit log · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Audit log · ${data.course.code} · Cyclewright` : 'Audit log · Cyclewright' },
+]
 
 const PAGE_SIZE = 50
 
@@ -32,7 +34,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const search = new URL(request.url).searchParams
   // A page number beyond use is refused with a message (an offset of 10^20 would fail in the database).
   const query = { ...QuerySchema.parse({ kind: search.get('kind') || undefined }), page: pageParam(search) }
-  const { rows, total, lookups } = await listAuditLog(db(), { courseId, kind: query.kind, limit: PAGE_SIZE, offset: (query.page - 1) * PAGE_SIZE })
+  const { rows, total, lookups } = await listAuditLog(db(), {
+    courseId,
+    kind: query.kind,
+    limit: PAGE_SIZE,
+    offset: (query.page - 1) * PAGE_SIZE,
+  })
   return {
     course: { id: course.id, code: course.code, title: course.title, timeZone: course.timeZone },
     // Worded on the server: the page gets sentences, never the stored field names or ids.
@@ -64,16 +71,26 @@ export default function AuditRoute({ loaderData }: Route.ComponentProps) {
     <div>
       <h1 className="mt-1 text-3xl font-semibold">Audit log</h1>
       <p className="mt-2 max-w-3xl text-muted">
-        Every change of a score in this course, and the decisions around scores (extensions, releases, changed assignments): who, when, what it was and
-        what it became, and why. Entries are written in the same transaction as the change and are never changed or deleted, not even by an
-        administrator. Newest first; times in {course.timeZone}.
+        Every change of a score in this course, and the decisions around scores (extensions, releases, changed
+        assignments): who, when, what it was and what it became, and why. Entries are written in the same transaction as
+        the change and are never changed or deleted, not even by an administrator. Newest first; times in{' '}
+        {course.timeZone}.
       </p>
-      <Form method="get" className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4 shadow-sm" aria-label="Filter the audit log">
+      <Form
+        method="get"
+        className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4 shadow-sm"
+        aria-label="Filter the audit log"
+      >
         <div className="flex flex-col gap-1">
           <label htmlFor="audit-kind" className="text-sm font-medium">
             Kind
           </label>
-          <select id="audit-kind" name="kind" defaultValue={kind ?? ''} className="rounded-md border border-line bg-white px-3 py-2">
+          <select
+            id="audit-kind"
+            name="kind"
+            defaultValue={kind ?? ''}
+            className="rounded-md border border-line bg-white px-3 py-2"
+          >
             <option value="">Every kind</option>
             {Object.entries(KIND_WORDS).map(([value, words]) => (
               <option key={value} value={value}>
@@ -88,7 +105,11 @@ export default function AuditRoute({ loaderData }: Route.ComponentProps) {
       </Form>
       {rows.length === 0 ? (
         <EmptyState className="mt-6">
-          {page > 1 ? 'There are no entries on this page.' : kind ? `No entries of the kind “${KIND_WORDS[kind] ?? kind}” yet.` : 'Nothing has been recorded in this course yet.'}
+          {page > 1
+            ? 'There are no entries on this page.'
+            : kind
+              ? `No entries of the kind “${KIND_WORDS[kind] ?? kind}” yet.`
+              : 'Nothing has been recorded in this course yet.'}
         </EmptyState>
       ) : (
         <div className="mt-6 overflow-x-auto rounded-lg border border-line bg-white">
@@ -99,11 +120,21 @@ export default function AuditRoute({ loaderData }: Route.ComponentProps) {
             </caption>
             <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
               <tr>
-                <th scope="col" className="px-4 py-2">When</th>
-                <th scope="col" className="px-4 py-2">Who</th>
-                <th scope="col" className="px-4 py-2">What happened</th>
-                <th scope="col" className="px-4 py-2">Before → after</th>
-                <th scope="col" className="px-4 py-2">Why</th>
+                <th scope="col" className="px-4 py-2">
+                  When
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Who
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  What happened
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Before → after
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Why
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -114,7 +145,9 @@ export default function AuditRoute({ loaderData }: Route.ComponentProps) {
                   </th>
                   <td className="px-4 py-2">{r.actor ?? 'The system'}</td>
                   <td className="min-w-64 px-4 py-2">
-                    <span className="block text-xs font-semibold tracking-wide text-muted uppercase">{r.words.kind}</span>
+                    <span className="block text-xs font-semibold tracking-wide text-muted uppercase">
+                      {r.words.kind}
+                    </span>
                     {r.words.what}
                     {r.assignmentTitle ? <span className="block text-xs text-muted">{r.assignmentTitle}</span> : null}
                   </td>

@@ -13,8 +13,9 @@ import { db } from '#app/server/db/client.server.ts'
 import { getCourseGradebook, gradebookViewProblem, readGradebookView } from '#app/server/gradebook.server.ts'
 import type { Route } from './+types/gradebook'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Gradebook: ${data.course.code} · Cyclewright` : 'Gradebook · Cyclewright' }]
-
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Gradebook: ${data.course.code} · Cyclewright` : 'Gradebook · Cyclewright' },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -30,17 +31,29 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export default function CourseGradebookRoute({ loaderData }: Route.ComponentProps) {
   const { course } = loaderData
   const { search } = useLocation()
-  const { gradebook, refreshError } = useLiveGradebook(['course-gradebook', course.id], `/api/courses/${course.id}/gradebook${search}`, loaderData.gradebook)
+  const { gradebook, refreshError } = useLiveGradebook(
+    ['course-gradebook', course.id],
+    `/api/courses/${course.id}/gradebook${search}`,
+    loaderData.gradebook,
+  )
   return (
     <div>
       <h1 className="mt-1 text-3xl font-semibold">Gradebook</h1>
       <p className="mt-1 text-sm">
         {/* Plain links: the files are downloads, not pages for the router. */}
-        <a href={href('/courses/:courseId/gradebook.csv', { courseId: String(course.id) })} className="underline" download>
+        <a
+          href={href('/courses/:courseId/gradebook.csv', { courseId: String(course.id) })}
+          className="underline"
+          download
+        >
           Download CSV
         </a>{' '}
         ·{' '}
-        <a href={href('/courses/:courseId/gradebook.xlsx', { courseId: String(course.id) })} className="underline" download>
+        <a
+          href={href('/courses/:courseId/gradebook.xlsx', { courseId: String(course.id) })}
+          className="underline"
+          download
+        >
           Download XLSX
         </a>{' '}
         <span className="text-muted">(the same columns and figures as this table, every current student)</span>

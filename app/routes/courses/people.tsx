@@ -44,7 +44,11 @@ const Id = z.coerce.number().int().positive()
 const ChangeSchema = z.discriminatedUnion('intent', [
   z.object({ intent: z.literal('drop'), userId: Id }),
   z.object({ intent: z.literal('undrop'), userId: Id }),
-  z.object({ intent: z.literal('set-section'), userId: Id, sectionId: z.union([z.literal('').transform(() => null), Id]) }),
+  z.object({
+    intent: z.literal('set-section'),
+    userId: Id,
+    sectionId: z.union([z.literal('').transform(() => null), Id]),
+  }),
   z.object({ intent: z.literal('resend'), invitationId: Id }),
   z.object({ intent: z.literal('revoke'), invitationId: Id }),
 ])
@@ -54,10 +58,18 @@ const Count = z.coerce.number().int().min(0).max(1_000_000).catch(0)
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const { user, course } = await requireCourseRole(request, courseId, ['instructor', 'ta'])
-  const [roster, pending, sections] = await Promise.all([listRoster(db(), courseId), listPendingInvitations(db(), courseId), listSections(db(), courseId)])
+  const [roster, pending, sections] = await Promise.all([
+    listRoster(db(), courseId),
+    listPendingInvitations(db(), courseId),
+    listSections(db(), courseId),
+  ])
   const search = new URL(request.url).searchParams
   const imported = search.has('imported')
-    ? { added: Count.parse(search.get('imported')), updated: Count.parse(search.get('updated')), invited: Count.parse(search.get('invited')) }
+    ? {
+        added: Count.parse(search.get('imported')),
+        updated: Count.parse(search.get('updated')),
+        invited: Count.parse(search.get('invited')),
+      }
     : null
   return {
     course,
@@ -79,7 +91,15 @@ type ActionData = {
   message: string | null
 }
 
-const fill = (body: Partial<ActionData>): ActionData => ({ ok: false, intent: 'invite', fieldErrors: noFieldErrors, values: noValues, sentTo: null, message: null, ...body })
+const fill = (body: Partial<ActionData>): ActionData => ({
+  ok: false,
+  intent: 'invite',
+  fieldErrors: noFieldErrors,
+  values: noValues,
+  sentTo: null,
+  message: null,
+  ...body,
+})
 /** A success is the plain result; a refusal carries its status. */
 const result = (body: Partial<ActionData>, status = 200) => (status === 200 ? fill(body) : data(fill(body), { status }))
 
@@ -90,8 +110,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   const intent = formData.get('intent')
   if (typeof intent === 'string' && intent !== 'invite') {
     if (course.role !== 'instructor') forbidden('Only the course’s instructors can change the roster.')
-    const parsed = ChangeSchema.safeParse(Object.fromEntries([...formData.entries()].filter(([, v]) => typeof v === 'string')))
-    if (!parsed.success) return result({ intent, message: 'That change could not be read. Reload the page and try again.' }, 400)
+    const parsed = ChangeSchema.safeParse(
+      Object.fromEntries([...formData.entries()].filter(([, v]) => typeof v === 'string')),
+    )
+    if (!parsed.success)
+      return result({ intent, message: 'That change could not be read. Reload the page and try again.' }, 400)
     const input = parsed.data
     const base = { courseId, actorId: user.id }
     const change =
@@ -112,12 +135,22 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
   const form = parseForm(formData, InviteFormSchema)
   if (!form.ok) return result({ fieldErrors: form.fieldErrors, values: form.values }, 400)
-  if (!canInvite(toActor(user), courseId, form.value.role)) forbidden('Only the course’s instructors can invite people.')
+  if (!canInvite(toActor(user), courseId, form.value.role))
+    forbidden('Only the course’s instructors can invite people.')
   try {
-    await inviteToCourse(db(), { email: form.value.email, courseId, role: form.value.role, invitedBy: user.id, baseUrl: appUrl() })
+    await inviteToCourse(db(), {
+      email: form.value.email,
+      courseId,
+      role: form.value.role,
+      invitedBy: user.id,
+      baseUrl: appUrl(),
+    })
   } catch (e) {
     console.error('Invitation mail failed:', e)
-    return result({ fieldErrors: { email: 'The invitation could not be e-mailed just now. Please try again in a minute.' } }, 503)
+    return result(
+      { fieldErrors: { email: 'The invitation could not be e-mailed just now. Please try again in a minute.' } },
+      503,
+    )
   }
   return result({ ok: true, sentTo: form.value.email })
 }
@@ -247,7 +280,8 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
       </p>
       {imported ? (
         <Notice tone="ok" className="mt-4">
-          Class list imported: {imported.added} student{imported.added === 1 ? '' : 's'} added, {imported.updated} updated, {imported.invited} invitation
+          Class list imported: {imported.added} student{imported.added === 1 ? '' : 's'} added, {imported.updated}{' '}
+          updated, {imported.invited} invitation
           {imported.invited === 1 ? '' : 's'} sent.
         </Notice>
       ) : null}
@@ -258,11 +292,16 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
       ) : null}
 
       {mayInvite ? (
-        <section aria-labelledby="invite-title" className="mt-6 max-w-2xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
+        <section
+          aria-labelledby="invite-title"
+          className="mt-6 max-w-2xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6"
+        >
           <h2 id="invite-title" className="text-xl font-semibold">
             Invite someone
           </h2>
-          <p className="mt-1 text-sm text-muted">They receive an e-mail with a link that works once and expires in 7 days.</p>
+          <p className="mt-1 text-sm text-muted">
+            They receive an e-mail with a link that works once and expires in 7 days.
+          </p>
           {inviteResult?.ok ? (
             <Notice tone="ok" className="mt-4">
               Invitation sent to {inviteResult.sentTo}.
@@ -270,7 +309,14 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
           ) : null}
           <Form method="post" className="mt-4 grid gap-4 sm:grid-cols-[1fr_auto_auto] sm:items-end">
             <input type="hidden" name="intent" value="invite" />
-            <Field label="E-mail address" name="email" type="email" required defaultValue={inviteResult?.values?.email} error={inviteResult?.fieldErrors?.email} />
+            <Field
+              label="E-mail address"
+              name="email"
+              type="email"
+              required
+              defaultValue={inviteResult?.values?.email}
+              error={inviteResult?.fieldErrors?.email}
+            />
             <div className="flex flex-col gap-1">
               <label htmlFor="invite-role" className="text-sm font-medium">
                 Role
@@ -308,7 +354,14 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
             Nobody is on this course yet.{mayManage ? ' Import a class list or invite people one at a time.' : ''}
           </p>
         ) : (
-          <MemberTable members={roster.active} caption={`People in ${course.code}`} sections={sections} mayManage={mayManage} dropped={false} busy={busy} />
+          <MemberTable
+            members={roster.active}
+            caption={`People in ${course.code}`}
+            sections={sections}
+            mayManage={mayManage}
+            dropped={false}
+            busy={busy}
+          />
         )}
       </section>
 
@@ -320,71 +373,78 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
           <p className="mt-2 text-muted">No invitation is waiting.</p>
         ) : (
           <Table boxClassName="mt-4" caption="Invitations not yet accepted">
-              <TableHead>
-                <tr>
+            <TableHead>
+              <tr>
+                <th scope="col" className="px-3 py-2">
+                  E-mail
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Role
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Last sent
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Link
+                </th>
+                {mayManage ? (
                   <th scope="col" className="px-3 py-2">
-                    E-mail
+                    <span className="sr-only">Changes</span>
                   </th>
-                  <th scope="col" className="px-3 py-2">
-                    Role
+                ) : null}
+              </tr>
+            </TableHead>
+            <tbody>
+              {pending.map((p) => (
+                <tr key={p.id} className="border-t border-line align-top">
+                  <th scope="row" className="px-3 py-2 font-normal break-all">
+                    {p.email}
+                    {p.name ? <span className="block text-xs text-muted">{p.name}</span> : null}
                   </th>
-                  <th scope="col" className="px-3 py-2">
-                    Last sent
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Link
-                  </th>
+                  <td className="px-3 py-2">{roleLabels[p.role]}</td>
+                  <td className="px-3 py-2 whitespace-nowrap">
+                    {formatInZone(p.sentAt, course.timeZone, { withZone: false })}
+                  </td>
+                  <td className="px-3 py-2">
+                    {p.expired ? (
+                      <span className="text-warn">expired</span>
+                    ) : (
+                      `works until ${formatInZone(p.expiresAt, course.timeZone, { withZone: false })}`
+                    )}
+                  </td>
                   {mayManage ? (
-                    <th scope="col" className="px-3 py-2">
-                      <span className="sr-only">Changes</span>
-                    </th>
+                    <td className="px-3 py-2">
+                      <div className="flex flex-wrap gap-2">
+                        <Form method="post">
+                          <input type="hidden" name="intent" value="resend" />
+                          <input type="hidden" name="invitationId" value={p.id} />
+                          <Button
+                            type="submit"
+                            variant="secondary"
+                            className="px-2 py-1 whitespace-nowrap"
+                            disabled={busy}
+                          >
+                            Send again<span className="sr-only"> to {p.email}</span>
+                          </Button>
+                        </Form>
+                        <Form method="post">
+                          <input type="hidden" name="intent" value="revoke" />
+                          <input type="hidden" name="invitationId" value={p.id} />
+                          <Button type="submit" variant="secondary" className="px-2 py-1" disabled={busy}>
+                            Revoke<span className="sr-only"> the invitation to {p.email}</span>
+                          </Button>
+                        </Form>
+                      </div>
+                    </td>
                   ) : null}
                 </tr>
-              </TableHead>
-              <tbody>
-                {pending.map((p) => (
-                  <tr key={p.id} className="border-t border-line align-top">
-                    <th scope="row" className="px-3 py-2 font-normal break-all">
-                      {p.email}
-                      {p.name ? <span className="block text-xs text-muted">{p.name}</span> : null}
-                    </th>
-                    <td className="px-3 py-2">{roleLabels[p.role]}</td>
-                    <td className="px-3 py-2 whitespace-nowrap">{formatInZone(p.sentAt, course.timeZone, { withZone: false })}</td>
-                    <td className="px-3 py-2">
-                      {p.expired ? (
-                        <span className="text-warn">expired</span>
-                      ) : (
-                        `works until ${formatInZone(p.expiresAt, course.timeZone, { withZone: false })}`
-                      )}
-                    </td>
-                    {mayManage ? (
-                      <td className="px-3 py-2">
-                        <div className="flex flex-wrap gap-2">
-                          <Form method="post">
-                            <input type="hidden" name="intent" value="resend" />
-                            <input type="hidden" name="invitationId" value={p.id} />
-                            <Button type="submit" variant="secondary" className="px-2 py-1 whitespace-nowrap" disabled={busy}>
-                              Send again<span className="sr-only"> to {p.email}</span>
-                            </Button>
-                          </Form>
-                          <Form method="post">
-                            <input type="hidden" name="intent" value="revoke" />
-                            <input type="hidden" name="invitationId" value={p.id} />
-                            <Button type="submit" variant="secondary" className="px-2 py-1" disabled={busy}>
-                              Revoke<span className="sr-only"> the invitation to {p.email}</span>
-                            </Button>
-                          </Form>
-                        </div>
-                      </td>
-                    ) : null}
-                  </tr>
-                ))}
-              </tbody>
-            </Table>
+              ))}
+            </tbody>
+          </Table>
         )}
         <p className="mt-2 text-sm text-muted">
-          Sending again e-mails the same link and gives it another 7 days. Revoking stops the link from working; the person stays on the roster (drop them to take
-          them out of the totals).
+          Sending again e-mails the same link and gives it another 7 days. Revoking stops the link from working; the
+          person stays on the roster (drop them to take them out of the totals).
         </p>
       </section>
 
@@ -396,8 +456,17 @@ export default function PeopleRoute({ loaderData, actionData }: Route.ComponentP
           <p className="mt-2 text-muted">No student has been dropped.</p>
         ) : (
           <>
-            <p className="mt-1 text-sm text-muted">Their answers are kept; they are left out of the course’s totals and exports.</p>
-            <MemberTable members={roster.dropped} caption={`Students dropped from ${course.code}`} sections={sections} mayManage={mayManage} dropped busy={busy} />
+            <p className="mt-1 text-sm text-muted">
+              Their answers are kept; they are left out of the course’s totals and exports.
+            </p>
+            <MemberTable
+              members={roster.dropped}
+              caption={`Students dropped from ${course.code}`}
+              sections={sections}
+              mayManage={mayManage}
+              dropped
+              busy={busy}
+            />
           </>
         )}
       </section>

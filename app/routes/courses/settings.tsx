@@ -11,11 +11,18 @@ import { type FieldErrors, parseForm, readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { CopyCourseFormSchema, copyCourse } from '#app/server/course-copy.server.ts'
-import { CourseSettingsFormSchema, courseSettingsPage, updateCourseSettings, formValues } from '#app/server/courses.server.ts'
+import {
+  CourseSettingsFormSchema,
+  courseSettingsPage,
+  updateCourseSettings,
+  formValues,
+} from '#app/server/courses.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/settings'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Settings · ${data.course.code} · Cyclewright` : 'Course settings · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Settings · ${data.course.code} · Cyclewright` : 'Course settings · Cyclewright' },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -35,16 +42,27 @@ export async function action({ request, params }: Route.ActionArgs) {
   const intent = formData.get('intent')
   if (intent === 'copy') {
     const form = parseForm(formData, CopyCourseFormSchema)
-    if (!form.ok) return data<Answer>({ intent: 'copy', fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
+    if (!form.ok)
+      return data<Answer>({ intent: 'copy', fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
     const copied = await copyCourse(db(), { actorId: user.id, courseId, input: form.value })
-    if (!copied.ok) return data<Answer>({ intent: 'copy', fieldErrors: copied.fieldErrors, values: formValues(formData) }, { status: 400 })
+    if (!copied.ok)
+      return data<Answer>(
+        { intent: 'copy', fieldErrors: copied.fieldErrors, values: formValues(formData) },
+        { status: 400 },
+      )
     return redirect(`/courses/${copied.courseId}/settings?copied=1`)
   }
-  if (intent !== 'save') throw data('This form could not be read. Go back to the page and send it from there.', { status: 400 })
+  if (intent !== 'save')
+    throw data('This form could not be read. Go back to the page and send it from there.', { status: 400 })
   const form = parseForm(formData, CourseSettingsFormSchema)
-  if (!form.ok) return data<Answer>({ intent: 'save', fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
+  if (!form.ok)
+    return data<Answer>({ intent: 'save', fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
   const saved = await updateCourseSettings(db(), { actorId: user.id, courseId, input: form.value })
-  if (!saved.ok) return data<Answer>({ intent: 'save', fieldErrors: saved.fieldErrors, values: formValues(formData) }, { status: 400 })
+  if (!saved.ok)
+    return data<Answer>(
+      { intent: 'save', fieldErrors: saved.fieldErrors, values: formValues(formData) },
+      { status: 400 },
+    )
   return redirect(`/courses/${courseId}/settings?saved=1`)
 }
 
@@ -62,15 +80,15 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
   const savedKey = [course.code, course.title, course.timeZone, course.signConvention].join('|')
   return (
     <div>
-      <p className="text-sm text-muted">
-        {course.termName}
-      </p>
+      <p className="text-sm text-muted">{course.termName}</p>
       <h1 className="mt-1 text-3xl font-semibold">Course settings</h1>
       {copied && copyOf ? (
         <Notice tone="ok" className="mt-4">
           This is the copy of {copyOf.code} ({copyOf.termName}) for {course.termName}: {copyOf.assignments} assignment
-          {copyOf.assignments === 1 ? '' : 's'}, dates moved by {formatDayOffset(copyOf.offsetDays)}. Keys and grades are not released.{' '}
-          <Link to={href('/courses/:courseId', { courseId: String(course.id) })}>Open the course page</Link> to check the assignments.
+          {copyOf.assignments === 1 ? '' : 's'}, dates moved by {formatDayOffset(copyOf.offsetDays)}. Keys and grades
+          are not released.{' '}
+          <Link to={href('/courses/:courseId', { courseId: String(course.id) })}>Open the course page</Link> to check
+          the assignments.
         </Notice>
       ) : null}
       {saved ? (
@@ -79,15 +97,32 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
         </Notice>
       ) : null}
 
-      <section aria-labelledby="settings-title" className="mt-6 max-w-2xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
+      <section
+        aria-labelledby="settings-title"
+        className="mt-6 max-w-2xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6"
+      >
         <h2 id="settings-title" className="text-xl font-semibold">
           Settings
         </h2>
         <Form key={savedKey} method="post" noValidate className="mt-4 grid gap-5">
           <input type="hidden" name="intent" value="save" />
           <div className="grid gap-5 sm:grid-cols-[10rem_1fr]">
-            <Field label="Code" name="code" required maxLength={24} defaultValue={sv.code ?? course.code} error={se.code} />
-            <Field label="Title" name="title" required maxLength={120} defaultValue={sv.title ?? course.title} error={se.title} />
+            <Field
+              label="Code"
+              name="code"
+              required
+              maxLength={24}
+              defaultValue={sv.code ?? course.code}
+              error={se.code}
+            />
+            <Field
+              label="Title"
+              name="title"
+              required
+              maxLength={120}
+              defaultValue={sv.title ?? course.title}
+              error={se.title}
+            />
           </div>
           <TimeZoneField
             defaultValue={sv.timeZone ?? course.timeZone}
@@ -99,7 +134,13 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
             error={se.signConvention}
             hint={<ConventionWarning impact={impact} current={course.signConvention} />}
           />
-          {impact.answers > 0 ? <ConfirmConvention error={se.confirmConvention} checked={sv.confirmConvention === 'yes'} answers={impact.answers} /> : null}
+          {impact.answers > 0 ? (
+            <ConfirmConvention
+              error={se.confirmConvention}
+              checked={sv.confirmConvention === 'yes'}
+              answers={impact.answers}
+            />
+          ) : null}
           <div>
             <Button type="submit" disabled={busyIntent === 'save'}>
               {busyIntent === 'save' ? 'Saving…' : 'Save settings'}
@@ -108,21 +149,34 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
         </Form>
       </section>
 
-      <section aria-labelledby="copy-title" className="mt-8 max-w-2xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
+      <section
+        aria-labelledby="copy-title"
+        className="mt-8 max-w-2xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6"
+      >
         <h2 id="copy-title" className="text-xl font-semibold">
           Copy to another term
         </h2>
         <p className="mt-1 text-sm text-muted">
-          Makes a new course with these settings, its {instructorCount} instructor{instructorCount === 1 ? '' : 's'} and its {assignmentCount} assignment
-          {assignmentCount === 1 ? '' : 's'}: the same problem versions, points and tolerances, with every date moved by the same number of days. Students, teaching
-          assistants, extensions, answers, grades and disputes stay here; the copy’s keys and grades start unreleased.
+          Makes a new course with these settings, its {instructorCount} instructor{instructorCount === 1 ? '' : 's'} and
+          its {assignmentCount} assignment
+          {assignmentCount === 1 ? '' : 's'}: the same problem versions, points and tolerances, with every date moved by
+          the same number of days. Students, teaching assistants, extensions, answers, grades and disputes stay here;
+          the copy’s keys and grades start unreleased.
         </p>
         {copyTerms.length === 0 ? (
-          <p className="mt-4 rounded-lg border border-dashed border-line p-4 text-center text-muted">No terms yet — the department’s admins add them.</p>
+          <p className="mt-4 rounded-lg border border-dashed border-line p-4 text-center text-muted">
+            No terms yet — the department’s admins add them.
+          </p>
         ) : (
           <Form key={savedKey} method="post" noValidate className="mt-4 grid gap-5">
             <input type="hidden" name="intent" value="copy" />
-            <SelectField label="Term to copy to" name="termId" required defaultValue={cv.termId ?? ''} error={ce.termId}>
+            <SelectField
+              label="Term to copy to"
+              name="termId"
+              required
+              defaultValue={cv.termId ?? ''}
+              error={ce.termId}
+            >
               <option value="">Choose a term…</option>
               {copyTerms.map((t) => (
                 <option key={t.id} value={t.id}>
@@ -132,8 +186,22 @@ export default function CourseSettingsRoute({ loaderData, actionData }: Route.Co
               ))}
             </SelectField>
             <div className="grid gap-5 sm:grid-cols-[10rem_1fr]">
-              <Field label="Code of the copy" name="code" required maxLength={24} defaultValue={cv.code ?? course.code} error={ce.code} />
-              <Field label="Title of the copy" name="title" required maxLength={120} defaultValue={cv.title ?? course.title} error={ce.title} />
+              <Field
+                label="Code of the copy"
+                name="code"
+                required
+                maxLength={24}
+                defaultValue={cv.code ?? course.code}
+                error={ce.code}
+              />
+              <Field
+                label="Title of the copy"
+                name="title"
+                required
+                maxLength={120}
+                defaultValue={cv.title ?? course.title}
+                error={ce.title}
+              />
             </div>
             <Field
               label="Move dates by (days)"
@@ -165,20 +233,25 @@ function ConventionWarning({ impact, current }: { impact: Impact; current: 'chem
   return (
     <div className="space-y-1">
       <p>
-        The keys are signed by the course’s convention. Changing it re-signs the key of every problem that follows the course
+        The keys are signed by the course’s convention. Changing it re-signs the key of every problem that follows the
+        course
         {impact.followingProblems + impact.fixedProblems > 0
           ? ` (here ${impact.followingProblems} of the ${problems(impact.followingProblems + impact.fixedProblems)} set in this course)`
           : ''}
-        : each work value changes sign, because the chemistry w is the work done on the system and the engineering W the work done by it (W = −w). Heat keeps its sign (q
-        and Q both count the heat into the system), and so do temperatures, pressures and efficiencies. Keys and worked solutions are then shown with the {other} symbols
-        ({CONVENTIONS[other].equation}).
+        : each work value changes sign, because the chemistry w is the work done on the system and the engineering W the
+        work done by it (W = −w). Heat keeps its sign (q and Q both count the heat into the system), and so do
+        temperatures, pressures and efficiencies. Keys and worked solutions are then shown with the {other} symbols (
+        {CONVENTIONS[other].equation}).
       </p>
-      {impact.fixedProblems > 0 ? <p>{problems(impact.fixedProblems)} fix their own convention and do not change.</p> : null}
+      {impact.fixedProblems > 0 ? (
+        <p>{problems(impact.fixedProblems)} fix their own convention and do not change.</p>
+      ) : null}
       {impact.answers > 0 ? (
         <p className="font-medium text-warn">
-          {impact.students} student{impact.students === 1 ? ' has' : 's have'} already sent {impact.answers} answer{impact.answers === 1 ? '' : 's'}. Answers already
-          graded keep their verdicts and scores, even where the key they now see has the other sign; answers graded after the change, including any still waiting to be
-          graded, are checked against the re-signed key.
+          {impact.students} student{impact.students === 1 ? ' has' : 's have'} already sent {impact.answers} answer
+          {impact.answers === 1 ? '' : 's'}. Answers already graded keep their verdicts and scores, even where the key
+          they now see has the other sign; answers graded after the change, including any still waiting to be graded,
+          are checked against the re-signed key.
         </p>
       ) : null}
     </div>

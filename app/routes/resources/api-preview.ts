@@ -31,7 +31,11 @@ export async function action({ request }: Route.ActionArgs) {
     return jsonError(400, 'The preview request is not valid JSON.')
   }
   const parsed = PreviewRequestSchema.safeParse(body)
-  if (!parsed.success) return jsonError(400, `The preview request could not be read: ${parsed.error.issues[0]?.message ?? 'unknown field'}.`)
+  if (!parsed.success)
+    return jsonError(
+      400,
+      `The preview request could not be read: ${parsed.error.issues[0]?.message ?? 'unknown field'}.`,
+    )
   const { definition, seeds, convention } = parsed.data
   return Response.json(previewProblem(definition, { seeds, convention }), { headers: { 'Cache-Control': 'no-store' } })
 }

@@ -13,6 +13,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const regradeId = apiIdParam(params.regradeId, 'regrade')
   const progress = await getRegradeProgress(db(), regradeId)
   if (!progress) return jsonError(404, 'There is no such regrade.')
-  if (!canSeeCourseAsStaff(toActor(user), progress.courseId)) return jsonError(403, 'Regrades are for the course’s instructors and teaching assistants.')
+  if (!canSeeCourseAsStaff(toActor(user), progress.courseId))
+    return jsonError(403, 'Regrades are for the course’s instructors and teaching assistants.')
   return Response.json(progress, { headers: { 'Cache-Control': 'no-store' } })
 }

@@ -10,6 +10,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const sweepId = apiIdParam(params.sweepId, 'check')
   const sweep = await getSweep(db(), sweepId)
   const viewer = await bankViewerFor(db(), user)
-  if (!sweep || !(await getVersionForViewer(db(), viewer, sweep.versionId))) return jsonError(404, 'There is no such check.')
+  if (!sweep || !(await getVersionForViewer(db(), viewer, sweep.versionId)))
+    return jsonError(404, 'There is no such check.')
   return Response.json(sweep, { headers: { 'Cache-Control': 'no-store' } })
 }

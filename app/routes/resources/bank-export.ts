@@ -11,8 +11,13 @@ import type { Route } from './+types/bank-export'
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireBankUser(request)
   const url = new URL(request.url)
-  const raw = url.searchParams.getAll('ids').flatMap((s) => s.split(',')).map((s) => s.trim()).filter(Boolean)
-  if (raw.some((s) => !/^\d{1,9}$/.test(s))) throw data('The problems to export are named by number, like ?ids=3,7.', { status: 400 })
+  const raw = url.searchParams
+    .getAll('ids')
+    .flatMap((s) => s.split(','))
+    .map((s) => s.trim())
+    .filter(Boolean)
+  if (raw.some((s) => !/^\d{1,9}$/.test(s)))
+    throw data('The problems to export are named by number, like ?ids=3,7.', { status: 400 })
   if (raw.length > 500) throw data('Export at most 500 problems at a time.', { status: 400 })
   const ids = [...new Set(raw.map(Number))]
   const viewer = await bankViewerFor(db(), user)
@@ -27,7 +32,8 @@ export async function loader({ request }: Route.LoaderArgs) {
       },
     })
   } catch (e) {
-    if (e instanceof ProblemAccessError) throw data('One of those problems is not in your bank or shared with you.', { status: 404 })
+    if (e instanceof ProblemAccessError)
+      throw data('One of those problems is not in your bank or shared with you.', { status: 404 })
     if (e instanceof BankExportError) throw data(e.message, { status: 400 })
     throw e
   }

@@ -13,7 +13,11 @@ import { db } from '#app/server/db/client.server.ts'
 import { getAttachmentForViewer, type AttachmentType } from '#app/server/disputes.server.ts'
 import type { Route } from './+types/dispute-attachment'
 
-const EXTENSION: Record<AttachmentType, string> = { 'application/pdf': '.pdf', 'image/png': '.png', 'image/jpeg': '.jpg' }
+const EXTENSION: Record<AttachmentType, string> = {
+  'application/pdf': '.pdf',
+  'image/png': '.png',
+  'image/jpeg': '.jpg',
+}
 
 /** How each type is sent: PDFs as downloads, images for showing in the page. */
 export function dispositionFor(type: AttachmentType): 'attachment' | 'inline' {
@@ -47,7 +51,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const { user, course } = await requireCourseRole(request, courseId, ['instructor', 'ta', 'student'])
   const disputeId = requireIdParam(params.disputeId, 'dispute')
-  const file = await getAttachmentForViewer(db(), { courseId, disputeId, viewer: { id: user.id, isAdmin: user.isAdmin, role: course.role } })
+  const file = await getAttachmentForViewer(db(), {
+    courseId,
+    disputeId,
+    viewer: { id: user.id, isAdmin: user.isAdmin, role: course.role },
+  })
   // The same answer whether the dispute is missing or someone else's: no hint that it exists.
   if (!file) throw data('There is no such file, or it is not yours to see.', { status: 404 })
   return new Response(new Uint8Array(file.data), {

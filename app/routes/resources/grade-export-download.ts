@@ -16,10 +16,16 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const exportId = requireIdParam(params.exportId, 'export')
   const asked = new URL(request.url).searchParams.get('file')
   if (asked !== null && !(TERM_EXPORT_FILES as readonly string[]).includes(asked)) {
-    throw data('An export has two files: ?file=assignments for the assignment rows, ?file=course-totals for the course totals.', { status: 404 })
+    throw data(
+      'An export has two files: ?file=assignments for the assignment rows, ?file=course-totals for the course totals.',
+      { status: 404 },
+    )
   }
   const file = await getExportDownload(db(), exportId, asked as TermExportFile | null)
-  if (!file) throw data('There is no finished export with that number and file. It may still be building: see Grade exports.', { status: 404 })
+  if (!file)
+    throw data('There is no finished export with that number and file. It may still be building: see Grade exports.', {
+      status: 404,
+    })
   return new Response(file.csv, {
     headers: {
       'Content-Type': 'text/csv; charset=utf-8',

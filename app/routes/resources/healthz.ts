@@ -18,7 +18,10 @@ export async function loader() {
     await Promise.race([db().execute(sql`select 1`), timeout])
     return Response.json({ ok: true }, { headers: { 'Cache-Control': 'no-store' } })
   } catch {
-    return Response.json({ ok: false, reason: 'database unreachable' }, { status: 503, headers: { 'Cache-Control': 'no-store' } })
+    return Response.json(
+      { ok: false, reason: 'database unreachable' },
+      { status: 503, headers: { 'Cache-Control': 'no-store' } },
+    )
   } finally {
     clearTimeout(timer)
   }

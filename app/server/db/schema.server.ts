@@ -114,7 +114,10 @@ export const memberships = pgTable(
     droppedAt: timestamp({ withTimezone: true }),
     createdAt: createdAt(),
   },
-  (t) => [uniqueIndex('memberships_user_course_key').on(t.userId, t.courseId), index('memberships_course_idx').on(t.courseId)],
+  (t) => [
+    uniqueIndex('memberships_user_course_key').on(t.userId, t.courseId),
+    index('memberships_course_idx').on(t.courseId),
+  ],
 )
 
 /** A course's sections (lab or tutorial groups), named as the department names them. */
@@ -238,7 +241,10 @@ export const problems = pgTable(
     title: text().notNull(),
     /** template id or 'general' */
     cycle: text().notNull(),
-    topics: text().array().notNull().default(sql`'{}'::text[]`),
+    topics: text()
+      .array()
+      .notNull()
+      .default(sql`'{}'::text[]`),
     difficulty: text().notNull(),
     level: text().notNull(),
     /** archived: hidden from the bank and the assignment picker, kept for assignments that use it */
@@ -287,7 +293,9 @@ export const problemSweeps = pgTable(
     checked: integer().notNull().default(0),
     failed: integer().notNull().default(0),
     /** SweepFailure[] (the first few hundred) */
-    failures: jsonb().notNull().default(sql`'[]'::jsonb`),
+    failures: jsonb()
+      .notNull()
+      .default(sql`'[]'::jsonb`),
     /** why the sweep itself could not run (not a variant's failure) */
     error: text(),
     createdAt: createdAt(),
@@ -366,9 +374,15 @@ export const assignmentItems = pgTable(
     /** The problem's worth in this assignment; its finds share it in proportion to their own points. */
     points: doublePrecision().notNull(),
     /** findName → Tolerance replacing the version's tolerance for this assignment (a regrade may set it). */
-    toleranceOverrides: jsonb().$type<Record<string, unknown>>().notNull().default(sql`'{}'::jsonb`),
+    toleranceOverrides: jsonb()
+      .$type<Record<string, unknown>>()
+      .notNull()
+      .default(sql`'{}'::jsonb`),
   },
-  (t) => [index('assignment_items_assignment_idx').on(t.assignmentId, t.position), check('assignment_items_points', sql`${t.points} >= 0`)],
+  (t) => [
+    index('assignment_items_assignment_idx').on(t.assignmentId, t.position),
+    check('assignment_items_points', sql`${t.points} >= 0`),
+  ],
 )
 
 /** A per-student accommodation: a later due date and/or more attempts per find. */
@@ -392,7 +406,10 @@ export const extensions = pgTable(
     createdAt: createdAt(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [uniqueIndex('extensions_assignment_user_key').on(t.assignmentId, t.userId), check('extensions_extra_attempts', sql`${t.extraAttempts} >= 0`)],
+  (t) => [
+    uniqueIndex('extensions_assignment_user_key').on(t.assignmentId, t.userId),
+    check('extensions_extra_attempts', sql`${t.extraAttempts} >= 0`),
+  ],
 )
 
 /** One press of Submit on one problem: the answers exactly as typed, kept for good. */
@@ -486,7 +503,10 @@ export const regrades = pgTable(
       .references(() => assignmentItems.id, { onDelete: 'cascade' }),
     fromVersionId: integer().notNull(),
     toVersionId: integer().notNull(),
-    toleranceOverrides: jsonb().$type<Record<string, unknown>>().notNull().default(sql`'{}'::jsonb`),
+    toleranceOverrides: jsonb()
+      .$type<Record<string, unknown>>()
+      .notNull()
+      .default(sql`'{}'::jsonb`),
     status: jobStatus().notNull().default('queued'),
     /** parts to regrade, parts done, parts whose score changed */
     total: integer().notNull().default(0),
@@ -548,7 +568,10 @@ export const attachments = pgTable(
     data: bytea().notNull(),
     createdAt: createdAt(),
   },
-  (t) => [index('attachments_user_idx').on(t.userId), check('attachments_size', sql`${t.size} > 0 and ${t.size} <= 10485760`)],
+  (t) => [
+    index('attachments_user_idx').on(t.userId),
+    check('attachments_size', sql`${t.size} > 0 and ${t.size} <= 10485760`),
+  ],
 )
 
 /** A student's challenge to the verdict on one graded answer to one find. */
@@ -588,7 +611,9 @@ export const disputes = pgTable(
   (t) => [
     index('disputes_course_status_idx').on(t.courseId, t.status, t.createdAt),
     index('disputes_user_idx').on(t.userId, t.createdAt),
-    uniqueIndex('disputes_one_open_per_find').on(t.itemId, t.userId, t.findName).where(sql`status = 'open'`),
+    uniqueIndex('disputes_one_open_per_find')
+      .on(t.itemId, t.userId, t.findName)
+      .where(sql`status = 'open'`),
   ],
 )
 

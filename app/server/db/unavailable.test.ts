@@ -25,13 +25,23 @@ describe('isDatabaseUnavailable', () => {
   })
 
   test('leaves real bugs and bad queries alone', () => {
-    for (const e of [new Error('boom'), withCode('23505', 'duplicate key'), withCode('42P01', 'relation does not exist'), new Response('x', { status: 404 }), null, 'ECONNREFUSED']) {
+    for (const e of [
+      new Error('boom'),
+      withCode('23505', 'duplicate key'),
+      withCode('42P01', 'relation does not exist'),
+      new Response('x', { status: 404 }),
+      null,
+      'ECONNREFUSED',
+    ]) {
       expect(isDatabaseUnavailable(e)).toBe(false)
     }
   })
 
   test('recognises what node-postgres really throws for a closed port', async () => {
-    const client = new pg.Client({ connectionString: 'postgres://nobody:x@127.0.0.1:1/none', connectionTimeoutMillis: 2000 })
+    const client = new pg.Client({
+      connectionString: 'postgres://nobody:x@127.0.0.1:1/none',
+      connectionTimeoutMillis: 2000,
+    })
     const error = await client.connect().then(
       () => null,
       (e: unknown) => e,

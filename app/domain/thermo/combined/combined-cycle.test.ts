@@ -87,7 +87,9 @@ describe('impossible plants are refused with a reason', () => {
     return r.ok ? '' : r.error.message
   }
   test('steam hotter than the exhaust', () => {
-    expect(refused({ ...BOOK, steam: { ...BOOK.steam, turbineInletTemperature: 900 } })).toMatch(/not hotter than the steam/)
+    expect(refused({ ...BOOK, steam: { ...BOOK.steam, turbineInletTemperature: 900 } })).toMatch(
+      /not hotter than the steam/,
+    )
   })
   test('a stack colder than the water at the pinch', () => {
     expect(refused({ ...BOOK, stackTemperature: 350 })).toMatch(/pinch|feedwater/)
@@ -102,7 +104,13 @@ describe('impossible plants are refused with a reason', () => {
   })
   test('a pinch above the critical pressure', () => {
     const { stackTemperature: _s, ...rest } = BOOK
-    expect(refused({ ...rest, pinchDifference: 10, steam: { ...BOOK.steam, boilerPressure: 25e6, turbineInletTemperature: 820 } })).toMatch(/critical pressure/)
+    expect(
+      refused({
+        ...rest,
+        pinchDifference: 10,
+        steam: { ...BOOK.steam, boilerPressure: 25e6, turbineInletTemperature: 820 },
+      }),
+    ).toMatch(/critical pressure/)
   })
 })
 
@@ -146,7 +154,11 @@ describe('the spec template', () => {
     expect(solveCombinedTemplate('combined-cycle', null).ok).toBe(false)
   })
   test('a refusal names the input to change by its name in the spec', () => {
-    const r = solveCombinedTemplate('combined-cycle', { ...inputs, compressorEfficiency: '1', gasTurbineEfficiency: '1' })
+    const r = solveCombinedTemplate('combined-cycle', {
+      ...inputs,
+      compressorEfficiency: '1',
+      gasTurbineEfficiency: '1',
+    })
     expect(r.ok).toBe(false)
     if (!r.ok) expect(r.error.property).toBe('steamTemperature')
   })
@@ -155,7 +167,21 @@ describe('the spec template', () => {
 describe('bank problems', () => {
   test('the combined cycle solves in spec files but is refused, plainly, where bank problems are drawn', async () => {
     const { NOT_IN_BANK, solveBankSpec, solveSpec } = await import('../solve-spec.ts')
-    const spec = { template: 'combined-cycle', inputs: { p1: '100 kPa', T1: '300 K', pressureRatio: '8', turbineInletT: '1300 K', compressorEfficiency: '0.8', gasTurbineEfficiency: '0.85', boilerPressure: '7 MPa', condenserPressure: '5 kPa', steamTemperature: '500 °C', stackTemperature: '450 K' } }
+    const spec = {
+      template: 'combined-cycle',
+      inputs: {
+        p1: '100 kPa',
+        T1: '300 K',
+        pressureRatio: '8',
+        turbineInletT: '1300 K',
+        compressorEfficiency: '0.8',
+        gasTurbineEfficiency: '0.85',
+        boilerPressure: '7 MPa',
+        condenserPressure: '5 kPa',
+        steamTemperature: '500 °C',
+        stackTemperature: '450 K',
+      },
+    }
     expect(solveSpec(spec).ok).toBe(true)
     const r = solveBankSpec(spec)
     expect(r.ok).toBe(false)

@@ -92,9 +92,22 @@ export interface CombinedResult {
   readonly caution: string
 }
 
-export type CombinedOutcome = { readonly ok: true; readonly value: CombinedResult } | { readonly ok: false; readonly error: { readonly code: 'invalid-input' | 'unphysical' | 'out-of-range'; readonly message: string; readonly property?: string } }
+export type CombinedOutcome =
+  | { readonly ok: true; readonly value: CombinedResult }
+  | {
+      readonly ok: false
+      readonly error: {
+        readonly code: 'invalid-input' | 'unphysical' | 'out-of-range'
+        readonly message: string
+        readonly property?: string
+      }
+    }
 
-const bad = (message: string, property?: string, code: 'invalid-input' | 'unphysical' | 'out-of-range' = 'invalid-input'): CombinedOutcome => ({ ok: false, error: { code, message, ...(property ? { property } : {}) } })
+const bad = (
+  message: string,
+  property?: string,
+  code: 'invalid-input' | 'unphysical' | 'out-of-range' = 'invalid-input',
+): CombinedOutcome => ({ ok: false, error: { code, message, ...(property ? { property } : {}) } })
 
 /** Per kilogram, whatever the gas's basis. */
 function perKg(gas: Gas): number | null {
@@ -108,9 +121,15 @@ export function solveCombinedCycle(input: CombinedInput): CombinedOutcome {
   const scale = perKg(input.gas)
   if (scale === null) return bad('the gas needs a molar mass so that results can be given per kilogram', 'gas')
   const given = [input.stackTemperature, input.pinchDifference].filter((x) => x !== undefined).length
-  if (given !== 1) return bad('give exactly one of stackTemperature or pinchDifference for the heat-recovery steam generator', 'stackTemperature')
-  if (input.pinchDifference !== undefined && !(input.pinchDifference > 0)) return bad(`pinchDifference must be above 0 K (got ${input.pinchDifference})`, 'pinchDifference')
-  if (input.gasMassFlow !== undefined && !(input.gasMassFlow > 0 && Number.isFinite(input.gasMassFlow))) return bad('gasMassFlow must be a positive flow rate', 'gasMassFlow')
+  if (given !== 1)
+    return bad(
+      'give exactly one of stackTemperature or pinchDifference for the heat-recovery steam generator',
+      'stackTemperature',
+    )
+  if (input.pinchDifference !== undefined && !(input.pinchDifference > 0))
+    return bad(`pinchDifference must be above 0 K (got ${input.pinchDifference})`, 'pinchDifference')
+  if (input.gasMassFlow !== undefined && !(input.gasMassFlow > 0 && Number.isFinite(input.gasMassFlow)))
+    return bad('gasMassFlow must be a positive flow rate', 'gasMassFlow')
 
   // ---- topping cycle: the Brayton template's own cycle
   const brayton = templates.brayton!
@@ -123,28 +142,54 @@ export function solveCombinedCycle(input: CombinedInput): CombinedOutcome {
     turbineEfficiency: input.gasTurbineEfficiency,
   }
   const built = brayton.build({ gas: input.gas, num, heat: {}, labels: {} })
-  if (!built.ok) return bad(built.error.message, built.error.property === 'turbineEfficiency' ? 'gasTurbineEfficiency' : built.error.property)
+  if (!built.ok)
+    return bad(
+      built.error.message,
+      built.error.property === 'turbineEfficiency' ? 'gasTurbineEfficiency' : built.error.property,
+    )
   const gasCycle = solveCycle(built.spec)
-  if (!gasCycle.ok) return bad(`gas turbine: ${gasCycle.error.message}`, undefined, gasCycle.error.code === 'out-of-range' ? 'out-of-range' : 'unphysical')
+  if (!gasCycle.ok)
+    return bad(
+      `gas turbine: ${gasCycle.error.message}`,
+      undefined,
+      gasCycle.error.code === 'out-of-range' ? 'out-of-range' : 'unphysical',
+    )
   const g = gasCycle as CycleSolution
   const [s1, s2, s3, s4] = g.states
-  if (!s1 || !s2 || !s3 || !s4) return bad('gas turbine: the cycle has fewer states than expected', undefined, 'unphysical')
+  if (!s1 || !s2 || !s3 || !s4)
+    return bad('gas turbine: the cycle has fewer states than expected', undefined, 'unphysical')
   const h = (x: number) => x * scale
   const wC = h(s2.h - s1.h)
   const wT = h(s3.h - s4.h)
   const qIn = h(s3.h - s2.h)
-  if (!(wT > wC)) return bad('the gas turbine gives less work than its compressor takes: raise the turbine inlet temperature or the efficiencies', 'turbineInletT', 'unphysical')
+  if (!(wT > wC))
+    return bad(
+      'the gas turbine gives less work than its compressor takes: raise the turbine inlet temperature or the efficiencies',
+      'turbineInletT',
+      'unphysical',
+    )
 
   // ---- bottoming cycle
   const rk = solveRankine(input.steam)
-  if (!rk.ok) return bad(`steam cycle: ${rk.error.message}`, rk.error.property ? `steam.${rk.error.property}` : undefined, rk.error.code === 'out-of-range' ? 'out-of-range' : 'invalid-input')
+  if (!rk.ok)
+    return bad(
+      `steam cycle: ${rk.error.message}`,
+      rk.error.property ? `steam.${rk.error.property}` : undefined,
+      rk.error.code === 'out-of-range' ? 'out-of-range' : 'invalid-input',
+    )
   const steam = rk.value
   const feed = steam.states.find((st) => st.label === '2')
   const inlet = steam.states.find((st) => st.label === '3')
-  if (!feed || !inlet) return bad('steam cycle: the pump exit and turbine inlet were not found', undefined, 'unphysical')
+  if (!feed || !inlet)
+    return bad('steam cycle: the pump exit and turbine inlet were not found', undefined, 'unphysical')
   const reheatHeat = steam.heatIn - (inlet.h - feed.h)
   const T4 = s4.T
-  if (!(T4 > inlet.T)) return bad(`the gas-turbine exhaust (${k(T4)} K) is not hotter than the steam it should make (${k(inlet.T)} K): lower the steam temperature or raise the gas-turbine exhaust temperature`, 'steam.turbineInletTemperature', 'unphysical')
+  if (!(T4 > inlet.T))
+    return bad(
+      `the gas-turbine exhaust (${k(T4)} K) is not hotter than the steam it should make (${k(inlet.T)} K): lower the steam temperature or raise the gas-turbine exhaust temperature`,
+      'steam.turbineInletTemperature',
+      'unphysical',
+    )
 
   const h4 = h(s4.h)
   const hGas = (T: number) => h(input.gas.h(T))
@@ -157,22 +202,47 @@ export function solveCombinedCycle(input: CombinedInput): CombinedOutcome {
   let stackT: number
   if (input.stackTemperature !== undefined) {
     stackT = input.stackTemperature
-    if (!(stackT < T4)) return bad(`the stack temperature (${k(stackT)} K) must be below the gas-turbine exhaust (${k(T4)} K)`, 'stackTemperature')
-    if (stackT < input.gas.Tmin || stackT > input.gas.Tmax) return bad(`the stack temperature ${k(stackT)} K is outside the gas data's range ${input.gas.Tmin}–${input.gas.Tmax} K`, 'stackTemperature', 'out-of-range')
+    if (!(stackT < T4))
+      return bad(
+        `the stack temperature (${k(stackT)} K) must be below the gas-turbine exhaust (${k(T4)} K)`,
+        'stackTemperature',
+      )
+    if (stackT < input.gas.Tmin || stackT > input.gas.Tmax)
+      return bad(
+        `the stack temperature ${k(stackT)} K is outside the gas data's range ${input.gas.Tmin}–${input.gas.Tmax} K`,
+        'stackTemperature',
+        'out-of-range',
+      )
     y = (h4 - hGas(stackT)) / steam.heatIn
   } else {
-    if (satT === null || hfB === null) return bad('a pinch point needs a boiler pressure below the critical pressure (22.064 MPa), where the water boils at one temperature', 'pinchDifference')
+    if (satT === null || hfB === null)
+      return bad(
+        'a pinch point needs a boiler pressure below the critical pressure (22.064 MPa), where the water boils at one temperature',
+        'pinchDifference',
+      )
     const Tp = satT + input.pinchDifference!
-    if (!(Tp < T4)) return bad(`with this pinch the gas would have to be ${k(Tp)} K where the water boils, hotter than the exhaust itself (${k(T4)} K)`, 'pinchDifference', 'unphysical')
+    if (!(Tp < T4))
+      return bad(
+        `with this pinch the gas would have to be ${k(Tp)} K where the water boils, hotter than the exhaust itself (${k(T4)} K)`,
+        'pinchDifference',
+        'unphysical',
+      )
     y = (h4 - hGas(Tp)) / (inlet.h - hfB + reheatHeat)
     stackT = input.gas.TfromH((h4 - y * steam.heatIn) / scale)
-    if (!Number.isFinite(stackT)) return bad('the stack temperature falls outside the gas data’s range', 'pinchDifference', 'out-of-range')
+    if (!Number.isFinite(stackT))
+      return bad('the stack temperature falls outside the gas data’s range', 'pinchDifference', 'out-of-range')
   }
-  if (!(y > 0)) return bad('the exhaust has no heat to give the steam at this stack temperature', 'stackTemperature', 'unphysical')
+  if (!(y > 0))
+    return bad('the exhaust has no heat to give the steam at this stack temperature', 'stackTemperature', 'unphysical')
 
   // ---- second law in the HRSG: the gas hotter than the water at both ends and at the pinch
   const coldEnd = stackT - feed.T
-  if (!(coldEnd > 0)) return bad(`the stack gas (${k(stackT)} K) would be colder than the feedwater entering the steam generator (${k(feed.T)} K): heat cannot flow that way; raise the stack temperature`, input.stackTemperature !== undefined ? 'stackTemperature' : 'pinchDifference', 'unphysical')
+  if (!(coldEnd > 0))
+    return bad(
+      `the stack gas (${k(stackT)} K) would be colder than the feedwater entering the steam generator (${k(feed.T)} K): heat cannot flow that way; raise the stack temperature`,
+      input.stackTemperature !== undefined ? 'stackTemperature' : 'pinchDifference',
+      'unphysical',
+    )
   let pinch: number | null = null
   if (satT !== null && hfB !== null) {
     const Tgp = input.gas.TfromH((h4 - y * (inlet.h - hfB + reheatHeat)) / scale)
@@ -196,7 +266,14 @@ export function solveCombinedCycle(input: CombinedInput): CombinedOutcome {
     { name: '2', description: 'compressor exit, combustor inlet', p: s2.p, T: s2.T, h: h(s2.h), s: h(s2.s) },
     { name: '3', description: 'gas-turbine inlet', p: s3.p, T: s3.T, h: h(s3.h), s: h(s3.s) },
     { name: '4', description: 'gas-turbine exhaust, HRSG gas inlet', p: s4.p, T: s4.T, h: h4, s: h(s4.s) },
-    { name: '5', description: 'stack (HRSG gas exit)', p: s4.p, T: stackT, h: hGas(stackT), s: h(input.gas.sT(stackT) - input.gas.R * Math.log(s4.p / P_REF)) },
+    {
+      name: '5',
+      description: 'stack (HRSG gas exit)',
+      p: s4.p,
+      T: stackT,
+      h: hGas(stackT),
+      s: h(input.gas.sT(stackT) - input.gas.R * Math.log(s4.p / P_REF)),
+    },
   ]
   return {
     ok: true,

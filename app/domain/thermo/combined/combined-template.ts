@@ -23,21 +23,101 @@ const q = (value: number, unit: string): Quantity => ({ value, unit })
 const opt = (i: TemplateInput): TemplateInput => ({ ...i, required: false })
 
 export const COMBINED_INPUTS: readonly TemplateInput[] = [
-  { name: 'gas', dimension: 'gas', unit: '', description: 'gas of the topping cycle: preset id (air, nasa:dry-air, …) or constants; default nasa:dry-air (cp varying with T)', required: false },
+  {
+    name: 'gas',
+    dimension: 'gas',
+    unit: '',
+    description:
+      'gas of the topping cycle: preset id (air, nasa:dry-air, …) or constants; default nasa:dry-air (cp varying with T)',
+    required: false,
+  },
   { name: 'p1', dimension: 'pressure', unit: 'kPa', description: 'compressor inlet pressure', required: true },
   { name: 'T1', dimension: 'temperature', unit: 'K', description: 'compressor inlet temperature', required: true },
-  { name: 'pressureRatio', dimension: 'dimensionless', unit: '', description: 'compressor pressure ratio rp = p2/p1 > 1', required: true },
-  { name: 'turbineInletT', dimension: 'temperature', unit: 'K', description: 'gas-turbine inlet temperature', required: true },
-  opt({ name: 'compressorEfficiency', dimension: 'dimensionless', unit: '', description: 'isentropic efficiency of the compressor (default 1)', required: false }),
-  opt({ name: 'gasTurbineEfficiency', dimension: 'dimensionless', unit: '', description: 'isentropic efficiency of the gas turbine (default 1)', required: false }),
-  { name: 'boilerPressure', dimension: 'pressure', unit: 'MPa', description: 'steam pressure in the heat-recovery steam generator (pump exit, steam-turbine inlet)', required: true },
-  { name: 'condenserPressure', dimension: 'pressure', unit: 'kPa', description: 'condenser pressure; its exit is saturated liquid', required: true },
-  { name: 'steamTemperature', dimension: 'temperature', unit: '°C or K', description: 'steam leaving the heat-recovery steam generator (steam-turbine inlet)', required: true },
-  opt({ name: 'pumpEfficiency', dimension: 'dimensionless', unit: '', description: 'isentropic efficiency of the feed pump (default 1)', required: false }),
-  opt({ name: 'steamTurbineEfficiency', dimension: 'dimensionless', unit: '', description: 'isentropic efficiency of the steam turbine (default 1)', required: false }),
-  opt({ name: 'stackTemperature', dimension: 'temperature', unit: 'K', description: 'gas temperature leaving the heat-recovery steam generator (or pinchDifference)', required: false }),
-  opt({ name: 'pinchDifference', dimension: 'dimensionless', unit: 'K', description: 'pinch point: gas temperature minus the saturation temperature where the water starts to boil (instead of stackTemperature)', required: false }),
-  opt({ name: 'gasMassFlow', dimension: 'dimensionless', unit: 'kg/s', description: 'gas mass flow rate, for the power (optional)', required: false }),
+  {
+    name: 'pressureRatio',
+    dimension: 'dimensionless',
+    unit: '',
+    description: 'compressor pressure ratio rp = p2/p1 > 1',
+    required: true,
+  },
+  {
+    name: 'turbineInletT',
+    dimension: 'temperature',
+    unit: 'K',
+    description: 'gas-turbine inlet temperature',
+    required: true,
+  },
+  opt({
+    name: 'compressorEfficiency',
+    dimension: 'dimensionless',
+    unit: '',
+    description: 'isentropic efficiency of the compressor (default 1)',
+    required: false,
+  }),
+  opt({
+    name: 'gasTurbineEfficiency',
+    dimension: 'dimensionless',
+    unit: '',
+    description: 'isentropic efficiency of the gas turbine (default 1)',
+    required: false,
+  }),
+  {
+    name: 'boilerPressure',
+    dimension: 'pressure',
+    unit: 'MPa',
+    description: 'steam pressure in the heat-recovery steam generator (pump exit, steam-turbine inlet)',
+    required: true,
+  },
+  {
+    name: 'condenserPressure',
+    dimension: 'pressure',
+    unit: 'kPa',
+    description: 'condenser pressure; its exit is saturated liquid',
+    required: true,
+  },
+  {
+    name: 'steamTemperature',
+    dimension: 'temperature',
+    unit: '°C or K',
+    description: 'steam leaving the heat-recovery steam generator (steam-turbine inlet)',
+    required: true,
+  },
+  opt({
+    name: 'pumpEfficiency',
+    dimension: 'dimensionless',
+    unit: '',
+    description: 'isentropic efficiency of the feed pump (default 1)',
+    required: false,
+  }),
+  opt({
+    name: 'steamTurbineEfficiency',
+    dimension: 'dimensionless',
+    unit: '',
+    description: 'isentropic efficiency of the steam turbine (default 1)',
+    required: false,
+  }),
+  opt({
+    name: 'stackTemperature',
+    dimension: 'temperature',
+    unit: 'K',
+    description: 'gas temperature leaving the heat-recovery steam generator (or pinchDifference)',
+    required: false,
+  }),
+  opt({
+    name: 'pinchDifference',
+    dimension: 'dimensionless',
+    unit: 'K',
+    description:
+      'pinch point: gas temperature minus the saturation temperature where the water starts to boil (instead of stackTemperature)',
+    required: false,
+  }),
+  opt({
+    name: 'gasMassFlow',
+    dimension: 'dimensionless',
+    unit: 'kg/s',
+    description: 'gas mass flow rate, for the power (optional)',
+    required: false,
+  }),
 ]
 
 export const COMBINED_TEMPLATES = [
@@ -114,7 +194,15 @@ const FLOW_FACTOR: Record<string, number> = { 'kg/s': 1, 'kg/h': 1 / 3600, 't/h'
 function readDifference(x: unknown, where: string): { ok: true; value: number } | CombinedFailure {
   if (typeof x === 'number' && Number.isFinite(x)) return { ok: true, value: x }
   const m = typeof x === 'string' ? DIFFERENCE_RE.exec(x) : null
-  if (!m) return { ok: false, error: { code: 'invalid-spec', message: `${where}: give a temperature difference such as "10 K" (a difference in °C is the same number of kelvins), not ${JSON.stringify(x)}`, property: where } }
+  if (!m)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `${where}: give a temperature difference such as "10 K" (a difference in °C is the same number of kelvins), not ${JSON.stringify(x)}`,
+        property: where,
+      },
+    }
   return { ok: true, value: Number(m[1]) }
 }
 
@@ -122,17 +210,34 @@ function readDifference(x: unknown, where: string): { ok: true; value: number } 
 function readMassFlow(x: unknown, where: string): { ok: true; value: number } | CombinedFailure {
   if (typeof x === 'number' && Number.isFinite(x)) return { ok: true, value: x }
   const m = typeof x === 'string' ? FLOW_RE.exec(x) : null
-  if (!m) return { ok: false, error: { code: 'invalid-spec', message: `${where}: give a mass flow rate such as "12 kg/s", "4000 kg/h" or "36 t/h", not ${JSON.stringify(x)}`, property: where } }
+  if (!m)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `${where}: give a mass flow rate such as "12 kg/s", "4000 kg/h" or "36 t/h", not ${JSON.stringify(x)}`,
+        property: where,
+      },
+    }
   return { ok: true, value: Number(m[1]) * FLOW_FACTOR[m[2] ?? 'kg/s']! }
 }
 
 /** Template inputs (strings with units) → numbers in SI. Never throws. */
 export function parseCombinedInputs(raw: unknown): Parsed {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+    return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
   const r = raw as Record<string, unknown>
   const known = new Set(COMBINED_INPUTS.map((i) => i.name))
   for (const key of Object.keys(r)) {
-    if (!known.has(key)) return { ok: false, error: { code: 'invalid-spec', message: `unknown input "${key}"; this template takes ${[...known].join(', ')}`, property: key } }
+    if (!known.has(key))
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `unknown input "${key}"; this template takes ${[...known].join(', ')}`,
+          property: key,
+        },
+      }
   }
   const gas = parseGas(r.gas ?? 'nasa:dry-air')
   if (!gas.ok) return gas
@@ -141,7 +246,15 @@ export function parseCombinedInputs(raw: unknown): Parsed {
     if (inp.dimension === 'gas') continue
     const x = r[inp.name]
     if (x === undefined) {
-      if (inp.required) return { ok: false, error: { code: 'invalid-spec', message: `input "${inp.name}" is required: ${inp.description}`, property: inp.name } }
+      if (inp.required)
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `input "${inp.name}" is required: ${inp.description}`,
+            property: inp.name,
+          },
+        }
       continue
     }
     if (inp.name === 'pinchDifference' || inp.name === 'gasMassFlow') {
@@ -150,7 +263,11 @@ export function parseCombinedInputs(raw: unknown): Parsed {
       num[inp.name] = v.value
       continue
     }
-    const v = readValue(typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x, [inp.dimension as Dimension], inp.name)
+    const v = readValue(
+      typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x,
+      [inp.dimension as Dimension],
+      inp.name,
+    )
     if (!v.ok) return v
     num[inp.name] = v.value.value
   }
@@ -203,7 +320,14 @@ export function formatCombined(r: CombinedResult, gasLabel: string, convention: 
     substance: `${gasLabel} (topping); water, IAPWS-IF97 (bottoming)`,
     basis: 'per kg of gas through the gas turbine',
     convention: { ...c, statement: `${c.flowEquation}; ${c.work}; ${c.heat}` },
-    gasStates: r.gasStates.map((s) => ({ name: s.name, description: s.description, p: q(s.p, 'Pa'), T: q(s.T, 'K'), h: q(s.h, J), s: q(s.s, 'J/(kg K)') })),
+    gasStates: r.gasStates.map((s) => ({
+      name: s.name,
+      description: s.description,
+      p: q(s.p, 'Pa'),
+      T: q(s.T, 'K'),
+      h: q(s.h, J),
+      s: q(s.s, 'J/(kg K)'),
+    })),
     bottoming: formatRankine('rankine', r.steam, convention),
     devices,
     totals: {
@@ -240,9 +364,17 @@ const SPEC_NAMES: Readonly<Record<string, string>> = {
   'steam.turbineEfficiency': 'steamTurbineEfficiency',
 }
 
-export function solveCombinedTemplate(id: string, inputs: unknown, convention: Convention = 'engineering'): FormattedCombined | CombinedFailure {
+export function solveCombinedTemplate(
+  id: string,
+  inputs: unknown,
+  convention: Convention = 'engineering',
+): FormattedCombined | CombinedFailure {
   try {
-    if (!isCombinedTemplate(id)) return { ok: false, error: { code: 'invalid-spec', message: `unknown combined-cycle template "${id}"`, property: 'template' } }
+    if (!isCombinedTemplate(id))
+      return {
+        ok: false,
+        error: { code: 'invalid-spec', message: `unknown combined-cycle template "${id}"`, property: 'template' },
+      }
     const p = parseCombinedInputs(inputs)
     if (!p.ok) return p
     const r = solveCombinedCycle(p.value)
@@ -252,6 +384,9 @@ export function solveCombinedTemplate(id: string, inputs: unknown, convention: C
     }
     return formatCombined(r.value, p.value.gas.label, convention)
   } catch (e) {
-    return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+    return {
+      ok: false,
+      error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` },
+    }
   }
 }

@@ -6,7 +6,14 @@ import { ideal, newIdeal, newResidual, residual, type EquationOfState } from './
 import type { FluidPhase, FluidState, RefrigerantId } from './types.ts'
 
 /** Ancillary: value = r · (1 + Σ n θ^t) ('linear') or r · exp[(Tr/T if tauR) Σ n θ^t] ('exp'), θ = 1 − T/Ta */
-export interface Ancillary { readonly kind: 'linear' | 'exp'; readonly Ta: number; readonly r: number; readonly tauR: boolean; readonly n: readonly number[]; readonly t: readonly number[] }
+export interface Ancillary {
+  readonly kind: 'linear' | 'exp'
+  readonly Ta: number
+  readonly r: number
+  readonly tauR: boolean
+  readonly n: readonly number[]
+  readonly t: readonly number[]
+}
 
 export function ancillary(a: Ancillary, T: number): number {
   const th = Math.max(1 - T / a.Ta, 0)
@@ -88,8 +95,8 @@ export function stateAt(m: Model, T: number, rho: number, phase: FluidPhase, x: 
   const cv = -R * tau * tau * (i0.tt + r.tt)
   const num = 1 + delta * r.d - delta * tau * r.dt
   const den = 1 + 2 * delta * r.d + delta * delta * r.dd
-  const cp = cv + R * num * num / den
-  const w2 = R * T * (den - num * num / (tau * tau * (i0.tt + r.tt)))
+  const cp = cv + (R * num * num) / den
+  const w2 = R * T * (den - (num * num) / (tau * tau * (i0.tt + r.tt)))
   return { T, p, rho, v: 1 / rho, h, u: h - p / rho, s, x, phase, cp, cv, w: w2 > 0 ? Math.sqrt(w2) : null }
 }
 

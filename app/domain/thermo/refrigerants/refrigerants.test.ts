@@ -15,13 +15,16 @@ function val<T>(r: FluidResult<T>): T {
 
 describe.each(REFRIGERANT_IDS)('%s', (id) => {
   const f = getRefrigerant(id)
-  const T0 = f.Ttriple + 1, T1 = 0.5 * (f.Ttriple + f.Tc), T2 = f.Tc - 2
+  const T0 = f.Ttriple + 1,
+    T1 = 0.5 * (f.Ttriple + f.Tc),
+    T2 = f.Tc - 2
   const Ts = [T0, T1, T2]
 
   it('saturation: equal pressure and equal Gibbs energy of the two phases', () => {
     for (const T of Ts) {
       const s = val(f.saturationT(T))
-      const gL = s.liquid.h - T * s.liquid.s, gV = s.vapour.h - T * s.vapour.s
+      const gL = s.liquid.h - T * s.liquid.s,
+        gV = s.vapour.h - T * s.vapour.s
       expect(Math.abs(gL - gV) / Math.abs(s.vapour.h - s.liquid.h)).toBeLessThan(1e-9)
       expect(Math.abs(s.liquid.p - s.vapour.p) / s.p).toBeLessThan(1e-12)
     }
@@ -38,10 +41,16 @@ describe.each(REFRIGERANT_IDS)('%s', (id) => {
   })
 
   it('Maxwell relation (∂s/∂v)_T = (∂p/∂T)_v and cp > cv > 0 in liquid, vapour and supercritical states', () => {
-    const states = [val(f.stateTP(T1, val(f.saturationT(T1)).p * 2)), val(f.stateTP(T1, val(f.saturationT(T1)).p * 0.5)), val(f.stateTP(f.Tc + 20, f.pc * 1.5))]
+    const states = [
+      val(f.stateTP(T1, val(f.saturationT(T1)).p * 2)),
+      val(f.stateTP(T1, val(f.saturationT(T1)).p * 0.5)),
+      val(f.stateTP(f.Tc + 20, f.pc * 1.5)),
+    ]
     for (const st of states) {
-      const T = st.T, v = st.v
-      const dv = v * 1e-6, dT = T * 1e-6
+      const T = st.T,
+        v = st.v
+      const dv = v * 1e-6,
+        dT = T * 1e-6
       const at = (TT: number, vv: number) => rawState(id)(TT, 1 / vv)
       const dsdv = (at(T, v + dv).s - at(T, v - dv).s) / (2 * dv)
       const dpdT = (at(T + dT, v).p - at(T - dT, v).p) / (2 * dT)
@@ -104,7 +113,10 @@ const DATA = { R134a: R134A, R1234yf: R1234YF, R717, R744 }
 const rawCache = new Map<string, ReturnType<typeof stateTRho>>()
 function rawState(id: keyof typeof DATA) {
   let f = rawCache.get(id)
-  if (!f) { f = stateTRho(DATA[id]); rawCache.set(id, f) }
+  if (!f) {
+    f = stateTRho(DATA[id])
+    rawCache.set(id, f)
+  }
   return f
 }
 

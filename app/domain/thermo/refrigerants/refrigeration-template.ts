@@ -18,17 +18,48 @@ import { TON_OF_REFRIGERATION, solveVapourCompression } from './vapour-compressi
 import type { SaturationGiven, VapourCompressionInput, VapourCompressionResult } from './vapour-compression.ts'
 
 const q = (value: number, unit: string): Quantity => ({ value, unit })
-const opt = (name: string, dimension: TemplateInput['dimension'], unit: string, description: string): TemplateInput => ({ name, dimension, unit, description, required: false })
+const opt = (
+  name: string,
+  dimension: TemplateInput['dimension'],
+  unit: string,
+  description: string,
+): TemplateInput => ({ name, dimension, unit, description, required: false })
 
 export const VAPOUR_COMPRESSION_INPUTS: readonly TemplateInput[] = [
-  { name: 'refrigerant', dimension: 'dimensionless', unit: '', description: `the refrigerant: ${REFRIGERANT_IDS.join(', ')}`, required: true },
+  {
+    name: 'refrigerant',
+    dimension: 'dimensionless',
+    unit: '',
+    description: `the refrigerant: ${REFRIGERANT_IDS.join(', ')}`,
+    required: true,
+  },
   opt('purpose', 'dimensionless', '', '"refrigerator" (default) or "heat pump"'),
-  opt('evaporatorTemperature', 'temperature', '°C or K', 'saturation temperature in the evaporator (or evaporatorPressure)'),
+  opt(
+    'evaporatorTemperature',
+    'temperature',
+    '°C or K',
+    'saturation temperature in the evaporator (or evaporatorPressure)',
+  ),
   opt('evaporatorPressure', 'pressure', 'kPa', 'evaporator pressure (or evaporatorTemperature)'),
-  opt('condenserTemperature', 'temperature', '°C or K', 'saturation temperature in the condenser (or condenserPressure, or a gas cooler)'),
+  opt(
+    'condenserTemperature',
+    'temperature',
+    '°C or K',
+    'saturation temperature in the condenser (or condenserPressure, or a gas cooler)',
+  ),
   opt('condenserPressure', 'pressure', 'MPa', 'condenser pressure'),
-  opt('gasCoolerPressure', 'pressure', 'MPa', 'transcritical cycles (R-744): the gas-cooler pressure, above the critical pressure'),
-  opt('gasCoolerExitTemperature', 'temperature', '°C or K', 'transcritical cycles: the temperature leaving the gas cooler'),
+  opt(
+    'gasCoolerPressure',
+    'pressure',
+    'MPa',
+    'transcritical cycles (R-744): the gas-cooler pressure, above the critical pressure',
+  ),
+  opt(
+    'gasCoolerExitTemperature',
+    'temperature',
+    '°C or K',
+    'transcritical cycles: the temperature leaving the gas cooler',
+  ),
   opt('superheat', 'dimensionless', 'K', 'superheat at the evaporator exit (default 0 K)'),
   opt('subcooling', 'dimensionless', 'K', 'subcooling at the condenser exit (default 0 K)'),
   opt('compressorEfficiency', 'dimensionless', '', 'compressor isentropic efficiency (default 1)'),
@@ -61,7 +92,17 @@ export interface FormattedRefrigeration {
   readonly substance: string
   readonly basis: 'per kg of refrigerant'
   readonly convention: ConventionStatement & { readonly statement: string }
-  readonly states: readonly { readonly name: string; readonly description: string; readonly p: Quantity; readonly T: Quantity; readonly h: Quantity; readonly s: Quantity; readonly v: Quantity; readonly x: number | null; readonly phase: string }[]
+  readonly states: readonly {
+    readonly name: string
+    readonly description: string
+    readonly p: Quantity
+    readonly T: Quantity
+    readonly h: Quantity
+    readonly s: Quantity
+    readonly v: Quantity
+    readonly x: number | null
+    readonly phase: string
+  }[]
   readonly devices: readonly { readonly device: string; readonly q: Quantity; readonly w: Quantity }[]
   readonly totals: {
     readonly refrigerationEffect: Quantity
@@ -84,32 +125,90 @@ const UNIT_RE = (units: string) => new RegExp(String.raw`^\s*${NUMBER}\s*(${unit
 const KELVINS = UNIT_RE('K|°C|degC')
 const FLOW = UNIT_RE('kg/s|kg/h')
 const POWER = UNIT_RE('W|kW|tons?|TR')
-const POWER_FACTOR: Record<string, number> = { W: 1, kW: 1000, ton: TON_OF_REFRIGERATION, tons: TON_OF_REFRIGERATION, TR: TON_OF_REFRIGERATION }
+const POWER_FACTOR: Record<string, number> = {
+  W: 1,
+  kW: 1000,
+  ton: TON_OF_REFRIGERATION,
+  tons: TON_OF_REFRIGERATION,
+  TR: TON_OF_REFRIGERATION,
+}
 
-function readMatch(x: unknown, re: RegExp, where: string, example: string): { ok: true; value: number; unit: string | undefined } | RefrigerationFailure {
+function readMatch(
+  x: unknown,
+  re: RegExp,
+  where: string,
+  example: string,
+): { ok: true; value: number; unit: string | undefined } | RefrigerationFailure {
   if (typeof x === 'number' && Number.isFinite(x)) return { ok: true, value: x, unit: undefined }
   const m = typeof x === 'string' ? re.exec(x) : null
-  if (!m) return { ok: false, error: { code: 'invalid-spec', message: `${where}: give a value such as ${example}, not ${JSON.stringify(x)}`, property: where } }
+  if (!m)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `${where}: give a value such as ${example}, not ${JSON.stringify(x)}`,
+        property: where,
+      },
+    }
   return { ok: true, value: Number(m[1]), unit: m[2] }
 }
 
 type Parsed = { ok: true; value: VapourCompressionInput } | RefrigerationFailure
 
 export function parseVapourCompressionInputs(raw: unknown): Parsed {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+    return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
   const r = raw as Record<string, unknown>
   const known = new Set(VAPOUR_COMPRESSION_INPUTS.map((i) => i.name))
-  for (const key of Object.keys(r)) if (!known.has(key)) return { ok: false, error: { code: 'invalid-spec', message: `unknown input "${key}"; this template takes ${[...known].join(', ')}`, property: key } }
+  for (const key of Object.keys(r))
+    if (!known.has(key))
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `unknown input "${key}"; this template takes ${[...known].join(', ')}`,
+          property: key,
+        },
+      }
   const id = typeof r.refrigerant === 'string' ? r.refrigerant.replace(/^R-/i, 'R').replace(/^r/, 'R') : ''
   const refId = REFRIGERANT_IDS.find((x) => x.toLowerCase() === id.toLowerCase()) as RefrigerantId | undefined
-  if (!refId) return { ok: false, error: { code: 'invalid-spec', message: `refrigerant must be one of ${REFRIGERANT_IDS.join(', ')} (got ${JSON.stringify(r.refrigerant)})`, property: 'refrigerant' } }
-  const purpose = r.purpose === undefined || r.purpose === 'refrigerator' ? 'refrigerator' : r.purpose === 'heat pump' || r.purpose === 'heat-pump' ? 'heat-pump' : null
-  if (!purpose) return { ok: false, error: { code: 'invalid-spec', message: 'purpose must be "refrigerator" or "heat pump"', property: 'purpose' } }
+  if (!refId)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `refrigerant must be one of ${REFRIGERANT_IDS.join(', ')} (got ${JSON.stringify(r.refrigerant)})`,
+        property: 'refrigerant',
+      },
+    }
+  const purpose =
+    r.purpose === undefined || r.purpose === 'refrigerator'
+      ? 'refrigerator'
+      : r.purpose === 'heat pump' || r.purpose === 'heat-pump'
+        ? 'heat-pump'
+        : null
+  if (!purpose)
+    return {
+      ok: false,
+      error: { code: 'invalid-spec', message: 'purpose must be "refrigerator" or "heat pump"', property: 'purpose' },
+    }
   const num: Record<string, number> = {}
-  for (const name of ['evaporatorTemperature', 'condenserTemperature', 'gasCoolerExitTemperature', 'evaporatorPressure', 'condenserPressure', 'gasCoolerPressure', 'compressorEfficiency']) {
+  for (const name of [
+    'evaporatorTemperature',
+    'condenserTemperature',
+    'gasCoolerExitTemperature',
+    'evaporatorPressure',
+    'condenserPressure',
+    'gasCoolerPressure',
+    'compressorEfficiency',
+  ]) {
     if (r[name] === undefined) continue
     const inp = VAPOUR_COMPRESSION_INPUTS.find((i) => i.name === name)!
-    const v = readValue(typeof r[name] === 'number' && inp.dimension === 'dimensionless' ? String(r[name]) : r[name], [inp.dimension as Dimension], name)
+    const v = readValue(
+      typeof r[name] === 'number' && inp.dimension === 'dimensionless' ? String(r[name]) : r[name],
+      [inp.dimension as Dimension],
+      name,
+    )
     if (!v.ok) return v
     num[name] = v.value.value
   }
@@ -129,17 +228,45 @@ export function parseVapourCompressionInputs(raw: unknown): Parsed {
     if (!v.ok) return v
     num.capacity = v.value * POWER_FACTOR[v.unit ?? 'W']!
   }
-  const sat = (T: number | undefined, p: number | undefined, what: string): SaturationGiven | RefrigerationFailure | undefined => {
-    if (T !== undefined && p !== undefined) return { ok: false, error: { code: 'invalid-spec', message: `give the ${what} temperature or its pressure, not both`, property: `${what}Pressure` } }
+  const sat = (
+    T: number | undefined,
+    p: number | undefined,
+    what: string,
+  ): SaturationGiven | RefrigerationFailure | undefined => {
+    if (T !== undefined && p !== undefined)
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `give the ${what} temperature or its pressure, not both`,
+          property: `${what}Pressure`,
+        },
+      }
     return T !== undefined ? { T } : p !== undefined ? { p } : undefined
   }
   const evaporator = sat(num.evaporatorTemperature, num.evaporatorPressure, 'evaporator')
-  if (!evaporator) return { ok: false, error: { code: 'invalid-spec', message: 'give evaporatorTemperature or evaporatorPressure', property: 'evaporatorTemperature' } }
+  if (!evaporator)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: 'give evaporatorTemperature or evaporatorPressure',
+        property: 'evaporatorTemperature',
+      },
+    }
   if ('ok' in evaporator) return evaporator
   const condenser = sat(num.condenserTemperature, num.condenserPressure, 'condenser')
   if (condenser && 'ok' in condenser) return condenser
   const hasGc = num.gasCoolerPressure !== undefined || num.gasCoolerExitTemperature !== undefined
-  if (hasGc && (num.gasCoolerPressure === undefined || num.gasCoolerExitTemperature === undefined)) return { ok: false, error: { code: 'invalid-spec', message: 'a gas cooler needs both gasCoolerPressure and gasCoolerExitTemperature', property: 'gasCoolerPressure' } }
+  if (hasGc && (num.gasCoolerPressure === undefined || num.gasCoolerExitTemperature === undefined))
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: 'a gas cooler needs both gasCoolerPressure and gasCoolerExitTemperature',
+        property: 'gasCoolerPressure',
+      },
+    }
   return {
     ok: true,
     value: {
@@ -157,9 +284,17 @@ export function parseVapourCompressionInputs(raw: unknown): Parsed {
   }
 }
 
-const PROPERTY_NAMES: Readonly<Record<string, string>> = { evaporator: 'evaporatorTemperature', condenser: 'condenserTemperature', gasCooler: 'gasCoolerPressure' }
+const PROPERTY_NAMES: Readonly<Record<string, string>> = {
+  evaporator: 'evaporatorTemperature',
+  condenser: 'condenserTemperature',
+  gasCooler: 'gasCoolerPressure',
+}
 
-export function formatVapourCompression(r: VapourCompressionResult, refrigerantName: string, convention: Convention): FormattedRefrigeration {
+export function formatVapourCompression(
+  r: VapourCompressionResult,
+  refrigerantName: string,
+  convention: Convention,
+): FormattedRefrigeration {
   const J = 'J/kg'
   const c = CONVENTIONS[convention]
   const byWork = (workBy: number) => (convention === 'engineering' ? workBy : -workBy)
@@ -170,7 +305,17 @@ export function formatVapourCompression(r: VapourCompressionResult, refrigerantN
     substance: refrigerantName,
     basis: 'per kg of refrigerant',
     convention: { ...c, statement: `${c.flowEquation}; ${c.work}; ${c.heat}` },
-    states: r.states.map((s) => ({ name: s.name, description: s.description, p: q(s.state.p, 'Pa'), T: q(s.state.T, 'K'), h: q(s.state.h, J), s: q(s.state.s, 'J/(kg K)'), v: q(s.state.v, 'm^3/kg'), x: s.state.x, phase: s.state.phase })),
+    states: r.states.map((s) => ({
+      name: s.name,
+      description: s.description,
+      p: q(s.state.p, 'Pa'),
+      T: q(s.state.T, 'K'),
+      h: q(s.state.h, J),
+      s: q(s.state.s, 'J/(kg K)'),
+      v: q(s.state.v, 'm^3/kg'),
+      x: s.state.x,
+      phase: s.state.phase,
+    })),
     devices: [
       { device: 'compressor', q: q(0, J), w: q(byWork(-r.compressorWork), J) },
       { device: r.transcritical ? 'gas cooler' : 'condenser', q: q(-r.heatRejected, J), w: q(0, J) },
@@ -194,9 +339,17 @@ export function formatVapourCompression(r: VapourCompressionResult, refrigerantN
   }
 }
 
-export function solveRefrigerationTemplate(id: string, inputs: unknown, convention: Convention = 'engineering'): FormattedRefrigeration | RefrigerationFailure {
+export function solveRefrigerationTemplate(
+  id: string,
+  inputs: unknown,
+  convention: Convention = 'engineering',
+): FormattedRefrigeration | RefrigerationFailure {
   try {
-    if (!isRefrigerationTemplate(id)) return { ok: false, error: { code: 'invalid-spec', message: `unknown refrigeration template "${id}"`, property: 'template' } }
+    if (!isRefrigerationTemplate(id))
+      return {
+        ok: false,
+        error: { code: 'invalid-spec', message: `unknown refrigeration template "${id}"`, property: 'template' },
+      }
     const p = parseVapourCompressionInputs(inputs)
     if (!p.ok) return p
     const r = solveVapourCompression(p.value)
@@ -206,6 +359,9 @@ export function solveRefrigerationTemplate(id: string, inputs: unknown, conventi
     }
     return formatVapourCompression(r.value, p.value.refrigerant.name, convention)
   } catch (e) {
-    return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+    return {
+      ok: false,
+      error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` },
+    }
   }
 }

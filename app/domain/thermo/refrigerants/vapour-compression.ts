@@ -68,13 +68,27 @@ export interface VapourCompressionResult {
   readonly caution: string
 }
 
-export type VapourCompressionOutcome = { readonly ok: true; readonly value: VapourCompressionResult } | { readonly ok: false; readonly error: { readonly code: string; readonly message: string; readonly property?: string } }
+export type VapourCompressionOutcome =
+  | { readonly ok: true; readonly value: VapourCompressionResult }
+  | {
+      readonly ok: false
+      readonly error: { readonly code: string; readonly message: string; readonly property?: string }
+    }
 
-const bad = (message: string, property?: string, code = 'invalid-input'): VapourCompressionOutcome => ({ ok: false, error: { code, message, ...(property ? { property } : {}) } })
+const bad = (message: string, property?: string, code = 'invalid-input'): VapourCompressionOutcome => ({
+  ok: false,
+  error: { code, message, ...(property ? { property } : {}) },
+})
 const k = (x: number) => Number(x.toPrecision(4))
 
-function take(r: FluidResult<FluidState>, where: string, property?: string): { ok: true; s: FluidState } | { ok: false; fail: VapourCompressionOutcome } {
-  return r.ok ? { ok: true, s: r.value } : { ok: false, fail: bad(`${where}: ${r.error.message}`, property, r.error.code) }
+function take(
+  r: FluidResult<FluidState>,
+  where: string,
+  property?: string,
+): { ok: true; s: FluidState } | { ok: false; fail: VapourCompressionOutcome } {
+  return r.ok
+    ? { ok: true, s: r.value }
+    : { ok: false, fail: bad(`${where}: ${r.error.message}`, property, r.error.code) }
 }
 
 function saturation(f: Refrigerant, g: SaturationGiven) {
@@ -89,10 +103,17 @@ export function solveVapourCompression(input: VapourCompressionInput): VapourCom
   if (!(sh >= 0 && Number.isFinite(sh))) return bad('superheat must be 0 K or more', 'superheat')
   if (!(sc >= 0 && Number.isFinite(sc))) return bad('subcooling must be 0 K or more', 'subcooling')
   if (!(eta > 0 && eta <= 1)) return bad(`compressorEfficiency must be in (0, 1] (got ${eta})`, 'compressorEfficiency')
-  if ((input.condenser === undefined) === (input.gasCooler === undefined)) return bad('give a condenser (saturation temperature or pressure) or, for a transcritical cycle, a gas cooler — exactly one', 'condenser')
-  if (input.massFlow !== undefined && input.capacity !== undefined) return bad('give the mass flow rate or the refrigeration capacity, not both', 'massFlow')
-  if (input.massFlow !== undefined && !(input.massFlow > 0)) return bad('the mass flow rate must be positive', 'massFlow')
-  if (input.capacity !== undefined && !(input.capacity > 0)) return bad('the refrigeration capacity must be positive', 'capacity')
+  if ((input.condenser === undefined) === (input.gasCooler === undefined))
+    return bad(
+      'give a condenser (saturation temperature or pressure) or, for a transcritical cycle, a gas cooler — exactly one',
+      'condenser',
+    )
+  if (input.massFlow !== undefined && input.capacity !== undefined)
+    return bad('give the mass flow rate or the refrigeration capacity, not both', 'massFlow')
+  if (input.massFlow !== undefined && !(input.massFlow > 0))
+    return bad('the mass flow rate must be positive', 'massFlow')
+  if (input.capacity !== undefined && !(input.capacity > 0))
+    return bad('the refrigeration capacity must be positive', 'capacity')
 
   const ev = saturation(f, input.evaporator)
   if (!ev.ok) return bad(`evaporator: ${ev.error.message}`, 'evaporator', ev.error.code)
@@ -111,13 +132,21 @@ export function solveVapourCompression(input: VapourCompressionInput): VapourCom
   const transcritical = input.gasCooler !== undefined
   if (input.gasCooler) {
     const { p, exitT } = input.gasCooler
-    if (!(p > f.pc)) return bad(`a gas cooler works above the critical pressure (${k(f.pc / 1e6)} MPa for ${f.id}); below it, give a condenser`, 'gasCooler')
+    if (!(p > f.pc))
+      return bad(
+        `a gas cooler works above the critical pressure (${k(f.pc / 1e6)} MPa for ${f.id}); below it, give a condenser`,
+        'gasCooler',
+      )
     const r = take(f.stateTP(exitT, p), 'gas-cooler exit', 'gasCoolerExitT')
     if (!r.ok) return r.fail
     pH = p
     TH = exitT
     s3 = r.s
-    if (sc !== 0) return bad('subcooling applies to a condenser, not to a gas cooler (give its exit temperature instead)', 'subcooling')
+    if (sc !== 0)
+      return bad(
+        'subcooling applies to a condenser, not to a gas cooler (give its exit temperature instead)',
+        'subcooling',
+      )
   } else {
     const cd = saturation(f, input.condenser!)
     if (!cd.ok) return bad(`condenser: ${cd.error.message}`, 'condenser', cd.error.code)
@@ -127,7 +156,8 @@ export function solveVapourCompression(input: VapourCompressionInput): VapourCom
     if (!r.ok) return r.fail
     s3 = r.s
   }
-  if (!(pH > pL) || !(TH > TL)) return bad(`the evaporator (${k(TL)} K) must be colder than the condenser or gas cooler (${k(TH)} K)`, 'evaporator')
+  if (!(pH > pL) || !(TH > TL))
+    return bad(`the evaporator (${k(TL)} K) must be colder than the condenser or gas cooler (${k(TH)} K)`, 'evaporator')
 
   // ---- state 2: compressor exit
   const s2sr = take(f.statePS(pH, s1.s), 'compressor exit (isentropic)')
@@ -141,12 +171,18 @@ export function solveVapourCompression(input: VapourCompressionInput): VapourCom
   const s4r = take(f.statePH(pL, s3.h), 'after the throttling valve')
   if (!s4r.ok) return s4r.fail
   const s4 = s4r.s
-  if (s4.x === null) return bad('the refrigerant leaves the valve outside the liquid–vapour dome: check the pressures and temperatures', 'evaporator', 'unphysical')
+  if (s4.x === null)
+    return bad(
+      'the refrigerant leaves the valve outside the liquid–vapour dome: check the pressures and temperatures',
+      'evaporator',
+      'unphysical',
+    )
 
   const qL = s1.h - s4.h
   const w = s2.h - s1.h
   const qH = s2.h - s3.h
-  if (!(qL > 0) || !(w > 0)) return bad('this cycle takes no heat from the cold space: check the temperatures', 'evaporator', 'unphysical')
+  if (!(qL > 0) || !(w > 0))
+    return bad('this cycle takes no heat from the cold space: check the temperatures', 'evaporator', 'unphysical')
   let mdot: number | null = input.massFlow ?? null
   if (input.capacity !== undefined) mdot = input.capacity / qL
   const carnotCop = input.purpose === 'refrigerator' ? TL / (TH - TL) : TH / (TH - TL)
@@ -154,9 +190,21 @@ export function solveVapourCompression(input: VapourCompressionInput): VapourCom
     ok: true,
     value: {
       states: [
-        { name: '1', description: sh === 0 ? 'evaporator exit, saturated vapour' : `evaporator exit, ${k(sh)} K of superheat`, state: s1 },
+        {
+          name: '1',
+          description: sh === 0 ? 'evaporator exit, saturated vapour' : `evaporator exit, ${k(sh)} K of superheat`,
+          state: s1,
+        },
         { name: '2', description: 'compressor exit', state: s2 },
-        { name: '3', description: transcritical ? 'gas-cooler exit' : sc === 0 ? 'condenser exit, saturated liquid' : `condenser exit, ${k(sc)} K of subcooling`, state: s3 },
+        {
+          name: '3',
+          description: transcritical
+            ? 'gas-cooler exit'
+            : sc === 0
+              ? 'condenser exit, saturated liquid'
+              : `condenser exit, ${k(sc)} K of subcooling`,
+          state: s3,
+        },
         { name: '4', description: 'after the throttling valve', state: s4 },
       ],
       refrigerationEffect: qL,

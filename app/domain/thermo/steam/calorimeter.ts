@@ -68,9 +68,17 @@ export function solveThrottlingCalorimeter(input: CalorimeterInput): SteamResult
   ] as const) {
     if (typeof v !== 'number' || !Number.isFinite(v)) return bad(`${name} must be a finite number`, name)
   }
-  if (!(p1 < STEAM_LIMITS.P_CRIT)) return bad('the line pressure must be below the critical pressure 22.064 MPa: above it there is no wet steam', 'linePressure')
+  if (!(p1 < STEAM_LIMITS.P_CRIT))
+    return bad(
+      'the line pressure must be below the critical pressure 22.064 MPa: above it there is no wet steam',
+      'linePressure',
+    )
   if (!(p2 > 0)) return bad('the calorimeter pressure must be positive', 'calorimeterPressure')
-  if (!(p2 < p1)) return bad(`the calorimeter pressure (${kPa(p2)}) must be below the line pressure (${kPa(p1)}): the sample is throttled to a lower pressure`, 'calorimeterPressure')
+  if (!(p2 < p1))
+    return bad(
+      `the calorimeter pressure (${kPa(p2)}) must be below the line pressure (${kPa(p1)}): the sample is throttled to a lower pressure`,
+      'calorimeterPressure',
+    )
   const sat1 = saturationAtP(p1)
   if (!sat1.ok) return { ok: false, error: { ...sat1.error, property: 'linePressure' } }
   const sat2 = saturationAtP(p2)
@@ -82,7 +90,11 @@ export function solveThrottlingCalorimeter(input: CalorimeterInput): SteamResult
       'calorimeterTemperature',
     )
   const cal = stateFromPT(p2, T2)
-  if (!cal.ok) return { ok: false, error: { ...cal.error, property: cal.error.property === 'p' ? 'calorimeterPressure' : 'calorimeterTemperature' } }
+  if (!cal.ok)
+    return {
+      ok: false,
+      error: { ...cal.error, property: cal.error.property === 'p' ? 'calorimeterPressure' : 'calorimeterTemperature' },
+    }
   const hf = sat1.value.liquid.h
   const hg = sat1.value.vapour.h
   const h = cal.value.h
@@ -92,7 +104,11 @@ export function solveThrottlingCalorimeter(input: CalorimeterInput): SteamResult
       `the calorimeter enthalpy ${(h / 1000).toFixed(2)} kJ/kg is above that of saturated vapour at the line pressure (${(hg / 1000).toFixed(2)} kJ/kg): the line steam would be superheated, not wet, so there is no quality to measure (check the readings)`,
       'calorimeterTemperature',
     )
-  if (x < 0) return bad('the calorimeter enthalpy is below that of saturated liquid at the line pressure: check the readings', 'calorimeterTemperature')
+  if (x < 0)
+    return bad(
+      'the calorimeter enthalpy is below that of saturated liquid at the line pressure: check the readings',
+      'calorimeterTemperature',
+    )
   const lineState = stateFromPx(p1, x)
   if (!lineState.ok) return lineState
   const line = lineState.value
@@ -117,9 +133,27 @@ export const CALORIMETER_TEMPLATE = {
   description:
     'A sample of wet line steam is throttled (h constant) into a calorimeter where it is superheated; its pressure and temperature fix h, and the line quality is x = (h − h_f) / h_fg at the line pressure. Refused when the calorimeter steam is not superheated.',
   inputs: [
-    { name: 'linePressure', dimension: 'pressure', unit: 'MPa', description: 'pressure of the wet steam in the line (below 22.064 MPa)', required: true },
-    { name: 'calorimeterPressure', dimension: 'pressure', unit: 'kPa', description: 'pressure in the calorimeter after the throttle (below the line pressure)', required: true },
-    { name: 'calorimeterTemperature', dimension: 'temperature', unit: '°C or K', description: 'temperature read in the calorimeter (must be above the saturation temperature there)', required: true },
+    {
+      name: 'linePressure',
+      dimension: 'pressure',
+      unit: 'MPa',
+      description: 'pressure of the wet steam in the line (below 22.064 MPa)',
+      required: true,
+    },
+    {
+      name: 'calorimeterPressure',
+      dimension: 'pressure',
+      unit: 'kPa',
+      description: 'pressure in the calorimeter after the throttle (below the line pressure)',
+      required: true,
+    },
+    {
+      name: 'calorimeterTemperature',
+      dimension: 'temperature',
+      unit: '°C or K',
+      description: 'temperature read in the calorimeter (must be above the saturation temperature there)',
+      required: true,
+    },
   ] as readonly TemplateInput[],
 } as const
 
@@ -167,26 +201,70 @@ export interface CalorimeterFailure {
 const q = (value: number, unit: string): Quantity => ({ value, unit })
 
 function stateOut(name: string, description: string, s: SteamState): FormattedCalorimeterState {
-  return { name, description, p: q(s.p, 'Pa'), T: q(s.T, 'K'), h: q(s.h, 'J/kg'), u: q(s.u, 'J/kg'), s: q(s.s, 'J/(kg K)'), v: q(s.v, 'm^3/kg'), x: s.x, phase: s.phase }
+  return {
+    name,
+    description,
+    p: q(s.p, 'Pa'),
+    T: q(s.T, 'K'),
+    h: q(s.h, 'J/kg'),
+    u: q(s.u, 'J/kg'),
+    s: q(s.s, 'J/(kg K)'),
+    v: q(s.v, 'm^3/kg'),
+    x: s.x,
+    phase: s.phase,
+  }
 }
 
 /** Solve the calorimeter template from its inputs (strings with units). Never throws. */
-export function solveCalorimeterTemplate(inputs: unknown, convention: Convention = 'engineering'): FormattedCalorimeter | CalorimeterFailure {
+export function solveCalorimeterTemplate(
+  inputs: unknown,
+  convention: Convention = 'engineering',
+): FormattedCalorimeter | CalorimeterFailure {
   try {
-    if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs)) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
+    if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs))
+      return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
     const r = inputs as Record<string, unknown>
     const known = new Set(CALORIMETER_TEMPLATE.inputs.map((i) => i.name))
-    for (const k of Object.keys(r)) if (!known.has(k)) return { ok: false, error: { code: 'invalid-spec', message: `unknown input "${k}"; this template takes ${[...known].join(', ')}`, property: k } }
+    for (const k of Object.keys(r))
+      if (!known.has(k))
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `unknown input "${k}"; this template takes ${[...known].join(', ')}`,
+            property: k,
+          },
+        }
     const num: Record<string, number> = {}
     for (const inp of CALORIMETER_TEMPLATE.inputs) {
       const x = r[inp.name]
-      if (x === undefined) return { ok: false, error: { code: 'invalid-spec', message: `input "${inp.name}" is required: ${inp.description}`, property: inp.name } }
+      if (x === undefined)
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `input "${inp.name}" is required: ${inp.description}`,
+            property: inp.name,
+          },
+        }
       const v = readValue(x, [inp.dimension as Dimension], inp.name)
       if (!v.ok) return v
       num[inp.name] = v.value.value
     }
-    const res = solveThrottlingCalorimeter({ linePressure: num.linePressure!, calorimeterPressure: num.calorimeterPressure!, calorimeterTemperature: num.calorimeterTemperature! })
-    if (!res.ok) return { ok: false, error: { code: res.error.code, message: res.error.message, ...(res.error.property ? { property: res.error.property } : {}) } }
+    const res = solveThrottlingCalorimeter({
+      linePressure: num.linePressure!,
+      calorimeterPressure: num.calorimeterPressure!,
+      calorimeterTemperature: num.calorimeterTemperature!,
+    })
+    if (!res.ok)
+      return {
+        ok: false,
+        error: {
+          code: res.error.code,
+          message: res.error.message,
+          ...(res.error.property ? { property: res.error.property } : {}),
+        },
+      }
     const c = res.value
     const statement =
       convention === 'engineering'
@@ -198,7 +276,10 @@ export function solveCalorimeterTemplate(inputs: unknown, convention: Convention
       substance: 'water (IAPWS-IF97)',
       basis: 'per kg of steam sampled',
       convention: { ...CONVENTIONS[convention], statement },
-      states: [stateOut('1', 'line steam (wet), before the throttle', c.line), stateOut('2', 'calorimeter (superheated), after the throttle', c.calorimeter)],
+      states: [
+        stateOut('1', 'line steam (wet), before the throttle', c.line),
+        stateOut('2', 'calorimeter (superheated), after the throttle', c.calorimeter),
+      ],
       devices: [{ device: 'throttling valve (isenthalpic)', q: q(0, 'J/kg'), w: q(0, 'J/kg') }],
       totals: {
         quality: q(c.quality, ''),
@@ -211,16 +292,32 @@ export function solveCalorimeterTemplate(inputs: unknown, convention: Convention
       notice: c.caution,
     }
   } catch (e) {
-    return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+    return {
+      ok: false,
+      error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` },
+    }
   }
 }
 
 /** A whole spec { template: "steam-throttling-calorimeter", inputs, convention? }. Never throws. */
 export function solveCalorimeterSpec(raw: unknown): FormattedCalorimeter | CalorimeterFailure {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template"' } }
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+    return { ok: false, error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template"' } }
   const r = raw as Record<string, unknown>
   const conv = r.convention ?? 'engineering'
-  if (!isConvention(conv)) return { ok: false, error: { code: 'invalid-spec', message: `convention must be "chemistry" or "engineering", not ${JSON.stringify(conv)}`, property: 'convention' } }
-  if (!isCalorimeterTemplate(r.template)) return { ok: false, error: { code: 'invalid-spec', message: `template must be "${CALORIMETER_TEMPLATE.id}"`, property: 'template' } }
+  if (!isConvention(conv))
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `convention must be "chemistry" or "engineering", not ${JSON.stringify(conv)}`,
+        property: 'convention',
+      },
+    }
+  if (!isCalorimeterTemplate(r.template))
+    return {
+      ok: false,
+      error: { code: 'invalid-spec', message: `template must be "${CALORIMETER_TEMPLATE.id}"`, property: 'template' },
+    }
   return solveCalorimeterTemplate(r.inputs ?? {}, conv)
 }

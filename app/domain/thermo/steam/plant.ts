@@ -32,7 +32,14 @@
 // and licensed engineering practice for any real plant.
 import { fail, ok } from './errors.ts'
 import type { SteamError, SteamResult } from './errors.ts'
-import { STEAM_LIMITS, saturationTemperature, stateFromPH, stateFromPS, stateFromPT, stateFromPx } from './properties.ts'
+import {
+  STEAM_LIMITS,
+  saturationTemperature,
+  stateFromPH,
+  stateFromPS,
+  stateFromPT,
+  stateFromPx,
+} from './properties.ts'
 import type { SteamState } from './properties.ts'
 import { checkInletQuality, inletDescription, RANKINE_CAUTION } from './rankine.ts'
 import type { ConventionReport, DeviceTransfer, RankineResult, RankineStatePoint } from './rankine.ts'
@@ -152,7 +159,10 @@ export function solveSteamPlant(input: PlantInput): SteamResult<PlantResult> {
   try {
     return solve(input)
   } catch (e) {
-    return fail({ code: 'no-convergence', message: `internal error in the steam-plant solver: ${e instanceof Error ? e.message : String(e)}` })
+    return fail({
+      code: 'no-convergence',
+      message: `internal error in the steam-plant solver: ${e instanceof Error ? e.message : String(e)}`,
+    })
   }
 }
 
@@ -173,18 +183,34 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
   if (!(etaT > 0 && etaT <= 1)) return bad(`turbineEfficiency must be in (0, 1] (got ${etaT})`, 'turbineEfficiency')
   if (!(pC > 0)) return bad('condenserPressure must be positive', 'condenserPressure')
   if (!(pC < pB)) return bad('condenserPressure must be below boilerPressure', 'condenserPressure')
-  if (pC >= STEAM_LIMITS.P_CRIT) return bad('the condenser pressure must be below the critical pressure (22.064 MPa) for condensation', 'condenserPressure')
+  if (pC >= STEAM_LIMITS.P_CRIT)
+    return bad(
+      'the condenser pressure must be below the critical pressure (22.064 MPa) for condensation',
+      'condenserPressure',
+    )
   const rh = input.reheat
   if (rh) {
-    if (!finite(rh.pressure) || !finite(rh.temperature)) return bad('reheat pressure and temperature must be finite numbers', 'reheat')
-    if (!(rh.pressure > pC && rh.pressure < pB)) return bad('reheat pressure must lie between the condenser and boiler pressures', 'reheat.pressure')
+    if (!finite(rh.pressure) || !finite(rh.temperature))
+      return bad('reheat pressure and temperature must be finite numbers', 'reheat')
+    if (!(rh.pressure > pC && rh.pressure < pB))
+      return bad('reheat pressure must lie between the condenser and boiler pressures', 'reheat.pressure')
   }
   const proc = input.process
   if (proc) {
-    if (!finite(proc.pressure) || !finite(proc.fraction)) return bad('process pressure and fraction must be finite numbers', 'process')
-    if (!(proc.pressure > pC && proc.pressure < pB)) return bad('the process-steam pressure must lie between the condenser and boiler pressures', 'process.pressure')
-    if (proc.pressure >= STEAM_LIMITS.P_CRIT) return bad('the process-steam pressure must be below the critical pressure (the process heater returns saturated liquid)', 'process.pressure')
-    if (!(proc.fraction > 0 && proc.fraction < 1)) return bad(`the fraction of the steam sent to the process must lie strictly between 0 and 1 (got ${proc.fraction})`, 'process.fraction')
+    if (!finite(proc.pressure) || !finite(proc.fraction))
+      return bad('process pressure and fraction must be finite numbers', 'process')
+    if (!(proc.pressure > pC && proc.pressure < pB))
+      return bad('the process-steam pressure must lie between the condenser and boiler pressures', 'process.pressure')
+    if (proc.pressure >= STEAM_LIMITS.P_CRIT)
+      return bad(
+        'the process-steam pressure must be below the critical pressure (the process heater returns saturated liquid)',
+        'process.pressure',
+      )
+    if (!(proc.fraction > 0 && proc.fraction < 1))
+      return bad(
+        `the fraction of the steam sent to the process must lie strictly between 0 and 1 (got ${proc.fraction})`,
+        'process.fraction',
+      )
   }
 
   // --- heaters: validation ---------------------------------------------------------------
@@ -195,21 +221,42 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
   for (let i = 0; i < list.length; i++) {
     const h = list[i]!
     const where = `feedwaterHeaters.${i}`
-    if (typeof h !== 'object' || h === null) return bad(`heater ${i + 1} must be an object with kind and pressure`, where)
-    if (h.kind !== 'open' && h.kind !== 'closed') return bad(`heater ${i + 1}: kind must be "open" or "closed" (got ${JSON.stringify(h.kind)})`, `${where}.kind`)
+    if (typeof h !== 'object' || h === null)
+      return bad(`heater ${i + 1} must be an object with kind and pressure`, where)
+    if (h.kind !== 'open' && h.kind !== 'closed')
+      return bad(`heater ${i + 1}: kind must be "open" or "closed" (got ${JSON.stringify(h.kind)})`, `${where}.kind`)
     if (!finite(h.pressure)) return bad(`heater ${i + 1}: pressure must be a finite number`, `${where}.pressure`)
-    if (!(h.pressure > pC && h.pressure < pB)) return bad(`heater ${i + 1}: its pressure ${kPa(h.pressure)} must lie between the condenser (${kPa(pC)}) and boiler (${kPa(pB)}) pressures`, `${where}.pressure`)
-    if (h.pressure >= STEAM_LIMITS.P_CRIT) return bad(`heater ${i + 1}: its pressure must be below the critical pressure 22.064 MPa (its drain or exit is saturated liquid)`, `${where}.pressure`)
+    if (!(h.pressure > pC && h.pressure < pB))
+      return bad(
+        `heater ${i + 1}: its pressure ${kPa(h.pressure)} must lie between the condenser (${kPa(pC)}) and boiler (${kPa(pB)}) pressures`,
+        `${where}.pressure`,
+      )
+    if (h.pressure >= STEAM_LIMITS.P_CRIT)
+      return bad(
+        `heater ${i + 1}: its pressure must be below the critical pressure 22.064 MPa (its drain or exit is saturated liquid)`,
+        `${where}.pressure`,
+      )
     if (i > 0 && !(h.pressure < list[i - 1]!.pressure))
       return bad(
         `heater pressures out of order: list the heaters from the highest pressure (nearest the boiler) to the lowest, each lower than the one before (heater ${i + 1} at ${kPa(h.pressure)} follows heater ${i} at ${kPa(list[i - 1]!.pressure)})`,
         `${where}.pressure`,
       )
     if (h.kind === 'open' && (h.terminalTemperatureDifference !== undefined || h.drains !== undefined))
-      return bad(`heater ${i + 1} is open (direct contact): it has no terminal temperature difference or drains; its exit is saturated liquid`, where)
+      return bad(
+        `heater ${i + 1} is open (direct contact): it has no terminal temperature difference or drains; its exit is saturated liquid`,
+        where,
+      )
     const ttd = h.terminalTemperatureDifference ?? 0
-    if (!finite(ttd)) return bad(`heater ${i + 1}: terminal temperature difference must be a finite number of kelvins`, `${where}.terminalTemperatureDifference`)
-    if (h.drains !== undefined && h.drains !== 'backward' && h.drains !== 'forward') return bad(`heater ${i + 1}: drains must be "backward" (cascaded through a trap) or "forward" (pumped into the feedwater line)`, `${where}.drains`)
+    if (!finite(ttd))
+      return bad(
+        `heater ${i + 1}: terminal temperature difference must be a finite number of kelvins`,
+        `${where}.terminalTemperatureDifference`,
+      )
+    if (h.drains !== undefined && h.drains !== 'backward' && h.drains !== 'forward')
+      return bad(
+        `heater ${i + 1}: drains must be "backward" (cascaded through a trap) or "forward" (pumped into the feedwater line)`,
+        `${where}.drains`,
+      )
     const sat = stateFromPx(h.pressure, 0)
     if (!sat.ok) return sat
     const name = h.name ?? `${h.kind} feedwater heater ${i + 1}`
@@ -256,7 +303,11 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
     if (e) return fail(e)
     inlet = stateFromPx(pB, input.turbineInletQuality)
   } else if (input.turbineInletTemperature === undefined) {
-    if (pB >= STEAM_LIMITS.P_CRIT) return bad('give turbineInletTemperature: above the critical pressure there is no saturated vapour', 'turbineInletTemperature')
+    if (pB >= STEAM_LIMITS.P_CRIT)
+      return bad(
+        'give turbineInletTemperature: above the critical pressure there is no saturated vapour',
+        'turbineInletTemperature',
+      )
     inlet = stateFromPx(pB, 1)
   } else {
     const T3 = input.turbineInletTemperature
@@ -264,14 +315,19 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
     if (pB < STEAM_LIMITS.P_CRIT) {
       const Ts = saturationTemperature(pB)
       if (Ts.ok && T3 <= Ts.value)
-        return bad(`turbine inlet temperature ${T3} K is not above the saturation temperature ${Ts.value} K at the boiler pressure: the steam would not be superheated vapour (give turbineInletQuality for wet steam)`, 'turbineInletTemperature')
+        return bad(
+          `turbine inlet temperature ${T3} K is not above the saturation temperature ${Ts.value} K at the boiler pressure: the steam would not be superheated vapour (give turbineInletQuality for wet steam)`,
+          'turbineInletTemperature',
+        )
     }
     inlet = stateFromPT(pB, T3)
   }
   if (!inlet.ok) return inlet
 
   // --- turbine path: expansion states at every extraction / reheat pressure ------------------
-  const pressures = [...new Set([...heaters.map((h) => h.p), ...(rh ? [rh.pressure] : []), ...(proc ? [proc.pressure] : [])])].sort((a, b) => b - a)
+  const pressures = [
+    ...new Set([...heaters.map((h) => h.p), ...(rh ? [rh.pressure] : []), ...(proc ? [proc.pressure] : [])]),
+  ].sort((a, b) => b - a)
   interface Stop {
     p: number
     /** turbine state arriving at p (before any reheat) */
@@ -290,7 +346,8 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
     if (reheated) {
       const re = stateFromPT(p, rh!.temperature)
       if (!re.ok) return re
-      if (!(re.value.h > out.value.h)) return bad('reheat temperature must be above the high-pressure turbine exit temperature', 'reheat.temperature')
+      if (!(re.value.h > out.value.h))
+        return bad('reheat temperature must be above the high-pressure turbine exit temperature', 'reheat.temperature')
       leave = re.value
     }
     stops.push({ p, at: out.value, leave, reheated })
@@ -342,7 +399,11 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
         )
       const out = stateFromPT(h.pFeed, TOut)
       if (!out.ok) return out
-      if (out.value.x !== null || out.value.phase === 'vapour') return bad(`${h.name}: the feedwater would not stay liquid at ${kPa(h.pFeed)} and ${TOut.toFixed(2)} K`, `feedwaterHeaters.${h.index}`)
+      if (out.value.x !== null || out.value.phase === 'vapour')
+        return bad(
+          `${h.name}: the feedwater would not stay liquid at ${kPa(h.pFeed)} and ${TOut.toFixed(2)} K`,
+          `feedwaterHeaters.${h.index}`,
+        )
       h.hOut = out.value.h
       h.TOut = TOut
       if (h.drains === 'forward') {
@@ -373,7 +434,8 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
     for (const ht of asc) {
       ht.hIn = h
       if (ht.kind === 'open') h = ht.hPumped
-      else if (ht.drains === 'forward') h = ht.flowDown > 0 ? (ht.flowTube * ht.hOut + (ht.y + ht.drainsIn) * ht.hDrainPumped) / ht.flowDown : ht.hOut
+      else if (ht.drains === 'forward')
+        h = ht.flowDown > 0 ? (ht.flowTube * ht.hOut + (ht.y + ht.drainsIn) * ht.hDrainPumped) / ht.flowDown : ht.hOut
       else h = ht.hOut
     }
     return h
@@ -408,7 +470,8 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
           hD = ht.hf
         }
       }
-      if (!Number.isFinite(ht.y)) return { code: 'no-convergence', message: `${ht.name}: the heater balance has no solution` }
+      if (!Number.isFinite(ht.y))
+        return { code: 'no-convergence', message: `${ht.name}: the heater balance has no solution` }
     }
     return null
   }
@@ -423,13 +486,20 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
       break
     }
   }
-  if (!converged) return fail({ code: 'no-convergence', message: 'the feedwater-heater balances did not settle (please report these inputs)' })
+  if (!converged)
+    return fail({
+      code: 'no-convergence',
+      message: 'the feedwater-heater balances did not settle (please report these inputs)',
+    })
   const topFeed = feedUp()
 
   for (const ht of heaters) {
     const where = `feedwaterHeaters.${ht.index}`
     if (!(ht.hOut > ht.hIn))
-      return bad(`${ht.name} at ${kPa(ht.p)}: the feedwater arrives at ${(ht.hIn / 1000).toFixed(2)} kJ/kg and would leave at ${(ht.hOut / 1000).toFixed(2)} kJ/kg, so it would not be heated: check the heater pressures${ht.kind === 'closed' ? ' and its terminal temperature difference' : ''}`, `${where}.pressure`)
+      return bad(
+        `${ht.name} at ${kPa(ht.p)}: the feedwater arrives at ${(ht.hIn / 1000).toFixed(2)} kJ/kg and would leave at ${(ht.hOut / 1000).toFixed(2)} kJ/kg, so it would not be heated: check the heater pressures${ht.kind === 'closed' ? ' and its terminal temperature difference' : ''}`,
+        `${where}.pressure`,
+      )
     if (!(ht.y > 0 && ht.y < 1))
       return bad(
         `${ht.name} at ${kPa(ht.p)}: its balance gives a bleed fraction ${ht.y}, outside (0, 1): ${
@@ -439,7 +509,11 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
         }`,
         `${where}.pressure`,
       )
-    if (!(ht.flowTube > 0)) return bad(`${ht.name}: the heater balances leave no feedwater flowing through it (${ht.flowTube}): too much steam is bled`, `${where}.pressure`)
+    if (!(ht.flowTube > 0))
+      return bad(
+        `${ht.name}: the heater balances leave no feedwater flowing through it (${ht.flowTube}): too much steam is bled`,
+        `${where}.pressure`,
+      )
   }
 
   // Turbine flows: m after each stop.
@@ -454,9 +528,14 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
     sectionWorks.push({ name: '', w, from: fromP, to: st.p, m })
     turbineWork += w
     mAt.set(st.p, m)
-    const bled = heaters.filter((h) => h.p === st.p).reduce((a, h) => a + h.y, 0) + (proc && proc.pressure === st.p ? yP : 0)
+    const bled =
+      heaters.filter((h) => h.p === st.p).reduce((a, h) => a + h.y, 0) + (proc && proc.pressure === st.p ? yP : 0)
     m -= bled
-    if (!(m > 0)) return bad(`the extractions at and above ${kPa(st.p)} take all the steam (${1 - m} of the boiler flow): nothing would be left to expand further`, 'feedwaterHeaters')
+    if (!(m > 0))
+      return bad(
+        `the extractions at and above ${kPa(st.p)} take all the steam (${1 - m} of the boiler flow): nothing would be left to expand further`,
+        'feedwaterHeaters',
+      )
     from = st.leave
     fromP = st.p
   }
@@ -470,12 +549,17 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
 
   // Flow to the condenser: turbine exhaust + drains cascaded below the lowest heater.
   const lowest = heaters[heaters.length - 1]
-  const drainsToCondenser = lowest && lowest.kind === 'closed' && lowest.drains === 'backward' ? lowest.drainsIn + lowest.y : 0
+  const drainsToCondenser =
+    lowest && lowest.kind === 'closed' && lowest.drains === 'backward' ? lowest.drainsIn + lowest.y : 0
   const condenserFlow = mLast + drainsToCondenser
   const bottomFlow = asc.length ? asc[0]!.flowTube : 1 - yP
   // Mass balance at the condensate pump (closed form: what leaves the condenser is what the train takes).
   const massResidual = Math.abs(condenserFlow - bottomFlow)
-  if (massResidual > 1e-9) return fail({ code: 'no-convergence', message: `mass balance at the condenser does not close (${massResidual}); please report these inputs` })
+  if (massResidual > 1e-9)
+    return fail({
+      code: 'no-convergence',
+      message: `mass balance at the condenser does not close (${massResidual}); please report these inputs`,
+    })
 
   const boilerIn = (1 - yP) * topFeed + (procReturn ? yP * procReturn.h : 0)
   const boilerQ = inlet.value.h - boilerIn
@@ -483,7 +567,8 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
   // Mass through the reheater is what is left after the extractions at that pressure.
   if (rh) {
     const st = stopAt(rh.pressure)
-    const bled = heaters.filter((h) => h.p === st.p).reduce((a, h) => a + h.y, 0) + (proc && proc.pressure === st.p ? yP : 0)
+    const bled =
+      heaters.filter((h) => h.p === st.p).reduce((a, h) => a + h.y, 0) + (proc && proc.pressure === st.p ? yP : 0)
     reheatQ = (mAt.get(st.p)! - bled) * (st.leave.h - st.at.h)
   }
   const heatIn = boilerQ + reheatQ
@@ -492,12 +577,17 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
 
   // Pumps.
   const pumpWorks: { name: string; w: number }[] = []
-  pumpWorks.push({ name: heaters.length || proc ? 'condensate pump' : 'pump', w: bottomFlow * (condPumped.value.h - cond.value.h) })
+  pumpWorks.push({
+    name: heaters.length || proc ? 'condensate pump' : 'pump',
+    w: bottomFlow * (condPumped.value.h - cond.value.h),
+  })
   for (const ht of asc) {
     if (ht.kind === 'open') pumpWorks.push({ name: `pump after ${ht.name}`, w: ht.flowDown * (ht.hPumped - ht.hOut) })
-    else if (ht.drains === 'forward') pumpWorks.push({ name: `drain pump of ${ht.name}`, w: (ht.y + ht.drainsIn) * (ht.hDrainPumped - ht.hf) })
+    else if (ht.drains === 'forward')
+      pumpWorks.push({ name: `drain pump of ${ht.name}`, w: (ht.y + ht.drainsIn) * (ht.hDrainPumped - ht.hf) })
   }
-  if (procLiquid && procReturn) pumpWorks.push({ name: 'process-condensate pump', w: yP * (procReturn.h - procLiquid.h) })
+  if (procLiquid && procReturn)
+    pumpWorks.push({ name: 'process-condensate pump', w: yP * (procReturn.h - procLiquid.h) })
   const pumpWork = pumpWorks.reduce((a, b) => a + b.w, 0)
   const netWork = turbineWork - pumpWork
 
@@ -537,7 +627,19 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
   // --- states --------------------------------------------------------------------------------
   const states: RankineStatePoint[] = []
   const add = (description: string, st: SteamState, massFraction: number) => {
-    states.push({ label: String(states.length + 1), description, p: st.p, T: st.T, h: st.h, u: st.u, s: st.s, v: st.v, x: st.x, phase: st.phase, massFraction })
+    states.push({
+      label: String(states.length + 1),
+      description,
+      p: st.p,
+      T: st.T,
+      h: st.h,
+      u: st.u,
+      s: st.s,
+      v: st.v,
+      x: st.x,
+      phase: st.phase,
+      massFraction,
+    })
   }
   const at = (p: number, h: number): SteamResult<SteamState> => stateFromPH(p, h)
   add('condenser exit, saturated liquid (condensate pump inlet)', cond.value, condenserFlow)
@@ -556,7 +658,11 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
       add(`feedwater leaving ${ht.name} (T_sat(${kPa(ht.p)}) − ${ht.ttd} K)`, s1.value, ht.flowTube)
       const drain = stateFromPx(ht.p, 0)
       if (!drain.ok) return drain
-      add(`${ht.name} drain, saturated liquid (${ht.drains === 'forward' ? 'to its drain pump' : 'through a trap to the next lower heater'})`, drain.value, ht.y + ht.drainsIn)
+      add(
+        `${ht.name} drain, saturated liquid (${ht.drains === 'forward' ? 'to its drain pump' : 'through a trap to the next lower heater'})`,
+        drain.value,
+        ht.y + ht.drainsIn,
+      )
       if (ht.drains === 'forward') {
         const s2 = at(ht.pFeed, ht.hDrainPumped)
         if (!s2.ok) return s2
@@ -577,11 +683,17 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
   }
   add(inletDescription(input), inlet.value, 1)
   for (const st of stops) {
-    const uses = [...heaters.filter((h) => h.p === st.p).map((h) => h.name), ...(proc && proc.pressure === st.p ? ['process heater'] : [])]
-    const what = [uses.length ? `extraction to ${uses.join(' and ')}` : '', st.reheated ? 'to the reheater' : ''].filter(Boolean).join('; ')
+    const uses = [
+      ...heaters.filter((h) => h.p === st.p).map((h) => h.name),
+      ...(proc && proc.pressure === st.p ? ['process heater'] : []),
+    ]
+    const what = [uses.length ? `extraction to ${uses.join(' and ')}` : '', st.reheated ? 'to the reheater' : '']
+      .filter(Boolean)
+      .join('; ')
     add(`turbine at ${kPa(st.p)}${what ? ` (${what})` : ''}`, st.at, mAt.get(st.p)!)
     if (st.reheated) {
-      const bled = heaters.filter((h) => h.p === st.p).reduce((a, h) => a + h.y, 0) + (proc && proc.pressure === st.p ? yP : 0)
+      const bled =
+        heaters.filter((h) => h.p === st.p).reduce((a, h) => a + h.y, 0) + (proc && proc.pressure === st.p ? yP : 0)
       add('reheater exit', st.leave, mAt.get(st.p)! - bled)
     }
   }
@@ -599,14 +711,16 @@ function solve(input: PlantInput): SteamResult<PlantResult> {
   const netHeat = heatIn - heatOut - (processHeat ?? 0)
   const engineering: ConventionReport = {
     convention: 'engineering',
-    statement: 'ΔU = Q − W: Q is heat added to the working fluid, W is work done BY the working fluid (turbine work positive, pump work negative).',
+    statement:
+      'ΔU = Q − W: Q is heat added to the working fluid, W is work done BY the working fluid (turbine work positive, pump work negative).',
     devices,
     netHeat,
     netWork,
   }
   const chemistry: ConventionReport = {
     convention: 'chemistry',
-    statement: 'ΔU = q + w: q is heat added to the working fluid, w is work done ON the working fluid (pump work positive, turbine work negative).',
+    statement:
+      'ΔU = q + w: q is heat added to the working fluid, w is work done ON the working fluid (pump work positive, turbine work negative).',
     devices: devices.map((d) => ({ device: d.device, heat: d.heat, work: d.work === 0 ? 0 : -d.work })),
     netHeat,
     netWork: -netWork,

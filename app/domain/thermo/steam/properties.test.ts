@@ -268,7 +268,8 @@ describe('consistency at region boundaries (release permitted inconsistencies, f
   }
   test('regions 1 and 3 along T = 623.15 K, p_s(623.15 K) .. 100 MPa', () => {
     const pairs: [If97Props, If97Props][] = []
-    for (let p = pSat(623.15); p <= 100; p += 2.5) pairs.push([region1(p, 623.15), region3(region3Density(p, 623.15, true), 623.15)])
+    for (let p = pSat(623.15); p <= 100; p += 2.5)
+      pairs.push([region1(p, 623.15), region3(region3Density(p, 623.15, true), 623.15)])
     limits(worst(pairs))
   })
   test('regions 2 and 5 along T = 1073.15 K, 0.001 .. 50 MPa', () => {
@@ -301,7 +302,10 @@ describe('robustness: no input throws, in-range input always converges (common p
       } else if (r.error!.code === 'no-convergence') problems.push(`${name}(${args}) no convergence`)
     }
     for (let i = 0; i < 1000; i++) {
-      const p = i % 20 === 0 ? specialP[i % specialP.length]! : Math.exp(Math.log(100) + (Math.log(1.2e8) - Math.log(100)) * rnd())
+      const p =
+        i % 20 === 0
+          ? specialP[i % specialP.length]!
+          : Math.exp(Math.log(100) + (Math.log(1.2e8) - Math.log(100)) * rnd())
       const T = i % 30 === 0 ? specialT[i % specialT.length]! : 260 + 2030 * rnd()
       const h = -100e3 + 7.5e6 * rnd()
       const s = -100 + 13e3 * rnd()

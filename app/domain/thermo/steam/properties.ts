@@ -111,7 +111,12 @@ function describe(parts: Record<string, number>): string {
 
 function notFinite(property: string, value: number, state: string): SteamError | null {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
-    return { code: 'invalid-input', property, message: `${property} must be a finite number (got ${String(value)})`, state }
+    return {
+      code: 'invalid-input',
+      property,
+      message: `${property} must be a finite number (got ${String(value)})`,
+      state,
+    }
   }
   return null
 }
@@ -306,7 +311,9 @@ export function hsFromPT(p: number, T: number, out: Float64Array = hsBuf): Float
   // Inline fast range test; the detailed message only on failure.
   if (!(p > 0 && p <= 100e6 && T >= T_MIN && (T <= T_MAX || (T <= T_MAX5 && p <= P_MAX5 * 1e6)))) {
     const state = describe({ p, T })
-    throw new SteamRangeError(checkPT(p, T, state) ?? { code: 'invalid-input', message: `invalid state ${state}`, state })
+    throw new SteamRangeError(
+      checkPT(p, T, state) ?? { code: 'invalid-input', message: `invalid state ${state}`, state },
+    )
   }
   const pM = p * 1e-6
   const region = regionPT(pM, T)
@@ -661,7 +668,7 @@ function bisect(f: (x: number) => number | null, a: number, b: number): number |
     const fm = f(m)
     if (fm === null) return null
     if (fm === 0 || Math.abs(b - a) <= 1e-14 * Math.abs(m)) return m
-    if ((fa < 0) === (fm < 0)) {
+    if (fa < 0 === fm < 0) {
       a = m
       fa = fm
     } else b = m
@@ -673,7 +680,8 @@ function fromTY(T: number, y: number, kind: PairKind): SteamResult<SteamState> {
   const state = describe(kind === 's' ? { T, s: y } : { T, v: y })
   const e = checkT(T, state) ?? notFinite(kind, y, state)
   if (e) return fail(e)
-  if (kind === 'v' && !(y > 0)) return fail({ code: 'invalid-input', property: 'v', message: 'specific volume must be positive', state })
+  if (kind === 'v' && !(y > 0))
+    return fail({ code: 'invalid-input', property: 'v', message: 'specific volume must be positive', state })
   const pMax = T > T_MAX ? P_MAX5 * 1e6 : P_MAX * 1e6
   const pMin = 611.2127 * 1e-3 // 0.6 Pa: far below any state a course uses; IF97 region 2 holds for p > 0
   const at = (p: number): SteamState | null => {
@@ -683,10 +691,14 @@ function fromTY(T: number, y: number, kind: PairKind): SteamResult<SteamState> {
   const solveIn = (lo: number, hi: number): SteamResult<SteamState> => {
     // exp(log(p)) can land an ulp outside [lo, hi] (e.g. just above 100 MPa): clamp.
     const pOf = (lp: number) => Math.min(hi, Math.max(lo, Math.exp(lp)))
-    const lp = bisect((lp) => {
-      const st = at(pOf(lp))
-      return st ? pick(st, kind) - y : null
-    }, Math.log(lo), Math.log(hi))
+    const lp = bisect(
+      (lp) => {
+        const st = at(pOf(lp))
+        return st ? pick(st, kind) - y : null
+      },
+      Math.log(lo),
+      Math.log(hi),
+    )
     if (lp === null) return fail(noConvergence(state))
     const st = at(pOf(lp))
     return st ? ok(st) : fail(noConvergence(state))
@@ -702,7 +714,11 @@ function fromTY(T: number, y: number, kind: PairKind): SteamResult<SteamState> {
       return {
         code: 'out-of-range',
         property: kind,
-        bound: { name: `${name} at T = ${T} K between p = ${hi} Pa and ${lo} Pa`, value: y > yHi ? yHi : yLo, unit: kind === 's' ? 'J/(kg K)' : 'm^3/kg' },
+        bound: {
+          name: `${name} at T = ${T} K between p = ${hi} Pa and ${lo} Pa`,
+          value: y > yHi ? yHi : yLo,
+          unit: kind === 's' ? 'J/(kg K)' : 'm^3/kg',
+        },
         message: `${name} ${y} at T = ${T} K is outside what IAPWS-IF97 gives at that temperature (${yLo} .. ${yHi}, from ${hi} Pa down to ${lo} Pa); no extrapolation is done`,
         state,
       }
@@ -747,17 +763,22 @@ export function stateFromPV(p: number, v: number): SteamResult<SteamState> {
   const state = describe({ p, v })
   const e = checkP(p, state) ?? notFinite('v', v, state)
   if (e) return fail(e)
-  if (!(v > 0)) return fail({ code: 'invalid-input', property: 'v', message: 'specific volume must be positive', state })
+  if (!(v > 0))
+    return fail({ code: 'invalid-input', property: 'v', message: 'specific volume must be positive', state })
   const at = (T: number): SteamState | null => {
     const r = stateFromPT(p, T)
     return r.ok ? r.value : null
   }
   const Ttop = p <= P_MAX5 * 1e6 ? T_MAX5 : T_MAX
   const solveIn = (lo: number, hi: number): SteamResult<SteamState> => {
-    const T = bisect((T) => {
-      const st = at(T)
-      return st ? st.v - v : null
-    }, lo, hi)
+    const T = bisect(
+      (T) => {
+        const st = at(T)
+        return st ? st.v - v : null
+      },
+      lo,
+      hi,
+    )
     if (T === null)
       return fail({
         code: 'out-of-range',

@@ -11,7 +11,15 @@ import cogeneration from '../../../../docs/examples/rankine-cogeneration.json'
 import deaerator from '../../../../docs/examples/rankine-feedwater-deaerator.json'
 import feedwater from '../../../../docs/examples/rankine-feedwater.json'
 import wetInlet from '../../../../docs/examples/rankine-wet-inlet.json'
-import { isRankineTemplate, parsePlantInputs, parseRankineInputs, RANKINE_TEMPLATES, solveRankineSpec, solveRankineTemplate, STEAM_PLANT_TEMPLATES } from './rankine-template.ts'
+import {
+  isRankineTemplate,
+  parsePlantInputs,
+  parseRankineInputs,
+  RANKINE_TEMPLATES,
+  solveRankineSpec,
+  solveRankineTemplate,
+  STEAM_PLANT_TEMPLATES,
+} from './rankine-template.ts'
 import type { FormattedRankine } from './rankine-template.ts'
 
 function solved(r: ReturnType<typeof solveRankineSpec>): FormattedRankine {
@@ -47,7 +55,10 @@ describe('documented examples (docs/examples/rankine-*.json)', () => {
     const pump = r.devices.find((d) => d.device === 'pump')!
     expect(pump.w.value).toBeGreaterThan(0)
     const idealSame = solved(
-      solveRankineSpec({ template: 'rankine', inputs: { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C' } }),
+      solveRankineSpec({
+        template: 'rankine',
+        inputs: { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C' },
+      }),
     )
     expect(r.totals.efficiency.value).toBeLessThan(idealSame.totals.efficiency.value)
   })
@@ -58,16 +69,32 @@ describe('inputs', () => {
     for (const t of RANKINE_TEMPLATES) for (const i of t.inputs) expect(i.description.length).toBeGreaterThan(10)
   })
   test('units are read to SI (closed form conversion: 150 bar = 15 MPa, 600 °C = 873.15 K)', () => {
-    const r = parseRankineInputs('rankine', { boilerPressure: '150 bar', condenserPressure: '0.1 bar', turbineInletTemperature: '600 °C', turbineEfficiency: 0.9 })
-    expect(r).toEqual({ ok: true, value: { boilerPressure: 15e6, condenserPressure: 1e4, turbineInletTemperature: 873.15, turbineEfficiency: 0.9 } })
+    const r = parseRankineInputs('rankine', {
+      boilerPressure: '150 bar',
+      condenserPressure: '0.1 bar',
+      turbineInletTemperature: '600 °C',
+      turbineEfficiency: 0.9,
+    })
+    expect(r).toEqual({
+      ok: true,
+      value: { boilerPressure: 15e6, condenserPressure: 1e4, turbineInletTemperature: 873.15, turbineEfficiency: 0.9 },
+    })
   })
   test.each([
     ['rankine', { condenserPressure: '10 kPa' }, 'boilerPressure'],
     ['rankine', { boilerPressure: '15', condenserPressure: '10 kPa' }, 'boilerPressure'],
     ['rankine', { boilerPressure: '15 MPa', condenserPressure: '10 K' }, 'condenserPressure'],
     ['rankine', { boilerPressure: '15 MPa', condenserPressure: '10 kPa', superheat: 'yes' }, 'superheat'],
-    ['rankine', { boilerPressure: '15 MPa', condenserPressure: '10 kPa', reheatPressure: '4 MPa' }, 'reheatTemperature'],
-    ['rankine-reheat', { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C' }, 'reheatPressure'],
+    [
+      'rankine',
+      { boilerPressure: '15 MPa', condenserPressure: '10 kPa', reheatPressure: '4 MPa' },
+      'reheatTemperature',
+    ],
+    [
+      'rankine-reheat',
+      { boilerPressure: '15 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C' },
+      'reheatPressure',
+    ],
     ['rankine', { boilerPressure: '150 MPa', condenserPressure: '10 kPa', turbineInletTemperature: '600 °C' }, 'p'],
     ['nonsense', {}, 'template'],
   ])('%s %o -> error on %s', (id, inputs, property) => {
@@ -90,7 +117,11 @@ describe('steam-plant templates (rankine-feedwater, rankine-cogeneration) and a 
   test('rankine-feedwater-deaerator.json: five heaters; units read ("88 %", "3 K", "50 kPa")', () => {
     const p = parsePlantInputs('rankine-feedwater', deaerator.inputs)
     expect(p.ok && p.value.turbineEfficiency).toBe(0.88)
-    expect(p.ok && p.value.feedwaterHeaters![0]).toEqual({ kind: 'closed', pressure: 3e6, terminalTemperatureDifference: 3 })
+    expect(p.ok && p.value.feedwaterHeaters![0]).toEqual({
+      kind: 'closed',
+      pressure: 3e6,
+      terminalTemperatureDifference: 3,
+    })
     expect(p.ok && p.value.feedwaterHeaters![4]!.pressure).toBe(50e3)
     const r = solved(solveRankineSpec(deaerator))
     expect(r.heaters!.map((h) => h.name)).toContain('deaerator')
@@ -125,16 +156,67 @@ describe('steam-plant templates (rankine-feedwater, rankine-cogeneration) and a 
   test.each([
     ['rankine-feedwater', { ...base }, 'heaters', /at least one heater/],
     ['rankine-feedwater', { ...base, heaters: 'open' }, 'heaters', /list/],
-    ['rankine-feedwater', { ...base, heaters: [{ kind: 'open', pressure: '0.5 MPa' }, { kind: 'open', pressure: '2 MPa' }] }, 'heaters.1.pressure', /out of order/],
-    ['rankine-feedwater', { ...base, heaters: [{ kind: 'closed', pressure: '50 kPa', ttd: '-3 K' }] }, 'heaters.0.ttd', /hotter than the bled steam/],
-    ['rankine-feedwater', { ...base, heaters: [{ kind: 'closed', pressure: '1 MPa', ttd: 'warm' }] }, 'heaters.0.ttd', /temperature difference/],
-    ['rankine-feedwater', { ...base, heaters: [{ kind: 'open', pressure: '1 MPa', drains: 'forward' }] }, 'heaters.0.drains', /open/],
-    ['rankine-feedwater', { ...base, heaters: [{ kind: 'closed', pressure: '1 MPa', colour: 'red' }] }, 'heaters.0.colour', /unknown field/],
+    [
+      'rankine-feedwater',
+      {
+        ...base,
+        heaters: [
+          { kind: 'open', pressure: '0.5 MPa' },
+          { kind: 'open', pressure: '2 MPa' },
+        ],
+      },
+      'heaters.1.pressure',
+      /out of order/,
+    ],
+    [
+      'rankine-feedwater',
+      { ...base, heaters: [{ kind: 'closed', pressure: '50 kPa', ttd: '-3 K' }] },
+      'heaters.0.ttd',
+      /hotter than the bled steam/,
+    ],
+    [
+      'rankine-feedwater',
+      { ...base, heaters: [{ kind: 'closed', pressure: '1 MPa', ttd: 'warm' }] },
+      'heaters.0.ttd',
+      /temperature difference/,
+    ],
+    [
+      'rankine-feedwater',
+      { ...base, heaters: [{ kind: 'open', pressure: '1 MPa', drains: 'forward' }] },
+      'heaters.0.drains',
+      /open/,
+    ],
+    [
+      'rankine-feedwater',
+      { ...base, heaters: [{ kind: 'closed', pressure: '1 MPa', colour: 'red' }] },
+      'heaters.0.colour',
+      /unknown field/,
+    ],
     ['rankine-feedwater', { ...base, heaters: [{ kind: 'closed' }] }, 'heaters.0.pressure', /required/],
     ['rankine-cogeneration', { ...base, processPressure: '500 kPa' }, 'processFraction', /required/],
-    ['rankine-cogeneration', { ...base, processPressure: '500 kPa', processFraction: '120 %' }, 'processFraction', /between 0 and 1/],
-    ['rankine', { boilerPressure: '3 MPa', condenserPressure: '10 kPa', turbineInletQuality: '1.3' }, 'turbineInletQuality', /\[0, 1\]/],
-    ['rankine', { boilerPressure: '3 MPa', condenserPressure: '10 kPa', turbineInletQuality: '0.9', turbineInletTemperature: '300 °C' }, 'turbineInletQuality', /not both/],
+    [
+      'rankine-cogeneration',
+      { ...base, processPressure: '500 kPa', processFraction: '120 %' },
+      'processFraction',
+      /between 0 and 1/,
+    ],
+    [
+      'rankine',
+      { boilerPressure: '3 MPa', condenserPressure: '10 kPa', turbineInletQuality: '1.3' },
+      'turbineInletQuality',
+      /\[0, 1\]/,
+    ],
+    [
+      'rankine',
+      {
+        boilerPressure: '3 MPa',
+        condenserPressure: '10 kPa',
+        turbineInletQuality: '0.9',
+        turbineInletTemperature: '300 °C',
+      },
+      'turbineInletQuality',
+      /not both/,
+    ],
   ])('%s %o -> a clear message on %s', (id, inputs, property, message) => {
     const r = solveRankineTemplate(id, inputs)
     expect(r.ok).toBe(false)

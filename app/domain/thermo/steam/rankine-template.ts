@@ -26,15 +26,70 @@ import type { RankineInput, RankineResult } from './rankine.ts'
 
 const q = (value: number, unit: string): Quantity => ({ value, unit })
 
-const BOILER: TemplateInput = { name: 'boilerPressure', dimension: 'pressure', unit: 'MPa', description: 'boiler (high) pressure; pump exit and turbine inlet', required: true }
-const CONDENSER: TemplateInput = { name: 'condenserPressure', dimension: 'pressure', unit: 'kPa', description: 'condenser (low) pressure; the condenser exit is saturated liquid', required: true }
-const T_IN: TemplateInput = { name: 'turbineInletTemperature', dimension: 'temperature', unit: '°C or K', description: 'turbine inlet temperature (omit for saturated vapour at the boiler pressure)', required: false }
-const X_IN: TemplateInput = { name: 'turbineInletQuality', dimension: 'dimensionless', unit: '', description: 'turbine inlet quality 0 < x <= 1 for wet steam leaving the boiler (instead of turbineInletTemperature; below the critical pressure)', required: false }
-const ETA_P: TemplateInput = { name: 'pumpEfficiency', dimension: 'dimensionless', unit: '', description: 'pump isentropic efficiency, 0 < eta <= 1 (default 1), e.g. "0.85" or "85 %"', required: false }
-const ETA_T: TemplateInput = { name: 'turbineEfficiency', dimension: 'dimensionless', unit: '', description: 'turbine isentropic efficiency, 0 < eta <= 1 (default 1), applied to each turbine section', required: false }
-const RH_P: TemplateInput = { name: 'reheatPressure', dimension: 'pressure', unit: 'MPa', description: 'pressure at which the steam leaves the high-pressure turbine and is reheated', required: true }
-const RH_T: TemplateInput = { name: 'reheatTemperature', dimension: 'temperature', unit: '°C or K', description: 'temperature after reheating (low-pressure turbine inlet)', required: true }
-const FWH_P: TemplateInput = { name: 'feedwaterHeaterPressure', dimension: 'pressure', unit: 'MPa', description: 'pressure of the one open feedwater heater (steam bled from the turbine; heater exit saturated liquid)', required: true }
+const BOILER: TemplateInput = {
+  name: 'boilerPressure',
+  dimension: 'pressure',
+  unit: 'MPa',
+  description: 'boiler (high) pressure; pump exit and turbine inlet',
+  required: true,
+}
+const CONDENSER: TemplateInput = {
+  name: 'condenserPressure',
+  dimension: 'pressure',
+  unit: 'kPa',
+  description: 'condenser (low) pressure; the condenser exit is saturated liquid',
+  required: true,
+}
+const T_IN: TemplateInput = {
+  name: 'turbineInletTemperature',
+  dimension: 'temperature',
+  unit: '°C or K',
+  description: 'turbine inlet temperature (omit for saturated vapour at the boiler pressure)',
+  required: false,
+}
+const X_IN: TemplateInput = {
+  name: 'turbineInletQuality',
+  dimension: 'dimensionless',
+  unit: '',
+  description:
+    'turbine inlet quality 0 < x <= 1 for wet steam leaving the boiler (instead of turbineInletTemperature; below the critical pressure)',
+  required: false,
+}
+const ETA_P: TemplateInput = {
+  name: 'pumpEfficiency',
+  dimension: 'dimensionless',
+  unit: '',
+  description: 'pump isentropic efficiency, 0 < eta <= 1 (default 1), e.g. "0.85" or "85 %"',
+  required: false,
+}
+const ETA_T: TemplateInput = {
+  name: 'turbineEfficiency',
+  dimension: 'dimensionless',
+  unit: '',
+  description: 'turbine isentropic efficiency, 0 < eta <= 1 (default 1), applied to each turbine section',
+  required: false,
+}
+const RH_P: TemplateInput = {
+  name: 'reheatPressure',
+  dimension: 'pressure',
+  unit: 'MPa',
+  description: 'pressure at which the steam leaves the high-pressure turbine and is reheated',
+  required: true,
+}
+const RH_T: TemplateInput = {
+  name: 'reheatTemperature',
+  dimension: 'temperature',
+  unit: '°C or K',
+  description: 'temperature after reheating (low-pressure turbine inlet)',
+  required: true,
+}
+const FWH_P: TemplateInput = {
+  name: 'feedwaterHeaterPressure',
+  dimension: 'pressure',
+  unit: 'MPa',
+  description: 'pressure of the one open feedwater heater (steam bled from the turbine; heater exit saturated liquid)',
+  required: true,
+}
 const opt = (i: TemplateInput): TemplateInput => ({ ...i, required: false })
 
 export interface RankineTemplate {
@@ -55,13 +110,15 @@ export const RANKINE_TEMPLATES: readonly RankineTemplate[] = [
   {
     id: 'rankine-reheat',
     title: 'Rankine cycle with reheat (water/steam, IAPWS-IF97)',
-    description: 'As "rankine", with the steam expanded to reheatPressure, reheated to reheatTemperature and expanded to the condenser pressure.',
+    description:
+      'As "rankine", with the steam expanded to reheatPressure, reheated to reheatTemperature and expanded to the condenser pressure.',
     inputs: [BOILER, CONDENSER, T_IN, RH_P, RH_T, ETA_P, ETA_T, opt(FWH_P), X_IN],
   },
   {
     id: 'rankine-regenerative',
     title: 'Regenerative Rankine cycle with one open feedwater heater (water/steam, IAPWS-IF97)',
-    description: 'As "rankine", with a fraction y of the steam bled at feedwaterHeaterPressure into an open heater whose exit is saturated liquid; two pumps.',
+    description:
+      'As "rankine", with a fraction y of the steam bled at feedwaterHeaterPressure into an open heater whose exit is saturated liquid; two pumps.',
     inputs: [BOILER, CONDENSER, T_IN, FWH_P, ETA_P, ETA_T, opt(RH_P), opt(RH_T), X_IN],
   },
 ]
@@ -90,8 +147,20 @@ const HEATERS: PlantTemplateInput = {
     'feedwater heaters from the highest pressure to the lowest, each { "kind": "open" | "closed", "pressure": "0.5 MPa", "name"?: "deaerator", and for a closed heater "ttd"?: "3 K" (terminal temperature difference, default 0 K), "drains"?: "backward" (through a trap to the next lower heater or the condenser, default) | "forward" (pumped into the feedwater line) }',
   required: false,
 }
-const PROC_P: PlantTemplateInput = { name: 'processPressure', dimension: 'pressure', unit: 'kPa', description: 'pressure at which steam is extracted to the process heater (which returns saturated liquid)', required: true }
-const PROC_F: PlantTemplateInput = { name: 'processFraction', dimension: 'dimensionless', unit: '', description: 'fraction of the boiler flow extracted to the process heater, 0 < f < 1, e.g. "0.7" or "70 %"', required: true }
+const PROC_P: PlantTemplateInput = {
+  name: 'processPressure',
+  dimension: 'pressure',
+  unit: 'kPa',
+  description: 'pressure at which steam is extracted to the process heater (which returns saturated liquid)',
+  required: true,
+}
+const PROC_F: PlantTemplateInput = {
+  name: 'processFraction',
+  dimension: 'dimensionless',
+  unit: '',
+  description: 'fraction of the boiler flow extracted to the process heater, 0 < f < 1, e.g. "0.7" or "70 %"',
+  required: true,
+}
 
 export const STEAM_PLANT_TEMPLATES: readonly PlantTemplate[] = [
   {
@@ -111,7 +180,10 @@ export const STEAM_PLANT_TEMPLATES: readonly PlantTemplate[] = [
 ]
 
 export function isRankineTemplate(id: unknown): boolean {
-  return typeof id === 'string' && (RANKINE_TEMPLATES.some((t) => t.id === id) || STEAM_PLANT_TEMPLATES.some((t) => t.id === id))
+  return (
+    typeof id === 'string' &&
+    (RANKINE_TEMPLATES.some((t) => t.id === id) || STEAM_PLANT_TEMPLATES.some((t) => t.id === id))
+  )
 }
 
 const TTD_RE = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(K|°C|degC|℃)?\s*$/
@@ -120,38 +192,110 @@ const TTD_RE = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(K|°C|degC|�
 function readDifference(x: unknown, where: string): { ok: true; value: number } | RankineFailure {
   if (typeof x === 'number' && Number.isFinite(x)) return { ok: true, value: x }
   const m = typeof x === 'string' ? TTD_RE.exec(x) : null
-  if (!m) return { ok: false, error: { code: 'invalid-spec', message: `${where}: give a temperature difference such as "3 K" (a difference in °C is the same number of kelvins), not ${JSON.stringify(x)}`, property: where } }
+  if (!m)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `${where}: give a temperature difference such as "3 K" (a difference in °C is the same number of kelvins), not ${JSON.stringify(x)}`,
+        property: where,
+      },
+    }
   return { ok: true, value: Number(m[1]) }
 }
 
 function parseHeaters(raw: unknown): { ok: true; value: FeedwaterHeaterInput[] } | RankineFailure {
-  if (!Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'heaters must be a list of { kind, pressure, ... } objects, highest pressure first', property: 'heaters' } }
+  if (!Array.isArray(raw))
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: 'heaters must be a list of { kind, pressure, ... } objects, highest pressure first',
+        property: 'heaters',
+      },
+    }
   const out: FeedwaterHeaterInput[] = []
   const keys = new Set(['kind', 'pressure', 'ttd', 'drains', 'name'])
   for (let i = 0; i < raw.length; i++) {
     const h = raw[i] as unknown
     const where = `heaters.${i}`
-    if (typeof h !== 'object' || h === null || Array.isArray(h)) return { ok: false, error: { code: 'invalid-spec', message: `heater ${i + 1} must be an object like { "kind": "open", "pressure": "0.5 MPa" }`, property: where } }
+    if (typeof h !== 'object' || h === null || Array.isArray(h))
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `heater ${i + 1} must be an object like { "kind": "open", "pressure": "0.5 MPa" }`,
+          property: where,
+        },
+      }
     const r = h as Record<string, unknown>
-    for (const k of Object.keys(r)) if (!keys.has(k)) return { ok: false, error: { code: 'invalid-spec', message: `heater ${i + 1}: unknown field "${k}"; a heater takes ${[...keys].join(', ')}`, property: `${where}.${k}` } }
-    if (r.kind !== 'open' && r.kind !== 'closed') return { ok: false, error: { code: 'invalid-spec', message: `heater ${i + 1}: kind must be "open" or "closed"`, property: `${where}.kind` } }
-    if (r.pressure === undefined) return { ok: false, error: { code: 'invalid-spec', message: `heater ${i + 1}: pressure is required, e.g. "0.5 MPa"`, property: `${where}.pressure` } }
+    for (const k of Object.keys(r))
+      if (!keys.has(k))
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `heater ${i + 1}: unknown field "${k}"; a heater takes ${[...keys].join(', ')}`,
+            property: `${where}.${k}`,
+          },
+        }
+    if (r.kind !== 'open' && r.kind !== 'closed')
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `heater ${i + 1}: kind must be "open" or "closed"`,
+          property: `${where}.kind`,
+        },
+      }
+    if (r.pressure === undefined)
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `heater ${i + 1}: pressure is required, e.g. "0.5 MPa"`,
+          property: `${where}.pressure`,
+        },
+      }
     const p = readValue(r.pressure, ['pressure'], `${where}.pressure`)
     if (!p.ok) return p
     const heater: FeedwaterHeaterInput = { kind: r.kind, pressure: p.value.value }
     if (r.name !== undefined) {
-      if (typeof r.name !== 'string' || r.name.trim() === '' || r.name.length > 60) return { ok: false, error: { code: 'invalid-spec', message: `heater ${i + 1}: name must be a short text (at most 60 characters)`, property: `${where}.name` } }
+      if (typeof r.name !== 'string' || r.name.trim() === '' || r.name.length > 60)
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `heater ${i + 1}: name must be a short text (at most 60 characters)`,
+            property: `${where}.name`,
+          },
+        }
       heater.name = r.name.trim()
     }
     if (r.kind === 'open' && (r.ttd !== undefined || r.drains !== undefined))
-      return { ok: false, error: { code: 'invalid-spec', message: `heater ${i + 1} is open (direct contact): it takes no "ttd" or "drains"; its exit is saturated liquid`, property: `${where}.${r.ttd !== undefined ? 'ttd' : 'drains'}` } }
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `heater ${i + 1} is open (direct contact): it takes no "ttd" or "drains"; its exit is saturated liquid`,
+          property: `${where}.${r.ttd !== undefined ? 'ttd' : 'drains'}`,
+        },
+      }
     if (r.ttd !== undefined) {
       const t = readDifference(r.ttd, `${where}.ttd`)
       if (!t.ok) return t
       heater.terminalTemperatureDifference = t.value
     }
     if (r.drains !== undefined) {
-      if (r.drains !== 'backward' && r.drains !== 'forward') return { ok: false, error: { code: 'invalid-spec', message: `heater ${i + 1}: drains must be "backward" or "forward"`, property: `${where}.drains` } }
+      if (r.drains !== 'backward' && r.drains !== 'forward')
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `heater ${i + 1}: drains must be "backward" or "forward"`,
+            property: `${where}.drains`,
+          },
+        }
       heater.drains = r.drains
     }
     out.push(heater)
@@ -162,19 +306,44 @@ function parseHeaters(raw: unknown): { ok: true; value: FeedwaterHeaterInput[] }
 /** Steam-plant template inputs (strings with units, and the heater list) -> numeric PlantInput (SI). Never throws. */
 export function parsePlantInputs(id: string, raw: unknown): { ok: true; value: PlantInput } | RankineFailure {
   const t = STEAM_PLANT_TEMPLATES.find((x) => x.id === id)
-  if (!t) return { ok: false, error: { code: 'invalid-spec', message: `unknown steam-plant template "${id}": use one of ${STEAM_PLANT_TEMPLATES.map((x) => x.id).join(', ')}`, property: 'template' } }
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
+  if (!t)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `unknown steam-plant template "${id}": use one of ${STEAM_PLANT_TEMPLATES.map((x) => x.id).join(', ')}`,
+        property: 'template',
+      },
+    }
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+    return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
   const r = raw as Record<string, unknown>
   const known = new Set(t.inputs.map((i) => i.name))
   for (const k of Object.keys(r)) {
-    if (!known.has(k)) return { ok: false, error: { code: 'invalid-spec', message: `unknown input "${k}"; this template takes ${[...known].join(', ')}`, property: k } }
+    if (!known.has(k))
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `unknown input "${k}"; this template takes ${[...known].join(', ')}`,
+          property: k,
+        },
+      }
   }
   const num: Record<string, number> = {}
   let heaters: FeedwaterHeaterInput[] | undefined
   for (const inp of t.inputs) {
     const x = r[inp.name]
     if (x === undefined) {
-      if (inp.required) return { ok: false, error: { code: 'invalid-spec', message: `input "${inp.name}" is required: ${inp.description}`, property: inp.name } }
+      if (inp.required)
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `input "${inp.name}" is required: ${inp.description}`,
+            property: inp.name,
+          },
+        }
       continue
     }
     if (inp.dimension === 'heater list') {
@@ -183,14 +352,34 @@ export function parsePlantInputs(id: string, raw: unknown): { ok: true; value: P
       heaters = h.value
       continue
     }
-    const v = readValue(typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x, [inp.dimension as Dimension], inp.name)
+    const v = readValue(
+      typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x,
+      [inp.dimension as Dimension],
+      inp.name,
+    )
     if (!v.ok) return v
     num[inp.name] = v.value.value
   }
   const hasRhP = num.reheatPressure !== undefined
   const hasRhT = num.reheatTemperature !== undefined
-  if (hasRhP !== hasRhT) return { ok: false, error: { code: 'invalid-spec', message: 'give both reheatPressure and reheatTemperature, or neither', property: hasRhP ? 'reheatTemperature' : 'reheatPressure' } }
-  if (id === 'rankine-feedwater' && (!heaters || heaters.length === 0)) return { ok: false, error: { code: 'invalid-spec', message: 'rankine-feedwater needs at least one heater in "heaters"', property: 'heaters' } }
+  if (hasRhP !== hasRhT)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: 'give both reheatPressure and reheatTemperature, or neither',
+        property: hasRhP ? 'reheatTemperature' : 'reheatPressure',
+      },
+    }
+  if (id === 'rankine-feedwater' && (!heaters || heaters.length === 0))
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: 'rankine-feedwater needs at least one heater in "heaters"',
+        property: 'heaters',
+      },
+    }
   const input: PlantInput = { boilerPressure: num.boilerPressure!, condenserPressure: num.condenserPressure! }
   if (num.turbineInletTemperature !== undefined) input.turbineInletTemperature = num.turbineInletTemperature
   if (num.turbineInletQuality !== undefined) input.turbineInletQuality = num.turbineInletQuality
@@ -198,14 +387,19 @@ export function parsePlantInputs(id: string, raw: unknown): { ok: true; value: P
   if (num.turbineEfficiency !== undefined) input.turbineEfficiency = num.turbineEfficiency
   if (hasRhP) input.reheat = { pressure: num.reheatPressure!, temperature: num.reheatTemperature! }
   if (heaters) input.feedwaterHeaters = heaters
-  if (num.processPressure !== undefined) input.process = { pressure: num.processPressure, fraction: num.processFraction! }
+  if (num.processPressure !== undefined)
+    input.process = { pressure: num.processPressure, fraction: num.processFraction! }
   return { ok: true, value: input }
 }
 
 /** Map a plant-solver error property (feedwaterHeaters.1.pressure) to the spec's name (heaters.1.pressure). */
 function specProperty(p: string | undefined): string | undefined {
   if (!p) return p
-  return p.replace(/^feedwaterHeaters/, 'heaters').replace(/\.terminalTemperatureDifference$/, '.ttd').replace(/^process\.pressure$/, 'processPressure').replace(/^process\.fraction$/, 'processFraction')
+  return p
+    .replace(/^feedwaterHeaters/, 'heaters')
+    .replace(/\.terminalTemperatureDifference$/, '.ttd')
+    .replace(/^process\.pressure$/, 'processPressure')
+    .replace(/^process\.fraction$/, 'processFraction')
 }
 
 export interface RankineFailure {
@@ -216,27 +410,64 @@ export interface RankineFailure {
 /** Template inputs (strings with units) -> numeric RankineInput (SI). Never throws. */
 export function parseRankineInputs(id: string, raw: unknown): { ok: true; value: RankineInput } | RankineFailure {
   const t = RANKINE_TEMPLATES.find((x) => x.id === id)
-  if (!t) return { ok: false, error: { code: 'invalid-spec', message: `unknown Rankine template "${id}": use one of ${RANKINE_TEMPLATES.map((x) => x.id).join(', ')}`, property: 'template' } }
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
+  if (!t)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `unknown Rankine template "${id}": use one of ${RANKINE_TEMPLATES.map((x) => x.id).join(', ')}`,
+        property: 'template',
+      },
+    }
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+    return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
   const r = raw as Record<string, unknown>
   const known = new Set(t.inputs.map((i) => i.name))
   for (const k of Object.keys(r)) {
-    if (!known.has(k)) return { ok: false, error: { code: 'invalid-spec', message: `unknown input "${k}"; this template takes ${[...known].join(', ')}`, property: k } }
+    if (!known.has(k))
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `unknown input "${k}"; this template takes ${[...known].join(', ')}`,
+          property: k,
+        },
+      }
   }
   const num: Record<string, number> = {}
   for (const inp of t.inputs) {
     const x = r[inp.name]
     if (x === undefined) {
-      if (inp.required) return { ok: false, error: { code: 'invalid-spec', message: `input "${inp.name}" is required: ${inp.description}`, property: inp.name } }
+      if (inp.required)
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `input "${inp.name}" is required: ${inp.description}`,
+            property: inp.name,
+          },
+        }
       continue
     }
-    const v = readValue(typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x, [inp.dimension as Dimension], inp.name)
+    const v = readValue(
+      typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x,
+      [inp.dimension as Dimension],
+      inp.name,
+    )
     if (!v.ok) return v
     num[inp.name] = v.value.value
   }
   const hasRhP = num.reheatPressure !== undefined
   const hasRhT = num.reheatTemperature !== undefined
-  if (hasRhP !== hasRhT) return { ok: false, error: { code: 'invalid-spec', message: 'give both reheatPressure and reheatTemperature, or neither', property: hasRhP ? 'reheatTemperature' : 'reheatPressure' } }
+  if (hasRhP !== hasRhT)
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: 'give both reheatPressure and reheatTemperature, or neither',
+        property: hasRhP ? 'reheatTemperature' : 'reheatPressure',
+      },
+    }
   const input: RankineInput = { boilerPressure: num.boilerPressure!, condenserPressure: num.condenserPressure! }
   if (num.turbineInletTemperature !== undefined) input.turbineInletTemperature = num.turbineInletTemperature
   if (num.turbineInletQuality !== undefined) input.turbineInletQuality = num.turbineInletQuality
@@ -331,22 +562,20 @@ export function formatRankine(id: string, r: RankineResult, convention: Conventi
     : {}
   const heaters = plant
     ? {
-        heaters: plant.heaters.map(
-          (h): FormattedHeater => ({
-            name: h.name,
-            kind: h.kind,
-            drains: h.drains,
-            pressure: q(h.pressure, 'Pa'),
-            bleedFraction: q(h.bleedFraction, ''),
-            bleedTemperature: q(h.bleedTemperature, 'K'),
-            feedwaterInletEnthalpy: q(h.feedwaterInletEnthalpy, J),
-            feedwaterExitTemperature: q(h.feedwaterExitTemperature, 'K'),
-            feedwaterExitEnthalpy: q(h.feedwaterExitEnthalpy, J),
-            feedwaterFlow: q(h.feedwaterFlow, ''),
-            drainsIn: q(h.drainsIn, ''),
-            heatTransferred: q(h.heatTransferred, J),
-          }),
-        ),
+        heaters: plant.heaters.map((h): FormattedHeater => ({
+          name: h.name,
+          kind: h.kind,
+          drains: h.drains,
+          pressure: q(h.pressure, 'Pa'),
+          bleedFraction: q(h.bleedFraction, ''),
+          bleedTemperature: q(h.bleedTemperature, 'K'),
+          feedwaterInletEnthalpy: q(h.feedwaterInletEnthalpy, J),
+          feedwaterExitTemperature: q(h.feedwaterExitTemperature, 'K'),
+          feedwaterExitEnthalpy: q(h.feedwaterExitEnthalpy, J),
+          feedwaterFlow: q(h.feedwaterFlow, ''),
+          drainsIn: q(h.drainsIn, ''),
+          heatTransferred: q(h.heatTransferred, J),
+        })),
       }
     : {}
   return {
@@ -389,7 +618,11 @@ export function formatRankine(id: string, r: RankineResult, convention: Conventi
 }
 
 /** Solve a Rankine template from its inputs (strings with units). Never throws. */
-export function solveRankineTemplate(id: string, inputs: unknown, convention: Convention = 'engineering'): FormattedRankine | RankineFailure {
+export function solveRankineTemplate(
+  id: string,
+  inputs: unknown,
+  convention: Convention = 'engineering',
+): FormattedRankine | RankineFailure {
   try {
     if (STEAM_PLANT_TEMPLATES.some((t) => t.id === id)) {
       const p = parsePlantInputs(id, inputs)
@@ -403,12 +636,31 @@ export function solveRankineTemplate(id: string, inputs: unknown, convention: Co
     }
     const p = parseRankineInputs(id, inputs)
     if (!p.ok) return p
-    if (id === 'rankine-reheat' && !p.value.reheat) return { ok: false, error: { code: 'invalid-spec', message: 'rankine-reheat needs reheatPressure and reheatTemperature', property: 'reheatPressure' } }
+    if (id === 'rankine-reheat' && !p.value.reheat)
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: 'rankine-reheat needs reheatPressure and reheatTemperature',
+          property: 'reheatPressure',
+        },
+      }
     const r = solveRankine(p.value)
-    if (!r.ok) return { ok: false, error: { code: r.error.code, message: r.error.message, ...(r.error.property ? { property: r.error.property } : {}) } }
+    if (!r.ok)
+      return {
+        ok: false,
+        error: {
+          code: r.error.code,
+          message: r.error.message,
+          ...(r.error.property ? { property: r.error.property } : {}),
+        },
+      }
     return formatRankine(id, r.value, convention)
   } catch (e) {
-    return { ok: false, error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` } }
+    return {
+      ok: false,
+      error: { code: 'internal', message: `internal error: ${e instanceof Error ? e.message : String(e)}` },
+    }
   }
 }
 
@@ -417,10 +669,27 @@ export function solveRankineTemplate(id: string, inputs: unknown, convention: Co
  * reads). Never throws.
  */
 export function solveRankineSpec(raw: unknown): FormattedRankine | RankineFailure {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { ok: false, error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template"' } }
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+    return { ok: false, error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template"' } }
   const r = raw as Record<string, unknown>
   const conv = r.convention ?? 'engineering'
-  if (!isConvention(conv)) return { ok: false, error: { code: 'invalid-spec', message: `convention must be "chemistry" or "engineering", not ${JSON.stringify(conv)}`, property: 'convention' } }
-  if (typeof r.template !== 'string' || !isRankineTemplate(r.template)) return { ok: false, error: { code: 'invalid-spec', message: `template must be one of ${[...RANKINE_TEMPLATES, ...STEAM_PLANT_TEMPLATES].map((t) => t.id).join(', ')}`, property: 'template' } }
+  if (!isConvention(conv))
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `convention must be "chemistry" or "engineering", not ${JSON.stringify(conv)}`,
+        property: 'convention',
+      },
+    }
+  if (typeof r.template !== 'string' || !isRankineTemplate(r.template))
+    return {
+      ok: false,
+      error: {
+        code: 'invalid-spec',
+        message: `template must be one of ${[...RANKINE_TEMPLATES, ...STEAM_PLANT_TEMPLATES].map((t) => t.id).join(', ')}`,
+        property: 'template',
+      },
+    }
   return solveRankineTemplate(r.template, r.inputs ?? {}, conv)
 }

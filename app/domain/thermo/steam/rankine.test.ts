@@ -74,12 +74,40 @@ describe('textbook examples (Cengel & Boles, 7th ed., from memory)', () => {
 describe('energy balances and sign conventions (closed form)', () => {
   const cases = [
     { boilerPressure: 8e6, condenserPressure: 10e3, turbineInletTemperature: 500 + C },
-    { boilerPressure: 8e6, condenserPressure: 10e3, turbineInletTemperature: 500 + C, pumpEfficiency: 0.8, turbineEfficiency: 0.85 },
-    { boilerPressure: 25e6, condenserPressure: 8e3, turbineInletTemperature: 650 + C, reheat: { pressure: 3e6, temperature: 600 + C } },
-    { boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 550 + C, openFeedwaterHeater: { pressure: 0.5e6 }, turbineEfficiency: 0.9 },
-    { boilerPressure: 12e6, condenserPressure: 10e3, turbineInletTemperature: 550 + C, openFeedwaterHeater: { pressure: 2e6 }, reheat: { pressure: 0.8e6, temperature: 500 + C } },
+    {
+      boilerPressure: 8e6,
+      condenserPressure: 10e3,
+      turbineInletTemperature: 500 + C,
+      pumpEfficiency: 0.8,
+      turbineEfficiency: 0.85,
+    },
+    {
+      boilerPressure: 25e6,
+      condenserPressure: 8e3,
+      turbineInletTemperature: 650 + C,
+      reheat: { pressure: 3e6, temperature: 600 + C },
+    },
+    {
+      boilerPressure: 10e6,
+      condenserPressure: 10e3,
+      turbineInletTemperature: 550 + C,
+      openFeedwaterHeater: { pressure: 0.5e6 },
+      turbineEfficiency: 0.9,
+    },
+    {
+      boilerPressure: 12e6,
+      condenserPressure: 10e3,
+      turbineInletTemperature: 550 + C,
+      openFeedwaterHeater: { pressure: 2e6 },
+      reheat: { pressure: 0.8e6, temperature: 500 + C },
+    },
     { boilerPressure: 5e6, condenserPressure: 20e3 }, // saturated vapour at the turbine inlet
-    { boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 1200, reheat: { pressure: 2e6, temperature: 1150 } }, // IF97 region 5 at the turbine inlet
+    {
+      boilerPressure: 10e6,
+      condenserPressure: 10e3,
+      turbineInletTemperature: 1200,
+      reheat: { pressure: 2e6, temperature: 1150 },
+    }, // IF97 region 5 at the turbine inlet
     { boilerPressure: 4e6, condenserPressure: 10e3, turbineInletQuality: 0.9 }, // wet turbine inlet
   ]
   test.each(cases)('first law over the cycle: q_in - q_out = w_turbine - w_pump (%o)', (input) => {
@@ -124,8 +152,19 @@ describe('bad input is a result error, never a throw', () => {
     [{ boilerPressure: 120e6, condenserPressure: 10e3, turbineInletTemperature: 800 }, 'p'],
     [{ boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 2300 }, 'T'],
     [{ boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 500 }, 'turbineInletTemperature'],
-    [{ boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 800, pumpEfficiency: 1.2 }, 'pumpEfficiency'],
-    [{ boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 800, reheat: { pressure: 20e6, temperature: 800 } }, 'reheat.pressure'],
+    [
+      { boilerPressure: 10e6, condenserPressure: 10e3, turbineInletTemperature: 800, pumpEfficiency: 1.2 },
+      'pumpEfficiency',
+    ],
+    [
+      {
+        boilerPressure: 10e6,
+        condenserPressure: 10e3,
+        turbineInletTemperature: 800,
+        reheat: { pressure: 20e6, temperature: 800 },
+      },
+      'reheat.pressure',
+    ],
     [{ boilerPressure: Number.NaN, condenserPressure: 10e3 }, 'boilerPressure'],
   ])('%o -> error on %s', (input, property) => {
     const r = solveRankine(input)

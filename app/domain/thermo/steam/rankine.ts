@@ -116,22 +116,63 @@ function bad(message: string, property?: string): SteamResult<never> {
 /** The turbine-inlet quality, if given: in (0, 1], below the critical pressure, not with a temperature. */
 export function checkInletQuality(x: number, pB: number, T: number | undefined): SteamError | null {
   const property = 'turbineInletQuality'
-  if (typeof x !== 'number' || !Number.isFinite(x)) return { code: 'invalid-input', property, message: `turbine inlet quality must be a finite number (got ${String(x)})` }
-  if (T !== undefined) return { code: 'invalid-input', property, message: 'give the turbine inlet temperature or its quality, not both: wet steam is fixed by pressure and quality, its temperature is the saturation temperature' }
-  if (x < 0 || x > 1) return { code: 'invalid-input', property, message: `turbine inlet quality x = ${x} must lie in [0, 1] (0 saturated liquid, 1 saturated vapour)` }
-  if (x === 0) return { code: 'invalid-input', property, message: 'turbine inlet quality x = 0 is saturated liquid: a steam turbine needs vapour at its inlet (give 0 < x <= 1)' }
-  if (pB >= STEAM_LIMITS.P_CRIT) return { code: 'invalid-input', property, message: `at the boiler pressure ${pB} Pa (not below the critical pressure 22.064 MPa) there is no wet steam: give turbineInletTemperature instead` }
+  if (typeof x !== 'number' || !Number.isFinite(x))
+    return {
+      code: 'invalid-input',
+      property,
+      message: `turbine inlet quality must be a finite number (got ${String(x)})`,
+    }
+  if (T !== undefined)
+    return {
+      code: 'invalid-input',
+      property,
+      message:
+        'give the turbine inlet temperature or its quality, not both: wet steam is fixed by pressure and quality, its temperature is the saturation temperature',
+    }
+  if (x < 0 || x > 1)
+    return {
+      code: 'invalid-input',
+      property,
+      message: `turbine inlet quality x = ${x} must lie in [0, 1] (0 saturated liquid, 1 saturated vapour)`,
+    }
+  if (x === 0)
+    return {
+      code: 'invalid-input',
+      property,
+      message:
+        'turbine inlet quality x = 0 is saturated liquid: a steam turbine needs vapour at its inlet (give 0 < x <= 1)',
+    }
+  if (pB >= STEAM_LIMITS.P_CRIT)
+    return {
+      code: 'invalid-input',
+      property,
+      message: `at the boiler pressure ${pB} Pa (not below the critical pressure 22.064 MPa) there is no wet steam: give turbineInletTemperature instead`,
+    }
   return null
 }
 
 export function inletDescription(input: { turbineInletTemperature?: number; turbineInletQuality?: number }): string {
-  if (input.turbineInletQuality !== undefined && input.turbineInletQuality < 1) return `boiler exit, wet steam x = ${input.turbineInletQuality} (turbine inlet)`
-  if (input.turbineInletQuality === 1 || input.turbineInletTemperature === undefined) return 'boiler exit, saturated vapour (turbine inlet)'
+  if (input.turbineInletQuality !== undefined && input.turbineInletQuality < 1)
+    return `boiler exit, wet steam x = ${input.turbineInletQuality} (turbine inlet)`
+  if (input.turbineInletQuality === 1 || input.turbineInletTemperature === undefined)
+    return 'boiler exit, saturated vapour (turbine inlet)'
   return 'boiler exit (turbine inlet)'
 }
 
 function point(label: string, description: string, st: SteamState, massFraction: number): RankineStatePoint {
-  return { label, description, p: st.p, T: st.T, h: st.h, u: st.u, s: st.s, v: st.v, x: st.x, phase: st.phase, massFraction }
+  return {
+    label,
+    description,
+    p: st.p,
+    T: st.T,
+    h: st.h,
+    u: st.u,
+    s: st.s,
+    v: st.v,
+    x: st.x,
+    phase: st.phase,
+    massFraction,
+  }
 }
 
 /** Solve a Rankine cycle. See RankineInput for the variants and units. */
@@ -161,14 +202,26 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
   const rh = input.reheat
   const fwh = input.openFeedwaterHeater
   if (rh) {
-    if (!Number.isFinite(rh.pressure) || !Number.isFinite(rh.temperature)) return bad('reheat pressure and temperature must be finite numbers', 'reheat')
-    if (!(rh.pressure > pC && rh.pressure < pB)) return bad('reheat pressure must lie between the condenser and boiler pressures', 'reheat.pressure')
+    if (!Number.isFinite(rh.pressure) || !Number.isFinite(rh.temperature))
+      return bad('reheat pressure and temperature must be finite numbers', 'reheat')
+    if (!(rh.pressure > pC && rh.pressure < pB))
+      return bad('reheat pressure must lie between the condenser and boiler pressures', 'reheat.pressure')
   }
   if (fwh) {
-    if (!Number.isFinite(fwh.pressure)) return bad('feedwater-heater pressure must be a finite number', 'openFeedwaterHeater')
-    if (!(fwh.pressure > pC && fwh.pressure < pB)) return bad('feedwater-heater pressure must lie between the condenser and boiler pressures', 'openFeedwaterHeater.pressure')
-    if (fwh.pressure >= STEAM_LIMITS.P_CRIT) return bad('feedwater-heater pressure must be below the critical pressure (its exit is saturated liquid)', 'openFeedwaterHeater.pressure')
-    if (rh && fwh.pressure === rh.pressure) return bad('feedwater-heater and reheat pressures must differ', 'openFeedwaterHeater.pressure')
+    if (!Number.isFinite(fwh.pressure))
+      return bad('feedwater-heater pressure must be a finite number', 'openFeedwaterHeater')
+    if (!(fwh.pressure > pC && fwh.pressure < pB))
+      return bad(
+        'feedwater-heater pressure must lie between the condenser and boiler pressures',
+        'openFeedwaterHeater.pressure',
+      )
+    if (fwh.pressure >= STEAM_LIMITS.P_CRIT)
+      return bad(
+        'feedwater-heater pressure must be below the critical pressure (its exit is saturated liquid)',
+        'openFeedwaterHeater.pressure',
+      )
+    if (rh && fwh.pressure === rh.pressure)
+      return bad('feedwater-heater and reheat pressures must differ', 'openFeedwaterHeater.pressure')
   }
 
   const states: RankineStatePoint[] = []
@@ -230,7 +283,11 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
     if (e) return fail(e)
     inlet = stateFromPx(pB, xIn)
   } else if (input.turbineInletTemperature === undefined) {
-    if (pB >= STEAM_LIMITS.P_CRIT) return bad('give turbineInletTemperature: above the critical pressure there is no saturated vapour', 'turbineInletTemperature')
+    if (pB >= STEAM_LIMITS.P_CRIT)
+      return bad(
+        'give turbineInletTemperature: above the critical pressure there is no saturated vapour',
+        'turbineInletTemperature',
+      )
     inlet = stateFromPx(pB, 1)
   } else {
     const T3 = input.turbineInletTemperature
@@ -238,7 +295,10 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
     if (pB < STEAM_LIMITS.P_CRIT) {
       const Ts = saturationTemperature(pB)
       if (Ts.ok && T3 <= Ts.value)
-        return bad(`turbine inlet temperature ${T3} K is not above the saturation temperature ${Ts.value} K at the boiler pressure: the steam would not be superheated vapour`, 'turbineInletTemperature')
+        return bad(
+          `turbine inlet temperature ${T3} K is not above the saturation temperature ${Ts.value} K at the boiler pressure: the steam would not be superheated vapour`,
+          'turbineInletTemperature',
+        )
     }
     inlet = stateFromPT(pB, T3)
   }
@@ -259,7 +319,8 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
   let turbineWork = 0
   let reheatQ = 0
   let section = 0
-  const sectionNames = events.length === 0 ? ['turbine'] : ['high-pressure turbine', 'low-pressure turbine', 'turbine section 3']
+  const sectionNames =
+    events.length === 0 ? ['turbine'] : ['high-pressure turbine', 'low-pressure turbine', 'turbine section 3']
   const turbineWorks: { name: string; w: number }[] = []
   let bleedPoint: RankineStatePoint | null = null
   for (const ev of events) {
@@ -273,7 +334,8 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
       add('high-pressure turbine exit (to the reheater)', out.value, m)
       const re = stateFromPT(ev.p, rh!.temperature)
       if (!re.ok) return re
-      if (!(re.value.h > out.value.h)) return bad('reheat temperature must be above the high-pressure turbine exit temperature', 'reheat.temperature')
+      if (!(re.value.h > out.value.h))
+        return bad('reheat temperature must be above the high-pressure turbine exit temperature', 'reheat.temperature')
       add('reheater exit (low-pressure turbine inlet)', re.value, m)
       reheatQ = m * (re.value.h - out.value.h)
       cur = re.value
@@ -281,7 +343,11 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
       // Open feedwater heater: y h_bleed + (1 - y) h_pumpI_out = h_heater_out.
       const hb = out.value.h
       y = (heaterOut!.h - pumpIOut!.h) / (hb - pumpIOut!.h)
-      if (!(y > 0 && y < 1)) return bad(`the bled steam cannot heat the feedwater at this feedwater-heater pressure (bleed fraction ${y})`, 'openFeedwaterHeater.pressure')
+      if (!(y > 0 && y < 1))
+        return bad(
+          `the bled steam cannot heat the feedwater at this feedwater-heater pressure (bleed fraction ${y})`,
+          'openFeedwaterHeater.pressure',
+        )
       bleedPoint = add('turbine extraction to the open feedwater heater', out.value, m)
       cur = out.value
       m = 1 - y
@@ -322,14 +388,16 @@ export function solveRankine(input: RankineInput): SteamResult<RankineResult> {
   devicesEng.push({ device: 'condenser', heat: -heatOut, work: 0 })
   const engineering: ConventionReport = {
     convention: 'engineering',
-    statement: 'ΔU = Q − W: Q is heat added to the working fluid, W is work done BY the working fluid (turbine work positive, pump work negative).',
+    statement:
+      'ΔU = Q − W: Q is heat added to the working fluid, W is work done BY the working fluid (turbine work positive, pump work negative).',
     devices: devicesEng,
     netHeat: heatIn - heatOut,
     netWork,
   }
   const chemistry: ConventionReport = {
     convention: 'chemistry',
-    statement: 'ΔU = q + w: q is heat added to the working fluid, w is work done ON the working fluid (pump work positive, turbine work negative).',
+    statement:
+      'ΔU = q + w: q is heat added to the working fluid, w is work done ON the working fluid (pump work positive, turbine work negative).',
     devices: devicesEng.map((d) => ({ device: d.device, heat: d.heat, work: d.work === 0 ? 0 : -d.work })),
     netHeat: heatIn - heatOut,
     netWork: -netWork,

@@ -55,7 +55,14 @@ describe('piston-cylinder processes of water', () => {
     const p = 20 * psia
     const T1 = (70 - 32) / 1.8 + C
     const h1 = value(stateFromPT(p, T1)).h
-    const r = value(solveSteamCycle({ system: 'closed', mass: m, states: [{ p, T: T1 }, { h: h1 + (3450 * Btu) / m }], steps: [{ process: 'isobaric' }] }))
+    const r = value(
+      solveSteamCycle({
+        system: 'closed',
+        mass: m,
+        states: [{ p, T: T1 }, { h: h1 + (3450 * Btu) / m }],
+        steps: [{ process: 'isobaric' }],
+      }),
+    )
     const step = r.steps[0]!
     expect(rel((m * step.dS * (5 / 9)) / Btu, 5.105)).toBeLessThan(0.005)
     expect(rel(m * step.q, 3450 * Btu)).toBeLessThan(1e-9) // isobaric, closed: Q = ΔH (closed form)
@@ -66,7 +73,13 @@ describe('piston-cylinder processes of water', () => {
     solveSteamCycle({
       system: 'closed',
       mass: 2,
-      states: [{ name: 'A', p: 1e6, x: 0.5 }, { name: 'B', x: 1 }, { name: 'C', p: 0.2e6 }, { name: 'D', T: 500 }, { name: 'E', p: 0.4e6 }],
+      states: [
+        { name: 'A', p: 1e6, x: 0.5 },
+        { name: 'B', x: 1 },
+        { name: 'C', p: 0.2e6 },
+        { name: 'D', T: 500 },
+        { name: 'E', p: 0.4e6 },
+      ],
       steps: [{ process: 'isobaric' }, { process: 'isentropic' }, { process: 'isochoric' }, { process: 'isothermal' }],
     }),
   )
@@ -78,7 +91,8 @@ describe('piston-cylinder processes of water', () => {
     expect(rel(E!.T, D!.T)).toBeLessThan(1e-12)
   })
   test('first law per step: q − w = ΔU (closed form), and each process rule', () => {
-    for (const s of closed.steps) expect(Math.abs(s.q - s.w - s.dU)).toBeLessThan(1e-6 * Math.max(1, Math.abs(s.q), Math.abs(s.dU)))
+    for (const s of closed.steps)
+      expect(Math.abs(s.q - s.w - s.dU)).toBeLessThan(1e-6 * Math.max(1, Math.abs(s.q), Math.abs(s.dU)))
     const [iso, isen, isoch, isoth] = closed.steps
     const [A, B] = closed.states
     expect(iso!.w).toBeCloseTo(A!.p * (B!.v - A!.v), 6) // W = p Δv
@@ -88,13 +102,32 @@ describe('piston-cylinder processes of water', () => {
     expect(isoth!.q).toBeCloseTo(500 * isoth!.dS, 6) // Q = T ΔS
   })
   test('a state that contradicts the process is refused with a message', () => {
-    const r = solveSteamCycle({ system: 'closed', states: [{ p: 1e6, T: 500 }, { p: 2e6, T: 600 }], steps: [{ process: 'isobaric' }] })
+    const r = solveSteamCycle({
+      system: 'closed',
+      states: [
+        { p: 1e6, T: 500 },
+        { p: 2e6, T: 600 },
+      ],
+      steps: [{ process: 'isobaric' }],
+    })
     expect(!r.ok && r.error.message).toMatch(/isobaric, but p changes/)
-    const u = solveSteamCycle({ system: 'closed', states: [{ p: 1e6, T: 500 }, { x: 0.5 }], steps: [{ process: 'isentropic' }] })
+    const u = solveSteamCycle({
+      system: 'closed',
+      states: [{ p: 1e6, T: 500 }, { x: 0.5 }],
+      steps: [{ process: 'isentropic' }],
+    })
     expect(!u.ok && u.error.message).toMatch(/pair/)
-    const x = solveSteamCycle({ system: 'closed', states: [{ p: 1e6, x: 1.4 }, { p: 2e6 }], steps: [{ process: 'isentropic' }] })
+    const x = solveSteamCycle({
+      system: 'closed',
+      states: [{ p: 1e6, x: 1.4 }, { p: 2e6 }],
+      steps: [{ process: 'isentropic' }],
+    })
     expect(!x.ok && x.error.property).toBe('states.0.x')
-    const missing = solveSteamCycle({ system: 'closed', states: [{ p: 1e6 }, { T: 600 }], steps: [{ process: 'isobaric' }] })
+    const missing = solveSteamCycle({
+      system: 'closed',
+      states: [{ p: 1e6 }, { T: 600 }],
+      steps: [{ process: 'isobaric' }],
+    })
     expect(!missing.ok && missing.error.message).toMatch(/not fixed/)
   })
 })
@@ -125,7 +158,11 @@ describe('vapour Carnot cycle inside the dome (steady flow)', () => {
 
 describe('spec layer', () => {
   test('steam-carnot template with units, chemistry convention', () => {
-    const r = solveSteamCycleSpec({ template: 'steam-carnot', inputs: { hotTemperature: '250 °C', coldTemperature: '50 °C' }, convention: 'chemistry' })
+    const r = solveSteamCycleSpec({
+      template: 'steam-carnot',
+      inputs: { hotTemperature: '250 °C', coldTemperature: '50 °C' },
+      convention: 'chemistry',
+    })
     if (!r.ok) throw new Error(JSON.stringify(r.error))
     expect(r.totals.efficiency!.value).toBeCloseTo(1 - 323.15 / 523.15, 12)
     expect(r.totals.netWork.value).toBeLessThan(0) // work done ON the water over the cycle is negative
@@ -137,7 +174,10 @@ describe('spec layer', () => {
       steamCycle: {
         system: 'closed',
         mass: '2 kg',
-        states: [{ name: '1', p: '1 MPa', x: '0.5' }, { name: '2', T: '300 °C' }],
+        states: [
+          { name: '1', p: '1 MPa', x: '0.5' },
+          { name: '2', T: '300 °C' },
+        ],
         steps: [{ process: 'isobaric', label: 'heating' }],
       },
     })
@@ -148,9 +188,36 @@ describe('spec layer', () => {
     expect(r.states[1]!.phase).toBe('vapour')
   })
   test.each([
-    [{ steamCycle: { system: 'closed', states: [{ p: '1 MPa', T: 'hot' }, { p: '1 MPa' }], steps: [{ process: 'isobaric' }] } }, 'steamCycle.states.0.T'],
-    [{ steamCycle: { system: 'closed', states: [{ p: '1 MPa', T: '500 K', colour: 'red' }, { p: '1 MPa' }], steps: [{ process: 'isobaric' }] } }, 'steamCycle.states.0.colour'],
-    [{ steamCycle: { system: 'closed', states: [{ p: '1 MPa', T: '500 K' }, { p: '1 MPa' }], steps: [{ process: 'adiabatic' }] } }, 'steamCycle.steps.0.process'],
+    [
+      {
+        steamCycle: {
+          system: 'closed',
+          states: [{ p: '1 MPa', T: 'hot' }, { p: '1 MPa' }],
+          steps: [{ process: 'isobaric' }],
+        },
+      },
+      'steamCycle.states.0.T',
+    ],
+    [
+      {
+        steamCycle: {
+          system: 'closed',
+          states: [{ p: '1 MPa', T: '500 K', colour: 'red' }, { p: '1 MPa' }],
+          steps: [{ process: 'isobaric' }],
+        },
+      },
+      'steamCycle.states.0.colour',
+    ],
+    [
+      {
+        steamCycle: {
+          system: 'closed',
+          states: [{ p: '1 MPa', T: '500 K' }, { p: '1 MPa' }],
+          steps: [{ process: 'adiabatic' }],
+        },
+      },
+      'steamCycle.steps.0.process',
+    ],
     [{ template: 'steam-carnot', inputs: { hotTemperature: '250 °C' } }, 'coldTemperature'],
     [{ steamCycle: 'x' }, 'steamCycle'],
   ])('%o -> a message on %s', (spec, property) => {

@@ -23,7 +23,16 @@ import { readValue } from '../spec.ts'
 import type { Dimension, Quantity } from '../units.ts'
 import { fail, ok } from './errors.ts'
 import type { SteamError, SteamResult } from './errors.ts'
-import { stateFromPH, stateFromPS, stateFromPT, stateFromPV, stateFromPx, stateFromTS, stateFromTV, stateFromTx } from './properties.ts'
+import {
+  stateFromPH,
+  stateFromPS,
+  stateFromPT,
+  stateFromPV,
+  stateFromPx,
+  stateFromTS,
+  stateFromTV,
+  stateFromTx,
+} from './properties.ts'
 import type { SteamState } from './properties.ts'
 
 export const STEAM_CYCLE_CAUTION =
@@ -116,25 +125,38 @@ export function solveSteamCycle(input: SteamCycleInput): SteamResult<SteamCycleR
   try {
     return solve(input)
   } catch (e) {
-    return fail({ code: 'no-convergence', message: `internal error in the steam-cycle solver: ${e instanceof Error ? e.message : String(e)}` })
+    return fail({
+      code: 'no-convergence',
+      message: `internal error in the steam-cycle solver: ${e instanceof Error ? e.message : String(e)}`,
+    })
   }
 }
 
 function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
-  if (typeof input !== 'object' || input === null) return bad('the steam cycle must be an object with system, states and steps')
-  if (input.system !== 'closed' && input.system !== 'flow') return bad('system must be "closed" (piston-cylinder) or "flow" (steady-flow devices)', 'system')
+  if (typeof input !== 'object' || input === null)
+    return bad('the steam cycle must be an object with system, states and steps')
+  if (input.system !== 'closed' && input.system !== 'flow')
+    return bad('system must be "closed" (piston-cylinder) or "flow" (steady-flow devices)', 'system')
   const mass = input.mass ?? 1
-  if (typeof mass !== 'number' || !Number.isFinite(mass) || !(mass > 0)) return bad('mass must be a positive number of kilograms', 'mass')
+  if (typeof mass !== 'number' || !Number.isFinite(mass) || !(mass > 0))
+    return bad('mass must be a positive number of kilograms', 'mass')
   const n = Array.isArray(input.states) ? input.states.length : 0
   if (n < 2 || n > 20) return bad('give between 2 and 20 states', 'states')
   if (!Array.isArray(input.steps)) return bad('steps must be a list', 'steps')
   const isCycle = input.steps.length === n
-  if (!isCycle && input.steps.length !== n - 1) return bad(`with ${n} states give ${n - 1} steps (an open path) or ${n} (a cycle back to the first state); got ${input.steps.length}`, 'steps')
+  if (!isCycle && input.steps.length !== n - 1)
+    return bad(
+      `with ${n} states give ${n - 1} steps (an open path) or ${n} (a cycle back to the first state); got ${input.steps.length}`,
+      'steps',
+    )
   for (let i = 0; i < input.steps.length; i++) {
     const st = input.steps[i]
-    if (!st || !STEAM_PROCESSES.includes(st.process)) return bad(`step ${i + 1}: process must be one of ${STEAM_PROCESSES.join(', ')}`, `steps.${i}.process`)
+    if (!st || !STEAM_PROCESSES.includes(st.process))
+      return bad(`step ${i + 1}: process must be one of ${STEAM_PROCESSES.join(', ')}`, `steps.${i}.process`)
   }
-  const names = input.states.map((s, i) => (s && typeof s.name === 'string' && s.name.trim() ? s.name.trim() : String(i + 1)))
+  const names = input.states.map((s, i) =>
+    s && typeof s.name === 'string' && s.name.trim() ? s.name.trim() : String(i + 1),
+  )
   if (new Set(names).size !== names.length) return bad('state names must differ', 'states')
 
   // Given properties, then inheritance along the steps until nothing changes.
@@ -146,10 +168,12 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
     for (const k of KEYS) {
       const v = s[k]
       if (v === undefined) continue
-      if (typeof v !== 'number' || !Number.isFinite(v)) return bad(`state ${names[i]}: ${k} must be a finite number`, `states.${i}.${k}`)
+      if (typeof v !== 'number' || !Number.isFinite(v))
+        return bad(`state ${names[i]}: ${k} must be a finite number`, `states.${i}.${k}`)
       g[k] = v
     }
-    if (Object.keys(g).length > 2) return bad(`state ${names[i]}: give at most two of p, T, x, v, h, s (two fix a state of water)`, `states.${i}`)
+    if (Object.keys(g).length > 2)
+      return bad(`state ${names[i]}: give at most two of p, T, x, v, h, s (two fix a state of water)`, `states.${i}`)
     given.push(g)
   }
   const solved: (SteamState | null)[] = new Array<SteamState | null>(n).fill(null)
@@ -161,8 +185,20 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
       if (solved[i]) continue
       if (Object.keys(given[i]!).length === 2) {
         const r = fix(given[i]!)
-        if (r === null) return bad(`state ${names[i]}: the pair ${Object.keys(given[i]!).join(', ')} is not one this solver takes; use p or T with one of x, v, h, s (or p with T)`, `states.${i}`)
-        if (!r.ok) return { ok: false, error: { ...r.error, property: `states.${i}.${r.error.property ?? ''}`.replace(/\.$/, ''), message: `state ${names[i]}: ${r.error.message}` } }
+        if (r === null)
+          return bad(
+            `state ${names[i]}: the pair ${Object.keys(given[i]!).join(', ')} is not one this solver takes; use p or T with one of x, v, h, s (or p with T)`,
+            `states.${i}`,
+          )
+        if (!r.ok)
+          return {
+            ok: false,
+            error: {
+              ...r.error,
+              property: `states.${i}.${r.error.property ?? ''}`.replace(/\.$/, ''),
+              message: `state ${names[i]}: ${r.error.message}`,
+            },
+          }
         solved[i] = r.value
         progress = true
       }
@@ -183,7 +219,12 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
       }
     }
   }
-  for (let i = 0; i < n; i++) if (!solved[i]) return bad(`state ${names[i]} is not fixed: give two of p, T, x, v, h, s, or one with a step that carries the other (isobaric p, isochoric v, isothermal T, isentropic s)`, `states.${i}`)
+  for (let i = 0; i < n; i++)
+    if (!solved[i])
+      return bad(
+        `state ${names[i]} is not fixed: give two of p, T, x, v, h, s, or one with a step that carries the other (isobaric p, isochoric v, isothermal T, isentropic s)`,
+        `states.${i}`,
+      )
 
   const states = solved.map((s, i) => ({ ...s!, name: names[i]! }))
   const steps: SteamStepResult[] = []
@@ -194,7 +235,10 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
     const proc = input.steps[k]!.process
     const key = CONSTANT[proc]
     if (!close(A[key] as number, B[key] as number))
-      return bad(`step ${k + 1} (${names[a]} → ${names[b]}) is ${proc}, but ${key} changes from ${A[key]} to ${B[key]}: the given states do not lie on one ${proc} process`, `steps.${k}.process`)
+      return bad(
+        `step ${k + 1} (${names[a]} → ${names[b]}) is ${proc}, but ${key} changes from ${A[key]} to ${B[key]}: the given states do not lie on one ${proc} process`,
+        `steps.${k}.process`,
+      )
     const dU = B.u - A.u
     const dH = B.h - A.h
     const dS = B.s - A.s
@@ -213,7 +257,17 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
       else w = -dH
       q = proc === 'isothermal' ? A.T * dS : proc === 'isentropic' ? 0 : dH + w
     }
-    steps.push({ from: names[a]!, to: names[b]!, process: proc, label: input.steps[k]!.label ?? `${names[a]} → ${names[b]}`, q, w, dU, dH, dS })
+    steps.push({
+      from: names[a]!,
+      to: names[b]!,
+      process: proc,
+      label: input.steps[k]!.label ?? `${names[a]} → ${names[b]}`,
+      q,
+      w,
+      dU,
+      dH,
+      dS,
+    })
   }
   const netHeat = steps.reduce((x, s) => x + s.q, 0)
   const netWork = steps.reduce((x, s) => x + s.w, 0)
@@ -261,7 +315,11 @@ export function solveSteamCarnot(input: SteamCarnotInput): SteamResult<SteamCycl
   ] as const)
     if (typeof v !== 'number' || !Number.isFinite(v)) return bad(`${name} must be a finite number`, name)
   if (!(TL < TH)) return bad('the cold temperature must be below the hot temperature', 'coldTemperature')
-  if (!(TH < 647.096)) return bad('a vapour Carnot cycle inside the dome needs the hot temperature below the critical temperature 647.096 K', 'hotTemperature')
+  if (!(TH < 647.096))
+    return bad(
+      'a vapour Carnot cycle inside the dome needs the hot temperature below the critical temperature 647.096 K',
+      'hotTemperature',
+    )
   if (x1 < 0 || x1 > 1) return bad(`qualityStart x = ${x1} must lie in [0, 1]`, 'qualityStart')
   if (x2 < 0 || x2 > 1) return bad(`qualityEnd x = ${x2} must lie in [0, 1]`, 'qualityEnd')
   if (!(x2 > x1)) return bad('heat addition must raise the quality: qualityEnd must exceed qualityStart', 'qualityEnd')
@@ -283,7 +341,11 @@ export function solveSteamCarnot(input: SteamCarnotInput): SteamResult<SteamCycl
   if (!r.ok) return r
   const out = r.value.states
   for (const [i, st] of [out[2]!, out[3]!].entries())
-    if (st.x === null) return bad(`state ${i + 3} falls outside the dome at the cold temperature: choose qualities so that both isentropes stay inside the dome`, 'coldTemperature')
+    if (st.x === null)
+      return bad(
+        `state ${i + 3} falls outside the dome at the cold temperature: choose qualities so that both isentropes stay inside the dome`,
+        'coldTemperature',
+      )
   return r
 }
 
@@ -299,12 +361,37 @@ export function solveSteamCarnot(input: SteamCarnotInput): SteamResult<SteamCycl
 export const STEAM_CARNOT_TEMPLATE = {
   id: 'steam-carnot',
   title: 'Vapour Carnot cycle inside the dome (water/steam, IAPWS-IF97)',
-  description: 'Steady flow: isothermal heat addition at hotTemperature from qualityStart to qualityEnd, isentropic expansion, isothermal heat rejection at coldTemperature, isentropic compression of the wet mixture.',
+  description:
+    'Steady flow: isothermal heat addition at hotTemperature from qualityStart to qualityEnd, isentropic expansion, isothermal heat rejection at coldTemperature, isentropic compression of the wet mixture.',
   inputs: [
-    { name: 'hotTemperature', dimension: 'temperature', unit: '°C or K', description: 'temperature of heat addition, below 373.946 °C', required: true },
-    { name: 'coldTemperature', dimension: 'temperature', unit: '°C or K', description: 'temperature of heat rejection', required: true },
-    { name: 'qualityStart', dimension: 'dimensionless', unit: '', description: 'quality entering the boiler (default 0)', required: false },
-    { name: 'qualityEnd', dimension: 'dimensionless', unit: '', description: 'quality leaving the boiler (default 1)', required: false },
+    {
+      name: 'hotTemperature',
+      dimension: 'temperature',
+      unit: '°C or K',
+      description: 'temperature of heat addition, below 373.946 °C',
+      required: true,
+    },
+    {
+      name: 'coldTemperature',
+      dimension: 'temperature',
+      unit: '°C or K',
+      description: 'temperature of heat rejection',
+      required: true,
+    },
+    {
+      name: 'qualityStart',
+      dimension: 'dimensionless',
+      unit: '',
+      description: 'quality entering the boiler (default 0)',
+      required: false,
+    },
+    {
+      name: 'qualityEnd',
+      dimension: 'dimensionless',
+      unit: '',
+      description: 'quality leaving the boiler (default 1)',
+      required: false,
+    },
   ],
 } as const
 
@@ -315,9 +402,42 @@ export interface FormattedSteamCycle {
   readonly system: 'closed' | 'flow'
   readonly basis: string
   readonly convention: ConventionStatement & { readonly statement: string }
-  readonly states: readonly { readonly name: string; readonly p: Quantity; readonly T: Quantity; readonly v: Quantity; readonly u: Quantity; readonly h: Quantity; readonly s: Quantity; readonly x: number | null; readonly phase: string }[]
-  readonly steps: readonly { readonly from: string; readonly to: string; readonly process: string; readonly label: string; readonly q: Quantity; readonly w: Quantity; readonly dU: Quantity; readonly dH: Quantity; readonly dS: Quantity; readonly total: { readonly q: Quantity; readonly w: Quantity; readonly dU: Quantity; readonly dH: Quantity; readonly dS: Quantity } }[]
-  readonly totals: { readonly netHeat: Quantity; readonly netWork: Quantity; readonly heatIn: Quantity; readonly heatOut: Quantity; readonly efficiency: Quantity | null }
+  readonly states: readonly {
+    readonly name: string
+    readonly p: Quantity
+    readonly T: Quantity
+    readonly v: Quantity
+    readonly u: Quantity
+    readonly h: Quantity
+    readonly s: Quantity
+    readonly x: number | null
+    readonly phase: string
+  }[]
+  readonly steps: readonly {
+    readonly from: string
+    readonly to: string
+    readonly process: string
+    readonly label: string
+    readonly q: Quantity
+    readonly w: Quantity
+    readonly dU: Quantity
+    readonly dH: Quantity
+    readonly dS: Quantity
+    readonly total: {
+      readonly q: Quantity
+      readonly w: Quantity
+      readonly dU: Quantity
+      readonly dH: Quantity
+      readonly dS: Quantity
+    }
+  }[]
+  readonly totals: {
+    readonly netHeat: Quantity
+    readonly netWork: Quantity
+    readonly heatIn: Quantity
+    readonly heatOut: Quantity
+    readonly efficiency: Quantity | null
+  }
   readonly notice: string
 }
 
@@ -329,7 +449,11 @@ export interface SteamCycleFailure {
 const Q = (value: number, unit: string): Quantity => ({ value, unit })
 
 /** JSON-ready result in one convention (chemistry: w is the work done ON the water, = -W). */
-export function formatSteamCycle(r: SteamCycleResult, convention: Convention, template: string | null = null): FormattedSteamCycle {
+export function formatSteamCycle(
+  r: SteamCycleResult,
+  convention: Convention,
+  template: string | null = null,
+): FormattedSteamCycle {
   const sign = convention === 'engineering' ? 1 : -1
   const statement =
     convention === 'engineering'
@@ -344,7 +468,17 @@ export function formatSteamCycle(r: SteamCycleResult, convention: Convention, te
     system: r.system,
     basis: `per kg of water; "total" for ${m} kg`,
     convention: { ...CONVENTIONS[convention], statement },
-    states: r.states.map((s) => ({ name: s.name, p: Q(s.p, 'Pa'), T: Q(s.T, 'K'), v: Q(s.v, 'm^3/kg'), u: Q(s.u, J), h: Q(s.h, J), s: Q(s.s, 'J/(kg K)'), x: s.x, phase: s.phase })),
+    states: r.states.map((s) => ({
+      name: s.name,
+      p: Q(s.p, 'Pa'),
+      T: Q(s.T, 'K'),
+      v: Q(s.v, 'm^3/kg'),
+      u: Q(s.u, J),
+      h: Q(s.h, J),
+      s: Q(s.s, 'J/(kg K)'),
+      x: s.x,
+      phase: s.phase,
+    })),
     steps: r.steps.map((s) => ({
       from: s.from,
       to: s.to,
@@ -355,20 +489,43 @@ export function formatSteamCycle(r: SteamCycleResult, convention: Convention, te
       dU: Q(s.dU, J),
       dH: Q(s.dH, J),
       dS: Q(s.dS, 'J/(kg K)'),
-      total: { q: Q(m * s.q, 'J'), w: Q(m * sign * s.w, 'J'), dU: Q(m * s.dU, 'J'), dH: Q(m * s.dH, 'J'), dS: Q(m * s.dS, 'J/K') },
+      total: {
+        q: Q(m * s.q, 'J'),
+        w: Q(m * sign * s.w, 'J'),
+        dU: Q(m * s.dU, 'J'),
+        dH: Q(m * s.dH, 'J'),
+        dS: Q(m * s.dS, 'J/K'),
+      },
     })),
-    totals: { netHeat: Q(r.netHeat, J), netWork: Q(sign * r.netWork, J), heatIn: Q(r.heatIn, J), heatOut: Q(r.heatOut, J), efficiency: r.efficiency === null ? null : Q(r.efficiency, '') },
+    totals: {
+      netHeat: Q(r.netHeat, J),
+      netWork: Q(sign * r.netWork, J),
+      heatIn: Q(r.heatIn, J),
+      heatOut: Q(r.heatOut, J),
+      efficiency: r.efficiency === null ? null : Q(r.efficiency, ''),
+    },
     notice: r.caution,
   }
 }
 
-const DIMS: Record<Key, Dimension> = { p: 'pressure', T: 'temperature', x: 'dimensionless', v: 'specificVolume', h: 'specificEnergy', s: 'specificHeat' }
+const DIMS: Record<Key, Dimension> = {
+  p: 'pressure',
+  T: 'temperature',
+  x: 'dimensionless',
+  v: 'specificVolume',
+  h: 'specificEnergy',
+  s: 'specificHeat',
+}
 
 function failure(code: string, message: string, property?: string): SteamCycleFailure {
   return { ok: false, error: { code, message, ...(property ? { property } : {}) } }
 }
 
-function fromSteam(r: SteamResult<SteamCycleResult>, convention: Convention, template: string | null): FormattedSteamCycle | SteamCycleFailure {
+function fromSteam(
+  r: SteamResult<SteamCycleResult>,
+  convention: Convention,
+  template: string | null,
+): FormattedSteamCycle | SteamCycleFailure {
   if (!r.ok) return failure(r.error.code, r.error.message, r.error.property)
   return formatSteamCycle(r.value, convention, template)
 }
@@ -376,24 +533,39 @@ function fromSteam(r: SteamResult<SteamCycleResult>, convention: Convention, tem
 /** A whole spec ({ steamCycle } or { template: "steam-carnot", inputs }). Never throws. */
 export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCycleFailure {
   try {
-    if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return failure('invalid-spec', 'a spec must be a JSON object with "steamCycle" or "template"')
+    if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+      return failure('invalid-spec', 'a spec must be a JSON object with "steamCycle" or "template"')
     const r = raw as Record<string, unknown>
     const conv = r.convention ?? 'engineering'
-    if (!isConvention(conv)) return failure('invalid-spec', `convention must be "chemistry" or "engineering", not ${JSON.stringify(conv)}`, 'convention')
+    if (!isConvention(conv))
+      return failure(
+        'invalid-spec',
+        `convention must be "chemistry" or "engineering", not ${JSON.stringify(conv)}`,
+        'convention',
+      )
     if (r.template !== undefined) {
-      if (r.template !== STEAM_CARNOT_TEMPLATE.id) return failure('invalid-spec', `template must be "${STEAM_CARNOT_TEMPLATE.id}" here`, 'template')
+      if (r.template !== STEAM_CARNOT_TEMPLATE.id)
+        return failure('invalid-spec', `template must be "${STEAM_CARNOT_TEMPLATE.id}" here`, 'template')
       const inputs = (r.inputs ?? {}) as Record<string, unknown>
-      if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs)) return failure('invalid-spec', 'inputs must be an object', 'inputs')
+      if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs))
+        return failure('invalid-spec', 'inputs must be an object', 'inputs')
       const known = new Set<string>(STEAM_CARNOT_TEMPLATE.inputs.map((i) => i.name))
-      for (const k of Object.keys(inputs)) if (!known.has(k)) return failure('invalid-spec', `unknown input "${k}"; this template takes ${[...known].join(', ')}`, k)
+      for (const k of Object.keys(inputs))
+        if (!known.has(k))
+          return failure('invalid-spec', `unknown input "${k}"; this template takes ${[...known].join(', ')}`, k)
       const num: Record<string, number> = {}
       for (const inp of STEAM_CARNOT_TEMPLATE.inputs) {
         const x = inputs[inp.name]
         if (x === undefined) {
-          if (inp.required) return failure('invalid-spec', `input "${inp.name}" is required: ${inp.description}`, inp.name)
+          if (inp.required)
+            return failure('invalid-spec', `input "${inp.name}" is required: ${inp.description}`, inp.name)
           continue
         }
-        const v = readValue(typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x, [inp.dimension], inp.name)
+        const v = readValue(
+          typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x,
+          [inp.dimension],
+          inp.name,
+        )
         if (!v.ok) return failure(v.error.code, v.error.message, inp.name)
         num[inp.name] = v.value.value
       }
@@ -403,33 +575,52 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
       return fromSteam(solveSteamCarnot(carnot), conv, STEAM_CARNOT_TEMPLATE.id)
     }
     const c = r.steamCycle
-    if (typeof c !== 'object' || c === null || Array.isArray(c)) return failure('invalid-spec', 'steamCycle must be an object with system, states and steps', 'steamCycle')
+    if (typeof c !== 'object' || c === null || Array.isArray(c))
+      return failure('invalid-spec', 'steamCycle must be an object with system, states and steps', 'steamCycle')
     const sc = c as Record<string, unknown>
-    for (const k of Object.keys(sc)) if (!['system', 'mass', 'states', 'steps'].includes(k)) return failure('invalid-spec', `unknown field "${k}" in steamCycle; it takes system, mass, states, steps`, `steamCycle.${k}`)
+    for (const k of Object.keys(sc))
+      if (!['system', 'mass', 'states', 'steps'].includes(k))
+        return failure(
+          'invalid-spec',
+          `unknown field "${k}" in steamCycle; it takes system, mass, states, steps`,
+          `steamCycle.${k}`,
+        )
     let mass: number | undefined
     if (sc.mass !== undefined) {
       const v = readValue(sc.mass, ['mass'], 'steamCycle.mass')
       if (!v.ok) return failure(v.error.code, v.error.message, 'steamCycle.mass')
       mass = v.value.value
     }
-    if (!Array.isArray(sc.states)) return failure('invalid-spec', 'steamCycle.states must be a list', 'steamCycle.states')
+    if (!Array.isArray(sc.states))
+      return failure('invalid-spec', 'steamCycle.states must be a list', 'steamCycle.states')
     if (!Array.isArray(sc.steps)) return failure('invalid-spec', 'steamCycle.steps must be a list', 'steamCycle.steps')
     const states: SteamStateGiven[] = []
     for (let i = 0; i < sc.states.length; i++) {
       const s = sc.states[i] as unknown
-      if (typeof s !== 'object' || s === null || Array.isArray(s)) return failure('invalid-spec', `state ${i + 1} must be an object`, `steamCycle.states.${i}`)
+      if (typeof s !== 'object' || s === null || Array.isArray(s))
+        return failure('invalid-spec', `state ${i + 1} must be an object`, `steamCycle.states.${i}`)
       const o = s as Record<string, unknown>
       const g: SteamStateGiven = {}
       for (const k of Object.keys(o)) {
         if (k === 'name') {
-          if (typeof o.name !== 'string') return failure('invalid-spec', `state ${i + 1}: name must be text`, `steamCycle.states.${i}.name`)
+          if (typeof o.name !== 'string')
+            return failure('invalid-spec', `state ${i + 1}: name must be text`, `steamCycle.states.${i}.name`)
           g.name = o.name
           continue
         }
-        if (!(KEYS as readonly string[]).includes(k)) return failure('invalid-spec', `state ${i + 1}: unknown property "${k}"; a state takes name and two of p, T, x, v, h, s`, `steamCycle.states.${i}.${k}`)
+        if (!(KEYS as readonly string[]).includes(k))
+          return failure(
+            'invalid-spec',
+            `state ${i + 1}: unknown property "${k}"; a state takes name and two of p, T, x, v, h, s`,
+            `steamCycle.states.${i}.${k}`,
+          )
         const key = k as Key
         const raw = o[key]
-        const v = readValue(typeof raw === 'number' && key === 'x' ? String(raw) : raw, [DIMS[key]], `steamCycle.states.${i}.${key}`)
+        const v = readValue(
+          typeof raw === 'number' && key === 'x' ? String(raw) : raw,
+          [DIMS[key]],
+          `steamCycle.states.${i}.${key}`,
+        )
         if (!v.ok) return failure(v.error.code, v.error.message, `steamCycle.states.${i}.${key}`)
         g[key] = v.value.value
       }
@@ -438,7 +629,8 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
     const steps: SteamStepGiven[] = []
     for (let i = 0; i < sc.steps.length; i++) {
       const s = sc.steps[i] as Record<string, unknown> | null
-      if (typeof s !== 'object' || s === null) return failure('invalid-spec', `step ${i + 1} must be an object with a process`, `steamCycle.steps.${i}`)
+      if (typeof s !== 'object' || s === null)
+        return failure('invalid-spec', `step ${i + 1} must be an object with a process`, `steamCycle.steps.${i}`)
       const step: SteamStepGiven = { process: s.process as SteamProcess }
       if (typeof s.label === 'string') step.label = s.label
       steps.push(step)
@@ -446,7 +638,8 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
     const input: SteamCycleInput = { system: sc.system as 'closed', states, steps }
     if (mass !== undefined) input.mass = mass
     const res = solveSteamCycle(input)
-    if (!res.ok && res.error.property) return failure(res.error.code, res.error.message, `steamCycle.${res.error.property}`)
+    if (!res.ok && res.error.property)
+      return failure(res.error.code, res.error.message, `steamCycle.${res.error.property}`)
     return fromSteam(res, conv, null)
   } catch (e) {
     return failure('internal', `internal error: ${e instanceof Error ? e.message : String(e)}`)

@@ -18,8 +18,7 @@ export interface ConstantCpParams {
 }
 
 export type GasResult =
-  | { ok: true; gas: Gas }
-  | { ok: false; error: { code: 'invalid-gas'; message: string; property?: string } }
+  { ok: true; gas: Gas } | { ok: false; error: { code: 'invalid-gas'; message: string; property?: string } }
 
 /** Relative tolerance when more than two constants are given (textbook tables round to 3–4 digits). */
 const CONSISTENCY_TOL = 2e-3
@@ -29,7 +28,10 @@ const CONSISTENCY_TOL = 2e-3
  * must agree within 0.2 %). Never throws.
  */
 export function constantCpGas(p: ConstantCpParams): GasResult {
-  const bad = (message: string, property?: string): GasResult => ({ ok: false, error: { code: 'invalid-gas', message, property } })
+  const bad = (message: string, property?: string): GasResult => ({
+    ok: false,
+    error: { code: 'invalid-gas', message, property },
+  })
   for (const k of ['R', 'cv', 'cp', 'gamma', 'molarMass'] as const) {
     const x = p[k]
     if (x !== undefined && !(Number.isFinite(x) && x > 0)) return bad(`${k} must be a positive number`, k)
@@ -53,7 +55,8 @@ export function constantCpGas(p: ConstantCpParams): GasResult {
   if (cp === undefined) cp = cv + R
   if (!(cv > 0)) return bad('cv must be positive (cp must exceed R)', 'cv')
   if (Math.abs(cp - cv - R) > CONSISTENCY_TOL * cp) return bad(`cp − cv (${cp - cv}) does not equal R (${R})`, 'cp')
-  if (g !== undefined && Math.abs(cp / cv - g) > CONSISTENCY_TOL * g) return bad(`cp/cv (${(cp / cv).toFixed(4)}) does not equal γ (${g})`, 'gamma')
+  if (g !== undefined && Math.abs(cp / cv - g) > CONSISTENCY_TOL * g)
+    return bad(`cp/cv (${(cp / cv).toFixed(4)}) does not equal γ (${g})`, 'gamma')
   if (g !== undefined && p.cp === undefined && p.cv === undefined) {
     // Only γ and R given: keep γ exact (cv = R/(γ−1)) so closed forms in γ hold to the last digit.
     cv = R / (g - 1)

@@ -73,12 +73,32 @@ export function mixNasa7(id: string, label: string, parts: Readonly<Record<strin
     sum += x
   }
   if (Math.abs(sum - 1) > 1e-9) throw new Error(`mole fractions of ${id} sum to ${sum}`)
-  return { id, label, molarMass: M, Tmin, Tmid, Tmax, low: low as unknown as Coeffs, high: high as unknown as Coeffs, source }
+  return {
+    id,
+    label,
+    molarMass: M,
+    Tmin,
+    Tmid,
+    Tmax,
+    low: low as unknown as Coeffs,
+    high: high as unknown as Coeffs,
+    source,
+  }
 }
 
 export function speciesSet(id: Nasa7SpeciesId): Nasa7Set {
   const s = NASA7_SPECIES[id]
-  return { id: s.id, label: `${s.formula} (${s.name}), NASA polynomials`, molarMass: s.molarMass, Tmin: s.Tmin, Tmid: s.Tmid, Tmax: s.Tmax, low: s.low, high: s.high, source: s.source }
+  return {
+    id: s.id,
+    label: `${s.formula} (${s.name}), NASA polynomials`,
+    molarMass: s.molarMass,
+    Tmin: s.Tmin,
+    Tmid: s.Tmid,
+    Tmax: s.Tmax,
+    low: s.low,
+    high: s.high,
+    source: s.source,
+  }
 }
 
 export const DRY_AIR_NASA: Nasa7Set = mixNasa7(

@@ -12,7 +12,18 @@ import { gasPreset } from './presets.ts'
 // Air, Çengel & Boles (Thermodynamics, 8th ed.), Table A-2c (from memory): cp in kJ/(kmol·K),
 // a = 28.11, b = 0.1967e-2, c = 0.4802e-5, d = −1.966e-9, valid 273–1800 K, M = 28.97 kg/kmol.
 const AIR_A2C = [28.11, 0.1967e-2, 0.4802e-5, -1.966e-9] as const
-const airSpec = { cpPolynomial: { a: 28.11, b: 0.1967e-2, c: 0.4802e-5, d: -1.966e-9, unit: 'kJ/(kmol K)', Tmin: '273 K', Tmax: '1800 K' }, molarMass: '28.97 g/mol' }
+const airSpec = {
+  cpPolynomial: {
+    a: 28.11,
+    b: 0.1967e-2,
+    c: 0.4802e-5,
+    d: -1.966e-9,
+    unit: 'kJ/(kmol K)',
+    Tmin: '273 K',
+    Tmax: '1800 K',
+  },
+  molarMass: '28.97 g/mol',
+}
 
 function gasOf(raw: unknown): Gas {
   const r = parseGas(raw)
@@ -45,8 +56,14 @@ describe('exact integrals of cp(T)', () => {
     expect(g.basis).toBe('mole')
     expect(g.R).toBe(R_MOLAR)
     expect(g.cp(500)).toBeCloseTo(cpPoly(AIR_A2C, 500), 12)
-    expect(g.h(900) - g.h(400)).toBeCloseTo(simpson((T) => cpPoly(AIR_A2C, T), 400, 900), 6)
-    expect(g.u(900) - g.u(400)).toBeCloseTo(simpson((T) => cpPoly(AIR_A2C, T) - R_MOLAR, 400, 900), 6)
+    expect(g.h(900) - g.h(400)).toBeCloseTo(
+      simpson((T) => cpPoly(AIR_A2C, T), 400, 900),
+      6,
+    )
+    expect(g.u(900) - g.u(400)).toBeCloseTo(
+      simpson((T) => cpPoly(AIR_A2C, T) - R_MOLAR, 400, 900),
+      6,
+    )
     expect(g.TfromH(g.h(1234.5))).toBeCloseTo(1234.5, 7)
     expect(g.TfromU(g.u(456.7))).toBeCloseTo(456.7, 7)
   })
@@ -57,7 +74,10 @@ describe('exact integrals of cp(T)', () => {
     expect(g.R).toBeCloseTo(R_MOLAR / 0.02897, 9)
     expect(g.cp(300)).toBeCloseTo(cpPoly(AIR_A2C, 300) / 0.02897, 9)
     // a per-kg polynomial (cp = 1.005 kJ/(kg K) flat) with R given
-    const flat = gasOf({ cpPolynomial: { a: 1.005, unit: 'kJ/(kg K)', Tmin: '200 K', Tmax: '2000 K' }, R: '0.287 kJ/(kg K)' })
+    const flat = gasOf({
+      cpPolynomial: { a: 1.005, unit: 'kJ/(kg K)', Tmin: '200 K', Tmax: '2000 K' },
+      R: '0.287 kJ/(kg K)',
+    })
     expect(flat.cp(700)).toBeCloseTo(1005, 9)
     expect(flat.isentropicTfromP(300, 100e3, 800e3)).toBeCloseTo(300 * Math.pow(8, 0.287 / 1.005), 7)
   })
@@ -79,7 +99,17 @@ describe('against the NASA-7 route for the same gas', () => {
   // A NASA set whose polynomial is this cubic (a4 = 0, one range) describes the same gas: the two
   // routes must give the same differences of h and s°, and the same isentropic end states.
   const k = AIR_A2C.map((x) => x / R_MOLAR) // cp/R coefficients per K^n
-  const set: Nasa7Set = { id: 'cubic', label: 'cubic', molarMass: 0.02897, Tmin: 273, Tmid: 1e9, Tmax: 1800, low: [k[0]!, k[1]!, k[2]!, k[3]!, 0, 123, -4.5], high: [k[0]!, k[1]!, k[2]!, k[3]!, 0, 123, -4.5], source: 'test' }
+  const set: Nasa7Set = {
+    id: 'cubic',
+    label: 'cubic',
+    molarMass: 0.02897,
+    Tmin: 273,
+    Tmid: 1e9,
+    Tmax: 1800,
+    low: [k[0]!, k[1]!, k[2]!, k[3]!, 0, 123, -4.5],
+    high: [k[0]!, k[1]!, k[2]!, k[3]!, 0, 123, -4.5],
+    source: 'test',
+  }
   const nasa = nasa7Gas(set, 'mole')
   const poly = gasOf(airSpec)
   test.each([
@@ -129,7 +159,19 @@ describe('bad polynomials give clear messages, never a throw', () => {
   test.each([
     [{ cpPolynomial: { ...P, a: 5 } }, /cp = .* is not above R/],
     // a cubic that dips below R only inside the range (minimum at T = 1000 K, cp = 8 J/(mol K))
-    [{ cpPolynomial: { a: 8 + 1e-6 * 1e6, b: -2 * 1e-6 * 1000, c: 1e-6, unit: 'J/(mol K)', Tmin: '300 K', Tmax: '1800 K' } }, /at 1000 K is not above R/],
+    [
+      {
+        cpPolynomial: {
+          a: 8 + 1e-6 * 1e6,
+          b: -2 * 1e-6 * 1000,
+          c: 1e-6,
+          unit: 'J/(mol K)',
+          Tmin: '300 K',
+          Tmax: '1800 K',
+        },
+      },
+      /at 1000 K is not above R/,
+    ],
     [{ cpPolynomial: { ...P, Tmax: '200 K' } }, /Tmax .* must be above Tmin/],
     [{ cpPolynomial: { ...P, Tmin: undefined } }, /Tmin is required/],
     [{ cpPolynomial: { ...P, unit: 'kPa' } }, /unit/],
@@ -137,7 +179,10 @@ describe('bad polynomials give clear messages, never a throw', () => {
     [{ cpPolynomial: { ...P, b: '0.002' } }, /b must be a number/],
     [{ cpPolynomial: { ...P, e: 1 } }, /unknown key "e"/],
     [{ cpPolynomial: 'x' }, /must be an object/],
-    [{ cpPolynomial: { a: 1.0, unit: 'kJ/(kg K)', Tmin: '300 K', Tmax: '1000 K' } }, /needs the gas constant R or the molar mass/],
+    [
+      { cpPolynomial: { a: 1.0, unit: 'kJ/(kg K)', Tmin: '300 K', Tmax: '1000 K' } },
+      /needs the gas constant R or the molar mass/,
+    ],
     [{ cpPolynomial: P, basis: 'mass' }, /give gas.molarMass/],
   ])('%o', (raw, msg) => {
     const r = parseGas(raw)
@@ -159,7 +204,17 @@ describe('bad polynomials give clear messages, never a throw', () => {
 
   test('the solver never throws on a cycle step that leaves the range mid-way', () => {
     const g = gasOf({ cpPolynomial: { ...P, Tmax: '600 K' }, molarMass: '28.97 g/mol' })
-    const r = solveCycle({ gas: g, system: 'closed', states: [{ p: 100e3, T: 300 }, {}, { T: 590 }, {}], steps: [{ process: 'isentropic', volumeRatio: 1 / 10 }, { process: 'isochoric' }, { process: 'isentropic' }, { process: 'isochoric' }] })
+    const r = solveCycle({
+      gas: g,
+      system: 'closed',
+      states: [{ p: 100e3, T: 300 }, {}, { T: 590 }, {}],
+      steps: [
+        { process: 'isentropic', volumeRatio: 1 / 10 },
+        { process: 'isochoric' },
+        { process: 'isentropic' },
+        { process: 'isochoric' },
+      ],
+    })
     expect(r.ok).toBe(false)
     if (!r.ok) expect(r.error.message).toMatch(/273–600 K|outside/)
   })

@@ -70,13 +70,19 @@ const fmt = (x: number) => String(+x.toPrecision(6))
 
 /** Build the gas, or a clear message (never throws). */
 export function polynomialCpGas(p: PolynomialCpParams): GasResult {
-  const bad = (message: string, property?: string): GasResult => ({ ok: false, error: { code: 'invalid-gas', message, property } })
+  const bad = (message: string, property?: string): GasResult => ({
+    ok: false,
+    error: { code: 'invalid-gas', message, property },
+  })
   const k = p.coeffs
-  for (let i = 0; i < 4; i++) if (!Number.isFinite(k[i])) return bad(`cp polynomial coefficient ${'abcd'[i]} must be a finite number`, 'abcd'[i])
+  for (let i = 0; i < 4; i++)
+    if (!Number.isFinite(k[i])) return bad(`cp polynomial coefficient ${'abcd'[i]} must be a finite number`, 'abcd'[i])
   const { Tmin: lo, Tmax: hi } = p
   if (!(Number.isFinite(lo) && lo > 0)) return bad('cp polynomial: Tmin must be a positive temperature in K', 'Tmin')
-  if (!(Number.isFinite(hi) && hi > lo)) return bad(`cp polynomial: Tmax (${hi} K) must be above Tmin (${lo} K)`, 'Tmax')
-  if (p.molarMass !== undefined && !(Number.isFinite(p.molarMass) && p.molarMass > 0)) return bad('molarMass must be a positive number', 'molarMass')
+  if (!(Number.isFinite(hi) && hi > lo))
+    return bad(`cp polynomial: Tmax (${hi} K) must be above Tmin (${lo} K)`, 'Tmax')
+  if (p.molarMass !== undefined && !(Number.isFinite(p.molarMass) && p.molarMass > 0))
+    return bad('molarMass must be a positive number', 'molarMass')
   let R = p.R
   if (R === undefined) {
     if (p.basis === 'mole') R = R_MOLAR
@@ -85,7 +91,11 @@ export function polynomialCpGas(p: PolynomialCpParams): GasResult {
   }
   if (!(Number.isFinite(R) && R > 0)) return bad('R must be a positive number', 'R')
   const m = minCpOnRange(k, lo, hi)
-  if (!(m.cp > R)) return bad(`cp polynomial: cp = ${fmt(m.cp)} at ${fmt(m.T)} K is not above R = ${fmt(R)} (cv = cp − R must stay positive on ${fmt(lo)}–${fmt(hi)} K)`, 'a')
+  if (!(m.cp > R))
+    return bad(
+      `cp polynomial: cp = ${fmt(m.cp)} at ${fmt(m.T)} K is not above R = ${fmt(R)} (cv = cp − R must stay positive on ${fmt(lo)}–${fmt(hi)} K)`,
+      'a',
+    )
   const ln = Math.log
   const cp = (T: number) => cpPoly(k, T)
   const h = (T: number) => hPoly(k, T)
@@ -103,7 +113,8 @@ export function polynomialCpGas(p: PolynomialCpParams): GasResult {
       constantCp: false,
       Tmin: lo,
       Tmax: hi,
-      source: p.source ?? `cp = a + bT + cT² + dT³ given in the problem (valid ${fmt(lo)}–${fmt(hi)} K), integrated exactly`,
+      source:
+        p.source ?? `cp = a + bT + cT² + dT³ given in the problem (valid ${fmt(lo)}–${fmt(hi)} K), integrated exactly`,
       ln,
       cp,
       cv: (T) => cp(T) - R,

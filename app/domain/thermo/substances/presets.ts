@@ -24,7 +24,8 @@ export const GAS_PRESET_IDS = [
 ] as const
 export type GasPresetId = (typeof GAS_PRESET_IDS)[number]
 
-export type PresetResult = { ok: true; gas: Gas } | { ok: false; error: { code: 'invalid-gas'; message: string; property?: string } }
+export type PresetResult =
+  { ok: true; gas: Gas } | { ok: false; error: { code: 'invalid-gas'; message: string; property?: string } }
 
 const NASA_SETS: Record<string, () => Nasa7Set> = {
   'nasa:dry-air': () => DRY_AIR_NASA,
@@ -66,7 +67,14 @@ export function gasPreset(id: string, basis?: Basis, molarMass?: number): Preset
     case 'diatomic': {
       const b = basis ?? 'mole'
       if (b === 'mass' && molarMass === undefined) {
-        return { ok: false, error: { code: 'invalid-gas', message: `the ${id} preset per kilogram needs a molar mass`, property: 'molarMass' } }
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-gas',
+            message: `the ${id} preset per kilogram needs a molar mass`,
+            property: 'molarMass',
+          },
+        }
       }
       const f = b === 'mass' ? 1 / molarMass! : 1
       const R = R_MOLAR * f
@@ -81,14 +89,22 @@ export function gasPreset(id: string, basis?: Basis, molarMass?: number): Preset
           cv,
           cp: cv + R,
           molarMass,
-          source: 'equipartition: cv = 3/2 R (monatomic), 5/2 R (diatomic, rotation without vibration); common practice',
+          source:
+            'equipartition: cv = 3/2 R (monatomic), 5/2 R (diatomic, rotation without vibration); common practice',
         }),
       }
     }
     default: {
       const set = NASA_SETS[id]
       if (!set) {
-        return { ok: false, error: { code: 'invalid-gas', message: `unknown gas "${id}": use one of ${GAS_PRESET_IDS.join(', ')} or give constants`, property: 'gas' } }
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-gas',
+            message: `unknown gas "${id}": use one of ${GAS_PRESET_IDS.join(', ')} or give constants`,
+            property: 'gas',
+          },
+        }
       }
       return { ok: true, gas: nasa7Gas(set(), basis ?? 'mole') }
     }

@@ -79,7 +79,16 @@ describe('Brayton with intercooling and reheat: closed forms (constant cp, ideal
   })
 
   test('non-default intercooler and reheat pressures and temperatures are honoured', () => {
-    const s = run(gasK(1.4), { p1: 100e3, T1: 300, pressureRatio: 9, turbineInletT: 1300, intercoolerPressure: 250e3, intercoolerT: 310, reheatPressure: 400e3, reheatT: 1250 })
+    const s = run(gasK(1.4), {
+      p1: 100e3,
+      T1: 300,
+      pressureRatio: 9,
+      turbineInletT: 1300,
+      intercoolerPressure: 250e3,
+      intercoolerT: 310,
+      reheatPressure: 400e3,
+      reheatT: 1250,
+    })
     expect(s.states[1]!.p).toBeCloseTo(250e3, 6)
     expect(s.states[2]!.T).toBeCloseTo(310, 9)
     expect(s.states[5]!.p).toBeCloseTo(400e3, 6)
@@ -129,7 +138,12 @@ describe('bad input gives messages, never a throw', () => {
     if (!r.ok) expect(r.error.message).toMatch(msg)
   })
   test('spec strings solve', () => {
-    const r = templates[ID]!.solve({ ...inputs, regeneratorEffectiveness: 0.8, compressorEfficiency: 0.85, turbineEfficiency: 0.88 })
+    const r = templates[ID]!.solve({
+      ...inputs,
+      regeneratorEffectiveness: 0.8,
+      compressorEfficiency: 0.85,
+      turbineEfficiency: 0.88,
+    })
     if (!r.ok) throw new Error(r.error.message)
     expect(r.totals.backWorkRatio).toBeGreaterThan(0)
   })

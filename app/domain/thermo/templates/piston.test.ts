@@ -12,7 +12,12 @@ function gasK(gamma: number, R = 287): Gas {
   if (!r.ok) throw new Error(r.error.message)
   return r.gas
 }
-function run(id: string, gas: Gas, num: Record<string, number | undefined>, heat: TemplateValues['heat'] = {}): CycleSolution {
+function run(
+  id: string,
+  gas: Gas,
+  num: Record<string, number | undefined>,
+  heat: TemplateValues['heat'] = {},
+): CycleSolution {
   const b = templates[id]!.build({ gas, num, heat, labels: {} })
   if (!b.ok) throw new Error(b.error.message)
   const r = solveCycle(b.spec)
@@ -96,20 +101,39 @@ describe('Miller cycle', () => {
   test('expansion beyond the full-expansion point is refused with a message', () => {
     // T3 = 1000 K, rc = 8, γ = 1.4: re = 20 expands below p1, so 4→5 would need heating at constant volume
     const gas = gasK(1.4)
-    const b = templates.miller!.build({ gas, num: { p1: 100e3, T1: 300, compressionRatio: 8, expansionRatio: 20, T3: 1000 }, heat: {}, labels: {} })
+    const b = templates.miller!.build({
+      gas,
+      num: { p1: 100e3, T1: 300, compressionRatio: 8, expansionRatio: 20, T3: 1000 },
+      heat: {},
+      labels: {},
+    })
     expect(b.ok).toBe(false)
     // p4 = p3 / re^γ with p3 = p1 rc (T3/T1): 100 kPa · 8 · (1000/300) / 20^1.4
     const p4 = (100 * 8 * (1000 / 300)) / Math.pow(20, 1.4)
     if (!b.ok) expect(b.error.message).toContain(`the expansion ends at ${+p4.toPrecision(4)} kPa, below p1 (100 kPa)`)
     // the same through heatIn (cv (T3 − T2) with T2 = 300 · 8^0.4)
     const heat = gas.cv(300) * (1000 - 300 * Math.pow(8, 0.4))
-    const h = templates.miller!.build({ gas, num: { p1: 100e3, T1: 300, compressionRatio: 8, expansionRatio: 20 }, heat: { heatIn: { heat } }, labels: {} })
+    const h = templates.miller!.build({
+      gas,
+      num: { p1: 100e3, T1: 300, compressionRatio: 8, expansionRatio: 20 },
+      heat: { heatIn: { heat } },
+      labels: {},
+    })
     expect(h.ok).toBe(false)
     if (!h.ok) expect(h.error.message).toMatch(/below p1/)
     // full expansion is at re = (rc T3/T1)^(1/γ) ≈ 10.43: just short of it the cycle solves, just beyond it is refused
     const reFull = Math.pow((8 * 1000) / 300, 1 / 1.4)
-    expect(() => run('miller', gas, { p1: 100e3, T1: 300, compressionRatio: 8, expansionRatio: reFull * 0.999, T3: 1000 })).not.toThrow()
-    expect(templates.miller!.build({ gas, num: { p1: 100e3, T1: 300, compressionRatio: 8, expansionRatio: reFull * 1.001, T3: 1000 }, heat: {}, labels: {} }).ok).toBe(false)
+    expect(() =>
+      run('miller', gas, { p1: 100e3, T1: 300, compressionRatio: 8, expansionRatio: reFull * 0.999, T3: 1000 }),
+    ).not.toThrow()
+    expect(
+      templates.miller!.build({
+        gas,
+        num: { p1: 100e3, T1: 300, compressionRatio: 8, expansionRatio: reFull * 1.001, T3: 1000 },
+        heat: {},
+        labels: {},
+      }).ok,
+    ).toBe(false)
   })
 })
 

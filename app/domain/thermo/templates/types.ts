@@ -33,7 +33,8 @@ export interface TemplateValues {
   readonly labels: Readonly<Record<string, string>>
 }
 
-export type BuildResult = { ok: true; spec: CycleSpec } | { ok: false; error: { code: 'invalid-input'; message: string; property?: string } }
+export type BuildResult =
+  { ok: true; spec: CycleSpec } | { ok: false; error: { code: 'invalid-input'; message: string; property?: string } }
 
 export interface TemplateDef {
   readonly id: string
@@ -43,7 +44,10 @@ export interface TemplateDef {
   /** Numbers in, CycleSpec out (the hot path: no strings, no mathjs). */
   build(values: TemplateValues): BuildResult
   /** Strings with units in (as in a spec file), solution or error out. Never throws. */
-  solve(inputs: Readonly<Record<string, unknown>>, options?: { readonly slips?: Slips }): CycleResult | { ok: false; error: SpecError }
+  solve(
+    inputs: Readonly<Record<string, unknown>>,
+    options?: { readonly slips?: Slips },
+  ): CycleResult | { ok: false; error: SpecError }
 }
 
 export function parseTemplateInputs(
@@ -51,10 +55,19 @@ export function parseTemplateInputs(
   raw: Readonly<Record<string, unknown>>,
   slips: Slips = {},
 ): { ok: true; value: TemplateValues } | { ok: false; error: SpecError } {
-  if (typeof raw !== 'object' || raw === null) return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object' } }
+  if (typeof raw !== 'object' || raw === null)
+    return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object' } }
   const known = new Set(inputs.map((i) => i.name))
   for (const key of Object.keys(raw)) {
-    if (!known.has(key)) return { ok: false, error: { code: 'invalid-spec', message: `unknown input "${key}"; this template takes ${[...known].join(', ')}`, property: key } }
+    if (!known.has(key))
+      return {
+        ok: false,
+        error: {
+          code: 'invalid-spec',
+          message: `unknown input "${key}"; this template takes ${[...known].join(', ')}`,
+          property: key,
+        },
+      }
   }
   const g = parseGas(raw.gas, slips)
   if (!g.ok) return g
@@ -67,7 +80,15 @@ export function parseTemplateInputs(
     const x = raw[inp.name]
     if (inp.dimension === 'gas') continue
     if (x === undefined) {
-      if (inp.required) return { ok: false, error: { code: 'invalid-spec', message: `input "${inp.name}" is required: ${inp.description}`, property: inp.name } }
+      if (inp.required)
+        return {
+          ok: false,
+          error: {
+            code: 'invalid-spec',
+            message: `input "${inp.name}" is required: ${inp.description}`,
+            property: inp.name,
+          },
+        }
       continue
     }
     labels[inp.name] = String(x)

@@ -9,11 +9,18 @@ import { formatInZone } from '#app/lib/dates.ts'
 import { type FieldErrors, noValues, parseForm, readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
-import { adminCoursePage, AssignInstructorFormSchema, assignInstructor, formValues } from '#app/server/courses.server.ts'
+import {
+  adminCoursePage,
+  AssignInstructorFormSchema,
+  assignInstructor,
+  formValues,
+} from '#app/server/courses.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/$courseId'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.course.code} · Department · Cyclewright` : 'Course · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `${data.course.code} · Department · Cyclewright` : 'Course · Cyclewright' },
+]
 
 async function loadPage(courseId: number) {
   const page = await adminCoursePage(db(), courseId)
@@ -37,12 +44,19 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!form.ok) return data({ done: null, fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
   try {
     const done = await assignInstructor(db(), { actorId: user.id, courseId, email: form.value.email })
-    if (!done.ok) return data({ done: null, fieldErrors: done.fieldErrors, values: formValues(formData) }, { status: 400 })
+    if (!done.ok)
+      return data({ done: null, fieldErrors: done.fieldErrors, values: formValues(formData) }, { status: 400 })
     return { done, fieldErrors: {} as FieldErrors, values: noValues }
   } catch (e) {
     console.error('Assigning an instructor failed:', e)
     return data(
-      { done: null, fieldErrors: { email: 'The invitation could not be sent just now. Please try again in a minute.' } as FieldErrors, values: formValues(formData) },
+      {
+        done: null,
+        fieldErrors: {
+          email: 'The invitation could not be sent just now. Please try again in a minute.',
+        } as FieldErrors,
+        values: formValues(formData),
+      },
       { status: 503 },
     )
   }
@@ -51,7 +65,8 @@ export async function action({ request, params }: Route.ActionArgs) {
 const OUTCOME_WORDS = {
   added: (who: string) => `${who} is now an instructor of this course.`,
   already: (who: string) => `${who} is already an instructor of this course.`,
-  invited: (who: string) => `An invitation to join as instructor was sent to ${who}: nobody has signed in with that address yet.`,
+  invited: (who: string) =>
+    `An invitation to join as instructor was sent to ${who}: nobody has signed in with that address yet.`,
 } as const
 
 export default function AdminCourseRoute({ loaderData, actionData }: Route.ComponentProps) {
@@ -86,7 +101,8 @@ export default function AdminCourseRoute({ loaderData, actionData }: Route.Compo
         <div className="rounded-lg border border-line bg-white p-4">
           <dt className="text-xs font-semibold tracking-wide text-muted uppercase">Sign convention</dt>
           <dd className="mt-1">
-            {conventionText[course.signConvention].label}: <span className="font-mono">{conventionText[course.signConvention].equation}</span>
+            {conventionText[course.signConvention].label}:{' '}
+            <span className="font-mono">{conventionText[course.signConvention].equation}</span>
           </dd>
         </div>
         <div className="rounded-lg border border-line bg-white p-4">
@@ -105,7 +121,11 @@ export default function AdminCourseRoute({ loaderData, actionData }: Route.Compo
         {course.copiedFrom ? (
           <>
             {' '}
-            Copied from <Link to={href('/admin/courses/:courseId', { courseId: String(course.copiedFrom.id) })}>{course.copiedFrom.code}</Link> of {course.copiedFrom.termName}.
+            Copied from{' '}
+            <Link to={href('/admin/courses/:courseId', { courseId: String(course.copiedFrom.id) })}>
+              {course.copiedFrom.code}
+            </Link>{' '}
+            of {course.copiedFrom.termName}.
           </>
         ) : null}
       </p>
@@ -115,7 +135,9 @@ export default function AdminCourseRoute({ loaderData, actionData }: Route.Compo
           Instructors ({instructors.length})
         </h2>
         {instructors.length === 0 ? (
-          <p className="mt-3 rounded-lg border border-dashed border-line bg-white p-6 text-center text-muted">No instructors yet — add the first below.</p>
+          <p className="mt-3 rounded-lg border border-dashed border-line bg-white p-6 text-center text-muted">
+            No instructors yet — add the first below.
+          </p>
         ) : (
           <ul className="mt-3 divide-y divide-line rounded-lg border border-line bg-white">
             {instructors.map((i) => (
@@ -147,8 +169,8 @@ export default function AdminCourseRoute({ loaderData, actionData }: Route.Compo
         <div className="mt-6 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
           <h3 className="text-lg font-semibold">Add an instructor</h3>
           <p className="mt-1 text-sm text-muted">
-            Someone with an account becomes an instructor at once. Any other address gets an e-mail invitation to join as instructor (the link works once and expires in 7
-            days).
+            Someone with an account becomes an instructor at once. Any other address gets an e-mail invitation to join
+            as instructor (the link works once and expires in 7 days).
           </p>
           {done ? (
             <Notice tone="ok" className="mt-4">

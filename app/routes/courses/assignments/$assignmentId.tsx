@@ -10,18 +10,41 @@ import { formatInZone } from '#app/lib/dates.ts'
 import { formatPoints, formatScore } from '#app/lib/points.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { keyReleaseText, latePolicyText } from '#app/lib/assignment-text.ts'
-import { deletionSentence, earlyReleaseLabel, gradesReleaseSentence, keyReleaseSentence, studentsWord } from '#app/domain/assignments/releases.ts'
-import { AssignmentInUseError, AssignmentNotOpenError, deleteAssignment, deletionSummary, getAssignmentDetail, orErrorPage } from '#app/server/assignments.server.ts'
+import {
+  deletionSentence,
+  earlyReleaseLabel,
+  gradesReleaseSentence,
+  keyReleaseSentence,
+  studentsWord,
+} from '#app/domain/assignments/releases.ts'
+import {
+  AssignmentInUseError,
+  AssignmentNotOpenError,
+  deleteAssignment,
+  deletionSummary,
+  getAssignmentDetail,
+  orErrorPage,
+} from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { appUrl } from '#app/server/env.server.ts'
-import { getReleaseChecks, orReleaseErrorPage, releaseGrades, releaseKey, ReleaseRefusedError } from '#app/server/releases.server.ts'
+import {
+  getReleaseChecks,
+  orReleaseErrorPage,
+  releaseGrades,
+  releaseKey,
+  ReleaseRefusedError,
+} from '#app/server/releases.server.ts'
 import type { Route } from './+types/$assignmentId'
 import { readFormData } from '#app/lib/form.ts'
 import { STUDENT_STATUS_LABELS } from '#app/lib/labels.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [
-  { title: data ? `${data.notOpen ? data.notOpen.title : data.detail.assignment.title} · Cyclewright` : 'Assignment · Cyclewright' },
+  {
+    title: data
+      ? `${data.notOpen ? data.notOpen.title : data.detail.assignment.title} · Cyclewright`
+      : 'Assignment · Cyclewright',
+  },
 ]
 
 const IntentSchema = z.enum(['release-key', 'release-grades', 'delete'])
@@ -69,10 +92,21 @@ export async function action({ request, params }: Route.ActionArgs) {
       return redirect(`${base}?done=key`)
     }
     if (intent.data === 'release-grades') {
-      await releaseGrades(db(), { courseId, assignmentId, actorId: user.id, confirmed, early: form.get('early') === 'yes', baseUrl: appUrl() })
+      await releaseGrades(db(), {
+        courseId,
+        assignmentId,
+        actorId: user.id,
+        confirmed,
+        early: form.get('early') === 'yes',
+        baseUrl: appUrl(),
+      })
       return redirect(`${base}?done=grades`)
     }
-    if (!confirmed) throw new AssignmentInUseError('Nothing was deleted: deleting cannot be undone, so it needs the confirmation step. Use the button on the assignment page and confirm.', 400)
+    if (!confirmed)
+      throw new AssignmentInUseError(
+        'Nothing was deleted: deleting cannot be undone, so it needs the confirmation step. Use the button on the assignment page and confirm.',
+        400,
+      )
     await deleteAssignment(db(), { courseId, assignmentId, actorId: user.id })
     return redirect(`/courses/${courseId}?deleted=1`)
   } catch (e) {
@@ -102,7 +136,13 @@ function NotYetOpen({ info }: { info: { title: string; message: string } }) {
 
 type PageData = Extract<Route.ComponentProps['loaderData'], { notOpen: null }>
 
-function AssignmentPage({ loaderData, actionData }: { loaderData: PageData; actionData: Route.ComponentProps['actionData'] }) {
+function AssignmentPage({
+  loaderData,
+  actionData,
+}: {
+  loaderData: PageData
+  actionData: Route.ComponentProps['actionData']
+}) {
   const { course, detail, instructions, notice, releases, deletion, confirm } = loaderData
   const { assignment: a, timeZone } = detail
   const fmt = (d: Date) => formatInZone(d, timeZone)
@@ -120,15 +160,28 @@ function AssignmentPage({ loaderData, actionData }: { loaderData: PageData; acti
           The grades are released; students are being e-mailed their scores.
         </Notice>
       ) : null}
-      {instructions ? <div className="prompt-html mt-4 max-w-3xl leading-relaxed [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: instructions }} /> : null}
-      {detail.student ? <StudentView detail={detail} base={base} fmt={fmt} /> : <StaffView
+      {instructions ? (
+        <div
+          className="prompt-html mt-4 max-w-3xl leading-relaxed [&_p]:mt-2"
+          dangerouslySetInnerHTML={{ __html: instructions }}
+        />
+      ) : null}
+      {detail.student ? (
+        <StudentView detail={detail} base={base} fmt={fmt} />
+      ) : (
+        <StaffView
           detail={detail}
           base={base}
           courseId={course.id}
           fmt={fmt}
           mayChange={course.role === 'instructor'}
-          controls={releases && deletion ? { releases, deletion, step: actionData?.step ?? confirm, error: actionData?.formError ?? null } : null}
-        />}
+          controls={
+            releases && deletion
+              ? { releases, deletion, step: actionData?.step ?? confirm, error: actionData?.formError ?? null }
+              : null
+          }
+        />
+      )}
     </div>
   )
 }
@@ -141,7 +194,21 @@ type Controls = {
   error: string | null
 }
 
-function StaffView({ detail, base, courseId, fmt, mayChange, controls }: { detail: Detail; base: string; courseId: number; fmt: (d: Date) => string; mayChange: boolean; controls: Controls | null }) {
+function StaffView({
+  detail,
+  base,
+  courseId,
+  fmt,
+  mayChange,
+  controls,
+}: {
+  detail: Detail
+  base: string
+  courseId: number
+  fmt: (d: Date) => string
+  mayChange: boolean
+  controls: Controls | null
+}) {
   const { assignment: a, items, staff } = detail
   const busy = useNavigation().state === 'submitting'
   return (
@@ -154,7 +221,10 @@ function StaffView({ detail, base, courseId, fmt, mayChange, controls }: { detai
         {mayChange ? <Link to={`${base}/edit`}>Edit</Link> : null}
         <Link to={`/courses/${courseId}/gradebook`}>Course gradebook</Link>
       </nav>
-      <section aria-labelledby="settings-title" className="mt-6 max-w-3xl rounded-lg border border-line bg-white p-6 shadow-sm">
+      <section
+        aria-labelledby="settings-title"
+        className="mt-6 max-w-3xl rounded-lg border border-line bg-white p-6 shadow-sm"
+      >
         <h2 id="settings-title" className="text-xl font-semibold">
           Settings
         </h2>
@@ -164,7 +234,9 @@ function StaffView({ detail, base, courseId, fmt, mayChange, controls }: { detai
           <dt className="font-medium">Due</dt>
           <dd>
             {fmt(a.dueAt)}
-            {staff && staff.extensionCount > 0 ? ` (${staff.extensionCount} student${staff.extensionCount === 1 ? ' has' : 's have'} an extension)` : ''}
+            {staff && staff.extensionCount > 0
+              ? ` (${staff.extensionCount} student${staff.extensionCount === 1 ? ' has' : 's have'} an extension)`
+              : ''}
           </dd>
           <dt className="font-medium">Attempts per find</dt>
           <dd>{a.attemptsPerFind}</dd>
@@ -173,13 +245,20 @@ function StaffView({ detail, base, courseId, fmt, mayChange, controls }: { detai
           <dt className="font-medium">Key and worked solutions</dt>
           <dd>{keyReleaseText(a, detail.timeZone)}</dd>
           <dt className="font-medium">Grades</dt>
-          <dd>{a.gradesReleasedAt ? `Released on ${fmt(a.gradesReleasedAt)}; students were e-mailed their scores.` : 'Not released yet.'}</dd>
+          <dd>
+            {a.gradesReleasedAt
+              ? `Released on ${fmt(a.gradesReleasedAt)}; students were e-mailed their scores.`
+              : 'Not released yet.'}
+          </dd>
           <dt className="font-medium">Points</dt>
           <dd>
-            {detail.maxScore} over {items.length} problem{items.length === 1 ? '' : 's'}; {staff?.studentCount ?? 0} student{staff?.studentCount === 1 ? '' : 's'}
+            {detail.maxScore} over {items.length} problem{items.length === 1 ? '' : 's'}; {staff?.studentCount ?? 0}{' '}
+            student{staff?.studentCount === 1 ? '' : 's'}
           </dd>
         </dl>
-        {mayChange && controls ? <ReleaseControls title={a.title} base={base} controls={controls} busy={busy} fmt={fmt} /> : null}
+        {mayChange && controls ? (
+          <ReleaseControls title={a.title} base={base} controls={controls} busy={busy} fmt={fmt} />
+        ) : null}
       </section>
       <section aria-labelledby="problems-title" className="mt-8">
         <h2 id="problems-title" className="text-xl font-semibold">
@@ -193,11 +272,21 @@ function StaffView({ detail, base, courseId, fmt, mayChange, controls }: { detai
               <caption className="sr-only">Problems of {a.title}</caption>
               <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
                 <tr>
-                  <th scope="col" className="px-4 py-2">#</th>
-                  <th scope="col" className="px-4 py-2">Problem</th>
-                  <th scope="col" className="px-4 py-2">Version</th>
-                  <th scope="col" className="px-4 py-2">Points</th>
-                  <th scope="col" className="px-4 py-2">Pages</th>
+                  <th scope="col" className="px-4 py-2">
+                    #
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Problem
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Version
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Points
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Pages
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -240,7 +329,19 @@ function StaffView({ detail, base, courseId, fmt, mayChange, controls }: { detai
  * (?confirm=…) that says what will happen and to how many, with a second submit carrying
  * confirm=yes. Only what the rules allow now is offered; otherwise a sentence says when.
  */
-function ReleaseControls({ title, base, controls, busy, fmt }: { title: string; base: string; controls: Controls; busy: boolean; fmt: (d: Date) => string }) {
+function ReleaseControls({
+  title,
+  base,
+  controls,
+  busy,
+  fmt,
+}: {
+  title: string
+  base: string
+  controls: Controls
+  busy: boolean
+  fmt: (d: Date) => string
+}) {
   const { releases: r, deletion, step, error } = controls
   const keyOffered = r.key.state === 'offered'
   const gradesOffered = r.grades.state === 'offered'
@@ -255,7 +356,11 @@ function ReleaseControls({ title, base, controls, busy, fmt }: { title: string; 
     </Form>
   )
   const panel = (value: ConfirmStep, heading: string, sentence: string, yes: string, extra?: ReactNode) => (
-    <section aria-labelledby={`confirm-${value}`} className="mt-4 rounded-md border border-warn/40 bg-warn-soft p-4" data-confirm={value}>
+    <section
+      aria-labelledby={`confirm-${value}`}
+      className="mt-4 rounded-md border border-warn/40 bg-warn-soft p-4"
+      data-confirm={value}
+    >
       <h3 id={`confirm-${value}`} className="font-semibold text-warn">
         {heading}
       </h3>
@@ -285,14 +390,21 @@ function ReleaseControls({ title, base, controls, busy, fmt }: { title: string; 
         {gradesOffered ? ask('release-grades', 'Release grades…', 'primary') : null}
         {deletable ? ask('delete', 'Delete assignment…') : null}
       </div>
-      {r.key.state === 'not-yet' ? <p className="text-sm text-muted" data-key-release="not-yet">{r.key.reason}</p> : null}
+      {r.key.state === 'not-yet' ? (
+        <p className="text-sm text-muted" data-key-release="not-yet">
+          {r.key.reason}
+        </p>
+      ) : null}
       {r.grades.state === 'not-yet' ? <p className="text-sm text-muted">{r.grades.reason}</p> : null}
       {early ? (
         <p className="text-sm text-muted">
-          {studentsWord(r.stillAnswering)} can still answer (the last window closes {fmt(r.closesAt)}); releasing the grades before then needs an explicit choice.
+          {studentsWord(r.stillAnswering)} can still answer (the last window closes {fmt(r.closesAt)}); releasing the
+          grades before then needs an explicit choice.
         </p>
       ) : null}
-      {!deletable ? <p className="text-sm text-muted">Students have answered this assignment, so it cannot be deleted.</p> : null}
+      {!deletable ? (
+        <p className="text-sm text-muted">Students have answered this assignment, so it cannot be deleted.</p>
+      ) : null}
       {step === 'release-key' && keyOffered
         ? panel('release-key', 'Release the key?', keyReleaseSentence(title, r.studentCount), 'Yes, release the key')
         : null}
@@ -310,8 +422,14 @@ function ReleaseControls({ title, base, controls, busy, fmt }: { title: string; 
             ) : undefined,
           )
         : null}
-      {step === 'delete' && deletable ? panel('delete', 'Delete this assignment?', deletionSentence(deletion), 'Yes, delete it') : null}
-      {step && error && !(step === 'release-key' ? keyOffered : step === 'release-grades' ? gradesOffered : deletable) ? <Notice tone="error">{error}</Notice> : null}
+      {step === 'delete' && deletable
+        ? panel('delete', 'Delete this assignment?', deletionSentence(deletion), 'Yes, delete it')
+        : null}
+      {step &&
+      error &&
+      !(step === 'release-key' ? keyOffered : step === 'release-grades' ? gradesOffered : deletable) ? (
+        <Notice tone="error">{error}</Notice>
+      ) : null}
     </div>
   )
 }
@@ -334,7 +452,9 @@ function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt:
         <dt className="font-medium">Attempts per find</dt>
         <dd>
           {student.attempts}
-          {student.extension && student.extension.extraAttempts > 0 ? ` (including ${student.extension.extraAttempts} extra for you)` : ''}
+          {student.extension && student.extension.extraAttempts > 0
+            ? ` (including ${student.extension.extraAttempts} extra for you)`
+            : ''}
         </dd>
         <dt className="font-medium">Late answers</dt>
         <dd>{latePolicyText(a)}</dd>
@@ -342,10 +462,7 @@ function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt:
           <>
             <dt className="font-medium">Your grade</dt>
             <dd>
-              <strong>
-                {formatScore(student.total, detail.maxScore)} points
-              </strong>{' '}
-              (released {fmt(a.gradesReleasedAt)})
+              <strong>{formatScore(student.total, detail.maxScore)} points</strong> (released {fmt(a.gradesReleasedAt)})
             </dd>
           </>
         ) : null}
@@ -362,10 +479,18 @@ function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt:
               <caption className="sr-only">Your problems in {a.title}</caption>
               <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
                 <tr>
-                  <th scope="col" className="px-4 py-2">#</th>
-                  <th scope="col" className="px-4 py-2">Problem</th>
-                  <th scope="col" className="px-4 py-2">Your score</th>
-                  <th scope="col" className="px-4 py-2">Status</th>
+                  <th scope="col" className="px-4 py-2">
+                    #
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Problem
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Your score
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Status
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -375,9 +500,7 @@ function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt:
                     <th scope="row" className="px-4 py-2 font-normal">
                       <Link to={`${base}/problems/${it.position}`}>{it.title}</Link>
                     </th>
-                    <td className="px-4 py-2">
-                      {formatScore(it.mine?.score ?? 0, it.points)}
-                    </td>
+                    <td className="px-4 py-2">{formatScore(it.mine?.score ?? 0, it.points)}</td>
                     <td className="px-4 py-2">{statusText(it.mine)}</td>
                   </tr>
                 ))}

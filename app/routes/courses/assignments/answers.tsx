@@ -12,7 +12,9 @@ import { getFindAnswers, type FindAnswer } from '#app/server/gradebook.server.ts
 import type { Route } from './+types/answers'
 import { answerResultLabel, TONE_TEXT, VERDICT_TONES } from '#app/lib/labels.ts'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Answers: ${data.answers.item.title} · Cyclewright` : 'Answers · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Answers: ${data.answers.item.title} · Cyclewright` : 'Answers · Cyclewright' },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -35,11 +37,15 @@ function verdictOf(a: FindAnswer): string {
 export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
   const { course, answers } = loaderData
   const { assignment, item, find, finds } = answers
-  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
+  const base = href('/courses/:courseId/assignments/:assignmentId', {
+    courseId: String(course.id),
+    assignmentId: String(assignment.id),
+  })
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to={base}>{assignment.title}</Link> · <Link to={`${base}/gradebook`}>Gradebook</Link> · <Link to={`${base}/statistics`}>Statistics</Link>
+        <Link to={base}>{assignment.title}</Link> · <Link to={`${base}/gradebook`}>Gradebook</Link> ·{' '}
+        <Link to={`${base}/statistics`}>Statistics</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">
         Answers to problem {item.position}: {item.title}
@@ -53,7 +59,11 @@ export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
                 <Link
                   to={`?find=${encodeURIComponent(f.name)}`}
                   aria-current={current ? 'page' : undefined}
-                  className={current ? 'rounded-md bg-accent px-3 py-1.5 text-sm font-semibold text-white' : 'rounded-md border border-line bg-white px-3 py-1.5 text-sm hover:bg-paper'}
+                  className={
+                    current
+                      ? 'rounded-md bg-accent px-3 py-1.5 text-sm font-semibold text-white'
+                      : 'rounded-md border border-line bg-white px-3 py-1.5 text-sm hover:bg-paper'
+                  }
                 >
                   {f.label}
                   {f.unit ? ` (${f.unit})` : ''}
@@ -71,8 +81,8 @@ export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
         <div className="relative mt-6 overflow-x-auto rounded-lg border border-line bg-white">
           <table className="w-full text-left text-sm">
             <caption className="px-3 py-2 text-left text-sm text-muted max-sm:sticky max-sm:left-0 max-sm:max-w-[calc(100vw-2rem-2px)]">
-              {answers.answers.length} answer{answers.answers.length === 1 ? '' : 's'} to “{find.label}”, worth {formatPoints(find.share)} points · times in{' '}
-              {assignment.timeZone}
+              {answers.answers.length} answer{answers.answers.length === 1 ? '' : 's'} to “{find.label}”, worth{' '}
+              {formatPoints(find.share)} points · times in {assignment.timeZone}
             </caption>
             <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
               <tr>
@@ -111,8 +121,12 @@ export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
                   </th>
                   <td className="px-3 py-2 tabular-nums">{a.attempt}</td>
                   <td className="px-3 py-2 font-mono whitespace-pre-wrap">{a.answer}</td>
-                  <td className={`px-3 py-2 ${TONE_TEXT[a.verdict ? VERDICT_TONES[a.verdict] : 'muted']}`}>{verdictOf(a)}</td>
-                  <td className="px-3 py-2 tabular-nums">{a.score === null ? '—' : `${formatPoints(a.score)} / ${formatPoints(a.maxScore)}`}</td>
+                  <td className={`px-3 py-2 ${TONE_TEXT[a.verdict ? VERDICT_TONES[a.verdict] : 'muted']}`}>
+                    {verdictOf(a)}
+                  </td>
+                  <td className="px-3 py-2 tabular-nums">
+                    {a.score === null ? '—' : `${formatPoints(a.score)} / ${formatPoints(a.maxScore)}`}
+                  </td>
                   <td className="px-3 py-2">
                     {a.pitfall ? (
                       <>

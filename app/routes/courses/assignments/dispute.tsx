@@ -34,7 +34,9 @@ const FIND_NAME = /^[A-Za-z][A-Za-z0-9_]{0,39}$/
 const STAFF_REFUSAL = 'Only the course’s students raise disputes. Staff settle them from the course’s review queue.'
 const NOT_FOUND = 'There is no such question on this problem, or the problem is not open yet.'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Dispute: ${data.find.label} · ${data.assignment.title} · Cyclewright` : 'Dispute · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Dispute: ${data.find.label} · ${data.assignment.title} · Cyclewright` : 'Dispute · Cyclewright' },
+]
 
 async function guard(request: Request, params: Route.LoaderArgs['params']) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -64,7 +66,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     courseId: ref.courseId,
     assignment: { id: problem.assignment.id, title: problem.assignment.title, timeZone: problem.assignment.timeZone },
     item: { position: problem.item.position, title: problem.item.title },
-    find: { name: find.name, label: find.label, unitHint: find.unitHint, score: find.score, share: find.share, last: find.last },
+    find: {
+      name: find.name,
+      label: find.label,
+      unitHint: find.unitHint,
+      score: find.score,
+      share: find.share,
+      last: find.last,
+    },
     allowance,
     back: problemPath(ref),
   }
@@ -112,7 +121,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   try {
     form = await request.formData()
   } catch {
-    return refuse(400, { reason: '', formError: 'The upload could not be read. Type your reason again, choose the file again, and send.' })
+    return refuse(400, {
+      reason: '',
+      formError: 'The upload could not be read. Type your reason again, choose the file again, and send.',
+    })
   }
   const typedReason = typeof form.get('reason') === 'string' ? (form.get('reason') as string) : ''
   const entry = form.get('file')
@@ -126,10 +138,19 @@ export async function action({ request, params }: Route.ActionArgs) {
       if (issue.path[0] === 'reason') fieldErrors.reason ??= issue.message
       else fieldErrors.findName ??= issue.message
     }
-    return refuse(400, { reason: withoutNul(typedReason), fieldErrors, formError: fieldErrors.findName ?? null, fileNotKept })
+    return refuse(400, {
+      reason: withoutNul(typedReason),
+      fieldErrors,
+      formError: fieldErrors.findName ?? null,
+      fileNotKept,
+    })
   }
   if (file && file.size > MAX_ATTACHMENT_BYTES) {
-    return refuse(413, { reason: withoutNul(typedReason), fieldErrors: { file: `The file must be at most ${MAX_MB} MB; “${file.name}” is larger.` }, fileNotKept })
+    return refuse(413, {
+      reason: withoutNul(typedReason),
+      fieldErrors: { file: `The file must be at most ${MAX_MB} MB; “${file.name}” is larger.` },
+      fileNotKept,
+    })
   }
 
   const result = await raiseDispute(db(), {
@@ -237,7 +258,14 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
       <nav aria-label="Breadcrumb" className="text-sm text-muted">
         <ol className="flex flex-wrap gap-1">
           <li>
-            <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(courseId), assignmentId: String(assignment.id) })}>{assignment.title}</Link>
+            <Link
+              to={href('/courses/:courseId/assignments/:assignmentId', {
+                courseId: String(courseId),
+                assignmentId: String(assignment.id),
+              })}
+            >
+              {assignment.title}
+            </Link>
             <span aria-hidden="true"> › </span>
           </li>
           <li>
@@ -251,7 +279,8 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
       <header>
         <h1 className="text-2xl font-semibold">Dispute the verdict on “{find.label}”</h1>
         <p className="mt-2 text-sm text-muted">
-          Tell the course staff why you think your answer was graded wrongly. They see your answer, your own numbers and the key, and you get an e-mail when they have decided.
+          Tell the course staff why you think your answer was graded wrongly. They see your answer, your own numbers and
+          the key, and you get an e-mail when they have decided.
         </p>
       </header>
 
@@ -262,16 +291,22 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
         {last === null ? (
           <p className="mt-2 text-sm">You have not answered this question yet.</p>
         ) : last.verdict === null ? (
-          <p className="mt-2 text-sm">Your latest answer “{last.answer}” is still being graded. A dispute is about a graded answer: wait for its verdict.</p>
+          <p className="mt-2 text-sm">
+            Your latest answer “{last.answer}” is still being graded. A dispute is about a graded answer: wait for its
+            verdict.
+          </p>
         ) : (
           <dl className="mt-2 grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
             <dt className="text-muted">Answer (attempt {last.attempt})</dt>
             <dd className="font-mono">
-              {last.answer} {find.unitHint ? <span className="font-sans text-muted">(unit: {find.unitHint})</span> : null}
+              {last.answer}{' '}
+              {find.unitHint ? <span className="font-sans text-muted">(unit: {find.unitHint})</span> : null}
             </dd>
             <dt className="text-muted">Verdict</dt>
             <dd>
-              <span className={cn('font-semibold', last.verdict === 'correct' ? 'text-ok' : 'text-danger')}>{verdictLabel(last.verdict)}</span>
+              <span className={cn('font-semibold', last.verdict === 'correct' ? 'text-ok' : 'text-danger')}>
+                {verdictLabel(last.verdict)}
+              </span>
               {last.message && last.verdict !== 'correct' ? <>: {last.message}</> : null}
             </dd>
             {last.pitfallFeedback ? (
@@ -281,9 +316,7 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
               </>
             ) : null}
             <dt className="text-muted">Score for this question</dt>
-            <dd>
-              {formatScore(find.score, find.share)} points
-            </dd>
+            <dd>{formatScore(find.score, find.share)} points</dd>
           </dl>
         )}
       </section>
@@ -298,7 +331,11 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
         </Notice>
       ) : (
         <>
-          {allowance.until ? <p className="text-sm">Disputes on this assignment are open until {formatInZone(allowance.until, assignment.timeZone)}.</p> : null}
+          {allowance.until ? (
+            <p className="text-sm">
+              Disputes on this assignment are open until {formatInZone(allowance.until, assignment.timeZone)}.
+            </p>
+          ) : null}
           {actionData?.formError ? (
             <Notice tone="error">
               <p id="dispute-form-error" className="font-semibold">
@@ -329,8 +366,13 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
                 defaultValue={actionData?.reason ?? ''}
                 onChange={(e) => setLength(e.currentTarget.value.length)}
                 aria-invalid={reasonError ? true : undefined}
-                aria-describedby={['dispute-reason-count', reasonError ? 'dispute-reason-error' : null].filter(Boolean).join(' ')}
-                className={cn('rounded-md border bg-white px-3 py-2 text-base shadow-sm', reasonError ? 'border-danger' : 'border-line focus:border-accent')}
+                aria-describedby={['dispute-reason-count', reasonError ? 'dispute-reason-error' : null]
+                  .filter(Boolean)
+                  .join(' ')}
+                className={cn(
+                  'rounded-md border bg-white px-3 py-2 text-base shadow-sm',
+                  reasonError ? 'border-danger' : 'border-line focus:border-accent',
+                )}
               />
               <p id="dispute-reason-count" className="text-sm text-muted">
                 {REASON_MIN} to {REASON_MAX} characters; {typedLength} typed.
@@ -355,16 +397,26 @@ export default function DisputeRoute({ loaderData, actionData }: Route.Component
                   const input = e.currentTarget
                   const chosen = input.files?.[0]
                   // Checked here too so an oversized file is never posted and the reason stays in the box.
-                  const message = chosen && chosen.size > MAX_ATTACHMENT_BYTES ? `The file must be at most ${MAX_MB} MB; “${chosen.name}” is larger.` : null
+                  const message =
+                    chosen && chosen.size > MAX_ATTACHMENT_BYTES
+                      ? `The file must be at most ${MAX_MB} MB; “${chosen.name}” is larger.`
+                      : null
                   input.setCustomValidity(message ?? '')
                   setFileError(message)
                 }}
                 aria-invalid={shownFileError ? true : undefined}
-                aria-describedby={['dispute-file-hint', shownFileError ? 'dispute-file-error' : null, actionData?.fileNotKept ? 'dispute-file-again' : null].filter(Boolean).join(' ')}
+                aria-describedby={[
+                  'dispute-file-hint',
+                  shownFileError ? 'dispute-file-error' : null,
+                  actionData?.fileNotKept ? 'dispute-file-again' : null,
+                ]
+                  .filter(Boolean)
+                  .join(' ')}
                 className={cn('rounded-md border px-3 py-2', shownFileError ? 'border-danger' : 'border-line')}
               />
               <p id="dispute-file-hint" className="text-sm text-muted">
-                PDF, PNG or JPEG, at most {MAX_MB} MB. A PDF is offered to the staff as a download and is never opened inside this site, so nothing inside it runs here.
+                PDF, PNG or JPEG, at most {MAX_MB} MB. A PDF is offered to the staff as a download and is never opened
+                inside this site, so nothing inside it runs here.
               </p>
               {shownFileError ? (
                 <p id="dispute-file-error" className="text-sm text-danger">

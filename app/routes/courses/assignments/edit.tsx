@@ -2,13 +2,21 @@ import { data, redirect } from 'react-router'
 import { AssignmentForm } from '#app/components/assignment-form.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
-import { getEditAssignmentForm, listLockedItems, orErrorPage, runAssignmentFormAction, updateAssignment } from '#app/server/assignments.server.ts'
+import {
+  getEditAssignmentForm,
+  listLockedItems,
+  orErrorPage,
+  runAssignmentFormAction,
+  updateAssignment,
+} from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/edit'
 import { readFormData } from '#app/lib/form.ts'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${data.assignment.title} · Cyclewright` : 'Edit assignment · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Edit ${data.assignment.title} · Cyclewright` : 'Edit assignment · Cyclewright' },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')

@@ -7,14 +7,27 @@ import { formatInZone, toLocalDateTimeValue } from '#app/lib/dates.ts'
 import { type FieldErrors, parseForm, readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { echoValues, textField } from '#app/lib/text-field.ts'
-import { ExtensionFormSchema, listExtensions, orErrorPage, removeExtension, setExtension } from '#app/server/assignments.server.ts'
+import {
+  ExtensionFormSchema,
+  listExtensions,
+  orErrorPage,
+  removeExtension,
+  setExtension,
+} from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/extensions'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Extensions · ${data.assignment.title} · Cyclewright` : 'Extensions · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Extensions · ${data.assignment.title} · Cyclewright` : 'Extensions · Cyclewright' },
+]
 
-const RemoveSchema = z.object({ userId: z.string().regex(/^\d{1,9}$/).transform(Number) })
+const RemoveSchema = z.object({
+  userId: z
+    .string()
+    .regex(/^\d{1,9}$/)
+    .transform(Number),
+})
 
 /** The server's extension rules, with the reason refused when it holds control characters (a NUL cannot be stored). */
 const ExtensionPageSchema = ExtensionFormSchema.extend({
@@ -36,7 +49,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   const assignmentId = requireIdParam(params.assignmentId, 'assignment')
   const { user } = await requireCourseRole(request, courseId, ['instructor'])
   const formData = await readFormData(request)
-  const here = href('/courses/:courseId/assignments/:assignmentId/extensions', { courseId: String(courseId), assignmentId: String(assignmentId) })
+  const here = href('/courses/:courseId/assignments/:assignmentId/extensions', {
+    courseId: String(courseId),
+    assignmentId: String(assignmentId),
+  })
   if (formData.get('intent') === 'remove') {
     const parsed = RemoveSchema.safeParse({ userId: formData.get('userId') })
     if (!parsed.success) throw data('Choose a student’s extension to remove.', { status: 400 })
@@ -47,7 +63,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: echoValues(form.values) }, { status: 400 })
   const result = await orErrorPage(setExtension(db(), { courseId, assignmentId, actorId: user.id, input: form.value }))
   if (!result.ok) {
-    const typed = echoValues(Object.fromEntries(['userId', 'dueAt', 'extraAttempts', 'reason'].map((k) => [k, String(formData.get(k) ?? '')])))
+    const typed = echoValues(
+      Object.fromEntries(['userId', 'dueAt', 'extraAttempts', 'reason'].map((k) => [k, String(formData.get(k) ?? '')])),
+    )
     return data({ fieldErrors: result.fieldErrors, values: typed }, { status: 400 })
   }
   return redirect(`${here}?done=saved`)
@@ -65,7 +83,10 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
     extraAttempts: prefill ? String(prefill.extraAttempts) : '0',
     reason: prefill?.reason ?? '',
   }
-  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
+  const base = href('/courses/:courseId/assignments/:assignmentId', {
+    courseId: String(course.id),
+    assignmentId: String(assignment.id),
+  })
   const errorOf = (key: string) =>
     errors[key] ? (
       <p id={`ext-${key}-error`} className="text-sm text-danger">
@@ -76,7 +97,8 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
     'aria-invalid': errors[key] ? true : undefined,
     'aria-describedby': [hint, errors[key] ? `ext-${key}-error` : null].filter(Boolean).join(' ') || undefined,
   })
-  const input = (key: string) => `min-w-0 rounded-md border bg-white px-3 py-2 shadow-sm ${errors[key] ? 'border-danger' : 'border-line'}`
+  const input = (key: string) =>
+    `min-w-0 rounded-md border bg-white px-3 py-2 shadow-sm ${errors[key] ? 'border-danger' : 'border-line'}`
   return (
     <div>
       <p className="text-sm text-muted">
@@ -84,8 +106,9 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Extensions</h1>
       <p className="mt-2 text-muted">
-        The assignment is due {formatInZone(assignment.dueAt, timeZone)} with {assignment.attemptsPerFind} attempt{assignment.attemptsPerFind === 1 ? '' : 's'} per find.
-        An extension gives one student a later due date, extra attempts, or both.
+        The assignment is due {formatInZone(assignment.dueAt, timeZone)} with {assignment.attemptsPerFind} attempt
+        {assignment.attemptsPerFind === 1 ? '' : 's'} per find. An extension gives one student a later due date, extra
+        attempts, or both.
       </p>
       {done === 'saved' ? (
         <Notice tone="ok" className="mt-4">
@@ -98,7 +121,10 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
         </Notice>
       ) : null}
       {mayChange ? (
-        <section aria-labelledby="ext-form-title" className="mt-6 max-w-3xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
+        <section
+          aria-labelledby="ext-form-title"
+          className="mt-6 max-w-3xl rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6"
+        >
           <h2 id="ext-form-title" className="text-xl font-semibold">
             Give or change an extension
           </h2>
@@ -115,7 +141,13 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
                 <label htmlFor="ext-userId" className="text-sm font-medium">
                   Student
                 </label>
-                <select id="ext-userId" name="userId" defaultValue={values.userId ?? ''} className={input('userId')} {...aria('userId')}>
+                <select
+                  id="ext-userId"
+                  name="userId"
+                  defaultValue={values.userId ?? ''}
+                  className={input('userId')}
+                  {...aria('userId')}
+                >
                   <option value="">Choose a student…</option>
                   {students.map((s) => (
                     <option key={s.userId} value={String(s.userId)}>
@@ -129,7 +161,14 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
                 <label htmlFor="ext-dueAt" className="text-sm font-medium">
                   New due date <span className="font-normal text-muted">({timeZone}; optional)</span>
                 </label>
-                <input id="ext-dueAt" type="datetime-local" name="dueAt" defaultValue={values.dueAt ?? ''} className={input('dueAt')} {...aria('dueAt', 'ext-dueAt-hint')} />
+                <input
+                  id="ext-dueAt"
+                  type="datetime-local"
+                  name="dueAt"
+                  defaultValue={values.dueAt ?? ''}
+                  className={input('dueAt')}
+                  {...aria('dueAt', 'ext-dueAt-hint')}
+                />
                 <p id="ext-dueAt-hint" className="text-sm text-muted">
                   Leave empty to keep the assignment’s due date.
                 </p>
@@ -139,14 +178,28 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
                 <label htmlFor="ext-extraAttempts" className="text-sm font-medium">
                   Extra attempts per find
                 </label>
-                <input id="ext-extraAttempts" name="extraAttempts" inputMode="numeric" defaultValue={values.extraAttempts ?? '0'} className={input('extraAttempts')} {...aria('extraAttempts')} />
+                <input
+                  id="ext-extraAttempts"
+                  name="extraAttempts"
+                  inputMode="numeric"
+                  defaultValue={values.extraAttempts ?? '0'}
+                  className={input('extraAttempts')}
+                  {...aria('extraAttempts')}
+                />
                 {errorOf('extraAttempts')}
               </div>
               <div className="flex flex-col gap-1">
                 <label htmlFor="ext-reason" className="text-sm font-medium">
                   Reason <span className="font-normal text-muted">(staff only)</span>
                 </label>
-                <input id="ext-reason" name="reason" maxLength={500} defaultValue={values.reason ?? ''} className={input('reason')} {...aria('reason')} />
+                <input
+                  id="ext-reason"
+                  name="reason"
+                  maxLength={500}
+                  defaultValue={values.reason ?? ''}
+                  className={input('reason')}
+                  {...aria('reason')}
+                />
                 {errorOf('reason')}
               </div>
               <div className="sm:col-span-2">
@@ -170,10 +223,18 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
               <caption className="sr-only">Extensions on {assignment.title}</caption>
               <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
                 <tr>
-                  <th scope="col" className="px-4 py-2">Student</th>
-                  <th scope="col" className="px-4 py-2">Due ({timeZone})</th>
-                  <th scope="col" className="px-4 py-2">Extra attempts</th>
-                  <th scope="col" className="px-4 py-2">Reason</th>
+                  <th scope="col" className="px-4 py-2">
+                    Student
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Due ({timeZone})
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Extra attempts
+                  </th>
+                  <th scope="col" className="px-4 py-2">
+                    Reason
+                  </th>
                   {mayChange ? (
                     <th scope="col" className="px-4 py-2">
                       <span className="sr-only">Actions</span>
@@ -187,7 +248,9 @@ export default function ExtensionsRoute({ loaderData, actionData }: Route.Compon
                     <th scope="row" className="px-4 py-2 font-normal">
                       {e.name}
                     </th>
-                    <td className="px-4 py-2">{e.dueAt ? formatInZone(e.dueAt, timeZone, { withZone: false }) : 'Assignment’s'}</td>
+                    <td className="px-4 py-2">
+                      {e.dueAt ? formatInZone(e.dueAt, timeZone, { withZone: false }) : 'Assignment’s'}
+                    </td>
                     <td className="px-4 py-2">{e.extraAttempts}</td>
                     <td className="px-4 py-2">{e.reason || '—'}</td>
                     {mayChange ? (

@@ -4,7 +4,12 @@
 // every 10 s otherwise.
 import { data, href, Link, useLocation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
-import { AssignmentGradebookTable, DroppedStudents, ExpandLink, GradebookFilters } from '#app/components/gradebook-table.tsx'
+import {
+  AssignmentGradebookTable,
+  DroppedStudents,
+  ExpandLink,
+  GradebookFilters,
+} from '#app/components/gradebook-table.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
 import { formatPoints } from '#app/lib/points.ts'
 import { requireIdParam } from '#app/lib/params.ts'
@@ -14,8 +19,9 @@ import { db } from '#app/server/db/client.server.ts'
 import { getAssignmentGradebook, gradebookViewProblem, readGradebookView } from '#app/server/gradebook.server.ts'
 import type { Route } from './+types/gradebook'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Gradebook: ${data.gradebook.assignment.title} · Cyclewright` : 'Gradebook · Cyclewright' }]
-
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Gradebook: ${data.gradebook.assignment.title} · Cyclewright` : 'Gradebook · Cyclewright' },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -33,19 +39,27 @@ export default function AssignmentGradebookRoute({ loaderData }: Route.Component
   const { course } = loaderData
   const { search } = useLocation()
   const id = loaderData.gradebook.assignment.id
-  const { gradebook, refreshError } = useLiveGradebook(['assignment-gradebook', id], `/api/assignments/${id}/gradebook${search}`, loaderData.gradebook)
+  const { gradebook, refreshError } = useLiveGradebook(
+    ['assignment-gradebook', id],
+    `/api/assignments/${id}/gradebook${search}`,
+    loaderData.gradebook,
+  )
   const { assignment } = gradebook
-  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
+  const base = href('/courses/:courseId/assignments/:assignmentId', {
+    courseId: String(course.id),
+    assignmentId: String(assignment.id),
+  })
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to={base}>{assignment.title}</Link> · <Link to={href('/courses/:courseId/gradebook', { courseId: String(course.id) })}>Course gradebook</Link>
+        <Link to={base}>{assignment.title}</Link> ·{' '}
+        <Link to={href('/courses/:courseId/gradebook', { courseId: String(course.id) })}>Course gradebook</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Gradebook: {assignment.title}</h1>
       <p className="mt-1 text-sm text-muted">
         Due {formatInZone(assignment.dueAt, assignment.timeZone)}
-        {assignment.stage === 'due' ? '' : ' (not due yet: not counted in the course total)'} · {formatPoints(assignment.points)} points ·{' '}
-        {assignment.attemptsPerFind} attempts per question ·{' '}
+        {assignment.stage === 'due' ? '' : ' (not due yet: not counted in the course total)'} ·{' '}
+        {formatPoints(assignment.points)} points · {assignment.attemptsPerFind} attempts per question ·{' '}
         <Link to={`${base}/statistics`} className="underline">
           Statistics
         </Link>

@@ -2,7 +2,12 @@ import { data, redirect } from 'react-router'
 import { AssignmentForm } from '#app/components/assignment-form.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
-import { createAssignment, getNewAssignmentForm, orErrorPage, runAssignmentFormAction } from '#app/server/assignments.server.ts'
+import {
+  createAssignment,
+  getNewAssignmentForm,
+  orErrorPage,
+  runAssignmentFormAction,
+} from '#app/server/assignments.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/new'
@@ -21,7 +26,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const { user } = await requireCourseRole(request, courseId, ['instructor'])
   const out = await orErrorPage(
-    runAssignmentFormAction(await readFormData(request), { locked: [], save: (state) => createAssignment(db(), { courseId, user, state }) }),
+    runAssignmentFormAction(await readFormData(request), {
+      locked: [],
+      save: (state) => createAssignment(db(), { courseId, user, state }),
+    }),
   )
   if (out.status === 'saved') return redirect(`/courses/${courseId}/assignments/${out.assignmentId}`)
   return data(out.answer, { status: out.status })

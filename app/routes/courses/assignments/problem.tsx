@@ -19,7 +19,14 @@ import { disputeOffers, listMyDisputes } from '#app/server/disputes.server.ts'
 import { DROPPED_SUBMIT_MESSAGE } from '#app/lib/dropped.ts'
 import { droppedFrom } from '#app/server/membership-state.server.ts'
 import { notOpenSentence, notYetOpen } from '#app/server/assignments.server.ts'
-import { FORM_TOKEN_PATTERN, getStudentProblem, newFormToken, submitAnswers, type MyResults, type Receipt } from '#app/server/submissions.server.ts'
+import {
+  FORM_TOKEN_PATTERN,
+  getStudentProblem,
+  newFormToken,
+  submitAnswers,
+  type MyResults,
+  type Receipt,
+} from '#app/server/submissions.server.ts'
 import type { Route } from './+types/problem'
 import { formatScore } from '#app/lib/points.ts'
 import { readFormData } from '#app/lib/form.ts'
@@ -27,7 +34,13 @@ import { readFormData } from '#app/lib/form.ts'
 const NOT_FOUND = 'There is no such problem, or it is not open yet.'
 
 export const meta: Route.MetaFunction = ({ data }) => [
-  { title: data ? (data.notOpen ? `${data.notOpen.title} · Cyclewright` : `${data.problem.item.title} · ${data.problem.assignment.title} · Cyclewright`) : 'Problem · Cyclewright' },
+  {
+    title: data
+      ? data.notOpen
+        ? `${data.notOpen.title} · Cyclewright`
+        : `${data.problem.item.title} · ${data.problem.assignment.title} · Cyclewright`
+      : 'Problem · Cyclewright',
+  },
 ]
 
 async function guard(request: Request, params: Route.LoaderArgs['params']) {
@@ -44,11 +57,21 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const receiptParam = new URL(request.url).searchParams.get('receipt')
   const receiptId = !staff && receiptParam && /^\d{1,9}$/.test(receiptParam) ? Number(receiptParam) : null
   // Staff see their own variant with its key, before it opens too; nothing they do is recorded.
-  const problem = await getStudentProblem(db(), staff ? { ...ref, showKey: true, allowBeforeOpen: true } : { ...ref, receiptId })
+  const problem = await getStudentProblem(
+    db(),
+    staff ? { ...ref, showKey: true, allowBeforeOpen: true } : { ...ref, receiptId },
+  )
   if (!problem) {
     // Not open yet: say when, rather than that it does not exist.
     const opening = staff ? null : await notYetOpen(db(), ref)
-    if (opening) return { notOpen: { title: opening.title, message: notOpenSentence(opening), back: `/courses/${course.id}/assignments/${ref.assignmentId}` } }
+    if (opening)
+      return {
+        notOpen: {
+          title: opening.title,
+          message: notOpenSentence(opening),
+          back: `/courses/${course.id}/assignments/${ref.assignmentId}`,
+        },
+      }
     throw data(NOT_FOUND, { status: 404 })
   }
   // Staff preview their own variant: they have no disputes of their own here.
@@ -58,10 +81,22 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   // A dropped student reads their past work; the form is closed and says why.
   const dropped = !staff && (await droppedFrom(db(), ref.userId, ref.courseId)) !== null
   const disputedParam = new URL(request.url).searchParams.get('disputed')
-  const disputed = !staff && disputedParam && problem.results.finds.some((f) => f.name === disputedParam) ? disputedParam : null
+  const disputed =
+    !staff && disputedParam && problem.results.finds.some((f) => f.name === disputedParam) ? disputedParam : null
   // Each rendered form gets its own one-time token: posting it again (a reload, a double click) stores nothing new.
   const formToken = staff ? null : newFormToken()
-  return { notOpen: null, course: { id: course.id, code: course.code, title: course.title }, staff, problem, receiptId, disputes, offers, dropped, disputed, formToken }
+  return {
+    notOpen: null,
+    course: { id: course.id, code: course.code, title: course.title },
+    staff,
+    problem,
+    receiptId,
+    disputes,
+    offers,
+    dropped,
+    disputed,
+    formToken,
+  }
 }
 
 /** Longest text read per answer field; the server refuses anything over its own limit with a message. */
@@ -73,7 +108,10 @@ const SubmitFormSchema = z.object({
   inPlace: z.literal('1').optional().catch(undefined),
   // A malformed token is treated as none (a fresh press), never as an error.
   formToken: z.string().regex(FORM_TOKEN_PATTERN).optional().catch(undefined),
-  answers: z.record(z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,39}$/), z.string().transform((s) => s.slice(0, MAX_TYPED))),
+  answers: z.record(
+    z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,39}$/),
+    z.string().transform((s) => s.slice(0, MAX_TYPED)),
+  ),
 })
 
 function readSubmitForm(form: FormData) {
@@ -87,7 +125,11 @@ function readSubmitForm(form: FormData) {
   }
   const inPlace = form.get('inPlace')
   const formToken = form.get('formToken')
-  return SubmitFormSchema.parse({ inPlace: typeof inPlace === 'string' ? inPlace : undefined, formToken: typeof formToken === 'string' ? formToken : undefined, answers })
+  return SubmitFormSchema.parse({
+    inPlace: typeof inPlace === 'string' ? inPlace : undefined,
+    formToken: typeof formToken === 'string' ? formToken : undefined,
+    answers,
+  })
 }
 
 export type SubmitActionData = {
@@ -100,7 +142,8 @@ export type SubmitActionData = {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { course, ref } = await guard(request, params)
-  if (course.role !== 'student') forbidden('Staff preview: your answers are not recorded. Only the course’s students submit answers.')
+  if (course.role !== 'student')
+    forbidden('Staff preview: your answers are not recorded. Only the course’s students submit answers.')
   const form = readSubmitForm(await readFormData(request))
   const result = await submitAnswers(db(), { ...ref, answers: form.answers, formToken: form.formToken ?? null })
   if (result.ok && !form.inPlace) {
@@ -123,11 +166,12 @@ function useHydrated() {
 }
 
 async function fetchMyResults(assignmentId: number, position: number): Promise<MyResults> {
-  const res = await fetch(`/api/assignments/${assignmentId}/problems/${position}/mine`, { headers: { Accept: 'application/json' } })
+  const res = await fetch(`/api/assignments/${assignmentId}/problems/${position}/mine`, {
+    headers: { Accept: 'application/json' },
+  })
   if (!res.ok) throw new Error(`Your results could not be read just now (${res.status}).`)
   return (await res.json()) as MyResults
 }
-
 
 export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
   if (loaderData.notOpen !== null) {
@@ -147,7 +191,13 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
 /** The page's data when the problem is open (or staff preview it). */
 export type ProblemPageData = Extract<Route.ComponentProps['loaderData'], { notOpen: null }>
 
-function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; actionData: Route.ComponentProps['actionData'] }) {
+function ProblemPage({
+  loaderData,
+  actionData,
+}: {
+  loaderData: ProblemPageData
+  actionData: Route.ComponentProps['actionData']
+}) {
   const { course, staff, problem, receiptId, disputes, offers, dropped, disputed, formToken } = loaderData
   const { assignment, item } = problem
   const tz = assignment.timeZone
@@ -174,11 +224,21 @@ function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; 
   // A submission made in place (fetcher) is newer than one posted without JavaScript.
   const submitted = (fetcher.data ?? actionData) as SubmitActionData | undefined
   const shownReceiptId = submitted?.receipt?.submissionId ?? receiptId
-  const receipt = (shownReceiptId !== null ? results.receipts.find((r) => r.submissionId === shownReceiptId) : undefined) ?? submitted?.receipt ?? null
+  const receipt =
+    (shownReceiptId !== null ? results.receipts.find((r) => r.submissionId === shownReceiptId) : undefined) ??
+    submitted?.receipt ??
+    null
 
-  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
+  const base = href('/courses/:courseId/assignments/:assignmentId', {
+    courseId: String(course.id),
+    assignmentId: String(assignment.id),
+  })
   const here = `${base}/problems/${item.position}`
-  const mode: AnswerFormMode = staff ? 'preview' : !dropped && (problem.window.state === 'open' || problem.window.state === 'late') ? 'submit' : 'closed'
+  const mode: AnswerFormMode = staff
+    ? 'preview'
+    : !dropped && (problem.window.state === 'open' || problem.window.state === 'late')
+      ? 'submit'
+      : 'closed'
   const message = windowMessage(problem.window, (d) => formatInZone(d, tz))
   const unitOf = new Map(results.finds.map((f) => [f.name, f.unitHint]))
   const disputedLabel = disputed ? results.finds.find((f) => f.name === disputed)?.label : null
@@ -231,7 +291,11 @@ function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; 
       ) : null}
 
       {problem.promptHtml === null ? (
-        <Notice tone="error">{staff ? 'This problem version could not draw a variant. Check it in the problem bank.' : problem.variantError}</Notice>
+        <Notice tone="error">
+          {staff
+            ? 'This problem version could not draw a variant. Check it in the problem bank.'
+            : problem.variantError}
+        </Notice>
       ) : (
         <>
           <section aria-labelledby="prompt-title" className="rounded-lg border border-line bg-white p-5 shadow-sm">
@@ -239,10 +303,15 @@ function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; 
               Problem statement
             </h2>
             {/* Rendered and sanitised on the server (Markdown + KaTeX, tags and attributes allowed by a list). */}
-            <div className="prompt-html leading-relaxed [&_p]:mt-2" dangerouslySetInnerHTML={{ __html: problem.promptHtml }} />
+            <div
+              className="prompt-html leading-relaxed [&_p]:mt-2"
+              dangerouslySetInnerHTML={{ __html: problem.promptHtml }}
+            />
           </section>
 
-          <div aria-live="polite">{receipt ? <ReceiptBox receipt={receipt} timeZone={tz} live={hydrated && !staff} /> : null}</div>
+          <div aria-live="polite">
+            {receipt ? <ReceiptBox receipt={receipt} timeZone={tz} live={hydrated && !staff} /> : null}
+          </div>
 
           <section aria-labelledby="answers-title" className="rounded-lg border border-line bg-white p-5 shadow-sm">
             <h2 id="answers-title" className="mb-3 text-lg font-semibold">
@@ -259,7 +328,16 @@ function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; 
               Form={fetcher.Form}
               busy={fetcher.state !== 'idle'}
               inPlace={hydrated}
-              disputes={staff ? null : { list: disputes, offers, timeZone: tz, href: (findName) => `${here}/dispute?find=${encodeURIComponent(findName)}` }}
+              disputes={
+                staff
+                  ? null
+                  : {
+                      list: disputes,
+                      offers,
+                      timeZone: tz,
+                      href: (findName) => `${here}/dispute?find=${encodeURIComponent(findName)}`,
+                    }
+              }
             />
             {query.isError && results.pending ? (
               <p className="mt-3 text-sm text-warn" role="status">
@@ -297,7 +375,10 @@ function ProblemPage({ loaderData, actionData }: { loaderData: ProblemPageData; 
         </section>
       ) : null}
 
-      <nav aria-label="Other problems in this assignment" className="flex flex-wrap justify-between gap-3 border-t border-line pt-4 text-sm">
+      <nav
+        aria-label="Other problems in this assignment"
+        className="flex flex-wrap justify-between gap-3 border-t border-line pt-4 text-sm"
+      >
         {item.position > 1 ? (
           <Link to={`${base}/problems/${item.position - 1}`} rel="prev">
             ← Problem {item.position - 1}

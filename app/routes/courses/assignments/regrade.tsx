@@ -15,7 +15,9 @@ import { formatPoints } from '#app/lib/points.ts'
 import { readFormData } from '#app/lib/form.ts'
 import { inSentence, verdictLabel } from '#app/lib/labels.ts'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `Regrade ${data?.item.problemTitle ?? 'problem'} · Cyclewright` }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `Regrade ${data?.item.problemTitle ?? 'problem'} · Cyclewright` },
+]
 
 const Id = z.coerce.number().int().positive().max(2_147_483_647)
 
@@ -72,7 +74,15 @@ export async function action({ request, params }: Route.ActionArgs) {
   const values: Record<string, string> = {}
   for (const [k, v] of form.entries()) if (typeof v === 'string') values[k] = v
   const parsed = ApplySchema.safeParse(values)
-  if (!parsed.success) return data({ formError: 'Choose a version to regrade to.', fieldErrors: { version: 'Choose a version.' } as Record<string, string>, values }, { status: 400 })
+  if (!parsed.success)
+    return data(
+      {
+        formError: 'Choose a version to regrade to.',
+        fieldErrors: { version: 'Choose a version.' } as Record<string, string>,
+        values,
+      },
+      { status: 400 },
+    )
   try {
     const regradeId = await applyRegrade(db(), {
       courseId,
@@ -110,11 +120,18 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
   const actionData = useActionData<typeof action>()
   const navigation = useNavigation()
   const applying = navigation.state === 'submitting' && navigation.formMethod?.toUpperCase() === 'POST'
-  const previewing = navigation.state === 'loading' && navigation.location?.pathname === path && navigation.location.search.includes('preview')
+  const previewing =
+    navigation.state === 'loading' &&
+    navigation.location?.pathname === path &&
+    navigation.location.search.includes('preview')
   const values = actionData?.values ?? loaderData.values
   const fieldErrors: Record<string, string> = actionData?.fieldErrors ?? previewError?.fieldErrors ?? {}
   const busy = regrades.some((r) => isRegradeActive(r.status))
-  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', { courseId: String(item.courseId), assignmentId: String(item.assignmentId), position: String(item.position) })
+  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', {
+    courseId: String(item.courseId),
+    assignmentId: String(item.assignmentId),
+    position: String(item.position),
+  })
 
   const errorId = (field: string) => `${field.replace(/[^A-Za-z0-9_-]/g, '-')}-error`
   const fieldProps = (field: string) => ({
@@ -127,28 +144,43 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
         {fieldErrors[field]}
       </p>
     ) : null
-  const inputClass = (field: string, minWidth = 'min-w-24') => `w-full ${minWidth} rounded-md border bg-white px-2 py-1.5 ${fieldErrors[field] ? 'border-danger' : 'border-line'}`
+  const inputClass = (field: string, minWidth = 'min-w-24') =>
+    `w-full ${minWidth} rounded-md border bg-white px-2 py-1.5 ${fieldErrors[field] ? 'border-danger' : 'border-line'}`
 
   return (
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(item.courseId), assignmentId: String(item.assignmentId) })}>{item.assignmentTitle}</Link> ·{' '}
-          <Link to={`${problemHref}/answers`}>Answers to problem {item.position}</Link>
+          <Link
+            to={href('/courses/:courseId/assignments/:assignmentId', {
+              courseId: String(item.courseId),
+              assignmentId: String(item.assignmentId),
+            })}
+          >
+            {item.assignmentTitle}
+          </Link>{' '}
+          · <Link to={`${problemHref}/answers`}>Answers to problem {item.position}</Link>
         </p>
         <h1 className="mt-1 text-3xl font-semibold">
           Regrade problem {item.position}: {item.problemTitle}
         </h1>
         <p className="mt-2 max-w-3xl text-muted">
-          Move this problem to another version (a corrected key, other points) or change a find’s tolerance for this assignment. The preview shows
-          whose scores would change before anything is written; students keep the same numbers, since their variant comes from the problem, not the
-          version. The problem is worth {points(item.points)} points in this assignment.
+          Move this problem to another version (a corrected key, other points) or change a find’s tolerance for this
+          assignment. The preview shows whose scores would change before anything is written; students keep the same
+          numbers, since their variant comes from the problem, not the version. The problem is worth{' '}
+          {points(item.points)} points in this assignment.
         </p>
       </div>
 
-      {progress ? <RegradeProgress key={progress.id} initial={progress} refreshHref={`${path}?regrade=${progress.id}`} /> : null}
+      {progress ? (
+        <RegradeProgress key={progress.id} initial={progress} refreshHref={`${path}?regrade=${progress.id}`} />
+      ) : null}
 
-      <Form method="get" className="space-y-6 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5" aria-labelledby="regrade-form-title">
+      <Form
+        method="get"
+        className="space-y-6 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5"
+        aria-labelledby="regrade-form-title"
+      >
         <h2 id="regrade-form-title" className="text-xl font-semibold">
           What to regrade with
         </h2>
@@ -158,12 +190,19 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
             {item.versions.map((v) => (
               <li key={v.id} className="flex flex-wrap items-center gap-x-3">
                 <label className="flex items-center gap-2">
-                  <input type="radio" name="version" value={v.id} defaultChecked={String(v.id) === values.version} className="size-4" />
+                  <input
+                    type="radio"
+                    name="version"
+                    value={v.id}
+                    defaultChecked={String(v.id) === values.version}
+                    className="size-4"
+                  />
                   Version {v.number}
                   {v.current ? ' (used now)' : ''}
                 </label>
                 <span className="text-sm text-muted">
-                  {v.frozen ? 'frozen' : 'not frozen yet (regrading to it freezes it)'} · saved {formatInZone(v.createdAt, timeZone)}
+                  {v.frozen ? 'frozen' : 'not frozen yet (regrading to it freezes it)'} · saved{' '}
+                  {formatInZone(v.createdAt, timeZone)}
                 </span>
                 <Link to={`/bank/${item.problemId}?version=${v.number}`} className="text-sm">
                   See version {v.number} in the bank
@@ -179,8 +218,9 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
           <p id="tolerances-note" className="pb-2 text-sm">
             <span className="font-semibold">Tolerances for this assignment</span>{' '}
             <span className="text-muted">
-              (the finds of version {targetVersion.number}; after choosing another version, press Preview to see its finds). Relative: a fraction
-              (0.05) or a percentage (5 %). Absolute: a value in the unit given, or in the find’s unit when the unit is empty.
+              (the finds of version {targetVersion.number}; after choosing another version, press Preview to see its
+              finds). Relative: a fraction (0.05) or a percentage (5 %). Absolute: a value in the unit given, or in the
+              find’s unit when the unit is empty.
             </span>
           </p>
           <div className="relative overflow-x-auto">
@@ -209,14 +249,23 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                 {finds.map((f) => (
                   <tr key={f.name} className="border-t border-line align-top">
                     <th scope="row" className="min-w-36 px-2 py-2 font-normal">
-                      {f.label} <span className="text-muted">({f.unit || 'pure number'}, {points(f.points)} pt)</span>
+                      {f.label}{' '}
+                      <span className="text-muted">
+                        ({f.unit || 'pure number'}, {points(f.points)} pt)
+                      </span>
                     </th>
                     <td className="px-2 py-2">{toleranceText(f.tolerance)}</td>
                     <td className="px-2 py-2">
                       <label htmlFor={`kind-${f.name}`} className="sr-only">
                         Tolerance for {f.label}
                       </label>
-                      <select id={`kind-${f.name}`} name={`kind.${f.name}`} defaultValue={values[`kind.${f.name}`] ?? 'default'} className={inputClass(`kind.${f.name}`, 'min-w-36')} {...fieldProps(`kind.${f.name}`)}>
+                      <select
+                        id={`kind-${f.name}`}
+                        name={`kind.${f.name}`}
+                        defaultValue={values[`kind.${f.name}`] ?? 'default'}
+                        className={inputClass(`kind.${f.name}`, 'min-w-36')}
+                        {...fieldProps(`kind.${f.name}`)}
+                      >
                         <option value="default">The version’s</option>
                         <option value="relative">Relative</option>
                         <option value="absolute">Absolute</option>
@@ -227,7 +276,13 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                       <label htmlFor={`value-${f.name}`} className="sr-only">
                         Tolerance value for {f.label}
                       </label>
-                      <input id={`value-${f.name}`} name={`value.${f.name}`} defaultValue={values[`value.${f.name}`] ?? ''} className={inputClass(`value.${f.name}`)} {...fieldProps(`value.${f.name}`)} />
+                      <input
+                        id={`value-${f.name}`}
+                        name={`value.${f.name}`}
+                        defaultValue={values[`value.${f.name}`] ?? ''}
+                        className={inputClass(`value.${f.name}`)}
+                        {...fieldProps(`value.${f.name}`)}
+                      />
                       {errorText(`value.${f.name}`)}
                     </td>
                     <td className="px-2 py-2">
@@ -257,7 +312,10 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
 
       {previewError ? <Notice tone="error">{previewError.message}</Notice> : null}
       {preview ? (
-        <section aria-labelledby="preview-title" className="space-y-4 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5">
+        <section
+          aria-labelledby="preview-title"
+          className="space-y-4 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5"
+        >
           <h2 id="preview-title" className="text-xl font-semibold">
             Preview: version {item.versions.find((v) => v.current)?.number} → {preview.toVersion.number}
           </h2>
@@ -268,25 +326,27 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
           </p>
           {preview.removedFinds.map((f) => (
             <Notice key={f.name} tone="warn">
-              “{f.label}” is not part of version {preview.toVersion.number}: its {f.parts} graded {f.parts === 1 ? 'answer' : 'answers'} ({f.students}{' '}
-              {f.students === 1 ? 'student' : 'students'}) would score 0.
+              “{f.label}” is not part of version {preview.toVersion.number}: its {f.parts} graded{' '}
+              {f.parts === 1 ? 'answer' : 'answers'} ({f.students} {f.students === 1 ? 'student' : 'students'}) would
+              score 0.
             </Notice>
           ))}
           {preview.notRegraded.length > 0 ? (
             <Notice tone="warn">
-              Version {preview.toVersion.number} cannot be solved for {preview.notRegraded.map((s) => s.name).join(', ')}: their answers would keep their
-              current grades.
+              Version {preview.toVersion.number} cannot be solved for{' '}
+              {preview.notRegraded.map((s) => s.name).join(', ')}: their answers would keep their current grades.
             </Notice>
           ) : null}
           {preview.ignoredOverrides.length > 0 ? (
             <Notice tone="info">
-              Version {preview.toVersion.number} has no find named {preview.ignoredOverrides.join(', ')}: those tolerances are not used.
+              Version {preview.toVersion.number} has no find named {preview.ignoredOverrides.join(', ')}: those
+              tolerances are not used.
             </Notice>
           ) : null}
           {preview.pending > 0 ? (
             <p className="text-sm text-muted">
-              {preview.pending} {preview.pending === 1 ? 'answer is' : 'answers are'} still waiting for the grader; once the regrade starts they are graded
-              with the new version.
+              {preview.pending} {preview.pending === 1 ? 'answer is' : 'answers are'} still waiting for the grader; once
+              the regrade starts they are graded with the new version.
             </p>
           ) : null}
           {preview.changed.length > 0 ? (
@@ -324,7 +384,11 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                       </th>
                       <td className="px-3 py-2 text-right tabular-nums">{points(s.oldScore)}</td>
                       <td className="px-3 py-2 text-right tabular-nums">{points(s.newScore)}</td>
-                      <td className={`px-3 py-2 text-right font-semibold tabular-nums ${s.change < 0 ? 'text-danger' : s.change > 0 ? 'text-ok' : ''}`}>{signed(s.change)}</td>
+                      <td
+                        className={`px-3 py-2 text-right font-semibold tabular-nums ${s.change < 0 ? 'text-danger' : s.change > 0 ? 'text-ok' : ''}`}
+                      >
+                        {signed(s.change)}
+                      </td>
                       <td className="min-w-72 px-3 py-2">
                         {s.finds.length === 0
                           ? '—'

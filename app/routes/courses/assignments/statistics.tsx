@@ -10,7 +10,9 @@ import { db } from '#app/server/db/client.server.ts'
 import { getAssignmentStatistics, type FindStatistics, type ScoreSummary } from '#app/server/gradebook.server.ts'
 import type { Route } from './+types/statistics'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Statistics: ${data.statistics.assignment.title} · Cyclewright` : 'Statistics · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Statistics: ${data.statistics.assignment.title} · Cyclewright` : 'Statistics · Cyclewright' },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -63,7 +65,17 @@ function multipleText(m: number): string {
 }
 
 /** One table of grouped wrong answers: by multiple of each student's key, or by value. */
-function GroupTable({ groups, caption, first, show }: { groups: readonly Group[]; caption: string; first: string; show: (g: Group) => string }) {
+function GroupTable({
+  groups,
+  caption,
+  first,
+  show,
+}: {
+  groups: readonly Group[]
+  caption: string
+  first: string
+  show: (g: Group) => string
+}) {
   return (
     <table className="mt-2 w-full text-left text-sm">
       <caption className="text-left text-sm font-medium">{caption}</caption>
@@ -109,7 +121,8 @@ function GroupTable({ groups, caption, first, show }: { groups: readonly Group[]
 }
 
 function WrongAnswers({ find }: { find: FindStatistics }) {
-  if (find.wrongAnswers.length === 0) return <p className="mt-2 text-sm text-muted">No wrong answers with a number yet.</p>
+  if (find.wrongAnswers.length === 0)
+    return <p className="mt-2 text-sm text-muted">No wrong answers with a number yet.</p>
   return (
     <>
       {find.wrongMultiples.length > 0 ? (
@@ -136,7 +149,10 @@ function WrongAnswers({ find }: { find: FindStatistics }) {
 export default function AssignmentStatisticsRoute({ loaderData }: Route.ComponentProps) {
   const { course, statistics } = loaderData
   const { assignment } = statistics
-  const base = href('/courses/:courseId/assignments/:assignmentId', { courseId: String(course.id), assignmentId: String(assignment.id) })
+  const base = href('/courses/:courseId/assignments/:assignmentId', {
+    courseId: String(course.id),
+    assignmentId: String(assignment.id),
+  })
   return (
     <div>
       <p className="text-sm text-muted">
@@ -144,8 +160,8 @@ export default function AssignmentStatisticsRoute({ loaderData }: Route.Componen
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Statistics: {assignment.title}</h1>
       <p className="mt-1 text-sm text-muted">
-        Scores are shares of the points: each student’s best answer to each question, late penalties included, over the students with a graded answer.
-        Answers still being graded are not counted yet.
+        Scores are shares of the points: each student’s best answer to each question, late penalties included, over the
+        students with a graded answer. Answers still being graded are not counted yet.
       </p>
       {statistics.items.length === 0 ? (
         <p className="mt-6 text-muted">This assignment has no problems yet.</p>
@@ -153,22 +169,35 @@ export default function AssignmentStatisticsRoute({ loaderData }: Route.Componen
         <p className="mt-6 text-muted">No answers yet.</p>
       ) : (
         statistics.items.map((item) => (
-          <section key={item.position} aria-labelledby={`problem-${item.position}`} className="mt-8 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5">
+          <section
+            key={item.position}
+            aria-labelledby={`problem-${item.position}`}
+            className="mt-8 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-5"
+          >
             <h2 id={`problem-${item.position}`} className="text-xl font-semibold">
-              Problem {item.position}: {item.title} <span className="text-base font-normal text-muted">({formatPoints(item.points)} points)</span>
+              Problem {item.position}: {item.title}{' '}
+              <span className="text-base font-normal text-muted">({formatPoints(item.points)} points)</span>
             </h2>
             <div className="mt-3">
               <SummaryList summary={item.summary} />
               <Histogram bins={item.summary.histogram} title={`Problem ${item.position}, scores`} />
             </div>
             {item.finds.map((f) => (
-              <section key={f.name} aria-labelledby={`find-${item.position}-${f.name}`} className="mt-6 border-t border-line pt-4">
+              <section
+                key={f.name}
+                aria-labelledby={`find-${item.position}-${f.name}`}
+                className="mt-6 border-t border-line pt-4"
+              >
                 <h3 id={`find-${item.position}-${f.name}`} className="text-lg font-semibold">
                   {f.label}
-                  {f.unit ? ` (${f.unit})` : ''} <span className="text-sm font-normal text-muted">· {formatPoints(f.share)} points</span>
+                  {f.unit ? ` (${f.unit})` : ''}{' '}
+                  <span className="text-sm font-normal text-muted">· {formatPoints(f.share)} points</span>
                 </h3>
                 <p className="text-sm">
-                  <Link to={`${base}/problems/${item.position}/answers?find=${encodeURIComponent(f.name)}`} className="underline">
+                  <Link
+                    to={`${base}/problems/${item.position}/answers?find=${encodeURIComponent(f.name)}`}
+                    className="underline"
+                  >
                     Every answer to this question
                   </Link>
                 </p>

@@ -19,7 +19,13 @@ import { getDisputeDetail, resolveDispute } from '#app/server/disputes.server.ts
 import { appUrl } from '#app/server/env.server.ts'
 import type { Route } from './+types/$disputeId'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Dispute: ${data.dispute.findLabel}, ${data.dispute.assignmentTitle} · Cyclewright` : 'Dispute · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  {
+    title: data
+      ? `Dispute: ${data.dispute.findLabel}, ${data.dispute.assignmentTitle} · Cyclewright`
+      : 'Dispute · Cyclewright',
+  },
+]
 
 const MAX_COMMENT = DISPUTE_COMMENT_MAX
 
@@ -28,13 +34,23 @@ const ResolveSchema = z
     intent: z.literal('resolve', { error: 'Use the Resolve dispute button.' }),
     decision: z.enum(['reject', 'adjust', 'accept-for-variant'], { error: 'Choose what to do with this dispute.' }),
     newScore: textField('the new score').trim().max(30, 'Enter the new score as a number, e.g. 1.5.').default(''),
-    comment: textField('the comment').trim().max(MAX_COMMENT, `Keep the comment to at most ${MAX_COMMENT.toLocaleString('en')} characters.`).default(''),
+    comment: textField('the comment')
+      .trim()
+      .max(MAX_COMMENT, `Keep the comment to at most ${MAX_COMMENT.toLocaleString('en')} characters.`)
+      .default(''),
   })
   .superRefine((v, ctx) => {
     if (v.decision !== 'adjust') return
-    if (v.newScore === '') ctx.addIssue({ code: 'custom', path: ['newScore'], message: 'Enter the new score for this find.' })
-    else if (!Number.isFinite(Number(v.newScore.replace(',', '.')))) ctx.addIssue({ code: 'custom', path: ['newScore'], message: 'Enter the new score as a number, e.g. 1.5.' })
-    if (v.comment === '') ctx.addIssue({ code: 'custom', path: ['comment'], message: 'Say why the score changes: a comment is required when you adjust a score.' })
+    if (v.newScore === '')
+      ctx.addIssue({ code: 'custom', path: ['newScore'], message: 'Enter the new score for this find.' })
+    else if (!Number.isFinite(Number(v.newScore.replace(',', '.'))))
+      ctx.addIssue({ code: 'custom', path: ['newScore'], message: 'Enter the new score as a number, e.g. 1.5.' })
+    if (v.comment === '')
+      ctx.addIssue({
+        code: 'custom',
+        path: ['comment'],
+        message: 'Say why the score changes: a comment is required when you adjust a score.',
+      })
   })
 
 async function guard(request: Request, params: Route.LoaderArgs['params'], roles: ('instructor' | 'ta' | 'student')[]) {
@@ -50,7 +66,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!detail) throw data('There is no such dispute.', { status: 404 })
   const resolved = new URL(request.url).searchParams.get('resolved')
   const changed = resolved !== null && /^\d{1,6}$/.test(resolved) ? Number(resolved) : null
-  const base = { courseId, course: { code: course.code, title: course.title }, changed, dispute: detail.dispute, timeZone: detail.timeZone, find: detail.find }
+  const base = {
+    courseId,
+    course: { code: course.code, title: course.title },
+    changed,
+    dispute: detail.dispute,
+    timeZone: detail.timeZone,
+    find: detail.find,
+  }
   if (course.role === 'student') {
     // The key, the givens and the worked solution stay on the server: a student's view of
     // their own dispute must not reveal more than their problem page does.
@@ -58,9 +81,21 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       ...base,
       staff: null,
       mine: {
-        answer: { text: detail.answer.text, attempt: detail.answer.attempt, verdict: detail.answer.verdict, score: detail.answer.score, maxScore: detail.answer.maxScore },
+        answer: {
+          text: detail.answer.text,
+          attempt: detail.answer.attempt,
+          verdict: detail.answer.verdict,
+          score: detail.answer.score,
+          maxScore: detail.answer.maxScore,
+        },
         findScore: detail.findScore,
-        attachment: detail.attachment ? { fileName: detail.attachment.fileName, contentType: detail.attachment.contentType, size: detail.attachment.size } : null,
+        attachment: detail.attachment
+          ? {
+              fileName: detail.attachment.fileName,
+              contentType: detail.attachment.contentType,
+              size: detail.attachment.size,
+            }
+          : null,
       },
     }
   }
@@ -71,7 +106,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const { courseId, disputeId, actor } = await guard(request, params, ['instructor', 'ta'])
   const parsed = parseForm(await readFormData(request), ResolveSchema)
-  if (!parsed.ok) return data({ fieldErrors: parsed.fieldErrors, formError: parsed.formError ?? 'Check the fields marked below.', values: echoValues(parsed.values) }, { status: 400 })
+  if (!parsed.ok)
+    return data(
+      {
+        fieldErrors: parsed.fieldErrors,
+        formError: parsed.formError ?? 'Check the fields marked below.',
+        values: echoValues(parsed.values),
+      },
+      { status: 400 },
+    )
   const v = parsed.value
   const result = await resolveDispute(db(), {
     courseId,
@@ -84,7 +127,14 @@ export async function action({ request, params }: Route.ActionArgs) {
   })
   if (!result.ok) {
     const values = { decision: v.decision, newScore: v.newScore, comment: v.comment }
-    return data({ fieldErrors: result.fieldErrors as FieldErrors, formError: result.formError ?? 'Check the fields marked below.', values }, { status: 400 })
+    return data(
+      {
+        fieldErrors: result.fieldErrors as FieldErrors,
+        formError: result.formError ?? 'Check the fields marked below.',
+        values,
+      },
+      { status: 400 },
+    )
   }
   return redirect(`/courses/${courseId}/disputes/${disputeId}?resolved=${result.changed}`)
 }
@@ -92,17 +142,26 @@ export async function action({ request, params }: Route.ActionArgs) {
 export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
   const { courseId, dispute: d, timeZone, find, changed, staff, mine } = loaderData
   const fmt = (at: string) => formatInZone(at, timeZone)
-  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', { courseId: String(courseId), assignmentId: String(d.assignmentId), position: String(d.position) })
+  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', {
+    courseId: String(courseId),
+    assignmentId: String(d.assignmentId),
+    position: String(d.position),
+  })
   const outcome = disputeOutcomeText(d)
   const actionData = useActionData<typeof action>()
   return (
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to={href('/courses/:courseId/disputes', { courseId: String(courseId) })}>{staff ? 'Review queue' : 'Your disputes'}</Link>
+          <Link to={href('/courses/:courseId/disputes', { courseId: String(courseId) })}>
+            {staff ? 'Review queue' : 'Your disputes'}
+          </Link>
         </p>
         <h1 className="mt-1 text-3xl font-semibold">
-          Dispute: {find.label} <span className="text-xl font-normal text-muted">({d.assignmentTitle}, problem {d.position})</span>
+          Dispute: {find.label}{' '}
+          <span className="text-xl font-normal text-muted">
+            ({d.assignmentTitle}, problem {d.position})
+          </span>
         </h1>
         <p className="mt-2 flex flex-wrap items-center gap-2">
           <DisputeStatusBadge status={d.status} />
@@ -115,7 +174,8 @@ export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
 
       {changed !== null ? (
         <Notice tone="ok">
-          Resolved: {changed === 0 ? 'no answers' : changed === 1 ? '1 answer' : `${changed} answers`} changed; the student is e-mailed.
+          Resolved: {changed === 0 ? 'no answers' : changed === 1 ? '1 answer' : `${changed} answers`} changed; the
+          student is e-mailed.
         </Notice>
       ) : null}
 
@@ -170,14 +230,33 @@ export default function DisputeRoute({ loaderData }: Route.ComponentProps) {
             <dt className="font-medium">Your file</dt>
             <dd>{mine.attachment ? null : 'None sent'}</dd>
           </dl>
-          {mine.attachment ? <AttachmentView href={href('/courses/:courseId/disputes/:disputeId/attachment', { courseId: String(courseId), disputeId: String(d.id) })} file={mine.attachment} alt={`Your worked solution, sent as ${mine.attachment.fileName}`} /> : null}
+          {mine.attachment ? (
+            <AttachmentView
+              href={href('/courses/:courseId/disputes/:disputeId/attachment', {
+                courseId: String(courseId),
+                disputeId: String(d.id),
+              })}
+              file={mine.attachment}
+              alt={`Your worked solution, sent as ${mine.attachment.fileName}`}
+            />
+          ) : null}
           <p className="mt-3">
             <Link to={problemHref}>Back to the problem</Link>
           </p>
         </Section>
       ) : null}
 
-      {staff ? <StaffView courseId={courseId} detail={staff} dispute={d} find={find} fmt={fmt} problemHref={problemHref} resolveResult={actionData} /> : null}
+      {staff ? (
+        <StaffView
+          courseId={courseId}
+          detail={staff}
+          dispute={d}
+          find={find}
+          fmt={fmt}
+          problemHref={problemHref}
+          resolveResult={actionData}
+        />
+      ) : null}
     </div>
   )
 }

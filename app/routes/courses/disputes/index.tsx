@@ -1,7 +1,13 @@
 import { formatDistanceStrict } from 'date-fns'
 import { Form, href, Link, useNavigation } from 'react-router'
 import { z } from 'zod'
-import { DISPUTE_STATUS_MEANING, DISPUTE_STATUS_WORDS, DisputeStatusBadge, disputeOutcomeText, type DisputeStatusValue } from '#app/components/dispute-status.tsx'
+import {
+  DISPUTE_STATUS_MEANING,
+  DISPUTE_STATUS_WORDS,
+  DisputeStatusBadge,
+  disputeOutcomeText,
+  type DisputeStatusValue,
+} from '#app/components/dispute-status.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
@@ -13,7 +19,9 @@ import { listDisputes, type DisputeListRow } from '#app/server/disputes.server.t
 import type { Route } from './+types/index'
 import { EmptyState, Table, TableHead } from '#app/components/ui/table.tsx'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.staff ? 'Review queue' : 'Your disputes'} · Cyclewright` }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.staff ? 'Review queue' : 'Your disputes'} · Cyclewright` },
+]
 
 const STATUSES = ['open', 'upheld', 'adjusted', 'rejected', 'all'] as const
 
@@ -36,9 +44,16 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     status: search.get('status') || 'open',
     age: search.get('age') || undefined,
   })
-  const filters = staff ? { assignmentId: query.assignment, status: query.status, olderThanDays: query.age || undefined } : { status: 'all' as const }
+  const filters = staff
+    ? { assignmentId: query.assignment, status: query.status, olderThanDays: query.age || undefined }
+    : { status: 'all' as const }
   const rows = await listDisputes(db(), { courseId, viewer, filters, now })
-  const assignments = staff ? (await listAssignmentsForCourse(db(), { courseId, role: course.role, userId: user.id, now })).map((a) => ({ id: a.id, title: a.title })) : []
+  const assignments = staff
+    ? (await listAssignmentsForCourse(db(), { courseId, role: course.role, userId: user.id, now })).map((a) => ({
+        id: a.id,
+        title: a.title,
+      }))
+    : []
   return {
     course,
     staff,
@@ -57,11 +72,7 @@ function excerpt(text: string, max = 140): string {
 
 export default function DisputesRoute({ loaderData }: Route.ComponentProps) {
   const { staff } = loaderData
-  return (
-    <div>
-      {staff ? <StaffQueue data={loaderData} /> : <StudentList data={loaderData} />}
-    </div>
-  )
+  return <div>{staff ? <StaffQueue data={loaderData} /> : <StudentList data={loaderData} />}</div>
 }
 
 type Data = Route.ComponentProps['loaderData']
@@ -76,14 +87,24 @@ function StaffQueue({ data }: { data: Data }) {
     <>
       <h1 className="mt-1 text-3xl font-semibold">Review queue</h1>
       <p className="mt-2 max-w-3xl text-muted">
-        Students’ disputes of a verdict, oldest first. Open one to see the student’s answer, their givens, the key and their file, and to resolve it.
+        Students’ disputes of a verdict, oldest first. Open one to see the student’s answer, their givens, the key and
+        their file, and to resolve it.
       </p>
-      <Form method="get" className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4 shadow-sm" aria-label="Filter the review queue">
+      <Form
+        method="get"
+        className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4 shadow-sm"
+        aria-label="Filter the review queue"
+      >
         <div className="flex flex-col gap-1">
           <label htmlFor="q-assignment" className="text-sm font-medium">
             Assignment
           </label>
-          <select id="q-assignment" name="assignment" defaultValue={query.assignment ?? ''} className="rounded-md border border-line bg-white px-3 py-2">
+          <select
+            id="q-assignment"
+            name="assignment"
+            defaultValue={query.assignment ?? ''}
+            className="rounded-md border border-line bg-white px-3 py-2"
+          >
             <option value="">All assignments</option>
             {assignments.map((a) => (
               <option key={a.id} value={a.id}>
@@ -96,7 +117,12 @@ function StaffQueue({ data }: { data: Data }) {
           <label htmlFor="q-status" className="text-sm font-medium">
             Status
           </label>
-          <select id="q-status" name="status" defaultValue={query.status} className="rounded-md border border-line bg-white px-3 py-2">
+          <select
+            id="q-status"
+            name="status"
+            defaultValue={query.status}
+            className="rounded-md border border-line bg-white px-3 py-2"
+          >
             {STATUSES.map((s) => (
               <option key={s} value={s}>
                 {s === 'all' ? 'Any status' : DISPUTE_STATUS_WORDS[s]}
@@ -108,12 +134,25 @@ function StaffQueue({ data }: { data: Data }) {
           <label htmlFor="q-age" className="text-sm font-medium">
             Older than <span className="font-normal text-muted">(days)</span>
           </label>
-          <input id="q-age" name="age" type="number" inputMode="numeric" min={0} max={3650} defaultValue={query.age ?? ''} className="w-28 rounded-md border border-line bg-white px-3 py-2" />
+          <input
+            id="q-age"
+            name="age"
+            type="number"
+            inputMode="numeric"
+            min={0}
+            max={3650}
+            defaultValue={query.age ?? ''}
+            className="w-28 rounded-md border border-line bg-white px-3 py-2"
+          />
         </div>
         <Button type="submit" variant="secondary" disabled={filtering}>
           {filtering ? 'Filtering…' : 'Filter'}
         </Button>
-        {filtered ? <Link to={href('/courses/:courseId/disputes', { courseId: String(course.id) })}>Show open disputes of all assignments</Link> : null}
+        {filtered ? (
+          <Link to={href('/courses/:courseId/disputes', { courseId: String(course.id) })}>
+            Show open disputes of all assignments
+          </Link>
+        ) : null}
       </Form>
       {rows.length === 0 ? (
         <EmptyState className="mt-6">
@@ -129,16 +168,29 @@ function StaffQueue({ data }: { data: Data }) {
               {rows.length} {rows.length === 1 ? 'dispute' : 'disputes'}
               {query.status === 'all' ? '' : `, ${DISPUTE_STATUS_WORDS[query.status].toLowerCase()}`}
               {assignmentTitle ? `, in ${assignmentTitle}` : ''}
-              {query.age ? `, older than ${query.age} ${query.age === 1 ? 'day' : 'days'}` : ''}; oldest first; times in {course.timeZone}
+              {query.age ? `, older than ${query.age} ${query.age === 1 ? 'day' : 'days'}` : ''}; oldest first; times in{' '}
+              {course.timeZone}
             </caption>
             <thead className="bg-paper text-xs tracking-wide text-muted uppercase">
               <tr>
-                <th scope="col" className="px-4 py-2">Raised</th>
-                <th scope="col" className="px-4 py-2">Student</th>
-                <th scope="col" className="px-4 py-2">Assignment, problem, find</th>
-                <th scope="col" className="px-4 py-2">Reason</th>
-                <th scope="col" className="px-4 py-2">File</th>
-                <th scope="col" className="px-4 py-2">Status</th>
+                <th scope="col" className="px-4 py-2">
+                  Raised
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Student
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Assignment, problem, find
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Reason
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  File
+                </th>
+                <th scope="col" className="px-4 py-2">
+                  Status
+                </th>
                 <th scope="col" className="sticky right-0 bg-paper px-4 py-2 shadow-[-1px_0_0_var(--color-line)]">
                   <span className="sr-only">Open</span>
                 </th>
@@ -165,10 +217,18 @@ function StaffQueue({ data }: { data: Data }) {
                   <td className="px-4 py-2">{r.hasAttachment ? 'Yes' : 'No'}</td>
                   <td className="px-4 py-2">
                     <DisputeStatusBadge status={r.status} />
-                    {disputeOutcomeText(r) ? <span className="block text-xs text-muted">{disputeOutcomeText(r)}</span> : null}
+                    {disputeOutcomeText(r) ? (
+                      <span className="block text-xs text-muted">{disputeOutcomeText(r)}</span>
+                    ) : null}
                   </td>
                   <td className="sticky right-0 bg-white px-4 py-2 shadow-[-1px_0_0_var(--color-line)]">
-                    <Link to={href('/courses/:courseId/disputes/:disputeId', { courseId: String(course.id), disputeId: String(r.id) })} className="whitespace-nowrap">
+                    <Link
+                      to={href('/courses/:courseId/disputes/:disputeId', {
+                        courseId: String(course.id),
+                        disputeId: String(r.id),
+                      })}
+                      className="whitespace-nowrap"
+                    >
                       {r.status === 'open' ? 'Review' : 'View'}
                       <span className="sr-only">
                         {' '}
@@ -192,36 +252,49 @@ function StudentList({ data }: { data: Data }) {
     <>
       <h1 className="mt-1 text-3xl font-semibold">Your disputes</h1>
       <p className="mt-2 max-w-3xl text-muted">
-        The verdicts you have disputed and what became of them. To dispute another answer, open its problem page once it is graded.
+        The verdicts you have disputed and what became of them. To dispute another answer, open its problem page once it
+        is graded.
       </p>
       {rows.length === 0 ? (
         <EmptyState className="mt-6">You have not disputed any verdict in this course.</EmptyState>
       ) : (
         <Table boxClassName="mt-6" caption={<>Your disputes, oldest first; times in {course.timeZone}</>}>
-            <TableHead>
-              <tr>
-                <th scope="col" className="px-4 py-2">Raised</th>
-                <th scope="col" className="px-4 py-2">Problem and find</th>
-                <th scope="col" className="px-4 py-2">Status</th>
-                <th scope="col" className="px-4 py-2">Outcome</th>
-                <th scope="col" className="px-4 py-2">
-                  <span className="sr-only">Details</span>
-                </th>
-              </tr>
-            </TableHead>
-            <tbody>
-              {rows.map((r) => (
-                <StudentRow key={r.id} row={r} courseId={course.id} timeZone={course.timeZone} />
-              ))}
-            </tbody>
-          </Table>
+          <TableHead>
+            <tr>
+              <th scope="col" className="px-4 py-2">
+                Raised
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Problem and find
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Status
+              </th>
+              <th scope="col" className="px-4 py-2">
+                Outcome
+              </th>
+              <th scope="col" className="px-4 py-2">
+                <span className="sr-only">Details</span>
+              </th>
+            </tr>
+          </TableHead>
+          <tbody>
+            {rows.map((r) => (
+              <StudentRow key={r.id} row={r} courseId={course.id} timeZone={course.timeZone} />
+            ))}
+          </tbody>
+        </Table>
       )}
     </>
   )
 }
 
 function StudentRow({ row: r, courseId, timeZone }: { row: Row; courseId: number; timeZone: string }) {
-  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', { courseId: String(courseId), assignmentId: String(r.assignmentId), position: String(r.position) })
+  const problemHref = href('/courses/:courseId/assignments/:assignmentId/problems/:position', {
+    courseId: String(courseId),
+    assignmentId: String(r.assignmentId),
+    position: String(r.position),
+  })
   return (
     <tr className="border-t border-line align-top">
       <td className="px-4 py-2">
@@ -243,7 +316,9 @@ function StudentRow({ row: r, courseId, timeZone }: { row: Row; courseId: number
         {r.resolvedAt ? <span className="block text-xs text-muted">{formatInZone(r.resolvedAt, timeZone)}</span> : null}
       </td>
       <td className="px-4 py-2">
-        <Link to={href('/courses/:courseId/disputes/:disputeId', { courseId: String(courseId), disputeId: String(r.id) })}>
+        <Link
+          to={href('/courses/:courseId/disputes/:disputeId', { courseId: String(courseId), disputeId: String(r.id) })}
+        >
           Details<span className="sr-only"> of your dispute on {r.findLabel}</span>
         </Link>
       </td>

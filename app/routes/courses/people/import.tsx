@@ -22,7 +22,9 @@ import type { Route } from './+types/import'
 import { Table, TableHead } from '#app/components/ui/table.tsx'
 import { TextareaField } from '#app/components/ui/textarea-field.tsx'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Import a class list · ${data.course.code} · Cyclewright` : 'Import a class list · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Import a class list · ${data.course.code} · Cyclewright` : 'Import a class list · Cyclewright' },
+]
 
 const MAX_MB = MAX_ROSTER_BYTES / 1024 / 1024
 /** Rows without problems listed in the preview; the rest are counted. */
@@ -66,9 +68,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   // Refuse an oversized body before reading it. The form may carry a file and the text box
   // (each at most the limit) plus a little multipart framing.
   const header = request.headers.get('content-length')
-  if (header === null) return reply({ formError: 'The upload did not say how large it is. Choose the file again and retry.' }, 411)
+  if (header === null)
+    return reply({ formError: 'The upload did not say how large it is. Choose the file again and retry.' }, 411)
   const length = Number(header)
-  if (!Number.isFinite(length) || length > 2 * MAX_ROSTER_BYTES + 64 * 1024) return reply({ formError: tooLarge() }, 413)
+  if (!Number.isFinite(length) || length > 2 * MAX_ROSTER_BYTES + 64 * 1024)
+    return reply({ formError: tooLarge() }, 413)
   let form: FormData
   try {
     form = await request.formData()
@@ -103,7 +107,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   const outcome = await importRoster(db(), { courseId, actorId: user.id, parsed, fileName })
   if (!outcome.ok) return reply({ formError: outcome.formError, csv, fileName, plan: outcome.plan }, 409)
   const c = outcome.counts
-  const search = new URLSearchParams({ imported: String(c.new + c.add), updated: String(c.update), invited: String(outcome.invited) })
+  const search = new URLSearchParams({
+    imported: String(c.new + c.add),
+    updated: String(c.update),
+    invited: String(outcome.invited),
+  })
   return redirect(`/courses/${courseId}/people?${search}`)
 }
 
@@ -118,63 +126,66 @@ const statusWords: Record<PlannedRow['status'], string> = {
 function RowsTable({ rows, caption, showSection }: { rows: PlannedRow[]; caption: string; showSection: boolean }) {
   return (
     <Table boxClassName="mt-3" caption={<>{caption}</>}>
-        <TableHead>
-          <tr>
+      <TableHead>
+        <tr>
+          <th scope="col" className="px-3 py-2">
+            Line
+          </th>
+          <th scope="col" className="px-3 py-2">
+            Student ID
+          </th>
+          <th scope="col" className="px-3 py-2">
+            Family name
+          </th>
+          <th scope="col" className="px-3 py-2">
+            Given name
+          </th>
+          <th scope="col" className="px-3 py-2">
+            E-mail
+          </th>
+          {showSection ? (
             <th scope="col" className="px-3 py-2">
-              Line
+              Section
             </th>
-            <th scope="col" className="px-3 py-2">
-              Student ID
+          ) : null}
+          <th scope="col" className="px-3 py-2">
+            What happens
+          </th>
+        </tr>
+      </TableHead>
+      <tbody>
+        {rows.map((r) => (
+          <tr
+            key={r.line}
+            className={r.status === 'error' ? 'border-t border-line bg-danger-soft/40' : 'border-t border-line'}
+          >
+            <th scope="row" className="px-3 py-2 font-normal">
+              {r.line}
             </th>
-            <th scope="col" className="px-3 py-2">
-              Family name
-            </th>
-            <th scope="col" className="px-3 py-2">
-              Given name
-            </th>
-            <th scope="col" className="px-3 py-2">
-              E-mail
-            </th>
-            {showSection ? (
-              <th scope="col" className="px-3 py-2">
-                Section
-              </th>
-            ) : null}
-            <th scope="col" className="px-3 py-2">
-              What happens
-            </th>
+            <td className="px-3 py-2">{r.studentNumber || '—'}</td>
+            <td className="px-3 py-2">{r.familyName || '—'}</td>
+            <td className="px-3 py-2">{r.givenName || '—'}</td>
+            <td className="px-3 py-2 break-all">{r.email || '—'}</td>
+            {showSection ? <td className="px-3 py-2">{r.section || '—'}</td> : null}
+            <td className="min-w-56 px-3 py-2">
+              {r.status === 'error' ? (
+                <ul className="list-disc space-y-1 pl-4 text-danger">
+                  {r.errors.map((e, i) => (
+                    <li key={i}>{e}</li>
+                  ))}
+                </ul>
+              ) : (
+                <>
+                  <span>{statusWords[r.status]}</span>
+                  {r.changes.length > 0 ? <span className="block text-muted">{r.changes.join('; ')}</span> : null}
+                  {r.dropped ? <span className="block text-warn">Dropped from the course; stays dropped.</span> : null}
+                </>
+              )}
+            </td>
           </tr>
-        </TableHead>
-        <tbody>
-          {rows.map((r) => (
-            <tr key={r.line} className={r.status === 'error' ? 'border-t border-line bg-danger-soft/40' : 'border-t border-line'}>
-              <th scope="row" className="px-3 py-2 font-normal">
-                {r.line}
-              </th>
-              <td className="px-3 py-2">{r.studentNumber || '—'}</td>
-              <td className="px-3 py-2">{r.familyName || '—'}</td>
-              <td className="px-3 py-2">{r.givenName || '—'}</td>
-              <td className="px-3 py-2 break-all">{r.email || '—'}</td>
-              {showSection ? <td className="px-3 py-2">{r.section || '—'}</td> : null}
-              <td className="min-w-56 px-3 py-2">
-                {r.status === 'error' ? (
-                  <ul className="list-disc space-y-1 pl-4 text-danger">
-                    {r.errors.map((e, i) => (
-                      <li key={i}>{e}</li>
-                    ))}
-                  </ul>
-                ) : (
-                  <>
-                    <span>{statusWords[r.status]}</span>
-                    {r.changes.length > 0 ? <span className="block text-muted">{r.changes.join('; ')}</span> : null}
-                    {r.dropped ? <span className="block text-warn">Dropped from the course; stays dropped.</span> : null}
-                  </>
-                )}
-              </td>
-            </tr>
-          ))}
-        </tbody>
-      </Table>
+        ))}
+      </tbody>
+    </Table>
   )
 }
 
@@ -195,10 +206,11 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Import a class list</h1>
       <p className="mt-2 text-muted">
-        A CSV with one student per line and a first line naming the columns: student ID, family name, given name and e-mail, and optionally section. Commas,
-        semicolons or tabs between the columns all work. At most {MAX_MB} MB and {MAX_ROSTER_ROWS.toLocaleString('en')} students. You see what would happen before
-        anything is saved. Students already on the course are matched by student ID, then by e-mail, and updated; an empty section cell leaves their section as
-        it is. New students are on the course at once and get an e-mail inviting them to choose a password.
+        A CSV with one student per line and a first line naming the columns: student ID, family name, given name and
+        e-mail, and optionally section. Commas, semicolons or tabs between the columns all work. At most {MAX_MB} MB and{' '}
+        {MAX_ROSTER_ROWS.toLocaleString('en')} students. You see what would happen before anything is saved. Students
+        already on the course are matched by student ID, then by e-mail, and updated; an empty section cell leaves their
+        section as it is. New students are on the course at once and get an e-mail inviting them to choose a password.
       </p>
 
       {actionData?.formError ? (
@@ -220,8 +232,8 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
             Preview{actionData?.fileName ? ` of ${actionData.fileName}` : ''}
           </h2>
           <p className="mt-1">
-            {plan.rows.length} row{plan.rows.length === 1 ? '' : 's'}: {plan.counts.new} new, {plan.counts.add} with an account already, {plan.counts.update} to
-            update, {plan.counts.unchanged} unchanged
+            {plan.rows.length} row{plan.rows.length === 1 ? '' : 's'}: {plan.counts.new} new, {plan.counts.add} with an
+            account already, {plan.counts.update} to update, {plan.counts.unchanged} unchanged
             {plan.counts.error > 0 ? (
               <>
                 , <strong className="text-danger">{plan.counts.error} to fix</strong>
@@ -233,16 +245,25 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
           {errorRows.length > 0 ? (
             <>
               <h3 className="mt-6 text-lg font-semibold text-danger">Rows to fix ({errorRows.length})</h3>
-              <p className="text-sm text-muted">Nothing is saved until every row is right. Fix the lines in the box below (or in the file) and check again.</p>
+              <p className="text-sm text-muted">
+                Nothing is saved until every row is right. Fix the lines in the box below (or in the file) and check
+                again.
+              </p>
               <RowsTable rows={errorRows} caption="Rows to fix, with what is wrong" showSection={showSection} />
             </>
           ) : null}
           {readyRows.length > 0 ? (
             <>
               <h3 className="mt-6 text-lg font-semibold">Rows ready ({readyRows.length})</h3>
-              <RowsTable rows={readyRows.slice(0, SHOWN_READY_ROWS)} caption="Rows ready to import, with what will happen" showSection={showSection} />
+              <RowsTable
+                rows={readyRows.slice(0, SHOWN_READY_ROWS)}
+                caption="Rows ready to import, with what will happen"
+                showSection={showSection}
+              />
               {readyRows.length > SHOWN_READY_ROWS ? (
-                <p className="mt-2 text-sm text-muted">… and {readyRows.length - SHOWN_READY_ROWS} more rows without problems.</p>
+                <p className="mt-2 text-sm text-muted">
+                  … and {readyRows.length - SHOWN_READY_ROWS} more rows without problems.
+                </p>
               ) : null}
             </>
           ) : null}
@@ -266,7 +287,12 @@ export default function ImportRosterRoute({ loaderData, actionData }: Route.Comp
       ) : null}
 
       {/* Made anew for each list read, so a file chosen before does not override the fixed text in the box. */}
-      <Form key={actionData?.csv ?? ''} method="post" encType="multipart/form-data" className="mt-8 flex flex-col gap-4 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6">
+      <Form
+        key={actionData?.csv ?? ''}
+        method="post"
+        encType="multipart/form-data"
+        className="mt-8 flex flex-col gap-4 rounded-lg border border-line bg-white p-4 shadow-sm sm:p-6"
+      >
         <h2 className="text-lg font-semibold">{plan ? 'Change the list and check again' : 'Choose the class list'}</h2>
         <input type="hidden" name="intent" value="preview" />
         <div className="flex flex-col gap-1">

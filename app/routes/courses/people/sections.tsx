@@ -27,7 +27,9 @@ import {
 } from '#app/server/roster.server.ts'
 import type { Route } from './+types/sections'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Sections · ${data.course.code} · Cyclewright` : 'Sections · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Sections · ${data.course.code} · Cyclewright` : 'Sections · Cyclewright' },
+]
 
 const Id = z.coerce.number().int().positive()
 const IntentSchema = z.discriminatedUnion('intent', [
@@ -42,7 +44,11 @@ const IntentSchema = z.discriminatedUnion('intent', [
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
   const { course } = await requireCourseRole(request, courseId, ['instructor', 'ta'])
-  const [sections, loose, roster] = await Promise.all([listSections(db(), courseId), listLooseSectionNames(db(), courseId), listRoster(db(), courseId)])
+  const [sections, loose, roster] = await Promise.all([
+    listSections(db(), courseId),
+    listLooseSectionNames(db(), courseId),
+    listRoster(db(), courseId),
+  ])
   const tas = roster.active.filter((m) => m.role === 'ta').map((m) => ({ userId: m.userId, name: m.name }))
   return { course, sections, loose, tas, mayManage: course.role === 'instructor' }
 }
@@ -56,7 +62,17 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = await readFormData(request)
   const raw = Object.fromEntries([...form.entries()].filter(([, v]) => typeof v === 'string'))
   const parsed = IntentSchema.safeParse(raw)
-  if (!parsed.success) return data<ActionData>({ ok: false, message: 'That change could not be read. Reload the page and try again.', intent: '', sectionId: null, name: '' }, { status: 400 })
+  if (!parsed.success)
+    return data<ActionData>(
+      {
+        ok: false,
+        message: 'That change could not be read. Reload the page and try again.',
+        intent: '',
+        sectionId: null,
+        name: '',
+      },
+      { status: 400 },
+    )
   const input = parsed.data
   const base = { courseId, actorId: user.id }
   let result: RosterChange
@@ -72,7 +88,12 @@ export async function action({ request, params }: Route.ActionArgs) {
       break
     case 'assign':
     case 'unassign':
-      result = await setSectionStaff(db(), { ...base, sectionId: input.sectionId, userId: input.userId, assigned: input.intent === 'assign' })
+      result = await setSectionStaff(db(), {
+        ...base,
+        sectionId: input.sectionId,
+        userId: input.userId,
+        assigned: input.intent === 'assign',
+      })
       break
     case 'adopt':
       result = await adoptLooseSections(db(), base)
@@ -92,19 +113,29 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
   const { course, sections, loose, tas, mayManage } = loaderData
   const busy = useNavigation().state === 'submitting'
   const errorFor = (intent: string, sectionId: number | null) =>
-    actionData && !actionData.ok && actionData.intent === intent && actionData.sectionId === sectionId ? actionData.message : undefined
+    actionData && !actionData.ok && actionData.intent === intent && actionData.sectionId === sectionId
+      ? actionData.message
+      : undefined
   return (
     <div className="max-w-4xl">
       <p className="text-sm text-muted">
         <Link to={href('/courses/:courseId/people', { courseId: String(course.id) })}>People</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Sections</h1>
-      <p className="mt-2 text-muted">Lab or tutorial groups. Put students in them from the people page or with a section column in an imported class list.</p>
+      <p className="mt-2 text-muted">
+        Lab or tutorial groups. Put students in them from the people page or with a section column in an imported class
+        list.
+      </p>
       {actionData?.ok ? (
         <Notice tone="ok" className="mt-4">
           {actionData.message}
         </Notice>
-      ) : actionData && !actionData.ok && (actionData.intent === '' || actionData.intent === 'adopt' || actionData.intent === 'assign' || actionData.intent === 'unassign') ? (
+      ) : actionData &&
+        !actionData.ok &&
+        (actionData.intent === '' ||
+          actionData.intent === 'adopt' ||
+          actionData.intent === 'assign' ||
+          actionData.intent === 'unassign') ? (
         <Notice tone="error" className="mt-4">
           {actionData.message}
         </Notice>
@@ -123,7 +154,10 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
       ) : null}
 
       {mayManage ? (
-        <Form method="post" className="mt-6 flex flex-col gap-3 rounded-lg border border-line bg-white p-4 shadow-sm sm:flex-row sm:items-end">
+        <Form
+          method="post"
+          className="mt-6 flex flex-col gap-3 rounded-lg border border-line bg-white p-4 shadow-sm sm:flex-row sm:items-end"
+        >
           <input type="hidden" name="intent" value="create" />
           <Field
             label="New section"
@@ -149,10 +183,18 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
             return (
               <li key={s.id} className="rounded-lg border border-line bg-white p-4 shadow-sm">
                 <h2 className="text-lg font-semibold">
-                  {s.name} <span className="text-sm font-normal text-muted">· {s.students === 1 ? '1 student' : `${s.students} students`}</span>
+                  {s.name}{' '}
+                  <span className="text-sm font-normal text-muted">
+                    · {s.students === 1 ? '1 student' : `${s.students} students`}
+                  </span>
                 </h2>
                 <p className="mt-1 text-sm">
-                  Teaching assistants: {s.staff.length === 0 ? <span className="text-muted">none yet</span> : s.staff.map((t) => t.name).join(', ')}
+                  Teaching assistants:{' '}
+                  {s.staff.length === 0 ? (
+                    <span className="text-muted">none yet</span>
+                  ) : (
+                    s.staff.map((t) => t.name).join(', ')
+                  )}
                 </p>
                 {mayManage ? (
                   <div className="mt-3 flex flex-col gap-3">
@@ -180,7 +222,11 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
                           <label htmlFor={`assign-${s.id}`} className="text-sm font-medium">
                             Teaching assistant for {s.name}
                           </label>
-                          <select id={`assign-${s.id}`} name="userId" className="rounded-md border border-line bg-white px-3 py-2">
+                          <select
+                            id={`assign-${s.id}`}
+                            name="userId"
+                            className="rounded-md border border-line bg-white px-3 py-2"
+                          >
                             {others.map((t) => (
                               <option key={t.userId} value={t.userId}>
                                 {t.name}
@@ -193,7 +239,9 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
                         </Button>
                       </Form>
                     ) : tas.length === 0 ? (
-                      <p className="text-sm text-muted">The course has no teaching assistants to assign; invite them from the people page.</p>
+                      <p className="text-sm text-muted">
+                        The course has no teaching assistants to assign; invite them from the people page.
+                      </p>
                     ) : null}
                     <Form method="post" className="flex flex-wrap items-end gap-2">
                       <input type="hidden" name="intent" value="rename" />
@@ -215,9 +263,13 @@ export default function SectionsRoute({ loaderData, actionData }: Route.Componen
                       <input type="hidden" name="sectionId" value={s.id} />
                       <Button type="submit" variant="quiet" disabled={busy} className="px-0">
                         Delete section {s.name}
-                        {s.students > 0 ? ` (its ${s.students} student${s.students === 1 ? '' : 's'} will have no section)` : ''}
+                        {s.students > 0
+                          ? ` (its ${s.students} student${s.students === 1 ? '' : 's'} will have no section)`
+                          : ''}
                       </Button>
-                      {errorFor('delete', s.id) ? <p className="text-sm text-danger">{errorFor('delete', s.id)}</p> : null}
+                      {errorFor('delete', s.id) ? (
+                        <p className="text-sm text-danger">{errorFor('delete', s.id)}</p>
+                      ) : null}
                     </Form>
                   </div>
                 ) : null}

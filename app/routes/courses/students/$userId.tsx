@@ -10,12 +10,19 @@ import { requireIdParam } from '#app/lib/params.ts'
 import { formatPoints, formatScore } from '#app/lib/points.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { getStudentRecord, type RecordAnswer, type RecordAssignment, type RecordItem } from '#app/server/student-record.server.ts'
+import {
+  getStudentRecord,
+  type RecordAnswer,
+  type RecordAssignment,
+  type RecordItem,
+} from '#app/server/student-record.server.ts'
 import type { Route } from './+types/$userId'
 import { answerResultLabel, TONE_TEXT, VERDICT_TONES } from '#app/lib/labels.ts'
 import { Table, TableHead } from '#app/components/ui/table.tsx'
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.record.student.name} · ${data.record.course.code} · Cyclewright` : 'Student · Cyclewright' }]
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `${data.record.student.name} · ${data.record.course.code} · Cyclewright` : 'Student · Cyclewright' },
+]
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const courseId = requireIdParam(params.courseId, 'course')
@@ -45,7 +52,8 @@ export default function StudentRecordRoute({ loaderData }: Route.ComponentProps)
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to={href('/courses/:courseId/gradebook', { courseId: String(course.id) })}>Gradebook</Link> · <Link to={href('/courses/:courseId/people', { courseId: String(course.id) })}>People</Link>
+          <Link to={href('/courses/:courseId/gradebook', { courseId: String(course.id) })}>Gradebook</Link> ·{' '}
+          <Link to={href('/courses/:courseId/people', { courseId: String(course.id) })}>People</Link>
         </p>
         <h1 className="mt-1 text-3xl font-semibold break-words">{student.name}</h1>
         {student.droppedAt ? (
@@ -81,74 +89,102 @@ export default function StudentRecordRoute({ loaderData }: Route.ComponentProps)
           <p className="mt-2 text-muted">No disputes.</p>
         ) : (
           <Table boxClassName="mt-2" caption={<>Disputes of {student.name}</>}>
-              <TableHead>
-                <tr>
-                  <th scope="col" className="px-3 py-2">
-                    Question
+            <TableHead>
+              <tr>
+                <th scope="col" className="px-3 py-2">
+                  Question
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Status
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Raised
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Resolved
+                </th>
+              </tr>
+            </TableHead>
+            <tbody>
+              {record.disputes.map((d) => (
+                <tr key={d.id} className="border-t border-line align-top">
+                  <th scope="row" className="px-3 py-2 text-left font-normal">
+                    <Link
+                      to={href('/courses/:courseId/disputes/:disputeId', {
+                        courseId: String(course.id),
+                        disputeId: String(d.id),
+                      })}
+                      className="font-medium"
+                    >
+                      {d.findLabel}
+                    </Link>
+                    <span className="block text-xs text-muted">
+                      {d.assignmentTitle}, problem {d.position}
+                    </span>
                   </th>
-                  <th scope="col" className="px-3 py-2">
-                    Status
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Raised
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Resolved
-                  </th>
+                  <td className="px-3 py-2">
+                    <DisputeStatusBadge status={d.status} />
+                    {disputeOutcomeText(d) ? (
+                      <span className="block text-xs text-muted">{disputeOutcomeText(d)}</span>
+                    ) : null}
+                  </td>
+                  <td className="px-3 py-2 whitespace-nowrap">{when(d.createdAt)}</td>
+                  <td className="px-3 py-2">
+                    {d.resolvedAt ? (
+                      <>
+                        <span className="whitespace-nowrap">{when(d.resolvedAt)}</span>
+                        {d.resolvedBy ? <span className="block text-xs text-muted">by {d.resolvedBy}</span> : null}
+                      </>
+                    ) : (
+                      '—'
+                    )}
+                  </td>
                 </tr>
-              </TableHead>
-              <tbody>
-                {record.disputes.map((d) => (
-                  <tr key={d.id} className="border-t border-line align-top">
-                    <th scope="row" className="px-3 py-2 text-left font-normal">
-                      <Link to={href('/courses/:courseId/disputes/:disputeId', { courseId: String(course.id), disputeId: String(d.id) })} className="font-medium">
-                        {d.findLabel}
-                      </Link>
-                      <span className="block text-xs text-muted">
-                        {d.assignmentTitle}, problem {d.position}
-                      </span>
-                    </th>
-                    <td className="px-3 py-2">
-                      <DisputeStatusBadge status={d.status} />
-                      {disputeOutcomeText(d) ? <span className="block text-xs text-muted">{disputeOutcomeText(d)}</span> : null}
-                    </td>
-                    <td className="px-3 py-2 whitespace-nowrap">{when(d.createdAt)}</td>
-                    <td className="px-3 py-2">
-                      {d.resolvedAt ? (
-                        <>
-                          <span className="whitespace-nowrap">{when(d.resolvedAt)}</span>
-                          {d.resolvedBy ? <span className="block text-xs text-muted">by {d.resolvedBy}</span> : null}
-                        </>
-                      ) : (
-                        '—'
-                      )}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </Table>
+              ))}
+            </tbody>
+          </Table>
         )}
       </section>
 
       {record.assignments.length === 0 ? (
         <p className="text-muted">This course has no assignments yet.</p>
       ) : (
-        record.assignments.map((a) => <AssignmentBlock key={a.id} assignment={a} courseId={course.id} when={when} studentName={student.name} />)
+        record.assignments.map((a) => (
+          <AssignmentBlock key={a.id} assignment={a} courseId={course.id} when={when} studentName={student.name} />
+        ))
       )}
     </div>
   )
 }
 
-function AssignmentBlock({ assignment: a, courseId, when, studentName }: { assignment: RecordAssignment; courseId: number; when: (iso: string) => string; studentName: string }) {
+function AssignmentBlock({
+  assignment: a,
+  courseId,
+  when,
+  studentName,
+}: {
+  assignment: RecordAssignment
+  courseId: number
+  when: (iso: string) => string
+  studentName: string
+}) {
   const headingId = `assignment-${a.id}`
   return (
     <section aria-labelledby={headingId} className="space-y-4 rounded-lg border border-line bg-white p-4 shadow-sm">
       <header>
         <h2 id={headingId} className="text-xl font-semibold">
-          <Link to={href('/courses/:courseId/assignments/:assignmentId', { courseId: String(courseId), assignmentId: String(a.id) })}>{a.title}</Link>
+          <Link
+            to={href('/courses/:courseId/assignments/:assignmentId', {
+              courseId: String(courseId),
+              assignmentId: String(a.id),
+            })}
+          >
+            {a.title}
+          </Link>
         </h2>
         <p className="mt-1 text-sm text-muted">
-          Due {when(a.dueAt)} · {a.attemptsPerFind} attempt{a.attemptsPerFind === 1 ? '' : 's'} per question · score {formatScore(a.score, a.points)}
+          Due {when(a.dueAt)} · {a.attemptsPerFind} attempt{a.attemptsPerFind === 1 ? '' : 's'} per question · score{' '}
+          {formatScore(a.score, a.points)}
           {a.answered === 0 ? ' · no answers yet' : ''}
         </p>
       </header>
@@ -157,11 +193,20 @@ function AssignmentBlock({ assignment: a, courseId, when, studentName }: { assig
         {a.extension ? (
           <p className="mt-1">
             {a.extension.dueAt ? `Due ${when(a.extension.dueAt)}` : 'The usual due date'}
-            {a.extension.extraAttempts > 0 ? `, ${a.extension.extraAttempts} more attempt${a.extension.extraAttempts === 1 ? '' : 's'} per question` : ''}
+            {a.extension.extraAttempts > 0
+              ? `, ${a.extension.extraAttempts} more attempt${a.extension.extraAttempts === 1 ? '' : 's'} per question`
+              : ''}
             {a.extension.reason ? ` — “${a.extension.reason}”` : ''}
             <span className="block text-xs text-muted">
               Set by {a.extension.grantedBy}, {when(a.extension.updatedAt)} ·{' '}
-              <Link to={href('/courses/:courseId/assignments/:assignmentId/extensions', { courseId: String(courseId), assignmentId: String(a.id) })}>extensions of this assignment</Link>
+              <Link
+                to={href('/courses/:courseId/assignments/:assignmentId/extensions', {
+                  courseId: String(courseId),
+                  assignmentId: String(a.id),
+                })}
+              >
+                extensions of this assignment
+              </Link>
             </span>
           </p>
         ) : (
@@ -176,15 +221,28 @@ function AssignmentBlock({ assignment: a, courseId, when, studentName }: { assig
   )
 }
 
-function ProblemBlock({ item, assignmentId, when, studentName }: { item: RecordItem; assignmentId: number; when: (iso: string) => string; studentName: string }) {
+function ProblemBlock({
+  item,
+  assignmentId,
+  when,
+  studentName,
+}: {
+  item: RecordItem
+  assignmentId: number
+  when: (iso: string) => string
+  studentName: string
+}) {
   const headingId = `problem-${assignmentId}-${item.position}`
   return (
     <article aria-labelledby={headingId} className="space-y-3 border-t border-line pt-4">
       <h3 id={headingId} className="text-lg font-semibold">
-        Problem {item.position}: {item.title} <span className="text-sm font-normal text-muted">({formatPoints(item.points)} points)</span>
+        Problem {item.position}: {item.title}{' '}
+        <span className="text-sm font-normal text-muted">({formatPoints(item.points)} points)</span>
       </h3>
       {!item.variant.ok ? (
-        <p className="rounded border border-danger/30 bg-danger-soft p-2 text-sm text-danger">This student’s variant could not be drawn: {item.variant.message}</p>
+        <p className="rounded border border-danger/30 bg-danger-soft p-2 text-sm text-danger">
+          This student’s variant could not be drawn: {item.variant.message}
+        </p>
       ) : (
         <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
           <section aria-label={`Givens of ${studentName}’s variant, problem ${item.position}`} className="min-w-0">
@@ -218,9 +276,16 @@ function ProblemBlock({ item, assignmentId, when, studentName }: { item: RecordI
           <h4 className="text-sm font-semibold">
             {f.label}
             {f.unit ? <span className="font-normal text-muted"> ({f.unit})</span> : null}
-            <span className="font-normal text-muted"> · best {f.best === null ? '—' : formatScore(f.best, f.share)}</span>
+            <span className="font-normal text-muted">
+              {' '}
+              · best {f.best === null ? '—' : formatScore(f.best, f.share)}
+            </span>
           </h4>
-          {f.answers.length === 0 ? <p className="mt-1 text-sm text-muted">No answers yet.</p> : <AnswerTable answers={f.answers} when={when} caption={`Answers to “${f.label}”`} />}
+          {f.answers.length === 0 ? (
+            <p className="mt-1 text-sm text-muted">No answers yet.</p>
+          ) : (
+            <AnswerTable answers={f.answers} when={when} caption={`Answers to “${f.label}”`} />
+          )}
         </div>
       ))}
       {item.otherAnswers.length > 0 ? (
@@ -233,7 +298,15 @@ function ProblemBlock({ item, assignmentId, when, studentName }: { item: RecordI
   )
 }
 
-function AnswerTable({ answers, when, caption }: { answers: readonly RecordAnswer[]; when: (iso: string) => string; caption: string }) {
+function AnswerTable({
+  answers,
+  when,
+  caption,
+}: {
+  answers: readonly RecordAnswer[]
+  when: (iso: string) => string
+  caption: string
+}) {
   return (
     <div className="mt-1 overflow-x-auto rounded border border-line">
       <table className="w-full text-left text-sm">
@@ -270,8 +343,12 @@ function AnswerTable({ answers, when, caption }: { answers: readonly RecordAnswe
                 {a.attempt}
               </th>
               <td className="px-3 py-1.5 font-mono whitespace-pre-wrap">{a.answer}</td>
-              <td className={`px-3 py-1.5 ${TONE_TEXT[a.verdict ? VERDICT_TONES[a.verdict] : 'muted']}`}>{verdictOf(a)}</td>
-              <td className="px-3 py-1.5 whitespace-nowrap tabular-nums">{a.score === null ? '—' : formatScore(a.score, a.maxScore)}</td>
+              <td className={`px-3 py-1.5 ${TONE_TEXT[a.verdict ? VERDICT_TONES[a.verdict] : 'muted']}`}>
+                {verdictOf(a)}
+              </td>
+              <td className="px-3 py-1.5 whitespace-nowrap tabular-nums">
+                {a.score === null ? '—' : formatScore(a.score, a.maxScore)}
+              </td>
               <td className="px-3 py-1.5 whitespace-nowrap">{when(a.submittedAt)}</td>
               <td className="px-3 py-1.5 whitespace-nowrap">{lateText(a)}</td>
               <td className="px-3 py-1.5">

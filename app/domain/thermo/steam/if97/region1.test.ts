@@ -31,7 +31,7 @@ describe('IAPWS-IF97 region 1, Table 5', () => {
     const r = region1(p, T)
     const alpha = (region1(p, T + d).v - region1(p, T - d).v) / (2 * d) / r.v
     const kappa = -(region1(p + d, T).v - region1(p - d, T).v) / (2 * d) / r.v // 1/MPa
-    const diff = (T * r.v * alpha * alpha) / kappa * 1000 // kJ/(kg K)
+    const diff = ((T * r.v * alpha * alpha) / kappa) * 1000 // kJ/(kg K)
     expect(rel(r.cp - r.cv, diff)).toBeLessThan(1e-5)
   })
 })
