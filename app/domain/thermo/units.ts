@@ -26,6 +26,11 @@ export type Dimension =
   | 'specificHeat' // J/(kg·K)
   | 'molarHeat' // J/(mol·K)
   | 'molarMass' // kg/mol
+  | 'velocity' // m/s
+  | 'area' // m²
+  | 'massFlow' // kg/s
+  | 'power' // W
+  | 'force' // N
   | 'dimensionless'
 
 export const SI_UNIT: Record<Dimension, string> = {
@@ -43,6 +48,11 @@ export const SI_UNIT: Record<Dimension, string> = {
   specificHeat: 'J/(kg K)',
   molarHeat: 'J/(mol K)',
   molarMass: 'kg/mol',
+  velocity: 'm/s',
+  area: 'm^2',
+  massFlow: 'kg/s',
+  power: 'W',
+  force: 'N',
   dimensionless: '',
 }
 
@@ -63,6 +73,11 @@ const DIMS: Record<Exclude<Dimension, 'dimensionless'>, readonly number[]> = {
   specificHeat: [0, 2, -2, 0, -1, 0, 0, 0, 0],
   molarHeat: [1, 2, -2, 0, -1, 0, -1, 0, 0],
   molarMass: [1, 0, 0, 0, 0, 0, -1, 0, 0],
+  velocity: [0, 1, -1, 0, 0, 0, 0, 0, 0],
+  area: [0, 2, 0, 0, 0, 0, 0, 0, 0],
+  massFlow: [1, 0, -1, 0, 0, 0, 0, 0, 0],
+  power: [1, 2, -3, 0, 0, 0, 0, 0, 0],
+  force: [1, 1, -2, 0, 0, 0, 0, 0, 0],
 }
 
 export interface ParsedQuantity {
