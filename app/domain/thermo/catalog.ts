@@ -10,6 +10,7 @@
  * Pure: no web, database, queue or Node imports.
  */
 import { COMBINED_TEMPLATES } from './combined/combined-template.ts'
+import { STEADY_FLOW_TEMPLATES } from './flow/flow-template.ts'
 import { REFRIGERATION_TEMPLATES } from './refrigerants/refrigeration-template.ts'
 import { CALORIMETER_TEMPLATE } from './steam/calorimeter.ts'
 import { RANKINE_TEMPLATES, STEAM_PLANT_TEMPLATES } from './steam/rankine-template.ts'
@@ -18,7 +19,7 @@ import { STEAM_CARNOT_TEMPLATE } from './steam/steam-cycle.ts'
 import { templates } from './templates/index.ts'
 import type { TemplateInput } from './templates/types.ts'
 
-export type TemplateFamily = 'ideal-gas' | 'steam' | 'combined' | 'refrigeration'
+export type TemplateFamily = 'ideal-gas' | 'steam' | 'combined' | 'refrigeration' | 'steady-flow'
 
 export interface CatalogEntry {
   readonly id: string
@@ -76,6 +77,7 @@ export const TEMPLATE_CATALOG: readonly CatalogEntry[] = [
   ...entries('steam', [CALORIMETER_TEMPLATE, STEAM_CARNOT_TEMPLATE], false),
   ...entries('combined', COMBINED_TEMPLATES, false),
   ...entries('refrigeration', REFRIGERATION_TEMPLATES, false),
+  ...entries('steady-flow', STEADY_FLOW_TEMPLATES, false),
 ]
 
 /** The templates bank problems may use (see CatalogEntry.bank). */

@@ -19,6 +19,8 @@ import { templateIds } from './catalog.ts'
 import type { FormattedRankine } from './steam/rankine-template.ts'
 import { isCombinedTemplate, solveCombinedTemplate } from './combined/combined-template.ts'
 import type { FormattedCombined } from './combined/combined-template.ts'
+import { isSteadyFlowTemplate, solveSteadyFlowTemplate, STEADY_FLOW_FAMILY } from './flow/flow-template.ts'
+import type { FormattedFlow } from './flow/flow-template.ts'
 import { isRefrigerationTemplate, solveRefrigerationTemplate } from './refrigerants/refrigeration-template.ts'
 import type { FormattedRefrigeration } from './refrigerants/refrigeration-template.ts'
 import { isCalorimeterTemplate, solveCalorimeterSpec } from './steam/calorimeter.ts'
@@ -34,6 +36,7 @@ export type AnySolution =
   | FormattedCalorimeter
   | FormattedSteamCycle
   | FormattedRefrigeration
+  | FormattedFlow
 
 export interface SpecFailure {
   readonly ok: false
@@ -109,6 +112,8 @@ export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): AnySolu
   const t = (raw as { template?: unknown } | null)?.template
   // The combined gas–steam cycle (./combined) formats its own result too.
   if (isCombinedTemplate(t)) return solveCombinedTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
+  if (isSteadyFlowTemplate(t))
+    return solveSteadyFlowTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
   if (isRefrigerationTemplate(t))
     return solveRefrigerationTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
   // Water in the general cycle format ({ "steamCycle": … } or the vapour Carnot template) and the
@@ -156,6 +161,7 @@ export type BankSolution = FormattedSolution | FormattedRankine
  */
 function isBankSolution(r: AnySolution): r is BankSolution {
   if ('gasStates' in r) return false // combined cycle
+  if ('family' in r && r.family === STEADY_FLOW_FAMILY) return false // nozzle, diffuser, turbojet (./flow)
   if ('template' in r && r.template === 'vapour-compression') return false
   if ('template' in r && r.template === 'steam-throttling-calorimeter') return false
   if ('steps' in r && 'substance' in r) return false // water in the general cycle format (ideal-gas results name a gas, not a substance)
