@@ -66,7 +66,12 @@ function ductInputs(device: DuctDevice): TemplateInput[] {
         ? 'isentropic efficiency η_N = (h1 − h2)/(h1 − h2s), default 1'
         : 'isentropic efficiency η_D = (h2s − h1)/(h2 − h1), 2s at the exit pressure; default 1',
     ),
-    input('heatLoss', 'specificEnergy', 'kJ/kg or kW', 'heat lost to the surroundings, per kg or as a rate (default 0)'),
+    input(
+      'heatLoss',
+      'specificEnergy',
+      'kJ/kg or kW',
+      'heat lost to the surroundings, per kg or as a rate (default 0)',
+    ),
     input('massFlow', 'massFlow', 'kg/s', 'mass flow rate, for the areas and rates (or inletArea)'),
     input('inletArea', 'area', 'm^2 or cm^2', 'inlet cross-section, instead of massFlow'),
     ...(nozzle
@@ -266,8 +271,7 @@ function readInputs(
       if (inp.required) return bad('invalid-spec', `input "${inp.name}" is required: ${inp.description}`, inp.name)
       continue
     }
-    const dims: Dimension[] =
-      inp.name === 'heatLoss' ? ['specificEnergy', 'power'] : [inp.dimension as Dimension]
+    const dims: Dimension[] = inp.name === 'heatLoss' ? ['specificEnergy', 'power'] : [inp.dimension as Dimension]
     const v = readValue(typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x, dims, inp.name)
     if (!v.ok) return bad(v.error.code, v.error.message, inp.name)
     num[inp.name] = v.value.value
@@ -291,7 +295,11 @@ export function parseDuctInputs(device: DuctDevice, raw: unknown): Parsed<DuctIn
   if (!gas.ok) return gas
   const { num, shape, heatDim } = r.value
   if (shape !== undefined && shape !== 'converging' && shape !== 'converging-diverging')
-    return bad('invalid-spec', `shape must be "converging" or "converging-diverging", not ${JSON.stringify(shape)}`, 'shape')
+    return bad(
+      'invalid-spec',
+      `shape must be "converging" or "converging-diverging", not ${JSON.stringify(shape)}`,
+      'shape',
+    )
   const pick = (k: string) => (num[k] !== undefined ? { [k]: num[k] } : {})
   return {
     ok: true,

@@ -158,7 +158,11 @@ export function solveDuct(input: DuctInput): FlowOutcome<DuctResult> {
     )
   const exitByState = input.T2 !== undefined || input.V2 !== undefined
   if (input.p2 === undefined && !exitByState)
-    return fail('underdetermined', `the ${name} exit is not fixed: give the exit pressure p2, temperature T2 or velocity V2`, 'p2')
+    return fail(
+      'underdetermined',
+      `the ${name} exit is not fixed: give the exit pressure p2, temperature T2 or velocity V2`,
+      'p2',
+    )
   if (effGiven && input.p2 !== undefined && exitByState)
     return fail(
       'overdetermined',
@@ -171,7 +175,11 @@ export function solveDuct(input: DuctInput): FlowOutcome<DuctResult> {
 
   const inlet = ductState(g, p1, T1, V1)
   if (!Number.isFinite(inlet.T0) || !Number.isFinite(inlet.p0))
-    return fail('out-of-range', `the inlet stagnation state is outside the gas data's range (${g.Tmin}–${g.Tmax} K)`, 'V1')
+    return fail(
+      'out-of-range',
+      `the inlet stagnation state is outside the gas data's range (${g.Tmin}–${g.Tmax} K)`,
+      'V1',
+    )
   if (inlet.mach >= 1)
     return fail(
       'unsupported',
@@ -183,7 +191,11 @@ export function solveDuct(input: DuctInput): FlowOutcome<DuctResult> {
   let massFlow: number | null = input.massFlow ?? null
   if (input.inletArea !== undefined) {
     if (!(V1 > 0))
-      return fail('underdetermined', 'with the inlet at rest the inlet area does not fix the flow rate: give massFlow', 'inletArea')
+      return fail(
+        'underdetermined',
+        'with the inlet at rest the inlet area does not fix the flow rate: give massFlow',
+        'inletArea',
+      )
     massFlow = inlet.rho * input.inletArea * V1
   }
   if (input.heatLoss !== undefined && input.heatLossRate !== undefined)

@@ -174,7 +174,8 @@ export function solveTurbojet(input: TurbojetInput): FlowOutcome<TurbojetResult>
   const T6s = g.isentropicTfromP(T5, p5, p6)
   const h6 = h5 - eff.nozzle * (h5 - g.h(T6s))
   const T6 = g.TfromH(h6)
-  if (!Number.isFinite(T6s) || !Number.isFinite(T6)) return fail('out-of-range', `the nozzle exit is ${range}`, 'turbineInletT')
+  if (!Number.isFinite(T6s) || !Number.isFinite(T6))
+    return fail('out-of-range', `the nozzle exit is ${range}`, 'turbineInletT')
   const V6 = Math.sqrt(2 * (h5 - h6))
 
   const st = (name: string, description: string, p: number, T: number, V: number): TurbojetState => ({
@@ -206,7 +207,8 @@ export function solveTurbojet(input: TurbojetInput): FlowOutcome<TurbojetResult>
   const wP = specificThrust * V1
   const m = input.massFlow ?? null
   const fuelAirRatio = input.fuelHeatingValue !== undefined ? qIn / (etaB * input.fuelHeatingValue) : null
-  if (!(V1 > 0)) notes.push('At rest (V1 = 0) the propulsive power and the propulsive and overall efficiencies are zero.')
+  if (!(V1 > 0))
+    notes.push('At rest (V1 = 0) the propulsive power and the propulsive and overall efficiencies are zero.')
   return {
     ok: true,
     value: {
