@@ -1,6 +1,6 @@
 import { data } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
-import { ProblemEditor } from '#app/components/problem-editor.tsx'
+import { ProblemEditor } from '#app/components/problem-editor/index.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
 import { editorStateFromDefinition } from '#app/lib/problem-form.ts'

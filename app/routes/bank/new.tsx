@@ -1,5 +1,5 @@
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
-import { ProblemEditor } from '#app/components/problem-editor.tsx'
+import { ProblemEditor } from '#app/components/problem-editor/index.tsx'
 import { emptyEditorState } from '#app/lib/problem-form.ts'
 import { requireBankUser } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'

@@ -1,0 +1,45 @@
+import { useCallback, useEffect, useRef, useState, type RefObject } from 'react'
+import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { definitionFromForm, type FormIssue } from '#app/lib/problem-form.ts'
+
+const PREVIEW_DEBOUNCE_MS = 600
+
+/** The definition drafted from the form as the author types (JavaScript only). */
+export interface EditorDraft {
+  readonly json: string
+  readonly convention: string
+  readonly formIssues: FormIssue[]
+  readonly definition: ProblemDefinition
+  readonly visibility: string
+}
+
+/**
+ * Reads the form into a draft once on mount and again a moment after the author stops
+ * typing (`scheduleDraft`, wired to the form's input and change events).
+ */
+export function useDraft(formRef: RefObject<HTMLFormElement | null>) {
+  const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined)
+  const [draft, setDraft] = useState<EditorDraft | null>(null)
+
+  const readDraft = useCallback(() => {
+    if (!formRef.current) return
+    const { draft: d, formIssues, visibility } = definitionFromForm(new FormData(formRef.current))
+    setDraft({
+      json: JSON.stringify(d),
+      convention: (d as { convention?: string }).convention ?? '',
+      formIssues,
+      definition: d as ProblemDefinition,
+      visibility,
+    })
+  }, [formRef])
+  function scheduleDraft() {
+    clearTimeout(timer.current)
+    timer.current = setTimeout(readDraft, PREVIEW_DEBOUNCE_MS)
+  }
+  useEffect(() => {
+    readDraft()
+    return () => clearTimeout(timer.current)
+  }, [readDraft])
+
+  return { draft, scheduleDraft }
+}

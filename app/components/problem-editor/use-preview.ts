@@ -1,0 +1,56 @@
+import { keepPreviousData, useQuery } from '@tanstack/react-query'
+import type { PreviewResult } from '#app/lib/preview.ts'
+import type { EditorDraft } from './use-draft.ts'
+
+function isPreviewResult(x: unknown): x is PreviewResult {
+  return (
+    typeof x === 'object' &&
+    x !== null &&
+    Array.isArray((x as PreviewResult).issues) &&
+    Array.isArray((x as PreviewResult).variants)
+  )
+}
+
+async function fetchPreview(
+  definitionJson: string,
+  convention: string | undefined,
+  signal: AbortSignal,
+): Promise<PreviewResult> {
+  const response = await fetch('/api/preview', {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Accept: 'application/json' },
+    body: JSON.stringify({ definition: JSON.parse(definitionJson) as unknown, ...(convention ? { convention } : {}) }),
+    signal,
+  })
+  let body: unknown = null
+  try {
+    body = await response.json()
+  } catch {
+    // A non-JSON answer (a proxy's error page) is reported by status below.
+  }
+  if (!response.ok) {
+    const message =
+      typeof body === 'object' && body !== null && typeof (body as { error?: unknown }).error === 'string'
+        ? (body as { error: string }).error
+        : null
+    throw new Error(message ?? `The preview could not be made just now (status ${response.status}).`)
+  }
+  if (!isPreviewResult(body))
+    throw new Error('The preview came back in a form this page cannot read. Reload the page and try again.')
+  return body
+}
+
+/**
+ * The live preview of the draft (POST /api/preview), asked again when the draft or the
+ * previewed convention changes; the last answer stays shown while the next one loads.
+ */
+export function usePreview(draft: EditorDraft | null, convention: string | undefined) {
+  return useQuery({
+    queryKey: ['preview', draft?.json ?? null, convention ?? null],
+    queryFn: ({ signal }) => fetchPreview(draft!.json, convention, signal),
+    enabled: draft !== null,
+    placeholderData: keepPreviousData,
+    retry: false,
+    staleTime: 60_000,
+  })
+}
