@@ -216,3 +216,45 @@ if (okCount !== all.length) process.exitCode = 1
     if (failed) process.exitCode = 1
   }
 }
+
+// Steady flow with kinetic energy (./flow): nozzle (choked and not), diffuser, turbojet; the
+// gas is parsed once, as for the ideal-gas cycles above.
+{
+  const { perKilogram } = await import('#app/domain/thermo/flow/flow-gas.ts')
+  const { solveDuct } = await import('#app/domain/thermo/flow/nozzle-diffuser.ts')
+  const { solveTurbojet } = await import('#app/domain/thermo/flow/turbojet.ts')
+  const nasa = gasPreset('nasa:dry-air')
+  if (!nasa.ok) throw new Error('gas presets')
+  const [a, n] = [perKilogram(air), perKilogram(nasa.gas)]
+  if ('error' in a || 'error' in n) throw new Error('per-kilogram gases')
+  console.log('\nsteady-flow devices:')
+  const jet = { ambientPressure: 34.5e3, ambientTemperature: 233.15, flightSpeed: 260, pressureRatio: 10 }
+  const runs: [string, (i: number) => { ok: boolean }][] = [
+    [
+      'nozzle air (choked below p*)',
+      (i) => solveDuct({ device: 'nozzle', gas: a, p1: 3e5, T1: 500, V1: 30, p2: 1e5 + 500 * i }),
+    ],
+    [
+      'nozzle nasa:dry-air η 0.9',
+      (i) => solveDuct({ device: 'nozzle', gas: n, p1: 3e5, T1: 900, V1: 30, p2: 1e5 + 500 * i, efficiency: 0.9 }),
+    ],
+    ['diffuser air', (i) => solveDuct({ device: 'diffuser', gas: a, p1: 8e4, T1: 283, V1: 150 + (i % 100), V2: 20 })],
+    ['turbojet air', (i) => solveTurbojet({ ...jet, gas: a, turbineInletT: 1000 + i, massFlow: 45 })],
+    [
+      'turbojet nasa:dry-air',
+      (i) => solveTurbojet({ ...jet, gas: n, turbineInletT: 1000 + i, compressorEfficiency: 0.85 }),
+    ],
+  ]
+  for (const [name, run] of runs) {
+    const N = 2000
+    for (let i = 0; i < 200; i++) run(i % 200) // warm-up (JIT)
+    let failed = 0
+    const t = performance.now()
+    for (let i = 0; i < N; i++) if (!run(i % 200).ok) failed++
+    const s = (performance.now() - t) / 1000
+    console.log(
+      `${name.padEnd(30)} ${Math.round(N / s).toLocaleString('en')} solves/s (${((s * 1e6) / N).toFixed(1)} µs each)${failed ? `, ${failed} failed` : ''}`,
+    )
+    if (failed) process.exitCode = 1
+  }
+}
