@@ -217,6 +217,50 @@ if (okCount !== all.length) process.exitCode = 1
   }
 }
 
+// Two-stage (flash chamber, nine states) and cascade (two four-state cycles) refrigerators.
+{
+  const { solveTwoStage, solveCascade } = await import('#app/domain/thermo/refrigerants/multi-stage.ts')
+  console.log('\ntwo-stage and cascade refrigerators:')
+  const runs: [string, (i: number) => { ok: boolean }][] = [
+    [
+      'vapour-compression-two-stage R134a',
+      (i) =>
+        solveTwoStage({
+          refrigerant: REFRIGERANTS.R134a,
+          evaporator: { T: 243.15 },
+          condenser: { T: 313.15 },
+          lowStageEfficiency: 0.75 + (i % 20) / 100,
+          highStageEfficiency: 0.8,
+        }),
+    ],
+    [
+      'vapour-compression-cascade R744/R717',
+      (i) =>
+        solveCascade({
+          lowerRefrigerant: REFRIGERANTS.R744,
+          upperRefrigerant: REFRIGERANTS.R717,
+          evaporator: { T: 228.15 },
+          lowerCondenser: { T: 268.15 },
+          upperEvaporator: { T: 263.15 },
+          condenser: { T: 308.15 },
+          lowerEfficiency: 0.75 + (i % 20) / 100,
+          upperEfficiency: 0.8,
+        }),
+    ],
+  ]
+  for (const [name, run] of runs) {
+    const N = 100
+    let failed = 0
+    const t = performance.now()
+    for (let i = 0; i < N; i++) if (!run(i).ok) failed++
+    const s = (performance.now() - t) / 1000
+    console.log(
+      `${name.padEnd(38)} ${Math.round(N / s).toLocaleString('en')} cycles/s (${((s * 1e3) / N).toFixed(2)} ms each)${failed ? `, ${failed} failed` : ''}`,
+    )
+    if (failed) process.exitCode = 1
+  }
+}
+
 // Steady flow with kinetic energy (./flow): nozzle (choked and not), diffuser, turbojet; the
 // gas is parsed once, as for the ideal-gas cycles above.
 {

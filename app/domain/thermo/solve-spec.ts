@@ -22,7 +22,7 @@ import type { FormattedCombined } from './combined/combined-template.ts'
 import { isSteadyFlowTemplate, solveSteadyFlowTemplate, STEADY_FLOW_FAMILY } from './flow/flow-template.ts'
 import type { FormattedFlow } from './flow/flow-template.ts'
 import { isRefrigerationTemplate, solveRefrigerationTemplate } from './refrigerants/refrigeration-template.ts'
-import type { FormattedRefrigeration } from './refrigerants/refrigeration-template.ts'
+import type { FormattedMultiStageRefrigeration, FormattedRefrigeration } from './refrigerants/refrigeration-template.ts'
 import { isCalorimeterTemplate, solveCalorimeterSpec } from './steam/calorimeter.ts'
 import type { FormattedCalorimeter } from './steam/calorimeter.ts'
 import { STEAM_CARNOT_TEMPLATE, solveSteamCycleSpec } from './steam/steam-cycle.ts'
@@ -36,6 +36,7 @@ export type AnySolution =
   | FormattedCalorimeter
   | FormattedSteamCycle
   | FormattedRefrigeration
+  | FormattedMultiStageRefrigeration
   | FormattedFlow
 
 export interface SpecFailure {
@@ -162,7 +163,7 @@ export type BankSolution = FormattedSolution | FormattedRankine
 function isBankSolution(r: AnySolution): r is BankSolution {
   if ('gasStates' in r) return false // combined cycle
   if ('family' in r && r.family === STEADY_FLOW_FAMILY) return false // nozzle, diffuser, turbojet (./flow)
-  if ('template' in r && r.template === 'vapour-compression') return false
+  if ('template' in r && isRefrigerationTemplate(r.template)) return false
   if ('template' in r && r.template === 'steam-throttling-calorimeter') return false
   if ('steps' in r && 'substance' in r) return false // water in the general cycle format (ideal-gas results name a gas, not a substance)
   return true

@@ -15,6 +15,14 @@ import type { Dimension, Quantity } from '../units.ts'
 import { REFRIGERANT_IDS, getRefrigerant } from './index.ts'
 import type { RefrigerantId } from './types.ts'
 import { TON_OF_REFRIGERATION, solveVapourCompression } from './vapour-compression.ts'
+import {
+  CASCADE_ID,
+  CASCADE_INPUTS,
+  TWO_STAGE_ID,
+  TWO_STAGE_INPUTS,
+  solveMultiStageTemplate,
+} from './multi-stage-template.ts'
+import type { FormattedCascade, FormattedTwoStage } from './multi-stage-template.ts'
 import type { SaturationGiven, VapourCompressionInput, VapourCompressionResult } from './vapour-compression.ts'
 
 const q = (value: number, unit: string): Quantity => ({ value, unit })
@@ -75,6 +83,20 @@ export const REFRIGERATION_TEMPLATES = [
       '1 evaporator exit (saturated or superheated vapour) → 2 compressor (isentropic or with an efficiency) → 3 condenser exit (saturated or subcooled liquid) or gas-cooler exit (transcritical R-744) → 4 throttling valve (h4 = h3) → evaporator. Per kg of refrigerant; with a mass flow or a capacity also as rates.',
     inputs: VAPOUR_COMPRESSION_INPUTS,
   },
+  {
+    id: TWO_STAGE_ID,
+    title: 'Two-stage vapour-compression refrigerator with a flash chamber (R-134a, R-1234yf, R-717, R-744)',
+    description:
+      'Two compressors in series with an open flash chamber at an intermediate pressure (default √(p_evap·p_cond)): the flash vapour mixes with the low-stage discharge before the high-stage compressor; the flash liquid feeds the evaporator through a second valve. States 1–9, per kg through the condenser.',
+    inputs: TWO_STAGE_INPUTS,
+  },
+  {
+    id: CASCADE_ID,
+    title: 'Cascade vapour-compression refrigerator (two cycles, each its own refrigerant)',
+    description:
+      "A lower and an upper single-stage cycle coupled by a cascade heat exchanger (the lower cycle's condenser is the upper cycle's evaporator); the exchanger's energy balance gives the mass-flow ratio. States 1–4 lower, 5–8 upper, per kg of the lower cycle's refrigerant.",
+    inputs: CASCADE_INPUTS,
+  },
 ] as const
 
 export function isRefrigerationTemplate(id: unknown): boolean {
@@ -86,6 +108,10 @@ export interface RefrigerationFailure {
   readonly error: { readonly code: string; readonly message: string; readonly property?: string }
 }
 
+/** the two-stage and cascade templates' solutions (./multi-stage-template.ts) */
+export type FormattedMultiStageRefrigeration = FormattedTwoStage | FormattedCascade
+
+/** the single-stage 'vapour-compression' template's solution */
 export interface FormattedRefrigeration {
   readonly ok: true
   readonly template: 'vapour-compression'
@@ -343,13 +369,14 @@ export function solveRefrigerationTemplate(
   id: string,
   inputs: unknown,
   convention: Convention = 'engineering',
-): FormattedRefrigeration | RefrigerationFailure {
+): FormattedRefrigeration | FormattedMultiStageRefrigeration | RefrigerationFailure {
   try {
     if (!isRefrigerationTemplate(id))
       return {
         ok: false,
         error: { code: 'invalid-spec', message: `unknown refrigeration template "${id}"`, property: 'template' },
       }
+    if (id === TWO_STAGE_ID || id === CASCADE_ID) return solveMultiStageTemplate(id, inputs, convention)
     const p = parseVapourCompressionInputs(inputs)
     if (!p.ok) return p
     const r = solveVapourCompression(p.value)
