@@ -166,3 +166,57 @@ test('in the catalog as the steady-flow family, and refused for bank problems', 
     expect(!r.ok && r.error.code).toBe(NOT_IN_BANK)
   }
 })
+
+test('random inputs: never a throw, and every solved quantity is finite', async () => {
+  const { mulberry32 } = await import('../test-helpers.ts')
+  const rand = mulberry32(2026)
+  const u = (lo: number, hi: number) => lo + (hi - lo) * rand()
+  const pick = <T>(xs: readonly T[]) => xs[Math.floor(rand() * xs.length)]!
+  const gases = ['air', 'nasa:dry-air', { cp: '1.005 kJ/(kg K)', gamma: 1.4 }, { preset: 'nasa:CO2', basis: 'mass' }]
+  let solvedCount = 0
+  for (let i = 0; i < 300; i++) {
+    const id = pick(['nozzle', 'diffuser', 'turbojet'])
+    const exit = pick(['p2', 'T2', 'V2', 'p2+V2'])
+    const inputs: Record<string, unknown> =
+      id === 'turbojet'
+        ? {
+            gas: pick(gases),
+            flightSpeed: `${u(0, 600)} m/s`,
+            ambientPressure: `${u(10, 101)} kPa`,
+            ambientTemperature: `${u(210, 300)} K`,
+            pressureRatio: u(1.5, 40),
+            turbineInletT: `${u(600, 1800)} K`,
+            compressorEfficiency: u(0.6, 1),
+            turbineEfficiency: u(0.6, 1),
+            massFlow: `${u(1, 100)} kg/s`,
+          }
+        : {
+            gas: pick(gases),
+            p1: `${u(50, 500)} kPa`,
+            T1: `${u(250, 1200)} K`,
+            V1: `${u(0, 400)} m/s`,
+            ...(exit.includes('p2') ? { p2: `${u(20, 600)} kPa` } : {}),
+            ...(exit === 'T2' ? { T2: `${u(200, 1300)} K` } : {}),
+            ...(exit.includes('V2') ? { V2: `${u(0, 900)} m/s` } : {}),
+            ...(exit === 'p2+V2' ? {} : { efficiency: u(0.7, 1) }),
+            ...(rand() < 0.5 ? { massFlow: `${u(0.1, 10)} kg/s` } : {}),
+            ...(id === 'nozzle' && rand() < 0.5 ? { shape: 'converging-diverging' } : {}),
+          }
+    const r = solveSpec({ template: id, inputs })
+    if (!r.ok) {
+      expect(r.error.message.length, JSON.stringify(inputs)).toBeGreaterThan(10)
+      expect(r.error.code).not.toBe('internal')
+      continue
+    }
+    solvedCount++
+    const walk = (x: unknown): void => {
+      if (x && typeof x === 'object') {
+        if ('value' in x && typeof (x as { value: unknown }).value === 'number')
+          expect(Number.isFinite((x as { value: number }).value), JSON.stringify(inputs)).toBe(true)
+        else Object.values(x).forEach(walk)
+      }
+    }
+    walk(r)
+  }
+  expect(solvedCount).toBeGreaterThan(50)
+})
