@@ -1,6 +1,7 @@
 /**
  * The demo problem bank: invented classroom problems of our own, at least one for every
- * cycle template and one general state-and-process cycle. The numbers are plausible
+ * cycle template bank problems may use (ideal gas, steam, the vapour-compression refrigerator)
+ * and one general state-and-process cycle. The numbers are plausible
  * teaching values, chosen so that every drawn variant is physical (a sweep of each problem
  * finds no failure: tests/reference/demo-problems.test.ts).
  *
@@ -687,6 +688,73 @@ const rankineRegenerative: ProblemDefinition = {
   ],
 }
 
+// ---- Refrigeration -------------------------------------------------------------------------
+
+const REFRIGERANT_CAUTION =
+  '> Teaching values: the refrigerant properties and results in this problem are for learning thermodynamics, not design data.'
+
+const vapourCompression: ProblemDefinition = {
+  format: 2,
+  title: 'Vapour-compression refrigerator on R-134a',
+  tags: {
+    topics: ['refrigeration', 'vapour compression', 'R-134a', 'coefficient of performance', 'isentropic efficiency'],
+    difficulty: 'standard',
+    level: 'second-year',
+  },
+  convention: 'course',
+  prompt: [
+    REFRIGERANT_CAUTION,
+    '',
+    'A refrigerator runs on a single-stage vapour-compression cycle with R-134a. The refrigerant leaves the evaporator as saturated vapour at [TL] and the condenser as saturated liquid at [TH]. The adiabatic compressor has an isentropic efficiency of [etaC, 2 dp], and [mdot] of refrigerant circulates.',
+    '',
+    'Find:',
+    '',
+    '1. the refrigeration effect (heat absorbed in the evaporator) per kilogram of refrigerant,',
+    '2. the compressor work input per kilogram, as a positive number,',
+    '3. the coefficient of performance,',
+    '4. the compressor power input,',
+    '5. the quality of the refrigerant leaving the throttling valve.',
+  ].join('\n'),
+  givens: [
+    range('TL', 'evaporator saturation temperature', '°C', -20, -4, 2),
+    range('TH', 'condenser saturation temperature', '°C', 30, 46, 4),
+    choice('etaC', 'compressor isentropic efficiency', '', [0.75, 0.8, 0.85]),
+    range('mdot', 'refrigerant mass flow rate', 'kg/s', 0.04, 0.1, 0.01),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'vapour-compression',
+    inputs: {
+      refrigerant: 'R134a',
+      evaporatorTemperature: 'TL',
+      condenserTemperature: 'TH',
+      compressorEfficiency: 'etaC',
+      massFlow: 'mdot',
+    },
+  },
+  finds: [
+    output(
+      'qL',
+      'Refrigeration effect (heat absorbed in the evaporator) per kg',
+      'totals.refrigerationEffect',
+      'kJ/kg',
+      3,
+      {
+        sense: 'heat-into-system',
+        pitfalls: ['kilo-factor'],
+      },
+    ),
+    output('Win', 'Compressor work input per kg of refrigerant', 'devices.1.w', 'kJ/kg', 3, {
+      sense: 'work-on-system',
+      pitfalls: ['sign-convention-flipped', 'kilo-factor'],
+    }),
+    output('cop', 'Coefficient of performance', 'totals.copRefrigerator', '', 2),
+    output('Wdot', 'Compressor power input', 'totals.compressorPower', 'kW', 2, { sense: 'work-on-system' }),
+    output('x4', 'Quality after the throttling valve', 'states.4.x', '', 2, { tolerance: rel(0.02) }),
+  ],
+}
+
 // ---- A general state-and-process cycle -------------------------------------------------------
 
 const threeStep: ProblemDefinition = {
@@ -899,5 +967,6 @@ export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'tobias', visibility: 'installation', definition: rankine },
   { owner: 'tobias', visibility: 'department', definition: rankineReheat },
   { owner: 'tobias', visibility: 'private', definition: rankineRegenerative },
+  { owner: 'tobias', visibility: 'department', definition: vapourCompression },
   { owner: 'amara', visibility: 'department', definition: threeStep },
 ]

@@ -1,10 +1,12 @@
 /**
- * P–v and T–s diagrams of a solved variant as inline SVG (no chart library): plot data from
+ * P–v and T–s diagrams of a solved variant, and the p–h diagram (log pressure axis) of a
+ * refrigeration cycle, as inline SVG (no chart library): plot data from
  * app/domain/authoring/diagrams.ts, drawn with the theme's colours. Dashes, not colour alone,
  * tell reversible paths from irreversible ones, so the figure survives black-and-white print.
+ * Each chart is an image with a title and a description of its states and processes in words.
  */
 import { useId } from 'react'
-import { describePlot } from '#app/domain/authoring/diagram-plot.ts'
+import { describePlot, diagramPlots } from '#app/domain/authoring/diagram-plot.ts'
 import type { Axis, CycleDiagrams as Diagrams, Plot } from '#app/domain/authoring/diagram-plot.ts'
 
 const W = 480
@@ -319,7 +321,10 @@ export function CycleDiagram({ plot }: { plot: Plot }) {
   )
 }
 
-/** Both diagrams side by side, stacked on narrow screens or, with `stacked`, always (in a narrow column). */
+/**
+ * The diagrams side by side (p–h first for a refrigeration cycle), stacked on narrow screens or,
+ * with `stacked`, always (in a narrow column).
+ */
 export function CycleDiagrams({
   diagrams,
   caption,
@@ -332,8 +337,9 @@ export function CycleDiagrams({
   return (
     <figure className="my-4 break-inside-avoid">
       <div className={stacked ? 'grid gap-4' : 'grid gap-6 md:grid-cols-2'}>
-        <CycleDiagram plot={diagrams.pv} />
-        <CycleDiagram plot={diagrams.ts} />
+        {diagramPlots(diagrams).map((plot) => (
+          <CycleDiagram key={plot.title} plot={plot} />
+        ))}
       </div>
       {caption ? <figcaption className="mt-2 text-sm text-muted">{caption}</figcaption> : null}
     </figure>

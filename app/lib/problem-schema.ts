@@ -57,6 +57,7 @@ export const TEMPLATE_IDS = [
   'rankine',
   'rankine-reheat',
   'rankine-regenerative',
+  'vapour-compression',
 ] as const
 
 /** Every PitfallId (app/domain/grading/pitfalls.ts), in the order the grader tries them. */

@@ -9,8 +9,8 @@
  */
 import type { CheckRule, PitfallId, Tolerance } from '#app/domain/grading/index.ts'
 import type { SigFigRule } from '#app/domain/grading/sig-figs.ts'
-import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
-import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
+import type { Convention } from '#app/domain/thermo/index.ts'
+import type { BankSolution } from '#app/domain/thermo/solve-spec.ts'
 import { upgradeLegacyPrompt } from './placeholder-syntax.ts'
 
 /**
@@ -194,7 +194,8 @@ export interface Variant {
   readonly givens: readonly DrawnGiven[]
   /** The spec file object solved for this variant (what solveSpec and diagnosePitfall take). */
   readonly spec: Readonly<Record<string, unknown>>
-  readonly solution: FormattedSolution | FormattedRankine
+  /** An ideal-gas cycle, a Rankine cycle or a vapour-compression cycle (./solution-kind.ts tells which). */
+  readonly solution: BankSolution
   readonly key: readonly KeyEntry[]
 }
 

@@ -32,13 +32,24 @@ export interface Plot {
   readonly y: Axis
   readonly curves: Curve[]
   readonly points: { label: string; x: number; y: number }[]
-  /** closed outline of the two-phase region: liquid branch up to the critical point, vapour branch down */
-  readonly dome?: { points: [number, number][] }
+  /**
+   * closed outline of the two-phase region: liquid branch up to the critical point, vapour
+   * branch down; `fluid` names the substance (water when absent), `from` where the outline
+   * starts ("the triple point" when absent, or a temperature when it is cut below the cycle)
+   */
+  readonly dome?: { points: [number, number][]; fluid?: string; from?: string }
 }
 
 export interface CycleDiagrams {
   readonly pv: Plot
   readonly ts: Plot
+  /** the pressure–enthalpy diagram (log p against h) of a refrigeration cycle, shown first */
+  readonly ph?: Plot
+}
+
+/** The plots to show, in order: p–h (refrigeration), then P–v and T–s, or for refrigeration T–s before P–v. */
+export function diagramPlots(d: CycleDiagrams): Plot[] {
+  return d.ph ? [d.ph, d.ts, d.pv] : [d.pv, d.ts]
 }
 
 const fmt = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : '—')
@@ -64,14 +75,18 @@ export function describePlot(plot: Plot): string {
       `${c.from} to ${c.to}, ${c.process}${c.label ? ` (${c.label})` : ''}${c.style === 'dashed' ? ', dashed' : ''}`,
   )
   const parts = [`${plot.title}.`]
-  if (plot.x.scale === 'log' || plot.y.scale === 'log') parts.push('Both axes are logarithmic.')
+  const xLog = plot.x.scale === 'log'
+  const yLog = plot.y.scale === 'log'
+  if (xLog && yLog) parts.push('Both axes are logarithmic.')
+  else if (xLog || yLog)
+    parts.push(`The ${(yLog ? plot.y : plot.x).label.replace(/\s*\(log scale\)\s*$/, '')} axis is logarithmic.`)
   if (states.length > 0) parts.push(`States: ${states.join('; ')}.`)
   if (steps.length > 0) parts.push(`Processes: ${steps.join('; ')}.`)
   if (plot.curves.some((c) => c.style === 'dashed'))
     parts.push('Dashed lines mark irreversible or internal steps whose path is not defined by the solution.')
   if (plot.dome)
     parts.push(
-      'The shaded outline is the saturation dome of water, from the triple point up to the critical point; inside it liquid and vapour coexist.',
+      `The shaded outline is the saturation dome of ${plot.dome.fluid ?? 'water'}, from ${plot.dome.from ?? 'the triple point'} up to the critical point; inside it liquid and vapour coexist.`,
     )
   return parts.join(' ')
 }

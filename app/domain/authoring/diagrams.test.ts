@@ -7,15 +7,15 @@ import { CycleDiagrams } from '#app/components/cycle-diagrams.tsx'
 import { NOT_IN_BANK, solveBankSpec } from '#app/domain/thermo/index.ts'
 import type { FormattedSolution } from '#app/domain/thermo/index.ts'
 import { saturationTemperature } from '#app/domain/thermo/steam/index.ts'
-import type { FormattedRankine } from '#app/domain/thermo/steam/index.ts'
 import { cycleDiagrams, describePlot } from './diagrams.ts'
+import type { BankSolution } from './solution-kind.ts'
 import type { Curve, Plot } from './diagrams.ts'
 
 const examples = join(import.meta.dirname, '../../../docs/examples')
 const readExample = (name: string) =>
   JSON.parse(readFileSync(join(examples, `${name}.json`), 'utf8')) as Record<string, unknown>
 
-function solved(spec: unknown): FormattedSolution | FormattedRankine {
+function solved(spec: unknown): BankSolution {
   const r = solveBankSpec(spec)
   if (!r.ok) throw new Error(`example did not solve: ${r.error.message}`)
   return r

@@ -1,5 +1,6 @@
 /**
- * Plot data for the P–v and T–s diagrams of a solved variant: the states as points and each
+ * Plot data for the P–v and T–s diagrams of a solved variant (and the p–h diagram of a
+ * refrigeration cycle, in refrigeration-diagrams.ts): the states as points and each
  * process as the curve it is, computed from the solved states only (no re-solving).
  *
  * Ideal gas: p v^k = const through both end states for isothermal, isentropic and polytropic
@@ -21,48 +22,20 @@ import type { FormattedSolution } from '#app/domain/thermo/format.ts'
 import { saturationAtP, saturationAtT, STEAM_LIMITS, stateFromPS } from '#app/domain/thermo/steam/index.ts'
 import type { FormattedRankine, FormattedRankineState } from '#app/domain/thermo/steam/index.ts'
 
-import type { Axis, Curve, CycleDiagrams, Plot } from './diagram-plot.ts'
+import type { Axis, Curve, CycleDiagrams } from './diagram-plot.ts'
+import { LIN, N, axes, cleanCurve, finite, pin, positive, same, straight, type Pair } from './diagram-math.ts'
+import { refrigerationDiagrams } from './refrigeration-diagrams.ts'
+import { isIdealGasSolution, isRefrigerationSolution, type BankSolution } from './solution-kind.ts'
 
 export type { Axis, Curve, CycleDiagrams, Plot } from './diagram-plot.ts'
 export { axisSymbol, describePlot } from './diagram-plot.ts'
 
-/** Points per ideal-gas curve. */
-const N = 32
 /** Points per IF97 isobar or isentrope (plus the dome corners on an isobar). */
 const N_STEAM = 40
 /** Points per dome branch. */
 const N_DOME = 30
 /** Triple-point temperature of water, K (IAPWS; the dome starts there, at about 0.61 kPa). */
 const T_TRIPLE = 273.16
-const PAD = 0.06
-
-type Pair = [number, number]
-
-const finite = (...xs: number[]) => xs.every((x) => typeof x === 'number' && Number.isFinite(x))
-const positive = (...xs: number[]) => xs.every((x) => typeof x === 'number' && Number.isFinite(x) && x > 0)
-const same = (a: number, b: number, rel = 1e-9) => Math.abs(a - b) <= rel * Math.max(Math.abs(a), Math.abs(b))
-
-/** A straight segment on screen: linear interpolation on linear axes, geometric on log axes. */
-function straight(a: Pair, b: Pair, scales: ['linear' | 'log', 'linear' | 'log'], n = N): Pair[] {
-  const lerp = (u: number, p: number, q: number, log: boolean) =>
-    log && positive(p, q) ? p * Math.pow(q / p, u) : p + (q - p) * u
-  const pts: Pair[] = []
-  for (let i = 0; i < n; i++) {
-    const u = i / (n - 1)
-    pts.push([lerp(u, a[0], b[0], scales[0] === 'log'), lerp(u, a[1], b[1], scales[1] === 'log')])
-  }
-  return pin(pts, a, b)
-}
-
-/** The ends exactly at the states, whatever rounding the sampling did. */
-function pin(pts: Pair[], a: Pair, b: Pair): Pair[] {
-  if (pts.length === 0) return [a, b]
-  pts[0] = [a[0], a[1]]
-  pts[pts.length - 1] = [b[0], b[1]]
-  return pts
-}
-
-const LIN: ['linear', 'linear'] = ['linear', 'linear']
 
 /** p v^k = const through (v1, p1) and (v2, p2), v spaced geometrically. */
 function powerLaw(a: Pair, b: Pair): Pair[] {
@@ -90,50 +63,6 @@ function expFit(a: Pair, b: Pair): Pair[] {
     pts.push([s1 + (s2 - s1) * u, T1 * Math.pow(T2 / T1, u)])
   }
   return pin(pts, a, b)
-}
-
-function cleanCurve(c: Curve): Curve {
-  return c.points.every(([x, y]) => finite(x, y)) ? c : { ...c, points: c.points.filter(([x, y]) => finite(x, y)) }
-}
-
-function range(values: number[], scale: 'linear' | 'log', nonNegative: boolean): [number, number] {
-  const vs = values.filter((x) => Number.isFinite(x) && (scale === 'linear' || x > 0))
-  if (vs.length === 0) return scale === 'log' ? [0.1, 10] : [0, 1]
-  let lo = Math.min(...vs)
-  let hi = Math.max(...vs)
-  if (scale === 'log') {
-    let a = Math.log10(lo)
-    let b = Math.log10(hi)
-    const span = b - a || 1
-    a -= PAD * span
-    b += PAD * span
-    return [Math.pow(10, a), Math.pow(10, b)]
-  }
-  const span = hi - lo || Math.abs(hi) * 0.2 || 1
-  lo -= PAD * span
-  hi += PAD * span
-  if (nonNegative && lo < 0 && Math.min(...vs) >= 0) lo = 0
-  return [lo, hi]
-}
-
-function axes(
-  curves: Curve[],
-  points: Plot['points'],
-  dome: Pair[] | undefined,
-  scale: 'linear' | 'log',
-  nonNegX: boolean,
-  nonNegY: boolean,
-) {
-  const xs: number[] = []
-  const ys: number[] = []
-  const add = (x: number, y: number) => {
-    xs.push(x)
-    ys.push(y)
-  }
-  for (const c of curves) for (const [x, y] of c.points) add(x, y)
-  for (const p of points) add(p.x, p.y)
-  for (const [x, y] of dome ?? []) add(x, y)
-  return { x: range(xs, scale, nonNegX), y: range(ys, scale, nonNegY) }
 }
 
 // --- ideal gas -----------------------------------------------------------------------------
@@ -441,7 +370,7 @@ function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
       y: { label: 'pressure p (log scale)', unit: 'kPa', scale: 'log', min: pvR.y[0], max: pvR.y[1] },
       curves: pvCurves,
       points: pvPoints,
-      ...(dome.pv.length > 2 ? { dome: { points: dome.pv } } : {}),
+      ...(dome.pv.length > 2 ? { dome: { points: dome.pv, fluid: 'water' } } : {}),
     },
     ts: {
       title: 'T–s diagram — water/steam (IAPWS-IF97)',
@@ -449,7 +378,7 @@ function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
       y: { label: 'temperature T', unit: 'K', scale: 'linear', min: tsR.y[0], max: tsR.y[1] },
       curves: tsCurves,
       points: tsPoints,
-      ...(dome.ts.length > 2 ? { dome: { points: dome.ts } } : {}),
+      ...(dome.ts.length > 2 ? { dome: { points: dome.ts, fluid: 'water' } } : {}),
     },
   }
 }
@@ -474,11 +403,15 @@ function emptyDiagrams(): CycleDiagrams {
   }
 }
 
-/** Both diagrams of a solved variant (ideal-gas cycle or Rankine). Never throws. */
-export function cycleDiagrams(solution: FormattedSolution | FormattedRankine): CycleDiagrams {
+/**
+ * The diagrams of a solved variant: P–v and T–s of an ideal-gas cycle or Rankine, and for a
+ * vapour-compression cycle also p–h (refrigeration-diagrams.ts). Never throws.
+ */
+export function cycleDiagrams(solution: BankSolution): CycleDiagrams {
   try {
     if (!solution || typeof solution !== 'object' || !Array.isArray(solution.states)) return emptyDiagrams()
-    if ('steps' in solution && Array.isArray(solution.steps)) return gasDiagrams(solution)
+    if (isIdealGasSolution(solution) && Array.isArray(solution.steps)) return gasDiagrams(solution)
+    if (isRefrigerationSolution(solution)) return refrigerationDiagrams(solution) ?? emptyDiagrams()
     return rankineDiagrams(solution as FormattedRankine)
   } catch {
     return emptyDiagrams()

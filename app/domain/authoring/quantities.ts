@@ -59,7 +59,8 @@ function subscriptTex(s: string): string {
 
 /**
  * A given's or find's name as a typeset symbol: T3 → T_3, W_net → W_{\text{net}}, r_c → r_c,
- * eta → \eta, etaT → \eta_T, wNet → w_{\text{net}}, qH → q_H, TIT → T_{\text{IT}}, cop → \mathrm{COP}.
+ * eta → \eta, etaT → \eta_T, wNet → w_{\text{net}}, qH → q_H, TIT → T_{\text{IT}}, cop → \mathrm{COP},
+ * mdot → \dot{m}, Wdot → \dot{W}.
  */
 export function symbolTex(name: string): string {
   if (UPRIGHT.has(name)) return `\\mathrm{${name.toUpperCase() === 'BWR' ? 'bwr' : name.toUpperCase()}}`
@@ -72,6 +73,9 @@ export function symbolTex(name: string): string {
     )
   if (greek) return `${GREEK[greek[1]!]}_{${subscriptTex(greek[2]!)}}`
   if (/^[A-Za-z]$/.test(name)) return name
+  // A rate: mdot → \dot{m}, Wdot → \dot{W}, QdotL → \dot{Q}_{L}
+  const rate = /^([A-Za-z])dot([A-Z0-9][A-Za-z0-9]*)?$/.exec(name)
+  if (rate) return `\\dot{${rate[1]}}${rate[2] ? `_{${subscriptTex(rate[2])}}` : ''}`
   const head = /^([A-Za-z])([A-Z0-9][A-Za-z0-9]*|[a-z]|in|out|net)$/.exec(name)
   // rc → r_c, rp → r_p, qH → q_H, T3 → T_3, wNet → w_net, qin → q_in, TIT → T_IT, pB → p_B
   if (head) return `${head[1]}_{${subscriptTex(head[2]!)}}`
@@ -130,6 +134,25 @@ function totalsQuantity(field: string, convention: Convention): Quantity | null 
       return { tex: sub('x', txt('turbine exit')), name: 'quality at the turbine exit' }
     case 'bleedFraction':
       return { tex: 'y', name: 'fraction of the steam bled to the feedwater heater' }
+    // The vapour-compression cycle (per kg of refrigerant; sizes, whatever the convention).
+    case 'refrigerationEffect':
+      return { tex: sub(Q, 'L'), name: 'refrigeration effect per kg of refrigerant (heat taken in by the evaporator)' }
+    case 'compressorWork':
+      return { tex: sub(W, txt('c,in')), name: 'compressor work input per kg of refrigerant' }
+    case 'heatRejected':
+      return { tex: sub(Q, 'H'), name: 'heat rejected per kg of refrigerant' }
+    case 'carnotCop':
+      return { tex: sub('\\mathrm{COP}', txt('Carnot')), name: 'Carnot COP between the two temperatures' }
+    case 'throttleQuality':
+      return { tex: sub('x', txt('valve exit')), name: 'quality after the throttling valve' }
+    case 'massFlow':
+      return { tex: '\\dot m', name: 'refrigerant mass flow rate' }
+    case 'capacity':
+      return { tex: sub('\\dot Q', 'L'), name: 'refrigeration capacity' }
+    case 'compressorPower':
+      return { tex: sub('\\dot W', txt('c,in')), name: 'compressor power input' }
+    case 'heatRejectionRate':
+      return { tex: sub('\\dot Q', 'H'), name: 'rate of heat rejection' }
     default:
       return null
   }
@@ -160,6 +183,8 @@ export interface PathContext {
   readonly steam?: boolean
   /** Names of the states in order ('1', '2', … or 'A', 'B', …), for subscripts. */
   readonly stateNames?: readonly string[]
+  /** Names of the devices in order ('compressor', 'condenser', …) of a steam or refrigeration cycle. */
+  readonly deviceNames?: readonly string[]
 }
 
 function stateSub(names: readonly string[] | undefined, index: number): string {
@@ -191,6 +216,20 @@ export function quantityAtPath(path: string, ctx: PathContext): Quantity | null 
     if (!Number.isInteger(k) || k < 1 || !prop) return null
     const s = ctx.stateNames?.[k - 1] ?? String(k)
     return { tex: sub(prop.tex, stateSub(ctx.stateNames, k)), name: `${prop.name} at state ${s}` }
+  }
+  if (parts[0] === 'devices' && parts.length === 3 && (parts[2] === 'w' || parts[2] === 'q')) {
+    // A device's work (in the convention's sign) or heat (into the fluid), per kg.
+    const k = Number(parts[1])
+    const device = Number.isInteger(k) && k >= 1 ? ctx.deviceNames?.[k - 1] : undefined
+    if (device === undefined) return null
+    const { Q, W } = heatWork(ctx.convention)
+    const word = txt(texText(device))
+    return parts[2] === 'w'
+      ? {
+          tex: sub(W, word),
+          name: `work ${ctx.convention === 'chemistry' ? 'done on' : 'done by'} the fluid in the ${device}, per kg`,
+        }
+      : { tex: sub(Q, word), name: `heat into the fluid in the ${device}, per kg` }
   }
   if (parts[0] === 'steps' && (parts.length === 3 || (parts.length === 4 && parts[2] === 'total'))) {
     const k = Number(parts[1])

@@ -2,7 +2,8 @@
  * The sense of a work or heat find: which way its key counts positive. The solver states work
  * in the variant's convention (chemistry: w done ON the system; engineering: W done BY it) and
  * heat always as heat into the system, except the cycle totals, which are sizes (heat in, heat
- * out, the Rankine net, turbine and pump work). A find that states its sense gets the sign its
+ * out, the Rankine net, turbine and pump work, the refrigeration effect, compressor work and
+ * heat rejected of a vapour-compression cycle). A find that states its sense gets the sign its
  * words promise in both conventions (variant.ts negates the solver's value when they differ);
  * one that states none keeps the solver's sign, as before.
  *
@@ -42,12 +43,33 @@ function isRankine(templateId: string | null): boolean {
   return templateId !== null && templateId.startsWith('rankine')
 }
 
+/** The refrigeration templates' result (refrigerants/refrigeration-template.ts): totals are sizes. */
+function isRefrigeration(templateId: string | null): boolean {
+  return templateId === 'vapour-compression'
+}
+
 /**
  * The sense of the number at an output path. `templateId` is the physics template (null for a
  * general cycle): the Rankine templates state the net, turbine and pump work as sizes.
  */
 export function outputSense(path: string, templateId: string | null): OutputSense {
   const p = path.trim()
+  if (isRefrigeration(templateId)) {
+    // Each device's w is in the convention's sign (the compressor's is negative in the
+    // engineering convention: work is done ON the refrigerant), its q is heat into the
+    // refrigerant (the condenser's is negative). The totals are sizes: the compressor work and
+    // power are done on the refrigerant, the refrigeration effect and capacity are heat taken
+    // in from the cold space, the heat rejected leaves it.
+    if (/^devices\.[^.]+\.w$/.test(p)) return { kind: 'convention-work' }
+    if (/^devices\.[^.]+\.q$/.test(p)) return { kind: 'fixed', sense: 'heat-into-system' }
+    if (p === 'totals.compressorWork' || p === 'totals.compressorPower')
+      return { kind: 'fixed', sense: 'work-on-system' }
+    if (p === 'totals.refrigerationEffect' || p === 'totals.capacity')
+      return { kind: 'fixed', sense: 'heat-into-system' }
+    if (p === 'totals.heatRejected' || p === 'totals.heatRejectionRate')
+      return { kind: 'fixed', sense: 'heat-out-of-system' }
+    return null
+  }
   if (isRankine(templateId)) {
     if (/^devices\.[^.]+\.w$/.test(p) || p === 'totals.netWorkSigned') return { kind: 'convention-work' }
     if (p === 'totals.netWork' || p === 'totals.turbineWork') return { kind: 'fixed', sense: 'work-by-system' }

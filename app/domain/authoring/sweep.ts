@@ -1,14 +1,17 @@
 /**
  * The sweep: drawing many variants of a problem and checking each for physical sense before
  * students see it. A range that looks harmless can reach a turbine inlet below the compressor
- * exit, a negative temperature through an expression, or wet steam beyond quality 1. Each
+ * exit, a negative temperature through an expression, wet steam beyond quality 1, or an
+ * evaporator warmer than the condenser of a refrigerator. Each
  * failure names its seed and the givens drawn, so the author can open that variant. Pure;
  * the background job calls sweepVariants in chunks of seeds and reports progress between them.
  */
 import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
+import type { FormattedRefrigeration } from '#app/domain/thermo/refrigerants/refrigeration-template.ts'
 import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
 import type { DrawResult, DrawnGiven, ProblemDefinition, SweepFailure, SweepSummary } from './definition.ts'
 import { drawGivens, formatNumber } from './givens.ts'
+import { solutionKind } from './solution-kind.ts'
 import { drawVariant } from './variant.ts'
 
 /** Failures kept by default; the rest are counted. */
@@ -19,10 +22,6 @@ const SLACK = 1e-9
 
 function givenLines(givens: readonly DrawnGiven[]): string[] {
   return givens.map((g) => `${g.name} = ${g.text}`)
-}
-
-function isRankine(sol: FormattedSolution | FormattedRankine): sol is FormattedRankine {
-  return 'substance' in sol
 }
 
 function stateName(name: string, index: number): string {
@@ -101,11 +100,59 @@ function rankineProblems(sol: FormattedRankine): Problem[] {
   return out
 }
 
+/**
+ * A vapour-compression cycle: the COP between 0 and the Carnot COP of its two temperatures, the
+ * energy balance q_H = q_L + w, and every quality (the valve exit is a wet mixture). The solver
+ * already refuses an evaporator at or above the condenser (the variant does not draw).
+ */
+function refrigerationProblems(sol: FormattedRefrigeration, spec: Readonly<Record<string, unknown>>): Problem[] {
+  const out = stateProblems(sol.states)
+  const t = sol.totals
+  const purpose = (spec.inputs as { purpose?: unknown } | undefined)?.purpose
+  const heatPump = purpose === 'heat pump' || purpose === 'heat-pump'
+  // The solver states the Carnot COP for the purpose; a heat pump's is the refrigerator's + 1.
+  const carnotR = heatPump ? t.carnotCop.value - 1 : t.carnotCop.value
+  const cop = t.copRefrigerator.value
+  const what = heatPump ? 'heat pump COP' : 'COP'
+  const shown = heatPump ? t.copHeatPump.value : cop
+  if (!Number.isFinite(cop) || !(cop > 0) || cop > carnotR + SLACK * Math.max(1, Math.abs(carnotR)))
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The ${what} ${fmt(shown)} is outside 0 to the Carnot COP ${fmt(t.carnotCop.value)}.`,
+    })
+  const qL = t.refrigerationEffect.value
+  const w = t.compressorWork.value
+  const qH = t.heatRejected.value
+  if (![qL, w, qH].every(Number.isFinite) || !(w > 0) || Math.abs(qH - qL - w) > 1e-6 * Math.max(1, Math.abs(qH)))
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The energy balance does not close: heat rejected ${fmt(qH / 1000)} kJ/kg against ${fmt(qL / 1000)} + ${fmt(w / 1000)} kJ/kg taken in.`,
+    })
+  sol.states.forEach((s, i) => {
+    if (s.x !== null && !(s.x >= -SLACK && s.x <= 1 + SLACK))
+      out.push({
+        code: 'quality-out-of-range',
+        message: `${stateName(s.name, i)}: quality x = ${fmt(s.x)} is outside 0 to 1.`,
+      })
+  })
+  const x = t.throttleQuality.value
+  if (!(x > -SLACK && x < 1 + SLACK))
+    out.push({ code: 'quality-out-of-range', message: `The quality after the valve ${fmt(x)} is outside 0 to 1.` })
+  return out
+}
+
 /** What is physically wrong with one drawn variant (an empty list when nothing is). */
 export function checkVariantSanity(result: DrawResult): SweepFailure[] {
   if (!result.ok) return [{ seed: result.seed, code: result.error.code, message: result.error.message }]
   const v = result.variant
-  const problems = isRankine(v.solution) ? rankineProblems(v.solution) : idealGasProblems(v.solution)
+  const sol = v.solution
+  const kind = solutionKind(sol)
+  const problems =
+    kind === 'refrigeration'
+      ? refrigerationProblems(sol as FormattedRefrigeration, v.spec)
+      : kind === 'rankine'
+        ? rankineProblems(sol as FormattedRankine)
+        : idealGasProblems(sol as FormattedSolution)
   for (const k of v.key) {
     if (!Number.isFinite(k.value))
       problems.push({ code: 'find-undefined', message: `Find "${k.name}": the key is not a finite number.` })

@@ -9,9 +9,9 @@ import type { CompiledRestrictedExpression, ScopeValue } from '#app/domain/gradi
 import { compileRestrictedExpression } from '#app/domain/grading/index.ts'
 import { mathCore } from '#app/domain/grading/math-instance.ts'
 import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
-import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
+import type { Convention } from '#app/domain/thermo/index.ts'
 import { readQuantity, solveBankSpec } from '#app/domain/thermo/index.ts'
-import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
+import type { BankSolution } from '#app/domain/thermo/solve-spec.ts'
 import type { DrawResult, DrawnGiven, Find, KeyEntry, Physics, ProblemDefinition, VariantError } from './definition.ts'
 import { describeCompileError, drawGivens, givenScope, isNumericGiven, toScopeValue } from './givens.ts'
 import { senseFactor } from './sense.ts'
@@ -137,7 +137,7 @@ function solverMessage(e: { message: string }): string {
 function computeKey(
   def: ProblemDefinition,
   givens: readonly DrawnGiven[],
-  solution: FormattedSolution | FormattedRankine,
+  solution: BankSolution,
   convention: Convention,
 ): { ok: true; key: KeyEntry[] } | { ok: false; error: VariantError } {
   const compiled = compileFinds(def)

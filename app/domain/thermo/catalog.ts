@@ -76,7 +76,9 @@ export const TEMPLATE_CATALOG: readonly CatalogEntry[] = [
   ...entries('steam', STEAM_PLANT_TEMPLATES, false),
   ...entries('steam', [CALORIMETER_TEMPLATE, STEAM_CARNOT_TEMPLATE], false),
   ...entries('combined', COMBINED_TEMPLATES, false),
-  ...entries('refrigeration', REFRIGERATION_TEMPLATES, false),
+  // Per template: the single-stage vapour-compression cycle only; other refrigeration templates
+  // wait until the authoring layer keys, explains and draws them.
+  ...REFRIGERATION_TEMPLATES.flatMap((t) => entries('refrigeration', [t], t.id === 'vapour-compression')),
   ...entries('steady-flow', STEADY_FLOW_TEMPLATES, false),
 ]
 

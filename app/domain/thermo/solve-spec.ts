@@ -15,7 +15,7 @@ import type { FormattedSolution } from './format.ts'
 import type { Slips } from './slips.ts'
 import { parseCycleSpec } from './spec.ts'
 import { isRankineTemplate, solveRankineTemplate, templates } from './templates/index.ts'
-import { templateIds } from './catalog.ts'
+import { templateEntry, templateIds } from './catalog.ts'
 import type { FormattedRankine } from './steam/rankine-template.ts'
 import { isCombinedTemplate, solveCombinedTemplate } from './combined/combined-template.ts'
 import type { FormattedCombined } from './combined/combined-template.ts'
@@ -28,7 +28,7 @@ import type { FormattedCalorimeter } from './steam/calorimeter.ts'
 import { STEAM_CARNOT_TEMPLATE, solveSteamCycleSpec } from './steam/steam-cycle.ts'
 import type { FormattedSteamCycle } from './steam/steam-cycle.ts'
 
-/** Every solution a spec file can give (the bank uses the first two: BankSolution). */
+/** Every solution a spec file can give (the bank uses some: BankSolution). */
 export type AnySolution =
   | FormattedSolution
   | FormattedRankine
@@ -151,39 +151,54 @@ export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): AnySolu
 /** The error code of a template that solves in spec files but not (yet) in bank problems. */
 export const NOT_IN_BANK = 'not-in-bank'
 
-/** The solutions bank problems can be built on today: the ideal-gas cycles and the Rankine templates. */
-export type BankSolution = FormattedSolution | FormattedRankine
+/**
+ * The solutions bank problems can be built on today: the ideal-gas cycles, the Rankine templates
+ * and the single-stage vapour-compression cycle ('vapour-compression' only: other refrigeration
+ * templates share its result type but stay out of the bank until the authoring layer handles them).
+ */
+export type BankSolution = FormattedSolution | FormattedRankine | FormattedRefrigeration
 
 /**
  * solveSpec for bank problems (drawing variants, lint, pitfalls): the templates whose results
- * the authoring layer can key, explain and draw. Another template (the combined cycle so far)
- * solves in spec files and `npm run solve` but is refused here with a plain message until the
- * problem editor supports it. Never throws.
+ * the authoring layer can key, explain and draw. A template the catalog does not mark `bank`
+ * (catalog.ts) solves in spec files and `npm run solve` but is refused here, by its id, with a
+ * plain message until the problem editor supports it; so is water in the general cycle format.
+ * Never throws.
  */
 function isBankSolution(r: AnySolution): r is BankSolution {
   if ('gasStates' in r) return false // combined cycle
   if ('family' in r && r.family === STEADY_FLOW_FAMILY) return false // nozzle, diffuser, turbojet (./flow)
-  if ('template' in r && isRefrigerationTemplate(r.template)) return false
-  if ('template' in r && r.template === 'steam-throttling-calorimeter') return false
+  if ('template' in r && typeof r.template === 'string') {
+    const entry = templateEntry(r.template)
+    if (entry && !entry.bank) return false
+  }
   if ('steps' in r && 'substance' in r) return false // water in the general cycle format (ideal-gas results name a gas, not a substance)
   return true
 }
 
+function notInBank(what: string): SpecFailure {
+  return {
+    ok: false,
+    error: {
+      code: NOT_IN_BANK,
+      message: `${what} solves in spec files but cannot be used in bank problems yet`,
+      property: 'template',
+    },
+  }
+}
+
 export function solveBankSpec(raw: unknown, options: SolveSpecOptions = {}): BankSolution | SpecFailure {
+  // By the id asked for, before solving: a template outside the bank is refused even when its
+  // result has the shape of one inside it (the refrigeration templates share one result type).
+  const t = (raw as { template?: unknown } | null)?.template
+  const entry = typeof t === 'string' ? templateEntry(t) : undefined
+  if (entry && !entry.bank) return notInBank(`the "${entry.id}" template`)
   const r = solveSpec(raw, options)
-  if (r.ok && !isBankSolution(r)) {
-    const what =
+  if (r.ok && !isBankSolution(r))
+    return notInBank(
       'template' in r && typeof r.template === 'string'
         ? `the "${r.template}" template`
-        : 'a water/steam cycle written out in full'
-    return {
-      ok: false,
-      error: {
-        code: NOT_IN_BANK,
-        message: `${what} solves in spec files but cannot be used in bank problems yet`,
-        property: 'template',
-      },
-    }
-  }
+        : 'a water/steam cycle written out in full',
+    )
   return r as BankSolution | SpecFailure
 }
