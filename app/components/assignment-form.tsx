@@ -4,7 +4,7 @@
  * JavaScript and everything typed comes back with the page.
  */
 import { useEffect, useRef, type ReactNode } from 'react'
-import { Form, Link, useNavigation } from 'react-router'
+import { Form, href, Link, useNavigation } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { VersionPicker } from '#app/components/version-picker.tsx'
@@ -22,8 +22,8 @@ export interface AssignmentFormProps {
   readonly stored?: Readonly<Record<string, string>>
   readonly timeZone: string
   readonly submitLabel: string
-  /** Where answered items are regraded (edit page); absent for a new assignment. */
-  readonly regradeBase?: string
+  /** The page where an answered item is regraded (edit page); absent for a new assignment. */
+  readonly regradeTo?: (position: number) => string
   readonly cancelTo: string
 }
 
@@ -63,7 +63,7 @@ export function AssignmentForm({
   stored = {},
   timeZone,
   submitLabel,
-  regradeBase,
+  regradeTo,
   cancelTo,
 }: AssignmentFormProps) {
   const navigation = useNavigation()
@@ -334,8 +334,8 @@ export function AssignmentForm({
       <Section title="Problems">
         {choices.length === 0 ? (
           <Notice tone="warn">
-            Your bank has no problems yet. <Link to="/bank/new">Write a problem</Link> or{' '}
-            <Link to="/bank/import">import some</Link> first.
+            Your bank has no problems yet. <Link to={href('/bank/new')}>Write a problem</Link> or{' '}
+            <Link to={href('/bank/import')}>import some</Link> first.
           </Notice>
         ) : null}
         {locked.length > 0 ? (
@@ -393,11 +393,9 @@ export function AssignmentForm({
                               answered
                             </span>
                           </span>
-                          {regradeBase ? (
+                          {regradeTo ? (
                             <span className="block text-xs">
-                              <Link to={`${regradeBase}/${lockedItem.position}/regrade`}>
-                                Regrade to change its version or points
-                              </Link>
+                              <Link to={regradeTo(lockedItem.position)}>Regrade to change its version or points</Link>
                             </span>
                           ) : null}
                         </>

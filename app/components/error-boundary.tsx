@@ -1,4 +1,4 @@
-import { isRouteErrorResponse, useRouteError } from 'react-router'
+import { href, isRouteErrorResponse, useRouteError } from 'react-router'
 
 const titles: Record<number, string> = {
   400: 'That request could not be read',
@@ -41,7 +41,7 @@ export function GeneralErrorBoundary() {
       </h1>
       <p className="mt-3 text-ink">{message}</p>
       <p className="mt-6">
-        <a href="/">Go to your home page</a>
+        <a href={href('/')}>Go to your home page</a>
       </p>
       {details ? <pre className="mt-6 overflow-auto rounded bg-paper p-3 text-xs">{details}</pre> : null}
     </section>

@@ -1,3 +1,4 @@
+import { href } from 'react-router'
 import type { LinkProblem } from '#app/server/access-links.server.ts'
 
 const texts: Record<LinkProblem, string> = {
@@ -23,8 +24,8 @@ export function LinkProblemPanel({ problem, what }: { problem: LinkProblem; what
           : 'You can ask for a new link.'}
       </p>
       <p className="mt-4 flex gap-4">
-        <a href="/sign-in">Sign in</a>
-        {what === 'password-reset' ? <a href="/forgot-password">Ask for a new link</a> : null}
+        <a href={href('/sign-in')}>Sign in</a>
+        {what === 'password-reset' ? <a href={href('/forgot-password')}>Ask for a new link</a> : null}
       </p>
     </section>
   )

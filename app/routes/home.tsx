@@ -13,7 +13,7 @@ export const meta: Route.MetaFunction = () => [{ title: 'Home · Cyclewright' }]
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request)
-  if (!user) throw redirect('/sign-in')
+  if (!user) throw redirect(href('/sign-in'))
   const home = await getHomeData(db(), user)
   return { name: user.name, role: primaryRole(toActor(user)), courses: user.courses, home }
 }
@@ -43,13 +43,14 @@ export default function HomeRoute({ loaderData }: Route.ComponentProps) {
       <p className="mt-2 max-w-2xl text-muted">{intros[role]}</p>
       {role === 'instructor' ? (
         <p className="mt-4">
-          <Link to="/bank">Your problem bank</Link>: write randomised problems once and reuse them in any course.
+          <Link to={href('/bank')}>Your problem bank</Link>: write randomised problems once and reuse them in any
+          course.
         </p>
       ) : null}
       {role === 'admin' ? (
         <p className="mt-4 flex gap-4">
-          <Link to="/admin">All courses of the department</Link>
-          <Link to="/admin/outbox">Outbox (mail sent by the demo)</Link>
+          <Link to={href('/admin')}>All courses of the department</Link>
+          <Link to={href('/admin/outbox')}>Outbox (mail sent by the demo)</Link>
         </p>
       ) : null}
       <ToDo home={home} />
@@ -190,7 +191,10 @@ function ToDo({ home }: { home: HomeData }) {
                 <ul className="mt-1 list-disc pl-5 text-sm">
                   {home.failedChecks.map((f) => (
                     <li key={f.problemId}>
-                      <Link to={`/bank/${f.problemId}#check`}>{f.title}</Link>:{' '}
+                      <Link to={`${href('/bank/:problemId', { problemId: String(f.problemId) })}#check`}>
+                        {f.title}
+                      </Link>
+                      :{' '}
                       {f.status === 'failed'
                         ? `the check ${inSentence(SWEEP_STATUS_LABELS.failed)} before it finished`
                         : `${f.failed} of ${f.total} variants failed`}

@@ -1,4 +1,4 @@
-import { data, Form, redirect, useNavigation } from 'react-router'
+import { data, Form, href, redirect, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { LinkProblemPanel } from '#app/components/link-problem.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -43,7 +43,8 @@ export async function action({ request, params }: Route.ActionArgs) {
       { fieldErrors: noFieldErrors, values: noValues, formError: 'This invitation can no longer be used.' },
       { status: 400 },
     )
-  const courseTarget = (courseId: number | null) => (courseId ? `/courses/${courseId}` : '/')
+  const courseTarget = (courseId: number | null) =>
+    courseId ? href('/courses/:courseId', { courseId: String(courseId) }) : href('/')
   if (found.existingUser?.hasPassword) {
     // An existing account only gains the course; it must prove who it is by signing in.
     const accepted = await acceptInvitation(db(), params.token, {})
@@ -55,7 +56,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     const current = await getUser(request)
     const target = courseTarget(accepted.courseId)
     if (current?.id === accepted.userId) return redirect(target)
-    return redirect(`/sign-in?${new URLSearchParams({ redirectTo: target })}`)
+    return redirect(`${href('/sign-in')}?${new URLSearchParams({ redirectTo: target })}`)
   }
   const form = parseForm(await readFormData(request), NewAccountSchema)
   if (!form.ok)

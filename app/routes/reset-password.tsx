@@ -1,4 +1,4 @@
-import { data, Form, redirect, useNavigation } from 'react-router'
+import { data, Form, href, redirect, useNavigation } from 'react-router'
 import { LinkProblemPanel } from '#app/components/link-problem.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { NewPasswordFields } from '#app/components/new-password-fields.tsx'
@@ -26,7 +26,7 @@ export async function action({ request, params }: Route.ActionArgs) {
       { fieldErrors: noFieldErrors, formError: 'This link can no longer be used. Ask for a new one.' },
       { status: 400 },
     )
-  return redirect('/sign-in?reset=1')
+  return redirect(`${href('/sign-in')}?reset=1`)
 }
 
 export default function ResetPasswordRoute({ loaderData, actionData }: Route.ComponentProps) {

@@ -1,4 +1,4 @@
-import { data, Form, Link, useNavigation, useSearchParams } from 'react-router'
+import { data, Form, href, Link, useNavigation, useSearchParams } from 'react-router'
 import { Button } from '#app/components/ui/button.tsx'
 import { Field } from '#app/components/ui/field.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
@@ -66,7 +66,7 @@ export default function SignInRoute({ actionData }: Route.ComponentProps) {
           {busy ? 'Signing in…' : 'Sign in'}
         </Button>
         <p className="text-sm">
-          <Link to="/forgot-password">Forgot your password?</Link>
+          <Link to={href('/forgot-password')}>Forgot your password?</Link>
         </p>
       </Form>
     </section>

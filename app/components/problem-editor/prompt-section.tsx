@@ -1,3 +1,4 @@
+import { href } from 'react-router'
 import { useRef, useState } from 'react'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { placeholderText } from '#app/domain/authoring/placeholder-syntax.ts'
@@ -74,7 +75,7 @@ export function PromptSection({
             Markdown. <code>[T1]</code> shows a given with its unit, <code>[p1 in kPa]</code> converts it,{' '}
             <code>[r, 3 sf]</code> or <code>[r, 2 dp]</code> rounds it; <code>\[</code> is a bracket that is only a
             bracket. Math goes between <code>$…$</code> (inline) or <code>$$…$$</code> (display). More in the{' '}
-            <a href="/help/authoring#placeholders">author guide</a>.
+            <a href={`${href('/help/:page', { page: 'authoring' })}#placeholders`}>author guide</a>.
           </>,
         )}
         <div

@@ -1,5 +1,5 @@
 import { useEffect } from 'react'
-import { data, Form, Link, redirect, useNavigation, useRevalidator } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation, useRevalidator } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -35,7 +35,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
   try {
     const { exportId } = await requestTermExport(db(), { adminUser: user, termId: form.value.termId })
-    return redirect(`/admin/exports?requested=${exportId}`)
+    return redirect(`${href('/admin/exports')}?requested=${exportId}`)
   } catch (e) {
     if (e instanceof ExportRequestError)
       return data(
@@ -89,7 +89,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
   return (
     <div>
       <p className="text-sm">
-        <Link to="/admin">Department</Link>
+        <Link to={href('/admin')}>Department</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Grade exports</h1>
       <p className="mt-2 max-w-2xl text-muted">
@@ -146,7 +146,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
       {unfinished > 0 ? (
         <p role="status" className="mt-2 text-sm text-muted">
           {unfinished === 1 ? 'One export is' : `${unfinished} exports are`} not finished yet; this page checks every
-          few seconds. <Link to="/admin/exports">Refresh</Link>
+          few seconds. <Link to={href('/admin/exports')}>Refresh</Link>
         </p>
       ) : null}
       {exports.length === 0 ? (

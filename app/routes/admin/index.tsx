@@ -20,15 +20,16 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
     <div>
       <h1 className="text-3xl font-semibold">Department</h1>
       <p className="mt-2 text-muted">
-        Every course on this installation. <Link to="/admin/exports">Export a term’s grades</Link> as one CSV file.
+        Every course on this installation. <Link to={href('/admin/exports')}>Export a term’s grades</Link> as one CSV
+        file.
       </p>
       <p className="mt-4 flex flex-wrap gap-x-6 gap-y-2">
-        <Link to="/admin/courses/new">New course</Link>
-        <Link to="/admin/terms">Terms</Link>
+        <Link to={href('/admin/courses/new')}>New course</Link>
+        <Link to={href('/admin/terms')}>Terms</Link>
       </p>
       {courses.length === 0 ? (
         <EmptyState className="mt-8">
-          No courses yet — <Link to="/admin/courses/new">create the first</Link>.
+          No courses yet — <Link to={href('/admin/courses/new')}>create the first</Link>.
         </EmptyState>
       ) : (
         <Table boxClassName="mt-6" caption="Courses">
@@ -74,13 +75,13 @@ export default function AdminRoute({ loaderData }: Route.ComponentProps) {
       )}
       <ul className="mt-6 flex flex-wrap gap-x-6 gap-y-2" aria-label="Department tools">
         <li>
-          <Link to="/admin/terms">Terms</Link>
+          <Link to={href('/admin/terms')}>Terms</Link>
         </li>
         <li>
-          <Link to="/admin/exports">Grade exports</Link>
+          <Link to={href('/admin/exports')}>Grade exports</Link>
         </li>
         <li>
-          <Link to="/admin/outbox">Outbox</Link>
+          <Link to={href('/admin/outbox')}>Outbox</Link>
         </li>
       </ul>
     </div>

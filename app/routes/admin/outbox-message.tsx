@@ -1,4 +1,4 @@
-import { data, Link } from 'react-router'
+import { data, href, Link } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
@@ -33,7 +33,7 @@ export default function OutboxMessageRoute({ loaderData }: Route.ComponentProps)
   return (
     <article aria-labelledby="message-title">
       <p className="text-sm">
-        <Link to="/admin/outbox">← Outbox</Link>
+        <Link to={href('/admin/outbox')}>← Outbox</Link>
       </p>
       <h1 id="message-title" className="mt-2 text-2xl font-semibold">
         {message.subject || '(no subject)'}

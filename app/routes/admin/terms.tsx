@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { Field } from '#app/components/ui/field.tsx'
@@ -34,7 +34,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
   const made = await createTermFor(db(), department.id, form.value)
   if (!made.ok) return data({ fieldErrors: made.fieldErrors, values: formValues(formData) }, { status: 400 })
-  return redirect(`/admin/terms?created=${made.termId}`)
+  return redirect(`${href('/admin/terms')}?created=${made.termId}`)
 }
 
 export default function AdminTermsRoute({ loaderData, actionData }: Route.ComponentProps) {
@@ -46,7 +46,7 @@ export default function AdminTermsRoute({ loaderData, actionData }: Route.Compon
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to="/admin">Department</Link>
+        <Link to={href('/admin')}>Department</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Terms</h1>
       {department ? (
@@ -62,7 +62,7 @@ export default function AdminTermsRoute({ loaderData, actionData }: Route.Compon
       {createdTerm ? (
         <Notice tone="ok" className="mt-4">
           {createdTerm.name} was added.{' '}
-          <Link to={`/admin/courses/new?termId=${createdTerm.id}`}>Create a course in it</Link>.
+          <Link to={`${href('/admin/courses/new')}?termId=${createdTerm.id}`}>Create a course in it</Link>.
         </Notice>
       ) : null}
       {department ? (

@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { SweepPanel } from '#app/components/sweep-panel.tsx'
@@ -78,10 +78,12 @@ export async function action({ request, params }: Route.ActionArgs) {
       try {
         if (parsed.data.intent === 'delete') {
           await deleteProblem(db(), viewer, problem.id, { confirmed: parsed.data.confirm === 'yes' })
-          return redirect('/bank?deleted=1')
+          return redirect(`${href('/bank')}?deleted=1`)
         }
         await setProblemArchived(db(), viewer, problem.id, parsed.data.intent === 'archive')
-        return redirect(`/bank/${problem.id}?done=${parsed.data.intent === 'archive' ? 'archived' : 'restored'}`)
+        return redirect(
+          `${href('/bank/:problemId', { problemId: String(problem.id) })}?done=${parsed.data.intent === 'archive' ? 'archived' : 'restored'}`,
+        )
       } catch (e) {
         if (!(e instanceof BankChangeError)) throw e
         if (e.status === 403 || e.status === 404) throw data(e.message, { status: e.status })
@@ -91,7 +93,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     case 'copy': {
       try {
         const copy = await copyProblem(db(), viewer, problem.id)
-        return redirect(`/bank/${copy.problemId}?copied=1`)
+        return redirect(`${href('/bank/:problemId', { problemId: String(copy.problemId) })}?copied=1`)
       } catch (e) {
         if (e instanceof ProblemAccessError) throw data('That problem is not shared with you.', { status: 404 })
         throw e
@@ -111,7 +113,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
     <div className="space-y-8">
       <div>
         <p className="text-sm text-muted">
-          <Link to="/bank">Problem bank</Link>
+          <Link to={href('/bank')}>Problem bank</Link>
         </p>
         <div className="mt-1 flex flex-wrap items-start justify-between gap-4">
           <div>
@@ -129,7 +131,9 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
               <p className="mt-1 text-sm text-muted">
                 Copied from{' '}
                 {problem.origin.problemId ? (
-                  <Link to={`/bank/${problem.origin.problemId}`}>{problem.origin.title ?? 'another problem'}</Link>
+                  <Link to={href('/bank/:problemId', { problemId: String(problem.origin.problemId) })}>
+                    {problem.origin.title ?? 'another problem'}
+                  </Link>
                 ) : (
                   (problem.origin.title ?? 'a problem that no longer exists')
                 )}
@@ -145,7 +149,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
           <div className="flex flex-wrap gap-2">
             {problem.canEdit ? (
               <Link
-                to={`/bank/${problem.id}/edit`}
+                to={href('/bank/:problemId/edit', { problemId: String(problem.id) })}
                 className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white no-underline hover:bg-accent-strong hover:no-underline"
               >
                 Edit
@@ -163,7 +167,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
               </Form>
             )}
             <a
-              href={`/bank/export?ids=${problem.id}`}
+              href={`${href('/bank/export')}?ids=${problem.id}`}
               className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline"
             >
               Export
@@ -235,7 +239,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
               ) : null}
               <Form
                 method="post"
-                action={`/bank/${problem.id}?confirm=delete`}
+                action={`${href('/bank/:problemId', { problemId: String(problem.id) })}?confirm=delete`}
                 className="mt-3 flex flex-wrap items-center gap-4"
               >
                 <input type="hidden" name="intent" value="delete" />
@@ -247,7 +251,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
                 >
                   Yes, delete it
                 </button>
-                <Link to={`/bank/${problem.id}`}>Cancel</Link>
+                <Link to={href('/bank/:problemId', { problemId: String(problem.id) })}>Cancel</Link>
               </Form>
             </div>
           ) : null}
@@ -257,7 +261,7 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
       {!isLatest ? (
         <Notice tone="warn">
           You are looking at version {version.number}. The newest is{' '}
-          <Link to={`/bank/${problem.id}`}>version {problem.latest.number}</Link>.
+          <Link to={href('/bank/:problemId', { problemId: String(problem.id) })}>version {problem.latest.number}</Link>.
         </Notice>
       ) : null}
 
@@ -325,8 +329,8 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
                   <Link
                     to={
                       v.number === problem.latest.number
-                        ? `/bank/${problem.id}`
-                        : `/bank/${problem.id}?version=${v.number}`
+                        ? href('/bank/:problemId', { problemId: String(problem.id) })
+                        : `${href('/bank/:problemId', { problemId: String(problem.id) })}?version=${v.number}`
                     }
                   >
                     Version {v.number}

@@ -1,4 +1,4 @@
-import { data } from 'react-router'
+import { data, href } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { ProblemEditor } from '#app/components/problem-editor/index.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
@@ -53,7 +53,8 @@ export default function EditProblemRoute({ loaderData, actionData }: Route.Compo
   return (
     <div>
       <p className="text-sm text-muted">
-        <a href="/bank">Problem bank</a> · <a href={`/bank/${problem.id}`}>{problem.title}</a>
+        <a href={href('/bank')}>Problem bank</a> ·{' '}
+        <a href={href('/bank/:problemId', { problemId: String(problem.id) })}>{problem.title}</a>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Edit problem</h1>
       <p className="mt-2 text-muted">

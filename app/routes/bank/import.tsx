@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
@@ -56,7 +56,7 @@ export async function action({ request }: Route.ActionArgs) {
     const n = result.errors.length
     return fail(`Nothing was imported: ${n} problem${n === 1 ? '' : 's'} to fix in “${file.name}”.`, result.errors)
   }
-  return redirect(`/bank?imported=${result.problemIds.length}`)
+  return redirect(`${href('/bank')}?imported=${result.problemIds.length}`)
 }
 
 export default function ImportRoute({ actionData }: Route.ComponentProps) {
@@ -65,15 +65,15 @@ export default function ImportRoute({ actionData }: Route.ComponentProps) {
   return (
     <div className="max-w-3xl">
       <p className="text-sm text-muted">
-        <Link to="/bank">Problem bank</Link>
+        <Link to={href('/bank')}>Problem bank</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">Import problems</h1>
       <p className="mt-2 text-muted">
         Upload a bank document exported from Cyclewright (a .json file, at most {MAX_IMPORT_MB} MB). Every problem is
         checked first; if any is invalid, nothing is written and each problem is listed here with what to fix. Imported
         problems are private to you until you share them. The file’s layout is described in{' '}
-        <Link to="/help/bank-format">the bank format</Link>; how to write a problem is in{' '}
-        <Link to="/help/authoring">the author guide</Link>.
+        <Link to={href('/help/:page', { page: 'bank-format' })}>the bank format</Link>; how to write a problem is in{' '}
+        <Link to={href('/help/:page', { page: 'authoring' })}>the author guide</Link>.
       </p>
       {actionData?.formError ? (
         <Notice tone="error" className="mt-6">

@@ -1,4 +1,4 @@
-import { data, Form, Link, useNavigation, useSearchParams } from 'react-router'
+import { data, Form, href, Link, useNavigation, useSearchParams } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { DIFFICULTIES, LEVELS } from '#app/domain/authoring/definition.ts'
@@ -101,19 +101,19 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
         </div>
         <div className="flex flex-wrap gap-2">
           <Link
-            to="/bank/new"
+            to={href('/bank/new')}
             className="rounded-md bg-accent px-4 py-2 text-sm font-semibold text-white no-underline hover:bg-accent-strong hover:no-underline"
           >
             New problem
           </Link>
           <Link
-            to="/bank/import"
+            to={href('/bank/import')}
             className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline"
           >
             Import
           </Link>
           <a
-            href="/bank/export"
+            href={href('/bank/export')}
             className="rounded-md border border-line bg-white px-4 py-2 text-sm font-semibold text-ink no-underline hover:bg-paper hover:no-underline"
           >
             Export all of mine
@@ -129,7 +129,7 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
       {query.archived ? (
         <p className="mt-4 text-sm">
           Showing archived problems: they are hidden from the bank list and the assignment picker until restored.{' '}
-          <Link to="/bank">Show the others</Link>
+          <Link to={href('/bank')}>Show the others</Link>
         </p>
       ) : null}
       {imported > 0 ? (
@@ -202,7 +202,7 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
             Search
           </button>
           {filtered ? (
-            <Link to="/bank" className="self-center text-sm">
+            <Link to={href('/bank')} className="self-center text-sm">
               Clear
             </Link>
           ) : null}
@@ -226,13 +226,13 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
               <p className="font-semibold">Your bank is empty.</p>
               <p className="mt-1 text-muted">Write a problem, or import a bank document someone shared with you.</p>
               <p className="mt-4">
-                <Link to="/bank/new">Write your first problem</Link>
+                <Link to={href('/bank/new')}>Write your first problem</Link>
               </p>
             </>
           )}
         </div>
       ) : (
-        <Form method="get" action="/bank/export" reloadDocument>
+        <Form method="get" action={href('/bank/export')} reloadDocument>
           <div className="mt-2 overflow-x-auto rounded-lg border border-line bg-white">
             <table className="w-full text-left text-sm">
               <caption className="sr-only">
@@ -268,7 +268,7 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
                       />
                     </td>
                     <td className="px-3 py-2">
-                      <Link to={`/bank/${r.id}`} className="font-semibold">
+                      <Link to={href('/bank/:problemId', { problemId: String(r.id) })} className="font-semibold">
                         {r.title}
                       </Link>
                       <div className="text-xs text-muted">
@@ -283,7 +283,7 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
                           name="intent"
                           value="restore"
                           formMethod="post"
-                          formAction={`/bank/${r.id}`}
+                          formAction={href('/bank/:problemId', { problemId: String(r.id) })}
                           className="mt-1 text-xs text-accent underline"
                         >
                           restore<span className="sr-only"> “{r.title}”</span>

@@ -1,3 +1,4 @@
+import { href } from 'react-router'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { ProblemEditor } from '#app/components/problem-editor/index.tsx'
 import { emptyEditorState } from '#app/lib/problem-form.ts'
@@ -30,7 +31,7 @@ export default function NewProblemRoute({ loaderData, actionData }: Route.Compon
   return (
     <div>
       <p className="text-sm text-muted">
-        <a href="/bank">Problem bank</a>
+        <a href={href('/bank')}>Problem bank</a>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">New problem</h1>
       <p className="mt-2 max-w-3xl text-muted">

@@ -1,4 +1,4 @@
-import { Form, Link, useNavigation } from 'react-router'
+import { Form, href, Link, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -63,7 +63,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export default function AuditRoute({ loaderData }: Route.ComponentProps) {
   const { course, rows, total, page, pages, kind } = loaderData
   const navigation = useNavigation()
-  const loading = navigation.state === 'loading' && navigation.location?.pathname === `/courses/${course.id}/audit`
+  const loading =
+    navigation.state === 'loading' &&
+    navigation.location?.pathname === href('/courses/:courseId/audit', { courseId: String(course.id) })
   const pageHref = (p: number) => `?${new URLSearchParams({ ...(kind ? { kind } : {}), page: String(p) })}`
   const first = total === 0 ? 0 : (page - 1) * PAGE_SIZE + 1
   const last = Math.min(total, page * PAGE_SIZE)

@@ -33,7 +33,7 @@ export default function CourseGradebookRoute({ loaderData }: Route.ComponentProp
   const { search } = useLocation()
   const { gradebook, refreshError } = useLiveGradebook(
     ['course-gradebook', course.id],
-    `/api/courses/${course.id}/gradebook${search}`,
+    `${href('/api/courses/:courseId/gradebook', { courseId: String(course.id) })}${search}`,
     loaderData.gradebook,
   )
   return (

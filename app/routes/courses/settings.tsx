@@ -50,7 +50,7 @@ export async function action({ request, params }: Route.ActionArgs) {
         { intent: 'copy', fieldErrors: copied.fieldErrors, values: formValues(formData) },
         { status: 400 },
       )
-    return redirect(`/courses/${copied.courseId}/settings?copied=1`)
+    return redirect(`${href('/courses/:courseId/settings', { courseId: String(copied.courseId) })}?copied=1`)
   }
   if (intent !== 'save')
     throw data('This form could not be read. Go back to the page and send it from there.', { status: 400 })
@@ -63,7 +63,7 @@ export async function action({ request, params }: Route.ActionArgs) {
       { intent: 'save', fieldErrors: saved.fieldErrors, values: formValues(formData) },
       { status: 400 },
     )
-  return redirect(`/courses/${courseId}/settings?saved=1`)
+  return redirect(`${href('/courses/:courseId/settings', { courseId: String(courseId) })}?saved=1`)
 }
 
 export default function CourseSettingsRoute({ loaderData, actionData }: Route.ComponentProps) {

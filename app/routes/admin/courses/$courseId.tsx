@@ -78,7 +78,7 @@ export default function AdminCourseRoute({ loaderData, actionData }: Route.Compo
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to="/admin">Department</Link> · {course.termName}
+        <Link to={href('/admin')}>Department</Link> · {course.termName}
       </p>
       <h1 className="mt-1 text-3xl font-semibold">
         {course.code} {course.title}

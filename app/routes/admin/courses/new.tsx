@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { ConventionChoice, TimeZoneField } from '#app/components/course-fields.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -42,7 +42,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (!form.ok) return data({ fieldErrors: form.fieldErrors, values: form.values }, { status: 400 })
   const made = await createCourseFor(db(), { actorId: user.id, departmentId: department.id, input: form.value })
   if (!made.ok) return data({ fieldErrors: made.fieldErrors, values: formValues(formData) }, { status: 400 })
-  return redirect(`/admin/courses/${made.courseId}?created=1`)
+  return redirect(`${href('/admin/courses/:courseId', { courseId: String(made.courseId) })}?created=1`)
 }
 
 export default function NewCourseRoute({ loaderData, actionData }: Route.ComponentProps) {
@@ -53,7 +53,7 @@ export default function NewCourseRoute({ loaderData, actionData }: Route.Compone
   return (
     <div>
       <p className="text-sm text-muted">
-        <Link to="/admin">Department</Link>
+        <Link to={href('/admin')}>Department</Link>
       </p>
       <h1 className="mt-1 text-3xl font-semibold">New course</h1>
       {!department ? (
@@ -63,7 +63,7 @@ export default function NewCourseRoute({ loaderData, actionData }: Route.Compone
         </Notice>
       ) : terms.length === 0 ? (
         <EmptyState className="mt-6">
-          No terms yet — <Link to="/admin/terms">create the first term</Link>, then add its courses.
+          No terms yet — <Link to={href('/admin/terms')}>create the first term</Link>, then add its courses.
         </EmptyState>
       ) : (
         <Form
@@ -108,7 +108,7 @@ export default function NewCourseRoute({ loaderData, actionData }: Route.Compone
             <Button type="submit" disabled={busy}>
               {busy ? 'Creating…' : 'Create course'}
             </Button>
-            <Link to="/admin" className="self-center">
+            <Link to={href('/admin')} className="self-center">
               Cancel
             </Link>
           </div>

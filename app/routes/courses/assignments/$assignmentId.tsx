@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react'
-import { data, Form, Link, redirect, useNavigation } from 'react-router'
+import { data, Form, href, Link, redirect, useNavigation } from 'react-router'
 import { z } from 'zod'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { Button } from '#app/components/ui/button.tsx'
@@ -85,7 +85,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   const intent = IntentSchema.safeParse(form.get('intent'))
   if (!intent.success) throw data('Use one of the buttons on the page.', { status: 400 })
   const confirmed = form.get('confirm') === 'yes'
-  const base = `/courses/${courseId}/assignments/${assignmentId}`
+  const base = href('/courses/:courseId/assignments/:assignmentId', {
+    courseId: String(courseId),
+    assignmentId: String(assignmentId),
+  })
   try {
     if (intent.data === 'release-key') {
       await releaseKey(db(), { courseId, assignmentId, actorId: user.id, confirmed })
@@ -108,7 +111,7 @@ export async function action({ request, params }: Route.ActionArgs) {
         400,
       )
     await deleteAssignment(db(), { courseId, assignmentId, actorId: user.id })
-    return redirect(`/courses/${courseId}?deleted=1`)
+    return redirect(`${href('/courses/:courseId', { courseId: String(courseId) })}?deleted=1`)
   } catch (e) {
     // A refusal (not confirmed, too early, answered) is shown in the confirmation panel.
     if (e instanceof ReleaseRefusedError || e instanceof AssignmentInUseError) {
@@ -146,7 +149,8 @@ function AssignmentPage({
   const { course, detail, instructions, notice, releases, deletion, confirm } = loaderData
   const { assignment: a, timeZone } = detail
   const fmt = (d: Date) => formatInZone(d, timeZone)
-  const base = `/courses/${course.id}/assignments/${a.id}`
+  const ids = { courseId: String(course.id), assignmentId: String(a.id) }
+  const base = href('/courses/:courseId/assignments/:assignmentId', ids)
   return (
     <div>
       <h1 className="mt-1 text-3xl font-semibold">{a.title}</h1>
@@ -167,12 +171,12 @@ function AssignmentPage({
         />
       ) : null}
       {detail.student ? (
-        <StudentView detail={detail} base={base} fmt={fmt} />
+        <StudentView detail={detail} ids={ids} fmt={fmt} />
       ) : (
         <StaffView
           detail={detail}
           base={base}
-          courseId={course.id}
+          ids={ids}
           fmt={fmt}
           mayChange={course.role === 'instructor'}
           controls={
@@ -197,14 +201,14 @@ type Controls = {
 function StaffView({
   detail,
   base,
-  courseId,
+  ids,
   fmt,
   mayChange,
   controls,
 }: {
   detail: Detail
   base: string
-  courseId: number
+  ids: { courseId: string; assignmentId: string }
   fmt: (d: Date) => string
   mayChange: boolean
   controls: Controls | null
@@ -214,12 +218,14 @@ function StaffView({
   return (
     <>
       <nav aria-label="Assignment pages" className="mt-4 flex flex-wrap gap-4">
-        <Link to={`${base}/gradebook`}>Gradebook</Link>
-        <Link to={`${base}/statistics`}>Statistics</Link>
-        <Link to={`${base}/extensions`}>Extensions ({staff?.extensionCount ?? 0})</Link>
-        <Link to={`/courses/${courseId}/disputes?assignment=${a.id}`}>Disputes in the review queue</Link>
-        {mayChange ? <Link to={`${base}/edit`}>Edit</Link> : null}
-        <Link to={`/courses/${courseId}/gradebook`}>Course gradebook</Link>
+        <Link to={href('/courses/:courseId/assignments/:assignmentId/gradebook', ids)}>Gradebook</Link>
+        <Link to={href('/courses/:courseId/assignments/:assignmentId/statistics', ids)}>Statistics</Link>
+        <Link to={href('/courses/:courseId/assignments/:assignmentId/extensions', ids)}>
+          Extensions ({staff?.extensionCount ?? 0})
+        </Link>
+        <Link to={`${href('/courses/:courseId/disputes', ids)}?assignment=${a.id}`}>Disputes in the review queue</Link>
+        {mayChange ? <Link to={href('/courses/:courseId/assignments/:assignmentId/edit', ids)}>Edit</Link> : null}
+        <Link to={href('/courses/:courseId/gradebook', ids)}>Course gradebook</Link>
       </nav>
       <section
         aria-labelledby="settings-title"
@@ -300,14 +306,29 @@ function StaffView({
                     <td className="px-4 py-2">{formatPoints(it.points)}</td>
                     <td className="px-4 py-2">
                       <span className="flex flex-wrap gap-3">
-                        <Link to={`${base}/problems/${it.position}`}>
+                        <Link
+                          to={href('/courses/:courseId/assignments/:assignmentId/problems/:position', {
+                            ...ids,
+                            position: String(it.position),
+                          })}
+                        >
                           Problem page<span className="sr-only"> of problem {it.position}</span>
                         </Link>
-                        <Link to={`${base}/problems/${it.position}/answers`}>
+                        <Link
+                          to={href('/courses/:courseId/assignments/:assignmentId/problems/:position/answers', {
+                            ...ids,
+                            position: String(it.position),
+                          })}
+                        >
                           Answers<span className="sr-only"> to problem {it.position}</span>
                         </Link>
                         {mayChange ? (
-                          <Link to={`${base}/problems/${it.position}/regrade`}>
+                          <Link
+                            to={href('/courses/:courseId/assignments/:assignmentId/problems/:position/regrade', {
+                              ...ids,
+                              position: String(it.position),
+                            })}
+                          >
                             Regrade<span className="sr-only"> problem {it.position}</span>
                           </Link>
                         ) : null}
@@ -434,7 +455,15 @@ function ReleaseControls({
   )
 }
 
-function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt: (d: Date) => string }) {
+function StudentView({
+  detail,
+  ids,
+  fmt,
+}: {
+  detail: Detail
+  ids: { courseId: string; assignmentId: string }
+  fmt: (d: Date) => string
+}) {
   const { assignment: a, items, student } = detail
   if (!student) return null
   const extended = student.extension?.dueAt != null
@@ -498,7 +527,14 @@ function StudentView({ detail, base, fmt }: { detail: Detail; base: string; fmt:
                   <tr key={it.id} className="border-t border-line">
                     <td className="px-4 py-2">{it.position}</td>
                     <th scope="row" className="px-4 py-2 font-normal">
-                      <Link to={`${base}/problems/${it.position}`}>{it.title}</Link>
+                      <Link
+                        to={href('/courses/:courseId/assignments/:assignmentId/problems/:position', {
+                          ...ids,
+                          position: String(it.position),
+                        })}
+                      >
+                        {it.title}
+                      </Link>
                     </th>
                     <td className="px-4 py-2">{formatScore(it.mine?.score ?? 0, it.points)}</td>
                     <td className="px-4 py-2">{statusText(it.mine)}</td>

@@ -48,7 +48,11 @@ async function guard(request: Request, params: Route.LoaderArgs['params']) {
 }
 
 function problemPath(ref: { courseId: number; assignmentId: number; position: number }) {
-  return `/courses/${ref.courseId}/assignments/${ref.assignmentId}/problems/${ref.position}`
+  return href('/courses/:courseId/assignments/:assignmentId/problems/:position', {
+    courseId: String(ref.courseId),
+    assignmentId: String(ref.assignmentId),
+    position: String(ref.position),
+  })
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {

@@ -1,4 +1,4 @@
-import { data, redirect } from 'react-router'
+import { data, href, redirect } from 'react-router'
 import { AssignmentForm } from '#app/components/assignment-form.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
@@ -36,18 +36,25 @@ export async function action({ request, params }: Route.ActionArgs) {
       save: (state) => updateAssignment(db(), { courseId, assignmentId, user, state }),
     }),
   )
-  if (out.status === 'saved') return redirect(`/courses/${courseId}/assignments/${out.assignmentId}`)
+  if (out.status === 'saved')
+    return redirect(
+      href('/courses/:courseId/assignments/:assignmentId', {
+        courseId: String(courseId),
+        assignmentId: String(out.assignmentId),
+      }),
+    )
   return data(out.answer, { status: out.status })
 }
 
 export default function EditAssignmentRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { course, assignment, timeZone, choices, locked, stored } = loaderData
   const shown = actionData ?? { state: loaderData.state, fieldErrors: {}, formError: undefined, nonce: 'initial' }
-  const base = `/courses/${course.id}/assignments/${assignment.id}`
+  const ids = { courseId: String(course.id), assignmentId: String(assignment.id) }
+  const base = href('/courses/:courseId/assignments/:assignmentId', ids)
   return (
     <div>
       <p className="text-sm text-muted">
-        <a href={`/courses/${course.id}`}>
+        <a href={href('/courses/:courseId', ids)}>
           {course.code} {course.title}
         </a>{' '}
         · <a href={base}>{assignment.title}</a>
@@ -63,7 +70,12 @@ export default function EditAssignmentRoute({ loaderData, actionData }: Route.Co
         stored={stored}
         timeZone={timeZone}
         submitLabel="Save changes"
-        regradeBase={`${base}/problems`}
+        regradeTo={(position) =>
+          href('/courses/:courseId/assignments/:assignmentId/problems/:position/regrade', {
+            ...ids,
+            position: String(position),
+          })
+        }
         cancelTo={base}
       />
     </div>

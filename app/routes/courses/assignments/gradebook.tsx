@@ -41,7 +41,7 @@ export default function AssignmentGradebookRoute({ loaderData }: Route.Component
   const id = loaderData.gradebook.assignment.id
   const { gradebook, refreshError } = useLiveGradebook(
     ['assignment-gradebook', id],
-    `/api/assignments/${id}/gradebook${search}`,
+    `${href('/api/assignments/:assignmentId/gradebook', { assignmentId: String(id) })}${search}`,
     loaderData.gradebook,
   )
   const { assignment } = gradebook

@@ -1,4 +1,4 @@
-import { data, redirect } from 'react-router'
+import { data, href, redirect } from 'react-router'
 import { AssignmentForm } from '#app/components/assignment-form.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
@@ -31,7 +31,13 @@ export async function action({ request, params }: Route.ActionArgs) {
       save: (state) => createAssignment(db(), { courseId, user, state }),
     }),
   )
-  if (out.status === 'saved') return redirect(`/courses/${courseId}/assignments/${out.assignmentId}`)
+  if (out.status === 'saved')
+    return redirect(
+      href('/courses/:courseId/assignments/:assignmentId', {
+        courseId: String(courseId),
+        assignmentId: String(out.assignmentId),
+      }),
+    )
   return data(out.answer, { status: out.status })
 }
 
@@ -41,7 +47,7 @@ export default function NewAssignmentRoute({ loaderData, actionData }: Route.Com
   return (
     <div>
       <p className="text-sm text-muted">
-        <a href={`/courses/${course.id}`}>
+        <a href={href('/courses/:courseId', { courseId: String(course.id) })}>
           {course.code} {course.title}
         </a>
       </p>
@@ -55,7 +61,7 @@ export default function NewAssignmentRoute({ loaderData, actionData }: Route.Com
         locked={locked}
         timeZone={timeZone}
         submitLabel="Create assignment"
-        cancelTo={`/courses/${course.id}`}
+        cancelTo={href('/courses/:courseId', { courseId: String(course.id) })}
       />
     </div>
   )

@@ -69,7 +69,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
         notOpen: {
           title: opening.title,
           message: notOpenSentence(opening),
-          back: `/courses/${course.id}/assignments/${ref.assignmentId}`,
+          back: href('/courses/:courseId/assignments/:assignmentId', {
+            courseId: String(course.id),
+            assignmentId: String(ref.assignmentId),
+          }),
         },
       }
     throw data(NOT_FOUND, { status: 404 })

@@ -204,7 +204,10 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                   {v.frozen ? 'frozen' : 'not frozen yet (regrading to it freezes it)'} · saved{' '}
                   {formatInZone(v.createdAt, timeZone)}
                 </span>
-                <Link to={`/bank/${item.problemId}?version=${v.number}`} className="text-sm">
+                <Link
+                  to={`${href('/bank/:problemId', { problemId: String(item.problemId) })}?version=${v.number}`}
+                  className="text-sm"
+                >
                   See version {v.number} in the bank
                 </Link>
               </li>

@@ -136,7 +136,9 @@ export async function action({ request, params }: Route.ActionArgs) {
       { status: 400 },
     )
   }
-  return redirect(`/courses/${courseId}/disputes/${disputeId}?resolved=${result.changed}`)
+  return redirect(
+    `${href('/courses/:courseId/disputes/:disputeId', { courseId: String(courseId), disputeId: String(disputeId) })}?resolved=${result.changed}`,
+  )
 }
 
 export default function DisputeRoute({ loaderData }: Route.ComponentProps) {

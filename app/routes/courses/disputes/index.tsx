@@ -80,7 +80,9 @@ type Data = Route.ComponentProps['loaderData']
 function StaffQueue({ data }: { data: Data }) {
   const { course, query, assignments, rows } = data
   const navigation = useNavigation()
-  const filtering = navigation.state === 'loading' && navigation.location?.pathname === `/courses/${course.id}/disputes`
+  const filtering =
+    navigation.state === 'loading' &&
+    navigation.location?.pathname === href('/courses/:courseId/disputes', { courseId: String(course.id) })
   const filtered = query.assignment !== null || query.age !== null || query.status !== 'open'
   const assignmentTitle = assignments.find((a) => a.id === query.assignment)?.title
   return (

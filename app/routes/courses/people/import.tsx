@@ -112,7 +112,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     updated: String(c.update),
     invited: String(outcome.invited),
   })
-  return redirect(`/courses/${courseId}/people?${search}`)
+  return redirect(`${href('/courses/:courseId/people', { courseId: String(courseId) })}?${search}`)
 }
 
 const statusWords: Record<PlannedRow['status'], string> = {
