@@ -1,7 +1,8 @@
 /**
  * npm run solve -- <spec.json>
  * Reads a template or general-cycle spec (docs/spec-format.md) and prints the full solution
- * as JSON. Errors go to stderr as one clear line, exit code 1, no stack trace.
+ * as JSON. Errors go to stderr as one clear line, exit code 1, no stack trace. Warnings of the
+ * solution (in its "warnings" list) are also printed to stderr, one line each; exit code 0.
  */
 import { readFileSync } from 'node:fs'
 import { basename, isAbsolute } from 'node:path'
@@ -37,3 +38,7 @@ if (!result.ok) {
   die(e.message, e.code || 'invalid-spec')
 }
 process.stdout.write(JSON.stringify(result, null, 2) + '\n')
+// Warnings (never fatal) also go to stderr, one line each, so they are seen above the JSON.
+const warnings = 'warnings' in result && Array.isArray(result.warnings) ? result.warnings : []
+for (const w of warnings as { code: string; message: string }[])
+  process.stderr.write(`solve: warning: ${w.message.replace(/\s+/g, ' ').trim()} [${w.code}]\n`)

@@ -1,11 +1,12 @@
 /**
  * The solution as JSON: every quantity as { value, unit } in SI, the convention stated.
- * Per-unit-amount values always; totals (× amount) when the amount is known.
+ * Per-unit-amount values always; totals (× amount) when the amount is known; rates (× flow
+ * rate: W, W/K) when a flow cycle gives its flow rate; exergies with a dead state; warnings.
  */
 import { P_REF, T_REF } from './constants.ts'
 import { CONVENTIONS, workIn } from './conventions.ts'
 import type { Convention, ConventionStatement } from './conventions.ts'
-import type { CycleSolution, SolveError } from './cycle.ts'
+import type { CycleSolution, SolveError, SolveWarning } from './cycle.ts'
 import type { Quantity } from './units.ts'
 
 const q = (value: number, unit: string): Quantity => ({ value, unit })
@@ -22,6 +23,10 @@ export interface FormattedState {
   readonly U?: Quantity
   readonly H?: Quantity
   readonly S?: Quantity
+  /** specific exergy (closed φ or flow ψ), with a dead state */
+  readonly exergy?: Quantity
+  /** exergy of the whole amount */
+  readonly X?: Quantity
 }
 
 export interface FormattedEnergies {
@@ -32,13 +37,31 @@ export interface FormattedEnergies {
   readonly dS: Quantity
 }
 
-export interface FormattedStep extends FormattedEnergies {
+export interface FormattedSecondLaw {
+  /** s_gen = Δs − q/T_b (a regenerator: the whole exchanger's, on both of its steps) */
+  readonly entropyGenerated: Quantity | null
+  /** T0·s_gen, with a dead state */
+  readonly exergyDestroyed: Quantity | null
+}
+
+export interface FormattedStep extends FormattedEnergies, FormattedSecondLaw {
   readonly from: number
   readonly to: number
   readonly process: string
   readonly label?: string
   readonly internal: boolean
-  readonly total?: FormattedEnergies
+  /** temperature where the step's heat crosses the boundary (its own, or the reservoir's) */
+  readonly boundaryTemperature: Quantity | null
+  /** regenerator steps: the step on the other side of the exchanger */
+  readonly partnerStep?: number
+  readonly total?: FormattedEnergies & FormattedSecondLaw
+  /** with a flow rate: heat and work as powers (W), entropy generated (W/K), exergy destroyed (W) */
+  readonly rate?: {
+    readonly heat: Quantity
+    readonly work: Quantity
+    readonly entropyGenerated: Quantity | null
+    readonly exergyDestroyed: Quantity | null
+  }
 }
 
 export interface FormattedTotals {
@@ -55,12 +78,26 @@ export interface FormattedTotals {
   readonly Tmin: Quantity
   readonly Tmax: Quantity
   readonly entropyGenerated: Quantity | null
+  readonly exergyDestroyed: Quantity | null
+  /** η/η_rev (engines) or COP/COP_rev between the reservoirs */
+  readonly secondLawEfficiency: Quantity | null
+  /** exergy recovered / exergy supplied, with a dead state */
+  readonly exergyEfficiency: Quantity | null
   readonly closure: { readonly dU: Quantity; readonly dS: Quantity }
   readonly total?: {
     readonly heatIn: Quantity
     readonly heatOut: Quantity
     readonly netWork: Quantity
     readonly entropyGenerated: Quantity | null
+    readonly exergyDestroyed: Quantity | null
+  }
+  /** with a flow rate: powers (W) and rates (W/K) */
+  readonly rate?: {
+    readonly heatIn: Quantity
+    readonly heatOut: Quantity
+    readonly netPower: Quantity
+    readonly entropyGenerated: Quantity | null
+    readonly exergyDestroyed: Quantity | null
   }
 }
 
@@ -77,9 +114,15 @@ export interface FormattedSolution {
   }
   readonly reference: string
   readonly amount: Quantity | null
+  /** the dead state of the exergies (T0, p0), or null: no exergy outputs without one */
+  readonly deadState: { readonly T: Quantity; readonly p: Quantity } | null
+  /** flow cycles: mass or molar flow rate, or null */
+  readonly flowRate: Quantity | null
   readonly states: readonly FormattedState[]
   readonly steps: readonly FormattedStep[]
   readonly totals: FormattedTotals
+  /** never fatal: e.g. a step that would generate negative entropy, a regenerator working the wrong way */
+  readonly warnings: readonly SolveWarning[]
   readonly notice: string
 }
 
@@ -101,10 +144,16 @@ export function formatSolution(sol: CycleSolution, convention: Convention): Form
       h: q(s.h, E),
       s: q(s.s, S),
     }
-    return n === null
-      ? base
-      : { ...base, V: q(s.v * n, 'm^3'), U: q(s.u * n, 'J'), H: q(s.h * n, 'J'), S: q(s.s * n, 'J/K') }
+    const withTotals =
+      n === null
+        ? base
+        : { ...base, V: q(s.v * n, 'm^3'), U: q(s.u * n, 'J'), H: q(s.h * n, 'J'), S: q(s.s * n, 'J/K') }
+    return s.exergy === null
+      ? withTotals
+      : { ...withTotals, exergy: q(s.exergy, E), ...(n === null ? {} : { X: q(s.exergy * n, 'J') }) }
   })
+  const f = sol.flowRate
+  const orNull = (x: number | null, scale: number, unit: string) => (x === null ? null : q(x * scale, unit))
   const steps = sol.steps.map((st): FormattedStep => {
     const w = workIn(convention, st.w)
     const base = {
@@ -118,19 +167,37 @@ export function formatSolution(sol: CycleSolution, convention: Convention): Form
       dU: q(st.du, E),
       dH: q(st.dh, E),
       dS: q(st.ds, S),
+      boundaryTemperature: orNull(st.boundaryTemperature, 1, 'K'),
+      entropyGenerated: orNull(st.entropyGenerated, 1, S),
+      exergyDestroyed: orNull(st.exergyDestroyed, 1, E),
+      ...(st.partnerStep === undefined ? {} : { partnerStep: st.partnerStep }),
     }
-    return n === null
-      ? base
-      : {
-          ...base,
-          total: {
-            q: q(st.q * n, 'J'),
-            w: q(w * n, 'J'),
-            dU: q(st.du * n, 'J'),
-            dH: q(st.dh * n, 'J'),
-            dS: q(st.ds * n, 'J/K'),
-          },
-        }
+    return {
+      ...base,
+      ...(n === null
+        ? {}
+        : {
+            total: {
+              q: q(st.q * n, 'J'),
+              w: q(w * n, 'J'),
+              dU: q(st.du * n, 'J'),
+              dH: q(st.dh * n, 'J'),
+              dS: q(st.ds * n, 'J/K'),
+              entropyGenerated: orNull(st.entropyGenerated, n, 'J/K'),
+              exergyDestroyed: orNull(st.exergyDestroyed, n, 'J'),
+            },
+          }),
+      ...(f === null
+        ? {}
+        : {
+            rate: {
+              heat: q(st.q * f, 'W'),
+              work: q(w * f, 'W'),
+              entropyGenerated: orNull(st.entropyGenerated, f, 'W/K'),
+              exergyDestroyed: orNull(st.exergyDestroyed, f, 'W'),
+            },
+          }),
+    }
   })
   const t = sol.totals
   const net = workIn(convention, t.wNet)
@@ -148,6 +215,9 @@ export function formatSolution(sol: CycleSolution, convention: Convention): Form
     Tmin: q(t.Tmin, 'K'),
     Tmax: q(t.Tmax, 'K'),
     entropyGenerated: t.entropyGenerated === null ? null : q(t.entropyGenerated, S),
+    exergyDestroyed: orNull(t.exergyDestroyed, 1, E),
+    secondLawEfficiency: orNull(t.secondLawEfficiency, 1, '1'),
+    exergyEfficiency: orNull(t.exergyEfficiency, 1, '1'),
     closure: { dU: q(t.duCycle, E), dS: q(t.dsCycle, S) },
     ...(n === null
       ? {}
@@ -157,6 +227,18 @@ export function formatSolution(sol: CycleSolution, convention: Convention): Form
             heatOut: q(t.qOut * n, 'J'),
             netWork: q(net * n, 'J'),
             entropyGenerated: t.entropyGenerated === null ? null : q(t.entropyGenerated * n, 'J/K'),
+            exergyDestroyed: orNull(t.exergyDestroyed, n, 'J'),
+          },
+        }),
+    ...(f === null
+      ? {}
+      : {
+          rate: {
+            heatIn: q(t.qIn * f, 'W'),
+            heatOut: q(t.qOut * f, 'W'),
+            netPower: q(net * f, 'W'),
+            entropyGenerated: orNull(t.entropyGenerated, f, 'W/K'),
+            exergyDestroyed: orNull(t.exergyDestroyed, f, 'W'),
           },
         }),
   }
@@ -169,9 +251,12 @@ export function formatSolution(sol: CycleSolution, convention: Convention): Form
       ? `h = 0 and s = 0 at ${T_REF} K and ${P_REF / 1e5} bar; u = h − R·T`
       : `NASA/JANAF convention: h includes the enthalpy of formation at ${T_REF} K, s is the third-law entropy at p° = ${P_REF / 1e5} bar; u = h − R·T`,
     amount: n === null ? null : q(n, per),
+    deadState: sol.deadState === null ? null : { T: q(sol.deadState.T, 'K'), p: q(sol.deadState.p, 'Pa') },
+    flowRate: f === null ? null : q(f, `${per}/s`),
     states,
     steps,
     totals,
+    warnings: sol.warnings,
     notice: TEACHING_NOTICE,
   }
 }
@@ -184,7 +269,7 @@ export interface FormattedError {
 /**
  * Read one number from a formatted solution by a dotted path with 1-based indices:
  * 'totals.netWork', 'totals.efficiency', 'states.3.T', 'steps.2.q', 'steps.2.total.w',
- * 'totals.total.heatIn'. Returns null when the path names nothing numeric.
+ * 'totals.total.heatIn', 'steps.2.entropyGenerated', 'totals.rate.netPower'. Returns null when the path names nothing numeric.
  */
 export function readQuantity(sol: object, path: string): number | null {
   const parts = path.split('.')

@@ -21,11 +21,20 @@ export type {
   StepResult,
   SolveError,
   SolveErrorCode,
+  SolveWarning,
+  SolveWarningCode,
 } from './cycle.ts'
 export { CONVENTIONS, CONVENTION_IDS, workIn, isConvention } from './conventions.ts'
 export type { Convention, ConventionStatement } from './conventions.ts'
 export { formatSolution, readQuantity, TEACHING_NOTICE } from './format.ts'
-export type { FormattedSolution, FormattedState, FormattedStep, FormattedTotals, FormattedEnergies } from './format.ts'
+export type {
+  FormattedSolution,
+  FormattedState,
+  FormattedStep,
+  FormattedTotals,
+  FormattedEnergies,
+  FormattedSecondLaw,
+} from './format.ts'
 export type { Slips } from './slips.ts'
 export { parseCycleSpec, parseGas, applyGasSlips, readValue, specMentions } from './spec.ts'
 export type { SpecError, Parsed } from './spec.ts'

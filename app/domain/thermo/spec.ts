@@ -298,6 +298,18 @@ export function readHeat(
   return { ok: true, value: { heat: b === 'mole' ? r.value.value / M : r.value.value * M } }
 }
 
+/** Flow rate "2.5 kg/s" or "40 mol/s" on the gas's basis (per second). */
+export function readFlowRate(raw: unknown, gas: Gas, where: string, slips: Slips): Parsed<number> {
+  const r = readValue(raw, ['massFlow', 'molarFlow'], where, slips)
+  if (!r.ok) return r
+  const b: Basis = r.value.dimension === 'molarFlow' ? 'mole' : 'mass'
+  if (b === gas.basis) return { ok: true, value: r.value.value }
+  const M = gas.molarMass
+  if (M === undefined)
+    return err('invalid-spec', `${where}: cannot convert ${r.value.text} without a molar mass`, where)
+  return { ok: true, value: b === 'mole' ? r.value.value * M : r.value.value / M }
+}
+
 function readNumber(raw: unknown, where: string): Parsed<number> {
   const r = readValue(raw, ['dimensionless'], where)
   if (!r.ok) return r
@@ -398,7 +410,13 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
         return err('invalid-spec', `${where}.partner must be a step number`, `${where}.partner`)
       out.partner = (s.partner as number) - 1
     }
-    for (const key of ['device', 'path', 'expectHeat', 'label'] as const) if (s[key] !== undefined) out[key] = s[key]
+    for (const key of ['device', 'path', 'expectHeat', 'label', 'side'] as const)
+      if (s[key] !== undefined) out[key] = s[key]
+    if (s.boundaryTemperature !== undefined) {
+      const r = readValue(s.boundaryTemperature, ['temperature'], `${where}.boundaryTemperature`, slips)
+      if (!r.ok) return r
+      out.boundaryTemperature = r.value.value
+    }
     if (s.heat !== undefined) {
       const r = readHeat(s.heat, gas, `${where}.heat`, slips)
       if (!r.ok) return r
@@ -416,8 +434,32 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
       reservoirs[key] = r.value.value
     }
   }
+  let deadState: { T: number; p: number } | undefined
+  if (raw.deadState !== undefined) {
+    const d = raw.deadState
+    if (!isObj(d) || d.T === undefined || d.p === undefined)
+      return err(
+        'invalid-spec',
+        'deadState must be an object { T, p }, e.g. { "T": "298.15 K", "p": "100 kPa" }',
+        'deadState',
+      )
+    const T0 = readValue(d.T, ['temperature'], 'deadState.T', slips)
+    if (!T0.ok) return T0
+    const p0 = readValue(d.p, ['pressure'], 'deadState.p', slips)
+    if (!p0.ok) return p0
+    deadState = { T: T0.value.value, p: p0.value.value }
+  }
+  let flowRate: number | undefined
+  if (raw.flowRate !== undefined) {
+    const r = readFlowRate(raw.flowRate, gas, 'flowRate', slips)
+    if (!r.ok) return r
+    flowRate = r.value
+  }
   const purpose = raw.purpose
   if (purpose !== undefined && purpose !== 'engine' && purpose !== 'refrigerator' && purpose !== 'heat-pump')
     return err('invalid-spec', 'purpose must be engine, refrigerator or heat-pump', 'purpose')
-  return { ok: true, value: { gas, system, amount, states, steps, purpose, reservoirs, labels } }
+  return {
+    ok: true,
+    value: { gas, system, amount, states, steps, purpose, reservoirs, labels, deadState, flowRate },
+  }
 }

@@ -29,6 +29,7 @@ export type Dimension =
   | 'velocity' // m/s
   | 'area' // m²
   | 'massFlow' // kg/s
+  | 'molarFlow' // mol/s
   | 'power' // W
   | 'force' // N
   | 'dimensionless'
@@ -51,6 +52,7 @@ export const SI_UNIT: Record<Dimension, string> = {
   velocity: 'm/s',
   area: 'm^2',
   massFlow: 'kg/s',
+  molarFlow: 'mol/s',
   power: 'W',
   force: 'N',
   dimensionless: '',
@@ -76,6 +78,7 @@ const DIMS: Record<Exclude<Dimension, 'dimensionless'>, readonly number[]> = {
   velocity: [0, 1, -1, 0, 0, 0, 0, 0, 0],
   area: [0, 2, 0, 0, 0, 0, 0, 0, 0],
   massFlow: [1, 0, -1, 0, 0, 0, 0, 0, 0],
+  molarFlow: [0, 0, -1, 0, 0, 0, 1, 0, 0],
   power: [1, 2, -3, 0, 0, 0, 0, 0, 0],
   force: [1, 1, -2, 0, 0, 0, 0, 0, 0],
 }
