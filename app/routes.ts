@@ -50,6 +50,7 @@ export default [
     route('problems/:problemId', 'routes/resources/api-problem.ts'),
     route('preview', 'routes/resources/api-preview.ts'),
     route('sweeps/:sweepId', 'routes/resources/api-sweep.ts'),
+    route('versions/:versionId/check', 'routes/resources/api-version-check.ts'),
     route('assignments/:assignmentId/problems/:position/mine', 'routes/resources/api-my-results.ts'),
     route('assignments/:assignmentId/gradebook', 'routes/resources/api-assignment-gradebook.ts'),
     route('assignments/:assignmentId/statistics', 'routes/resources/api-assignment-statistics.ts'),

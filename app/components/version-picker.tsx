@@ -4,8 +4,13 @@
  * check in words with an icon, and a link to preview it. Works without JavaScript: the list
  * sits in a <details> that is open while nothing is chosen or the row has an error. A
  * version whose check did not pass needs the override checkbox, which names the reason.
+ *
+ * A check still running when the page was served is followed: with JavaScript its result is
+ * polled from GET /api/versions/:versionId/check and announced politely as it changes;
+ * without, the badge says to reload.
  */
-import { Link } from 'react-router'
+import { useQueries } from '@tanstack/react-query'
+import { href, Link } from 'react-router'
 import { formatInZone } from '#app/lib/dates.ts'
 import { cn } from '#app/lib/cn.ts'
 import { checkWords, overrideLabel, type VersionCheck } from '#app/lib/check-words.ts'
@@ -18,6 +23,56 @@ const TONES: Record<VersionCheck['state'], string> = {
   broken: 'border-danger/40 text-danger',
   running: 'border-line text-muted',
   never: 'border-warn/40 text-warn',
+}
+
+const POLL_MS = 2000
+const CHECK_STATES: ReadonlySet<string> = new Set(Object.keys(ICONS))
+
+async function fetchCheck(versionId: number): Promise<VersionCheck> {
+  const res = await fetch(href('/api/versions/:versionId/check', { versionId: String(versionId) }), {
+    headers: { Accept: 'application/json' },
+  })
+  if (!res.ok) throw new Error(`The check's result could not be read (${res.status}).`)
+  const body = (await res.json()) as { check?: { state?: unknown } } | null
+  if (!body?.check || typeof body.check.state !== 'string' || !CHECK_STATES.has(body.check.state))
+    throw new Error('The check came back in a form this page cannot read.')
+  return body.check as VersionCheck
+}
+
+/**
+ * The latest check of each offered version: as served, except that a check running then is
+ * polled until it ends (or its result cannot be read). Pickers of the same form share the polls.
+ */
+function useLiveChecks(choices: readonly BankChoice[]): (version: { id: number; check: VersionCheck }) => VersionCheck {
+  const running = choices.flatMap((c) => c.versions).filter((v) => v.check.state === 'running')
+  const results = useQueries({
+    queries: running.map((v) => ({
+      queryKey: ['version-check', v.id],
+      queryFn: () => fetchCheck(v.id),
+      initialData: v.check,
+      retry: 1,
+      refetchInterval: (q: { state: { status: string; data: VersionCheck | undefined } }) =>
+        q.state.status !== 'error' && q.state.data?.state === 'running' ? POLL_MS : false,
+    })),
+  })
+  const live = new Map(running.map((v, i) => [v.id, results[i]?.data ?? v.check]))
+  return (v) => live.get(v.id) ?? v.check
+}
+
+/**
+ * A version's check; one that was running when the page was served is a polite live region
+ * (its result is announced when it arrives) and, without JavaScript, says to reload.
+ */
+function LiveCheckBadge({ served, check }: { served: VersionCheck; check: VersionCheck }) {
+  if (served.state !== 'running') return <CheckBadge check={check} />
+  return (
+    <span aria-live="polite">
+      <CheckBadge check={check} />
+      <noscript>
+        <span className="ml-1 text-xs text-muted">checking — reload to see the result</span>
+      </noscript>
+    </span>
+  )
 }
 
 export function CheckBadge({ check }: { check: VersionCheck }) {
@@ -59,15 +114,18 @@ export function VersionPicker({
   invalid,
   describedBy,
 }: VersionPickerProps) {
+  const checkOf = useLiveChecks(choices)
   const chosen = choices.flatMap((c) => c.versions.map((v) => ({ c, v }))).find((x) => String(x.v.id) === value)
-  const needsOverride = chosen && chosen.v.check.state !== 'passed' && String(chosen.v.id) !== storedVersionId
+  const chosenCheck = chosen ? checkOf(chosen.v) : undefined
+  const needsOverride = chosen && chosenCheck?.state !== 'passed' && String(chosen.v.id) !== storedVersionId
   return (
     <div className="grid min-w-0 gap-2">
       <details open={!chosen || invalid} className="min-w-0">
         <summary className="cursor-pointer">
           {chosen ? (
             <span>
-              {chosen.c.title}, version {chosen.v.number} <CheckBadge check={chosen.v.check} />{' '}
+              {chosen.c.title}, version {chosen.v.number}{' '}
+              <LiveCheckBadge served={chosen.v.check} check={chosenCheck!} />{' '}
               <span className="text-accent underline">Change</span>
             </span>
           ) : (
@@ -107,11 +165,14 @@ export function VersionPicker({
                         {j === 0 ? ' (newest)' : ''}, saved {formatInZone(ver.savedAt, timeZone, { withZone: false })}{' '}
                         by {ver.author}
                         <span className="block">
-                          <CheckBadge check={ver.check} />
+                          <LiveCheckBadge served={ver.check} check={checkOf(ver)} />
                         </span>
                       </span>
                     </label>
-                    <Link to={`/bank/${c.problemId}?version=${ver.number}`} className="text-sm">
+                    <Link
+                      to={`${href('/bank/:problemId', { problemId: String(c.problemId) })}?version=${ver.number}`}
+                      className="text-sm"
+                    >
                       Preview
                       <span className="sr-only">
                         {' '}
@@ -134,7 +195,7 @@ export function VersionPicker({
             defaultChecked={override === String(chosen.v.id)}
             className="mt-1"
           />
-          <span>{overrideLabel(chosen.v.check)}</span>
+          <span>{overrideLabel(chosenCheck!)}</span>
         </label>
       ) : null}
     </div>

@@ -745,6 +745,10 @@ const EXPECTED: Record<string, Entry> = {
     params: (w) => ({ sweepId: String(w.ids.sweepId) }),
     get: { expect: { ...bankUsersApi, otherInstructor: 404 } },
   },
+  'routes/resources/api-version-check.ts': {
+    params: (w) => ({ versionId: String(w.item.problemVersionId) }),
+    get: { expect: { ...bankUsersApi, otherInstructor: 404 } },
+  },
   // Only ever the caller's own results: a classmate gets theirs, a student of B nothing.
   'routes/resources/api-my-results.ts': {
     params: (w) => ({ ...apiAssignment(w), position: '1' }),
