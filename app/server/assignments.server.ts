@@ -19,7 +19,6 @@ import {
   type SubmissionWindow,
 } from '#app/domain/assignments/policy.ts'
 import { findState, roundScore } from '#app/domain/assignments/scoring.ts'
-import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { canSeeProblem, type CourseRole } from '#app/domain/permissions.ts'
 import { formatInZone, parseLocalDateTime, toLocalDateTimeValue } from '#app/lib/dates.ts'
 import type { FieldErrors } from '#app/lib/form.ts'
@@ -45,6 +44,7 @@ import {
   refusalText,
   type VersionCheck,
 } from './assignment-items.server.ts'
+import { tryReadDefinition } from './definitions.server.ts'
 import { listFindScores } from './grading.server.ts'
 import { bankViewerFor, freezeProblemVersion, type BankViewer } from './problems.server.ts'
 import type { SignedInUser } from './users.server.ts'
@@ -300,7 +300,7 @@ export async function getAssignmentDetail(
       .from(sql`(select 1) as one`)
     return {
       assignment: a,
-      items: itemRows.map((r) => ({ ...toItem(r), answered: r.answered === true, mine: null })),
+      items: itemRows.map((r) => ({ ...toItem(r, versionFacts(r)), answered: r.answered === true, mine: null })),
       maxScore,
       timeZone,
       student: null,
@@ -318,7 +318,8 @@ export async function getAssignmentDetail(
   const finds = await listFindScores(database, { assignmentIds: [a.id], userId: opts.userId })
   const items = itemRows.map((r) => {
     const mineFinds = finds.filter((f) => f.itemId === r.id)
-    const names = ((r.definition as ProblemDefinition).finds ?? []).map((f) => f.name)
+    const facts = versionFacts(r)
+    const names = facts.findNames
     const finished =
       names.length > 0 &&
       names.every((name) => {
@@ -332,7 +333,7 @@ export async function getAssignmentDetail(
         return state === 'correct' || state === 'out-of-attempts'
       })
     return {
-      ...toItem(r),
+      ...toItem(r, facts),
       answered: false,
       mine: {
         score: roundScore(mineFinds.reduce((s, f) => s + f.score, 0)),
@@ -358,7 +359,7 @@ export async function getAssignmentDetail(
   }
 }
 
-function toItem(r: {
+type ItemRowOfVersion = {
   id: number
   position: number
   problemId: number
@@ -366,14 +367,28 @@ function toItem(r: {
   versionNumber: number
   definition: unknown
   points: number
-}) {
+}
+
+/**
+ * The title and find names of the item's version. A version whose stored definition fails the
+ * check still lists (untitled, with no finds), so the assignment page stays usable; the log
+ * names the version (definitions.server.ts).
+ */
+function versionFacts(r: ItemRowOfVersion): { title: string; findNames: string[] } {
+  const read = tryReadDefinition(r.definition, r.problemVersionId)
+  return read.ok
+    ? { title: read.definition.title, findNames: read.definition.finds.map((f) => f.name) }
+    : { title: 'Untitled problem', findNames: [] }
+}
+
+function toItem(r: ItemRowOfVersion, facts: { title: string }) {
   return {
     id: r.id,
     position: r.position,
     problemId: r.problemId,
     problemVersionId: r.problemVersionId,
     versionNumber: r.versionNumber,
-    title: (r.definition as ProblemDefinition).title ?? 'Untitled problem',
+    title: facts.title,
     points: r.points,
   }
 }

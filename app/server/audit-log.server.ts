@@ -21,16 +21,13 @@ import {
   users,
 } from './db/schema.server.ts'
 import { frozenDefinitions } from './grading.server.ts'
+import { isRecord } from './json-values.server.ts'
 
 type Database = Db | Tx
 
 export type AuditLogRow = AuditEntryFacts & { id: number; at: string; actor: string | null }
 
 const REGRADE_NOTE = /^Regrade (\d{1,9})\b/
-
-function isRecord(v: unknown): v is Record<string, unknown> {
-  return typeof v === 'object' && v !== null && !Array.isArray(v)
-}
 
 /** A page of the course's entries, newest first, with everything their wording needs. */
 export async function listAuditLog(

@@ -20,6 +20,7 @@ import {
   terms,
   users,
 } from './db/schema.server.ts'
+import { fieldOf, listField } from './json-values.server.ts'
 import { normaliseEmail } from './users.server.ts'
 
 type Database = Db | Tx
@@ -502,8 +503,8 @@ export async function courseSettingsPage(database: Database, courseId: number) {
     ? {
         code: copied.code,
         termName: copied.termName,
-        offsetDays: Number((copied.after as { offsetDays?: number } | null)?.offsetDays ?? 0),
-        assignments: ((copied.after as { assignments?: unknown[] } | null)?.assignments ?? []).length,
+        offsetDays: Number(fieldOf(copied.after, 'offsetDays') ?? 0),
+        assignments: listField(copied.after, 'assignments')?.length ?? 0,
       }
     : null
   return {

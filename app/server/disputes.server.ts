@@ -60,6 +60,7 @@ import {
 import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
 import { frozenDefinitions, studentVariant } from './grading.server.ts'
+import { isRecord, listField, numberField, stringField } from './json-values.server.ts'
 import { droppedFrom } from './membership-state.server.ts'
 import { withJobTransaction } from './queue.server.ts'
 import { formatPoints, formatPointsWord } from '#app/lib/points.ts'
@@ -844,6 +845,12 @@ export async function getDisputeDetail(
 
 type GradeState = { verdict: string | null; score: number | null }
 
+/** The grade an audit event's before or after records ({ verdict, score }); null when it records none. */
+function gradeState(v: unknown): GradeState | null {
+  if (!isRecord(v)) return null
+  return { verdict: stringField(v, 'verdict') ?? null, score: numberField(v, 'score') ?? null }
+}
+
 function gradeText(g: GradeState | null | undefined): string {
   if (!g) return 'nothing'
   return `${g.verdict ?? 'not graded'}, ${pluralPoints(g.score ?? 0)}`
@@ -887,9 +894,9 @@ async function disputeHistory(
   )
   const raised = own.find((e) => e.kind === 'dispute-raised')
   const resolved = own.find((e) => e.kind === 'dispute-resolved')
-  const changedIds = ((resolved?.after as { partResultIds?: unknown } | null)?.partResultIds ?? []) as number[]
+  const changedIds = listField(resolved?.after, 'partResultIds') ?? []
   const events =
-    resolved && Array.isArray(changedIds) && changedIds.length > 0
+    resolved && changedIds.length > 0
       ? await auditQuery(
           and(
             eq(auditEvents.courseId, row.courseId),
@@ -913,7 +920,7 @@ async function disputeHistory(
       at: e.at.toISOString(),
       who: e.actorName,
       kind: 'score-changed',
-      text: `${whose} answer (attempt ${e.attempt ?? '?'}) changed from ${gradeText(e.before as GradeState)} to ${gradeText(e.after as GradeState)}.`,
+      text: `${whose} answer (attempt ${e.attempt ?? '?'}) changed from ${gradeText(gradeState(e.before))} to ${gradeText(gradeState(e.after))}.`,
     })
   }
   if (row.status !== 'open') {

@@ -26,11 +26,12 @@ import {
   type HistogramBin,
   type WrongAnswerGroup,
 } from '#app/domain/assignments/statistics.ts'
-import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import type { CheckDetail } from '#app/domain/grading/index.ts'
 import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { formatPoints } from '#app/lib/points.ts'
 import type { Db, Tx } from './db/client.server.ts'
+import { readDefinition } from './definitions.server.ts'
 import {
   assignmentItems,
   assignments,
@@ -163,6 +164,7 @@ async function listItems(
       assignmentId: assignmentItems.assignmentId,
       position: assignmentItems.position,
       points: assignmentItems.points,
+      versionId: problemVersions.id,
       definition: problemVersions.definition,
     })
     .from(assignmentItems)
@@ -170,7 +172,7 @@ async function listItems(
     .where(inArray(assignmentItems.assignmentId, assignmentIds))
     .orderBy(asc(assignmentItems.assignmentId), asc(assignmentItems.position))
   return rows.map((r) => {
-    const def = r.definition as ProblemDefinition
+    const def = readDefinition(r.definition, r.versionId)
     const shares = findShares(
       r.points,
       def.finds.map((f) => f.points),
@@ -802,8 +804,8 @@ type NamedGroup = Omit<WrongAnswerGroup, 'pitfall'> & {
 }
 
 /** The student's key in the find's unit, from the checker's detail (answer − key). */
-function expectedOf(value: number | null, detail: unknown): number | null {
-  const difference = (detail as { difference?: unknown } | null)?.difference
+function expectedOf(value: number | null, detail: CheckDetail | null): number | null {
+  const difference = detail?.difference
   return value !== null && typeof difference === 'number' && Number.isFinite(difference) ? value - difference : null
 }
 

@@ -10,12 +10,13 @@ import { createHash } from 'node:crypto'
 import { and, eq, inArray, isNull, sql } from 'drizzle-orm'
 import { gradeAnswer } from '#app/domain/assignments/grade-answer.ts'
 import { findShares } from '#app/domain/assignments/scoring.ts'
-import { upgradeDefinition, type DrawResult, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import type { DrawResult, ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { seedFrom } from '#app/domain/authoring/seed.ts'
 import { drawVariant, resolveConvention } from '#app/domain/authoring/variant.ts'
-import type { Tolerance } from '#app/domain/grading/index.ts'
+import type { CheckDetail } from '#app/domain/grading/index.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
 import type { Db, Tx } from './db/client.server.ts'
+import { tryReadDefinition } from './definitions.server.ts'
 import { assignmentItems, assignments, courses, partResults, problemVersions, submissions } from './db/schema.server.ts'
 
 type Database = Db | Tx
@@ -97,7 +98,11 @@ export type GradeOutcome = 'graded' | 'already-graded' | 'busy' | 'missing' | 'f
 const DEFINITION_CACHE_LIMIT = 500
 const definitionCache = new Map<number, ProblemDefinition>()
 
-/** The definitions of these versions in one query; frozen ones come from (and go to) the per-process cache. */
+/**
+ * The definitions of these versions in one query; frozen ones come from (and go to) the
+ * per-process cache. A version whose stored definition fails the check is left out (and
+ * logged): callers treat it as a version that cannot be drawn.
+ */
 export async function frozenDefinitions(
   database: Database,
   versionIds: readonly number[],
@@ -115,7 +120,9 @@ export async function frozenDefinitions(
       .from(problemVersions)
       .where(inArray(problemVersions.id, missing))
     for (const r of rows) {
-      const def = upgradeDefinition(r.definition) as ProblemDefinition
+      const read = tryReadDefinition(r.definition, r.id)
+      if (!read.ok) continue
+      const def = read.definition
       out.set(r.id, def)
       if (r.frozenAt === null) continue
       definitionCache.set(r.id, def)
@@ -224,7 +231,7 @@ export async function gradeSubmissions(
       message: string
       pitfallId: string | null
       pitfallFeedback: string | null
-      detail: unknown
+      detail: CheckDetail | null
       versionId: number
     }
     const graded: Graded[] = []
@@ -252,7 +259,7 @@ export async function gradeSubmissions(
         row.itemPoints,
         definition.finds.map((f) => f.points),
       )
-      const overrides = row.toleranceOverrides as Record<string, Tolerance>
+      const overrides = row.toleranceOverrides
       for (const p of partsOf.get(row.id) ?? []) {
         const index = definition.finds.findIndex((f) => f.name === p.findName)
         const find = definition.finds[index]

@@ -10,13 +10,7 @@
 import { and, asc, desc, eq, ilike, inArray, isNotNull, isNull, ne, or, sql, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/pg-core'
 import { z } from 'zod'
-import {
-  cycleOf,
-  DIFFICULTIES,
-  LEVELS,
-  type ProblemDefinition,
-  upgradeDefinition,
-} from '#app/domain/authoring/definition.ts'
+import { cycleOf, DIFFICULTIES, LEVELS, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { canEditProblem, canSeeProblem } from '#app/domain/permissions.ts'
 import {
   BANK_FORMAT_ID,
@@ -29,6 +23,7 @@ import {
 } from '#app/lib/problem-schema.ts'
 import { readPageParam, readTextParam, type ParamProblem } from '#app/lib/query-params.ts'
 import type { Db, Tx } from './db/client.server.ts'
+import { readDefinition, tryReadDefinition } from './definitions.server.ts'
 import { problems, problemVersions, users, type ProblemVisibility } from './db/schema.server.ts'
 import type { SignedInUser } from './users.server.ts'
 
@@ -310,8 +305,7 @@ function toVersionInfo(r: VersionRow): VersionInfo {
     createdAt: r.createdAt.toISOString(),
     frozenAt: r.frozenAt ? r.frozenAt.toISOString() : null,
     createdByName: r.createdByName,
-    // Written only after parseDefinition, so the stored document has this shape.
-    definition: upgradeDefinition(r.definition) as ProblemDefinition,
+    definition: readDefinition(r.definition, r.id),
   }
 }
 
@@ -545,7 +539,7 @@ export async function copyProblem(
   return database.transaction(async (tx) => {
     const latest = await latestVersionOf(tx, problemId)
     if (!latest) throw new ProblemAccessError()
-    const definition = upgradeDefinition(latest.definition) as ProblemDefinition
+    const definition = readDefinition(latest.definition, latest.id)
     const made = await insertProblem(tx, viewer, definition, {
       visibility: 'private',
       originProblemId: problemId,
@@ -614,7 +608,12 @@ export async function exportBank(
     version: BANK_FORMAT_VERSION,
     exportedAt: new Date().toISOString(),
     problems: rows.map((r) => {
-      const definition = upgradeDefinition(r.definition) as ProblemDefinition
+      const read = tryReadDefinition(r.definition)
+      if (!read.ok)
+        throw new BankExportError(
+          `“${r.title}” cannot be exported: its stored definition does not pass the problem check. Leave it out, or ask your administrator.`,
+        )
+      const definition = read.definition
       // The author a reader should credit: the problem this one was copied from when the
       // exporter may still see it, else the credit an import carried, else the problem itself
       // and its owner.

@@ -15,9 +15,10 @@ import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, ne, or, sql } from 
 import { gradeAnswer } from '#app/domain/assignments/grade-answer.ts'
 import { findShares, roundScore } from '#app/domain/assignments/scoring.ts'
 import { checkRuleOf, type Find, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
-import { validateCheckRule, type Tolerance, type Verdict } from '#app/domain/grading/index.ts'
+import { validateCheckRule, type CheckDetail, type Tolerance, type Verdict } from '#app/domain/grading/index.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
 import type { Db, Tx } from './db/client.server.ts'
+import { tryReadDefinition } from './definitions.server.ts'
 import {
   assignmentItems,
   assignments,
@@ -120,7 +121,7 @@ export async function getRegradeItem(
     .orderBy(asc(problemVersions.number))
   return {
     ...row,
-    toleranceOverrides: (row.toleranceOverrides ?? {}) as Record<string, Tolerance>,
+    toleranceOverrides: row.toleranceOverrides ?? {},
     versions: versions.map((v) => ({
       id: v.id,
       number: v.number,
@@ -137,7 +138,9 @@ async function versionDefinition(database: Database, versionId: number): Promise
     .from(problemVersions)
     .where(eq(problemVersions.id, versionId))
   if (!row) throw new RegradeError('That version no longer exists.', { version: 'That version no longer exists.' })
-  return row.definition as ProblemDefinition
+  const read = tryReadDefinition(row.definition, versionId)
+  if (!read.ok) throw new RegradeError(read.error.message, { version: read.error.message })
+  return read.definition
 }
 
 export async function listVersionFinds(database: Database, versionId: number): Promise<RegradeFind[]> {
@@ -268,7 +271,7 @@ export type NewGrade = {
   message: string
   pitfallId: string | null
   pitfallFeedback: string | null
-  detail: unknown
+  detail: CheckDetail | null
   /** the find is not part of the target version */
   removed: boolean
 }
@@ -674,7 +677,7 @@ export async function runRegrade(
     .where(eq(assignmentItems.id, regrade.itemId))
   if (!context) return 'missing'
   const definition = await versionDefinition(database, regrade.toVersionId)
-  const overrides = (regrade.toleranceOverrides ?? {}) as Record<string, Tolerance>
+  const overrides = regrade.toleranceOverrides ?? {}
   const target: Target = {
     assignmentId: regrade.assignmentId,
     problemId: context.problemId,
@@ -876,11 +879,20 @@ const progressColumns = {
   finishedAt: regrades.finishedAt,
 }
 
-async function toProgress(
-  database: Database,
-  rows: { [K in keyof typeof progressColumns]: unknown }[],
-): Promise<RegradeProgress[]> {
-  const ids = [...new Set(rows.flatMap((r) => [r.fromVersionId as number, r.toVersionId as number]))]
+/** The regrades with the people and places their progress names; narrowed by the caller's where. */
+function progressQuery(database: Database) {
+  return database
+    .select(progressColumns)
+    .from(regrades)
+    .innerJoin(assignments, eq(assignments.id, regrades.assignmentId))
+    .innerJoin(assignmentItems, eq(assignmentItems.id, regrades.itemId))
+    .innerJoin(users, eq(users.id, regrades.requestedBy))
+}
+
+type ProgressRow = Awaited<ReturnType<typeof progressQuery>>[number]
+
+async function toProgress(database: Database, rows: ProgressRow[]): Promise<RegradeProgress[]> {
+  const ids = [...new Set(rows.flatMap((r) => [r.fromVersionId, r.toVersionId]))]
   const numbers = ids.length
     ? new Map(
         (
@@ -892,45 +904,34 @@ async function toProgress(
       )
     : new Map<number, number>()
   return rows.map((r) => ({
-    id: r.id as number,
-    courseId: r.courseId as number,
-    assignmentId: r.assignmentId as number,
-    itemId: r.itemId as number,
-    position: r.position as number,
-    status: r.status as Regrade['status'],
-    total: r.total as number,
-    done: r.done as number,
-    changed: r.changed as number,
-    error: r.error as string | null,
-    fromVersionNumber: numbers.get(r.fromVersionId as number) ?? null,
-    toVersionNumber: numbers.get(r.toVersionId as number) ?? null,
-    toleranceOverrides: (r.toleranceOverrides ?? {}) as Record<string, Tolerance>,
-    requestedByName: r.requestedByName as string,
-    createdAt: (r.createdAt as Date).toISOString(),
-    finishedAt: r.finishedAt ? (r.finishedAt as Date).toISOString() : null,
+    id: r.id,
+    courseId: r.courseId,
+    assignmentId: r.assignmentId,
+    itemId: r.itemId,
+    position: r.position,
+    status: r.status,
+    total: r.total,
+    done: r.done,
+    changed: r.changed,
+    error: r.error,
+    fromVersionNumber: numbers.get(r.fromVersionId) ?? null,
+    toVersionNumber: numbers.get(r.toVersionId) ?? null,
+    toleranceOverrides: r.toleranceOverrides ?? {},
+    requestedByName: r.requestedByName,
+    createdAt: r.createdAt.toISOString(),
+    finishedAt: r.finishedAt ? r.finishedAt.toISOString() : null,
   }))
 }
 
 /** A regrade's progress (the course it belongs to included, for the caller's permission check); null when there is none. */
 export async function getRegradeProgress(database: Database, regradeId: number): Promise<RegradeProgress | null> {
-  const rows = await database
-    .select(progressColumns)
-    .from(regrades)
-    .innerJoin(assignments, eq(assignments.id, regrades.assignmentId))
-    .innerJoin(assignmentItems, eq(assignmentItems.id, regrades.itemId))
-    .innerJoin(users, eq(users.id, regrades.requestedBy))
-    .where(eq(regrades.id, regradeId))
+  const rows = await progressQuery(database).where(eq(regrades.id, regradeId))
   return (await toProgress(database, rows))[0] ?? null
 }
 
 /** The latest regrades of an item, newest first. */
 export async function listItemRegrades(database: Database, itemId: number, limit = 10): Promise<RegradeProgress[]> {
-  const rows = await database
-    .select(progressColumns)
-    .from(regrades)
-    .innerJoin(assignments, eq(assignments.id, regrades.assignmentId))
-    .innerJoin(assignmentItems, eq(assignmentItems.id, regrades.itemId))
-    .innerJoin(users, eq(users.id, regrades.requestedBy))
+  const rows = await progressQuery(database)
     .where(eq(regrades.itemId, itemId))
     .orderBy(desc(regrades.createdAt), desc(regrades.id))
     .limit(limit)

@@ -123,7 +123,7 @@ export function toSweepView(row: ProblemSweep): SweepView {
     total: row.total,
     checked: row.checked,
     failed: row.failed,
-    failures: Array.isArray(row.failures) ? (row.failures as SweepFailure[]) : [],
+    failures: Array.isArray(row.failures) ? row.failures : [],
     error: row.error,
     createdAt: row.createdAt.toISOString(),
     startedAt: row.startedAt?.toISOString() ?? null,

@@ -5,6 +5,7 @@
 import { eq } from 'drizzle-orm'
 import type { Db } from '#app/server/db/client.server.ts'
 import { cycleOf, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import type { Tolerance } from '#app/domain/grading/index.ts'
 import {
   assignmentItems,
   assignments,
@@ -224,7 +225,7 @@ export async function createAssignment(
     problemId: number
     versionId: number
     points?: number
-    toleranceOverrides?: Record<string, unknown>
+    toleranceOverrides?: Record<string, Tolerance>
   }[],
   overrides: AssignmentOverrides = {},
 ) {

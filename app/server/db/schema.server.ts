@@ -20,6 +20,14 @@ import {
   timestamp,
   uniqueIndex,
 } from 'drizzle-orm/pg-core'
+import type { ProblemDefinition, SweepFailure } from '#app/domain/authoring/definition.ts'
+import type { CheckDetail, Tolerance } from '#app/domain/grading/index.ts'
+
+/**
+ * What an audit event's before and after hold: the fields that changed (an object), or the
+ * lines of a message (a list). Each kind of event writes its own fields; readers check them.
+ */
+export type AuditValue = Readonly<Record<string, unknown>> | readonly unknown[]
 
 export const courseRole = pgEnum('course_role', ['instructor', 'ta', 'student'])
 export const signConvention = pgEnum('sign_convention', ['chemistry', 'engineering'])
@@ -265,8 +273,12 @@ export const problemVersions = pgTable(
       .references(() => problems.id, { onDelete: 'cascade' }),
     /** 1, 2, 3, … per problem */
     number: integer().notNull(),
-    /** ProblemDefinition (app/domain/authoring/definition.ts) */
-    definition: jsonb().notNull(),
+    /**
+     * ProblemDefinition (app/domain/authoring/definition.ts), written only after the shape
+     * check. Read through readDefinition (app/server/definitions.server.ts), which checks it
+     * again and upgrades an older format.
+     */
+    definition: jsonb().$type<ProblemDefinition>().notNull(),
     createdBy: integer()
       .notNull()
       .references(() => users.id),
@@ -294,6 +306,7 @@ export const problemSweeps = pgTable(
     failed: integer().notNull().default(0),
     /** SweepFailure[] (the first few hundred) */
     failures: jsonb()
+      .$type<SweepFailure[]>()
       .notNull()
       .default(sql`'[]'::jsonb`),
     /** why the sweep itself could not run (not a variant's failure) */
@@ -375,7 +388,7 @@ export const assignmentItems = pgTable(
     points: doublePrecision().notNull(),
     /** findName → Tolerance replacing the version's tolerance for this assignment (a regrade may set it). */
     toleranceOverrides: jsonb()
-      .$type<Record<string, unknown>>()
+      .$type<Record<string, Tolerance>>()
       .notNull()
       .default(sql`'{}'::jsonb`),
   },
@@ -475,7 +488,7 @@ export const partResults = pgTable(
     pitfallId: text(),
     pitfallFeedback: text(),
     /** checkAnswer's detail (difference, allowed difference, how the answer was read) */
-    detail: jsonb(),
+    detail: jsonb().$type<CheckDetail>(),
     /** the problem version and tolerance the grade was computed against */
     gradedVersionId: integer(),
     graderVersion: text(),
@@ -504,7 +517,7 @@ export const regrades = pgTable(
     fromVersionId: integer().notNull(),
     toVersionId: integer().notNull(),
     toleranceOverrides: jsonb()
-      .$type<Record<string, unknown>>()
+      .$type<Record<string, Tolerance>>()
       .notNull()
       .default(sql`'{}'::jsonb`),
     status: jobStatus().notNull().default('queued'),
@@ -635,8 +648,8 @@ export const auditEvents = pgTable(
     partResultId: integer(),
     /** 'regrade', 'extension', 'key-released', 'grades-released', … */
     kind: text().notNull(),
-    before: jsonb(),
-    after: jsonb(),
+    before: jsonb().$type<AuditValue>(),
+    after: jsonb().$type<AuditValue>(),
     note: text().notNull().default(''),
   },
   (t) => [index('audit_events_course_idx').on(t.courseId, t.at), index('audit_events_user_idx').on(t.userId, t.at)],
