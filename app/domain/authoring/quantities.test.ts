@@ -72,3 +72,22 @@ test('splitIdentifiers typesets T_H in a label and leaves words alone', () => {
   ])
   expect(splitIdentifiers('compression ratio V1/V2')).toEqual([{ text: 'compression ratio V1/V2' }])
 })
+
+test('second-law paths read as symbols and names (entropy generated, exergy destroyed, η_II, rates)', () => {
+  const ctx = { convention: 'engineering' as const, stateNames: ['1', '2', '3', '4'] }
+  expect(quantityAtPath('steps.2.entropyGenerated', ctx)).toEqual({
+    tex: '{S_{\\text{gen}}}_{23}',
+    name: 'entropy generated of step 2 → 3, per unit amount',
+  })
+  expect(quantityAtPath('steps.4.total.exergyDestroyed', ctx)?.tex).toBe('{X_{\\text{dest}}}_{41}')
+  expect(quantityAtPath('totals.exergyDestroyed', ctx)?.name).toBe('exergy destroyed per cycle, per unit amount')
+  expect(quantityAtPath('totals.total.exergyDestroyed', ctx)?.name).toBe(
+    'exergy destroyed per cycle, for the whole amount',
+  )
+  expect(quantityAtPath('totals.secondLawEfficiency', ctx)).toEqual({
+    tex: '\\eta_{\\text{II}}',
+    name: 'second-law efficiency',
+  })
+  expect(quantityAtPath('totals.rate.netPower', ctx)?.name).toBe('net power')
+  expect(quantityAtPath('totals.rate.nothing', ctx)).toBeNull()
+})

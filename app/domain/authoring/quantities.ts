@@ -120,6 +120,13 @@ function totalsQuantity(field: string, convention: Convention): Quantity | null 
       return { tex: '\\mathrm{bwr}', name: 'back work ratio' }
     case 'entropyGenerated':
       return { tex: sub('s', txt('gen')), name: 'entropy generated per cycle' }
+    // Second law with a dead state (thermo/cycle/second-law.ts).
+    case 'exergyDestroyed':
+      return { tex: sub('x', txt('dest')), name: 'exergy destroyed per cycle, per unit amount' }
+    case 'secondLawEfficiency':
+      return { tex: sub('\\eta', txt('II')), name: 'second-law efficiency' }
+    case 'exergyEfficiency':
+      return { tex: sub('\\eta', txt('ex')), name: 'exergy efficiency' }
     case 'carnotBound':
       return { tex: sub('\\eta', txt('Carnot')), name: 'Carnot bound' }
     case 'Tmax':
@@ -175,6 +182,18 @@ const STEP_PROPERTY: Readonly<Record<string, (c: Convention) => { tex: string; n
   dU: () => ({ tex: '\\Delta U', name: 'change of internal energy' }),
   dH: () => ({ tex: '\\Delta H', name: 'change of enthalpy' }),
   dS: () => ({ tex: '\\Delta S', name: 'change of entropy' }),
+  entropyGenerated: () => ({ tex: '{S_{\\text{gen}}}', name: 'entropy generated' }),
+  exergyDestroyed: () => ({ tex: '{X_{\\text{dest}}}', name: 'exergy destroyed' }),
+  boundaryTemperature: () => ({ tex: '{T_{\\text{b}}}', name: 'boundary temperature' }),
+}
+
+/** Flow cycles with a flow rate: totals.rate.<field>, as rates. */
+const RATE_QUANTITY: Readonly<Record<string, Quantity>> = {
+  heatIn: { tex: '\\dot Q_{\\text{in}}', name: 'rate of heat added' },
+  heatOut: { tex: '\\dot Q_{\\text{out}}', name: 'rate of heat rejected' },
+  netPower: { tex: '\\dot W_{\\text{net}}', name: 'net power' },
+  entropyGenerated: { tex: '\\dot S_{\\text{gen}}', name: 'rate of entropy generation' },
+  exergyDestroyed: { tex: '\\dot X_{\\text{dest}}', name: 'rate of exergy destruction' },
 }
 
 export interface PathContext {
@@ -198,6 +217,7 @@ function stateSub(names: readonly string[] | undefined, index: number): string {
  */
 export function quantityAtPath(path: string, ctx: PathContext): Quantity | null {
   const parts = path.split('.')
+  if (parts[0] === 'totals' && parts[1] === 'rate') return (parts.length === 3 && RATE_QUANTITY[parts[2]!]) || null
   if (parts[0] === 'totals') {
     const whole = parts[1] === 'total'
     const field = whole ? (parts[2] ?? '') : (parts[1] ?? '')
