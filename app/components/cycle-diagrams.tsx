@@ -54,14 +54,14 @@ function tickText(x: number, decimals: number): string {
   return String(Number(x.toFixed(Math.min(decimals, 10))))
 }
 
-/** Round-number ticks: 1, 2, 2.5 or 5 × 10^k on linear axes; decades (and 2, 5) on log axes. */
+/** Round-number ticks: 1, 2, 2.5 or 5 × 10^k on linear axes; decades (and 2, 5 over three decades or fewer) on log axes. */
 export function axisTicks(axis: Axis): { value: number; text: string }[] {
   const { min, max } = axis
   if (!(Number.isFinite(min) && Number.isFinite(max) && max > min)) return []
   if (axis.scale === 'log' && min > 0) {
     const k0 = Math.floor(Math.log10(min))
     const k1 = Math.ceil(Math.log10(max))
-    const mult = k1 - k0 <= 2 ? [1, 2, 5] : [1]
+    const mult = k1 - k0 <= 3 ? [1, 2, 5] : [1]
     const out: { value: number; text: string }[] = []
     for (let k = k0; k <= k1; k++) {
       for (const m of mult) {

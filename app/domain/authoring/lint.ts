@@ -242,6 +242,15 @@ function laterNameMessage(
   return `uses ${later.map((n) => `"${n}"`).join(', ')} before ${later.length === 1 ? 'it is' : 'they are'} defined: expressions may use only what is listed above them`
 }
 
+/** Output paths to suggest when a find names none the solution has, by the problem's cycle. */
+function pathExamples(def: ProblemDefinition): string {
+  const id = def.physics.kind === 'template' ? def.physics.template : ''
+  if (id === 'vapour-compression')
+    return 'e.g. totals.copRefrigerator, totals.refrigerationEffect, totals.compressorWork, states.4.x, devices.1.w'
+  if (id.startsWith('rankine')) return 'e.g. totals.netWork, totals.efficiency, totals.turbineExitQuality, states.2.h'
+  return 'e.g. totals.netWork, states.2.T, steps.1.q'
+}
+
 function trial(def: ProblemDefinition, add: (path: string, message: string) => void): void {
   const seed = previewSeeds(1)[0]!
   const convention = resolveConvention(def, 'engineering')
@@ -270,10 +279,7 @@ function trial(def: ProblemDefinition, add: (path: string, message: string) => v
     const siUnit = unitAtPath(solved, f.source.path)
     if (raw === null || siUnit === null) {
       outputsOk = false
-      add(
-        `finds.${i}.source.path`,
-        `the solution has no number at "${f.source.path}" (e.g. totals.netWork, states.2.T, steps.1.q)`,
-      )
+      add(`finds.${i}.source.path`, `the solution has no number at "${f.source.path}" (${pathExamples(def)})`)
       return
     }
     const v = convertFromSI(Number.isFinite(raw) ? raw : 0, siUnit, f.unit, f.isDifference === true)
