@@ -1,4 +1,5 @@
 import { useQuery } from '@tanstack/react-query'
+import { href } from 'react-router'
 import { REGRADE_STATUS_LABELS, type RegradeStatus } from '#app/lib/labels.ts'
 
 /** A regrade as the page and GET /api/regrades/:id show it (app/server/regrades.server.ts RegradeProgress). */
@@ -20,7 +21,9 @@ export function isRegradeActive(status: RegradeSnapshot['status']): boolean {
 }
 
 async function fetchRegrade(id: number): Promise<RegradeSnapshot> {
-  const res = await fetch(`/api/regrades/${id}`, { headers: { Accept: 'application/json' } })
+  const res = await fetch(href('/api/regrades/:regradeId', { regradeId: String(id) }), {
+    headers: { Accept: 'application/json' },
+  })
   if (!res.ok) throw new Error(`The regrade’s progress could not be read (${res.status}).`)
   return (await res.json()) as RegradeSnapshot
 }

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query'
-import { Form, useNavigation } from 'react-router'
+import { Form, href, useNavigation } from 'react-router'
 import type { SweepFailure } from '#app/domain/authoring/definition.ts'
 import { SWEEP_STATUS_LABELS, type SweepStatus } from '#app/lib/labels.ts'
 
@@ -36,7 +36,9 @@ function stoppedText(error: string | null): string {
 }
 
 async function fetchSweep(id: number): Promise<SweepSnapshot> {
-  const res = await fetch(`/api/sweeps/${id}`, { headers: { Accept: 'application/json' } })
+  const res = await fetch(href('/api/sweeps/:sweepId', { sweepId: String(id) }), {
+    headers: { Accept: 'application/json' },
+  })
   if (!res.ok) throw new Error(`The check's progress could not be read (${res.status}).`)
   return (await res.json()) as SweepSnapshot
 }

@@ -1,4 +1,5 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query'
+import { href } from 'react-router'
 import type { PreviewResult } from '#app/lib/preview.ts'
 import type { EditorDraft } from './use-draft.ts'
 
@@ -16,7 +17,7 @@ async function fetchPreview(
   convention: string | undefined,
   signal: AbortSignal,
 ): Promise<PreviewResult> {
-  const response = await fetch('/api/preview', {
+  const response = await fetch(href('/api/preview'), {
     method: 'POST',
     headers: { 'Content-Type': 'application/json', Accept: 'application/json' },
     body: JSON.stringify({ definition: JSON.parse(definitionJson) as unknown, ...(convention ? { convention } : {}) }),

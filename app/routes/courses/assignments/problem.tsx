@@ -18,7 +18,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { disputeOffers, listMyDisputes } from '#app/server/disputes.server.ts'
 import { DROPPED_SUBMIT_MESSAGE } from '#app/lib/dropped.ts'
 import { droppedFrom } from '#app/server/membership-state.server.ts'
-import { notOpenSentence, notYetOpen } from '#app/server/assignments.server.ts'
+import { notOpenSentence, notYetOpen } from '#app/server/assignment-access.server.ts'
 import {
   FORM_TOKEN_PATTERN,
   getStudentProblem,
@@ -169,9 +169,15 @@ function useHydrated() {
 }
 
 async function fetchMyResults(assignmentId: number, position: number): Promise<MyResults> {
-  const res = await fetch(`/api/assignments/${assignmentId}/problems/${position}/mine`, {
-    headers: { Accept: 'application/json' },
-  })
+  const res = await fetch(
+    href('/api/assignments/:assignmentId/problems/:position/mine', {
+      assignmentId: String(assignmentId),
+      position: String(position),
+    }),
+    {
+      headers: { Accept: 'application/json' },
+    },
+  )
   if (!res.ok) throw new Error(`Your results could not be read just now (${res.status}).`)
   return (await res.json()) as MyResults
 }
