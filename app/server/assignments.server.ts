@@ -2,14 +2,17 @@
  * Assignments as instructors set them and students see them: listing per course, one
  * assignment's detail, creating and editing (dates read in the course's time zone, problems
  * from the instructor's bank pinned to a version, which is frozen in the same transaction),
- * per-student extensions, and deleting an assignment nobody has answered. Releasing the key and
- * the grades live in releases.server.ts.
+ * and deleting an assignment nobody has answered. Releasing the key and the grades live in
+ * releases.server.ts.
+ *
+ * Beside it: assignment-access.server.ts (finding an assignment, who may change it, the
+ * errors the pages answer with), assignment-form.server.ts (the form's fields and one
+ * submission of it), assignment-extensions.server.ts (per-student extensions) and
+ * error-page.server.ts (orErrorPage). Their names stay importable from here.
  *
  * Every change of dates or extensions writes an audit_events row.
  */
 import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm'
-import { data } from 'react-router'
-import { z } from 'zod'
 import {
   attemptsAllowed,
   rulesOf,
@@ -20,14 +23,35 @@ import {
 } from '#app/domain/assignments/policy.ts'
 import { findState, roundScore } from '#app/domain/assignments/scoring.ts'
 import { canSeeProblem, type CourseRole } from '#app/domain/permissions.ts'
-import { formatInZone, parseLocalDateTime, toLocalDateTimeValue } from '#app/lib/dates.ts'
+import { formatInZone, parseLocalDateTime } from '#app/lib/dates.ts'
 import type { FieldErrors } from '#app/lib/form.ts'
+import {
+  AssignmentInUseError,
+  AssignmentNotFoundError,
+  AssignmentNotOpenError,
+  courseZone,
+  findAssignment,
+  requireInstructor,
+} from './assignment-access.server.ts'
+import {
+  AssignmentSettingsSchema,
+  DEFAULT_DISPUTE_DAYS,
+  formOfAssignment,
+  MAX_ITEMS,
+  newAssignmentForm,
+  Num,
+  SUMMARY,
+  type AssignmentFormState,
+  type BankChoice,
+  type LockedItem,
+  type SaveResult,
+} from './assignment-form.server.ts'
+import { checkWords, latestChecks, needsOverride, NEVER_CHECKED, refusalText } from './assignment-items.server.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import {
   assignmentItems,
   assignments,
   auditEvents,
-  courses,
   extensions,
   memberships,
   problems,
@@ -36,104 +60,52 @@ import {
   users,
   type Assignment,
 } from './db/schema.server.ts'
-import {
-  checkWords,
-  latestChecks,
-  needsOverride,
-  NEVER_CHECKED,
-  refusalText,
-  type VersionCheck,
-} from './assignment-items.server.ts'
 import { tryReadDefinition } from './definitions.server.ts'
 import { listFindScores } from './grading.server.ts'
 import { bankViewerFor, freezeProblemVersion, type BankViewer } from './problems.server.ts'
 import type { SignedInUser } from './users.server.ts'
 
+// Moved to the modules beside this one; still importable from here.
+export {
+  AssignmentInUseError,
+  AssignmentNotFoundError,
+  AssignmentNotOpenError,
+  AssignmentPermissionError,
+  courseZone,
+  findAssignment,
+  notOpenSentence,
+  notYetOpen,
+  requireInstructor,
+  type NotOpenInfo,
+} from './assignment-access.server.ts'
+export {
+  assignmentFormFromData,
+  AssignmentSettingsSchema,
+  changeRows,
+  DEFAULT_DISPUTE_DAYS,
+  MAX_DISPUTE_DAYS,
+  MAX_ITEMS,
+  newAssignmentForm,
+  runAssignmentFormAction,
+  type AssignmentFormAnswer,
+  type AssignmentFormState,
+  type BankChoice,
+  type ItemRow,
+  type LockedItem,
+  type SaveResult,
+} from './assignment-form.server.ts'
+export {
+  ExtensionFormSchema,
+  listExtensions,
+  removeExtension,
+  setExtension,
+  type ExtensionForm,
+  type ExtensionResult,
+  type ExtensionRow,
+} from './assignment-extensions.server.ts'
+export { orErrorPage } from './error-page.server.ts'
+
 type Database = Db | Tx
-
-// ---- Errors -------------------------------------------------------------------------------
-
-/** The assignment does not exist in this course, or (for a student) has not opened yet. */
-export class AssignmentNotFoundError extends Error {
-  readonly status = 404
-  constructor(message = 'There is no such assignment in this course.') {
-    super(message)
-    this.name = 'AssignmentNotFoundError'
-  }
-}
-
-/** A student asked for an assignment that has not opened yet: the message says when it opens. */
-export class AssignmentNotOpenError extends AssignmentNotFoundError {
-  constructor(readonly opening: NotOpenInfo) {
-    super(notOpenSentence(opening))
-    this.name = 'AssignmentNotOpenError'
-  }
-}
-
-export type NotOpenInfo = { title: string; opensAt: Date; timeZone: string }
-
-export function notOpenSentence(o: NotOpenInfo): string {
-  return `“${o.title}” opens ${formatInZone(o.opensAt, o.timeZone)}. Its problems appear here then.`
-}
-
-/** The assignment's title and opening when it exists in the course and has not opened yet; null otherwise. */
-export async function notYetOpen(
-  database: Database,
-  opts: { courseId: number; assignmentId: number; now?: Date },
-): Promise<NotOpenInfo | null> {
-  if (!Number.isInteger(opts.assignmentId) || opts.assignmentId <= 0) return null
-  const [row] = await database
-    .select({ title: assignments.title, opensAt: assignments.opensAt, timeZone: courses.timeZone })
-    .from(assignments)
-    .innerJoin(courses, eq(courses.id, assignments.courseId))
-    .where(and(eq(assignments.id, opts.assignmentId), eq(assignments.courseId, opts.courseId)))
-    .limit(1)
-  if (!row || row.opensAt.getTime() <= (opts.now ?? new Date()).getTime()) return null
-  return row
-}
-
-/** The person may not do this to the assignment (only instructors change assignments). */
-export class AssignmentPermissionError extends Error {
-  readonly status = 403
-  constructor(message = 'Only the course’s instructors can change its assignments.') {
-    super(message)
-    this.name = 'AssignmentPermissionError'
-  }
-}
-
-async function roleInCourse(database: Database, userId: number, courseId: number): Promise<CourseRole | null> {
-  const [row] = await database
-    .select({ role: memberships.role })
-    .from(memberships)
-    .where(and(eq(memberships.userId, userId), eq(memberships.courseId, courseId)))
-    .limit(1)
-  return row?.role ?? null
-}
-
-export async function requireInstructor(database: Database, userId: number, courseId: number) {
-  if ((await roleInCourse(database, userId, courseId)) !== 'instructor') throw new AssignmentPermissionError()
-}
-
-export async function courseZone(database: Database, courseId: number) {
-  const [row] = await database
-    .select({ timeZone: courses.timeZone, code: courses.code, title: courses.title })
-    .from(courses)
-    .where(eq(courses.id, courseId))
-    .limit(1)
-  if (!row) throw new AssignmentNotFoundError('There is no such course.')
-  return row
-}
-
-export async function findAssignment(database: Database, courseId: number, assignmentId: number): Promise<Assignment> {
-  if (!Number.isInteger(assignmentId) || assignmentId <= 0) throw new AssignmentNotFoundError()
-  const [row] = await database
-    .select()
-    .from(assignments)
-    .where(and(eq(assignments.id, assignmentId), eq(assignments.courseId, courseId)))
-    .limit(1)
-  if (!row) throw new AssignmentNotFoundError()
-  return row
-}
 
 export { keyReleaseText, latePolicyText } from '#app/lib/assignment-text.ts'
 
@@ -393,155 +365,7 @@ function toItem(r: ItemRowOfVersion, facts: { title: string }) {
   }
 }
 
-// ---- The form -----------------------------------------------------------------------------
-
-/** One row of the problems table as typed: the chosen version, the points, and the item it edits. */
-export type ItemRow = {
-  itemId: string
-  versionId: string
-  points: string
-  /** the id of the version the instructor assigns although its check failed, could not run, is running or never ran; an override of another version counts for nothing */
-  override?: string
-}
-
-/** What the assignment form shows: every field as text, so that nothing typed is lost on an error. */
-export type AssignmentFormState = {
-  values: {
-    title: string
-    instructions: string
-    opensAt: string
-    dueAt: string
-    attemptsPerFind: string
-    latePolicy: string
-    latePenaltyPercentPerDay: string
-    lateDaysAllowed: string
-    keyRelease: string
-    /** days after the grades' release during which students may dispute; blank or missing: 7 for a new assignment, unchanged on edit */
-    disputeDays: string
-  }
-  items: ItemRow[]
-}
-
-/** A bank problem the instructor may choose, with its versions (newest first). */
-export type BankChoice = {
-  problemId: number
-  title: string
-  versions: { id: number; number: number; savedAt: Date; author: string; check: VersionCheck }[]
-}
-
-/** An item students have answered: only a regrade changes its version or points. */
-export type LockedItem = { itemId: number; position: number; title: string; versionNumber: number; points: number }
-
-const ITEM_KEY = /^items\.(\d{1,3})\.(itemId|versionId|points|override)$/
-export const MAX_ITEMS = 50
-
-function text(form: FormData, name: string): string {
-  const v = form.get(name)
-  return typeof v === 'string' ? v : ''
-}
-
-/** The form's fields as typed (rows in the order of their index). */
-export function assignmentFormFromData(form: FormData): AssignmentFormState {
-  const rows = new Map<number, ItemRow>()
-  for (const [key, value] of form.entries()) {
-    const m = ITEM_KEY.exec(key)
-    if (!m || typeof value !== 'string') continue
-    const i = Number(m[1])
-    const row = rows.get(i) ?? { itemId: '', versionId: '', points: '' }
-    row[m[2] as keyof ItemRow] = value
-    rows.set(i, row)
-  }
-  return {
-    values: {
-      title: text(form, 'title'),
-      instructions: text(form, 'instructions'),
-      opensAt: text(form, 'opensAt'),
-      dueAt: text(form, 'dueAt'),
-      attemptsPerFind: text(form, 'attemptsPerFind'),
-      latePolicy: text(form, 'latePolicy'),
-      latePenaltyPercentPerDay: text(form, 'latePenaltyPercentPerDay'),
-      lateDaysAllowed: text(form, 'lateDaysAllowed'),
-      keyRelease: text(form, 'keyRelease'),
-      disputeDays: text(form, 'disputeDays'),
-    },
-    items: [...rows.entries()].sort((x, y) => x[0] - y[0]).map(([, r]) => r),
-  }
-}
-
-/** A new assignment's starting values: opens at the next full hour, due a week later at 23:59, in the course's zone. */
-export function newAssignmentForm(timeZone: string, now = new Date()): AssignmentFormState {
-  const nextHour = new Date(Math.ceil(now.getTime() / 3_600_000) * 3_600_000)
-  const opens = toLocalDateTimeValue(nextHour, timeZone)
-  const due = toLocalDateTimeValue(new Date(nextHour.getTime() + 7 * 86_400_000), timeZone).slice(0, 10) + 'T23:59'
-  return {
-    values: {
-      title: '',
-      instructions: '',
-      opensAt: opens,
-      dueAt: due,
-      attemptsPerFind: '3',
-      latePolicy: 'closed',
-      latePenaltyPercentPerDay: '10',
-      lateDaysAllowed: '3',
-      keyRelease: 'after-due',
-      disputeDays: String(DEFAULT_DISPUTE_DAYS),
-    },
-    items: [{ itemId: '', versionId: '', points: '10' }],
-  }
-}
-
-function formOfAssignment(
-  a: Assignment,
-  items: { id: number; problemVersionId: number; points: number }[],
-  timeZone: string,
-): AssignmentFormState {
-  return {
-    values: {
-      title: a.title,
-      instructions: a.instructions,
-      opensAt: toLocalDateTimeValue(a.opensAt, timeZone),
-      dueAt: toLocalDateTimeValue(a.dueAt, timeZone),
-      attemptsPerFind: String(a.attemptsPerFind),
-      latePolicy: a.latePolicy,
-      latePenaltyPercentPerDay: String(a.latePenaltyPercentPerDay),
-      lateDaysAllowed: String(a.lateDaysAllowed),
-      keyRelease: a.keyRelease,
-      disputeDays: String(a.disputeDays),
-    },
-    items: items.map((i) => ({
-      itemId: String(i.id),
-      versionId: String(i.problemVersionId),
-      points: String(i.points),
-    })),
-  }
-}
-
-/** Adds an empty row, or removes row `index` (an answered item stays: it is refused with a message). */
-export function changeRows(
-  state: AssignmentFormState,
-  change: { add: true } | { remove: number },
-  locked: readonly LockedItem[] = [],
-): { state: AssignmentFormState; fieldErrors: FieldErrors } {
-  if ('add' in change) {
-    if (state.items.length >= MAX_ITEMS)
-      return { state, fieldErrors: { items: `An assignment holds at most ${MAX_ITEMS} problems.` } }
-    return {
-      state: { ...state, items: [...state.items, { itemId: '', versionId: '', points: '10' }] },
-      fieldErrors: {},
-    }
-  }
-  const row = state.items[change.remove]
-  if (!row) return { state, fieldErrors: {} }
-  if (locked.some((l) => String(l.itemId) === row.itemId)) {
-    return {
-      state,
-      fieldErrors: {
-        [`items.${change.remove}.versionId`]: 'Students have answered this problem, so it stays in the assignment.',
-      },
-    }
-  }
-  return { state: { ...state, items: state.items.filter((_, i) => i !== change.remove) }, fieldErrors: {} }
-}
+// ---- The form: the bank, checking and saving ---------------------------------------------
 
 /** Every problem the viewer can see in the bank and not archived, with its versions, plus any version already on the assignment. */
 export async function listBankChoices(
@@ -603,65 +427,6 @@ export async function listBankChoices(
   return [...byProblem.values()]
 }
 
-/** Days after the grades' release during which students may dispute a verdict (issue #7). */
-export const DEFAULT_DISPUTE_DAYS = 7
-export const MAX_DISPUTE_DAYS = 60
-
-const LocalDateTime = z.string().trim().min(1, 'Enter a date and time.')
-const Int = (label: string, min: number, max: number) =>
-  z
-    .string()
-    .trim()
-    .min(1, `Enter ${label}.`)
-    .regex(/^\d+$/, `Enter ${label} as a whole number.`)
-    .transform(Number)
-    .pipe(
-      z
-        .number()
-        .min(min, `${label[0]!.toUpperCase()}${label.slice(1)} must be at least ${min}.`)
-        .max(max, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most ${max}.`),
-    )
-const Num = (label: string, min: number, max: number) =>
-  z
-    .string()
-    .trim()
-    .min(1, `Enter ${label}.`)
-    .regex(/^\d+(\.\d+)?$/, `Enter ${label} as a number such as 10 or 2.5.`)
-    .transform(Number)
-    .pipe(
-      z
-        .number()
-        .min(min, `${label[0]!.toUpperCase()}${label.slice(1)} must be at least ${min}.`)
-        .max(max, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most ${max}.`),
-    )
-
-export const AssignmentSettingsSchema = z
-  .object({
-    title: z.string().trim().min(1, 'Give the assignment a title.').max(200, 'Keep the title under 200 characters.'),
-    instructions: z.string().max(20_000, 'Keep the instructions under 20,000 characters.'),
-    opensAt: LocalDateTime,
-    dueAt: LocalDateTime,
-    attemptsPerFind: Int('the attempts per find', 1, 100),
-    latePolicy: z.enum(['closed', 'penalty'], { message: 'Choose what happens after the due date.' }),
-    latePenaltyPercentPerDay: z.string(),
-    lateDaysAllowed: z.string(),
-    keyRelease: z.enum(['after-due', 'manual'], { message: 'Choose when the key is released.' }),
-    disputeDays: z.string().optional(),
-  })
-  .superRefine((v, ctx) => {
-    if (v.disputeDays !== undefined && v.disputeDays.trim() !== '') {
-      const d = Int('the days for disputes', 0, MAX_DISPUTE_DAYS).safeParse(v.disputeDays)
-      if (!d.success) ctx.addIssue({ code: 'custom', path: ['disputeDays'], message: d.error.issues[0]!.message })
-    }
-    if (v.latePolicy !== 'penalty') return
-    const pct = Num('the penalty per day', 0, 100).safeParse(v.latePenaltyPercentPerDay)
-    if (!pct.success)
-      ctx.addIssue({ code: 'custom', path: ['latePenaltyPercentPerDay'], message: pct.error.issues[0]!.message })
-    const days = Int('the days late accepted', 0, 60).safeParse(v.lateDaysAllowed)
-    if (!days.success)
-      ctx.addIssue({ code: 'custom', path: ['lateDaysAllowed'], message: days.error.issues[0]!.message })
-  })
-
 type CheckedItem = { itemId: number | null; problemId: number; versionId: number; points: number }
 /** A version put on the assignment by the instructor's override of its check (for the audit log). */
 type CheckOverride = { position: number; versionId: number; check: string }
@@ -680,10 +445,6 @@ type CheckedAssignment = {
   items: CheckedItem[]
   overrides: CheckOverride[]
 }
-
-export type SaveResult = { ok: true; assignmentId: number } | { ok: false; fieldErrors: FieldErrors; formError: string }
-
-const SUMMARY = 'The assignment was not saved. Correct the fields marked below.'
 
 /**
  * Checks the whole form: settings, dates in the course's zone, and each problem row against
@@ -1065,168 +826,7 @@ export async function updateAssignment(
   })
 }
 
-// ---- Extensions ---------------------------------------------------------------------------
-
-export type ExtensionRow = {
-  userId: number
-  name: string
-  email: string
-  section: string | null
-  dueAt: Date | null
-  extraAttempts: number
-  reason: string
-}
-
-/** The course's students, each with their extension on this assignment if any. */
-export async function listExtensions(database: Database, opts: { courseId: number; assignmentId: number }) {
-  const a = await findAssignment(database, opts.courseId, opts.assignmentId)
-  const { timeZone } = await courseZone(database, opts.courseId)
-  const rows = await database
-    .select({
-      userId: users.id,
-      name: users.name,
-      email: users.email,
-      section: memberships.section,
-      dueAt: extensions.dueAt,
-      extraAttempts: extensions.extraAttempts,
-      reason: extensions.reason,
-      hasExtension: sql<boolean>`${extensions.id} is not null`,
-    })
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
-    .leftJoin(extensions, and(eq(extensions.userId, users.id), eq(extensions.assignmentId, a.id)))
-    .where(and(eq(memberships.courseId, opts.courseId), eq(memberships.role, 'student')))
-    .orderBy(asc(users.name), asc(users.id))
-  const students = rows.map((r) => ({ userId: r.userId, name: r.name, email: r.email, section: r.section }))
-  const granted: ExtensionRow[] = rows
-    .filter((r) => r.hasExtension)
-    .map((r) => ({
-      userId: r.userId,
-      name: r.name,
-      email: r.email,
-      section: r.section,
-      dueAt: r.dueAt,
-      extraAttempts: r.extraAttempts ?? 0,
-      reason: r.reason ?? '',
-    }))
-  return { assignment: a, timeZone, students, extensions: granted }
-}
-
-export const ExtensionFormSchema = z.object({
-  userId: z
-    .string()
-    .regex(/^\d{1,9}$/, 'Choose a student.')
-    .transform(Number),
-  dueAt: z.string().trim(),
-  extraAttempts: z
-    .string()
-    .trim()
-    .transform((s) => (s === '' ? '0' : s))
-    .pipe(
-      z
-        .string()
-        .regex(/^\d{1,3}$/, 'Enter extra attempts as a whole number from 0 to 100.')
-        .transform(Number),
-    )
-    .pipe(z.number().max(100, 'At most 100 extra attempts.')),
-  reason: z.string().trim().max(500, 'Keep the reason under 500 characters.'),
-})
-export type ExtensionForm = z.infer<typeof ExtensionFormSchema>
-
-export type ExtensionResult = { ok: true } | { ok: false; fieldErrors: FieldErrors }
-
-/**
- * Gives a student a later due date and/or extra attempts (replacing any extension they had),
- * with an 'extension' audit row. The due date is read in the course's zone.
- */
-export async function setExtension(
-  database: Db,
-  opts: { courseId: number; assignmentId: number; actorId: number; input: ExtensionForm },
-): Promise<ExtensionResult> {
-  await requireInstructor(database, opts.actorId, opts.courseId)
-  const a = await findAssignment(database, opts.courseId, opts.assignmentId)
-  const { timeZone } = await courseZone(database, opts.courseId)
-  const fieldErrors: FieldErrors = {}
-  if ((await roleInCourse(database, opts.input.userId, opts.courseId)) !== 'student')
-    fieldErrors.userId = 'Choose a student of this course.'
-  let dueAt: Date | null = null
-  if (opts.input.dueAt !== '') {
-    dueAt = parseLocalDateTime(opts.input.dueAt, timeZone)
-    if (!dueAt) fieldErrors.dueAt = `Enter a date and time that exists in ${timeZone}.`
-    else if (dueAt.getTime() <= a.dueAt.getTime())
-      fieldErrors.dueAt = `An extension’s due date must be after the assignment’s (${formatInZone(a.dueAt, timeZone)}).`
-  }
-  if (dueAt === null && !fieldErrors.dueAt && opts.input.extraAttempts === 0)
-    fieldErrors.dueAt = 'Give a later due date, extra attempts, or both.'
-  if (Object.keys(fieldErrors).length) return { ok: false, fieldErrors }
-  await database.transaction(async (tx) => {
-    const [prev] = await tx
-      .select({ dueAt: extensions.dueAt, extraAttempts: extensions.extraAttempts, reason: extensions.reason })
-      .from(extensions)
-      .where(and(eq(extensions.assignmentId, a.id), eq(extensions.userId, opts.input.userId)))
-      .for('update')
-    const values = { dueAt, extraAttempts: opts.input.extraAttempts, reason: opts.input.reason }
-    await tx
-      .insert(extensions)
-      .values({ assignmentId: a.id, userId: opts.input.userId, createdBy: opts.actorId, ...values })
-      .onConflictDoUpdate({
-        target: [extensions.assignmentId, extensions.userId],
-        set: { ...values, updatedAt: new Date() },
-      })
-    await tx.insert(auditEvents).values({
-      actorId: opts.actorId,
-      courseId: opts.courseId,
-      assignmentId: a.id,
-      userId: opts.input.userId,
-      kind: 'extension',
-      before: prev
-        ? { dueAt: prev.dueAt?.toISOString() ?? null, extraAttempts: prev.extraAttempts, reason: prev.reason }
-        : null,
-      after: { dueAt: dueAt?.toISOString() ?? null, extraAttempts: values.extraAttempts, reason: values.reason },
-      note: opts.input.reason,
-    })
-  })
-  return { ok: true }
-}
-
-/** Takes a student's extension away (an 'extension' audit row with after null). False when they had none. */
-export async function removeExtension(
-  database: Db,
-  opts: { courseId: number; assignmentId: number; actorId: number; userId: number },
-): Promise<boolean> {
-  await requireInstructor(database, opts.actorId, opts.courseId)
-  const a = await findAssignment(database, opts.courseId, opts.assignmentId)
-  return database.transaction(async (tx) => {
-    const [gone] = await tx
-      .delete(extensions)
-      .where(and(eq(extensions.assignmentId, a.id), eq(extensions.userId, opts.userId)))
-      .returning({ dueAt: extensions.dueAt, extraAttempts: extensions.extraAttempts, reason: extensions.reason })
-    if (!gone) return false
-    await tx.insert(auditEvents).values({
-      actorId: opts.actorId,
-      courseId: opts.courseId,
-      assignmentId: a.id,
-      userId: opts.userId,
-      kind: 'extension',
-      before: { dueAt: gone.dueAt?.toISOString() ?? null, extraAttempts: gone.extraAttempts, reason: gone.reason },
-      after: null,
-    })
-    return true
-  })
-}
-
 // ---- Deleting -----------------------------------------------------------------------------
-
-/** The assignment cannot be deleted: somebody has answered it. */
-export class AssignmentInUseError extends Error {
-  constructor(
-    message: string,
-    readonly status: 400 | 409 = 409,
-  ) {
-    super(message)
-    this.name = 'AssignmentInUseError'
-  }
-}
 
 /** What deleting the assignment would remove, for the confirmation; `answered` when it cannot be deleted. */
 export async function deletionSummary(database: Database, opts: { courseId: number; assignmentId: number }) {
@@ -1290,65 +890,4 @@ export async function deleteAssignment(
 /** A student's due date in words, with the zone, for screens and mails. */
 export function dueText(dueAt: Date, timeZone: string): string {
   return formatInZone(dueAt, timeZone)
-}
-
-// ---- The form's action (new and edit pages) ------------------------------------------------
-
-export type AssignmentFormAnswer = {
-  state: AssignmentFormState
-  fieldErrors: FieldErrors
-  formError?: string
-  nonce: string
-}
-
-const IntentSchema = z.union([z.literal('save'), z.literal('add-item'), z.string().regex(/^remove-item:\d{1,3}$/)])
-
-function formAnswer(
-  state: AssignmentFormState,
-  fieldErrors: FieldErrors = {},
-  formError?: string,
-): AssignmentFormAnswer {
-  // A fresh nonce remounts the form, so refilled values replace what the browser kept.
-  return { state, fieldErrors, ...(formError ? { formError } : {}), nonce: crypto.randomUUID() }
-}
-
-/**
- * One submission of the assignment form: adding or removing a row answers with the form as
- * typed; saving calls `save` and answers with the id, or with the errors (status 400).
- * Permission errors from `save` propagate (the route turns them into 403/404 pages).
- */
-export async function runAssignmentFormAction(
-  form: FormData,
-  opts: { locked: readonly LockedItem[]; save: (state: AssignmentFormState) => Promise<SaveResult> },
-): Promise<{ status: 200 | 400; answer: AssignmentFormAnswer } | { status: 'saved'; assignmentId: number }> {
-  const state = assignmentFormFromData(form)
-  const intent = IntentSchema.safeParse(form.get('intent'))
-  if (!intent.success)
-    return { status: 400, answer: formAnswer(state, { title: 'Use one of the buttons of the form.' }, SUMMARY) }
-  if (intent.data === 'add-item') {
-    const changed = changeRows(state, { add: true }, opts.locked)
-    return { status: 200, answer: formAnswer(changed.state, changed.fieldErrors) }
-  }
-  if (intent.data.startsWith('remove-item:')) {
-    const changed = changeRows(state, { remove: Number(intent.data.slice('remove-item:'.length)) }, opts.locked)
-    return { status: 200, answer: formAnswer(changed.state, changed.fieldErrors) }
-  }
-  const result = await opts.save(state)
-  if (result.ok) return { status: 'saved', assignmentId: result.assignmentId }
-  return { status: 400, answer: formAnswer(state, result.fieldErrors, result.formError) }
-}
-
-/** Awaits `work`, turning this module's typed errors into the error page (403/404); anything else is rethrown. */
-export async function orErrorPage<T>(work: Promise<T>): Promise<T> {
-  try {
-    return await work
-  } catch (e) {
-    if (
-      e instanceof AssignmentNotFoundError ||
-      e instanceof AssignmentPermissionError ||
-      e instanceof AssignmentInUseError
-    )
-      throw data(e.message, { status: e.status })
-    throw e
-  }
 }

@@ -7,32 +7,25 @@
  * in the transaction that records it, so it is sent once. Each release writes an audit row.
  */
 import { and, eq, inArray, isNull } from 'drizzle-orm'
-import { data } from 'react-router'
 import { rulesOf } from '#app/domain/assignments/policy.ts'
 import { releaseChecks, studentsWord, type ReleaseChecks } from '#app/domain/assignments/releases.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { formatScore } from '#app/lib/points.ts'
-import {
-  AssignmentNotFoundError,
-  AssignmentPermissionError,
-  courseZone,
-  findAssignment,
-  requireInstructor,
-} from './assignments.server.ts'
+import { AssignmentPermissionError, courseZone, findAssignment, requireInstructor } from './assignment-access.server.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import { assignments, auditEvents, extensions, memberships, users, type Assignment } from './db/schema.server.ts'
 import { linkMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
+import { orErrorPage, PageError } from './error-page.server.ts'
 import { listAssignmentTotals } from './grading.server.ts'
 import { enqueue, withJobTransaction } from './queue.server.ts'
 
 type Database = Db | Tx
 
 /** A release the rules do not allow now, or one not confirmed: a 400 with the reason. */
-export class ReleaseRefusedError extends Error {
-  readonly status = 400
+export class ReleaseRefusedError extends PageError {
   constructor(message: string) {
-    super(message)
+    super(message, 400)
     this.name = 'ReleaseRefusedError'
   }
 }
@@ -216,16 +209,4 @@ export async function releaseGrades(
 }
 
 /** Awaits `work`, turning a refused release (400) and the assignment module's errors (403/404) into the error page. */
-export async function orReleaseErrorPage<T>(work: Promise<T>): Promise<T> {
-  try {
-    return await work
-  } catch (e) {
-    if (
-      e instanceof ReleaseRefusedError ||
-      e instanceof AssignmentNotFoundError ||
-      e instanceof AssignmentPermissionError
-    )
-      throw data(e.message, { status: e.status })
-    throw e
-  }
-}
+export const orReleaseErrorPage = orErrorPage

@@ -17,14 +17,9 @@ import {
   keyReleaseSentence,
   studentsWord,
 } from '#app/domain/assignments/releases.ts'
-import {
-  AssignmentInUseError,
-  AssignmentNotOpenError,
-  deleteAssignment,
-  deletionSummary,
-  getAssignmentDetail,
-  orErrorPage,
-} from '#app/server/assignments.server.ts'
+import { AssignmentInUseError, AssignmentNotOpenError } from '#app/server/assignment-access.server.ts'
+import { deleteAssignment, deletionSummary, getAssignmentDetail } from '#app/server/assignments.server.ts'
+import { orErrorPage } from '#app/server/error-page.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { appUrl } from '#app/server/env.server.ts'

@@ -2,13 +2,9 @@ import { data, href, redirect } from 'react-router'
 import { AssignmentForm } from '#app/components/assignment-form.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { requireIdParam } from '#app/lib/params.ts'
-import {
-  getEditAssignmentForm,
-  listLockedItems,
-  orErrorPage,
-  runAssignmentFormAction,
-  updateAssignment,
-} from '#app/server/assignments.server.ts'
+import { runAssignmentFormAction } from '#app/server/assignment-form.server.ts'
+import { getEditAssignmentForm, listLockedItems, updateAssignment } from '#app/server/assignments.server.ts'
+import { orErrorPage } from '#app/server/error-page.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/edit'

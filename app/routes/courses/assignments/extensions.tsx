@@ -10,10 +10,10 @@ import { echoValues, textField } from '#app/lib/text-field.ts'
 import {
   ExtensionFormSchema,
   listExtensions,
-  orErrorPage,
   removeExtension,
   setExtension,
-} from '#app/server/assignments.server.ts'
+} from '#app/server/assignment-extensions.server.ts'
+import { orErrorPage } from '#app/server/error-page.server.ts'
 import { requireCourseRole } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import type { Route } from './+types/extensions'
