@@ -316,7 +316,7 @@ describe('spec files: dead state, boundary temperatures, flow rate', () => {
       { process: 'isentropic', pressureRatio: 8 },
       { process: 'isobaric', boundaryTemperature: '1500 K' },
       { process: 'isentropic' },
-      { process: 'isobaric', boundaryTemperature: '27 °C' },
+      { process: 'isobaric', boundaryTemperature: '25 °C' },
     ],
   }
   test('powers are the closed-form specific values times the flow rate (W), exergy destroyed in W', () => {
@@ -329,11 +329,30 @@ describe('spec files: dead state, boundary temperatures, flow rate', () => {
     const qout = 1005 * (1300 / x - 300)
     expect(readQuantity(r, 'totals.rate.netPower')).toBeCloseTo(2 * (qin - qout), 3)
     expect(readQuantity(r, 'steps.2.rate.heat')).toBeCloseTo(2 * qin, 3)
-    const sgen = qout / 300.15 - qin / 1500
+    const sgen = qout / 298.15 - qin / 1500
     expect(readQuantity(r, 'totals.entropyGenerated')).toBeCloseTo(sgen, 9)
     expect(readQuantity(r, 'totals.rate.exergyDestroyed')).toBeCloseTo(2 * 300 * sgen, 3)
-    expect(readQuantity(r, 'steps.4.boundaryTemperature')).toBeCloseTo(300.15, 12)
-    expect((r as { warnings: unknown[] }).warnings).toEqual([])
+    expect(readQuantity(r, 'steps.4.boundaryTemperature')).toBeCloseTo(298.15, 12)
+    expect('warnings' in r ? r.warnings : null).toEqual([])
+    // the formatted output carries the warnings: heat from a boundary at 900 K into gas heated from
+    // about 543 K to 1300 K. Over the whole step s_gen = cp ln(1300/T2) − q/900 > 0 (the mean
+    // temperature of the heating, q/Δs ≈ 867 K, is below 900 K), yet above 900 K the heat would flow
+    // from the colder boundary into the hotter gas: heat-against-temperature.
+    const cold = solveSpec({
+      cycle: {
+        ...base,
+        steps: [base.steps[0], { process: 'isobaric', boundaryTemperature: '900 K' }, ...base.steps.slice(2)],
+      },
+    })
+    if (!cold.ok) throw new Error(cold.error.message)
+    const warned = 'warnings' in cold ? cold.warnings : []
+    const T2 = 300 * x
+    expect(1005 * Math.log(1300 / T2) - (1005 * (1300 - T2)) / 900).toBeGreaterThan(0)
+    expect(readQuantity(cold, 'steps.2.entropyGenerated')).toBeCloseTo(
+      1005 * Math.log(1300 / T2) - (1005 * (1300 - T2)) / 900,
+      9,
+    )
+    expect(warned.map((w) => [w.code, w.step])).toEqual([['heat-against-temperature', 2]])
   })
   test('bad inputs give clear errors, never a throw', () => {
     const closed = solveSpec({ cycle: { ...base, system: 'closed', flowRate: '2 kg/s' } })

@@ -180,12 +180,28 @@ export function secondLaw(
     const scale = e.internal
       ? Math.max(Math.abs(ds), Math.abs(energies[s.partner!]!.ds))
       : Math.max(Math.abs(ds), Tb === null ? 0 : Math.abs(q / Tb))
-    if (!(sgen < -(1e-9 * scale + 1e-12 * R))) continue
     const a = states[k]!
     const b = states[k + 1 === N ? 0 : k + 1]!
     const what = `Step ${k + 1}${s.label ? ` (${s.label}, ${a.name}→${b.name})` : ` (${a.name}→${b.name})`}`
+    // The gas temperature of a step lies between its end temperatures (every path here is monotone in T).
     const Tlo = Math.min(a.T, b.T)
     const Thi = Math.max(a.T, b.T)
+    if (!(sgen < -(1e-9 * scale + 1e-12 * R))) {
+      // s_gen ≥ 0 over the step does not prove that heat never flows against the temperature
+      // difference along it: heat in from a boundary below the gas's highest temperature (or
+      // out to one above its lowest) is impossible somewhere along the step.
+      if (Tb !== null && !e.internal && (q > 0 ? Thi > Tb * (1 + 1e-9) : Tlo < Tb * (1 - 1e-9))) {
+        warnings.push({
+          code: 'heat-against-temperature',
+          message:
+            q > 0
+              ? `${what}: the heat comes in across a boundary at ${sig(Tb)} K but the gas reaches ${sig(Thi)} K in this step: along part of it heat would flow from the colder boundary into the hotter gas, which is impossible (s_gen = ${sig(sgen)} ${S} over the whole step does not show it). Check the boundary temperature or the reservoirs.`
+              : `${what}: the heat leaves across a boundary at ${sig(Tb)} K but the gas falls to ${sig(Tlo)} K in this step: along part of it heat would flow from the colder gas into the hotter boundary, which is impossible (s_gen = ${sig(sgen)} ${S} over the whole step does not show it). Check the boundary temperature or the reservoirs.`,
+          step: k + 1,
+        })
+      }
+      continue
+    }
     let message: string
     if (e.internal) {
       message = `${what} and step ${s.partner! + 1} (regenerator): the entropy generated is negative, s_gen = Δs${k + 1} + Δs${s.partner! + 1} = ${sig(ds)} + ${sig(energies[s.partner!]!.ds)} = ${sig(sgen)} ${S}: impossible, heat would flow from the colder stream to the hotter one.`

@@ -214,7 +214,7 @@ export interface CycleSolution {
   readonly warnings: readonly SolveWarning[]
 }
 
-export type SolveWarningCode = 'regenerator-wrong-way' | 'negative-entropy-generation'
+export type SolveWarningCode = 'regenerator-wrong-way' | 'negative-entropy-generation' | 'heat-against-temperature'
 
 export interface SolveWarning {
   readonly code: SolveWarningCode
