@@ -55,6 +55,9 @@ export const COMMON_OUTPUT_PATHS: readonly { readonly path: string; readonly lab
   { path: 'totals.turbineWork', label: 'turbine work (steam)' },
   { path: 'totals.turbineExitQuality', label: 'turbine exit quality (steam)' },
   { path: 'totals.bleedFraction', label: 'bled steam fraction (steam)' },
+  { path: 'totals.refrigerationEffect', label: 'refrigeration effect per kg (refrigerator)' },
+  { path: 'totals.compressorWork', label: 'compressor work per kg (refrigerator)' },
+  { path: 'totals.heatRejected', label: 'heat rejected in the condenser per kg (refrigerator)' },
 ]
 
 // ---- Template and pitfall lists for the editor (built on the server, sent as data) ------
@@ -77,12 +80,12 @@ export interface EditorOptions {
 }
 
 /**
- * The editor's choices as plain data. The routes pass the solver's registries in, so the
- * browser bundle never has to carry the solver (and mathjs) just to list template inputs.
+ * The editor's choices as plain data. The server passes the bank's templates in, grouped by
+ * family (from the solver's catalog), so the browser bundle never has to carry the solver (and
+ * mathjs) just to list template inputs.
  */
 export function buildEditorOptions(
-  idealGas: readonly TemplateChoice[],
-  steam: readonly TemplateChoice[],
+  groups: readonly { readonly label: string; readonly templates: readonly TemplateChoice[] }[],
   pitfalls: readonly { readonly id: string; readonly title: string }[],
 ): EditorOptions {
   const pick = (t: TemplateChoice): TemplateChoice => ({
@@ -92,10 +95,9 @@ export function buildEditorOptions(
     inputs: t.inputs.map((i) => ({ name: i.name, unit: i.unit, description: i.description, required: i.required })),
   })
   return {
-    templateGroups: [
-      { label: 'Ideal gas', templates: idealGas.map(pick) },
-      { label: 'Water and steam', templates: steam.map(pick) },
-    ],
+    templateGroups: groups
+      .filter((g) => g.templates.length > 0)
+      .map((g) => ({ label: g.label, templates: g.templates.map(pick) })),
     pitfalls: pitfalls.map((p) => ({ id: p.id, title: p.title })),
   }
 }

@@ -9,7 +9,7 @@ import { z } from 'zod'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { lintDefinition } from '#app/domain/authoring/lint.ts'
 import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
-import { RANKINE_TEMPLATES, templates } from '#app/domain/thermo/templates/index.ts'
+import { TEMPLATE_CATALOG, type TemplateFamily } from '#app/domain/thermo/catalog.ts'
 import {
   buildEditorOptions,
   definitionFromForm,
@@ -39,8 +39,23 @@ export type SavableProblem = {
   basedOn?: string
 }
 
+/** The editor's group heading for each family (a Record, so a new family fails the typecheck until it has one). */
+const FAMILY_LABELS: Readonly<Record<TemplateFamily, string>> = {
+  'ideal-gas': 'Ideal gas',
+  steam: 'Water and steam',
+  refrigeration: 'Refrigeration',
+  combined: 'Combined gas and steam',
+  'steady-flow': 'Steady flow',
+}
+
+/** The templates bank problems may use (the catalog's `bank` flag), grouped by family. */
 export function editorOptions() {
-  return buildEditorOptions(Object.values(templates), RANKINE_TEMPLATES, PITFALLS)
+  const families = Object.keys(FAMILY_LABELS) as TemplateFamily[]
+  const groups = families.map((family) => ({
+    label: FAMILY_LABELS[family],
+    templates: TEMPLATE_CATALOG.filter((e) => e.bank && e.family === family),
+  }))
+  return buildEditorOptions(groups, PITFALLS)
 }
 
 function answer(state: EditorState, issues: FormIssue[] = [], preview: PreviewResult | null = null): EditorAnswer {
