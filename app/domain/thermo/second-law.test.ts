@@ -247,6 +247,32 @@ describe('refrigerator between reservoirs: η_II = COP/COP_rev', () => {
     expect(wide.steps[0]!.boundaryTemperature).toBe(250)
     expect(wide.steps[2]!.boundaryTemperature).toBe(320)
   })
+
+  test('exergy efficiency of a refrigerator, T0 = the warm reservoir: q_L(T0/T_L − 1)/W; 1 when reversible', () => {
+    const TL = 260
+    const TH = 310
+    const spec = (res: { hot: number; cold: number }): CycleSpec => ({
+      gas: gas(),
+      system: 'closed',
+      purpose: 'refrigerator',
+      reservoirs: res,
+      deadState: { T: res.hot, p: 1e5 },
+      states: [{ p: 1e5, T: TL }, {}, {}, {}],
+      steps: [
+        { process: 'isothermal', volumeRatio: 2 },
+        { process: 'isentropic', temperatureRatio: TH / TL },
+        { process: 'isothermal', volumeRatio: 0.5 },
+        { process: 'isentropic' },
+      ],
+    })
+    expect(solved(spec({ hot: TH, cold: TL })).totals.exergyEfficiency!).toBeCloseTo(1, 12)
+    const qL = R * TL * Math.log(2) // heat taken in at T_L
+    const W = R * (TH - TL) * Math.log(2) // net work in of the reversed Carnot cycle
+    const wide = solved(spec({ hot: 320, cold: 250 }))
+    expect(wide.totals.exergyEfficiency!).toBeCloseTo((qL * (320 / 250 - 1)) / W, 12)
+    // with T0 at the warm reservoir the two definitions agree
+    expect(wide.totals.exergyEfficiency!).toBeCloseTo(wide.totals.secondLawEfficiency!, 12)
+  })
 })
 
 describe('warnings', () => {
