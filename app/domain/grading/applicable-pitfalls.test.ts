@@ -1,6 +1,17 @@
-import { expect, test } from 'vitest'
+import { describe, expect, test } from 'vitest'
 import type { Find, ProblemDefinition } from '#app/domain/authoring/definition.ts'
-import { applicablePitfalls, whyPitfallCannotFire } from './pitfalls.ts'
+import { readQuantity, solveBankSpec } from '#app/domain/thermo/index.ts'
+import { TEMPLATE_CATALOG } from '#app/domain/thermo/catalog.ts'
+import { TEMPLATES_WITHOUT_SLIPS } from './applicable-pitfalls.ts'
+import { applicablePitfalls, evaluateWithPitfall, whyPitfallCannotFire } from './pitfalls.ts'
+
+const SOLVER_SLIP_IDS = [
+  'celsius-for-kelvin',
+  'cp-cv-swapped',
+  'gamma-monatomic-diatomic-swapped',
+  'log10-for-ln',
+  'per-mole-vs-per-kg',
+] as const
 
 const out = (name: string, path: string, unit: string): Find => ({
   name,
@@ -74,4 +85,65 @@ test('an expression find can have no pitfall; the problem as a whole offers the 
 test('a half-typed draft does not throw', () => {
   expect(applicablePitfalls({ finds: [{}] } as unknown as ProblemDefinition, 0)).toEqual([])
   expect(applicablePitfalls({} as unknown as ProblemDefinition)).toEqual([])
+})
+
+describe('templates whose solver takes no slips (steam, refrigerants)', () => {
+  test('are exactly the bank templates outside the ideal-gas family (the catalog’s word)', () => {
+    const expected = TEMPLATE_CATALOG.filter((e) => e.bank && e.family !== 'ideal-gas').map((e) => e.id)
+    expect([...TEMPLATES_WITHOUT_SLIPS].sort()).toEqual(expected.sort())
+  })
+
+  // The claim behind the list: re-solving with any of the solver's slips gives the same number,
+  // so such a pitfall could never be recognised. A °C temperature and kJ inputs are written in
+  // so that the °C and kJ slips would have something to act on.
+  const specs: [string, unknown][] = [
+    [
+      'vapour-compression',
+      {
+        template: 'vapour-compression',
+        inputs: {
+          refrigerant: 'R134a',
+          evaporatorTemperature: '-10 °C',
+          condenserPressure: '0.8 MPa',
+          massFlow: '0.05 kg/s',
+        },
+      },
+    ],
+    [
+      'rankine',
+      {
+        template: 'rankine',
+        inputs: { boilerPressure: '3 MPa', turbineInletTemperature: '350 °C', condenserPressure: '10 kPa' },
+      },
+    ],
+  ]
+  test.each(specs)('%s: no solver slip changes a key', (_id, spec) => {
+    const sol = solveBankSpec(spec)
+    expect(sol.ok).toBe(true)
+    for (const path of ['states.2.T', 'states.2.h', 'states.1.s']) {
+      const correct = sol.ok ? readQuantity(sol, path) : null
+      expect(correct, path).not.toBeNull()
+      for (const id of SOLVER_SLIP_IDS) {
+        for (const v of evaluateWithPitfall(spec, path, id)) expect(v, `${path} with ${id}`).toBe(correct)
+      }
+    }
+  })
+
+  test('offer only the sign slip and a factor of 1000 on an energy, and say why the others cannot fire', () => {
+    const def: ProblemDefinition = {
+      ...otto('°C'),
+      physics: {
+        kind: 'template',
+        template: 'vapour-compression',
+        inputs: { refrigerant: 'R134a', evaporatorTemperature: 'T1', condenserPressure: '800 kJ/kg' },
+      },
+      finds: [out('w', 'devices.1.w', 'kJ/kg'), out('T2', 'states.2.T', 'K')],
+    }
+    expect(applicablePitfalls(def, 0)).toEqual(['sign-convention-flipped', 'kilo-factor'])
+    expect(applicablePitfalls(def, 1)).toEqual([])
+    expect(whyPitfallCannotFire(def, 1, 'celsius-for-kelvin')).toMatch(/cannot make this slip/)
+    expect(whyPitfallCannotFire(def, 1, 'kilo-factor')).toMatch(/not an energy/)
+    // The same finds on an ideal-gas template keep the solver's slips.
+    expect(applicablePitfalls(otto('°C'), 0)).toContain('celsius-for-kelvin')
+  })
 })

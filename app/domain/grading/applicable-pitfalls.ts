@@ -10,6 +10,8 @@
  * - 'sign-convention-flipped' needs a key whose sign the convention decides (work in the
  *   convention's sign: totals.netWork, steps.N.w, …), not a size such as heat in.
  * - 'kilo-factor' needs an energy (a J in the find's unit) or a kJ reaching the solver.
+ * - The steam and refrigerant solvers read their own inputs and take no slips, so on their
+ *   templates only the sign slip and a factor of 1000 on an energy answer can fire.
  */
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { outputSense } from '#app/domain/authoring/sense.ts'
@@ -24,6 +26,27 @@ const ALL: readonly PitfallId[] = [
   'log10-for-ln',
   'per-mole-vs-per-kg',
 ]
+
+/** Pitfalls whose slip the solver itself makes (re-solving with it); the others act on the key. */
+const SOLVER_SLIPS: ReadonlySet<PitfallId> = new Set([
+  'celsius-for-kelvin',
+  'cp-cv-swapped',
+  'gamma-monatomic-diatomic-swapped',
+  'log10-for-ln',
+  'per-mole-vs-per-kg',
+])
+
+/**
+ * Bank templates whose solver takes no slips (steam, refrigerants): kept here, not read from the
+ * catalog, so the editor's bundle carries no solver; applicable-pitfalls.test.ts checks it
+ * against the catalog's families.
+ */
+export const TEMPLATES_WITHOUT_SLIPS: ReadonlySet<string> = new Set([
+  'rankine',
+  'rankine-reheat',
+  'rankine-regenerative',
+  'vapour-compression',
+])
 
 /** As app/domain/thermo/spec.ts's specMentions reads a spec. */
 const CELSIUS = /(°\s*C|degC|℃)/
@@ -54,9 +77,11 @@ function forFind(def: ProblemDefinition, index: number, texts: readonly string[]
   const f = def.finds?.[index]
   if (!f || f.source?.kind !== 'output' || typeof f.source.path !== 'string') return []
   const templateId = def.physics?.kind === 'template' ? def.physics.template : null
+  const slipFree = templateId !== null && TEMPLATES_WITHOUT_SLIPS.has(templateId)
   const celsius = texts.some((t) => CELSIUS.test(t))
-  const kJ = texts.some((t) => KILOJOULE.test(t))
+  const kJ = !slipFree && texts.some((t) => KILOJOULE.test(t))
   return ALL.filter((id) => {
+    if (slipFree && SOLVER_SLIPS.has(id)) return false
     switch (id) {
       case 'celsius-for-kelvin':
         return celsius
@@ -92,13 +117,18 @@ export function whyPitfallCannotFire(def: ProblemDefinition, findIndex: number, 
   const f = def.finds?.[findIndex]
   if (f?.source?.kind !== 'output')
     return 'pitfalls are recognised only on a find that comes from a solver output, not an expression'
+  const templateId = def.physics?.kind === 'template' ? def.physics.template : null
+  if (templateId !== null && TEMPLATES_WITHOUT_SLIPS.has(templateId) && SOLVER_SLIPS.has(id))
+    return 'the steam and refrigerant solvers cannot make this slip, so it can never be recognised'
   switch (id) {
     case 'celsius-for-kelvin':
       return 'no temperature in °C reaches the solver in this problem'
     case 'sign-convention-flipped':
       return `the sign of "${f.source.path}" does not depend on the convention`
     case 'kilo-factor':
-      return 'neither the answer nor any input of the solver is in kJ or J'
+      return templateId !== null && TEMPLATES_WITHOUT_SLIPS.has(templateId)
+        ? 'the answer is not an energy in kJ or J'
+        : 'neither the answer nor any input of the solver is in kJ or J'
     default:
       return 'it cannot change this find'
   }
