@@ -97,7 +97,7 @@ function VariantColumn({ variant: v, showKey }: { variant: PreviewVariant; showK
               />
             </details>
           ) : null}
-          <CycleDiagrams diagrams={v.diagrams} caption={`P–v and T–s diagrams of seed ${v.seed}`} stacked />
+          <CycleDiagrams diagrams={v.diagrams} caption={`Diagrams of seed ${v.seed}`} stacked />
         </>
       )}
     </article>

@@ -187,7 +187,7 @@ export function StaffView({
           )}
         </details>
         {detail.diagrams ? (
-          <CycleDiagrams diagrams={detail.diagrams} caption={`P–v and T–s diagrams of ${d.student.name}’s variant`} />
+          <CycleDiagrams diagrams={detail.diagrams} caption={`Diagrams of ${d.student.name}’s variant`} />
         ) : null}
       </Section>
 

@@ -380,7 +380,7 @@ function ProblemPage({
           />
           {/* Sanitised on the server, like the prompt. */}
           <div className="overflow-x-auto" dangerouslySetInnerHTML={{ __html: problem.key.workedHtml }} />
-          <CycleDiagrams diagrams={problem.key.diagrams} caption="P–v and T–s diagrams of this variant" />
+          <CycleDiagrams diagrams={problem.key.diagrams} caption="Diagrams of this variant" />
         </section>
       ) : null}
 
