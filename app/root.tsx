@@ -57,7 +57,7 @@ function Shell({ children }: { children: React.ReactNode }) {
     <div className="flex min-h-screen flex-col">
       <a
         href="#main"
-        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:rounded focus:bg-white focus:px-3 focus:py-2"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:rounded focus:bg-white focus:px-3 focus:py-2"
       >
         Skip to content
       </a>
@@ -74,7 +74,7 @@ function Shell({ children }: { children: React.ReactNode }) {
                 to={item.to}
                 end={item.end}
                 className={({ isActive }) =>
-                  `inline-flex min-h-11 items-center rounded-md px-3 py-1.5 text-sm no-underline sm:min-h-0 hover:bg-accent-soft hover:no-underline ${isActive ? 'bg-accent-soft font-semibold text-accent-strong' : 'text-ink'}`
+                  `inline-flex min-h-11 items-center rounded-md px-3 py-1.5 text-sm no-underline hover:bg-accent-soft hover:no-underline sm:min-h-0 ${isActive ? 'bg-accent-soft font-semibold text-accent-strong' : 'text-ink'}`
                 }
               >
                 {item.label}

@@ -188,7 +188,7 @@ function StudentCell({
       <Link to={href} className="font-medium">
         {sortedName(student)}
       </Link>
-      <span className="block text-xs text-muted [overflow-wrap:anywhere]">
+      <span className="block text-xs [overflow-wrap:anywhere] text-muted">
         {student.studentNumber ? <>ID {student.studentNumber} · </> : null}
         {student.email}
       </span>

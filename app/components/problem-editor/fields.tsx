@@ -12,7 +12,7 @@ export const FORM_ID = 'problem-form'
 // Placeholder text is a hint, not a value: lighter and in italics, so an empty row never looks filled in.
 export const inputClass = (invalid: boolean) =>
   cn(
-    'w-full min-w-0 rounded-md border bg-white px-2 py-1.5 text-sm shadow-sm placeholder:font-normal placeholder:italic placeholder:text-muted/70',
+    'w-full min-w-0 rounded-md border bg-white px-2 py-1.5 text-sm shadow-sm placeholder:font-normal placeholder:text-muted/70 placeholder:italic',
     invalid ? 'border-danger' : 'border-line focus:border-accent',
   )
 

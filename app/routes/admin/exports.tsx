@@ -104,7 +104,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
         <EmptyState className="mt-8">There are no terms to export yet.</EmptyState>
       ) : (
         <Form method="post" className="mt-6 flex flex-wrap items-end gap-4 rounded-lg border border-line bg-white p-4">
-          <div className="flex min-w-0 max-w-full flex-col gap-1">
+          <div className="flex max-w-full min-w-0 flex-col gap-1">
             <label htmlFor="termId" className="text-sm font-medium text-ink">
               Term
             </label>
@@ -115,7 +115,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
               required
               aria-invalid={error ? true : undefined}
               aria-describedby={error ? 'termId-error' : undefined}
-              className={`min-w-0 max-w-full rounded-md border bg-white px-3 py-2 text-base shadow-sm ${error ? 'border-danger' : 'border-line'}`}
+              className={`max-w-full min-w-0 rounded-md border bg-white px-3 py-2 text-base shadow-sm ${error ? 'border-danger' : 'border-line'}`}
             >
               <option value="" disabled>
                 Choose a term…
@@ -195,7 +195,7 @@ export default function AdminExportsRoute({ loaderData, actionData }: Route.Comp
                           <a href={f.href} download={f.name}>
                             {f.label}
                           </a>{' '}
-                          <span className="text-muted [overflow-wrap:anywhere]">({f.name})</span>
+                          <span className="[overflow-wrap:anywhere] text-muted">({f.name})</span>
                         </li>
                       ))}
                     </ul>

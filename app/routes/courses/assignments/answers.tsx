@@ -114,7 +114,7 @@ export default function FindAnswersRoute({ loaderData }: Route.ComponentProps) {
                 <tr key={a.partResultId} className="border-t border-line align-top">
                   <th scope="row" className="min-w-40 px-3 py-2 text-left font-normal">
                     <span className="font-medium">{a.name}</span>
-                    <span className="block text-xs text-muted [overflow-wrap:anywhere]">
+                    <span className="block text-xs [overflow-wrap:anywhere] text-muted">
                       {a.email}
                       {a.section ? ` · section ${a.section}` : ''}
                     </span>

@@ -380,7 +380,7 @@ export default function RegradeRoute({ loaderData }: Route.ComponentProps) {
                     <tr key={s.userId} className="border-t border-line align-top">
                       <th scope="row" className="min-w-40 px-3 py-2 font-normal">
                         {s.name}
-                        <span className="block text-xs text-muted [overflow-wrap:anywhere]">
+                        <span className="block text-xs [overflow-wrap:anywhere] text-muted">
                           {s.email}
                           {s.section ? ` · section ${s.section}` : ''}
                         </span>

@@ -207,7 +207,7 @@ function StaffQueue({ data }: { data: Data }) {
                   </td>
                   <th scope="row" className="min-w-40 px-4 py-2 font-normal">
                     {r.student.name}
-                    <span className="block text-xs text-muted [overflow-wrap:anywhere]">{r.student.email}</span>
+                    <span className="block text-xs [overflow-wrap:anywhere] text-muted">{r.student.email}</span>
                   </th>
                   <td className="min-w-48 px-4 py-2">
                     {r.assignmentTitle}
