@@ -6,7 +6,7 @@ import { and, eq, gt, isNull } from 'drizzle-orm'
 import { nanoid } from 'nanoid'
 import type { CourseRole } from '#app/domain/permissions.ts'
 import { roleLabels } from '#app/domain/permissions.ts'
-import type { Db } from './db/client.server.ts'
+import type { Db, Tx } from './db/client.server.ts'
 import { accessTokens, courses, memberships, sessions, users } from './db/schema.server.ts'
 import { linkMail, queueMail } from './email.server.ts'
 import { appUrl } from './env.server.ts'
@@ -98,7 +98,7 @@ export async function findAccessLink(
 }
 
 /** Marks the link used, atomically: a second use (even a concurrent one) gets false. */
-async function claim(tx: Db, linkId: number, now: Date): Promise<boolean> {
+async function claim(tx: Tx, linkId: number, now: Date): Promise<boolean> {
   const claimed = await tx
     .update(accessTokens)
     .set({ usedAt: now })
@@ -130,7 +130,7 @@ export async function acceptInvitation(
   const { link, existingUser } = found
   const passwordHash = input.password ? await hashPassword(input.password) : null
   return database.transaction(async (tx) => {
-    if (!(await claim(tx as unknown as Db, link.id, now))) return null
+    if (!(await claim(tx, link.id, now))) return null
     let userId: number
     if (existingUser) {
       userId = existingUser.id
@@ -208,7 +208,7 @@ export async function resetPassword(database: Db, token: string, password: strin
   const userId = found.existingUser.id
   const passwordHash = await hashPassword(password)
   return database.transaction(async (tx) => {
-    if (!(await claim(tx as unknown as Db, found.link.id, now))) return null
+    if (!(await claim(tx, found.link.id, now))) return null
     await tx.update(users).set({ passwordHash }).where(eq(users.id, userId))
     await tx.delete(sessions).where(eq(sessions.userId, userId))
     return { userId }

@@ -56,6 +56,12 @@ function text(form: FormData, name: string): string {
   return typeof v === 'string' ? v : ''
 }
 
+const ITEM_FIELDS = ['itemId', 'versionId', 'points', 'override'] as const satisfies readonly (keyof ItemRow)[]
+
+function isItemField(name: string | undefined): name is (typeof ITEM_FIELDS)[number] {
+  return ITEM_FIELDS.some((f) => f === name)
+}
+
 /** The form's fields as typed (rows in the order of their index). */
 export function assignmentFormFromData(form: FormData): AssignmentFormState {
   const rows = new Map<number, ItemRow>()
@@ -63,8 +69,10 @@ export function assignmentFormFromData(form: FormData): AssignmentFormState {
     const m = ITEM_KEY.exec(key)
     if (!m || typeof value !== 'string') continue
     const i = Number(m[1])
+    const field = m[2]
+    if (!isItemField(field)) continue
     const row = rows.get(i) ?? { itemId: '', versionId: '', points: '' }
-    row[m[2] as keyof ItemRow] = value
+    row[field] = value
     rows.set(i, row)
   }
   return {

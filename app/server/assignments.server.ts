@@ -615,7 +615,8 @@ export async function getNewAssignmentForm(
   await requireInstructor(database, opts.user.id, opts.courseId)
   const { timeZone } = await courseZone(database, opts.courseId)
   const choices = await listBankChoices(database, await bankViewerFor(database, opts.user))
-  return { timeZone, state: newAssignmentForm(timeZone, opts.now), choices, locked: [] as LockedItem[] }
+  const locked: LockedItem[] = []
+  return { timeZone, state: newAssignmentForm(timeZone, opts.now), choices, locked }
 }
 
 /** What the edit page needs: the stored assignment as form values, the bank, and the answered items. */
@@ -720,6 +721,11 @@ async function auditCheckOverride(
   })
 }
 
+/** A setting as the audit row keeps it: a date as its ISO text, anything else as it is. */
+function auditable<T>(value: T | Date): T | string {
+  return value instanceof Date ? value.toISOString() : value
+}
+
 const SETTING_KEYS = [
   'title',
   'instructions',
@@ -762,8 +768,8 @@ export async function updateAssignment(
     const before: Record<string, unknown> = {}
     const after: Record<string, unknown> = {}
     for (const key of SETTING_KEYS) {
-      const was = current[key] instanceof Date ? (current[key] as Date).toISOString() : current[key]
-      const now = settings[key] instanceof Date ? (settings[key] as Date).toISOString() : settings[key]
+      const was = auditable(current[key])
+      const now = auditable(settings[key])
       if (was !== now) {
         before[key] = was
         after[key] = now

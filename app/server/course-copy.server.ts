@@ -14,6 +14,7 @@ import { z } from 'zod'
 import type { FieldErrors } from '#app/lib/form.ts'
 import { CourseCodeSchema, CourseTitleSchema, codeTakenMessage, daysBetween, type Outcome } from './courses.server.ts'
 import type { Db } from './db/client.server.ts'
+import { isUniqueViolation } from './db/pg-errors.server.ts'
 import {
   assignmentItems,
   assignments,
@@ -236,14 +237,11 @@ export async function copyCourse(
       return { ok: true as const, courseId, offsetDays, assignments: mapping.length }
     })
   } catch (e) {
-    for (let err: unknown = e; err && typeof err === 'object'; err = (err as { cause?: unknown }).cause) {
-      const { code, constraint } = err as { code?: string; constraint?: string }
-      if (code === '23505' && constraint === 'courses_term_code_key')
-        return {
-          ok: false,
-          fieldErrors: { code: `That term already has a course ${input.code}. Choose another code or another term.` },
-        }
-    }
+    if (isUniqueViolation(e, 'courses_term_code_key'))
+      return {
+        ok: false,
+        fieldErrors: { code: `That term already has a course ${input.code}. Choose another code or another term.` },
+      }
     throw e
   }
 }

@@ -7,6 +7,7 @@ import { readTimeZone } from '#app/lib/time-zones.ts'
 import { EmailSchema } from '#app/lib/validation.ts'
 import { inviteToCourse } from './access-links.server.ts'
 import type { Db, Tx } from './db/client.server.ts'
+import { isUniqueViolation } from './db/pg-errors.server.ts'
 import {
   accessTokens,
   assignmentItems,
@@ -59,13 +60,15 @@ export async function listCourseMembers(database: Db, courseId: number) {
     .orderBy(sql`case ${memberships.role} when 'instructor' then 0 when 'ta' then 1 else 2 end`, asc(users.name))
 }
 
-export async function countMembersByRole(database: Db, courseId: number) {
+export async function countMembersByRole(database: Database, courseId: number) {
   const rows = await database
     .select({ role: memberships.role, n: count() })
     .from(memberships)
     .where(eq(memberships.courseId, courseId))
     .groupBy(memberships.role)
-  return Object.fromEntries(rows.map((r) => [r.role, r.n])) as Partial<Record<'instructor' | 'ta' | 'student', number>>
+  const counts: Partial<Record<(typeof rows)[number]['role'], number>> = {}
+  for (const r of rows) counts[r.role] = r.n
+  return counts
 }
 
 /** Every course of the installation with its head counts, for department admins. */
@@ -190,14 +193,6 @@ export const CourseSettingsFormSchema = z.object({
 })
 
 export type Outcome<T> = ({ ok: true } & T) | { ok: false; fieldErrors: FieldErrors }
-
-function isUniqueViolation(e: unknown, constraint: string): boolean {
-  for (let err: unknown = e; err && typeof err === 'object'; err = (err as { cause?: unknown }).cause) {
-    const { code, constraint: name } = err as { code?: string; constraint?: string }
-    if (code === '23505' && name === constraint) return true
-  }
-  return false
-}
 
 /** The admin's own department (terms and new courses belong to it), or null. */
 export async function findUserDepartment(database: Database, userId: number) {
@@ -370,7 +365,7 @@ export async function adminCoursePage(database: Database, courseId: number, now 
     .from(assignments)
     .where(eq(assignments.courseId, courseId))
     .orderBy(asc(assignments.dueAt), asc(assignments.id))
-  const counts = await countMembersByRole(database as Db, courseId)
+  const counts = await countMembersByRole(database, courseId)
   return { course, instructors, invitations, assignments: assignmentRows, counts }
 }
 
@@ -550,13 +545,10 @@ export async function updateCourseSettings(
         throw data('Only the course’s instructors can change its settings.', { status: 403 })
       const fieldErrors: FieldErrors = {}
       if (input.signConvention !== current.signConvention && !input.confirmConvention) {
-        const impact = await conventionImpact(tx as unknown as Db, opts.courseId)
+        const impact = await conventionImpact(tx, opts.courseId)
         if (impact.answers > 0) fieldErrors.confirmConvention = CONFIRM_CONVENTION_MESSAGE
       }
-      if (
-        input.code !== current.code &&
-        (await codeTaken(tx as unknown as Db, current.termId, input.code, opts.courseId))
-      ) {
+      if (input.code !== current.code && (await codeTaken(tx, current.termId, input.code, opts.courseId))) {
         fieldErrors.code = codeTakenMessage(input.code, current.termName)
       }
       if (Object.keys(fieldErrors).length) return { ok: false as const, fieldErrors }

@@ -42,6 +42,7 @@ import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { disputeResolutionMail, disputeResolvedHistoryText } from '#app/lib/dispute-resolution.ts'
 import type { Db, Tx } from './db/client.server.ts'
+import { isUniqueViolation } from './db/pg-errors.server.ts'
 import {
   assignmentItems,
   assignments,
@@ -536,14 +537,6 @@ const OPEN_ALREADY =
   'You already have an open dispute on this question. You can raise another once it has been resolved.'
 
 class OpenDisputeExists extends Error {}
-
-function isUniqueViolation(e: unknown, constraint: string): boolean {
-  for (let err: unknown = e; err && typeof err === 'object'; err = (err as { cause?: unknown }).cause) {
-    const { code, constraint: name } = err as { code?: string; constraint?: string }
-    if (code === '23505' && name === constraint) return true
-  }
-  return false
-}
 
 export async function raiseDispute(database: Db, input: RaiseDisputeInput): Promise<RaiseDisputeResult> {
   const fieldErrors: { reason?: string; file?: string; findName?: string } = {}

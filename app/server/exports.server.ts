@@ -43,6 +43,7 @@ import { stringify as stringifySync } from 'csv-stringify/sync'
 import { format } from 'date-fns'
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm'
 import ExcelJS from 'exceljs'
+import { z } from 'zod'
 import { roundPoints, formatPoints } from '#app/lib/points.ts'
 import type { Db, Tx } from './db/client.server.ts'
 import { courses, departments, gradeExports, terms, users } from './db/schema.server.ts'
@@ -374,18 +375,18 @@ export type TermExportFile = (typeof TERM_EXPORT_FILES)[number]
 
 const STORED_FORMAT = 'term-export/2'
 type StoredTermExport = { format: typeof STORED_FORMAT; files: Record<TermExportFile, string> }
+// Other fields are kept as they are: an export written by a newer release still serves its two files.
+const StoredTermExportSchema = z.object({
+  format: z.literal(STORED_FORMAT),
+  files: z.looseObject({ assignments: z.string(), 'course-totals': z.string() }),
+})
 
 /** What grade_exports.csv holds: the two files of a term export, or one CSV of an older export. */
 export function readStoredExport(text: string): { files: Record<TermExportFile, string> } | { legacy: string } {
   if (text.startsWith('{')) {
     try {
-      const parsed = JSON.parse(text) as Partial<StoredTermExport>
-      if (
-        parsed.format === STORED_FORMAT &&
-        typeof parsed.files?.assignments === 'string' &&
-        typeof parsed.files['course-totals'] === 'string'
-      )
-        return { files: parsed.files }
+      const parsed = StoredTermExportSchema.safeParse(JSON.parse(text))
+      if (parsed.success) return { files: parsed.data.files }
     } catch {
       // not ours: served as the text it is
     }

@@ -40,7 +40,7 @@ const variantCache = new Map<string, DrawResult>()
 export function canonicalJson(value: unknown): string {
   if (value === null || typeof value !== 'object') return JSON.stringify(value) ?? 'null'
   if (Array.isArray(value)) return `[${value.map((v) => (v === undefined ? 'null' : canonicalJson(v))).join(',')}]`
-  const entries = Object.entries(value as Record<string, unknown>)
+  const entries: [string, unknown][] = Object.entries(value)
     .filter(([, v]) => v !== undefined && typeof v !== 'function')
     .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))
   return `{${entries.map(([k, v]) => `${JSON.stringify(k)}:${canonicalJson(v)}`).join(',')}}`

@@ -108,10 +108,7 @@ export const BankQuerySchema = z
     sort: z.enum(SORTS).catch('updated'),
     dir: z.enum(['asc', 'desc']).optional().catch(undefined),
     page: z.coerce.number().int().min(1).max(100_000).catch(1),
-    pageSize: z.coerce
-      .number()
-      .refine((n): n is (typeof PAGE_SIZES)[number] => (PAGE_SIZES as readonly number[]).includes(n))
-      .catch(25),
+    pageSize: z.coerce.number().pipe(z.literal(PAGE_SIZES)).catch(25),
   })
   .catch({ q: '', scope: 'all', sort: 'updated', page: 1, pageSize: 25 })
   .transform((v) => ({
@@ -119,7 +116,6 @@ export const BankQuerySchema = z
     q: v.q ?? '',
     // Newest first is what people want from "updated"; A→Z from the others.
     dir: v.dir ?? (v.sort === 'updated' ? ('desc' as const) : ('asc' as const)),
-    pageSize: v.pageSize as (typeof PAGE_SIZES)[number],
   }))
 export type BankQuery = z.output<typeof BankQuerySchema>
 

@@ -11,6 +11,7 @@ import pg from 'pg'
 import PgBoss from 'pg-boss'
 import { z } from 'zod'
 import type { Db } from './db/client.server.ts'
+import { isUniqueViolation } from './db/pg-errors.server.ts'
 import * as schema from './db/schema.server.ts'
 import { env } from './env.server.ts'
 
@@ -145,10 +146,6 @@ export class PermanentJobError extends Error {
 
 /** Runs pg-boss's SQL on a connection of ours, so a job is sent inside our transaction. */
 export type JobConnection = PgBoss.Db
-
-function isUniqueViolation(e: unknown) {
-  return (e as { code?: string }).code === '23505'
-}
 
 /** Creates (or brings up to date) the dead-letter queue and every queue of the map. */
 export async function ensureQueues(boss: PgBoss) {

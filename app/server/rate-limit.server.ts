@@ -22,7 +22,7 @@
  * page answers the same either way.
  */
 import { and, count, desc, eq, gt, lt, max, min, sql } from 'drizzle-orm'
-import type { Db } from './db/client.server.ts'
+import type { Db, Tx } from './db/client.server.ts'
 import { signInAttempts } from './db/schema.server.ts'
 import { env } from './env.server.ts'
 
@@ -53,12 +53,12 @@ export function waitInWords(seconds: number): string {
 
 const asDate = (d: Date | string | null | undefined) => (d === null || d === undefined ? null : new Date(d))
 
-async function lock(tx: Db, scope: string, key: string) {
+async function lock(tx: Tx, scope: string, key: string) {
   await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${scope}), hashtext(${key}))`)
 }
 
 /** Runs the decision on the caller's transaction (already holding the locks). */
-async function decideSignIn(tx: Db, email: string, clientAddress: string, now: Date): Promise<RateDecision> {
+async function decideSignIn(tx: Db | Tx, email: string, clientAddress: string, now: Date): Promise<RateDecision> {
   const e = env()
   const windowMs = e.SIGNIN_WINDOW_MINUTES * 60_000
   const windowStart = new Date(now.getTime() - windowMs)
@@ -118,8 +118,7 @@ export async function beginSignInAttempt(
   clientAddress: string,
   now = new Date(),
 ): Promise<SignInGate> {
-  return database.transaction(async (t) => {
-    const tx = t as unknown as Db
+  return database.transaction(async (tx) => {
     // Always e-mail first, then address: one order, so two tries never wait on each other in a circle.
     await lock(tx, 'sign-in-email', email)
     await lock(tx, 'sign-in-address', clientAddress)
@@ -160,8 +159,7 @@ export async function claimResetRequest(
   now = new Date(),
 ): Promise<RateDecision> {
   const e = env()
-  return database.transaction(async (t) => {
-    const tx = t as unknown as Db
+  return database.transaction(async (tx) => {
     await lock(tx, 'reset-email', email)
     await lock(tx, 'reset-address', clientAddress)
     const since = new Date(now.getTime() - RESET_WINDOW_MS)

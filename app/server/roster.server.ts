@@ -12,7 +12,8 @@ import { and, asc, eq, inArray, isNotNull, isNull, ne, or, sql } from 'drizzle-o
 import { nanoid } from 'nanoid'
 import { roleLabels, type CourseRole } from '#app/domain/permissions.ts'
 import { INVITATION_DAYS } from './access-links.server.ts'
-import type { Db } from './db/client.server.ts'
+import type { Db, Tx } from './db/client.server.ts'
+import { isUniqueViolation } from './db/pg-errors.server.ts'
 import {
   accessTokens,
   auditEvents,
@@ -230,13 +231,6 @@ export type ImportOutcome =
       newSections: string[]
     }
   | { ok: false; plan: RosterPlan; formError: string }
-
-function isUniqueViolation(e: unknown): boolean {
-  for (let err: unknown = e; err && typeof err === 'object'; err = (err as { cause?: unknown }).cause) {
-    if ((err as { code?: string }).code === '23505') return true
-  }
-  return false
-}
 
 /**
  * Imports the class list in one transaction. The plan is made again inside it (the file is
@@ -666,7 +660,7 @@ export async function listRoster(
 
 export type RosterChange = { ok: true; message: string } | { ok: false; message: string }
 
-async function studentOf(tx: Db, courseId: number, userId: number) {
+async function studentOf(tx: Db | Tx, courseId: number, userId: number) {
   const [row] = await tx
     .select({
       id: memberships.id,
@@ -694,7 +688,7 @@ export async function setDropped(
 ): Promise<RosterChange> {
   const now = input.now ?? new Date()
   return database.transaction(async (tx) => {
-    const student = await studentOf(tx as unknown as Db, input.courseId, input.userId)
+    const student = await studentOf(tx, input.courseId, input.userId)
     if (!student)
       return {
         ok: false as const,
@@ -768,7 +762,7 @@ export async function listSections(database: Db, courseId: number): Promise<Sect
 }
 
 /** Section names students carry that the course has not set up as sections (from before sections existed). */
-export async function listLooseSectionNames(database: Db, courseId: number): Promise<string[]> {
+export async function listLooseSectionNames(database: Db | Tx, courseId: number): Promise<string[]> {
   const rows = await database
     .selectDistinct({ name: memberships.section })
     .from(memberships)
@@ -799,7 +793,7 @@ export function checkSectionName(raw: string): { ok: true; name: string } | { ok
   return { ok: true, name }
 }
 
-async function sectionNamed(tx: Db, courseId: number, name: string, exceptId?: number) {
+async function sectionNamed(tx: Db | Tx, courseId: number, name: string, exceptId?: number) {
   const [row] = await tx
     .select({ id: courseSections.id, name: courseSections.name })
     .from(courseSections)
@@ -813,7 +807,7 @@ async function sectionNamed(tx: Db, courseId: number, name: string, exceptId?: n
   return row ?? null
 }
 
-async function audit(tx: Db, row: typeof auditEvents.$inferInsert) {
+async function audit(tx: Db | Tx, row: typeof auditEvents.$inferInsert) {
   await tx.insert(auditEvents).values(row)
 }
 
@@ -825,7 +819,7 @@ export async function createSection(
   if (!checked.ok) return checked
   return database.transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext('course-sections'), ${input.courseId})`)
-    if (await sectionNamed(tx as unknown as Db, input.courseId, checked.name))
+    if (await sectionNamed(tx, input.courseId, checked.name))
       return {
         ok: false as const,
         message: `There is already a section called “${checked.name}”.`,
@@ -834,7 +828,7 @@ export async function createSection(
       .insert(courseSections)
       .values({ courseId: input.courseId, name: checked.name })
       .returning({ id: courseSections.id })
-    await audit(tx as unknown as Db, {
+    await audit(tx, {
       actorId: input.actorId,
       courseId: input.courseId,
       kind: 'section-created',
@@ -860,7 +854,7 @@ export async function renameSection(
       .where(and(eq(courseSections.id, input.sectionId), eq(courseSections.courseId, input.courseId)))
     if (!section) return { ok: false as const, message: 'That section no longer exists.' }
     if (section.name === checked.name) return { ok: true as const, message: 'The name is unchanged.' }
-    if (await sectionNamed(tx as unknown as Db, input.courseId, checked.name, section.id))
+    if (await sectionNamed(tx, input.courseId, checked.name, section.id))
       return {
         ok: false as const,
         message: `There is already a section called “${checked.name}”.`,
@@ -871,7 +865,7 @@ export async function renameSection(
       .set({ section: checked.name })
       .where(and(eq(memberships.courseId, input.courseId), eq(memberships.section, section.name)))
       .returning({ id: memberships.id })
-    await audit(tx as unknown as Db, {
+    await audit(tx, {
       actorId: input.actorId,
       courseId: input.courseId,
       kind: 'section-renamed',
@@ -906,7 +900,7 @@ export async function deleteSection(
       .set({ section: null })
       .where(and(eq(memberships.courseId, input.courseId), eq(memberships.section, section.name)))
       .returning({ id: memberships.id })
-    await audit(tx as unknown as Db, {
+    await audit(tx, {
       actorId: input.actorId,
       courseId: input.courseId,
       kind: 'section-deleted',
@@ -931,7 +925,7 @@ export async function setStudentSection(
   },
 ): Promise<RosterChange> {
   return database.transaction(async (tx) => {
-    const student = await studentOf(tx as unknown as Db, input.courseId, input.userId)
+    const student = await studentOf(tx, input.courseId, input.userId)
     if (!student)
       return {
         ok: false as const,
@@ -957,7 +951,7 @@ export async function setStudentSection(
         message: `${student.name} is already ${name ? `in section ${name}` : 'without a section'}.`,
       }
     await tx.update(memberships).set({ section: name }).where(eq(memberships.id, student.id))
-    await audit(tx as unknown as Db, {
+    await audit(tx, {
       actorId: input.actorId,
       courseId: input.courseId,
       userId: input.userId,
@@ -1012,7 +1006,7 @@ export async function setSectionStaff(
           .where(and(eq(sectionStaff.sectionId, section.id), eq(sectionStaff.userId, input.userId)))
           .returning({ id: sectionStaff.userId })
     if (changed.length > 0)
-      await audit(tx as unknown as Db, {
+      await audit(tx, {
         actorId: input.actorId,
         courseId: input.courseId,
         userId: input.userId,
@@ -1044,7 +1038,7 @@ export async function adoptLooseSections(
 ): Promise<RosterChange> {
   return database.transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext('course-sections'), ${input.courseId})`)
-    const names = await listLooseSectionNames(tx as unknown as Db, input.courseId)
+    const names = await listLooseSectionNames(tx, input.courseId)
     if (names.length === 0)
       return {
         ok: true as const,
@@ -1054,7 +1048,7 @@ export async function adoptLooseSections(
       .insert(courseSections)
       .values(names.map((name) => ({ courseId: input.courseId, name })))
       .onConflictDoNothing()
-    await audit(tx as unknown as Db, {
+    await audit(tx, {
       actorId: input.actorId,
       courseId: input.courseId,
       kind: 'section-created',

@@ -36,6 +36,7 @@ import { renderPrompt } from '#app/domain/authoring/prompt.ts'
 import { renderWorkedSolution, workedSolution } from '#app/domain/authoring/worked-solution.ts'
 import { formatUnitForDisplay } from '#app/domain/grading/index.ts'
 import type { Db, Tx } from './db/client.server.ts'
+import { isUniqueViolation } from './db/pg-errors.server.ts'
 import { assignmentItems, assignments, courses, extensions, partResults, submissions } from './db/schema.server.ts'
 import { frozenDefinitions, studentVariant } from './grading.server.ts'
 import { DROPPED_SUBMIT_MESSAGE, droppedFrom } from './membership-state.server.ts'
@@ -296,12 +297,12 @@ async function myResultsAndParts(
     pending: finds.some((f) => f.state === 'grading'),
     score: Math.round(finds.reduce((a, f) => a + f.score, 0) * 1e6) / 1e6,
     points: item.points,
-    lastTyped: (subs[0]?.answers as Record<string, string> | undefined) ?? {},
+    lastTyped: subs[0]?.answers ?? {},
   }
   return {
     results,
     parts,
-    latest: subs[0] ? { id: subs[0].id, answers: subs[0].answers as Record<string, string> } : null,
+    latest: subs[0] ? { id: subs[0].id, answers: subs[0].answers } : null,
   }
 }
 
@@ -522,7 +523,7 @@ async function answerRepeat(
   stored: NonNullable<Awaited<ReturnType<typeof pressWithToken>>>,
   typed: Record<string, string>,
 ): Promise<SubmitResult> {
-  const answers = stored.answers as Record<string, string>
+  const answers = stored.answers
   if (stored.itemId !== item.itemId) {
     return {
       ok: false,
@@ -546,11 +547,7 @@ async function answerRepeat(
 }
 
 function isFormTokenClash(e: unknown): boolean {
-  for (let c: unknown = e; c && typeof c === 'object'; c = (c as { cause?: unknown }).cause) {
-    const pgError = c as { code?: string; constraint?: string }
-    if (pgError.code === '23505' && pgError.constraint === 'submissions_user_form_token_idx') return true
-  }
-  return false
+  return isUniqueViolation(e, 'submissions_user_form_token_idx')
 }
 
 /**

@@ -39,11 +39,13 @@ const PG_MESSAGES = [
  */
 export function isDatabaseUnavailable(error: unknown, depth = 0): boolean {
   if (depth > 5 || typeof error !== 'object' || error === null) return false
-  const e = error as { code?: unknown; message?: unknown; cause?: unknown; errors?: unknown }
-  if (typeof e.code === 'string' && (NETWORK_CODES.has(e.code) || POSTGRES_CODES.test(e.code))) return true
-  if (typeof e.message === 'string' && PG_MESSAGES.some((m) => m.test(e.message as string))) return true
-  if (Array.isArray(e.errors) && e.errors.some((inner) => isDatabaseUnavailable(inner, depth + 1))) return true
-  return isDatabaseUnavailable(e.cause, depth + 1)
+  const code: unknown = Reflect.get(error, 'code')
+  const message: unknown = Reflect.get(error, 'message')
+  const errors: unknown = Reflect.get(error, 'errors')
+  if (typeof code === 'string' && (NETWORK_CODES.has(code) || POSTGRES_CODES.test(code))) return true
+  if (typeof message === 'string' && PG_MESSAGES.some((m) => m.test(message))) return true
+  if (Array.isArray(errors) && errors.some((inner) => isDatabaseUnavailable(inner, depth + 1))) return true
+  return isDatabaseUnavailable(Reflect.get(error, 'cause'), depth + 1)
 }
 
 /** Seconds a client is told to wait before trying again (the Retry-After header). */
