@@ -111,15 +111,15 @@ export function secondLaw(
 ): SecondLaw | Failure {
   const TH = spec.reservoirs?.hot
   const TC = spec.reservoirs?.cold
-  for (const [T, key] of [
-    [TH, 'hot'],
-    [TC, 'cold'],
-  ] as const) {
-    if (T !== undefined && !(Number.isFinite(T) && T > 0))
-      return fail('invalid-input', 'reservoir temperatures must be positive, hot above cold', {
-        property: `reservoirs.${key}`,
-      })
-  }
+  // (plain ifs and object literals below, no spreads or closures: this runs on every solve)
+  if (TH !== undefined && !(Number.isFinite(TH) && TH > 0))
+    return fail('invalid-input', 'reservoir temperatures must be positive, hot above cold', {
+      property: 'reservoirs.hot',
+    })
+  if (TC !== undefined && !(Number.isFinite(TC) && TC > 0))
+    return fail('invalid-input', 'reservoir temperatures must be positive, hot above cold', {
+      property: 'reservoirs.cold',
+    })
   if (TH !== undefined && TC !== undefined && !(TH > TC))
     return fail('invalid-input', 'reservoir temperatures must be positive, hot above cold', {
       property: 'reservoirs',
@@ -127,8 +127,8 @@ export function secondLaw(
   const isEngine = first.purpose === 'engine'
   const N = energies.length
   const R = gas.R
-  const S = `J/(${gas.basis === 'mass' ? 'kg' : 'mol'} K)`
-  const E = `J/${gas.basis === 'mass' ? 'kg' : 'mol'}`
+  const S = gas.basis === 'mass' ? 'J/(kg K)' : 'J/(mol K)'
+  const E = gas.basis === 'mass' ? 'J/kg' : 'J/mol'
   const warnings: SolveWarning[] = []
   const steps: StepResult[] = new Array(N)
   // Σ q/T_b over the external heat steps, and Σ |q/T_b| for the rounding scale
@@ -169,11 +169,20 @@ export function secondLaw(
       }
     }
     steps[k] = {
-      ...e,
+      from: e.from,
+      to: e.to,
+      process: e.process,
+      label: e.label,
+      q,
+      w: e.w,
+      du: e.du,
+      dh: e.dh,
+      ds,
+      internal: e.internal,
       boundaryTemperature: Tb,
       entropyGenerated: sgen,
       exergyDestroyed: dead && sgen !== null ? dead.T * sgen : null,
-      ...(partnerStep === undefined ? {} : { partnerStep }),
+      partnerStep,
     }
     // negative entropy generation (each regenerator once, at its first step)
     if (sgen === null || (e.internal && s.partner! < k)) continue
@@ -216,7 +225,9 @@ export function secondLaw(
     }
     warnings.push({ code: 'negative-entropy-generation', message, step: k + 1 })
   }
-  regeneratorWarnings(spec, gas, states, energies, warnings)
+  let anyRegenerator = false
+  for (let k = 0; k < N; k++) if (energies[k]!.internal) anyRegenerator = true
+  if (anyRegenerator) regeneratorWarnings(spec, gas, states, energies, warnings)
 
   // Per cycle Δs = 0, so Σ s_gen over the steps (each regenerator once) = −Σ q/T_b.
   const entropyGenerated = complete ? -sumQoverT : null

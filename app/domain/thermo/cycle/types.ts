@@ -148,8 +148,8 @@ export interface StepResult {
   readonly entropyGenerated: number | null
   /** Exergy destroyed, T0·s_gen, per unit amount; null without a dead state or s_gen. */
   readonly exergyDestroyed: number | null
-  /** regenerator steps: the 1-based number of the step on the other side of the exchanger */
-  readonly partnerStep?: number
+  /** regenerator steps: the 1-based number of the step on the other side of the exchanger (else undefined) */
+  readonly partnerStep: number | undefined
 }
 
 export interface CycleTotals {
