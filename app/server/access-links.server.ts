@@ -58,13 +58,15 @@ export async function inviteToCourse(
 
 export type LinkProblem = 'unknown' | 'used' | 'expired' | 'revoked'
 
+const refused = (problem: LinkProblem) => ({ ok: false as const, problem })
+
 export async function findAccessLink(
   database: Db,
   token: string,
   purpose: 'invitation' | 'password-reset',
   now = new Date(),
 ) {
-  if (!/^[A-Za-z0-9_-]{10,64}$/.test(token)) return { ok: false as const, problem: 'unknown' as LinkProblem }
+  if (!/^[A-Za-z0-9_-]{10,64}$/.test(token)) return refused('unknown')
   const [row] = await database
     .select({
       id: accessTokens.id,
@@ -80,10 +82,10 @@ export async function findAccessLink(
     .from(accessTokens)
     .leftJoin(courses, eq(courses.id, accessTokens.courseId))
     .where(and(eq(accessTokens.token, token), eq(accessTokens.purpose, purpose)))
-  if (!row) return { ok: false as const, problem: 'unknown' as LinkProblem }
-  if (row.revokedAt) return { ok: false as const, problem: 'revoked' as LinkProblem }
-  if (row.usedAt) return { ok: false as const, problem: 'used' as LinkProblem }
-  if (row.expiresAt <= now) return { ok: false as const, problem: 'expired' as LinkProblem }
+  if (!row) return refused('unknown')
+  if (row.revokedAt) return refused('revoked')
+  if (row.usedAt) return refused('used')
+  if (row.expiresAt <= now) return refused('expired')
   const [existing] = await database
     .select({ id: users.id, name: users.name, hasPassword: users.passwordHash })
     .from(users)
