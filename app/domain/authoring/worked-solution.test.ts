@@ -743,3 +743,33 @@ test.each(['engineering', 'chemistry'] as const)(
     }
   },
 )
+
+describe('workedSolution: second law with boundary temperatures and a dead state', () => {
+  // docs/examples/second-law-brayton.json: the combustor's heat crosses a boundary at 1800 K and
+  // the rejected heat one at 298.15 K. Expected numbers recomputed here from the solution's own
+  // states (s_gen,k = Δs_k − q_k/T_b), not from the solver's second-law outputs.
+  const spec = JSON.parse(
+    readFileSync(join(import.meta.dirname, '../../../docs/examples/second-law-brayton.json'), 'utf8'),
+  ) as Record<string, unknown>
+  const variant = variantOf(spec, [], () => [])
+  const sol = variant.solution
+  if (!isIdealGasSolution(sol)) throw new Error('not an ideal-gas solution')
+  const ws = workedSolution(variant, definition([], { kind: 'cycle', cycle: {} }))
+  const fourSf = (x: number) => Number(x.toPrecision(4))
+
+  test('each step with a boundary temperature gets its own line, Δs − q/T_b in kJ/(kg K)', () => {
+    const combustor = sol.steps[1]!
+    const expected = (combustor.dS.value - combustor.q.value / 1800) / 1000
+    expect(lastNumber(line(ws, 'Cycle totals', 's_{\\mathrm{gen},2\\to 3}'))).toBe(fourSf(expected))
+  })
+
+  test('the cycle’s total is minus the sum of q over T_b, and exergy destroyed is T0 times it', () => {
+    const sgen = -(sol.steps[1]!.q.value / 1800 + sol.steps[3]!.q.value / 298.15) / 1000
+    expect(lastNumber(line(ws, 'Cycle totals', 's_{\\mathrm{gen}} = -\\sum'))).toBe(fourSf(sgen))
+    expect(lastNumber(line(ws, 'Cycle totals', 'x_{\\mathrm{dest}}'))).toBe(fourSf(298.15 * sgen))
+  })
+
+  test('no line speaks of sink and source temperatures when the steps name their own', () => {
+    expect(section(ws, 'Cycle totals').lines.some((l) => l.tex.includes('T_{\\mathrm{sink}}'))).toBe(false)
+  })
+})

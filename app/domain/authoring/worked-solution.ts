@@ -499,10 +499,41 @@ function totalsSection(ctx: Ctx, template: string | undefined): WorkedSection {
       tex: `\\mathrm{bwr} = \\frac{${sym.W('\\mathrm{comp,in}')}}{${sym.W('\\mathrm{turb,out}')}} = ${n4(t.backWorkRatio.value)}`,
       note: 'back work ratio',
     })
-  if (t.entropyGenerated !== null)
+  const boundaries = sol.steps.filter((st) => st.boundaryTemperature !== null)
+  if (t.entropyGenerated !== null && boundaries.length > 0) {
+    // Some step states the temperature of the boundary its heat crosses: the solver's sum is
+    // over the steps (Δs of the gas closes to zero over the cycle), so the explanation is too.
+    for (const st of sol.steps) {
+      if (st.entropyGenerated === null || st.boundaryTemperature === null) continue
+      const name = `${st.from}\\to ${st.to}`
+      lines.push({
+        tex: `s_{\\mathrm{gen},${name}} = \\Delta s_{${name}} - \\frac{q_{${name}}}{T_b} = ${n4(u.s(st.dS.value))} - \\frac{${n4(u.s(st.q.value))}}{${n4(st.boundaryTemperature.value)}} = ${q4(u.s(snap(st.entropyGenerated.value, 1e3)), u.entropy)}`,
+        note: `entropy generated in step ${st.from}→${st.to}, its heat crossing a boundary at ${n4(st.boundaryTemperature.value)} K`,
+      })
+    }
+    lines.push({
+      tex: `s_{\\mathrm{gen}} = -\\sum_k \\frac{q_k}{T_{b,k}} = ${q4(u.s(snap(t.entropyGenerated.value, 1e3)), u.entropy)}`,
+      note: 'entropy generated per cycle: each step’s heat over the temperature of the boundary it crosses',
+    })
+  } else if (t.entropyGenerated !== null)
     lines.push({
       tex: `s_{\\mathrm{gen}} = \\frac{${sym.Q('\\mathrm{out}')}}{T_{\\mathrm{sink}}} - \\frac{${sym.Q('\\mathrm{in}')}}{T_{\\mathrm{source}}} = ${q4(u.s(snap(t.entropyGenerated.value, 1e3)), u.entropy)}`,
       note: 'entropy generated per cycle with the given reservoirs',
+    })
+  if (t.exergyDestroyed !== null && t.entropyGenerated !== null && sol.deadState !== null)
+    // u.s shows an entropy in the units its product with a temperature should be read in
+    // (kJ/kg per mass, J/mol per mole), so the product is shown in those units.
+    lines.push({
+      tex: `x_{\\mathrm{dest}} = T_0\\, s_{\\mathrm{gen}} = ${n4(sol.deadState.T.value)} \\times ${n4(u.s(t.entropyGenerated.value))} = ${q4(u.s(snap(t.exergyDestroyed.value, 1e3)), sol.gas.basis === 'mass' ? 'kJ/kg' : 'J/mol')}`,
+      note: 'exergy destroyed per cycle, with the dead-state temperature T₀',
+    })
+  if (t.secondLawEfficiency !== null)
+    lines.push({
+      tex: `\\eta_{\\mathrm{II}} = ${n4(t.secondLawEfficiency.value)}`,
+      note:
+        t.purpose === 'engine'
+          ? 'second-law efficiency: the thermal efficiency over the Carnot efficiency between the reservoirs'
+          : 'second-law efficiency: the COP over the reversible COP between the reservoirs',
     })
   if (sol.amount && t.total) {
     const amountUnit = sol.amount.unit
