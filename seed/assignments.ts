@@ -28,6 +28,7 @@ import {
   type NewAssignment,
 } from '#app/server/db/schema.server.ts'
 import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { readDefinition } from '#app/server/definitions.server.ts'
 import { freezeProblemVersion } from '#app/server/problems.server.ts'
 import { submitAnswers } from '#app/server/submissions.server.ts'
 import type { DemoOwner } from './problems.ts'
@@ -304,7 +305,7 @@ export async function seedDemoAssignments(
       position: i + 1,
       problemId: v.problemId,
       versionId: v.versionId,
-      definition: v.definition as ProblemDefinition,
+      definition: readDefinition(v.definition, v.versionId),
     }))
     // The window the demo answers fall in: from opening to the seed's now, or to the end of
     // the late days for a past assignment (a few students answer late).

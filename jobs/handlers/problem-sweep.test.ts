@@ -2,9 +2,10 @@ import { describe, expect, test } from 'vitest'
 import type { ProblemDefinition, SweepFailure, SweepSummary } from '#app/domain/authoring/definition.ts'
 import type { Db } from '#app/server/db/client.server.ts'
 import { PermanentJobError } from '#app/server/queue.server.ts'
+import { DEMO_PROBLEMS } from '#seed/problems.ts'
 import { handleProblemSweep, SWEEP_KEEP_FAILURES } from './problem-sweep.ts'
 
-type Row = { status: 'queued' | 'running' | 'done' | 'failed'; total: number; definition: unknown }
+type Row = { status: 'queued' | 'running' | 'done' | 'failed'; total: number; versionId?: number; definition: unknown }
 
 /** Just enough of Drizzle for the handler: one select of the sweep, and updates recorded in order. */
 function fakeDatabase(row: Row | null) {
@@ -22,7 +23,9 @@ function fakeDatabase(row: Row | null) {
   return { database, updates }
 }
 
-const definition = { convention: 'course' } as unknown as ProblemDefinition
+// A real bank document (the handler reads it through the stored-definition check), in the
+// course's convention.
+const definition: ProblemDefinition = { ...DEMO_PROBLEMS[0]!.definition, convention: 'course' }
 
 /** A sweep that fails every seed divisible by 3 and records what it was asked. */
 function fakeSweep() {
@@ -77,7 +80,11 @@ describe('handleProblemSweep', () => {
   })
 
   test('a chemistry problem is checked in the chemistry convention', async () => {
-    const { database } = fakeDatabase({ status: 'queued', total: 10, definition: { convention: 'chemistry' } })
+    const { database } = fakeDatabase({
+      status: 'queued',
+      total: 10,
+      definition: { ...definition, convention: 'chemistry' },
+    })
     const { sweep, calls } = fakeSweep()
     await handleProblemSweep({ v: 1, sweepId: 1 }, { database, sweep })
     expect(calls.map((c) => c.convention)).toEqual(['chemistry'])
@@ -196,5 +203,23 @@ describe('handleProblemSweep', () => {
     )
     expect(updates.map((u) => u.status ?? 'progress')).toEqual(['running', 'progress', 'failed'])
     expect(updates.at(-1)!.error).toBe('The check stopped: solver blew up')
+  })
+})
+
+describe('handleProblemSweep with a stored document that fails the definition check', () => {
+  test('marks the check failed with a plain reason, sweeps nothing and is not retried', async () => {
+    const { database, updates } = fakeDatabase({
+      status: 'queued',
+      total: 60,
+      versionId: 41,
+      definition: { format: 2, title: 'changed by hand', finds: 'none' },
+    })
+    const { sweep, calls } = fakeSweep()
+    expect(await handleProblemSweep({ v: 1, sweepId: 7 }, { database, sweep })).toBe('unreadable')
+    expect(calls).toEqual([])
+    expect(updates).toHaveLength(1)
+    expect(updates[0]).toMatchObject({ status: 'failed' })
+    expect(String(updates[0]!.error)).not.toMatch(/\bat \w+ \(|node_modules/)
+    expect(String(updates[0]!.error).length).toBeGreaterThan(10)
   })
 })

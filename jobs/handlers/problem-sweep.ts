@@ -9,11 +9,12 @@
  * retry the row is 'queued' again, with the reason in `error`; 'failed' means no retry is left.
  */
 import { eq } from 'drizzle-orm'
-import type { ProblemDefinition, SweepFailure } from '#app/domain/authoring/definition.ts'
+import type { SweepFailure } from '#app/domain/authoring/definition.ts'
 import { sweepVariants } from '#app/domain/authoring/sweep.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
 import type { Db } from '#app/server/db/client.server.ts'
 import { problemSweeps, problemVersions } from '#app/server/db/schema.server.ts'
+import { tryReadDefinition } from '#app/server/definitions.server.ts'
 import { PermanentJobError, queuePayloads } from '#app/server/queue.server.ts'
 
 /** Failures stored per sweep; `failed` still counts all of them. */
@@ -35,7 +36,7 @@ export type ProblemSweepDeps = {
 
 export type SweepAttempt = { readonly number: number; readonly of: number }
 
-export type ProblemSweepOutcome = 'done' | 'already-done' | 'missing'
+export type ProblemSweepOutcome = 'done' | 'already-done' | 'missing' | 'unreadable'
 
 /** The first line of an error, short and without a stack, since authors read it. */
 function reason(e: unknown): string {
@@ -72,7 +73,12 @@ export async function handleProblemSweep(payload: unknown, deps: ProblemSweepDep
   const chunk = Math.max(1, Math.floor(deps.chunk ?? SWEEP_CHUNK))
 
   const [row] = await database
-    .select({ status: problemSweeps.status, total: problemSweeps.total, definition: problemVersions.definition })
+    .select({
+      status: problemSweeps.status,
+      total: problemSweeps.total,
+      versionId: problemVersions.id,
+      definition: problemVersions.definition,
+    })
     .from(problemSweeps)
     .innerJoin(problemVersions, eq(problemVersions.id, problemSweeps.problemVersionId))
     .where(eq(problemSweeps.id, sweepId))
@@ -81,6 +87,17 @@ export async function handleProblemSweep(payload: unknown, deps: ProblemSweepDep
   if (row.status === 'done') return 'already-done'
 
   const where = eq(problemSweeps.id, sweepId)
+  // A stored document that fails the definition check can never be swept: say so on the row
+  // (the author reads it in the picker and the check panel) instead of retrying.
+  const read = tryReadDefinition(row.definition, row.versionId)
+  if (!read.ok) {
+    await database
+      .update(problemSweeps)
+      .set({ status: 'failed', finishedAt: new Date(), error: read.error.message })
+      .where(where)
+    return 'unreadable'
+  }
+  const definition = read.definition
   try {
     await database
       .update(problemSweeps)
@@ -94,7 +111,6 @@ export async function handleProblemSweep(payload: unknown, deps: ProblemSweepDep
         failures: [],
       })
       .where(where)
-    const definition = row.definition as ProblemDefinition
     // A bank problem belongs to no course, so 'course' has none to take; the check does
     // not depend on the convention except for signs, and engineering is the common one.
     const convention: Convention = definition.convention === 'chemistry' ? 'chemistry' : 'engineering'

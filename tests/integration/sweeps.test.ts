@@ -1,5 +1,5 @@
 import { eq, sql } from 'drizzle-orm'
-import { afterAll, beforeAll, expect, test } from 'vitest'
+import { afterAll, beforeAll, expect, onTestFinished, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { problems, problemSweeps, problemVersions } from '#app/server/db/schema.server.ts'
@@ -227,8 +227,23 @@ test('the worker fails a malformed job at once, without retries, into the dead-l
 
 test('between a failed attempt and its retry the sweep says a retry is coming; after the last attempt it is failed', async () => {
   const { ownerId, versionId } = await makeVersion(carnot)
-  // A definition the handler cannot read makes every attempt throw once the sweep is running.
-  await db().execute(sql`update problem_versions set definition = 'null'::jsonb where id = ${versionId}`)
+  // A database that refuses to mark this sweep running makes every attempt throw (a stand-in
+  // for an outage in the middle of a check); the handler's own writes of the outcome still pass.
+  await db().execute(
+    sql.raw(`create function refuse_running() returns trigger language plpgsql as $$
+      begin
+        if new.status = 'running' then raise exception 'refused for the test'; end if;
+        return new;
+      end $$`),
+  )
+  await db().execute(
+    sql.raw(
+      `create trigger refuse_running before update on problem_sweeps for each row execute function refuse_running()`,
+    ),
+  )
+  onTestFinished(async () => {
+    await db().execute(sql.raw('drop trigger refuse_running on problem_sweeps; drop function refuse_running()'))
+  })
   const [row] = await db()
     .insert(problemSweeps)
     .values({ problemVersionId: versionId, requestedBy: ownerId, total: 10 })
@@ -263,6 +278,25 @@ test('between a failed attempt and its retry the sweep says a retry is coming; a
   await expect.poll(() => workerErrors.length, { timeout: 10_000 }).toBeGreaterThanOrEqual(2)
   expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed (attempt 1 of 2)`))
   expect(workerErrors).toContainEqual(expect.stringContaining(`${jobId} failed (attempt 2 of 2)`))
+})
+
+test('a stored definition that fails the definition check fails the check at once, with the reason, and is not retried', async () => {
+  const { ownerId, versionId } = await makeVersion(carnot)
+  await db().execute(sql`update problem_versions set definition = 'null'::jsonb where id = ${versionId}`)
+  const [row] = await db()
+    .insert(problemSweeps)
+    .values({ problemVersionId: versionId, requestedBy: ownerId, total: 10 })
+    .returning()
+  const boss = await getBoss()
+  const jobId = await boss.send('problem-sweep', { v: 1, sweepId: row!.id }, { retryLimit: 3, retryDelay: 1 })
+  expect(jobId).not.toBeNull()
+  await expect.poll(async () => (await getSweep(db(), row!.id))?.status, { timeout: 30_000 }).toBe('failed')
+  const view = await getSweep(db(), row!.id)
+  expect(view?.error).toMatch(/version/i)
+  expect(view?.checked).toBe(0)
+  await expect
+    .poll(async () => boss.getJobById('problem-sweep', jobId!), { timeout: 10_000 })
+    .toMatchObject({ state: 'completed', retryCount: 0 })
 })
 
 test('a job enqueued inside a transaction that rolls back is never sent', async () => {
