@@ -31,7 +31,7 @@ import { PITFALLS } from '#app/domain/grading/pitfalls.ts'
 import { formatInZone } from '#app/lib/dates.ts'
 import { formatPoints } from '#app/lib/points.ts'
 import type { Db, Tx } from './db/client.server.ts'
-import { readDefinition } from './definitions.server.ts'
+import { tryReadDefinition } from './definitions.server.ts'
 import {
   assignmentItems,
   assignments,
@@ -172,7 +172,10 @@ async function listItems(
     .where(inArray(assignmentItems.assignmentId, assignmentIds))
     .orderBy(asc(assignmentItems.assignmentId), asc(assignmentItems.position))
   return rows.map((r) => {
-    const def = readDefinition(r.definition, r.versionId)
+    // A version whose stored document fails the check (logged by the reader) keeps its column and
+    // its scores, without per-find columns, rather than taking the whole gradebook down.
+    const read = tryReadDefinition(r.definition, r.versionId)
+    const def = read.ok ? read.definition : { title: `Unreadable problem (version ${r.versionId})`, finds: [] }
     const shares = findShares(
       r.points,
       def.finds.map((f) => f.points),

@@ -11,7 +11,7 @@
  * - S3: T2 waiting for the grader → being graded.
  * - S4: nothing → not started.
  */
-import { and, eq } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
 import { beforeAll, describe, expect, test } from 'vitest'
 import { loader as assignmentGradebookLoader } from '#app/routes/resources/api-assignment-gradebook.ts'
 import { loader as courseGradebookLoader } from '#app/routes/resources/api-course-gradebook.ts'
@@ -573,5 +573,26 @@ describe('the staff pages', () => {
       ),
     )
     expect('thrown' in out && (out.thrown as { init?: { status?: number } }).init?.status).toBe(404)
+  })
+})
+
+describe('a problem version whose stored document fails the definition check', () => {
+  test('keeps its column in the gradebook, named as unreadable, instead of taking the page down', async () => {
+    const made = await createCourseWithAssignment(db(), [otto], { students: 1 })
+    const [item] = await db()
+      .select({ versionId: assignmentItems.problemVersionId })
+      .from(assignmentItems)
+      .where(eq(assignmentItems.id, made.items[0]!.id))
+    await db().execute(sql`update problem_versions set definition = 'null'::jsonb where id = ${item!.versionId}`)
+    const { status, body } = await getJson<AssignmentGradebook>(
+      assignmentGradebookLoader,
+      `/api/assignments/${made.assignment.id}/gradebook`,
+      { assignmentId: String(made.assignment.id) },
+      await sessionCookie(made.instructor),
+    )
+    expect(status).toBe(200)
+    expect(body.items.map((i) => [i.title, i.finds.length])).toEqual([
+      [`Unreadable problem (version ${item!.versionId})`, 0],
+    ])
   })
 })
