@@ -6,14 +6,14 @@
  * issues by dotted path; nothing here throws for bad input.
  */
 import type { Convention } from '#app/domain/thermo/index.ts'
-import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { cycleDiagrams } from '#app/domain/authoring/diagrams.ts'
 import { lintDefinition } from '#app/domain/authoring/lint.ts'
 import { renderPrompt } from '#app/domain/authoring/prompt.ts'
 import { checkVariantSanity } from '#app/domain/authoring/sweep.ts'
 import { drawVariant, resolveConvention } from '#app/domain/authoring/variant.ts'
 import { renderWorkedSolution, workedSolution } from '#app/domain/authoring/worked-solution.ts'
-import { definitionIssues } from '#app/lib/problem-schema.ts'
+import { parseDefinition } from '#app/lib/problem-schema.ts'
+import { controlCharIssues } from '#app/lib/text-field.ts'
 import { PREVIEW_SEEDS, type PreviewResult, type PreviewVariant } from '#app/lib/preview.ts'
 
 export interface PreviewOptions {
@@ -26,9 +26,14 @@ export interface PreviewOptions {
 export const MAX_PREVIEW_SEEDS = 6
 
 export function previewProblem(raw: unknown, options: PreviewOptions = {}): PreviewResult {
-  const shape = definitionIssues(raw)
-  if (shape.length > 0) return { issues: shape, variants: [] }
-  const def = raw as ProblemDefinition
+  // Checked first, with the words of a preview (the draft is not shown back without its NULs).
+  const control = controlCharIssues(raw, () => 'this text')
+  if (control.length > 0) return { issues: control, variants: [] }
+  // The draft is parsed, not trusted: what is drawn is the definition saving would store
+  // (upgraded from format 1, trimmed), and every shape problem comes back as a message.
+  const parsed = parseDefinition(raw)
+  if (!parsed.ok) return { issues: parsed.issues, variants: [] }
+  const def = parsed.value
   let issues: { path: string; message: string }[]
   try {
     issues = lintDefinition(def)

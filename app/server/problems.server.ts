@@ -23,13 +23,39 @@ import {
 } from '#app/lib/problem-schema.ts'
 import { readPageParam, readTextParam, type ParamProblem } from '#app/lib/query-params.ts'
 import type { Db, Tx } from './db/client.server.ts'
-import { readDefinition, tryReadDefinition } from './definitions.server.ts'
+import { tryReadDefinition, type StoredDefinitionProblem } from './definitions.server.ts'
 import { problems, problemVersions, users, type ProblemVisibility } from './db/schema.server.ts'
+import { PageError } from './error-page.server.ts'
 import type { SignedInUser } from './users.server.ts'
 
 type Database = Db | Tx
 
 export type BankViewer = { id: number; isAdmin: boolean; departmentId: number | null }
+
+/**
+ * The version asked for has a stored document that fails the definition check
+ * (definitions.server.ts), so it cannot be copied or used; the message names the version and
+ * what can be done instead. Status 422: the request is understood, the stored version is not.
+ */
+export class UnreadableVersionError extends PageError {
+  constructor(
+    readonly versionNumber: number,
+    what: 'copied' | 'used',
+  ) {
+    super(unreadableVersionMessage(versionNumber, what), 422)
+    this.name = 'UnreadableVersionError'
+  }
+}
+
+/** What a person is told about an unreadable version: which one, and what to do instead. */
+export function unreadableVersionMessage(versionNumber: number, what: 'shown' | 'copied' | 'used'): string {
+  return (
+    `Version ${versionNumber} of this problem cannot be ${what}: its stored definition does not pass the problem check ` +
+    '(it was changed outside Cyclewright or saved under older rules). Nothing was changed. Open another version of the ' +
+    'problem; its owner can edit the problem from a version that reads, which saves a readable version, or an ' +
+    'administrator can restore this one from a backup.'
+  )
+}
 
 /** The problem is missing, not visible to the viewer, or not theirs to change. */
 export class ProblemAccessError extends Error {
@@ -250,8 +276,11 @@ export type VersionInfo = {
   createdAt: string
   frozenAt: string | null
   createdByName: string
-  definition: ProblemDefinition
-}
+} & (
+  | { definition: ProblemDefinition; unreadable: null }
+  /** The stored document fails the definition check (definitions.server.ts): the version is listed, not shown. */
+  | { definition: null; unreadable: StoredDefinitionProblem }
+)
 
 export type ProblemDetail = {
   id: number
@@ -295,14 +324,18 @@ type VersionRow = {
 }
 
 function toVersionInfo(r: VersionRow): VersionInfo {
-  return {
+  const meta = {
     id: r.id,
     number: r.number,
     createdAt: r.createdAt.toISOString(),
     frozenAt: r.frozenAt ? r.frozenAt.toISOString() : null,
     createdByName: r.createdByName,
-    definition: readDefinition(r.definition, r.id),
   }
+  // One unreadable version must not take the others (or the problem's page) down with it.
+  const read = tryReadDefinition(r.definition, r.id)
+  return read.ok
+    ? { ...meta, definition: read.definition, unreadable: null }
+    : { ...meta, definition: null, unreadable: read.error }
 }
 
 async function findProblem(database: Database, problemId: number) {
@@ -516,7 +549,7 @@ export async function freezeProblemVersion(database: Database, versionId: number
 
 async function latestVersionOf(database: Database, problemId: number) {
   const [row] = await database
-    .select({ id: problemVersions.id, definition: problemVersions.definition })
+    .select({ id: problemVersions.id, number: problemVersions.number, definition: problemVersions.definition })
     .from(problemVersions)
     .where(eq(problemVersions.problemId, problemId))
     .orderBy(desc(problemVersions.number))
@@ -535,7 +568,9 @@ export async function copyProblem(
   return database.transaction(async (tx) => {
     const latest = await latestVersionOf(tx, problemId)
     if (!latest) throw new ProblemAccessError()
-    const definition = readDefinition(latest.definition, latest.id)
+    const read = tryReadDefinition(latest.definition, latest.id)
+    if (!read.ok) throw new UnreadableVersionError(latest.number, 'copied')
+    const definition = read.definition
     const made = await insertProblem(tx, viewer, definition, {
       visibility: 'private',
       originProblemId: problemId,

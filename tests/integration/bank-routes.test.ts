@@ -121,6 +121,38 @@ describe('POST /api/preview', () => {
     expect(res.body.variants).toEqual([])
   })
 
+  test('the draft is parsed with the problem schema: unknown fields and wrong types are messages by field', async () => {
+    const { user } = await createBankUser(db())
+    const base = carnot()
+    const def = { ...base, finds: [{ ...base.finds[0]!, points: 'one', colour: 'red' }] }
+    const res = await json(
+      (await previewAction(args(postJson('/api/preview', { definition: def }, await sessionCookie(user))))) as Response,
+    )
+    expect(res.status).toBe(200)
+    expect(res.body.variants).toEqual([])
+    expect(res.body.issues).toEqual(
+      expect.arrayContaining([
+        { path: 'finds.0.colour', message: 'colour is not a field here: remove it or check its spelling.' },
+        { path: 'finds.0.points', message: expect.any(String) },
+      ]),
+    )
+  })
+
+  test('a format-1 draft is upgraded before it is drawn, as saving would store it', async () => {
+    const { user } = await createBankUser(db())
+    const old = { ...carnot(), format: 1, prompt: 'An engine runs between $T_H =$ @{Th} and 300 K.' }
+    const res = await json(
+      (await previewAction(
+        args(postJson('/api/preview', { definition: old, seeds: [5] }, await sessionCookie(user))),
+      )) as Response,
+    )
+    expect(res.body.issues).toEqual([])
+    const [variant] = res.body.variants as { ok: boolean; promptHtml: string }[]
+    expect(variant!.ok).toBe(true)
+    expect(variant!.promptHtml).not.toContain('@{Th}')
+    expect(variant!.promptHtml).toContain('<math')
+  })
+
   test('junk bodies get a JSON 400 with a message', async () => {
     const { user } = await createBankUser(db())
     const cookie = await sessionCookie(user)

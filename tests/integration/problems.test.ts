@@ -103,7 +103,7 @@ describe('versions', () => {
     expect(await versionCount(problemId)).toBe(1)
     const detail = await getProblemDetail(db(), viewer, problemId)
     expect(detail).toMatchObject({ title: 'Carnot engine: efficiency', visibility: 'installation' })
-    expect(detail?.latest.definition.title).toBe('Carnot engine: efficiency')
+    expect(detail?.latest.definition?.title).toBe('Carnot engine: efficiency')
   })
 
   test('after freezing, a save makes version 2 and leaves version 1 as it was', async () => {

@@ -73,6 +73,7 @@ describe('a bank problem on the vapour-compression template', () => {
     const { viewer } = await createBankUser(db())
     const { problemId } = await createProblem(db(), viewer, { definition: refrigerator(), visibility: 'private' })
     const stored = (await getProblemDetail(db(), viewer, problemId))!.latest.definition
+    if (!stored) throw new Error('the stored refrigerator version does not read')
     for (const convention of ['engineering', 'chemistry'] as const) {
       const drawn = drawVariant(stored, 11, { convention })
       if (!drawn.ok) throw new Error(drawn.error.message)

@@ -11,7 +11,13 @@ import { requireIdParam } from '#app/lib/params.ts'
 import { requireBankUser } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { previewProblem } from '#app/server/preview.server.ts'
-import { ProblemAccessError, bankViewerFor, copyProblem, getProblemDetail } from '#app/server/problems.server.ts'
+import {
+  ProblemAccessError,
+  UnreadableVersionError,
+  bankViewerFor,
+  copyProblem,
+  getProblemDetail,
+} from '#app/server/problems.server.ts'
 import { latestSweepForVersion, startSweep } from '#app/server/sweeps.server.ts'
 import { BankChangeError, deleteProblem, problemUsage, setProblemArchived } from '#app/server/bank-archive.server.ts'
 import type { Route } from './+types/$problemId'
@@ -34,7 +40,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const wanted = Number(url.searchParams.get('version') ?? problem.latest.number)
   const version = problem.versions.find((v) => v.number === wanted) ?? problem.latest
   const convention = url.searchParams.get('convention') === 'chemistry' ? 'chemistry' : 'engineering'
-  const preview = previewProblem(version.definition, { convention })
+  // A version whose stored document fails the definition check is named, not drawn; the rest of the page stays.
+  const preview = version.definition ? previewProblem(version.definition, { convention }) : null
   const sweep = await latestSweepForVersion(db(), version.id)
   const usage = await problemUsage(db(), problem.id)
   const confirmDelete = problem.canEdit && url.searchParams.get('confirm') === 'delete'
@@ -48,7 +55,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     usage,
     confirmDelete,
     notice,
-    cycle: cycleName(cycleOf(version.definition.physics)),
+    cycle: version.definition ? cycleName(cycleOf(version.definition.physics)) : null,
   }
 }
 
@@ -96,6 +103,7 @@ export async function action({ request, params }: Route.ActionArgs) {
         return redirect(`${href('/bank/:problemId', { problemId: String(copy.problemId) })}?copied=1`)
       } catch (e) {
         if (e instanceof ProblemAccessError) throw data('That problem is not shared with you.', { status: 404 })
+        if (e instanceof UnreadableVersionError) return data({ formError: e.message }, { status: e.status })
         throw e
       }
     }
@@ -108,7 +116,8 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
   const def = version.definition
   const busy = useNavigation().state === 'submitting'
   const isLatest = version.number === problem.latest.number
-  const fixedConvention = def.convention !== 'course'
+  const fixedConvention = def !== null && def.convention !== 'course'
+  const readable = problem.versions.filter((v) => v.definition !== null && v.number !== version.number)
   return (
     <div className="space-y-8">
       <div>
@@ -117,11 +126,13 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
         </p>
         <div className="mt-1 flex flex-wrap items-start justify-between gap-4">
           <div>
-            <h1 className="text-3xl font-semibold">{def.title}</h1>
-            <p className="mt-1 text-sm text-muted">
-              {cycle} · {difficultyLabel[def.tags.difficulty]} · {levelLabel[def.tags.level]}
-              {def.tags.topics.length > 0 ? ` · ${def.tags.topics.join(', ')}` : ''}
-            </p>
+            <h1 className="text-3xl font-semibold">{def?.title ?? problem.title}</h1>
+            {def ? (
+              <p className="mt-1 text-sm text-muted">
+                {cycle} · {difficultyLabel[def.tags.difficulty]} · {levelLabel[def.tags.level]}
+                {def.tags.topics.length > 0 ? ` · ${def.tags.topics.join(', ')}` : ''}
+              </p>
+            ) : null}
             <p className="mt-1 text-sm text-muted">
               By {problem.canEdit ? 'you' : problem.ownerName} · {visibilityLabel[problem.visibility]} · version{' '}
               {version.number}
@@ -229,8 +240,8 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
             <div className="mt-4 rounded-md border border-warn/40 bg-warn-soft p-4" data-confirm="delete">
               <p className="font-semibold text-warn">Delete this problem?</p>
               <p className="mt-1">
-                Deletes “{def.title}” with its {usage.versionCount} version{usage.versionCount === 1 ? '' : 's'} and
-                their checks; this cannot be undone.
+                Deletes “{def?.title ?? problem.title}” with its {usage.versionCount} version
+                {usage.versionCount === 1 ? '' : 's'} and their checks; this cannot be undone.
               </p>
               {formError ? (
                 <Notice tone="error" className="mt-2">
@@ -265,49 +276,61 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
         </Notice>
       ) : null}
 
-      {preview.issues.length > 0 ? (
-        <Notice tone="warn">
-          <p className="font-semibold">This version has problems to fix:</p>
-          <ul className="mt-1 list-disc pl-5">
-            {preview.issues.map((i, n) => (
-              <li key={n}>
-                <code>{i.path}</code>: {i.message}
-              </li>
-            ))}
-          </ul>
-        </Notice>
-      ) : null}
+      {preview === null ? (
+        <UnreadableVersionNotice
+          versionNumber={version.number}
+          problemId={problem.id}
+          canEdit={problem.canEdit}
+          others={readable.map((v) => v.number)}
+          latestNumber={problem.latest.number}
+        />
+      ) : (
+        <>
+          {preview.issues.length > 0 ? (
+            <Notice tone="warn">
+              <p className="font-semibold">This version has problems to fix:</p>
+              <ul className="mt-1 list-disc pl-5">
+                {preview.issues.map((i, n) => (
+                  <li key={n}>
+                    <code>{i.path}</code>: {i.message}
+                  </li>
+                ))}
+              </ul>
+            </Notice>
+          ) : null}
 
-      <section aria-labelledby="preview-title">
-        <div className="flex flex-wrap items-end justify-between gap-3">
-          <h2 id="preview-title" className="text-xl font-semibold">
-            Three variants side by side
-          </h2>
-          {fixedConvention ? (
-            <p className="text-sm text-muted">Sign convention: {def.convention} (fixed by the problem)</p>
-          ) : (
-            <Form method="get" className="flex items-end gap-2 text-sm">
-              {!isLatest ? <input type="hidden" name="version" value={version.number} /> : null}
-              <label htmlFor="preview-convention">Preview in the convention of</label>
-              <select
-                id="preview-convention"
-                name="convention"
-                defaultValue={convention}
-                className="rounded-md border border-line bg-white px-2 py-1"
-              >
-                <option value="engineering">an engineering course (ΔU = Q − W)</option>
-                <option value="chemistry">a chemistry course (ΔU = q + w)</option>
-              </select>
-              <button type="submit" className="rounded-md border border-line bg-white px-3 py-1 hover:bg-paper">
-                Show
-              </button>
-            </Form>
-          )}
-        </div>
-        <div className="mt-4">
-          <VariantPreview variants={preview.variants} />
-        </div>
-      </section>
+          <section aria-labelledby="preview-title">
+            <div className="flex flex-wrap items-end justify-between gap-3">
+              <h2 id="preview-title" className="text-xl font-semibold">
+                Three variants side by side
+              </h2>
+              {fixedConvention ? (
+                <p className="text-sm text-muted">Sign convention: {def.convention} (fixed by the problem)</p>
+              ) : (
+                <Form method="get" className="flex items-end gap-2 text-sm">
+                  {!isLatest ? <input type="hidden" name="version" value={version.number} /> : null}
+                  <label htmlFor="preview-convention">Preview in the convention of</label>
+                  <select
+                    id="preview-convention"
+                    name="convention"
+                    defaultValue={convention}
+                    className="rounded-md border border-line bg-white px-2 py-1"
+                  >
+                    <option value="engineering">an engineering course (ΔU = Q − W)</option>
+                    <option value="chemistry">a chemistry course (ΔU = q + w)</option>
+                  </select>
+                  <button type="submit" className="rounded-md border border-line bg-white px-3 py-1 hover:bg-paper">
+                    Show
+                  </button>
+                </Form>
+              )}
+            </div>
+            <div className="mt-4">
+              <VariantPreview variants={preview.variants} />
+            </div>
+          </section>
+        </>
+      )}
 
       <SweepPanel versionNumber={version.number} initial={sweep} />
 
@@ -340,7 +363,10 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
                   · {v.createdByName} · <time dateTime={v.createdAt}>{v.createdAt.slice(0, 10)}</time>
                 </span>
               </span>
-              <span className="text-muted">{v.frozenAt ? 'Frozen' : 'Editable'}</span>
+              <span className="text-muted">
+                {v.frozenAt ? 'Frozen' : 'Editable'}
+                {v.definition === null ? ' · cannot be read' : ''}
+              </span>
             </li>
           ))}
         </ol>
@@ -351,4 +377,53 @@ export default function ProblemRoute({ loaderData, actionData }: Route.Component
 
 export function ErrorBoundary() {
   return <GeneralErrorBoundary />
+}
+
+/**
+ * In place of the preview, for a version whose stored document fails the definition check:
+ * which version, why nothing is drawn, and where to go instead (links work without JavaScript).
+ */
+function UnreadableVersionNotice({
+  versionNumber,
+  problemId,
+  canEdit,
+  others,
+  latestNumber,
+}: {
+  versionNumber: number
+  problemId: number
+  canEdit: boolean
+  others: number[]
+  latestNumber: number
+}) {
+  const page = href('/bank/:problemId', { problemId: String(problemId) })
+  return (
+    <Notice tone="warn">
+      <h2 className="font-semibold">Version {versionNumber} cannot be shown</h2>
+      <p className="mt-1">
+        Its stored definition does not pass the problem check: it was changed outside Cyclewright or saved under older
+        rules. No variants can be drawn from it, and nothing has been changed.
+      </p>
+      {others.length > 0 ? (
+        <p className="mt-1">
+          Open another version:{' '}
+          {others.map((n, i) => (
+            <span key={n}>
+              {i > 0 ? ', ' : ''}
+              <Link to={n === latestNumber ? page : `${page}?version=${n}`}>version {n}</Link>
+            </span>
+          ))}
+          .
+        </p>
+      ) : (
+        <p className="mt-1">This problem has no other version that can be read.</p>
+      )}
+      <p className="mt-1">
+        {canEdit && others.length > 0
+          ? 'To restore the problem, press Edit: the form starts from the newest version that reads, and saving it gives the problem a readable newest version. '
+          : ''}
+        An administrator can also restore this version from a backup.
+      </p>
+    </Notice>
+  )
 }

@@ -29,9 +29,18 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!detail.canEdit)
     throw data('Only the owner of a problem can change it; make a copy to change your own.', { status: 403 })
   const { latest } = detail
+  // A newest version whose stored document fails the definition check cannot fill the form;
+  // the newest one that reads does, and saving it gives the problem a readable newest version.
+  const base = detail.versions.find((v) => v.definition !== null)
+  if (!base?.definition)
+    throw data(
+      `No version of this problem can be edited: their stored definitions do not pass the problem check. Nothing was changed; an administrator can restore a version from a backup.`,
+      { status: 422 },
+    )
   return {
     problem: { id: detail.id, title: detail.title, versionNumber: latest.number, frozen: latest.frozenAt !== null },
-    state: withBase(editorStateFromDefinition(latest.definition, detail.visibility), detail.updatedAt),
+    startedFrom: latest.definition === null ? { unreadable: latest.number, from: base.number } : null,
+    state: withBase(editorStateFromDefinition(base.definition, detail.visibility), detail.updatedAt),
     options: editorOptions(),
   }
 }
@@ -61,6 +70,13 @@ export default function EditProblemRoute({ loaderData, actionData }: Route.Compo
         Version {problem.versionNumber}
         {problem.frozen ? ', used in an assignment' : ''}.
       </p>
+      {loaderData.startedFrom ? (
+        <Notice tone="warn" className="mt-4">
+          Version {loaderData.startedFrom.unreadable} cannot be read (its stored definition does not pass the problem
+          check), so the form starts from version {loaderData.startedFrom.from}, the newest that reads. Saving gives the
+          problem a readable newest version.
+        </Notice>
+      ) : null}
       <div className="mt-6">
         <ProblemEditor
           key={actionData?.nonce ?? 'start'}
