@@ -597,6 +597,81 @@ const rankine: ProblemDefinition = {
   ],
 }
 
+const steamCarnot: ProblemDefinition = {
+  format: 2,
+  title: 'Carnot cycle with water inside the dome',
+  tags: { topics: ['carnot', 'steam', 'two-phase', 'quality'], difficulty: 'standard', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'Water runs on a steady-flow Carnot cycle inside the saturation dome. In the boiler saturated liquid at [TH] becomes saturated vapour; the vapour expands isentropically to [TL], is partly condensed at that temperature, and the wet mixture is compressed isentropically back to saturated liquid at [TH].',
+    '',
+    'Per kilogram of water, find:',
+    '',
+    '1. the heat added in the boiler,',
+    '2. the quality at the turbine exit,',
+    '3. the net work delivered by the water,',
+    '4. the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('TH', 'boiler temperature', '°C', 180, 300, 10),
+    choice('TL', 'condenser temperature', '°C', [30, 40, 50]),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'steam-carnot',
+    inputs: { hotTemperature: 'TH', coldTemperature: 'TL' },
+  },
+  finds: [
+    output('qH', 'Heat added in the boiler per kg of water', 'totals.heatIn', 'kJ/kg', 2, {
+      sense: 'heat-into-system',
+      pitfalls: ['kilo-factor'],
+    }),
+    output('x3', 'Quality at the turbine exit', 'states.3.x', '', 2, { tolerance: rel(0.015) }),
+    output('wNet', 'Net work delivered by the water per kg', 'totals.netWork', 'kJ/kg', 3, {
+      sense: 'work-by-system',
+      pitfalls: ['sign-convention-flipped', 'kilo-factor'],
+    }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+const steamCalorimeter: ProblemDefinition = {
+  format: 2,
+  title: 'Quality of line steam from a throttling calorimeter',
+  tags: { topics: ['steam', 'throttling', 'calorimeter', 'quality'], difficulty: 'introductory', level: 'second-year' },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'A sample of wet steam from a line at [p1] is throttled into a calorimeter open to [p2]. The calorimeter reads [T2].',
+    '',
+    'Find:',
+    '',
+    '1. the enthalpy of the line steam,',
+    '2. the quality of the line steam.',
+  ].join('\n'),
+  givens: [
+    choice('p1', 'line pressure', 'MPa', [1, 1.5, 2, 2.5, 3]),
+    choice('p2', 'calorimeter pressure', 'kPa', [100]),
+    range('T2', 'calorimeter temperature', '°C', 115, 130, 1),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'steam-throttling-calorimeter',
+    inputs: { linePressure: 'p1', calorimeterPressure: 'p2', calorimeterTemperature: 'T2' },
+  },
+  finds: [
+    output('h1', 'Enthalpy of the line steam', 'totals.enthalpy', 'kJ/kg', 1, { pitfalls: ['kilo-factor'] }),
+    output('x1', 'Quality of the line steam', 'totals.quality', '', 2, {
+      tolerance: { kind: 'absolute', value: 0.003 },
+    }),
+  ],
+}
+
 const rankineReheat: ProblemDefinition = {
   format: 2,
   title: 'Reheat Rankine cycle',
@@ -949,6 +1024,215 @@ const miller: ProblemDefinition = {
   ],
 }
 
+// ---- Steady flow with kinetic energy: nozzle, diffuser, turbojet (invented numbers) ------
+
+const FLOW_CAUTION =
+  '> Teaching model: an ideal gas in one-dimensional steady flow. The results are for learning thermodynamics, not design data for nozzles or engines.'
+
+const nozzle: ProblemDefinition = {
+  format: 2,
+  title: 'Air through a converging nozzle',
+  tags: {
+    topics: ['steady flow', 'nozzle', 'kinetic energy', 'Mach number', 'choked flow', 'isentropic efficiency'],
+    difficulty: 'standard',
+    level: 'second-year',
+  },
+  convention: 'course',
+  prompt: [
+    FLOW_CAUTION,
+    '',
+    'Air (constant specific heats, cp = 1.005 kJ/(kg·K)) enters an adiabatic converging nozzle at [p1] and [T1] with a velocity of [V1], and the nozzle discharges into a space at [pb]. The nozzle has an isentropic efficiency of [etaN, 2 dp], and [mdot] of air flows through it.',
+    '',
+    'Decide first whether the nozzle is choked. Then find:',
+    '',
+    '1. the exit velocity,',
+    '2. the exit temperature,',
+    '3. the exit Mach number,',
+    '4. the exit area.',
+  ].join('\n'),
+  givens: [
+    range('p1', 'inlet pressure', 'kPa', 200, 400, 25),
+    range('T1', 'inlet temperature', 'K', 420, 600, 20),
+    range('V1', 'inlet velocity', 'm/s', 30, 90, 10),
+    choice('pb', 'back pressure', 'kPa', [100, 140, 180]),
+    choice('etaN', 'nozzle isentropic efficiency', '', [0.92, 0.95, 0.98]),
+    range('mdot', 'mass flow rate', 'kg/s', 0.5, 2, 0.25),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'nozzle',
+    inputs: { gas: 'air', p1: 'p1', T1: 'T1', V1: 'V1', p2: 'pb', efficiency: 'etaN', massFlow: 'mdot' },
+  },
+  finds: [
+    output('V2', 'Exit velocity', 'totals.exitVelocity', 'm/s', 3),
+    output('T2', 'Exit temperature', 'totals.exitTemperature', 'K', 2),
+    output('M2', 'Exit Mach number', 'totals.exitMach', '', 2),
+    output('A2', 'Exit area', 'totals.exitArea', 'cm^2', 2, { tolerance: rel(0.02) }),
+  ],
+}
+
+const diffuser: ProblemDefinition = {
+  format: 2,
+  title: 'Diffuser at the inlet of an aircraft engine',
+  tags: {
+    topics: ['steady flow', 'diffuser', 'kinetic energy', 'stagnation temperature', 'isentropic efficiency'],
+    difficulty: 'introductory',
+    level: 'second-year',
+  },
+  convention: 'course',
+  prompt: [
+    FLOW_CAUTION,
+    '',
+    'Air at [p1] and [T1] enters the adiabatic diffuser of an aircraft engine at [V1] through an inlet of [A1]. It leaves at [V2]. The diffuser has an isentropic efficiency of [etaD, 2 dp]; take air with constant specific heats.',
+    '',
+    'Find:',
+    '',
+    '1. the mass flow rate of the air,',
+    '2. the exit temperature,',
+    '3. the exit pressure.',
+  ].join('\n'),
+  givens: [
+    range('p1', 'inlet pressure', 'kPa', 60, 90, 5),
+    range('T1', 'inlet temperature', '°C', -20, 10, 5),
+    range('V1', 'inlet velocity', 'km/h', 700, 950, 50),
+    choice('V2', 'exit velocity', 'm/s', [20, 30, 40]),
+    choice('etaD', 'diffuser isentropic efficiency', '', [0.88, 0.92, 0.96]),
+    range('A1', 'inlet area', 'cm^2', 3000, 5000, 500),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'diffuser',
+    inputs: { gas: 'air', p1: 'p1', T1: 'T1', V1: 'V1', V2: 'V2', efficiency: 'etaD', inletArea: 'A1' },
+  },
+  finds: [
+    output('mdot', 'Mass flow rate of the air', 'totals.massFlow', 'kg/s', 2),
+    output('T2', 'Exit temperature', 'totals.exitTemperature', 'K', 2),
+    output('p2', 'Exit pressure', 'totals.exitPressure', 'kPa', 3),
+  ],
+}
+
+const turbojet: ProblemDefinition = {
+  format: 2,
+  title: 'Turbojet in cruise',
+  tags: {
+    topics: ['steady flow', 'jet propulsion', 'turbojet', 'thrust', 'propulsive efficiency', 'isentropic efficiency'],
+    difficulty: 'challenging',
+    level: 'second-year',
+  },
+  convention: 'course',
+  prompt: [
+    FLOW_CAUTION,
+    '',
+    'A turbojet flies at [V1] where the air is at [pa] and [Ta]. The compressor pressure ratio is [rp] and the gas enters the turbine at [T4]. The compressor and the turbine have isentropic efficiencies of [etaC, 2 dp] and [etaT, 2 dp]; the diffuser and the nozzle are ideal, the nozzle expands to the ambient pressure, and [mdot] of air flows through the engine. Take air with constant specific heats (cp = 1.005 kJ/(kg·K)) for the whole engine and treat the velocities after the diffuser and before the nozzle as negligible.',
+    '',
+    'Find:',
+    '',
+    '1. the compressor work input per kilogram of air, as a positive number,',
+    '2. the velocity of the exhaust gases,',
+    '3. the thrust,',
+    '4. the propulsive power,',
+    '5. the propulsive efficiency (propulsive power over the kinetic energy gained by the air),',
+    '6. the overall efficiency (propulsive power over the rate of heat added).',
+  ].join('\n'),
+  givens: [
+    range('V1', 'flight speed', 'km/h', 800, 1000, 50),
+    choice('pa', 'ambient pressure', 'kPa', [26.5, 30.1, 34.5]),
+    choice('Ta', 'ambient temperature', '°C', [-50, -45, -40]),
+    range('rp', 'compressor pressure ratio', '', 8, 14, 1),
+    range('T4', 'turbine inlet temperature', 'K', 1150, 1350, 50),
+    choice('etaC', 'compressor isentropic efficiency', '', [0.82, 0.85, 0.88]),
+    choice('etaT', 'turbine isentropic efficiency', '', [0.86, 0.89, 0.92]),
+    range('mdot', 'air mass flow rate', 'kg/s', 30, 60, 5),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'turbojet',
+    inputs: {
+      gas: 'air',
+      flightSpeed: 'V1',
+      ambientPressure: 'pa',
+      ambientTemperature: 'Ta',
+      pressureRatio: 'rp',
+      turbineInletT: 'T4',
+      compressorEfficiency: 'etaC',
+      turbineEfficiency: 'etaT',
+      massFlow: 'mdot',
+    },
+  },
+  finds: [
+    output('Wc', 'Compressor work input per kg of air', 'devices.2.w', 'kJ/kg', 2, {
+      sense: 'work-on-system',
+      pitfalls: ['sign-convention-flipped', 'kilo-factor'],
+    }),
+    output('V6', 'Velocity of the exhaust gases', 'totals.exitVelocity', 'm/s', 3),
+    output('F', 'Thrust', 'totals.thrust', 'kN', 3),
+    output('WP', 'Propulsive power', 'totals.propulsivePower', 'kW', 2),
+    output('etaP', 'Propulsive efficiency', 'totals.propulsiveEfficiency', '', 2),
+    output('etaO', 'Overall efficiency', 'totals.overallEfficiency', '', 2),
+  ],
+}
+
+// ---- Second law on a template: a gas-turbine plant's power and exergy destroyed ---------------
+
+const braytonExergy: ProblemDefinition = {
+  format: 2,
+  title: 'Gas-turbine plant: net power, entropy generation and exergy destroyed',
+  tags: {
+    topics: ['brayton', 'gas turbine', 'second law', 'exergy', 'entropy generation', 'power'],
+    difficulty: 'challenging',
+    level: 'second-year',
+  },
+  convention: 'course',
+  prompt: [
+    'A gas-turbine plant takes in [mdot] of air from the surroundings at 100 kPa and 300 K and compresses it through a pressure ratio of [rp]. The compressor and turbine have isentropic efficiencies of [etaC, 2 dp] and [etaT, 2 dp]. Heat is added at constant pressure up to a turbine inlet temperature of [TIT], from a source at 1,600 K; the exhaust gives its heat to the surroundings at 300 K, which are also the dead state (300 K, 100 kPa).',
+    '',
+    'Treat the working fluid as air with constant specific heats (air-standard analysis) and neglect kinetic and potential energy. Find:',
+    '',
+    '1. the net power delivered by the plant,',
+    '2. the entropy generated in the heat addition, per kg of air,',
+    '3. the rate at which the plant destroys exergy,',
+    '4. the second-law efficiency of the plant, against a reversible engine between the source and the surroundings.',
+  ].join('\n'),
+  givens: [
+    range('mdot', 'mass flow rate of air', 'kg/s', 15, 25, 5),
+    range('rp', 'compressor pressure ratio', '', 8, 14, 1),
+    range('TIT', 'turbine inlet temperature', 'K', 1200, 1400, 50),
+    choice('etaC', 'compressor isentropic efficiency', '', [0.82, 0.85, 0.88]),
+    choice('etaT', 'turbine isentropic efficiency', '', [0.86, 0.88, 0.9]),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'brayton',
+    inputs: {
+      gas: 'air',
+      p1: '100 kPa',
+      T1: '300 K',
+      pressureRatio: 'rp',
+      turbineInletT: 'TIT',
+      compressorEfficiency: 'etaC',
+      turbineEfficiency: 'etaT',
+      sourceTemperature: '1600 K',
+      sinkTemperature: '300 K',
+      deadStateTemperature: '300 K',
+      deadStatePressure: '100 kPa',
+      massFlow: 'mdot',
+    },
+  },
+  finds: [
+    output('Wdot', 'Net power delivered by the plant', 'totals.rate.netPower', 'MW', 3, {
+      sense: 'work-by-system',
+      pitfalls: ['sign-convention-flipped'],
+    }),
+    output('sgen', 'Entropy generated in the heat addition, per kg of air', 'steps.2.entropyGenerated', 'kJ/(kg K)', 2),
+    output('Xdest', 'Rate of exergy destruction', 'totals.rate.exergyDestroyed', 'MW', 3),
+    output('etaII', 'Second-law efficiency', 'totals.secondLawEfficiency', '', 2),
+  ],
+}
+
 export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'amara', visibility: 'department', definition: carnotEngine },
   { owner: 'tobias', visibility: 'department', definition: carnotRefrigerator },
@@ -967,6 +1251,12 @@ export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'tobias', visibility: 'installation', definition: rankine },
   { owner: 'tobias', visibility: 'department', definition: rankineReheat },
   { owner: 'tobias', visibility: 'private', definition: rankineRegenerative },
+  { owner: 'tobias', visibility: 'department', definition: steamCarnot },
+  { owner: 'amara', visibility: 'department', definition: steamCalorimeter },
   { owner: 'tobias', visibility: 'department', definition: vapourCompression },
   { owner: 'amara', visibility: 'department', definition: threeStep },
+  { owner: 'amara', visibility: 'department', definition: nozzle },
+  { owner: 'amara', visibility: 'private', definition: diffuser },
+  { owner: 'tobias', visibility: 'department', definition: turbojet },
+  { owner: 'tobias', visibility: 'department', definition: braytonExergy },
 ]

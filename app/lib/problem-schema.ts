@@ -13,7 +13,9 @@ import {
   DIFFICULTIES,
   LEVELS,
   FIND_SENSES,
+  MAX_HEATERS,
   NAME_PATTERN,
+  type TemplateInputValue,
   type ProblemDefinition,
   upgradeDefinition,
 } from '#app/domain/authoring/definition.ts'
@@ -57,7 +59,16 @@ export const TEMPLATE_IDS = [
   'rankine',
   'rankine-reheat',
   'rankine-regenerative',
+  'rankine-feedwater',
+  'rankine-cogeneration',
+  'steam-throttling-calorimeter',
+  'steam-carnot',
   'vapour-compression',
+  'vapour-compression-two-stage',
+  'vapour-compression-cascade',
+  'nozzle',
+  'diffuser',
+  'turbojet',
 ] as const
 
 /** Every PitfallId (app/domain/grading/pitfalls.ts), in the order the grader tries them. */
@@ -153,6 +164,46 @@ const ConstraintSchema = z.strictObject({
   message: text('the message', 300).optional(),
 })
 
+/** One feedwater heater of a 'heater list' input (definition.ts HeaterInput): texts that may name a given. */
+const HeaterSchema = z.strictObject(
+  {
+    kind: text('the heater kind ("open" or "closed", or a given\'s name)', 60, 1),
+    pressure: text('the heater pressure, such as "0.5 MPa" or a given\'s name', 500, 1),
+    name: text('the heater name', 60, 1).optional(),
+    ttd: text('the terminal temperature difference, such as "3 K"', 500, 1).optional(),
+    drains: text('where the drains go ("backward" or "forward")', 60, 1).optional(),
+  },
+  {
+    error: (iss) =>
+      iss.code === 'unrecognized_keys'
+        ? `A heater takes kind, pressure, name, ttd and drains, not ${iss.keys.join(', ')}.`
+        : 'Give each heater as a group of fields: kind, pressure, and optionally name, ttd and drains.',
+  },
+)
+
+const HeaterListSchema = z
+  .array(HeaterSchema, { error: 'Give the heaters as a list.' })
+  .min(1, 'Give at least one heater, or leave the input out.')
+  .max(MAX_HEATERS, `Give at most ${MAX_HEATERS} heaters.`)
+
+const InputTextSchema = text('the input value', 500)
+
+/** A template input: a text, or a list of heaters (the one list-valued input, 'heaters'); the lint checks which input takes which. */
+const TemplateInputValueSchema = z.unknown().transform((v, ctx): TemplateInputValue => {
+  const r = Array.isArray(v) ? HeaterListSchema.safeParse(v) : InputTextSchema.safeParse(v)
+  if (r.success) return r.data
+  for (const iss of r.error.issues)
+    ctx.addIssue({
+      code: 'custom',
+      path: iss.path,
+      message:
+        iss.code === 'invalid_type' && iss.path.length === 0
+          ? 'Give each template input as text, or the heaters as a list of { kind, pressure, … }.'
+          : iss.message,
+    })
+  return z.NEVER
+})
+
 const PhysicsSchema = z.discriminatedUnion(
   'kind',
   [
@@ -162,9 +213,9 @@ const PhysicsSchema = z.discriminatedUnion(
       inputs: z
         .record(
           z.string().regex(/^[A-Za-z][A-Za-z0-9_]{0,39}$/, 'A template input name is a word of letters, digits and _.'),
-          text('the input value', 500),
+          TemplateInputValueSchema,
           {
-            error: 'Give the template inputs as names with text values.',
+            error: 'Give the template inputs as names with text values (and the heaters as a list).',
           },
         )
         .refine(

@@ -19,13 +19,35 @@
  * non-finite value is left out.
  */
 import type { FormattedSolution } from '#app/domain/thermo/format.ts'
-import { saturationAtP, saturationAtT, STEAM_LIMITS, stateFromPS } from '#app/domain/thermo/steam/index.ts'
-import type { FormattedRankine, FormattedRankineState } from '#app/domain/thermo/steam/index.ts'
+import {
+  saturationAtP,
+  saturationAtT,
+  STEAM_LIMITS,
+  stateFromPS,
+  stateFromPV,
+  stateFromTS,
+} from '#app/domain/thermo/steam/index.ts'
+import type {
+  FormattedCalorimeter,
+  FormattedRankine,
+  FormattedRankineState,
+  FormattedSteamCycle,
+} from '#app/domain/thermo/steam/index.ts'
 
 import type { Axis, Curve, CycleDiagrams } from './diagram-plot.ts'
 import { LIN, N, axes, cleanCurve, finite, pin, positive, same, straight, type Pair } from './diagram-math.ts'
-import { refrigerationDiagrams } from './refrigeration-diagrams.ts'
-import { isIdealGasSolution, isRefrigerationSolution, type BankSolution } from './solution-kind.ts'
+import { cascadeDiagrams, refrigerationDiagrams, twoStageDiagrams } from './refrigeration-diagrams.ts'
+import {
+  isCalorimeterSolution,
+  isIdealGasSolution,
+  isRefrigerationSolution,
+  isTwoStageSolution,
+  isCascadeSolution,
+  isSteamCycleSolution,
+  isSteadyFlowSolution,
+  type BankSolution,
+} from './solution-kind.ts'
+import { flowDiagrams } from './flow-diagrams.ts'
 
 export type { Axis, Curve, CycleDiagrams, Plot } from './diagram-plot.ts'
 export { axisSymbol, describePlot } from './diagram-plot.ts'
@@ -383,6 +405,147 @@ function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
   }
 }
 
+/** IF97 states along a process of water between two states, sampled by the property it keeps. */
+function steamPath(process: string, a: SteamPoint, b: SteamPoint): { pv: Pair[]; ts: Pair[] } | null {
+  if (process === 'isentropic') return isentrope(a.s, a.p, b.p)
+  if (process === 'isobaric' || (process === 'isothermal' && same(a.p, b.p))) return isobar(a.p, a.s, b.s)
+  const pv: Pair[] = []
+  const ts: Pair[] = []
+  for (let i = 0; i < N_STEAM; i++) {
+    const f = i / (N_STEAM - 1)
+    const st =
+      process === 'isothermal'
+        ? stateFromTS(a.T, a.s + (b.s - a.s) * f)
+        : process === 'isochoric'
+          ? stateFromPV(a.p * Math.pow(b.p / a.p, f), a.v)
+          : null
+    if (!st || !st.ok) return null
+    pv.push([st.value.v, st.value.p / 1000])
+    ts.push([st.value.s / 1000, st.value.T])
+  }
+  return { pv, ts }
+}
+
+/**
+ * States joined by the given paths, with the dome: water in the general cycle format (each
+ * step by its process) and the throttling calorimeter (a dashed isenthalpic segment).
+ */
+function steamStateDiagrams(
+  states: readonly SteamPoint[],
+  joins: readonly { from: number; to: number; process: string; path: string | null }[],
+  name: string,
+): CycleDiagrams {
+  const pvCurves: Curve[] = []
+  const tsCurves: Curve[] = []
+  const LOG: ['log', 'log'] = ['log', 'log']
+  for (const j of joins) {
+    const a = states[j.from]
+    const b = states[j.to]
+    if (!a || !b) continue
+    let got: { pv: Pair[]; ts: Pair[] } | null = null
+    try {
+      got = j.path ? steamPath(j.path, a, b) : null
+    } catch {
+      got = null
+    }
+    const pa: Pair = [a.v, a.p / 1000]
+    const pb: Pair = [b.v, b.p / 1000]
+    const ta: Pair = [a.s / 1000, a.T]
+    const tb: Pair = [b.s / 1000, b.T]
+    const style = j.path ? ('solid' as const) : ('dashed' as const)
+    pvCurves.push(
+      cleanCurve({
+        from: a.label,
+        to: b.label,
+        process: j.process,
+        style,
+        points: got ? pin(got.pv, pa, pb) : straight(pa, pb, LOG),
+      }),
+    )
+    tsCurves.push(
+      cleanCurve({
+        from: a.label,
+        to: b.label,
+        process: j.process,
+        style,
+        points: got ? pin(got.ts, ta, tb) : straight(ta, tb, LIN),
+      }),
+    )
+  }
+  let dome: { pv: Pair[]; ts: Pair[] } = { pv: [], ts: [] }
+  try {
+    dome = steamDome()
+  } catch {
+    dome = { pv: [], ts: [] }
+  }
+  const pvPoints = states.map((s) => ({ label: s.label, x: s.v, y: s.p / 1000 }))
+  const tsPoints = states.map((s) => ({ label: s.label, x: s.s / 1000, y: s.T }))
+  const pvR = axes(pvCurves, pvPoints, dome.pv, 'log', true, true)
+  const tsR = axes(tsCurves, tsPoints, dome.ts, 'linear', false, true)
+  return {
+    pv: {
+      title: `P–v diagram — ${name}, water/steam (IAPWS-IF97), log–log axes`,
+      x: { label: 'specific volume v (log scale)', unit: 'm³/kg', scale: 'log', min: pvR.x[0], max: pvR.x[1] },
+      y: { label: 'pressure p (log scale)', unit: 'kPa', scale: 'log', min: pvR.y[0], max: pvR.y[1] },
+      curves: pvCurves,
+      points: pvPoints,
+      ...(dome.pv.length > 2 ? { dome: { points: dome.pv, fluid: 'water' } } : {}),
+    },
+    ts: {
+      title: `T–s diagram — ${name}, water/steam (IAPWS-IF97)`,
+      x: { label: 'specific entropy s', unit: 'kJ/(kg·K)', scale: 'linear', min: tsR.x[0], max: tsR.x[1] },
+      y: { label: 'temperature T', unit: 'K', scale: 'linear', min: tsR.y[0], max: tsR.y[1] },
+      curves: tsCurves,
+      points: tsPoints,
+      ...(dome.ts.length > 2 ? { dome: { points: dome.ts, fluid: 'water' } } : {}),
+    },
+  }
+}
+
+function steamPoint(
+  st: {
+    name: string
+    p: { value: number }
+    T: { value: number }
+    s: { value: number }
+    v: { value: number }
+    x: number | null
+    phase: string
+  },
+  i: number,
+): SteamPoint | null {
+  const g = {
+    label: st.name || String(i + 1),
+    p: st.p.value,
+    T: st.T.value,
+    s: st.s.value,
+    v: st.v.value,
+    x: st.x,
+    phase: st.phase,
+  }
+  return positive(g.p, g.T, g.v) && finite(g.s) ? g : null
+}
+
+function steamCycleDiagrams(sol: FormattedSteamCycle): CycleDiagrams {
+  const points = sol.states.map(steamPoint)
+  const valid = points.filter((s): s is SteamPoint => s !== null)
+  const index = (name: string) => valid.findIndex((s) => s.label === name)
+  const joins = sol.steps.map((st) => ({
+    from: index(st.from),
+    to: index(st.to),
+    process: `${st.label} (${st.process})`,
+    path: st.process,
+  }))
+  return steamStateDiagrams(valid, joins, sol.template === 'steam-carnot' ? 'vapour Carnot cycle' : 'water cycle')
+}
+
+function calorimeterDiagrams(sol: FormattedCalorimeter): CycleDiagrams {
+  const valid = sol.states.map(steamPoint).filter((s): s is SteamPoint => s !== null)
+  const joins =
+    valid.length === 2 ? [{ from: 0, to: 1, process: 'throttling valve (h constant, irreversible)', path: null }] : []
+  return steamStateDiagrams(valid, joins, 'throttling calorimeter')
+}
+
 function emptyDiagrams(): CycleDiagrams {
   const ax = (label: string, unit: string): Axis => ({ label, unit, scale: 'linear', min: 0, max: 1 })
   return {
@@ -412,6 +575,11 @@ export function cycleDiagrams(solution: BankSolution): CycleDiagrams {
     if (!solution || typeof solution !== 'object' || !Array.isArray(solution.states)) return emptyDiagrams()
     if (isIdealGasSolution(solution) && Array.isArray(solution.steps)) return gasDiagrams(solution)
     if (isRefrigerationSolution(solution)) return refrigerationDiagrams(solution) ?? emptyDiagrams()
+    if (isTwoStageSolution(solution)) return twoStageDiagrams(solution) ?? emptyDiagrams()
+    if (isCascadeSolution(solution)) return cascadeDiagrams(solution) ?? emptyDiagrams()
+    if (isCalorimeterSolution(solution)) return calorimeterDiagrams(solution)
+    if (isSteamCycleSolution(solution)) return steamCycleDiagrams(solution)
+    if (isSteadyFlowSolution(solution)) return flowDiagrams(solution) // open path (flow-diagrams.ts)
     return rankineDiagrams(solution as FormattedRankine)
   } catch {
     return emptyDiagrams()

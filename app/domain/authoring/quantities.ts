@@ -141,6 +141,19 @@ function totalsQuantity(field: string, convention: Convention): Quantity | null 
       return { tex: sub('x', txt('turbine exit')), name: 'quality at the turbine exit' }
     case 'bleedFraction':
       return { tex: 'y', name: 'fraction of the steam bled to the feedwater heater' }
+    // The throttling calorimeter (steam/calorimeter.ts).
+    case 'quality':
+      return { tex: 'x_1', name: 'quality of the line steam' }
+    case 'enthalpy':
+      return { tex: 'h_1', name: 'enthalpy of the line steam (equal to the calorimeter enthalpy)' }
+    case 'lineTemperature':
+      return { tex: 'T_1', name: 'temperature of the line steam (saturation at the line pressure)' }
+    case 'calorimeterSaturationTemperature':
+      return { tex: sub('T', txt('sat,2')), name: 'saturation temperature at the calorimeter pressure' }
+    case 'superheat':
+      return { tex: sub('\\Delta T', txt('sh')), name: 'degree of superheat in the calorimeter' }
+    case 'lowestMeasurableQuality':
+      return { tex: sub('x', txt('min')), name: 'lowest quality the calorimeter can measure' }
     // The vapour-compression cycle (per kg of refrigerant; sizes, whatever the convention).
     case 'refrigerationEffect':
       return { tex: sub(Q, 'L'), name: 'refrigeration effect per kg of refrigerant (heat taken in by the evaporator)' }
@@ -160,6 +173,66 @@ function totalsQuantity(field: string, convention: Convention): Quantity | null 
       return { tex: sub('\\dot W', txt('c,in')), name: 'compressor power input' }
     case 'heatRejectionRate':
       return { tex: sub('\\dot Q', 'H'), name: 'rate of heat rejection' }
+    // Two-stage (flash chamber) and cascade cycles: per kg through the condenser (two-stage) or
+    // of the lower cycle's refrigerant (cascade); the works are sizes, done on the refrigerant.
+    case 'intermediatePressure':
+      return { tex: sub('p', 'i'), name: 'flash chamber (intermediate) pressure' }
+    case 'flashVapourFraction':
+      return { tex: sub('x', '6'), name: 'fraction of the refrigerant that flashes to vapour in the flash chamber' }
+    case 'lowToHighMassRatio':
+      return { tex: '1 - x_{6}', name: 'mass flow through the evaporator per kg through the condenser' }
+    case 'refrigerationEffectPerKgEvaporator':
+      return { tex: sub(Q, txt('L,evap')), name: 'refrigeration effect per kg of refrigerant through the evaporator' }
+    case 'lowStageWork':
+      return { tex: sub(W, txt('low,in')), name: 'low-stage compressor work input per kg through the condenser' }
+    case 'highStageWork':
+      return { tex: sub(W, txt('high,in')), name: 'high-stage compressor work input per kg through the condenser' }
+    case 'carnotCopRefrigerator':
+      return {
+        tex: sub('\\mathrm{COP}', txt('R,Carnot')),
+        name: 'Carnot COP of a refrigerator between the outer temperatures',
+      }
+    case 'carnotCopHeatPump':
+      return {
+        tex: sub('\\mathrm{COP}', txt('HP,Carnot')),
+        name: 'Carnot COP of a heat pump between the outer temperatures',
+      }
+    case 'highStageMassFlow':
+      return { tex: sub('\\dot m', txt('high')), name: 'refrigerant mass flow rate through the condenser (high stage)' }
+    case 'lowStageMassFlow':
+      return { tex: sub('\\dot m', txt('low')), name: 'refrigerant mass flow rate through the evaporator (low stage)' }
+    case 'capacityTons':
+      return { tex: sub('\\dot Q', 'L'), name: 'refrigeration capacity in tons of refrigeration' }
+    case 'lowStagePower':
+      return { tex: sub('\\dot W', txt('low,in')), name: 'low-stage compressor power input' }
+    case 'highStagePower':
+      return { tex: sub('\\dot W', txt('high,in')), name: 'high-stage compressor power input' }
+    case 'massFlowRatio':
+      return { tex: '\\dot m_A / \\dot m_B', name: 'mass flow of the upper cycle (A) per kg/s of the lower cycle (B)' }
+    case 'exchangerTemperatureDifference':
+      return { tex: '\\Delta T_{\\text{exch}}', name: 'temperature difference across the cascade heat exchanger' }
+    case 'lowerCompressorWork':
+      return {
+        tex: sub(W, txt('B,in')),
+        name: "lower-cycle compressor work input per kg of the lower cycle's refrigerant",
+      }
+    case 'upperCompressorWork':
+      return {
+        tex: sub(W, txt('A,in')),
+        name: "upper-cycle compressor work input per kg of the lower cycle's refrigerant",
+      }
+    case 'lowerCycleCop':
+      return { tex: sub('\\mathrm{COP}', 'B'), name: 'COP of the lower cycle on its own' }
+    case 'upperCycleCop':
+      return { tex: sub('\\mathrm{COP}', 'A'), name: 'COP of the upper cycle on its own' }
+    case 'lowerMassFlow':
+      return { tex: sub('\\dot m', 'B'), name: 'refrigerant mass flow rate in the lower cycle' }
+    case 'upperMassFlow':
+      return { tex: sub('\\dot m', 'A'), name: 'refrigerant mass flow rate in the upper cycle' }
+    case 'lowerCompressorPower':
+      return { tex: sub('\\dot W', txt('B,in')), name: 'lower-cycle compressor power input' }
+    case 'upperCompressorPower':
+      return { tex: sub('\\dot W', txt('A,in')), name: 'upper-cycle compressor power input' }
     default:
       return null
   }
@@ -196,6 +269,14 @@ const RATE_QUANTITY: Readonly<Record<string, Quantity>> = {
   exergyDestroyed: { tex: '\\dot X_{\\text{dest}}', name: 'rate of exergy destruction' },
 }
 
+/** With a flow rate: steps.<k>.rate.<field>, as rates; `ij` is the step's subscript. */
+const STEP_RATE: Readonly<Record<string, { tex: (ij: string) => string; name: string }>> = {
+  heat: { tex: (ij) => `\\dot Q_{${ij}}`, name: 'rate of heat into the gas' },
+  work: { tex: (ij) => `\\dot W_{${ij}}`, name: 'power' },
+  entropyGenerated: { tex: (ij) => `\\dot S_{\\text{gen},${ij}}`, name: 'rate of entropy generation' },
+  exergyDestroyed: { tex: (ij) => `\\dot X_{\\text{dest},${ij}}`, name: 'rate of exergy destruction' },
+}
+
 export interface PathContext {
   readonly convention: Convention
   /** A steam (Rankine) cycle: its net work is the work delivered, per kg through the boiler. */
@@ -204,6 +285,119 @@ export interface PathContext {
   readonly stateNames?: readonly string[]
   /** Names of the devices in order ('compressor', 'condenser', …) of a steam or refrigeration cycle. */
   readonly deviceNames?: readonly string[]
+  /** A steady-flow template (thermo/flow): its totals and states are read by flowQuantity. */
+  readonly flow?: 'nozzle' | 'diffuser' | 'turbojet'
+}
+
+// ---- Steady flow (nozzle, diffuser, turbojet) ----------------------------------------
+
+const FLOW_STATE_PROPERTY: Readonly<Record<string, { tex: (n: string) => string; name: string }>> = {
+  p: { tex: (n) => sub('p', n), name: 'pressure' },
+  T: { tex: (n) => sub('T', n), name: 'temperature' },
+  V: { tex: (n) => sub('V', n), name: 'velocity' },
+  mach: { tex: (n) => sub('M', n), name: 'Mach number' },
+  soundSpeed: { tex: (n) => sub('a', n), name: 'speed of sound' },
+  h: { tex: (n) => sub('h', n), name: 'specific enthalpy' },
+  s: { tex: (n) => sub('s', n), name: 'specific entropy' },
+  density: { tex: (n) => sub('\\rho', n), name: 'density' },
+  T0: { tex: (n) => sub('T', `0${n}`), name: 'stagnation temperature' },
+  p0: { tex: (n) => sub('p', `0${n}`), name: 'stagnation pressure' },
+}
+
+const JET_DEVICE: readonly { tex: string; name: string }[] = [
+  { tex: 'd', name: 'diffuser' },
+  { tex: 'c', name: 'compressor' },
+  { tex: 'b', name: 'burner' },
+  { tex: 't', name: 'turbine' },
+  { tex: 'n', name: 'nozzle' },
+]
+
+/** A nozzle's, diffuser's or turbojet's output path; null for one this grammar does not know. */
+function flowQuantity(path: string, ctx: PathContext & { flow: NonNullable<PathContext['flow']> }): Quantity | null {
+  const parts = path.split('.')
+  const { Q, W } = heatWork(ctx.convention)
+  const jet = ctx.flow === 'turbojet'
+  const exit = jet ? '6' : '2'
+  if (parts[0] === 'states' && parts.length === 3) {
+    const k = Number(parts[1])
+    const prop = FLOW_STATE_PROPERTY[parts[2]!]
+    if (!Number.isInteger(k) || k < 1 || !prop) return null
+    return { tex: prop.tex(stateSub(ctx.stateNames, k)), name: `${prop.name} at state ${ctx.stateNames?.[k - 1] ?? k}` }
+  }
+  if (parts[0] === 'devices' && parts.length === 3) {
+    const k = Number(parts[1])
+    const d = jet ? JET_DEVICE[k - 1] : k === 1 ? { tex: txt(ctx.flow), name: ctx.flow } : undefined
+    if (!Number.isInteger(k) || !d) return null
+    const by = ctx.convention === 'chemistry' ? 'done on' : 'done by'
+    switch (parts[2]) {
+      case 'w':
+        return { tex: sub(W, d.tex), name: `work ${by} the gas in the ${d.name}, per kg` }
+      case 'q':
+        return { tex: sub(Q, d.tex), name: `heat into the gas in the ${d.name}, per kg` }
+      case 'wRate':
+        return { tex: sub(`\\dot ${W}`, d.tex), name: `power ${by} the gas in the ${d.name}` }
+      case 'qRate':
+        return { tex: sub(`\\dot ${Q}`, d.tex), name: `rate of heat into the gas in the ${d.name}` }
+      default:
+        return null
+    }
+  }
+  if (parts[0] !== 'totals' || parts.length !== 2) return null
+  const eff = ctx.flow === 'nozzle' ? 'N' : 'D'
+  const T: Readonly<Record<string, Quantity>> = {
+    exitVelocity: { tex: sub('V', exit), name: jet ? 'jet velocity at the nozzle exit' : 'exit velocity' },
+    exitTemperature: { tex: sub('T', exit), name: 'exit temperature' },
+    exitPressure: { tex: sub('p', exit), name: 'exit pressure' },
+    inletMach: { tex: sub('M', '1'), name: 'inlet Mach number' },
+    exitMach: { tex: sub('M', exit), name: jet ? 'Mach number of the jet' : 'exit Mach number' },
+    flightMach: { tex: sub('M', '1'), name: 'flight Mach number' },
+    efficiency: {
+      tex: sub('\\eta', eff),
+      name: `isentropic efficiency of the ${ctx.flow}`,
+    },
+    kineticEnergyChange: { tex: '\\Delta ke', name: 'change of kinetic energy per kg, (V_2² − V_1²)/2' },
+    kineticEnergyGain: { tex: '\\Delta ke', name: 'kinetic energy gained per kg of air, (V_6² − V_1²)/2' },
+    enthalpyChange: { tex: '\\Delta h', name: 'change of enthalpy per kg' },
+    heatIn: jet
+      ? { tex: sub(Q, txt('in')), name: 'heat added in the burner per kg of air' }
+      : { tex: Q, name: 'heat into the gas per kg (negative: lost to the surroundings)' },
+    heatRate: jet
+      ? { tex: sub(`\\dot ${Q}`, txt('in')), name: 'rate of heat added in the burner' }
+      : { tex: `\\dot ${Q}`, name: 'rate of heat into the gas (negative: lost)' },
+    entropyChange: { tex: '\\Delta s', name: 'change of specific entropy' },
+    stagnationTemperature: { tex: sub('T', '01'), name: 'stagnation temperature at the inlet' },
+    stagnationPressure: { tex: sub('p', '01'), name: 'stagnation pressure at the inlet' },
+    exitStagnationPressure: { tex: sub('p', '02'), name: 'stagnation pressure at the exit' },
+    stagnationPressureRatio: { tex: 'p_{02}/p_{01}', name: 'ratio of exit to inlet stagnation pressure' },
+    isentropicExitTemperature: { tex: sub('T', '2s'), name: 'isentropic exit temperature at the exit pressure' },
+    criticalPressure: { tex: 'p^*', name: 'critical (sonic) pressure' },
+    criticalPressureRatio: { tex: 'p^*/p_{01}', name: 'critical pressure ratio' },
+    criticalTemperature: { tex: 'T^*', name: 'critical (sonic) temperature' },
+    backPressure: { tex: sub('p', 'b'), name: 'back pressure' },
+    areaRatio: { tex: 'A_2/A_1', name: 'ratio of exit to inlet area' },
+    massFlow: { tex: '\\dot m', name: jet ? 'air mass flow rate' : 'mass flow rate' },
+    inletArea: { tex: sub('A', '1'), name: 'inlet area' },
+    exitArea: { tex: sub('A', '2'), name: 'exit area' },
+    kineticEnergyRate: { tex: '\\Delta \\dot{KE}', name: 'rate of kinetic energy change' },
+    specificThrust: { tex: 'F/\\dot m', name: 'specific thrust (thrust per kg/s of air)' },
+    thrust: { tex: 'F', name: 'thrust' },
+    propulsivePower: { tex: sub('\\dot W', 'P'), name: 'propulsive power' },
+    compressorPower: { tex: sub('\\dot W', txt('c,in')), name: 'compressor power input' },
+    compressorWork: { tex: sub(W, txt('c,in')), name: 'compressor work input per kg of air' },
+    turbineWork: { tex: sub(W, txt('t,out')), name: 'turbine work output per kg of air' },
+    netShaftWork: {
+      tex: sub(W, txt('shaft')),
+      name: 'net shaft work per kg of air (zero: the turbine drives the compressor)',
+    },
+    propulsiveWork: { tex: sub('w', 'P'), name: 'propulsive work per kg of air' },
+    propulsiveEfficiency: { tex: sub('\\eta', 'P'), name: 'propulsive efficiency' },
+    thermalEfficiency: { tex: sub('\\eta', txt('th')), name: 'thermal efficiency' },
+    overallEfficiency: { tex: sub('\\eta', 'o'), name: 'overall efficiency' },
+    fuelAirRatio: { tex: 'f', name: 'fuel–air ratio' },
+    fuelFlow: { tex: sub('\\dot m', 'f'), name: 'fuel flow rate' },
+    tsfc: { tex: '\\mathrm{TSFC}', name: 'thrust-specific fuel consumption' },
+  }
+  return Object.hasOwn(T, parts[1]!) ? T[parts[1]!]! : null
 }
 
 function stateSub(names: readonly string[] | undefined, index: number): string {
@@ -216,6 +410,7 @@ function stateSub(names: readonly string[] | undefined, index: number): string {
  * caller then uses the find's own name and label, never the path).
  */
 export function quantityAtPath(path: string, ctx: PathContext): Quantity | null {
+  if (ctx.flow) return flowQuantity(path, { ...ctx, flow: ctx.flow })
   const parts = path.split('.')
   if (parts[0] === 'totals' && parts[1] === 'rate') return (parts.length === 3 && RATE_QUANTITY[parts[2]!]) || null
   if (parts[0] === 'totals') {
@@ -250,6 +445,23 @@ export function quantityAtPath(path: string, ctx: PathContext): Quantity | null 
           name: `work ${ctx.convention === 'chemistry' ? 'done on' : 'done by'} the fluid in the ${device}, per kg`,
         }
       : { tex: sub(Q, word), name: `heat into the fluid in the ${device}, per kg` }
+  }
+  if (parts[0] === 'steps' && parts.length === 4 && parts[2] === 'rate') {
+    // With a flow rate: a step's heat and work as powers, its entropy generation and exergy destruction as rates.
+    const k = Number(parts[1])
+    const r = STEP_RATE[parts[3]!]
+    if (!Number.isInteger(k) || k < 1 || !r) return null
+    const n = ctx.stateNames?.length ?? 0
+    const ij = `${stateSub(ctx.stateNames, k)}${stateSub(ctx.stateNames, n > 0 && k === n ? 1 : k + 1)}`
+    const name =
+      parts[3] === 'work'
+        ? ctx.convention === 'chemistry'
+          ? 'power done on the gas'
+          : 'power delivered by the gas'
+        : r.name
+    const fromName = ctx.stateNames?.[k - 1] ?? String(k)
+    const toName = ctx.stateNames?.[n > 0 && k === n ? 0 : k] ?? String(k + 1)
+    return { tex: r.tex(ij), name: `${name} in step ${fromName} → ${toName}` }
   }
   if (parts[0] === 'steps' && (parts.length === 3 || (parts.length === 4 && parts[2] === 'total'))) {
     const k = Number(parts[1])

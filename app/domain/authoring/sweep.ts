@@ -9,9 +9,15 @@
 import type { Convention, FormattedSolution } from '#app/domain/thermo/index.ts'
 import type { FormattedRefrigeration } from '#app/domain/thermo/refrigerants/refrigeration-template.ts'
 import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
+import type { FormattedCalorimeter } from '#app/domain/thermo/steam/calorimeter.ts'
+import type { FormattedSteamCycle } from '#app/domain/thermo/steam/steam-cycle.ts'
 import type { DrawResult, DrawnGiven, ProblemDefinition, SweepFailure, SweepSummary } from './definition.ts'
 import { drawGivens, formatNumber } from './givens.ts'
 import { solutionKind } from './solution-kind.ts'
+import { cascadeProblems, twoStageProblems } from './multi-stage-sweep.ts'
+import type { FormattedCascade, FormattedTwoStage } from '#app/domain/thermo/refrigerants/multi-stage-template.ts'
+import { steadyFlowProblems } from './flow-sweep.ts'
+import type { FormattedFlow } from '#app/domain/thermo/flow/flow-template.ts'
 import { drawVariant } from './variant.ts'
 
 /** Failures kept by default; the rest are counted. */
@@ -141,6 +147,51 @@ function refrigerationProblems(sol: FormattedRefrigeration, spec: Readonly<Recor
   return out
 }
 
+function qualityProblems(states: readonly { name: string; x: number | null }[]): Problem[] {
+  const out: Problem[] = []
+  states.forEach((s, i) => {
+    if (s.x !== null && !(s.x >= -SLACK && s.x <= 1 + SLACK))
+      out.push({
+        code: 'quality-out-of-range',
+        message: `${stateName(s.name, i)}: quality x = ${fmt(s.x)} is outside 0 to 1.`,
+      })
+  })
+  return out
+}
+
+/** Water in the general cycle format: positive states, qualities, the first law per cycle, η ≤ Carnot. */
+function steamCycleProblems(sol: FormattedSteamCycle): Problem[] {
+  const out = [...stateProblems(sol.states), ...qualityProblems(sol.states)]
+  const t = sol.totals
+  const temps = sol.states.map((s) => s.T.value)
+  const bound = 1 - Math.min(...temps) / Math.max(...temps)
+  const eta = t.efficiency?.value
+  if (eta !== undefined && (!Number.isFinite(eta) || eta < -SLACK || eta > bound + SLACK))
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The efficiency ${fmt(eta)} is outside 0 to the Carnot bound ${fmt(bound)}.`,
+    })
+  return out
+}
+
+/** The throttling calorimeter: the line steam's quality between the calorimeter's lowest and 1. */
+function calorimeterProblems(sol: FormattedCalorimeter): Problem[] {
+  const out = stateProblems(sol.states)
+  const t = sol.totals
+  const x = t.quality.value
+  if (!(x >= t.lowestMeasurableQuality.value - SLACK && x <= 1 + SLACK))
+    out.push({
+      code: 'quality-out-of-range',
+      message: `The line steam's quality ${fmt(x)} is outside ${fmt(t.lowestMeasurableQuality.value)} (the lowest this calorimeter measures) to 1.`,
+    })
+  if (!(t.superheat.value > 0))
+    out.push({
+      code: 'quality-out-of-range',
+      message: `The calorimeter steam is not superheated (${fmt(t.superheat.value)} K above saturation).`,
+    })
+  return out
+}
+
 /** What is physically wrong with one drawn variant (an empty list when nothing is). */
 export function checkVariantSanity(result: DrawResult): SweepFailure[] {
   if (!result.ok) return [{ seed: result.seed, code: result.error.code, message: result.error.message }]
@@ -148,11 +199,21 @@ export function checkVariantSanity(result: DrawResult): SweepFailure[] {
   const sol = v.solution
   const kind = solutionKind(sol)
   const problems =
-    kind === 'refrigeration'
-      ? refrigerationProblems(sol as FormattedRefrigeration, v.spec)
-      : kind === 'rankine'
-        ? rankineProblems(sol as FormattedRankine)
-        : idealGasProblems(sol as FormattedSolution)
+    kind === 'two-stage-refrigeration'
+      ? twoStageProblems(sol as FormattedTwoStage)
+      : kind === 'cascade-refrigeration'
+        ? cascadeProblems(sol as FormattedCascade)
+        : kind === 'steady-flow'
+          ? steadyFlowProblems(sol as FormattedFlow)
+          : kind === 'steam-cycle'
+            ? steamCycleProblems(sol as FormattedSteamCycle)
+            : kind === 'calorimeter'
+              ? calorimeterProblems(sol as FormattedCalorimeter)
+              : kind === 'refrigeration'
+                ? refrigerationProblems(sol as FormattedRefrigeration, v.spec)
+                : kind === 'rankine'
+                  ? rankineProblems(sol as FormattedRankine)
+                  : idealGasProblems(sol as FormattedSolution)
   for (const k of v.key) {
     if (!Number.isFinite(k.value))
       problems.push({ code: 'find-undefined', message: `Find "${k.name}": the key is not a finite number.` })

@@ -10,7 +10,7 @@
  * - 'sign-convention-flipped' needs a key whose sign the convention decides (work in the
  *   convention's sign: totals.netWork, steps.N.w, …), not a size such as heat in.
  * - 'kilo-factor' needs an energy (a J in the find's unit) or a kJ reaching the solver.
- * - The steam and refrigerant solvers read their own inputs and take no slips, so on their
+ * - The steam, refrigerant and steady-flow solvers read their own inputs and take no slips, so on their
  *   templates only the sign slip and a factor of 1000 on an energy answer can fire.
  */
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
@@ -45,7 +45,17 @@ export const TEMPLATES_WITHOUT_SLIPS: ReadonlySet<string> = new Set([
   'rankine',
   'rankine-reheat',
   'rankine-regenerative',
+  'rankine-feedwater',
+  'rankine-cogeneration',
   'vapour-compression',
+  'vapour-compression-two-stage',
+  'vapour-compression-cascade',
+  'steam-throttling-calorimeter',
+  'steam-carnot',
+  // The steady-flow solver (thermo/flow) reads its own inputs and takes no slips either.
+  'nozzle',
+  'diffuser',
+  'turbojet',
 ])
 
 /** As app/domain/thermo/spec.ts's specMentions reads a spec. */
@@ -119,7 +129,7 @@ export function whyPitfallCannotFire(def: ProblemDefinition, findIndex: number, 
     return 'pitfalls are recognised only on a find that comes from a solver output, not an expression'
   const templateId = def.physics?.kind === 'template' ? def.physics.template : null
   if (templateId !== null && TEMPLATES_WITHOUT_SLIPS.has(templateId) && SOLVER_SLIPS.has(id))
-    return 'the steam and refrigerant solvers cannot make this slip, so it can never be recognised'
+    return 'the steam, refrigerant and steady-flow solvers cannot make this slip, so it can never be recognised'
   switch (id) {
     case 'celsius-for-kelvin':
       return 'no temperature in °C reaches the solver in this problem'

@@ -20,10 +20,10 @@ test('bank templates solve for bank problems; the others are refused there with 
   for (const e of TEMPLATE_CATALOG) {
     const r = solveBankSpec({ template: e.id, inputs: {} })
     if (e.bank) expect(r.ok || r.error.code !== NOT_IN_BANK, e.id).toBe(true)
+    else expect(!r.ok && r.error.code === NOT_IN_BANK, e.id).toBe(true)
   }
-  expect(TEMPLATE_CATALOG.filter((e) => !e.bank).map((e) => e.id)).toEqual(
-    expect.arrayContaining(['combined-cycle', 'steam-throttling-calorimeter', 'steam-carnot']),
-  )
+  // The combined cycle's two-fluid result is not keyed or drawn by the authoring layer yet.
+  expect(TEMPLATE_CATALOG.filter((e) => !e.bank).map((e) => e.id)).toContain('combined-cycle')
 })
 
 test('short labels come from the titles', () => {

@@ -71,15 +71,20 @@ function entries(family: TemplateFamily, list: readonly Described[], bank: boole
 export const TEMPLATE_CATALOG: readonly CatalogEntry[] = [
   ...entries('ideal-gas', Object.values(templates), true),
   ...entries('steam', RANKINE_TEMPLATES, true),
-  // A heater list, a calorimeter, water in the general cycle format and the combined cycle
+  // A heater list, water in the general cycle format written out in full and the combined cycle
   // have results or inputs the editor and the authoring layer do not handle yet.
-  ...entries('steam', STEAM_PLANT_TEMPLATES, false),
-  ...entries('steam', [CALORIMETER_TEMPLATE, STEAM_CARNOT_TEMPLATE], false),
+  // Steam plants with a heater list and cogeneration: the definition takes the heater list
+  // (definition.ts HeaterInput) and worked-solution/steam-plant.ts explains every heater.
+  ...entries('steam', STEAM_PLANT_TEMPLATES, true),
+  ...entries('steam', [CALORIMETER_TEMPLATE, STEAM_CARNOT_TEMPLATE], true),
   ...entries('combined', COMBINED_TEMPLATES, false),
-  // Per template: the single-stage vapour-compression cycle only; other refrigeration templates
-  // wait until the authoring layer keys, explains and draws them.
-  ...REFRIGERATION_TEMPLATES.flatMap((t) => entries('refrigeration', [t], t.id === 'vapour-compression')),
-  ...entries('steady-flow', STEADY_FLOW_TEMPLATES, false),
+  // The single-stage, two-stage (flash chamber) and cascade cycles: keyed, explained and drawn by
+  // the authoring layer (solution-kind.ts, worked-solution/multi-stage-refrigeration.ts,
+  // refrigeration-diagrams.ts).
+  ...entries('refrigeration', REFRIGERATION_TEMPLATES, true),
+  // Nozzle, diffuser and turbojet: keyed, explained and drawn by the authoring layer
+  // (solution-kind.ts 'steady-flow', worked-solution/steady-flow.ts, flow-diagrams.ts).
+  ...entries('steady-flow', STEADY_FLOW_TEMPLATES, true),
 ]
 
 /** The templates bank problems may use (see CatalogEntry.bank). */

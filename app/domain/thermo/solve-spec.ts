@@ -19,7 +19,7 @@ import { templateEntry, templateIds } from './catalog.ts'
 import type { FormattedRankine } from './steam/rankine-template.ts'
 import { isCombinedTemplate, solveCombinedTemplate } from './combined/combined-template.ts'
 import type { FormattedCombined } from './combined/combined-template.ts'
-import { isSteadyFlowTemplate, solveSteadyFlowTemplate, STEADY_FLOW_FAMILY } from './flow/flow-template.ts'
+import { isSteadyFlowTemplate, solveSteadyFlowTemplate } from './flow/flow-template.ts'
 import type { FormattedFlow } from './flow/flow-template.ts'
 import { isRefrigerationTemplate, solveRefrigerationTemplate } from './refrigerants/refrigeration-template.ts'
 import type { FormattedMultiStageRefrigeration, FormattedRefrigeration } from './refrigerants/refrigeration-template.ts'
@@ -156,7 +156,14 @@ export const NOT_IN_BANK = 'not-in-bank'
  * and the single-stage vapour-compression cycle ('vapour-compression' only: other refrigeration
  * templates share its result type but stay out of the bank until the authoring layer handles them).
  */
-export type BankSolution = FormattedSolution | FormattedRankine | FormattedRefrigeration
+export type BankSolution =
+  | FormattedSolution
+  | FormattedRankine
+  | FormattedRefrigeration
+  | FormattedMultiStageRefrigeration
+  | FormattedCalorimeter
+  | FormattedSteamCycle
+  | FormattedFlow
 
 /**
  * solveSpec for bank problems (drawing variants, lint, pitfalls): the templates whose results
@@ -167,12 +174,13 @@ export type BankSolution = FormattedSolution | FormattedRankine | FormattedRefri
  */
 function isBankSolution(r: AnySolution): r is BankSolution {
   if ('gasStates' in r) return false // combined cycle
-  if ('family' in r && r.family === STEADY_FLOW_FAMILY) return false // nozzle, diffuser, turbojet (./flow)
   if ('template' in r && typeof r.template === 'string') {
     const entry = templateEntry(r.template)
     if (entry && !entry.bank) return false
   }
-  if ('steps' in r && 'substance' in r) return false // water in the general cycle format (ideal-gas results name a gas, not a substance)
+  // Water in the general cycle format written out in full ({ steamCycle }) has no bank physics
+  // kind yet; the vapour Carnot template, which gives the same result, is let in by its id above.
+  if ('steps' in r && 'substance' in r && r.template === null) return false
   return true
 }
 

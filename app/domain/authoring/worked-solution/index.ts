@@ -11,12 +11,25 @@
 import { type ProblemDefinition, type Variant } from '../definition.ts'
 import { escapeHtml, renderMath } from '../prompt.ts'
 import { splitIdentifiers } from '../quantities.ts'
-import { isIdealGasSolution, isRankineSolution, isRefrigerationSolution } from '../solution-kind.ts'
+import {
+  isCalorimeterSolution,
+  isIdealGasSolution,
+  isRankineSolution,
+  isRefrigerationSolution,
+  isTwoStageSolution,
+  isCascadeSolution,
+  isSteamCycleSolution,
+  isSteadyFlowSolution,
+} from '../solution-kind.ts'
+import { kineticEnergyLine, steadyFlowSections } from './steady-flow.ts'
+import { calorimeterSections } from './calorimeter.ts'
+import { steamCycleSections } from './steam-cycle.ts'
 import type { WorkedSection, WorkedSolution } from './types.ts'
 import { conventionSection, symbolsFor } from './common.ts'
 import { idealGasSections } from './ideal-gas.ts'
 import { rankineSections } from './rankine.ts'
 import { refrigerationSections } from './refrigeration.ts'
+import { cascadeSections, twoStageSections } from './multi-stage-refrigeration.ts'
 import { givensSection, keySection } from './key.ts'
 
 export type { WorkedLine, WorkedSection, WorkedSolution } from './types.ts'
@@ -35,6 +48,27 @@ export function workedSolution(variant: Variant, def: ProblemDefinition): Worked
   if (isRefrigerationSolution(sol)) {
     conv = conventionSection(convention, true, 'refrigerant')
     physics = refrigerationSections(sol, variant, sym)
+    caution = sol.notice
+  } else if (isTwoStageSolution(sol)) {
+    conv = conventionSection(convention, true, 'refrigerant')
+    physics = twoStageSections(sol, variant, sym)
+    caution = sol.notice
+  } else if (isCascadeSolution(sol)) {
+    conv = conventionSection(convention, true, 'refrigerant')
+    physics = cascadeSections(sol, variant, sym)
+    caution = sol.notice
+  } else if (isSteadyFlowSolution(sol)) {
+    const base = conventionSection(convention, true)
+    conv = { text: base.text, section: { ...base.section, lines: [...base.section.lines, kineticEnergyLine(sym)] } }
+    physics = steadyFlowSections(sol, variant, sym)
+    caution = sol.notice
+  } else if (isCalorimeterSolution(sol)) {
+    conv = conventionSection(convention, true, 'steam')
+    physics = calorimeterSections(sol)
+    caution = sol.notice
+  } else if (isSteamCycleSolution(sol)) {
+    conv = conventionSection(convention, sol.system === 'flow', 'water')
+    physics = steamCycleSections(sol, sym)
     caution = sol.notice
   } else if (isRankineSolution(sol)) {
     conv = conventionSection(convention, true)
