@@ -1233,6 +1233,126 @@ const braytonExergy: ProblemDefinition = {
   ],
 }
 
+// ---- Refrigeration: two-stage compression and a cascade -----------------------------------
+
+const twoStageFlash: ProblemDefinition = {
+  format: 2,
+  title: 'Two-stage R-134a refrigerator with a flash chamber',
+  tags: {
+    topics: ['refrigeration', 'vapour compression', 'two-stage compression', 'flash chamber', 'R-134a'],
+    difficulty: 'challenging',
+    level: 'upper-level',
+  },
+  convention: 'course',
+  prompt: [
+    REFRIGERANT_CAUTION,
+    '',
+    'A cold store is cooled by a two-stage vapour-compression refrigerator on R-134a. The refrigerant leaves the evaporator as saturated vapour at [TL] and the condenser as saturated liquid at [TH]. The liquid is throttled into an open flash chamber at [pI]; the flash vapour mixes with the low-stage discharge before the high-stage compressor, and the flash liquid is throttled into the evaporator. Both adiabatic compressors have an isentropic efficiency of [etaC, 2 dp], and [mdot] of refrigerant flows through the condenser.',
+    '',
+    'Find:',
+    '',
+    '1. the fraction of the refrigerant that flashes to vapour in the flash chamber,',
+    '2. the refrigeration effect per kilogram of refrigerant through the condenser,',
+    '3. the work input of both compressors per kilogram through the condenser, as a positive number,',
+    '4. the coefficient of performance,',
+    '5. the mass flow rate through the evaporator,',
+    '6. the heat rejected in the condenser per kilogram, as a positive number.',
+  ].join('\n'),
+  givens: [
+    range('TL', 'evaporator saturation temperature', '°C', -30, -20, 2),
+    range('TH', 'condenser saturation temperature', '°C', 30, 40, 5),
+    choice('pI', 'flash chamber pressure', 'MPa', [0.3, 0.32, 0.36]),
+    choice('etaC', 'isentropic efficiency of each compressor', '', [0.8, 0.85, 0.9]),
+    range('mdot', 'refrigerant mass flow rate through the condenser', 'kg/s', 0.04, 0.08, 0.01),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'vapour-compression-two-stage',
+    inputs: {
+      refrigerant: 'R134a',
+      evaporatorTemperature: 'TL',
+      condenserTemperature: 'TH',
+      intermediatePressure: 'pI',
+      compressorEfficiency: 'etaC',
+      highStageMassFlow: 'mdot',
+    },
+  },
+  finds: [
+    output('x6', 'Fraction of the refrigerant that flashes to vapour', 'totals.flashVapourFraction', '', 2),
+    output('qL', 'Refrigeration effect per kg through the condenser', 'totals.refrigerationEffect', 'kJ/kg', 3, {
+      sense: 'heat-into-system',
+      pitfalls: ['kilo-factor'],
+    }),
+    output('Win', 'Work input of both compressors per kg through the condenser', 'totals.compressorWork', 'kJ/kg', 3, {
+      sense: 'work-on-system',
+      pitfalls: ['kilo-factor'],
+    }),
+    output('cop', 'Coefficient of performance', 'totals.copRefrigerator', '', 2),
+    output('mLow', 'Mass flow rate through the evaporator', 'totals.lowStageMassFlow', 'kg/s', 2),
+    output('qH', 'Heat rejected in the condenser per kg', 'devices.5.q', 'kJ/kg', 2, {
+      sense: 'heat-out-of-system',
+      pitfalls: ['kilo-factor'],
+    }),
+  ],
+}
+
+const cascadeFreezer: ProblemDefinition = {
+  format: 2,
+  title: 'Cascade laboratory freezer: R-744 below R-134a',
+  tags: {
+    topics: ['refrigeration', 'cascade', 'vapour compression', 'R-744', 'R-134a', 'coefficient of performance'],
+    difficulty: 'challenging',
+    level: 'upper-level',
+  },
+  convention: 'course',
+  prompt: [
+    REFRIGERANT_CAUTION,
+    '',
+    'An ultra-low-temperature laboratory freezer removes [QL] from its cabinet with a cascade of two vapour-compression cycles. The lower cycle runs on R-744 (carbon dioxide): it evaporates at [TL] and condenses at [TX] in the cascade heat exchanger, where the upper cycle, on R-134a, evaporates at −10 °C. The upper cycle condenses at [TH]. Each cycle leaves its evaporator as saturated vapour and its condenser as saturated liquid, the exchanger is adiabatic, and both adiabatic compressors have an isentropic efficiency of [etaC, 2 dp].',
+    '',
+    'Find:',
+    '',
+    '1. the mass flow rate of R-134a per unit mass flow rate of R-744,',
+    '2. the mass flow rate of R-744,',
+    '3. the work input of the upper (R-134a) compressor per kilogram of R-744, as a positive number,',
+    '4. the coefficient of performance of the cascade,',
+    '5. the total compressor power input.',
+  ].join('\n'),
+  givens: [
+    range('QL', 'refrigeration capacity', 'kW', 1.5, 3, 0.5),
+    range('TL', 'R-744 evaporating temperature', '°C', -50, -40, 5),
+    range('TX', 'R-744 condensing temperature in the cascade heat exchanger', '°C', -8, -4, 2),
+    range('TH', 'R-134a condensing temperature', '°C', 35, 45, 5),
+    choice('etaC', 'isentropic efficiency of each compressor', '', [0.75, 0.8, 0.85]),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'vapour-compression-cascade',
+    inputs: {
+      lowerRefrigerant: 'R744',
+      upperRefrigerant: 'R134a',
+      evaporatorTemperature: 'TL',
+      lowerCondenserTemperature: 'TX',
+      upperEvaporatorTemperature: '-10 °C',
+      condenserTemperature: 'TH',
+      compressorEfficiency: 'etaC',
+      capacity: 'QL',
+    },
+  },
+  finds: [
+    output('ratio', 'Mass flow rate of R-134a per unit mass flow rate of R-744', 'totals.massFlowRatio', '', 2),
+    output('mB', 'Mass flow rate of R-744', 'totals.lowerMassFlow', 'g/s', 2),
+    output('wA', 'Upper compressor work input per kg of R-744', 'totals.upperCompressorWork', 'kJ/kg', 3, {
+      sense: 'work-on-system',
+      pitfalls: ['kilo-factor'],
+    }),
+    output('cop', 'Coefficient of performance of the cascade', 'totals.copRefrigerator', '', 2),
+    output('Wdot', 'Total compressor power input', 'totals.compressorPower', 'kW', 2, { sense: 'work-on-system' }),
+  ],
+}
+
 export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'amara', visibility: 'department', definition: carnotEngine },
   { owner: 'tobias', visibility: 'department', definition: carnotRefrigerator },
@@ -1259,4 +1379,6 @@ export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'amara', visibility: 'private', definition: diffuser },
   { owner: 'tobias', visibility: 'department', definition: turbojet },
   { owner: 'tobias', visibility: 'department', definition: braytonExergy },
+  { owner: 'tobias', visibility: 'department', definition: twoStageFlash },
+  { owner: 'amara', visibility: 'department', definition: cascadeFreezer },
 ]

@@ -99,10 +99,10 @@ describe('a bank problem on the vapour-compression template', () => {
     }
   })
 
-  test('another refrigeration template is refused when saved, with the reason by field', async () => {
+  test('a template outside the bank (the combined cycle) is refused when saved', async () => {
     const { viewer } = await createBankUser(db())
     const other = refrigerator({
-      physics: { kind: 'template', template: 'vapour-compression-two-stage', inputs: { refrigerant: 'R134a' } },
+      physics: { kind: 'template', template: 'combined-cycle', inputs: {} },
     })
     await expect(createProblem(db(), viewer, { definition: other, visibility: 'private' })).rejects.toBeInstanceOf(
       InvalidDefinitionError,

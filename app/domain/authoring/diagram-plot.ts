@@ -45,11 +45,26 @@ export interface CycleDiagrams {
   readonly ts: Plot
   /** the pressure–enthalpy diagram (log p against h) of a refrigeration cycle, shown first */
   readonly ph?: Plot
+  /**
+   * a second cycle on its own substance's dome (the upper cycle of a cascade refrigerator, whose
+   * refrigerant differs from the lower one's): shown beside the first, plot by plot
+   */
+  readonly second?: Omit<CycleDiagrams, 'second'>
 }
 
-/** The plots to show, in order: p–h (refrigeration), then P–v and T–s, or for refrigeration T–s before P–v. */
-export function diagramPlots(d: CycleDiagrams): Plot[] {
+function plotsOf(d: Omit<CycleDiagrams, 'second'>): Plot[] {
   return d.ph ? [d.ph, d.ts, d.pv] : [d.pv, d.ts]
+}
+
+/**
+ * The plots to show, in order: p–h (refrigeration), then P–v and T–s, or for refrigeration T–s
+ * before P–v; with a second cycle, each of its plots follows the first cycle's of the same kind.
+ */
+export function diagramPlots(d: CycleDiagrams): Plot[] {
+  const first = plotsOf(d)
+  if (!d.second) return first
+  const second = plotsOf(d.second)
+  return first.flatMap((p, i) => (second[i] ? [p, second[i]] : [p]))
 }
 
 const fmt = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : '—')

@@ -247,6 +247,10 @@ function pathExamples(def: ProblemDefinition): string {
   const id = def.physics.kind === 'template' ? def.physics.template : ''
   if (id === 'vapour-compression')
     return 'e.g. totals.copRefrigerator, totals.refrigerationEffect, totals.compressorWork, states.4.x, devices.1.w'
+  if (id === 'vapour-compression-two-stage')
+    return 'e.g. totals.copRefrigerator, totals.flashVapourFraction, totals.refrigerationEffect, totals.lowStageWork, totals.highStageWork, totals.heatRejected, states.6.x; rates (totals.capacity, totals.highStageMassFlow, totals.lowStageMassFlow, totals.compressorPower) need highStageMassFlow, lowStageMassFlow or capacity'
+  if (id === 'vapour-compression-cascade')
+    return 'e.g. totals.copRefrigerator, totals.massFlowRatio, totals.refrigerationEffect, totals.lowerCompressorWork, totals.upperCompressorWork, totals.heatRejected, states.4.x; rates (totals.capacity, totals.lowerMassFlow, totals.upperMassFlow, totals.compressorPower) need lowerMassFlow, upperMassFlow or capacity'
   if (id.startsWith('rankine')) return 'e.g. totals.netWork, totals.efficiency, totals.turbineExitQuality, states.2.h'
   return 'e.g. totals.netWork, states.2.T, steps.1.q'
 }

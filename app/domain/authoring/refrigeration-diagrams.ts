@@ -19,7 +19,9 @@
  */
 import { REFRIGERANT_IDS, getRefrigerant } from '#app/domain/thermo/refrigerants/index.ts'
 import type { FluidState, Refrigerant } from '#app/domain/thermo/refrigerants/index.ts'
+import type { FormattedCascade, FormattedTwoStage } from '#app/domain/thermo/refrigerants/multi-stage-template.ts'
 import type { FormattedRefrigeration } from '#app/domain/thermo/refrigerants/refrigeration-template.ts'
+import type { RefrigerantId } from '#app/domain/thermo/refrigerants/types.ts'
 import type { Curve, CycleDiagrams, Plot } from './diagram-plot.ts'
 import { LIN, axes, cleanCurve, finite, pin, positive, straight, type Pair, type Scale } from './diagram-math.ts'
 
@@ -222,53 +224,73 @@ function safely<T>(f: () => T | null): T | null {
   }
 }
 
-/** The three diagrams of a vapour-compression cycle; null when its states are not the solver's four. */
-export function refrigerationDiagrams(sol: FormattedRefrigeration): CycleDiagrams | null {
-  const raw = sol.states.map((st) => ({
+interface Labelled {
+  readonly label: string
+  readonly pt: RefrigerantPoint
+}
+
+/** A solution's states as points; null unless every one has a positive p, T, v and a finite h, s. */
+function labelled(
+  states: readonly {
+    name: string
+    p: { value: number }
+    T: { value: number }
+    h: { value: number }
+    s: { value: number }
+    v: { value: number }
+  }[],
+): Labelled[] | null {
+  const raw = states.map((st) => ({
     label: st.name,
     pt: { p: st.p.value, T: st.T.value, h: st.h.value, s: st.s.value, v: st.v.value },
   }))
-  if (raw.length !== 4 || !raw.every((r) => positive(r.pt.p, r.pt.T, r.pt.v) && finite(r.pt.h, r.pt.s))) return null
-  const [s1, s2, s3, s4] = raw as [(typeof raw)[0], (typeof raw)[0], (typeof raw)[0], (typeof raw)[0]]
-  const f = refrigerantOf(sol.substance)
-  const fluidName = sol.substance.replace(/\s*\(.*\)\s*$/, '')
-  const gasCooler = f !== null && s2.pt.p >= f.pc
-  const isentropic = Math.abs(s2.pt.s - s1.pt.s) <= 1e-7 * Math.max(Math.abs(s1.pt.s), 1)
+  return raw.every((r) => positive(r.pt.p, r.pt.T, r.pt.v) && finite(r.pt.h, r.pt.s)) ? raw : null
+}
 
-  const curves: Built[] = [
-    curveOf(
-      s1.label,
-      s2.label,
-      isentropic ? 'compressor (isentropic compression)' : 'compressor (irreversible compression)',
-      !isentropic,
-      s1.pt,
-      s2.pt,
-      f && isentropic ? safely(() => refrigerantIsentrope(f, s1.pt, s2.pt)) : null,
-    ),
-    curveOf(
-      s2.label,
-      s3.label,
-      gasCooler
-        ? 'gas cooler (isobaric heat rejection above the critical pressure)'
-        : 'condenser (isobaric heat rejection)',
-      false,
-      s2.pt,
-      s3.pt,
-      f ? safely(() => refrigerantIsobar(f, s2.pt.p, s2.pt, s3.pt)) : null,
-    ),
-    curveOf(s3.label, s4.label, 'throttling valve (isenthalpic, irreversible)', true, s3.pt, s4.pt, null),
-    curveOf(
-      s4.label,
-      s1.label,
-      'evaporator (isobaric heat absorption)',
-      false,
-      s4.pt,
-      s1.pt,
-      f ? safely(() => refrigerantIsobar(f, s4.pt.p, s4.pt, s1.pt)) : null,
-    ),
-  ]
+/** A compressor from a to b: the isentrope when s is unchanged, else a dashed straight segment. */
+function compressorCurve(f: Refrigerant | null, a: Labelled, b: Labelled, name: string): Built {
+  const isentropic = Math.abs(b.pt.s - a.pt.s) <= 1e-7 * Math.max(Math.abs(a.pt.s), 1)
+  return curveOf(
+    a.label,
+    b.label,
+    isentropic ? `${name} (isentropic compression)` : `${name} (irreversible compression)`,
+    !isentropic,
+    a.pt,
+    b.pt,
+    f && isentropic ? safely(() => refrigerantIsentrope(f, a.pt, b.pt)) : null,
+  )
+}
 
-  const Tmin = Math.min(...raw.map((r) => r.pt.T))
+/** A path at the pressure of a, through the dome's corners: heat exchangers, and (dashed) mixing and separation. */
+function isobarCurve(f: Refrigerant | null, a: Labelled, b: Labelled, process: string, dashed = false): Built {
+  return curveOf(
+    a.label,
+    b.label,
+    process,
+    dashed,
+    a.pt,
+    b.pt,
+    f ? safely(() => refrigerantIsobar(f, a.pt.p, a.pt, b.pt)) : null,
+  )
+}
+
+/** A throttling valve: isenthalpic and irreversible, a dashed straight segment (vertical on the p–h chart). */
+function valveCurve(a: Labelled, b: Labelled, name: string): Built {
+  return curveOf(a.label, b.label, `${name} (isenthalpic, irreversible)`, true, a.pt, b.pt, null)
+}
+
+/**
+ * The p–h, T–s and P–v plots of one cycle on one refrigerant's dome. `which` names the cycle in
+ * the titles when a figure shows more than one ("lower cycle").
+ */
+function plotsFor(
+  f: Refrigerant | null,
+  fluidName: string,
+  states: readonly Labelled[],
+  curves: readonly Built[],
+  which?: string,
+): Omit<CycleDiagrams, 'second'> {
+  const Tmin = Math.min(...states.map((r) => r.pt.T))
   const dome = f ? (safely(() => refrigerantDome(f, Tmin - DOME_BELOW)) ?? []) : []
   const domeFrom =
     f && dome.length > 0 && dome[0]!.T > f.Ttriple + 1e-6
@@ -276,12 +298,12 @@ export function refrigerationDiagrams(sol: FormattedRefrigeration): CycleDiagram
       : 'the triple point'
   const domeOf = (map: (a: RefrigerantPoint) => Pair): Pick<Plot, 'dome'> =>
     dome.length > 2 ? { dome: { points: dome.map(map), fluid: fluidName, from: domeFrom } } : {}
-
   const points = (map: (a: RefrigerantPoint) => Pair) =>
-    raw.map((r) => {
+    states.map((r) => {
       const [x, y] = map(r.pt)
       return { label: r.label, x, y }
     })
+  const name = which ? `${which}, ${fluidName}` : fluidName
   const plot = (
     key: keyof Built,
     map: (a: RefrigerantPoint) => Pair,
@@ -308,7 +330,7 @@ export function refrigerationDiagrams(sol: FormattedRefrigeration): CycleDiagram
       'ph',
       ph,
       PH_SCALES,
-      `p–h diagram — ${fluidName}, logarithmic pressure axis`,
+      `p–h diagram — ${name}, logarithmic pressure axis`,
       { label: 'specific enthalpy h', unit: 'kJ/kg' },
       { label: 'pressure p (log scale)', unit: 'kPa' },
     ),
@@ -316,7 +338,7 @@ export function refrigerationDiagrams(sol: FormattedRefrigeration): CycleDiagram
       'ts',
       ts,
       LIN,
-      `T–s diagram — ${fluidName}`,
+      `T–s diagram — ${name}`,
       { label: 'specific entropy s', unit: 'kJ/(kg·K)' },
       { label: 'temperature T', unit: 'K' },
     ),
@@ -324,9 +346,123 @@ export function refrigerationDiagrams(sol: FormattedRefrigeration): CycleDiagram
       'pv',
       pv,
       LOG,
-      `P–v diagram — ${fluidName}, log–log axes`,
+      `P–v diagram — ${name}, log–log axes`,
       { label: 'specific volume v (log scale)', unit: 'm³/kg' },
       { label: 'pressure p (log scale)', unit: 'kPa' },
     ),
   }
+}
+
+const fluidNameOf = (substance: string) => substance.replace(/\s*\(.*\)\s*$/, '')
+
+/** The four curves of a single-stage cycle 1 → 2 → 3 → 4 → 1 (evaporator exit first). */
+function singleStageCurves(
+  f: Refrigerant | null,
+  [s1, s2, s3, s4]: readonly [Labelled, Labelled, Labelled, Labelled],
+  where: { condenser?: string; evaporator?: string; compressor?: string; valve?: string } = {},
+): Built[] {
+  const gasCooler = f !== null && s2.pt.p >= f.pc
+  return [
+    compressorCurve(f, s1, s2, where.compressor ?? 'compressor'),
+    isobarCurve(
+      f,
+      s2,
+      s3,
+      gasCooler
+        ? 'gas cooler (isobaric heat rejection above the critical pressure)'
+        : (where.condenser ?? 'condenser (isobaric heat rejection)'),
+    ),
+    valveCurve(s3, s4, where.valve ?? 'throttling valve'),
+    isobarCurve(f, s4, s1, where.evaporator ?? 'evaporator (isobaric heat absorption)'),
+  ]
+}
+
+/** The three diagrams of a vapour-compression cycle; null when its states are not the solver's four. */
+export function refrigerationDiagrams(sol: FormattedRefrigeration): CycleDiagrams | null {
+  const raw = labelled(sol.states)
+  if (!raw || raw.length !== 4) return null
+  const f = refrigerantOf(sol.substance)
+  const four = raw as [Labelled, Labelled, Labelled, Labelled]
+  return plotsFor(f, fluidNameOf(sol.substance), raw, singleStageCurves(f, four))
+}
+
+/**
+ * The two-stage cycle with a flash chamber (states 1–9 as the solver numbers them): both
+ * compressors, the mixing chamber (2 and the flash vapour 9 meet at 3 on the intermediate
+ * isobar, dashed: adiabatic mixing is irreversible), the condenser, the high-pressure valve into
+ * the flash chamber (6 splits along the isobar into saturated liquid 7 and vapour 9, dashed), the
+ * low-pressure valve and the evaporator, on the refrigerant's dome. Null unless the states are the solver's nine.
+ */
+export function twoStageDiagrams(sol: FormattedTwoStage): CycleDiagrams | null {
+  const raw = labelled(sol.states)
+  if (!raw || raw.length !== 9 || raw.some((r, i) => r.label !== String(i + 1))) return null
+  const [s1, s2, s3, s4, s5, s6, s7, s8, s9] = raw as [
+    Labelled,
+    Labelled,
+    Labelled,
+    Labelled,
+    Labelled,
+    Labelled,
+    Labelled,
+    Labelled,
+    Labelled,
+  ]
+  const f = refrigerantOf(sol.substance)
+  const curves: Built[] = [
+    compressorCurve(f, s1, s2, 'low-stage compressor'),
+    isobarCurve(f, s2, s3, 'mixing chamber (low-stage discharge cooled by the flash vapour, adiabatic mixing)', true),
+    compressorCurve(f, s3, s4, 'high-stage compressor'),
+    isobarCurve(f, s4, s5, 'condenser (isobaric heat rejection)'),
+    valveCurve(s5, s6, 'high-pressure valve'),
+    isobarCurve(f, s6, s7, 'flash chamber (saturated liquid separated)', true),
+    valveCurve(s7, s8, 'low-pressure valve'),
+    isobarCurve(f, s8, s1, 'evaporator (isobaric heat absorption)'),
+    isobarCurve(f, s6, s9, 'flash chamber (saturated vapour separated)', true),
+    isobarCurve(f, s9, s3, 'flash vapour into the mixing chamber (adiabatic mixing)', true),
+  ]
+  return plotsFor(f, fluidNameOf(sol.substance), raw, curves, 'two-stage cycle')
+}
+
+/**
+ * The cascade: each cycle on its own refrigerant's dome, the lower cycle (states 1–4) first and
+ * the upper cycle (5–8) as the second set of plots. The lower cycle's condenser and the upper
+ * cycle's evaporator are the two sides of the cascade heat exchanger. Null unless the states are
+ * the solver's eight.
+ */
+export function cascadeDiagrams(sol: FormattedCascade): CycleDiagrams | null {
+  const raw = labelled(sol.states)
+  if (!raw || raw.length !== 8) return null
+  const lowerStates = raw.slice(0, 4) as [Labelled, Labelled, Labelled, Labelled]
+  const upperStates = raw.slice(4) as [Labelled, Labelled, Labelled, Labelled]
+  const fluid = (i: number) => {
+    const id = sol.states[i]!.refrigerant
+    return (REFRIGERANT_IDS as readonly string[]).includes(id) ? getRefrigerant(id as RefrigerantId) : null
+  }
+  const fl = fluid(0)
+  const fu = fluid(4)
+  const lower = plotsFor(
+    fl,
+    fl ? fluidNameOf(fl.name) : sol.states[0]!.refrigerant,
+    lowerStates,
+    singleStageCurves(fl, lowerStates, {
+      compressor: 'lower-cycle compressor',
+      condenser: 'cascade heat exchanger, lower cycle condensing (isobaric heat rejection to the upper cycle)',
+      valve: 'lower-cycle valve',
+      evaporator: 'evaporator, the cold space (isobaric heat absorption)',
+    }),
+    'lower cycle',
+  )
+  const upper = plotsFor(
+    fu,
+    fu ? fluidNameOf(fu.name) : sol.states[4]!.refrigerant,
+    upperStates,
+    singleStageCurves(fu, upperStates, {
+      compressor: 'upper-cycle compressor',
+      condenser: 'condenser (isobaric heat rejection to the surroundings)',
+      valve: 'upper-cycle valve',
+      evaporator: 'cascade heat exchanger, upper cycle evaporating (isobaric heat absorption from the lower cycle)',
+    }),
+    'upper cycle',
+  )
+  return { ...lower, second: upper }
 }

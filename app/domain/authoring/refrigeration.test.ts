@@ -650,13 +650,19 @@ describe('lint and the bank', () => {
     ])
   })
 
-  test('only the single-stage template is in the bank; other refrigeration templates are refused by id', () => {
+  test('the refrigeration templates are in the bank (two-stage and cascade: multi-stage-refrigeration.test.ts)', () => {
     const refrigeration = TEMPLATE_CATALOG.filter((e) => e.family === 'refrigeration')
-    expect(refrigeration.filter((e) => e.bank).map((e) => e.id)).toEqual(['vapour-compression'])
-    for (const e of refrigeration.filter((x) => !x.bank)) {
-      const r = solveBankSpec({ template: e.id, inputs: { refrigerant: 'R134a' } })
-      expect(r.ok, e.id).toBe(false)
-      if (!r.ok) expect(r.error.code, e.id).toBe(NOT_IN_BANK)
+    expect(refrigeration.filter((e) => e.bank).map((e) => e.id)).toEqual([
+      'vapour-compression',
+      'vapour-compression-two-stage',
+      'vapour-compression-cascade',
+    ])
+    // A template outside the bank is still refused by its id (the combined cycle).
+    const combined = TEMPLATE_CATALOG.find((e) => e.family === 'combined' && !e.bank)
+    if (combined) {
+      const r = solveBankSpec({ template: combined.id, inputs: {} })
+      expect(r.ok).toBe(false)
+      if (!r.ok) expect(r.error.code).toBe(NOT_IN_BANK)
     }
     const ok = solveBankSpec({
       template: 'vapour-compression',

@@ -45,7 +45,30 @@ function isRankine(templateId: string | null): boolean {
 
 /** The refrigeration templates' result (refrigerants/refrigeration-template.ts): totals are sizes. */
 function isRefrigeration(templateId: string | null): boolean {
-  return templateId === 'vapour-compression'
+  return (
+    templateId === 'vapour-compression' ||
+    templateId === 'vapour-compression-two-stage' ||
+    templateId === 'vapour-compression-cascade'
+  )
+}
+
+/** Totals of the refrigeration templates (single-stage, two-stage, cascade) that are sizes, by sense. */
+const REFRIGERATION_TOTALS: Readonly<Record<string, FindSense>> = {
+  compressorWork: 'work-on-system',
+  compressorPower: 'work-on-system',
+  lowStageWork: 'work-on-system',
+  highStageWork: 'work-on-system',
+  lowStagePower: 'work-on-system',
+  highStagePower: 'work-on-system',
+  lowerCompressorWork: 'work-on-system',
+  upperCompressorWork: 'work-on-system',
+  lowerCompressorPower: 'work-on-system',
+  upperCompressorPower: 'work-on-system',
+  refrigerationEffect: 'heat-into-system',
+  refrigerationEffectPerKgEvaporator: 'heat-into-system',
+  capacity: 'heat-into-system',
+  heatRejected: 'heat-out-of-system',
+  heatRejectionRate: 'heat-out-of-system',
 }
 
 /**
@@ -62,13 +85,11 @@ export function outputSense(path: string, templateId: string | null): OutputSens
     // in from the cold space, the heat rejected leaves it.
     if (/^devices\.[^.]+\.w$/.test(p)) return { kind: 'convention-work' }
     if (/^devices\.[^.]+\.q$/.test(p)) return { kind: 'fixed', sense: 'heat-into-system' }
-    if (p === 'totals.compressorWork' || p === 'totals.compressorPower')
-      return { kind: 'fixed', sense: 'work-on-system' }
-    if (p === 'totals.refrigerationEffect' || p === 'totals.capacity')
-      return { kind: 'fixed', sense: 'heat-into-system' }
-    if (p === 'totals.heatRejected' || p === 'totals.heatRejectionRate')
-      return { kind: 'fixed', sense: 'heat-out-of-system' }
-    return null
+    // Two-stage and cascade: each compressor's work and power are done on the refrigerant too.
+    const total = /^totals\.([A-Za-z]+)$/.exec(p)?.[1]
+    const sense =
+      total !== undefined && Object.hasOwn(REFRIGERATION_TOTALS, total) ? REFRIGERATION_TOTALS[total] : undefined
+    return sense ? { kind: 'fixed', sense } : null
   }
   if (isRankine(templateId)) {
     if (/^devices\.[^.]+\.w$/.test(p) || p === 'totals.netWorkSigned') return { kind: 'convention-work' }

@@ -23,7 +23,7 @@ export function shortSource(source: string): string {
   return `${authors.replace(/(?:[A-Z]\.\s*)+/g, '').trim()} (${year})`
 }
 
-function refrigerantStateLine(s: FormattedRefrigeration['states'][number]): WorkedLine {
+export function refrigerantStateLine(s: FormattedRefrigeration['states'][number]): WorkedLine {
   const n = sub(s.name)
   const x = s.x !== null ? `,\\ x_{${n}} = ${n4(s.x)}` : ''
   return {
