@@ -1233,6 +1233,111 @@ const braytonExergy: ProblemDefinition = {
   ],
 }
 
+// ---- Steam plants: feedwater heaters and cogeneration -------------------------------------
+
+const rankineFeedwater: ProblemDefinition = {
+  format: 2,
+  title: 'Steam plant with a closed feedwater heater and a deaerator',
+  tags: {
+    topics: ['rankine', 'steam', 'feedwater heater', 'deaerator', 'regeneration'],
+    difficulty: 'challenging',
+    level: 'upper-level',
+  },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'Steam leaves the boiler of a regenerative plant at 10 MPa and [TIT] and expands in an ideal turbine to 10 kPa. Steam is bled at [pC] to a closed feedwater heater, whose drain is trapped back into a deaerator (an open heater) fed with steam bled at 0.4 MPa. The closed heater has a terminal temperature difference of [TTD]; the deaerator and the condenser deliver saturated liquid, and the pumps are ideal.',
+    '',
+    'Per kilogram of steam through the boiler, find:',
+    '',
+    '1. the fraction of steam bled to the closed heater,',
+    '2. the fraction bled to the deaerator,',
+    '3. the net work output (a magnitude),',
+    '4. the thermal efficiency.',
+  ].join('\n'),
+  givens: [
+    range('TIT', 'turbine inlet temperature', '°C', 500, 575, 25),
+    choice('pC', 'closed feedwater heater pressure', 'MPa', [1.5, 2, 2.5]),
+    choice('TTD', 'terminal temperature difference of the closed heater', 'K', [0, 3, 5]),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'rankine-feedwater',
+    inputs: {
+      boilerPressure: '10 MPa',
+      condenserPressure: '10 kPa',
+      turbineInletTemperature: 'TIT',
+      heaters: [
+        { kind: 'closed', pressure: 'pC', ttd: 'TTD', drains: 'backward' },
+        { kind: 'open', pressure: '0.4 MPa', name: 'deaerator' },
+      ],
+    },
+  },
+  finds: [
+    output('y1', 'Fraction of steam bled to the closed heater', 'heaters.1.bleedFraction', '', 3, {
+      tolerance: rel(0.02),
+    }),
+    output('y2', 'Fraction of steam bled to the deaerator', 'totals.bleedFractions.2', '', 3, {
+      tolerance: rel(0.02),
+    }),
+    output('wNet', 'Net work output per kg of steam', 'totals.netWork', 'kJ/kg', 3, {
+      pitfalls: ['kilo-factor'],
+      sense: 'work-by-system',
+    }),
+    output('eta', 'Thermal efficiency', 'totals.efficiency', '', 2),
+  ],
+}
+
+const rankineCogeneration: ProblemDefinition = {
+  format: 2,
+  title: 'Cogeneration plant: process heat and utilisation factor',
+  tags: {
+    topics: ['rankine', 'steam', 'cogeneration', 'process heat', 'utilisation factor'],
+    difficulty: 'standard',
+    level: 'upper-level',
+  },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'A small plant raises steam at 7 MPa and 500 °C. A fraction [f, 2 dp] of it is extracted from the turbine at [pP] to a process heater, which returns saturated liquid that is pumped back to the boiler; the rest expands to 10 kPa, is condensed and pumped back. Turbine and pumps are ideal.',
+    '',
+    'Per kilogram of steam through the boiler, find:',
+    '',
+    '1. the heat delivered to the process,',
+    '2. the net work output (a magnitude),',
+    '3. the utilisation factor.',
+  ].join('\n'),
+  givens: [
+    range('f', 'fraction of the steam extracted to the process', '', 0.2, 0.5, 0.05),
+    choice('pP', 'process steam pressure', 'kPa', [300, 500, 700]),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'rankine-cogeneration',
+    inputs: {
+      boilerPressure: '7 MPa',
+      condenserPressure: '10 kPa',
+      turbineInletTemperature: '500 °C',
+      processPressure: 'pP',
+      processFraction: 'f',
+    },
+  },
+  finds: [
+    output('Qp', 'Heat delivered to the process per kg of steam', 'totals.processHeat', 'kJ/kg', 3, {
+      pitfalls: ['kilo-factor'],
+    }),
+    output('wNet', 'Net work output per kg of steam', 'totals.netWork', 'kJ/kg', 3, {
+      pitfalls: ['kilo-factor'],
+      sense: 'work-by-system',
+    }),
+    output('epsU', 'Utilisation factor', 'totals.utilisationFactor', '', 2),
+  ],
+}
+
 // ---- Refrigeration: two-stage compression and a cascade -----------------------------------
 
 const twoStageFlash: ProblemDefinition = {
@@ -1379,6 +1484,8 @@ export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'amara', visibility: 'private', definition: diffuser },
   { owner: 'tobias', visibility: 'department', definition: turbojet },
   { owner: 'tobias', visibility: 'department', definition: braytonExergy },
+  { owner: 'tobias', visibility: 'department', definition: rankineFeedwater },
+  { owner: 'amara', visibility: 'department', definition: rankineCogeneration },
   { owner: 'tobias', visibility: 'department', definition: twoStageFlash },
   { owner: 'amara', visibility: 'department', definition: cascadeFreezer },
 ]

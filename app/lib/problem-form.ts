@@ -10,7 +10,13 @@
  * stay are renumbered 0, 1, 2… both in the draft and in the refilled values, so an issue
  * path and a field name always agree.
  */
-import { DEFINITION_FORMAT, type ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import {
+  DEFINITION_FORMAT,
+  HEATER_FIELDS,
+  MAX_HEATERS,
+  type HeaterInput,
+  type ProblemDefinition,
+} from '#app/domain/authoring/definition.ts'
 
 export interface FormIssue {
   readonly path: string
@@ -24,6 +30,8 @@ export type EditorRows = Record<RowTable, number>
 export interface EditorState {
   readonly values: Readonly<Record<string, string>>
   readonly rows: EditorRows
+  /** Rows the heater list shows (heaters typed + one blank); absent: counted from the values. */
+  readonly heaterRows?: number
 }
 
 /** Option value of the physics select that stands for a general state-and-process cycle. */
@@ -71,6 +79,8 @@ export interface TemplateChoice {
     readonly unit: string
     readonly description: string
     readonly required: boolean
+    /** 'heater list' for a list of feedwater heaters (shown as rows); other inputs are one text */
+    readonly dimension?: string
   }[]
 }
 
@@ -92,7 +102,13 @@ export function buildEditorOptions(
     id: t.id,
     title: t.title,
     description: t.description,
-    inputs: t.inputs.map((i) => ({ name: i.name, unit: i.unit, description: i.description, required: i.required })),
+    inputs: t.inputs.map((i) => ({
+      name: i.name,
+      unit: i.unit,
+      description: i.description,
+      required: i.required,
+      ...(i.dimension === HEATER_LIST ? { dimension: HEATER_LIST } : {}),
+    })),
   })
   return {
     templateGroups: groups
@@ -100,6 +116,90 @@ export function buildEditorOptions(
       .map((g) => ({ label: g.label, templates: g.templates.map(pick) })),
     pitfalls: pitfalls.map((p) => ({ id: p.id, title: p.title })),
   }
+}
+
+// ---- Heater lists (a steam plant's feedwater heaters) --------------------------------
+
+/** The dimension of a template input that is a list of feedwater heaters. */
+export const HEATER_LIST = 'heater list'
+
+/** A heater row's field: physics.inputs.<input>.<row>.<field>. */
+const HEATER_KEY = /^physics\.inputs\.([A-Za-z][A-Za-z0-9_]*)\.(\d{1,2})\.(kind|pressure|name|ttd|drains|_remove)$/
+
+/** The fields whose text decides whether a heater row is blank (kind and drains are selects). */
+const HEATER_CONTENT: readonly string[] = ['pressure', 'name', 'ttd']
+
+/** The value of a heater row's "Remove" button: `remove-heater:heaters:1`. */
+export function removeHeaterIntent(input: string, index: number): string {
+  return `remove-heater:${input}:${index}`
+}
+/** The value of the "Add a heater" button. */
+export function addHeaterIntent(input: string): string {
+  return `add-heater:${input}`
+}
+const REMOVE_HEATER = /^remove-heater:([A-Za-z][A-Za-z0-9_]*):(\d{1,2})$/
+const ADD_HEATER = /^add-heater:([A-Za-z][A-Za-z0-9_]*)$/
+
+/** A heater-row button's value, or null. */
+export function readHeaterIntent(
+  intent: unknown,
+): { action: 'add'; input: string } | { action: 'remove'; input: string; index: number } | null {
+  if (typeof intent !== 'string') return null
+  const r = REMOVE_HEATER.exec(intent)
+  if (r) return { action: 'remove', input: r[1]!, index: Number(r[2]) }
+  const a = ADD_HEATER.exec(intent)
+  return a ? { action: 'add', input: a[1]! } : null
+}
+
+/** Heater rows present in the form per input, kept ones in order, removed and blank ones left out. */
+function readHeaterRows(form: FormData): Map<string, { kept: number[]; blank: number }> {
+  const seen = new Map<string, Set<number>>()
+  for (const key of form.keys()) {
+    const m = HEATER_KEY.exec(key)
+    if (!m) continue
+    const set = seen.get(m[1]!) ?? new Set<number>()
+    set.add(Number(m[2]))
+    seen.set(m[1]!, set)
+  }
+  const out = new Map<string, { kept: number[]; blank: number }>()
+  for (const [input, set] of seen) {
+    const kept: number[] = []
+    let blank = 0
+    for (const i of [...set].sort((a, b) => a - b)) {
+      const p = `physics.inputs.${input}.${i}`
+      if (allText(form, `${p}._remove`) !== '') continue
+      if (HEATER_CONTENT.every((f) => allText(form, `${p}.${f}`).trim() === '')) blank++
+      else kept.push(i)
+    }
+    out.set(input, { kept, blank })
+  }
+  return out
+}
+
+/** The heater lists the form describes, by input name (rows renumbered from 0). */
+function heaterListsFromForm(form: FormData): Map<string, HeaterInput[]> {
+  const out = new Map<string, HeaterInput[]>()
+  for (const [input, rows] of readHeaterRows(form)) {
+    const list = rows.kept.map((i) => {
+      const p = `physics.inputs.${input}.${i}`
+      const get = (f: string) => allText(form, `${p}.${f}`).trim()
+      const h: { -readonly [K in keyof HeaterInput]: HeaterInput[K] } = { kind: get('kind'), pressure: get('pressure') }
+      for (const f of ['name', 'ttd', 'drains'] as const) if (get(f) !== '') h[f] = get(f)
+      return h
+    })
+    if (list.length > 0) out.set(input, list)
+  }
+  return out
+}
+
+/** How many rows a heater list shows for these values: the rows typed and one blank. */
+export function heaterRowCount(values: Readonly<Record<string, string>>, input: string): number {
+  let n = 0
+  for (const k of Object.keys(values)) {
+    const m = HEATER_KEY.exec(k)
+    if (m && m[1] === input) n = Math.max(n, Number(m[2]) + 1)
+  }
+  return Math.min(n + 1, MAX_HEATERS + 1)
 }
 
 export function findTemplate(options: EditorOptions, id: string): TemplateChoice | undefined {
@@ -266,12 +366,13 @@ export function definitionFromForm(form: FormData): { draft: unknown; visibility
     }
     physics = compact({ kind, cycle })
   } else {
-    const inputs: Record<string, string> = {}
+    const inputs: Record<string, string | HeaterInput[]> = {}
     for (const key of new Set(form.keys())) {
-      if (!key.startsWith('physics.inputs.')) continue
+      if (!key.startsWith('physics.inputs.') || HEATER_KEY.test(key)) continue
       const value = trimmed(key)
       if (value !== '') inputs[key.slice('physics.inputs.'.length)] = value
     }
+    for (const [input, list] of heaterListsFromForm(form)) inputs[input] = list
     physics = { kind, template, inputs }
   }
 
@@ -378,7 +479,13 @@ export function formValuesFromDefinition(def: ProblemDefinition): Record<string,
   })
   if (def.physics.kind === 'template') {
     v['physics.template'] = def.physics.template
-    for (const [name, value] of Object.entries(def.physics.inputs)) v[`physics.inputs.${name}`] = value
+    for (const [name, value] of Object.entries(def.physics.inputs)) {
+      if (typeof value === 'string') v[`physics.inputs.${name}`] = value
+      else
+        value.forEach((h, i) => {
+          for (const f of HEATER_FIELDS) if (h[f] !== undefined) v[`physics.inputs.${name}.${i}.${f}`] = h[f]
+        })
+    }
   } else {
     v['physics.template'] = GENERAL_CYCLE
     v['physics.cycle'] = def.physics.cycle === undefined ? '' : JSON.stringify(def.physics.cycle, null, 2)
@@ -431,8 +538,12 @@ export function emptyEditorState(): EditorState {
  * The form as typed, renumbered as definitionFromForm numbers it (blank and removed rows out),
  * to refill the editor. `add` shows one more blank row in that table than were sent.
  */
-export function editorStateFromForm(form: FormData, add?: RowTable): EditorState {
+export function editorStateFromForm(form: FormData, add?: RowTable | { heaters: string }): EditorState {
   const rows = readRows(form)
+  const heaterRows = readHeaterRows(form)
+  const heaterRenumber = new Map(
+    [...heaterRows].map(([input, r]) => [input, new Map(r.kept.map((old, i) => [old, i]))]),
+  )
   const renumber: Record<RowTable, Map<number, number>> = {
     givens: new Map(rows.givens.kept.map((old, i) => [old, i])),
     constraints: new Map(rows.constraints.kept.map((old, i) => [old, i])),
@@ -441,6 +552,13 @@ export function editorStateFromForm(form: FormData, add?: RowTable): EditorState
   const values: Record<string, string> = {}
   for (const key of new Set(form.keys())) {
     if (key === 'intent') continue
+    const h = HEATER_KEY.exec(key)
+    if (h) {
+      const index = heaterRenumber.get(h[1]!)?.get(Number(h[2]))
+      if (index !== undefined && h[3] !== '_remove')
+        values[`physics.inputs.${h[1]}.${index}.${h[3]}`] = allText(form, key)
+      continue
+    }
     const m = ROW_KEY.exec(key)
     if (!m) {
       values[key] = allText(form, key)
@@ -452,7 +570,21 @@ export function editorStateFromForm(form: FormData, add?: RowTable): EditorState
     values[`${table}.${index}.${m[3]}`] = allText(form, key)
   }
   const count = (t: RowTable) => rows[t].kept.length + (add === t ? Math.max(1, rows[t].blank) + 1 : 1)
-  return { values, rows: { givens: count('givens'), constraints: count('constraints'), finds: count('finds') } }
+  const addHeaters = typeof add === 'object' ? add.heaters : null
+  const heaterInput = addHeaters ?? [...heaterRows.keys()][0]
+  const heaterCount =
+    heaterInput === undefined
+      ? undefined
+      : Math.min(
+          MAX_HEATERS + 1,
+          (heaterRows.get(heaterInput)?.kept.length ?? 0) +
+            (addHeaters !== null ? Math.max(1, heaterRows.get(heaterInput)?.blank ?? 0) + 1 : 1),
+        )
+  return {
+    values,
+    rows: { givens: count('givens'), constraints: count('constraints'), finds: count('finds') },
+    ...(heaterCount !== undefined ? { heaterRows: heaterCount } : {}),
+  }
 }
 
 /** The value of a row's "Remove" button: `remove:givens:2`. */
@@ -479,13 +611,27 @@ export function editorStateWithout(form: FormData, table: RowTable, index: numbe
   return editorStateFromForm(copy)
 }
 
-/** After the template changed: keep only the inputs the new template takes (shared ones stay filled). */
+/**
+ * The form as typed without one heater row, renumbered: what a heater's "Remove" button does.
+ */
+export function editorStateWithoutHeater(form: FormData, input: string, index: number): EditorState {
+  const copy = new FormData()
+  for (const [k, v] of form.entries()) if (k !== 'intent') copy.append(k, v)
+  copy.set(`physics.inputs.${input}.${index}._remove`, 'on')
+  return editorStateFromForm(copy)
+}
+
+/** After the template changed: keep only the inputs the new template takes (shared ones stay filled, heater rows too). */
 export function keepTemplateInputs(
   values: Readonly<Record<string, string>>,
   inputNames: readonly string[],
 ): Record<string, string> {
   const keep = new Set(inputNames.map((n) => `physics.inputs.${n}`))
-  return Object.fromEntries(Object.entries(values).filter(([k]) => !k.startsWith('physics.inputs.') || keep.has(k)))
+  return Object.fromEntries(
+    Object.entries(values).filter(
+      ([k]) => !k.startsWith('physics.inputs.') || keep.has(k.split('.').slice(0, 3).join('.')),
+    ),
+  )
 }
 
 // ---- Issues ------------------------------------------------------------------------
@@ -534,6 +680,11 @@ export function fieldPathForIssue(path: string): string {
   }
   if (path.startsWith('tags.topics')) return 'tags.topics'
   if (path.startsWith('physics.cycle')) return 'physics.cycle'
+  const heater = /^physics\.inputs\.([A-Za-z][A-Za-z0-9_]*)\.(\d{1,2})(?:\.([A-Za-z_]+))?/.exec(path)
+  if (heater) {
+    const field = (HEATER_FIELDS as readonly string[]).includes(heater[3] ?? '') ? heater[3] : 'kind'
+    return `physics.inputs.${heater[1]}.${heater[2]}.${field}`
+  }
   if (path.startsWith('physics.inputs.')) return path.split('.').slice(0, 3).join('.')
   if (path === 'physics' || path === 'physics.kind' || path === 'physics.inputs') return 'physics.template'
   if (path === 'tags' || path === 'format') return 'title'
@@ -576,6 +727,13 @@ const ROW_FIELD_WORDS: Record<string, string> = {
   isDifference: 'temperature difference',
   allowBareNumber: 'numbers without a unit',
 }
+const HEATER_FIELD_WORDS: Record<string, string> = {
+  kind: 'kind',
+  pressure: 'pressure',
+  name: 'name',
+  ttd: 'terminal temperature difference',
+  drains: 'drains',
+}
 const FIELD_WORDS: Record<string, string> = {
   title: 'Title',
   'tags.topics': 'Topics',
@@ -597,6 +755,8 @@ export function describeField(path: string): string {
   const field = fieldPathForIssue(path)
   const m = ROW_KEY.exec(field)
   if (m) return `${TABLE_WORD[m[1] as RowTable]} ${Number(m[2]) + 1}, ${ROW_FIELD_WORDS[m[3]!] ?? m[3]}`
+  const heater = /^physics\.inputs\.[A-Za-z0-9_]+\.(\d{1,2})\.([A-Za-z_]+)$/.exec(field)
+  if (heater) return `Heater ${Number(heater[1]) + 1}, ${HEATER_FIELD_WORDS[heater[2]!] ?? heater[2]}`
   if (field.startsWith('physics.inputs.')) return `Template input ${field.slice('physics.inputs.'.length)}`
   return FIELD_WORDS[field] ?? field
 }

@@ -15,9 +15,11 @@ import {
   definitionFromForm,
   editorStateFromForm,
   editorStateWithout,
+  editorStateWithoutHeater,
   findTemplate,
   keepTemplateInputs,
   mergeIssues,
+  readHeaterIntent,
   readRemoveIntent,
   type EditorState,
   type FormIssue,
@@ -71,6 +73,14 @@ function answer(state: EditorState, issues: FormIssue[] = [], preview: PreviewRe
 export async function runEditorAction(form: FormData, save: (problem: SavableProblem) => Promise<number>) {
   const removal = readRemoveIntent(form.get('intent'))
   if (removal) return answer(editorStateWithout(form, removal.table, removal.index))
+  // A heater list's rows (a steam plant's feedwater heaters): add one, or drop the one named.
+  const heater = readHeaterIntent(form.get('intent'))
+  if (heater)
+    return answer(
+      heater.action === 'add'
+        ? editorStateFromForm(form, { heaters: heater.input })
+        : editorStateWithoutHeater(form, heater.input, heater.index),
+    )
   const intent = IntentSchema.safeParse(form.get('intent'))
   if (!intent.success)
     return data(

@@ -1,5 +1,6 @@
-import { type EditorState, type TemplateChoice } from '#app/lib/problem-form.ts'
+import { HEATER_LIST, type EditorState, type TemplateChoice } from '#app/lib/problem-form.ts'
 import type { FieldKit } from './fields.tsx'
+import { HeaterListInput } from './heater-list-input.tsx'
 
 /**
  * The chosen template's inputs, each a given's name (offered from a list) or a fixed value,
@@ -7,7 +8,7 @@ import type { FieldKit } from './fields.tsx'
  */
 export function TemplateInputs({
   kit,
-  state: { values, rows },
+  state,
   chosen,
   datalistId,
 }: {
@@ -17,11 +18,13 @@ export function TemplateInputs({
   datalistId: string
 }) {
   const { labelled, textInput } = kit
+  const { values, rows } = state
   const templateInputNames = new Set(chosen?.inputs.map((i) => i.name) ?? [])
   const leftoverInputs = Object.keys(values)
     .filter(
       (k) =>
         k.startsWith('physics.inputs.') &&
+        k.split('.').length === 3 &&
         values[k] !== '' &&
         !templateInputNames.has(k.slice('physics.inputs.'.length)),
     )
@@ -39,6 +42,18 @@ export function TemplateInputs({
       <div className="mt-3 grid gap-4 md:grid-cols-2">
         {chosen?.inputs.map((input) => {
           const path = `physics.inputs.${input.name}`
+          if (input.dimension === HEATER_LIST)
+            return (
+              <HeaterListInput
+                key={path}
+                kit={kit}
+                state={state}
+                input={input.name}
+                description={input.description}
+                required={input.required}
+                datalistId={datalistId}
+              />
+            )
           return (
             <div key={path}>
               {labelled(

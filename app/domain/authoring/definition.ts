@@ -67,13 +67,40 @@ export interface Constraint {
 }
 
 /**
+ * One feedwater heater of a steam-plant template's `heaters` input (the one input whose
+ * dimension is 'heater list'; docs/steam.md). Every field is a text and may name a given, as
+ * any other input: kind "open" | "closed", pressure "0.5 MPa", and for a closed heater ttd
+ * "3 K" and drains "backward" | "forward".
+ */
+export interface HeaterInput {
+  readonly kind: string
+  readonly pressure: string
+  readonly name?: string
+  readonly ttd?: string
+  readonly drains?: string
+}
+
+/** The fields of a HeaterInput, in the order the editor shows them. */
+export const HEATER_FIELDS = ['kind', 'pressure', 'name', 'ttd', 'drains'] as const
+export type HeaterField = (typeof HEATER_FIELDS)[number]
+/** At most this many heaters (the steam-plant solver's own limit). */
+export const MAX_HEATERS = 12
+
+/** A template input's value: a text, or (for a 'heater list' input) the list of heaters. */
+export type TemplateInputValue = string | readonly HeaterInput[]
+
+/**
  * The physics. Every text value may name a given: a value that is exactly a given's name is
  * replaced by "<value> <unit>"; `@{name}` inside a longer text is replaced the same way.
  * Other texts pass to the solver as they are ("air", "100 kPa", "8").
  */
 export type Physics =
   /** One of the solver's named templates (docs/spec-format.md, docs/steam.md). */
-  | { readonly kind: 'template'; readonly template: string; readonly inputs: Readonly<Record<string, string>> }
+  | {
+      readonly kind: 'template'
+      readonly template: string
+      readonly inputs: Readonly<Record<string, TemplateInputValue>>
+    }
   /** A general state-and-process cycle, as the "cycle" object of a spec file. */
   | { readonly kind: 'cycle'; readonly cycle: unknown }
 

@@ -48,6 +48,7 @@ import {
   type BankSolution,
 } from './solution-kind.ts'
 import { flowDiagrams } from './flow-diagrams.ts'
+import { plantEdges } from './steam-plant-layout.ts'
 
 export type { Axis, Curve, CycleDiagrams, Plot } from './diagram-plot.ts'
 export { axisSymbol, describePlot } from './diagram-plot.ts'
@@ -325,7 +326,15 @@ function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
     tsCurves.push(cleanCurve({ from: a.label, to: b.label, process, style, points: ts }))
   }
 
-  for (let i = 0; i < n; i++) {
+  // A steam plant (feedwater heaters, cogeneration): its processes from the layout of its states
+  // (steam-plant-layout.ts), since its states are not one loop in order.
+  const edges = sol.heaters ? plantEdges(sol) : null
+  for (const e of edges ?? []) {
+    const a = states[e.from]
+    const b = states[e.to]
+    if (a && b) add(a, b, e.process, e.dashed, e.path)
+  }
+  for (let i = 0; i < (edges ? 0 : n); i++) {
     const a = states[i]
     const b = states[(i + 1) % n]
     if (!a || !b || n < 2) continue
@@ -363,7 +372,7 @@ function rankineDiagrams(sol: FormattedRankine): CycleDiagrams {
   }
   // Open feedwater heater: steam bled from the turbine leaves the cycle order and condenses
   // by mixing at the heater pressure, ending as the heater's saturated-liquid exit.
-  for (let i = 1; i < n; i++) {
+  for (let i = 1; i < (edges ? 0 : n); i++) {
     const heaterExit = states[i]
     if (!heaterExit || heaterExit.x !== 0) continue
     for (let k = i + 1; k < n; k++) {

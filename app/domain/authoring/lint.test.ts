@@ -1,5 +1,5 @@
 import { expect, test } from 'vitest'
-import type { Find, Given, ProblemDefinition } from './definition.ts'
+import type { Find, Given, ProblemDefinition, TemplateInputValue } from './definition.ts'
 import { lintDefinition, lintWarnings } from './lint.ts'
 
 const rel = { kind: 'relative', value: 0.01 } as const
@@ -63,7 +63,7 @@ const findAt = (d: ProblemDefinition, i: number, f: Partial<Find>): ProblemDefin
 })
 const inputs = (d: ProblemDefinition, change: Record<string, string | undefined>): ProblemDefinition => {
   if (d.physics.kind !== 'template') throw new Error('template expected')
-  const next: Record<string, string> = {}
+  const next: Record<string, TemplateInputValue> = {}
   for (const [k, v] of Object.entries({ ...d.physics.inputs, ...change })) if (v !== undefined) next[k] = v
   return { ...d, physics: { ...d.physics, inputs: next } }
 }

@@ -12,7 +12,7 @@ import { readQuantity, solveBankSpec } from '#app/domain/thermo/index.ts'
 import type { TemplateInput } from '#app/domain/thermo/index.ts'
 import { templateEntry } from '#app/domain/thermo/catalog.ts'
 import { whyPitfallCannotFire } from '#app/domain/grading/applicable-pitfalls.ts'
-import type { Find, ProblemDefinition } from './definition.ts'
+import type { Find, ProblemDefinition, TemplateInputValue } from './definition.ts'
 import { NAME_PATTERN, checkRuleOf } from './definition.ts'
 import { describeCompileError, drawGivens, isNumericGiven, rangeSteps } from './givens.ts'
 import { parsePlaceholders } from './placeholders.ts'
@@ -40,7 +40,9 @@ function sentence(s: string): string {
 }
 
 /** The inputs of a template bank problems may use; null for any other id. */
-function templateInputs(id: string): readonly Pick<TemplateInput, 'name' | 'required' | 'description'>[] | null {
+function templateInputs(
+  id: string,
+): readonly (Pick<TemplateInput, 'name' | 'required' | 'description'> & { readonly dimension: string })[] | null {
   const e = templateEntry(id)
   return e && e.bank ? e.inputs : null
 }
@@ -54,6 +56,44 @@ function placeholdersIn(x: unknown, path: string, out: { path: string; name: str
   } else if (x !== null && typeof x === 'object') {
     for (const [k, v] of Object.entries(x)) placeholdersIn(v, `${path}.${k}`, out)
   }
+}
+
+/**
+ * A 'heater list' input (definition.ts HeaterInput): a list, each heater's kind and drains one
+ * of the solver's words or a given's name, and an open heater without ttd or drains.
+ */
+function heaterListFindings(
+  value: TemplateInputValue,
+  path: string,
+  givenNames: ReadonlySet<string>,
+  add: (path: string, message: string) => void,
+): void {
+  if (typeof value === 'string') {
+    add(
+      path,
+      'the heaters are a list of heaters (kind, pressure, and for a closed heater ttd and drains), not one text',
+    )
+    return
+  }
+  value.forEach((h, i) => {
+    const at = `${path}.${i}`
+    const kind = h.kind.trim()
+    if (kind !== 'open' && kind !== 'closed' && !givenNames.has(kind))
+      add(`${at}.kind`, `heater ${i + 1}: the kind is "open" or "closed" (or a given's name), not "${h.kind}"`)
+    if (h.drains !== undefined) {
+      const d = h.drains.trim()
+      if (d !== 'backward' && d !== 'forward' && !givenNames.has(d))
+        add(
+          `${at}.drains`,
+          `heater ${i + 1}: the drains go "backward" or "forward" (or a given's name), not "${h.drains}"`,
+        )
+    }
+    if (kind === 'open' && (h.ttd !== undefined || h.drains !== undefined))
+      add(
+        `${at}.${h.ttd !== undefined ? 'ttd' : 'drains'}`,
+        `heater ${i + 1} is open (direct contact): it takes no terminal temperature difference or drains; leave them empty`,
+      )
+  })
 }
 
 function findSourcePath(f: Find, i: number): string {
@@ -144,6 +184,14 @@ function lintUnsafe(def: ProblemDefinition): LintFinding[] {
       for (const inp of inputs) {
         if (inp.required && !Object.hasOwn(p.inputs, inp.name))
           add(`physics.inputs.${inp.name}`, `template "${p.template}" needs "${inp.name}" (${inp.description})`)
+        const value = p.inputs[inp.name]
+        if (value === undefined) continue
+        if (inp.dimension === 'heater list') heaterListFindings(value, `physics.inputs.${inp.name}`, givenNames, add)
+        else if (typeof value !== 'string')
+          add(
+            `physics.inputs.${inp.name}`,
+            `"${inp.name}" takes one text value (a given's name or a value with its unit), not a list`,
+          )
       }
     }
     placeholdersIn(p.inputs, 'physics.inputs', physicsPlaceholders)
@@ -252,6 +300,10 @@ function pathExamples(def: ProblemDefinition): string {
   if (id === 'vapour-compression-cascade')
     return 'e.g. totals.copRefrigerator, totals.massFlowRatio, totals.refrigerationEffect, totals.lowerCompressorWork, totals.upperCompressorWork, totals.heatRejected, states.4.x; rates (totals.capacity, totals.lowerMassFlow, totals.upperMassFlow, totals.compressorPower) need lowerMassFlow, upperMassFlow or capacity'
   if (id.startsWith('rankine')) return 'e.g. totals.netWork, totals.efficiency, totals.turbineExitQuality, states.2.h'
+  if (id === 'turbojet')
+    return 'e.g. totals.exitVelocity, totals.thrust, totals.propulsivePower, totals.propulsiveEfficiency, states.3.T, devices.2.w; thrust and powers need the massFlow input'
+  if (id === 'nozzle' || id === 'diffuser')
+    return 'e.g. totals.exitVelocity, totals.exitTemperature, totals.exitMach, totals.areaRatio, states.2.p; areas and rates need massFlow or inletArea'
   return 'e.g. totals.netWork, states.2.T, steps.1.q'
 }
 

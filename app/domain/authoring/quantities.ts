@@ -141,6 +141,13 @@ function totalsQuantity(field: string, convention: Convention): Quantity | null 
       return { tex: sub('x', txt('turbine exit')), name: 'quality at the turbine exit' }
     case 'bleedFraction':
       return { tex: 'y', name: 'fraction of the steam bled to the feedwater heater' }
+    // Steam plants (rankine-feedwater, rankine-cogeneration): per kg through the boiler.
+    case 'processFraction':
+      return { tex: sub('y', txt('process')), name: 'fraction of the boiler flow extracted to the process heater' }
+    case 'processHeat':
+      return { tex: sub('Q', txt('process')), name: 'heat delivered to the process per kg through the boiler' }
+    case 'utilisationFactor':
+      return { tex: sub('\\varepsilon', 'u'), name: 'utilisation factor (net work and process heat over heat in)' }
     // The throttling calorimeter (steam/calorimeter.ts).
     case 'quality':
       return { tex: 'x_1', name: 'quality of the line steam' }
@@ -405,6 +412,56 @@ function stateSub(names: readonly string[] | undefined, index: number): string {
   return /^[A-Za-z0-9]{1,3}$/.test(name) ? name : txt(texText(name))
 }
 
+/** A steam plant's feedwater heater fields (heaters.N.<field>, 1-based N), per kg through the boiler. */
+const HEATER_QUANTITY: Readonly<Record<string, (n: string) => Quantity>> = {
+  bleedFraction: (n) => ({ tex: sub('y', n), name: `fraction of the boiler flow bled to feedwater heater ${n}` }),
+  pressure: (n) => ({ tex: sub('p', txt(`FWH${n}`)), name: `pressure of feedwater heater ${n}` }),
+  bleedTemperature: (n) => ({
+    tex: sub('T', txt(`bleed,${n}`)),
+    name: `temperature of the steam bled to feedwater heater ${n}`,
+  }),
+  feedwaterInletEnthalpy: (n) => ({
+    tex: sub('h', txt(`FWH${n},in`)),
+    name: `enthalpy of the feedwater entering heater ${n}`,
+  }),
+  feedwaterExitTemperature: (n) => ({
+    tex: sub('T', txt(`FWH${n},out`)),
+    name: `temperature of the feedwater leaving heater ${n}`,
+  }),
+  feedwaterExitEnthalpy: (n) => ({
+    tex: sub('h', txt(`FWH${n},out`)),
+    name: `enthalpy of the feedwater leaving heater ${n}`,
+  }),
+  feedwaterFlow: (n) => ({
+    tex: sub('\\dot m', txt(`FWH${n}`)),
+    name: `fraction of the boiler flow heated in heater ${n}`,
+  }),
+  drainsIn: (n) => ({
+    tex: sub('D', n),
+    name: `drains cascaded into heater ${n} from the heater above, per kg through the boiler`,
+  }),
+  heatTransferred: (n) => ({
+    tex: sub('Q', txt(`FWH${n}`)),
+    name: `heat taken up by the feedwater in heater ${n}, per kg through the boiler`,
+  }),
+}
+
+/** totals.bleedFractions.N and heaters.N.<field> of a steam plant; undefined for any other path. */
+function steamPlantQuantity(parts: readonly string[]): Quantity | null | undefined {
+  if (parts[0] === 'totals' && parts[1] === 'bleedFractions') {
+    const n = parts[2]
+    if (parts.length !== 3 || !n || !/^[1-9]\d?$/.test(n)) return null
+    return { tex: sub('y', n), name: `fraction of the boiler flow bled to feedwater heater ${n}` }
+  }
+  if (parts[0] === 'heaters') {
+    const n = parts[1]
+    const make = parts.length === 3 ? HEATER_QUANTITY[parts[2]!] : undefined
+    if (!n || !make) return null
+    return /^[1-9]\d?$/.test(n) ? make(n) : make(texText(n))
+  }
+  return undefined
+}
+
 /**
  * A solver output path as a symbol and a name; null for a path this grammar does not know (the
  * caller then uses the find's own name and label, never the path).
@@ -412,6 +469,8 @@ function stateSub(names: readonly string[] | undefined, index: number): string {
 export function quantityAtPath(path: string, ctx: PathContext): Quantity | null {
   if (ctx.flow) return flowQuantity(path, { ...ctx, flow: ctx.flow })
   const parts = path.split('.')
+  const plant = steamPlantQuantity(parts)
+  if (plant !== undefined) return plant
   if (parts[0] === 'totals' && parts[1] === 'rate') return (parts.length === 3 && RATE_QUANTITY[parts[2]!]) || null
   if (parts[0] === 'totals') {
     const whole = parts[1] === 'total'

@@ -71,12 +71,40 @@ const REFRIGERATION_TOTALS: Readonly<Record<string, FindSense>> = {
   heatRejectionRate: 'heat-out-of-system',
 }
 
+/** The steady-flow templates (thermo/flow/flow-template.ts). */
+function isSteadyFlow(templateId: string | null): boolean {
+  return templateId === 'nozzle' || templateId === 'diffuser' || templateId === 'turbojet'
+}
+
+/**
+ * Nozzle, diffuser, turbojet. Each device's q (and qRate) is heat into the gas; its w (and
+ * wRate) is in the convention's sign, but only the turbojet's compressor (device 2) and turbine
+ * (device 4) do work: the others' is zero in every convention, so a sense there would promise
+ * nothing. The totals are sizes: compressor work and power are done on the air, turbine work by
+ * it, the burner's heat goes in; a duct's heatIn and heatRate are heat into the gas (negative
+ * when heat is lost). Thrust, velocities, kinetic-energy changes, propulsive power and the
+ * efficiencies have no convention sign (null), nor does the net shaft work, which is zero.
+ */
+function steadyFlowSense(p: string, jet: boolean): OutputSense {
+  const device = /^devices\.([^.]+)\.(w|q|wRate|qRate)$/.exec(p)
+  if (device) {
+    if (device[2] === 'q' || device[2] === 'qRate') return { kind: 'fixed', sense: 'heat-into-system' }
+    return jet && (device[1] === '2' || device[1] === '4') ? { kind: 'convention-work' } : null
+  }
+  if (p === 'totals.heatIn' || p === 'totals.heatRate') return { kind: 'fixed', sense: 'heat-into-system' }
+  if (jet && (p === 'totals.compressorWork' || p === 'totals.compressorPower'))
+    return { kind: 'fixed', sense: 'work-on-system' }
+  if (jet && p === 'totals.turbineWork') return { kind: 'fixed', sense: 'work-by-system' }
+  return null
+}
+
 /**
  * The sense of the number at an output path. `templateId` is the physics template (null for a
  * general cycle): the Rankine templates state the net, turbine and pump work as sizes.
  */
 export function outputSense(path: string, templateId: string | null): OutputSense {
   const p = path.trim()
+  if (isSteadyFlow(templateId)) return steadyFlowSense(p, templateId === 'turbojet')
   if (isRefrigeration(templateId)) {
     // Each device's w is in the convention's sign (the compressor's is negative in the
     // engineering convention: work is done ON the refrigerant), its q is heat into the
@@ -103,6 +131,11 @@ export function outputSense(path: string, templateId: string | null): OutputSens
   if (/^steps\.[^.]+\.(total\.)?q$/.test(p) || /^totals\.(total\.)?heatIn$/.test(p))
     return { kind: 'fixed', sense: 'heat-into-system' }
   if (/^totals\.(total\.)?heatOut$/.test(p)) return { kind: 'fixed', sense: 'heat-out-of-system' }
+  // With a flow rate, the powers have the senses of the per-unit quantities they are ṁ times.
+  if (/^steps\.[^.]+\.rate\.work$/.test(p) || p === 'totals.rate.netPower') return { kind: 'convention-work' }
+  if (/^steps\.[^.]+\.rate\.heat$/.test(p) || p === 'totals.rate.heatIn')
+    return { kind: 'fixed', sense: 'heat-into-system' }
+  if (p === 'totals.rate.heatOut') return { kind: 'fixed', sense: 'heat-out-of-system' }
   return null
 }
 

@@ -103,6 +103,39 @@ function rankineProblems(sol: FormattedRankine): Problem[] {
   const x = sol.totals.turbineExitQuality?.value
   if (x !== undefined && !(x >= -SLACK && x <= 1 + SLACK))
     out.push({ code: 'quality-out-of-range', message: `Turbine exit quality ${fmt(x)} is outside 0 to 1.` })
+  if (sol.heaters) out.push(...steamPlantProblems(sol))
+  return out
+}
+
+/**
+ * A steam plant (feedwater heaters, cogeneration): each bleed fraction strictly between 0 and
+ * 1, the first law over the plant (heat in = net work + heat rejected + process heat), and a
+ * utilisation factor between the thermal efficiency and 1.
+ */
+function steamPlantProblems(sol: FormattedRankine): Problem[] {
+  const out: Problem[] = []
+  const t = sol.totals
+  ;(sol.heaters ?? []).forEach((h, i) => {
+    const y = h.bleedFraction.value
+    if (!(y > 0 && y < 1))
+      out.push({
+        code: 'efficiency-out-of-range',
+        message: `Feedwater heater ${i + 1} (${h.name}): the bleed fraction ${fmt(y)} is outside 0 to 1.`,
+      })
+  })
+  const qP = t.processHeat?.value ?? 0
+  const balance = t.heatIn.value - t.netWork.value - t.heatOut.value - qP
+  if (!Number.isFinite(balance) || Math.abs(balance) > 1e-6 * Math.max(1, Math.abs(t.heatIn.value)))
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The energy balance does not close: heat in ${fmt(t.heatIn.value / 1000)} kJ/kg against ${fmt(t.netWork.value / 1000)} + ${fmt(t.heatOut.value / 1000)} + ${fmt(qP / 1000)} kJ/kg of net work, heat rejected and process heat.`,
+    })
+  const u = t.utilisationFactor?.value
+  if (u !== undefined && !(u >= t.efficiency.value - SLACK && u <= 1 + SLACK))
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The utilisation factor ${fmt(u)} is outside the thermal efficiency ${fmt(t.efficiency.value)} to 1.`,
+    })
   return out
 }
 

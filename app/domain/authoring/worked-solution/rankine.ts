@@ -1,6 +1,6 @@
 /** The worked solution of a Rankine cycle: IAPWS-IF97 states, each device as an enthalpy difference, and the totals. Pure. */
 import { saturationAtP } from '#app/domain/thermo/steam/properties.ts'
-import { parseRankineInputs } from '#app/domain/thermo/steam/rankine-template.ts'
+import { parsePlantInputs, parseRankineInputs } from '#app/domain/thermo/steam/rankine-template.ts'
 import type { FormattedRankine, FormattedRankineState } from '#app/domain/thermo/steam/rankine-template.ts'
 import { type Variant } from '../definition.ts'
 import { formatNumber, texEscape } from '../placeholders.ts'
@@ -8,6 +8,8 @@ import type { WorkedLine, WorkedSection } from './types.ts'
 import { WORKED_SIG_FIGS } from './types.ts'
 import { snap, sub, pressureText, pressureTex, n4, q4 } from './common.ts'
 import type { Symbols } from './common.ts'
+import { isSteamPlant } from '../steam-plant-layout.ts'
+import { bleedSymbol, plantDeviceLines } from './steam-plant.ts'
 
 // ---- Rankine cycles -----------------------------------------------------------------
 
@@ -210,6 +212,15 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
   return lines
 }
 
+/** A steam plant's device lines (./steam-plant.ts) with the efficiencies read from the variant's spec. */
+function plantLines(sol: FormattedRankine, variant: Variant, sym: Symbols): WorkedLine[] | null {
+  const inputs = parsePlantInputs(sol.template, (variant.spec as { inputs?: unknown }).inputs ?? {})
+  return plantDeviceLines(sol, sym, {
+    pump: inputs.ok ? (inputs.value.pumpEfficiency ?? 1) : null,
+    turbine: inputs.ok ? (inputs.value.turbineEfficiency ?? 1) : null,
+  })
+}
+
 export function rankineSections(sol: FormattedRankine, variant: Variant, sym: Symbols): WorkedSection[] {
   const E = (x: number) => q4(snap(x, 1e3) / 1000, 'kJ/kg')
   const stateSection: WorkedSection = {
@@ -217,7 +228,7 @@ export function rankineSections(sol: FormattedRankine, variant: Variant, sym: Sy
     lines: sol.states.flatMap(rankineStateLine),
   }
   const lines =
-    rankineDeviceLines(sol, variant, sym) ??
+    (isSteamPlant(sol) ? plantLines(sol, variant, sym) : rankineDeviceLines(sol, variant, sym)) ??
     sol.devices.map((d) => ({
       tex: `\\text{${texEscape(d.device)}}:\\ ${Math.abs(d.w.value) > 0 ? `|w| = ${E(Math.abs(d.w.value))}` : `|q| = ${E(Math.abs(d.q.value))}`}`,
       note: 'steady-flow energy balance with the enthalpies and mass fractions above',
@@ -242,10 +253,15 @@ export function rankineSections(sol: FormattedRankine, variant: Variant, sym: Sy
       tex: `\\eta = \\frac{${sym.W('\\mathrm{net,out}')}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(t.netWork.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(t.efficiency.value)}`,
       note: 'thermal efficiency',
     },
-    {
-      tex: `\\eta = 1 - \\frac{${sym.Q('\\mathrm{out}')}}{${sym.Q('\\mathrm{in}')}} = 1 - \\frac{${n4(t.heatOut.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(1 - t.heatOut.value / t.heatIn.value)}`,
-      note: 'the same from the heats: over a cycle the net work is the net heat',
-    },
+    t.processHeat
+      ? {
+          tex: `\\eta = 1 - \\frac{${sym.Q('\\mathrm{out}')} + Q_{\\text{process}}}{${sym.Q('\\mathrm{in}')}} = 1 - \\frac{${n4(t.heatOut.value / 1000)} + ${n4(t.processHeat.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(1 - (t.heatOut.value + t.processHeat.value) / t.heatIn.value)}`,
+          note: 'the same from the heats: over a cycle the net work is the net heat, and the process heat leaves the water too',
+        }
+      : {
+          tex: `\\eta = 1 - \\frac{${sym.Q('\\mathrm{out}')}}{${sym.Q('\\mathrm{in}')}} = 1 - \\frac{${n4(t.heatOut.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(1 - t.heatOut.value / t.heatIn.value)}`,
+          note: 'the same from the heats: over a cycle the net work is the net heat',
+        },
     {
       tex: `\\mathrm{bwr} = \\frac{${sym.W('\\mathrm{pump,in}')}}{${sym.W('\\mathrm{turb,out}')}} = \\frac{${n4(t.pumpWork.value / 1000)}}{${n4(t.turbineWork.value / 1000)}} = ${n4(t.backWorkRatio.value)}`,
       note: 'back work ratio',
@@ -256,8 +272,31 @@ export function rankineSections(sol: FormattedRankine, variant: Variant, sym: Sy
       tex: `x_{\\mathrm{turbine\\ exit}} = ${n4(t.turbineExitQuality.value)}`,
       note: 'turbine exit quality',
     })
-  if (t.bleedFraction !== null)
+  if (t.bleedFractions && sol.heaters) {
+    const ys = t.bleedFractions
+    sol.heaters.forEach((ht, i) =>
+      totals.push({
+        tex: `${bleedSymbol(i + 1)} = ${n4(ys[i]?.value ?? NaN)}`,
+        note: `fraction of the boiler flow bled to ${ht.name} (${ht.kind}, ${pressureText(ht.pressure.value)})`,
+      }),
+    )
+    if (ys.length > 1 && t.bleedFraction !== null)
+      totals.push({
+        tex: `y = ${ys.map((_, i) => bleedSymbol(i + 1)).join(' + ')} = ${n4(t.bleedFraction.value)}`,
+        note: 'the steam bled to all the heaters',
+      })
+  } else if (t.bleedFraction !== null)
     totals.push({ tex: `y = ${n4(t.bleedFraction.value)}`, note: 'fraction of the steam bled to the feedwater heater' })
+  if (t.processHeat && t.utilisationFactor) {
+    totals.push({
+      tex: `Q_{\\text{process}} = ${E(t.processHeat.value)}`,
+      note: `process heat delivered per kg through the boiler${t.processFraction ? ` (${formatNumber(t.processFraction.value, { sigFigs: WORKED_SIG_FIGS }, false)} of the steam to the process)` : ''}`,
+    })
+    totals.push({
+      tex: `\\varepsilon_u = \\frac{${sym.W('\\mathrm{net,out}')} + Q_{\\text{process}}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(t.netWork.value / 1000)} + ${n4(t.processHeat.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(t.utilisationFactor.value)}`,
+      note: 'utilisation factor: the share of the heat taken in that ends as work or process heat',
+    })
+  }
   return [
     stateSection,
     deviceSection,
