@@ -13,9 +13,14 @@
  *   one: dashed straight segments, common practice for paths the states do not define (on the
  *   p–h chart the valve is the vertical line h4 = h3).
  *
+ * The two-stage cycle (flash chamber) adds the adiabatic mixing and the flash chamber's
+ * separation as dashed paths along the intermediate isobar; the cascade is two sets of plots,
+ * each cycle on its own refrigerant's dome (CycleDiagrams.second for the upper cycle).
+ *
  * The dome runs from a little below the cycle's lowest temperature (or the triple point) up to
- * the critical point, so the cycle fills the chart. Never throws: a curve that cannot be
- * computed becomes a straight segment. Teaching values, not design data.
+ * the critical point, so the cycle fills the chart. This is the one place a refrigerant's dome
+ * is computed. Never throws: a curve that cannot be computed becomes a straight segment.
+ * Teaching values, not design data.
  */
 import { REFRIGERANT_IDS, getRefrigerant } from '#app/domain/thermo/refrigerants/index.ts'
 import type { FluidState, Refrigerant } from '#app/domain/thermo/refrigerants/index.ts'
