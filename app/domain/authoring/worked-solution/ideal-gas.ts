@@ -376,6 +376,38 @@ function totalsSection(ctx: Ctx, template: string | undefined): WorkedSection {
           ? 'second-law efficiency: the thermal efficiency over the Carnot efficiency between the reservoirs'
           : 'second-law efficiency: the COP over the reversible COP between the reservoirs',
     })
+  if (t.rate && sol.flowRate) {
+    // Powers and rates: the per-unit values times the gas through the cycle per second.
+    const f = sol.flowRate
+    const mdot = `${sol.gas.basis === 'mass' ? '\\dot m' : '\\dot n'} = ${q4(f.value, f.unit)}`
+    const kW = (x: number) => q4(snap(x, 1e3) / 1000, 'kW')
+    const times = (x: number) => `(${q4(f.value, f.unit)})(${E(x)})`
+    lines.push({
+      tex: mdot,
+      note:
+        sol.system === 'flow'
+          ? 'flow rate of the gas'
+          : 'gas taken through the cycle per second (the mass per cycle times the cycles per second)',
+    })
+    lines.push({
+      tex: `\\dot W_{\\mathrm{net}} = ${times(t.netWork.value)} = ${kW(t.rate.netPower.value)}`,
+      note: sym.convention === 'chemistry' ? 'net power done ON the gas' : 'net power delivered by the gas',
+    })
+    lines.push({
+      tex: `\\dot Q_{\\mathrm{in}} = ${times(t.heatIn.value)} = ${kW(t.rate.heatIn.value)},\\quad \\dot Q_{\\mathrm{out}} = ${times(t.heatOut.value)} = ${kW(t.rate.heatOut.value)}`,
+      note: 'rates of heat added and rejected',
+    })
+    if (t.rate.entropyGenerated !== null && t.entropyGenerated !== null)
+      lines.push({
+        tex: `\\dot S_{\\mathrm{gen}} = (${q4(f.value, f.unit)})(${q4(u.s(snap(t.entropyGenerated.value, 1e3)), u.entropy)}) = ${q4(snap(t.rate.entropyGenerated.value, 1e3) / 1000, 'kW/K')}`,
+        note: 'rate of entropy generation',
+      })
+    if (t.rate.exergyDestroyed !== null && sol.deadState !== null && t.rate.entropyGenerated !== null)
+      lines.push({
+        tex: `\\dot X_{\\mathrm{dest}} = T_0\\,\\dot S_{\\mathrm{gen}} = ${n4(sol.deadState.T.value)} \\times ${q4(snap(t.rate.entropyGenerated.value, 1e3) / 1000, 'kW/K')} = ${kW(t.rate.exergyDestroyed.value)}`,
+        note: 'rate of exergy destruction',
+      })
+  }
   if (sol.amount && t.total) {
     const amountUnit = sol.amount.unit
     lines.push({

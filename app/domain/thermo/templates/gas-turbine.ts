@@ -10,6 +10,8 @@
  * 9 →(regenerator, hot side)→ 10 after the LP turbine, so the combustor is 5→6 and so on.
  */
 import type { StateSpec, StepSpec } from '../cycle.ts'
+import type { HeatRole } from './second-law-inputs.ts'
+import { SECOND_LAW_INPUTS, withSecondLaw } from './second-law-inputs.ts'
 import type { BuildResult, TemplateDef, TemplateInput, TemplateValues } from './types.ts'
 import { defineTemplate } from './types.ts'
 
@@ -118,6 +120,7 @@ const INPUTS: TemplateInput[] = [
     description: 'cold reservoir temperature (optional, for the entropy generated)',
     required: false,
   },
+  ...SECOND_LAW_INPUTS,
 ]
 
 function compressor(eta: number | undefined, ratio: number, label: string): StepSpec {
@@ -168,6 +171,8 @@ function build(v: TemplateValues): BuildResult {
     { process: 'isobaric', expectHeat: 'out', label: 'intercooler' },
     compressor(ec, pHigh / pic, 'high-pressure compressor'),
   ]
+  // what each step's heat is exchanged with, in step order (second-law-inputs.ts)
+  const roles: HeatRole[] = [null, 'sink', null]
   // index (0-based) of the regenerator's cold-side step, if any
   const coldIdx = steps.length
   if (regen) {
@@ -179,6 +184,7 @@ function build(v: TemplateValues): BuildResult {
       effectiveness: eps,
       label: 'regenerator (cold side)',
     })
+    roles.push(null)
   }
   states.push({ T: T5 }, {}, { T: Trh }, {})
   steps.push(
@@ -187,27 +193,22 @@ function build(v: TemplateValues): BuildResult {
     { process: 'isobaric', expectHeat: 'in', label: 'reheater' },
     turbine(et, undefined, 'low-pressure turbine'),
   )
+  roles.push('source', null, 'source', null)
   if (regen) {
     states.push({})
     steps.push({ process: 'regenerator', path: 'isobaric', partner: coldIdx, label: 'regenerator (hot side)' })
+    roles.push(null)
   }
   steps.push({ process: 'isobaric', label: 'heat rejection' })
+  roles.push('sink')
   const hot = v.num.reservoirHot
   const cold = v.num.reservoirCold
   const reservoirs = hot === undefined && cold === undefined ? undefined : { hot, cold }
-  return {
-    ok: true,
-    spec: {
-      gas: v.gas,
-      amount: v.amount,
-      system: 'flow',
-      purpose: 'engine',
-      reservoirs,
-      states,
-      steps,
-      labels: v.labels,
-    },
-  }
+  return withSecondLaw(
+    v,
+    { gas: v.gas, amount: v.amount, system: 'flow', purpose: 'engine', reservoirs, states, steps, labels: v.labels },
+    roles,
+  )
 }
 
 const braytonIntercoolReheat = defineTemplate({

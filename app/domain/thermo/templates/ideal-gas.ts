@@ -5,6 +5,7 @@
  * at the start of compression for piston and gas-turbine cycles).
  */
 import type { StateSpec, StepSpec } from '../cycle.ts'
+import { SECOND_LAW_INPUTS, withSecondLaw } from './second-law-inputs.ts'
 import type { BuildResult, TemplateDef, TemplateInput, TemplateValues } from './types.ts'
 import { defineTemplate } from './types.ts'
 
@@ -69,7 +70,7 @@ const R_C: TemplateInput = {
   description: 'compression ratio r = Vmax/Vmin > 1',
   required: true,
 }
-const COMMON_TAIL = [AMOUNT, V1, RES_HOT, RES_COLD]
+const COMMON_TAIL = [AMOUNT, V1, RES_HOT, RES_COLD, ...SECOND_LAW_INPUTS]
 
 function reservoirs(v: TemplateValues) {
   const hot = v.num.reservoirHot
@@ -116,9 +117,9 @@ const otto = defineTemplate({
       { process: 'isentropic', label: 'expansion' },
       { process: 'isochoric', label: 'heat rejection' },
     ]
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'closed',
@@ -128,7 +129,8 @@ const otto = defineTemplate({
         steps,
         labels: v.labels,
       },
-    }
+      [null, 'source', null, 'sink'],
+    )
   },
 })
 
@@ -178,9 +180,9 @@ const diesel = defineTemplate({
       { process: 'isentropic', label: 'expansion' },
       { process: 'isochoric', label: 'heat rejection' },
     ]
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'closed',
@@ -189,7 +191,8 @@ const diesel = defineTemplate({
         states: [state1(v, v.num.T1), {}, { T: v.num.T3 }, {}],
         steps,
       },
-    }
+      [null, 'source', null, 'sink'],
+    )
   },
 })
 
@@ -243,9 +246,9 @@ const dual = defineTemplate({
       { process: 'isentropic', label: 'expansion' },
       { process: 'isochoric', label: 'heat rejection' },
     ]
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'closed',
@@ -254,7 +257,8 @@ const dual = defineTemplate({
         states: [state1(v, v.num.T1), {}, { p: p3 }, { T: T4 }, {}],
         steps,
       },
-    }
+      [null, 'source', 'source', null, 'sink'],
+    )
   },
 })
 
@@ -326,7 +330,7 @@ const brayton = defineTemplate({
   title: 'Brayton cycle (simple gas turbine)',
   description:
     'Steady flow, per unit of gas: 1→2 compressor (pressure ratio rp, isentropic or with efficiency ηc), 2→3 combustor at constant pressure, 3→4 turbine (isentropic or ηt) back to p1, 4→1 heat rejection at constant pressure.',
-  inputs: [...BRAYTON_INPUTS, AMOUNT, RES_HOT, RES_COLD],
+  inputs: [...BRAYTON_INPUTS, AMOUNT, RES_HOT, RES_COLD, ...SECOND_LAW_INPUTS],
   build(v) {
     const m = braytonMachines(v)
     if ('ok' in m) return m
@@ -339,9 +343,9 @@ const brayton = defineTemplate({
       m.turb,
       { process: 'isobaric', label: 'heat rejection' },
     ]
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'flow',
@@ -350,7 +354,8 @@ const brayton = defineTemplate({
         states: [{ p: v.num.p1, T: v.num.T1 }, {}, { T: v.num.turbineInletT }, {}],
         steps,
       },
-    }
+      [null, 'source', null, 'sink'],
+    )
   },
 })
 
@@ -371,6 +376,7 @@ const braytonRegen = defineTemplate({
     AMOUNT,
     RES_HOT,
     RES_COLD,
+    ...SECOND_LAW_INPUTS,
   ],
   build(v) {
     const m = braytonMachines(v)
@@ -389,9 +395,9 @@ const braytonRegen = defineTemplate({
       { process: 'regenerator', path: 'isobaric', partner: 1, label: 'regenerator (hot side)' },
       { process: 'isobaric', label: 'heat rejection' },
     ]
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'flow',
@@ -400,7 +406,8 @@ const braytonRegen = defineTemplate({
         states: [{ p: v.num.p1, T: v.num.T1 }, {}, {}, { T: v.num.turbineInletT }, {}, {}],
         steps,
       },
-    }
+      [null, null, 'source', null, null, 'sink'],
+    )
   },
 })
 
@@ -479,9 +486,9 @@ function carnot(id: string, purpose: 'engine' | 'refrigerator' | 'heat-pump', ti
         { process: 'isothermal', expectHeat: 'out', label: `isothermal compression at ${engine ? 'Tc' : 'Th'}` },
         { process: 'isentropic', label: engine ? 'isentropic compression' : 'isentropic expansion' },
       ]
-      return {
-        ok: true,
-        spec: {
+      return withSecondLaw(
+        v,
+        {
           gas: v.gas,
           amount: v.amount,
           system: 'closed',
@@ -490,7 +497,8 @@ function carnot(id: string, purpose: 'engine' | 'refrigerator' | 'heat-pump', ti
           states: [{ ...state1(v, Ta) }, { T: Ta, p: p2 }, { T: Tb }, { T: Tb }],
           steps,
         },
-      }
+        ['source', null, 'sink', null],
+      )
     },
   })
 }
@@ -528,9 +536,9 @@ const stirling = defineTemplate({
       { process: 'isothermal', expectHeat: 'in', label: 'isothermal expansion at Th' },
       { process: 'regenerator', path: 'isochoric', partner: 1, label: 'regenerative cooling' },
     ]
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'closed',
@@ -539,7 +547,8 @@ const stirling = defineTemplate({
         states: [state1(v, v.num.Tc), { T: v.num.Tc }, { T: v.num.Th }, { T: v.num.Th }],
         steps,
       },
-    }
+      ['sink', null, 'source', null],
+    )
   },
 })
 
@@ -557,6 +566,7 @@ const ericsson = defineTemplate({
     AMOUNT,
     RES_HOT,
     RES_COLD,
+    ...SECOND_LAW_INPUTS,
   ],
   build(v) {
     const e = checkTemps(v) ?? ratioAbove1(v, 'pressureRatio')
@@ -572,9 +582,9 @@ const ericsson = defineTemplate({
       { process: 'isothermal', expectHeat: 'in', label: 'isothermal expansion at Th' },
       { process: 'regenerator', path: 'isobaric', partner: 1, label: 'regenerative cooling' },
     ]
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'flow',
@@ -583,7 +593,8 @@ const ericsson = defineTemplate({
         states: [{ p: v.num.p1, T: v.num.Tc }, { T: v.num.Tc }, { T: v.num.Th }, { T: v.num.Th }],
         steps,
       },
-    }
+      ['sink', null, 'source', null],
+    )
   },
 })
 

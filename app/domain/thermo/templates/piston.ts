@@ -16,6 +16,7 @@
  * T = T1·re/rc (pv = RT at equal pressure).
  */
 import type { StepSpec } from '../cycle.ts'
+import { SECOND_LAW_INPUTS, withSecondLaw } from './second-law-inputs.ts'
 import type { BuildResult, TemplateDef, TemplateInput, TemplateValues } from './types.ts'
 import { defineTemplate } from './types.ts'
 
@@ -95,6 +96,7 @@ const TAIL: TemplateInput[] = [
     description: 'cold reservoir temperature (optional, for the entropy generated)',
     required: false,
   },
+  ...SECOND_LAW_INPUTS,
 ]
 
 function reservoirs(v: TemplateValues) {
@@ -143,9 +145,9 @@ const atkinson = defineTemplate({
       { process: 'isobaric', expectHeat: 'out', label: 'heat rejection' },
     ]
     const s4 = re === undefined ? {} : { T: (v.num.T1! * re) / rc }
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'closed',
@@ -155,7 +157,8 @@ const atkinson = defineTemplate({
         steps,
         labels: v.labels,
       },
-    }
+      [null, 'source', null, 'sink'],
+    )
   },
 })
 
@@ -211,9 +214,9 @@ const miller = defineTemplate({
         'expansionRatio',
       )
     }
-    return {
-      ok: true,
-      spec: {
+    return withSecondLaw(
+      v,
+      {
         gas: v.gas,
         amount: v.amount,
         system: 'closed',
@@ -223,7 +226,8 @@ const miller = defineTemplate({
         steps,
         labels: v.labels,
       },
-    }
+      [null, 'source', null, 'sink', 'sink'],
+    )
   },
 })
 

@@ -6,16 +6,19 @@
 import type { CycleResult, CycleSpec } from '../cycle.ts'
 import { solveCycle } from '../cycle.ts'
 import type { Slips } from '../slips.ts'
-import { parseGas, readAmount, readHeat, readValue } from '../spec.ts'
+import { parseGas, readAmount, readFlowRate, readHeat, readValue } from '../spec.ts'
 import type { SpecError } from '../spec.ts'
 import type { Gas } from '../substances/gas.ts'
 import type { Dimension } from '../units.ts'
 
-export type InputKind = 'gas' | 'amount' | 'heat' | Dimension
+export type InputKind = 'gas' | 'amount' | 'heat' | 'flowRate' | Dimension
 
 export interface TemplateInput {
   readonly name: string
-  /** 'gas' (preset id or constants), 'amount' (mol or kg), 'heat' (J, J/kg or J/mol), or a dimension. */
+  /**
+   * 'gas' (preset id or constants), 'amount' (mol or kg), 'heat' (J, J/kg or J/mol), 'flowRate'
+   * (kg/s or mol/s, read on the gas's basis), or a dimension.
+   */
   readonly dimension: InputKind
   /** unit shown to authors, e.g. 'K', 'kPa', '' for ratios */
   readonly unit: string
@@ -34,7 +37,18 @@ export interface TemplateValues {
 }
 
 export type BuildResult =
-  { ok: true; spec: CycleSpec } | { ok: false; error: { code: 'invalid-input'; message: string; property?: string } }
+  | {
+      ok: true
+      spec: CycleSpec
+      /**
+       * Closed cycles only: the gas taken through the cycle per second (kg/s or mol/s on the
+       * gas's basis; mass per cycle × cycles per second), for powers. The solver's `flowRate`
+       * is for steady flow, so `solve` puts this on the solution after solving (the per-unit
+       * values times it are the powers, as for a flow cycle).
+       */
+      cycleRate?: number
+    }
+  | { ok: false; error: { code: 'invalid-input'; message: string; property?: string } }
 
 export interface TemplateDef {
   readonly id: string
@@ -96,6 +110,10 @@ export function parseTemplateInputs(
       const r = readAmount(x, gas, inp.name, slips)
       if (!r.ok) return r
       amount = r.value
+    } else if (inp.dimension === 'flowRate') {
+      const r = readFlowRate(x, gas, inp.name, slips)
+      if (!r.ok) return r
+      num[inp.name] = r.value
     } else if (inp.dimension === 'heat') {
       const r = readHeat(x, gas, inp.name, slips)
       if (!r.ok) return r
@@ -118,7 +136,8 @@ export function defineTemplate(t: Omit<TemplateDef, 'solve'>): TemplateDef {
       if (!parsed.ok) return parsed
       const built = t.build(parsed.value)
       if (!built.ok) return built
-      return solveCycle(built.spec)
+      const solved = solveCycle(built.spec)
+      return solved.ok && built.cycleRate !== undefined ? { ...solved, flowRate: built.cycleRate } : solved
     },
   }
 }
