@@ -99,12 +99,43 @@ function steadyFlowSense(p: string, jet: boolean): OutputSense {
 }
 
 /**
+ * The combined cycle (combined/combined-template.ts), per kg of gas: each device's w is in the
+ * convention's sign and its q is heat into the working fluid; the totals are sizes — the gas
+ * turbine's, the steam cycle's and the plant's net work and the power are done by the plant,
+ * the compressor work on the gas, the combustor heat goes in, the stack loss and the condenser
+ * heat leave. `netWorkSigned` keeps the convention's sign. The bottoming cycle's own paths
+ * (bottoming.…, per kg of steam) read as a Rankine cycle's.
+ */
+const COMBINED_TOTALS: Readonly<Record<string, FindSense>> = {
+  gasTurbineWork: 'work-by-system',
+  gasNetWork: 'work-by-system',
+  steamNetWork: 'work-by-system',
+  netWork: 'work-by-system',
+  power: 'work-by-system',
+  compressorWork: 'work-on-system',
+  heatIn: 'heat-into-system',
+  hrsgHeat: 'heat-into-system',
+  stackLoss: 'heat-out-of-system',
+  condenserHeat: 'heat-out-of-system',
+}
+
+function combinedSense(p: string): OutputSense {
+  if (p.startsWith('bottoming.')) return outputSense(p.slice('bottoming.'.length), 'rankine')
+  if (/^devices\.[^.]+\.w$/.test(p) || p === 'totals.netWorkSigned') return { kind: 'convention-work' }
+  if (/^devices\.[^.]+\.q$/.test(p)) return { kind: 'fixed', sense: 'heat-into-system' }
+  const total = /^totals\.([A-Za-z]+)$/.exec(p)?.[1]
+  const sense = total !== undefined && Object.hasOwn(COMBINED_TOTALS, total) ? COMBINED_TOTALS[total] : undefined
+  return sense ? { kind: 'fixed', sense } : null
+}
+
+/**
  * The sense of the number at an output path. `templateId` is the physics template (null for a
  * general cycle): the Rankine templates state the net, turbine and pump work as sizes.
  */
 export function outputSense(path: string, templateId: string | null): OutputSense {
   const p = path.trim()
   if (isSteadyFlow(templateId)) return steadyFlowSense(p, templateId === 'turbojet')
+  if (templateId === 'combined-cycle') return combinedSense(p)
   if (isRefrigeration(templateId)) {
     // Each device's w is in the convention's sign (the compressor's is negative in the
     // engineering convention: work is done ON the refrigerant), its q is heat into the
@@ -125,6 +156,8 @@ export function outputSense(path: string, templateId: string | null): OutputSens
     if (p === 'totals.pumpWork') return { kind: 'fixed', sense: 'work-on-system' }
     if (/^devices\.[^.]+\.q$/.test(p) || p === 'totals.heatIn') return { kind: 'fixed', sense: 'heat-into-system' }
     if (p === 'totals.heatOut') return { kind: 'fixed', sense: 'heat-out-of-system' }
+    // Cogeneration: the heat the process takes leaves the water (a size).
+    if (p === 'totals.processHeat') return { kind: 'fixed', sense: 'heat-out-of-system' }
     return null
   }
   if (/^steps\.[^.]+\.(total\.)?w$/.test(p) || /^totals\.(total\.)?netWork$/.test(p)) return { kind: 'convention-work' }
