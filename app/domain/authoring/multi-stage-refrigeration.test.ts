@@ -317,6 +317,67 @@ describe('two-stage keys against the hand calculation from the equation of state
   })
 })
 
+describe('two-stage keys with superheat and subcooling, by hand', () => {
+  // Invented numbers: R-717, −32 °C with 6 K of superheat, 34 °C with 4 K of subcooling, default
+  // flash pressure √(p_evap·p_cond), ideal compressors.
+  const def = problem(
+    TWO,
+    [choice('sh', 'K', [6]), choice('sc', 'K', [4])],
+    {
+      refrigerant: 'R717',
+      evaporatorTemperature: '-32 °C',
+      condenserTemperature: '34 °C',
+      superheat: 'sh',
+      subcooling: 'sc',
+    },
+    [
+      find('T1', 'states.1.T', '°C'),
+      find('T5', 'states.5.T', '°C'),
+      find('x6', 'totals.flashVapourFraction', ''),
+      find('qL', 'totals.refrigerationEffect', 'kJ/kg'),
+      find('w', 'totals.compressorWork', 'kJ/kg'),
+      find('cop', 'totals.copRefrigerator', ''),
+    ],
+  )
+  const TL = 273.15 - 32
+  const TH = 273.15 + 34
+  const pL = ok(r717.saturationT(TL)).p
+  const pH = ok(r717.saturationT(TH)).p
+  const pI = Math.sqrt(pL * pH)
+  // The hand calculation again, with the superheated evaporator exit and the subcooled liquid.
+  const s1 = ok(r717.stateTP(TL + 6, pL))
+  const s5 = ok(r717.stateTP(TH - 4, pH))
+  const s7 = ok(r717.statePx(pI, 0))
+  const s9 = ok(r717.statePx(pI, 1))
+  const x6 = (s5.h - s7.h) / (s9.h - s7.h)
+  const s2 = compressed(r717, s1, pI, 1)
+  const h3 = x6 * s9.h + (1 - x6) * s2.h
+  const s4 = compressed(r717, ok(r717.statePH(pI, h3)), pH, 1)
+  const qL = (1 - x6) * (s1.h - s7.h)
+  const w = (1 - x6) * (s2.h - s1.h) + (s4.h - h3)
+  test.each(['engineering', 'chemistry'] as const)('%s course', (convention) => {
+    const v = drawn(def, convention)
+    expect(keyOf(v, 'T1')).toBeCloseTo(-26, 9)
+    expect(keyOf(v, 'T5')).toBeCloseTo(30, 9)
+    expect(relErr(keyOf(v, 'x6'), x6)).toBeLessThan(1e-6)
+    expect(relErr(keyOf(v, 'qL'), qL / 1e3)).toBeLessThan(1e-6)
+    expect(relErr(keyOf(v, 'w'), w / 1e3)).toBeLessThan(1e-6)
+    expect(relErr(keyOf(v, 'cop'), qL / w)).toBeLessThan(1e-6)
+  })
+  test('the worked solution names the superheat and subcooling and keeps the Carnot COP between the saturation temperatures', () => {
+    const v = drawn(def)
+    const ws = workedSolution(v, def)
+    const lines = ws.sections.flatMap((x) => x.lines)
+    expect(lines.some((l) => /6 K of superheat/.test(l.note ?? ''))).toBe(true)
+    expect(lines.some((l) => /4 K of subcooling/.test(l.note ?? ''))).toBe(true)
+    const carnot = lines.find((l) => l.tex.startsWith('\\mathrm{COP}_{R,\\text{Carnot}}'))!.tex
+    // T_L is the evaporating temperature (−32 °C), not the superheated exit's 247.15 K
+    expect(carnot).toContain(`\\frac{${p4(TL)}}`)
+    expect(lastNumber(carnot)).toBe(p4(TL / (TH - TL)))
+    expect(renderWorkedSolution(ws)).not.toContain('math-error')
+  })
+})
+
 describe('cascade keys against the hand calculation from the equation of state', () => {
   // Invented numbers: R-744 below R-717, −48 °C, −4 °C / −9 °C in the exchanger, 38 °C, η 0.8 / 0.75, 12 kW.
   const def = problem(

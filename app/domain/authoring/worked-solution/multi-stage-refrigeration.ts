@@ -119,7 +119,13 @@ function conventionLines(devices: FormattedTwoStage['devices'], sym: Symbols): W
   }))
 }
 
-function carnotLine(TL: number, TH: number, carnot: number): WorkedLine | null {
+/**
+ * COP_Carnot = T_L/(T_H − T_L) between the saturation temperatures of the outer evaporator and
+ * condenser: T_L from a wet state at the evaporator pressure (the evaporator exit may be
+ * superheated), T_H from the solver's Carnot COP (the condenser exit may be subcooled).
+ */
+function carnotLine(TL: number, carnot: number): WorkedLine | null {
+  const TH = carnot > 0 ? TL * (1 + 1 / carnot) : Number.NaN
   if (!(TH > TL) || !Number.isFinite(carnot)) return null
   return {
     tex: `\\mathrm{COP}_{R,\\text{Carnot}} = \\frac{T_L}{T_H - T_L} = \\frac{${n4(TL)}}{${n4(TH)} - ${n4(TL)}} = ${n4(carnot)}`,
@@ -229,7 +235,7 @@ export function twoStageSections(sol: FormattedTwoStage, variant: Variant, sym: 
       note: 'as a heat pump (one more than the refrigerator’s)',
     },
   ]
-  const carnot = carnotLine(s1.T.value, s5.T.value, t.carnotCopRefrigerator.value)
+  const carnot = carnotLine(s8.T.value, t.carnotCopRefrigerator.value)
   if (carnot) perf.push(carnot)
   const mHigh = t.highStageMassFlow?.value
   const mLow = t.lowStageMassFlow?.value
@@ -392,7 +398,7 @@ export function cascadeSections(sol: FormattedCascade, variant: Variant, sym: Sy
       note: 'each cycle on its own; the cascade’s COP is below both, as the work of both compressors buys the one refrigeration effect',
     },
   ]
-  const carnot = carnotLine(s1.T.value, s7.T.value, t.carnotCopRefrigerator.value)
+  const carnot = carnotLine(s4.T.value, t.carnotCopRefrigerator.value)
   if (carnot) perf.push(carnot)
   const mB = t.lowerMassFlow?.value
   const mA = t.upperMassFlow?.value

@@ -61,6 +61,8 @@ export const TWO_STAGE_INPUTS: readonly TemplateInput[] = [
   opt('compressorEfficiency', 'dimensionless', '', 'isentropic efficiency of both compressors (default 1)'),
   opt('lowStageCompressorEfficiency', 'dimensionless', '', 'low-stage compressor (default compressorEfficiency)'),
   opt('highStageCompressorEfficiency', 'dimensionless', '', 'high-stage compressor (default compressorEfficiency)'),
+  opt('superheat', 'dimensionless', 'K', 'superheat at the evaporator exit (default 0 K)'),
+  opt('subcooling', 'dimensionless', 'K', 'subcooling at the condenser exit (default 0 K)'),
   opt('highStageMassFlow', 'dimensionless', 'kg/s', 'mass flow through the condenser and high-stage compressor'),
   opt('lowStageMassFlow', 'dimensionless', 'kg/s', 'mass flow through the evaporator and low-stage compressor'),
   capacityInput,
@@ -76,6 +78,8 @@ export const CASCADE_INPUTS: readonly TemplateInput[] = [
   opt('compressorEfficiency', 'dimensionless', '', 'isentropic efficiency of both compressors (default 1)'),
   opt('lowerCompressorEfficiency', 'dimensionless', '', 'lower-cycle compressor (default compressorEfficiency)'),
   opt('upperCompressorEfficiency', 'dimensionless', '', 'upper-cycle compressor (default compressorEfficiency)'),
+  opt('superheat', 'dimensionless', 'K', "superheat at the lower cycle's evaporator exit (default 0 K)"),
+  opt('subcooling', 'dimensionless', 'K', "subcooling at the upper cycle's condenser exit (default 0 K)"),
   opt('lowerMassFlow', 'dimensionless', 'kg/s', 'mass flow in the lower cycle'),
   opt('upperMassFlow', 'dimensionless', 'kg/s', 'mass flow in the upper cycle'),
   capacityInput,
@@ -96,6 +100,7 @@ const fail = (message: string, property?: string, code = 'invalid-spec'): MultiS
 const NUMBER = String.raw`([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)`
 const UNIT_RE = (units: string) => new RegExp(String.raw`^\s*${NUMBER}\s*(${units})?\s*$`)
 const FLOW = UNIT_RE('kg/s|kg/h')
+const KELVINS = UNIT_RE('K')
 const POWER = UNIT_RE('W|kW|MW|tons?|TR')
 const POWER_FACTOR: Record<string, number> = {
   W: 1,
@@ -147,6 +152,10 @@ class Reader {
     const m = typeof x === 'string' ? re.exec(x) : null
     if (!m) return fail(`${name}: give a value such as ${example}, not ${JSON.stringify(x)}`, name)
     return { ok: true as const, value: Number(m[1]) * factor(m[2]) }
+  }
+  /** a temperature difference in K (a bare number is kelvins) */
+  kelvins(name: string): Read<number | undefined> {
+    return this.matched(name, KELVINS, () => 1, '"5 K"')
   }
   flow(name: string): Read<number | undefined> {
     return this.matched(name, FLOW, (u) => (u === 'kg/h' ? 1 / 3600 : 1), '"0.05 kg/s"')
@@ -203,6 +212,8 @@ export function parseTwoStageInputs(raw: unknown): Read<TwoStageInput> {
     eta: () => r.ratio('compressorEfficiency'),
     etaLow: () => r.ratio('lowStageCompressorEfficiency'),
     etaHigh: () => r.ratio('highStageCompressorEfficiency'),
+    superheat: () => r.kelvins('superheat'),
+    subcooling: () => r.kelvins('subcooling'),
     highStageMassFlow: () => r.flow('highStageMassFlow'),
     lowStageMassFlow: () => r.flow('lowStageMassFlow'),
     capacity: () => r.capacity(),
@@ -218,6 +229,8 @@ export function parseTwoStageInputs(raw: unknown): Read<TwoStageInput> {
       intermediatePressure: x.intermediatePressure,
       lowStageEfficiency: x.etaLow ?? x.eta,
       highStageEfficiency: x.etaHigh ?? x.eta,
+      superheat: x.superheat,
+      subcooling: x.subcooling,
       highStageMassFlow: x.highStageMassFlow,
       lowStageMassFlow: x.lowStageMassFlow,
       capacity: x.capacity,
@@ -239,6 +252,8 @@ export function parseCascadeInputs(raw: unknown): Read<CascadeInput> {
     eta: () => r.ratio('compressorEfficiency'),
     etaLower: () => r.ratio('lowerCompressorEfficiency'),
     etaUpper: () => r.ratio('upperCompressorEfficiency'),
+    superheat: () => r.kelvins('superheat'),
+    subcooling: () => r.kelvins('subcooling'),
     lowerMassFlow: () => r.flow('lowerMassFlow'),
     upperMassFlow: () => r.flow('upperMassFlow'),
     capacity: () => r.capacity(),
@@ -256,6 +271,8 @@ export function parseCascadeInputs(raw: unknown): Read<CascadeInput> {
       condenser: x.condenser!,
       lowerEfficiency: x.etaLower ?? x.eta,
       upperEfficiency: x.etaUpper ?? x.eta,
+      superheat: x.superheat,
+      subcooling: x.subcooling,
       lowerMassFlow: x.lowerMassFlow,
       upperMassFlow: x.upperMassFlow,
       capacity: x.capacity,

@@ -469,3 +469,189 @@ describe('the spec templates', () => {
     }
   })
 })
+
+// Superheat at the evaporator exit and subcooling at the condenser exit (optional inputs of both
+// templates). Checked against the energy balances written out from the reported states, and
+// against the single-stage cycle (vapour-compression.ts) in the limits where the two-stage cycle
+// must become it: a flash chamber at the condenser pressure (nothing flashes; superheat only),
+// and one at the evaporator pressure (the flash vapour is the evaporator's saturated exit;
+// subcooling only — with superheat the flash vapour would bypass the superheating, so the two
+// differ by x6·(h1 − h9), checked too).
+describe('superheat and subcooling', () => {
+  const singleWith = (f: typeof r134a, pL: number, pH: number, eta: number, superheat = 0, subcooling = 0) => {
+    const r = solveVapourCompression({
+      refrigerant: f,
+      purpose: 'refrigerator',
+      evaporator: { p: pL },
+      condenser: { p: pH },
+      compressorEfficiency: eta,
+      superheat,
+      subcooling,
+    })
+    if (!r.ok) throw new Error(r.error.message)
+    return r.value
+  }
+
+  test('two-stage: state 1 superheated and state 5 subcooled by the given kelvins; every balance closes', () => {
+    const r = two({
+      refrigerant: r134a,
+      evaporator: { T: 243.15 },
+      condenser: { T: 313.15 },
+      lowStageEfficiency: 0.8,
+      highStageEfficiency: 0.8,
+      superheat: 6,
+      subcooling: 4,
+    })
+    const st = (n: string) => r.states.find((x) => x.name === n)!.state
+    expect(st('1').T).toBeCloseTo(249.15, 9)
+    expect(st('1').x).toBeNull()
+    expect(st('5').T).toBeCloseTo(309.15, 9)
+    expect(st('5').x).toBeNull()
+    // the flash chamber's outlets stay saturated
+    expect(st('7').x).toBe(0)
+    expect(st('9').x).toBe(1)
+    const x6 = r.flashVapourFraction
+    expect(relErr(st('6').h, st('5').h)).toBeLessThan(1e-12)
+    expect(relErr(st('6').h, x6 * st('9').h + (1 - x6) * st('7').h)).toBeLessThan(1e-9)
+    expect(relErr(st('3').h, x6 * st('9').h + (1 - x6) * st('2').h)).toBeLessThan(1e-9)
+    expect(relErr(r.refrigerationEffect, (1 - x6) * (st('1').h - st('8').h))).toBeLessThan(1e-9)
+    expect(relErr(r.compressorWork, (1 - x6) * (st('2').h - st('1').h) + st('4').h - st('3').h)).toBeLessThan(1e-9)
+    expect(relErr(r.heatRejected, r.refrigerationEffect + r.compressorWork)).toBeLessThan(1e-9)
+    // Subcooling lowers h5, so less flashes and more of each kg reaches the evaporator.
+    const plain = two({
+      refrigerant: r134a,
+      evaporator: { T: 243.15 },
+      condenser: { T: 313.15 },
+      lowStageEfficiency: 0.8,
+      highStageEfficiency: 0.8,
+    })
+    expect(x6).toBeLessThan(plain.flashVapourFraction)
+    expect(r.copRefrigerator).toBeLessThan(r.carnotCopRefrigerator)
+    expect(r.carnotCopRefrigerator).toBeCloseTo(plain.carnotCopRefrigerator, 12) // between the saturation temperatures
+  })
+
+  test.each([
+    ['R-134a ideal', r134a, 0.14e6, 0.8e6, 1],
+    ['ammonia, η = 0.75', r717, 0.1e6, 1.2e6, 0.75],
+  ] as const)('two-stage limits against the single-stage cycle: %s', (_name, f, pL, pH, eta) => {
+    const at = (pI: number, superheat: number, subcooling: number) =>
+      two({
+        refrigerant: f,
+        evaporator: { p: pL },
+        condenser: { p: pH },
+        intermediatePressure: pI,
+        lowStageEfficiency: eta,
+        highStageEfficiency: eta,
+        superheat,
+        subcooling,
+      })
+    // flash chamber at the condenser pressure, 8 K of superheat: the single-stage cycle with it
+    const hi = at(pH, 8, 0)
+    const oneSh = singleWith(f, pL, pH, eta, 8, 0)
+    expect(relErr(hi.copRefrigerator, oneSh.copRefrigerator)).toBeLessThan(1e-9)
+    expect(relErr(hi.refrigerationEffect, oneSh.refrigerationEffect)).toBeLessThan(1e-9)
+    expect(relErr(hi.compressorWork, oneSh.compressorWork)).toBeLessThan(1e-9)
+    // flash chamber at the evaporator pressure, 5 K of subcooling: the single-stage cycle with it
+    const lo = at(pL, 0, 5)
+    const oneSc = singleWith(f, pL, pH, eta, 0, 5)
+    expect(relErr(lo.copRefrigerator, oneSc.copRefrigerator)).toBeLessThan(1e-9)
+    expect(relErr(lo.refrigerationEffect, oneSc.refrigerationEffect)).toBeLessThan(1e-9)
+    expect(relErr(lo.compressorWork, oneSc.compressorWork)).toBeLessThan(1e-9)
+    // ... and with superheat too, short of the single-stage q_L by the flash vapour's superheat x6·(h1 − h9)
+    const both = at(pL, 6, 5)
+    const oneBoth = singleWith(f, pL, pH, eta, 6, 5)
+    const h = (n: string) => both.states.find((x) => x.name === n)!.state.h
+    expect(
+      relErr(both.refrigerationEffect + both.flashVapourFraction * (h('1') - h('9')), oneBoth.refrigerationEffect),
+    ).toBeLessThan(1e-9)
+  })
+
+  test('cascade: superheat on the cold evaporator and subcooling on the outer condenser are the single-stage cycles’', () => {
+    const r = cascade({
+      lowerRefrigerant: r744,
+      upperRefrigerant: r717,
+      evaporator: { T: 228.15 },
+      lowerCondenser: { T: 268.15 },
+      upperEvaporator: { T: 263.15 },
+      condenser: { T: 308.15 },
+      lowerEfficiency: 0.8,
+      upperEfficiency: 0.75,
+      superheat: 5,
+      subcooling: 3,
+    })
+    const satP = (f: typeof r134a, T: number) => {
+      const s = f.saturationT(T)
+      if (!s.ok) throw new Error(s.error.message)
+      return s.value.p
+    }
+    const L = singleWith(r744, satP(r744, 228.15), satP(r744, 268.15), 0.8, 5, 0)
+    const U = singleWith(r717, satP(r717, 263.15), satP(r717, 308.15), 0.75, 0, 3)
+    expect(r.states[0]!.state.T).toBeCloseTo(233.15, 9)
+    expect(r.states[6]!.state.T).toBeCloseTo(305.15, 9)
+    expect(r.states[2]!.state.x).toBe(0) // the exchanger's sides stay saturated
+    expect(r.states[4]!.state.x).toBe(1)
+    const ratio = L.heatRejected / U.refrigerationEffect
+    expect(relErr(r.massFlowRatio, ratio)).toBeLessThan(1e-9)
+    expect(relErr(r.refrigerationEffect, L.refrigerationEffect)).toBeLessThan(1e-9)
+    expect(relErr(r.compressorWork, L.compressorWork + ratio * U.compressorWork)).toBeLessThan(1e-9)
+    expect(r.balances.exchanger).toBeLessThan(1e-9)
+    expect(r.balances.cycle).toBeLessThan(1e-9)
+  })
+
+  test('refusals: negative kelvins, and a liquid too subcooled to flash in the flash chamber', () => {
+    const base = { refrigerant: r134a, evaporator: { T: 243.15 }, condenser: { T: 313.15 } } as const
+    const neg = solveTwoStage({ ...base, superheat: -1 })
+    expect(neg.ok).toBe(false)
+    if (!neg.ok) expect(neg.error.property).toBe('superheat')
+    // 40 °C condensing, 35 K of subcooling: 5 °C liquid, colder than a flash chamber at 0.4 MPa (about 9 °C)
+    const cold = solveTwoStage({ ...base, subcooling: 35, intermediatePressure: 0.4e6 })
+    expect(cold.ok).toBe(false)
+    if (!cold.ok) {
+      expect(cold.error.code).toBe('unphysical')
+      expect(cold.error.property).toBe('subcooling')
+      expect(cold.error.message).toMatch(/nothing would flash/)
+    }
+    const cas = solveCascade({
+      lowerRefrigerant: r744,
+      upperRefrigerant: r717,
+      evaporator: { T: 228.15 },
+      lowerCondenser: { T: 268.15 },
+      upperEvaporator: { T: 263.15 },
+      condenser: { T: 308.15 },
+      subcooling: Number.NaN,
+    })
+    expect(cas.ok).toBe(false)
+  })
+
+  test('the spec templates read "5 K" and a bare number as kelvins, and name them in the states', () => {
+    const r = solveRefrigerationTemplate(
+      'vapour-compression-two-stage',
+      {
+        refrigerant: 'R134a',
+        evaporatorTemperature: '-30 °C',
+        condenserTemperature: '40 °C',
+        superheat: '5 K',
+        subcooling: 3,
+      },
+      'engineering',
+    ) as FormattedTwoStage
+    expect(r.ok).toBe(true)
+    expect(r.states[0]!.T.value).toBeCloseTo(248.15, 9)
+    expect(r.states[0]!.description).toMatch(/5 K of superheat/)
+    expect(r.states[4]!.description).toMatch(/3 K of subcooling/)
+    const bad = solveRefrigerationTemplate(
+      'vapour-compression-cascade',
+      {
+        lowerRefrigerant: 'R744',
+        upperRefrigerant: 'R717',
+        evaporatorTemperature: '-45 °C',
+        lowerCondenserTemperature: '-5 °C',
+        upperEvaporatorTemperature: '-10 °C',
+        condenserTemperature: '35 °C',
+        superheat: 'warm',
+      },
+      'engineering',
+    )
+    expect(bad.ok).toBe(false)
+  })
+})

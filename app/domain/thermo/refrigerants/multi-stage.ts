@@ -13,13 +13,18 @@
  *   → 8 after the low-pressure valve (h8 = h7, at p_evap) → evaporator → 1.
  *
  * Per kg of refrigerant through the condenser, x6 leaves the flash chamber as vapour and
- * 1 − x6 goes through the evaporator. The intermediate pressure defaults to √(p_evap·p_cond),
+ * 1 − x6 goes through the evaporator. Optional superheat at the evaporator exit (1) and
+ * subcooling at the condenser exit (5), as in the single-stage cycle; the flash chamber's
+ * states 7 and 9 stay saturated, so a liquid subcooled below the flash chamber's saturation
+ * temperature (h5 < h7: nothing would flash) is refused. The intermediate pressure defaults to √(p_evap·p_cond),
  * a common rule of thumb (not an optimum for every fluid).
  *
  * Cascade: two single-stage cycles (solveVapourCompression) coupled by an adiabatic cascade
  * heat exchanger, the lower cycle's condenser being the upper cycle's evaporator; the energy
  * balance of the exchanger gives ṁ_upper/ṁ_lower = q_H,lower / q_L,upper. Lower cycle
- * states 1–4, upper cycle 5–8 (as in the same textbook).
+ * states 1–4, upper cycle 5–8 (as in the same textbook). Optional superheat at the cold
+ * evaporator's exit (1) and subcooling at the outer condenser's exit (7); the exchanger's two
+ * sides stay saturated.
  *
  * Teaching tool: not design data; defer to the applicable codes (e.g. refrigeration safety
  * standards), standards and licensed engineering practice for any real refrigeration plant.
@@ -83,6 +88,30 @@ function checkEta(eta: number, property: string): RefrigerationFailureOutcome | 
   return eta > 0 && eta <= 1 ? null : bad(`${property} must be in (0, 1] (got ${eta})`, property)
 }
 
+function checkKelvins(dT: number, property: string): RefrigerationFailureOutcome | null {
+  return dT >= 0 && Number.isFinite(dT) ? null : bad(`${property} must be 0 K or more`, property)
+}
+
+/** Saturated vapour at p, or superheated by sh kelvins above its saturation temperature T. */
+function vapourOut(f: Refrigerant, p: number, T: number, sh: number, where: string) {
+  return sh === 0 ? take(f.statePx(p, 1), where, 'evaporator') : take(f.stateTP(T + sh, p), where, 'superheat')
+}
+
+/** Saturated liquid at p, or subcooled by sc kelvins below its saturation temperature T. */
+function liquidOut(f: Refrigerant, p: number, T: number, sc: number, where: string) {
+  if (sc === 0) return take(f.statePx(p, 0), where, 'condenser')
+  if (T - sc <= f.Ttriple)
+    return {
+      ok: false as const,
+      fail: bad(
+        `${where}: ${k(sc)} K of subcooling is below the triple point of ${f.id}`,
+        'subcooling',
+        'out-of-range',
+      ),
+    }
+  return take(f.stateTP(T - sc, p), where, 'subcooling')
+}
+
 /**
  * (p, h) → state, on the dome's edges too: inside [h_f, h_g] (to 1e-9 relative) the state is
  * the saturated mixture at p with x = (h − h_f)/(h_g − h_f), so that a limiting case (a
@@ -134,6 +163,9 @@ export interface TwoStageInput {
   /** isentropic efficiencies, 0 < η ≤ 1 (default 1) */
   readonly lowStageEfficiency?: number
   readonly highStageEfficiency?: number
+  /** K of superheat at the evaporator exit, K of subcooling at the condenser exit (default 0) */
+  readonly superheat?: number
+  readonly subcooling?: number
   /** at most one: kg/s through the condenser (high stage), kg/s through the evaporator (low stage), or a capacity in W */
   readonly highStageMassFlow?: number
   readonly lowStageMassFlow?: number
@@ -195,7 +227,13 @@ export function solveTwoStage(input: TwoStageInput): TwoStageOutcome {
   const f = input.refrigerant
   const etaL = input.lowStageEfficiency ?? 1
   const etaH = input.highStageEfficiency ?? 1
-  const e = checkEta(etaL, 'lowStageEfficiency') ?? checkEta(etaH, 'highStageEfficiency')
+  const sh = input.superheat ?? 0
+  const sc = input.subcooling ?? 0
+  const e =
+    checkEta(etaL, 'lowStageEfficiency') ??
+    checkEta(etaH, 'highStageEfficiency') ??
+    checkKelvins(sh, 'superheat') ??
+    checkKelvins(sc, 'subcooling')
   if (e) return e
   const flow = flowChoice([
     ['highStageMassFlow', input.highStageMassFlow],
@@ -224,10 +262,10 @@ export function solveTwoStage(input: TwoStageInput): TwoStageOutcome {
       'out-of-range',
     )
 
-  const s1r = take(f.statePx(pL, 1), 'evaporator exit', 'evaporator')
+  const s1r = vapourOut(f, pL, ev.T, sh, 'evaporator exit')
   if (!s1r.ok) return s1r.fail
   const s1 = s1r.s
-  const s5r = take(f.statePx(pH, 0), 'condenser exit', 'condenser')
+  const s5r = liquidOut(f, pH, cd.T, sc, 'condenser exit')
   if (!s5r.ok) return s5r.fail
   const s5 = s5r.s
   const s7r = take(f.statePx(pI, 0), 'flash chamber liquid', 'intermediatePressure')
@@ -237,6 +275,14 @@ export function solveTwoStage(input: TwoStageInput): TwoStageOutcome {
   if (!s9r.ok) return s9r.fail
   const s9 = s9r.s
 
+  // A liquid colder than the flash chamber's saturation temperature would not flash: the
+  // saturated states 7 and 9 could not both leave it.
+  if (s5.h < s7.h * (1 - 1e-12))
+    return bad(
+      `the condenser exit (${k(s5.T)} K with ${k(sc)} K of subcooling) is colder than the flash chamber's saturation temperature (${k(s7.T)} K), so nothing would flash there: give less subcooling or a lower flash chamber pressure`,
+      'subcooling',
+      'unphysical',
+    )
   // 6: throttled to the flash chamber (h6 = h5), its quality from the saturation pair at p_i
   const s6r = statePH(f, pI, s5.h, 'after the high-pressure valve', 'intermediatePressure')
   if (!s6r.ok) return s6r.fail
@@ -292,11 +338,19 @@ export function solveTwoStage(input: TwoStageInput): TwoStageOutcome {
     ok: true,
     value: {
       states: [
-        { name: '1', description: 'evaporator exit, saturated vapour', state: s1 },
+        {
+          name: '1',
+          description: sh === 0 ? 'evaporator exit, saturated vapour' : `evaporator exit, ${k(sh)} K of superheat`,
+          state: s1,
+        },
         { name: '2', description: 'low-stage compressor exit', state: s2 },
         { name: '3', description: 'mixing chamber exit (low-stage discharge + flash vapour)', state: s3 },
         { name: '4', description: 'high-stage compressor exit', state: s4 },
-        { name: '5', description: 'condenser exit, saturated liquid', state: s5 },
+        {
+          name: '5',
+          description: sc === 0 ? 'condenser exit, saturated liquid' : `condenser exit, ${k(sc)} K of subcooling`,
+          state: s5,
+        },
         { name: '6', description: 'after the high-pressure valve, entering the flash chamber', state: s6 },
         { name: '7', description: 'flash chamber liquid, saturated', state: s7 },
         { name: '8', description: 'after the low-pressure valve', state: s8 },
@@ -345,6 +399,9 @@ export interface CascadeInput {
   readonly condenser: SaturationGiven
   readonly lowerEfficiency?: number
   readonly upperEfficiency?: number
+  /** K of superheat at the lower cycle's evaporator exit, K of subcooling at the upper cycle's condenser exit (default 0) */
+  readonly superheat?: number
+  readonly subcooling?: number
   /** at most one: kg/s in the lower cycle, kg/s in the upper cycle, or a capacity in W */
   readonly lowerMassFlow?: number
   readonly upperMassFlow?: number
@@ -391,7 +448,13 @@ export function solveCascade(input: CascadeInput): CascadeOutcome {
   const fu = input.upperRefrigerant
   const etaL = input.lowerEfficiency ?? 1
   const etaU = input.upperEfficiency ?? 1
-  const e = checkEta(etaL, 'lowerEfficiency') ?? checkEta(etaU, 'upperEfficiency')
+  const sh = input.superheat ?? 0
+  const sc = input.subcooling ?? 0
+  const e =
+    checkEta(etaL, 'lowerEfficiency') ??
+    checkEta(etaU, 'upperEfficiency') ??
+    checkKelvins(sh, 'superheat') ??
+    checkKelvins(sc, 'subcooling')
   if (e) return e
   const flow = flowChoice([
     ['lowerMassFlow', input.lowerMassFlow],
@@ -432,6 +495,7 @@ export function solveCascade(input: CascadeInput): CascadeOutcome {
     cd: SaturationGiven,
     eta: number,
     which: 'lower' | 'upper',
+    dT: { superheat?: number; subcooling?: number },
   ): { ok: true; r: VapourCompressionResult } | { ok: false; fail: RefrigerationFailureOutcome } => {
     const r = solveVapourCompression({
       refrigerant: f,
@@ -439,13 +503,14 @@ export function solveCascade(input: CascadeInput): CascadeOutcome {
       evaporator: ev,
       condenser: cd,
       compressorEfficiency: eta,
+      ...dT,
     })
     if (r.ok) return { ok: true, r: r.value }
     return { ok: false, fail: bad(`${which} cycle: ${r.error.message}`, r.error.property, r.error.code) }
   }
-  const lo = cycle(fl, { p: evL.p }, { p: cdL.p }, etaL, 'lower')
+  const lo = cycle(fl, { p: evL.p }, { p: cdL.p }, etaL, 'lower', { superheat: sh })
   if (!lo.ok) return lo.fail
-  const up = cycle(fu, { p: evU.p }, { p: cdU.p }, etaU, 'upper')
+  const up = cycle(fu, { p: evU.p }, { p: cdU.p }, etaU, 'upper', { subcooling: sc })
   if (!up.ok) return up.fail
   const L = lo.r
   const U = up.r
