@@ -3,15 +3,26 @@
 // new-problem page's action), the stored version read back, listed under its cycle, exported and
 // imported through JSON, previewed (key, worked solution naming each heater, T–s diagram with the
 // dome) and drawn per student. Demo data: the invented plants of seed/problems.ts.
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query'
 import { eq } from 'drizzle-orm'
+import { createElement } from 'react'
+import { renderToString } from 'react-dom/server'
+import { createRoutesStub } from 'react-router'
+import { ProblemEditor } from '#app/components/problem-editor/index.tsx'
 import { describe, expect, test } from 'vitest'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { drawVariant } from '#app/domain/authoring/variant.ts'
-import { addHeaterIntent, formValuesFromDefinition, removeHeaterIntent } from '#app/lib/problem-form.ts'
+import {
+  addHeaterIntent,
+  editorStateFromDefinition,
+  formValuesFromDefinition,
+  removeHeaterIntent,
+} from '#app/lib/problem-form.ts'
 import { action as newAction } from '#app/routes/bank/new.tsx'
 import { db } from '#app/server/db/client.server.ts'
 import { problemVersions } from '#app/server/db/schema.server.ts'
 import { previewProblem } from '#app/server/preview.server.ts'
+import { editorOptions } from '#app/server/problem-editor.server.ts'
 import {
   BankQuerySchema,
   createProblem,
@@ -54,6 +65,45 @@ type Answer = {
 }
 
 describe('the heater list in the editor without JavaScript', () => {
+  test('the page shows each heater as a labelled row with a Remove button naming it, and an Add button', () => {
+    const def = demo('rankine-feedwater')
+    const Stub = createRoutesStub([
+      {
+        path: '/bank/new',
+        Component: () =>
+          createElement(ProblemEditor, {
+            state: editorStateFromDefinition(def, 'private'),
+            issues: [{ path: 'physics.inputs.heaters.1.pressure', message: 'Check this pressure.' }],
+            options: editorOptions(),
+            preview: null,
+            focusSummary: false,
+            saveLabel: 'Save',
+          }),
+      },
+    ])
+    const html = renderToString(
+      createElement(
+        QueryClientProvider,
+        { client: new QueryClient() },
+        createElement(Stub, { initialEntries: ['/bank/new'] }),
+      ),
+    ).replaceAll('<!-- -->', '')
+    expect(html).toContain('name="physics.inputs.heaters.0.kind"')
+    expect(html).toContain('name="physics.inputs.heaters.1.pressure"')
+    expect(html).toContain('name="physics.inputs.heaters.2.pressure"') // the blank row to type into
+    expect(html).not.toContain('name="physics.inputs.heaters.3.pressure"')
+    expect(html).toContain('aria-label="Heater 1 terminal temperature difference"')
+    expect(html).toContain('aria-label="Remove heater 2 (deaerator)"')
+    expect(html).toContain(`value="${removeHeaterIntent('heaters', 0)}"`)
+    expect(html).toContain(`value="${addHeaterIntent('heaters')}"`)
+    expect(html).toContain('Check this pressure.')
+    expect(html).toContain('aria-describedby="field-physics-inputs-heaters-1-pressure-error"')
+    // the given named in a heater field is kept as typed
+    expect(html).toMatch(
+      /name="physics.inputs.heaters.0.pressure"[^>]*value="pC"|value="pC"[^>]*name="physics.inputs.heaters.0.pressure"/,
+    )
+  })
+
   test('"Add a heater" shows one more blank row, and "Remove" drops the row it names, renumbered', async () => {
     const { user } = await createBankUser(db())
     const cookie = await sessionCookie(user)
