@@ -29,14 +29,12 @@ export function HeaterListInput({
   kit,
   state,
   input,
-  description,
   required,
   datalistId,
 }: {
   kit: FieldKit
   state: EditorState
   input: string
-  description: string
   required: boolean
   datalistId: string
 }) {
@@ -73,18 +71,18 @@ export function HeaterListInput({
       id={fieldId(`physics.inputs.${input}`)}
       tabIndex={-1}
       aria-labelledby={headingId}
+      aria-describedby={`${headingId}-hint`}
       className="mt-4 md:col-span-2"
     >
       <legend id={headingId} className="text-sm font-medium">
         <code>{input}</code>{' '}
         <span className="font-normal text-muted">({required ? 'required' : 'optional'}): feedwater heaters</span>
       </legend>
-      <p className="text-xs text-muted">
+      <p id={`${headingId}-hint`} className="text-xs text-muted">
         List the heaters from the highest pressure (nearest the boiler) to the lowest. A closed heater’s terminal
         temperature difference (TTD) is T_sat at its pressure minus the feedwater exit temperature, such as “3 K”
         (default 0 K); an open heater takes neither TTD nor drains. Pressure and TTD may be a given’s name.
       </p>
-      <p className="sr-only">{description}</p>
       {errorText(`physics.inputs.${input}`)}
       <div className="mt-2 overflow-x-auto">
         <table className="w-full min-w-[44rem] text-left text-sm">

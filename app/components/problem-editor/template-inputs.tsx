@@ -49,7 +49,6 @@ export function TemplateInputs({
                 kit={kit}
                 state={state}
                 input={input.name}
-                description={input.description}
                 required={input.required}
                 datalistId={datalistId}
               />

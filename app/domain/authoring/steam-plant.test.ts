@@ -246,6 +246,55 @@ describe('the worked solution of a plant with every kind of heater, reheat and p
   })
 })
 
+describe('closed heaters cascading their drains backward into each other', () => {
+  const def = plant(
+    [
+      { kind: 'closed', pressure: '3 MPa', name: 'HP' },
+      { kind: 'closed', pressure: '1 MPa', ttd: '4 K', name: 'IP' },
+      { kind: 'closed', pressure: '200 kPa', name: 'LP' },
+    ],
+    { processPressure: '1 MPa' },
+  )
+  const v = draw(def)
+  const sol = v.solution as FormattedRankine
+  const layout = plantLayout(sol)!
+  const text = workedSolution(v, def)
+    .sections.flatMap((s) => s.lines.map((l) => `${l.tex} ${l.note ?? ''}`))
+    .join('\n')
+
+  test('each heater below takes the drains of the one above, and its balance counts them', () => {
+    const [hp, ip, lp] = layout.heaters as [
+      (typeof layout.heaters)[0],
+      (typeof layout.heaters)[0],
+      (typeof layout.heaters)[0],
+    ]
+    expect(ip.drainsFrom).toBe(hp.drain)
+    expect(lp.drainsFrom).toBe(ip.drain)
+    for (const h of [ip, lp]) {
+      const y = h.heater.bleedFraction.value
+      const D = h.heater.drainsIn.value
+      // y (hb − hd) + D (hD − hd) = F (hout − hin): the drains arriving flash to the shell's saturated liquid
+      expect(y * (h.bleed.h.value - h.drain!.h.value) + D * (h.drainsFrom!.h.value - h.drain!.h.value)).toBeCloseTo(
+        h.heater.feedwaterFlow.value * (h.exit.h.value - h.feedIn.h.value),
+        6,
+      )
+      expect(h.drain!.massFraction).toBeCloseTo(y + D, 12)
+    }
+    expect(text).toContain('D_{2}(h_{')
+    expect(text).toContain('D_{3}(h_{')
+    expect(text).toContain(`y_{3} = \\frac{`)
+    expect(text).toContain('trap to the condenser')
+    // the condenser takes the turbine exhaust and the LP heater's drains
+    const drains = layout.condenserExit.massFraction - layout.turbineExit.massFraction
+    expect(drains).toBeCloseTo(lp.drain!.massFraction, 12)
+    const qOut =
+      layout.turbineExit.massFraction * (layout.turbineExit.h.value - layout.condenserExit.h.value) +
+      drains * (lp.drain!.h.value - layout.condenserExit.h.value)
+    expect(qOut).toBeCloseTo(sol.totals.heatOut.value, 6)
+    expect(text).toContain(`= ${n4(sol.totals.heatOut.value / 1000)}\\,\\mathrm{kJ}`)
+  })
+})
+
 describe('names and senses of the new outputs', () => {
   test('quantity names', () => {
     const ctx = { convention: 'engineering' as const, steam: true }
