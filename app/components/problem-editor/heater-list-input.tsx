@@ -60,7 +60,7 @@ export function HeaterListInput({
               {c.label}
             </option>
           ))}
-          {current !== '' && !known ? <option value={current}>{current} (a given)</option> : null}
+          {current !== '' && !known ? <option value={current}>{current} (as typed)</option> : null}
         </select>
         {errorText(path)}
       </td>
