@@ -247,13 +247,13 @@ describe('a cogeneration plant (rankine-cogeneration)', () => {
     for (const ref of cogenRefs) {
       const v = draw(def, ref.seed)
       const t = texts(v, def)
-      expect(t).toContain(`Q_{\\text{process}} = (${n4(given(v, 'f'))})`)
+      expect(t).toContain(`Q_{\\mathrm{process}} = (${n4(given(v, 'f'))})`)
       expect(t).toContain(`= ${n4(key(v, 'Qp'))}\\,\\mathrm{kJ}`)
       expect(t).toContain(`\\varepsilon_u = \\frac{`)
       expect(t).toContain(`= ${n4(key(v, 'epsU'))}`)
       expect(t).toContain('boiler inlet: the feedwater from the heaters mixes with the pumped process condensate')
       // η from the heats counts the process heat as leaving
-      expect(t).toContain(`Q_{\\mathrm{out}} + Q_{\\text{process}}`)
+      expect(t).toContain(`Q_{\\mathrm{out}} + Q_{\\mathrm{process}}`)
     }
   })
 

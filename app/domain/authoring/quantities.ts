@@ -145,7 +145,7 @@ function totalsQuantity(field: string, convention: Convention): Quantity | null 
     case 'processFraction':
       return { tex: sub('y', txt('process')), name: 'fraction of the boiler flow extracted to the process heater' }
     case 'processHeat':
-      return { tex: sub('Q', txt('process')), name: 'heat delivered to the process per kg through the boiler' }
+      return { tex: sub(Q, txt('process')), name: 'heat delivered to the process per kg through the boiler' }
     case 'utilisationFactor':
       return { tex: sub('\\varepsilon', 'u'), name: 'utilisation factor (net work and process heat over heat in)' }
     // The throttling calorimeter (steam/calorimeter.ts).

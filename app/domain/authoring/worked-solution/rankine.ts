@@ -255,7 +255,7 @@ export function rankineSections(sol: FormattedRankine, variant: Variant, sym: Sy
     },
     t.processHeat
       ? {
-          tex: `\\eta = 1 - \\frac{${sym.Q('\\mathrm{out}')} + Q_{\\text{process}}}{${sym.Q('\\mathrm{in}')}} = 1 - \\frac{${n4(t.heatOut.value / 1000)} + ${n4(t.processHeat.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(1 - (t.heatOut.value + t.processHeat.value) / t.heatIn.value)}`,
+          tex: `\\eta = 1 - \\frac{${sym.Q('\\mathrm{out}')} + ${sym.Q('\\mathrm{process}')}}{${sym.Q('\\mathrm{in}')}} = 1 - \\frac{${n4(t.heatOut.value / 1000)} + ${n4(t.processHeat.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(1 - (t.heatOut.value + t.processHeat.value) / t.heatIn.value)}`,
           note: 'the same from the heats: over a cycle the net work is the net heat, and the process heat leaves the water too',
         }
       : {
@@ -289,11 +289,11 @@ export function rankineSections(sol: FormattedRankine, variant: Variant, sym: Sy
     totals.push({ tex: `y = ${n4(t.bleedFraction.value)}`, note: 'fraction of the steam bled to the feedwater heater' })
   if (t.processHeat && t.utilisationFactor) {
     totals.push({
-      tex: `Q_{\\text{process}} = ${E(t.processHeat.value)}`,
+      tex: `${sym.Q('\\mathrm{process}')} = ${E(t.processHeat.value)}`,
       note: `process heat delivered per kg through the boiler${t.processFraction ? ` (${formatNumber(t.processFraction.value, { sigFigs: WORKED_SIG_FIGS }, false)} of the steam to the process)` : ''}`,
     })
     totals.push({
-      tex: `\\varepsilon_u = \\frac{${sym.W('\\mathrm{net,out}')} + Q_{\\text{process}}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(t.netWork.value / 1000)} + ${n4(t.processHeat.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(t.utilisationFactor.value)}`,
+      tex: `\\varepsilon_u = \\frac{${sym.W('\\mathrm{net,out}')} + ${sym.Q('\\mathrm{process}')}}{${sym.Q('\\mathrm{in}')}} = \\frac{${n4(t.netWork.value / 1000)} + ${n4(t.processHeat.value / 1000)}}{${n4(t.heatIn.value / 1000)}} = ${n4(t.utilisationFactor.value)}`,
       note: 'utilisation factor: the share of the heat taken in that ends as work or process heat',
     })
   }

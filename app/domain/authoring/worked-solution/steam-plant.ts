@@ -115,7 +115,7 @@ function heaterLines(hl: PlantHeaterLayout, lowerName: string | null, lines: Wor
     }
   }
   lines.push({
-    tex: `Q_{\\text{FWH}${i}} = \\dot m_{\\text{tube}}(${h(hl.exit)} - ${h(fin)}) = ${m(Ft)}(${hv(hl.exit)} - ${hv(fin)}) = ${E(ht.heatTransferred.value)}`,
+    tex: `Q_{\\mathrm{FWH${i}}} = \\dot m_{\\text{tube}}(${h(hl.exit)} - ${h(fin)}) = ${m(Ft)}(${hv(hl.exit)} - ${hv(fin)}) = ${E(ht.heatTransferred.value)}`,
     note: `heat the feedwater takes up in ${ht.name} (per kg through the boiler); the bleed fraction ${yS} is ${words(y)}`,
   })
 }
@@ -230,7 +230,7 @@ export function plantDeviceLines(sol: FormattedRankine, sym: Symbols, eff: Plant
     const yP = process.liquid.massFraction
     const qP = yP * (process.extraction.h.value - process.liquid.h.value)
     lines.push({
-      tex: `Q_{\\text{process}} = ${m(yP)}(${h(process.extraction)} - ${h(process.liquid)}) = ${m(yP)}(${hv(process.extraction)} - ${hv(process.liquid)}) = ${E(qP)}`,
+      tex: `${sym.Q('\\mathrm{process}')} = ${m(yP)}(${h(process.extraction)} - ${h(process.liquid)}) = ${m(yP)}(${hv(process.extraction)} - ${hv(process.liquid)}) = ${E(qP)}`,
       note: `process heater: ${words(yP)} of the boiler flow, extracted at ${pressureText(process.extraction.p.value)}, gives up its heat and returns as saturated liquid`,
     })
   }
