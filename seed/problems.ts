@@ -672,6 +672,55 @@ const steamCalorimeter: ProblemDefinition = {
   ],
 }
 
+const combinedCycle: ProblemDefinition = {
+  format: 2,
+  title: 'Combined gas–steam plant with a heat-recovery steam generator',
+  tags: { topics: ['combined cycle', 'brayton', 'rankine', 'hrsg'], difficulty: 'challenging', level: 'upper-level' },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'Air enters the compressor of a gas turbine at 100 kPa and 300 K and is compressed with a pressure ratio of [rp] (isentropic efficiency 82 %). It is heated to [TIT] and expands in the turbine (isentropic efficiency 86 %). The exhaust raises steam at 4 MPa and [Ts] in a heat-recovery steam generator and leaves at [T5]. The steam expands in an ideal turbine to 10 kPa and is condensed and pumped back.',
+    '',
+    'Per kilogram of air, find:',
+    '',
+    '1. the steam raised,',
+    '2. the net work delivered by the plant,',
+    '3. the thermal efficiency of the combined cycle.',
+  ].join('\n'),
+  givens: [
+    choice('rp', 'pressure ratio', '', [8, 10, 12]),
+    range('TIT', 'turbine inlet temperature', 'K', 1300, 1450, 50),
+    choice('Ts', 'steam temperature', '°C', [400, 425]),
+    choice('T5', 'stack temperature', 'K', [440, 460]),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'template',
+    template: 'combined-cycle',
+    inputs: {
+      p1: '100 kPa',
+      T1: '300 K',
+      pressureRatio: 'rp',
+      turbineInletT: 'TIT',
+      compressorEfficiency: '0.82',
+      gasTurbineEfficiency: '0.86',
+      boilerPressure: '4 MPa',
+      condenserPressure: '10 kPa',
+      steamTemperature: 'Ts',
+      stackTemperature: 'T5',
+    },
+  },
+  finds: [
+    output('y', 'Steam raised per kg of air', 'totals.steamPerGas', '', 2),
+    output('wNet', 'Net work delivered per kg of air', 'totals.netWork', 'kJ/kg', 3, {
+      sense: 'work-by-system',
+      pitfalls: ['kilo-factor'],
+    }),
+    output('eta', 'Thermal efficiency of the combined cycle', 'totals.efficiency', '', 2),
+  ],
+}
+
 const rankineReheat: ProblemDefinition = {
   format: 2,
   title: 'Reheat Rankine cycle',
@@ -1478,6 +1527,7 @@ export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'tobias', visibility: 'private', definition: rankineRegenerative },
   { owner: 'tobias', visibility: 'department', definition: steamCarnot },
   { owner: 'amara', visibility: 'department', definition: steamCalorimeter },
+  { owner: 'tobias', visibility: 'department', definition: combinedCycle },
   { owner: 'tobias', visibility: 'department', definition: vapourCompression },
   { owner: 'amara', visibility: 'department', definition: threeStep },
   { owner: 'amara', visibility: 'department', definition: nozzle },

@@ -69,6 +69,7 @@ export const TEMPLATE_IDS = [
   'nozzle',
   'diffuser',
   'turbojet',
+  'combined-cycle',
 ] as const
 
 /** Every PitfallId (app/domain/grading/pitfalls.ts), in the order the grader tries them. */

@@ -1,8 +1,8 @@
-// Bank problems on the vapour Carnot cycle and the throttling calorimeter, end to end through the
+// Bank problems on the vapour Carnot cycle, the throttling calorimeter and the combined cycle, end to end through the
 // server functions: saved, listed under their cycles, read back, previewed (key, worked solution,
 // T–s diagram with the dome) and drawn per student. Demo data: invented temperatures and pressures.
 import { describe, expect, test } from 'vitest'
-import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import type { Find, ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { drawVariant } from '#app/domain/authoring/variant.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { previewProblem } from '#app/server/preview.server.ts'
@@ -136,9 +136,55 @@ describe('bank problems on water: the vapour Carnot cycle and the throttling cal
     }
   })
 
-  test('the combined cycle is still refused when saved, with the reason by field', async () => {
+  test('a combined-cycle problem is saved, listed, previewed with the gas turbine and the steam cycle drawn, and drawn per student', async () => {
     const { viewer } = await createBankUser(db())
-    const other = steamCarnot({ physics: { kind: 'template', template: 'combined-cycle', inputs: {} } })
+    const [work, eta] = steamCarnot().finds as [Find, Find]
+    const combined = steamCarnot({
+      title: `Combined plant ${tag}`,
+      prompt: 'A gas turbine with pressure ratio [rp] raises steam in a heat-recovery steam generator.',
+      givens: [{ name: 'rp', label: 'pressure ratio', unit: '', rule: { kind: 'choice', values: [8, 10] } }],
+      physics: {
+        kind: 'template',
+        template: 'combined-cycle',
+        inputs: {
+          p1: '100 kPa',
+          T1: '300 K',
+          pressureRatio: 'rp',
+          turbineInletT: '1300 K',
+          compressorEfficiency: '0.8',
+          gasTurbineEfficiency: '0.85',
+          boilerPressure: '7 MPa',
+          condenserPressure: '5 kPa',
+          steamTemperature: '500 °C',
+          stackTemperature: '450 K',
+        },
+      },
+      // The plant's net work is a size (work delivered), so a sign slip cannot be recognised on it.
+      finds: [{ ...work, pitfalls: [] }, eta],
+    })
+    const { problemId } = await createProblem(db(), viewer, { definition: combined, visibility: 'private' })
+    const list = await listBankProblems(db(), viewer, BankQuerySchema.parse({ q: tag, cycle: 'combined-cycle' }))
+    expect(list.rows.map((r) => r.title)).toEqual([combined.title])
+    const stored = (await getProblemDetail(db(), viewer, problemId))!.latest.definition
+    if (!stored) throw new Error('the stored version does not read')
+    for (const convention of ['engineering', 'chemistry'] as const) {
+      const drawn = drawVariant(stored, 3, { convention })
+      if (!drawn.ok) throw new Error(drawn.error.message)
+      expect(drawn.variant.key[0]!.value).toBeGreaterThan(0) // work delivered, in both conventions
+    }
+    const preview = previewProblem(combined, { convention: 'engineering' })
+    expect(preview.issues).toEqual([])
+    for (const v of preview.variants) {
+      if (!v.ok) throw new Error(v.error.message)
+      expect(v.workedHtml).toContain('Heat-recovery steam generator')
+      expect(v.diagrams.ts.points).toHaveLength(5)
+      expect(v.diagrams.second?.ts.dome?.fluid).toBe('water')
+    }
+  })
+
+  test('an unknown template is refused when saved, with the reason by field', async () => {
+    const { viewer } = await createBankUser(db())
+    const other = steamCarnot({ physics: { kind: 'template', template: 'no-such-cycle', inputs: {} } })
     await expect(createProblem(db(), viewer, { definition: other, visibility: 'private' })).rejects.toBeInstanceOf(
       InvalidDefinitionError,
     )

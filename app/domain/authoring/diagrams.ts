@@ -19,6 +19,7 @@
  * non-finite value is left out.
  */
 import type { FormattedSolution } from '#app/domain/thermo/format.ts'
+import type { FormattedCombined } from '#app/domain/thermo/combined/combined-template.ts'
 import {
   saturationAtP,
   saturationAtT,
@@ -39,6 +40,7 @@ import { LIN, N, axes, cleanCurve, finite, pin, positive, same, straight, type P
 import { cascadeDiagrams, refrigerationDiagrams, twoStageDiagrams } from './refrigeration-diagrams.ts'
 import {
   isCalorimeterSolution,
+  isCombinedSolution,
   isIdealGasSolution,
   isRefrigerationSolution,
   isTwoStageSolution,
@@ -555,6 +557,80 @@ function calorimeterDiagrams(sol: FormattedCalorimeter): CycleDiagrams {
   return steamStateDiagrams(valid, joins, 'throttling calorimeter')
 }
 
+/**
+ * The combined cycle: the gas turbine's states 1–5 (compressor, combustor, turbine, the HRSG's
+ * gas side, and the stack gas cooling in the surroundings back to state 1, dashed: the open cycle
+ * drawn closed at p₁), with the steam bottoming cycle beside it on the water dome. Isobars are
+ * T = T₁ exp((s − s₁)/c) through both ends in T–s; a compressor or turbine with s conserved is a
+ * power law in P–v, one whose s changes a dashed straight line.
+ */
+function combinedDiagrams(sol: FormattedCombined): CycleDiagrams {
+  const pts = sol.gasStates
+    .map((g) => ({ label: g.name, p: g.p.value, T: g.T.value, s: g.s.value, v: g.v.value }))
+    .filter((g) => positive(g.p, g.T, g.v) && finite(g.s))
+  const byName = new Map(pts.map((g) => [g.label, g]))
+  const joins: [string, string, string][] = [
+    ['1', '2', 'compressor'],
+    ['2', '3', 'combustor (isobaric heating)'],
+    ['3', '4', 'gas turbine'],
+    ['4', '5', 'heat-recovery steam generator, gas side (isobaric cooling)'],
+    ['5', '1', 'stack gas cooling in the surroundings (the open cycle drawn closed)'],
+  ]
+  const pvCurves: Curve[] = []
+  const tsCurves: Curve[] = []
+  for (const [from, to, device] of joins) {
+    const a = byName.get(from)
+    const b = byName.get(to)
+    if (!a || !b) continue
+    const pa: Pair = [a.v, a.p / 1000]
+    const pb: Pair = [b.v, b.p / 1000]
+    const ta: Pair = [a.s / 1000, a.T]
+    const tb: Pair = [b.s / 1000, b.T]
+    const isobaric = same(a.p, b.p)
+    const isentropic = !isobaric && Math.abs(b.s - a.s) <= 1e-7 * Math.max(Math.abs(a.s), 1)
+    const dashed = from === '5' || (!isobaric && !isentropic)
+    const rotating = device === 'compressor' || device === 'gas turbine'
+    const what = device === 'compressor' ? 'compression' : 'expansion'
+    const process = rotating ? `${device} (${isentropic ? 'isentropic' : 'irreversible'} ${what})` : device
+    const style = dashed ? ('dashed' as const) : ('solid' as const)
+    pvCurves.push(
+      cleanCurve({
+        from,
+        to,
+        process,
+        style,
+        points: isobaric ? straight(pa, pb, LIN) : isentropic ? powerLaw(pa, pb) : straight(pa, pb, LIN),
+      }),
+    )
+    tsCurves.push(cleanCurve({ from, to, process, style, points: isobaric ? expFit(ta, tb) : straight(ta, tb, LIN) }))
+  }
+  const pvPoints = pts.map((g) => ({ label: g.label, x: g.v, y: g.p / 1000 }))
+  const tsPoints = pts.map((g) => ({ label: g.label, x: g.s / 1000, y: g.T }))
+  const pvR = axes(pvCurves, pvPoints, [], 'linear', true, true)
+  const tsR = axes(tsCurves, tsPoints, [], 'linear', false, true)
+  const steam = rankineDiagrams(sol.bottoming)
+  return {
+    pv: {
+      title: 'P–v diagram — gas-turbine topping cycle (per kg of gas)',
+      x: { label: 'specific volume v', unit: 'm³/kg', scale: 'linear', min: pvR.x[0], max: pvR.x[1] },
+      y: { label: 'pressure p', unit: 'kPa', scale: 'linear', min: pvR.y[0], max: pvR.y[1] },
+      curves: pvCurves,
+      points: pvPoints,
+    },
+    ts: {
+      title: 'T–s diagram — gas-turbine topping cycle (per kg of gas)',
+      x: { label: 'specific entropy s', unit: 'kJ/(kg·K)', scale: 'linear', min: tsR.x[0], max: tsR.x[1] },
+      y: { label: 'temperature T', unit: 'K', scale: 'linear', min: tsR.y[0], max: tsR.y[1] },
+      curves: tsCurves,
+      points: tsPoints,
+    },
+    second: {
+      pv: { ...steam.pv, title: steam.pv.title.replace('P–v diagram —', 'P–v diagram — steam bottoming cycle,') },
+      ts: { ...steam.ts, title: steam.ts.title.replace('T–s diagram —', 'T–s diagram — steam bottoming cycle,') },
+    },
+  }
+}
+
 function emptyDiagrams(): CycleDiagrams {
   const ax = (label: string, unit: string): Axis => ({ label, unit, scale: 'linear', min: 0, max: 1 })
   return {
@@ -581,7 +657,9 @@ function emptyDiagrams(): CycleDiagrams {
  */
 export function cycleDiagrams(solution: BankSolution): CycleDiagrams {
   try {
-    if (!solution || typeof solution !== 'object' || !Array.isArray(solution.states)) return emptyDiagrams()
+    if (!solution || typeof solution !== 'object') return emptyDiagrams()
+    if (isCombinedSolution(solution)) return combinedDiagrams(solution)
+    if (!('states' in solution) || !Array.isArray(solution.states)) return emptyDiagrams()
     if (isIdealGasSolution(solution) && Array.isArray(solution.steps)) return gasDiagrams(solution)
     if (isRefrigerationSolution(solution)) return refrigerationDiagrams(solution) ?? emptyDiagrams()
     if (isTwoStageSolution(solution)) return twoStageDiagrams(solution) ?? emptyDiagrams()

@@ -294,6 +294,54 @@ export interface PathContext {
   readonly deviceNames?: readonly string[]
   /** A steady-flow template (thermo/flow): its totals and states are read by flowQuantity. */
   readonly flow?: 'nozzle' | 'diffuser' | 'turbojet'
+  /** The combined gas–steam cycle: totals per kg of gas, gasStates, and the bottoming cycle's paths. */
+  readonly combined?: boolean
+}
+
+// ---- The combined gas–steam cycle ---------------------------------------------------
+
+/** Totals of the combined cycle, per kg of gas (sizes, whatever the convention). */
+function combinedTotal(field: string, convention: Convention): Quantity | null {
+  const { Q, W } = heatWork(convention)
+  const table: Readonly<Record<string, Quantity>> = {
+    steamPerGas: { tex: 'y', name: 'steam raised per kg of gas' },
+    compressorWork: { tex: sub(W, txt('c,in')), name: 'compressor work input per kg of gas' },
+    gasTurbineWork: { tex: sub(W, txt('gt,out')), name: 'gas-turbine work output per kg of gas' },
+    heatIn: { tex: sub(Q, txt('in')), name: 'heat added in the combustor per kg of gas' },
+    gasNetWork: { tex: sub(W, txt('gas,net')), name: 'net work of the gas turbine per kg of gas' },
+    steamNetWork: { tex: sub(W, txt('steam,net')), name: 'net work of the steam cycle per kg of gas' },
+    netWork: { tex: sub(W, txt('net,out')), name: 'net work of the plant per kg of gas' },
+    netWorkSigned: { tex: sub(W, txt('net')), name: 'net work per kg of gas, in the course convention' },
+    hrsgHeat: { tex: sub(Q, txt('HRSG')), name: 'heat the exhaust gives the steam, per kg of gas' },
+    stackLoss: { tex: sub(Q, txt('stack')), name: 'heat lost with the stack gas, per kg of gas' },
+    condenserHeat: { tex: sub(Q, txt('cond')), name: 'heat rejected in the condenser, per kg of gas' },
+    efficiency: { tex: '\\eta', name: 'thermal efficiency of the combined cycle' },
+    gasEfficiency: { tex: sub('\\eta', txt('gas')), name: 'thermal efficiency of the gas turbine alone' },
+    steamEfficiency: { tex: sub('\\eta', txt('steam')), name: 'thermal efficiency of the steam cycle alone' },
+    stackTemperature: { tex: 'T_5', name: 'stack temperature' },
+    pinchDifference: { tex: sub('\\Delta T', txt('pinch')), name: 'pinch-point temperature difference' },
+    hotEndDifference: { tex: sub('\\Delta T', txt('hot end')), name: 'temperature difference at the HRSG hot end' },
+    coldEndDifference: { tex: sub('\\Delta T', txt('cold end')), name: 'temperature difference at the HRSG cold end' },
+    power: { tex: sub('\\dot W', txt('net')), name: 'net power of the plant' },
+  }
+  return Object.hasOwn(table, field) ? table[field]! : null
+}
+
+function combinedQuantity(parts: readonly string[], ctx: PathContext): Quantity | null {
+  if (parts[0] === 'totals' && parts.length === 2) return combinedTotal(parts[1]!, ctx.convention)
+  if (parts[0] === 'gasStates' && parts.length === 3) {
+    const k = Number(parts[1])
+    const prop = STATE_PROPERTY[parts[2]!]
+    if (!Number.isInteger(k) || k < 1 || k > 5 || !prop) return null
+    return { tex: sub(prop.tex, String(k)), name: `${prop.name} of the gas at state ${k}` }
+  }
+  if (parts[0] === 'bottoming' && (parts[1] === 'states' || parts[1] === 'totals')) {
+    const q = quantityAtPath(parts.slice(1).join('.'), { convention: ctx.convention, steam: true })
+    if (!q) return null
+    const tex = parts[1] === 'states' ? q.tex.replace(/_\{([^}]*)\}$/, '_{$1,\\text{steam}}') : q.tex
+    return { tex, name: `${q.name.replace(/ per kg through the boiler$/, '')} (steam cycle, per kg of steam)` }
+  }
+  return null
 }
 
 // ---- Steady flow (nozzle, diffuser, turbojet) ----------------------------------------
@@ -469,6 +517,10 @@ function steamPlantQuantity(parts: readonly string[]): Quantity | null | undefin
 export function quantityAtPath(path: string, ctx: PathContext): Quantity | null {
   if (ctx.flow) return flowQuantity(path, { ...ctx, flow: ctx.flow })
   const parts = path.split('.')
+  if (ctx.combined) {
+    const q = combinedQuantity(parts, ctx)
+    if (q !== null || parts[0] !== 'devices') return q
+  }
   const plant = steamPlantQuantity(parts)
   if (plant !== undefined) return plant
   if (parts[0] === 'totals' && parts[1] === 'rate') return (parts.length === 3 && RATE_QUANTITY[parts[2]!]) || null

@@ -12,6 +12,7 @@ import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template
 import type { FormattedFlow } from '#app/domain/thermo/flow/flow-template.ts'
 import type { FormattedCalorimeter } from '#app/domain/thermo/steam/calorimeter.ts'
 import type { FormattedSteamCycle } from '#app/domain/thermo/steam/steam-cycle.ts'
+import type { FormattedCombined } from '#app/domain/thermo/combined/combined-template.ts'
 
 export type { BankSolution } from '#app/domain/thermo/solve-spec.ts'
 
@@ -24,6 +25,7 @@ export type SolutionKind =
   | 'steam-cycle'
   | 'calorimeter'
   | 'steady-flow'
+  | 'combined'
 
 /** A nozzle, diffuser or turbojet (thermo/flow/flow-template.ts): states and devices with velocities. */
 export function isSteadyFlowSolution(sol: BankSolution): sol is FormattedFlow {
@@ -47,6 +49,11 @@ export function isCascadeSolution(sol: BankSolution): sol is FormattedCascade {
   return 'template' in sol && sol.template === 'vapour-compression-cascade' && 'totals' in sol
 }
 
+/** The combined gas–steam cycle (combined/combined-template.ts): gas states 1–5 and a Rankine bottoming cycle. */
+export function isCombinedSolution(sol: BankSolution): sol is FormattedCombined {
+  return 'gasStates' in sol && 'bottoming' in sol
+}
+
 /** The throttling calorimeter (steam/calorimeter.ts): two states either side of a valve. */
 export function isCalorimeterSolution(sol: BankSolution): sol is FormattedCalorimeter {
   return 'template' in sol && sol.template === 'steam-throttling-calorimeter'
@@ -64,6 +71,7 @@ export function isRankineSolution(sol: BankSolution): sol is FormattedRankine {
     !isCascadeSolution(sol) &&
     !isCalorimeterSolution(sol) &&
     !isSteadyFlowSolution(sol) &&
+    !isCombinedSolution(sol) &&
     'devices' in sol
   )
 }
@@ -77,6 +85,7 @@ export function solutionKind(sol: BankSolution): SolutionKind {
   if (isTwoStageSolution(sol)) return 'two-stage-refrigeration'
   if (isCascadeSolution(sol)) return 'cascade-refrigeration'
   if (isSteadyFlowSolution(sol)) return 'steady-flow'
+  if (isCombinedSolution(sol)) return 'combined'
   if (isCalorimeterSolution(sol)) return 'calorimeter'
   if (isSteamCycleSolution(sol)) return 'steam-cycle'
   if (isRankineSolution(sol)) return 'rankine'

@@ -13,11 +13,21 @@ import type { FormattedCalorimeter } from '#app/domain/thermo/steam/calorimeter.
 import type { FormattedSteamCycle } from '#app/domain/thermo/steam/steam-cycle.ts'
 import type { DrawResult, DrawnGiven, ProblemDefinition, SweepFailure, SweepSummary } from './definition.ts'
 import { drawGivens, formatNumber } from './givens.ts'
-import { solutionKind } from './solution-kind.ts'
+import {
+  isCalorimeterSolution,
+  isCascadeSolution,
+  isCombinedSolution,
+  isIdealGasSolution,
+  isRankineSolution,
+  isRefrigerationSolution,
+  isSteadyFlowSolution,
+  isSteamCycleSolution,
+  isTwoStageSolution,
+  type BankSolution,
+} from './solution-kind.ts'
+import type { FormattedCombined } from '#app/domain/thermo/combined/combined-template.ts'
 import { cascadeProblems, twoStageProblems } from './multi-stage-sweep.ts'
-import type { FormattedCascade, FormattedTwoStage } from '#app/domain/thermo/refrigerants/multi-stage-template.ts'
 import { steadyFlowProblems } from './flow-sweep.ts'
-import type { FormattedFlow } from '#app/domain/thermo/flow/flow-template.ts'
 import { drawVariant } from './variant.ts'
 
 /** Failures kept by default; the rest are counted. */
@@ -225,28 +235,55 @@ function calorimeterProblems(sol: FormattedCalorimeter): Problem[] {
   return out
 }
 
+/** The combined cycle: the gas side's states, the steam cycle's own checks, the plant's first law, η ≤ Carnot. */
+function combinedProblems(sol: FormattedCombined): Problem[] {
+  const out = [
+    ...stateProblems(sol.gasStates),
+    ...rankineProblems(sol.bottoming).map((p) => ({ ...p, message: `Steam cycle: ${p.message}` })),
+  ]
+  const t = sol.totals
+  const temps = sol.gasStates.map((s) => s.T.value)
+  const bound = 1 - Math.min(...temps) / Math.max(...temps)
+  const eta = t.efficiency.value
+  if (!Number.isFinite(eta) || eta < -SLACK || eta > bound + SLACK)
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The plant efficiency ${fmt(eta)} is outside 0 to the Carnot bound ${fmt(bound)}.`,
+    })
+  const balance = t.netWork.value + t.stackLoss.value + t.condenserHeat.value
+  if (!(Math.abs(balance - t.heatIn.value) <= 1e-6 * Math.max(1, Math.abs(t.heatIn.value))))
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The energy balance does not close: ${fmt(t.heatIn.value / 1000)} kJ/kg in against ${fmt(balance / 1000)} kJ/kg out.`,
+    })
+  if (!(t.steamPerGas.value > 0))
+    out.push({
+      code: 'efficiency-out-of-range',
+      message: `The steam raised per kg of gas ${fmt(t.steamPerGas.value)} is not positive.`,
+    })
+  return out
+}
+
+/** The checks of a solution's own shape, asked through the shape guards in one order. */
+function problemsOf(sol: BankSolution, spec: Readonly<Record<string, unknown>>): Problem[] {
+  if (isTwoStageSolution(sol)) return twoStageProblems(sol)
+  if (isCascadeSolution(sol)) return cascadeProblems(sol)
+  if (isSteadyFlowSolution(sol)) return steadyFlowProblems(sol)
+  if (isCombinedSolution(sol)) return combinedProblems(sol)
+  if (isSteamCycleSolution(sol)) return steamCycleProblems(sol)
+  if (isCalorimeterSolution(sol)) return calorimeterProblems(sol)
+  if (isRefrigerationSolution(sol)) return refrigerationProblems(sol, spec)
+  if (isRankineSolution(sol)) return rankineProblems(sol)
+  if (isIdealGasSolution(sol)) return idealGasProblems(sol)
+  return []
+}
+
 /** What is physically wrong with one drawn variant (an empty list when nothing is). */
 export function checkVariantSanity(result: DrawResult): SweepFailure[] {
   if (!result.ok) return [{ seed: result.seed, code: result.error.code, message: result.error.message }]
   const v = result.variant
   const sol = v.solution
-  const kind = solutionKind(sol)
-  const problems =
-    kind === 'two-stage-refrigeration'
-      ? twoStageProblems(sol as FormattedTwoStage)
-      : kind === 'cascade-refrigeration'
-        ? cascadeProblems(sol as FormattedCascade)
-        : kind === 'steady-flow'
-          ? steadyFlowProblems(sol as FormattedFlow)
-          : kind === 'steam-cycle'
-            ? steamCycleProblems(sol as FormattedSteamCycle)
-            : kind === 'calorimeter'
-              ? calorimeterProblems(sol as FormattedCalorimeter)
-              : kind === 'refrigeration'
-                ? refrigerationProblems(sol as FormattedRefrigeration, v.spec)
-                : kind === 'rankine'
-                  ? rankineProblems(sol as FormattedRankine)
-                  : idealGasProblems(sol as FormattedSolution)
+  const problems = problemsOf(sol, v.spec)
   for (const k of v.key) {
     if (!Number.isFinite(k.value))
       problems.push({ code: 'find-undefined', message: `Find "${k.name}": the key is not a finite number.` })

@@ -56,6 +56,8 @@ export const TEMPLATES_WITHOUT_SLIPS: ReadonlySet<string> = new Set([
   'nozzle',
   'diffuser',
   'turbojet',
+  // The combined cycle's gas turbine and steam cycle are solved by their own readers (./combined).
+  'combined-cycle',
 ])
 
 /** As app/domain/thermo/spec.ts's specMentions reads a spec. */

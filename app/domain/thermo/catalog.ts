@@ -68,16 +68,16 @@ function entries(family: TemplateFamily, list: readonly Described[], bank: boole
   }))
 }
 
+// Every template is in the bank now; water in the general cycle format written out in full
+// ({ steamCycle }, not a template) is the one solution bank problems cannot have yet.
 export const TEMPLATE_CATALOG: readonly CatalogEntry[] = [
   ...entries('ideal-gas', Object.values(templates), true),
   ...entries('steam', RANKINE_TEMPLATES, true),
-  // A heater list, water in the general cycle format written out in full and the combined cycle
-  // have results or inputs the editor and the authoring layer do not handle yet.
   // Steam plants with a heater list and cogeneration: the definition takes the heater list
   // (definition.ts HeaterInput) and worked-solution/steam-plant.ts explains every heater.
   ...entries('steam', STEAM_PLANT_TEMPLATES, true),
   ...entries('steam', [CALORIMETER_TEMPLATE, STEAM_CARNOT_TEMPLATE], true),
-  ...entries('combined', COMBINED_TEMPLATES, false),
+  ...entries('combined', COMBINED_TEMPLATES, true),
   // The single-stage, two-stage (flash chamber) and cascade cycles: keyed, explained and drawn by
   // the authoring layer (solution-kind.ts, worked-solution/multi-stage-refrigeration.ts,
   // refrigeration-diagrams.ts).

@@ -23,8 +23,21 @@ test.each([
 test.each([
   ['the throttling calorimeter', calorimeter],
   ['the vapour Carnot cycle', vapourCarnot],
-])('%s is refused for bank problems with a plain reason', (_name, spec) => {
-  const r = solveBankSpec(spec)
+])('%s solves for bank problems too', (_name, spec) => {
+  expect(solveBankSpec(spec).ok).toBe(true)
+})
+
+test('water written out in full in the general cycle format is refused for bank problems with a plain reason', () => {
+  const r = solveBankSpec({
+    steamCycle: {
+      system: 'flow',
+      states: [
+        { name: '1', p: '1 MPa', x: 0 },
+        { name: '2', x: 1 },
+      ],
+      steps: [{ process: 'isobaric' }],
+    },
+  })
   expect(r.ok).toBe(false)
   if (!r.ok) {
     expect(r.error.code).toBe(NOT_IN_BANK)

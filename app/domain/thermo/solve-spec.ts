@@ -164,6 +164,7 @@ export type BankSolution =
   | FormattedCalorimeter
   | FormattedSteamCycle
   | FormattedFlow
+  | FormattedCombined
 
 /**
  * solveSpec for bank problems (drawing variants, lint, pitfalls): the templates whose results
@@ -172,8 +173,7 @@ export type BankSolution =
  * plain message until the problem editor supports it; so is water in the general cycle format.
  * Never throws.
  */
-function isBankSolution(r: AnySolution): r is BankSolution {
-  if ('gasStates' in r) return false // combined cycle
+function isBankSolution(r: AnySolution): boolean {
   if ('template' in r && typeof r.template === 'string') {
     const entry = templateEntry(r.template)
     if (entry && !entry.bank) return false

@@ -13,13 +13,14 @@ import { escapeHtml, renderMath } from '../prompt.ts'
 import { splitIdentifiers } from '../quantities.ts'
 import {
   isCalorimeterSolution,
+  isCascadeSolution,
+  isCombinedSolution,
   isIdealGasSolution,
   isRankineSolution,
   isRefrigerationSolution,
-  isTwoStageSolution,
-  isCascadeSolution,
-  isSteamCycleSolution,
   isSteadyFlowSolution,
+  isSteamCycleSolution,
+  isTwoStageSolution,
 } from '../solution-kind.ts'
 import { kineticEnergyLine, steadyFlowSections } from './steady-flow.ts'
 import { calorimeterSections } from './calorimeter.ts'
@@ -31,6 +32,7 @@ import { rankineSections } from './rankine.ts'
 import { refrigerationSections } from './refrigeration.ts'
 import { cascadeSections, twoStageSections } from './multi-stage-refrigeration.ts'
 import { givensSection, keySection } from './key.ts'
+import { combinedSections } from './combined.ts'
 
 export type { WorkedLine, WorkedSection, WorkedSolution } from './types.ts'
 export { WORKED_SIG_FIGS } from './types.ts'
@@ -61,6 +63,10 @@ export function workedSolution(variant: Variant, def: ProblemDefinition): Worked
     const base = conventionSection(convention, true)
     conv = { text: base.text, section: { ...base.section, lines: [...base.section.lines, kineticEnergyLine(sym)] } }
     physics = steadyFlowSections(sol, variant, sym)
+    caution = sol.notice
+  } else if (isCombinedSolution(sol)) {
+    conv = conventionSection(convention, true, 'working fluid')
+    physics = combinedSections(sol, variant, sym)
     caution = sol.notice
   } else if (isCalorimeterSolution(sol)) {
     conv = conventionSection(convention, true, 'steam')

@@ -4,7 +4,7 @@ import { mathCore } from '#app/domain/grading/math-instance.ts'
 import { FIND_SENSE_WORDS, type Find, type ProblemDefinition, type Variant } from '../definition.ts'
 import { formatGivenValue } from '../placeholders.ts'
 import { quantityAtPath, symbolTex } from '../quantities.ts'
-import { isRankineSolution } from '../solution-kind.ts'
+import { isCombinedSolution, isRankineSolution, isSteadyFlowSolution } from '../solution-kind.ts'
 import type { WorkedLine, WorkedSection } from './types.ts'
 import { q4, texName } from './common.ts'
 
@@ -57,6 +57,8 @@ export function keySection(variant: Variant, def: ProblemDefinition): WorkedSect
   const ctx = {
     convention: variant.solution.convention.name,
     steam: isRankineSolution(variant.solution),
+    ...(isSteadyFlowSolution(variant.solution) ? { flow: variant.solution.template } : {}),
+    ...(isCombinedSolution(variant.solution) ? { combined: true } : {}),
     ...(stateNames ? { stateNames } : {}),
     ...(deviceNames ? { deviceNames } : {}),
   }

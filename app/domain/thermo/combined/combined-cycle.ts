@@ -58,6 +58,8 @@ export interface CombinedGasState {
   readonly h: number
   /** J/(kg K) */
   readonly s: number
+  /** m³/kg, from the ideal-gas law v = R T / p */
+  readonly v: number
 }
 
 export interface CombinedResult {
@@ -261,7 +263,7 @@ export function solveCombinedCycle(input: CombinedInput): CombinedOutcome {
   const hrsgHeat = y * steam.heatIn
   const stackLoss = hGas(stackT) - h(s1.h)
   const condenserHeat = y * steam.heatOut
-  const gasStates: CombinedGasState[] = [
+  const states: Omit<CombinedGasState, 'v'>[] = [
     { name: '1', description: 'compressor inlet', p: s1.p, T: s1.T, h: h(s1.h), s: h(s1.s) },
     { name: '2', description: 'compressor exit, combustor inlet', p: s2.p, T: s2.T, h: h(s2.h), s: h(s2.s) },
     { name: '3', description: 'gas-turbine inlet', p: s3.p, T: s3.T, h: h(s3.h), s: h(s3.s) },
@@ -275,6 +277,7 @@ export function solveCombinedCycle(input: CombinedInput): CombinedOutcome {
       s: h(input.gas.sT(stackT) - input.gas.R * Math.log(s4.p / P_REF)),
     },
   ]
+  const gasStates: CombinedGasState[] = states.map((g) => ({ ...g, v: (input.gas.R * g.T) / g.p }))
   return {
     ok: true,
     value: {

@@ -146,6 +146,7 @@ export interface FormattedCombinedGasState {
   readonly T: Quantity
   readonly h: Quantity
   readonly s: Quantity
+  readonly v: Quantity
 }
 
 export interface FormattedCombined {
@@ -327,6 +328,7 @@ export function formatCombined(r: CombinedResult, gasLabel: string, convention: 
       T: q(s.T, 'K'),
       h: q(s.h, J),
       s: q(s.s, 'J/(kg K)'),
+      v: q(s.v, 'm^3/kg'),
     })),
     bottoming: formatRankine('rankine', r.steam, convention),
     devices,
