@@ -672,6 +672,59 @@ const steamCalorimeter: ProblemDefinition = {
   ],
 }
 
+const waterPiston: ProblemDefinition = {
+  format: 2,
+  title: 'Wet steam heated at constant pressure in a piston–cylinder',
+  tags: {
+    topics: ['steam', 'first law', 'closed system', 'boundary work'],
+    difficulty: 'introductory',
+    level: 'second-year',
+  },
+  convention: 'course',
+  prompt: [
+    STEAM_CAUTION,
+    '',
+    'A piston–cylinder device holds [m] of water at [p1] with a quality of [x1]. It is heated at constant pressure until the temperature reaches [T2].',
+    '',
+    'Find:',
+    '',
+    '1. the boundary work done by the water,',
+    '2. the heat added to the water,',
+    '3. the change in the internal energy of the water.',
+  ].join('\n'),
+  givens: [
+    choice('m', 'mass of water', 'kg', [1, 2, 3]),
+    choice('p1', 'pressure', 'kPa', [150, 200, 300, 400]),
+    range('x1', 'initial quality', '', 0.2, 0.8, 0.1),
+    range('T2', 'final temperature', '°C', 200, 400, 25),
+  ],
+  constraints: [],
+  physics: {
+    kind: 'cycle',
+    cycle: {
+      substance: 'water',
+      system: 'closed',
+      mass: 'm',
+      states: [
+        { name: '1', p: 'p1', x: 'x1' },
+        { name: '2', T: 'T2' },
+      ],
+      steps: [{ process: 'isobaric', label: 'heating at constant pressure' }],
+    },
+  },
+  finds: [
+    output('W', 'Boundary work done by the water', 'steps.1.total.w', 'kJ', 2, {
+      sense: 'work-by-system',
+      pitfalls: ['sign-convention-flipped', 'kilo-factor'],
+    }),
+    output('Q', 'Heat added to the water', 'steps.1.total.q', 'kJ', 2, {
+      sense: 'heat-into-system',
+      pitfalls: ['kilo-factor'],
+    }),
+    output('dU', 'Change in internal energy', 'steps.1.total.dU', 'kJ', 2, { pitfalls: ['kilo-factor'] }),
+  ],
+}
+
 const combinedCycle: ProblemDefinition = {
   format: 2,
   title: 'Combined gas–steam plant with a heat-recovery steam generator',
@@ -1528,6 +1581,7 @@ export const DEMO_PROBLEMS: readonly DemoProblem[] = [
   { owner: 'tobias', visibility: 'department', definition: steamCarnot },
   { owner: 'amara', visibility: 'department', definition: steamCalorimeter },
   { owner: 'tobias', visibility: 'department', definition: combinedCycle },
+  { owner: 'amara', visibility: 'installation', definition: waterPiston },
   { owner: 'tobias', visibility: 'department', definition: vapourCompression },
   { owner: 'amara', visibility: 'department', definition: threeStep },
   { owner: 'amara', visibility: 'department', definition: nozzle },

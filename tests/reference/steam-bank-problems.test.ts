@@ -92,8 +92,36 @@ const calorimeter = problem(
   ],
 )
 
+// A piston–cylinder problem: 2 kg of water at 200 kPa and x = 0.5 heated at constant pressure
+// to 300 °C (invented numbers), written as a general cycle whose substance is water.
+const PP = 2e5
+const TP = 300 + 273.15
+const piston: ProblemDefinition = {
+  ...problem('steam-carnot', [choice('p1', 'kPa', [200]), choice('x1', '', [0.5]), choice('T2', '°C', [300])], {}, [
+    find('w', 'steps.1.w', 'kJ/kg', { sense: 'work-by-system' }),
+    find('q', 'steps.1.q', 'kJ/kg', { sense: 'heat-into-system' }),
+    find('Q', 'steps.1.total.q', 'kJ'),
+    find('dU', 'steps.1.dU', 'kJ/kg'),
+    find('v2', 'states.2.v', 'm^3/kg'),
+  ]),
+  physics: {
+    kind: 'cycle',
+    cycle: {
+      substance: 'water',
+      system: 'closed',
+      mass: '2 kg',
+      states: [
+        { name: '1', p: 'p1', x: 'x1' },
+        { name: '2', T: 'T2' },
+      ],
+      steps: [{ process: 'isobaric', label: 'heating at constant pressure' }],
+    },
+  },
+}
+
 let available = false
 let fH: RefState, gH: RefState, fL: RefState, gL: RefState, cal: RefState, f1: RefState, g1: RefState, g2: RefState
+let w1: RefState, w2: RefState
 beforeAll(() => {
   available = referenceAvailable()
   if (!available) return
@@ -107,6 +135,10 @@ beforeAll(() => {
     { kind: 'Px', p: P1, x: 1 },
     { kind: 'Px', p: P2, x: 1 },
   ]) as [RefState, RefState, RefState, RefState, RefState, RefState, RefState, RefState]
+  ;[w1, w2] = referenceStates([
+    { kind: 'Px', p: PP, x: 0.5 },
+    { kind: 'PT', p: PP, T: TP },
+  ]) as [RefState, RefState]
 })
 
 describe('vapour Carnot bank problem against python3-iapws', () => {
@@ -226,5 +258,34 @@ describe('throttling calorimeter bank problem against python3-iapws', () => {
   test('both problems pass the authoring checks', () => {
     expect(lintDefinition(carnot)).toEqual([])
     expect(lintDefinition(calorimeter)).toEqual([])
+  })
+})
+
+describe('water written out as a general cycle in a bank problem, against python3-iapws', () => {
+  test.each(['engineering', 'chemistry'] as const)('keys of a piston–cylinder heating (%s)', (convention) => {
+    if (!available) throw new Error(REFERENCE_MISSING_MESSAGE)
+    const v = drawn(piston, convention)
+    expect(solutionKind(v.solution)).toBe('steam-cycle')
+    // Closed system at constant pressure: W = p (v2 − v1), Q = ΔU + W = h2 − h1 (common practice).
+    expect(rel(keyOf(v, 'w') * 1000, PP * (w2.v - w1.v))).toBeLessThan(1e-6)
+    expect(rel(keyOf(v, 'q') * 1000, w2.h - w1.h)).toBeLessThan(1e-6)
+    expect(rel(keyOf(v, 'Q') * 1000, 2 * (w2.h - w1.h))).toBeLessThan(1e-6)
+    expect(rel(keyOf(v, 'dU') * 1000, w2.u - w1.u)).toBeLessThan(1e-6)
+    expect(rel(keyOf(v, 'v2'), w2.v)).toBeLessThan(1e-7)
+  })
+
+  test('worked solution and diagrams: the boundary work p Δv and an isobar drawn through IF97 states', () => {
+    if (!available) throw new Error(REFERENCE_MISSING_MESSAGE)
+    const v = drawn(piston, 'engineering')
+    const ws = workedSolution(v, piston)
+    const tex = ws.sections.flatMap((s) => s.lines.map((l) => l.tex)).join('\n')
+    expect(tex).toContain('p\\,(v_{2} - v_{1})')
+    expect(tex).toContain(n4((PP * (w2.v - w1.v)) / 1000))
+    expect(ws.sections.map((s) => s.title)).toContain('Processes (per kg of water)')
+    expect(renderWorkedSolution(ws)).not.toContain('katex-error')
+    const d = cycleDiagrams(v.solution)
+    expect(d.pv.curves).toHaveLength(1)
+    for (const [, y] of d.pv.curves[0]!.points) expect(Math.abs(y - PP / 1000)).toBeLessThan(1e-6 * PP)
+    expect(lintDefinition(piston)).toEqual([])
   })
 })

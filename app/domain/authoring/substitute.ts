@@ -28,7 +28,20 @@ function substituteDeep(x: unknown, byName: ReadonlyMap<string, DrawnGiven>): un
   return x
 }
 
-/** The spec file object for one variant: { template, inputs, convention } or { cycle, convention }. */
+/**
+ * A general cycle of water: the cycle object says `"substance": "water"` and is otherwise the
+ * `steamCycle` object of a spec file (system, mass, states, steps; docs/steam.md).
+ */
+function waterCycle(cycle: unknown): Record<string, unknown> | null {
+  if (cycle === null || typeof cycle !== 'object' || Array.isArray(cycle)) return null
+  const { substance, ...rest } = cycle as Record<string, unknown>
+  return substance === 'water' ? rest : null
+}
+
+/**
+ * The spec file object for one variant: { template, inputs, convention }, { cycle, convention },
+ * or for a general cycle of water { steamCycle, convention }.
+ */
 export function buildSpec(
   def: ProblemDefinition,
   givens: readonly DrawnGiven[],
@@ -41,5 +54,7 @@ export function buildSpec(
     for (const [k, v] of Object.entries(physics.inputs)) inputs[k] = substituteDeep(v, byName)
     return { template: physics.template, inputs, convention }
   }
-  return { cycle: substituteDeep(physics.cycle, byName), convention }
+  const cycle = substituteDeep(physics.cycle, byName)
+  const water = waterCycle(cycle)
+  return water ? { steamCycle: water, convention } : { cycle, convention }
 }

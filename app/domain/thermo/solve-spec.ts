@@ -151,62 +151,25 @@ export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): AnySolu
 /** The error code of a template that solves in spec files but not (yet) in bank problems. */
 export const NOT_IN_BANK = 'not-in-bank'
 
-/**
- * The solutions bank problems can be built on today: the ideal-gas cycles, the Rankine templates
- * and the single-stage vapour-compression cycle ('vapour-compression' only: other refrigeration
- * templates share its result type but stay out of the bank until the authoring layer handles them).
- */
-export type BankSolution =
-  | FormattedSolution
-  | FormattedRankine
-  | FormattedRefrigeration
-  | FormattedMultiStageRefrigeration
-  | FormattedCalorimeter
-  | FormattedSteamCycle
-  | FormattedFlow
-  | FormattedCombined
+/** The solutions bank problems can be built on: every family the authoring layer keys, explains and draws. */
+export type BankSolution = AnySolution
 
 /**
- * solveSpec for bank problems (drawing variants, lint, pitfalls): the templates whose results
- * the authoring layer can key, explain and draw. A template the catalog does not mark `bank`
- * (catalog.ts) solves in spec files and `npm run solve` but is refused here, by its id, with a
- * plain message until the problem editor supports it; so is water in the general cycle format.
- * Never throws.
+ * solveSpec for bank problems (drawing variants, lint, pitfalls). A template the catalog does
+ * not mark `bank` (catalog.ts) would solve in spec files and `npm run solve` but is refused
+ * here, by its id, with a plain message; today every template is marked. Never throws.
  */
-function isBankSolution(r: AnySolution): boolean {
-  if ('template' in r && typeof r.template === 'string') {
-    const entry = templateEntry(r.template)
-    if (entry && !entry.bank) return false
-  }
-  // Water in the general cycle format written out in full ({ steamCycle }) has no bank physics
-  // kind yet; the vapour Carnot template, which gives the same result, is let in by its id above.
-  if ('steps' in r && 'substance' in r && r.template === null) return false
-  return true
-}
-
-function notInBank(what: string): SpecFailure {
-  return {
-    ok: false,
-    error: {
-      code: NOT_IN_BANK,
-      message: `${what} solves in spec files but cannot be used in bank problems yet`,
-      property: 'template',
-    },
-  }
-}
-
 export function solveBankSpec(raw: unknown, options: SolveSpecOptions = {}): BankSolution | SpecFailure {
-  // By the id asked for, before solving: a template outside the bank is refused even when its
-  // result has the shape of one inside it (the refrigeration templates share one result type).
   const t = (raw as { template?: unknown } | null)?.template
   const entry = typeof t === 'string' ? templateEntry(t) : undefined
-  if (entry && !entry.bank) return notInBank(`the "${entry.id}" template`)
-  const r = solveSpec(raw, options)
-  if (r.ok && !isBankSolution(r))
-    return notInBank(
-      'template' in r && typeof r.template === 'string'
-        ? `the "${r.template}" template`
-        : 'a water/steam cycle written out in full',
-    )
-  return r as BankSolution | SpecFailure
+  if (entry && !entry.bank)
+    return {
+      ok: false,
+      error: {
+        code: NOT_IN_BANK,
+        message: `the "${entry.id}" template solves in spec files but cannot be used in bank problems yet`,
+        property: 'template',
+      },
+    }
+  return solveSpec(raw, options)
 }

@@ -156,5 +156,28 @@ export function steamCycleSections(sol: FormattedSteamCycle, sym: Symbols): Work
       })
     }
   }
-  return [states, steps, { title: 'Cycle totals', lines: totals }]
+  const sections: WorkedSection[] = [states, steps]
+  // The mass: the ratio of a step's whole-amount value to its per-kg value (the format states both).
+  const ref = sol.steps
+    .flatMap((s) => [
+      [s.total.dU.value, s.dU.value],
+      [s.total.q.value, s.q.value],
+    ])
+    .find(([, per]) => Math.abs(per!) > 1e-6)
+  const m = ref ? ref[0]! / ref[1]! : null
+  if (m !== null && Number.isFinite(m) && Math.abs(m - 1) > 1e-9) {
+    const kJwhole = (x: number) => q4(snap(x, 1e3) / 1000, 'kJ')
+    sections.push({
+      title: `For the whole amount (m = ${formatNumber(m, { sigFigs: WORKED_SIG_FIGS }, false)} kg)`,
+      lines: sol.steps.map((st) => {
+        const ab = `${sub(st.from)}${sub(st.to)}`
+        return {
+          tex: `m\\,${sym.Q(ab)} = ${kJwhole(st.total.q.value)},\\quad m\\,${sym.W(ab)} = ${kJwhole(st.total.w.value)},\\quad m\\,\\Delta u = ${kJwhole(st.total.dU.value)}`,
+          note: `${st.label}: the per-kg values times the mass`,
+        }
+      }),
+    })
+  }
+  if (sol.steps.length > 1 || t.efficiency !== null) sections.push({ title: 'Cycle totals', lines: totals })
+  return sections
 }
