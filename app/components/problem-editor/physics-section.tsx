@@ -85,8 +85,9 @@ export function PhysicsSection({
               className={cn(inputClass(hasError('physics.cycle')), 'font-mono')}
             />,
             <>
-              The <code>cycle</code> object of a spec file: gas, system, amount, states and steps (docs/spec-format.md).
-              A text that is exactly a given’s name becomes that given’s value with its unit; <code>@{'{name}'}</code>{' '}
+              The <code>cycle</code> object of a spec file: gas, system, amount, states and steps (docs/spec-format.md);
+              for water, <code>"substance": "water"</code> with system, mass, states and steps (the author guide). A
+              text that is exactly a given’s name becomes that given’s value with its unit; <code>@{'{name}'}</code>{' '}
               works inside longer texts (in the physics only; the prompt writes <code>[name]</code>).
             </>,
           )}
