@@ -3,7 +3,9 @@
  * Atkinson, Miller; the intercooled-reheat gas turbine reported beside the target) and
  * variants per second when validating 10,000 random variants. Target: ≤ 10 µs per variant.
  * Inputs are parsed to numbers once (mathjs stays at the edge); the timed loop is
- * template build + solveCycle + sanity checks on numbers.
+ * template build + solveCycle + sanity checks on numbers. After it, rates only: refrigerant
+ * property calls, the refrigeration cycles, the steady-flow devices, and every docs/examples
+ * spec through solveSpec (texts parsed, solved and formatted), so every template has a rate.
  */
 import { performance } from 'node:perf_hooks'
 import { constantCpGas, gasPreset, solveCycle, templates } from '#app/domain/thermo/index.ts'
@@ -300,5 +302,36 @@ if (okCount !== all.length) process.exitCode = 1
       `${name.padEnd(30)} ${Math.round(N / s).toLocaleString('en')} solves/s (${((s * 1e6) / N).toFixed(1)} µs each)${failed ? `, ${failed} failed` : ''}`,
     )
     if (failed) process.exitCode = 1
+  }
+}
+
+// Every spec example in docs/examples through the one entry point (solveSpec: parsing the
+// texts with units, solving and formatting), so every template family has a rate here,
+// steam plants and the combined cycle included.
+{
+  const { readdirSync, readFileSync } = await import('node:fs')
+  const { solveSpec } = await import('#app/domain/thermo/solve-spec.ts')
+  const dir = new URL('../docs/examples/', import.meta.url)
+  console.log('\nevery docs/examples spec through solveSpec (parse + solve + format):')
+  for (const file of readdirSync(dir)
+    .filter((f) => f.endsWith('.json'))
+    .sort()) {
+    const spec: unknown = JSON.parse(readFileSync(new URL(file, dir), 'utf8'))
+    if (!solveSpec(spec).ok) {
+      console.log(`${file}: does not solve`)
+      process.exitCode = 1
+      continue
+    }
+    // Enough runs for about 0.2 s, at least 5.
+    const t1 = performance.now()
+    solveSpec(spec)
+    const once = Math.max(performance.now() - t1, 1e-3)
+    const N = Math.max(5, Math.min(5000, Math.round(200 / once)))
+    const t = performance.now()
+    for (let i = 0; i < N; i++) solveSpec(spec)
+    const s = (performance.now() - t) / 1000
+    console.log(
+      `${file.replace(/\.json$/, '').padEnd(36)} ${Math.round(N / s).toLocaleString('en')} solves/s (${((s * 1e6) / N).toFixed(1)} µs each)`,
+    )
   }
 }
