@@ -296,6 +296,8 @@ export interface PathContext {
   readonly flow?: 'nozzle' | 'diffuser' | 'turbojet'
   /** The combined gas–steam cycle: totals per kg of gas, gasStates, and the bottoming cycle's paths. */
   readonly combined?: boolean
+  /** What a general cycle's working fluid is called in words when it is not a gas ('water'). */
+  readonly fluid?: string
 }
 
 // ---- The combined gas–steam cycle ---------------------------------------------------
@@ -515,6 +517,10 @@ function steamPlantQuantity(parts: readonly string[]): Quantity | null | undefin
  * caller then uses the find's own name and label, never the path).
  */
 export function quantityAtPath(path: string, ctx: PathContext): Quantity | null {
+  if (ctx.fluid) {
+    const q = quantityAtPath(path, { ...ctx, fluid: undefined })
+    return q && { ...q, name: q.name.replace(/\bthe gas\b/g, `the ${ctx.fluid}`) }
+  }
   if (ctx.flow) return flowQuantity(path, { ...ctx, flow: ctx.flow })
   const parts = path.split('.')
   if (ctx.combined) {

@@ -4,7 +4,7 @@ import { mathCore } from '#app/domain/grading/math-instance.ts'
 import { FIND_SENSE_WORDS, type Find, type ProblemDefinition, type Variant } from '../definition.ts'
 import { formatGivenValue } from '../placeholders.ts'
 import { quantityAtPath, symbolTex } from '../quantities.ts'
-import { isCombinedSolution, isRankineSolution, isSteadyFlowSolution } from '../solution-kind.ts'
+import { isCombinedSolution, isRankineSolution, isSteadyFlowSolution, isSteamCycleSolution } from '../solution-kind.ts'
 import type { WorkedLine, WorkedSection } from './types.ts'
 import { q4, texName } from './common.ts'
 
@@ -59,6 +59,7 @@ export function keySection(variant: Variant, def: ProblemDefinition): WorkedSect
     steam: isRankineSolution(variant.solution),
     ...(isSteadyFlowSolution(variant.solution) ? { flow: variant.solution.template } : {}),
     ...(isCombinedSolution(variant.solution) ? { combined: true } : {}),
+    ...(isSteamCycleSolution(variant.solution) ? { fluid: 'water' } : {}),
     ...(stateNames ? { stateNames } : {}),
     ...(deviceNames ? { deviceNames } : {}),
   }
