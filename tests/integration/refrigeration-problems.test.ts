@@ -99,10 +99,10 @@ describe('a bank problem on the vapour-compression template', () => {
     }
   })
 
-  test('a template outside the bank (the combined cycle) is refused when saved', async () => {
+  test('an id that names no template is refused when saved', async () => {
     const { viewer } = await createBankUser(db())
     const other = refrigerator({
-      physics: { kind: 'template', template: 'combined-cycle', inputs: {} },
+      physics: { kind: 'template', template: 'no-such-cycle', inputs: {} },
     })
     await expect(createProblem(db(), viewer, { definition: other, visibility: 'private' })).rejects.toBeInstanceOf(
       InvalidDefinitionError,
