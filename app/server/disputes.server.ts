@@ -789,6 +789,8 @@ export async function getDisputeDetail(
         .from(attachments)
         .where(eq(attachments.id, row.attachmentId))
     : []
+  // Stored as detected from the bytes at upload; a type outside the list is not offered (nor served).
+  const fileType = ALLOWED_ATTACHMENT_TYPES.find((t) => t === file?.contentType)
   // The student who raised it gets no more than their problem page gives: the key, the worked
   // solution and other students' answers are for staff (defence in depth; the page also filters).
   const keyShown = staff && drawn.ok
@@ -828,9 +830,8 @@ export async function getDisputeDetail(
     key: keyShown ? drawn.variant.key : [],
     workedHtml: keyShown ? renderWorkedSolution(workedSolution(drawn.variant, ctx.definition)) : null,
     diagrams: keyShown ? cycleDiagrams(drawn.variant.solution) : null,
-    attachment: file
-      ? { id: file.id, fileName: file.fileName, contentType: file.contentType as AttachmentType, size: file.size }
-      : null,
+    attachment:
+      file && fileType ? { id: file.id, fileName: file.fileName, contentType: fileType, size: file.size } : null,
     sameAnswerOnVariant: new Set(others.map((p) => p.userId)).size,
     history: await disputeHistory(database, row, find?.label ?? row.findName),
   }

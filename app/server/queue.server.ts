@@ -21,7 +21,7 @@ export const PGBOSS_SCHEMA = 'pgboss'
  * Queue name → payload schema. Every payload carries `v` so that a job queued by an older
  * release can be told apart once a payload changes shape.
  */
-export const queuePayloads = {
+const payloadSchemas = {
   'problem-sweep': z.object({ v: z.literal(1), sweepId: z.number().int().positive() }),
   /** Grade one stored submission (jobs/handlers/grade-submission.ts); idempotent on the id. */
   'grade-submission': z.object({ v: z.literal(1), submissionId: z.number().int().positive() }),
@@ -41,9 +41,14 @@ export const queuePayloads = {
   'purge-expired': z.object({ v: z.literal(1) }),
 } as const
 
-export type QueueName = keyof typeof queuePayloads
-export type QueuePayload<N extends QueueName> = z.infer<(typeof queuePayloads)[N]>
-export const queueNames = Object.keys(queuePayloads) as QueueName[]
+export type QueueName = keyof typeof payloadSchemas
+export type QueuePayload<N extends QueueName> = z.infer<(typeof payloadSchemas)[N]>
+/** The same map typed per queue, so that parsing with `queuePayloads[name]` for a generic name gives that queue's payload. */
+export const queuePayloads: { readonly [N in QueueName]: z.ZodType<QueuePayload<N>> } = payloadSchemas
+function isQueueName(name: string): name is QueueName {
+  return Object.hasOwn(payloadSchemas, name)
+}
+export const queueNames: readonly QueueName[] = Object.keys(payloadSchemas).filter(isQueueName)
 
 /** Where pg-boss moves a job whose retries are used up, or that can never succeed. */
 export const DEAD_LETTER_QUEUE = 'dead-letter'
@@ -151,7 +156,7 @@ export type JobConnection = PgBoss.Db
 export async function ensureQueues(boss: PgBoss) {
   const wanted: [string, Omit<PgBoss.Queue, 'name'>][] = [
     [DEAD_LETTER_QUEUE, { policy: 'standard' }],
-    ...queueNames.map((n) => [n, queueSettings[n].options] as [string, Omit<PgBoss.Queue, 'name'>]),
+    ...queueNames.map((n): [string, Omit<PgBoss.Queue, 'name'>] => [n, queueSettings[n].options]),
   ]
   for (const [name, options] of wanted) {
     if (await boss.getQueue(name)) {
@@ -187,8 +192,11 @@ export function bossOptions(
 }
 
 type Holder = { boss?: Promise<PgBoss>; url?: string }
-// On globalThis so that hot reloads in development do not start a second boss.
-const holder: Holder = ((globalThis as { __cyclewrightBoss?: Holder }).__cyclewrightBoss ??= {})
+declare global {
+  // On globalThis so that hot reloads in development do not start a second boss.
+  var __cyclewrightBoss: Holder | undefined
+}
+const holder: Holder = (globalThis.__cyclewrightBoss ??= {})
 
 /**
  * The process's producer boss, started on first use: it installs or migrates pg-boss's
@@ -237,8 +245,8 @@ export async function enqueue<N extends QueueName>(
     throw new Error(
       `Job payload for ${name} is not valid: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`,
     )
-  const data = parsed.data as QueuePayload<N>
-  const settings = queueSettings[name] as QueueSettings<N>
+  const data: QueuePayload<N> = parsed.data
+  const settings: QueueSettings<N> = queueSettings[name]
   const boss = await getBoss()
   const send: PgBoss.SendOptions = {}
   const key = settings.singletonKey?.(data)
@@ -254,7 +262,7 @@ const drizzleOfClient = new WeakMap<pg.PoolClient, Db>()
 function drizzleOn(client: pg.PoolClient): Db {
   let tx = drizzleOfClient.get(client)
   if (!tx) {
-    tx = drizzle(client, { schema, casing: 'snake_case' }) as unknown as Db
+    tx = drizzle(client, { schema, casing: 'snake_case' })
     drizzleOfClient.set(client, tx)
   }
   return tx
@@ -269,7 +277,7 @@ export async function withJobTransaction<T>(
   database: Db,
   work: (tx: Db, jobs: JobConnection) => Promise<T>,
 ): Promise<T> {
-  const source = (database as { $client?: unknown }).$client
+  const source = '$client' in database ? database.$client : undefined
   if (!(source instanceof pg.Pool)) throw new Error('withJobTransaction needs a database on a pg.Pool')
   // Started before the transaction: its first start installs pg-boss's schema and queues.
   await getBoss()

@@ -4,14 +4,15 @@
  * reads and checks the text itself; what the database already holds is checked in
  * roster.server.ts. Nothing here writes anything.
  */
-import { parse } from 'csv-parse/sync'
+import { CsvError, parse } from 'csv-parse/sync'
 import { z } from 'zod'
 import { MAX_ROSTER_BYTES, MAX_ROSTER_ROWS, rosterLimits } from '#app/lib/roster-limits.ts'
 import { normaliseEmail } from './users.server.ts'
 
 export { MAX_ROSTER_BYTES, MAX_ROSTER_ROWS, rosterLimits }
 
-export type RosterColumn = 'studentNumber' | 'familyName' | 'givenName' | 'email' | 'section'
+const ROSTER_COLUMNS = ['studentNumber', 'familyName', 'givenName', 'email', 'section'] as const
+export type RosterColumn = (typeof ROSTER_COLUMNS)[number]
 
 export const columnWords: Record<RosterColumn, string> = {
   studentNumber: 'student ID',
@@ -69,8 +70,7 @@ export function headerKey(header: string): string {
 
 function columnOf(header: string): RosterColumn | null {
   const key = headerKey(header)
-  for (const [column, spellings] of Object.entries(HEADER_SPELLINGS) as [RosterColumn, string[]][])
-    if (spellings.includes(key)) return column
+  for (const column of ROSTER_COLUMNS) if (HEADER_SPELLINGS[column].includes(key)) return column
   return null
 }
 
@@ -113,12 +113,14 @@ export function detectDelimiter(text: string): string {
 }
 
 function describeParseError(e: unknown): string {
-  const err = e as { code?: string; lines?: number }
-  const where = typeof err.lines === 'number' ? ` on line ${err.lines}` : ''
-  if (err.code === 'CSV_QUOTE_NOT_CLOSED')
+  if (!(e instanceof CsvError)) return 'The text could not be read as a CSV. Save it again as CSV (UTF-8) and retry.'
+  const where = typeof e.lines === 'number' ? ` on line ${e.lines}` : ''
+  if (e.code === 'CSV_QUOTE_NOT_CLOSED')
     return `A quotation mark opened${where} is never closed. Check that line, or remove the quotation mark.`
   return `The text could not be read as a CSV${where}. Check that line for stray quotation marks.`
 }
+
+const RecordsWithInfo = z.array(z.object({ record: z.array(z.string()), info: z.object({ lines: z.number() }) }))
 
 /**
  * Reads the text of a class list. A file-level problem (no header, a missing column, too
@@ -134,10 +136,9 @@ export function parseRosterCsv(input: string): ParsedRoster {
     }
   if (Buffer.byteLength(text, 'utf8') > MAX_ROSTER_BYTES) return { ok: false, formError: tooLarge() }
   const delimiter = detectDelimiter(text)
-  let records: { record: string[]; info: { lines: number } }[]
+  let parsed: unknown
   try {
-    // With `info: true` each record is { record, info }; the typings do not follow that option.
-    records = parse(text, {
+    parsed = parse(text, {
       delimiter,
       relax_column_count: true,
       relax_quotes: true,
@@ -145,10 +146,15 @@ export function parseRosterCsv(input: string): ParsedRoster {
       skip_records_with_empty_values: true,
       trim: true,
       info: true,
-    }) as unknown as { record: string[]; info: { lines: number } }[]
+    })
   } catch (e) {
     return { ok: false, formError: describeParseError(e) }
   }
+  // With `info: true` each record is { record, info }; csv-parse's typings do not follow that
+  // option, so its output is checked rather than assumed.
+  const checked = RecordsWithInfo.safeParse(parsed)
+  if (!checked.success) return { ok: false, formError: describeParseError(null) }
+  const records = checked.data
   const [header, ...body] = records
   if (!header)
     return {
@@ -197,7 +203,7 @@ export function parseRosterCsv(input: string): ParsedRoster {
       email: cell(record, 'email'),
       section: cell(record, 'section'),
     }
-    for (const column of Object.keys(raw) as RosterColumn[]) {
+    for (const column of ROSTER_COLUMNS) {
       const value = raw[column]
       if (/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.test(value))
         errors.push(`The ${columnWords[column]} contains a control character (such as a NUL byte). Retype it.`)

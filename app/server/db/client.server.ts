@@ -7,8 +7,11 @@ export type Db = NodePgDatabase<typeof schema>
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
 
 type Holder = { pool?: pg.Pool; db?: Db; url?: string }
-// Kept on globalThis so that hot reloads in development do not leak pools.
-const holder: Holder = ((globalThis as { __cyclewrightDb?: Holder }).__cyclewrightDb ??= {})
+declare global {
+  // Kept on globalThis so that hot reloads in development do not leak pools.
+  var __cyclewrightDb: Holder | undefined
+}
+const holder: Holder = (globalThis.__cyclewrightDb ??= {})
 
 export function pool(): pg.Pool {
   const url = env().DATABASE_URL
