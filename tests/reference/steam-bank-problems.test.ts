@@ -283,7 +283,10 @@ describe('water written out as a general cycle in a bank problem, against python
     expect(tex).toContain(n4((PP * (w2.v - w1.v)) / 1000))
     expect(ws.sections.map((s) => s.title)).toContain('Processes (per kg of water)')
     // The answers name the working fluid: water, not gas.
-    const answers = ws.sections.at(-1)!.lines.map((l) => l.note ?? '').join('\n')
+    const answers = ws.sections
+      .at(-1)!
+      .lines.map((l) => l.note ?? '')
+      .join('\n')
     expect(answers).toMatch(/work done by the water/)
     expect(answers).not.toMatch(/\bgas\b/)
     expect(renderWorkedSolution(ws)).not.toContain('katex-error')
