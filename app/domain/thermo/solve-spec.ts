@@ -56,14 +56,24 @@ export interface SolveSpecOptions {
   readonly convention?: Convention
 }
 
+/** A JSON object (not null, not a list). */
+function isRecord(x: unknown): x is Record<string, unknown> {
+  return typeof x === 'object' && x !== null && !Array.isArray(x)
+}
+
+/** One field of a spec that may not be an object at all. */
+function field(raw: unknown, name: string): unknown {
+  return isRecord(raw) ? raw[name] : undefined
+}
+
 export function solveSpecNumeric(raw: unknown, slips: Slips = {}): CycleResult | SpecFailure {
   try {
-    if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+    if (!isRecord(raw))
       return {
         ok: false,
         error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template" or "cycle"' },
       }
-    const r = raw as Record<string, unknown>
+    const r = raw
     if (r.template !== undefined) {
       const t = typeof r.template === 'string' ? templates[r.template] : undefined
       if (!t)
@@ -76,9 +86,9 @@ export function solveSpecNumeric(raw: unknown, slips: Slips = {}): CycleResult |
           },
         }
       const inputs = r.inputs ?? {}
-      if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs))
+      if (!isRecord(inputs))
         return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
-      return t.solve(inputs as Record<string, unknown>, { slips })
+      return t.solve(inputs, { slips })
     }
     if (r.cycle !== undefined) {
       const p = parseCycleSpec(r.cycle, slips)
@@ -96,7 +106,7 @@ export function solveSpecNumeric(raw: unknown, slips: Slips = {}): CycleResult |
 }
 
 export function specConvention(raw: unknown): Convention | { error: string } {
-  const c = (raw as { convention?: unknown } | null)?.convention
+  const c = field(raw, 'convention')
   if (c === undefined) return 'engineering'
   return isConvention(c) ? c : { error: `convention must be "chemistry" or "engineering", not ${JSON.stringify(c)}` }
 }
@@ -110,25 +120,22 @@ export function solveSpec(raw: unknown, options: SolveSpecOptions = {}): AnySolu
   const conv = options.convention ?? specConvention(raw)
   if (typeof conv !== 'string')
     return { ok: false, error: { code: 'invalid-spec', message: conv.error, property: 'convention' } }
-  const t = (raw as { template?: unknown } | null)?.template
+  const t = field(raw, 'template')
+  const id = typeof t === 'string' ? t : null
+  const inputs = field(raw, 'inputs') ?? {}
   // The combined gas–steam cycle (./combined) formats its own result too.
-  if (isCombinedTemplate(t)) return solveCombinedTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
-  if (isSteadyFlowTemplate(t))
-    return solveSteadyFlowTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
-  if (isRefrigerationTemplate(t))
-    return solveRefrigerationTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
+  if (id !== null && isCombinedTemplate(id)) return solveCombinedTemplate(id, inputs, conv)
+  if (id !== null && isSteadyFlowTemplate(id)) return solveSteadyFlowTemplate(id, inputs, conv)
+  if (id !== null && isRefrigerationTemplate(id)) return solveRefrigerationTemplate(id, inputs, conv)
   // Water in the general cycle format ({ "steamCycle": … } or the vapour Carnot template) and the
   // throttling calorimeter (./steam) read their own spec and convention.
-  const withConvention = { ...(raw as object), convention: conv }
+  const withConvention = { ...(isRecord(raw) ? raw : {}), convention: conv }
   if (isCalorimeterTemplate(t)) return solveCalorimeterSpec(withConvention)
-  if (
-    t === STEAM_CARNOT_TEMPLATE.id ||
-    (t === undefined && (raw as { steamCycle?: unknown } | null)?.steamCycle !== undefined)
-  )
+  if (t === STEAM_CARNOT_TEMPLATE.id || (t === undefined && field(raw, 'steamCycle') !== undefined))
     return solveSteamCycleSpec(withConvention)
-  if (isRankineTemplate(t)) {
+  if (id !== null && isRankineTemplate(id)) {
     try {
-      return solveRankineTemplate(t as string, (raw as { inputs?: unknown }).inputs ?? {}, conv)
+      return solveRankineTemplate(id, inputs, conv)
     } catch (e) {
       return {
         ok: false,
@@ -160,7 +167,7 @@ export type BankSolution = AnySolution
  * here, by its id, with a plain message; today every template is marked. Never throws.
  */
 export function solveBankSpec(raw: unknown, options: SolveSpecOptions = {}): BankSolution | SpecFailure {
-  const t = (raw as { template?: unknown } | null)?.template
+  const t = field(raw, 'template')
   const entry = typeof t === 'string' ? templateEntry(t) : undefined
   if (entry && !entry.bank)
     return {
