@@ -9,6 +9,7 @@
 import type { CycleResult } from './cycle.ts'
 import { solveCycle } from './cycle.ts'
 import { isConvention } from './conventions.ts'
+import { isRecord } from './json.ts'
 import type { Convention } from './conventions.ts'
 import { formatSolution } from './format.ts'
 import type { FormattedSolution } from './format.ts'
@@ -54,11 +55,6 @@ export interface SolveSpecOptions {
   readonly slips?: Slips
   /** overrides the spec's convention */
   readonly convention?: Convention
-}
-
-/** A JSON object (not null, not a list). */
-function isRecord(x: unknown): x is Record<string, unknown> {
-  return typeof x === 'object' && x !== null && !Array.isArray(x)
 }
 
 /** One field of a spec that may not be an object at all. */

@@ -8,6 +8,7 @@
  *
  * Teaching tool: not design data; defer to the applicable codes and licensed engineering practice.
  */
+import { isRecord } from '../json.ts'
 import { CONVENTIONS } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { parseGas, readValue } from '../spec.ts'
@@ -225,9 +226,9 @@ function readMassFlow(x: unknown, where: string): { ok: true; value: number } | 
 
 /** Template inputs (strings with units) → numbers in SI. Never throws. */
 export function parseCombinedInputs(raw: unknown): Parsed {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+  if (!isRecord(raw))
     return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
-  const r = raw as Record<string, unknown>
+  const r = raw
   const known = new Set(COMBINED_INPUTS.map((i) => i.name))
   for (const key of Object.keys(r)) {
     if (!known.has(key))

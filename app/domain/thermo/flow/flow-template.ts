@@ -12,6 +12,7 @@
  * Teaching tool: not design data for engines or nozzles; defer to the applicable codes and
  * licensed engineering practice.
  */
+import { isRecord } from '../json.ts'
 import { CONVENTIONS } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { parseGas, readValue } from '../spec.ts'
@@ -255,9 +256,8 @@ function readInputs(
   list: readonly TemplateInput[],
   raw: unknown,
 ): Parsed<{ num: Record<string, number>; gas: unknown; shape: unknown; heatDim: Dimension | null }> {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
-    return bad('invalid-spec', 'inputs must be an object', 'inputs')
-  const r = raw as Record<string, unknown>
+  if (!isRecord(raw)) return bad('invalid-spec', 'inputs must be an object', 'inputs')
+  const r = raw
   const known = new Set(list.map((i) => i.name))
   for (const key of Object.keys(r))
     if (!known.has(key))

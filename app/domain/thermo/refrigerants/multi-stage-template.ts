@@ -8,6 +8,7 @@
  * Teaching tool: not design data; defer to the applicable codes, standards and licensed
  * engineering practice.
  */
+import { isRecord } from '../json.ts'
 import { CONVENTIONS } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
@@ -179,7 +180,7 @@ class Reader {
 }
 
 function reader(raw: unknown, inputs: readonly TemplateInput[]): Read<Reader> {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return fail('inputs must be an object', 'inputs')
+  if (!isRecord(raw)) return fail('inputs must be an object', 'inputs')
   const rd = new Reader(raw as Record<string, unknown>, inputs)
   const u = rd.unknownKey()
   return u ?? { ok: true, value: rd }

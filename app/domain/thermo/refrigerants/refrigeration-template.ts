@@ -7,6 +7,7 @@
  * Teaching tool: not design data; defer to the applicable codes, standards and licensed
  * engineering practice.
  */
+import { isRecord } from '../json.ts'
 import { CONVENTIONS } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
@@ -182,9 +183,9 @@ function readMatch(
 type Parsed = { ok: true; value: VapourCompressionInput } | RefrigerationFailure
 
 export function parseVapourCompressionInputs(raw: unknown): Parsed {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+  if (!isRecord(raw))
     return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
-  const r = raw as Record<string, unknown>
+  const r = raw
   const known = new Set(VAPOUR_COMPRESSION_INPUTS.map((i) => i.name))
   for (const key of Object.keys(r))
     if (!known.has(key))

@@ -12,6 +12,7 @@
 // (solveCalorimeterTemplate / solveCalorimeterSpec); isRankineTemplate does not cover it.
 //
 // Teaching tool: not design data; defer to the applicable codes and licensed engineering practice.
+import { isRecord } from '../json.ts'
 import { CONVENTIONS, isConvention } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
@@ -221,9 +222,9 @@ export function solveCalorimeterTemplate(
   convention: Convention = 'engineering',
 ): FormattedCalorimeter | CalorimeterFailure {
   try {
-    if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs))
+    if (!isRecord(inputs))
       return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
-    const r = inputs as Record<string, unknown>
+    const r = inputs
     const known = new Set(CALORIMETER_TEMPLATE.inputs.map((i) => i.name))
     for (const k of Object.keys(r))
       if (!known.has(k))
@@ -301,9 +302,9 @@ export function solveCalorimeterTemplate(
 
 /** A whole spec { template: "steam-throttling-calorimeter", inputs, convention? }. Never throws. */
 export function solveCalorimeterSpec(raw: unknown): FormattedCalorimeter | CalorimeterFailure {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+  if (!isRecord(raw))
     return { ok: false, error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template"' } }
-  const r = raw as Record<string, unknown>
+  const r = raw
   const conv = r.convention ?? 'engineering'
   if (!isConvention(conv))
     return {

@@ -14,6 +14,7 @@
 // the spec entry point must dispatch "rankine*" ids here (see solveRankineTemplate).
 //
 // Teaching tool: not design data; defer to the applicable codes and licensed engineering practice.
+import { isRecord } from '../json.ts'
 import { CONVENTIONS, isConvention } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
@@ -219,7 +220,7 @@ function parseHeaters(raw: unknown): { ok: true; value: FeedwaterHeaterInput[] }
   for (let i = 0; i < raw.length; i++) {
     const h = raw[i] as unknown
     const where = `heaters.${i}`
-    if (typeof h !== 'object' || h === null || Array.isArray(h))
+    if (!isRecord(h))
       return {
         ok: false,
         error: {
@@ -228,7 +229,7 @@ function parseHeaters(raw: unknown): { ok: true; value: FeedwaterHeaterInput[] }
           property: where,
         },
       }
-    const r = h as Record<string, unknown>
+    const r = h
     for (const k of Object.keys(r))
       if (!keys.has(k))
         return {
@@ -315,9 +316,9 @@ export function parsePlantInputs(id: string, raw: unknown): { ok: true; value: P
         property: 'template',
       },
     }
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+  if (!isRecord(raw))
     return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
-  const r = raw as Record<string, unknown>
+  const r = raw
   const known = new Set(t.inputs.map((i) => i.name))
   for (const k of Object.keys(r)) {
     if (!known.has(k))
@@ -419,9 +420,9 @@ export function parseRankineInputs(id: string, raw: unknown): { ok: true; value:
         property: 'template',
       },
     }
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+  if (!isRecord(raw))
     return { ok: false, error: { code: 'invalid-spec', message: 'inputs must be an object', property: 'inputs' } }
-  const r = raw as Record<string, unknown>
+  const r = raw
   const known = new Set(t.inputs.map((i) => i.name))
   for (const k of Object.keys(r)) {
     if (!known.has(k))
@@ -669,9 +670,9 @@ export function solveRankineTemplate(
  * reads). Never throws.
  */
 export function solveRankineSpec(raw: unknown): FormattedRankine | RankineFailure {
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
+  if (!isRecord(raw))
     return { ok: false, error: { code: 'invalid-spec', message: 'a spec must be a JSON object with "template"' } }
-  const r = raw as Record<string, unknown>
+  const r = raw
   const conv = r.convention ?? 'engineering'
   if (!isConvention(conv))
     return {

@@ -17,6 +17,7 @@
 //
 // Errors: SteamResult; bad input is a result error with a message, never a throw.
 // Teaching tool: not design data; defer to the applicable codes and licensed engineering practice.
+import { isRecord } from '../json.ts'
 import { CONVENTIONS, isConvention } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
@@ -533,9 +534,8 @@ function fromSteam(
 /** A whole spec ({ steamCycle } or { template: "steam-carnot", inputs }). Never throws. */
 export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCycleFailure {
   try {
-    if (typeof raw !== 'object' || raw === null || Array.isArray(raw))
-      return failure('invalid-spec', 'a spec must be a JSON object with "steamCycle" or "template"')
-    const r = raw as Record<string, unknown>
+    if (!isRecord(raw)) return failure('invalid-spec', 'a spec must be a JSON object with "steamCycle" or "template"')
+    const r = raw
     const conv = r.convention ?? 'engineering'
     if (!isConvention(conv))
       return failure(
@@ -546,9 +546,8 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
     if (r.template !== undefined) {
       if (r.template !== STEAM_CARNOT_TEMPLATE.id)
         return failure('invalid-spec', `template must be "${STEAM_CARNOT_TEMPLATE.id}" here`, 'template')
-      const inputs = (r.inputs ?? {}) as Record<string, unknown>
-      if (typeof inputs !== 'object' || inputs === null || Array.isArray(inputs))
-        return failure('invalid-spec', 'inputs must be an object', 'inputs')
+      const inputs = r.inputs ?? {}
+      if (!isRecord(inputs)) return failure('invalid-spec', 'inputs must be an object', 'inputs')
       const known = new Set<string>(STEAM_CARNOT_TEMPLATE.inputs.map((i) => i.name))
       for (const k of Object.keys(inputs))
         if (!known.has(k))
@@ -575,9 +574,9 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
       return fromSteam(solveSteamCarnot(carnot), conv, STEAM_CARNOT_TEMPLATE.id)
     }
     const c = r.steamCycle
-    if (typeof c !== 'object' || c === null || Array.isArray(c))
+    if (!isRecord(c))
       return failure('invalid-spec', 'steamCycle must be an object with system, states and steps', 'steamCycle')
-    const sc = c as Record<string, unknown>
+    const sc = c
     for (const k of Object.keys(sc))
       if (!['system', 'mass', 'states', 'steps'].includes(k))
         return failure(
@@ -597,9 +596,8 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
     const states: SteamStateGiven[] = []
     for (let i = 0; i < sc.states.length; i++) {
       const s = sc.states[i] as unknown
-      if (typeof s !== 'object' || s === null || Array.isArray(s))
-        return failure('invalid-spec', `state ${i + 1} must be an object`, `steamCycle.states.${i}`)
-      const o = s as Record<string, unknown>
+      if (!isRecord(s)) return failure('invalid-spec', `state ${i + 1} must be an object`, `steamCycle.states.${i}`)
+      const o = s
       const g: SteamStateGiven = {}
       for (const k of Object.keys(o)) {
         if (k === 'name') {
