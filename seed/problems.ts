@@ -1,7 +1,7 @@
 /**
  * The demo problem bank: invented classroom problems of our own, at least one for every
- * cycle template bank problems may use (ideal gas, steam, the vapour-compression refrigerator)
- * and one general state-and-process cycle. The numbers are plausible
+ * cycle template (ideal gas, steam plants, the calorimeter, refrigeration, steady flow, the
+ * combined cycle), a general state-and-process cycle of a gas and one of water. The numbers are plausible
  * teaching values, chosen so that every drawn variant is physical (a sweep of each problem
  * finds no failure: tests/reference/demo-problems.test.ts).
  *

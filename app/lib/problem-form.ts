@@ -70,6 +70,12 @@ export const COMMON_OUTPUT_PATHS: readonly { readonly path: string; readonly lab
   { path: 'totals.refrigerationEffect', label: 'refrigeration effect per kg (refrigerator)' },
   { path: 'totals.compressorWork', label: 'compressor work per kg (refrigerator)' },
   { path: 'totals.heatRejected', label: 'heat rejected in the condenser per kg (refrigerator)' },
+  { path: 'totals.exergyDestroyed', label: 'exergy destroyed (with a dead state)' },
+  { path: 'totals.rate.netPower', label: 'net power (with a mass flow)' },
+  { path: 'totals.quality', label: 'quality of the line steam (throttling calorimeter)' },
+  { path: 'totals.steamPerGas', label: 'steam raised per kg of gas (combined cycle)' },
+  { path: 'totals.exitVelocity', label: 'exit velocity (nozzle, diffuser, turbojet)' },
+  { path: 'totals.thrust', label: 'thrust (turbojet)' },
 ]
 
 // ---- Template and pitfall lists for the editor (built on the server, sent as data) ------
