@@ -251,8 +251,18 @@ const CONTENT_FIELDS: Record<RowTable, readonly string[]> = {
   ],
 }
 
-const TABLES: readonly RowTable[] = ['givens', 'constraints', 'finds']
 const ROW_KEY = /^(givens|constraints|finds)\.(\d{1,4})\.(.+)$/
+
+function isRowTable(x: string | undefined): x is RowTable {
+  return x === 'givens' || x === 'constraints' || x === 'finds'
+}
+
+/** A row field's form name ("finds.2.unit") read into its table, row and field, or null. */
+function matchRowKey(key: string): { table: RowTable; index: number; field: string } | null {
+  const m = ROW_KEY.exec(key)
+  const table = m?.[1]
+  return m && isRowTable(table) ? { table, index: Number(m[2]), field: m[3] ?? '' } : null
+}
 
 /** All values of a form field, joined with "," when it repeats (pitfall checkboxes). */
 function allText(form: FormData, key: string): string {
@@ -266,11 +276,10 @@ function allText(form: FormData, key: string): string {
 function readRows(form: FormData): Record<RowTable, { kept: number[]; blank: number }> {
   const seen: Record<RowTable, Set<number>> = { givens: new Set(), constraints: new Set(), finds: new Set() }
   for (const key of form.keys()) {
-    const m = ROW_KEY.exec(key)
-    if (m) seen[m[1] as RowTable].add(Number(m[2]))
+    const row = matchRowKey(key)
+    if (row) seen[row.table].add(row.index)
   }
-  const out = {} as Record<RowTable, { kept: number[]; blank: number }>
-  for (const table of TABLES) {
+  const read = (table: RowTable): { kept: number[]; blank: number } => {
     const kept: number[] = []
     let blank = 0
     for (const i of [...seen[table]].sort((a, b) => a - b)) {
@@ -279,9 +288,9 @@ function readRows(form: FormData): Record<RowTable, { kept: number[]; blank: num
       if (CONTENT_FIELDS[table].every((f) => allText(form, `${p}.${f}`).trim() === '')) blank++
       else kept.push(i)
     }
-    out[table] = { kept, blank }
+    return { kept, blank }
   }
-  return out
+  return { givens: read('givens'), constraints: read('constraints'), finds: read('finds') }
 }
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i
@@ -336,7 +345,8 @@ export function definitionFromForm(form: FormData): { draft: unknown; visibility
     else if (kind === 'choice') {
       const items = splitList(text(`${p}.rule.values`))
       const numbers = items.map(parseNumber)
-      rule = { kind, values: numbers.every((n) => n !== null) ? (numbers as number[]) : items }
+      const allNumbers = numbers.filter((n): n is number => n !== null)
+      rule = { kind, values: allNumbers.length === items.length ? allNumbers : items }
     } else if (kind === 'expression') rule = { kind, expression: trimmed(`${p}.rule.expression`) }
     else rule = { kind }
     const display = compact({ decimals: num(`${p}.display.decimals`), sigFigs: num(`${p}.display.sigFigs`) })
@@ -569,15 +579,14 @@ export function editorStateFromForm(form: FormData, add?: RowTable | { heaters: 
         values[`physics.inputs.${h[1]}.${index}.${h[3]}`] = allText(form, key)
       continue
     }
-    const m = ROW_KEY.exec(key)
-    if (!m) {
+    const row = matchRowKey(key)
+    if (!row) {
       values[key] = allText(form, key)
       continue
     }
-    const table = m[1] as RowTable
-    const index = renumber[table].get(Number(m[2]))
-    if (index === undefined || m[3] === '_remove') continue
-    values[`${table}.${index}.${m[3]}`] = allText(form, key)
+    const index = renumber[row.table].get(row.index)
+    if (index === undefined || row.field === '_remove') continue
+    values[`${row.table}.${index}.${row.field}`] = allText(form, key)
   }
   const count = (t: RowTable) => rows[t].kept.length + (add === t ? Math.max(1, rows[t].blank) + 1 : 1)
   const addHeaters = typeof add === 'object' ? add.heaters : null
@@ -607,7 +616,8 @@ const REMOVE_INTENT = /^remove:(givens|constraints|finds):(\d{1,4})$/
 /** The row a "Remove" button's value names, or null. */
 export function readRemoveIntent(intent: unknown): { table: RowTable; index: number } | null {
   const m = typeof intent === 'string' ? REMOVE_INTENT.exec(intent) : null
-  return m ? { table: m[1] as RowTable, index: Number(m[2]) } : null
+  const table = m?.[1]
+  return m && isRowTable(table) ? { table, index: Number(m[2]) } : null
 }
 
 /**
@@ -679,8 +689,8 @@ const ROW_FIELDS: Record<RowTable, readonly string[]> = {
  */
 export function fieldPathForIssue(path: string): string {
   const m = ROW_KEY.exec(path) ?? /^(givens|constraints|finds)\.(\d{1,4})()$/.exec(path)
-  if (m) {
-    const table = m[1] as RowTable
+  const table = m?.[1]
+  if (m && isRowTable(table)) {
     const rest = m[3] ?? ''
     const prefix = `${table}.${m[2]}`
     const field = ROW_FIELDS[table].find((f) => rest === f || rest.startsWith(`${f}.`))
@@ -692,7 +702,7 @@ export function fieldPathForIssue(path: string): string {
   if (path.startsWith('physics.cycle')) return 'physics.cycle'
   const heater = /^physics\.inputs\.([A-Za-z][A-Za-z0-9_]*)\.(\d{1,2})(?:\.([A-Za-z_]+))?/.exec(path)
   if (heater) {
-    const field = (HEATER_FIELDS as readonly string[]).includes(heater[3] ?? '') ? heater[3] : 'kind'
+    const field = HEATER_FIELDS.some((f) => f === heater[3]) ? heater[3] : 'kind'
     return `physics.inputs.${heater[1]}.${heater[2]}.${field}`
   }
   if (path.startsWith('physics.inputs.')) return path.split('.').slice(0, 3).join('.')
@@ -763,8 +773,8 @@ const FIELD_WORDS: Record<string, string> = {
 /** Words for the field an issue is about, for the error summary ("Given 2, step"). */
 export function describeField(path: string): string {
   const field = fieldPathForIssue(path)
-  const m = ROW_KEY.exec(field)
-  if (m) return `${TABLE_WORD[m[1] as RowTable]} ${Number(m[2]) + 1}, ${ROW_FIELD_WORDS[m[3]!] ?? m[3]}`
+  const row = matchRowKey(field)
+  if (row) return `${TABLE_WORD[row.table]} ${row.index + 1}, ${ROW_FIELD_WORDS[row.field] ?? row.field}`
   const heater = /^physics\.inputs\.[A-Za-z0-9_]+\.(\d{1,2})\.([A-Za-z_]+)$/.exec(field)
   if (heater) return `Heater ${Number(heater[1]) + 1}, ${HEATER_FIELD_WORDS[heater[2]!] ?? heater[2]}`
   if (field.startsWith('physics.inputs.')) return `Template input ${field.slice('physics.inputs.'.length)}`

@@ -20,6 +20,7 @@ import {
   upgradeDefinition,
 } from '#app/domain/authoring/definition.ts'
 import type { PitfallId } from '#app/domain/grading/pitfalls.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
 import { controlCharIssues } from '#app/lib/text-field.ts'
 
 // ---- Limits ---------------------------------------------------------------------------
@@ -552,8 +553,8 @@ const EnvelopeSchema = z.object({
 })
 
 function problemName(index: number, raw: unknown): string {
-  const o = raw && typeof raw === 'object' ? (raw as Record<string, unknown>) : {}
-  const def = o.definition && typeof o.definition === 'object' ? (o.definition as Record<string, unknown>) : {}
+  const o = isRecord(raw) ? raw : {}
+  const def = isRecord(o.definition) ? o.definition : {}
   const title =
     typeof def.title === 'string' && def.title.trim()
       ? def.title.trim()
@@ -585,9 +586,8 @@ export function readBankDocument(raw: unknown): BankReadResult {
       )
     }
   }
-  if (!value || typeof value !== 'object' || Array.isArray(value))
-    return doc('This is not a Cyclewright bank document: it should be one JSON object.')
-  const o = value as Record<string, unknown>
+  if (!isRecord(value)) return doc('This is not a Cyclewright bank document: it should be one JSON object.')
+  const o = value
   if (o.format !== BANK_FORMAT_ID)
     return doc(`This is not a Cyclewright bank document: format should be "${BANK_FORMAT_ID}".`, 'format')
   if (typeof o.version === 'number' && Number.isInteger(o.version) && o.version > BANK_FORMAT_VERSION) {
