@@ -1,5 +1,6 @@
 import { useQuery } from '@tanstack/react-query'
 import { href } from 'react-router'
+import { isKeyOf, isRecord, readJson } from '#app/lib/guards.ts'
 import { REGRADE_STATUS_LABELS, type RegradeStatus } from '#app/lib/labels.ts'
 
 /** A regrade as the page and GET /api/regrades/:id show it (app/server/regrades.server.ts RegradeProgress). */
@@ -20,12 +21,29 @@ export function isRegradeActive(status: RegradeSnapshot['status']): boolean {
   return status === 'queued' || status === 'running'
 }
 
+const isCount = (x: unknown) => typeof x === 'number' && Number.isFinite(x)
+const isNumberOrNull = (x: unknown) => x === null || isCount(x)
+
+function isRegradeSnapshot(x: unknown): x is RegradeSnapshot {
+  return (
+    isRecord(x) &&
+    isCount(x.id) &&
+    isKeyOf(REGRADE_STATUS_LABELS, x.status) &&
+    isCount(x.total) &&
+    isCount(x.done) &&
+    isCount(x.changed) &&
+    (x.error === null || typeof x.error === 'string') &&
+    isNumberOrNull(x.fromVersionNumber) &&
+    isNumberOrNull(x.toVersionNumber)
+  )
+}
+
 async function fetchRegrade(id: number): Promise<RegradeSnapshot> {
   const res = await fetch(href('/api/regrades/:regradeId', { regradeId: String(id) }), {
     headers: { Accept: 'application/json' },
   })
   if (!res.ok) throw new Error(`The regrade’s progress could not be read (${res.status}).`)
-  return (await res.json()) as RegradeSnapshot
+  return readJson(res, isRegradeSnapshot, 'The regrade’s progress')
 }
 
 function answersText(n: number) {

@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query'
 import { Form, href, useNavigation } from 'react-router'
 import type { SweepFailure } from '#app/domain/authoring/definition.ts'
+import { isKeyOf, isRecord, readJson } from '#app/lib/guards.ts'
 import { SWEEP_STATUS_LABELS, type SweepStatus } from '#app/lib/labels.ts'
 
 /** A sweep as the page and GET /api/sweeps/:id show it (app/server/sweeps.server.ts SweepView). */
@@ -35,12 +36,36 @@ function stoppedText(error: string | null): string {
   return /[.!?…]$/.test(error) ? error : `${error}.`
 }
 
+const isCount = (x: unknown) => typeof x === 'number' && Number.isFinite(x)
+const isTextOrNull = (x: unknown) => x === null || typeof x === 'string'
+
+function isSweepFailure(x: unknown): x is SweepFailure {
+  return isRecord(x) && typeof x.seed === 'number' && typeof x.code === 'string' && typeof x.message === 'string'
+}
+
+function isSweepSnapshot(x: unknown): x is SweepSnapshot {
+  return (
+    isRecord(x) &&
+    isCount(x.id) &&
+    isCount(x.versionId) &&
+    isKeyOf(SWEEP_STATUS_LABELS, x.status) &&
+    isCount(x.total) &&
+    isCount(x.checked) &&
+    isCount(x.failed) &&
+    Array.isArray(x.failures) &&
+    x.failures.every(isSweepFailure) &&
+    isTextOrNull(x.error) &&
+    typeof x.createdAt === 'string' &&
+    isTextOrNull(x.finishedAt)
+  )
+}
+
 async function fetchSweep(id: number): Promise<SweepSnapshot> {
   const res = await fetch(href('/api/sweeps/:sweepId', { sweepId: String(id) }), {
     headers: { Accept: 'application/json' },
   })
   if (!res.ok) throw new Error(`The check's progress could not be read (${res.status}).`)
-  return (await res.json()) as SweepSnapshot
+  return readJson(res, isSweepSnapshot, 'The check’s progress')
 }
 
 /**

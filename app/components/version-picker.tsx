@@ -13,7 +13,8 @@ import { useQueries } from '@tanstack/react-query'
 import { href, Link } from 'react-router'
 import { formatInZone } from '#app/lib/dates.ts'
 import { cn } from '#app/lib/cn.ts'
-import { checkWords, overrideLabel, type VersionCheck } from '#app/lib/check-words.ts'
+import { checkWords, isVersionCheck, overrideLabel, type VersionCheck } from '#app/lib/check-words.ts'
+import { isRecord, readJson } from '#app/lib/guards.ts'
 import type { BankChoice } from '#app/server/assignments.server.ts'
 
 const ICONS: Record<VersionCheck['state'], string> = { passed: '✓', failed: '✗', broken: '!', running: '…', never: '?' }
@@ -26,17 +27,18 @@ const TONES: Record<VersionCheck['state'], string> = {
 }
 
 const POLL_MS = 2000
-const CHECK_STATES: ReadonlySet<string> = new Set(Object.keys(ICONS))
 
 async function fetchCheck(versionId: number): Promise<VersionCheck> {
   const res = await fetch(href('/api/versions/:versionId/check', { versionId: String(versionId) }), {
     headers: { Accept: 'application/json' },
   })
   if (!res.ok) throw new Error(`The check's result could not be read (${res.status}).`)
-  const body = (await res.json()) as { check?: { state?: unknown } } | null
-  if (!body?.check || typeof body.check.state !== 'string' || !CHECK_STATES.has(body.check.state))
-    throw new Error('The check came back in a form this page cannot read.')
-  return body.check as VersionCheck
+  const body = await readJson(
+    res,
+    (b): b is { check: VersionCheck } => isRecord(b) && isVersionCheck(b.check),
+    'The check’s result',
+  )
+  return body.check
 }
 
 /**

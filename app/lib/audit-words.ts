@@ -10,6 +10,7 @@
  * gets a generic line built from its before and after values, so nothing is ever hidden.
  */
 import { formatInZone } from './dates.ts'
+import { isKeyOf, isRecord } from './guards.ts'
 import { DISPUTE_STATUS_LABELS, inSentence, verdictLabel } from './labels.ts'
 import { formatPoints } from './points.ts'
 
@@ -83,9 +84,7 @@ export type AuditWords = {
 
 /** Verdicts and dispute statuses in the product's one set of words (labels.ts), inside a sentence. */
 const disputeStatusText = (v: unknown): string =>
-  typeof v === 'string' && v in DISPUTE_STATUS_LABELS
-    ? inSentence(DISPUTE_STATUS_LABELS[v as keyof typeof DISPUTE_STATUS_LABELS])
-    : String(v ?? 'resolved')
+  isKeyOf(DISPUTE_STATUS_LABELS, v) ? inSentence(DISPUTE_STATUS_LABELS[v]) : String(v ?? 'resolved')
 const LATE_POLICY_WORDS: Readonly<Record<string, string>> = {
   closed: 'no late answers',
   penalty: 'late answers with a penalty',
@@ -101,9 +100,6 @@ const ROLE_WORDS: Readonly<Record<string, string>> = {
   student: 'student',
 }
 
-function isRecord(v: unknown): v is Record<string, unknown> {
-  return typeof v === 'object' && v !== null && !Array.isArray(v)
-}
 const rec = (v: unknown): Record<string, unknown> => (isRecord(v) ? v : {})
 const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null)
 const str = (v: unknown): string | null => (typeof v === 'string' ? v : null)
@@ -210,13 +206,11 @@ function kindLabel(kind: string): string {
 
 // ---- Assignment settings ------------------------------------------------------------------
 
-type ItemSummary = { versionId: number; points: number }
-
 function itemsWords(v: unknown, lookups: AuditLookups): string {
   if (!Array.isArray(v) || v.length === 0) return 'no problems'
   return v
     .map((raw, i) => {
-      const it = rec(raw) as Partial<ItemSummary>
+      const it = rec(raw)
       const version = it.versionId !== undefined ? lookups.versions?.[String(it.versionId)] : undefined
       const name = version ? `${version.title} (version ${version.number})` : 'a problem'
       return `${i + 1}. ${name}, ${plural(num(it.points) ?? 0, 'point')}`

@@ -2,6 +2,8 @@
  * A version's latest check (sweep) in words, for the assignment picker and the server's
  * refusal (issue #15). Pure: app/server/assignment-items.server.ts reads the checks.
  */
+import { isRecord } from '#app/lib/guards.ts'
+
 export type VersionCheck =
   | { state: 'passed'; total: number; checked: number; failed: 0 }
   | { state: 'failed'; total: number; checked: number; failed: number }
@@ -10,6 +12,15 @@ export type VersionCheck =
   | { state: 'never' }
 
 export const NEVER_CHECKED: VersionCheck = { state: 'never' }
+
+/** Whether a value read from JSON (the version-check route's answer) is a check result. */
+export function isVersionCheck(x: unknown): x is VersionCheck {
+  if (!isRecord(x)) return false
+  if (x.state === 'never') return true
+  const counts = [x.total, x.checked, x.failed].every((n) => typeof n === 'number' && Number.isFinite(n))
+  if (x.state === 'passed') return counts && x.failed === 0
+  return counts && (x.state === 'failed' || x.state === 'broken' || x.state === 'running')
+}
 
 type SweepRow = { status: 'queued' | 'running' | 'done' | 'failed'; total: number; checked: number; failed: number }
 

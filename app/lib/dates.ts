@@ -15,7 +15,8 @@ const LOCAL_PATTERN = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2}))?$/
 export function parseLocalDateTime(value: string, timeZone: string): Date | null {
   const m = LOCAL_PATTERN.exec(value.trim())
   if (!m) return null
-  const [y, mo, d, h, mi, s] = m.slice(1).map((x) => Number(x ?? 0)) as [number, number, number, number, number, number]
+  // The pattern makes every part but the seconds present; the defaults only satisfy the types.
+  const [y = 0, mo = 1, d = 1, h = 0, mi = 0, s = 0] = m.slice(1).map((x) => Number(x ?? 0))
   const date = new TZDate(y, mo - 1, d, h, mi, s, timeZone)
   if (Number.isNaN(date.getTime())) return null
   // A time in a spring-forward gap comes back moved; refuse it rather than guess.

@@ -15,6 +15,7 @@
 import type { Verdict } from '#app/domain/grading/index.ts'
 import type { disputeStatus, jobStatus, submissionStatus, sweepStatus } from '#app/server/db/schema.server.ts'
 import type { StudentStatus } from '#app/server/gradebook.server.ts'
+import { isKeyOf } from './guards.ts'
 
 export type { Verdict }
 export type SubmissionStatus = (typeof submissionStatus.enumValues)[number]
@@ -95,7 +96,7 @@ export function answerResultLabel(a: {
 export function verdictLabel(v: unknown): string {
   if (v === null || v === undefined) return 'Not graded'
   if (v === 'removed') return REMOVED_FIND_LABEL
-  return typeof v === 'string' && v in VERDICT_LABELS ? VERDICT_LABELS[v as Verdict] : String(v)
+  return isKeyOf(VERDICT_LABELS, v) ? VERDICT_LABELS[v] : String(v)
 }
 
 // ---- Disputes ------------------------------------------------------------------------------

@@ -51,8 +51,10 @@ export function withoutNul(text: string): string {
 }
 
 /** Every value of a form's echo without NUL characters (see withoutNul). */
-export function echoValues<T extends Record<string, string>>(values: T): T {
-  return Object.fromEntries(Object.entries(values).map(([k, v]) => [k, withoutNul(v)])) as T
+export function echoValues<K extends string>(values: Readonly<Record<K, string>>): Record<K, string> {
+  const out: Record<K, string> = { ...values }
+  for (const k in out) out[k] = withoutNul(values[k])
+  return out
 }
 
 /**

@@ -77,7 +77,7 @@ export function EditorForm({
         ref={formRef}
         onInput={(e) => {
           scheduleDraft()
-          noteTyped(e.target as HTMLInputElement)
+          if (e.target instanceof HTMLInputElement) noteTyped(e.target)
         }}
         onChange={scheduleDraft}
         className="flex min-w-0 flex-col gap-8"

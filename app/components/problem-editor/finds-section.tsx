@@ -1,7 +1,9 @@
 import { Button } from '#app/components/ui/button.tsx'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
-import { senseWarnings, type ProblemVisibility, type SenseFinding } from '#app/domain/authoring/sense.ts'
+import { senseWarnings, type SenseFinding } from '#app/domain/authoring/sense.ts'
 import { applicablePitfalls } from '#app/domain/grading/applicable-pitfalls.ts'
+import { isOneOf } from '#app/lib/guards.ts'
+import { VISIBILITIES } from '#app/lib/problem-schema.ts'
 import { COMMON_OUTPUT_PATHS, fieldId, type EditorOptions, type EditorState } from '#app/lib/problem-form.ts'
 import type { FieldKit } from './fields.tsx'
 import { FindRow } from './find-row.tsx'
@@ -17,7 +19,7 @@ function senseNotesOf(draftDefinition: ProblemDefinition | null, visibility: str
     let found: SenseFinding[] = []
     try {
       found = Array.isArray(draftDefinition.finds)
-        ? senseWarnings(draftDefinition, { visibility: visibility as ProblemVisibility })
+        ? senseWarnings(draftDefinition, { visibility: isOneOf(VISIBILITIES, visibility) ? visibility : 'private' })
         : []
     } catch {
       found = []

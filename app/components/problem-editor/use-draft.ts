@@ -1,6 +1,8 @@
 import { useCallback, useEffect, useRef, useState, type RefObject } from 'react'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
+import { isRecord } from '#app/lib/guards.ts'
 import { definitionFromForm, type FormIssue } from '#app/lib/problem-form.ts'
+import { parseDefinition } from '#app/lib/problem-schema.ts'
 
 const PREVIEW_DEBOUNCE_MS = 600
 
@@ -9,7 +11,8 @@ export interface EditorDraft {
   readonly json: string
   readonly convention: string
   readonly formIssues: FormIssue[]
-  readonly definition: ProblemDefinition
+  /** The draft as a definition once it reads as one (the problem schema); null while it does not. */
+  readonly definition: ProblemDefinition | null
   readonly visibility: string
 }
 
@@ -24,11 +27,12 @@ export function useDraft(formRef: RefObject<HTMLFormElement | null>) {
   const readDraft = useCallback(() => {
     if (!formRef.current) return
     const { draft: d, formIssues, visibility } = definitionFromForm(new FormData(formRef.current))
+    const parsed = parseDefinition(d)
     setDraft({
       json: JSON.stringify(d),
-      convention: (d as { convention?: string }).convention ?? '',
+      convention: isRecord(d) && typeof d.convention === 'string' ? d.convention : '',
       formIssues,
-      definition: d as ProblemDefinition,
+      definition: parsed.ok ? parsed.value : null,
       visibility,
     })
   }, [formRef])

@@ -1,15 +1,16 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query'
 import { href } from 'react-router'
+import { isRecord } from '#app/lib/guards.ts'
 import type { PreviewResult } from '#app/lib/preview.ts'
 import type { EditorDraft } from './use-draft.ts'
 
 function isPreviewResult(x: unknown): x is PreviewResult {
-  return (
-    typeof x === 'object' &&
-    x !== null &&
-    Array.isArray((x as PreviewResult).issues) &&
-    Array.isArray((x as PreviewResult).variants)
-  )
+  return isRecord(x) && Array.isArray(x.issues) && Array.isArray(x.variants)
+}
+
+/** The draft's JSON read back (it was written by JSON.stringify a moment ago). */
+function parsedJson(text: string): unknown {
+  return JSON.parse(text)
 }
 
 async function fetchPreview(
@@ -20,7 +21,7 @@ async function fetchPreview(
   const response = await fetch(href('/api/preview'), {
     method: 'POST',
     headers: { 'Content-Type': 'application/json', Accept: 'application/json' },
-    body: JSON.stringify({ definition: JSON.parse(definitionJson) as unknown, ...(convention ? { convention } : {}) }),
+    body: JSON.stringify({ definition: parsedJson(definitionJson), ...(convention ? { convention } : {}) }),
     signal,
   })
   let body: unknown = null
@@ -30,10 +31,7 @@ async function fetchPreview(
     // A non-JSON answer (a proxy's error page) is reported by status below.
   }
   if (!response.ok) {
-    const message =
-      typeof body === 'object' && body !== null && typeof (body as { error?: unknown }).error === 'string'
-        ? (body as { error: string }).error
-        : null
+    const message = isRecord(body) && typeof body.error === 'string' ? body.error : null
     throw new Error(message ?? `The preview could not be made just now (status ${response.status}).`)
   }
   if (!isPreviewResult(body))
