@@ -11,6 +11,7 @@
 import katex from 'katex'
 import MarkdownIt from 'markdown-it'
 import type { MarkdownIt as MarkdownItInstance, StateBlock, StateInline } from 'markdown-it'
+import { isRecord } from '../thermo/json.ts'
 import type { DrawnGiven } from './definition.ts'
 import {
   expandPlaceholders,
@@ -31,10 +32,38 @@ export const MAX_PROMPT_LENGTH = 100_000
 /** Longest single formula handed to KaTeX. */
 const MAX_TEX_LENGTH = 5_000
 
-interface RenderEnv {
+// A type alias, not an interface, so it fits markdown-it's `Env` (an index signature).
+type RenderEnv = {
   readonly givens: ReadonlyMap<string, DrawnGiven>
   readonly displays: Readonly<Record<string, DisplayRule>> | undefined
   readonly errors: { message: string }[]
+}
+
+/** Our env object as markdown-it hands it back to a rule (its types say `any`). */
+function isRenderEnv(x: unknown): x is RenderEnv {
+  return (
+    isRecord(x) &&
+    x.givens instanceof Map &&
+    (x.displays === undefined || isRecord(x.displays)) &&
+    Array.isArray(x.errors)
+  )
+}
+
+/** The env of a render call; only renderPrompt and renderGuide start one, so anything else is a bug. */
+function renderEnv(env: unknown): RenderEnv {
+  if (!isRenderEnv(env)) throw new Error("markdown-it was called without the prompt renderer's env")
+  return env
+}
+
+/** `token.meta` of a cw_math token: `{ display }`. */
+function isDisplayMath(meta: unknown): boolean {
+  return isRecord(meta) && Boolean(meta.display)
+}
+
+/** `token.meta` of a cw_placeholder token: `{ ok, message? }`. */
+function placeholderMeta(meta: unknown): { readonly ok: boolean; readonly message?: string } {
+  if (!isRecord(meta)) return { ok: false }
+  return { ok: Boolean(meta.ok), ...(typeof meta.message === 'string' ? { message: meta.message } : {}) }
 }
 
 export function escapeHtml(text: string): string {
@@ -120,7 +149,7 @@ function mathInline(state: StateInline, silent: boolean): boolean {
     // Shown as text either way; an author who meant math should hear that it never closed.
     // Pandoc's rule (common practice): "$5 and $6" is money, so a digit after the $ is no error.
     if (!silent && !/\d/.test(src[start] ?? '')) {
-      const env = state.env as unknown as RenderEnv
+      const env = renderEnv(state.env)
       env.errors.push({ message: display ? UNCLOSED_DISPLAY : UNCLOSED_INLINE })
     }
     // Both dollars of "$$" are taken as text here, so the second is not read as a new opener.
@@ -189,7 +218,7 @@ function placeholderInline(state: StateInline, silent: boolean): boolean {
   const p = readPlaceholderAt(src, pos, state.posMax)
   if (p === null) return false
   if (!silent) {
-    const env = state.env as unknown as RenderEnv
+    const env = renderEnv(state.env)
     const token = state.push('cw_placeholder', '', 0)
     if (p.kind === 'error') {
       env.errors.push({ message: `placeholder: ${p.message}` })
@@ -230,13 +259,13 @@ function createRenderer(): MarkdownItInstance {
   md.inline.ruler.after('link', 'cw_placeholder', placeholderInline)
   md.renderer.rules.cw_math = (tokens, idx, _options, env) => {
     const t = tokens[idx]!
-    return mathHtml(t.content, Boolean((t.meta as { display?: boolean } | null)?.display), env as unknown as RenderEnv)
+    return mathHtml(t.content, isDisplayMath(t.meta), renderEnv(env))
   }
   md.renderer.rules.cw_math_block = (tokens, idx, _options, env) =>
-    `<div class="math-display">${mathHtml(tokens[idx]!.content, true, env as unknown as RenderEnv)}</div>\n`
+    `<div class="math-display">${mathHtml(tokens[idx]!.content, true, renderEnv(env))}</div>\n`
   md.renderer.rules.cw_placeholder = (tokens, idx) => {
     const t = tokens[idx]!
-    const meta = t.meta as { ok: boolean; message?: string }
+    const meta = placeholderMeta(t.meta)
     return meta.ok ? escapeHtml(t.content) : errorSpan(meta.message ?? 'placeholder')
   }
   const defaultLinkOpen = md.renderer.rules.link_open
@@ -263,7 +292,7 @@ export function renderPrompt(
     }
   const env: RenderEnv = { givens: new Map(givens.map((g) => [g.name, g])), displays, errors: [] }
   try {
-    return { html: md.render(markdown, env as unknown as Record<string, unknown>), errors: env.errors }
+    return { html: md.render(markdown, env), errors: env.errors }
   } catch (e) {
     // Not expected; keeps the promise that a prompt never takes a page down.
     return {
@@ -289,13 +318,31 @@ export function headingSlug(text: string): string {
     .replace(/\s/g, '-')
 }
 
-interface GuideEnv {
+type GuideEnv = {
   readonly errors: { message: string }[]
   readonly givens: ReadonlyMap<string, DrawnGiven>
   readonly displays: undefined
   readonly links: Readonly<Record<string, string>>
   readonly dropped: boolean[]
   readonly slugs: Map<string, number>
+}
+
+function isGuideEnv(x: unknown): x is GuideEnv {
+  return (
+    isRecord(x) &&
+    x.givens instanceof Map &&
+    x.displays === undefined &&
+    Array.isArray(x.errors) &&
+    isRecord(x.links) &&
+    Array.isArray(x.dropped) &&
+    x.slugs instanceof Map
+  )
+}
+
+/** The env of a renderGuide call as markdown-it hands it back to a rule. */
+function guideEnv(env: unknown): GuideEnv {
+  if (isGuideEnv(env)) return env
+  throw new Error("markdown-it was called without the guide renderer's env")
 }
 
 /** The pages a guide may link to: "authoring.md#x" → "/help/authoring#x"; others lose their link. */
@@ -315,12 +362,12 @@ function createGuideRenderer(): MarkdownItInstance {
   g.inline.ruler.after('escape', 'cw_math', mathInline)
   g.renderer.rules.cw_math = (tokens, idx, _options, env) => {
     const t = tokens[idx]!
-    return mathHtml(t.content, Boolean((t.meta as { display?: boolean } | null)?.display), env as unknown as RenderEnv)
+    return mathHtml(t.content, isDisplayMath(t.meta), renderEnv(env))
   }
   g.renderer.rules.cw_math_block = (tokens, idx, _options, env) =>
-    `<div class="math-display">${mathHtml(tokens[idx]!.content, true, env as unknown as RenderEnv)}</div>\n`
+    `<div class="math-display">${mathHtml(tokens[idx]!.content, true, renderEnv(env))}</div>\n`
   g.renderer.rules.heading_open = (tokens, idx, options, env, self) => {
-    const e = env as unknown as GuideEnv
+    const e = guideEnv(env)
     const base = headingSlug(tokens[idx + 1]?.content ?? '') || 'section'
     const n = e.slugs.get(base) ?? 0
     e.slugs.set(base, n + 1)
@@ -328,7 +375,7 @@ function createGuideRenderer(): MarkdownItInstance {
     return self.renderToken(tokens, idx, options)
   }
   g.renderer.rules.link_open = (tokens, idx, options, env, self) => {
-    const e = env as unknown as GuideEnv
+    const e = guideEnv(env)
     const t = tokens[idx]!
     const href = guideHref(String(t.attrGet('href') ?? ''), e.links)
     e.dropped.push(href === null)
@@ -338,7 +385,7 @@ function createGuideRenderer(): MarkdownItInstance {
     return self.renderToken(tokens, idx, options)
   }
   g.renderer.rules.link_close = (tokens, idx, options, env, self) =>
-    (env as unknown as GuideEnv).dropped.pop() ? '' : self.renderToken(tokens, idx, options)
+    guideEnv(env).dropped.pop() ? '' : self.renderToken(tokens, idx, options)
   return g
 }
 
@@ -352,7 +399,7 @@ const guide = createGuideRenderer()
 export function renderGuide(markdown: string, links: Readonly<Record<string, string>>): RenderResult {
   const env: GuideEnv = { errors: [], givens: new Map(), displays: undefined, links, dropped: [], slugs: new Map() }
   try {
-    return { html: guide.render(markdown, env as unknown as Record<string, unknown>), errors: env.errors }
+    return { html: guide.render(markdown, env), errors: env.errors }
   } catch (e) {
     return {
       html: `<p>${errorSpan('the page could not be shown')}</p>`,
