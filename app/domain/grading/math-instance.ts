@@ -15,26 +15,45 @@
 //   Btu  = mathjs's BTU (International Table Btu, 1055.05585262 J), the textbook spelling.
 
 import { all, create } from 'mathjs'
-import type { MathNode, Unit } from 'mathjs'
+import type {
+  ConstantNode,
+  FactoryFunctionMap,
+  FunctionNode,
+  MathNode,
+  MathType,
+  OperatorNode,
+  OperatorNodeFn,
+  OperatorNodeOp,
+  ParenthesisNode,
+  SymbolNode,
+  Unit,
+  UnitComponent,
+} from 'mathjs'
+import { isRecord } from '#app/domain/thermo/json.ts'
 
-const math = create(all as NonNullable<typeof all>)
+/** mathjs's full factory set; its types allow `undefined` (a record lookup), so check it once. */
+function allFactories(): FactoryFunctionMap {
+  if (all === undefined) throw new Error('mathjs exports no "all" factories')
+  return all
+}
+
+const math = create(allFactories())
 
 math.createUnit('cal', { definition: '4.184 J', prefixes: 'short', aliases: ['calorie', 'calories'] })
 math.createUnit('Btu', { definition: '1 BTU' })
 
-/** A mathjs Unit constructor that also accepts `null` (a "valueless" unit such as kJ). */
-interface UnitClass {
-  new (value: number | null, name: string): Unit
-  isValuelessUnit(name: string): boolean
-}
-
 /** What the grading code may use from mathjs, captured before the lock-down. */
 export interface MathCore {
   readonly parse: (text: string) => MathNode
-  readonly Unit: UnitClass
+  /** Whether `name` (with any prefix) is a unit mathjs knows, e.g. "kJ" or "degC". */
+  readonly isValuelessUnit: (name: string) => boolean
+  /** The valueless unit `name` ("kJ" without a number), as `new Unit(null, name)`; throws for a non-unit. */
+  readonly valuelessUnit: (name: string) => Unit
   readonly add: (a: Unit, b: Unit) => Unit
   readonly subtract: (a: Unit, b: Unit) => Unit
   readonly multiply: (a: number | Unit, b: number | Unit) => number | Unit
+  /** A number times a unit (12 and kJ give 12 kJ): always a Unit. */
+  readonly scale: (n: number, u: Unit) => Unit
   readonly divide: (a: number | Unit, b: number | Unit) => number | Unit
   readonly pow: (a: Unit, b: number) => Unit
   readonly unaryMinus: (a: Unit) => Unit
@@ -43,23 +62,86 @@ export interface MathCore {
   readonly sin: (a: Unit) => number
   readonly cos: (a: Unit) => number
   readonly tan: (a: Unit) => number
+  /** The number `q` is in the valueless unit `unit`: mathjs's `q.toNumber(unit)`, which takes a Unit at run time. */
+  readonly numberIn: (q: Unit, unit: Unit) => number
+  // mathjs's own node guards (they check the node's class, as its `type` does)
+  readonly isConstantNode: (x: unknown) => x is ConstantNode
+  readonly isSymbolNode: (x: unknown) => x is SymbolNode
+  readonly isParenthesisNode: (x: unknown) => x is ParenthesisNode
+  readonly isOperatorNode: (x: unknown) => x is OperatorNode<OperatorNodeOp, OperatorNodeFn>
+  readonly isFunctionNode: (x: unknown) => x is FunctionNode
+}
+
+// The functions themselves, taken from the instance before the lock-down below replaces
+// parse (and the others in DISABLED_MATHJS_FUNCTIONS) with throwing stubs.
+const { add, subtract, multiply, divide, pow, unaryMinus, sqrt, abs, sin, cos, tan, unit, isUnit } = math
+const { isConstantNode, isSymbolNode, isParenthesisNode, isOperatorNode, isFunctionNode } = math
+const parse = math.parse.bind(math)
+const isValuelessUnit = math.Unit.isValuelessUnit.bind(math.Unit)
+
+/** mathjs's result types are wide (any MathType); the grading code only ever meets numbers and units. */
+function numberOrUnit(x: MathType): number | Unit {
+  if (typeof x === 'number' || isUnit(x)) return x
+  throw new TypeError('mathjs gave neither a number nor a unit')
+}
+
+function onlyUnit(x: MathType): Unit {
+  if (isUnit(x)) return x
+  throw new TypeError('mathjs gave no unit')
 }
 
 const captured: MathCore = Object.freeze({
-  parse: math.parse.bind(math) as unknown as MathCore['parse'],
-  Unit: math.Unit as unknown as UnitClass,
-  add: math.add as unknown as MathCore['add'],
-  subtract: math.subtract as unknown as MathCore['subtract'],
-  multiply: math.multiply as unknown as MathCore['multiply'],
-  divide: math.divide as unknown as MathCore['divide'],
-  pow: math.pow as unknown as MathCore['pow'],
-  unaryMinus: math.unaryMinus as unknown as MathCore['unaryMinus'],
-  sqrt: math.sqrt as unknown as MathCore['sqrt'],
-  abs: math.abs as unknown as MathCore['abs'],
-  sin: math.sin as unknown as MathCore['sin'],
-  cos: math.cos as unknown as MathCore['cos'],
-  tan: math.tan as unknown as MathCore['tan'],
+  parse: (text: string): MathNode => parse(text),
+  isValuelessUnit: (name: string): boolean => isValuelessUnit(name),
+  valuelessUnit: (name: string): Unit => {
+    // math.unit(name) is `new Unit(null, name)` for a valueless unit name; refuse anything else
+    if (!isValuelessUnit(name)) throw new TypeError(`"${name}" is not a unit`)
+    return unit(name)
+  },
+  add: (a: Unit, b: Unit): Unit => add(a, b),
+  subtract: (a: Unit, b: Unit): Unit => subtract(a, b),
+  multiply: (a: number | Unit, b: number | Unit): number | Unit => numberOrUnit(multiply(a, b)),
+  scale: (n: number, u: Unit): Unit => onlyUnit(multiply(n, u)),
+  divide: (a: number | Unit, b: number | Unit): number | Unit => numberOrUnit(divide(a, b)),
+  pow: (a: Unit, b: number): Unit => onlyUnit(pow(a, b)),
+  unaryMinus: (a: Unit): Unit => unaryMinus(a),
+  sqrt: (a: Unit): Unit => sqrt(a),
+  abs: (a: Unit): Unit => abs(a),
+  sin: (a: Unit): number => sin(a),
+  cos: (a: Unit): number => cos(a),
+  tan: (a: Unit): number => tan(a),
+  numberIn: (q: Unit, target: Unit): number => q.to(target).toNumber(),
+  isConstantNode,
+  isSymbolNode,
+  isParenthesisNode,
+  isOperatorNode,
+  isFunctionNode,
 })
+
+/**
+ * Whether `u` is a unit without a number ("kJ", "kJ/(kg K)"). mathjs types `Unit.value` as a
+ * number, but a valueless unit holds null there.
+ */
+export function isValueless(u: Unit): boolean {
+  const value: unknown = u.value
+  return value === null
+}
+
+/**
+ * The name of a unit component's prefix ("k" in kJ, "" for none). mathjs types `prefix` as a
+ * string, but at run time it is the prefix object { name, value, scientific }.
+ */
+export function prefixName(c: UnitComponent): string {
+  const prefix: unknown = c.prefix
+  if (typeof prefix === 'string') return prefix
+  return isRecord(prefix) && typeof prefix.name === 'string' ? prefix.name : ''
+}
+
+/** The factor of a unit component's prefix (1000 for k, 1 for none); see prefixName for why. */
+export function prefixValue(c: UnitComponent): number {
+  const prefix: unknown = c.prefix
+  return isRecord(prefix) ? Number(prefix.value) : NaN
+}
 
 /** The functions overridden with throwing stubs (those that exist in this mathjs version). */
 export const DISABLED_MATHJS_FUNCTIONS: readonly string[] = [
@@ -104,11 +186,12 @@ class DisabledFunctionError extends Error {
 export const mathCore: MathCore = captured
 
 /**
- * The locked instance itself, exported ONLY so tests can prove the lock-down
- * (restricted-math.test.ts). Production code uses `mathCore`.
+ * A member of the locked instance itself (a disabled function, say), exported ONLY so tests
+ * can prove the lock-down (restricted-math.test.ts). Production code uses `mathCore`.
  */
-export const lockedMathInstanceForTests: { readonly [name: string]: unknown } = math as unknown as {
-  readonly [name: string]: unknown
+export function lockedMathMemberForTests(name: string): unknown {
+  const member: unknown = Reflect.get(math, name)
+  return member
 }
 
 /** Whether `name` is a function or constant of mathjs (used to avoid quoting such names back). */

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest'
-import { DISABLED_MATHJS_FUNCTIONS, lockedMathInstanceForTests, mathCore } from './math-instance.ts'
+import { DISABLED_MATHJS_FUNCTIONS, lockedMathMemberForTests, mathCore } from './math-instance.ts'
 import {
   compileRestrictedExpression,
   evaluateRestrictedExpression,
@@ -24,15 +24,15 @@ describe('the locked mathjs instance (mathjs docs, "Security": disable the risky
     'chain',
   ])('%s is overridden with a function that throws', (name) => {
     expect(DISABLED_MATHJS_FUNCTIONS).toContain(name)
-    const fn = lockedMathInstanceForTests[name]
+    const fn = lockedMathMemberForTests(name)
     expect(typeof fn).toBe('function')
     expect(() => (fn as (...a: unknown[]) => unknown)('1 + 1')).toThrow(/disabled/)
   })
 
   test('import cannot be used to undo the lock', () => {
-    const imp = lockedMathInstanceForTests['import'] as (o: unknown, opts: unknown) => unknown
+    const imp = lockedMathMemberForTests('import') as (o: unknown, opts: unknown) => unknown
     expect(() => imp({ evaluate: () => 1 }, { override: true })).toThrow()
-    expect(() => (lockedMathInstanceForTests['evaluate'] as (s: string) => unknown)('1')).toThrow()
+    expect(() => (lockedMathMemberForTests('evaluate') as (s: string) => unknown)('1')).toThrow()
   })
 
   test('the captured parse still works (it is what the reader uses)', () => {
@@ -92,7 +92,7 @@ describe('evaluateRestrictedExpression: what is allowed', () => {
   })
 
   test('plain number and mathjs Unit scope values', () => {
-    const u = mathCore.multiply(3, new mathCore.Unit(null, 'kPa'))
+    const u = mathCore.multiply(3, mathCore.valuelessUnit('kPa'))
     const r = evaluateRestrictedExpression('k*p', { k: 2, p: u as never }, { expectedUnit: 'Pa' })
     expect(r.ok && r.kind === 'quantity' ? r.value : NaN).toBeCloseTo(6000, 9)
   })

@@ -15,7 +15,8 @@
 // No function here throws to its caller: failures come back as { ok: false, error }.
 
 import type { MathNode, Unit } from 'mathjs'
-import { mathCore } from './math-instance.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
+import { isValueless, mathCore, prefixName } from './math-instance.ts'
 import { normalizeTypography } from './typography.ts'
 
 /** Default and hard upper limits for the length of a text, in characters (UTF-16 units). */
@@ -86,24 +87,14 @@ function isDangerousName(name: string): boolean {
   return !IDENTIFIER.test(name) || name in Object.prototype || name === 'prototype' || name === 'constructor'
 }
 
-interface UnitComponentLike {
-  readonly unit: { readonly name: string; readonly offset: number }
-  readonly prefix: { readonly name: string }
-  readonly power: number
-}
-
-function componentsOf(unit: Unit): readonly UnitComponentLike[] {
-  return unit.units as unknown as readonly UnitComponentLike[]
-}
-
 /** True when `name` is a mathjs unit name (with prefix) we accept: not an offset unit with a prefix. */
 export function isKnownUnitName(name: string): boolean {
   if (isDangerousName(name)) return false
   try {
-    if (!mathCore.Unit.isValuelessUnit(name)) return false
-    const u = new mathCore.Unit(null, name)
-    const c = componentsOf(u)[0]
-    return !(c && c.unit.offset !== 0 && c.prefix.name !== '')
+    if (!mathCore.isValuelessUnit(name)) return false
+    const u = mathCore.valuelessUnit(name)
+    const c = u.units[0]
+    return !(c && c.unit.offset !== 0 && prefixName(c) !== '')
   } catch {
     return false
   }
@@ -116,16 +107,16 @@ export function isKnownUnitName(name: string): boolean {
 export function valuelessUnit(name: string, temperatureDifference: boolean): Unit {
   if (!isKnownUnitName(name)) throw new RestrictedError('unknown-symbol', name)
   const mapped = temperatureDifference ? (OFFSET_FREE[name] ?? name) : name
-  return viaMath(() => new mathCore.Unit(null, mapped))
+  return viaMath(() => mathCore.valuelessUnit(mapped))
 }
 
 export function isUnit(v: unknown): v is Unit {
-  return typeof v === 'object' && v !== null && (v as { type?: unknown }).type === 'Unit'
+  return typeof v === 'object' && v !== null && 'type' in v && v.type === 'Unit'
 }
 
 /** True for a Unit carrying no dimensions at all (e.g. kJ/J). */
 function isDimensionlessUnit(u: Unit): boolean {
-  return (u.dimensions as readonly number[]).every((d) => d === 0)
+  return u.dimensions.every((d) => d === 0)
 }
 
 // ---------------------------------------------------------------------------------------
@@ -144,17 +135,6 @@ export interface TreeFacts {
   readonly usesUnits: boolean
 }
 
-type AnyNode = MathNode & {
-  readonly type: string
-  readonly args?: readonly MathNode[]
-  readonly fn?: unknown
-  readonly op?: string
-  readonly name?: string
-  readonly value?: unknown
-  readonly content?: MathNode
-  readonly isPercentage?: boolean
-}
-
 const ALLOWED_OPERATOR_FNS = new Set(['add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus'])
 const ALLOWED_FUNCTION_SET: ReadonlySet<string> = new Set(ALLOWED_FUNCTIONS)
 const MAX_TREE_DEPTH = 200
@@ -162,73 +142,75 @@ const MAX_TREE_DEPTH = 200
 /** Walks the parse tree and throws RestrictedError at the first node that is not allowed. */
 export function validateTree(root: MathNode, rules: TreeRules): TreeFacts {
   let usesUnits = false
-  const visit = (raw: MathNode, depth: number, inExponent: boolean): void => {
+  const visit = (node: MathNode, depth: number, inExponent: boolean): void => {
     if (depth > MAX_TREE_DEPTH) throw new RestrictedError('unsupported-syntax')
-    const node = raw as AnyNode
+    if (mathCore.isConstantNode(node)) {
+      const value: unknown = node.value // typed a number, but true, null and the like parse too
+      if (typeof value !== 'number') throw new RestrictedError('not-a-number')
+      if (!Number.isFinite(value) || Math.abs(value) > MAX_MAGNITUDE) {
+        throw new RestrictedError('out-of-range')
+      }
+      if (rules.unitsOnly && !inExponent) throw new RestrictedError('unsupported-syntax')
+      return
+    }
+    if (mathCore.isSymbolNode(node)) {
+      const name = String(node.name)
+      if (isDangerousName(name)) throw new RestrictedError('unknown-symbol')
+      if (!rules.unitsOnly && rules.variables.has(name)) return
+      if (!rules.unitsOnly && rules.allowConstants && Object.hasOwn(ALLOWED_CONSTANTS, name)) return
+      if (isKnownUnitName(name)) {
+        if (inExponent) throw new RestrictedError('bad-exponent')
+        usesUnits = true
+        return
+      }
+      if (ALLOWED_FUNCTION_SET.has(name)) throw new RestrictedError('function-not-allowed')
+      throw new RestrictedError('unknown-symbol', name)
+    }
+    if (mathCore.isParenthesisNode(node)) {
+      const content: MathNode | undefined = node.content
+      if (!content) throw new RestrictedError('syntax')
+      visit(content, depth + 1, inExponent)
+      return
+    }
+    if (mathCore.isOperatorNode(node)) {
+      const fn = String(node.fn)
+      const args: readonly MathNode[] = node.args ?? []
+      if (!ALLOWED_OPERATOR_FNS.has(fn) || ('isPercentage' in node && node.isPercentage === true)) {
+        throw new RestrictedError('unsupported-syntax')
+      }
+      if (rules.unitsOnly) {
+        if (fn === 'add' || fn === 'subtract' || fn === 'unaryPlus') throw new RestrictedError('unsupported-syntax')
+        if (fn === 'unaryMinus' && !inExponent) throw new RestrictedError('unsupported-syntax')
+        if (fn === 'divide' && isConstantOne(args[0])) {
+          visit(argAt(args, 1), depth + 1, inExponent)
+          return
+        }
+      }
+      if (fn === 'pow') {
+        if (args.length !== 2) throw new RestrictedError('syntax')
+        visit(argAt(args, 0), depth + 1, inExponent)
+        visit(argAt(args, 1), depth + 1, true)
+        return
+      }
+      for (const a of args) visit(a, depth + 1, inExponent)
+      return
+    }
+    if (mathCore.isFunctionNode(node)) {
+      // typed as a SymbolNode, but "(f)(2)" or "a.b(1)" parse with another node there
+      const fnNode: unknown = node.fn
+      if (!mathCore.isSymbolNode(fnNode) || rules.unitsOnly) {
+        throw new RestrictedError('function-not-allowed')
+      }
+      const name = String(fnNode.name)
+      if (!ALLOWED_FUNCTION_SET.has(name) || rules.variables.has(name)) {
+        throw new RestrictedError('function-not-allowed')
+      }
+      const args: readonly MathNode[] = node.args ?? []
+      if (args.length !== 1) throw new RestrictedError('wrong-argument-count')
+      visit(argAt(args, 0), depth + 1, inExponent)
+      return
+    }
     switch (node.type) {
-      case 'ConstantNode': {
-        if (typeof node.value !== 'number') throw new RestrictedError('not-a-number')
-        if (!Number.isFinite(node.value) || Math.abs(node.value) > MAX_MAGNITUDE) {
-          throw new RestrictedError('out-of-range')
-        }
-        if (rules.unitsOnly && !inExponent) throw new RestrictedError('unsupported-syntax')
-        return
-      }
-      case 'SymbolNode': {
-        const name = String(node.name)
-        if (isDangerousName(name)) throw new RestrictedError('unknown-symbol')
-        if (!rules.unitsOnly && rules.variables.has(name)) return
-        if (!rules.unitsOnly && rules.allowConstants && Object.hasOwn(ALLOWED_CONSTANTS, name)) return
-        if (isKnownUnitName(name)) {
-          if (inExponent) throw new RestrictedError('bad-exponent')
-          usesUnits = true
-          return
-        }
-        if (ALLOWED_FUNCTION_SET.has(name)) throw new RestrictedError('function-not-allowed')
-        throw new RestrictedError('unknown-symbol', name)
-      }
-      case 'ParenthesisNode': {
-        if (!node.content) throw new RestrictedError('syntax')
-        visit(node.content, depth + 1, inExponent)
-        return
-      }
-      case 'OperatorNode': {
-        const fn = String(node.fn)
-        const args = node.args ?? []
-        if (!ALLOWED_OPERATOR_FNS.has(fn) || node.isPercentage === true) {
-          throw new RestrictedError('unsupported-syntax')
-        }
-        if (rules.unitsOnly) {
-          if (fn === 'add' || fn === 'subtract' || fn === 'unaryPlus') throw new RestrictedError('unsupported-syntax')
-          if (fn === 'unaryMinus' && !inExponent) throw new RestrictedError('unsupported-syntax')
-          if (fn === 'divide' && isConstantOne(args[0])) {
-            visit(args[1] as MathNode, depth + 1, inExponent)
-            return
-          }
-        }
-        if (fn === 'pow') {
-          if (args.length !== 2) throw new RestrictedError('syntax')
-          visit(args[0] as MathNode, depth + 1, inExponent)
-          visit(args[1] as MathNode, depth + 1, true)
-          return
-        }
-        for (const a of args) visit(a, depth + 1, inExponent)
-        return
-      }
-      case 'FunctionNode': {
-        const fnNode = node.fn as AnyNode | undefined
-        if (!fnNode || fnNode.type !== 'SymbolNode' || rules.unitsOnly) {
-          throw new RestrictedError('function-not-allowed')
-        }
-        const name = String(fnNode.name)
-        if (!ALLOWED_FUNCTION_SET.has(name) || rules.variables.has(name)) {
-          throw new RestrictedError('function-not-allowed')
-        }
-        const args = node.args ?? []
-        if (args.length !== 1) throw new RestrictedError('wrong-argument-count')
-        visit(args[0] as MathNode, depth + 1, inExponent)
-        return
-      }
       case 'AssignmentNode':
       case 'FunctionAssignmentNode':
         throw new RestrictedError('assignment')
@@ -247,8 +229,14 @@ export function validateTree(root: MathNode, rules: TreeRules): TreeFacts {
 }
 
 function isConstantOne(node: MathNode | undefined): boolean {
-  const n = node as AnyNode | undefined
-  return n?.type === 'ConstantNode' && n.value === 1
+  return mathCore.isConstantNode(node) && node.value === 1
+}
+
+/** The i-th argument of an operator or function (the validator checked the count). */
+function argAt(args: readonly MathNode[], i: number): MathNode {
+  const a = args[i]
+  if (a === undefined) throw new RestrictedError('syntax')
+  return a
 }
 
 // ---------------------------------------------------------------------------------------
@@ -284,27 +272,23 @@ function checkValue(v: unknown): Value {
 
 /** Evaluates a tree that validateTree() accepted. Throws RestrictedError. */
 export function evaluateTree(root: MathNode, ctx: EvalContext): Value {
-  const ev = (raw: MathNode): Value => {
-    const node = raw as AnyNode
-    switch (node.type) {
-      case 'ConstantNode':
-        return checkNumber(node.value as number)
-      case 'SymbolNode': {
-        const name = String(node.name)
-        const fromScope = ctx.scope.get(name)
-        if (fromScope !== undefined) return fromScope
-        if (ctx.allowConstants && Object.hasOwn(ALLOWED_CONSTANTS, name)) return ALLOWED_CONSTANTS[name] as number
-        return valuelessUnit(name, ctx.temperatureDifference)
-      }
-      case 'ParenthesisNode':
-        return ev(node.content as MathNode)
-      case 'OperatorNode':
-        return evalOperator(String(node.fn), (node.args ?? []).map(ev), node.args ?? [])
-      case 'FunctionNode':
-        return evalFunction(String((node.fn as AnyNode).name), ev((node.args ?? [])[0] as MathNode))
-      default:
-        throw new RestrictedError('unsupported-syntax')
+  const ev = (node: MathNode): Value => {
+    if (mathCore.isConstantNode(node)) return checkNumber(node.value)
+    if (mathCore.isSymbolNode(node)) {
+      const name = String(node.name)
+      const fromScope = ctx.scope.get(name)
+      if (fromScope !== undefined) return fromScope
+      const constant = ALLOWED_CONSTANTS[name]
+      if (ctx.allowConstants && Object.hasOwn(ALLOWED_CONSTANTS, name) && constant !== undefined) return constant
+      return valuelessUnit(name, ctx.temperatureDifference)
     }
+    if (mathCore.isParenthesisNode(node)) return ev(node.content)
+    if (mathCore.isOperatorNode(node)) {
+      const args: readonly MathNode[] = node.args ?? []
+      return evalOperator(String(node.fn), args.map(ev), args)
+    }
+    if (mathCore.isFunctionNode(node)) return evalFunction(String(node.fn.name), ev(argAt(node.args ?? [], 0)))
+    throw new RestrictedError('unsupported-syntax')
   }
   return checkValue(ev(root))
 }
@@ -320,7 +304,7 @@ function viaMath<T>(op: () => T): T {
 }
 
 function requireValued(u: Unit): Unit {
-  if ((u.value as unknown) === null) throw new RestrictedError('no-number')
+  if (isValueless(u)) throw new RestrictedError('no-number')
   return u
 }
 
@@ -356,7 +340,7 @@ function evalOperator(fn: string, args: Value[], nodes: readonly MathNode[]): Va
       if (typeof b === 'number' && b === 0) throw new RestrictedError('out-of-range')
       if (isUnit(b) && b.value === 0) throw new RestrictedError('out-of-range')
       // "1/s" in a unit string: keep it valueless (s^-1), as mathjs would give the number 1 a value
-      if (a === 1 && isUnit(b) && (b.value as unknown) === null && isConstantOne(nodes[0])) {
+      if (a === 1 && isUnit(b) && isValueless(b) && isConstantOne(nodes[0])) {
         return checkValue(viaMath(() => mathCore.pow(b, -1)))
       }
       return checkValue(viaMath(() => mathCore.divide(a, b)))
@@ -380,7 +364,7 @@ function evalFunction(name: string, x: Value): Value {
         if (x < 0) throw new RestrictedError('not-real')
         return Math.sqrt(x)
       }
-      if ((x.value as unknown) !== null && x.value < 0) throw new RestrictedError('not-real')
+      if (!isValueless(x) && x.value < 0) throw new RestrictedError('not-real')
       return checkValue(viaMath(() => mathCore.sqrt(x)))
     case 'abs':
       return typeof x === 'number' ? Math.abs(x) : checkValue(viaMath(() => mathCore.abs(requireValued(x))))
@@ -413,7 +397,7 @@ function evalFunction(name: string, x: Value): Value {
 /** exp/log need a pure number; a unit that cancels (kJ/J) is allowed. */
 function asPureNumber(x: Value): number {
   if (typeof x === 'number') return x
-  if (isDimensionlessUnit(x) && (x.value as unknown) !== null) return checkNumber(x.value)
+  if (isDimensionlessUnit(x) && !isValueless(x)) return checkNumber(x.value)
   throw new RestrictedError('incompatible-units')
 }
 
@@ -548,8 +532,8 @@ function clampMaxLength(n: number | undefined): number {
 function toScopeValue(v: unknown, temperatureDifference: boolean): Value {
   if (typeof v === 'number') return checkNumber(v)
   if (isUnit(v)) return checkValue(v)
-  if (typeof v === 'object' && v !== null) {
-    const { value, unit } = v as { value?: unknown; unit?: unknown }
+  if (isRecord(v)) {
+    const { value, unit } = v
     if (typeof value === 'number' && typeof unit === 'string') {
       const u = parseUnitString(unit, temperatureDifference)
       if (u === null) throw new RestrictedError('invalid-variable')
@@ -574,7 +558,7 @@ export function parseUnitString(text: string, temperatureDifference: boolean): U
       maxLength: MAX_EXPRESSION_LENGTH,
     })
     const v = evaluateTree(parsed.tree, { scope: new Map(), allowConstants: false, temperatureDifference })
-    if (!isUnit(v) || (v.value as unknown) !== null) return null
+    if (!isUnit(v) || !isValueless(v)) return null
     return v
   } catch {
     return null
@@ -622,7 +606,7 @@ export function compileRestrictedExpression(
             if (scope === null || typeof scope !== 'object' || !Object.hasOwn(scope, name)) {
               return fail('invalid-variable')
             }
-            map.set(name, toScopeValue((scope as Record<string, unknown>)[name], temperatureDifference))
+            map.set(name, toScopeValue(scope[name], temperatureDifference))
           }
           const v = evaluateTree(parsed.tree, { scope: map, allowConstants, temperatureDifference })
           return describeValue(v, expected)
@@ -642,7 +626,7 @@ function describeValue(v: Value, expected: Unit | 1 | undefined): RestrictedExpr
     if (expected === undefined || expected === 1) return { ok: true, kind: 'number', value: v }
     return fail('wrong-dimension')
   }
-  if ((v.value as unknown) === null) return fail('no-number')
+  if (isValueless(v)) return fail('no-number')
   if (isDimensionlessUnit(v)) {
     const n = checkNumber(v.value)
     if (expected === undefined || expected === 1) return { ok: true, kind: 'number', value: n }
@@ -654,7 +638,7 @@ function describeValue(v: Value, expected: Unit | 1 | undefined): RestrictedExpr
     return { ok: true, kind: 'quantity', value: checkNumber(v.toNumber()), unit: v.formatUnits(), siValue, quantity: v }
   }
   if (expected === 1 || !v.equalBase(expected)) return fail('wrong-dimension')
-  const value = checkNumber(v.toNumber(expected as unknown as string))
+  const value = checkNumber(mathCore.numberIn(v, expected))
   return { ok: true, kind: 'quantity', value, unit: expected.formatUnits(), siValue, quantity: v }
 }
 
