@@ -28,6 +28,12 @@ export function parseForm<S extends z.ZodType>(formData: FormData, schema: S): F
 export const noFieldErrors: FieldErrors = {}
 export const noValues: Record<string, string> = {}
 
+/** A form field's text, or '' when it is missing or a file. */
+export function formText(form: FormData, name: string): string {
+  const v = form.get(name)
+  return typeof v === 'string' ? v : ''
+}
+
 /**
  * The body of a form post, or a 400 page when it is not a form (another content type, or a
  * broken body): a request sent by hand must not end in a server error.

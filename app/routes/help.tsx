@@ -9,6 +9,7 @@ import authoring from '../../docs/authoring.md?raw'
 import bankFormat from '../../docs/bank-format.md?raw'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
 import { renderGuide } from '#app/domain/authoring/prompt.ts'
+import { isKeyOf } from '#app/lib/guards.ts'
 import { requireBankUser } from '#app/server/auth.server.ts'
 import type { Route } from './+types/help'
 
@@ -27,11 +28,11 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.title ?
 export async function loader({ request, params }: Route.LoaderArgs) {
   await requireBankUser(request)
   const page = params.page
-  if (!Object.hasOwn(GUIDES, page))
+  if (!isKeyOf(GUIDES, page))
     throw data('There is no such help page. The guides are “Writing a problem” and “The bank document”.', {
       status: 404,
     })
-  const g = GUIDES[page as keyof typeof GUIDES]
+  const g = GUIDES[page]
   return { title: g.title, html: renderGuide(g.markdown, LINKS).html }
 }
 

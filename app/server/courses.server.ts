@@ -515,6 +515,9 @@ export async function courseSettingsPage(database: Database, courseId: number) {
 export const CONFIRM_CONVENTION_MESSAGE =
   'Students have already answered in this course. Tick the box to confirm that you want to change the sign convention.'
 
+/** The settings a course's page can change, in the order the audit lists them. */
+const COURSE_SETTING_KEYS = ['code', 'title', 'timeZone', 'signConvention'] as const
+
 /** Saves an instructor's changes to the course; writes a course-settings-changed audit row with what changed. */
 export async function updateCourseSettings(
   database: Db,
@@ -558,7 +561,7 @@ export async function updateCourseSettings(
         timeZone: input.timeZone,
         signConvention: input.signConvention,
       }
-      const changed = (Object.keys(next) as (keyof typeof next)[]).filter((k) => next[k] !== current[k])
+      const changed = COURSE_SETTING_KEYS.filter((k) => next[k] !== current[k])
       if (changed.length === 0) return { ok: true as const, changed: [] }
       await tx.update(courses).set(next).where(eq(courses.id, opts.courseId))
       await tx.insert(auditEvents).values({

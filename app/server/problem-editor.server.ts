@@ -52,9 +52,8 @@ const FAMILY_LABELS: Readonly<Record<TemplateFamily, string>> = {
 
 /** The templates bank problems may use (the catalog's `bank` flag), grouped by family. */
 export function editorOptions() {
-  const families = Object.keys(FAMILY_LABELS) as TemplateFamily[]
-  const groups = families.map((family) => ({
-    label: FAMILY_LABELS[family],
+  const groups = Object.entries(FAMILY_LABELS).map(([family, label]) => ({
+    label,
     templates: TEMPLATE_CATALOG.filter((e) => e.bank && e.family === family),
   }))
   return buildEditorOptions(groups, PITFALLS)

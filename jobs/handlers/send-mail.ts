@@ -18,7 +18,7 @@ export type SendMailDeps = {
 }
 
 function smtpResponseCode(e: unknown): number | undefined {
-  const code = (e as { responseCode?: unknown } | null)?.responseCode
+  const code = typeof e === 'object' && e !== null && 'responseCode' in e ? e.responseCode : undefined
   return typeof code === 'number' ? code : undefined
 }
 

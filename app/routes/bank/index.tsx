@@ -4,6 +4,7 @@ import { Notice } from '#app/components/ui/notice.tsx'
 import { DIFFICULTIES, LEVELS } from '#app/domain/authoring/definition.ts'
 import { cycleChoices } from '#app/domain/thermo/catalog.ts'
 import { difficultyLabel, levelLabel, visibilityLabel } from '#app/lib/bank-labels.ts'
+import { isKeyOf } from '#app/lib/guards.ts'
 import { requireBankUser } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { bankViewerFor, listBankProblems, readBankSearch, type BankRow } from '#app/server/problems.server.ts'
@@ -19,8 +20,9 @@ export async function loader({ request }: Route.LoaderArgs) {
     // A page number beyond use has no field to mark: the error page says what to change.
     if (read.problem.param === 'page') throw data(read.problem.message, { status: 400 })
     // A search that cannot be run: the box keeps the words, marked, and no list is shown.
+    const noRows: BankRow[] = []
     const refused = {
-      rows: [] as BankRow[],
+      rows: noRows,
       total: 0,
       page: 1,
       pageSize: read.query.pageSize,
@@ -35,12 +37,13 @@ export async function loader({ request }: Route.LoaderArgs) {
   const viewer = await bankViewerFor(db(), user)
   const result = await listBankProblems(db(), viewer, query)
   const imported = Number(url.searchParams.get('imported') ?? '0')
+  const searchError: string | null = null
   return {
     ...result,
     query,
     imported: Number.isInteger(imported) && imported > 0 ? imported : 0,
     deleted: url.searchParams.get('deleted') === '1',
-    searchError: null as string | null,
+    searchError,
     cycles: cycleChoices(),
   }
 }
@@ -293,9 +296,9 @@ export default function BankRoute({ loaderData }: Route.ComponentProps) {
                     <td className="px-3 py-2">{cycleLabel(r.cycle)}</td>
                     <td className="px-3 py-2 text-muted">{r.topics.length > 0 ? r.topics.join(', ') : '—'}</td>
                     <td className="px-3 py-2">
-                      {difficultyLabel[r.difficulty as keyof typeof difficultyLabel] ?? r.difficulty}
+                      {isKeyOf(difficultyLabel, r.difficulty) ? difficultyLabel[r.difficulty] : r.difficulty}
                       <div className="text-xs text-muted">
-                        {levelLabel[r.level as keyof typeof levelLabel] ?? r.level}
+                        {isKeyOf(levelLabel, r.level) ? levelLabel[r.level] : r.level}
                       </div>
                     </td>
                     <td className="px-3 py-2">

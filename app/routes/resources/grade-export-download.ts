@@ -1,8 +1,9 @@
 import { data } from 'react-router'
+import { isOneOf } from '#app/lib/guards.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
 import { db } from '#app/server/db/client.server.ts'
-import { getExportDownload, TERM_EXPORT_FILES, type TermExportFile } from '#app/server/exports.server.ts'
+import { getExportDownload, TERM_EXPORT_FILES } from '#app/server/exports.server.ts'
 import type { Route } from './+types/grade-export-download'
 
 /**
@@ -15,13 +16,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   await requireAdmin(request)
   const exportId = requireIdParam(params.exportId, 'export')
   const asked = new URL(request.url).searchParams.get('file')
-  if (asked !== null && !(TERM_EXPORT_FILES as readonly string[]).includes(asked)) {
+  if (asked !== null && !isOneOf(TERM_EXPORT_FILES, asked)) {
     throw data(
       'An export has two files: ?file=assignments for the assignment rows, ?file=course-totals for the course totals.',
       { status: 404 },
     )
   }
-  const file = await getExportDownload(db(), exportId, asked as TermExportFile | null)
+  const file = await getExportDownload(db(), exportId, isOneOf(TERM_EXPORT_FILES, asked) ? asked : null)
   if (!file)
     throw data('There is no finished export with that number and file. It may still be building: see Grade exports.', {
       status: 404,

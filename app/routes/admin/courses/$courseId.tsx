@@ -6,7 +6,7 @@ import { Notice } from '#app/components/ui/notice.tsx'
 import { formatCalendarDate } from '#app/lib/calendar-dates.ts'
 import { conventionText } from '#app/lib/conventions.ts'
 import { formatInZone } from '#app/lib/dates.ts'
-import { type FieldErrors, noValues, parseForm, readFormData } from '#app/lib/form.ts'
+import { type FieldErrors, noFieldErrors, noValues, parseForm, readFormData } from '#app/lib/form.ts'
 import { requireIdParam } from '#app/lib/params.ts'
 import { requireAdmin } from '#app/server/auth.server.ts'
 import {
@@ -46,7 +46,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     const done = await assignInstructor(db(), { actorId: user.id, courseId, email: form.value.email })
     if (!done.ok)
       return data({ done: null, fieldErrors: done.fieldErrors, values: formValues(formData) }, { status: 400 })
-    return { done, fieldErrors: {} as FieldErrors, values: noValues }
+    return { done, fieldErrors: noFieldErrors, values: noValues }
   } catch (e) {
     console.error('Assigning an instructor failed:', e)
     return data(
@@ -54,7 +54,7 @@ export async function action({ request, params }: Route.ActionArgs) {
         done: null,
         fieldErrors: {
           email: 'The invitation could not be sent just now. Please try again in a minute.',
-        } as FieldErrors,
+        } satisfies FieldErrors,
         values: formValues(formData),
       },
       { status: 503 },

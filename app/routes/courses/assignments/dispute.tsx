@@ -22,6 +22,7 @@ import { getStudentProblem } from '#app/server/submissions.server.ts'
 import type { Route } from './+types/dispute'
 import { formatScore } from '#app/lib/points.ts'
 import { verdictLabel } from '#app/lib/labels.ts'
+import { formText } from '#app/lib/form.ts'
 
 export const REASON_MIN = DISPUTE_REASON_MIN
 export const REASON_MAX = DISPUTE_REASON_MAX
@@ -130,7 +131,7 @@ export async function action({ request, params }: Route.ActionArgs) {
       formError: 'The upload could not be read. Type your reason again, choose the file again, and send.',
     })
   }
-  const typedReason = typeof form.get('reason') === 'string' ? (form.get('reason') as string) : ''
+  const typedReason = formText(form, 'reason')
   const entry = form.get('file')
   const file = entry instanceof File && entry.size > 0 ? entry : null
   const fileNotKept = file ? `Your file “${file.name}” was not kept: choose the file again before sending.` : null

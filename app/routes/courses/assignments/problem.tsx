@@ -7,6 +7,7 @@ import { z } from 'zod'
 import { AnswerForm, type AnswerFormMode } from '#app/components/answer-form.tsx'
 import { CycleDiagrams } from '#app/components/cycle-diagrams.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { isRecord, readJson } from '#app/lib/guards.ts'
 import { ReceiptBox, ReceiptList } from '#app/components/receipt.tsx'
 import { Notice } from '#app/components/ui/notice.tsx'
 import { AnswerKeyTable } from '#app/components/answer-key-table.tsx'
@@ -179,7 +180,20 @@ async function fetchMyResults(assignmentId: number, position: number): Promise<M
     },
   )
   if (!res.ok) throw new Error(`Your results could not be read just now (${res.status}).`)
-  return (await res.json()) as MyResults
+  return readJson(res, isMyResults, 'Your results')
+}
+
+/** Whether a refreshed body has the shape of a student's results (their lists, counts and flag). */
+function isMyResults(x: unknown): x is MyResults {
+  return (
+    isRecord(x) &&
+    Array.isArray(x.finds) &&
+    Array.isArray(x.receipts) &&
+    typeof x.pending === 'boolean' &&
+    typeof x.score === 'number' &&
+    typeof x.points === 'number' &&
+    isRecord(x.lastTyped)
+  )
 }
 
 export default function ProblemRoute({ loaderData, actionData }: Route.ComponentProps) {
@@ -231,7 +245,7 @@ function ProblemPage({
 
   const results = staff ? problem.results : query.data
   // A submission made in place (fetcher) is newer than one posted without JavaScript.
-  const submitted = (fetcher.data ?? actionData) as SubmitActionData | undefined
+  const submitted: SubmitActionData | undefined = fetcher.data ?? actionData
   const shownReceiptId = submitted?.receipt?.submissionId ?? receiptId
   const receipt =
     (shownReceiptId !== null ? results.receipts.find((r) => r.submissionId === shownReceiptId) : undefined) ??

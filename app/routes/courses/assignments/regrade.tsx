@@ -12,7 +12,7 @@ import { db } from '#app/server/db/client.server.ts'
 import { applyRegrade, loadRegradePage, RegradeError, type ToleranceFields } from '#app/server/regrades.server.ts'
 import type { Route } from './+types/regrade'
 import { formatPoints } from '#app/lib/points.ts'
-import { readFormData } from '#app/lib/form.ts'
+import { type FieldErrors, readFormData } from '#app/lib/form.ts'
 import { inSentence, verdictLabel } from '#app/lib/labels.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [
@@ -35,10 +35,13 @@ function typedOverrides(entries: Iterable<[string, FormDataEntryValue]>): Record
   const typed = new Map<string, ToleranceFields>()
   for (const [key, raw] of entries) {
     const m = /^(kind|value|unit)\.(.{1,64})$/.exec(key)
-    if (!m || typeof raw !== 'string') continue
-    const entry = typed.get(m[2]!) ?? { kind: '', value: '', unit: '' }
-    entry[m[1] as keyof ToleranceFields] = raw.slice(0, 100)
-    typed.set(m[2]!, entry)
+    const field = m?.[1]
+    const find = m?.[2]
+    if (find === undefined || typeof raw !== 'string') continue
+    if (field !== 'kind' && field !== 'value' && field !== 'unit') continue
+    const entry = typed.get(find) ?? { kind: '', value: '', unit: '' }
+    entry[field] = raw.slice(0, 100)
+    typed.set(find, entry)
   }
   return typed.size > 0 ? Object.fromEntries(typed) : undefined
 }
@@ -78,7 +81,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     return data(
       {
         formError: 'Choose a version to regrade to.',
-        fieldErrors: { version: 'Choose a version.' } as Record<string, string>,
+        fieldErrors: { version: 'Choose a version.' } satisfies FieldErrors,
         values,
       },
       { status: 400 },

@@ -127,9 +127,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   })
   if (!result.ok) {
     const values = { decision: v.decision, newScore: v.newScore, comment: v.comment }
+    const fieldErrors: FieldErrors = result.fieldErrors
     return data(
       {
-        fieldErrors: result.fieldErrors as FieldErrors,
+        fieldErrors,
         formError: result.formError ?? 'Check the fields marked below.',
         values,
       },

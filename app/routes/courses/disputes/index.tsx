@@ -6,9 +6,9 @@ import {
   DISPUTE_STATUS_WORDS,
   DisputeStatusBadge,
   disputeOutcomeText,
-  type DisputeStatusValue,
 } from '#app/components/dispute-status.tsx'
 import { GeneralErrorBoundary } from '#app/components/error-boundary.tsx'
+import { isKeyOf } from '#app/lib/guards.ts'
 import { Button } from '#app/components/ui/button.tsx'
 import { formatInZone } from '#app/lib/dates.ts'
 import { requireIdParam } from '#app/lib/params.ts'
@@ -311,7 +311,9 @@ function StudentRow({ row: r, courseId, timeZone }: { row: Row; courseId: number
       </th>
       <td className="px-4 py-2">
         <DisputeStatusBadge status={r.status} />
-        <span className="block text-xs text-muted">{DISPUTE_STATUS_MEANING[r.status as DisputeStatusValue]}</span>
+        <span className="block text-xs text-muted">
+          {isKeyOf(DISPUTE_STATUS_MEANING, r.status) ? DISPUTE_STATUS_MEANING[r.status] : null}
+        </span>
       </td>
       <td className="px-4 py-2">
         {disputeOutcomeText(r) ?? '—'}

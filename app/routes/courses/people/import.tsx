@@ -21,6 +21,7 @@ import { importRoster, previewRoster, type PlannedRow, type RosterPlan } from '#
 import type { Route } from './+types/import'
 import { Table, TableHead } from '#app/components/ui/table.tsx'
 import { TextareaField } from '#app/components/ui/textarea-field.tsx'
+import { formText } from '#app/lib/form.ts'
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `Import a class list · ${data.course.code} · Cyclewright` : 'Import a class list · Cyclewright' },
@@ -81,9 +82,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
   const intent = form.get('intent') === 'import' ? 'import' : 'preview'
   const file = form.get('file')
-  const pasted = typeof form.get('csv') === 'string' ? (form.get('csv') as string) : ''
+  const pasted = formText(form, 'csv')
   let csv = pasted
-  let fileName = typeof form.get('fileName') === 'string' ? (form.get('fileName') as string).slice(0, 200) : ''
+  let fileName = formText(form, 'fileName').slice(0, 200)
   let note: string | null = null
   if (intent === 'preview' && file instanceof File && file.size > 0) {
     if (file.size > MAX_ROSTER_BYTES) return reply({ formError: tooLarge() }, 413)
