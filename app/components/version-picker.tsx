@@ -32,7 +32,14 @@ async function fetchCheck(versionId: number): Promise<VersionCheck> {
   const res = await fetch(href('/api/versions/:versionId/check', { versionId: String(versionId) }), {
     headers: { Accept: 'application/json' },
   })
-  if (!res.ok) throw new Error(`The check's result could not be read (${res.status}).`)
+  if (!res.ok) {
+    // The route says why in a sentence (a version whose document no longer reads is a 422).
+    const said = await res.json().then(
+      (b: unknown) => (isRecord(b) && typeof b.error === 'string' ? b.error : null),
+      () => null,
+    )
+    throw new Error(said ?? `The check's result could not be read (${res.status}).`)
+  }
   const body = await readJson(
     res,
     (b): b is { check: VersionCheck } => isRecord(b) && isVersionCheck(b.check),
@@ -45,7 +52,10 @@ async function fetchCheck(versionId: number): Promise<VersionCheck> {
  * The latest check of each offered version: as served, except that a check running then is
  * polled until it ends (or its result cannot be read). Pickers of the same form share the polls.
  */
-function useLiveChecks(choices: readonly BankChoice[]): (version: { id: number; check: VersionCheck }) => VersionCheck {
+function useLiveChecks(choices: readonly BankChoice[]): {
+  checkOf: (version: { id: number; check: VersionCheck }) => VersionCheck
+  problemOf: (version: { id: number }) => string | null
+} {
   const running = choices.flatMap((c) => c.versions).filter((v) => v.check.state === 'running')
   const results = useQueries({
     queries: running.map((v) => ({
@@ -58,18 +68,28 @@ function useLiveChecks(choices: readonly BankChoice[]): (version: { id: number; 
     })),
   })
   const live = new Map(running.map((v, i) => [v.id, results[i]?.data ?? v.check]))
-  return (v) => live.get(v.id) ?? v.check
+  const problems = new Map(running.map((v, i) => [v.id, results[i]?.error?.message ?? null]))
+  return { checkOf: (v) => live.get(v.id) ?? v.check, problemOf: (v) => problems.get(v.id) ?? null }
 }
 
 /**
  * A version's check; one that was running when the page was served is a polite live region
  * (its result is announced when it arrives) and, without JavaScript, says to reload.
  */
-function LiveCheckBadge({ served, check }: { served: VersionCheck; check: VersionCheck }) {
+function LiveCheckBadge({
+  served,
+  check,
+  problem,
+}: {
+  served: VersionCheck
+  check: VersionCheck
+  problem: string | null
+}) {
   if (served.state !== 'running') return <CheckBadge check={check} />
   return (
     <span aria-live="polite">
       <CheckBadge check={check} />
+      {problem !== null ? <span className="ml-1 text-xs text-warn">{problem}</span> : null}
       <noscript>
         <span className="ml-1 text-xs text-muted">checking — reload to see the result</span>
       </noscript>
@@ -116,7 +136,7 @@ export function VersionPicker({
   invalid,
   describedBy,
 }: VersionPickerProps) {
-  const checkOf = useLiveChecks(choices)
+  const { checkOf, problemOf } = useLiveChecks(choices)
   const chosen = choices.flatMap((c) => c.versions.map((v) => ({ c, v }))).find((x) => String(x.v.id) === value)
   const chosenCheck = chosen ? checkOf(chosen.v) : undefined
   const needsOverride = chosen && chosenCheck?.state !== 'passed' && String(chosen.v.id) !== storedVersionId
@@ -127,7 +147,7 @@ export function VersionPicker({
           {chosen ? (
             <span>
               {chosen.c.title}, version {chosen.v.number}{' '}
-              <LiveCheckBadge served={chosen.v.check} check={chosenCheck!} />{' '}
+              <LiveCheckBadge served={chosen.v.check} check={chosenCheck!} problem={problemOf(chosen.v)} />{' '}
               <span className="text-accent underline">Change</span>
             </span>
           ) : (
@@ -167,7 +187,7 @@ export function VersionPicker({
                         {j === 0 ? ' (newest)' : ''}, saved {formatInZone(ver.savedAt, timeZone, { withZone: false })}{' '}
                         by {ver.author}
                         <span className="block">
-                          <LiveCheckBadge served={ver.check} check={checkOf(ver)} />
+                          <LiveCheckBadge served={ver.check} check={checkOf(ver)} problem={problemOf(ver)} />
                         </span>
                       </span>
                     </label>
