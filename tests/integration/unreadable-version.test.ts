@@ -13,7 +13,7 @@ import { createRoutesStub } from 'react-router'
 import { sql } from 'drizzle-orm'
 import { afterAll, describe, expect, test } from 'vitest'
 import ProblemRoute, { action as problemAction, loader as problemLoader } from '#app/routes/bank/$problemId.tsx'
-import { loader as editLoader } from '#app/routes/bank/edit.tsx'
+import { action as editAction, loader as editLoader } from '#app/routes/bank/edit.tsx'
 import { loader as versionCheckLoader } from '#app/routes/resources/api-version-check.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { problemVersions } from '#app/server/db/schema.server.ts'
@@ -136,6 +136,27 @@ describe('the bank problem page with an unreadable version', () => {
     const page = await editLoader(args(getRequest(`${s.path}/edit`, await loginAs(s.owner)), s.params))
     expect(page.startedFrom).toEqual({ unreadable: 2, from: 1 })
     expect(page.state.values['title']).toBe('Otto with a broken version')
+  })
+
+  test('saving from the editor gives the problem a newest version that reads again', async () => {
+    const s = await problemWithBrokenNewest()
+    const cookie = await loginAs(s.owner)
+    const page = await editLoader(args(getRequest(`${s.path}/edit`, cookie), s.params))
+    expect(page.startedFrom).toEqual({ unreadable: 2, from: 1 })
+    // The form as served (version 1's fields), sent back unchanged with Save.
+    const out = await settle(
+      editAction(args(formRequest(`${s.path}/edit`, { ...page.state.values, intent: 'save' }, cookie), s.params)),
+    )
+    const saved = 'value' in out ? out.value : out.thrown
+    expect(saved).toBeInstanceOf(Response)
+    expect((saved as Response).headers.get('Location')).toMatch(new RegExp(`^/bank/${s.problemId}(\\?|$)`))
+    // The newest version now reads: the page shows it with its variants, the editor starts from it.
+    const after = await problemLoader(args(getRequest(s.path, cookie), s.params))
+    expect(after.version.definition).not.toBeNull()
+    expect(after.preview?.variants.every((v) => v.ok)).toBe(true)
+    const again = await editLoader(args(getRequest(`${s.path}/edit`, cookie), s.params))
+    expect(again.startedFrom).toBeNull()
+    expect(again.problem.versionNumber).toBe(after.version.number)
   })
 
   test('the editor of a problem with no readable version is a 422 page with a message', async () => {
