@@ -50,6 +50,7 @@ export function tryReadDefinition(json: unknown, versionId?: number): StoredDefi
   // The document as stored (upgraded), not the check's normalised copy (trimmed, topics in
   // lower case), so that pages and grades see exactly what was saved, as before this check.
   // The check passed, so it has the shape of the schema's output, which is ProblemDefinition.
+  // eslint-disable-next-line @typescript-eslint/consistent-type-assertions -- what the check just passed, kept as stored
   if (parsed.ok) return { ok: true, definition: upgraded as ProblemDefinition }
   if (!reported.has(versionId) && reported.size < REPORTED_LIMIT) {
     reported.add(versionId)
