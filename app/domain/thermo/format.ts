@@ -7,6 +7,7 @@ import { P_REF, T_REF } from './constants.ts'
 import { CONVENTIONS, workIn } from './conventions.ts'
 import type { Convention, ConventionStatement } from './conventions.ts'
 import type { CycleSolution, SolveError, SolveWarning } from './cycle.ts'
+import { isRecord } from './json.ts'
 import type { Quantity } from './units.ts'
 
 const q = (value: number, unit: string): Quantity => ({ value, unit })
@@ -271,20 +272,27 @@ export interface FormattedError {
  * 'totals.netWork', 'totals.efficiency', 'states.3.T', 'steps.2.q', 'steps.2.total.w',
  * 'totals.total.heatIn', 'steps.2.entropyGenerated', 'totals.rate.netPower'. Returns null when the path names nothing numeric.
  */
+/** An object (a list too) with the field, own or inherited, as `x.field` would read it. */
+function hasField<K extends string>(x: unknown, field: K): x is Record<K, unknown> {
+  return typeof x === 'object' && x !== null && field in x
+}
+
 export function readQuantity(sol: object, path: string): number | null {
   const parts = path.split('.')
   let cur: unknown = sol
   for (let i = 0; i < parts.length; i++) {
     const key = parts[i]!
-    if (cur === null || typeof cur !== 'object') return null
     if (Array.isArray(cur)) {
+      const list: unknown[] = cur
       const idx = Number(key)
-      cur = Number.isInteger(idx) && idx >= 1 ? cur[idx - 1] : (cur as { name?: string }[]).find((x) => x?.name === key)
+      cur = Number.isInteger(idx) && idx >= 1 ? list[idx - 1] : list.find((x) => hasField(x, 'name') && x.name === key)
+    } else if (isRecord(cur)) {
+      cur = cur[key]
     } else {
-      cur = (cur as Record<string, unknown>)[key]
+      return null
     }
   }
   if (typeof cur === 'number') return cur
-  if (cur && typeof cur === 'object' && typeof (cur as Quantity).value === 'number') return (cur as Quantity).value
+  if (hasField(cur, 'value') && typeof cur.value === 'number') return cur.value
   return null
 }

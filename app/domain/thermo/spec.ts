@@ -4,6 +4,7 @@
  * Formats are documented in docs/spec-format.md.
  */
 import { R_MOLAR } from './constants.ts'
+import { isOneOf } from './json.ts'
 import type { CycleSpec, StateSpec, StepSpec, ProcessKind } from './cycle.ts'
 import { PROCESS_KINDS } from './cycle.ts'
 import type { Slips } from './slips.ts'
@@ -186,8 +187,8 @@ function parseCpPolynomial(raw: Record<string, unknown>, basis: Basis | undefine
       )
     scale = own === 'mole' ? scale / M : scale * M
   }
-  const coeffs: number[] = []
-  for (const key of ['a', 'b', 'c', 'd'] as const) {
+  const coeffs: [number, number, number, number] = [0, 0, 0, 0]
+  for (const [i, key] of (['a', 'b', 'c', 'd'] as const).entries()) {
     const x = poly[key] ?? (key === 'a' ? undefined : 0)
     if (typeof x !== 'number' || !Number.isFinite(x))
       return err(
@@ -195,7 +196,7 @@ function parseCpPolynomial(raw: Record<string, unknown>, basis: Basis | undefine
         `${where}.${key} must be a number (cp = a + bT + cT² + dT³, T in K, cp in ${poly.unit})${key === 'a' ? '' : '; leave it out for 0'}`,
         `${where}.${key}`,
       )
-    coeffs.push(x * scale)
+    coeffs[i] = x * scale
   }
   const range: number[] = []
   for (const key of ['Tmin', 'Tmax'] as const) {
@@ -224,7 +225,7 @@ function parseCpPolynomial(raw: Record<string, unknown>, basis: Basis | undefine
   }
   const g = polynomialCpGas({
     basis: target,
-    coeffs: coeffs as unknown as [number, number, number, number],
+    coeffs,
     Tmin: range[0]!,
     Tmax: range[1]!,
     R,
@@ -316,6 +317,15 @@ function readNumber(raw: unknown, where: string): Parsed<number> {
   return { ok: true, value: r.value.value }
 }
 
+/** Step fields copied from the JSON unchecked, for the solver to read. */
+const PASSED_ON = ['device', 'path', 'expectHeat', 'label', 'side'] as const
+type PassedOn = (typeof PASSED_ON)[number]
+
+/** A step as read: process and numbers checked and in SI, the PASSED_ON fields as written. */
+type StepDraft = { -readonly [K in Exclude<keyof StepSpec, PassedOn>]?: StepSpec[K] } & {
+  process: ProcessKind
+} & { [K in PassedOn]?: unknown }
+
 /**
  * A general cycle from JSON. States and steps are numbered from 1 in the JSON; step k joins
  * state k to k+1 and the last step joins back to state 1. Regenerator partners are step numbers.
@@ -381,10 +391,10 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
     const s: unknown = raw.steps[k]
     const where = `steps[${k + 1}]`
     if (!isObj(s)) return err('invalid-spec', `${where} must be an object`, where)
-    if (typeof s.process !== 'string' || !PROCESS_KINDS.includes(s.process as ProcessKind)) {
+    if (!isOneOf(PROCESS_KINDS, s.process)) {
       return err('invalid-spec', `${where}.process must be one of ${PROCESS_KINDS.join(', ')}`, `${where}.process`)
     }
-    const out: Record<string, unknown> = { process: s.process }
+    const out: StepDraft = { process: s.process }
     for (const key of [
       'n',
       'efficiency',
@@ -406,12 +416,11 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
       out.volumeRatio = 1 / r.value
     }
     if (s.partner !== undefined) {
-      if (!Number.isInteger(s.partner))
+      if (typeof s.partner !== 'number' || !Number.isInteger(s.partner))
         return err('invalid-spec', `${where}.partner must be a step number`, `${where}.partner`)
-      out.partner = (s.partner as number) - 1
+      out.partner = s.partner - 1
     }
-    for (const key of ['device', 'path', 'expectHeat', 'label', 'side'] as const)
-      if (s[key] !== undefined) out[key] = s[key]
+    for (const key of PASSED_ON) if (s[key] !== undefined) out[key] = s[key]
     if (s.boundaryTemperature !== undefined) {
       const r = readValue(s.boundaryTemperature, ['temperature'], `${where}.boundaryTemperature`, slips)
       if (!r.ok) return r
@@ -422,7 +431,10 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
       if (!r.ok) return r
       Object.assign(out, r.value)
     }
-    steps.push(out as unknown as StepSpec)
+    // The one assertion left: the PASSED_ON fields go to the solver as the author wrote them (it
+    // checks side; device, path, expectHeat and label it reads as they are). Checking them here
+    // would change which message a bad spec gets, so their type is taken on trust.
+    steps.push(out as StepSpec)
   }
   let reservoirs: { hot?: number; cold?: number } | undefined
   if (isObj(raw.reservoirs)) {

@@ -17,7 +17,7 @@
 //
 // Errors: SteamResult; bad input is a result error with a message, never a throw.
 // Teaching tool: not design data; defer to the applicable codes and licensed engineering practice.
-import { isRecord } from '../json.ts'
+import { isOneOf, isRecord } from '../json.ts'
 import { CONVENTIONS, isConvention } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
@@ -98,7 +98,20 @@ export interface SteamCycleResult {
 
 const KEYS = ['p', 'T', 'x', 'v', 'h', 's'] as const
 type Key = (typeof KEYS)[number]
-const CONSTANT: Record<SteamProcess, Key> = { isobaric: 'p', isochoric: 'v', isothermal: 'T', isentropic: 's' }
+/** The property a process holds constant: always one a solved state has as a number (not x, null off the dome). */
+type CarriedKey = 'p' | 'v' | 'T' | 's'
+const CONSTANT: Record<SteamProcess, CarriedKey> = { isobaric: 'p', isochoric: 'v', isothermal: 'T', isentropic: 's' }
+
+/**
+ * A cycle as read from a spec, before solve checks it: the system and each step's process are
+ * whatever the author wrote until solve has checked them (a SteamCycleInput is one too).
+ */
+interface SteamCycleDraft {
+  system: unknown
+  mass?: number
+  states: SteamStateGiven[]
+  steps: { process: unknown; label?: string }[]
+}
 
 function bad(message: string, property?: string): SteamResult<never> {
   const e: SteamError = { code: 'invalid-input', message }
@@ -123,6 +136,10 @@ const close = (a: number, b: number) => Math.abs(a - b) <= 1e-7 * Math.max(Math.
 
 /** Solve states and steps. Never throws. */
 export function solveSteamCycle(input: SteamCycleInput): SteamResult<SteamCycleResult> {
+  return solveDraft(input)
+}
+
+function solveDraft(input: SteamCycleDraft): SteamResult<SteamCycleResult> {
   try {
     return solve(input)
   } catch (e) {
@@ -133,10 +150,11 @@ export function solveSteamCycle(input: SteamCycleInput): SteamResult<SteamCycleR
   }
 }
 
-function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
+function solve(input: SteamCycleDraft): SteamResult<SteamCycleResult> {
   if (typeof input !== 'object' || input === null)
     return bad('the steam cycle must be an object with system, states and steps')
-  if (input.system !== 'closed' && input.system !== 'flow')
+  const system = input.system
+  if (system !== 'closed' && system !== 'flow')
     return bad('system must be "closed" (piston-cylinder) or "flow" (steady-flow devices)', 'system')
   const mass = input.mass ?? 1
   if (typeof mass !== 'number' || !Number.isFinite(mass) || !(mass > 0))
@@ -150,10 +168,12 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
       `with ${n} states give ${n - 1} steps (an open path) or ${n} (a cycle back to the first state); got ${input.steps.length}`,
       'steps',
     )
+  const processes: SteamProcess[] = []
   for (let i = 0; i < input.steps.length; i++) {
     const st = input.steps[i]
-    if (!st || !STEAM_PROCESSES.includes(st.process))
+    if (!st || !isOneOf(STEAM_PROCESSES, st.process))
       return bad(`step ${i + 1}: process must be one of ${STEAM_PROCESSES.join(', ')}`, `steps.${i}.process`)
+    processes.push(st.process)
   }
   const names = input.states.map((s, i) =>
     s && typeof s.name === 'string' && s.name.trim() ? s.name.trim() : String(i + 1),
@@ -206,7 +226,7 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
     }
     for (let k = 0; k < input.steps.length; k++) {
       const [a, b] = stepEnds(k)
-      const key = CONSTANT[input.steps[k]!.process]
+      const key = CONSTANT[processes[k]!]
       for (const [src, dst] of [
         [a, b],
         [b, a],
@@ -214,7 +234,7 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
         const s = solved[src]
         const g = given[dst]!
         if (s && !solved[dst] && g[key] === undefined && Object.keys(g).length < 2) {
-          g[key] = s[key] as number
+          g[key] = s[key]
           progress = true
         }
       }
@@ -233,9 +253,9 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
     const [a, b] = stepEnds(k)
     const A = states[a]!
     const B = states[b]!
-    const proc = input.steps[k]!.process
+    const proc = processes[k]!
     const key = CONSTANT[proc]
-    if (!close(A[key] as number, B[key] as number))
+    if (!close(A[key], B[key]))
       return bad(
         `step ${k + 1} (${names[a]} → ${names[b]}) is ${proc}, but ${key} changes from ${A[key]} to ${B[key]}: the given states do not lie on one ${proc} process`,
         `steps.${k}.process`,
@@ -245,7 +265,7 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
     const dS = B.s - A.s
     let q: number
     let w: number
-    if (input.system === 'closed') {
+    if (system === 'closed') {
       if (proc === 'isobaric') w = A.p * (B.v - A.v)
       else if (proc === 'isochoric') w = 0
       else if (proc === 'isothermal') w = A.T * dS - dU
@@ -275,7 +295,7 @@ function solve(input: SteamCycleInput): SteamResult<SteamCycleResult> {
   const heatIn = steps.reduce((x, s) => x + Math.max(s.q, 0), 0)
   const heatOut = -steps.reduce((x, s) => x + Math.min(s.q, 0), 0)
   return ok({
-    system: input.system,
+    system,
     mass,
     isCycle,
     states,
@@ -595,7 +615,7 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
     if (!Array.isArray(sc.steps)) return failure('invalid-spec', 'steamCycle.steps must be a list', 'steamCycle.steps')
     const states: SteamStateGiven[] = []
     for (let i = 0; i < sc.states.length; i++) {
-      const s = sc.states[i] as unknown
+      const s: unknown = sc.states[i]
       if (!isRecord(s)) return failure('invalid-spec', `state ${i + 1} must be an object`, `steamCycle.states.${i}`)
       const o = s
       const g: SteamStateGiven = {}
@@ -606,13 +626,13 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
           g.name = o.name
           continue
         }
-        if (!(KEYS as readonly string[]).includes(k))
+        if (!isOneOf(KEYS, k))
           return failure(
             'invalid-spec',
             `state ${i + 1}: unknown property "${k}"; a state takes name and two of p, T, x, v, h, s`,
             `steamCycle.states.${i}.${k}`,
           )
-        const key = k as Key
+        const key = k
         const raw = o[key]
         const v = readValue(
           typeof raw === 'number' && key === 'x' ? String(raw) : raw,
@@ -624,18 +644,20 @@ export function solveSteamCycleSpec(raw: unknown): FormattedSteamCycle | SteamCy
       }
       states.push(g)
     }
-    const steps: SteamStepGiven[] = []
+    // process and system go to the solver as written: it checks them (same messages as for a
+    // SteamCycleInput). A list given as a step is an object here too, one without a process.
+    const steps: SteamCycleDraft['steps'] = []
     for (let i = 0; i < sc.steps.length; i++) {
-      const s = sc.steps[i] as Record<string, unknown> | null
+      const s: unknown = sc.steps[i]
       if (typeof s !== 'object' || s === null)
         return failure('invalid-spec', `step ${i + 1} must be an object with a process`, `steamCycle.steps.${i}`)
-      const step: SteamStepGiven = { process: s.process as SteamProcess }
-      if (typeof s.label === 'string') step.label = s.label
+      const step: SteamCycleDraft['steps'][number] = { process: 'process' in s ? s.process : undefined }
+      if ('label' in s && typeof s.label === 'string') step.label = s.label
       steps.push(step)
     }
-    const input: SteamCycleInput = { system: sc.system as 'closed', states, steps }
+    const input: SteamCycleDraft = { system: sc.system, states, steps }
     if (mass !== undefined) input.mass = mass
-    const res = solveSteamCycle(input)
+    const res = solveDraft(input)
     if (!res.ok && res.error.property)
       return failure(res.error.code, res.error.message, `steamCycle.${res.error.property}`)
     return fromSteam(res, conv, null)

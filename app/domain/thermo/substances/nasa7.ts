@@ -10,6 +10,11 @@ import { DRY_AIR_COMPOSITION, NASA7_SPECIES } from './nasa7-data.ts'
 import type { Nasa7Species, Nasa7SpeciesId } from './nasa7-data.ts'
 
 type Coeffs = readonly [number, number, number, number, number, number, number]
+/** The same seven, filled in place while a mixture is summed. */
+type MutableCoeffs = [number, number, number, number, number, number, number]
+
+/** The species table looked up by any id: an id not in it gives undefined. */
+const SPECIES_BY_ID: Readonly<Record<string, Nasa7Species | undefined>> = NASA7_SPECIES
 
 export interface Nasa7Set {
   readonly id: string
@@ -48,15 +53,15 @@ export function sOverR(c: Nasa7Set, T: number): number {
  * shipped here: all split at 1000 K).
  */
 export function mixNasa7(id: string, label: string, parts: Readonly<Record<string, number>>, source: string): Nasa7Set {
-  const low = [0, 0, 0, 0, 0, 0, 0]
-  const high = [0, 0, 0, 0, 0, 0, 0]
+  const low: MutableCoeffs = [0, 0, 0, 0, 0, 0, 0]
+  const high: MutableCoeffs = [0, 0, 0, 0, 0, 0, 0]
   let M = 0
   let Tmin = 0
   let Tmax = Infinity
   let Tmid = NaN
   let sum = 0
   for (const [sid, x] of Object.entries(parts)) {
-    const sp = (NASA7_SPECIES as Record<string, Nasa7Species>)[sid]
+    const sp = SPECIES_BY_ID[sid]
     if (!sp) throw new Error(`unknown NASA species ${sid}`) // programmer error: data tables only
     if (Number.isNaN(Tmid)) Tmid = sp.Tmid
     if (sp.Tmid !== Tmid) throw new Error('NASA mixture needs a common mid temperature')
@@ -80,8 +85,8 @@ export function mixNasa7(id: string, label: string, parts: Readonly<Record<strin
     Tmin,
     Tmid,
     Tmax,
-    low: low as unknown as Coeffs,
-    high: high as unknown as Coeffs,
+    low,
+    high,
     source,
   }
 }
