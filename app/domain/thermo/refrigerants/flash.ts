@@ -29,7 +29,7 @@ function densityIn(m: Model, T: number, p: number, lo: number, hi: number, guess
 
 const outOfRange = <T>(m: Model, what: string): FluidResult<T> => fail('out-of-range', `${m.data.id}: ${what}`)
 
-function checkTP(m: Model, T: number, p: number): FluidResult<null> | null {
+function checkTP(m: Model, T: number, p: number): FluidResult<never> | null {
   const d = m.data
   if (!Number.isFinite(T) || !Number.isFinite(p))
     return fail('invalid-input', `${d.id}: temperature and pressure must be numbers`)
@@ -54,7 +54,7 @@ const rhoMax = (m: Model) => 1.6 * ancillary(m.data.rhoL, m.data.Ttriple) * m.da
 
 function stateTP(m: Model, T: number, p: number): FluidResult<FluidState> {
   const bad = checkTP(m, T, p)
-  if (bad) return bad as FluidResult<FluidState>
+  if (bad) return bad
   const d = m.data
   const top = rhoMax(m)
   pressureAndSlope(m, T, top, buf)
@@ -139,7 +139,7 @@ function statePY(m: Model, p: number, y: number, key: Key): FluidResult<FluidSta
   let Tlo = d.Tmin,
     Thi = d.Tmax
   const sat = p < d.pc ? satAtP(m, p) : null
-  if (sat && !sat.ok && sat.error.code !== 'out-of-range') return sat as FluidResult<FluidState>
+  if (sat && !sat.ok && sat.error.code !== 'out-of-range') return sat
   if (sat && sat.ok) {
     const yL = sat.value.liquid[key],
       yV = sat.value.vapour[key]

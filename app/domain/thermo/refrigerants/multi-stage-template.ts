@@ -17,7 +17,7 @@ import type { Quantity } from '../units.ts'
 import { REFRIGERANT_IDS, getRefrigerant } from './index.ts'
 import { solveCascade, solveTwoStage } from './multi-stage.ts'
 import type { CascadeInput, CascadeResult, TwoStageInput, TwoStageResult } from './multi-stage.ts'
-import type { FluidState, Refrigerant, RefrigerantId } from './types.ts'
+import type { FluidState, Refrigerant } from './types.ts'
 import { TON_OF_REFRIGERATION } from './vapour-compression.ts'
 import type { SaturationGiven } from './vapour-compression.ts'
 
@@ -131,7 +131,7 @@ class Reader {
   refrigerant(name: string): Read<Refrigerant> {
     const raw = this.r[name]
     const id = typeof raw === 'string' ? raw.trim().replace(/^R-/i, 'R') : ''
-    const refId = REFRIGERANT_IDS.find((x) => x.toLowerCase() === id.toLowerCase()) as RefrigerantId | undefined
+    const refId = REFRIGERANT_IDS.find((x) => x.toLowerCase() === id.toLowerCase())
     if (!refId) return fail(`${name} must be one of ${REFRIGERANT_IDS.join(', ')} (got ${JSON.stringify(raw)})`, name)
     return { ok: true, value: getRefrigerant(refId) }
   }
@@ -181,60 +181,64 @@ class Reader {
 
 function reader(raw: unknown, inputs: readonly TemplateInput[]): Read<Reader> {
   if (!isRecord(raw)) return fail('inputs must be an object', 'inputs')
-  const rd = new Reader(raw as Record<string, unknown>, inputs)
+  const rd = new Reader(raw, inputs)
   const u = rd.unknownKey()
   return u ?? { ok: true, value: rd }
 }
 
-/** reads each field in turn, stopping at the first failure */
-function readAll<T extends Record<string, Read<unknown>>>(fields: { [K in keyof T]: () => T[K] }):
-  { ok: true; value: { [K in keyof T]: T[K] extends Read<infer V> ? V : never } } | MultiStageFailure {
-  const out: Record<string, unknown> = {}
-  for (const [key, get] of Object.entries(fields) as [string, () => Read<unknown>][]) {
-    const v = get()
-    if (!v.ok) return v
-    out[key] = v.value
-  }
-  return { ok: true, value: out as { [K in keyof T]: T[K] extends Read<infer V> ? V : never } }
+/**
+ * Drops the keys whose value is undefined, so an input left out is absent from the parsed
+ * input, not present as undefined. Returns the same (fresh) object.
+ */
+function withoutUndefined<T extends object>(o: T): T {
+  for (const [key, v] of Object.entries(o)) if (v === undefined) Reflect.deleteProperty(o, key)
+  return o
 }
 
-const defined = <T extends object>(o: T): T =>
-  Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as T
+// Each field read in turn, stopping at the first failure.
 
 export function parseTwoStageInputs(raw: unknown): Read<TwoStageInput> {
   const rd = reader(raw, TWO_STAGE_INPUTS)
   if (!rd.ok) return rd
   const r = rd.value
-  const v = readAll({
-    refrigerant: () => r.refrigerant('refrigerant'),
-    evaporator: () => r.saturation('evaporator', true),
-    condenser: () => r.saturation('condenser', true),
-    intermediatePressure: () => r.quantity('intermediatePressure', 'pressure'),
-    eta: () => r.ratio('compressorEfficiency'),
-    etaLow: () => r.ratio('lowStageCompressorEfficiency'),
-    etaHigh: () => r.ratio('highStageCompressorEfficiency'),
-    superheat: () => r.kelvins('superheat'),
-    subcooling: () => r.kelvins('subcooling'),
-    highStageMassFlow: () => r.flow('highStageMassFlow'),
-    lowStageMassFlow: () => r.flow('lowStageMassFlow'),
-    capacity: () => r.capacity(),
-  })
-  if (!v.ok) return v
-  const x = v.value
+  const refrigerant = r.refrigerant('refrigerant')
+  if (!refrigerant.ok) return refrigerant
+  const evaporator = r.saturation('evaporator', true)
+  if (!evaporator.ok) return evaporator
+  const condenser = r.saturation('condenser', true)
+  if (!condenser.ok) return condenser
+  const intermediatePressure = r.quantity('intermediatePressure', 'pressure')
+  if (!intermediatePressure.ok) return intermediatePressure
+  const eta = r.ratio('compressorEfficiency')
+  if (!eta.ok) return eta
+  const etaLow = r.ratio('lowStageCompressorEfficiency')
+  if (!etaLow.ok) return etaLow
+  const etaHigh = r.ratio('highStageCompressorEfficiency')
+  if (!etaHigh.ok) return etaHigh
+  const superheat = r.kelvins('superheat')
+  if (!superheat.ok) return superheat
+  const subcooling = r.kelvins('subcooling')
+  if (!subcooling.ok) return subcooling
+  const highStageMassFlow = r.flow('highStageMassFlow')
+  if (!highStageMassFlow.ok) return highStageMassFlow
+  const lowStageMassFlow = r.flow('lowStageMassFlow')
+  if (!lowStageMassFlow.ok) return lowStageMassFlow
+  const capacity = r.capacity()
+  if (!capacity.ok) return capacity
   return {
     ok: true,
-    value: defined({
-      refrigerant: x.refrigerant,
-      evaporator: x.evaporator!,
-      condenser: x.condenser!,
-      intermediatePressure: x.intermediatePressure,
-      lowStageEfficiency: x.etaLow ?? x.eta,
-      highStageEfficiency: x.etaHigh ?? x.eta,
-      superheat: x.superheat,
-      subcooling: x.subcooling,
-      highStageMassFlow: x.highStageMassFlow,
-      lowStageMassFlow: x.lowStageMassFlow,
-      capacity: x.capacity,
+    value: withoutUndefined({
+      refrigerant: refrigerant.value,
+      evaporator: evaporator.value!,
+      condenser: condenser.value!,
+      intermediatePressure: intermediatePressure.value,
+      lowStageEfficiency: etaLow.value ?? eta.value,
+      highStageEfficiency: etaHigh.value ?? eta.value,
+      superheat: superheat.value,
+      subcooling: subcooling.value,
+      highStageMassFlow: highStageMassFlow.value,
+      lowStageMassFlow: lowStageMassFlow.value,
+      capacity: capacity.value,
     }),
   }
 }
@@ -243,40 +247,50 @@ export function parseCascadeInputs(raw: unknown): Read<CascadeInput> {
   const rd = reader(raw, CASCADE_INPUTS)
   if (!rd.ok) return rd
   const r = rd.value
-  const v = readAll({
-    lowerRefrigerant: () => r.refrigerant('lowerRefrigerant'),
-    upperRefrigerant: () => r.refrigerant('upperRefrigerant'),
-    evaporator: () => r.saturation('evaporator', true),
-    lowerCondenser: () => r.saturation('lowerCondenser', true),
-    upperEvaporator: () => r.saturation('upperEvaporator', true),
-    condenser: () => r.saturation('condenser', true),
-    eta: () => r.ratio('compressorEfficiency'),
-    etaLower: () => r.ratio('lowerCompressorEfficiency'),
-    etaUpper: () => r.ratio('upperCompressorEfficiency'),
-    superheat: () => r.kelvins('superheat'),
-    subcooling: () => r.kelvins('subcooling'),
-    lowerMassFlow: () => r.flow('lowerMassFlow'),
-    upperMassFlow: () => r.flow('upperMassFlow'),
-    capacity: () => r.capacity(),
-  })
-  if (!v.ok) return v
-  const x = v.value
+  const lowerRefrigerant = r.refrigerant('lowerRefrigerant')
+  if (!lowerRefrigerant.ok) return lowerRefrigerant
+  const upperRefrigerant = r.refrigerant('upperRefrigerant')
+  if (!upperRefrigerant.ok) return upperRefrigerant
+  const evaporator = r.saturation('evaporator', true)
+  if (!evaporator.ok) return evaporator
+  const lowerCondenser = r.saturation('lowerCondenser', true)
+  if (!lowerCondenser.ok) return lowerCondenser
+  const upperEvaporator = r.saturation('upperEvaporator', true)
+  if (!upperEvaporator.ok) return upperEvaporator
+  const condenser = r.saturation('condenser', true)
+  if (!condenser.ok) return condenser
+  const eta = r.ratio('compressorEfficiency')
+  if (!eta.ok) return eta
+  const etaLower = r.ratio('lowerCompressorEfficiency')
+  if (!etaLower.ok) return etaLower
+  const etaUpper = r.ratio('upperCompressorEfficiency')
+  if (!etaUpper.ok) return etaUpper
+  const superheat = r.kelvins('superheat')
+  if (!superheat.ok) return superheat
+  const subcooling = r.kelvins('subcooling')
+  if (!subcooling.ok) return subcooling
+  const lowerMassFlow = r.flow('lowerMassFlow')
+  if (!lowerMassFlow.ok) return lowerMassFlow
+  const upperMassFlow = r.flow('upperMassFlow')
+  if (!upperMassFlow.ok) return upperMassFlow
+  const capacity = r.capacity()
+  if (!capacity.ok) return capacity
   return {
     ok: true,
-    value: defined({
-      lowerRefrigerant: x.lowerRefrigerant,
-      upperRefrigerant: x.upperRefrigerant,
-      evaporator: x.evaporator!,
-      lowerCondenser: x.lowerCondenser!,
-      upperEvaporator: x.upperEvaporator!,
-      condenser: x.condenser!,
-      lowerEfficiency: x.etaLower ?? x.eta,
-      upperEfficiency: x.etaUpper ?? x.eta,
-      superheat: x.superheat,
-      subcooling: x.subcooling,
-      lowerMassFlow: x.lowerMassFlow,
-      upperMassFlow: x.upperMassFlow,
-      capacity: x.capacity,
+    value: withoutUndefined({
+      lowerRefrigerant: lowerRefrigerant.value,
+      upperRefrigerant: upperRefrigerant.value,
+      evaporator: evaporator.value!,
+      lowerCondenser: lowerCondenser.value!,
+      upperEvaporator: upperEvaporator.value!,
+      condenser: condenser.value!,
+      lowerEfficiency: etaLower.value ?? eta.value,
+      upperEfficiency: etaUpper.value ?? eta.value,
+      superheat: superheat.value,
+      subcooling: subcooling.value,
+      lowerMassFlow: lowerMassFlow.value,
+      upperMassFlow: upperMassFlow.value,
+      capacity: capacity.value,
     }),
   }
 }

@@ -211,14 +211,14 @@ export type TwoStageOutcome = { readonly ok: true; readonly value: TwoStageResul
 function flowChoice(
   given: readonly [string, number | undefined][],
 ): { ok: true; which: string | null; value: number } | { ok: false; fail: RefrigerationFailureOutcome } {
-  const present = given.filter(([, v]) => v !== undefined)
+  const present = given.filter((g): g is [string, number] => g[1] !== undefined)
   if (present.length > 1)
     return {
       ok: false,
       fail: bad(`give at most one of ${given.map(([n]) => n).join(', ')}`, present[1]![0]),
     }
   if (present.length === 0) return { ok: true, which: null, value: 0 }
-  const [which, value] = present[0]! as [string, number]
+  const [which, value] = present[0]!
   if (!(value > 0 && Number.isFinite(value))) return { ok: false, fail: bad(`${which} must be positive`, which) }
   return { ok: true, which, value }
 }

@@ -14,7 +14,6 @@ import { readValue } from '../spec.ts'
 import type { TemplateInput } from '../templates/types.ts'
 import type { Dimension, Quantity } from '../units.ts'
 import { REFRIGERANT_IDS, getRefrigerant } from './index.ts'
-import type { RefrigerantId } from './types.ts'
 import { TON_OF_REFRIGERATION, solveVapourCompression } from './vapour-compression.ts'
 import {
   CASCADE_ID,
@@ -198,7 +197,7 @@ export function parseVapourCompressionInputs(raw: unknown): Parsed {
         },
       }
   const id = typeof r.refrigerant === 'string' ? r.refrigerant.replace(/^R-/i, 'R').replace(/^r/, 'R') : ''
-  const refId = REFRIGERANT_IDS.find((x) => x.toLowerCase() === id.toLowerCase()) as RefrigerantId | undefined
+  const refId = REFRIGERANT_IDS.find((x) => x.toLowerCase() === id.toLowerCase())
   if (!refId)
     return {
       ok: false,
