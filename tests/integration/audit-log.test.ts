@@ -14,12 +14,12 @@ import AuditRoute, { loader } from '#app/routes/courses/audit.tsx'
 import { setExtension } from '#app/server/assignments.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { auditEvents } from '#app/server/db/schema.server.ts'
-import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { gradeSubmission } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { applyRegrade, runRegrade } from '#app/server/regrades.server.ts'
 import { submitAnswers } from '#app/server/submissions.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
-import { addMember, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
+import { addMember, createCourseWithAssignment, createUser, drawnVariant } from '#tests/support/factories.ts'
 import { args, getRequest, settle } from '#tests/support/requests.ts'
 import { loginAs } from '#tests/support/login.ts'
 
@@ -40,16 +40,8 @@ async function setUp() {
   })
   const student = made.students[0]!
   const item = made.items[0]!
-  const drawn = studentVariant({
-    versionId: item.problemVersionId,
-    definition: ottoV1,
-    assignmentId: made.assignment.id,
-    problemId: item.problemId,
-    userId: student.id,
-    courseConvention: made.course.signConvention,
-  })
-  if (!drawn.ok) throw new Error(drawn.error.message)
-  const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k.value]))
+  const variant = drawnVariant(made, ottoV1, { student, item })
+  const key = Object.fromEntries(variant.key.map((k) => [k.name, k.value]))
   // 3 % off: wrong under the problem's tolerance, right under the regrade's 5 %.
   const sent = await submitAnswers(db(), {
     courseId: made.course.id,

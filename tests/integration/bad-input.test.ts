@@ -35,10 +35,16 @@ import { action as signInAction } from '#app/routes/sign-in.tsx'
 import { db } from '#app/server/db/client.server.ts'
 import { disputes, extensions, problems } from '#app/server/db/schema.server.ts'
 import { raiseDispute } from '#app/server/disputes.server.ts'
-import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { gradeSubmission } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
-import { addMember, createBankUser, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
+import {
+  addMember,
+  createBankUser,
+  createCourseWithAssignment,
+  createUser,
+  drawnVariant,
+} from '#tests/support/factories.ts'
 import { args, BASE, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { sessionCookie } from '#tests/support/login.ts'
 
@@ -84,16 +90,8 @@ async function makeWorld() {
   const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2 })
   const student = made.students[0]!
   const item = made.items[0]!
-  const drawn = studentVariant({
-    versionId: item.problemVersionId,
-    definition: ottoV1,
-    assignmentId: made.assignment.id,
-    problemId: item.problemId,
-    userId: student.id,
-    courseConvention: made.course.signConvention,
-  })
-  if (!drawn.ok) throw new Error(drawn.error.message)
-  const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k]))
+  const variant = drawnVariant(made, ottoV1, { student, item })
+  const key = Object.fromEntries(variant.key.map((k) => [k.name, k]))
   const courseId = made.course.id
   const assignmentId = made.assignment.id
   const problemPath = `/courses/${courseId}/assignments/${assignmentId}/problems/1`

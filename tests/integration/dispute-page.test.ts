@@ -27,10 +27,10 @@ import { contentDisposition, loader as attachmentLoader } from '#app/routes/reso
 import { db } from '#app/server/db/client.server.ts'
 import { attachments, disputes } from '#app/server/db/schema.server.ts'
 import { resolveDispute } from '#app/server/disputes.server.ts'
-import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { gradeSubmission } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
-import { addMember, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
+import { addMember, createCourseWithAssignment, createUser, drawnVariant } from '#tests/support/factories.ts'
 import { args, BASE, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { sessionCookie } from '#tests/support/login.ts'
 
@@ -79,16 +79,8 @@ async function setUp() {
   const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2, assignment: { attemptsPerFind: 1 } })
   const [student, other] = made.students as [(typeof made.students)[0], (typeof made.students)[0]]
   const item = made.items[0]!
-  const drawn = studentVariant({
-    versionId: item.problemVersionId,
-    definition: ottoV1,
-    assignmentId: made.assignment.id,
-    problemId: item.problemId,
-    userId: student.id,
-    courseConvention: made.course.signConvention,
-  })
-  if (!drawn.ok) throw new Error(drawn.error.message)
-  const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k]))
+  const variant = drawnVariant(made, ottoV1, { student, item })
+  const key = Object.fromEntries(variant.key.map((k) => [k.name, k]))
   const problemPath = `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/1`
   const params = { courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: '1' }
   const cookie = await sessionCookie(student)

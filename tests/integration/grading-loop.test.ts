@@ -24,7 +24,7 @@ import { handleGradeSubmission } from '#jobs/handlers/grade-submission.ts'
 import { startWorker, type RunningWorker } from '#jobs/worker.ts'
 import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
-import { createCourseWithAssignment } from '#tests/support/factories.ts'
+import { createCourseWithAssignment, drawnVariant } from '#tests/support/factories.ts'
 import { sessionCookie } from '#tests/support/login.ts'
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!
@@ -57,16 +57,8 @@ async function setUp(options: Parameters<typeof createCourseWithAssignment>[2] =
   const student = made.students[0]!
   const item = made.items[0]!
   const ref = { courseId: made.course.id, assignmentId: made.assignment.id, position: 1, userId: student.id }
-  const drawn = studentVariant({
-    versionId: item.problemVersionId,
-    definition: ottoV1,
-    assignmentId: made.assignment.id,
-    problemId: item.problemId,
-    userId: student.id,
-    courseConvention: made.course.signConvention,
-  })
-  if (!drawn.ok) throw new Error(drawn.error.message)
-  const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k]))
+  const variant = drawnVariant(made, ottoV1, { student, item })
+  const key = Object.fromEntries(variant.key.map((k) => [k.name, k]))
   return { ...made, student, item, ref, key }
 }
 

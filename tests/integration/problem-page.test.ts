@@ -20,11 +20,17 @@ import ProblemRoute, {
 import { loader as mineLoader } from '#app/routes/resources/api-my-results.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { assignments, partResults, submissions } from '#app/server/db/schema.server.ts'
-import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { gradeSubmission } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import type { MyResults } from '#app/server/submissions.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
-import { addMember, createCourse, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
+import {
+  addMember,
+  createCourse,
+  createCourseWithAssignment,
+  createUser,
+  drawnVariant,
+} from '#tests/support/factories.ts'
 import { args, formRequest, getRequest, settle } from '#tests/support/requests.ts'
 import { sessionCookie } from '#tests/support/login.ts'
 
@@ -40,16 +46,8 @@ async function setUp(options: Parameters<typeof createCourseWithAssignment>[2] =
   const made = await createCourseWithAssignment(db(), [ottoV1], { students: 2, ...options })
   const student = made.students[0]!
   const item = made.items[0]!
-  const drawn = studentVariant({
-    versionId: item.problemVersionId,
-    definition: ottoV1,
-    assignmentId: made.assignment.id,
-    problemId: item.problemId,
-    userId: student.id,
-    courseConvention: made.course.signConvention,
-  })
-  if (!drawn.ok) throw new Error(drawn.error.message)
-  const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k]))
+  const variant = drawnVariant(made, ottoV1, { student, item })
+  const key = Object.fromEntries(variant.key.map((k) => [k.name, k]))
   const path = `/courses/${made.course.id}/assignments/${made.assignment.id}/problems/1`
   const params = { courseId: String(made.course.id), assignmentId: String(made.assignment.id), position: '1' }
   const mineParams = { assignmentId: String(made.assignment.id), position: '1' }

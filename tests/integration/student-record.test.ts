@@ -18,11 +18,11 @@ import { setExtension } from '#app/server/assignments.server.ts'
 import { db } from '#app/server/db/client.server.ts'
 import { assignments, users } from '#app/server/db/schema.server.ts'
 import { raiseDispute } from '#app/server/disputes.server.ts'
-import { gradeSubmission, studentVariant } from '#app/server/grading.server.ts'
+import { gradeSubmission } from '#app/server/grading.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { submitAnswers } from '#app/server/submissions.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
-import { addMember, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
+import { addMember, createCourseWithAssignment, createUser, drawnVariant } from '#tests/support/factories.ts'
 import { args, getRequest, settle } from '#tests/support/requests.ts'
 import { loginAs } from '#tests/support/login.ts'
 
@@ -46,16 +46,8 @@ async function setUp() {
     .set({ studentNumber: `S${student.id}77`, familyName: 'Okafor', givenName: 'Ada' })
     .where(eq(users.id, student.id))
   const item = made.items[0]!
-  const drawn = studentVariant({
-    versionId: item.problemVersionId,
-    definition: ottoV1,
-    assignmentId: made.assignment.id,
-    problemId: item.problemId,
-    userId: student.id,
-    courseConvention: made.course.signConvention,
-  })
-  if (!drawn.ok) throw new Error(drawn.error.message)
-  const key = Object.fromEntries(drawn.variant.key.map((k) => [k.name, k]))
+  const variant = drawnVariant(made, ottoV1, { student, item })
+  const key = Object.fromEntries(variant.key.map((k) => [k.name, k]))
   const typed = { T2: `${key.T2!.value} K`, wNet: `${-key.wNet!.value} kJ/kg`, eta: '' }
   const ref = { courseId: made.course.id, assignmentId: made.assignment.id, position: 1, userId: student.id }
   const sent = await submitAnswers(db(), { ...ref, answers: typed })
@@ -92,7 +84,7 @@ async function setUp() {
     ta,
     other,
     stranger,
-    drawn: drawn.variant,
+    drawn: variant,
     typed,
     disputeId: raised.disputeId,
     params: { courseId: String(made.course.id), userId: String(student.id) },

@@ -21,6 +21,7 @@ import {
   type NewAssignment,
   type SignConvention,
 } from '#app/server/db/schema.server.ts'
+import { studentVariant } from '#app/server/grading.server.ts'
 import { hashPassword } from '#app/server/passwords.server.ts'
 
 let counter = 0
@@ -297,4 +298,28 @@ export async function createCourseWithAssignment(
   if (options.checked !== false) for (const m of made) await recordCheck(db, m.versionId, instructor.id)
   const { assignment, items } = await createAssignment(db, course.id, instructor.id, made, options.assignment ?? {})
   return { course, instructor, students, assignment, items }
+}
+
+/**
+ * The variant one student of a course made by createCourseWithAssignment draws for one item,
+ * drawn as the problem page draws it (the course's convention). The first student and item
+ * unless named. Throws when the variant cannot be drawn: a test set-up that cannot draw is broken.
+ */
+export function drawnVariant(
+  made: Awaited<ReturnType<typeof createCourseWithAssignment>>,
+  definition: ProblemDefinition,
+  which: { student?: { id: number }; item?: { problemVersionId: number; problemId: number } } = {},
+) {
+  const student = which.student ?? made.students[0]!
+  const item = which.item ?? made.items[0]!
+  const drawn = studentVariant({
+    versionId: item.problemVersionId,
+    definition,
+    assignmentId: made.assignment.id,
+    problemId: item.problemId,
+    userId: student.id,
+    courseConvention: made.course.signConvention,
+  })
+  if (!drawn.ok) throw new Error(drawn.error.message)
+  return drawn.variant
 }
