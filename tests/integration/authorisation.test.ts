@@ -25,7 +25,6 @@ import { count, eq } from 'drizzle-orm'
 import { nanoid } from 'nanoid'
 import { afterAll, beforeAll, describe, expect, test } from 'vitest'
 import routeConfig from '#app/routes.ts'
-import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { formValuesFromDefinition } from '#app/lib/problem-form.ts'
 import { db } from '#app/server/db/client.server.ts'
 import {
@@ -42,6 +41,7 @@ import {
 import { createProblem } from '#app/server/problems.server.ts'
 import { stopBoss } from '#app/server/queue.server.ts'
 import { DEMO_PROBLEMS } from '#seed/problems.ts'
+import { carnotDrill } from '#tests/support/definitions.ts'
 import { addMember, createAssignment, createCourseWithAssignment, createUser } from '#tests/support/factories.ts'
 import { loginAs } from '#tests/support/login.ts'
 import { args, BASE } from '#tests/support/requests.ts'
@@ -174,33 +174,7 @@ const crossStaff = cross(403, 404)
 
 const otto = DEMO_PROBLEMS.find((p) => p.definition.title === 'Air-standard Otto cycle')!.earlierVersions![0]!
 
-function carnot(title = 'Carnot drill'): ProblemDefinition {
-  return {
-    format: 2,
-    title,
-    tags: { topics: ['carnot'], difficulty: 'introductory', level: 'first-year' },
-    convention: 'course',
-    prompt: 'An engine runs between $T_H =$ @{Th} and 300 K.',
-    givens: [{ name: 'Th', label: 'hot reservoir', unit: 'K', rule: { kind: 'range', min: 500, max: 900, step: 50 } }],
-    constraints: [],
-    physics: {
-      kind: 'template',
-      template: 'carnot-engine',
-      inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: '300 K', p1: '1000 kPa', expansionRatio: '2' },
-    },
-    finds: [
-      {
-        name: 'eta',
-        label: 'Efficiency',
-        source: { kind: 'output', path: 'totals.efficiency' },
-        unit: '',
-        points: 1,
-        tolerance: { kind: 'relative', value: 0.01 },
-        pitfalls: [],
-      },
-    ],
-  }
-}
+const carnot = carnotDrill
 
 const unique = () => nanoid(10).replace(/[^A-Za-z0-9]/g, 'x')
 const localMinute = (d: Date) => d.toISOString().slice(0, 16)

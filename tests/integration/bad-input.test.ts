@@ -46,6 +46,7 @@ import {
   drawnVariant,
 } from '#tests/support/factories.ts'
 import { args, BASE, formRequest, getRequest, settle } from '#tests/support/requests.ts'
+import { carnotDrill } from '#tests/support/definitions.ts'
 import { sessionCookie } from '#tests/support/login.ts'
 
 const NUL = '\u0000'
@@ -432,31 +433,7 @@ describe('NUL characters in forms', () => {
 })
 
 describe('NUL characters in problems', () => {
-  const carnot = (title = 'Carnot drill'): ProblemDefinition => ({
-    format: 2,
-    title,
-    tags: { topics: ['carnot'], difficulty: 'introductory', level: 'first-year' },
-    convention: 'course',
-    prompt: 'An engine runs between $T_H =$ @{Th} and 300 K.',
-    givens: [{ name: 'Th', label: 'hot reservoir', unit: 'K', rule: { kind: 'range', min: 500, max: 900, step: 50 } }],
-    constraints: [],
-    physics: {
-      kind: 'template',
-      template: 'carnot-engine',
-      inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: '300 K', p1: '1000 kPa', expansionRatio: '2' },
-    },
-    finds: [
-      {
-        name: 'eta',
-        label: 'Efficiency',
-        source: { kind: 'output', path: 'totals.efficiency' },
-        unit: '',
-        points: 1,
-        tolerance: { kind: 'relative', value: 0.01 },
-        pitfalls: [],
-      },
-    ],
-  })
+  const carnot = carnotDrill
 
   async function problemCount() {
     const [n] = await db().select({ n: count() }).from(problems).where(eq(problems.ownerId, world.bankUserId))

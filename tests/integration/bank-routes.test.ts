@@ -19,35 +19,10 @@ import { problems, problemVersions } from '#app/server/db/schema.server.ts'
 import { createProblem, freezeProblemVersion } from '#app/server/problems.server.ts'
 import { addMember, createBankUser, createCourse, createUser } from '#tests/support/factories.ts'
 import { args, BASE, getRequest, settle } from '#tests/support/requests.ts'
+import { carnotDrill } from '#tests/support/definitions.ts'
 import { sessionCookie } from '#tests/support/login.ts'
 
-function carnot(title = 'Carnot drill'): ProblemDefinition {
-  return {
-    format: 2,
-    title,
-    tags: { topics: ['carnot'], difficulty: 'introductory', level: 'first-year' },
-    convention: 'course',
-    prompt: 'An engine runs between $T_H =$ [Th] and 300 K.',
-    givens: [{ name: 'Th', label: 'hot reservoir', unit: 'K', rule: { kind: 'range', min: 500, max: 900, step: 50 } }],
-    constraints: [],
-    physics: {
-      kind: 'template',
-      template: 'carnot-engine',
-      inputs: { gas: 'monatomic', amount: '1 mol', Th: 'Th', Tc: '300 K', p1: '1000 kPa', expansionRatio: '2' },
-    },
-    finds: [
-      {
-        name: 'eta',
-        label: 'Efficiency',
-        source: { kind: 'output', path: 'totals.efficiency' },
-        unit: '',
-        points: 1,
-        tolerance: { kind: 'relative', value: 0.01 },
-        pitfalls: [],
-      },
-    ],
-  }
-}
+const carnot = (title?: string) => carnotDrill(title, 'An engine runs between $T_H =$ [Th] and 300 K.')
 
 /** A multipart upload as a browser sends it: with its length stated. */
 async function uploadRequest(path: string, form: FormData, cookie: string) {
