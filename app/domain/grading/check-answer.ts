@@ -24,7 +24,7 @@
 //
 // checkAnswer never throws: any failure, including a broken rule, gives a result.
 
-import { mathCore } from './math-instance.ts'
+import { mathCore, prefixName } from './math-instance.ts'
 import {
   CORRECT_MESSAGE,
   OUTSIDE_RANGE_MESSAGE,
@@ -35,7 +35,8 @@ import {
 import type { AnswerErrorCode, TemperatureLabelSlip } from './messages.ts'
 import { readAnswer } from './read-answer.ts'
 import type { AnswerForm } from './read-answer.ts'
-import { checkSignificantFigures, countSignificantFigures, sigFigRuleProblem } from './sig-figs.ts'
+import { isObjectLike, propertyOf } from './plain-data.ts'
+import { checkSignificantFigures, countSignificantFigures, isSigFigRule, sigFigRuleProblem } from './sig-figs.ts'
 import type { SigFigCount, SigFigRule } from './sig-figs.ts'
 import { differenceFactor, isDimensionName, referenceUnitOf, resolveExpectedUnit } from './units.ts'
 import type { DimensionName, ExpectedUnit } from './units.ts'
@@ -125,60 +126,76 @@ function invalid(property: string, message: string): RuleValidation & { ok: fals
 function prepare(
   expected: unknown,
   rule: unknown,
-): { ok: true; prepared: Prepared } | (RuleValidation & { ok: false }) {
-  if (expected === null || typeof expected !== 'object') return invalid('expected', 'expected must be { value, unit }')
-  const { value, unit } = expected as { value?: unknown; unit?: unknown }
+): { ok: true; prepared: Prepared; expected: ExpectedQuantity; rule: CheckRule } | (RuleValidation & { ok: false }) {
+  if (!isObjectLike(expected)) return invalid('expected', 'expected must be { value, unit }')
+  const { value, unit } = expected
   if (typeof value !== 'number' || !Number.isFinite(value))
     return invalid('expected.value', 'expected.value must be a finite number')
   if (typeof unit !== 'string') return invalid('expected.unit', 'expected.unit must be a string')
-  if (rule === null || typeof rule !== 'object') return invalid('rule', 'rule must be an object')
-  const r = rule as Partial<Record<keyof CheckRule, unknown>>
-  if (r.dimension !== undefined && !isDimensionName(r.dimension)) return invalid('rule.dimension', 'unknown dimension')
-  if (r.allowBareNumber !== undefined && typeof r.allowBareNumber !== 'boolean') {
+  if (!isObjectLike(rule)) return invalid('rule', 'rule must be an object')
+  const { dimension, allowBareNumber, isDifference: differenceFlag, sigFigs, tolerance: t } = rule
+  if (dimension !== undefined && !isDimensionName(dimension)) return invalid('rule.dimension', 'unknown dimension')
+  if (allowBareNumber !== undefined && typeof allowBareNumber !== 'boolean') {
     return invalid('rule.allowBareNumber', 'allowBareNumber must be true or false')
   }
-  if (r.isDifference !== undefined && typeof r.isDifference !== 'boolean') {
+  if (differenceFlag !== undefined && typeof differenceFlag !== 'boolean') {
     return invalid('rule.isDifference', 'isDifference must be true or false')
   }
-  const isDifference = r.isDifference === true || r.dimension === 'temperature-difference'
+  const isDifference = differenceFlag === true || dimension === 'temperature-difference'
   const exp = resolveExpectedUnit(unit, isDifference)
   if (exp === null) return invalid('expected.unit', `expected.unit "${unit}" is not a unit we can read`)
   const expDiff = resolveExpectedUnit(unit, true)
   if (expDiff === null) return invalid('expected.unit', `expected.unit "${unit}" is not a unit we can read`)
-  if (r.dimension !== undefined) {
-    const ref = referenceUnitOf(r.dimension as DimensionName)
+  if (dimension !== undefined) {
+    const ref = referenceUnitOf(dimension)
     const fits = exp.kind === 'dimensionless' ? ref === 1 : ref !== 1 && exp.unit.equalBase(ref)
-    if (!fits) return invalid('rule.dimension', `expected.unit "${unit}" is not ${String(r.dimension)}`)
+    if (!fits) return invalid('rule.dimension', `expected.unit "${unit}" is not ${String(dimension)}`)
   }
-  const sigProblem = sigFigRuleProblem(r.sigFigs)
+  const sigProblem = sigFigRuleProblem(sigFigs)
   if (sigProblem) return invalid('rule.sigFigs', sigProblem)
 
   const notes: CheckNote[] = []
-  const t = r.tolerance as { kind?: unknown; value?: unknown; unit?: unknown } | null | undefined
-  if (t === null || typeof t !== 'object') return invalid('rule.tolerance', 'tolerance must be { kind, value }')
-  if (typeof t.value !== 'number' || !Number.isFinite(t.value) || t.value < 0) {
+  if (!isObjectLike(t)) return invalid('rule.tolerance', 'tolerance must be { kind, value }')
+  const { kind: tKind, value: tValue, unit: tUnit } = t
+  if (typeof tValue !== 'number' || !Number.isFinite(tValue) || tValue < 0) {
     return invalid('rule.tolerance.value', 'tolerance.value must be a finite number ≥ 0')
   }
-  if (t.kind === 'relative') {
-    if (t.unit !== undefined) return invalid('rule.tolerance.unit', 'a relative tolerance has no unit')
+  let tolerance: Tolerance
+  if (tKind === 'relative') {
+    if (tUnit !== undefined) return invalid('rule.tolerance.unit', 'a relative tolerance has no unit')
     if (value === 0) notes.push('relative-tolerance-zero-expected')
     if (exp.kind === 'unit' && exp.absoluteTwin) notes.push('relative-tolerance-on-absolute-scale')
-  } else if (t.kind === 'absolute') {
-    if (t.unit !== undefined) {
-      if (typeof t.unit !== 'string') return invalid('rule.tolerance.unit', 'tolerance.unit must be a string')
-      const tu = resolveExpectedUnit(t.unit, true)
+    tolerance = { kind: 'relative', value: tValue }
+  } else if (tKind === 'absolute') {
+    if (tUnit !== undefined) {
+      if (typeof tUnit !== 'string') return invalid('rule.tolerance.unit', 'tolerance.unit must be a string')
+      const tu = resolveExpectedUnit(tUnit, true)
       const fits =
         tu !== null &&
         (tu.kind === 'dimensionless'
           ? expDiff.kind === 'dimensionless'
           : expDiff.kind === 'unit' && tu.unit.equalBase(expDiff.unit))
-      if (!fits)
-        return invalid('rule.tolerance.unit', `tolerance.unit "${t.unit}" does not fit expected.unit "${unit}"`)
+      if (!fits) return invalid('rule.tolerance.unit', `tolerance.unit "${tUnit}" does not fit expected.unit "${unit}"`)
     }
+    tolerance =
+      tUnit === undefined ? { kind: 'absolute', value: tValue } : { kind: 'absolute', value: tValue, unit: tUnit }
   } else {
     return invalid('rule.tolerance.kind', "tolerance.kind must be 'relative' or 'absolute'")
   }
-  return { ok: true, prepared: { expected: exp, expectedAsDifference: expDiff, isDifference, notes } }
+  // The rule as read: the checks above are exactly what CheckRule promises.
+  const checked: CheckRule = {
+    tolerance,
+    ...(isSigFigRule(sigFigs) ? { sigFigs } : {}),
+    ...(dimension !== undefined ? { dimension } : {}),
+    ...(allowBareNumber !== undefined ? { allowBareNumber } : {}),
+    ...(differenceFlag !== undefined ? { isDifference: differenceFlag } : {}),
+  }
+  return {
+    ok: true,
+    prepared: { expected: exp, expectedAsDifference: expDiff, isDifference, notes },
+    expected: { value, unit },
+    rule: checked,
+  }
 }
 
 /**
@@ -219,12 +236,12 @@ export function checkAnswer(input: CheckAnswerInput): CheckAnswerResult {
 }
 
 function safeUnit(input: unknown): string {
-  const u = (input as { expected?: { unit?: unknown } } | null)?.expected?.unit
+  const u = propertyOf(propertyOf(input, 'expected'), 'unit')
   return typeof u === 'string' ? u : ''
 }
 
 function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
-  const { expected, answer, rule } = (input ?? {}) as Partial<CheckAnswerInput>
+  const { expected, answer, rule }: Partial<CheckAnswerInput> = input ?? {}
   const prep = prepare(expected, rule)
   if (!prep.ok) {
     return {
@@ -238,8 +255,8 @@ function checkUnsafe(input: CheckAnswerInput): CheckAnswerResult {
     }
   }
   const p = prep.prepared
-  const exp = expected as ExpectedQuantity
-  const r = rule as CheckRule
+  const exp = prep.expected
+  const r = prep.rule
   const notes = p.notes.length > 0 ? { notes: [...p.notes] } : {}
 
   const read = readAnswer(answer, {
@@ -320,8 +337,8 @@ function compare(a: number, e: number, p: Prepared, r: CheckRule): { diff: numbe
     if (p.expected.kind === 'unit' && p.expected.absoluteTwin) {
       const twin = p.expected.absoluteTwin
       const unit = p.expected.unit
-      aa = (mathCore.multiply(a, unit) as typeof unit).toNumber(twin as unknown as string)
-      ee = (mathCore.multiply(e, unit) as typeof unit).toNumber(twin as unknown as string)
+      aa = mathCore.numberIn(mathCore.scale(a, unit), twin)
+      ee = mathCore.numberIn(mathCore.scale(e, unit), twin)
     }
     diff = Math.abs(aa - ee)
     bound = r.tolerance.value * Math.abs(ee)
@@ -352,13 +369,9 @@ function temperatureLabelSlip(
   if (kelvin === null || kelvin.kind !== 'unit' || !p.expected.unit.equalBase(kelvin.unit)) return null
   const typed = resolveExpectedUnit(studentUnit, false)
   if (typed === null || typed.kind !== 'unit') return null
-  const comps = typed.unit.units as unknown as ReadonlyArray<{
-    unit: { name: string }
-    prefix: { name: string }
-    power: number
-  }>
-  const only = comps.length === 1 ? comps[0]! : null
-  if (only === null || only.power !== 1 || only.prefix.name !== '') return null
+  const comps = typed.unit.units
+  const only = comps.length === 1 ? (comps[0] ?? null) : null
+  if (only === null || only.power !== 1 || prefixName(only) !== '') return null
   const slip: TemperatureLabelSlip | null =
     only.unit.name === 'K'
       ? 'celsius-labelled-kelvin'

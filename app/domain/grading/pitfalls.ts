@@ -6,6 +6,7 @@
  */
 import { readQuantity, solveBankSpec, specConvention, specMentions } from '#app/domain/thermo/index.ts'
 import type { Convention, Slips } from '#app/domain/thermo/index.ts'
+import { isObjectLike, propertyOf } from './plain-data.ts'
 
 // Which pitfalls can fire for a problem (light, for the editor and the lint).
 export { applicablePitfalls, whyPitfallCannotFire } from './applicable-pitfalls.ts'
@@ -132,7 +133,7 @@ export function evaluateWithPitfall(spec: unknown, quantity: string, id: Pitfall
       if (!specMentions(spec, 'celsius')) return []
     // falls through
     default: {
-      const v = read(solveBankSpec(spec, { slips: SLIPS[id as keyof typeof SLIPS] }), quantity)
+      const v = read(solveBankSpec(spec, { slips: SLIPS[id] }), quantity)
       return v === null ? [] : [v]
     }
   }
@@ -141,12 +142,11 @@ export function evaluateWithPitfall(spec: unknown, quantity: string, id: Pitfall
 function unitOf(sol: object, path: string): string {
   let cur: unknown = sol
   for (const key of path.split('.')) {
-    if (cur === null || typeof cur !== 'object') return ''
-    cur = Array.isArray(cur) ? cur[Number(key) - 1] : (cur as Record<string, unknown>)[key]
+    if (!isObjectLike(cur)) return ''
+    cur = Array.isArray(cur) ? cur[Number(key) - 1] : cur[key]
   }
-  return cur && typeof cur === 'object' && typeof (cur as { unit?: unknown }).unit === 'string'
-    ? (cur as { unit: string }).unit
-    : ''
+  const unit = propertyOf(cur, 'unit')
+  return typeof unit === 'string' ? unit : ''
 }
 
 /**

@@ -21,7 +21,8 @@
 // readAnswer never throws; failures come back with verdict 'unreadable' or 'wrong-dimension'.
 
 import type { Unit } from 'mathjs'
-import { mathCore } from './math-instance.ts'
+import { isOneOf } from '#app/domain/thermo/json.ts'
+import { isValueless, mathCore } from './math-instance.ts'
 import {
   ALLOWED_CONSTANTS,
   ALLOWED_FUNCTIONS,
@@ -176,7 +177,7 @@ function restrictedFailure(
 }
 
 function prepareContext(raw: string, options: ReadAnswerOptions): { ctx: Ctx } | { fail: ReadAnswerFailure } {
-  const opts = (options ?? {}) as Partial<ReadAnswerOptions>
+  const opts: Partial<ReadAnswerOptions> = options ?? {}
   const invalid = (): { fail: ReadAnswerFailure } => ({
     fail: failure(
       raw,
@@ -299,13 +300,12 @@ function readPlain(s: string, ctx: Ctx): Read | null {
     })
   } catch (e) {
     if (e instanceof RestrictedError && e.code === 'unknown-symbol' && e.symbol !== undefined) {
-      const isConstantOrFunction =
-        Object.hasOwn(ALLOWED_CONSTANTS, e.symbol) || (ALLOWED_FUNCTIONS as readonly string[]).includes(e.symbol)
+      const isConstantOrFunction = Object.hasOwn(ALLOWED_CONSTANTS, e.symbol) || isOneOf(ALLOWED_FUNCTIONS, e.symbol)
       if (!isConstantOrFunction) throw e
     }
     return null // not "number unit": try the general reader
   }
-  if (!isUnit(unit) || (unit.value as unknown) !== null) return null
+  if (!isUnit(unit) || !isValueless(unit)) return null
   const q = mathCore.multiply(value, unit)
   return { value: q, usesUnits: true, literal, unitText: tail }
 }
@@ -352,11 +352,11 @@ function finish(read: Read, percent: boolean, s: string, ctx: Ctx): ReadAnswerSu
       throw wrongDimension(v, '', ctx)
     }
   } else {
-    if ((v.value as unknown) === null) throw new AnswerError('no-number')
+    if (isValueless(v)) throw new AnswerError('no-number')
     if (expected.kind === 'dimensionless' || !sameDimension(v, expected.unit)) {
       throw wrongDimension(v, read.unitText ?? v.formatUnits(), ctx)
     }
-    value = v.toNumber(expected.unit as unknown as string)
+    value = mathCore.numberIn(v, expected.unit)
   }
   if (!Number.isFinite(value) || Math.abs(value) > 1e300) throw new AnswerError('out-of-range')
   if (Object.is(value, -0)) value = 0

@@ -13,6 +13,8 @@
 //  - The sign and a trailing % do not matter.
 // An answer that is a calculation (2*3.5 kJ, sqrt(2) kPa) has no typed number to count.
 
+import { isObjectLike } from './plain-data.ts'
+
 export type SigFigCount =
   { readonly kind: 'count'; readonly min: number; readonly max: number } | { readonly kind: 'zero' }
 
@@ -59,8 +61,8 @@ export function checkSignificantFigures(count: SigFigCount, rule: SigFigRule): S
 /** Null when the rule is usable; otherwise what is wrong with it (for instructors). */
 export function sigFigRuleProblem(rule: unknown): string | null {
   if (rule === undefined) return null
-  if (rule === null || typeof rule !== 'object') return 'sigFigs must be an object { min?, max? }'
-  const { min, max } = rule as { min?: unknown; max?: unknown }
+  if (!isObjectLike(rule)) return 'sigFigs must be an object { min?, max? }'
+  const { min, max } = rule
   for (const [name, v] of [
     ['min', min],
     ['max', max],
@@ -72,4 +74,9 @@ export function sigFigRuleProblem(rule: unknown): string | null {
   if (min === undefined && max === undefined) return 'sigFigs needs min, max or both'
   if (typeof min === 'number' && typeof max === 'number' && min > max) return 'sigFigs.min is larger than sigFigs.max'
   return null
+}
+
+/** A usable sig-fig rule: one sigFigRuleProblem finds nothing wrong with (undefined is none). Pure. */
+export function isSigFigRule(rule: unknown): rule is SigFigRule {
+  return rule !== undefined && sigFigRuleProblem(rule) === null
 }

@@ -16,6 +16,7 @@
 // Offset units inside compound units (kJ/(kg·degC)) are always differences (mathjs).
 
 import type { Unit } from 'mathjs'
+import { mathCore, prefixValue } from './math-instance.ts'
 import { isKnownUnitName, isUnit, parseUnitString } from './restricted-math.ts'
 
 export interface DimensionInfo {
@@ -77,7 +78,8 @@ interface ReferenceUnit {
 }
 
 const REFERENCES: readonly ReferenceUnit[] = [
-  ...(Object.keys(DIMENSIONS) as DimensionName[])
+  ...Object.keys(DIMENSIONS)
+    .filter(isDimensionName)
     .filter((d) => d !== 'temperature-difference')
     .map((d) => ({ label: DIMENSIONS[d].label, unit: parseUnitString(DIMENSIONS[d].reference, false) })),
   ...DESCRIPTIVE_DIMENSIONS.map(([ref, label]) => ({ label, unit: parseUnitString(ref, false) })),
@@ -155,7 +157,7 @@ function resolveUncached(text: string, temperatureDifference: boolean): Expected
   const u = parseUnitString(t, temperatureDifference)
   if (u === null) return null
   if (u === 1) return { kind: 'dimensionless', text: t, scale: 1, display: '' }
-  if ((u.dimensions as readonly number[]).every((d) => d === 0)) return null // kJ/J and the like
+  if (u.dimensions.every((d) => d === 0)) return null // kJ/J and the like
   return {
     kind: 'unit',
     text: t,
@@ -168,7 +170,7 @@ function resolveUncached(text: string, temperatureDifference: boolean): Expected
 const ABSOLUTE_TWIN: Readonly<Record<string, string>> = { degC: 'K', celsius: 'K', degF: 'degR', fahrenheit: 'degR' }
 
 function absoluteTwinOf(u: Unit): Unit | null {
-  const comps = u.units as unknown as ReadonlyArray<{ unit: { name: string; offset: number }; power: number }>
+  const comps = u.units
   const only = comps[0]
   if (comps.length !== 1 || !only || only.power !== 1 || only.unit.offset === 0) return null
   const twin = ABSOLUTE_TWIN[only.unit.name]
@@ -179,7 +181,7 @@ function absoluteTwinOf(u: Unit): Unit | null {
 
 /** Converts a valued quantity into a valueless target unit; throws on a dimension mismatch. */
 export function convertTo(q: Unit, target: Unit): number {
-  return q.toNumber(target as unknown as string)
+  return mathCore.numberIn(q, target)
 }
 
 /** How many `to` are in one `from`, for differences (offsets ignored). Throws on mismatch. */
@@ -192,13 +194,8 @@ export function differenceFactor(from: Unit, to: Unit): number {
 
 /** The SI value of 1 of a valueless unit, offsets ignored (e.g. 1000 for kJ, 1 for degC). */
 function unitValueOf(u: Unit): number {
-  const comps = u.units as unknown as ReadonlyArray<{
-    unit: { value: number | { valueOf(): number } }
-    prefix: { value: number | { valueOf(): number } }
-    power: number
-  }>
   let v = 1
-  for (const c of comps) v *= Math.pow(Number(c.unit.value.valueOf()) * Number(c.prefix.value.valueOf()), c.power)
+  for (const c of u.units) v *= Math.pow(Number(c.unit.value.valueOf()) * prefixValue(c), c.power)
   return v
 }
 
@@ -208,7 +205,7 @@ function offsetFreeTwin(u: Unit): Unit {
 
 /** Is this valued or valueless quantity the same dimension as the reference? */
 export function sameDimension(q: Unit | number, ref: Unit | 1): boolean {
-  if (ref === 1) return typeof q === 'number' || (q.dimensions as readonly number[]).every((d) => d === 0)
+  if (ref === 1) return typeof q === 'number' || q.dimensions.every((d) => d === 0)
   return isUnit(q) && q.equalBase(ref)
 }
 
