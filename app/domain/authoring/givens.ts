@@ -14,6 +14,7 @@ import { mathCore } from '#app/domain/grading/math-instance.ts'
 import { isKnownUnitName } from '#app/domain/grading/restricted-math.ts'
 import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
 import { mulberry32 } from '#app/domain/random.ts'
+import { isOneOf } from '#app/domain/thermo/json.ts'
 import type { Constraint, DrawnGiven, Given, ProblemDefinition, VariantError } from './definition.ts'
 import { seedFrom } from './seed.ts'
 
@@ -90,9 +91,9 @@ export function toScopeValue(value: number, unit: string, isDifference = false):
   const e = resolveExpectedUnit(unit, isDifference)
   if (e === null) return null
   if (e.kind === 'dimensionless') return value * e.scale
-  const q = mathCore.multiply(value, e.unit) as Unit
+  const q = mathCore.scale(value, e.unit)
   if (e.absoluteTwin === null) return q
-  return mathCore.multiply(q.toNumber(e.absoluteTwin as unknown as string), e.absoluteTwin) as Unit
+  return mathCore.scale(mathCore.numberIn(q, e.absoluteTwin), e.absoluteTwin)
 }
 
 /** The numeric givens as scope values (text choices have no number and are left out). */
@@ -120,12 +121,7 @@ export function unknownNames(text: string, allowed: ReadonlySet<string>): string
   const found = new Set<string>()
   for (const m of text.matchAll(/(?<![0-9.A-Za-z_])[A-Za-z][A-Za-z0-9_]*/g)) {
     const name = m[0]
-    if (
-      allowed.has(name) ||
-      Object.hasOwn(ALLOWED_CONSTANTS, name) ||
-      (ALLOWED_FUNCTIONS as readonly string[]).includes(name)
-    )
-      continue
+    if (allowed.has(name) || Object.hasOwn(ALLOWED_CONSTANTS, name) || isOneOf(ALLOWED_FUNCTIONS, name)) continue
     if (isKnownUnitName(name)) continue
     found.add(name)
   }
@@ -149,8 +145,14 @@ export function describeCompileError(
 // ---- Preparing a definition once -----------------------------------------------------
 
 type PreparedGiven =
-  | { readonly given: Given; readonly kind: 'range'; readonly steps: number; readonly decimals: number }
-  | { readonly given: Given; readonly kind: 'choice' }
+  | {
+      readonly given: Given
+      readonly kind: 'range'
+      readonly rule: Extract<Given['rule'], { kind: 'range' }>
+      readonly steps: number
+      readonly decimals: number
+    }
+  | { readonly given: Given; readonly kind: 'choice'; readonly rule: Extract<Given['rule'], { kind: 'choice' }> }
   | { readonly given: Given; readonly kind: 'expression'; readonly compiled: CompiledRestrictedExpression }
 
 interface PreparedConstraint {
@@ -196,12 +198,18 @@ function prepareUncached(def: ProblemDefinition): Prepared {
           g,
           `the range needs finite min <= max and a step > 0 (got ${rule.min} to ${rule.max} by ${rule.step})`,
         )
-      givens.push({ given: g, kind: 'range', steps, decimals: Math.max(decimalsOf(rule.min), decimalsOf(rule.step)) })
+      givens.push({
+        given: g,
+        kind: 'range',
+        rule,
+        steps,
+        decimals: Math.max(decimalsOf(rule.min), decimalsOf(rule.step)),
+      })
     } else if (rule.kind === 'choice') {
       if (rule.values.length === 0) return givenError(g, 'the choice has no values')
       if (rule.values.some((v) => typeof v === 'number' && !Number.isFinite(v)))
         return givenError(g, 'a choice value is not a finite number')
-      givens.push({ given: g, kind: 'choice' })
+      givens.push({ given: g, kind: 'choice', rule })
     } else {
       const allowed = new Set(earlier)
       const c = compileRestrictedExpression(rule.expression, { variables: earlier, expectedUnit: g.unit })
@@ -260,12 +268,12 @@ function drawOnce(
     let value: number
     let text: string
     if (p.kind === 'range') {
-      const rule = g.rule as Extract<Given['rule'], { kind: 'range' }>
+      const rule = p.rule
       const k = Math.min(p.steps, Math.floor(rand() * (p.steps + 1)))
       value = roundTo(rule.min + k * rule.step, p.decimals)
       text = givenText(value, g.unit)
     } else if (p.kind === 'choice') {
-      const values = (g.rule as Extract<Given['rule'], { kind: 'choice' }>).values
+      const values = p.rule.values
       const pick = values[Math.min(values.length - 1, Math.floor(rand() * values.length))]!
       if (typeof pick === 'string') {
         value = Number.NaN
@@ -313,23 +321,32 @@ function compare(a: number, op: Constraint['op'], b: number): boolean {
   }
 }
 
+/** One side of a constraint evaluated, or an error for the author. */
+function evaluateSide(
+  c: PreparedConstraint,
+  side: 'left' | 'right',
+  scope: Record<string, ScopeValue>,
+): Side | VariantError {
+  const compiled = side === 'left' ? c.left : c.right
+  const r = compiled.evaluate(scope)
+  if (!r.ok) {
+    return {
+      code: 'invalid-definition',
+      message: `Constraint ${c.index + 1} (${side} side "${compiled.text}"): ${describeCompileError(compiled.text, new Set(compiled.variables), r.error)}.`,
+      property: `constraints.${c.index}.${side}`,
+    }
+  }
+  return r.kind === 'number'
+    ? { kind: 'number', value: r.value }
+    : { kind: 'quantity', si: r.siValue, unit: r.quantity }
+}
+
 /** Whether a constraint holds for these givens, or an error for the author. */
 function checkConstraint(c: PreparedConstraint, scope: Record<string, ScopeValue>): boolean | VariantError {
-  const sides: Side[] = []
-  for (const [side, compiled] of [['left', c.left] as const, ['right', c.right] as const]) {
-    const r = compiled.evaluate(scope)
-    if (!r.ok) {
-      return {
-        code: 'invalid-definition',
-        message: `Constraint ${c.index + 1} (${side} side "${compiled.text}"): ${describeCompileError(compiled.text, new Set(compiled.variables), r.error)}.`,
-        property: `constraints.${c.index}.${side}`,
-      }
-    }
-    sides.push(
-      r.kind === 'number' ? { kind: 'number', value: r.value } : { kind: 'quantity', si: r.siValue, unit: r.quantity },
-    )
-  }
-  const [l, r] = sides as [Side, Side]
+  const l = evaluateSide(c, 'left', scope)
+  if ('code' in l) return l
+  const r = evaluateSide(c, 'right', scope)
+  if ('code' in r) return r
   let a: number
   let b: number
   if (l.kind === 'quantity' && r.kind === 'quantity') {
@@ -341,7 +358,7 @@ function checkConstraint(c: PreparedConstraint, scope: Record<string, ScopeValue
     b = r.value
   } else {
     // "p1 > 0" is fine without a unit: zero is zero in every unit.
-    const num = l.kind === 'number' ? l.value : (r as { value: number }).value
+    const num = l.kind === 'number' ? l.value : r.kind === 'number' ? r.value : Number.NaN
     if (num !== 0) return mismatch(c)
     a = l.kind === 'number' ? l.value : l.si
     b = r.kind === 'number' ? r.value : r.si

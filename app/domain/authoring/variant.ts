@@ -4,10 +4,10 @@
  * version and the seed (../shared/DESIGN.md, "Variant"), so it must be deterministic and must
  * never throw: a broken definition comes back as a DrawResult error for the author. Pure.
  */
-import type { Unit } from 'mathjs'
 import type { CompiledRestrictedExpression, ScopeValue } from '#app/domain/grading/index.ts'
 import { compileRestrictedExpression } from '#app/domain/grading/index.ts'
 import { mathCore } from '#app/domain/grading/math-instance.ts'
+import { isObjectLike, propertyOf } from '#app/domain/grading/plain-data.ts'
 import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
 import { readQuantity, solveBankSpec } from '#app/domain/thermo/index.ts'
@@ -29,18 +29,17 @@ export function resolveConvention(def: ProblemDefinition, courseConvention: Conv
 export function unitAtPath(sol: object, path: string): string | null {
   let cur: unknown = sol
   for (const key of path.split('.')) {
-    if (cur === null || typeof cur !== 'object') return null
+    if (!isObjectLike(cur)) return null
     if (Array.isArray(cur)) {
       const idx = Number(key)
-      cur = Number.isInteger(idx) && idx >= 1 ? cur[idx - 1] : (cur as { name?: string }[]).find((x) => x?.name === key)
+      cur = Number.isInteger(idx) && idx >= 1 ? cur[idx - 1] : cur.find((x: unknown) => propertyOf(x, 'name') === key)
     } else {
-      cur = (cur as Record<string, unknown>)[key]
+      cur = cur[key]
     }
   }
   if (typeof cur === 'number') return ''
-  if (cur && typeof cur === 'object' && typeof (cur as { unit?: unknown }).unit === 'string')
-    return (cur as { unit: string }).unit
-  return null
+  const unit = propertyOf(cur, 'unit')
+  return typeof unit === 'string' ? unit : null
 }
 
 // Linear factors between unit pairs, so a sweep does not call mathjs for every key entry.
@@ -64,12 +63,12 @@ export function convertFromSI(value: number, siUnit: string, unit: string, isDif
   }
   if (!src.unit.equalBase(tgt.unit)) return `the value is in "${siUnit}", which cannot be stated in "${unit}"`
   if (src.absoluteTwin !== null || tgt.absoluteTwin !== null) {
-    return (mathCore.multiply(value, src.unit) as Unit).toNumber(tgt.unit as unknown as string)
+    return mathCore.numberIn(mathCore.scale(value, src.unit), tgt.unit)
   }
   const key = `${siUnit}|${unit}|${isDifference ? 'd' : 'a'}`
   let factor = factorCache.get(key)
   if (factor === undefined) {
-    factor = (mathCore.multiply(1, src.unit) as Unit).toNumber(tgt.unit as unknown as string)
+    factor = mathCore.numberIn(mathCore.scale(1, src.unit), tgt.unit)
     if (factorCache.size >= FACTOR_CACHE_LIMIT) factorCache.clear()
     factorCache.set(key, factor)
   }

@@ -115,11 +115,16 @@ export function normaliseUnitText(text: string): string {
     .replace(/[−–]/g, '-')
 }
 
+/** Whether `name` is one of the dimensions with an exponent vector in DIMS. */
+function isDimsName(name: string): name is keyof typeof DIMS {
+  return Object.hasOwn(DIMS, name)
+}
+
 function dimensionOf(u: Unit): Dimension | null {
-  const d = (u as unknown as { dimensions: number[] }).dimensions
+  const d = u.dimensions
   if (!u.units.length || d.every((x) => x === 0)) return 'dimensionless'
   for (const [name, vec] of Object.entries(DIMS)) {
-    if (vec.every((x, i) => x === (d[i] ?? 0))) return name as Dimension
+    if (isDimsName(name) && vec.every((x, i) => x === (d[i] ?? 0))) return name
   }
   return null
 }
