@@ -156,7 +156,7 @@ export function solveCombinedCycle(input: CombinedInput): CombinedOutcome {
       undefined,
       gasCycle.error.code === 'out-of-range' ? 'out-of-range' : 'unphysical',
     )
-  const g = gasCycle as CycleSolution
+  const g: CycleSolution = gasCycle
   const [s1, s2, s3, s4] = g.states
   if (!s1 || !s2 || !s3 || !s4)
     return bad('gas turbine: the cycle has fewer states than expected', undefined, 'unphysical')

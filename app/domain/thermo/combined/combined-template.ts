@@ -15,15 +15,15 @@ import { parseGas, readValue } from '../spec.ts'
 import { formatRankine } from '../steam/rankine-template.ts'
 import type { FormattedRankine } from '../steam/rankine-template.ts'
 import type { RankineInput } from '../steam/rankine.ts'
-import type { TemplateInput } from '../templates/types.ts'
-import type { Dimension, Quantity } from '../units.ts'
+import type { DimensionInput, GasInput } from '../templates/types.ts'
+import type { Quantity } from '../units.ts'
 import { solveCombinedCycle } from './combined-cycle.ts'
 import type { CombinedInput, CombinedResult } from './combined-cycle.ts'
 
 const q = (value: number, unit: string): Quantity => ({ value, unit })
-const opt = (i: TemplateInput): TemplateInput => ({ ...i, required: false })
+const opt = (i: DimensionInput): DimensionInput => ({ ...i, required: false })
 
-export const COMBINED_INPUTS: readonly TemplateInput[] = [
+export const COMBINED_INPUTS: readonly (GasInput | DimensionInput)[] = [
   {
     name: 'gas',
     dimension: 'gas',
@@ -267,7 +267,7 @@ export function parseCombinedInputs(raw: unknown): Parsed {
     }
     const v = readValue(
       typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x,
-      [inp.dimension as Dimension],
+      [inp.dimension],
       inp.name,
     )
     if (!v.ok) return v

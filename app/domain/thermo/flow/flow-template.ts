@@ -16,7 +16,7 @@ import { isRecord } from '../json.ts'
 import { CONVENTIONS } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { parseGas, readValue } from '../spec.ts'
-import type { TemplateInput } from '../templates/types.ts'
+import type { DimensionInput, GasInput } from '../templates/types.ts'
 import type { Dimension, Quantity } from '../units.ts'
 import { perKilogram } from './flow-gas.ts'
 import { solveDuct } from './nozzle-diffuser.ts'
@@ -31,20 +31,25 @@ const qn = (value: number | null, unit: string): Quantity | null => (value === n
 
 const input = (
   name: string,
-  dimension: TemplateInput['dimension'],
+  dimension: Dimension,
   unit: string,
   description: string,
   required = false,
-): TemplateInput => ({ name, dimension, unit, description, required })
+): DimensionInput => ({ name, dimension, unit, description, required })
 
-const GAS_INPUT = input(
-  'gas',
-  'gas',
-  '',
-  'preset id (air, nasa:dry-air, …) or constants; default air (cp = 1.005 kJ/(kg·K)); per-mole gases need a molar mass',
-)
+/** A template's inputs: the gas, then quantities. */
+type FlowInputs = readonly (GasInput | DimensionInput)[]
 
-function ductInputs(device: DuctDevice): TemplateInput[] {
+const GAS_INPUT: GasInput = {
+  name: 'gas',
+  dimension: 'gas',
+  unit: '',
+  description:
+    'preset id (air, nasa:dry-air, …) or constants; default air (cp = 1.005 kJ/(kg·K)); per-mole gases need a molar mass',
+  required: false,
+}
+
+function ductInputs(device: DuctDevice): FlowInputs {
   const nozzle = device === 'nozzle'
   return [
     GAS_INPUT,
@@ -88,10 +93,10 @@ function ductInputs(device: DuctDevice): TemplateInput[] {
   ]
 }
 
-export const NOZZLE_INPUTS: readonly TemplateInput[] = ductInputs('nozzle')
-export const DIFFUSER_INPUTS: readonly TemplateInput[] = ductInputs('diffuser')
+export const NOZZLE_INPUTS: FlowInputs = ductInputs('nozzle')
+export const DIFFUSER_INPUTS: FlowInputs = ductInputs('diffuser')
 
-export const TURBOJET_INPUTS: readonly TemplateInput[] = [
+export const TURBOJET_INPUTS: FlowInputs = [
   GAS_INPUT,
   input('flightSpeed', 'velocity', 'm/s or km/h', 'flight speed (air enters the diffuser at it)', true),
   input('ambientPressure', 'pressure', 'kPa', 'ambient pressure (also the nozzle exit pressure)', true),
@@ -253,7 +258,7 @@ const NOTICE =
 
 /** Read the inputs of one template into SI numbers; unknown and missing inputs are refused. */
 function readInputs(
-  list: readonly TemplateInput[],
+  list: FlowInputs,
   raw: unknown,
 ): Parsed<{ num: Record<string, number>; gas: unknown; shape: unknown; heatDim: Dimension | null }> {
   if (!isRecord(raw)) return bad('invalid-spec', 'inputs must be an object', 'inputs')
@@ -265,13 +270,13 @@ function readInputs(
   const num: Record<string, number> = {}
   let heatDim: Dimension | null = null
   for (const inp of list) {
-    if (inp.name === 'gas' || inp.name === 'shape') continue
+    if (inp.dimension === 'gas' || inp.name === 'shape') continue
     const x = r[inp.name]
     if (x === undefined) {
       if (inp.required) return bad('invalid-spec', `input "${inp.name}" is required: ${inp.description}`, inp.name)
       continue
     }
-    const dims: Dimension[] = inp.name === 'heatLoss' ? ['specificEnergy', 'power'] : [inp.dimension as Dimension]
+    const dims: Dimension[] = inp.name === 'heatLoss' ? ['specificEnergy', 'power'] : [inp.dimension]
     const v = readValue(typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x, dims, inp.name)
     if (!v.ok) return bad(v.error.code, v.error.message, inp.name)
     num[inp.name] = v.value.value
@@ -320,7 +325,7 @@ export function parseDuctInputs(device: DuctDevice, raw: unknown): Parsed<DuctIn
           ? { heatLossRate: num.heatLoss }
           : { heatLoss: num.heatLoss }
         : {}),
-      ...(shape !== undefined ? { shape: shape as NozzleShape } : {}),
+      ...(shape !== undefined ? { shape } : {}),
     },
   }
 }

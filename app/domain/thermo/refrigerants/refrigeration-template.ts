@@ -11,7 +11,7 @@ import { isRecord } from '../json.ts'
 import { CONVENTIONS } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
-import type { TemplateInput } from '../templates/types.ts'
+import type { DimensionInput } from '../templates/types.ts'
 import type { Dimension, Quantity } from '../units.ts'
 import { REFRIGERANT_IDS, getRefrigerant } from './index.ts'
 import { TON_OF_REFRIGERATION, solveVapourCompression } from './vapour-compression.ts'
@@ -26,14 +26,15 @@ import type { FormattedCascade, FormattedTwoStage } from './multi-stage-template
 import type { SaturationGiven, VapourCompressionInput, VapourCompressionResult } from './vapour-compression.ts'
 
 const q = (value: number, unit: string): Quantity => ({ value, unit })
-const opt = (
-  name: string,
-  dimension: TemplateInput['dimension'],
-  unit: string,
-  description: string,
-): TemplateInput => ({ name, dimension, unit, description, required: false })
+const opt = (name: string, dimension: Dimension, unit: string, description: string): DimensionInput => ({
+  name,
+  dimension,
+  unit,
+  description,
+  required: false,
+})
 
-export const VAPOUR_COMPRESSION_INPUTS: readonly TemplateInput[] = [
+export const VAPOUR_COMPRESSION_INPUTS: readonly DimensionInput[] = [
   {
     name: 'refrigerant',
     dimension: 'dimensionless',
@@ -232,7 +233,7 @@ export function parseVapourCompressionInputs(raw: unknown): Parsed {
     const inp = VAPOUR_COMPRESSION_INPUTS.find((i) => i.name === name)!
     const v = readValue(
       typeof r[name] === 'number' && inp.dimension === 'dimensionless' ? String(r[name]) : r[name],
-      [inp.dimension as Dimension],
+      [inp.dimension],
       name,
     )
     if (!v.ok) return v

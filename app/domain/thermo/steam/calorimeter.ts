@@ -16,8 +16,8 @@ import { isRecord } from '../json.ts'
 import { CONVENTIONS, isConvention } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
-import type { TemplateInput } from '../templates/types.ts'
-import type { Dimension, Quantity } from '../units.ts'
+import type { DimensionInput } from '../templates/types.ts'
+import type { Quantity } from '../units.ts'
 import { fail, ok } from './errors.ts'
 import type { SteamError, SteamResult } from './errors.ts'
 import { STEAM_LIMITS, saturationAtP, stateFromPT, stateFromPx } from './properties.ts'
@@ -61,7 +61,9 @@ const kPa = (p: number) => `${+(p / 1000).toPrecision(6)} kPa`
 
 /** Quality of wet line steam from a throttling calorimeter. Never throws. */
 export function solveThrottlingCalorimeter(input: CalorimeterInput): SteamResult<CalorimeterResult> {
-  const { linePressure: p1, calorimeterPressure: p2, calorimeterTemperature: T2 } = input ?? ({} as CalorimeterInput)
+  // No input at all (a caller from JSON): every field is missing, and refused below as not a finite number.
+  const given = input ?? { linePressure: NaN, calorimeterPressure: NaN, calorimeterTemperature: NaN }
+  const { linePressure: p1, calorimeterPressure: p2, calorimeterTemperature: T2 } = given
   for (const [name, v] of [
     ['linePressure', p1],
     ['calorimeterPressure', p2],
@@ -128,34 +130,36 @@ export function solveThrottlingCalorimeter(input: CalorimeterInput): SteamResult
 
 // --- spec template ------------------------------------------------------------------------------
 
+const CALORIMETER_INPUTS: readonly DimensionInput[] = [
+  {
+    name: 'linePressure',
+    dimension: 'pressure',
+    unit: 'MPa',
+    description: 'pressure of the wet steam in the line (below 22.064 MPa)',
+    required: true,
+  },
+  {
+    name: 'calorimeterPressure',
+    dimension: 'pressure',
+    unit: 'kPa',
+    description: 'pressure in the calorimeter after the throttle (below the line pressure)',
+    required: true,
+  },
+  {
+    name: 'calorimeterTemperature',
+    dimension: 'temperature',
+    unit: '°C or K',
+    description: 'temperature read in the calorimeter (must be above the saturation temperature there)',
+    required: true,
+  },
+]
+
 export const CALORIMETER_TEMPLATE = {
   id: 'steam-throttling-calorimeter',
   title: 'Throttling calorimeter: quality of wet steam (water/steam, IAPWS-IF97)',
   description:
     'A sample of wet line steam is throttled (h constant) into a calorimeter where it is superheated; its pressure and temperature fix h, and the line quality is x = (h − h_f) / h_fg at the line pressure. Refused when the calorimeter steam is not superheated.',
-  inputs: [
-    {
-      name: 'linePressure',
-      dimension: 'pressure',
-      unit: 'MPa',
-      description: 'pressure of the wet steam in the line (below 22.064 MPa)',
-      required: true,
-    },
-    {
-      name: 'calorimeterPressure',
-      dimension: 'pressure',
-      unit: 'kPa',
-      description: 'pressure in the calorimeter after the throttle (below the line pressure)',
-      required: true,
-    },
-    {
-      name: 'calorimeterTemperature',
-      dimension: 'temperature',
-      unit: '°C or K',
-      description: 'temperature read in the calorimeter (must be above the saturation temperature there)',
-      required: true,
-    },
-  ] as readonly TemplateInput[],
+  inputs: CALORIMETER_INPUTS,
 } as const
 
 export function isCalorimeterTemplate(id: unknown): boolean {
@@ -248,7 +252,7 @@ export function solveCalorimeterTemplate(
             property: inp.name,
           },
         }
-      const v = readValue(x, [inp.dimension as Dimension], inp.name)
+      const v = readValue(x, [inp.dimension], inp.name)
       if (!v.ok) return v
       num[inp.name] = v.value.value
     }

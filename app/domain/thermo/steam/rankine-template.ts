@@ -18,7 +18,7 @@ import { isRecord } from '../json.ts'
 import { CONVENTIONS, isConvention } from '../conventions.ts'
 import type { Convention, ConventionStatement } from '../conventions.ts'
 import { readValue } from '../spec.ts'
-import type { TemplateInput } from '../templates/types.ts'
+import type { DimensionInput } from '../templates/types.ts'
 import type { Dimension, Quantity } from '../units.ts'
 import { solveSteamPlant } from './plant.ts'
 import type { FeedwaterHeaterInput, PlantInput, PlantResult } from './plant.ts'
@@ -27,28 +27,28 @@ import type { RankineInput, RankineResult } from './rankine.ts'
 
 const q = (value: number, unit: string): Quantity => ({ value, unit })
 
-const BOILER: TemplateInput = {
+const BOILER: DimensionInput = {
   name: 'boilerPressure',
   dimension: 'pressure',
   unit: 'MPa',
   description: 'boiler (high) pressure; pump exit and turbine inlet',
   required: true,
 }
-const CONDENSER: TemplateInput = {
+const CONDENSER: DimensionInput = {
   name: 'condenserPressure',
   dimension: 'pressure',
   unit: 'kPa',
   description: 'condenser (low) pressure; the condenser exit is saturated liquid',
   required: true,
 }
-const T_IN: TemplateInput = {
+const T_IN: DimensionInput = {
   name: 'turbineInletTemperature',
   dimension: 'temperature',
   unit: '°C or K',
   description: 'turbine inlet temperature (omit for saturated vapour at the boiler pressure)',
   required: false,
 }
-const X_IN: TemplateInput = {
+const X_IN: DimensionInput = {
   name: 'turbineInletQuality',
   dimension: 'dimensionless',
   unit: '',
@@ -56,48 +56,48 @@ const X_IN: TemplateInput = {
     'turbine inlet quality 0 < x <= 1 for wet steam leaving the boiler (instead of turbineInletTemperature; below the critical pressure)',
   required: false,
 }
-const ETA_P: TemplateInput = {
+const ETA_P: DimensionInput = {
   name: 'pumpEfficiency',
   dimension: 'dimensionless',
   unit: '',
   description: 'pump isentropic efficiency, 0 < eta <= 1 (default 1), e.g. "0.85" or "85 %"',
   required: false,
 }
-const ETA_T: TemplateInput = {
+const ETA_T: DimensionInput = {
   name: 'turbineEfficiency',
   dimension: 'dimensionless',
   unit: '',
   description: 'turbine isentropic efficiency, 0 < eta <= 1 (default 1), applied to each turbine section',
   required: false,
 }
-const RH_P: TemplateInput = {
+const RH_P: DimensionInput = {
   name: 'reheatPressure',
   dimension: 'pressure',
   unit: 'MPa',
   description: 'pressure at which the steam leaves the high-pressure turbine and is reheated',
   required: true,
 }
-const RH_T: TemplateInput = {
+const RH_T: DimensionInput = {
   name: 'reheatTemperature',
   dimension: 'temperature',
   unit: '°C or K',
   description: 'temperature after reheating (low-pressure turbine inlet)',
   required: true,
 }
-const FWH_P: TemplateInput = {
+const FWH_P: DimensionInput = {
   name: 'feedwaterHeaterPressure',
   dimension: 'pressure',
   unit: 'MPa',
   description: 'pressure of the one open feedwater heater (steam bled from the turbine; heater exit saturated liquid)',
   required: true,
 }
-const opt = (i: TemplateInput): TemplateInput => ({ ...i, required: false })
+const opt = (i: DimensionInput): DimensionInput => ({ ...i, required: false })
 
 export interface RankineTemplate {
   readonly id: string
   readonly title: string
   readonly description: string
-  readonly inputs: readonly TemplateInput[]
+  readonly inputs: readonly DimensionInput[]
 }
 
 export const RANKINE_TEMPLATES: readonly RankineTemplate[] = [
@@ -127,7 +127,7 @@ export const RANKINE_TEMPLATES: readonly RankineTemplate[] = [
 /** One input of a steam-plant template: a quantity, or the list of feedwater heaters. */
 export interface PlantTemplateInput {
   readonly name: string
-  readonly dimension: TemplateInput['dimension'] | 'heater list'
+  readonly dimension: Dimension | 'heater list'
   readonly unit: string
   readonly description: string
   readonly required: boolean
@@ -218,7 +218,7 @@ function parseHeaters(raw: unknown): { ok: true; value: FeedwaterHeaterInput[] }
   const out: FeedwaterHeaterInput[] = []
   const keys = new Set(['kind', 'pressure', 'ttd', 'drains', 'name'])
   for (let i = 0; i < raw.length; i++) {
-    const h = raw[i] as unknown
+    const h: unknown = raw[i]
     const where = `heaters.${i}`
     if (!isRecord(h))
       return {
@@ -355,7 +355,7 @@ export function parsePlantInputs(id: string, raw: unknown): { ok: true; value: P
     }
     const v = readValue(
       typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x,
-      [inp.dimension as Dimension],
+      [inp.dimension],
       inp.name,
     )
     if (!v.ok) return v
@@ -452,7 +452,7 @@ export function parseRankineInputs(id: string, raw: unknown): { ok: true; value:
     }
     const v = readValue(
       typeof x === 'number' && inp.dimension === 'dimensionless' ? String(x) : x,
-      [inp.dimension as Dimension],
+      [inp.dimension],
       inp.name,
     )
     if (!v.ok) return v
@@ -545,7 +545,7 @@ export interface FormattedHeater {
 }
 
 function isPlant(r: RankineResult): r is PlantResult {
-  return 'heaters' in r && Array.isArray((r as PlantResult).heaters)
+  return 'heaters' in r && Array.isArray(r.heaters)
 }
 
 /** JSON-ready result in one convention; quantities as { value, unit } in SI. */

@@ -26,6 +26,17 @@ export interface TemplateInput {
   readonly required: boolean
 }
 
+/** An input read as a quantity of one dimension, so its readers need no other kind. */
+export interface DimensionInput extends TemplateInput {
+  readonly dimension: Dimension
+}
+
+/** The gas of a template (a preset id or constants), read by parseGas rather than as a quantity. */
+export interface GasInput extends TemplateInput {
+  readonly name: 'gas'
+  readonly dimension: 'gas'
+}
+
 /** Parsed, numeric template inputs (SI, per unit amount of the gas's basis). */
 export interface TemplateValues {
   readonly gas: Gas
