@@ -11,6 +11,8 @@
  *   their reference states at 298.15 K have h = 0) and s is the third-law entropy at 1 bar.
  * Differences, which is what a cycle uses, do not depend on that choice.
  */
+import type { ConstantCpInternals } from './constant-cp.ts'
+
 export type Basis = 'mole' | 'mass'
 
 export interface Gas {
@@ -47,4 +49,9 @@ export interface Gas {
   readonly Tmax: number
   /** Where the numbers come from, for the output. */
   readonly source: string
+  /**
+   * Constant-cp gases (makeConstantCp): the constants they were made from, so a slip can rebuild
+   * one with a changed constant. A gas spread from one ({ ...gas, … }) carries them along too.
+   */
+  readonly internals?: ConstantCpInternals
 }

@@ -4,7 +4,6 @@
  */
 import { T_REF } from '../constants.ts'
 import { makeConstantCp } from './constant-cp.ts'
-import type { ConstantCpInternals } from './constant-cp.ts'
 import type { Gas } from './gas.ts'
 
 /**
@@ -29,7 +28,7 @@ export function swapCpCv(gas: Gas): Gas {
 
 /** γ of the other kind of gas: a monatomic gas treated as diatomic (cv = 5/2 R) or the reverse. null if neither. */
 export function swapMonatomicDiatomic(gas: Gas): Gas | null {
-  const internals = (gas as Gas & { internals?: ConstantCpInternals }).internals
+  const internals = gas.internals
   if (!gas.constantCp || !internals) return null
   const k = gas.gamma(300)
   let cv: number
@@ -41,7 +40,7 @@ export function swapMonatomicDiatomic(gas: Gas): Gas | null {
 
 /** log10 wherever the solver takes a logarithm by hand (isothermal work, entropy terms). */
 export function withLog10(gas: Gas): Gas {
-  const internals = (gas as Gas & { internals?: ConstantCpInternals }).internals
+  const internals = gas.internals
   if (internals) return makeConstantCp({ ...internals, ln: Math.log10 })
   return { ...gas, ln: Math.log10 }
 }
