@@ -14,7 +14,7 @@ import type { Gas } from './gas.ts'
 export function swapCpCv(gas: Gas): Gas {
   const R = gas.R
   return {
-    ...gas,
+    ...withoutInternals(gas),
     id: `${gas.id}~cp-cv-swapped`,
     cp: gas.cv,
     cv: gas.cp,
@@ -24,6 +24,16 @@ export function swapCpCv(gas: Gas): Gas {
     TfromU: gas.TfromH,
     sT: (T) => gas.sT(T) - R * gas.ln(T / T_REF),
   }
+}
+
+/**
+ * The gas without the constants it was built from: a slipped gas is no longer what those
+ * constants describe, so a second slip that rebuilds from them (withLog10, the γ swap) must
+ * not quietly undo the first.
+ */
+function withoutInternals(gas: Gas): Gas {
+  const { internals: _built, ...rest } = gas
+  return rest
 }
 
 /** γ of the other kind of gas: a monatomic gas treated as diatomic (cv = 5/2 R) or the reverse. null if neither. */
@@ -59,7 +69,7 @@ export function switchBasisNumbers(gas: Gas): Gas | null {
 
 function scaleGas(gas: Gas, f: number): Gas {
   return {
-    ...gas,
+    ...withoutInternals(gas),
     id: `${gas.id}~basis-switched`,
     R: gas.R * f,
     cp: (T) => f * gas.cp(T),
