@@ -10,6 +10,7 @@
 import type { CheckRule, PitfallId, Tolerance } from '#app/domain/grading/index.ts'
 import type { SigFigRule } from '#app/domain/grading/sig-figs.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
 import type { BankSolution } from '#app/domain/thermo/solve-spec.ts'
 import { upgradeLegacyPrompt } from './placeholder-syntax.ts'
 
@@ -29,8 +30,8 @@ export const OLDEST_DEFINITION_FORMAT = 1 as const
  * and physics are never touched, so a variant's numbers and key stay the same. Pure.
  */
 export function upgradeDefinition(raw: unknown): unknown {
-  if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) return raw
-  const doc = raw as Record<string, unknown>
+  if (!isRecord(raw)) return raw
+  const doc = raw
   if (doc.format !== 1) return raw
   return { ...doc, format: 2, ...(typeof doc.prompt === 'string' ? { prompt: upgradeLegacyPrompt(doc.prompt) } : {}) }
 }

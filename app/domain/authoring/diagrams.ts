@@ -42,6 +42,7 @@ import {
   isCalorimeterSolution,
   isCombinedSolution,
   isIdealGasSolution,
+  isRankineSolution,
   isRefrigerationSolution,
   isTwoStageSolution,
   isCascadeSolution,
@@ -667,7 +668,8 @@ export function cycleDiagrams(solution: BankSolution): CycleDiagrams {
     if (isCalorimeterSolution(solution)) return calorimeterDiagrams(solution)
     if (isSteamCycleSolution(solution)) return steamCycleDiagrams(solution)
     if (isSteadyFlowSolution(solution)) return flowDiagrams(solution) // open path (flow-diagrams.ts)
-    return rankineDiagrams(solution as FormattedRankine)
+    if (isRankineSolution(solution)) return rankineDiagrams(solution)
+    return emptyDiagrams()
   } catch {
     return emptyDiagrams()
   }

@@ -11,7 +11,7 @@
 import katex from 'katex'
 import MarkdownIt from 'markdown-it'
 import type { MarkdownIt as MarkdownItInstance, StateBlock, StateInline } from 'markdown-it'
-import { isRecord } from '../thermo/json.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
 import type { DrawnGiven } from './definition.ts'
 import {
   expandPlaceholders,

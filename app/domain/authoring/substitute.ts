@@ -5,6 +5,7 @@
  * "100 kPa abs"). Unknown names are left as they are: lintDefinition reports them. Pure.
  */
 import type { Convention } from '#app/domain/thermo/index.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
 import type { DrawnGiven, ProblemDefinition } from './definition.ts'
 
 /** `@{name}`, with optional spaces inside the braces. */
@@ -33,8 +34,8 @@ function substituteDeep(x: unknown, byName: ReadonlyMap<string, DrawnGiven>): un
  * `steamCycle` object of a spec file (system, mass, states, steps; docs/steam.md).
  */
 function waterCycle(cycle: unknown): Record<string, unknown> | null {
-  if (cycle === null || typeof cycle !== 'object' || Array.isArray(cycle)) return null
-  const { substance, ...rest } = cycle as Record<string, unknown>
+  if (!isRecord(cycle)) return null
+  const { substance, ...rest } = cycle
   return substance === 'water' ? rest : null
 }
 

@@ -11,6 +11,7 @@ import type { FormattedRefrigeration } from '#app/domain/thermo/refrigerants/ref
 import type { FormattedRankine } from '#app/domain/thermo/steam/rankine-template.ts'
 import type { FormattedCalorimeter } from '#app/domain/thermo/steam/calorimeter.ts'
 import type { FormattedSteamCycle } from '#app/domain/thermo/steam/steam-cycle.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
 import type { DrawResult, DrawnGiven, ProblemDefinition, SweepFailure, SweepSummary } from './definition.ts'
 import { drawGivens, formatNumber } from './givens.ts'
 import {
@@ -157,7 +158,7 @@ function steamPlantProblems(sol: FormattedRankine): Problem[] {
 function refrigerationProblems(sol: FormattedRefrigeration, spec: Readonly<Record<string, unknown>>): Problem[] {
   const out = stateProblems(sol.states)
   const t = sol.totals
-  const purpose = (spec.inputs as { purpose?: unknown } | undefined)?.purpose
+  const purpose = isRecord(spec.inputs) ? spec.inputs.purpose : undefined
   const heatPump = purpose === 'heat pump' || purpose === 'heat-pump'
   // The solver states the Carnot COP for the purpose; a heat pump's is the refrigerator's + 1.
   const carnotR = heatPump ? t.carnotCop.value - 1 : t.carnotCop.value
