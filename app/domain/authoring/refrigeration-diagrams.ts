@@ -29,6 +29,7 @@ import type { FormattedRefrigeration } from '#app/domain/thermo/refrigerants/ref
 import type { RefrigerantId } from '#app/domain/thermo/refrigerants/types.ts'
 import type { Curve, CycleDiagrams, Plot } from './diagram-plot.ts'
 import { LIN, axes, cleanCurve, finite, pin, positive, straight, type Pair, type Scale } from './diagram-math.ts'
+import { hasLength } from './tuple.ts'
 
 /** A state along a curve, SI: Pa, K, J/kg, J/(kg K), m³/kg. */
 export interface RefrigerantPoint {
@@ -382,13 +383,17 @@ function singleStageCurves(
   ]
 }
 
+/** A refrigerant the tables know (the cascade names one per state, as text). */
+function isRefrigerantId(id: string): id is RefrigerantId {
+  return REFRIGERANT_IDS.some((r) => r === id)
+}
+
 /** The three diagrams of a vapour-compression cycle; null when its states are not the solver's four. */
 export function refrigerationDiagrams(sol: FormattedRefrigeration): CycleDiagrams | null {
   const raw = labelled(sol.states)
-  if (!raw || raw.length !== 4) return null
+  if (!raw || !hasLength(raw, 4)) return null
   const f = refrigerantOf(sol.substance)
-  const four = raw as [Labelled, Labelled, Labelled, Labelled]
-  return plotsFor(f, fluidNameOf(sol.substance), raw, singleStageCurves(f, four))
+  return plotsFor(f, fluidNameOf(sol.substance), raw, singleStageCurves(f, raw))
 }
 
 /**
@@ -400,18 +405,8 @@ export function refrigerationDiagrams(sol: FormattedRefrigeration): CycleDiagram
  */
 export function twoStageDiagrams(sol: FormattedTwoStage): CycleDiagrams | null {
   const raw = labelled(sol.states)
-  if (!raw || raw.length !== 9 || raw.some((r, i) => r.label !== String(i + 1))) return null
-  const [s1, s2, s3, s4, s5, s6, s7, s8, s9] = raw as [
-    Labelled,
-    Labelled,
-    Labelled,
-    Labelled,
-    Labelled,
-    Labelled,
-    Labelled,
-    Labelled,
-    Labelled,
-  ]
+  if (!raw || !hasLength(raw, 9) || raw.some((r, i) => r.label !== String(i + 1))) return null
+  const [s1, s2, s3, s4, s5, s6, s7, s8, s9] = raw
   const f = refrigerantOf(sol.substance)
   const curves: Built[] = [
     compressorCurve(f, s1, s2, 'low-stage compressor'),
@@ -436,12 +431,13 @@ export function twoStageDiagrams(sol: FormattedTwoStage): CycleDiagrams | null {
  */
 export function cascadeDiagrams(sol: FormattedCascade): CycleDiagrams | null {
   const raw = labelled(sol.states)
-  if (!raw || raw.length !== 8) return null
-  const lowerStates = raw.slice(0, 4) as [Labelled, Labelled, Labelled, Labelled]
-  const upperStates = raw.slice(4) as [Labelled, Labelled, Labelled, Labelled]
+  if (!raw || !hasLength(raw, 8)) return null
+  const [r1, r2, r3, r4, r5, r6, r7, r8] = raw
+  const lowerStates = [r1, r2, r3, r4] as const
+  const upperStates = [r5, r6, r7, r8] as const
   const fluid = (i: number) => {
     const id = sol.states[i]!.refrigerant
-    return (REFRIGERANT_IDS as readonly string[]).includes(id) ? getRefrigerant(id as RefrigerantId) : null
+    return isRefrigerantId(id) ? getRefrigerant(id) : null
   }
   const fl = fluid(0)
   const fu = fluid(4)

@@ -23,7 +23,8 @@ import { formatNumber, texEscape } from '../placeholders.ts'
 import { refrigerantOf } from '../refrigeration-diagrams.ts'
 import type { WorkedLine, WorkedSection } from './types.ts'
 import { WORKED_SIG_FIGS } from './types.ts'
-import { n4, pressureText, q4, snap, sub } from './common.ts'
+import { n4, pressureText, q4, snap, specInputs, sub } from './common.ts'
+import { hasLength } from '../tuple.ts'
 import type { Symbols } from './common.ts'
 import { refrigerantStateLine, shortSource } from './refrigeration.ts'
 
@@ -136,25 +137,15 @@ function carnotLine(TL: number, carnot: number): WorkedLine | null {
 // ---- Two-stage compression with a flash chamber ----------------------------------------------
 
 export function twoStageSections(sol: FormattedTwoStage, variant: Variant, sym: Symbols): WorkedSection[] {
-  const parsed = parseTwoStageInputs((variant.spec as { inputs?: unknown }).inputs ?? {})
+  const parsed = parseTwoStageInputs(specInputs(variant))
   const f: Refrigerant | null = parsed.ok ? parsed.value.refrigerant : refrigerantOf(sol.substance)
   const etaL = parsed.ok ? (parsed.value.lowStageEfficiency ?? 1) : null
   const etaH = parsed.ok ? (parsed.value.highStageEfficiency ?? 1) : null
   const fluidName = fluidNameOf(sol.substance)
   const refrigerant = { title: 'Refrigerant', lines: fluidLines([{ what: '', f, name: sol.substance }]) }
   const st = sol.states
-  if (st.length !== 9) return [refrigerant, { title: `States (${fluidName})`, lines: st.map(refrigerantStateLine) }]
-  const [s1, s2, s3, s4, s5, s6, s7, s8, s9] = st as unknown as readonly [
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-  ]
+  if (!hasLength(st, 9)) return [refrigerant, { title: `States (${fluidName})`, lines: st.map(refrigerantStateLine) }]
+  const [s1, s2, s3, s4, s5, s6, s7, s8, s9] = st
   const t = sol.totals
   const x6 = t.flashVapourFraction.value
   const m = t.lowToHighMassRatio.value
@@ -307,7 +298,7 @@ function cycleStateLines(
 }
 
 export function cascadeSections(sol: FormattedCascade, variant: Variant, sym: Symbols): WorkedSection[] {
-  const parsed = parseCascadeInputs((variant.spec as { inputs?: unknown }).inputs ?? {})
+  const parsed = parseCascadeInputs(specInputs(variant))
   const fl = parsed.ok ? parsed.value.lowerRefrigerant : null
   const fu = parsed.ok ? parsed.value.upperRefrigerant : null
   const etaB = parsed.ok ? (parsed.value.lowerEfficiency ?? 1) : null
@@ -322,17 +313,8 @@ export function cascadeSections(sol: FormattedCascade, variant: Variant, sym: Sy
     ]),
   }
   const st = sol.states
-  if (st.length !== 8) return [refrigerants, { title: 'States', lines: st.map(refrigerantStateLine) }]
-  const [s1, s2, s3, s4, s5, s6, s7, s8] = st as unknown as readonly [
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-    FormattedState,
-  ]
+  if (!hasLength(st, 8)) return [refrigerants, { title: 'States', lines: st.map(refrigerantStateLine) }]
+  const [s1, s2, s3, s4, s5, s6, s7, s8] = st
   const t = sol.totals
   const ratio = t.massFlowRatio.value
   const QL = sym.Q('L')
