@@ -6,6 +6,7 @@
  * plant's totals. Every number comes from the solution. Pure.
  */
 import type { FormattedCombined } from '#app/domain/thermo/combined/combined-template.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
 import type { Variant } from '../definition.ts'
 import type { WorkedLine, WorkedSection } from './types.ts'
 import { snap, sub, pressureTex, n4, q4, par } from './common.ts'
@@ -20,8 +21,8 @@ const E = (x: number) => q4(snap(x, 1e3) / 1000, 'kJ/kg')
  * turbine efficiencies from the spec's inputs, which the combined template names its own way.
  */
 function bottomingVariant(variant: Variant): Variant {
-  const raw = (variant.spec as { inputs?: unknown }).inputs
-  const inputs = raw !== null && typeof raw === 'object' ? (raw as Readonly<Record<string, unknown>>) : {}
+  const raw = variant.spec.inputs
+  const inputs: Readonly<Record<string, unknown>> = isRecord(raw) ? raw : {}
   const pick: Record<string, unknown> = {}
   const map: [string, string][] = [
     ['boilerPressure', 'boilerPressure'],

@@ -2,6 +2,8 @@
 import type { Convention } from '#app/domain/thermo/index.ts'
 import { CONVENTIONS, parseCycleSpec, parseTemplateInputs, templates } from '#app/domain/thermo/index.ts'
 import type { CycleSpec } from '#app/domain/thermo/cycle.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
+import type { Variant } from '../definition.ts'
 import { formatNumber, texEscape, withUnit } from '../placeholders.ts'
 import { symbolTex } from '../quantities.ts'
 import type { WorkedLine, WorkedSection } from './types.ts'
@@ -105,13 +107,18 @@ export function conventionSection(
 
 // ---- The spec behind a solution (for n, η, ε and the gas) ----------------------------
 
+/** The spec's `inputs` as the solver was given them, unparsed ({} when absent): each template's parser checks them. */
+export function specInputs(variant: Pick<Variant, 'spec'>): unknown {
+  return variant.spec.inputs ?? {}
+}
+
 export function cycleSpecOf(spec: Readonly<Record<string, unknown>>): CycleSpec | null {
   try {
     if (typeof spec.template === 'string') {
       const t = templates[spec.template]
       const inputs = spec.inputs
-      if (!t || typeof inputs !== 'object' || inputs === null) return null
-      const parsed = parseTemplateInputs(t.inputs, inputs as Record<string, unknown>)
+      if (!t || !isRecord(inputs)) return null
+      const parsed = parseTemplateInputs(t.inputs, inputs)
       if (!parsed.ok) return null
       const built = t.build(parsed.value)
       return built.ok ? built.spec : null

@@ -46,7 +46,7 @@ function expressionTex(
 }
 
 function isSymbolNode(n: MathNode): n is MathNode & { name: string } {
-  return (n as { type?: string }).type === 'SymbolNode'
+  return n.type === 'SymbolNode'
 }
 
 export function keySection(variant: Variant, def: ProblemDefinition): WorkedSection {

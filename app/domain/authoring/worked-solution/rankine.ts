@@ -6,7 +6,7 @@ import { type Variant } from '../definition.ts'
 import { formatNumber, texEscape } from '../placeholders.ts'
 import type { WorkedLine, WorkedSection } from './types.ts'
 import { WORKED_SIG_FIGS } from './types.ts'
-import { snap, sub, pressureText, pressureTex, n4, q4 } from './common.ts'
+import { snap, sub, pressureText, pressureTex, n4, q4, specInputs } from './common.ts'
 import type { Symbols } from './common.ts'
 import { isSteamPlant } from '../steam-plant-layout.ts'
 import { bleedSymbol, plantDeviceLines } from './steam-plant.ts'
@@ -83,7 +83,7 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
   const turbineExit = path.at(-1)
   if (!turbineExit || !turbineExit.description.startsWith('turbine exit')) return null
 
-  const inputs = parseRankineInputs(sol.template, (variant.spec as { inputs?: unknown }).inputs ?? {})
+  const inputs = parseRankineInputs(sol.template, specInputs(variant))
   const etaP = inputs.ok ? (inputs.value.pumpEfficiency ?? 1) : null
   const etaT = inputs.ok ? (inputs.value.turbineEfficiency ?? 1) : null
   const n = (s: FormattedRankineState) => sub(s.name)
@@ -214,7 +214,7 @@ function rankineDeviceLines(sol: FormattedRankine, variant: Variant, sym: Symbol
 
 /** A steam plant's device lines (./steam-plant.ts) with the efficiencies read from the variant's spec. */
 function plantLines(sol: FormattedRankine, variant: Variant, sym: Symbols): WorkedLine[] | null {
-  const inputs = parsePlantInputs(sol.template, (variant.spec as { inputs?: unknown }).inputs ?? {})
+  const inputs = parsePlantInputs(sol.template, specInputs(variant))
   return plantDeviceLines(sol, sym, {
     pump: inputs.ok ? (inputs.value.pumpEfficiency ?? 1) : null,
     turbine: inputs.ok ? (inputs.value.turbineEfficiency ?? 1) : null,

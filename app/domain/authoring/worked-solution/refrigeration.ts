@@ -7,7 +7,7 @@ import { formatNumber, texEscape } from '../placeholders.ts'
 import { refrigerantOf } from '../refrigeration-diagrams.ts'
 import type { WorkedLine, WorkedSection } from './types.ts'
 import { WORKED_SIG_FIGS } from './types.ts'
-import { snap, sub, pressureText, pressureTex, n4, q4 } from './common.ts'
+import { snap, sub, pressureText, pressureTex, n4, q4, specInputs } from './common.ts'
 import type { Symbols } from './common.ts'
 
 // ---- Vapour-compression cycles ------------------------------------------------------
@@ -35,7 +35,7 @@ export function refrigerantStateLine(s: FormattedRefrigeration['states'][number]
 export function refrigerationSections(sol: FormattedRefrigeration, variant: Variant, sym: Symbols): WorkedSection[] {
   const E = (x: number) => q4(snap(x, 1e3) / 1000, 'kJ/kg')
   const kJ = (x: number) => n4(x / 1000)
-  const parsed = parseVapourCompressionInputs((variant.spec as { inputs?: unknown }).inputs ?? {})
+  const parsed = parseVapourCompressionInputs(specInputs(variant))
   const f: Refrigerant | null = parsed.ok ? parsed.value.refrigerant : refrigerantOf(sol.substance)
   const eta = parsed.ok ? (parsed.value.compressorEfficiency ?? 1) : null
   const heatPump = parsed.ok && parsed.value.purpose === 'heat-pump'

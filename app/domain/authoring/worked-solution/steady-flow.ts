@@ -22,7 +22,7 @@ import { type Variant } from '../definition.ts'
 import { formatNumber, texEscape } from '../placeholders.ts'
 import type { WorkedLine, WorkedSection } from './types.ts'
 import { WORKED_SIG_FIGS } from './types.ts'
-import { n4, par, pressureText, pressureTex, q4, snap, sub } from './common.ts'
+import { n4, par, pressureText, pressureTex, q4, snap, specInputs, sub } from './common.ts'
 import type { Symbols } from './common.ts'
 
 const kJ = (x: number) => n4(snap(x, 1e3) / 1000)
@@ -50,7 +50,7 @@ function forceTex(n: number): string {
 
 /** The gas of the variant, read from its spec as the solver read it; null if it does not parse. */
 function flowGasOf(variant: Variant, template: FormattedFlow['template']): FlowGas | null {
-  const inputs = (variant.spec as { inputs?: unknown }).inputs ?? {}
+  const inputs = specInputs(variant)
   const p = template === 'turbojet' ? parseTurbojetInputs(inputs) : parseDuctInputs(template, inputs)
   return p.ok ? p.value.gas : null
 }
@@ -279,7 +279,7 @@ function ductSections(sol: FormattedDuct, variant: Variant, sym: Symbols): Worke
 
 function turbojetSections(sol: FormattedTurbojet, variant: Variant, sym: Symbols): WorkedSection[] {
   const g = flowGasOf(variant, 'turbojet')
-  const inputs = (variant.spec as { inputs?: unknown }).inputs ?? {}
+  const inputs = specInputs(variant)
   const parsed = parseTurbojetInputs(inputs)
   const eff = {
     d: parsed.ok ? (parsed.value.diffuserEfficiency ?? 1) : 1,
