@@ -117,7 +117,7 @@ export interface FormattedSolution {
   readonly amount: Quantity | null
   /** the dead state of the exergies (T0, p0), or null: no exergy outputs without one */
   readonly deadState: { readonly T: Quantity; readonly p: Quantity } | null
-  /** flow cycles: mass or molar flow rate, or null */
+  /** mass or molar rate through the cycle (a flow cycle's flow, a piston cycle's gas per second), or null */
   readonly flowRate: Quantity | null
   readonly states: readonly FormattedState[]
   readonly steps: readonly FormattedStep[]

@@ -85,7 +85,10 @@ export interface CycleSpec {
   readonly reservoirs?: { readonly hot?: number; readonly cold?: number }
   /** Dead state (surroundings) for exergy: T0 in K, p0 in Pa. Without it there are no exergy outputs. */
   readonly deadState?: { readonly T: number; readonly p: number }
-  /** Flow cycles: the flow rate of the gas in its basis per second (mol/s or kg/s), for powers and rates. */
+  /**
+   * The gas through the cycle per second in its basis (mol/s or kg/s), for powers and rates: the
+   * flow of a steady-flow cycle, or for a piston cycle the gas taken through it each second.
+   */
   readonly flowRate?: number
   /** Original texts of givens, keyed 'p1', 'T3', 'v2', 'V1', for error messages. */
   readonly labels?: Readonly<Record<string, string>>
@@ -208,7 +211,7 @@ export interface CycleSolution {
   readonly totals: CycleTotals
   /** the dead state used for exergy (T0 K, p0 Pa), or null */
   readonly deadState: { readonly T: number; readonly p: number } | null
-  /** flow cycles: mol/s or kg/s (gas.basis), or null; rates are the per-unit values times it */
+  /** mol/s or kg/s (gas.basis) through the cycle, flow or piston, or null; rates are the per-unit values times it */
   readonly flowRate: number | null
   /** Never fatal: things a reader should know about the result (a regenerator working the wrong way, negative s_gen). */
   readonly warnings: readonly SolveWarning[]

@@ -1,9 +1,9 @@
 // Rankine templates for spec files: { "template": "rankine" | "rankine-reheat" |
 // "rankine-regenerative" | "rankine-feedwater" | "rankine-cogeneration", "inputs": { ...
 // strings with units ... }, "convention"?: ... }. The last two (steam plants with a list of
-// feedwater heaters, and cogeneration; solved by ./plant.ts) take a heater list, which the
-// editor's one-value-per-input form cannot show, so they are kept in STEAM_PLANT_TEMPLATES
-// rather than RANKINE_TEMPLATES (the catalog's list); isRankineTemplate and
+// feedwater heaters, and cogeneration; solved by ./plant.ts) take a heater list (the editor
+// shows it as rows, components/problem-editor/heater-list-input.tsx), and are kept in
+// STEAM_PLANT_TEMPLATES rather than RANKINE_TEMPLATES; isRankineTemplate and
 // solveRankineTemplate cover both lists.
 // Inputs are read once with the shared unit reader (../spec.ts readValue, as the ideal-gas
 // templates do), then solved by solveRankine; the output is JSON-ready with every quantity
