@@ -1,7 +1,7 @@
 import { expect, test } from 'vitest'
 import { readQuantity, solveSpec } from '#app/domain/thermo/index.ts'
 import type { Find, FindSource, Given, Physics, ProblemDefinition, ProblemConvention, Variant } from './definition.ts'
-import { drawVariant, resolveConvention } from './variant.ts'
+import { drawVariant, resolveConvention, solverErrorPath } from './variant.ts'
 
 const find = (name: string, source: FindSource, unit: string, extra: Partial<Find> = {}): Find => ({
   name,
@@ -426,3 +426,25 @@ test.each(['engineering', 'chemistry'] as const)(
     }
   },
 )
+
+test('a solver refusal about one heater is placed on that heater’s field, not on the whole list', () => {
+  const physics: Physics = {
+    kind: 'template',
+    template: 'rankine-feedwater',
+    inputs: {
+      boilerPressure: '10 MPa',
+      condenserPressure: '10 kPa',
+      turbineInletTemperature: '500 °C',
+      heaters: [
+        { kind: 'open', pressure: '0.4 MPa' },
+        { kind: 'closed', pressure: '2 MPa' },
+      ],
+    },
+  }
+  expect(solverErrorPath(physics, 'heaters.1.pressure')).toBe('physics.inputs.heaters.1.pressure')
+  expect(solverErrorPath(physics, 'heaters.0')).toBe('physics.inputs.heaters.0')
+  expect(solverErrorPath(physics, 'heaters.7.pressure')).toBe('physics.inputs.heaters')
+  expect(solverErrorPath(physics, 'heaters')).toBe('physics.inputs.heaters')
+  expect(solverErrorPath(physics, 'boilerPressure')).toBe('physics.inputs.boilerPressure')
+  expect(solverErrorPath(physics, 'nothingLikeThis')).toBe('physics')
+})

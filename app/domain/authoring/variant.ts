@@ -12,6 +12,7 @@ import { resolveExpectedUnit } from '#app/domain/grading/units.ts'
 import type { Convention } from '#app/domain/thermo/index.ts'
 import { readQuantity, solveBankSpec } from '#app/domain/thermo/index.ts'
 import type { BankSolution } from '#app/domain/thermo/solve-spec.ts'
+import { isRecord } from '#app/domain/thermo/json.ts'
 import type { DrawResult, DrawnGiven, Find, KeyEntry, Physics, ProblemDefinition, VariantError } from './definition.ts'
 import { describeCompileError, drawGivens, givenScope, isNumericGiven, toScopeValue } from './givens.ts'
 import { senseFactor } from './sense.ts'
@@ -123,9 +124,16 @@ function compileFinds(def: ProblemDefinition): readonly CompiledFind[] {
 export function solverErrorPath(physics: Physics, property: string | undefined): string {
   if (physics.kind === 'cycle') return 'physics.cycle'
   const inputs: unknown = physics.inputs
-  if (property === undefined || typeof inputs !== 'object' || inputs === null) return 'physics'
+  if (property === undefined || !isRecord(inputs)) return 'physics'
   const input = property.split('.')[0]!
-  return input !== '' && Object.hasOwn(inputs, input) ? `physics.inputs.${input}` : 'physics'
+  if (input === '' || !Object.hasOwn(inputs, input)) return 'physics'
+  // A row of a list input (a heater: 'heaters.1.pressure') is named down to the row's field,
+  // so the editor marks that row rather than the whole list.
+  const row = /^[^.]+\.(\d{1,2})(?:\.([A-Za-z]+))?$/.exec(property)
+  const list = inputs[input]
+  if (row && Array.isArray(list) && Number(row[1]) < list.length)
+    return `physics.inputs.${input}.${row[1]}${row[2] ? `.${row[2]}` : ''}`
+  return `physics.inputs.${input}`
 }
 
 /** Capitalised, unless it opens with a name the author typed ("compressionRatio", "gas.basis", "steps[1].q"). */
