@@ -434,6 +434,7 @@ export function parseCycleSpec(raw: unknown, slips: Slips = {}): Parsed<CycleSpe
     // The one assertion left: the PASSED_ON fields go to the solver as the author wrote them (it
     // checks side; device, path, expectHeat and label it reads as they are). Checking them here
     // would change which message a bad spec gets, so their type is taken on trust.
+    // eslint-disable-next-line @typescript-eslint/consistent-type-assertions -- see the comment above
     steps.push(out as StepSpec)
   }
   let reservoirs: { hot?: number; cold?: number } | undefined
