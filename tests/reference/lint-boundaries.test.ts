@@ -53,3 +53,23 @@ test('a background job may use the server and the domain', async () => {
     ),
   ).toEqual([])
 })
+
+test.each([
+  ['app/server/_probe.ts', 'export const f = (x: unknown) => x as string\n'],
+  ['app/domain/grading/_probe.ts', 'export const f = (x: unknown) => x as unknown as number\n'],
+  ['app/routes/_probe.tsx', 'export const f = (x: unknown) => (x as { a: 1 }).a\n'],
+  ['jobs/handlers/_probe.ts', 'export const f = (x: unknown) => <string>x\n'],
+])('production code may not assert a type (%s)', async (file, code) => {
+  expect(await problems(file, code)).toContain(
+    '@typescript-eslint/consistent-type-assertions: Do not use any type assertions.',
+  )
+})
+
+test('`as const`, and an assertion in a test file, are allowed', async () => {
+  expect(await problems('app/domain/thermo/_probe.ts', "export const KINDS = ['open', 'closed'] as const\n")).toEqual(
+    [],
+  )
+  expect(await problems('app/domain/thermo/_probe.test.ts', 'export const f = (x: unknown) => x as string\n')).toEqual(
+    [],
+  )
+})
