@@ -87,7 +87,12 @@ export function EditorForm({
           <input type="hidden" id={fieldId('_basedOn')} name="_basedOn" value={values._basedOn} />
         ) : null}
         <BasicsSection kit={kit} />
-        <PromptSection kit={kit} state={state} draftDefinition={draftDefinition} hydrated={hydrated} />
+        <PromptSection
+          kit={kit}
+          state={state}
+          draftGivens={hydrated ? (draft?.givens ?? null) : null}
+          hydrated={hydrated}
+        />
         <GivensSection kit={kit} state={state} hydrated={hydrated} removeButton={removeButton} />
         <ConstraintsSection kit={kit} rows={rows} removeButton={removeButton} />
         <PhysicsSection kit={kit} state={state} options={options} hydrated={hydrated} datalistId={datalistId} />

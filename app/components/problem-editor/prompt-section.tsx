@@ -1,23 +1,18 @@
 import { href } from 'react-router'
 import { useRef, useState } from 'react'
-import type { ProblemDefinition } from '#app/domain/authoring/definition.ts'
 import { placeholderText } from '#app/domain/authoring/placeholder-syntax.ts'
 import { cn } from '#app/lib/cn.ts'
 import { fieldId, type EditorState } from '#app/lib/problem-form.ts'
 import { inputClass, type FieldKit } from './fields.tsx'
 
 /** The givens the prompt can name: from the draft with JavaScript, else as the page was served. */
-function nameableGivens(draftDefinition: ProblemDefinition | null, { values, rows }: EditorState) {
+function nameableGivens(draftGivens: readonly { name: string; label: string }[] | null, { values, rows }: EditorState) {
   return (
-    draftDefinition && Array.isArray(draftDefinition.givens)
-      ? draftDefinition.givens.map((g) => ({
-          name: typeof g?.name === 'string' ? g.name : '',
-          label: typeof g?.label === 'string' ? g.label : '',
-        }))
-      : Array.from({ length: rows.givens }, (_, i) => ({
-          name: (values[`givens.${i}.name`] ?? '').trim(),
-          label: (values[`givens.${i}.label`] ?? '').trim(),
-        }))
+    draftGivens ??
+    Array.from({ length: rows.givens }, (_, i) => ({
+      name: (values[`givens.${i}.name`] ?? '').trim(),
+      label: (values[`givens.${i}.label`] ?? '').trim(),
+    }))
   ).filter((g) => /^[A-Za-z][A-Za-z0-9_]{0,31}$/.test(g.name))
 }
 
@@ -29,12 +24,13 @@ function nameableGivens(draftDefinition: ProblemDefinition | null, { values, row
 export function PromptSection({
   kit,
   state,
-  draftDefinition,
+  draftGivens,
   hydrated,
 }: {
   kit: FieldKit
   state: EditorState
-  draftDefinition: ProblemDefinition | null
+  /** the givens as typed, with JavaScript; null before the first draft (then the served form's) */
+  draftGivens: readonly { name: string; label: string }[] | null
   hydrated: boolean
 }) {
   const { v, describedBy, invalid, hasError, labelled } = kit
@@ -51,7 +47,7 @@ export function PromptSection({
     area.dispatchEvent(new Event('input', { bubbles: true }))
     setInserted(`Inserted ${text} into the prompt.`)
   }
-  const promptGivens = nameableGivens(draftDefinition, state)
+  const promptGivens = nameableGivens(draftGivens, state)
   return (
     <section aria-labelledby="prompt-title" className="rounded-lg border border-line bg-white p-6 shadow-sm">
       <h2 id="prompt-title" className="text-xl font-semibold">

@@ -14,12 +14,22 @@ export interface EditorDraft {
   /** The draft as a definition once it reads as one (the problem schema); null while it does not. */
   readonly definition: ProblemDefinition | null
   readonly visibility: string
+  /** The givens as typed (name and label), read from the draft even while it does not yet parse. */
+  readonly givens: readonly { readonly name: string; readonly label: string }[]
 }
 
 /**
  * Reads the form into a draft once on mount and again a moment after the author stops
  * typing (`scheduleDraft`, wired to the form's input and change events).
  */
+function typedGivens(draft: unknown): { name: string; label: string }[] {
+  if (!isRecord(draft) || !Array.isArray(draft.givens)) return []
+  return draft.givens.filter(isRecord).map((g) => ({
+    name: typeof g.name === 'string' ? g.name : '',
+    label: typeof g.label === 'string' ? g.label : '',
+  }))
+}
+
 export function useDraft(formRef: RefObject<HTMLFormElement | null>) {
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined)
   const [draft, setDraft] = useState<EditorDraft | null>(null)
@@ -34,6 +44,7 @@ export function useDraft(formRef: RefObject<HTMLFormElement | null>) {
       formIssues,
       definition: parsed.ok ? parsed.value : null,
       visibility,
+      givens: typedGivens(d),
     })
   }, [formRef])
   function scheduleDraft() {
